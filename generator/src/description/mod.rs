@@ -1,0 +1,1 @@
+//! Reading arm description files (TOML) into the canonical [`Model`](crate::model::Model).

@@ -1,0 +1,60 @@
+//! The canonical model of an arm: SI units, joint axes in the base frame at zero.
+//!
+//! Every description convention (`dh`, `modified-dh`, `axes`) is converted into this one
+//! shape, so classification and solving never depend on how the file placed its frames.
+
+use armforge_runtime::{Joint, Pose};
+
+use crate::diagnostics::Location;
+use crate::units::Units;
+
+/// One joint of the model, with what a person needs to recognise it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ModelJoint {
+    /// The joint as the runtime uses it (SI units).
+    pub joint: Joint,
+    /// The name from the file, or `joint N`.
+    pub name: String,
+    /// Where the joint's table starts in the file.
+    pub location: Location,
+}
+
+/// An arm, in SI units, independent of the file's convention.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Model {
+    /// The arm's name (a valid Rust identifier after `-` → `_`).
+    pub name: String,
+    /// Free text from the file.
+    pub description: Option<String>,
+    /// The file's units, for reporting.
+    pub units: Units,
+    /// Joints from base to tool.
+    pub joints: Vec<ModelJoint>,
+    /// The tool frame in the base frame with every model value at zero.
+    pub tool: Pose,
+    /// The base frame in the world frame.
+    pub base: Pose,
+    /// The path of the description file, as given.
+    pub source_path: String,
+}
+
+impl Model {
+    /// The runtime joints, base to tool.
+    pub fn runtime_joints(&self) -> Vec<Joint> {
+        self.joints.iter().map(|j| j.joint).collect()
+    }
+
+    /// Forward kinematics in SI units: the world pose of the tool frame.
+    pub fn forward(&self, joint_values: &[f64]) -> Pose {
+        armforge_runtime::forward(&self.runtime_joints(), &self.base, &self.tool, joint_values)
+    }
+
+    /// The joint's label for messages: `joint 3 ("elbow")`, 1-based.
+    pub fn joint_label(&self, index: usize) -> String {
+        let default = format!("joint {}", index + 1);
+        match self.joints.get(index) {
+            Some(j) if j.name != default => format!("joint {} (\"{}\")", index + 1, j.name),
+            _ => default,
+        }
+    }
+}

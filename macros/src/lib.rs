@@ -1,0 +1,1 @@
+//! Proc macro that emits an armforge solver at compile time (filled in by the solver work).

@@ -1,0 +1,1 @@
+//! Shared helpers for armforge's workspace integration tests.
