@@ -34,7 +34,9 @@ pub(crate) fn check(source: &mut Source, description: &Description) {
 
 fn joint_count(source: &mut Source, description: &Description) {
     let n = description.joints.len();
-    if n == 0 {
+    if description.joints_malformed {
+        // Already reported where `joint` was read.
+    } else if n == 0 {
         source.report(
             &description.joints_span,
             "joint",
@@ -159,7 +161,7 @@ pub(crate) fn rotation_problem(r: &[[f64; 3]; 3]) -> Option<String> {
     let det = determinant(r);
     if worst > ROTATION_TOLERANCE {
         Some(format!(
-            "the rows are not orthonormal: the largest entry of R·Rᵀ − I is {:e} (tolerance {ROTATION_TOLERANCE:e}); determinant {}",
+            "the rows are not orthonormal: the largest entry of R·Rᵀ − I is {:.3e} (tolerance {ROTATION_TOLERANCE:e}); determinant {}",
             worst,
             tidy(det)
         ))
