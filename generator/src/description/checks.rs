@@ -93,7 +93,7 @@ fn axis(source: &mut Source, joint: &JointEntry, convention: Option<Convention>,
     }
     if let Some(axis) = &joint.axis {
         let [x, y, z] = axis.value;
-        if (x * x + y * y + z * z).sqrt() <= f64::MIN_POSITIVE {
+        if x == 0.0 && y == 0.0 && z == 0.0 {
             let message = format!(
                 "the axis [{}, {}, {}] has zero length; give its direction",
                 tidy(x),
