@@ -48,11 +48,8 @@ fn the_flange_sits_where_the_comments_say() {
     let model = load_str(&starting_description("starter", Convention::Dh), "s.toml").unwrap();
     let pose = model.forward(&[0.0; 6]);
     let expected = [0.52, 0.0, 0.79];
-    for r in 0..3 {
-        assert!(
-            (pose.translation[r] - expected[r]).abs() < 1e-12,
-            "{pose:?}"
-        );
+    for (got, want) in pose.translation.iter().zip(expected) {
+        assert!((got - want).abs() < 1e-12, "{pose:?}");
     }
     assert!((pose.rotation[0][2] - 1.0).abs() < 1e-12, "{pose:?}");
 }
