@@ -12,5 +12,8 @@
 pub mod classify;
 pub mod description;
 pub mod diagnostics;
+pub mod emit;
 pub mod model;
+pub mod plan;
+pub mod solver;
 pub mod units;
