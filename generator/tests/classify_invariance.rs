@@ -1,0 +1,114 @@
+//! Classification must not depend on where the arm stands or how its frames were written:
+//! the same arm moved rigidly at random, re-described (axis points slid along their axes, axis
+//! directions flipped with their joint's sign) or given another base pose classifies the same,
+//! with the same evidence within 1e-9 (metres, radians).
+
+mod classify_support;
+
+use armforge_generator::classify::{classify, Tolerances};
+use armforge_runtime::Pose;
+use classify_support::{
+    arms, assert_same_numbers, invariant_numbers, moved, redescribed, rng, Motion,
+};
+
+const SAMPLES: usize = 25;
+
+#[test]
+fn rigid_motion_keeps_class_and_evidence() {
+    let mut rng = rng(0x5eed_0001);
+    for (name, model) in arms::solvable() {
+        let g = classify(&model, &Tolerances::default()).expect(name);
+        let numbers = invariant_numbers(&model, &g);
+        for _ in 0..SAMPLES {
+            let m = Motion::random(&mut rng);
+            let model2 = moved(&model, &m);
+            let g2 = classify(&model2, &Tolerances::default())
+                .unwrap_or_else(|e| panic!("{name} moved: {e}"));
+            assert_eq!(g.family, g2.family, "{name}");
+            assert_same_numbers(&numbers, &invariant_numbers(&model2, &g2), 1e-9);
+            // The wrist center moves with the arm.
+            let expected = m.point(g.wrist_center);
+            for (got, want) in g2.wrist_center.iter().zip(expected) {
+                assert!((got - want).abs() < 1e-9, "{name}");
+            }
+        }
+    }
+}
+
+#[test]
+fn redescription_keeps_class_and_evidence() {
+    let mut rng = rng(0x5eed_0002);
+    for (name, model) in arms::solvable() {
+        let g = classify(&model, &Tolerances::default()).expect(name);
+        let numbers = invariant_numbers(&model, &g);
+        for _ in 0..SAMPLES {
+            let model2 = redescribed(&model, &mut rng);
+            let g2 = classify(&model2, &Tolerances::default())
+                .unwrap_or_else(|e| panic!("{name} re-described: {e}"));
+            assert_eq!(g.family, g2.family, "{name}");
+            assert_same_numbers(&numbers, &invariant_numbers(&model2, &g2), 1e-9);
+            for i in 0..3 {
+                assert!(
+                    (g2.wrist_center[i] - g.wrist_center[i]).abs() < 1e-9,
+                    "{name}"
+                );
+            }
+        }
+    }
+}
+
+#[test]
+fn base_pose_alone_changes_nothing() {
+    for (name, model) in arms::solvable() {
+        let g = classify(&model, &Tolerances::default()).expect(name);
+        let mut wall = model.clone();
+        // Mounted on a wall: base z along the world x, 1.5 m up.
+        wall.base = Pose {
+            rotation: [[0.0, 0.0, 1.0], [0.0, 1.0, 0.0], [-1.0, 0.0, 0.0]],
+            translation: [0.0, 0.0, 1.5],
+        };
+        assert_eq!(
+            classify(&wall, &Tolerances::default()).expect(name),
+            g,
+            "{name}"
+        );
+    }
+}
+
+#[test]
+fn rejections_do_not_move_either() {
+    let mut rng = rng(0x5eed_0003);
+    let rejected = [
+        ("offset wrist", arms::offset_wrist(0.02)),
+        ("three parallel", arms::three_parallel()),
+        ("degenerate wrist", arms::degenerate_wrist()),
+        ("first three meet", arms::first_three_meet()),
+        ("tilted axis 3", arms::tilted_axis_3(0.2)),
+        ("general 6R", arms::general_six_revolute()),
+    ];
+    for (name, model) in rejected {
+        let e = classify(&model, &Tolerances::default()).expect_err(name);
+        for _ in 0..SAMPLES {
+            let model2 = moved(&model, &Motion::random(&mut rng));
+            let e2 = classify(&model2, &Tolerances::default()).expect_err(name);
+            assert_eq!(e.reason.kind(), e2.reason.kind(), "{name}");
+            assert_eq!(e.notes, e2.notes, "{name}");
+            assert_eq!(e.joint, e2.joint, "{name}");
+            let (a, b) = (e.reason.measures(), e2.reason.measures());
+            for ((ka, qa), (_, qb)) in a.iter().zip(&b) {
+                let diff = match (qa, qb) {
+                    (
+                        armforge_generator::classify::reject::Quantity::Length(x),
+                        armforge_generator::classify::reject::Quantity::Length(y),
+                    )
+                    | (
+                        armforge_generator::classify::reject::Quantity::Angle(x),
+                        armforge_generator::classify::reject::Quantity::Angle(y),
+                    ) => (x - y).abs(),
+                    _ => 0.0,
+                };
+                assert!(diff < 1e-9, "{name} {ka}: {qa:?} vs {qb:?}");
+            }
+        }
+    }
+}
