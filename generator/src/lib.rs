@@ -13,4 +13,5 @@ pub mod classify;
 pub mod description;
 pub mod diagnostics;
 pub mod model;
+pub mod scaffold;
 pub mod units;
