@@ -128,7 +128,9 @@ impl<'a> Context<'a> {
     }
 
     /// The families, in general terms, that an arm whose wrist is not spherical belongs to.
-    pub fn notes_without_wrist(&self) -> Vec<Note> {
+    /// `general` allows the general-6R note (not for a degenerate wrist, whose trouble is the
+    /// missing orientation, not the missing closed form).
+    pub fn notes_without_wrist(&self, general: bool) -> Vec<Note> {
         let mut notes: Vec<Note> = (1..=JOINTS - 2)
             .filter(|&first| self.three_parallel(first))
             .map(|first| Note::ThreeParallelAxes { first })
@@ -138,7 +140,7 @@ impl<'a> Context<'a> {
         }
         let all_revolute = (1..=JOINTS).all(|n| self.revolute(n));
         let any_meet = (1..=JOINTS - 2).any(|first| self.three_meet(first));
-        if notes.is_empty() && all_revolute && !any_meet {
+        if general && notes.is_empty() && all_revolute && !any_meet {
             notes.push(Note::GeneralSixRevolute);
         }
         notes

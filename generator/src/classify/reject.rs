@@ -351,10 +351,10 @@ fn describe_note(model: &Model, note: &Note) -> String {
              closed form exists (Pieper 1968), but for these joints 1–3 it needs a quartic, \
              which armforge does not build yet"
             .to_string(),
-        Note::GeneralSixRevolute => "with six revolute joints and no point where three \
-             consecutive axes meet, this is the general 6R problem: up to 16 solutions \
-             (Raghavan & Roth 1990), found numerically or by polynomial elimination, not in \
-             closed form by decoupling"
+        Note::GeneralSixRevolute => "six revolute joints with no three consecutive axes meeting \
+             in a point and no three consecutive parallel axes: armforge knows no closed form \
+             for such an arm; in general it has up to 16 solutions (Raghavan & Roth 1990), \
+             found numerically or by polynomial elimination"
             .to_string(),
     }
 }

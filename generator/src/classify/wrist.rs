@@ -41,7 +41,7 @@ pub fn analyse(ctx: &Context) -> Result<WristEvidence, Rejection> {
         return Err(ctx.reject(
             Reason::WristJointNotRevolute { joint },
             joint,
-            ctx.notes_without_wrist(),
+            ctx.notes_without_wrist(true),
         ));
     }
     for (first, second) in [(4, 5), (5, 6)] {
@@ -52,7 +52,7 @@ pub fn analyse(ctx: &Context) -> Result<WristEvidence, Rejection> {
                 angle: ctx.angle(first, second),
                 distance: ctx.gap(first, second),
             };
-            let notes = ctx.notes_without_wrist();
+            let notes = ctx.notes_without_wrist(false);
             return Err(ctx.reject(reason, second, notes));
         }
     }
@@ -62,7 +62,7 @@ pub fn analyse(ctx: &Context) -> Result<WristEvidence, Rejection> {
         let reason = Reason::WristAxesNotConcurrent {
             miss: f64::INFINITY,
         };
-        return Err(ctx.reject(reason, 6, ctx.notes_without_wrist()));
+        return Err(ctx.reject(reason, 6, ctx.notes_without_wrist(true)));
     };
     if meeting.miss > ctx.tol.distance {
         return Err(reject_miss(ctx, gaps, meeting.miss));
@@ -77,7 +77,7 @@ fn reject_miss(ctx: &Context, gaps: [f64; 3], miss: f64) -> Rejection {
             (0, gaps[0]),
             |best, (i, &g)| if g > best.1 { (i, g) } else { best },
         );
-    let notes = ctx.notes_without_wrist();
+    let notes = ctx.notes_without_wrist(true);
     if gap > ctx.tol.distance {
         let (first, second) = pairs[worst];
         let reason = Reason::WristAxesMiss {
