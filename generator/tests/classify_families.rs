@@ -290,3 +290,37 @@ fn oblique_cartesian() {
         "out of plane",
     );
 }
+
+/// Kinematic decoupling (Pieper 1968; Craig, Introduction to Robotics, 3rd ed., 2005, §4):
+/// joints 4, 5, 6 of an accepted arm never move the wrist center. Checked with the runtime's
+/// forward kinematics (product of exponentials) at a spread of joint values.
+#[test]
+fn accepted_wrist_centers_stay_put_under_joints_4_to_6() {
+    for (name, m) in classify_support::arms::solvable() {
+        let g = ok(&m);
+        for k in 0..50 {
+            let q = [
+                0.37 * k as f64,
+                -1.3 + 0.11 * k as f64,
+                2.9 - 0.23 * k as f64,
+            ];
+            let t = joint_motion(&m.joints[3].joint, q[0])
+                .compose(&joint_motion(&m.joints[4].joint, q[1]))
+                .compose(&joint_motion(&m.joints[5].joint, q[2]));
+            let moved = t.transform_point(&g.wrist_center);
+            for i in 0..3 {
+                assert!((moved[i] - g.wrist_center[i]).abs() < 1e-12, "{name}");
+            }
+        }
+    }
+    // And on the offset wrist (axis 6 20 mm beside the point where axes 4 and 5 cross),
+    // turning joint 6 does move that point: decoupling fails there.
+    let m = classify_support::arms::offset_wrist(0.02);
+    let t = joint_motion(&m.joints[5].joint, 1.0);
+    let c = [0.4, 0.0, 0.75];
+    let moved = t.transform_point(&c);
+    assert!(
+        (moved[1] - c[1]).abs() > 1e-3,
+        "axis 6 misses the point, so turning it moves it"
+    );
+}

@@ -112,3 +112,26 @@ fn rejections_do_not_move_either() {
         }
     }
 }
+
+/// The starting description `armforge new` writes, in its three conventions (standard DH,
+/// modified DH, joint axes), is one arm: it classifies the same with the same evidence.
+#[test]
+fn three_conventions_classify_the_same() {
+    use armforge_generator::description::load_str;
+    use armforge_generator::scaffold::{starting_description, Convention};
+    let mut reference: Option<(armforge_generator::classify::Family, Vec<(String, f64)>)> = None;
+    for convention in [Convention::Dh, Convention::ModifiedDh, Convention::Axes] {
+        let text = starting_description("starter", convention);
+        let model = load_str(&text, "starter.toml").expect("the starting description loads");
+        let g = classify(&model, &Tolerances::default())
+            .unwrap_or_else(|e| panic!("{convention:?}: {e}"));
+        let numbers = invariant_numbers(&model, &g);
+        match &reference {
+            None => reference = Some((g.family, numbers)),
+            Some((family, expected)) => {
+                assert_eq!(*family, g.family, "{convention:?}");
+                assert_same_numbers(expected, &numbers, 1e-9);
+            }
+        }
+    }
+}
