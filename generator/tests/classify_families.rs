@@ -308,8 +308,8 @@ fn accepted_wrist_centers_stay_put_under_joints_4_to_6() {
                 .compose(&joint_motion(&m.joints[4].joint, q[1]))
                 .compose(&joint_motion(&m.joints[5].joint, q[2]));
             let moved = t.transform_point(&g.wrist_center);
-            for i in 0..3 {
-                assert!((moved[i] - g.wrist_center[i]).abs() < 1e-12, "{name}");
+            for (a, b) in moved.iter().zip(g.wrist_center) {
+                assert!((a - b).abs() < 1e-12, "{name}");
             }
         }
     }
