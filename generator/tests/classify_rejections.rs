@@ -267,3 +267,77 @@ fn overriding_the_tolerance_accepts_a_small_offset() {
     };
     assert!(classify(&m, &generous).is_ok());
 }
+
+/// Whatever lines a file gives, classification answers (a geometry or a located rejection)
+/// and never panics: random kinds, axes, points, joint counts and a few broken numbers.
+#[test]
+fn random_arms_never_panic() {
+    use rand::Rng;
+    let mut rng = classify_support::rng(0x5eed_0004);
+    let specials = [0.0, f64::NAN, f64::INFINITY, -f64::INFINITY, 1e300, 1e-300];
+    let mut solvable = 0;
+    for _ in 0..3000 {
+        let count = if rng.random_bool(0.5) {
+            6
+        } else {
+            rng.random_range(0..9)
+        };
+        let mut pick = |rng: &mut rand::rngs::StdRng| -> f64 {
+            if rng.random_bool(0.03) {
+                specials[rng.random_range(0..specials.len())]
+            } else if rng.random_bool(0.3) {
+                // Axis-aligned values make parallel and meeting lines common.
+                f64::from(rng.random_range(-1i32..=1))
+            } else {
+                rng.random_range(-1.0..1.0)
+            }
+        };
+        let lines: Vec<classify_support::Line> = (0..count)
+            .map(|_| {
+                let axis = [pick(&mut rng), pick(&mut rng), pick(&mut rng)];
+                let point = [pick(&mut rng), pick(&mut rng), pick(&mut rng)];
+                let kind = if rng.random_bool(0.25) {
+                    armforge_runtime::JointKind::Prismatic
+                } else {
+                    armforge_runtime::JointKind::Revolute
+                };
+                classify_support::Line {
+                    kind,
+                    axis,
+                    point,
+                    limits: [pick(&mut rng), pick(&mut rng)],
+                }
+            })
+            .collect();
+        let mut lines = lines;
+        if count == 6 && rng.random_bool(0.7) {
+            // Give it a spherical wrist, and often axis 3 parallel to axis 2.
+            let c = [pick(&mut rng), pick(&mut rng), pick(&mut rng)];
+            for line in &mut lines[3..] {
+                line.kind = armforge_runtime::JointKind::Revolute;
+                line.point = c;
+            }
+            if rng.random_bool(0.5) {
+                lines[2].axis = lines[1].axis;
+            }
+        }
+        let model = classify_support::arm(&lines, [pick(&mut rng), pick(&mut rng), 0.3]);
+        match classify(&model, &Tolerances::default()) {
+            Ok(g) => {
+                solvable += 1;
+                assert!(g.wrist_center.iter().all(|x| x.is_finite()));
+                let report = armforge_generator::classify::report::build(
+                    &model,
+                    &Tolerances::default(),
+                    &Ok(g),
+                );
+                assert!(report.to_text().contains("family: "));
+            }
+            Err(e) => {
+                assert!(e.to_string().starts_with("error: test.toml:"), "{e}");
+            }
+        }
+    }
+    // Enough of them are solvable that the report is exercised too.
+    assert!(solvable > 100, "{solvable} of 3000 random arms solvable");
+}
