@@ -282,7 +282,7 @@ fn random_arms_never_panic() {
         } else {
             rng.random_range(0..9)
         };
-        let mut pick = |rng: &mut rand::rngs::StdRng| -> f64 {
+        let pick = |rng: &mut rand::rngs::StdRng| -> f64 {
             if rng.random_bool(0.03) {
                 specials[rng.random_range(0..specials.len())]
             } else if rng.random_bool(0.3) {
