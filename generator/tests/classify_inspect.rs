@@ -6,7 +6,7 @@
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
-use armforge_generator::classify::{classify, report, Tolerances};
+use armforge_generator::classify::{classify, report, Family, Tolerances};
 use armforge_generator::description::load_str;
 use armforge_generator::model::Model;
 
@@ -55,15 +55,27 @@ fn snapshot_name(path: &str) -> String {
 
 #[test]
 fn every_example_arm_classifies() {
+    let mut families = std::collections::BTreeSet::new();
     for (path, text) in arm_files("") {
         let model = load(&path, &text);
         let result = classify(&model, &Tolerances::default());
-        if let Err(e) = &result {
-            panic!("{path} should be solvable:\n{e}");
-        }
+        match &result {
+            Ok(g) => families.insert(g.family),
+            Err(e) => panic!("{path} should be solvable:\n{e}"),
+        };
         let report = report::build(&model, &Tolerances::default(), &result);
         insta::assert_snapshot!(snapshot_name(&path), report.to_text());
     }
+    // The examples show every family.
+    assert_eq!(
+        families.into_iter().collect::<Vec<_>>(),
+        [
+            Family::Elbow,
+            Family::Polar,
+            Family::Cylindrical,
+            Family::Cartesian
+        ]
+    );
 }
 
 #[test]

@@ -474,12 +474,16 @@ fn wrist_items(u: &Units, g: &Geometry) -> Vec<Item> {
     ]
 }
 
+/// A joint value for a model value, in the file's units, marked when the joint's limits keep
+/// the arm from getting there.
 fn joint_value(model: &Model, index: usize, model_value: f64) -> String {
     let Some(j) = model.joints.get(index) else {
         return tidy(model_value);
     };
     let q = j.joint.joint_value(model_value);
-    match j.joint.kind {
+    let [lo, hi] = j.joint.limits;
+    let inside = |x: f64| x >= lo && x <= hi;
+    let (shown, reachable) = match j.joint.kind {
         JointKind::Revolute => {
             // Wrapped into (−π, π]: a half turn reads as +180°.
             let turn = 2.0 * std::f64::consts::PI;
@@ -489,9 +493,15 @@ fn joint_value(model: &Model, index: usize, model_value: f64) -> String {
             } else {
                 w
             };
-            model.units.show_angle(wrapped)
+            let reachable = (-2..=2).any(|k| inside(wrapped + f64::from(k) * turn));
+            (model.units.show_angle(wrapped), reachable)
         }
-        JointKind::Prismatic => model.units.show_length(q),
+        JointKind::Prismatic => (model.units.show_length(q), inside(q)),
+    };
+    if reachable {
+        shown
+    } else {
+        format!("{shown} (outside the joint's limits)")
     }
 }
 
