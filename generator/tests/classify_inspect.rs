@@ -100,7 +100,7 @@ fn every_rejected_arm_is_rejected_with_a_located_numeric_reason() {
         );
         assert!(shown.chars().any(|c| c.is_ascii_digit()), "{shown}");
         assert!(!e.reason.kind().is_empty());
-        let report = report::build(&model, &Tolerances::default(), &result);
+        let report = report::build(&model, &Tolerances::default(), &result).with_source(&text);
         insta::assert_snapshot!(snapshot_name(&path), report.to_text());
     }
 }

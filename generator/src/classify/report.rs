@@ -83,6 +83,8 @@ pub struct Rejected {
     pub measured: Vec<Item>,
     /// Other families the arm belongs to.
     pub notes: Vec<String>,
+    /// The offending line of the file, when the report was given the file's text.
+    pub source_line: Option<String>,
 }
 
 /// The outcome of classification.
@@ -306,6 +308,7 @@ fn rejected(u: &Units, r: &Rejection) -> Rejected {
         joint: r.joint,
         measured,
         notes: r.note_texts.clone(),
+        source_line: None,
     }
 }
 
@@ -641,6 +644,19 @@ fn items_text(out: &mut String, items: &[Item]) {
 }
 
 impl Report {
+    /// Adds the offending line of `source` (the description file's text) to a rejection, so
+    /// the text report can show it under the message.
+    pub fn with_source(mut self, source: &str) -> Self {
+        if let Outcome::Rejected(r) = &mut self.outcome {
+            r.source_line = r
+                .line
+                .checked_sub(1)
+                .and_then(|i| source.lines().nth(i))
+                .map(|l| l.trim_end().to_string());
+        }
+        self
+    }
+
     /// The report as text for people.
     pub fn to_text(&self) -> String {
         let mut out = String::new();
@@ -715,6 +731,12 @@ fn rejected_text(out: &mut String, r: &Rejected) {
         "no decoupled closed form: {}:{}:{}: {}",
         r.path, r.line, r.column, r.message
     );
+    if let Some(source) = &r.source_line {
+        let gutter = r.line.to_string().len();
+        let _ = writeln!(out, "{:gutter$} |", "");
+        let _ = writeln!(out, "{} | {source}", r.line);
+        let _ = writeln!(out, "{:gutter$} | {:>col$}", "", "^", col = r.column.max(1));
+    }
     for note in &r.notes {
         let _ = writeln!(out, "  note: {note}");
     }

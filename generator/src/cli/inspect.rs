@@ -9,6 +9,11 @@ use armforge_generator::description;
 
 /// Arguments of `armforge inspect`.
 #[derive(clap::Args, Debug)]
+#[command(
+    after_help = "Exit status: 0 for an arm armforge can solve (kinematic decoupling at a \
+    spherical wrist), 3 for a geometry with no decoupled closed form (the report says why and \
+    where), 2 for a file that cannot be read or is not a valid description."
+)]
 pub struct Args {
     /// The arm description file.
     pub arm: std::path::PathBuf,
@@ -53,7 +58,10 @@ pub fn run(args: Args) -> ExitCode {
         }
     };
     let result = classify::classify(&model, &tolerances);
-    let report = report::build(&model, &tolerances, &result);
+    let mut report = report::build(&model, &tolerances, &result);
+    if let Ok(text) = std::fs::read_to_string(&args.arm) {
+        report = report.with_source(&text);
+    }
     if args.json {
         match serde_json::to_string_pretty(&report) {
             Ok(text) => println!("{text}"),
