@@ -135,7 +135,13 @@ fn unsupported_pattern() {
             pattern: "P R R".into()
         }
     );
-    assert_eq!(e.joint, Some(1));
+    // P R R: joint 2 is where it leaves the only pattern starting with P (P P P).
+    assert_eq!(e.joint, Some(2));
+    // R P R: joint 3 is where it leaves the cylindrical pattern (R P P).
+    let mut m = arms::plain_elbow();
+    m.joints[1].joint.kind = armforge_runtime::JointKind::Prismatic;
+    let e = reject(&m);
+    assert_eq!(e.joint, Some(3), "{e}");
 }
 
 #[test]

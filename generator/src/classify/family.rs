@@ -22,7 +22,10 @@ pub fn decide(ctx: &Context, center: &Point3<f64>) -> Result<Family, Rejection> 
                 .map(|&k| kind_letter(k).to_string())
                 .collect::<Vec<_>>()
                 .join(" ");
-            let first_odd = if kinds[0] == P { 1 } else { 2 };
+            // The first joint at which the pattern leaves every family's pattern.
+            let families = [[R, R, R], [R, R, P], [R, P, P], [P, P, P]];
+            let matching = |n: usize| families.iter().any(|f| f[..n] == kinds[..n]);
+            let first_odd = (1..=3).find(|&n| !matching(n)).unwrap_or(3);
             Err(ctx.reject(
                 Reason::UnsupportedPattern { pattern },
                 first_odd,

@@ -457,6 +457,18 @@ fn wrist_items(u: &Units, g: &Geometry) -> Vec<Item> {
             "largest distance of the wrist center from axes 4, 5, 6",
             w.miss,
         ),
+        Item {
+            key: "gaps",
+            label: "common normals of axes 4–5, 5–6 and 4–6 (how far each pair passes apart)"
+                .into(),
+            value: json!(w.gaps.map(|g| clean(u.length_from_si(g)))),
+            shown: w
+                .gaps
+                .iter()
+                .map(|&g| u.show_length(g))
+                .collect::<Vec<_>>()
+                .join(", "),
+        },
         angle_item(u, "angle_4_5", "angle between axes 4 and 5", w.angle_4_5),
         angle_item(u, "angle_5_6", "angle between axes 5 and 6", w.angle_5_6),
         Item {
