@@ -108,6 +108,7 @@ fn every_rejected_arm_is_rejected_with_a_located_numeric_reason() {
 #[test]
 fn json_reports() {
     for path in [
+        "arms/bench-elbow-dh.toml",
         "arms/rejected/offset-wrist.toml",
         "arms/rejected/five-joints.toml",
     ] {
