@@ -145,6 +145,8 @@ pub fn signed_angle_about(
 
 #[cfg(test)]
 mod tests {
+    //! Expected values are worked by hand from elementary analytic geometry (common normal of
+    //! two lines, perpendicular distance, angle from the dot and cross products).
     use super::*;
 
     fn line(p: [f64; 3], d: [f64; 3]) -> Line {

@@ -90,6 +90,7 @@ fn plane_min(w: &Vector3<f64>, v: [&Vector3<f64>; 2], ranges: [[f64; 2]; 2]) -> 
 
 #[cfg(test)]
 mod tests {
+    //! Expected values are worked by hand (Pythagoras on the given boxes and lines).
     use super::*;
 
     #[test]
