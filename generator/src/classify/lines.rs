@@ -190,6 +190,26 @@ mod tests {
     }
 
     #[test]
+    fn skew_lines_meeting_point_is_the_least_squares_minimum() {
+        // Three skew lines: the returned point must have a smaller sum of squared distances
+        // than any nearby point (the definition of the least-squares point).
+        let lines = [
+            line([0.0, 0.0, 0.0], [1.0, 0.2, 0.0]),
+            line([0.3, 0.1, 0.05], [0.0, 1.0, 0.3]),
+            line([0.2, -0.1, 0.4], [0.1, 0.2, 1.0]),
+        ];
+        let cost =
+            |x: &Point3<f64>| -> f64 { lines.iter().map(|l| l.distance_to(x).powi(2)).sum() };
+        let c = least_squares_meeting_point(&lines, 1e-12).expect("not parallel");
+        let best = cost(&c);
+        for k in 0..200 {
+            let t = f64::from(k);
+            let step = Vector3::new((1.3 * t).sin(), (0.7 * t).cos(), (2.9 * t).sin()) * 1e-4;
+            assert!(cost(&(c + step)) > best);
+        }
+    }
+
+    #[test]
     fn all_parallel_lines_have_no_meeting_point() {
         let lines = [
             line([0.0, 0.0, 0.0], [0.0, 0.0, 1.0]),
