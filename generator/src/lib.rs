@@ -12,6 +12,9 @@
 pub mod classify;
 pub mod description;
 pub mod diagnostics;
+pub mod emit;
 pub mod model;
+pub mod plan;
 pub mod scaffold;
+pub mod solver;
 pub mod units;
