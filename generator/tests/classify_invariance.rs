@@ -135,3 +135,42 @@ fn three_conventions_classify_the_same() {
         }
     }
 }
+
+/// The solver's random sample arms (random lengths, offsets, twists, mountings, joint
+/// directions and offsets of every family, built by their own generator) classify as they were
+/// built: `sample_arm` asks the classifier and panics on any disagreement in family or wrist
+/// center. Each sample is also moved at random and must keep its evidence.
+#[test]
+fn solver_sample_arms_classify_as_built() {
+    use armforge_generator::plan::samples::{sample_arm, SampleOptions};
+    let mut rng = rng(0x5eed_0005);
+    let families = [
+        armforge_generator::classify::Family::Elbow,
+        armforge_generator::classify::Family::Polar,
+        armforge_generator::classify::Family::Cylindrical,
+        armforge_generator::classify::Family::Cartesian,
+    ];
+    let options = [
+        SampleOptions::default(),
+        SampleOptions {
+            orthogonal_wrist: true,
+            shoulder_axes_meet: true,
+            ..SampleOptions::default()
+        },
+    ];
+    for family in families {
+        for option in &options {
+            for seed in 0..60 {
+                let (model, g) = sample_arm(family, seed, option);
+                let moved_model = moved(&model, &Motion::random(&mut rng));
+                let g2 = classify(&moved_model, &Tolerances::default())
+                    .unwrap_or_else(|e| panic!("{family:?} {seed} moved: {e}"));
+                assert_same_numbers(
+                    &invariant_numbers(&model, &g),
+                    &invariant_numbers(&moved_model, &g2),
+                    1e-9,
+                );
+            }
+        }
+    }
+}
