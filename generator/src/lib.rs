@@ -15,5 +15,6 @@ pub mod diagnostics;
 pub mod emit;
 pub mod model;
 pub mod plan;
+pub mod scaffold;
 pub mod solver;
 pub mod units;
