@@ -105,7 +105,7 @@ pub const TOOL: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     clippy::unreadable_literal
 )]
 const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::internal::Settings {
-    length_tolerance: 2.9222520401249087e-10,
+    length_tolerance: 2.922252040124909e-10,
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
@@ -119,11 +119,11 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [-0.23403204910039818, 0.48292443904485405, -0.33044529346519896],
         point: [-0.12107082938914343, 0.14917046818868374, 0.05599637759668776],
-        wrist_center: [0.23724692405229483, 0.28625023863493043, 0.59785345267033],
+        wrist_center: [0.23724692405229514, 0.2862502386349305, 0.5978534526703301],
         front: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Slide {
-        nearest: -0.27507021900933604,
+        nearest: -0.2750702190093362,
     },
     wrist: ::armforge_runtime::internal::WristRule {
         normal: [0.2368529300043945, 0.030542838068628286, -0.8275343040933489],
@@ -225,16 +225,16 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t38 = px
-        + (0.012805552757843744 * r02
-            - (0.04491492495518941 * r00 + 0.22027592071368984 * r01))
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
         + 0.5795266030280415;
     let t40 = py
-        + (0.012805552757843744 * r12
-            - (0.04491492495518941 * r10 + 0.22027592071368984 * r11))
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
         - 0.832995122054119;
     let t42 = pz
-        + (0.012805552757843744 * r22
-            - (0.04491492495518941 * r20 + 0.22027592071368984 * r21))
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
         - 0.6567806392209417;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
     let wc_x = 0.7024503808034039 * t42
@@ -260,15 +260,15 @@ fn candidates(
     let t96 = 0.2455648081179022 * u_z
         + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
     // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
-    let j1_e = 0.18505813507129087 - 0.776414125447097 * t96;
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
     // r² = a² + b²
     let j1_r2 = j1_a * j1_a + j1_b * j1_b;
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014191e-20);
-    // ≥ 0 when r² < 8.539556986014191e-20: θ is free, the reference is used
-    let j1_free = 8.539556986014191e-20 - j1_r2;
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -317,14 +317,14 @@ fn candidates(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959184).max(0.0),
+        (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t216 = 1.0 / d2_p.max(8.539556986014191e-20);
+    let t216 = 1.0 / d2_p.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.27507021900933604;
-    let t228 = 0.3779706556925576 * q3_pp + 0.12974347073127884;
+    let q3_pp = j3_root_p - 0.2750702190093362;
+    let t228 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
     let t230 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t231 = 0.5671090269446208 * q3_pp + 0.33472521719783055;
+    let t231 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
     let t236 = w_p_z * t231 + (w_p_x * t228 - w_p_y * t230);
     let t250 = 0.22438759210189282 * (w_p_x * t231 - w_p_z * t228)
         - 0.919348671064388 * (w_p_z * t230 + w_p_y * t231)
@@ -334,10 +334,10 @@ fn candidates(
     let t252 = t216 * t236;
     let t253 = t216 * t250;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.27507021900933604 - j3_root_p;
-    let t258 = 0.3779706556925576 * q3_pm + 0.12974347073127884;
+    let q3_pm = -0.2750702190093362 - j3_root_p;
+    let t258 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
     let t259 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t260 = 0.5671090269446208 * q3_pm + 0.33472521719783055;
+    let t260 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
     let t265 = w_p_z * t260 + (w_p_x * t258 - w_p_y * t259);
     let t279 = 0.22438759210189282 * (w_p_x * t260 - w_p_z * t258)
         - 0.919348671064388 * (w_p_z * t259 + w_p_y * t260)
@@ -348,14 +348,14 @@ fn candidates(
     let t282 = t216 * t279;
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959184).max(0.0),
+        (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t287 = 1.0 / d2_m.max(8.539556986014191e-20);
+    let t287 = 1.0 / d2_m.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.27507021900933604;
-    let t292 = 0.3779706556925576 * q3_mp + 0.12974347073127884;
+    let q3_mp = j3_root_m - 0.2750702190093362;
+    let t292 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
     let t293 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t294 = 0.5671090269446208 * q3_mp + 0.33472521719783055;
+    let t294 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
     let t299 = w_m_z * t294 + (w_m_x * t292 - w_m_y * t293);
     let t313 = 0.22438759210189282 * (w_m_x * t294 - w_m_z * t292)
         - 0.919348671064388 * (w_m_z * t293 + w_m_y * t294)
@@ -365,10 +365,10 @@ fn candidates(
     let t315 = t287 * t299;
     let t316 = t287 * t313;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.27507021900933604 - j3_root_m;
-    let t321 = 0.3779706556925576 * q3_mm + 0.12974347073127884;
+    let q3_mm = -0.2750702190093362 - j3_root_m;
+    let t321 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
     let t322 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t323 = 0.5671090269446208 * q3_mm + 0.33472521719783055;
+    let t323 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
     let t328 = w_m_z * t323 + (w_m_x * t321 - w_m_y * t322);
     let t342 = 0.22438759210189282 * (w_m_x * t323 - w_m_z * t321)
         - 0.919348671064388 * (w_m_z * t322 + w_m_y * t323)
@@ -1212,7 +1212,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1240,7 +1240,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1268,7 +1268,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1296,7 +1296,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1324,7 +1324,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1352,7 +1352,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1380,7 +1380,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1408,7 +1408,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1427,7 +1427,7 @@ mod tests {
     use super::{branch_of, forward, solve, JOINTS, JOINT_TABLE};
     /// The arm's length scale for position errors (metres).
     #[allow(clippy::approx_constant, clippy::excessive_precision)]
-    const REACH: f64 = 2.9222520401249086;
+    const REACH: f64 = 2.922252040124909;
     /// A linear congruential generator (Knuth's MMIX constants): uniform in [0, 1).
     fn next(state: &mut u64) -> f64 {
         *state = state
