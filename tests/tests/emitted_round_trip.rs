@@ -78,7 +78,7 @@ fn pose_of(iso: &Isometry3<f64>) -> Pose {
 fn joint_gap(joint: &armforge_runtime::Joint, a: f64, b: f64) -> f64 {
     let d = a - b;
     let [lo, hi] = joint.limits;
-    if joint.kind == JointKind::Revolute && !(hi - lo > TAU + 1e-9) {
+    if joint.kind == JointKind::Revolute && hi - lo <= TAU + 1e-9 {
         (d - TAU * (d / TAU).round()).abs()
     } else {
         d.abs()
