@@ -12,5 +12,6 @@
 pub mod classify;
 pub mod description;
 pub mod diagnostics;
+pub mod draw;
 pub mod model;
 pub mod units;

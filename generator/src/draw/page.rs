@@ -1,0 +1,471 @@
+//! The whole page: title, panels with captions, and a footer with the scale bar and legend.
+
+use armforge_runtime::JointKind;
+use svg::node::element::{Group, Polygon, Rectangle as Rect};
+use svg::Document;
+
+use super::layout::{lay_out, Arrangement, Bounds, LayoutRequest, PageLayout, MARGIN};
+use super::primitives::{arrow, circle, end_on_axis, num, point_list, segment, text, text_width};
+use super::render_view::{render_view, ViewInput};
+use super::scale_bar::ScaleBar;
+use super::scene::{ArmScene, Skeleton};
+use super::style;
+use super::symbols::{extent_points, frame_tips, Lengths};
+use super::Drawing;
+use crate::model::Model;
+
+/// The largest view extent of a page with one panel, px.
+const SINGLE_PANEL_EXTENT: f64 = 360.0;
+/// The largest view extent of a page with several panels, px.
+const MULTI_PANEL_EXTENT: f64 = 240.0;
+/// Joint values per caption line when a panel's views are stacked (narrow panels).
+const VALUES_PER_NARROW_LINE: usize = 3;
+/// Height of one footer line, px.
+const FOOTER_LINE: f64 = 22.0;
+
+/// Renders a drawing to an SVG document.
+pub fn render(drawing: &Drawing) -> String {
+    let model = drawing.model;
+    let skeleton = Skeleton::of(model);
+    let scenes: Vec<ArmScene> = drawing
+        .panels
+        .iter()
+        .map(|p| ArmScene::new(model, &skeleton, &p.joint_values, drawing.wrist_center))
+        .collect();
+    let lengths = Lengths::for_scenes(&scenes, drawing.target.as_ref());
+    let mut world_points: Vec<[f64; 3]> = scenes
+        .iter()
+        .flat_map(|s| extent_points(s, &lengths))
+        .collect();
+    if let Some(t) = &drawing.target {
+        world_points.push(t.translation);
+        world_points.extend(frame_tips(t, lengths.frame_arrow));
+    }
+    let bounds: Vec<Bounds> = drawing
+        .views
+        .iter()
+        .map(|v| {
+            Bounds::of(world_points.iter().map(|p| v.project(p))).unwrap_or(Bounds {
+                min: [-0.5; 2],
+                max: [0.5; 2],
+            })
+        })
+        .collect();
+    let largest = bounds.iter().flat_map(|b| b.size()).fold(0.0, f64::max);
+    let bar = ScaleBar::for_extent(&model.units, largest);
+    let captions: Vec<Vec<String>> = drawing
+        .panels
+        .iter()
+        .map(|p| caption_lines(model, p, drawing.arrangement))
+        .collect();
+    let mut layout = lay_out(&LayoutRequest {
+        views: &drawing.views,
+        arrangement: drawing.arrangement,
+        panels: drawing.panels.len(),
+        columns: drawing.columns,
+        caption_lines: captions.iter().map(Vec::len).max().unwrap_or(1),
+        largest_extent_px: if drawing.panels.len() > 1 {
+            MULTI_PANEL_EXTENT
+        } else {
+            SINGLE_PANEL_EXTENT
+        },
+        footer_height: 0.0,
+        bounds: &bounds,
+    });
+    let (footer, footer_height) = footer(drawing, &layout, &bar);
+    layout.height += footer_height;
+
+    let mut document = Document::new()
+        .set(
+            "viewBox",
+            format!("0 0 {} {}", num(layout.width), num(layout.height)),
+        )
+        .set("width", num(layout.width))
+        .set("height", num(layout.height))
+        .set("font-family", style::FONT)
+        .add(
+            Rect::new()
+                .set("width", "100%")
+                .set("height", "100%")
+                .set("fill", "white"),
+        )
+        .add(title(drawing, &layout));
+    for (panel, (lines, corner)) in captions.iter().zip(&layout.captions).enumerate() {
+        document = document.add(caption(lines, *corner, panel));
+    }
+    for frame in &layout.frames {
+        document = document.add(render_view(&ViewInput {
+            frame,
+            scene: &scenes[frame.panel],
+            lengths: &lengths,
+            grid_step: bar.metres,
+            target: drawing.target.as_ref(),
+        }));
+    }
+    document.add(footer).to_string()
+}
+
+fn title(drawing: &Drawing, layout: &PageLayout) -> Group {
+    let model = drawing.model;
+    let name = text([MARGIN, 28.0], &model.name, style::TITLE, "start")
+        .set("font-weight", "bold")
+        .set("fill", style::TEXT);
+    let subject_x = MARGIN + text_width(&model.name, style::TITLE) * 0.95 + 12.0;
+    let subject = text(
+        [subject_x, 28.0],
+        &format!("— {}", drawing.subject),
+        style::NORMAL + 1.0,
+        "start",
+    )
+    .set("fill", style::TEXT);
+    let max_chars = ((layout.width - 2.0 * MARGIN) / (0.6 * style::NORMAL)) as usize;
+    let about = model
+        .description
+        .as_deref()
+        .map(first_line)
+        .unwrap_or_else(|| model.source_path.clone());
+    let about = text(
+        [MARGIN, 47.0],
+        &shorten(&about, max_chars),
+        style::NORMAL,
+        "start",
+    )
+    .set("fill", style::MUTED);
+    Group::new()
+        .set("class", "title")
+        .add(name)
+        .add(subject)
+        .add(about)
+}
+
+fn first_line(s: &str) -> String {
+    s.lines()
+        .map(str::trim)
+        .find(|l| !l.is_empty())
+        .unwrap_or("")
+        .to_string()
+}
+
+fn shorten(s: &str, max_chars: usize) -> String {
+    if s.chars().count() <= max_chars {
+        s.to_string()
+    } else {
+        let mut out: String = s.chars().take(max_chars.saturating_sub(1)).collect();
+        out.push('…');
+        out
+    }
+}
+
+/// The caption's lines: the panel's heading, then the joint values in the file's units.
+fn caption_lines(model: &Model, panel: &super::Panel, arrangement: Arrangement) -> Vec<String> {
+    let values: Vec<String> = model
+        .joints
+        .iter()
+        .enumerate()
+        .map(|(i, j)| {
+            let q = panel.joint_values.get(i).copied().unwrap_or(0.0);
+            joint_value(model, j.joint.kind, q)
+        })
+        .collect();
+    let per_line = match arrangement {
+        Arrangement::Row => values.len().max(1),
+        Arrangement::Column => VALUES_PER_NARROW_LINE,
+    };
+    let mut lines = vec![panel.caption.clone()];
+    for (k, chunk) in values.chunks(per_line).enumerate() {
+        let first = k * per_line + 1;
+        let last = first + chunk.len() - 1;
+        let names = if first == last {
+            format!("q{first}")
+        } else {
+            format!("q{first}–q{last}")
+        };
+        lines.push(format!("{names}: {}", chunk.join(", ")));
+    }
+    lines
+}
+
+/// A joint value in the file's unit, two decimals at most.
+fn joint_value(model: &Model, kind: JointKind, si: f64) -> String {
+    let units = &model.units;
+    let v = units.joint_from_si(kind, si);
+    let s = format!("{v:.2}");
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    let s = if s == "-0" { "0" } else { s };
+    match kind {
+        JointKind::Revolute => format!("{s}{}", units.angle.display_symbol()),
+        JointKind::Prismatic => format!("{s} {}", units.length.symbol()),
+    }
+}
+
+fn caption(lines: &[String], corner: [f64; 2], panel: usize) -> Group {
+    let mut group = Group::new()
+        .set("class", "caption")
+        .set("data-panel", panel.to_string());
+    for (k, line) in lines.iter().enumerate() {
+        let y = corner[1] + 12.0 + k as f64 * super::layout::CAPTION_LINE;
+        let t = text([corner[0] + 2.0, y], line, style::NORMAL, "start").set("fill", style::TEXT);
+        group = group.add(if k == 0 {
+            t.set("font-weight", "bold")
+        } else {
+            t
+        });
+    }
+    group
+}
+
+/// The footer: scale bar and units, a legend of the symbols, the joints' names. Returns the
+/// group and its height.
+fn footer(drawing: &Drawing, layout: &PageLayout, bar: &ScaleBar) -> (Group, f64) {
+    let top = layout.footer_top;
+    let right = layout.width - MARGIN;
+    let mut group = Group::new().set("class", "footer");
+    let (scale_group, scale_right) = scale_bar(bar, layout.scale, [MARGIN, top + 14.0]);
+    group = group.add(scale_group);
+    let units = drawing.model.units;
+    let note = format!(
+        "grid {} · world frame · every view at the same scale · lengths in {}, angles in {}",
+        bar.label,
+        units.length.symbol(),
+        units.angle.symbol()
+    );
+    group = group.add(
+        text(
+            [scale_right + 16.0, top + 18.0],
+            &note,
+            style::NORMAL,
+            "start",
+        )
+        .set("fill", style::MUTED),
+    );
+    let mut cursor = [MARGIN, top + 18.0 + FOOTER_LINE];
+    for item in legend_items(drawing) {
+        let width = 22.0 + text_width(&item.label, style::NORMAL) + 14.0;
+        if cursor[0] + width > right && cursor[0] > MARGIN {
+            cursor = [MARGIN, cursor[1] + FOOTER_LINE];
+        }
+        group = group.add(legend_entry(&item, cursor));
+        cursor[0] += width;
+    }
+    let names = joint_names(drawing.model);
+    let max_chars = ((right - MARGIN) / (0.6 * style::NORMAL)) as usize;
+    for line in wrap(&names, max_chars) {
+        cursor = [MARGIN, cursor[1] + FOOTER_LINE];
+        group = group
+            .add(text([MARGIN, cursor[1]], &line, style::NORMAL, "start").set("fill", style::TEXT));
+    }
+    (group, cursor[1] - top + 8.0)
+}
+
+/// The scale bar at `at` (left end, baseline of the labels): returns the group and its right
+/// edge, px.
+fn scale_bar(bar: &ScaleBar, px_per_metre: f64, at: [f64; 2]) -> (Group, f64) {
+    let length = bar.metres * px_per_metre;
+    let y = at[1];
+    let x0 = at[0] + 4.0;
+    let x1 = x0 + length;
+    let mut group = Group::new()
+        .set("class", "scale-bar")
+        .set("data-length-px", num(length))
+        .set("data-length", bar.label.clone())
+        .add(
+            Rect::new()
+                .set("x", num(x0))
+                .set("y", num(y - 3.0))
+                .set("width", num(length / 2.0))
+                .set("height", "6")
+                .set("fill", style::TEXT),
+        )
+        .add(
+            Rect::new()
+                .set("x", num(x0 + length / 2.0))
+                .set("y", num(y - 3.0))
+                .set("width", num(length / 2.0))
+                .set("height", "6")
+                .set("fill", "white")
+                .set("stroke", style::TEXT),
+        );
+    for x in [x0, x1] {
+        group = group.add(segment([x, y - 6.0], [x, y + 3.0], style::TEXT, 1.0));
+    }
+    group = group
+        .add(text([x0, y + 15.0], "0", style::SMALL, "middle").set("fill", style::TEXT))
+        .add(text([x1, y + 15.0], &bar.label, style::SMALL, "middle").set("fill", style::TEXT));
+    (group, x1 + text_width(&bar.label, style::SMALL) / 2.0)
+}
+
+/// One symbol of the legend.
+struct LegendItem {
+    symbol: Symbol,
+    label: String,
+}
+
+enum Symbol {
+    Revolute,
+    Prismatic,
+    PositiveAxis,
+    Toward,
+    Away,
+    Wrist,
+    ToolFrame,
+    Mount,
+    Target,
+}
+
+fn legend_items(drawing: &Drawing) -> Vec<LegendItem> {
+    let kinds: Vec<JointKind> = drawing.model.joints.iter().map(|j| j.joint.kind).collect();
+    let mut items = Vec::new();
+    let mut add = |symbol, label: &str| {
+        items.push(LegendItem {
+            symbol,
+            label: label.to_string(),
+        })
+    };
+    if kinds.contains(&JointKind::Revolute) {
+        add(Symbol::Revolute, "revolute joint");
+    }
+    if kinds.contains(&JointKind::Prismatic) {
+        add(Symbol::Prismatic, "prismatic joint on its rail");
+    }
+    add(
+        Symbol::PositiveAxis,
+        "positive joint direction (right-hand rule)",
+    );
+    add(Symbol::Toward, "pointing at you");
+    add(Symbol::Away, "pointing away");
+    if drawing.wrist_center.is_some() {
+        add(Symbol::Wrist, "wrist center");
+    }
+    add(Symbol::ToolFrame, "tool frame x y z");
+    add(Symbol::Mount, "base frame and mount");
+    if drawing.target.is_some() {
+        add(Symbol::Target, "target pose");
+    }
+    items
+}
+
+fn legend_entry(item: &LegendItem, at: [f64; 2]) -> Group {
+    let c = [at[0] + 8.0, at[1] - 4.0];
+    let symbol = match item.symbol {
+        Symbol::Revolute => Group::new().add(
+            circle(c, 5.5)
+                .set("fill", "white")
+                .set("stroke", style::JOINT)
+                .set("stroke-width", "1.80"),
+        ),
+        Symbol::Prismatic => Group::new()
+            .add(segment(
+                [c[0] - 9.0, c[1]],
+                [c[0] + 9.0, c[1]],
+                style::RAIL,
+                8.0,
+            ))
+            .add(
+                Rect::new()
+                    .set("x", num(c[0] - 5.0))
+                    .set("y", num(c[1] - 5.0))
+                    .set("width", "10")
+                    .set("height", "10")
+                    .set("fill", "white")
+                    .set("stroke", style::JOINT)
+                    .set("stroke-width", "1.80"),
+            ),
+        Symbol::PositiveAxis => {
+            arrow([c[0] - 8.0, c[1]], [c[0] + 10.0, c[1]], style::AXIS, 1.6).unwrap_or_default()
+        }
+        Symbol::Toward => end_on_axis(c, 5.0, true, style::AXIS),
+        Symbol::Away => end_on_axis(c, 5.0, false, style::AXIS),
+        Symbol::Wrist => Group::new().add(
+            Polygon::new()
+                .set(
+                    "points",
+                    point_list(&[
+                        [c[0], c[1] - 5.0],
+                        [c[0] + 5.0, c[1]],
+                        [c[0], c[1] + 5.0],
+                        [c[0] - 5.0, c[1]],
+                    ]),
+                )
+                .set("fill", style::WRIST),
+        ),
+        Symbol::ToolFrame => {
+            let o = [c[0] - 6.0, c[1] + 5.0];
+            [[14.0, 0.0], [8.0, -8.0], [0.0, -13.0]]
+                .iter()
+                .zip(style::XYZ)
+                .filter_map(|(d, colour)| arrow(o, [o[0] + d[0], o[1] + d[1]], colour, 1.5))
+                .fold(Group::new(), |g, a| g.add(a))
+        }
+        Symbol::Mount => Group::new()
+            .add(segment(
+                [c[0] - 9.0, c[1] + 3.0],
+                [c[0] + 9.0, c[1] + 3.0],
+                style::MOUNT_STROKE,
+                2.0,
+            ))
+            .add(segment(
+                [c[0] - 5.0, c[1] + 3.0],
+                [c[0] - 8.0, c[1] + 7.0],
+                style::MOUNT_STROKE,
+                1.0,
+            ))
+            .add(segment(
+                [c[0], c[1] + 3.0],
+                [c[0] - 3.0, c[1] + 7.0],
+                style::MOUNT_STROKE,
+                1.0,
+            ))
+            .add(segment(
+                [c[0] + 5.0, c[1] + 3.0],
+                [c[0] + 2.0, c[1] + 7.0],
+                style::MOUNT_STROKE,
+                1.0,
+            )),
+        Symbol::Target => Group::new().set("opacity", "0.28").add(segment(
+            [c[0] - 8.0, c[1]],
+            [c[0] + 9.0, c[1]],
+            style::XYZ[0],
+            7.0,
+        )),
+    };
+    Group::new().set("class", "legend").add(symbol).add(
+        text([at[0] + 22.0, at[1]], &item.label, style::NORMAL, "start").set("fill", style::TEXT),
+    )
+}
+
+/// `joints: 1 waist · 2 shoulder · …`, or plain numbers for joints without names.
+fn joint_names(model: &Model) -> String {
+    let names: Vec<String> = model
+        .joints
+        .iter()
+        .enumerate()
+        .map(|(i, j)| {
+            let number = i + 1;
+            if j.name == format!("joint {number}") {
+                format!("{number}")
+            } else {
+                format!("{number} {}", j.name)
+            }
+        })
+        .collect();
+    format!("joints: {}", names.join(" · "))
+}
+
+/// Splits text at ` · ` separators (or spaces) into lines of at most `max_chars` characters.
+fn wrap(s: &str, max_chars: usize) -> Vec<String> {
+    let mut lines = Vec::new();
+    let mut line = String::new();
+    for word in s.split(' ') {
+        if !line.is_empty() && line.chars().count() + 1 + word.chars().count() > max_chars {
+            lines.push(std::mem::take(&mut line));
+        }
+        if !line.is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+    }
+    if !line.is_empty() {
+        lines.push(line);
+    }
+    lines
+}
