@@ -14,7 +14,7 @@ pub struct Location {
 /// One problem found in a description file.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Diagnostic {
-    /// Where in the file.
+    /// Where in the file; line 0 when the problem has no place in it (an unreadable file).
     pub location: Location,
     /// The key the problem is about, as a dotted path (`joint[3].limits`), or empty.
     pub key: String,
@@ -44,6 +44,11 @@ impl fmt::Display for Diagnostics {
             } else {
                 format!("`{}`: ", d.key)
             };
+            if d.location.line == 0 {
+                // No place in the file (e.g. the file could not be read).
+                writeln!(f, "error: {}: {}{}", self.path, key, d.message)?;
+                continue;
+            }
             writeln!(
                 f,
                 "error: {}:{}:{}: {}{}",

@@ -14,4 +14,5 @@ pub mod description;
 pub mod diagnostics;
 pub mod draw;
 pub mod model;
+pub mod scaffold;
 pub mod units;

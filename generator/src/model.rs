@@ -49,6 +49,32 @@ impl Model {
         armforge_runtime::forward(&self.runtime_joints(), &self.base, &self.tool, joint_values)
     }
 
+    /// Joint values in the file's units (degrees or radians, mm or m by joint kind), in SI.
+    /// Values beyond the joint count are dropped.
+    pub fn joint_values_to_si(&self, values: &[f64]) -> Vec<f64> {
+        self.joints
+            .iter()
+            .zip(values)
+            .map(|(j, &x)| self.units.joint_to_si(j.joint.kind, x))
+            .collect()
+    }
+
+    /// Joint values in SI, in the file's units. Values beyond the joint count are dropped.
+    pub fn joint_values_from_si(&self, values: &[f64]) -> Vec<f64> {
+        self.joints
+            .iter()
+            .zip(values)
+            .map(|(j, &x)| self.units.joint_from_si(j.joint.kind, x))
+            .collect()
+    }
+
+    /// Forward kinematics in the file's units: joint values in the file's units in, the world
+    /// pose of the tool frame out with its translation in the file's length unit.
+    pub fn forward_in_file_units(&self, joint_values: &[f64]) -> Pose {
+        let pose = self.forward(&self.joint_values_to_si(joint_values));
+        self.units.pose_from_si(&pose)
+    }
+
     /// The joint's label for messages: `joint 3 ("elbow")`, 1-based.
     pub fn joint_label(&self, index: usize) -> String {
         let default = format!("joint {}", index + 1);

@@ -1,6 +1,6 @@
 //! The units a description file speaks, and conversion to and from SI (metres, radians).
 
-use armforge_runtime::JointKind;
+use armforge_runtime::{JointKind, Pose};
 
 /// Length unit of a description file.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -108,6 +108,20 @@ impl Units {
         match kind {
             JointKind::Revolute => self.angle_from_si(x),
             JointKind::Prismatic => self.length_from_si(x),
+        }
+    }
+    /// A pose with its translation in metres, converted to the file's length unit.
+    pub fn pose_from_si(&self, pose: &Pose) -> Pose {
+        Pose {
+            rotation: pose.rotation,
+            translation: pose.translation.map(|x| self.length_from_si(x)),
+        }
+    }
+    /// A pose with its translation in the file's length unit, converted to metres.
+    pub fn pose_to_si(&self, pose: &Pose) -> Pose {
+        Pose {
+            rotation: pose.rotation,
+            translation: pose.translation.map(|x| self.length_to_si(x)),
         }
     }
     /// A length in metres written in the file's unit with its symbol, e.g. `20.0 mm`.

@@ -1,6 +1,17 @@
-//! `armforge forward`.
+//! `armforge forward`: the world pose of the tool for joint values.
+//!
+//! Reads JSON lines `{"joints": [...]}` (joint values in the file's units) from stdin and writes
+//! one line `{"rotation": [[...], [...], [...]], "translation": [x, y, z]}` per input line
+//! (rotation row-major, translation in the file's length unit). A malformed line gets
+//! `{"error": "..."}` and the rest goes on; blank lines are skipped.
+//! Exit status: 0, or 1 if any line was malformed, or 2 if the arm file has problems.
 
+use std::io::{BufRead, Write};
 use std::process::ExitCode;
+
+use armforge_generator::description;
+use armforge_generator::model::Model;
+use serde_json::{json, Value};
 
 /// Arguments of `armforge forward`.
 #[derive(clap::Args, Debug)]
@@ -10,7 +21,83 @@ pub struct Args {
 }
 
 /// Runs `armforge forward`.
-pub fn run(_args: Args) -> ExitCode {
-    eprintln!("armforge forward: not built yet");
-    ExitCode::from(2)
+pub fn run(args: Args) -> ExitCode {
+    let model = match description::load_file(&args.arm) {
+        Ok(model) => model,
+        Err(diagnostics) => {
+            eprint!("{diagnostics}");
+            return ExitCode::from(2);
+        }
+    };
+    let stdin = std::io::stdin();
+    let stdout = std::io::stdout();
+    let mut out = stdout.lock();
+    let mut any_malformed = false;
+    for (index, line) in stdin.lock().lines().enumerate() {
+        let line = match line {
+            Ok(line) => line,
+            Err(e) => {
+                eprintln!("armforge forward: cannot read stdin: {e}");
+                return ExitCode::from(1);
+            }
+        };
+        if line.trim().is_empty() {
+            continue;
+        }
+        let answer = match pose_for_line(&model, &line) {
+            Ok(answer) => answer,
+            Err(message) => {
+                any_malformed = true;
+                json!({ "error": format!("line {}: {message}", index + 1) })
+            }
+        };
+        if writeln!(out, "{answer}").is_err() {
+            return ExitCode::from(1);
+        }
+    }
+    if any_malformed {
+        ExitCode::from(1)
+    } else {
+        ExitCode::SUCCESS
+    }
+}
+
+/// The answer for one input line, or what is wrong with it.
+fn pose_for_line(model: &Model, line: &str) -> Result<Value, String> {
+    let joints = joint_values(model, line)?;
+    let pose = model.forward_in_file_units(&joints);
+    if !pose.is_finite() {
+        return Err("the pose for these joint values is not finite".to_string());
+    }
+    Ok(json!({ "rotation": pose.rotation, "translation": pose.translation }))
+}
+
+/// The joint values of one input line, checked against the arm.
+fn joint_values(model: &Model, line: &str) -> Result<Vec<f64>, String> {
+    let value: Value = serde_json::from_str(line).map_err(|e| format!("not valid JSON: {e}"))?;
+    let Value::Object(object) = value else {
+        return Err("expected an object {\"joints\": [...]}".to_string());
+    };
+    if let Some(other) = object.keys().find(|k| k.as_str() != "joints") {
+        return Err(format!("unknown key \"{other}\"; expected only \"joints\""));
+    }
+    let Some(Value::Array(items)) = object.get("joints") else {
+        return Err("expected \"joints\": an array of joint values".to_string());
+    };
+    let expected = model.joints.len();
+    if items.len() != expected {
+        return Err(format!(
+            "expected {expected} joint values for arm \"{}\", found {}",
+            model.name,
+            items.len()
+        ));
+    }
+    items
+        .iter()
+        .enumerate()
+        .map(|(i, item)| {
+            item.as_f64()
+                .ok_or_else(|| format!("{} is not a number: {item}", model.joint_label(i)))
+        })
+        .collect()
 }

@@ -1,0 +1,206 @@
+//! Checks across values of a [`Description`]: the joint count, the keys a convention needs
+//! and forbids, axes, limit pairs and tool/base rotations.
+
+use std::ops::Range;
+
+use armforge_runtime::JointKind;
+
+use super::reader::Quantity;
+use super::schema::{report_missing, Convention, Description, FrameEntry, JointEntry};
+use super::source::Source;
+use crate::units::tidy;
+
+/// The most joints a file may have.
+pub const MAX_JOINTS: usize = 16;
+
+/// Tolerance on `R·Rᵀ − I` for a rotation written in the file.
+pub const ROTATION_TOLERANCE: f64 = 1e-6;
+
+/// Runs every cross-value check, reporting each problem.
+pub(crate) fn check(source: &mut Source, description: &Description) {
+    joint_count(source, description);
+    for (i, joint) in description.joints.iter().enumerate() {
+        let path = format!("joint[{}]", i + 1);
+        if let Some(convention) = description.convention {
+            convention_keys(source, joint, convention, &path);
+        }
+        axis(source, joint, description.convention, &path);
+        limits(source, joint, description, &path);
+    }
+    for frame in description.tool.iter().chain(description.base.iter()) {
+        frame_orientation(source, frame);
+    }
+}
+
+fn joint_count(source: &mut Source, description: &Description) {
+    let n = description.joints.len();
+    if n == 0 {
+        source.report(
+            &description.joints_span,
+            "joint",
+            "the arm has no joints; add one `[[joint]]` table per joint, base to tool",
+        );
+    } else if n > MAX_JOINTS {
+        let message = format!("the arm has {n} joints; armforge reads at most {MAX_JOINTS}");
+        source.report(&description.joints[MAX_JOINTS].span, "joint", message);
+    }
+}
+
+fn convention_keys(source: &mut Source, joint: &JointEntry, convention: Convention, path: &str) {
+    let others = [Convention::Dh, Convention::Axes]
+        .into_iter()
+        .filter(|c| c.own_keys() != convention.own_keys());
+    for other in others {
+        for (key, span) in joint
+            .keys
+            .iter()
+            .filter(|(k, _)| other.own_keys().contains(&k.as_str()))
+        {
+            let own = convention
+                .own_keys()
+                .iter()
+                .map(|k| format!("`{k}`"))
+                .collect::<Vec<_>>()
+                .join(", ");
+            let message = format!(
+                "`{key}` belongs to the `{}` convention, but this file uses `{}` (its joint keys are {own})",
+                other.word(),
+                convention.word()
+            );
+            source.report(span, &format!("{path}.{key}"), message);
+        }
+    }
+}
+
+fn axis(source: &mut Source, joint: &JointEntry, convention: Option<Convention>, path: &str) {
+    if convention == Some(Convention::Axes) {
+        if !has_key(joint, "axis") {
+            report_missing(
+                source,
+                &joint.span,
+                &format!("{path}.axis"),
+                "this joint",
+                "axis = [0, 0, 1]",
+            );
+        }
+        if joint.kind == Some(JointKind::Revolute) && !has_key(joint, "point") {
+            let message =
+                "missing required key for a revolute joint in `axes`: give any point on the axis, e.g. `point = [0, 0, 0]`";
+            source.report(&joint.span, &format!("{path}.point"), message);
+        }
+    }
+    if let Some(axis) = &joint.axis {
+        let [x, y, z] = axis.value;
+        if (x * x + y * y + z * z).sqrt() <= f64::MIN_POSITIVE {
+            let message = format!(
+                "the axis [{}, {}, {}] has zero length; give its direction",
+                tidy(x),
+                tidy(y),
+                tidy(z)
+            );
+            source.report(&axis.span, &format!("{path}.axis"), message);
+        }
+    }
+}
+
+fn has_key(joint: &JointEntry, key: &str) -> bool {
+    joint.keys.iter().any(|(k, _)| k == key)
+}
+
+fn limits(source: &mut Source, joint: &JointEntry, description: &Description, path: &str) {
+    let Some(limits) = &joint.limits else {
+        return;
+    };
+    let [min, max] = limits.value;
+    if min >= max {
+        let quantity = match joint.kind {
+            Some(JointKind::Revolute) => Quantity::Angle(description.units.angle),
+            Some(JointKind::Prismatic) => Quantity::Length(description.units.length),
+            None => Quantity::Plain,
+        };
+        let message = format!(
+            "min {} is not less than max {}; write `limits = [min, max]` with min < max",
+            quantity.show(min),
+            quantity.show(max)
+        );
+        source.report(&limits.span, &format!("{path}.limits"), message);
+    }
+}
+
+fn frame_orientation(source: &mut Source, frame: &FrameEntry) {
+    let span_of = |key: &str| -> Option<Range<usize>> {
+        frame
+            .keys
+            .iter()
+            .find(|(k, _)| k == key)
+            .map(|(_, s)| s.clone())
+    };
+    if let (Some(_), Some(second)) = (span_of("rpy"), span_of("rotation")) {
+        let message = "both `rpy` and `rotation` are given; keep one of them";
+        source.report(&second, &format!("{}.rotation", frame.path), message);
+    }
+    if let Some(rotation) = &frame.rotation {
+        if let Some(problem) = rotation_problem(&rotation.value) {
+            source.report(&rotation.span, &format!("{}.rotation", frame.path), problem);
+        }
+    }
+}
+
+/// What is wrong with a matrix meant to be a rotation, if anything.
+pub(crate) fn rotation_problem(r: &[[f64; 3]; 3]) -> Option<String> {
+    let mut worst: f64 = 0.0;
+    for i in 0..3 {
+        for j in 0..3 {
+            let dot: f64 = (0..3).map(|k| r[i][k] * r[j][k]).sum();
+            let identity = if i == j { 1.0 } else { 0.0 };
+            worst = worst.max((dot - identity).abs());
+        }
+    }
+    let det = determinant(r);
+    if worst > ROTATION_TOLERANCE {
+        Some(format!(
+            "the rows are not orthonormal: the largest entry of R·Rᵀ − I is {:e} (tolerance {ROTATION_TOLERANCE:e}); determinant {}",
+            worst,
+            tidy(det)
+        ))
+    } else if det < 0.0 {
+        Some(format!(
+            "the determinant is {} (a reflection, not a rotation); flip the sign of one row or column",
+            tidy(det)
+        ))
+    } else {
+        None
+    }
+}
+
+fn determinant(r: &[[f64; 3]; 3]) -> f64 {
+    r[0][0] * (r[1][1] * r[2][2] - r[1][2] * r[2][1])
+        - r[0][1] * (r[1][0] * r[2][2] - r[1][2] * r[2][0])
+        + r[0][2] * (r[1][0] * r[2][1] - r[1][1] * r[2][0])
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_rotation_about_z_passes() {
+        let (s, c) = 0.3f64.sin_cos();
+        assert_eq!(
+            rotation_problem(&[[c, -s, 0.0], [s, c, 0.0], [0.0, 0.0, 1.0]]),
+            None
+        );
+    }
+
+    #[test]
+    fn a_mirror_and_a_stretch_are_reported() {
+        let mirror = [[1.0, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, -1.0]];
+        assert!(rotation_problem(&mirror)
+            .unwrap()
+            .contains("determinant is -1"));
+        let stretch = [[1.001, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0]];
+        assert!(rotation_problem(&stretch)
+            .unwrap()
+            .contains("not orthonormal"));
+    }
+}
