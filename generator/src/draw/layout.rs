@@ -1,5 +1,7 @@
 //! Page layout: one scale for every view, view frames inside panels, panels in a grid.
 
+use super::primitives::text_width;
+use super::style;
 use super::view::ViewKind;
 
 /// Space around the arm inside a view frame, px (room for labels and arrowheads).
@@ -168,6 +170,11 @@ pub struct LayoutRequest<'a> {
     pub bounds: &'a [Bounds],
 }
 
+/// The narrowest frame that holds the view's heading, px.
+fn heading_width(kind: ViewKind) -> f64 {
+    text_width(kind.heading(), style::SMALL) + 14.0
+}
+
 /// Places every view of every panel with one common scale.
 pub fn lay_out(request: &LayoutRequest) -> PageLayout {
     let largest = request
@@ -183,10 +190,11 @@ pub fn lay_out(request: &LayoutRequest) -> PageLayout {
         .collect();
     let sizes: Vec<[f64; 2]> = bounds
         .iter()
-        .map(|b| {
+        .zip(request.views)
+        .map(|(b, kind)| {
             let [w, h] = b.size();
             [
-                w * scale + 2.0 * FRAME_PADDING,
+                (w * scale + 2.0 * FRAME_PADDING).max(heading_width(*kind)),
                 h * scale + 2.0 * FRAME_PADDING + FRAME_HEADING,
             ]
         })
@@ -223,7 +231,7 @@ pub fn lay_out(request: &LayoutRequest) -> PageLayout {
                 width: size[0],
                 height: size[1],
                 origin: [
-                    cursor[0] + FRAME_PADDING - b.min[0] * scale,
+                    cursor[0] + (size[0] - b.size()[0] * scale) / 2.0 - b.min[0] * scale,
                     cursor[1] + FRAME_HEADING + FRAME_PADDING + b.max[1] * scale,
                 ],
                 scale,

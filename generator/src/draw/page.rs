@@ -331,8 +331,8 @@ fn legend_items(drawing: &Drawing) -> Vec<LegendItem> {
         Symbol::PositiveAxis,
         "positive joint direction (right-hand rule)",
     );
-    add(Symbol::Toward, "pointing at you");
-    add(Symbol::Away, "pointing away");
+    add(Symbol::Toward, "axis toward you");
+    add(Symbol::Away, "axis away from you");
     if drawing.wrist_center.is_some() {
         add(Symbol::Wrist, "wrist center");
     }
