@@ -76,15 +76,86 @@ const CENTRES_AT_ZERO: [[f64; 3]; 6] = [
 ];
 const WRIST_CENTER: [f64; 3] = [0.85, 0.0, 1.17];
 
+/// An invented gantry over a bench (millimetres, degrees): x, y and z slides 600 mm above the
+/// floor, then a spherical wrist hanging from the z ram.
+fn bench_gantry() -> Model {
+    let joint = |kind, axis: [f64; 3], point: [f64; 3], limits: [f64; 2]| Joint {
+        kind,
+        axis,
+        point,
+        direction: 1.0,
+        offset: 0.0,
+        limits,
+    };
+    let (p, r) = (JointKind::Prismatic, JointKind::Revolute);
+    let turn = [-3.0, 3.0];
+    let joints = [
+        (
+            "x-slide",
+            joint(p, [1.0, 0.0, 0.0], [0.0, 0.0, 0.6], [0.0, 0.8]),
+        ),
+        (
+            "y-slide",
+            joint(p, [0.0, 1.0, 0.0], [0.0, 0.0, 0.6], [-0.3, 0.3]),
+        ),
+        (
+            "z-slide",
+            joint(p, [0.0, 0.0, -1.0], [0.0, 0.0, 0.6], [0.0, 0.4]),
+        ),
+        (
+            "wrist-turn",
+            joint(r, [0.0, 0.0, -1.0], [0.0, 0.0, 0.5], turn),
+        ),
+        (
+            "wrist-tilt",
+            joint(r, [0.0, 1.0, 0.0], [0.0, 0.0, 0.45], turn),
+        ),
+        (
+            "tool-spin",
+            joint(r, [0.0, 0.0, -1.0], [0.0, 0.0, 0.45], turn),
+        ),
+    ];
+    let mut model = tray_arm();
+    model.name = "bench_gantry".to_string();
+    for (mj, (name, j)) in model.joints.iter_mut().zip(joints) {
+        mj.name = name.to_string();
+        mj.joint = j;
+    }
+    model.tool = Pose {
+        rotation: [[1.0, 0.0, 0.0], [0.0, -1.0, 0.0], [0.0, 0.0, -1.0]],
+        translation: [0.0, 0.0, 0.38],
+    };
+    model
+}
+
+/// The gantry's joint centres at zero, derived by hand: the three slides meet at (0, 0, 600)
+/// mm; the wrist turn sits where the file puts it on the ram's axis (collinear with the z
+/// slide); the tilt and spin axes meet at the wrist center.
+const GANTRY_CENTRES_AT_ZERO: [[f64; 3]; 6] = [
+    [0.0, 0.0, 0.6],
+    [0.0, 0.0, 0.6],
+    [0.0, 0.0, 0.6],
+    [0.0, 0.0, 0.5],
+    [0.0, 0.0, 0.45],
+    [0.0, 0.0, 0.45],
+];
+
 /// `E_1 ⋯ E_k` for the first `k` joints, with nalgebra.
 fn chain(model: &Model, q: &[f64], k: usize) -> Isometry3<f64> {
     let mut t = Isometry3::identity();
     for (joint, &value) in model.joints.iter().zip(q).take(k) {
         let j = &joint.joint;
         let axis = Unit::new_normalize(Vector3::from(j.axis));
-        let angle = j.direction * value + j.offset;
-        let rotation = UnitQuaternion::from_axis_angle(&axis, angle);
-        t *= Isometry3::rotation_wrt_point(rotation, Point3::from(j.point));
+        let amount = j.direction * value + j.offset;
+        t *= match j.kind {
+            JointKind::Revolute => Isometry3::rotation_wrt_point(
+                UnitQuaternion::from_axis_angle(&axis, amount),
+                Point3::from(j.point),
+            ),
+            JointKind::Prismatic => {
+                Isometry3::translation(amount * axis.x, amount * axis.y, amount * axis.z)
+            }
+        };
     }
     t
 }
@@ -192,6 +263,33 @@ fn joint_centres_match_forward_kinematics_in_every_view() {
         }
     }
     assert_eq!(checked, 3 * 6, "three views of six joints");
+}
+
+#[test]
+fn slide_carriages_sit_where_their_slides_put_them() {
+    // A prismatic joint is drawn at its carriage: its centre moved by the joints before it and
+    // by its own slide (E_1 ⋯ E_i); for revolute joints E_i leaves the centre in place.
+    let model = bench_gantry();
+    let q = vec![0.5, 0.15, 0.2, 0.5, 0.8, 0.0];
+    let svg = Drawing::configuration(&model, q.clone()).to_svg();
+    let doc = roxmltree::Document::parse(&svg).unwrap();
+    let mut squares = 0;
+    for view_node in doc.descendants().filter(|n| has_class(n, "view")) {
+        let view = View::of(view_node);
+        for mark in view_node.descendants().filter(|n| has_class(n, "joint")) {
+            let i: usize = mark.attribute("data-joint").unwrap().parse().unwrap();
+            let expected = view.expected(world(&model, &q, i, GANTRY_CENTRES_AT_ZERO[i - 1]));
+            assert_near(
+                joint_centre(mark),
+                expected,
+                &format!("{} view, joint {i}", view.kind),
+            );
+            if mark.attribute("data-kind") == Some("prismatic") {
+                squares += 1;
+            }
+        }
+    }
+    assert_eq!(squares, 3 * 3);
 }
 
 #[test]

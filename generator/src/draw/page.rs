@@ -1,7 +1,7 @@
 //! The whole page: title, panels with captions, and a footer with the scale bar and legend.
 
 use armforge_runtime::JointKind;
-use svg::node::element::{Group, Polygon, Rectangle as Rect};
+use svg::node::element::{Group, Polygon, Rectangle as Rect, TSpan, Text};
 use svg::Document;
 
 use super::layout::{lay_out, Arrangement, Bounds, LayoutRequest, PageLayout, MARGIN};
@@ -107,17 +107,17 @@ pub fn render(drawing: &Drawing) -> String {
 
 fn title(drawing: &Drawing, layout: &PageLayout) -> Group {
     let model = drawing.model;
-    let name = text([MARGIN, 28.0], &model.name, style::TITLE, "start")
+    let name = TSpan::new(model.name.as_str())
         .set("font-weight", "bold")
-        .set("fill", style::TEXT);
-    let subject_x = MARGIN + text_width(&model.name, style::TITLE) * 0.95 + 12.0;
-    let subject = text(
-        [subject_x, 28.0],
-        &format!("— {}", drawing.subject),
-        style::NORMAL + 1.0,
-        "start",
-    )
-    .set("fill", style::TEXT);
+        .set("font-size", num(style::TITLE));
+    let subject =
+        TSpan::new(format!("  — {}", drawing.subject)).set("font-size", num(style::NORMAL + 1.0));
+    let heading = Text::new("")
+        .set("x", num(MARGIN))
+        .set("y", "28.00")
+        .set("fill", style::TEXT)
+        .add(name)
+        .add(subject);
     let max_chars = ((layout.width - 2.0 * MARGIN) / (0.6 * style::NORMAL)) as usize;
     let about = model
         .description
@@ -131,11 +131,7 @@ fn title(drawing: &Drawing, layout: &PageLayout) -> Group {
         "start",
     )
     .set("fill", style::MUTED);
-    Group::new()
-        .set("class", "title")
-        .add(name)
-        .add(subject)
-        .add(about)
+    Group::new().set("class", "title").add(heading).add(about)
 }
 
 fn first_line(s: &str) -> String {

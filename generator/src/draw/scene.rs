@@ -21,8 +21,10 @@ pub struct Skeleton {
 
 impl Skeleton {
     /// The skeleton of a model. Parallel neighbouring axes have no unique common normal; the
-    /// one through the previous joint's centre is taken. A common normal whose feet lie far
-    /// outside the arm (nearly parallel axes) is treated the same way.
+    /// one through the point the description gives on the later axis is taken (for DH files
+    /// that is where the convention puts the common normal; for collinear axes it is where the
+    /// file says the later joint sits). A common normal whose feet lie far outside the arm
+    /// (nearly parallel axes) is treated the same way.
     pub fn of(model: &Model) -> Skeleton {
         let lines: Vec<Line> = model
             .joints
@@ -38,8 +40,10 @@ impl Skeleton {
                 Some((previous, previous_entry)) => {
                     let feet = common_normal_feet(previous, line)
                         .filter(|(a, _)| norm(&sub(a, &previous_entry)) <= far);
-                    let (a, b) = feet
-                        .unwrap_or_else(|| (previous_entry, line.closest_point(&previous_entry)));
+                    let (a, b) = feet.unwrap_or_else(|| {
+                        let a = previous.closest_point(&line.point);
+                        (a, line.closest_point(&a))
+                    });
                     exit.push(a);
                     entry.push(b);
                 }
