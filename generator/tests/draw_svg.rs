@@ -448,6 +448,7 @@ fn the_scale_bar_is_drawn_to_the_views_scale_in_the_files_unit() {
         "{label}"
     );
     let px: f64 = number(bar, "data-length-px");
+    assert!(px >= 60.0, "a readable bar: {px} px");
     for view_node in doc.descendants().filter(|n| has_class(n, "view")) {
         let scale = View::of(view_node).scale;
         assert!((px - millimetres / 1000.0 * scale).abs() < 0.01);
@@ -594,9 +595,25 @@ fn dump_drawings_when_asked() {
     };
     let model = tray_arm();
     let q = degrees([35.0, -40.0, 70.0, 20.0, -50.0, 15.0]);
-    std::fs::write(
-        format!("{dir}/tray_arm.svg"),
-        Drawing::configuration(&model, q).to_svg(),
-    )
-    .unwrap();
+    let svg = Drawing::configuration(&model, q).to_svg();
+    std::fs::write(format!("{dir}/tray_arm.svg"), svg).unwrap();
+    let panels: Vec<Panel> = (0..8)
+        .map(|k| Panel {
+            caption: format!("{}. shoulder front, elbow up, wrist flipped", k + 1),
+            joint_values: degrees([
+                20.0 * k as f64,
+                -30.0 + 10.0 * k as f64,
+                60.0 - 20.0 * k as f64,
+                10.0,
+                40.0,
+                0.0,
+            ]),
+        })
+        .collect();
+    let target = model.forward(&panels[0].joint_values);
+    let svg = Drawing::solutions(&model, target, panels).to_svg();
+    std::fs::write(format!("{dir}/tray_arm_solutions.svg"), svg).unwrap();
+    let gantry = bench_gantry();
+    let svg = Drawing::configuration(&gantry, vec![0.5, 0.15, 0.2, 0.5, 0.8, 0.0]).to_svg();
+    std::fs::write(format!("{dir}/bench_gantry.svg"), svg).unwrap();
 }

@@ -20,6 +20,8 @@ const SINGLE_PANEL_EXTENT: f64 = 360.0;
 const MULTI_PANEL_EXTENT: f64 = 240.0;
 /// Joint values per caption line when a panel's views are stacked (narrow panels).
 const VALUES_PER_NARROW_LINE: usize = 3;
+/// The shortest scale bar, px.
+const MIN_BAR_PX: f64 = 60.0;
 /// Height of one footer line, px.
 const FOOTER_LINE: f64 = 22.0;
 
@@ -216,7 +218,8 @@ fn footer(drawing: &Drawing, layout: &PageLayout, bar: &ScaleBar) -> (Group, f64
     let top = layout.footer_top;
     let right = layout.width - MARGIN;
     let mut group = Group::new().set("class", "footer");
-    let (scale_group, scale_right) = scale_bar(bar, layout.scale, [MARGIN, top + 14.0]);
+    let readable = ScaleBar::at_least(&drawing.model.units, MIN_BAR_PX / layout.scale);
+    let (scale_group, scale_right) = scale_bar(&readable, layout.scale, [MARGIN, top + 14.0]);
     group = group.add(scale_group);
     let units = drawing.model.units;
     let note = format!(
@@ -234,7 +237,7 @@ fn footer(drawing: &Drawing, layout: &PageLayout, bar: &ScaleBar) -> (Group, f64
         )
         .set("fill", style::MUTED),
     );
-    let mut cursor = [MARGIN, top + 18.0 + FOOTER_LINE];
+    let mut cursor = [MARGIN, top + 24.0 + FOOTER_LINE];
     for item in legend_items(drawing) {
         let width = 22.0 + text_width(&item.label, style::NORMAL) + 14.0;
         if cursor[0] + width > right && cursor[0] > MARGIN {
