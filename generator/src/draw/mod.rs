@@ -21,6 +21,7 @@
 //! groups with `class="joint"` and `data-joint` (1-based), so tools and tests can map a drawing
 //! back to the world.
 
+mod footer;
 mod geometry;
 mod labels;
 mod layout;
