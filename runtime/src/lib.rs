@@ -13,10 +13,17 @@
 #![deny(missing_docs)]
 
 pub mod fk;
+#[doc(hidden)]
+pub mod internal;
 pub mod math;
 pub mod model;
+pub mod plan;
 pub mod pose;
+pub mod solution;
 
 pub use fk::{forward, joint_motion};
 pub use model::{Joint, JointKind};
 pub use pose::Pose;
+pub use solution::{
+    Branch, Elbow, Flags, PoseProblem, Shoulder, Solution, SolutionSet, Unreachable, Wrist, JOINTS,
+};

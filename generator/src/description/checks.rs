@@ -34,7 +34,9 @@ pub(crate) fn check(source: &mut Source, description: &Description) {
 
 fn joint_count(source: &mut Source, description: &Description) {
     let n = description.joints.len();
-    if n == 0 {
+    if description.joints_malformed {
+        // Already reported where `joint` was read.
+    } else if n == 0 {
         source.report(
             &description.joints_span,
             "joint",
@@ -91,7 +93,7 @@ fn axis(source: &mut Source, joint: &JointEntry, convention: Option<Convention>,
     }
     if let Some(axis) = &joint.axis {
         let [x, y, z] = axis.value;
-        if (x * x + y * y + z * z).sqrt() <= f64::MIN_POSITIVE {
+        if x == 0.0 && y == 0.0 && z == 0.0 {
             let message = format!(
                 "the axis [{}, {}, {}] has zero length; give its direction",
                 tidy(x),
@@ -159,7 +161,7 @@ pub(crate) fn rotation_problem(r: &[[f64; 3]; 3]) -> Option<String> {
     let det = determinant(r);
     if worst > ROTATION_TOLERANCE {
         Some(format!(
-            "the rows are not orthonormal: the largest entry of R·Rᵀ − I is {:e} (tolerance {ROTATION_TOLERANCE:e}); determinant {}",
+            "the rows are not orthonormal: the largest entry of R·Rᵀ − I is {:.3e} (tolerance {ROTATION_TOLERANCE:e}); determinant {}",
             worst,
             tidy(det)
         ))

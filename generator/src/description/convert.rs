@@ -85,14 +85,22 @@ fn joint_shell(entry: &JointEntry, units: Units) -> Joint {
 fn given_axis(entry: &JointEntry, units: Units) -> Joint {
     let mut joint = joint_shell(entry, units);
     let axis = entry.axis.as_ref().map_or([0.0, 0.0, 1.0], |a| a.value);
-    let length = (axis[0] * axis[0] + axis[1] * axis[1] + axis[2] * axis[2]).sqrt();
-    joint.axis = axis.map(|x| x / length);
+    joint.axis = unit_vector(axis);
     joint.point = entry
         .point
         .as_ref()
         .map_or([0.0; 3], |p| p.value.map(|x| units.length_to_si(x)));
     joint.offset = units.joint_to_si(joint.kind, entry.offset);
     joint
+}
+
+/// A nonzero vector scaled to unit length; scaled by its largest component first so that
+/// neither tiny nor huge components underflow or overflow.
+fn unit_vector(v: [f64; 3]) -> [f64; 3] {
+    let largest = v.iter().fold(0.0f64, |m, x| m.max(x.abs()));
+    let v = v.map(|x| x / largest);
+    let length = (v[0] * v[0] + v[1] * v[1] + v[2] * v[2]).sqrt();
+    v.map(|x| x / length)
 }
 
 /// Walks the DH frames at zero: the joints' axes and the tool pose in the base frame.
@@ -207,4 +215,30 @@ fn nearest_rotation(r: &[[f64; 3]; 3]) -> [[f64; 3]; 3] {
         [m[(1, 0)], m[(1, 1)], m[(1, 2)]],
         [m[(2, 0)], m[(2, 1)], m[(2, 2)]],
     ]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn unit_vector_survives_tiny_and_huge_components() {
+        assert_eq!(unit_vector([1e-300, 0.0, 0.0]), [1.0, 0.0, 0.0]);
+        assert_eq!(unit_vector([0.0, -1e300, 0.0]), [0.0, -1.0, 0.0]);
+        let v = unit_vector([3.0, 0.0, 4.0]);
+        assert!((v[0] - 0.6).abs() < 1e-16 && (v[2] - 0.8).abs() < 1e-16);
+    }
+
+    #[test]
+    fn nearest_rotation_removes_a_small_skew() {
+        let skewed = [[1.0, 4e-7, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0 - 3e-7]];
+        let r = nearest_rotation(&skewed);
+        for i in 0..3 {
+            for j in 0..3 {
+                let dot: f64 = (0..3).map(|k| r[i][k] * r[j][k]).sum();
+                let identity = if i == j { 1.0 } else { 0.0 };
+                assert!((dot - identity).abs() < 1e-15, "{r:?}");
+            }
+        }
+    }
 }

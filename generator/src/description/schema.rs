@@ -76,8 +76,10 @@ pub(crate) struct Description {
     pub convention: Option<Convention>,
     /// Where the `joint` key (or the file) starts.
     pub joints_span: Range<usize>,
-    /// The joints, base to tool.
+    /// The joints, base to tool (empty when `joint` is not an array of tables).
     pub joints: Vec<JointEntry>,
+    /// True when `joint` was given but is not an array of tables (already reported).
+    pub joints_malformed: bool,
     /// `[tool]`, if present.
     pub tool: Option<FrameEntry>,
     /// `[base]`, if present.
@@ -181,8 +183,10 @@ pub(crate) fn read(source: &mut Source, root: &dyn TableLike) -> Description {
         .map(|s| s.value);
     let (joints_span, joints) = match find("joint") {
         Some(e) => (e.key_span.clone(), joints(source, e, units)),
-        None => (file_start, Vec::new()),
+        None => (file_start, Some(Vec::new())),
     };
+    let joints_malformed = joints.is_none();
+    let joints = joints.unwrap_or_default();
     let tool = find("tool").and_then(|e| frame(source, e, units));
     let base = find("base").and_then(|e| frame(source, e, units));
     Description {
@@ -192,6 +196,7 @@ pub(crate) fn read(source: &mut Source, root: &dyn TableLike) -> Description {
         convention,
         joints_span,
         joints,
+        joints_malformed,
         tool,
         base,
     }
@@ -286,7 +291,8 @@ fn arm_name(source: &mut Source, entry: &Entry) -> String {
     s.value
 }
 
-fn joints(source: &mut Source, entry: &Entry, units: Units) -> Vec<JointEntry> {
+/// The joint tables, or `None` (reported) when `joint` is not an array of tables.
+fn joints(source: &mut Source, entry: &Entry, units: Units) -> Option<Vec<JointEntry>> {
     let tables: Vec<(&dyn TableLike, Range<usize>)> = match entry.item {
         Item::ArrayOfTables(a) => a
             .iter()
@@ -316,14 +322,15 @@ fn joints(source: &mut Source, entry: &Entry, units: Units) -> Vec<JointEntry> {
                 reader::found(other)
             );
             source.report(&entry.span(), "joint", message);
-            return Vec::new();
+            return None;
         }
     };
-    tables
+    let joints = tables
         .into_iter()
         .enumerate()
         .map(|(i, (table, span))| joint(source, table, span, &format!("joint[{}]", i + 1), units))
-        .collect()
+        .collect();
+    Some(joints)
 }
 
 fn joint(

@@ -1,0 +1,269 @@
+//! The solve plan: a short, fixed sequence of closed-form steps with one arm's constants.
+//!
+//! From the classified geometry, [`build_plan`] writes the steps as an expression graph
+//! ([`graph::Graph`]): the wrist-center target from the pose (kinematic decoupling, Pieper
+//! 1968), joints 1–3 of the family with every branch, joints 4–6 of the wrist with both
+//! branches. Constants are folded and shared terms computed once while building, so the plan
+//! shows this arm's own equations. No step iterates; the operation count is fixed.
+//!
+//! The same plan feeds two back ends: the interpreter in `armforge_runtime::plan` (through
+//! [`crate::solver::Solver`]) and the emitter ([`crate::emit`]).
+
+pub mod arm;
+pub mod cartesian;
+pub mod cylindrical;
+pub mod decouple;
+pub mod elbow;
+pub mod graph;
+pub mod polar;
+pub mod render;
+pub mod samples;
+pub mod subproblems;
+pub mod vec3;
+pub mod wrist;
+
+use armforge_runtime::internal::{equivalent_count, BranchRule, Settings};
+use armforge_runtime::plan::{CandidateLayout, CheckLayout, Op};
+use armforge_runtime::{Branch, Elbow, Shoulder};
+
+pub use arm::Arm;
+pub use decouple::Target;
+use graph::{Graph, Id};
+
+use crate::classify::{Family, Geometry};
+use crate::model::Model;
+
+/// A rotation that joints 1–3 apply, undone (in order) to find the wrist's rotation.
+#[derive(Clone, Copy, Debug)]
+pub struct Turn {
+    /// Constant unit axis.
+    pub axis: [f64; 3],
+    /// Cosine of the angle.
+    pub cos: Id,
+    /// Sine of the angle.
+    pub sin: Id,
+}
+
+/// One branch of joints 1–3.
+#[derive(Clone, Debug)]
+pub struct ArmSolution {
+    /// Model values of joints 1–3.
+    pub angles: [Id; 3],
+    /// `R1 R2 R3` as rotations, applied base first; undone in this order.
+    pub undo: Vec<Turn>,
+    /// Shoulder label.
+    pub shoulder: Shoulder,
+    /// Elbow label.
+    pub elbow: Elbow,
+    /// Conditions for the branch to be real.
+    pub checks: Vec<CheckLayout>,
+    /// `≥ 0` when the wrist center is on axis 1.
+    pub on_axis_1: Option<Id>,
+}
+
+/// A finished plan: the graph, the candidates it produces, and the arm data both back ends
+/// need to finish the job (limits, labels, tolerances).
+#[derive(Clone, Debug)]
+pub struct Plan {
+    /// The planner's view of the arm.
+    pub arm: Arm,
+    /// The steps, in evaluation order (only what the candidates need).
+    pub graph: Graph,
+    /// The candidate solutions (one per branch).
+    pub candidates: Vec<CandidateLayout>,
+    /// How labels are read back from joint values.
+    pub rule: BranchRule,
+    /// Tolerances.
+    pub settings: Settings,
+    /// Capacity a solution set needs: branches × equivalent angles.
+    pub capacity: usize,
+    /// The reference inputs for all-zero joint values (cos, sin of joints 1 and 4).
+    pub zero_reference: [f64; 4],
+}
+
+/// `+1` for non-negative, `−1` for negative.
+pub(crate) fn sign(x: f64) -> f64 {
+    if x >= 0.0 {
+        1.0
+    } else {
+        -1.0
+    }
+}
+
+/// Counts of the costly operations in one evaluation of a plan.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub struct OpCounts {
+    /// Square roots.
+    pub sqrt: usize,
+    /// Arc tangents.
+    pub atan2: usize,
+    /// Divisions.
+    pub div: usize,
+    /// Multiplications.
+    pub mul: usize,
+    /// Additions, subtractions and negations.
+    pub add: usize,
+    /// Selects, minima, maxima, absolute values.
+    pub select: usize,
+}
+
+impl Plan {
+    /// The operations for the interpreter.
+    pub fn ops(&self) -> Vec<Op> {
+        self.graph.nodes().iter().map(|n| n.op).collect()
+    }
+
+    /// Counts the operations of one evaluation.
+    pub fn op_counts(&self) -> OpCounts {
+        let mut c = OpCounts::default();
+        for n in self.graph.nodes() {
+            match n.op {
+                Op::Sqrt(_) => c.sqrt += 1,
+                Op::Atan2(..) => c.atan2 += 1,
+                Op::Div(..) => c.div += 1,
+                Op::Mul(..) => c.mul += 1,
+                Op::Add(..) | Op::Sub(..) | Op::Neg(_) => c.add += 1,
+                Op::Select(..) | Op::Min(..) | Op::Max(..) | Op::Abs(_) => c.select += 1,
+                Op::Input(_) | Op::Const(_) => {}
+            }
+        }
+        c
+    }
+}
+
+/// Builds the plan of a classified arm.
+pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
+    let arm = Arm::new(model, geometry);
+    let mut g = Graph::new();
+    let target = decouple::target(&mut g);
+    let ct = decouple::wrist_center_target(&mut g, &arm, &target);
+    let (arm_solutions, shoulder_rule, elbow_rule) = match arm.family {
+        Family::Elbow => {
+            let (s, e) = elbow::rules(&arm);
+            (elbow::solve(&mut g, &arm, &target, ct), s, e)
+        }
+        Family::Polar => {
+            let (s, e) = polar::rules(&arm);
+            (polar::solve(&mut g, &arm, &target, ct), s, e)
+        }
+        Family::Cylindrical => {
+            let (s, e) = cylindrical::rules(&arm);
+            (cylindrical::solve(&mut g, &arm, &target, ct), s, e)
+        }
+        Family::Cartesian => {
+            let (s, e) = cartesian::rules(&arm);
+            (cartesian::solve(&mut g, &arm, ct), s, e)
+        }
+    };
+    let axes = wrist::WristAxes::of(&arm);
+    let g6 = decouple::target_direction(&mut g, &arm, &target, axes.h6, "g6");
+    let gx = decouple::target_direction(&mut g, &arm, &target, axes.x6, "gx");
+    let mut candidates = Vec::new();
+    for (i, s) in arm_solutions.iter().enumerate() {
+        let tag = format!("b{}", i + 1);
+        let mut v = g6;
+        let mut xv = gx;
+        for turn in &s.undo {
+            v = vec3::rotate_back(&mut g, turn.axis, turn.cos, turn.sin, v);
+            xv = vec3::rotate_back(&mut g, turn.axis, turn.cos, turn.sin, xv);
+        }
+        let v = vec3::name(
+            &mut g,
+            v,
+            &format!("v_{tag}"),
+            "v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6",
+        );
+        let xv = vec3::name(
+            &mut g,
+            xv,
+            &format!("xv_{tag}"),
+            "R456 x6 = (R1 R2 R3)ᵀ rot(G) x6",
+        );
+        for w in wrist::solve(&mut g, &arm, v, xv, target.reference4, &tag) {
+            let mut checks = [None; 4];
+            for (slot, c) in checks.iter_mut().zip(s.checks.iter().chain(w.check.iter())) {
+                *slot = Some(*c);
+            }
+            candidates.push(CandidateLayout {
+                model_values: [
+                    s.angles[0],
+                    s.angles[1],
+                    s.angles[2],
+                    w.angles[0],
+                    w.angles[1],
+                    w.angles[2],
+                ],
+                branch: Branch {
+                    shoulder: s.shoulder,
+                    elbow: s.elbow,
+                    wrist: w.wrist,
+                },
+                checks,
+                wrist_aligned: Some(w.aligned),
+                on_axis_1: s.on_axis_1,
+            });
+        }
+    }
+    let (graph, candidates) = compact(&g, &candidates);
+    let settings = Settings {
+        length_tolerance: 1e-10 * arm.scale,
+        angle_tolerance: 1e-18,
+        limit_tolerance: 1e-12,
+        duplicate_tolerance: 1e-10,
+    };
+    let multiplicity: usize = arm
+        .joints
+        .iter()
+        .map(|j| equivalent_count(j, settings.limit_tolerance))
+        .product();
+    let zero_reference = {
+        let m1 = arm.joints[0].model_value(0.0);
+        let m4 = arm.joints[3].model_value(0.0);
+        [m1.cos(), m1.sin(), m4.cos(), m4.sin()]
+    };
+    Plan {
+        rule: BranchRule {
+            shoulder: shoulder_rule,
+            elbow: elbow_rule,
+            wrist: wrist::rule(&arm),
+        },
+        capacity: candidates.len() * multiplicity,
+        arm,
+        graph,
+        candidates,
+        settings,
+        zero_reference,
+    }
+}
+
+fn compact(g: &Graph, candidates: &[CandidateLayout]) -> (Graph, Vec<CandidateLayout>) {
+    let mut roots = Vec::new();
+    for c in candidates {
+        roots.extend(c.model_values);
+        for ch in c.checks.iter().flatten() {
+            roots.push(ch.have_squared);
+            roots.push(ch.limit);
+        }
+        roots.extend(c.wrist_aligned);
+        roots.extend(c.on_axis_1);
+    }
+    let (graph, map) = g.compact(&roots);
+    let m = |id: Id| map[id as usize].unwrap_or(0);
+    let remapped = candidates
+        .iter()
+        .map(|c| CandidateLayout {
+            model_values: c.model_values.map(m),
+            branch: c.branch,
+            checks: c.checks.map(|ch| {
+                ch.map(|ch| CheckLayout {
+                    kind: ch.kind,
+                    have_squared: m(ch.have_squared),
+                    limit: m(ch.limit),
+                })
+            }),
+            wrist_aligned: c.wrist_aligned.map(m),
+            on_axis_1: c.on_axis_1.map(m),
+        })
+        .collect();
+    (graph, remapped)
+}

@@ -1,0 +1,136 @@
+//! Joints 1–3 of a polar arm (R R P, axis 1 ∦ axis 2, slide ⟂ axis 2), with any shoulder
+//! offset.
+//!
+//! 1. Joint 1 as for the elbow family (rotate a point into a plane; the slide keeps the wrist
+//!    center's height along axis 2).
+//! 2. The slide from the distance `d` to axis 2: `|P + s u3|² = d²` with `P` the wrist center's
+//!    offset from axis 2 at zero (⟂ h2): `s = −m ± √(d² − (|P|² − m²))`, `m = P · u3` (0–2).
+//! 3. Joint 2, Paden–Kahan subproblem 1: rotate `P + s u3` onto the wrist-center target.
+
+use armforge_runtime::internal::{CheckKind, ElbowRule, ShoulderRule};
+use armforge_runtime::plan::CheckLayout;
+use armforge_runtime::Elbow;
+
+use super::arm::Arm;
+use super::elbow::{self, joint_one};
+use super::graph::Graph;
+use super::subproblems::rotate_onto;
+use super::vec3::{self, num, V3};
+use super::{ArmSolution, Target, Turn};
+use crate::units::tidy;
+
+struct Constants {
+    h1: [f64; 3],
+    h2: [f64; 3],
+    u3: [f64; 3],
+    /// `(c − p2)⊥h2`.
+    p: [f64; 3],
+    /// `P · u3`.
+    m: f64,
+}
+
+fn constants(arm: &Arm) -> Constants {
+    let h2 = arm.axis(1);
+    let u3 = num::unit(&num::perpendicular(&arm.axis(2), &h2));
+    let p = num::perpendicular(&num::sub(&arm.wrist_center, &arm.point(1)), &h2);
+    Constants {
+        h1: arm.axis(0),
+        h2,
+        m: num::dot(&p, &u3),
+        u3,
+        p,
+    }
+}
+
+/// The label rules of a polar arm.
+pub fn rules(arm: &Arm) -> (ShoulderRule, ElbowRule) {
+    let k = constants(arm);
+    let (shoulder, _) = elbow::rules(arm);
+    (shoulder, ElbowRule::Slide { nearest: -k.m })
+}
+
+/// Builds joints 1–3 of a polar arm for every branch (σ × slide root).
+pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
+    let k = constants(arm);
+    let tol = 1e-10 * arm.scale;
+    let one = joint_one(g, arm, t, ct);
+    let pp = num::dot(&k.p, &k.p);
+    let nearest2 = (pp - k.m * k.m).max(0.0);
+    let nearest = g.constant(nearest2.sqrt());
+    let mut out = Vec::new();
+    for i in 0..2 {
+        let tag = if i == 0 { "p" } else { "m" };
+        let d2 = one.d2[i];
+        let off = g.constant(nearest2);
+        let disc = g.sub(d2, off);
+        let root = g.sqrt0(disc);
+        let root = g.name(
+            root,
+            &format!("j3_root_{tag}"),
+            format!("√(d² − (|P|² − m²)), |P|² − m² = {} m²", tidy(nearest2)),
+        );
+        let floor = g.constant(tol * tol);
+        let n = g.max(d2, floor);
+        let one_c = g.constant(1.0);
+        let inv_n = g.div(one_c, n);
+        for (extended, rtag) in [(true, "p"), (false, "m")] {
+            let tag2 = format!("{tag}{rtag}");
+            let minus_m = g.constant(-k.m);
+            let s = if extended {
+                g.add(minus_m, root)
+            } else {
+                g.sub(minus_m, root)
+            };
+            let s = g.name(
+                s,
+                &format!("q3_{tag2}"),
+                format!("s = −m ± √(d² − |P|² + m²), m = {} m", tidy(k.m)),
+            );
+            let x = {
+                let a = vec3::scale_const(g, s, k.u3);
+                vec3::add_const(g, a, k.p)
+            };
+            let (nc, ns) = rotate_onto(g, k.h2, x, one.w[i]);
+            let theta2 = g.atan2(ns, nc);
+            let theta2 = g.name(
+                theta2,
+                &format!("q2_{tag2}"),
+                "Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3",
+            );
+            let c2 = g.mul(nc, inv_n);
+            let s2 = g.mul(ns, inv_n);
+            let (c1, s1) = one.roots[i];
+            out.push(ArmSolution {
+                angles: [one.angles[i], theta2, s],
+                undo: vec![
+                    Turn {
+                        axis: k.h1,
+                        cos: c1,
+                        sin: s1,
+                    },
+                    Turn {
+                        axis: k.h2,
+                        cos: c2,
+                        sin: s2,
+                    },
+                ],
+                shoulder: one.shoulders[i],
+                elbow: if extended {
+                    Elbow::Extended
+                } else {
+                    Elbow::Retracted
+                },
+                checks: vec![
+                    one.check,
+                    CheckLayout {
+                        kind: CheckKind::InsideHole,
+                        have_squared: d2,
+                        limit: nearest,
+                    },
+                ],
+                on_axis_1: Some(one.singular),
+            });
+        }
+    }
+    out
+}

@@ -1,0 +1,319 @@
+//! Invented arms for tests and benchmarks: random arms of every family (random lengths,
+//! offsets, twists, mountings, joint directions and offsets), built directly as models.
+//!
+//! A small deterministic generator (SplitMix64) keeps the library free of a `rand`
+//! dependency and the samples reproducible from a seed.
+
+use armforge_runtime::{Joint, JointKind, Pose};
+
+use super::vec3::num;
+use crate::classify::{Family, Geometry};
+use crate::diagnostics::Location;
+use crate::model::{Model, ModelJoint};
+use crate::units::Units;
+
+/// SplitMix64: a tiny deterministic generator for sample arms and configurations.
+#[derive(Clone, Debug)]
+pub struct SampleRng(u64);
+
+impl SampleRng {
+    /// A generator from a seed.
+    pub fn new(seed: u64) -> Self {
+        SampleRng(seed ^ 0x9E37_79B9_7F4A_7C15)
+    }
+    /// The next 64 random bits.
+    pub fn next_u64(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+        z ^ (z >> 31)
+    }
+    /// Uniform in `[0, 1)`.
+    pub fn unit(&mut self) -> f64 {
+        (self.next_u64() >> 11) as f64 / (1u64 << 53) as f64
+    }
+    /// Uniform in `[lo, hi)`.
+    pub fn range(&mut self, lo: f64, hi: f64) -> f64 {
+        lo + (hi - lo) * self.unit()
+    }
+    /// `+1` or `−1`.
+    pub fn sign(&mut self) -> f64 {
+        if self.next_u64() & 1 == 0 {
+            1.0
+        } else {
+            -1.0
+        }
+    }
+    /// A random unit vector.
+    pub fn direction(&mut self) -> [f64; 3] {
+        loop {
+            let v = [
+                self.range(-1.0, 1.0),
+                self.range(-1.0, 1.0),
+                self.range(-1.0, 1.0),
+            ];
+            let n = num::norm(&v);
+            if n > 0.1 && n <= 1.0 {
+                return num::scale(&v, 1.0 / n);
+            }
+        }
+    }
+    /// A random unit vector whose angle to `h` has a cosine of at most `max_cos` in size.
+    pub fn direction_away_from(&mut self, h: &[f64; 3], max_cos: f64) -> [f64; 3] {
+        loop {
+            let d = self.direction();
+            if num::dot(&d, h).abs() <= max_cos {
+                return d;
+            }
+        }
+    }
+    /// A random unit vector perpendicular to `h`.
+    pub fn perpendicular(&mut self, h: &[f64; 3]) -> [f64; 3] {
+        loop {
+            let d = num::perpendicular(&self.direction(), h);
+            if num::norm(&d) > 0.2 {
+                return num::unit(&d);
+            }
+        }
+    }
+    /// A random vector with components in `[-r, r]`.
+    pub fn point(&mut self, r: f64) -> [f64; 3] {
+        [self.range(-r, r), self.range(-r, r), self.range(-r, r)]
+    }
+    /// A random rotation (from a random axis and angle).
+    pub fn rotation(&mut self) -> [[f64; 3]; 3] {
+        let axis = self.direction();
+        let angle = self.range(-std::f64::consts::PI, std::f64::consts::PI);
+        let cols = [
+            num::rotate(&axis, angle, &[1.0, 0.0, 0.0]),
+            num::rotate(&axis, angle, &[0.0, 1.0, 0.0]),
+            num::rotate(&axis, angle, &[0.0, 0.0, 1.0]),
+        ];
+        [
+            [cols[0][0], cols[1][0], cols[2][0]],
+            [cols[0][1], cols[1][1], cols[2][1]],
+            [cols[0][2], cols[1][2], cols[2][2]],
+        ]
+    }
+    /// A random pose within `r` metres of the origin.
+    pub fn pose(&mut self, r: f64) -> Pose {
+        Pose {
+            rotation: self.rotation(),
+            translation: self.point(r),
+        }
+    }
+}
+
+/// Options for sample arms.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SampleOptions {
+    /// Revolute limits are `±revolute_range` (radians); `π` gives one turn.
+    pub revolute_range: f64,
+    /// Wrist axes at right angles (`h4 ⟂ h5 ⟂ h6`) instead of random twists.
+    pub orthogonal_wrist: bool,
+    /// Random joint directions (±1) and offsets.
+    pub random_zero: bool,
+    /// Axis 2 meets axis 1 (no offset across the shoulder; offsets along axis 2 and in the
+    /// forearm stay): the front and back postures then reach the same distances, so generic
+    /// reachable poses have all 8 solutions.
+    pub shoulder_axes_meet: bool,
+}
+
+impl Default for SampleOptions {
+    fn default() -> Self {
+        SampleOptions {
+            revolute_range: std::f64::consts::PI,
+            orthogonal_wrist: false,
+            random_zero: true,
+            shoulder_axes_meet: false,
+        }
+    }
+}
+
+fn revolute(axis: [f64; 3], point: [f64; 3], range: f64) -> Joint {
+    Joint {
+        kind: JointKind::Revolute,
+        axis,
+        point,
+        direction: 1.0,
+        offset: 0.0,
+        limits: [-range, range],
+    }
+}
+
+fn prismatic(axis: [f64; 3], limits: [f64; 2]) -> Joint {
+    Joint {
+        kind: JointKind::Prismatic,
+        axis,
+        point: [0.0; 3],
+        direction: 1.0,
+        offset: 0.0,
+        limits,
+    }
+}
+
+/// A random arm of `family`: returns the model and its geometry (family and wrist center).
+pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model, Geometry) {
+    let mut rng = SampleRng::new(seed.wrapping_mul(7919).wrapping_add(family as u64));
+    let range = options.revolute_range;
+    let h1 = rng.direction();
+    let p1 = rng.point(0.2);
+    let (j1, j2, j3, c) = match family {
+        Family::Elbow => {
+            let h2 = rng.direction_away_from(&h1, 0.85);
+            let p2 = if options.shoulder_axes_meet {
+                num::add(&p1, &num::scale(&h1, rng.range(-0.3, 0.3)))
+            } else {
+                num::add(&p1, &rng.point(0.3))
+            };
+            let h3 = num::scale(&h2, rng.sign());
+            let upper = num::scale(&rng.perpendicular(&h2), rng.range(0.3, 0.8));
+            let p3 = num::add(
+                &num::add(&p2, &upper),
+                &num::scale(&h2, rng.range(-0.2, 0.2)),
+            );
+            let fore = num::scale(&rng.direction(), rng.range(0.3, 0.8));
+            let c = num::add(&p3, &fore);
+            (
+                revolute(h1, p1, range),
+                revolute(h2, p2, range),
+                revolute(h3, p3, range),
+                c,
+            )
+        }
+        Family::Polar => {
+            let h2 = rng.direction_away_from(&h1, 0.85);
+            let p2 = num::add(&p1, &rng.point(0.3));
+            let u3 = rng.perpendicular(&h2);
+            let c = num::add(&p2, &rng.point(0.5));
+            (
+                revolute(h1, p1, range),
+                revolute(h2, p2, range),
+                prismatic(u3, [-2.0, 2.0]),
+                c,
+            )
+        }
+        Family::Cylindrical => {
+            let u2 = rng.direction_away_from(&h1, 0.95);
+            let u2 = if num::dot(&u2, &h1).abs() < 0.3 {
+                num::unit(&num::add(&u2, &h1))
+            } else {
+                u2
+            };
+            let u3 = rng.direction_away_from(&u2, 0.8);
+            let c = num::add(&p1, &rng.point(0.5));
+            (
+                revolute(h1, p1, range),
+                prismatic(u2, [-3.0, 3.0]),
+                prismatic(u3, [-3.0, 3.0]),
+                c,
+            )
+        }
+        Family::Cartesian => {
+            let u1 = rng.direction();
+            let u2 = rng.direction_away_from(&u1, 0.8);
+            let u3 = loop {
+                let u = rng.direction();
+                if num::dot(&u, &num::cross(&u1, &u2)).abs() > 0.3 {
+                    break u;
+                }
+            };
+            let c = rng.point(0.5);
+            (
+                prismatic(u1, [-3.0, 3.0]),
+                prismatic(u2, [-3.0, 3.0]),
+                prismatic(u3, [-3.0, 3.0]),
+                c,
+            )
+        }
+    };
+    let (h4, h5, h6) = if options.orthogonal_wrist {
+        let h4 = rng.direction();
+        let h5 = rng.perpendicular(&h4);
+        let h6 = rng.perpendicular(&h5);
+        (h4, h5, h6)
+    } else {
+        let h4 = rng.direction();
+        let h5 = rng.direction_away_from(&h4, 0.8);
+        let h6 = rng.direction_away_from(&h5, 0.8);
+        (h4, h5, h6)
+    };
+    let mut joints = [
+        j1,
+        j2,
+        j3,
+        revolute(h4, c, range),
+        revolute(h5, c, range),
+        revolute(h6, c, range),
+    ];
+    if options.random_zero {
+        for j in joints.iter_mut() {
+            j.direction = rng.sign();
+            j.offset = match j.kind {
+                JointKind::Revolute => rng.range(-1.0, 1.0),
+                JointKind::Prismatic => rng.range(-0.2, 0.2),
+            };
+        }
+    }
+    let tool = Pose {
+        rotation: rng.rotation(),
+        translation: num::add(&c, &num::scale(&rng.direction(), rng.range(0.0, 0.25))),
+    };
+    let base = rng.pose(1.0);
+    let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
+    let model = Model {
+        name: format!("sample_{}_{seed}", family_name(family)),
+        description: Some("invented sample arm for armforge's own tests".to_string()),
+        units: Units::default(),
+        joints: joints
+            .iter()
+            .zip(names)
+            .map(|(joint, name)| ModelJoint {
+                joint: *joint,
+                name: name.to_string(),
+                location: Location::default(),
+            })
+            .collect(),
+        tool,
+        base,
+        source_path: format!("<sample {} {seed}>", family_name(family)),
+    };
+    (
+        model,
+        Geometry {
+            family,
+            wrist_center: c,
+        },
+    )
+}
+
+/// The family's name in lower case.
+pub fn family_name(family: Family) -> &'static str {
+    match family {
+        Family::Elbow => "elbow",
+        Family::Polar => "polar",
+        Family::Cylindrical => "cylindrical",
+        Family::Cartesian => "cartesian",
+    }
+}
+
+/// Random joint values within the model's limits (finite limits; infinite ones use ±π).
+pub fn sample_configuration(model: &Model, rng: &mut SampleRng) -> [f64; 6] {
+    let mut q = [0.0; 6];
+    for (out, j) in q.iter_mut().zip(model.joints.iter()) {
+        let [lo, hi] = j.joint.limits;
+        let lo = if lo.is_finite() {
+            lo
+        } else {
+            -std::f64::consts::PI
+        };
+        let hi = if hi.is_finite() {
+            hi
+        } else {
+            std::f64::consts::PI
+        };
+        *out = rng.range(lo, hi);
+    }
+    q
+}

@@ -1,0 +1,288 @@
+//! Joints 4–6 of a spherical wrist with any twist angles (axis 4 ∦ axis 5, axis 5 ∦ axis 6).
+//!
+//! 1. Joints 4 and 5, Paden–Kahan subproblem 2 (Paden 1986; Murray, Li & Sastry 1994, §3.3):
+//!    `R4 R5 h6 = R456 h6 =: v`. The intermediate `z = R5 h6 = R4ᵀ v` satisfies `h4·z = h4·v`
+//!    and `h5·z = h5·h6`, so `z = α h4 + β h5 ± γ (h4 × h5)` (0–2 solutions); θ5 turns `h6`
+//!    onto `z` about `h5`, θ4 turns `z` onto `v` about `h4` (both subproblem 1).
+//! 2. Joint 6, subproblem 1: turn a direction `x6 ⟂ h6` onto `R5ᵀ R4ᵀ R456 x6` about `h6`.
+//!
+//! Joint 5 at the aligned position (`z ∥ h4`) leaves θ4 free: θ4 is the reference (plus a
+//! half turn for the second wrist branch), θ6 follows, and the candidates are flagged.
+//! A wrist with `h4 ⟂ h5 ⟂ h6` needs only one branch computed: the other is
+//! `(θ4 + π, 2 θa − θ5, θ6 + π)` with θa the aligned position of joint 5.
+
+use armforge_runtime::internal::{CheckKind, WristRule};
+use armforge_runtime::plan::CheckLayout;
+use armforge_runtime::Wrist;
+
+use super::arm::Arm;
+use super::graph::{Graph, Id};
+use super::vec3::{self, num, V3};
+use crate::units::tidy;
+
+/// One wrist solution, in model values.
+#[derive(Clone, Debug)]
+pub struct WristSolution {
+    /// θ4, θ5, θ6.
+    pub angles: [Id; 3],
+    /// Plus or minus.
+    pub wrist: Wrist,
+    /// `≥ 0` when joint 5 is at the aligned position.
+    pub aligned: Id,
+    /// The wrist cone check, for wrists whose twists differ.
+    pub check: Option<CheckLayout>,
+}
+
+/// Sines of the wrist's joint-5 alignment below this count as aligned (joint 4 free).
+pub const ALIGNED_SINE: f64 = 1e-10;
+
+/// The wrist's constant directions.
+#[derive(Clone, Copy, Debug)]
+pub struct WristAxes {
+    /// Axis 4 at zero.
+    pub h4: [f64; 3],
+    /// Axis 5 at zero.
+    pub h5: [f64; 3],
+    /// Axis 6 at zero.
+    pub h6: [f64; 3],
+    /// A unit direction ⟂ h6, used for joint 6.
+    pub x6: [f64; 3],
+}
+
+impl WristAxes {
+    /// The wrist axes of an arm.
+    pub fn of(arm: &Arm) -> WristAxes {
+        let h6 = arm.axis(5);
+        WristAxes {
+            h4: arm.axis(3),
+            h5: arm.axis(4),
+            h6,
+            x6: num::any_perpendicular(&h6),
+        }
+    }
+
+    /// True when `h4 ⟂ h5` and `h6 ⟂ h5`: the two branches are mirror images.
+    pub fn is_orthogonal(&self) -> bool {
+        num::dot(&self.h4, &self.h5).abs() < 1e-12 && num::dot(&self.h6, &self.h5).abs() < 1e-12
+    }
+}
+
+/// The wrist label rule.
+pub fn rule(arm: &Arm) -> WristRule {
+    let w = WristAxes::of(arm);
+    WristRule {
+        normal: num::cross(&w.h4, &w.h5),
+        axis5: w.h5,
+        axis6: w.h6,
+    }
+}
+
+/// Builds joints 4–6 for one arm branch, given `v = R456 h6` and `xv = R456 x6`.
+pub fn solve(
+    g: &mut Graph,
+    arm: &Arm,
+    v: V3,
+    xv: V3,
+    reference: (Id, Id),
+    tag: &str,
+) -> Vec<WristSolution> {
+    let w = WristAxes::of(arm);
+    let c45 = num::dot(&w.h4, &w.h5);
+    let b = num::dot(&w.h5, &w.h6);
+    let den = 1.0 - c45 * c45;
+    let n = num::cross(&w.h4, &w.h5);
+    let a = vec3::dot_const(g, w.h4, v);
+    let a = g.name(a, &format!("j5_a_{tag}"), "a = h4 · v = h4 · z");
+    // α = (a − c45 b) / (1 − c45²), β = (b − c45 a) / (1 − c45²).
+    let alpha = {
+        let k = g.constant(1.0 / den);
+        let off = g.constant(c45 * b);
+        let x = g.sub(a, off);
+        g.mul(k, x)
+    };
+    let alpha = g.name(
+        alpha,
+        &format!("j5_alpha_{tag}"),
+        format!(
+            "α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = {}, h5·h6 = {}",
+            tidy(c45),
+            tidy(b)
+        ),
+    );
+    let beta = {
+        let kb = g.constant(b / den);
+        let ka = g.constant(-c45 / den);
+        let x = g.mul(ka, a);
+        g.add(kb, x)
+    };
+    let beta = g.name(
+        beta,
+        &format!("j5_beta_{tag}"),
+        "β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)",
+    );
+    // γ² (1 − c45²) = 1 − α² − β² − 2 α β c45.
+    let gap = {
+        let one = g.constant(1.0);
+        let aa = g.mul(alpha, alpha);
+        let bb = g.mul(beta, beta);
+        let ab = g.mul(alpha, beta);
+        let k = g.constant(2.0 * c45);
+        let cross = g.mul(k, ab);
+        let x = g.sub(one, aa);
+        let x = g.sub(x, bb);
+        g.sub(x, cross)
+    };
+    let gap = g.name(
+        gap,
+        &format!("j5_gap_{tag}"),
+        "γ² |h4 × h5|² = 1 − α² − β² − 2 α β (h4·h5)",
+    );
+    let gamma = {
+        let k = g.constant(1.0 / den);
+        let x = g.mul(k, gap);
+        g.sqrt0(x)
+    };
+    let gamma = g.name(gamma, &format!("j5_gamma_{tag}"), "γ = √(γ²) ≥ 0");
+    let check = if w.is_orthogonal() {
+        None
+    } else {
+        Some(CheckLayout {
+            kind: CheckKind::WristOrientation,
+            have_squared: gap,
+            limit: gap,
+        })
+    };
+    let h6p = num::sub(&w.h6, &num::scale(&w.h5, b));
+    let inv6 = 1.0 / (1.0 - b * b);
+    let branches: &[f64] = if w.is_orthogonal() {
+        &[1.0]
+    } else {
+        &[1.0, -1.0]
+    };
+    let mut out = Vec::new();
+    for &sign in branches {
+        let stag = if sign > 0.0 { "p" } else { "m" };
+        let name = format!("{tag}{stag}");
+        let gm = if sign > 0.0 { gamma } else { g.neg(gamma) };
+        // z = α h4 + β h5 ± γ n.
+        let z = {
+            let x = vec3::scale_const(g, alpha, w.h4);
+            let y = vec3::scale_const(g, beta, w.h5);
+            let q = vec3::scale_const(g, gm, n);
+            let xy = vec3::add(g, x, y);
+            vec3::add(g, xy, q)
+        };
+        let z = vec3::name(
+            g,
+            z,
+            &format!("z_{name}"),
+            "z = R5 h6 = α h4 + β h5 ± γ (h4 × h5)",
+        );
+        // θ5: rotate h6 onto z about h5 (the parts ⟂ h5 have the constant length √(1 − b²)).
+        let c5 = vec3::dot_const(g, h6p, z);
+        let h6k = vec3::constant(g, w.h6);
+        let cr = vec3::cross(g, h6k, z);
+        let s5 = vec3::dot_const(g, w.h5, cr);
+        let k6 = g.constant(inv6);
+        let c5 = g.mul(k6, c5);
+        let c5 = g.name(c5, &format!("j5_cos_{name}"), "cos θ5 = (h6⊥ · z) / |h6⊥|²");
+        let s5 = g.mul(k6, s5);
+        let s5 = g.name(
+            s5,
+            &format!("j5_sin_{name}"),
+            "sin θ5 = h5 · (h6 × z) / |h6⊥|²",
+        );
+        let theta5 = g.atan2(s5, c5);
+        let theta5 = g.name(theta5, &format!("q5_{name}"), "θ5 = atan2(sin θ5, cos θ5)");
+        // θ4: rotate z onto v about h4, normalised by the actual length (robust near alignment).
+        let zv = vec3::dot(g, z, v);
+        let aa = g.mul(a, a);
+        let nc = g.sub(zv, aa);
+        let zxv = vec3::cross(g, z, v);
+        let ns = vec3::dot_const(g, w.h4, zxv);
+        let q = g.mul_add2(nc, nc, ns, ns);
+        let floor = g.constant(ALIGNED_SINE.powi(4));
+        let aligned = g.sub(floor, q);
+        let aligned = g.name(
+            aligned,
+            &format!("aligned_{tag}"),
+            format!("≥ 0 when joint 5 is within {ALIGNED_SINE:e} of the aligned position"),
+        );
+        let safe = g.max(q, floor);
+        let root = g.sqrt(safe);
+        let one = g.constant(1.0);
+        let inv = g.div(one, root);
+        let c4 = g.mul(nc, inv);
+        let s4 = g.mul(ns, inv);
+        let (rc, rs) = if sign > 0.0 {
+            reference
+        } else {
+            (g.neg(reference.0), g.neg(reference.1))
+        };
+        let c4 = g.select(aligned, rc, c4);
+        let s4 = g.select(aligned, rs, s4);
+        let c4 = g.name(
+            c4,
+            &format!("j4_cos_{name}"),
+            "cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)",
+        );
+        let s4 = g.name(
+            s4,
+            &format!("j4_sin_{name}"),
+            "sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)",
+        );
+        let theta4 = g.atan2(s4, c4);
+        let theta4 = g.name(theta4, &format!("q4_{name}"), "θ4 = atan2(sin θ4, cos θ4)");
+        // θ6: rotate x6 onto R5ᵀ R4ᵀ (R456 x6) about h6.
+        let y = vec3::rotate_back(g, w.h4, c4, s4, xv);
+        let y = vec3::rotate_back(g, w.h5, c5, s5, y);
+        let y = vec3::name(g, y, &format!("y6_{name}"), "R5ᵀ R4ᵀ R456 x6");
+        let c6 = vec3::dot_const(g, w.x6, y);
+        let x6k = vec3::constant(g, w.x6);
+        let cr = vec3::cross(g, x6k, y);
+        let s6 = vec3::dot_const(g, w.h6, cr);
+        let theta6 = g.atan2(s6, c6);
+        let theta6 = g.name(
+            theta6,
+            &format!("q6_{name}"),
+            "Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)",
+        );
+        let wrist = if sign > 0.0 {
+            Wrist::Plus
+        } else {
+            Wrist::Minus
+        };
+        out.push(WristSolution {
+            angles: [theta4, theta5, theta6],
+            wrist,
+            aligned,
+            check,
+        });
+        if w.is_orthogonal() {
+            // Mirror branch: (θ4 + π, 2 θa − θ5, θ6 + π).
+            let theta_a = {
+                let c = num::cross(&w.h6, &w.h4);
+                num::dot(&w.h5, &c).atan2(num::dot(&w.h6, &w.h4))
+            };
+            let pi = g.constant(std::f64::consts::PI);
+            let t4 = g.add(theta4, pi);
+            let t4 = g.name(t4, &format!("q4_{tag}m"), "θ4 + π (mirror wrist branch)");
+            let k = g.constant(2.0 * theta_a);
+            let t5 = g.sub(k, theta5);
+            let t5 = g.name(
+                t5,
+                &format!("q5_{tag}m"),
+                format!("2 θa − θ5, θa = {} rad (aligned position)", tidy(theta_a)),
+            );
+            let t6 = g.add(theta6, pi);
+            let t6 = g.name(t6, &format!("q6_{tag}m"), "θ6 + π (mirror wrist branch)");
+            out.push(WristSolution {
+                angles: [t4, t5, t6],
+                wrist: Wrist::Minus,
+                aligned,
+                check: None,
+            });
+        }
+    }
+    out
+}

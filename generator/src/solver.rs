@@ -1,0 +1,121 @@
+//! The interpreter facade: solve an arm at run time from its plan, in SI units.
+//!
+//! The CLI's `solve` and `verify` use this; emitted modules run the same plan as straight-line
+//! Rust. Both finish through `armforge_runtime::internal`, so their answers agree.
+
+use armforge_runtime::internal::{self, Candidate};
+use armforge_runtime::plan::{self as rplan, Op};
+use armforge_runtime::{Branch, Pose, Solution, Unreachable, JOINTS};
+
+use crate::classify::Geometry;
+use crate::model::Model;
+use crate::plan::{build_plan, Plan};
+
+/// An arm's solver, evaluating its plan with the runtime interpreter.
+#[derive(Clone, Debug)]
+pub struct Solver {
+    plan: Plan,
+    ops: Vec<Op>,
+}
+
+impl Solver {
+    /// The solver of a classified model.
+    pub fn new(model: &Model, geometry: &Geometry) -> Solver {
+        Self::from_plan(build_plan(model, geometry))
+    }
+
+    /// The solver of a plan.
+    pub fn from_plan(plan: Plan) -> Solver {
+        let ops = plan.ops();
+        Solver { plan, ops }
+    }
+
+    /// The plan being interpreted.
+    pub fn plan(&self) -> &Plan {
+        &self.plan
+    }
+
+    /// The largest number of solutions one target can have.
+    pub fn capacity(&self) -> usize {
+        self.plan.capacity
+    }
+
+    /// Forward kinematics: the tool pose in the world for joint values (SI).
+    pub fn forward(&self, joints: &[f64; JOINTS]) -> Pose {
+        armforge_runtime::forward(
+            &self.plan.arm.joints,
+            &self.plan.arm.base,
+            &self.plan.arm.tool,
+            joints,
+        )
+    }
+
+    /// The branch label of a configuration.
+    pub fn branch_of(&self, joints: &[f64; JOINTS]) -> Branch {
+        internal::branch_of(&self.plan.rule, &self.plan.arm.joints, joints)
+    }
+
+    fn candidates(&self, target: &Pose, reference: &[f64; 4]) -> Vec<Candidate> {
+        let inputs = rplan::inputs(target, reference);
+        let mut values = vec![0.0; self.ops.len()];
+        rplan::evaluate(&self.ops, &inputs, &mut values);
+        self.plan
+            .candidates
+            .iter()
+            .map(|layout| rplan::candidate(layout, &values))
+            .collect()
+    }
+
+    fn finish(
+        &self,
+        target: &Pose,
+        reference: &[f64; 4],
+        only: Option<Branch>,
+    ) -> Result<Vec<Solution>, Unreachable> {
+        internal::check_pose(target)?;
+        let candidates = self.candidates(target, reference);
+        let mut out = vec![Solution::EMPTY; self.plan.capacity.max(1)];
+        let len = internal::finish(
+            &self.plan.arm.joints,
+            &self.plan.settings,
+            &candidates,
+            only,
+            &mut out,
+        )?;
+        out.truncate(len);
+        Ok(out)
+    }
+
+    /// Every solution within the limits, or why there is none. Free joints at singular poses
+    /// are kept at zero joint value.
+    pub fn solve(&self, target: &Pose) -> Result<Vec<Solution>, Unreachable> {
+        self.finish(target, &self.plan.zero_reference, None)
+    }
+
+    /// The solution nearest to `current` (wrap-aware); at the wrist singularity joint 4 stays
+    /// at its current value, on axis 1 joint 1 does.
+    pub fn solve_near(
+        &self,
+        target: &Pose,
+        current: &[f64; JOINTS],
+    ) -> Result<Solution, Unreachable> {
+        let reference = internal::reference(&self.plan.arm.joints, current);
+        let all = self.finish(target, &reference, None)?;
+        internal::nearest(&self.plan.arm.joints, &self.plan.settings, &all, current)
+            .ok_or(Unreachable::BranchUnavailable)
+    }
+
+    /// The configuration of one branch (among equivalent angles, the one nearest the centers
+    /// of the joint ranges).
+    pub fn solve_branch(&self, target: &Pose, branch: Branch) -> Result<Solution, Unreachable> {
+        let all = self.finish(target, &self.plan.zero_reference, Some(branch))?;
+        let mut center = [0.0; JOINTS];
+        for (c, j) in center.iter_mut().zip(self.plan.arm.joints.iter()) {
+            if j.limits[0].is_finite() && j.limits[1].is_finite() {
+                *c = 0.5 * (j.limits[0] + j.limits[1]);
+            }
+        }
+        internal::nearest(&self.plan.arm.joints, &self.plan.settings, &all, &center)
+            .ok_or(Unreachable::BranchUnavailable)
+    }
+}

@@ -1,0 +1,714 @@
+//! Not for users: the support code that armforge-emitted solvers and the armforge interpreter
+//! call. Its items may change in any release; use the emitted module's functions or the
+//! generator's `Solver` instead.
+//!
+//! Everything that both back ends of a plan need after the closed-form steps lives here, so
+//! that no formula is written twice: turning model values into joint values, wrapping revolute
+//! values into their limits, listing equivalent angles, dropping candidates outside the limits,
+//! returning double roots once, flags, and the reason when nothing is left.
+
+use core::f64::consts::{PI, TAU};
+
+use crate::fk::joint_motion;
+use crate::math::{abs, cross, dot, round, sin_cos, sqrt, sub};
+use crate::model::{Joint, JointKind};
+use crate::pose::Pose;
+use crate::solution::{
+    Branch, Elbow, Flags, PoseProblem, Shoulder, Solution, SolutionSet, Unreachable, Wrist, JOINTS,
+};
+
+/// At most this many equivalent angles are listed for one revolute joint (a range of up to
+/// seven turns); wider ranges list the first ones from the lower limit.
+pub const MAX_EQUIVALENTS: usize = 8;
+
+/// What a [`Check`] guards.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum CheckKind {
+    /// Unused slot.
+    None,
+    /// Real when `have_squared ≤ limit²`; otherwise beyond reach by `√have − limit` metres.
+    BeyondReach,
+    /// Real when `have_squared ≥ limit²`; otherwise inside the hole by `limit − √have` metres.
+    InsideHole,
+    /// Real when `have_squared ≥ 0` (the squared sine of the wrist's cone gap, negative when
+    /// the cones miss each other); otherwise misses by about `√(−have)` radians.
+    WristOrientation,
+}
+
+/// A condition for a candidate to be a real solution.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Check {
+    /// What is checked.
+    pub kind: CheckKind,
+    /// The squared quantity (see [`CheckKind`]).
+    pub have_squared: f64,
+    /// Its limit (metres, not squared).
+    pub limit: f64,
+}
+
+impl Check {
+    /// An unused check.
+    pub const NONE: Check = Check {
+        kind: CheckKind::None,
+        have_squared: 0.0,
+        limit: 0.0,
+    };
+}
+
+/// One candidate solution straight out of the closed-form steps, in model values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Candidate {
+    /// Model values (radians or metres) of the six joints.
+    pub model_values: [f64; JOINTS],
+    /// The branch the candidate belongs to.
+    pub branch: Branch,
+    /// Conditions for the candidate to be real.
+    pub checks: [Check; 4],
+    /// Joint 5 at the aligned position (joint 4 taken from the reference).
+    pub wrist_aligned: bool,
+    /// The wrist center on axis 1 (joint 1 taken from the reference).
+    pub on_axis_1: bool,
+}
+
+/// Tolerances of one arm's solver.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Settings {
+    /// A target this close to a reach boundary (metres) counts as on it.
+    pub length_tolerance: f64,
+    /// A wrist cone gap this small (radians, squared sine) counts as closed.
+    pub angle_tolerance: f64,
+    /// Joint values this far beyond a limit (radians or metres) still count as within it.
+    pub limit_tolerance: f64,
+    /// Two solutions closer than this in every joint are one.
+    pub duplicate_tolerance: f64,
+}
+
+/// Checks that a target pose is finite with a proper orthonormal rotation (within 1e-6).
+pub fn check_pose(target: &Pose) -> Result<(), Unreachable> {
+    if !target.is_finite() {
+        return Err(Unreachable::InvalidPose(PoseProblem::NotFinite));
+    }
+    let r = &target.rotation;
+    let mut error: f64 = 0.0;
+    for i in 0..3 {
+        for j in 0..3 {
+            let g = r[0][i] * r[0][j] + r[1][i] * r[1][j] + r[2][i] * r[2][j];
+            let want = if i == j { 1.0 } else { 0.0 };
+            error = error.max(abs(g - want));
+        }
+    }
+    if error > 1e-6 {
+        return Err(Unreachable::InvalidPose(PoseProblem::NotOrthonormal {
+            error,
+        }));
+    }
+    let det = dot(&r[0], &cross(&r[1], &r[2]));
+    if det < 0.0 {
+        return Err(Unreachable::InvalidPose(PoseProblem::Reflection));
+    }
+    Ok(())
+}
+
+/// The plan's reference inputs for the current joint values: cosine and sine of the model
+/// values of joints 1 and 4 (a non-finite value counts as zero).
+pub fn reference(joints: &[Joint; JOINTS], current: &[f64; JOINTS]) -> [f64; 4] {
+    let model = |i: usize| {
+        let q = current[i];
+        joints[i].model_value(if q.is_finite() { q } else { 0.0 })
+    };
+    let (s1, c1) = sin_cos(model(0));
+    let (s4, c4) = sin_cos(model(3));
+    [c1, s1, c4, s4]
+}
+
+/// `x` wrapped by whole turns into `[center − π, center + π]`, without data-dependent branches.
+#[inline]
+pub fn wrap(x: f64, center: f64) -> f64 {
+    x - TAU * round((x - center) / TAU)
+}
+
+/// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
+pub fn lists_equivalents(joint: &Joint, tolerance: f64) -> bool {
+    joint.kind == JointKind::Revolute
+        && joint.limits[0].is_finite()
+        && joint.limits[1].is_finite()
+        && joint.limits[1] - joint.limits[0] > TAU + tolerance
+}
+
+/// How many equivalent values of one joint can be within its limits (1 unless the joint is
+/// revolute with a range wider than one turn). Generators use this for the set's capacity.
+pub fn equivalent_count(joint: &Joint, tolerance: f64) -> usize {
+    if !lists_equivalents(joint, tolerance) {
+        return 1;
+    }
+    let turns = (joint.limits[1] - joint.limits[0] + 2.0 * tolerance) / TAU;
+    let mut n = 1;
+    while n < MAX_EQUIVALENTS && (n as f64) <= turns {
+        n += 1;
+    }
+    n
+}
+
+/// The values of one joint equivalent to `q` within its limits. Returns the values, how many
+/// there are, and by how much the nearest one misses the limits when there are none.
+fn equivalents(joint: &Joint, q: f64, tol: f64) -> ([f64; MAX_EQUIVALENTS], usize, f64) {
+    let mut out = [0.0; MAX_EQUIVALENTS];
+    let [lo, hi] = joint.limits;
+    if lists_equivalents(joint, tol) {
+        let base = q - TAU * floor((q - lo + tol) / TAU);
+        let mut n = 0;
+        for k in 0..MAX_EQUIVALENTS {
+            let v = base + TAU * k as f64;
+            if v <= hi + tol {
+                if let Some(slot) = out.get_mut(n) {
+                    *slot = v;
+                }
+                n += 1;
+            }
+        }
+        let miss = if n == 0 { lo - base } else { 0.0 };
+        return (out, n, miss);
+    }
+    let v = match joint.kind {
+        JointKind::Prismatic => q,
+        JointKind::Revolute => {
+            let center = if lo.is_finite() && hi.is_finite() {
+                0.5 * (lo + hi)
+            } else {
+                0.0
+            };
+            wrap(q, center)
+        }
+    };
+    out[0] = v;
+    let miss = (lo - v).max(v - hi);
+    if miss > tol {
+        (out, 0, miss)
+    } else {
+        (out, 1, 0.0)
+    }
+}
+
+/// The largest whole number not above `x` (through `round`, so it works without `std`).
+#[inline]
+fn floor(x: f64) -> f64 {
+    let r = round(x);
+    if r > x {
+        r - 1.0
+    } else {
+        r
+    }
+}
+
+/// The outcome of a candidate's checks.
+enum Verdict {
+    Real { at_limit: bool },
+    Fails(Unreachable, f64),
+}
+
+fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
+    let tol = settings.length_tolerance;
+    let mut at_limit = false;
+    for c in checks {
+        match c.kind {
+            CheckKind::None => {}
+            CheckKind::BeyondReach => {
+                let outer = c.limit + tol;
+                if c.have_squared > outer * outer {
+                    let by = sqrt(c.have_squared) - c.limit;
+                    return Verdict::Fails(Unreachable::BeyondReach { by }, by);
+                }
+                let inner = (c.limit - tol).max(0.0);
+                at_limit |= c.have_squared >= inner * inner;
+            }
+            CheckKind::InsideHole => {
+                let inner = (c.limit - tol).max(0.0);
+                if c.have_squared < inner * inner {
+                    let by = c.limit - sqrt(c.have_squared.max(0.0));
+                    return Verdict::Fails(Unreachable::InsideHole { by }, by);
+                }
+                let outer = c.limit + tol;
+                at_limit |= c.limit > tol && c.have_squared <= outer * outer;
+            }
+            CheckKind::WristOrientation => {
+                if c.have_squared < -settings.angle_tolerance {
+                    let by = sqrt(-c.have_squared);
+                    return Verdict::Fails(Unreachable::WristOrientation { by }, by);
+                }
+            }
+        }
+    }
+    Verdict::Real { at_limit }
+}
+
+/// Distance between two values of one joint: wrap-aware for revolute joints with at most one
+/// turn of range, plain otherwise.
+fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
+    let d = a - b;
+    if joint.kind == JointKind::Revolute && !lists_equivalents(joint, tol) {
+        abs(wrap(d, 0.0))
+    } else {
+        abs(d)
+    }
+}
+
+fn is_duplicate(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    q: &[f64; JOINTS],
+    found: &[Solution],
+) -> bool {
+    found.iter().any(|s| {
+        joints
+            .iter()
+            .zip(q.iter().zip(s.joints.iter()))
+            .all(|(j, (a, b))| {
+                joint_distance(j, *a, *b, settings.limit_tolerance) < settings.duplicate_tolerance
+            })
+    })
+}
+
+/// Keeps the better (smaller) of two failure reasons.
+fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amount: f64) {
+    match best {
+        Some((_, a)) if *a <= amount => {}
+        _ => *best = Some((reason, amount)),
+    }
+}
+
+/// Turns candidates into solutions: checks, joint values, wrapping and equivalent angles,
+/// limits, duplicates, flags. Writes into `out` and returns how many were written, or the
+/// reason when there are none. With `only`, candidates of other branches are skipped.
+pub fn finish(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    candidates: &[Candidate],
+    only: Option<Branch>,
+    out: &mut [Solution],
+) -> Result<usize, Unreachable> {
+    let tol = settings.limit_tolerance;
+    let mut len = 0;
+    let mut failure: Option<(Unreachable, f64)> = None;
+    let mut limit_failure: Option<(Unreachable, f64)> = None;
+    let mut matched = false;
+    for c in candidates {
+        if only.is_some_and(|b| b != c.branch) {
+            continue;
+        }
+        matched = true;
+        let at_limit = match verdict(&c.checks, settings) {
+            Verdict::Real { at_limit } => at_limit,
+            Verdict::Fails(reason, amount) => {
+                keep_smaller(&mut failure, reason, amount);
+                continue;
+            }
+        };
+        let mut flags = Flags::NONE;
+        if c.wrist_aligned {
+            flags = flags.union(Flags::WRIST_ALIGNED);
+        }
+        if c.on_axis_1 {
+            flags = flags.union(Flags::ON_AXIS_1);
+        }
+        if at_limit {
+            flags = flags.union(Flags::AT_REACH_LIMIT);
+        }
+        let mut lists = [[0.0; MAX_EQUIVALENTS]; JOINTS];
+        let mut counts = [0usize; JOINTS];
+        let mut worst: Option<(usize, f64)> = None;
+        for i in 0..JOINTS {
+            let q = joints[i].joint_value(c.model_values[i]);
+            let (list, n, miss) = equivalents(&joints[i], q, tol);
+            lists[i] = list;
+            counts[i] = n;
+            if n == 0 && worst.map_or(true, |(_, m)| miss > m) {
+                worst = Some((i, miss));
+            }
+        }
+        if let Some((joint, by)) = worst {
+            keep_smaller(
+                &mut limit_failure,
+                Unreachable::OutsideLimits { joint, by },
+                by,
+            );
+            continue;
+        }
+        len = push_combinations(joints, settings, &lists, &counts, c.branch, flags, out, len);
+    }
+    if len > 0 {
+        return Ok(len);
+    }
+    if !matched {
+        return Err(Unreachable::BranchUnavailable);
+    }
+    match limit_failure.or(failure) {
+        Some((reason, _)) => Err(reason),
+        None => Err(Unreachable::BranchUnavailable),
+    }
+}
+
+/// Writes every combination of equivalent values (mixed-radix count over the joints).
+#[allow(clippy::too_many_arguments)]
+fn push_combinations(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    lists: &[[f64; MAX_EQUIVALENTS]; JOINTS],
+    counts: &[usize; JOINTS],
+    branch: Branch,
+    flags: Flags,
+    out: &mut [Solution],
+    mut len: usize,
+) -> usize {
+    let total: usize = counts.iter().product();
+    for combo in 0..total {
+        let mut rest = combo;
+        let mut q = [0.0; JOINTS];
+        for i in 0..JOINTS {
+            let n = counts[i].max(1);
+            q[i] = lists[i][(rest % n).min(MAX_EQUIVALENTS - 1)];
+            rest /= n;
+        }
+        let found = out.get(..len).unwrap_or(&[]);
+        if is_duplicate(joints, settings, &q, found) {
+            continue;
+        }
+        if let Some(slot) = out.get_mut(len) {
+            *slot = Solution {
+                joints: q,
+                branch,
+                flags,
+            };
+            len += 1;
+        }
+    }
+    len
+}
+
+/// [`finish`] into a fixed-capacity set.
+pub fn collect<const CAP: usize>(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    candidates: &[Candidate],
+) -> SolutionSet<CAP> {
+    let mut storage = [Solution::EMPTY; CAP];
+    match finish(joints, settings, candidates, None, &mut storage) {
+        Ok(len) => SolutionSet::from_parts(storage, len, None),
+        Err(reason) => SolutionSet::from_parts(storage, 0, Some(reason)),
+    }
+}
+
+/// The first solution of one branch (the one nearest the joints' range centers comes first
+/// among equivalent angles is not guaranteed; the first listed is returned).
+pub fn first_of_branch<const CAP: usize>(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    candidates: &[Candidate],
+    branch: Branch,
+) -> Result<Solution, Unreachable> {
+    let mut storage = [Solution::EMPTY; CAP];
+    let len = finish(joints, settings, candidates, Some(branch), &mut storage)?;
+    nearest_to_center(joints, settings, storage.get(..len).unwrap_or(&[]))
+        .ok_or(Unreachable::BranchUnavailable)
+}
+
+/// Of several solutions, the one whose joints are closest to the centers of their ranges
+/// (a controller's natural pick among equivalent angles).
+fn nearest_to_center(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    solutions: &[Solution],
+) -> Option<Solution> {
+    let mut center = [0.0; JOINTS];
+    for (c, j) in center.iter_mut().zip(joints.iter()) {
+        let [lo, hi] = j.limits;
+        if lo.is_finite() && hi.is_finite() {
+            *c = 0.5 * (lo + hi);
+        }
+    }
+    nearest(joints, settings, solutions, &center)
+}
+
+/// The solution nearest to `current` (sum of squared joint distances, wrap-aware for revolute
+/// joints with at most one turn of range).
+pub fn nearest(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    solutions: &[Solution],
+    current: &[f64; JOINTS],
+) -> Option<Solution> {
+    let mut best: Option<(f64, Solution)> = None;
+    for s in solutions {
+        let mut d = 0.0;
+        for i in 0..JOINTS {
+            let e = joint_distance(
+                &joints[i],
+                s.joints[i],
+                current[i],
+                settings.limit_tolerance,
+            );
+            d += e * e;
+        }
+        if best.map_or(true, |(b, _)| d < b) {
+            best = Some((d, *s));
+        }
+    }
+    best.map(|(_, s)| s)
+}
+
+/// The solution nearest to `current` among all solutions of a target, or the reason.
+pub fn near<const CAP: usize>(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    candidates: &[Candidate],
+    current: &[f64; JOINTS],
+) -> Result<Solution, Unreachable> {
+    let set = collect::<CAP>(joints, settings, candidates);
+    if let Some(reason) = set.reason() {
+        return Err(reason);
+    }
+    nearest(joints, settings, set.as_slice(), current).ok_or(Unreachable::BranchUnavailable)
+}
+
+/// How the shoulder label is read from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ShoulderRule {
+    /// Elbow and polar arms: the sign of `normal · (E2 E3 c − point)`; `Front` when it equals
+    /// `front` (`±1`; zero counts as positive).
+    Plane {
+        /// `h1 × h2`.
+        normal: [f64; 3],
+        /// A point on axis 1.
+        point: [f64; 3],
+        /// The wrist center at zero.
+        wrist_center: [f64; 3],
+        /// The sign that means `Front`.
+        front: f64,
+    },
+    /// Cylindrical arms: the sign of `direction · (E2 E3 c − point)`; `Front` when `≥ 0`.
+    Radial {
+        /// The radial direction of the solved slide, ⟂ axis 1.
+        direction: [f64; 3],
+        /// The point of the slide's line nearest axis 1 at zero, shifted by the slides.
+        point: [f64; 3],
+        /// The wrist center at zero.
+        wrist_center: [f64; 3],
+    },
+    /// No shoulder choice.
+    Only,
+}
+
+/// How the elbow label is read from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ElbowRule {
+    /// Elbow arms: bend `= sign sin(sense · θ3 − stretched)` (θ3 the model value); `Up` when
+    /// bend × (+1 front, −1 back) equals `up`.
+    Bend {
+        /// `±1`: axis 3's direction relative to axis 2.
+        sense: f64,
+        /// The angle of the stretched configuration about axis 2.
+        stretched: f64,
+        /// The sign that means `Up` with the shoulder in front.
+        up: f64,
+    },
+    /// Polar arms: `Extended` when the slide's model value is at least `nearest` (the value at
+    /// the nearest approach to axis 2).
+    Slide {
+        /// The slide value of the nearest approach.
+        nearest: f64,
+    },
+    /// No elbow choice.
+    Only,
+}
+
+/// How the wrist label is read from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WristRule {
+    /// `h4 × h5` at zero.
+    pub normal: [f64; 3],
+    /// `h5` at zero.
+    pub axis5: [f64; 3],
+    /// `h6` at zero.
+    pub axis6: [f64; 3],
+}
+
+/// The rules that read a branch label from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct BranchRule {
+    /// Shoulder rule.
+    pub shoulder: ShoulderRule,
+    /// Elbow rule.
+    pub elbow: ElbowRule,
+    /// Wrist rule.
+    pub wrist: WristRule,
+}
+
+fn sign(x: f64) -> f64 {
+    if x >= 0.0 {
+        1.0
+    } else {
+        -1.0
+    }
+}
+
+/// Rodrigues' rotation of `v` about unit `h` by `angle`.
+fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
+    let (s, c) = sin_cos(angle);
+    let k = dot(h, v) * (1.0 - c);
+    let hv = cross(h, v);
+    [
+        c * v[0] + s * hv[0] + k * h[0],
+        c * v[1] + s * hv[1] + k * h[1],
+        c * v[2] + s * hv[2] + k * h[2],
+    ]
+}
+
+/// The branch label of a configuration, read by the arm's rules.
+pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> Branch {
+    let moved_center = |c: &[f64; 3]| {
+        let e3 = joint_motion(&joints[2], q[2]);
+        let e2 = joint_motion(&joints[1], q[1]);
+        e2.transform_point(&e3.transform_point(c))
+    };
+    let shoulder = match rule.shoulder {
+        ShoulderRule::Plane {
+            normal,
+            point,
+            wrist_center,
+            front,
+        } => {
+            let w = moved_center(&wrist_center);
+            if sign(dot(&normal, &sub(&w, &point))) == front {
+                Shoulder::Front
+            } else {
+                Shoulder::Back
+            }
+        }
+        ShoulderRule::Radial {
+            direction,
+            point,
+            wrist_center,
+        } => {
+            let w = moved_center(&wrist_center);
+            if dot(&direction, &sub(&w, &point)) >= 0.0 {
+                Shoulder::Front
+            } else {
+                Shoulder::Back
+            }
+        }
+        ShoulderRule::Only => Shoulder::Only,
+    };
+    let elbow = match rule.elbow {
+        ElbowRule::Bend {
+            sense,
+            stretched,
+            up,
+        } => {
+            let theta3 = joints[2].model_value(q[2]);
+            let bend = sign(crate::math::sin(sense * theta3 - stretched));
+            let side = if shoulder == Shoulder::Back {
+                -1.0
+            } else {
+                1.0
+            };
+            if bend * side == up {
+                Elbow::Up
+            } else {
+                Elbow::Down
+            }
+        }
+        ElbowRule::Slide { nearest } => {
+            if joints[2].model_value(q[2]) >= nearest {
+                Elbow::Extended
+            } else {
+                Elbow::Retracted
+            }
+        }
+        ElbowRule::Only => Elbow::Only,
+    };
+    let theta5 = joints[4].model_value(q[4]);
+    let w = &rule.wrist;
+    let turned = rotate(&w.axis5, theta5, &w.axis6);
+    let wrist = if dot(&w.normal, &turned) >= 0.0 {
+        Wrist::Plus
+    } else {
+        Wrist::Minus
+    };
+    Branch {
+        shoulder,
+        elbow,
+        wrist,
+    }
+}
+
+/// Half a turn, for emitted code that adds it to a model value.
+pub const HALF_TURN: f64 = PI;
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn revolute(limits: [f64; 2]) -> Joint {
+        Joint {
+            kind: JointKind::Revolute,
+            axis: [0.0, 0.0, 1.0],
+            point: [0.0; 3],
+            direction: 1.0,
+            offset: 0.0,
+            limits,
+        }
+    }
+
+    #[test]
+    fn wrap_lands_within_half_a_turn_of_the_center() {
+        for k in -5..=5 {
+            let x = 0.3 + TAU * k as f64;
+            assert!((wrap(x, 0.0) - 0.3).abs() < 1e-12);
+        }
+        assert!((wrap(3.0 * PI / 2.0, 0.0) + PI / 2.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn two_turn_range_lists_two_equivalents() {
+        let j = revolute([-TAU, TAU]);
+        assert_eq!(equivalent_count(&j, 1e-12), 3);
+        let (list, n, _) = equivalents(&j, 0.5, 1e-12);
+        assert_eq!(n, 2);
+        assert!((list[0] - (0.5 - TAU)).abs() < 1e-12 && (list[1] - 0.5).abs() < 1e-12);
+        let one_turn = revolute([-PI, PI]);
+        assert_eq!(equivalent_count(&one_turn, 1e-12), 1);
+        let (list, n, _) = equivalents(&one_turn, PI + 0.25, 1e-12);
+        assert_eq!(n, 1);
+        assert!((list[0] - (0.25 - PI)).abs() < 1e-12);
+    }
+
+    #[test]
+    fn outside_limits_reports_the_miss() {
+        let j = revolute([-1.0, 1.0]);
+        let (_, n, miss) = equivalents(&j, 1.5, 1e-12);
+        assert_eq!(n, 0);
+        assert!((miss - 0.5).abs() < 1e-12);
+    }
+
+    #[test]
+    fn pose_checks() {
+        assert!(check_pose(&Pose::IDENTITY).is_ok());
+        let mut p = Pose::IDENTITY;
+        p.translation[0] = f64::NAN;
+        assert_eq!(
+            check_pose(&p),
+            Err(Unreachable::InvalidPose(PoseProblem::NotFinite))
+        );
+        let mut p = Pose::IDENTITY;
+        p.rotation[2][2] = -1.0;
+        assert_eq!(
+            check_pose(&p),
+            Err(Unreachable::InvalidPose(PoseProblem::Reflection))
+        );
+        let mut p = Pose::IDENTITY;
+        p.rotation[0][1] = 1e-3;
+        assert!(matches!(
+            check_pose(&p),
+            Err(Unreachable::InvalidPose(PoseProblem::NotOrthonormal { .. }))
+        ));
+    }
+}

@@ -1,0 +1,319 @@
+//! What a solver returns: solutions with their branch labels and flags, in a fixed-capacity
+//! set, or the reason why a target cannot be reached.
+//!
+//! Joint values are SI (radians for revolute joints, metres for prismatic ones).
+
+use core::fmt;
+
+/// Number of joints of every arm armforge solves.
+pub const JOINTS: usize = 6;
+
+/// Which of the (up to two) solutions of the first joint choice an arm is in.
+///
+/// * Elbow and polar arms: the wrist center's side of the plane through axis 1 spanned by
+///   axes 1 and 2 (normal `h1 × h2`). `Front` is the side on which the wrist center lies in the
+///   zero configuration, `Back` the other one (reaching over backwards).
+/// * Cylindrical arms: the sign of the radial slide's reach along its own direction measured
+///   from the point of the slide's line closest to axis 1: `Front` reaches out along the slide's
+///   direction, `Back` through the other side of axis 1.
+/// * Cartesian arms have no such choice: `Only`.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Shoulder {
+    /// The wrist center on the side it has in the zero configuration.
+    Front,
+    /// The wrist center on the opposite side (reaching over backwards).
+    Back,
+    /// The arm's family has a single shoulder solution.
+    Only,
+}
+
+/// Which of the (up to two) solutions of the second joint choice an arm is in.
+///
+/// * Elbow arms: the sign of the elbow bend measured from the stretched configuration (the
+///   angle from the upper arm to the forearm about axis 2). `Up` puts the elbow on the side of
+///   the shoulder–wrist-center line toward axis 1's direction when the shoulder is in front;
+///   the label follows the arm when it reaches over backwards, so `Up` keeps meaning "the
+///   elbow above the line" for an arm whose axis 1 points up.
+/// * Polar arms: which root of the slide's length: `Extended` the larger, `Retracted` the
+///   smaller (the slide passing the wrist center's nearest approach to axis 2).
+/// * Cylindrical and cartesian arms: `Only`.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Elbow {
+    /// Elbow arm, elbow toward axis 1's direction.
+    Up,
+    /// Elbow arm, elbow away from axis 1's direction.
+    Down,
+    /// Polar arm, the longer slide root.
+    Extended,
+    /// Polar arm, the shorter slide root.
+    Retracted,
+    /// The arm's family has a single solution here.
+    Only,
+}
+
+/// Which of the two wrist solutions an arm is in: the sign of joint 5's angle measured from
+/// the aligned position (where axes 4 and 6 line up), in the sense of `h4 × h5`:
+/// `Plus` when `(h4 × h5) · R5(θ5) h6 ≥ 0` (all vectors as seen after joint 4), `Minus`
+/// otherwise.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Wrist {
+    /// Joint 5 turned to the positive side of the aligned position.
+    Plus,
+    /// Joint 5 turned to the negative side of the aligned position.
+    Minus,
+}
+
+/// The branch label of a configuration: the choice at the shoulder, the elbow and the wrist.
+///
+/// A label is a function of the joint values alone (see each solver's `branch_of`), so a
+/// controller can hold one branch while it moves.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub struct Branch {
+    /// Shoulder choice.
+    pub shoulder: Shoulder,
+    /// Elbow choice.
+    pub elbow: Elbow,
+    /// Wrist choice.
+    pub wrist: Wrist,
+}
+
+impl fmt::Display for Branch {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let shoulder = match self.shoulder {
+            Shoulder::Front => "shoulder front",
+            Shoulder::Back => "shoulder back",
+            Shoulder::Only => "shoulder single",
+        };
+        let elbow = match self.elbow {
+            Elbow::Up => "elbow up",
+            Elbow::Down => "elbow down",
+            Elbow::Extended => "slide extended",
+            Elbow::Retracted => "slide retracted",
+            Elbow::Only => "elbow single",
+        };
+        let wrist = match self.wrist {
+            Wrist::Plus => "wrist plus",
+            Wrist::Minus => "wrist minus",
+        };
+        write!(f, "{shoulder}, {elbow}, {wrist}")
+    }
+}
+
+/// Conditions a solution was found under (a small bit set).
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Hash)]
+pub struct Flags(u8);
+
+impl Flags {
+    /// No condition.
+    pub const NONE: Flags = Flags(0);
+    /// Joint 5 at the aligned position: joints 4 and 6 turn about one line, only their sum (or
+    /// difference) is fixed by the pose. Joint 4 was kept at the reference value (or the
+    /// reference plus a half turn for the second representative).
+    pub const WRIST_ALIGNED: Flags = Flags(1);
+    /// The wrist center on axis 1: joint 1 is free; it was kept at the reference value (or the
+    /// reference plus a half turn).
+    pub const ON_AXIS_1: Flags = Flags(2);
+    /// The target is on a reach boundary (within the solver's tolerance): two branches meet
+    /// in one configuration, returned once.
+    pub const AT_REACH_LIMIT: Flags = Flags(4);
+
+    /// True when every condition in `other` is set here.
+    pub const fn contains(self, other: Flags) -> bool {
+        self.0 & other.0 == other.0
+    }
+    /// True when no condition is set.
+    pub const fn is_empty(self) -> bool {
+        self.0 == 0
+    }
+    /// Both sets of conditions.
+    pub const fn union(self, other: Flags) -> Flags {
+        Flags(self.0 | other.0)
+    }
+    /// True when the solution is at a singularity or a boundary (any flag set).
+    pub const fn is_singular(self) -> bool {
+        self.0 != 0
+    }
+}
+
+/// One inverse-kinematics solution.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Solution {
+    /// Joint values, SI (radians or metres), within the joints' limits.
+    pub joints: [f64; JOINTS],
+    /// The branch this configuration belongs to.
+    pub branch: Branch,
+    /// Singular conditions met by this solution.
+    pub flags: Flags,
+}
+
+impl Solution {
+    /// A placeholder used to fill fixed-capacity storage.
+    pub const EMPTY: Solution = Solution {
+        joints: [0.0; JOINTS],
+        branch: Branch {
+            shoulder: Shoulder::Only,
+            elbow: Elbow::Only,
+            wrist: Wrist::Plus,
+        },
+        flags: Flags::NONE,
+    };
+}
+
+/// What is wrong with a target pose given to a solver.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum PoseProblem {
+    /// An entry is NaN or infinite.
+    NotFinite,
+    /// `RᵀR` differs from the identity by more than 1e-6 (largest entry difference given).
+    NotOrthonormal {
+        /// Largest absolute entry of `RᵀR − I`.
+        error: f64,
+    },
+    /// The rotation is a reflection (determinant −1).
+    Reflection,
+}
+
+/// Why a target has no solution.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Unreachable {
+    /// The pose itself is invalid.
+    InvalidPose(PoseProblem),
+    /// The wrist center is farther than the arm reaches, by `by` metres.
+    BeyondReach {
+        /// Metres beyond the reach.
+        by: f64,
+    },
+    /// The wrist center is inside the region the arm cannot reach around its shoulder
+    /// (too close to axis 1 for the shoulder offset, or closer to axis 2 than the folded arm),
+    /// by `by` metres.
+    InsideHole {
+        /// Metres inside the unreachable region.
+        by: f64,
+    },
+    /// The wrist cannot turn the tool to the requested orientation (possible only for wrists
+    /// whose twist angles differ); `by` is the angle in radians by which the requested
+    /// direction of axis 6 misses the cone the wrist can reach.
+    WristOrientation {
+        /// Radians outside the reachable cone.
+        by: f64,
+    },
+    /// Every solution has a joint outside its limits; the one closest to the limits violates
+    /// `joint` (0-based) by `by` (radians or metres).
+    OutsideLimits {
+        /// 0-based joint index.
+        joint: usize,
+        /// Radians or metres beyond the nearest limit.
+        by: f64,
+    },
+    /// The target is reachable, but not in the requested branch.
+    BranchUnavailable,
+}
+
+impl fmt::Display for Unreachable {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match *self {
+            Unreachable::InvalidPose(PoseProblem::NotFinite) => {
+                write!(f, "invalid pose: an entry is NaN or infinite")
+            }
+            Unreachable::InvalidPose(PoseProblem::NotOrthonormal { error }) => write!(
+                f,
+                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {error:e}, allowed 1e-6)"
+            ),
+            Unreachable::InvalidPose(PoseProblem::Reflection) => {
+                write!(f, "invalid pose: the rotation is a reflection (determinant −1)")
+            }
+            Unreachable::BeyondReach { by } => {
+                write!(f, "the wrist center is beyond reach by {by:e} m")
+            }
+            Unreachable::InsideHole { by } => write!(
+                f,
+                "the wrist center is inside the unreachable region near the shoulder by {by:e} m"
+            ),
+            Unreachable::WristOrientation { by } => write!(
+                f,
+                "the wrist cannot reach this orientation: axis 6 misses its reachable cone by {by:e} rad"
+            ),
+            Unreachable::OutsideLimits { joint, by } => write!(
+                f,
+                "every solution is outside the joint limits; the closest violates joint {} by {by:e}",
+                joint + 1
+            ),
+            Unreachable::BranchUnavailable => {
+                write!(f, "the target is reachable, but not in the requested branch")
+            }
+        }
+    }
+}
+
+/// Solutions in fixed-capacity storage (no heap), with the reason when there are none.
+#[derive(Clone, Debug)]
+pub struct SolutionSet<const CAP: usize> {
+    solutions: [Solution; CAP],
+    len: usize,
+    reason: Option<Unreachable>,
+}
+
+impl<const CAP: usize> SolutionSet<CAP> {
+    /// An empty set with a reason.
+    pub const fn unreachable(reason: Unreachable) -> Self {
+        SolutionSet {
+            solutions: [Solution::EMPTY; CAP],
+            len: 0,
+            reason: Some(reason),
+        }
+    }
+
+    /// Builds a set from storage, the number of filled entries and the reason for none.
+    pub(crate) fn from_parts(
+        solutions: [Solution; CAP],
+        len: usize,
+        reason: Option<Unreachable>,
+    ) -> Self {
+        SolutionSet {
+            solutions,
+            len: if len < CAP { len } else { CAP },
+            reason,
+        }
+    }
+
+    /// The solutions as a slice.
+    pub fn as_slice(&self) -> &[Solution] {
+        self.solutions.get(..self.len).unwrap_or(&[])
+    }
+
+    /// Iterates over the solutions.
+    pub fn iter(&self) -> core::slice::Iter<'_, Solution> {
+        self.as_slice().iter()
+    }
+
+    /// Number of solutions.
+    pub fn len(&self) -> usize {
+        self.len
+    }
+
+    /// True when there is no solution.
+    pub fn is_empty(&self) -> bool {
+        self.len == 0
+    }
+
+    /// Why there is no solution (`None` when there is at least one).
+    pub fn reason(&self) -> Option<Unreachable> {
+        self.reason
+    }
+
+    /// `Ok(solutions)` or `Err(reason)`.
+    pub fn status(&self) -> Result<&[Solution], Unreachable> {
+        match self.reason {
+            Some(reason) if self.len == 0 => Err(reason),
+            _ => Ok(self.as_slice()),
+        }
+    }
+}
+
+impl<'a, const CAP: usize> IntoIterator for &'a SolutionSet<CAP> {
+    type Item = &'a Solution;
+    type IntoIter = core::slice::Iter<'a, Solution>;
+    fn into_iter(self) -> Self::IntoIter {
+        self.iter()
+    }
+}

@@ -1,0 +1,180 @@
+//! The example arms in `arms/` are what later stages rely on: every one has a spherical wrist
+//! (axes 4, 5 and 6 meet in one point, axis 4 ∦ axis 5, axis 5 ∦ axis 6) and its first three
+//! joints form one of the solvable families (elbow, polar, cylindrical, cartesian). Checked
+//! here from the model's lines directly, independent of the classifier.
+
+use std::collections::BTreeSet;
+
+use armforge_generator::description::load_file;
+use armforge_generator::model::Model;
+use armforge_runtime::math::{cross, dot, norm, sub};
+use armforge_runtime::{joint_motion, JointKind};
+use armforge_tests::example_arm_paths;
+
+const ON_LINE: f64 = 1e-9;
+const NOT_PARALLEL: f64 = 1e-3;
+
+fn arms() -> Vec<(String, Model)> {
+    example_arm_paths()
+        .into_iter()
+        .map(|p| {
+            let model = load_file(&p).unwrap_or_else(|d| panic!("{d}"));
+            (p.display().to_string(), model)
+        })
+        .collect()
+}
+
+fn axis(model: &Model, i: usize) -> [f64; 3] {
+    model.joints[i].joint.axis
+}
+
+fn distance_from_line(model: &Model, i: usize, p: &[f64; 3]) -> f64 {
+    let j = &model.joints[i].joint;
+    norm(&cross(&sub(p, &j.point), &j.axis))
+}
+
+/// The point where the lines of joints `i` and `k` meet (closest point on line `i`).
+fn meeting_point(model: &Model, i: usize, k: usize) -> [f64; 3] {
+    let (a, b) = (&model.joints[i].joint, &model.joints[k].joint);
+    // Closest points of two lines (common practice): solve for s along a.
+    let w = sub(&a.point, &b.point);
+    let (aa, ab, bb) = (
+        dot(&a.axis, &a.axis),
+        dot(&a.axis, &b.axis),
+        dot(&b.axis, &b.axis),
+    );
+    let (aw, bw) = (dot(&a.axis, &w), dot(&b.axis, &w));
+    let s = (ab * bw - bb * aw) / (aa * bb - ab * ab);
+    [
+        a.point[0] + s * a.axis[0],
+        a.point[1] + s * a.axis[1],
+        a.point[2] + s * a.axis[2],
+    ]
+}
+
+#[test]
+fn every_example_arm_has_a_spherical_wrist_that_holds_its_center_still() {
+    for (path, model) in arms() {
+        assert_eq!(model.joints.len(), 6, "{path}");
+        assert!(
+            (3..6).all(|i| model.joints[i].joint.kind == JointKind::Revolute),
+            "{path}"
+        );
+        assert!(
+            norm(&cross(&axis(&model, 3), &axis(&model, 4))) > NOT_PARALLEL,
+            "{path}"
+        );
+        assert!(
+            norm(&cross(&axis(&model, 4), &axis(&model, 5))) > NOT_PARALLEL,
+            "{path}"
+        );
+        let center = meeting_point(&model, 3, 4);
+        for i in 3..6 {
+            assert!(
+                distance_from_line(&model, i, &center) < ON_LINE,
+                "{path}: joint {}",
+                i + 1
+            );
+        }
+        // Pieper: E4·E5·E6 leaves the wrist center where it is, for any joint values.
+        let moved = [0.7, -1.2, 2.9];
+        let mut c = center;
+        for (i, q) in (3..6).zip(moved).rev() {
+            c = joint_motion(&model.joints[i].joint, q).transform_point(&c);
+        }
+        assert!(
+            norm(&sub(&c, &center)) < 1e-12,
+            "{path}: {c:?} vs {center:?}"
+        );
+    }
+}
+
+#[test]
+fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
+    let mut families = BTreeSet::new();
+    for (path, model) in arms() {
+        let kinds: Vec<JointKind> = (0..3).map(|i| model.joints[i].joint.kind).collect();
+        let (h1, h2, h3) = (axis(&model, 0), axis(&model, 1), axis(&model, 2));
+        use JointKind::{Prismatic as P, Revolute as R};
+        let family = match kinds.as_slice() {
+            [R, R, R] => {
+                assert!(norm(&cross(&h2, &h3)) < ON_LINE, "{path}: axis 2 ∥ axis 3");
+                assert!(
+                    norm(&cross(&h1, &h2)) > NOT_PARALLEL,
+                    "{path}: axis 1 ∦ axis 2"
+                );
+                "elbow"
+            }
+            [R, R, P] => {
+                assert!(dot(&h2, &h3).abs() < ON_LINE, "{path}: slide ⟂ axis 2");
+                assert!(
+                    norm(&cross(&h1, &h2)) > NOT_PARALLEL,
+                    "{path}: axis 1 ∦ axis 2"
+                );
+                "polar"
+            }
+            [R, P, P] => {
+                assert!(
+                    norm(&cross(&h2, &h3)) > NOT_PARALLEL,
+                    "{path}: slides not parallel"
+                );
+                let both_perpendicular =
+                    dot(&h1, &h2).abs() < ON_LINE && dot(&h1, &h3).abs() < ON_LINE;
+                assert!(!both_perpendicular, "{path}: not both slides ⟂ axis 1");
+                "cylindrical"
+            }
+            [P, P, P] => {
+                assert!(
+                    dot(&h1, &cross(&h2, &h3)).abs() > NOT_PARALLEL,
+                    "{path}: independent slides"
+                );
+                "cartesian"
+            }
+            other => panic!("{path}: first three joints {other:?} are no solvable family"),
+        };
+        families.insert(family);
+    }
+    assert!(
+        families.contains("elbow") && families.contains("cartesian"),
+        "{families:?}"
+    );
+}
+
+#[test]
+fn the_example_arms_cover_conventions_units_bases_and_wide_ranges() {
+    let texts: Vec<String> = example_arm_paths()
+        .iter()
+        .map(|p| std::fs::read_to_string(p).unwrap())
+        .collect();
+    for convention in ["\"dh\"", "\"modified-dh\"", "\"axes\""] {
+        assert!(texts
+            .iter()
+            .any(|t| t.contains(&format!("convention = {convention}"))));
+    }
+    assert!(texts.iter().any(|t| t.contains("length_unit = \"mm\"")));
+    assert!(texts.iter().any(|t| t.contains("angle_unit = \"deg\"")));
+    assert!(texts
+        .iter()
+        .any(|t| t.contains("convention = \"axes\"") && t.contains("[base]")));
+    assert!(
+        texts.iter().all(|t| t.starts_with('#')),
+        "each file starts with its scenario"
+    );
+    let arms = arms();
+    let wider_than_a_turn = arms.iter().any(|(_, m)| {
+        m.joints.iter().any(|j| {
+            j.joint.kind == JointKind::Revolute
+                && j.joint.limits[1] - j.joint.limits[0] > 2.0 * std::f64::consts::PI
+        })
+    });
+    assert!(wider_than_a_turn);
+    for (path, model) in &arms {
+        for (i, joint) in model.joints.iter().enumerate() {
+            assert_ne!(
+                joint.name,
+                format!("joint {}", i + 1),
+                "{path}: every joint is named"
+            );
+        }
+    }
+}
