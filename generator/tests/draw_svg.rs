@@ -531,6 +531,7 @@ fn a_solutions_drawing_has_one_labelled_panel_per_configuration() {
         .map(|(label, q)| Panel {
             caption: label.to_string(),
             joint_values: degrees(*q),
+            alternatives: Vec::new(),
         })
         .collect();
     let target = model.forward(&degrees(configurations[0].1));
@@ -608,6 +609,7 @@ fn dump_drawings_when_asked() {
                 40.0,
                 0.0,
             ]),
+            alternatives: Vec::new(),
         })
         .collect();
     let target = model.forward(&panels[0].joint_values);

@@ -4,7 +4,9 @@ use armforge_runtime::JointKind;
 use svg::node::element::{Group, Polygon, Rectangle as Rect};
 
 use super::layout::{PageLayout, MARGIN};
-use super::primitives::{arrow, circle, end_on_axis, num, point_list, segment, text, text_width};
+use super::primitives::{
+    arrow, circle, end_on_axis, num, point_list, segment, text, text_width, wrap_words,
+};
 use super::scale_bar::ScaleBar;
 use super::style;
 use super::Drawing;
@@ -51,7 +53,7 @@ pub fn footer(drawing: &Drawing, layout: &PageLayout, bar: &ScaleBar) -> (Group,
     }
     let names = joint_names(drawing.model);
     let max_chars = ((right - MARGIN) / (0.6 * style::NORMAL)) as usize;
-    for line in wrap(&names, max_chars) {
+    for line in wrap_words(&names, max_chars) {
         cursor = [MARGIN, cursor[1] + FOOTER_LINE];
         group = group
             .add(text([MARGIN, cursor[1]], &line, style::NORMAL, "start").set("fill", style::TEXT));
@@ -251,23 +253,4 @@ fn joint_names(model: &Model) -> String {
         })
         .collect();
     format!("joints: {}", names.join(" · "))
-}
-
-/// Splits text at ` · ` separators (or spaces) into lines of at most `max_chars` characters.
-fn wrap(s: &str, max_chars: usize) -> Vec<String> {
-    let mut lines = Vec::new();
-    let mut line = String::new();
-    for word in s.split(' ') {
-        if !line.is_empty() && line.chars().count() + 1 + word.chars().count() > max_chars {
-            lines.push(std::mem::take(&mut line));
-        }
-        if !line.is_empty() {
-            line.push(' ');
-        }
-        line.push_str(word);
-    }
-    if !line.is_empty() {
-        lines.push(line);
-    }
-    lines
 }

@@ -147,6 +147,8 @@ pub struct PageLayout {
     pub captions: Vec<[f64; 2]>,
     /// The top of the footer, px.
     pub footer_top: f64,
+    /// The width of one panel, px.
+    pub panel_width: f64,
 }
 
 /// What the layout needs to know.
@@ -250,5 +252,6 @@ pub fn lay_out(request: &LayoutRequest) -> PageLayout {
         frames,
         captions,
         footer_top,
+        panel_width: panel_size[0],
     }
 }

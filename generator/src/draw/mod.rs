@@ -26,6 +26,7 @@ mod geometry;
 mod labels;
 mod layout;
 mod page;
+mod panels;
 mod primitives;
 mod render_view;
 mod scale_bar;
@@ -39,6 +40,7 @@ use armforge_runtime::{JointKind, Pose};
 use crate::model::Model;
 
 pub use layout::Arrangement;
+pub use panels::solution_panels;
 pub use scale_bar::{round_length, ScaleBar};
 pub use scene::{ArmScene, JointMark, Skeleton};
 pub use view::ViewKind;
@@ -54,6 +56,9 @@ pub struct Panel {
     pub caption: String,
     /// Joint values in SI units (radians, metres); missing values count as zero.
     pub joint_values: Vec<f64>,
+    /// Other joint values that put the arm in the same place (whole turns of revolute
+    /// joints), named under the joint values.
+    pub alternatives: Vec<Vec<f64>>,
 }
 
 /// A drawing of an arm: one or more panels of the same views at one scale.
@@ -87,6 +92,7 @@ impl<'a> Drawing<'a> {
             panels: vec![Panel {
                 caption: "joint values".to_string(),
                 joint_values,
+                alternatives: Vec::new(),
             }],
             views: vec![ViewKind::Side, ViewKind::Top, ViewKind::Front],
             arrangement: Arrangement::Row,
@@ -96,16 +102,24 @@ impl<'a> Drawing<'a> {
         }
     }
 
-    /// Every solution of a tool pose (world frame, SI): one panel each with a side view above a
-    /// top view, up to four panels per row, over the target pose.
+    /// Every configuration for a tool pose (world frame, SI): one panel each with a side view
+    /// above a top view, up to four panels per row, over the target pose. Make the panels of a
+    /// solver's answer with [`solution_panels`].
     pub fn solutions(model: &'a Model, target: Pose, panels: Vec<Panel>) -> Drawing<'a> {
         let count = panels.len();
+        let with_turns: usize = panels.iter().map(|p| 1 + p.alternatives.len()).sum();
+        let mut subject = match count {
+            1 => "the one configuration for a tool pose".to_string(),
+            n => format!("all {n} configurations for one tool pose"),
+        };
+        if with_turns > count {
+            subject.push_str(&format!(
+                " ({with_turns} joint solutions counting whole turns)"
+            ));
+        }
         Drawing {
             model,
-            subject: match count {
-                1 => "the one solution for a tool pose".to_string(),
-                n => format!("all {n} solutions for one tool pose"),
-            },
+            subject,
             panels,
             views: vec![ViewKind::Side, ViewKind::Top],
             arrangement: Arrangement::Column,

@@ -6,7 +6,7 @@ use svg::Document;
 
 use super::footer::footer;
 use super::layout::{lay_out, Arrangement, Bounds, LayoutRequest, PageLayout, MARGIN};
-use super::primitives::{num, text};
+use super::primitives::{num, text, wrap_words};
 use super::render_view::{render_view, ViewInput};
 use super::scale_bar::ScaleBar;
 use super::scene::{ArmScene, Skeleton};
@@ -19,6 +19,8 @@ use crate::model::Model;
 const SINGLE_PANEL_EXTENT: f64 = 360.0;
 /// The largest view extent of a page with several panels, px.
 const MULTI_PANEL_EXTENT: f64 = 240.0;
+/// How much wider bold text runs than regular text.
+const BOLD_WIDTH: f64 = 1.12;
 /// Joint values per caption line when a panel's views are stacked (narrow panels).
 const VALUES_PER_NARROW_LINE: usize = 3;
 
@@ -52,17 +54,12 @@ pub fn render(drawing: &Drawing) -> String {
         .collect();
     let largest = bounds.iter().flat_map(|b| b.size()).fold(0.0, f64::max);
     let bar = ScaleBar::for_extent(&model.units, largest);
-    let captions: Vec<Vec<String>> = drawing
-        .panels
-        .iter()
-        .map(|p| caption_lines(model, p, drawing.arrangement))
-        .collect();
-    let mut layout = lay_out(&LayoutRequest {
+    let request = |caption_lines| LayoutRequest {
         views: &drawing.views,
         arrangement: drawing.arrangement,
         panels: drawing.panels.len(),
         columns: drawing.columns,
-        caption_lines: captions.iter().map(Vec::len).max().unwrap_or(1),
+        caption_lines,
         largest_extent_px: if drawing.panels.len() > 1 {
             MULTI_PANEL_EXTENT
         } else {
@@ -70,7 +67,14 @@ pub fn render(drawing: &Drawing) -> String {
         },
         footer_height: 0.0,
         bounds: &bounds,
-    });
+    };
+    let panel_width = lay_out(&request(1)).panel_width;
+    let captions: Vec<Vec<CaptionLine>> = drawing
+        .panels
+        .iter()
+        .map(|p| caption_lines(model, p, drawing.arrangement, panel_width))
+        .collect();
+    let mut layout = lay_out(&request(captions.iter().map(Vec::len).max().unwrap_or(1)));
     let (footer, footer_height) = footer(drawing, &layout, &bar);
     layout.height += footer_height;
 
@@ -151,8 +155,21 @@ fn shorten(s: &str, max_chars: usize) -> String {
     }
 }
 
-/// The caption's lines: the panel's heading, then the joint values in the file's units.
-fn caption_lines(model: &Model, panel: &super::Panel, arrangement: Arrangement) -> Vec<String> {
+/// One line of a panel's caption.
+struct CaptionLine {
+    text: String,
+    bold: bool,
+}
+
+/// The caption's lines, wrapped to the panel's width: the panel's heading (bold), the joint
+/// values in the file's units, and the equivalent values of joints with whole-turn
+/// alternatives.
+fn caption_lines(
+    model: &Model,
+    panel: &super::Panel,
+    arrangement: Arrangement,
+    width: f64,
+) -> Vec<CaptionLine> {
     let values: Vec<String> = model
         .joints
         .iter()
@@ -166,7 +183,7 @@ fn caption_lines(model: &Model, panel: &super::Panel, arrangement: Arrangement) 
         Arrangement::Row => values.len().max(1),
         Arrangement::Column => VALUES_PER_NARROW_LINE,
     };
-    let mut lines = vec![panel.caption.clone()];
+    let mut plain = Vec::new();
     for (k, chunk) in values.chunks(per_line).enumerate() {
         let first = k * per_line + 1;
         let last = first + chunk.len() - 1;
@@ -175,9 +192,51 @@ fn caption_lines(model: &Model, panel: &super::Panel, arrangement: Arrangement) 
         } else {
             format!("q{first}–q{last}")
         };
-        lines.push(format!("{names}: {}", chunk.join(", ")));
+        plain.push(format!("{names}: {}", chunk.join(", ")));
+    }
+    plain.extend(alternatives_line(model, panel));
+    let chars =
+        |bold_factor: f64| ((width - 4.0) / (bold_factor * 0.58 * style::NORMAL)).max(8.0) as usize;
+    let mut lines: Vec<CaptionLine> = wrap_words(&panel.caption, chars(BOLD_WIDTH))
+        .into_iter()
+        .map(|text| CaptionLine { text, bold: true })
+        .collect();
+    for line in plain {
+        lines.extend(
+            wrap_words(&line, chars(1.0))
+                .into_iter()
+                .map(|text| CaptionLine { text, bold: false }),
+        );
     }
     lines
+}
+
+/// `also q4 = 180°; q6 = 270° or -450°`: the other values of joints that differ among the
+/// panel's equivalent solutions.
+fn alternatives_line(model: &Model, panel: &super::Panel) -> Option<String> {
+    let mut parts = Vec::new();
+    for (i, joint) in model.joints.iter().enumerate() {
+        let shown = joint_value(
+            model,
+            joint.joint.kind,
+            panel.joint_values.get(i).copied().unwrap_or(0.0),
+        );
+        let mut others: Vec<String> = Vec::new();
+        for alternative in &panel.alternatives {
+            let v = joint_value(
+                model,
+                joint.joint.kind,
+                alternative.get(i).copied().unwrap_or(0.0),
+            );
+            if v != shown && !others.contains(&v) {
+                others.push(v);
+            }
+        }
+        if !others.is_empty() {
+            parts.push(format!("q{} = {}", i + 1, others.join(" or ")));
+        }
+    }
+    (!parts.is_empty()).then(|| format!("also {}", parts.join("; ")))
 }
 
 /// A joint value in the file's unit, two decimals at most.
@@ -193,14 +252,15 @@ fn joint_value(model: &Model, kind: JointKind, si: f64) -> String {
     }
 }
 
-fn caption(lines: &[String], corner: [f64; 2], panel: usize) -> Group {
+fn caption(lines: &[CaptionLine], corner: [f64; 2], panel: usize) -> Group {
     let mut group = Group::new()
         .set("class", "caption")
         .set("data-panel", panel.to_string());
     for (k, line) in lines.iter().enumerate() {
         let y = corner[1] + 12.0 + k as f64 * super::layout::CAPTION_LINE;
-        let t = text([corner[0] + 2.0, y], line, style::NORMAL, "start").set("fill", style::TEXT);
-        group = group.add(if k == 0 {
+        let t =
+            text([corner[0] + 2.0, y], &line.text, style::NORMAL, "start").set("fill", style::TEXT);
+        group = group.add(if line.bold {
             t.set("font-weight", "bold")
         } else {
             t

@@ -130,6 +130,25 @@ pub fn end_on_axis(centre: [f64; 2], radius: f64, toward: bool, colour: &str) ->
     }
 }
 
+/// Splits text at spaces into lines of at most `max_chars` characters.
+pub fn wrap_words(s: &str, max_chars: usize) -> Vec<String> {
+    let mut lines = Vec::new();
+    let mut line = String::new();
+    for word in s.split(' ') {
+        if !line.is_empty() && line.chars().count() + 1 + word.chars().count() > max_chars {
+            lines.push(std::mem::take(&mut line));
+        }
+        if !line.is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+    }
+    if !line.is_empty() {
+        lines.push(line);
+    }
+    lines
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
