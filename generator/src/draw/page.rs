@@ -14,6 +14,7 @@ use super::style;
 use super::symbols::{extent_points, frame_tips, Lengths};
 use super::Drawing;
 use crate::model::Model;
+use crate::units::{AngleUnit, LengthUnit};
 
 /// The largest view extent of a page with one panel, px.
 const SINGLE_PANEL_EXTENT: f64 = 360.0;
@@ -239,11 +240,18 @@ fn alternatives_line(model: &Model, panel: &super::Panel) -> Option<String> {
     (!parts.is_empty()).then(|| format!("also {}", parts.join("; ")))
 }
 
-/// A joint value in the file's unit, two decimals at most.
+/// A joint value in the file's unit, to about a tenth of a degree or millimetre (0.001 rad,
+/// 0.1 mm in metres), trailing zeros dropped.
 fn joint_value(model: &Model, kind: JointKind, si: f64) -> String {
     let units = &model.units;
     let v = units.joint_from_si(kind, si);
-    let s = format!("{v:.2}");
+    let decimals = match (kind, units.angle, units.length) {
+        (JointKind::Revolute, AngleUnit::Degree, _) => 1,
+        (JointKind::Revolute, AngleUnit::Radian, _) => 3,
+        (JointKind::Prismatic, _, LengthUnit::Millimetre) => 1,
+        (JointKind::Prismatic, _, LengthUnit::Metre) => 4,
+    };
+    let s = format!("{v:.decimals$}");
     let s = s.trim_end_matches('0').trim_end_matches('.');
     let s = if s == "-0" { "0" } else { s };
     match kind {
