@@ -30,8 +30,9 @@ pub enum CheckKind {
     BeyondReach,
     /// Real when `have_squared ≥ limit²`; otherwise inside the hole by `limit − √have` metres.
     InsideHole,
-    /// Real when `have_squared ≥ 0` (the squared sine of the wrist's cone gap, negative when
-    /// the cones miss each other); otherwise misses by about `√(−have)` radians.
+    /// Real when `have_squared ≥ 0` (`γ² |h4 × h5|²` of Paden–Kahan subproblem 2, negative
+    /// when the two cones miss each other); `limit` is `h4 · v`, the cosine of the angle
+    /// between axis 4 and the requested direction of axis 6 after joints 1–3.
     WristOrientation,
 }
 
@@ -81,6 +82,9 @@ pub struct Settings {
     pub limit_tolerance: f64,
     /// Two solutions closer than this in every joint are one.
     pub duplicate_tolerance: f64,
+    /// `h4 · h5` and `h5 · h6`: the wrist's twist cosines, to say by how much an orientation
+    /// misses what the wrist reaches.
+    pub wrist_twist_cosines: [f64; 2],
 }
 
 /// Checks that a target pose is finite with a proper orthonormal rotation (within 1e-6).
@@ -200,6 +204,23 @@ fn floor(x: f64) -> f64 {
     }
 }
 
+/// `acos` through `atan2` (works without `std`), argument clamped to `[−1, 1]`.
+fn acos(x: f64) -> f64 {
+    let x = crate::math::clamp(x, -1.0, 1.0);
+    crate::math::atan2(sqrt((1.0 - x) * (1.0 + x)), x)
+}
+
+/// By how much (radians) the angle between axis 4 and the requested axis-6 direction misses
+/// the band the wrist reaches: `z = R5 h6` keeps the angle `φ56` to `h5`, which keeps `φ45` to
+/// `h4`, so the angle to `h4` lies in `[|φ45 − φ56|, min(φ45 + φ56, 2π − φ45 − φ56)]`.
+fn wrist_miss(cos_angle: f64, [c45, c56]: [f64; 2]) -> f64 {
+    let angle = acos(cos_angle);
+    let (p45, p56) = (acos(c45), acos(c56));
+    let lo = abs(p45 - p56);
+    let hi = (p45 + p56).min(TAU - p45 - p56);
+    (lo - angle).max(angle - hi).max(0.0)
+}
+
 /// The outcome of a candidate's checks.
 enum Verdict {
     Real { at_limit: bool },
@@ -232,7 +253,7 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
             }
             CheckKind::WristOrientation => {
                 if c.have_squared < -settings.angle_tolerance {
-                    let by = sqrt(-c.have_squared);
+                    let by = wrist_miss(c.limit, settings.wrist_twist_cosines);
                     return Verdict::Fails(Unreachable::WristOrientation { by }, by);
                 }
             }
@@ -268,10 +289,19 @@ fn is_duplicate(
     })
 }
 
-/// Keeps the better (smaller) of two failure reasons.
+/// How far through the steps a failed candidate got: a candidate whose position was
+/// reachable but whose wrist was not says more than one whose position was out of reach.
+fn stage(reason: &Unreachable) -> u8 {
+    match reason {
+        Unreachable::WristOrientation { .. } => 1,
+        _ => 0,
+    }
+}
+
+/// Keeps the more telling of two failure reasons: the later stage, then the smaller miss.
 fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amount: f64) {
     match best {
-        Some((_, a)) if *a <= amount => {}
+        Some((r, a)) if (stage(r), -*a) >= (stage(&reason), -amount) => {}
         _ => *best = Some((reason, amount)),
     }
 }
