@@ -273,19 +273,29 @@ fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
     }
 }
 
+/// Two roots of one boundary closer than this (radians or metres) are one double root: at a
+/// reach boundary a rounding error ε in the cosine moves the roots by about √(2ε) ≈ 1.5e-8.
+pub const BOUNDARY_DUPLICATE_TOLERANCE: f64 = 1e-7;
+
 fn is_duplicate(
     joints: &[Joint; JOINTS],
     settings: &Settings,
     q: &[f64; JOINTS],
+    flags: Flags,
     found: &[Solution],
 ) -> bool {
     found.iter().any(|s| {
+        let at_limit =
+            flags.contains(Flags::AT_REACH_LIMIT) && s.flags.contains(Flags::AT_REACH_LIMIT);
+        let tolerance = if at_limit {
+            BOUNDARY_DUPLICATE_TOLERANCE
+        } else {
+            settings.duplicate_tolerance
+        };
         joints
             .iter()
             .zip(q.iter().zip(s.joints.iter()))
-            .all(|(j, (a, b))| {
-                joint_distance(j, *a, *b, settings.limit_tolerance) < settings.duplicate_tolerance
-            })
+            .all(|(j, (a, b))| joint_distance(j, *a, *b, settings.limit_tolerance) < tolerance)
     })
 }
 
@@ -399,7 +409,7 @@ fn push_combinations(
             rest /= n;
         }
         let found = out.get(..len).unwrap_or(&[]);
-        if is_duplicate(joints, settings, &q, found) {
+        if is_duplicate(joints, settings, &q, flags, found) {
             continue;
         }
         if let Some(slot) = out.get_mut(len) {

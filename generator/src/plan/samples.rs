@@ -7,7 +7,7 @@
 use armforge_runtime::{Joint, JointKind, Pose};
 
 use super::vec3::num;
-use crate::classify::{Family, Geometry};
+use crate::classify::{classify, Family, Geometry, Tolerances};
 use crate::diagnostics::Location;
 use crate::model::{Model, ModelJoint};
 use crate::units::Units;
@@ -153,7 +153,11 @@ fn prismatic(axis: [f64; 3], limits: [f64; 2]) -> Joint {
     }
 }
 
-/// A random arm of `family`: returns the model and its geometry (family and wrist center).
+/// A random arm of `family`: returns the model and its geometry as the classifier finds it.
+///
+/// # Panics
+///
+/// If the classifier disagrees with how the sample was built (a bug in one of them).
 pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model, Geometry) {
     let mut rng = SampleRng::new(seed.wrapping_mul(7919).wrapping_add(family as u64));
     let range = options.revolute_range;
@@ -279,13 +283,22 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         base,
         source_path: format!("<sample {} {seed}>", family_name(family)),
     };
-    (
-        model,
-        Geometry {
-            family,
-            wrist_center: c,
-        },
-    )
+    // The geometry comes from the classifier, as in the real pipeline; a sample is built to
+    // be of `family` with its wrist center at `c`, so anything else is a bug in one of them.
+    let geometry = match classify(&model, &Tolerances::default()) {
+        Ok(g) if g.family == family && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
+        Ok(g) => panic!(
+            "sample arm {seed}: built as {} with wrist center {c:?}, classified as {:?} with {:?}",
+            family_name(family),
+            g.family,
+            g.wrist_center
+        ),
+        Err(rejection) => panic!(
+            "sample arm {seed} of the {} family is rejected: {rejection}",
+            family_name(family)
+        ),
+    };
+    (model, geometry)
 }
 
 /// The family's name in lower case.
@@ -365,11 +378,9 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
         base: Pose::IDENTITY,
         source_path: "<upright elbow arm>".to_string(),
     };
-    (
-        model,
-        Geometry {
-            family: Family::Elbow,
-            wrist_center: c,
-        },
-    )
+    let geometry = match classify(&model, &Tolerances::default()) {
+        Ok(g) if g.family == Family::Elbow && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
+        other => panic!("the upright elbow arm must classify as an elbow arm: {other:?}"),
+    };
+    (model, geometry)
 }

@@ -105,7 +105,7 @@ pub const TOOL: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     clippy::unreadable_literal
 )]
 const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::internal::Settings {
-    length_tolerance: 1.4092025586314856e-10,
+    length_tolerance: 1.4092025586314853e-10,
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
@@ -120,7 +120,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [0.25138098356734706, 0.29998222105922023, -0.783405601408612],
         point: [-0.12610473873370642, -0.14855515348839365, 0.09120285126503383],
-        wrist_center: [-0.7369762517508438, 0.2905549304083685, 0.3059935384078808],
+        wrist_center: [-0.7369762517508439, 0.29055493040836866, 0.3059935384078808],
         front: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Bend {
@@ -228,14 +228,14 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.04706060139843278 * r00 + 0.04193708766352292 * r01
-            - 0.000633696763052161 * r02) - 0.24564840122849207;
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
     let t40 = py
-        + (0.04706060139843278 * r10 + 0.04193708766352292 * r11
-            - 0.000633696763052161 * r12) + 0.7394004936737368;
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
     let t42 = pz
-        + (0.04706060139843278 * r20 + 0.04193708766352292 * r21
-            - 0.000633696763052161 * r22) - 0.2460614690751377;
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
     let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
         - 0.7895760548136311 * t42;
@@ -260,15 +260,15 @@ fn candidates(
     let t96 = 0.004148680977921899 * u_z
         + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
     // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
-    let j1_e = 0.3966651704677066 - 0.48279802384713766 * t96;
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
     // r² = a² + b²
     let j1_r2 = j1_a * j1_a + j1_b * j1_b;
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535257e-20);
-    // ≥ 0 when r² < 1.9858518512535257e-20: θ is free, the reference is used
-    let j1_free = 1.9858518512535257e-20 - j1_r2;
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -323,7 +323,7 @@ fn candidates(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925763 * (d2_p - 0.6700752485449182),
+        2.565272444925764 * (d2_p - 0.6700752485449181),
         -1.0,
         1.0,
     );
@@ -333,8 +333,8 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
     let j2_inv_p = 1.0
-        / (0.3898221422750047 * j3_cos_psi_p + 0.6700752485449182)
-            .max(1.9858518512535257e-20);
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
     let t238 = 0.9901136168642846 * j3_cos_psi_p;
     let t240 = 0.14026769300136338 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -346,11 +346,11 @@ fn candidates(
     let j3_sin_pp = -t244;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.24671230803733352 * j3_cos_pp - 0.02011160130528493 * t244
+    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
         - 0.7702009139951951;
     let t267 = 0.082947433224273
-        - (0.04053331237297328 * j3_cos_pp + 0.09639828417151701 * t244);
-    let t268 = 0.0045873812886113585 * j3_cos_pp + 0.22985615222970426 * t244
+        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
+    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
         + 0.08633983745217953;
     let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
     let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
@@ -369,12 +369,12 @@ fn candidates(
     let j3_sin_pm = t243 - t242;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528493 * j3_sin_pm - 0.24671230803733352 * t296
+    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
         - 0.7702009139951951;
-    let t311 = 0.04053331237297328 * t296 + 0.09639828417151701 * j3_sin_pm
+    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
         + 0.082947433224273;
     let t312 = 0.08633983745217953
-        - (0.0045873812886113585 * t296 + 0.22985615222970426 * j3_sin_pm);
+        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
     let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
     let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
         + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
@@ -386,7 +386,7 @@ fn candidates(
     let t337 = t296 * t333 + j3_sin_pm * t334;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925763 * (d2_m - 0.6700752485449182),
+        2.565272444925764 * (d2_m - 0.6700752485449181),
         -1.0,
         1.0,
     );
@@ -396,8 +396,8 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
     let j2_inv_m = 1.0
-        / (0.3898221422750047 * j3_cos_psi_m + 0.6700752485449182)
-            .max(1.9858518512535257e-20);
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
     let t353 = 0.9901136168642846 * j3_cos_psi_m;
     let t354 = 0.14026769300136338 * j3_sin_psi_m;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -409,11 +409,11 @@ fn candidates(
     let j3_sin_mp = -t358;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_mp = -::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t371 = 0.24671230803733352 * j3_cos_mp - 0.02011160130528493 * t358
+    let t371 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t358
         - 0.7702009139951951;
     let t372 = 0.082947433224273
-        - (0.04053331237297328 * j3_cos_mp + 0.09639828417151701 * t358);
-    let t373 = 0.0045873812886113585 * j3_cos_mp + 0.22985615222970426 * t358
+        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t358);
+    let t373 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t358
         + 0.08633983745217953;
     let t378 = w_m_z * t373 + (w_m_x * t371 + w_m_y * t372);
     let t392 = 0.393370490499651 * (w_m_y * t371 - w_m_x * t372)
@@ -432,12 +432,12 @@ fn candidates(
     let j3_sin_mm = t357 - t356;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_mm = -::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
-    let t415 = 0.02011160130528493 * j3_sin_mm - 0.24671230803733352 * t401
+    let t415 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t401
         - 0.7702009139951951;
-    let t416 = 0.04053331237297328 * t401 + 0.09639828417151701 * j3_sin_mm
+    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_mm
         + 0.082947433224273;
     let t417 = 0.08633983745217953
-        - (0.0045873812886113585 * t401 + 0.22985615222970426 * j3_sin_mm);
+        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_mm);
     let t422 = w_m_z * t417 + (w_m_x * t415 + w_m_y * t416);
     let t436 = 0.393370490499651 * (w_m_y * t415 - w_m_x * t416)
         + (0.14192355343258098 * (w_m_z * t416 - w_m_y * t417)
@@ -1000,12 +1000,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1028,12 +1028,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1056,12 +1056,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1084,12 +1084,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1112,12 +1112,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1140,12 +1140,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1168,12 +1168,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1196,12 +1196,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.029513181469729,
+                    limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.529389371134247,
+                    limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1215,7 +1215,7 @@ mod tests {
     use super::{branch_of, forward, solve, JOINTS, JOINT_TABLE};
     /// The arm's length scale for position errors (metres).
     #[allow(clippy::approx_constant, clippy::excessive_precision)]
-    const REACH: f64 = 1.4092025586314856;
+    const REACH: f64 = 1.4092025586314854;
     /// A linear congruential generator (Knuth's MMIX constants): uniform in [0, 1).
     fn next(state: &mut u64) -> f64 {
         *state = state

@@ -105,7 +105,7 @@ pub const TOOL: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     clippy::unreadable_literal
 )]
 const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::internal::Settings {
-    length_tolerance: 1.1089247288945379e-10,
+    length_tolerance: 1.1089247288945376e-10,
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
@@ -120,12 +120,12 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [0.07772687934296175, -0.5727563020289683, 0.0048757245008763175],
         point: [-0.05414621230012627, 0.0007842334702639602, 0.06836364393080274],
-        wrist_center: [0.47737508243048954, 0.23655424907044323, -0.12338449690051959],
+        wrist_center: [0.4773750824304897, 0.2365542490704434, -0.12338449690051963],
         front: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Bend {
         sense: 1.0,
-        stretched: -1.9483185102348592,
+        stretched: -1.9483185102348586,
         up: 1.0,
     },
     wrist: ::armforge_runtime::internal::WristRule {
@@ -228,16 +228,16 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.10482996098294599 * r02
-            + (0.08709364649396545 * r00 + 0.008446421975486198 * r01))
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
         + 0.6832069059637735;
     let t40 = py
-        + (0.10482996098294599 * r12
-            + (0.08709364649396545 * r10 + 0.008446421975486198 * r11))
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
         + 0.360136483143775;
     let t42 = pz
-        + (0.10482996098294599 * r22
-            + (0.08709364649396545 * r20 + 0.008446421975486198 * r21))
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
         - 0.11524802033856063;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
     let wc_y = 0.7239207877946658 * t42
@@ -262,15 +262,15 @@ fn candidates(
     let t96 = 0.616255457921199 * u_z
         + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
     // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
-    let j1_e = 0.8160177559491569 * t96 + 0.022465540184081124;
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
     // r² = a² + b²
     let j1_r2 = j1_a * j1_a + j1_b * j1_b;
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538243e-20);
-    // ≥ 0 when r² < 1.2297140543538243e-20: θ is free, the reference is used
-    let j1_free = 1.2297140543538243e-20 - j1_r2;
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -325,7 +325,7 @@ fn candidates(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        4.04346293416957 * (d2_p - 0.3066020417701945),
+        4.043462934169572 * (d2_p - 0.30660204177019446),
         -1.0,
         1.0,
     );
@@ -335,24 +335,24 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
     let j2_inv_p = 1.0
-        / (0.2473127653896439 * j3_cos_psi_p + 0.3066020417701945)
-            .max(1.2297140543538243e-20);
-    let t238 = 0.36861827250839807 * j3_cos_psi_p;
-    let t240 = 0.9295808567160386 * j3_sin_psi_p;
+        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    let t238 = 0.3686182725083974 * j3_cos_psi_p;
+    let t240 = 0.9295808567160389 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_pp = t240 - t238;
-    let t242 = 0.9295808567160386 * j3_cos_psi_p;
-    let t243 = 0.36861827250839807 * j3_sin_psi_p;
+    let t242 = 0.9295808567160389 * j3_cos_psi_p;
+    let t243 = 0.3686182725083974 * j3_sin_psi_p;
     let t244 = t242 + t243;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pp = -t244;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t264 = 0.05936368491598959 * j3_cos_pp + 0.23271273627618383 * t244
+    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t265 = 0.05848896082131185 * t244 - 0.243174127970691 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t267 = 0.0057096716416241075 * j3_cos_pp + 0.07151313018083058 * t244
+    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
         + 0.12697460164967897;
     let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
     let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
@@ -372,10 +372,10 @@ fn candidates(
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
     let t308 = 0.38353760535766845
-        - (0.05936368491598959 * t295 + 0.23271273627618383 * j3_sin_pm);
-    let t309 = 0.243174127970691 * t295 - 0.05848896082131185 * j3_sin_pm
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
+    let t309 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t310 = 0.0057096716416241075 * t295 + 0.07151313018083058 * j3_sin_pm
+    let t310 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
     let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
     let t329 = 0.9580721924635943 * (w_p_y * t308 - w_p_x * t309)
@@ -391,7 +391,7 @@ fn candidates(
     let s23_pm = t295 * t333 + j3_sin_pm * t332;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        4.04346293416957 * (d2_m - 0.3066020417701945),
+        4.043462934169572 * (d2_m - 0.30660204177019446),
         -1.0,
         1.0,
     );
@@ -401,24 +401,24 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
     let j2_inv_m = 1.0
-        / (0.2473127653896439 * j3_cos_psi_m + 0.3066020417701945)
-            .max(1.2297140543538243e-20);
-    let t353 = 0.36861827250839807 * j3_cos_psi_m;
-    let t354 = 0.9295808567160386 * j3_sin_psi_m;
+        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    let t353 = 0.3686182725083974 * j3_cos_psi_m;
+    let t354 = 0.9295808567160389 * j3_sin_psi_m;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_mp = t354 - t353;
-    let t356 = 0.9295808567160386 * j3_cos_psi_m;
-    let t357 = 0.36861827250839807 * j3_sin_psi_m;
+    let t356 = 0.9295808567160389 * j3_cos_psi_m;
+    let t357 = 0.3686182725083974 * j3_sin_psi_m;
     let t358 = t356 + t357;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_mp = -t358;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t370 = 0.05936368491598959 * j3_cos_mp + 0.23271273627618383 * t358
+    let t370 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t358
         + 0.38353760535766845;
-    let t371 = 0.05848896082131185 * t358 - 0.243174127970691 * j3_cos_mp
+    let t371 = 0.058488960821312025 * t358 - 0.24317412797069082 * j3_cos_mp
         + 0.28405649725228804;
-    let t372 = 0.0057096716416241075 * j3_cos_mp + 0.07151313018083058 * t358
+    let t372 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t358
         + 0.12697460164967897;
     let t377 = w_m_x * t370 + w_m_y * t371 - w_m_z * t372;
     let t391 = 0.04652345630215346 * (w_m_x * t372 + w_m_z * t370)
@@ -438,10 +438,10 @@ fn candidates(
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
     let t413 = 0.38353760535766845
-        - (0.05936368491598959 * t400 + 0.23271273627618383 * j3_sin_mm);
-    let t414 = 0.243174127970691 * t400 - 0.05848896082131185 * j3_sin_mm
+        - (0.059363684915989756 * t400 + 0.23271273627618366 * j3_sin_mm);
+    let t414 = 0.24317412797069082 * t400 - 0.058488960821312025 * j3_sin_mm
         + 0.28405649725228804;
-    let t415 = 0.0057096716416241075 * t400 + 0.07151313018083058 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t400 + 0.07151313018083055 * j3_sin_mm
         - 0.12697460164967897;
     let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
     let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
@@ -1330,12 +1330,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1362,12 +1362,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1394,12 +1394,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1426,12 +1426,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1458,12 +1458,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1490,12 +1490,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1522,12 +1522,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1554,12 +1554,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 0.7442545311651374,
+                    limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.24349389392867865,
+                    limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1577,7 +1577,7 @@ mod tests {
     use super::{branch_of, forward, solve, JOINTS, JOINT_TABLE};
     /// The arm's length scale for position errors (metres).
     #[allow(clippy::approx_constant, clippy::excessive_precision)]
-    const REACH: f64 = 1.1089247288945379;
+    const REACH: f64 = 1.1089247288945376;
     /// A linear congruential generator (Knuth's MMIX constants): uniform in [0, 1).
     fn next(state: &mut u64) -> f64 {
         *state = state

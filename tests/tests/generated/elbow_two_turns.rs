@@ -105,7 +105,7 @@ pub const TOOL: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     clippy::unreadable_literal
 )]
 const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::internal::Settings {
-    length_tolerance: 1.6071999804771622e-10,
+    length_tolerance: 1.607199980477163e-10,
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
@@ -120,12 +120,12 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [0.34053123949945474, 0.5665013041999709, -0.6810061803766807],
         point: [0.05174928778435288, 0.10106495215777812, -0.16109142656675932],
-        wrist_center: [-0.8342317670431967, 0.37936098520415523, 0.38476990157572755],
+        wrist_center: [-0.8342317670431972, 0.37936098520415545, 0.38476990157572766],
         front: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Bend {
         sense: 1.0,
-        stretched: 1.1514344052828462,
+        stretched: 1.151434405282846,
         up: 1.0,
     },
     wrist: ::armforge_runtime::internal::WristRule {
@@ -228,16 +228,16 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        - (0.11780017144694592 * r02
-            + (0.13681253900654888 * r00 + 0.10052049241230046 * r01))
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
         - 0.9952394067927088;
     let t40 = py
-        - (0.11780017144694592 * r12
-            + (0.13681253900654888 * r10 + 0.10052049241230046 * r11))
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
         + 0.6613976333511493;
     let t42 = pz
-        - (0.11780017144694592 * r22
-            + (0.13681253900654888 * r20 + 0.10052049241230046 * r21))
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
         - 0.9158300892120408;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
     let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
@@ -263,15 +263,15 @@ fn candidates(
     let t96 = 0.16868586344770164 * u_z
         + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
     // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
-    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577706;
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
     // r² = a² + b²
     let j1_r2 = j1_a * j1_a + j1_b * j1_b;
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457908e-20);
-    // ≥ 0 when r² < 2.5830917772457908e-20: θ is free, the reference is used
-    let j1_free = 2.5830917772457908e-20 - j1_r2;
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -326,7 +326,7 @@ fn candidates(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        1.5947485933949066 * (d2_p - 0.6411670638136759),
+        1.5947485933949053 * (d2_p - 0.6411670638136766),
         -1.0,
         1.0,
     );
@@ -336,23 +336,23 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
     let j2_inv_p = 1.0
-        / (0.6270580856078364 * j3_cos_psi_p + 0.6411670638136759)
-            .max(2.5830917772457908e-20);
-    let t239 = 0.4071777476800673 * j3_cos_psi_p;
-    let t240 = 0.9133489375885798 * j3_sin_psi_p;
+        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    let t239 = 0.4071777476800675 * j3_cos_psi_p;
+    let t240 = 0.9133489375885797 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
     let j3_cos_pp = t239 - t240;
-    let t242 = 0.9133489375885798 * j3_cos_psi_p;
-    let t243 = 0.4071777476800673 * j3_sin_psi_p;
+    let t242 = 0.9133489375885797 * j3_cos_psi_p;
+    let t243 = 0.4071777476800675 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pp = t242 + t243;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t263 = 0.29618845398521293 * j3_cos_pp + 0.2631411817706988 * j3_sin_pp
+    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
         + 0.292065217972989;
-    let t265 = 0.5192451277093604 * j3_cos_pp - 0.3080607744485823 * j3_sin_pp
+    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
         - 0.05659539424856903;
-    let t266 = 0.17356112199186755 * j3_cos_pp + 0.4725694062183844 * j3_sin_pp
+    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
         + 0.4064423300085499;
     let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
     let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
@@ -372,11 +372,11 @@ fn candidates(
     let j3_sin_pm = t242 - t243;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t307 = 0.29618845398521293 * j3_cos_pm + 0.2631411817706988 * j3_sin_pm
+    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
         + 0.292065217972989;
-    let t308 = 0.5192451277093604 * j3_cos_pm - 0.3080607744485823 * j3_sin_pm
+    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
         - 0.05659539424856903;
-    let t309 = 0.17356112199186755 * j3_cos_pm + 0.4725694062183844 * j3_sin_pm
+    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
         + 0.4064423300085499;
     let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
     let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
@@ -392,7 +392,7 @@ fn candidates(
     let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        1.5947485933949066 * (d2_m - 0.6411670638136759),
+        1.5947485933949053 * (d2_m - 0.6411670638136766),
         -1.0,
         1.0,
     );
@@ -402,23 +402,23 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
     let j2_inv_m = 1.0
-        / (0.6270580856078364 * j3_cos_psi_m + 0.6411670638136759)
-            .max(2.5830917772457908e-20);
-    let t351 = 0.4071777476800673 * j3_cos_psi_m;
-    let t352 = 0.9133489375885798 * j3_sin_psi_m;
+        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    let t351 = 0.4071777476800675 * j3_cos_psi_m;
+    let t352 = 0.9133489375885797 * j3_sin_psi_m;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
     let j3_cos_mp = t351 - t352;
-    let t354 = 0.9133489375885798 * j3_cos_psi_m;
-    let t355 = 0.4071777476800673 * j3_sin_psi_m;
+    let t354 = 0.9133489375885797 * j3_cos_psi_m;
+    let t355 = 0.4071777476800675 * j3_sin_psi_m;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_mp = t354 + t355;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t367 = 0.29618845398521293 * j3_cos_mp + 0.2631411817706988 * j3_sin_mp
+    let t367 = 0.29618845398521326 * j3_cos_mp + 0.2631411817706989 * j3_sin_mp
         + 0.292065217972989;
-    let t368 = 0.5192451277093604 * j3_cos_mp - 0.3080607744485823 * j3_sin_mp
+    let t368 = 0.5192451277093607 * j3_cos_mp - 0.3080607744485827 * j3_sin_mp
         - 0.05659539424856903;
-    let t369 = 0.17356112199186755 * j3_cos_mp + 0.4725694062183844 * j3_sin_mp
+    let t369 = 0.17356112199186785 * j3_cos_mp + 0.4725694062183847 * j3_sin_mp
         + 0.4064423300085499;
     let t374 = w_m_z * t369 + (w_m_y * t368 - w_m_x * t367);
     let t388 = 0.7712839289086363 * (w_m_z * t368 - w_m_y * t369)
@@ -438,11 +438,11 @@ fn candidates(
     let j3_sin_mm = t354 - t355;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
-    let t410 = 0.29618845398521293 * j3_cos_mm + 0.2631411817706988 * j3_sin_mm
+    let t410 = 0.29618845398521326 * j3_cos_mm + 0.2631411817706989 * j3_sin_mm
         + 0.292065217972989;
-    let t411 = 0.5192451277093604 * j3_cos_mm - 0.3080607744485823 * j3_sin_mm
+    let t411 = 0.5192451277093607 * j3_cos_mm - 0.3080607744485827 * j3_sin_mm
         - 0.05659539424856903;
-    let t412 = 0.17356112199186755 * j3_cos_mm + 0.4725694062183844 * j3_sin_mm
+    let t412 = 0.17356112199186785 * j3_cos_mm + 0.4725694062183847 * j3_sin_mm
         + 0.4064423300085499;
     let t417 = w_m_z * t412 + (w_m_y * t411 - w_m_x * t410);
     let t431 = 0.7712839289086363 * (w_m_z * t411 - w_m_y * t412)
@@ -1017,12 +1017,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1045,12 +1045,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1073,12 +1073,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1101,12 +1101,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_p,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1129,12 +1129,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1157,12 +1157,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1185,12 +1185,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1213,12 +1213,12 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
                     have_squared: d2_m,
-                    limit: 1.1261550290353066,
+                    limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.11878121992065727,
+                    limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
             ],
@@ -1232,7 +1232,7 @@ mod tests {
     use super::{branch_of, forward, solve, JOINTS, JOINT_TABLE};
     /// The arm's length scale for position errors (metres).
     #[allow(clippy::approx_constant, clippy::excessive_precision)]
-    const REACH: f64 = 1.6071999804771622;
+    const REACH: f64 = 1.6071999804771628;
     /// A linear congruential generator (Knuth's MMIX constants): uniform in [0, 1).
     fn next(state: &mut u64) -> f64 {
         *state = state

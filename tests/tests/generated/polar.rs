@@ -105,7 +105,7 @@ pub const TOOL: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     clippy::unreadable_literal
 )]
 const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::internal::Settings {
-    length_tolerance: 2.9222520401249087e-10,
+    length_tolerance: 2.922252040124909e-10,
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
@@ -120,11 +120,11 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [-0.23403204910039818, 0.48292443904485405, -0.33044529346519896],
         point: [-0.12107082938914343, 0.14917046818868374, 0.05599637759668776],
-        wrist_center: [0.23724692405229483, 0.28625023863493043, 0.59785345267033],
+        wrist_center: [0.23724692405229514, 0.2862502386349305, 0.5978534526703301],
         front: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Slide {
-        nearest: -0.27507021900933604,
+        nearest: -0.2750702190093362,
     },
     wrist: ::armforge_runtime::internal::WristRule {
         normal: [0.2368529300043945, 0.030542838068628286, -0.8275343040933489],
@@ -226,16 +226,16 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t38 = px
-        + (0.012805552757843744 * r02
-            - (0.04491492495518941 * r00 + 0.22027592071368984 * r01))
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
         + 0.5795266030280415;
     let t40 = py
-        + (0.012805552757843744 * r12
-            - (0.04491492495518941 * r10 + 0.22027592071368984 * r11))
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
         - 0.832995122054119;
     let t42 = pz
-        + (0.012805552757843744 * r22
-            - (0.04491492495518941 * r20 + 0.22027592071368984 * r21))
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
         - 0.6567806392209417;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
     let wc_x = 0.7024503808034039 * t42
@@ -261,15 +261,15 @@ fn candidates(
     let t96 = 0.2455648081179022 * u_z
         + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
     // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
-    let j1_e = 0.18505813507129087 - 0.776414125447097 * t96;
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
     // r² = a² + b²
     let j1_r2 = j1_a * j1_a + j1_b * j1_b;
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014191e-20);
-    // ≥ 0 when r² < 8.539556986014191e-20: θ is free, the reference is used
-    let j1_free = 8.539556986014191e-20 - j1_r2;
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -324,14 +324,14 @@ fn candidates(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959184).max(0.0),
+        (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014191e-20);
+    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.27507021900933604;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127884;
+    let q3_pp = j3_root_p - 0.2750702190093362;
+    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
     let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783055;
+    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
     let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
     let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
         - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
@@ -341,10 +341,10 @@ fn candidates(
     let t260 = t224 * t244;
     let t261 = t224 * t258;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.27507021900933604 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127884;
+    let q3_pm = -0.2750702190093362 - j3_root_p;
+    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
     let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783055;
+    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
     let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
     let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
         - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
@@ -355,14 +355,14 @@ fn candidates(
     let t290 = t224 * t287;
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959184).max(0.0),
+        (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014191e-20);
+    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.27507021900933604;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127884;
+    let q3_mp = j3_root_m - 0.2750702190093362;
+    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
     let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783055;
+    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
     let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
     let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
         - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
@@ -372,10 +372,10 @@ fn candidates(
     let t323 = t295 * t307;
     let t324 = t295 * t321;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.27507021900933604 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127884;
+    let q3_mm = -0.2750702190093362 - j3_root_m;
+    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
     let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783055;
+    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
     let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
     let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
         - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
@@ -1283,7 +1283,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1311,7 +1311,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1339,7 +1339,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1367,7 +1367,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_p,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1395,7 +1395,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1423,7 +1423,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1451,7 +1451,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1479,7 +1479,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
                     have_squared: d2_m,
-                    limit: 0.23592042628732224,
+                    limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
@@ -1498,7 +1498,7 @@ mod tests {
     use super::{branch_of, forward, solve, JOINTS, JOINT_TABLE};
     /// The arm's length scale for position errors (metres).
     #[allow(clippy::approx_constant, clippy::excessive_precision)]
-    const REACH: f64 = 2.9222520401249086;
+    const REACH: f64 = 2.922252040124909;
     /// A linear congruential generator (Knuth's MMIX constants): uniform in [0, 1).
     fn next(state: &mut u64) -> f64 {
         *state = state

@@ -1,0 +1,354 @@
+//! The evidence for each family: offsets, angles, link lengths, slide directions, reach and
+//! the singular configurations, all measured on the joint lines (metres, radians).
+
+use std::f64::consts::{FRAC_PI_2, PI};
+
+use nalgebra::{Point3, Vector3};
+use serde::Serialize;
+
+use super::context::Context;
+use super::family::{slide_3_out_of_plane, slide_independence};
+use super::lines::{closest_points, signed_angle_about};
+use super::reach::{line_norm_range, model_range, plane_norm_range};
+use super::Family;
+
+/// Joints 1 and 2 when both turn (elbow and polar).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Shoulder {
+    /// True when axes 1 and 2 meet (common normal within the tolerance).
+    pub axes_1_2_meet: bool,
+    /// The shoulder offset: the length of the common normal of axes 1 and 2, metres.
+    pub offset: f64,
+    /// The angle between the lines of axes 1 and 2, `[0, π/2]`.
+    pub angle_1_2: f64,
+    /// The shoulder point: the foot of that common normal on axis 2, base frame, metres.
+    pub point: [f64; 3],
+    /// The foot of that common normal on axis 1, base frame, metres.
+    pub point_on_axis_1: [f64; 3],
+    /// The forearm offset: the distance of the wrist center from the plane through the
+    /// shoulder point perpendicular to axis 2 (joints 2 and 3 never change it). For the elbow
+    /// this plane also passes through the elbow point (the shoulder point's foot on axis 3).
+    pub forearm_offset: f64,
+}
+
+/// Evidence of an elbow arm (R R R, axis 2 ∥ axis 3).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct ElbowEvidence {
+    /// Joints 1 and 2.
+    pub shoulder: Shoulder,
+    /// Upper arm: the distance between axes 2 and 3, metres.
+    pub upper_arm: f64,
+    /// Forearm: the distance of the wrist center from axis 3, metres.
+    pub forearm: f64,
+    /// The model value of joint 3 (radians, `(−π, π]`) at which the arm is stretched: the
+    /// wrist center farthest from axis 2.
+    pub stretched_at: f64,
+    /// The model value of joint 3 at which the arm is folded: the wrist center nearest axis 2.
+    pub folded_at: f64,
+    /// The distance of the wrist center from axis 2, `[|upper − fore|, upper + fore]`, metres.
+    pub reach_from_axis_2: [f64; 2],
+}
+
+/// Evidence of a polar arm (R R P, slide ⟂ axis 2).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct PolarEvidence {
+    /// Joints 1 and 2.
+    pub shoulder: Shoulder,
+    /// The unit direction of the slide of joint 3, base frame at zero.
+    pub slide_direction: [f64; 3],
+    /// The angle between the slide and axis 2 (π/2 for this family).
+    pub slide_angle_to_axis_2: f64,
+    /// How close the wrist center's line of travel passes to axis 2, metres.
+    pub closest_to_axis_2: f64,
+    /// The model value of joint 3 (metres) at which it passes closest.
+    pub closest_at: f64,
+    /// The distance of the wrist center from axis 2 within the slide's limits, metres.
+    pub reach_from_axis_2: [f64; 2],
+}
+
+/// Evidence of a cylindrical arm (R P P).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct CylindricalEvidence {
+    /// The unit slide directions of joints 2 and 3, base frame at zero.
+    pub slide_directions: [[f64; 3]; 2],
+    /// The angles of the slides of joints 2 and 3 with axis 1, `[0, π/2]`.
+    pub slide_angles_to_axis_1: [f64; 2],
+    /// The angle between the two slides, `[0, π/2]`.
+    pub angle_between_slides: f64,
+    /// The distance of the wrist center from axis 1 at zero, metres.
+    pub distance_from_axis_1: f64,
+}
+
+/// Evidence of a cartesian arm (P P P).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct CartesianEvidence {
+    /// The unit slide directions of joints 1, 2, 3, base frame.
+    pub slide_directions: [[f64; 3]; 3],
+    /// The angles between slides 1–2, 1–3 and 2–3, `[0, π/2]`.
+    pub angles: [f64; 3],
+    /// The angle by which slide 3 leaves the plane of slides 1 and 2.
+    pub slide_3_out_of_plane: f64,
+    /// The smallest singular value of the matrix of slide directions (1 for orthogonal slides).
+    pub independence: f64,
+}
+
+/// The family's own evidence.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+#[serde(tag = "family", rename_all = "snake_case")]
+pub enum ArmEvidence {
+    /// R R R.
+    Elbow(ElbowEvidence),
+    /// R R P.
+    Polar(PolarEvidence),
+    /// R P P.
+    Cylindrical(CylindricalEvidence),
+    /// P P P.
+    Cartesian(CartesianEvidence),
+}
+
+/// What a reach is measured from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ReachOrigin {
+    /// The distance from the shoulder point (see [`Shoulder::point`]).
+    ShoulderPoint,
+    /// The distance from axis 1.
+    Axis1,
+}
+
+/// The nearest and farthest the wrist center can get, ignoring revolute limits but keeping
+/// slide limits (a slide's stroke is its reach).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Reach {
+    /// What the distance is measured from.
+    pub from: ReachOrigin,
+    /// The smallest distance, metres.
+    pub min: f64,
+    /// The largest distance, metres (infinite for an unlimited slide).
+    pub max: f64,
+}
+
+/// A singular configuration of the arm.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum Singularity {
+    /// Axes 4 and 6 line up: joints 4 and 6 turn about one line.
+    WristAligned {
+        /// Joint-5 model values at which it happens (radians).
+        joint_5_at: Vec<f64>,
+    },
+    /// Axes 4 and 6 never line up (the wrist's twists differ).
+    WristNeverAligned,
+    /// Joint 1 loses its meaning or its two solutions merge (elbow, polar).
+    Shoulder {
+        /// True when axes 1 and 2 are perpendicular.
+        perpendicular: bool,
+        /// `|h₂·(c − p₁)|`: the distance from axis 1 at which the two joint-1 solutions merge
+        /// when the axes are perpendicular (zero: the wrist center on axis 1), metres.
+        offset: f64,
+        /// When the axes are not perpendicular: the point of axis 1 where joint 1 is free.
+        free_point: Option<[f64; 3]>,
+    },
+    /// The wrist center on axis 1: joint 1 free.
+    WristCenterOnAxis1 {
+        /// Whether the slides' limits let it get there (cylindrical); `None` when not assessed.
+        reachable: Option<bool>,
+    },
+    /// Stretched (joint 3 model value, radians): the elbow solutions merge.
+    Stretched {
+        /// Joint-3 model value.
+        joint_3_at: f64,
+    },
+    /// Folded (joint 3 model value, radians): the elbow solutions merge.
+    Folded {
+        /// Joint-3 model value.
+        joint_3_at: f64,
+    },
+    /// The slide where the wrist center passes closest to axis 2 (polar): the two slide
+    /// solutions merge.
+    SlideClosestToAxis2 {
+        /// Joint-3 model value, metres.
+        joint_3_at: f64,
+    },
+}
+
+fn arr(v: &Vector3<f64>) -> [f64; 3] {
+    [v.x, v.y, v.z]
+}
+
+fn wrap(angle: f64) -> f64 {
+    let a = angle.rem_euclid(2.0 * PI);
+    if a > PI {
+        a - 2.0 * PI
+    } else {
+        a
+    }
+}
+
+/// Measures joints 1 and 2 (both revolute) and the forearm offset.
+fn shoulder(ctx: &Context, center: &Point3<f64>) -> Shoulder {
+    let cp = closest_points(ctx.line(1), ctx.line(2), ctx.tol.angle);
+    let h2 = ctx.line(2).direction.into_inner();
+    Shoulder {
+        axes_1_2_meet: cp.distance <= ctx.tol.distance,
+        offset: cp.distance,
+        angle_1_2: ctx.angle(1, 2),
+        point: arr(&cp.on_second.coords),
+        point_on_axis_1: arr(&cp.on_first.coords),
+        forearm_offset: h2.dot(&(center - cp.on_second)).abs(),
+    }
+}
+
+/// Everything measured for one family.
+pub struct Measured {
+    /// The family's evidence.
+    pub arm: ArmEvidence,
+    /// The reach of the wrist center, when it has a natural origin.
+    pub reach: Option<Reach>,
+    /// Singular configurations of joints 1–3.
+    pub singularities: Vec<Singularity>,
+}
+
+/// Measures the evidence of `family` for `ctx`'s arm with wrist center `center`.
+pub fn measure(ctx: &Context, family: Family, center: &Point3<f64>) -> Measured {
+    match family {
+        Family::Elbow => elbow(ctx, center),
+        Family::Polar => polar(ctx, center),
+        Family::Cylindrical => cylindrical(ctx, center),
+        Family::Cartesian => cartesian(ctx),
+    }
+}
+
+fn shoulder_singularity(ctx: &Context, s: &Shoulder, center: &Point3<f64>) -> Singularity {
+    let h1 = ctx.line(1).direction.into_inner();
+    let h2 = ctx.line(2).direction.into_inner();
+    let p1 = Point3::from(s.point_on_axis_1);
+    let e = h2.dot(&(center - p1));
+    let perpendicular = s.angle_1_2 >= FRAC_PI_2 - ctx.tol.angle;
+    // Undoing joint 1 must bring h₂·x to h₂·c; on axis 1 that holds only at h₁·h₂ t = e.
+    if perpendicular && e.abs() <= ctx.tol.distance {
+        return Singularity::WristCenterOnAxis1 { reachable: None };
+    }
+    let free_point = (!perpendicular).then(|| arr(&(p1.coords + h1 * (e / h1.dot(&h2)))));
+    Singularity::Shoulder {
+        perpendicular,
+        offset: e.abs(),
+        free_point,
+    }
+}
+
+fn elbow(ctx: &Context, center: &Point3<f64>) -> Measured {
+    let s = shoulder(ctx, center);
+    let axis3 = ctx.line(3);
+    let on_3 = axis3.project(center);
+    let upper_arm = ctx.gap(2, 3);
+    let forearm = (center - on_3).norm();
+    let upper = on_3 - ctx.line(2).project(&on_3);
+    let fore = center - on_3;
+    let stretched_at =
+        signed_angle_about(&axis3.direction, &fore, &upper, ctx.tol.distance).unwrap_or(0.0);
+    let rho = [(upper_arm - forearm).abs(), upper_arm + forearm];
+    let reach = reach_from_shoulder(rho, s.forearm_offset);
+    let singularities = vec![
+        shoulder_singularity(ctx, &s, center),
+        Singularity::Stretched {
+            joint_3_at: stretched_at,
+        },
+        Singularity::Folded {
+            joint_3_at: wrap(stretched_at + PI),
+        },
+    ];
+    Measured {
+        arm: ArmEvidence::Elbow(ElbowEvidence {
+            shoulder: s,
+            upper_arm,
+            forearm,
+            stretched_at,
+            folded_at: wrap(stretched_at + PI),
+            reach_from_axis_2: rho,
+        }),
+        reach: Some(reach),
+        singularities,
+    }
+}
+
+fn reach_from_shoulder(rho: [f64; 2], sideways: f64) -> Reach {
+    Reach {
+        from: ReachOrigin::ShoulderPoint,
+        min: rho[0].hypot(sideways),
+        max: rho[1].hypot(sideways),
+    }
+}
+
+fn polar(ctx: &Context, center: &Point3<f64>) -> Measured {
+    let s = shoulder(ctx, center);
+    let axis2 = ctx.line(2);
+    let slide = ctx.line(3).direction.into_inner();
+    let w = center - axis2.project(center);
+    let closest_at = -w.dot(&slide);
+    let closest = (w + slide * closest_at).norm();
+    let range = model_range(&ctx.model.joints[2].joint);
+    let rho = line_norm_range(&w, &slide, range);
+    let singularities = vec![
+        shoulder_singularity(ctx, &s, center),
+        Singularity::SlideClosestToAxis2 {
+            joint_3_at: closest_at,
+        },
+    ];
+    let reach = reach_from_shoulder(rho, s.forearm_offset);
+    Measured {
+        arm: ArmEvidence::Polar(PolarEvidence {
+            shoulder: s,
+            slide_direction: arr(&slide),
+            slide_angle_to_axis_2: ctx.angle(2, 3),
+            closest_to_axis_2: closest,
+            closest_at,
+            reach_from_axis_2: rho,
+        }),
+        reach: Some(reach),
+        singularities,
+    }
+}
+
+fn cylindrical(ctx: &Context, center: &Point3<f64>) -> Measured {
+    let axis1 = ctx.line(1);
+    let projector = axis1.perpendicular_projector();
+    let s2 = ctx.line(2).direction.into_inner();
+    let s3 = ctx.line(3).direction.into_inner();
+    let w = center - axis1.project(center);
+    let ranges = [
+        model_range(&ctx.model.joints[1].joint),
+        model_range(&ctx.model.joints[2].joint),
+    ];
+    let r = plane_norm_range(&w, [&(projector * s2), &(projector * s3)], ranges);
+    Measured {
+        arm: ArmEvidence::Cylindrical(CylindricalEvidence {
+            slide_directions: [arr(&s2), arr(&s3)],
+            slide_angles_to_axis_1: [ctx.angle(1, 2), ctx.angle(1, 3)],
+            angle_between_slides: ctx.angle(2, 3),
+            distance_from_axis_1: w.norm(),
+        }),
+        reach: Some(Reach {
+            from: ReachOrigin::Axis1,
+            min: r[0],
+            max: r[1],
+        }),
+        singularities: vec![Singularity::WristCenterOnAxis1 {
+            reachable: Some(r[0] <= ctx.tol.distance),
+        }],
+    }
+}
+
+fn cartesian(ctx: &Context) -> Measured {
+    let d = |n: usize| arr(&ctx.line(n).direction.into_inner());
+    Measured {
+        arm: ArmEvidence::Cartesian(CartesianEvidence {
+            slide_directions: [d(1), d(2), d(3)],
+            angles: [ctx.angle(1, 2), ctx.angle(1, 3), ctx.angle(2, 3)],
+            slide_3_out_of_plane: slide_3_out_of_plane(ctx),
+            independence: slide_independence(ctx),
+        }),
+        reach: None,
+        singularities: Vec::new(),
+    }
+}
