@@ -210,18 +210,28 @@ pub fn solve(
         let nc = vec3::dot(g, z_perp, v);
         let zxv = vec3::cross(g, z_perp, v);
         let ns = vec3::dot_const(g, w.h4, zxv);
-        let q = g.mul_add2(nc, nc, ns, ns);
-        let floor = g.exact(ALIGNED_SINE.powi(4));
+        // |z⊥| |v⊥| normalises (nc, ns). For a right-angled wrist z⊥ = γ n and |v⊥| = γ, so
+        // the product is γ² = |h4 × v|², known without a root; otherwise take the root of
+        // nc² + ns² (robust when joint 5 is near the aligned position).
+        let (q, floor, inv) = if w.is_orthogonal() {
+            let floor = g.exact(ALIGNED_SINE * ALIGNED_SINE);
+            let safe = g.max(gap, floor);
+            let one = g.constant(1.0);
+            (gap, floor, g.div(one, safe))
+        } else {
+            let q = g.mul_add2(nc, nc, ns, ns);
+            let floor = g.exact(ALIGNED_SINE.powi(4));
+            let safe = g.max(q, floor);
+            let root = g.sqrt(safe);
+            let one = g.constant(1.0);
+            (q, floor, g.div(one, root))
+        };
         let aligned = g.sub(floor, q);
         let aligned = g.name(
             aligned,
             &format!("aligned_{tag}"),
             format!("≥ 0 when joint 5 is within {ALIGNED_SINE:e} of the aligned position"),
         );
-        let safe = g.max(q, floor);
-        let root = g.sqrt(safe);
-        let one = g.constant(1.0);
-        let inv = g.div(one, root);
         let c4 = g.mul(nc, inv);
         let s4 = g.mul(ns, inv);
         let (rc, rs) = if sign > 0.0 {

@@ -342,13 +342,13 @@ fn candidates(
         + (0.06865561389509453 * (g6_x * t264 - g6_z * t262)
             - 0.2648443649420179 * (g6_z * t263 - g6_y * t264));
     let t286 = t269 * t269 + t283 * t283;
+    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t286;
-    let t292 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t292 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t292 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
     let t302 = 0.9618439941275024 * gx_z
@@ -420,13 +420,13 @@ fn candidates(
         + (0.06865561389509453 * (g6_x * t412 - g6_z * t410)
             - 0.2648443649420179 * (g6_z * t411 - g6_y * t412));
     let t434 = t417 * t417 + t431 * t431;
+    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t434;
-    let t438 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t438 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t438 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
     let t455 = t306 * j4_cos_b1m - t311 * j4_sin_b1m - t303;

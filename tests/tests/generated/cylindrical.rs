@@ -448,13 +448,13 @@ fn candidates(
         - 0.12917776692663924 * (v_b1_z * t440 - v_b1_y * t441)
         - 0.9396730670277007 * (v_b1_y * t439 - v_b1_x * t440);
     let t463 = t446 * t446 + t460 * t460;
+    let t467 = 1.0 / ::armforge_runtime::math::sqrt(t463.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t463;
-    let t468 = 1.0 / ::armforge_runtime::math::sqrt(t463.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t468 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t468 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
     let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
@@ -527,15 +527,15 @@ fn candidates(
         - 0.12917776692663924 * (v_b1_z * t588 - v_b1_y * t589)
         - 0.9396730670277007 * (v_b1_y * t587 - v_b1_x * t588);
     let t611 = t594 * t594 + t608 * t608;
+    let t614 = 1.0 / ::armforge_runtime::math::sqrt(t611.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t611;
-    let t615 = 1.0 / ::armforge_runtime::math::sqrt(t611.max(1.0000000000000001e-40));
     let t618 = -ref4_cos;
     let t619 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t618 } else { t594 * t615 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t618 } else { t594 * t614 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t619 } else { t608 * t615 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t619 } else { t608 * t614 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
     let t632 = t482 * j4_cos_b1m - t487 * j4_sin_b1m - t479;
@@ -641,13 +641,13 @@ fn candidates(
         - 0.12917776692663924 * (v_b2_z * t788 - v_b2_y * t789)
         - 0.9396730670277007 * (v_b2_y * t787 - v_b2_x * t788);
     let t811 = t794 * t794 + t808 * t808;
+    let t814 = 1.0 / ::armforge_runtime::math::sqrt(t811.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t811;
-    let t815 = 1.0 / ::armforge_runtime::math::sqrt(t811.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t815 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t815 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
     let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
@@ -720,13 +720,13 @@ fn candidates(
         - 0.12917776692663924 * (v_b2_z * t932 - v_b2_y * t933)
         - 0.9396730670277007 * (v_b2_y * t931 - v_b2_x * t932);
     let t955 = t938 * t938 + t952 * t952;
+    let t958 = 1.0 / ::armforge_runtime::math::sqrt(t955.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t955;
-    let t959 = 1.0 / ::armforge_runtime::math::sqrt(t955.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t618 } else { t938 * t959 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t618 } else { t938 * t958 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t619 } else { t952 * t959 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t619 } else { t952 * t958 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
     let t974 = t829 * j4_cos_b2m - t834 * j4_sin_b2m - t826;

@@ -606,13 +606,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b1_z * t741 - v_b1_y * t742)
             + 0.12638968500295295 * (v_b1_x * t742 - v_b1_z * t740));
     let t764 = t747 * t747 + t761 * t761;
+    let t768 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t764;
-    let t769 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t769 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t769 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t768 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
     let t779 = 0.7217908346079124 * xv_b1_z
@@ -683,15 +683,15 @@ fn candidates(
         + (0.6804730991015498 * (v_b1_z * t888 - v_b1_y * t889)
             + 0.12638968500295295 * (v_b1_x * t889 - v_b1_z * t887));
     let t911 = t894 * t894 + t908 * t908;
+    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t911;
-    let t915 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1.0000000000000001e-40));
     let t918 = -ref4_cos;
     let t919 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t918 } else { t894 * t915 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t918 } else { t894 * t914 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t919 } else { t908 * t915 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t919 } else { t908 * t914 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
     let t932 = t780 + (t783 * j4_cos_b1m - t788 * j4_sin_b1m);
@@ -795,13 +795,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b2_z * t1087 - v_b2_y * t1088)
             + 0.12638968500295295 * (v_b2_x * t1088 - v_b2_z * t1086));
     let t1110 = t1093 * t1093 + t1107 * t1107;
+    let t1113 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1110;
-    let t1114 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1114 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1114 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1113 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
     let t1124 = 0.7217908346079124 * xv_b2_z
@@ -872,13 +872,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b2_z * t1230 - v_b2_y * t1231)
             + 0.12638968500295295 * (v_b2_x * t1231 - v_b2_z * t1229));
     let t1253 = t1236 * t1236 + t1250 * t1250;
+    let t1256 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1253;
-    let t1257 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t918 } else { t1236 * t1257 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t918 } else { t1236 * t1256 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t919 } else { t1250 * t1257 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t919 } else { t1250 * t1256 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
     let t1272 = t1125 + (t1128 * j4_cos_b2m - t1133 * j4_sin_b2m);
@@ -1011,13 +1011,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b3_z * t1492 - v_b3_y * t1493)
             + 0.12638968500295295 * (v_b3_x * t1493 - v_b3_z * t1491));
     let t1515 = t1498 * t1498 + t1512 * t1512;
+    let t1518 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1515;
-    let t1519 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1519 };
+    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1519 };
+    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1518 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
     let t1529 = 0.7217908346079124 * xv_b3_z
@@ -1088,13 +1088,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b3_z * t1635 - v_b3_y * t1636)
             + 0.12638968500295295 * (v_b3_x * t1636 - v_b3_z * t1634));
     let t1658 = t1641 * t1641 + t1655 * t1655;
+    let t1661 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1658;
-    let t1662 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t918 } else { t1641 * t1662 };
+    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t918 } else { t1641 * t1661 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t919 } else { t1655 * t1662 };
+    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t919 } else { t1655 * t1661 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
     let t1677 = t1530 + (t1533 * j4_cos_b3m - t1538 * j4_sin_b3m);
@@ -1198,13 +1198,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b4_z * t1832 - v_b4_y * t1833)
             + 0.12638968500295295 * (v_b4_x * t1833 - v_b4_z * t1831));
     let t1855 = t1838 * t1838 + t1852 * t1852;
+    let t1858 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1855;
-    let t1859 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1859 };
+    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1859 };
+    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1858 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
     let t1869 = 0.7217908346079124 * xv_b4_z
@@ -1275,13 +1275,13 @@ fn candidates(
         + (0.6804730991015498 * (v_b4_z * t1975 - v_b4_y * t1976)
             + 0.12638968500295295 * (v_b4_x * t1976 - v_b4_z * t1974));
     let t1998 = t1981 * t1981 + t1995 * t1995;
+    let t2001 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1998;
-    let t2002 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t918 } else { t1981 * t2002 };
+    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t918 } else { t1981 * t2001 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t919 } else { t1995 * t2002 };
+    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t919 } else { t1995 * t2001 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
     let t2017 = t1870 + (t1873 * j4_cos_b4m - t1878 * j4_sin_b4m);

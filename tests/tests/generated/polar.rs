@@ -536,13 +536,13 @@ fn candidates(
         - 0.620341126105259 * (v_b1_z * t649 - v_b1_y * t650)
         - 0.14913085300184115 * (v_b1_y * t648 - v_b1_x * t649);
     let t672 = t655 * t655 + t669 * t669;
+    let t676 = 1.0 / ::armforge_runtime::math::sqrt(t672.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t672;
-    let t677 = 1.0 / ::armforge_runtime::math::sqrt(t672.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t677 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t677 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
     let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
@@ -616,15 +616,15 @@ fn candidates(
         - 0.620341126105259 * (v_b1_z * t796 - v_b1_y * t797)
         - 0.14913085300184115 * (v_b1_y * t795 - v_b1_x * t796);
     let t819 = t802 * t802 + t816 * t816;
+    let t822 = 1.0 / ::armforge_runtime::math::sqrt(t819.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t819;
-    let t823 = 1.0 / ::armforge_runtime::math::sqrt(t819.max(1.0000000000000001e-40));
     let t826 = -ref4_cos;
     let t827 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t826 } else { t802 * t823 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t826 } else { t802 * t822 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t827 } else { t816 * t823 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t827 } else { t816 * t822 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
     let t840 = t691 * j4_cos_b1m - t696 * j4_sin_b1m - t688;
@@ -731,13 +731,13 @@ fn candidates(
         - 0.620341126105259 * (v_b2_z * t995 - v_b2_y * t996)
         - 0.14913085300184115 * (v_b2_y * t994 - v_b2_x * t995);
     let t1018 = t1001 * t1001 + t1015 * t1015;
+    let t1021 = 1.0 / ::armforge_runtime::math::sqrt(t1018.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1018;
-    let t1022 = 1.0 / ::armforge_runtime::math::sqrt(t1018.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1022 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1022 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
     let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
@@ -811,13 +811,13 @@ fn candidates(
         - 0.620341126105259 * (v_b2_z * t1138 - v_b2_y * t1139)
         - 0.14913085300184115 * (v_b2_y * t1137 - v_b2_x * t1138);
     let t1161 = t1144 * t1144 + t1158 * t1158;
+    let t1164 = 1.0 / ::armforge_runtime::math::sqrt(t1161.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1161;
-    let t1165 = 1.0 / ::armforge_runtime::math::sqrt(t1161.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t826 } else { t1144 * t1165 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t826 } else { t1144 * t1164 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t827 } else { t1158 * t1165 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t827 } else { t1158 * t1164 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
     let t1180 = t1036 * j4_cos_b2m - t1041 * j4_sin_b2m - t1033;
@@ -952,13 +952,13 @@ fn candidates(
         - 0.620341126105259 * (v_b3_z * t1399 - v_b3_y * t1400)
         - 0.14913085300184115 * (v_b3_y * t1398 - v_b3_x * t1399);
     let t1422 = t1405 * t1405 + t1419 * t1419;
+    let t1425 = 1.0 / ::armforge_runtime::math::sqrt(t1422.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1422;
-    let t1426 = 1.0 / ::armforge_runtime::math::sqrt(t1422.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1426 };
+    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1426 };
+    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
     let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
@@ -1032,13 +1032,13 @@ fn candidates(
         - 0.620341126105259 * (v_b3_z * t1542 - v_b3_y * t1543)
         - 0.14913085300184115 * (v_b3_y * t1541 - v_b3_x * t1542);
     let t1565 = t1548 * t1548 + t1562 * t1562;
+    let t1568 = 1.0 / ::armforge_runtime::math::sqrt(t1565.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1565;
-    let t1569 = 1.0 / ::armforge_runtime::math::sqrt(t1565.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t826 } else { t1548 * t1569 };
+    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t826 } else { t1548 * t1568 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t827 } else { t1562 * t1569 };
+    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t827 } else { t1562 * t1568 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
     let t1584 = t1440 * j4_cos_b3m - t1445 * j4_sin_b3m - t1437;
@@ -1145,13 +1145,13 @@ fn candidates(
         - 0.620341126105259 * (v_b4_z * t1739 - v_b4_y * t1740)
         - 0.14913085300184115 * (v_b4_y * t1738 - v_b4_x * t1739);
     let t1762 = t1745 * t1745 + t1759 * t1759;
+    let t1765 = 1.0 / ::armforge_runtime::math::sqrt(t1762.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1762;
-    let t1766 = 1.0 / ::armforge_runtime::math::sqrt(t1762.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1766 };
+    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1766 };
+    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
     let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
@@ -1225,13 +1225,13 @@ fn candidates(
         - 0.620341126105259 * (v_b4_z * t1882 - v_b4_y * t1883)
         - 0.14913085300184115 * (v_b4_y * t1881 - v_b4_x * t1882);
     let t1905 = t1888 * t1888 + t1902 * t1902;
+    let t1908 = 1.0 / ::armforge_runtime::math::sqrt(t1905.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1905;
-    let t1909 = 1.0 / ::armforge_runtime::math::sqrt(t1905.max(1.0000000000000001e-40));
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t826 } else { t1888 * t1909 };
+    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t826 } else { t1888 * t1908 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t827 } else { t1902 * t1909 };
+    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t827 } else { t1902 * t1908 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
     let t1924 = t1780 * j4_cos_b4m - t1785 * j4_sin_b4m - t1777;
