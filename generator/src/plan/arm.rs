@@ -25,10 +25,10 @@ pub struct Arm {
     pub scale: f64,
 }
 
-/// `x` (metres), or the 13-digit decimal within a few rounding errors of it.
+/// `x` (metres), or the 12-digit decimal within 1e-14 relative of it.
 fn tidy_coordinate(x: f64) -> f64 {
-    let short: f64 = format!("{x:.12e}").parse().unwrap_or(x);
-    if (short - x).abs() <= 8.0 * f64::EPSILON * x.abs().max(1e-3) {
+    let short: f64 = format!("{x:.11e}").parse().unwrap_or(x);
+    if (short - x).abs() <= 1e-14 * x.abs().max(1e-3) {
         short
     } else {
         x
@@ -61,7 +61,7 @@ impl Arm {
             *out = canonical(&j.joint);
         }
         // The classifier finds the wrist center by least squares: drop its last-digit noise
-        // (a few units in the last place) so the plan shows the description's numbers.
+        // (below 1e-14 relative) so the plan shows the description's numbers.
         let c = geometry.wrist_center.map(tidy_coordinate);
         let mut scale = 0.0;
         let mut last = joints[0].point;

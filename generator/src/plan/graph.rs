@@ -24,12 +24,13 @@ pub struct Node {
     pub note: Option<String>,
 }
 
-/// `x`, or the number with at most 12 significant digits within a few rounding errors of it
-/// (`0.5 − 0.59` gives `-0.09`, not `-0.08999999999999997`): the plan then shows the
-/// description's own numbers, changed by no more than 1e-15 relative.
+/// `x`, or the number with at most 12 significant digits within 1e-14 relative of it
+/// (`0.5 − 0.59` gives `-0.09`, not `-0.08999999999999997`; unit conversions and frame walks
+/// leave such noise): the plan then shows the description's own numbers, changed far less
+/// than any tolerance of the solver.
 fn tidy(x: f64) -> f64 {
     let short: f64 = format!("{x:.11e}").parse().unwrap_or(x);
-    if (short - x).abs() <= 4.0 * f64::EPSILON * x.abs() {
+    if (short - x).abs() <= 1e-14 * x.abs() {
         short
     } else {
         x

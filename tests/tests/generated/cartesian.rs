@@ -247,7 +247,7 @@ fn candidates(
     let q1 = 0.15544255269071328 * shift_y - 1.1104718105116462 * shift_x
         - 0.21421651300803188 * shift_z;
     // slide 2 = (0.94507, -2.43545, -0.207475) · (c_t − c)  (row of U⁻¹, Cramer's rule)
-    let q2 = 0.9450696895850086 * shift_x - 2.4354495746908125 * shift_y
+    let q2 = 0.945069689585 * shift_x - 2.4354495746908125 * shift_y
         - 0.20747480211459815 * shift_z;
     // slide 3 = (1.23346, -2.059174, -1.11842) · (c_t − c)  (row of U⁻¹, Cramer's rule)
     let q3 = 1.2334602240084311 * shift_x - 2.0591739413921553 * shift_y
