@@ -125,10 +125,27 @@ pub fn reference(joints: &[Joint; JOINTS], current: &[f64; JOINTS]) -> [f64; 4] 
     [c1, s1, c4, s4]
 }
 
+/// `1 / 2π`.
+const INV_TAU: f64 = 1.0 / TAU;
+
+/// `1.5 · 2^52`: adding and subtracting it rounds a double of magnitude below `2^51` to the
+/// nearest whole number (ties to even) with two additions, no call and no branch.
+const ROUNDER: f64 = 6_755_399_441_055_744.0;
+
+/// `x` rounded to a whole number, branch-free (falls back to `round` beyond `2^51`).
+#[inline]
+fn round_fast(x: f64) -> f64 {
+    if abs(x) < 2_251_799_813_685_248.0 {
+        (x + ROUNDER) - ROUNDER
+    } else {
+        round(x)
+    }
+}
+
 /// `x` wrapped by whole turns into `[center − π, center + π]`, without data-dependent branches.
 #[inline]
 pub fn wrap(x: f64, center: f64) -> f64 {
-    x - TAU * round((x - center) / TAU)
+    x - TAU * round_fast((x - center) * INV_TAU)
 }
 
 /// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
@@ -256,6 +273,8 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
                     let by = wrist_miss(c.limit, settings.wrist_twist_cosines);
                     return Verdict::Fails(Unreachable::WristOrientation { by }, by);
                 }
+                // On the edge of the wrist's cone its two solutions meet.
+                at_limit |= c.have_squared <= settings.angle_tolerance;
             }
         }
     }
@@ -284,10 +303,13 @@ fn is_duplicate(
     flags: Flags,
     found: &[Solution],
 ) -> bool {
+    // Branches give distinct configurations except where two roots meet at a boundary (the
+    // candidates are then flagged), so only flagged candidates are compared.
+    if !flags.contains(Flags::AT_REACH_LIMIT) {
+        return false;
+    }
     found.iter().any(|s| {
-        let at_limit =
-            flags.contains(Flags::AT_REACH_LIMIT) && s.flags.contains(Flags::AT_REACH_LIMIT);
-        let tolerance = if at_limit {
+        let tolerance = if s.flags.contains(Flags::AT_REACH_LIMIT) {
             BOUNDARY_DUPLICATE_TOLERANCE
         } else {
             settings.duplicate_tolerance
