@@ -101,7 +101,10 @@ fn front_solutions_match_the_textbook_closed_forms() {
                     .zip(expected.iter())
                     .all(|(a, b)| wrap(a - b).abs() < 1e-9)
             });
-            assert!(found, "textbook solution {expected:?} missing from {ours:#?}");
+            assert!(
+                found,
+                "textbook solution {expected:?} missing from {ours:#?}"
+            );
             compared += 1;
         }
     }

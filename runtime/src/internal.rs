@@ -170,50 +170,68 @@ pub fn equivalent_count(joint: &Joint, tolerance: f64) -> usize {
     n
 }
 
-/// The values of one joint equivalent to `q` within its limits. Returns the values, how many
-/// there are, and by how much the nearest one misses the limits when there are none.
-fn equivalents(joint: &Joint, q: f64, tol: f64) -> ([f64; MAX_EQUIVALENTS], usize, f64) {
-    let mut out = [0.0; MAX_EQUIVALENTS];
-    let [lo, hi] = joint.limits;
-    if lists_equivalents(joint, tol) {
-        let base = q - TAU * floor((q - lo + tol) / TAU);
-        let mut n = 0;
-        for k in 0..MAX_EQUIVALENTS {
-            let v = base + TAU * k as f64;
-            if v <= hi + tol {
-                if let Some(slot) = out.get_mut(n) {
-                    *slot = v;
-                }
-                n += 1;
-            }
-        }
-        let miss = if n == 0 { lo - base } else { 0.0 };
-        return (out, n, miss);
-    }
-    let v = match joint.kind {
-        JointKind::Prismatic => q,
-        JointKind::Revolute => {
-            let center = if lo.is_finite() && hi.is_finite() {
+/// How one joint's values are finished, worked out once per solve.
+#[derive(Clone, Copy)]
+struct Finishing {
+    /// Revolute with more than one turn of range: list equivalent angles from `lo`.
+    lists: bool,
+    /// Revolute with at most one turn: wrap around `center`.
+    wraps: bool,
+    center: f64,
+    lo: f64,
+    hi: f64,
+}
+
+impl Finishing {
+    fn of(joint: &Joint, tol: f64) -> Finishing {
+        let [lo, hi] = joint.limits;
+        let lists = lists_equivalents(joint, tol);
+        Finishing {
+            lists,
+            wraps: joint.kind == JointKind::Revolute && !lists,
+            center: if lo.is_finite() && hi.is_finite() {
                 0.5 * (lo + hi)
             } else {
                 0.0
-            };
-            wrap(q, center)
+            },
+            lo,
+            hi,
         }
-    };
-    out[0] = v;
-    let miss = (lo - v).max(v - hi);
-    if miss > tol {
-        (out, 0, miss)
-    } else {
-        (out, 1, 0.0)
     }
 }
 
-/// The largest whole number not above `x` (through `round`, so it works without `std`).
+/// The joint values equivalent to `q` within the limits, as the lowest one and how many there
+/// are (`lowest + k·2π`, `k < count`), and by how much the nearest one misses the limits when
+/// there are none.
+#[inline]
+fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
+    let (lo, hi) = (f.lo, f.hi);
+    if f.lists {
+        let lowest = q - TAU * floor((q - lo + tol) * INV_TAU);
+        let above = floor((hi + tol - lowest) * INV_TAU);
+        let count = if above < 0.0 {
+            0
+        } else if above >= (MAX_EQUIVALENTS - 1) as f64 {
+            MAX_EQUIVALENTS
+        } else {
+            above as usize + 1
+        };
+        let miss = if count == 0 { lowest - hi } else { 0.0 };
+        return (lowest, count, miss);
+    }
+    let v = if f.wraps { wrap(q, f.center) } else { q };
+    let miss = (lo - v).max(v - hi);
+    if miss > tol {
+        (v, 0, miss)
+    } else {
+        (v, 1, 0.0)
+    }
+}
+
+/// The largest whole number not above `x` (through rounding, so it works without `std`).
 #[inline]
 fn floor(x: f64) -> f64 {
-    let r = round(x);
+    let r = round_fast(x);
     if r > x {
         r - 1.0
     } else {
@@ -349,6 +367,7 @@ pub fn finish(
     out: &mut [Solution],
 ) -> Result<usize, Unreachable> {
     let tol = settings.limit_tolerance;
+    let finishing = joints.map(|j| Finishing::of(&j, tol));
     let mut len = 0;
     let mut failure: Option<(Unreachable, f64)> = None;
     let mut limit_failure: Option<(Unreachable, f64)> = None;
@@ -375,13 +394,13 @@ pub fn finish(
         if at_limit {
             flags = flags.union(Flags::AT_REACH_LIMIT);
         }
-        let mut lists = [[0.0; MAX_EQUIVALENTS]; JOINTS];
+        let mut lowest = [0.0; JOINTS];
         let mut counts = [0usize; JOINTS];
         let mut worst: Option<(usize, f64)> = None;
         for i in 0..JOINTS {
             let q = joints[i].joint_value(c.model_values[i]);
-            let (list, n, miss) = equivalents(&joints[i], q, tol);
-            lists[i] = list;
+            let (v, n, miss) = equivalents(&finishing[i], q, tol);
+            lowest[i] = v;
             counts[i] = n;
             if n == 0 && worst.map_or(true, |(_, m)| miss > m) {
                 worst = Some((i, miss));
@@ -395,7 +414,9 @@ pub fn finish(
             );
             continue;
         }
-        len = push_combinations(joints, settings, &lists, &counts, c.branch, flags, out, len);
+        len = push_combinations(
+            joints, settings, &lowest, &counts, c.branch, flags, out, len,
+        );
     }
     if len > 0 {
         return Ok(len);
@@ -409,12 +430,13 @@ pub fn finish(
     }
 }
 
-/// Writes every combination of equivalent values (mixed-radix count over the joints).
+/// Writes every combination of equivalent values (an odometer over the joints: the first
+/// joint turns fastest).
 #[allow(clippy::too_many_arguments)]
 fn push_combinations(
     joints: &[Joint; JOINTS],
     settings: &Settings,
-    lists: &[[f64; MAX_EQUIVALENTS]; JOINTS],
+    lowest: &[f64; JOINTS],
     counts: &[usize; JOINTS],
     branch: Branch,
     flags: Flags,
@@ -422,25 +444,31 @@ fn push_combinations(
     mut len: usize,
 ) -> usize {
     let total: usize = counts.iter().product();
-    for combo in 0..total {
-        let mut rest = combo;
-        let mut q = [0.0; JOINTS];
-        for i in 0..JOINTS {
-            let n = counts[i].max(1);
-            q[i] = lists[i][(rest % n).min(MAX_EQUIVALENTS - 1)];
-            rest /= n;
+    let mut turns = [0usize; JOINTS];
+    for _ in 0..total {
+        let mut q = *lowest;
+        for ((v, k), n) in q.iter_mut().zip(turns.iter()).zip(counts.iter()) {
+            if *n > 1 {
+                *v += TAU * *k as f64;
+            }
         }
         let found = out.get(..len).unwrap_or(&[]);
-        if is_duplicate(joints, settings, &q, flags, found) {
-            continue;
+        if !is_duplicate(joints, settings, &q, flags, found) {
+            if let Some(slot) = out.get_mut(len) {
+                *slot = Solution {
+                    joints: q,
+                    branch,
+                    flags,
+                };
+                len += 1;
+            }
         }
-        if let Some(slot) = out.get_mut(len) {
-            *slot = Solution {
-                joints: q,
-                branch,
-                flags,
-            };
-            len += 1;
+        for (k, n) in turns.iter_mut().zip(counts.iter()) {
+            *k += 1;
+            if *k < *n {
+                break;
+            }
+            *k = 0;
         }
     }
     len
@@ -733,20 +761,20 @@ mod tests {
     fn two_turn_range_lists_two_equivalents() {
         let j = revolute([-TAU, TAU]);
         assert_eq!(equivalent_count(&j, 1e-12), 3);
-        let (list, n, _) = equivalents(&j, 0.5, 1e-12);
+        let (lowest, n, _) = equivalents(&Finishing::of(&j, 1e-12), 0.5, 1e-12);
         assert_eq!(n, 2);
-        assert!((list[0] - (0.5 - TAU)).abs() < 1e-12 && (list[1] - 0.5).abs() < 1e-12);
+        assert!((lowest - (0.5 - TAU)).abs() < 1e-12);
         let one_turn = revolute([-PI, PI]);
         assert_eq!(equivalent_count(&one_turn, 1e-12), 1);
-        let (list, n, _) = equivalents(&one_turn, PI + 0.25, 1e-12);
+        let (v, n, _) = equivalents(&Finishing::of(&one_turn, 1e-12), PI + 0.25, 1e-12);
         assert_eq!(n, 1);
-        assert!((list[0] - (0.25 - PI)).abs() < 1e-12);
+        assert!((v - (0.25 - PI)).abs() < 1e-12);
     }
 
     #[test]
     fn outside_limits_reports_the_miss() {
         let j = revolute([-1.0, 1.0]);
-        let (_, n, miss) = equivalents(&j, 1.5, 1e-12);
+        let (_, n, miss) = equivalents(&Finishing::of(&j, 1e-12), 1.5, 1e-12);
         assert_eq!(n, 0);
         assert!((miss - 0.5).abs() < 1e-12);
     }
