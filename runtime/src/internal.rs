@@ -88,6 +88,7 @@ pub struct Settings {
 }
 
 /// Checks that a target pose is finite with a proper orthonormal rotation (within 1e-6).
+#[inline]
 pub fn check_pose(target: &Pose) -> Result<(), Unreachable> {
     if !target.is_finite() {
         return Err(Unreachable::InvalidPose(PoseProblem::NotFinite));
@@ -149,6 +150,7 @@ pub fn wrap(x: f64, center: f64) -> f64 {
 }
 
 /// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
+#[inline]
 pub fn lists_equivalents(joint: &Joint, tolerance: f64) -> bool {
     joint.kind == JointKind::Revolute
         && joint.limits[0].is_finite()
@@ -197,6 +199,58 @@ impl Finishing {
             lo,
             hi,
         }
+    }
+}
+
+/// The per-joint constants of the branch-free conversion, worked out once per solve.
+struct Table {
+    /// No joint lists equivalent angles.
+    simple: bool,
+    offset: [f64; JOINTS],
+    direction: [f64; JOINTS],
+    center: [f64; JOINTS],
+    /// `1.0` for joints that wrap, `0.0` otherwise.
+    wraps: [f64; JOINTS],
+    low: [f64; JOINTS],
+    high: [f64; JOINTS],
+}
+
+impl Table {
+    fn of(joints: &[Joint; JOINTS], finishing: &[Finishing; JOINTS], tol: f64) -> Table {
+        let mut t = Table {
+            simple: finishing.iter().all(|f| !f.lists),
+            offset: [0.0; JOINTS],
+            direction: [0.0; JOINTS],
+            center: [0.0; JOINTS],
+            wraps: [0.0; JOINTS],
+            low: [0.0; JOINTS],
+            high: [0.0; JOINTS],
+        };
+        for i in 0..JOINTS {
+            t.offset[i] = joints[i].offset;
+            t.direction[i] = joints[i].direction;
+            t.center[i] = finishing[i].center;
+            t.wraps[i] = if finishing[i].wraps { 1.0 } else { 0.0 };
+            t.low[i] = finishing[i].lo - tol;
+            t.high[i] = finishing[i].hi + tol;
+        }
+        t
+    }
+
+    /// Joint values of model values (wrapped where the joint wraps) and whether all are
+    /// within the limits. The same arithmetic as [`Joint::joint_value`] and [`wrap`].
+    #[inline]
+    fn convert(&self, model: &[f64; JOINTS]) -> ([f64; JOINTS], bool) {
+        let mut values = [0.0; JOINTS];
+        let mut inside = true;
+        for i in 0..JOINTS {
+            let q = (model[i] - self.offset[i]) * self.direction[i];
+            let turns = round_fast((q - self.center[i]) * INV_TAU) * self.wraps[i];
+            let v = q - TAU * turns;
+            values[i] = v;
+            inside &= (v >= self.low[i]) & (v <= self.high[i]);
+        }
+        (values, inside)
     }
 }
 
@@ -262,6 +316,7 @@ enum Verdict {
     Fails(Unreachable, f64),
 }
 
+#[inline]
 fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
     let tol = settings.length_tolerance;
     let mut at_limit = false;
@@ -301,6 +356,7 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
 
 /// Distance between two values of one joint: wrap-aware for revolute joints with at most one
 /// turn of range, plain otherwise.
+#[inline]
 fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
     let d = a - b;
     if joint.kind == JointKind::Revolute && !lists_equivalents(joint, tol) {
@@ -314,6 +370,7 @@ fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
 /// reach boundary a rounding error ε in the cosine moves the roots by about √(2ε) ≈ 1.5e-8.
 pub const BOUNDARY_DUPLICATE_TOLERANCE: f64 = 1e-7;
 
+#[inline]
 fn is_duplicate(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -341,6 +398,7 @@ fn is_duplicate(
 
 /// How far through the steps a failed candidate got: a candidate whose position was
 /// reachable but whose wrist was not says more than one whose position was out of reach.
+#[inline]
 fn stage(reason: &Unreachable) -> u8 {
     match reason {
         Unreachable::WristOrientation { .. } => 1,
@@ -349,6 +407,7 @@ fn stage(reason: &Unreachable) -> u8 {
 }
 
 /// Keeps the more telling of two failure reasons: the later stage, then the smaller miss.
+#[inline]
 fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amount: f64) {
     match best {
         Some((r, a)) if (stage(r), -*a) >= (stage(&reason), -amount) => {}
@@ -359,6 +418,7 @@ fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amou
 /// Turns candidates into solutions: checks, joint values, wrapping and equivalent angles,
 /// limits, duplicates, flags. Writes into `out` and returns how many were written, or the
 /// reason when there are none. With `only`, candidates of other branches are skipped.
+#[inline]
 pub fn finish(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -368,6 +428,7 @@ pub fn finish(
 ) -> Result<usize, Unreachable> {
     let tol = settings.limit_tolerance;
     let finishing = joints.map(|j| Finishing::of(&j, tol));
+    let table = Table::of(joints, &finishing, tol);
     let mut len = 0;
     let mut failure: Option<(Unreachable, f64)> = None;
     let mut limit_failure: Option<(Unreachable, f64)> = None;
@@ -393,6 +454,23 @@ pub fn finish(
         }
         if at_limit {
             flags = flags.union(Flags::AT_REACH_LIMIT);
+        }
+        if table.simple {
+            // Every joint has one value: convert, wrap and check all six without branches.
+            let (values, inside) = table.convert(&c.model_values);
+            if inside {
+                len = push_combinations(
+                    joints,
+                    settings,
+                    &values,
+                    &[1; JOINTS],
+                    c.branch,
+                    flags,
+                    out,
+                    len,
+                );
+                continue;
+            }
         }
         let mut lowest = [0.0; JOINTS];
         let mut counts = [0usize; JOINTS];
@@ -433,6 +511,7 @@ pub fn finish(
 /// Writes every combination of equivalent values (an odometer over the joints: the first
 /// joint turns fastest).
 #[allow(clippy::too_many_arguments)]
+#[inline]
 fn push_combinations(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -444,6 +523,21 @@ fn push_combinations(
     mut len: usize,
 ) -> usize {
     let total: usize = counts.iter().product();
+    if total == 1 {
+        // One value per joint (the common case): no odometer.
+        let found = out.get(..len).unwrap_or(&[]);
+        if !is_duplicate(joints, settings, lowest, flags, found) {
+            if let Some(slot) = out.get_mut(len) {
+                *slot = Solution {
+                    joints: *lowest,
+                    branch,
+                    flags,
+                };
+                len += 1;
+            }
+        }
+        return len;
+    }
     let mut turns = [0usize; JOINTS];
     for _ in 0..total {
         let mut q = *lowest;
@@ -475,6 +569,7 @@ fn push_combinations(
 }
 
 /// [`finish`] into a fixed-capacity set.
+#[inline]
 pub fn collect<const CAP: usize>(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -489,6 +584,7 @@ pub fn collect<const CAP: usize>(
 
 /// The first solution of one branch (the one nearest the joints' range centers comes first
 /// among equivalent angles is not guaranteed; the first listed is returned).
+#[inline]
 pub fn first_of_branch<const CAP: usize>(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -520,6 +616,7 @@ fn nearest_to_center(
 
 /// The solution nearest to `current` (sum of squared joint distances, wrap-aware for revolute
 /// joints with at most one turn of range).
+#[inline]
 pub fn nearest(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -546,6 +643,7 @@ pub fn nearest(
 }
 
 /// The solution nearest to `current` among all solutions of a target, or the reason.
+#[inline]
 pub fn near<const CAP: usize>(
     joints: &[Joint; JOINTS],
     settings: &Settings,
