@@ -166,6 +166,17 @@ mod tests {
     }
 
     #[test]
+    fn singular_conditions_are_named_in_the_caption() {
+        let mut s = solution([0.0; 6], Wrist::Plus);
+        s.flags = Flags::WRIST_ALIGNED.union(Flags::AT_REACH_LIMIT);
+        let panels = solution_panels(&six_revolute(), &[s]);
+        assert_eq!(
+            panels[0].caption,
+            "1 of 1: shoulder front, elbow up, wrist plus (wrist aligned) (at the reach limit)"
+        );
+    }
+
+    #[test]
     fn a_half_turn_is_a_different_configuration() {
         let q = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6];
         let mut half = q;
