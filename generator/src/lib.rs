@@ -12,6 +12,7 @@
 pub mod classify;
 pub mod description;
 pub mod diagnostics;
+pub mod draw;
 pub mod emit;
 pub mod expand;
 pub mod model;
