@@ -10,7 +10,9 @@
 //! Checks per configuration: the original is among the solutions (modulo full turns where the
 //! joint's range is at most one turn); every solution reproduces the pose to 1e-9 (position
 //! relative to the arm's size, rotation by the Frobenius norm of the difference); solutions are
-//! distinct and within the limits; `branch_of(s.joints) == s.branch`.
+//! distinct and within the limits; `branch_of(s.joints) == s.branch`; `solve_near` from the
+//! original gives the original; `solve_branch` of the original's branch gives a solution of
+//! that branch reproducing the pose.
 //!
 //! Samples per arm: `ARMFORGE_SAMPLES`, default 100,000 in release builds (a few seconds) and
 //! 2,000 in debug builds.
@@ -169,6 +171,21 @@ fn round_trip(arm: &EmittedArm, count: usize, seed: u64) -> Tally {
             "{}: the original {q:?} is not among {solutions:#?}",
             arm.path
         );
+        // The solution nearest to the original is the original.
+        let near = (arm.solve_near)(&target, &q)
+            .unwrap_or_else(|r| panic!("{}: solve_near {q:?}: {r}", arm.path));
+        assert!(
+            same(&facts.joints, &near.joints, &q, 1e-6),
+            "{}: solve_near gave {near:?} for {q:?}",
+            arm.path
+        );
+        // The original's branch has a solution, of that branch, reproducing the pose.
+        let branch = (arm.branch_of)(&q);
+        let one = (arm.solve_branch)(&target, branch)
+            .unwrap_or_else(|r| panic!("{}: solve_branch {branch:?} of {q:?}: {r}", arm.path));
+        assert_eq!(one.branch, branch, "{}", arm.path);
+        let (dp, dr) = pose_error(&reference.forward(&one.joints), &target_iso, facts.size);
+        assert!(dp < 1e-9 && dr < 1e-9, "{}: solve_branch {one:?}", arm.path);
     }
     tally
 }
