@@ -117,14 +117,17 @@ fn criterion_dir() -> PathBuf {
     target.join("criterion").join(GROUP)
 }
 
-/// The mean time of one benchmark in nanoseconds, from this run's estimates.
+/// The time of one call in nanoseconds, from this run's estimates.
 fn mean_ns(name: &str) -> Option<f64> {
     let file = criterion_dir()
         .join(name.replace('/', "_"))
         .join("new/estimates.json");
     let text = std::fs::read_to_string(file).ok()?;
     let value: serde_json::Value = serde_json::from_str(&text).ok()?;
-    value["mean"]["point_estimate"].as_f64()
+    // Criterion's headline estimate: the slope of time over iterations, else the mean.
+    value["slope"]["point_estimate"]
+        .as_f64()
+        .or_else(|| value["mean"]["point_estimate"].as_f64())
 }
 
 fn report_ratios(sqrts: usize, atan2s: usize) {
