@@ -45,7 +45,8 @@ fn poses() -> Vec<(Pose, Branch)> {
 }
 
 /// The same count of `sqrt` and `atan2` calls as one evaluation of the plan, each on fresh
-/// numbers from the pose (no call can be folded or hoisted).
+/// numbers from the pose (no call can be folded or hoisted) and independent of the others
+/// (as free to overlap as the processor allows).
 #[inline(never)]
 fn transcendental_floor(pose: &Pose, sqrts: usize, atan2s: usize) -> f64 {
     let r = &pose.rotation;
@@ -57,7 +58,7 @@ fn transcendental_floor(pose: &Pose, sqrts: usize, atan2s: usize) -> f64 {
     }
     for k in 0..atan2s {
         let y = black_box(r[(k / 3) % 3][k % 3]);
-        acc += atan2(y, t[k % 3] + acc * 1e-300);
+        acc += atan2(y, black_box(t[k % 3]));
     }
     acc
 }

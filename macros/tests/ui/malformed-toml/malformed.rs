@@ -1,0 +1,3 @@
+armforge_macros::solver!(mod arm = "fixtures/malformed-toml.toml";);
+
+fn main() {}

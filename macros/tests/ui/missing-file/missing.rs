@@ -1,0 +1,3 @@
+armforge_macros::solver!(mod arm = "fixtures/no-such-arm.toml";);
+
+fn main() {}

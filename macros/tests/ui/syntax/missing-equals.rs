@@ -1,0 +1,3 @@
+armforge_macros::solver!(mod arm "fixtures/tilted-elbow.toml");
+
+fn main() {}

@@ -1,0 +1,3 @@
+armforge_macros::solver!(struct Arm = "fixtures/tilted-elbow.toml");
+
+fn main() {}

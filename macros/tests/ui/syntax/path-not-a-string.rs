@@ -1,0 +1,3 @@
+armforge_macros::solver!(mod arm = fixtures::arm);
+
+fn main() {}

@@ -1,0 +1,39 @@
+//! A `#![no_std]` crate without `alloc` that holds an emitted solver next to decoy items named
+//! like the ones the module uses (`Pose`, `Result`, `Option`, `core`, `f64` helpers), all under
+//! `#![deny(warnings)]`: the emitted code must use absolute paths and compile cleanly.
+//!
+//! Built alone (`cargo build -p armforge-nostd-check`), the runtime is compiled without its
+//! `std` feature, on `libm`. `cargo clippy --workspace --all-targets -- -D warnings` lints the
+//! emitted code here too.
+#![no_std]
+#![deny(warnings)]
+#![allow(dead_code)]
+
+/// Decoy: a user type named like the runtime's pose.
+pub struct Pose;
+/// Decoy: a user type named like the prelude's `Result`.
+pub struct Result;
+/// Decoy: a user type named like the prelude's `Option`.
+pub struct Option;
+/// Decoy: a user type named like the runtime's solution.
+pub struct Solution;
+/// Decoy: a user module named like `core`.
+pub mod core {}
+/// Decoy: a user module named like the runtime crate.
+pub mod armforge_runtime {}
+
+armforge_macros::solver!(
+    /// The bench elbow arm's solver.
+    pub mod bench_elbow = "../../arms/bench-elbow-dh.toml";
+);
+
+armforge_macros::solver!(
+    /// The cylindrical centrifuge loader's solver.
+    pub mod centrifuge_loader = "../../arms/centrifuge-loader-dh.toml";
+);
+
+/// Uses the emitted module without `std`: the number of solutions of the zero pose.
+pub fn solutions_at_zero() -> usize {
+    let target = bench_elbow::forward(&[0.0; bench_elbow::JOINTS]);
+    bench_elbow::solve(&target).len() + centrifuge_loader::solve(&target).len()
+}
