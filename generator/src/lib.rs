@@ -15,6 +15,8 @@ pub mod diagnostics;
 pub mod emit;
 pub mod model;
 pub mod plan;
+pub mod review;
 pub mod scaffold;
 pub mod solver;
 pub mod units;
+pub mod verify;
