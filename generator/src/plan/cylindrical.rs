@@ -141,7 +141,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         format!("√(ρ² − |W⊥D|²) / |D|, |D|² = {}", tidy(dd)),
     );
     let limit = g.sqrt0(closest);
-    let floor = g.constant(tol * tol);
+    let floor = g.exact(tol * tol);
     let singular = g.sub(floor, rho2);
     let singular = g.name(
         singular,

@@ -257,7 +257,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         let two = g.constant(two_lv);
         let n = g.mul(two, cos_psi);
         let n = g.add(offset, n);
-        let floor = g.constant(tol * tol);
+        let floor = g.exact(tol * tol);
         let n = g.max(n, floor);
         let inv_n = g.div(one, n);
         let inv_n = g.name(

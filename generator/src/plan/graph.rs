@@ -130,6 +130,12 @@ impl Graph {
         self.intern(Op::Const(x))
     }
 
+    /// A constant taken exactly as given (thresholds and floors, never snapped).
+    pub fn exact(&mut self, x: f64) -> Id {
+        let x = if x == 0.0 { 0.0 } else { x };
+        self.intern(Op::Const(x))
+    }
+
     fn is(&self, id: Id, value: f64) -> bool {
         self.constant_value(id) == Some(value)
     }

@@ -69,7 +69,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             &format!("j3_root_{tag}"),
             format!("√(d² − (|P|² − m²)), |P|² − m² = {} m²", tidy(nearest2)),
         );
-        let floor = g.constant(tol * tol);
+        let floor = g.exact(tol * tol);
         let n = g.max(d2, floor);
         let one_c = g.constant(1.0);
         let inv_n = g.div(one_c, n);

@@ -39,7 +39,7 @@ pub fn rotate_into_plane(
     let disc = g.sub(r2, ee);
     let k = g.sqrt0(disc);
     let k = g.name(k, &format!("{label}_k"), "k = √max(r² − e², 0)");
-    let floor = g.constant(threshold_squared);
+    let floor = g.exact(threshold_squared);
     let safe = g.max(r2, floor);
     let one = g.constant(1.0);
     let inv = g.div(one, safe);

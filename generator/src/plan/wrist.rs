@@ -201,7 +201,7 @@ pub fn solve(
         let zxv = vec3::cross(g, z, v);
         let ns = vec3::dot_const(g, w.h4, zxv);
         let q = g.mul_add2(nc, nc, ns, ns);
-        let floor = g.constant(ALIGNED_SINE.powi(4));
+        let floor = g.exact(ALIGNED_SINE.powi(4));
         let aligned = g.sub(floor, q);
         let aligned = g.name(
             aligned,

@@ -1,0 +1,376 @@
+//! The module's items: constants of the arm, the public API, the straight-line solver body.
+
+use std::collections::BTreeMap;
+
+use armforge_runtime::internal::{BranchRule, CheckKind, ElbowRule, Settings, ShoulderRule};
+use armforge_runtime::plan::CandidateLayout;
+use armforge_runtime::{Branch, Elbow, Joint, JointKind, Pose, Shoulder, Wrist};
+use proc_macro2::TokenStream;
+use quote::{format_ident, quote};
+
+use super::expr::{definition, literal, reference, Bindings};
+use crate::plan::graph::Id;
+use crate::plan::Plan;
+
+fn lit(x: f64) -> TokenStream {
+    literal(x).0
+}
+
+fn lit3(v: &[f64; 3]) -> TokenStream {
+    let [a, b, c] = [lit(v[0]), lit(v[1]), lit(v[2])];
+    quote!([#a, #b, #c])
+}
+
+fn joint(j: &Joint) -> TokenStream {
+    let kind = match j.kind {
+        JointKind::Revolute => quote!(::armforge_runtime::JointKind::Revolute),
+        JointKind::Prismatic => quote!(::armforge_runtime::JointKind::Prismatic),
+    };
+    let (axis, point) = (lit3(&j.axis), lit3(&j.point));
+    let (direction, offset) = (lit(j.direction), lit(j.offset));
+    let (lo, hi) = (lit(j.limits[0]), lit(j.limits[1]));
+    quote! {
+        ::armforge_runtime::Joint {
+            kind: #kind,
+            axis: #axis,
+            point: #point,
+            direction: #direction,
+            offset: #offset,
+            limits: [#lo, #hi],
+        }
+    }
+}
+
+fn pose(p: &Pose) -> TokenStream {
+    let rows: Vec<TokenStream> = p.rotation.iter().map(lit3).collect();
+    let t = lit3(&p.translation);
+    quote! {
+        ::armforge_runtime::Pose {
+            rotation: [#(#rows),*],
+            translation: #t,
+        }
+    }
+}
+
+fn settings(s: &Settings) -> TokenStream {
+    let (a, b, c, d) = (
+        lit(s.length_tolerance),
+        lit(s.angle_tolerance),
+        lit(s.limit_tolerance),
+        lit(s.duplicate_tolerance),
+    );
+    quote! {
+        ::armforge_runtime::internal::Settings {
+            length_tolerance: #a,
+            angle_tolerance: #b,
+            limit_tolerance: #c,
+            duplicate_tolerance: #d,
+        }
+    }
+}
+
+fn rule(r: &BranchRule) -> TokenStream {
+    let shoulder = match r.shoulder {
+        ShoulderRule::Plane {
+            normal,
+            point,
+            wrist_center,
+            front,
+        } => {
+            let (n, p, c, f) = (lit3(&normal), lit3(&point), lit3(&wrist_center), lit(front));
+            quote!(::armforge_runtime::internal::ShoulderRule::Plane {
+                normal: #n, point: #p, wrist_center: #c, front: #f,
+            })
+        }
+        ShoulderRule::Radial {
+            direction,
+            point,
+            wrist_center,
+        } => {
+            let (d, p, c) = (lit3(&direction), lit3(&point), lit3(&wrist_center));
+            quote!(::armforge_runtime::internal::ShoulderRule::Radial {
+                direction: #d, point: #p, wrist_center: #c,
+            })
+        }
+        ShoulderRule::Only => quote!(::armforge_runtime::internal::ShoulderRule::Only),
+    };
+    let elbow = match r.elbow {
+        ElbowRule::Bend {
+            sense,
+            stretched,
+            up,
+        } => {
+            let (s, t, u) = (lit(sense), lit(stretched), lit(up));
+            quote!(::armforge_runtime::internal::ElbowRule::Bend {
+                sense: #s, stretched: #t, up: #u,
+            })
+        }
+        ElbowRule::Slide { nearest } => {
+            let n = lit(nearest);
+            quote!(::armforge_runtime::internal::ElbowRule::Slide { nearest: #n })
+        }
+        ElbowRule::Only => quote!(::armforge_runtime::internal::ElbowRule::Only),
+    };
+    let (n, a5, a6) = (
+        lit3(&r.wrist.normal),
+        lit3(&r.wrist.axis5),
+        lit3(&r.wrist.axis6),
+    );
+    quote! {
+        ::armforge_runtime::internal::BranchRule {
+            shoulder: #shoulder,
+            elbow: #elbow,
+            wrist: ::armforge_runtime::internal::WristRule { normal: #n, axis5: #a5, axis6: #a6 },
+        }
+    }
+}
+
+fn branch(b: &Branch) -> TokenStream {
+    let shoulder = match b.shoulder {
+        Shoulder::Front => quote!(Front),
+        Shoulder::Back => quote!(Back),
+        Shoulder::Only => quote!(Only),
+    };
+    let elbow = match b.elbow {
+        Elbow::Up => quote!(Up),
+        Elbow::Down => quote!(Down),
+        Elbow::Extended => quote!(Extended),
+        Elbow::Retracted => quote!(Retracted),
+        Elbow::Only => quote!(Only),
+    };
+    let wrist = match b.wrist {
+        Wrist::Plus => quote!(Plus),
+        Wrist::Minus => quote!(Minus),
+    };
+    quote! {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::#shoulder,
+            elbow: ::armforge_runtime::Elbow::#elbow,
+            wrist: ::armforge_runtime::Wrist::#wrist,
+        }
+    }
+}
+
+fn check_kind(k: CheckKind) -> TokenStream {
+    match k {
+        CheckKind::None => quote!(None),
+        CheckKind::BeyondReach => quote!(BeyondReach),
+        CheckKind::InsideHole => quote!(InsideHole),
+        CheckKind::WristOrientation => quote!(WristOrientation),
+    }
+}
+
+/// Every node a candidate reads directly (they count as uses for `let` decisions).
+fn candidate_uses(candidates: &[CandidateLayout]) -> Vec<Id> {
+    let mut uses = Vec::new();
+    for c in candidates {
+        uses.extend(c.model_values);
+        for ch in c.checks.iter().flatten() {
+            uses.push(ch.have_squared);
+            uses.push(ch.limit);
+        }
+        uses.extend(c.wrist_aligned);
+        uses.extend(c.on_axis_1);
+    }
+    uses
+}
+
+fn candidate(plan: &Plan, b: &Bindings, c: &CandidateLayout) -> TokenStream {
+    let g = &plan.graph;
+    let r = |id: Id| reference(g, b, id).0;
+    let values: Vec<TokenStream> = c.model_values.iter().map(|&id| r(id)).collect();
+    let label = branch(&c.branch);
+    let checks: Vec<TokenStream> = c
+        .checks
+        .iter()
+        .map(|ch| match ch {
+            Some(ch) => {
+                let kind = check_kind(ch.kind);
+                let (have, limit) = (r(ch.have_squared), r(ch.limit));
+                quote!(::armforge_runtime::internal::Check {
+                    kind: ::armforge_runtime::internal::CheckKind::#kind,
+                    have_squared: #have,
+                    limit: #limit,
+                })
+            }
+            None => quote!(::armforge_runtime::internal::Check::NONE),
+        })
+        .collect();
+    let flag = |id: Option<Id>| match id {
+        Some(id) => {
+            let (t, p) = reference(g, b, id);
+            if p >= super::expr::Prec::Sum {
+                quote!(#t >= 0.0)
+            } else {
+                quote!((#t) >= 0.0)
+            }
+        }
+        None => quote!(false),
+    };
+    let (aligned, on_axis) = (flag(c.wrist_aligned), flag(c.on_axis_1));
+    quote! {
+        ::armforge_runtime::internal::Candidate {
+            model_values: [#(#values),*],
+            branch: #label,
+            checks: [#(#checks),*],
+            wrist_aligned: #aligned,
+            on_axis_1: #on_axis,
+        }
+    }
+}
+
+/// The straight-line body and the notes of its named steps.
+fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
+    let g = &plan.graph;
+    let b = Bindings::new(g, &candidate_uses(&plan.candidates));
+    let mut notes = BTreeMap::new();
+    let mut lets = Vec::new();
+    for (&id, name) in b.bound() {
+        let ident = format_ident!("{}", name);
+        let value = definition(g, &b, id).0;
+        lets.push(quote!(let #ident = #value;));
+        if let Some(note) = &g.nodes()[id as usize].note {
+            if !matches!(g.op(id), armforge_runtime::plan::Op::Input(_)) {
+                notes.insert(name.clone(), note.clone());
+            }
+        }
+    }
+    let candidates: Vec<TokenStream> = plan
+        .candidates
+        .iter()
+        .map(|c| candidate(plan, &b, c))
+        .collect();
+    let n = super::expr::index(plan.candidates.len());
+    let body = quote! {
+        /// The closed-form steps: every branch's candidate, in model values.
+        #[allow(
+            clippy::approx_constant,
+            clippy::excessive_precision,
+            clippy::too_many_lines,
+            clippy::many_single_char_names,
+            clippy::similar_names,
+            clippy::unreadable_literal,
+            clippy::suboptimal_flops
+        )]
+        #[inline]
+        fn candidates(
+            target: &::armforge_runtime::Pose,
+            reference: &[f64; 4],
+        ) -> [::armforge_runtime::internal::Candidate; #n] {
+            #(#lets)*
+            [#(#candidates),*]
+        }
+    };
+    (body, notes)
+}
+
+/// The whole module as tokens, and the notes for the step comments.
+pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, String>) {
+    let joints: Vec<TokenStream> = plan.arm.joints.iter().map(joint).collect();
+    let base = pose(&plan.arm.base);
+    let tool = pose(&plan.arm.tool);
+    let settings = settings(&plan.settings);
+    let labels = rule(&plan.rule);
+    let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| lit(x)).collect();
+    let capacity = super::expr::index(plan.capacity);
+    let (body, notes) = solver_body(plan);
+    let test = if with_test {
+        super::selftest::module(plan.arm.scale)
+    } else {
+        quote!()
+    };
+    let tokens = quote! {
+        /// Number of joints.
+        pub const JOINTS: usize = 6;
+
+        /// The most solutions one target can have (branches × equivalent angles).
+        pub const CAPACITY: usize = #capacity;
+
+        /// The solutions of one target.
+        pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
+
+        /// The joints in the base frame with every model value at zero (SI units).
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [#(#joints),*];
+
+        /// The base frame in the world.
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        pub const BASE: ::armforge_runtime::Pose = #base;
+
+        /// The tool frame in the base frame with every model value at zero.
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        pub const TOOL: ::armforge_runtime::Pose = #tool;
+
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        const SETTINGS: ::armforge_runtime::internal::Settings = #settings;
+
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        const LABELS: ::armforge_runtime::internal::BranchRule = #labels;
+
+        /// Cosine and sine of the model values of joints 1 and 4 at zero joint value.
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        const ZERO_REFERENCE: [f64; 4] = [#(#zero),*];
+
+        /// Forward kinematics: the tool pose in the world for joint values (SI units).
+        pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
+            ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+        }
+
+        /// Every solution within the joint limits (equivalent angles included), each with its
+        /// branch label and flags; or none, with the reason. At a singular pose the free
+        /// joint (4, or 1 with the wrist center on axis 1) is kept at zero joint value.
+        pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
+            if let ::core::result::Result::Err(reason) =
+                ::armforge_runtime::internal::check_pose(target)
+            {
+                return ::armforge_runtime::SolutionSet::unreachable(reason);
+            }
+            ::armforge_runtime::internal::collect::<CAPACITY>(
+                &JOINT_TABLE,
+                &SETTINGS,
+                &candidates(target, &ZERO_REFERENCE),
+            )
+        }
+
+        /// The solution nearest to `current` (wrap-aware joint distance). At the wrist
+        /// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+        pub fn solve_near(
+            target: &::armforge_runtime::Pose,
+            current: &[f64; JOINTS],
+        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
+            ::armforge_runtime::internal::check_pose(target)?;
+            let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
+            ::armforge_runtime::internal::near::<CAPACITY>(
+                &JOINT_TABLE,
+                &SETTINGS,
+                &candidates(target, &reference),
+                current,
+            )
+        }
+
+        /// The one configuration of `branch` (among equivalent angles, the one nearest the
+        /// centers of the joint ranges), or why there is none.
+        pub fn solve_branch(
+            target: &::armforge_runtime::Pose,
+            branch: ::armforge_runtime::Branch,
+        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
+            ::armforge_runtime::internal::check_pose(target)?;
+            ::armforge_runtime::internal::first_of_branch::<CAPACITY>(
+                &JOINT_TABLE,
+                &SETTINGS,
+                &candidates(target, &ZERO_REFERENCE),
+                branch,
+            )
+        }
+
+        /// The branch label of any configuration; agrees with the labels `solve` reports.
+        pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
+            ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
+        }
+
+        #body
+
+        #test
+    };
+    (tokens, notes)
+}
