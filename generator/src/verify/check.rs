@@ -10,6 +10,11 @@ use serde::Serialize;
 use super::sampler::{Kind, Sample};
 use crate::solver::Solver;
 
+/// True when `error` is at most `limit` (false for NaN).
+pub fn within(error: f64, limit: f64) -> bool {
+    error <= limit
+}
+
 /// The limits a verification holds the solver to.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct Thresholds {
@@ -103,7 +108,8 @@ impl Outcome {
     pub fn fails(&self, thresholds: &Thresholds) -> bool {
         let limit = thresholds.pose_for(self.kind);
         self.status != Status::Recovered
-            || !(self.position_error <= limit && self.rotation_error <= limit)
+            || !within(self.position_error, limit)
+            || !within(self.rotation_error, limit)
     }
 }
 
@@ -220,7 +226,7 @@ impl<'a> Checker<'a> {
         let mut worst = (0, 0.0);
         for &i in sample.kind.compared_joints() {
             let d = self.joint_difference(i, q[i], sample.joints[i]);
-            if !(d <= worst.1) {
+            if d > worst.1 || d.is_nan() {
                 worst = (i, d);
             }
         }

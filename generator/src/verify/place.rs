@@ -11,7 +11,12 @@ const ITERATIONS: usize = 200;
 /// A value `x` in `[lo, hi]` with `f(x) = target`, or `None` when the scan finds none.
 ///
 /// `pick` in `[0, 1)` chooses among several solutions, so samples spread over all of them.
-pub fn solve_one(f: impl Fn(f64) -> f64, [lo, hi]: [f64; 2], target: f64, pick: f64) -> Option<f64> {
+pub fn solve_one(
+    f: impl Fn(f64) -> f64,
+    [lo, hi]: [f64; 2],
+    target: f64,
+    pick: f64,
+) -> Option<f64> {
     if !(lo.is_finite() && hi.is_finite() && lo < hi && target.is_finite()) {
         return None;
     }
@@ -101,7 +106,7 @@ fn golden(f: &impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> f64 {
             d = a + r * (b - a);
             fd = f(d);
         }
-        if !(b - a > f64::EPSILON * a.abs().max(b.abs()).max(1.0)) {
+        if b - a <= f64::EPSILON * a.abs().max(b.abs()).max(1.0) {
             break;
         }
     }

@@ -149,7 +149,11 @@ fn distance_from_line(point: &[f64; 3], joint: &Joint) -> f64 {
     ];
     let h = &joint.axis;
     let along = d[0] * h[0] + d[1] * h[1] + d[2] * h[2];
-    let perp = [d[0] - along * h[0], d[1] - along * h[1], d[2] - along * h[2]];
+    let perp = [
+        d[0] - along * h[0],
+        d[1] - along * h[1],
+        d[2] - along * h[2],
+    ];
     (perp[0] * perp[0] + perp[1] * perp[1] + perp[2] * perp[2]).sqrt()
 }
 
@@ -201,7 +205,10 @@ impl Sampler {
         }
         match &geometry.arm {
             ArmEvidence::Elbow(e) => {
-                for (at, side) in [(e.reach_from_axis_2[1], -1.0), (e.reach_from_axis_2[0], 1.0)] {
+                for (at, side) in [
+                    (e.reach_from_axis_2[1], -1.0),
+                    (e.reach_from_axis_2[0], 1.0),
+                ] {
                     boundaries.push(Boundary {
                         joint: 2,
                         measure: Measure::FromAxis(1),
@@ -294,7 +301,9 @@ impl Sampler {
     }
 
     fn near_aligned(&self, q: &mut [f64; JOINTS], rng: &mut ChaCha8Rng) -> Option<f64> {
-        let at = *self.aligned.get(rng.random_range(0..self.aligned.len().max(1)))?;
+        let at = *self
+            .aligned
+            .get(rng.random_range(0..self.aligned.len().max(1)))?;
         let delta = log_uniform(rng, 1e-12, 1e-3);
         let side = if rng.random::<bool>() { 1.0 } else { -1.0 };
         let [lo, hi] = self.ranges[4];

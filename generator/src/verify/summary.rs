@@ -7,7 +7,7 @@ use std::fmt::Write as _;
 
 use serde::Serialize;
 
-use super::check::{Outcome, Status, Thresholds};
+use super::check::{within, Outcome, Status, Thresholds};
 use super::sampler::Kind;
 use crate::model::Model;
 
@@ -156,13 +156,13 @@ pub fn problem_text(o: &Outcome, thresholds: &Thresholds) -> String {
         Status::Unreachable(reason) => parts.push(format!("no solution: {reason}")),
     }
     let limit = thresholds.pose_for(o.kind);
-    if !(o.position_error <= limit) {
+    if !within(o.position_error, limit) {
         parts.push(format!(
             "a solution misses the position by {:.3e} of the arm's size (allowed {limit:e})",
             o.position_error
         ));
     }
-    if !(o.rotation_error <= limit) {
+    if !within(o.rotation_error, limit) {
         parts.push(format!(
             "a solution misses the rotation by {:.3e} (Frobenius norm; allowed {limit:e})",
             o.rotation_error
@@ -221,12 +221,7 @@ impl Summary {
             out,
             "verify {} ({}): seed {}, {} samples within limits plus samples near singular \
              configurations and reach boundaries; {} threads, {:.2} s",
-            self.arm,
-            self.path,
-            self.seed,
-            self.samples,
-            self.threads,
-            self.seconds
+            self.arm, self.path, self.seed, self.samples, self.threads, self.seconds
         );
         let _ = writeln!(
             out,
@@ -280,7 +275,12 @@ impl Summary {
             histogram_text(&self.solutions_per_pose)
         );
         for k in self.kinds.iter().filter(|k| k.tried > 0) {
-            let _ = writeln!(out, "  {}: {}", k.name, histogram_text(&k.solutions_per_pose));
+            let _ = writeln!(
+                out,
+                "  {}: {}",
+                k.name,
+                histogram_text(&k.solutions_per_pose)
+            );
         }
         if !self.failures.is_empty() {
             let _ = writeln!(
