@@ -12,8 +12,11 @@
 pub mod classify;
 pub mod description;
 pub mod diagnostics;
+pub mod draw;
 pub mod emit;
+pub mod expand;
 pub mod model;
+pub mod pipeline;
 pub mod plan;
 pub mod review;
 pub mod scaffold;

@@ -7,7 +7,7 @@ use armforge_runtime::internal::{self, Candidate};
 use armforge_runtime::plan::{self as rplan, Op};
 use armforge_runtime::{Branch, Pose, Solution, Unreachable, JOINTS};
 
-use crate::classify::Geometry;
+use crate::classify::{classify, Geometry, Rejection, Tolerances};
 use crate::model::Model;
 use crate::plan::{build_plan, Plan};
 
@@ -22,6 +22,12 @@ impl Solver {
     /// The solver of a classified model.
     pub fn new(model: &Model, geometry: &Geometry) -> Solver {
         Self::from_plan(build_plan(model, geometry))
+    }
+
+    /// The solver of a model: classifies it with the default tolerances first.
+    pub fn for_model(model: &Model) -> Result<Solver, Box<Rejection>> {
+        let geometry = classify(model, &Tolerances::default()).map_err(Box::new)?;
+        Ok(Self::new(model, &geometry))
     }
 
     /// The solver of a plan.

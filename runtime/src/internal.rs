@@ -30,8 +30,9 @@ pub enum CheckKind {
     BeyondReach,
     /// Real when `have_squared ≥ limit²`; otherwise inside the hole by `limit − √have` metres.
     InsideHole,
-    /// Real when `have_squared ≥ 0` (the squared sine of the wrist's cone gap, negative when
-    /// the cones miss each other); otherwise misses by about `√(−have)` radians.
+    /// Real when `have_squared ≥ 0` (`γ² |h4 × h5|²` of Paden–Kahan subproblem 2, negative
+    /// when the two cones miss each other); `limit` is `h4 · v`, the cosine of the angle
+    /// between axis 4 and the requested direction of axis 6 after joints 1–3.
     WristOrientation,
 }
 
@@ -81,9 +82,13 @@ pub struct Settings {
     pub limit_tolerance: f64,
     /// Two solutions closer than this in every joint are one.
     pub duplicate_tolerance: f64,
+    /// `h4 · h5` and `h5 · h6`: the wrist's twist cosines, to say by how much an orientation
+    /// misses what the wrist reaches.
+    pub wrist_twist_cosines: [f64; 2],
 }
 
 /// Checks that a target pose is finite with a proper orthonormal rotation (within 1e-6).
+#[inline]
 pub fn check_pose(target: &Pose) -> Result<(), Unreachable> {
     if !target.is_finite() {
         return Err(Unreachable::InvalidPose(PoseProblem::NotFinite));
@@ -121,13 +126,31 @@ pub fn reference(joints: &[Joint; JOINTS], current: &[f64; JOINTS]) -> [f64; 4] 
     [c1, s1, c4, s4]
 }
 
+/// `1 / 2π`.
+const INV_TAU: f64 = 1.0 / TAU;
+
+/// `1.5 · 2^52`: adding and subtracting it rounds a double of magnitude below `2^51` to the
+/// nearest whole number (ties to even) with two additions, no call and no branch.
+const ROUNDER: f64 = 6_755_399_441_055_744.0;
+
+/// `x` rounded to a whole number, branch-free (falls back to `round` beyond `2^51`).
+#[inline]
+fn round_fast(x: f64) -> f64 {
+    if abs(x) < 2_251_799_813_685_248.0 {
+        (x + ROUNDER) - ROUNDER
+    } else {
+        round(x)
+    }
+}
+
 /// `x` wrapped by whole turns into `[center − π, center + π]`, without data-dependent branches.
 #[inline]
 pub fn wrap(x: f64, center: f64) -> f64 {
-    x - TAU * round((x - center) / TAU)
+    x - TAU * round_fast((x - center) * INV_TAU)
 }
 
 /// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
+#[inline]
 pub fn lists_equivalents(joint: &Joint, tolerance: f64) -> bool {
     joint.kind == JointKind::Revolute
         && joint.limits[0].is_finite()
@@ -149,55 +172,142 @@ pub fn equivalent_count(joint: &Joint, tolerance: f64) -> usize {
     n
 }
 
-/// The values of one joint equivalent to `q` within its limits. Returns the values, how many
-/// there are, and by how much the nearest one misses the limits when there are none.
-fn equivalents(joint: &Joint, q: f64, tol: f64) -> ([f64; MAX_EQUIVALENTS], usize, f64) {
-    let mut out = [0.0; MAX_EQUIVALENTS];
-    let [lo, hi] = joint.limits;
-    if lists_equivalents(joint, tol) {
-        let base = q - TAU * floor((q - lo + tol) / TAU);
-        let mut n = 0;
-        for k in 0..MAX_EQUIVALENTS {
-            let v = base + TAU * k as f64;
-            if v <= hi + tol {
-                if let Some(slot) = out.get_mut(n) {
-                    *slot = v;
-                }
-                n += 1;
-            }
-        }
-        let miss = if n == 0 { lo - base } else { 0.0 };
-        return (out, n, miss);
-    }
-    let v = match joint.kind {
-        JointKind::Prismatic => q,
-        JointKind::Revolute => {
-            let center = if lo.is_finite() && hi.is_finite() {
+/// How one joint's values are finished, worked out once per solve.
+#[derive(Clone, Copy)]
+struct Finishing {
+    /// Revolute with more than one turn of range: list equivalent angles from `lo`.
+    lists: bool,
+    /// Revolute with at most one turn: wrap around `center`.
+    wraps: bool,
+    center: f64,
+    lo: f64,
+    hi: f64,
+}
+
+impl Finishing {
+    fn of(joint: &Joint, tol: f64) -> Finishing {
+        let [lo, hi] = joint.limits;
+        let lists = lists_equivalents(joint, tol);
+        Finishing {
+            lists,
+            wraps: joint.kind == JointKind::Revolute && !lists,
+            center: if lo.is_finite() && hi.is_finite() {
                 0.5 * (lo + hi)
             } else {
                 0.0
-            };
-            wrap(q, center)
+            },
+            lo,
+            hi,
         }
-    };
-    out[0] = v;
-    let miss = (lo - v).max(v - hi);
-    if miss > tol {
-        (out, 0, miss)
-    } else {
-        (out, 1, 0.0)
     }
 }
 
-/// The largest whole number not above `x` (through `round`, so it works without `std`).
+/// The per-joint constants of the branch-free conversion, worked out once per solve.
+struct Table {
+    /// No joint lists equivalent angles.
+    simple: bool,
+    offset: [f64; JOINTS],
+    direction: [f64; JOINTS],
+    center: [f64; JOINTS],
+    /// `1.0` for joints that wrap, `0.0` otherwise.
+    wraps: [f64; JOINTS],
+    low: [f64; JOINTS],
+    high: [f64; JOINTS],
+}
+
+impl Table {
+    fn of(joints: &[Joint; JOINTS], finishing: &[Finishing; JOINTS], tol: f64) -> Table {
+        let mut t = Table {
+            simple: finishing.iter().all(|f| !f.lists),
+            offset: [0.0; JOINTS],
+            direction: [0.0; JOINTS],
+            center: [0.0; JOINTS],
+            wraps: [0.0; JOINTS],
+            low: [0.0; JOINTS],
+            high: [0.0; JOINTS],
+        };
+        for i in 0..JOINTS {
+            t.offset[i] = joints[i].offset;
+            t.direction[i] = joints[i].direction;
+            t.center[i] = finishing[i].center;
+            t.wraps[i] = if finishing[i].wraps { 1.0 } else { 0.0 };
+            t.low[i] = finishing[i].lo - tol;
+            t.high[i] = finishing[i].hi + tol;
+        }
+        t
+    }
+
+    /// Joint values of model values (wrapped where the joint wraps) and whether all are
+    /// within the limits. The same arithmetic as [`Joint::joint_value`] and [`wrap`].
+    #[inline]
+    fn convert(&self, model: &[f64; JOINTS]) -> ([f64; JOINTS], bool) {
+        let mut values = [0.0; JOINTS];
+        let mut inside = true;
+        for i in 0..JOINTS {
+            let q = (model[i] - self.offset[i]) * self.direction[i];
+            let turns = round_fast((q - self.center[i]) * INV_TAU) * self.wraps[i];
+            let v = q - TAU * turns;
+            values[i] = v;
+            inside &= (v >= self.low[i]) & (v <= self.high[i]);
+        }
+        (values, inside)
+    }
+}
+
+/// The joint values equivalent to `q` within the limits, as the lowest one and how many there
+/// are (`lowest + k·2π`, `k < count`), and by how much the nearest one misses the limits when
+/// there are none.
+#[inline]
+fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
+    let (lo, hi) = (f.lo, f.hi);
+    if f.lists {
+        let lowest = q - TAU * floor((q - lo + tol) * INV_TAU);
+        let above = floor((hi + tol - lowest) * INV_TAU);
+        let count = if above < 0.0 {
+            0
+        } else if above >= (MAX_EQUIVALENTS - 1) as f64 {
+            MAX_EQUIVALENTS
+        } else {
+            above as usize + 1
+        };
+        let miss = if count == 0 { lowest - hi } else { 0.0 };
+        return (lowest, count, miss);
+    }
+    let v = if f.wraps { wrap(q, f.center) } else { q };
+    let miss = (lo - v).max(v - hi);
+    if miss > tol {
+        (v, 0, miss)
+    } else {
+        (v, 1, 0.0)
+    }
+}
+
+/// The largest whole number not above `x` (through rounding, so it works without `std`).
 #[inline]
 fn floor(x: f64) -> f64 {
-    let r = round(x);
+    let r = round_fast(x);
     if r > x {
         r - 1.0
     } else {
         r
     }
+}
+
+/// `acos` through `atan2` (works without `std`), argument clamped to `[−1, 1]`.
+fn acos(x: f64) -> f64 {
+    let x = crate::math::clamp(x, -1.0, 1.0);
+    crate::math::atan2(sqrt((1.0 - x) * (1.0 + x)), x)
+}
+
+/// By how much (radians) the angle between axis 4 and the requested axis-6 direction misses
+/// the band the wrist reaches: `z = R5 h6` keeps the angle `φ56` to `h5`, which keeps `φ45` to
+/// `h4`, so the angle to `h4` lies in `[|φ45 − φ56|, min(φ45 + φ56, 2π − φ45 − φ56)]`.
+fn wrist_miss(cos_angle: f64, [c45, c56]: [f64; 2]) -> f64 {
+    let angle = acos(cos_angle);
+    let (p45, p56) = (acos(c45), acos(c56));
+    let lo = abs(p45 - p56);
+    let hi = (p45 + p56).min(TAU - p45 - p56);
+    (lo - angle).max(angle - hi).max(0.0)
 }
 
 /// The outcome of a candidate's checks.
@@ -206,6 +316,7 @@ enum Verdict {
     Fails(Unreachable, f64),
 }
 
+#[inline]
 fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
     let tol = settings.length_tolerance;
     let mut at_limit = false;
@@ -232,9 +343,11 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
             }
             CheckKind::WristOrientation => {
                 if c.have_squared < -settings.angle_tolerance {
-                    let by = sqrt(-c.have_squared);
+                    let by = wrist_miss(c.limit, settings.wrist_twist_cosines);
                     return Verdict::Fails(Unreachable::WristOrientation { by }, by);
                 }
+                // On the edge of the wrist's cone its two solutions meet.
+                at_limit |= c.have_squared <= settings.angle_tolerance;
             }
         }
     }
@@ -243,6 +356,7 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
 
 /// Distance between two values of one joint: wrap-aware for revolute joints with at most one
 /// turn of range, plain otherwise.
+#[inline]
 fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
     let d = a - b;
     if joint.kind == JointKind::Revolute && !lists_equivalents(joint, tol) {
@@ -252,26 +366,51 @@ fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
     }
 }
 
+/// Two roots of one boundary closer than this (radians or metres) are one double root: at a
+/// reach boundary a rounding error ε in the cosine moves the roots by about √(2ε) ≈ 1.5e-8.
+pub const BOUNDARY_DUPLICATE_TOLERANCE: f64 = 1e-7;
+
+#[inline]
 fn is_duplicate(
     joints: &[Joint; JOINTS],
     settings: &Settings,
     q: &[f64; JOINTS],
+    flags: Flags,
     found: &[Solution],
 ) -> bool {
+    // Branches give distinct configurations except where two roots meet at a boundary (the
+    // candidates are then flagged), so only flagged candidates are compared.
+    if !flags.contains(Flags::AT_REACH_LIMIT) {
+        return false;
+    }
     found.iter().any(|s| {
+        let tolerance = if s.flags.contains(Flags::AT_REACH_LIMIT) {
+            BOUNDARY_DUPLICATE_TOLERANCE
+        } else {
+            settings.duplicate_tolerance
+        };
         joints
             .iter()
             .zip(q.iter().zip(s.joints.iter()))
-            .all(|(j, (a, b))| {
-                joint_distance(j, *a, *b, settings.limit_tolerance) < settings.duplicate_tolerance
-            })
+            .all(|(j, (a, b))| joint_distance(j, *a, *b, settings.limit_tolerance) < tolerance)
     })
 }
 
-/// Keeps the better (smaller) of two failure reasons.
+/// How far through the steps a failed candidate got: a candidate whose position was
+/// reachable but whose wrist was not says more than one whose position was out of reach.
+#[inline]
+fn stage(reason: &Unreachable) -> u8 {
+    match reason {
+        Unreachable::WristOrientation { .. } => 1,
+        _ => 0,
+    }
+}
+
+/// Keeps the more telling of two failure reasons: the later stage, then the smaller miss.
+#[inline]
 fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amount: f64) {
     match best {
-        Some((_, a)) if *a <= amount => {}
+        Some((r, a)) if (stage(r), -*a) >= (stage(&reason), -amount) => {}
         _ => *best = Some((reason, amount)),
     }
 }
@@ -279,6 +418,7 @@ fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amou
 /// Turns candidates into solutions: checks, joint values, wrapping and equivalent angles,
 /// limits, duplicates, flags. Writes into `out` and returns how many were written, or the
 /// reason when there are none. With `only`, candidates of other branches are skipped.
+#[inline]
 pub fn finish(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -287,6 +427,8 @@ pub fn finish(
     out: &mut [Solution],
 ) -> Result<usize, Unreachable> {
     let tol = settings.limit_tolerance;
+    let finishing = joints.map(|j| Finishing::of(&j, tol));
+    let table = Table::of(joints, &finishing, tol);
     let mut len = 0;
     let mut failure: Option<(Unreachable, f64)> = None;
     let mut limit_failure: Option<(Unreachable, f64)> = None;
@@ -313,13 +455,30 @@ pub fn finish(
         if at_limit {
             flags = flags.union(Flags::AT_REACH_LIMIT);
         }
-        let mut lists = [[0.0; MAX_EQUIVALENTS]; JOINTS];
+        if table.simple {
+            // Every joint has one value: convert, wrap and check all six without branches.
+            let (values, inside) = table.convert(&c.model_values);
+            if inside {
+                len = push_combinations(
+                    joints,
+                    settings,
+                    &values,
+                    &[1; JOINTS],
+                    c.branch,
+                    flags,
+                    out,
+                    len,
+                );
+                continue;
+            }
+        }
+        let mut lowest = [0.0; JOINTS];
         let mut counts = [0usize; JOINTS];
         let mut worst: Option<(usize, f64)> = None;
         for i in 0..JOINTS {
             let q = joints[i].joint_value(c.model_values[i]);
-            let (list, n, miss) = equivalents(&joints[i], q, tol);
-            lists[i] = list;
+            let (v, n, miss) = equivalents(&finishing[i], q, tol);
+            lowest[i] = v;
             counts[i] = n;
             if n == 0 && worst.map_or(true, |(_, m)| miss > m) {
                 worst = Some((i, miss));
@@ -333,7 +492,9 @@ pub fn finish(
             );
             continue;
         }
-        len = push_combinations(joints, settings, &lists, &counts, c.branch, flags, out, len);
+        len = push_combinations(
+            joints, settings, &lowest, &counts, c.branch, flags, out, len,
+        );
     }
     if len > 0 {
         return Ok(len);
@@ -347,12 +508,14 @@ pub fn finish(
     }
 }
 
-/// Writes every combination of equivalent values (mixed-radix count over the joints).
+/// Writes every combination of equivalent values (an odometer over the joints: the first
+/// joint turns fastest).
 #[allow(clippy::too_many_arguments)]
+#[inline]
 fn push_combinations(
     joints: &[Joint; JOINTS],
     settings: &Settings,
-    lists: &[[f64; MAX_EQUIVALENTS]; JOINTS],
+    lowest: &[f64; JOINTS],
     counts: &[usize; JOINTS],
     branch: Branch,
     flags: Flags,
@@ -360,31 +523,53 @@ fn push_combinations(
     mut len: usize,
 ) -> usize {
     let total: usize = counts.iter().product();
-    for combo in 0..total {
-        let mut rest = combo;
-        let mut q = [0.0; JOINTS];
-        for i in 0..JOINTS {
-            let n = counts[i].max(1);
-            q[i] = lists[i][(rest % n).min(MAX_EQUIVALENTS - 1)];
-            rest /= n;
+    if total == 1 {
+        // One value per joint (the common case): no odometer.
+        let found = out.get(..len).unwrap_or(&[]);
+        if !is_duplicate(joints, settings, lowest, flags, found) {
+            if let Some(slot) = out.get_mut(len) {
+                *slot = Solution {
+                    joints: *lowest,
+                    branch,
+                    flags,
+                };
+                len += 1;
+            }
+        }
+        return len;
+    }
+    let mut turns = [0usize; JOINTS];
+    for _ in 0..total {
+        let mut q = *lowest;
+        for ((v, k), n) in q.iter_mut().zip(turns.iter()).zip(counts.iter()) {
+            if *n > 1 {
+                *v += TAU * *k as f64;
+            }
         }
         let found = out.get(..len).unwrap_or(&[]);
-        if is_duplicate(joints, settings, &q, found) {
-            continue;
+        if !is_duplicate(joints, settings, &q, flags, found) {
+            if let Some(slot) = out.get_mut(len) {
+                *slot = Solution {
+                    joints: q,
+                    branch,
+                    flags,
+                };
+                len += 1;
+            }
         }
-        if let Some(slot) = out.get_mut(len) {
-            *slot = Solution {
-                joints: q,
-                branch,
-                flags,
-            };
-            len += 1;
+        for (k, n) in turns.iter_mut().zip(counts.iter()) {
+            *k += 1;
+            if *k < *n {
+                break;
+            }
+            *k = 0;
         }
     }
     len
 }
 
 /// [`finish`] into a fixed-capacity set.
+#[inline]
 pub fn collect<const CAP: usize>(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -399,6 +584,7 @@ pub fn collect<const CAP: usize>(
 
 /// The first solution of one branch (the one nearest the joints' range centers comes first
 /// among equivalent angles is not guaranteed; the first listed is returned).
+#[inline]
 pub fn first_of_branch<const CAP: usize>(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -430,6 +616,7 @@ fn nearest_to_center(
 
 /// The solution nearest to `current` (sum of squared joint distances, wrap-aware for revolute
 /// joints with at most one turn of range).
+#[inline]
 pub fn nearest(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -456,6 +643,7 @@ pub fn nearest(
 }
 
 /// The solution nearest to `current` among all solutions of a target, or the reason.
+#[inline]
 pub fn near<const CAP: usize>(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -671,20 +859,20 @@ mod tests {
     fn two_turn_range_lists_two_equivalents() {
         let j = revolute([-TAU, TAU]);
         assert_eq!(equivalent_count(&j, 1e-12), 3);
-        let (list, n, _) = equivalents(&j, 0.5, 1e-12);
+        let (lowest, n, _) = equivalents(&Finishing::of(&j, 1e-12), 0.5, 1e-12);
         assert_eq!(n, 2);
-        assert!((list[0] - (0.5 - TAU)).abs() < 1e-12 && (list[1] - 0.5).abs() < 1e-12);
+        assert!((lowest - (0.5 - TAU)).abs() < 1e-12);
         let one_turn = revolute([-PI, PI]);
         assert_eq!(equivalent_count(&one_turn, 1e-12), 1);
-        let (list, n, _) = equivalents(&one_turn, PI + 0.25, 1e-12);
+        let (v, n, _) = equivalents(&Finishing::of(&one_turn, 1e-12), PI + 0.25, 1e-12);
         assert_eq!(n, 1);
-        assert!((list[0] - (0.25 - PI)).abs() < 1e-12);
+        assert!((v - (0.25 - PI)).abs() < 1e-12);
     }
 
     #[test]
     fn outside_limits_reports_the_miss() {
         let j = revolute([-1.0, 1.0]);
-        let (_, n, miss) = equivalents(&j, 1.5, 1e-12);
+        let (_, n, miss) = equivalents(&Finishing::of(&j, 1e-12), 1.5, 1e-12);
         assert_eq!(n, 0);
         assert!((miss - 0.5).abs() < 1e-12);
     }

@@ -113,8 +113,9 @@ impl Flags {
     /// The wrist center on axis 1: joint 1 is free; it was kept at the reference value (or the
     /// reference plus a half turn).
     pub const ON_AXIS_1: Flags = Flags(2);
-    /// The target is on a reach boundary (within the solver's tolerance): two branches meet
-    /// in one configuration, returned once.
+    /// The target is on a reach boundary (within the solver's tolerance) — of the arm's reach,
+    /// of an inner hole, or of the cone of orientations a wrist with twists other than 90°
+    /// reaches: two branches meet in one configuration, returned once.
     pub const AT_REACH_LIMIT: Flags = Flags(4);
 
     /// True when every condition in `other` is set here.

@@ -14,6 +14,8 @@
 //!
 //! Later tests (solver round trips) reuse it: joint values are in SI units (radians, metres).
 
+pub mod emitted;
+
 use std::path::{Path, PathBuf};
 
 use armforge_runtime::Pose;

@@ -59,12 +59,14 @@ fn settings(s: &Settings) -> TokenStream {
         lit(s.limit_tolerance),
         lit(s.duplicate_tolerance),
     );
+    let (w45, w56) = (lit(s.wrist_twist_cosines[0]), lit(s.wrist_twist_cosines[1]));
     quote! {
         ::armforge_runtime::internal::Settings {
             length_tolerance: #a,
             angle_tolerance: #b,
             limit_tolerance: #c,
             duplicate_tolerance: #d,
+            wrist_twist_cosines: [#w45, #w56],
         }
     }
 }

@@ -25,6 +25,16 @@ pub struct Arm {
     pub scale: f64,
 }
 
+/// `x` (metres), or the 12-digit decimal within 1e-14 relative of it.
+fn tidy_coordinate(x: f64) -> f64 {
+    let short: f64 = format!("{x:.11e}").parse().unwrap_or(x);
+    if (short - x).abs() <= 1e-14 * x.abs().max(1e-3) {
+        short
+    } else {
+        x
+    }
+}
+
 fn canonical(joint: &Joint) -> Joint {
     let mut j = *joint;
     j.axis = num::unit(&j.axis);
@@ -50,7 +60,9 @@ impl Arm {
         for (out, j) in joints.iter_mut().zip(model.joints.iter()) {
             *out = canonical(&j.joint);
         }
-        let c = geometry.wrist_center;
+        // The classifier finds the wrist center by least squares: drop its last-digit noise
+        // (below 1e-14 relative) so the plan shows the description's numbers.
+        let c = geometry.wrist_center.map(tidy_coordinate);
         let mut scale = 0.0;
         let mut last = joints[0].point;
         for j in &joints[..3] {

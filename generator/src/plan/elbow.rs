@@ -177,14 +177,16 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
             &format!("w_{tag}"),
             "w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone",
         );
-        let ww = vec3::dot(g, w, w);
+        // d² = |(w − p2)⊥h2|² (the perpendicular part first: no cancellation, and a unit
+        // axis folds its component away).
         let hw = vec3::dot_const(g, k.h2, w);
-        let hw2 = g.mul(hw, hw);
-        let d2 = g.sub(ww, hw2);
+        let along = vec3::scale_const(g, hw, k.h2);
+        let w_perp = vec3::sub(g, w, along);
+        let d2 = vec3::dot(g, w_perp, w_perp);
         let d2 = g.name(
             d2,
             &format!("d2_{tag}"),
-            "d² = |w − p2|² − (h2·(w − p2))²: squared distance from axis 2",
+            "d² = |(w − p2)⊥h2|²: squared distance from axis 2",
         );
         let theta1 = g.atan2(s1, c1);
         angles[i] = g.name(theta1, &format!("q1_{tag}"), "θ1 = atan2(sin θ1, cos θ1)");

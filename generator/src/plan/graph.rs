@@ -24,6 +24,19 @@ pub struct Node {
     pub note: Option<String>,
 }
 
+/// `x`, or the number with at most 12 significant digits within 1e-14 relative of it
+/// (`0.5 − 0.59` gives `-0.09`, not `-0.08999999999999997`; unit conversions and frame walks
+/// leave such noise): the plan then shows the description's own numbers, changed far less
+/// than any tolerance of the solver.
+fn tidy(x: f64) -> f64 {
+    let short: f64 = format!("{x:.11e}").parse().unwrap_or(x);
+    if (short - x).abs() <= 1e-14 * x.abs() {
+        short
+    } else {
+        x
+    }
+}
+
 /// Hashable identity of an operation (constants by their bits).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 struct Key(u8, u64, u32, u32);
@@ -124,7 +137,7 @@ impl Graph {
     /// A constant (values within 1e-12 of a whole number are snapped to it).
     pub fn constant(&mut self, x: f64) -> Id {
         let r = x.round();
-        let x = if (x - r).abs() < SNAP { r } else { x };
+        let x = if (x - r).abs() < SNAP { r } else { tidy(x) };
         // One zero: `-0.0` and `0.0` fold alike.
         let x = if x == 0.0 { 0.0 } else { x };
         self.intern(Op::Const(x))

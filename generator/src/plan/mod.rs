@@ -210,6 +210,10 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
         angle_tolerance: 1e-18,
         limit_tolerance: 1e-12,
         duplicate_tolerance: 1e-10,
+        wrist_twist_cosines: {
+            let w = wrist::WristAxes::of(&arm);
+            [vec3::num::dot(&w.h4, &w.h5), vec3::num::dot(&w.h5, &w.h6)]
+        },
     };
     let multiplicity: usize = arm
         .joints

@@ -330,3 +330,57 @@ pub fn sample_configuration(model: &Model, rng: &mut SampleRng) -> [f64; 6] {
     }
     q
 }
+
+/// An upright elbow arm of the common layout (invented dimensions): axis 1 vertical through
+/// the origin, a `shoulder` offset forward (e.g. 0.12 m) at 0.45 m height, a 0.40 m upper arm standing
+/// up at zero, a 0.075 m step and a 0.38 m forearm pointing forward along x, a wrist with
+/// axes x, y, x at right angles and a 0.09 m flange. `lateral` shifts the elbow sideways
+/// (along axis 2), which makes the wrist center stay that far from axis 1. One-turn limits.
+pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
+    let range = std::f64::consts::PI;
+    let x = [1.0, 0.0, 0.0];
+    let y = [0.0, 1.0, 0.0];
+    let z = [0.0, 0.0, 1.0];
+    let c = [shoulder + 0.38, lateral, 0.925];
+    let joints = [
+        revolute(z, [0.0; 3], range),
+        revolute(y, [shoulder, 0.0, 0.45], range),
+        revolute(y, [shoulder, lateral, 0.85], range),
+        revolute(x, c, range),
+        revolute(y, c, range),
+        revolute(x, c, range),
+    ];
+    let names = [
+        "waist",
+        "shoulder",
+        "elbow",
+        "forearm-roll",
+        "wrist-bend",
+        "flange-roll",
+    ];
+    let model = Model {
+        name: "upright_elbow".to_string(),
+        description: Some("invented upright elbow arm for armforge's own tests".to_string()),
+        units: Units::default(),
+        joints: joints
+            .iter()
+            .zip(names)
+            .map(|(joint, name)| ModelJoint {
+                joint: *joint,
+                name: name.to_string(),
+                location: Location::default(),
+            })
+            .collect(),
+        tool: Pose {
+            rotation: Pose::IDENTITY.rotation,
+            translation: [shoulder + 0.47, lateral, 0.925],
+        },
+        base: Pose::IDENTITY,
+        source_path: "<upright elbow arm>".to_string(),
+    };
+    let geometry = match classify(&model, &Tolerances::default()) {
+        Ok(g) if g.family == Family::Elbow && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
+        other => panic!("the upright elbow arm must classify as an elbow arm: {other:?}"),
+    };
+    (model, geometry)
+}

@@ -120,22 +120,25 @@ pub fn solve(
         &format!("j5_beta_{tag}"),
         "β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)",
     );
-    // γ² (1 − c45²) = 1 − α² − β² − 2 α β c45.
+    // γ² (1 − c45²) = 1 − α² − β² − 2 α β c45 = |h4 × v|² − (b − c45 a)² / (1 − c45²):
+    // the second form has no cancellation when v is nearly parallel to h4.
     let gap = {
-        let one = g.constant(1.0);
-        let aa = g.mul(alpha, alpha);
-        let bb = g.mul(beta, beta);
-        let ab = g.mul(alpha, beta);
-        let k = g.constant(2.0 * c45);
-        let cross = g.mul(k, ab);
-        let x = g.sub(one, aa);
-        let x = g.sub(x, bb);
-        g.sub(x, cross)
+        let h4k = vec3::constant(g, w.h4);
+        let hv = vec3::cross(g, h4k, v);
+        let s2 = vec3::dot(g, hv, hv);
+        let kb = g.constant(b);
+        let kc = g.constant(c45);
+        let ca = g.mul(kc, a);
+        let t = g.sub(kb, ca);
+        let tt = g.mul(t, t);
+        let k = g.constant(1.0 / den);
+        let x = g.mul(k, tt);
+        g.sub(s2, x)
     };
     let gap = g.name(
         gap,
         &format!("j5_gap_{tag}"),
-        "γ² |h4 × h5|² = 1 − α² − β² − 2 α β (h4·h5)",
+        "γ² |h4 × v|²-form: |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)",
     );
     let gamma = {
         let k = g.constant(1.0 / den);
@@ -149,7 +152,7 @@ pub fn solve(
         Some(CheckLayout {
             kind: CheckKind::WristOrientation,
             have_squared: gap,
-            limit: gap,
+            limit: a,
         })
     };
     let h6p = num::sub(&w.h6, &num::scale(&w.h5, b));
@@ -194,24 +197,41 @@ pub fn solve(
         );
         let theta5 = g.atan2(s5, c5);
         let theta5 = g.name(theta5, &format!("q5_{name}"), "θ5 = atan2(sin θ5, cos θ5)");
-        // θ4: rotate z onto v about h4, normalised by the actual length (robust near alignment).
-        let zv = vec3::dot(g, z, v);
-        let aa = g.mul(a, a);
-        let nc = g.sub(zv, aa);
-        let zxv = vec3::cross(g, z, v);
+        // θ4: rotate z onto v about h4, normalised by the actual length (robust near
+        // alignment); z⊥ = z − a h4 = (α − a) h4 + β h5 ± γ n.
+        let z_perp = {
+            let d = g.sub(alpha, a);
+            let x = vec3::scale_const(g, d, w.h4);
+            let y = vec3::scale_const(g, beta, w.h5);
+            let q = vec3::scale_const(g, gm, n);
+            let xy = vec3::add(g, x, y);
+            vec3::add(g, xy, q)
+        };
+        let nc = vec3::dot(g, z_perp, v);
+        let zxv = vec3::cross(g, z_perp, v);
         let ns = vec3::dot_const(g, w.h4, zxv);
-        let q = g.mul_add2(nc, nc, ns, ns);
-        let floor = g.exact(ALIGNED_SINE.powi(4));
+        // |z⊥| |v⊥| normalises (nc, ns). For a right-angled wrist z⊥ = γ n and |v⊥| = γ, so
+        // the product is γ² = |h4 × v|², known without a root; otherwise take the root of
+        // nc² + ns² (robust when joint 5 is near the aligned position).
+        let (q, floor, inv) = if w.is_orthogonal() {
+            let floor = g.exact(ALIGNED_SINE * ALIGNED_SINE);
+            let safe = g.max(gap, floor);
+            let one = g.constant(1.0);
+            (gap, floor, g.div(one, safe))
+        } else {
+            let q = g.mul_add2(nc, nc, ns, ns);
+            let floor = g.exact(ALIGNED_SINE.powi(4));
+            let safe = g.max(q, floor);
+            let root = g.sqrt(safe);
+            let one = g.constant(1.0);
+            (q, floor, g.div(one, root))
+        };
         let aligned = g.sub(floor, q);
         let aligned = g.name(
             aligned,
             &format!("aligned_{tag}"),
             format!("≥ 0 when joint 5 is within {ALIGNED_SINE:e} of the aligned position"),
         );
-        let safe = g.max(q, floor);
-        let root = g.sqrt(safe);
-        let one = g.constant(1.0);
-        let inv = g.div(one, root);
         let c4 = g.mul(nc, inv);
         let s4 = g.mul(ns, inv);
         let (rc, rs) = if sign > 0.0 {

@@ -109,6 +109,7 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
+    wrist_twist_cosines: [-0.59419935746643, -0.09688808049671684],
 };
 #[allow(
     clippy::approx_constant,
@@ -216,16 +217,16 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t36 = px
-        + (0.08033812528003227 * r02
-            + (0.028241040306763866 * r00 + 0.18050614727168204 * r01))
+        + (0.0803381252800323 * r02
+            + (0.028241040306763852 * r00 + 0.180506147271682 * r01))
         - 0.9412945896500504;
     let t38 = py
-        + (0.08033812528003227 * r12
-            + (0.028241040306763866 * r10 + 0.18050614727168204 * r11))
+        + (0.0803381252800323 * r12
+            + (0.028241040306763852 * r10 + 0.180506147271682 * r11))
         - 0.9329151484305636;
     let t40 = pz
-        + (0.08033812528003227 * r22
-            + (0.028241040306763866 * r20 + 0.18050614727168204 * r21))
+        + (0.0803381252800323 * r22
+            + (0.028241040306763852 * r20 + 0.180506147271682 * r21))
         - 0.16166977542477623;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (x)
     let wc_x = 0.6813724158244535 * t40
@@ -239,14 +240,14 @@ fn candidates(
     // c_t − c: how far the slides move the wrist center (x)
     let shift_x = wc_x + 0.13324549032615607;
     // c_t − c: how far the slides move the wrist center (y)
-    let shift_y = wc_y + 0.2507765065873526;
+    let shift_y = wc_y + 0.2507765065873527;
     // c_t − c: how far the slides move the wrist center (z)
-    let shift_z = wc_z + 0.13343462980210796;
+    let shift_z = wc_z + 0.133434629802108;
     // slide 1 = (-1.110472, 0.155443, -0.214217) · (c_t − c)  (row of U⁻¹, Cramer's rule)
     let q1 = 0.15544255269071328 * shift_y - 1.1104718105116462 * shift_x
         - 0.21421651300803188 * shift_z;
     // slide 2 = (0.94507, -2.43545, -0.207475) · (c_t − c)  (row of U⁻¹, Cramer's rule)
-    let q2 = 0.9450696895850086 * shift_x - 2.4354495746908125 * shift_y
+    let q2 = 0.945069689585 * shift_x - 2.4354495746908125 * shift_y
         - 0.20747480211459815 * shift_z;
     // slide 3 = (1.23346, -2.059174, -1.11842) · (c_t − c)  (row of U⁻¹, Cramer's rule)
     let q3 = 1.2334602240084311 * shift_x - 2.0591739413921553 * shift_y
@@ -289,25 +290,32 @@ fn candidates(
     let j5_alpha_b1 = 1.545769165553188 * t171;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.9184950449631241 * j5_a_b1 - 0.14976660734146008;
-    // γ² |h4 × h5|² = 1 − α² − β² − 2 α β (h4·h5)
-    let j5_gap_b1 = 1.18839871493286 * (j5_alpha_b1 * j5_beta_b1)
-        + (1.0 - j5_alpha_b1 * j5_alpha_b1 - j5_beta_b1 * j5_beta_b1);
+    let t179 = 0.06865561389509453 * g6_z - 0.9618439941275024 * g6_y;
+    let t182 = 0.9618439941275024 * g6_x + 0.2648443649420179 * g6_z;
+    let t185 = 0.2648443649420179 * g6_y + 0.06865561389509453 * g6_x;
+    let t194 = 0.59419935746643 * j5_a_b1 - 0.09688808049671684;
+    // γ² |h4 × v|²-form: |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t185 * t185 + (t179 * t179 + t182 * t182)
+        - 1.545769165553188 * (t194 * t194);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.545769165553188 * j5_gap_b1).max(0.0),
     );
-    let t204 = 0.4064173476466405 * j5_gamma_b1;
-    let t205 = 0.6753632545094499 * j5_gamma_b1;
-    let t207 = 0.16011413921560977 * j5_gamma_b1;
-    let t208 = 0.8179571762026022 * j5_beta_b1 - 0.409388252997887 * t171;
-    let t209 = 0.10612573100116213 * t171 + 0.39252029079901796 * j5_beta_b1;
-    let t210 = 1.486788788194815 * t171 - 0.4205637635480731 * j5_beta_b1;
+    let t210 = 0.8179571762026022 * j5_beta_b1;
+    let t211 = 0.39252029079901796 * j5_beta_b1;
+    let t213 = 0.4205637635480731 * j5_beta_b1;
+    let t216 = 0.4064173476466405 * j5_gamma_b1;
+    let t217 = 0.6753632545094499 * j5_gamma_b1;
+    let t219 = 0.16011413921560977 * j5_gamma_b1;
+    let t220 = t210 - 0.409388252997887 * t171;
+    let t221 = 0.10612573100116213 * t171 + t211;
+    let t222 = 1.486788788194815 * t171 - t213;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t208 - t204;
+    let z_b1p_x = t220 - t216;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t205 + t209;
+    let z_b1p_y = t217 + t221;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t210 - t207;
+    let z_b1p_z = t222 - t219;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1p = 1.0094762566073372
         * (0.8847454097593066 * z_b1p_y - 0.4526175874883282 * z_b1p_x
@@ -322,51 +330,57 @@ fn candidates(
                     * (0.5318678882191131 * z_b1p_z - 0.013801254640110039 * z_b1p_x)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
-    let t248 = j5_a_b1 * j5_a_b1;
-    let t249 = g6_z * z_b1p_z + (g6_x * z_b1p_x + g6_y * z_b1p_y) - t248;
-    let t263 = 0.9618439941275024 * (g6_y * z_b1p_x - g6_x * z_b1p_y)
-        + (0.06865561389509453 * (g6_x * z_b1p_z - g6_z * z_b1p_x)
-            - 0.2648443649420179 * (g6_z * z_b1p_y - g6_y * z_b1p_z));
-    let t266 = t249 * t249 + t263 * t263;
+    let t255 = j5_alpha_b1 - j5_a_b1;
+    let t259 = t210 - 0.2648443649420179 * t255;
+    let t260 = t211 + 0.06865561389509453 * t255;
+    let t261 = 0.9618439941275024 * t255 - t213;
+    let t262 = t259 - t216;
+    let t263 = t217 + t260;
+    let t264 = t261 - t219;
+    let t269 = g6_z * t264 + (g6_x * t262 + g6_y * t263);
+    let t283 = 0.9618439941275024 * (g6_y * t262 - g6_x * t263)
+        + (0.06865561389509453 * (g6_x * t264 - g6_z * t262)
+            - 0.2648443649420179 * (g6_z * t263 - g6_y * t264));
+    let t286 = t269 * t269 + t283 * t283;
+    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t266;
-    let t271 = 1.0 / ::armforge_runtime::math::sqrt(t266.max(1.0000000000000001e-40));
+    let aligned_b1 = 1.0000000000000001e-40 - t286;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t249 * t271 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t263 * t271 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
-    let t281 = 0.9618439941275024 * gx_z
+    let t302 = 0.9618439941275024 * gx_z
         + (0.06865561389509453 * gx_y - 0.2648443649420179 * gx_x);
-    let t282 = 0.2648443649420179 * t281;
-    let t283 = 0.06865561389509453 * t281;
-    let t284 = 0.9618439941275024 * t281;
-    let t285 = gx_x + t282;
-    let t286 = gx_y - t283;
-    let t287 = gx_z - t284;
-    let t290 = 0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y;
-    let t293 = 0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z;
-    let t296 = 0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x;
-    let t306 = j4_cos_b1p * t285 - j4_sin_b1p * t290 - t282;
-    let t307 = t283 + (j4_cos_b1p * t286 - j4_sin_b1p * t293);
-    let t308 = t284 + (j4_cos_b1p * t287 + j4_sin_b1p * t296);
-    let t313 = 0.8179571762026022 * t306 + 0.39252029079901796 * t307
-        - 0.4205637635480731 * t308;
-    let t314 = 0.8179571762026022 * t313;
-    let t315 = 0.39252029079901796 * t313;
-    let t316 = 0.4205637635480731 * t313;
+    let t303 = 0.2648443649420179 * t302;
+    let t304 = 0.06865561389509453 * t302;
+    let t305 = 0.9618439941275024 * t302;
+    let t306 = gx_x + t303;
+    let t307 = gx_y - t304;
+    let t308 = gx_z - t305;
+    let t311 = 0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y;
+    let t314 = 0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z;
+    let t317 = 0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x;
+    let t327 = j4_cos_b1p * t306 - j4_sin_b1p * t311 - t303;
+    let t328 = t304 + (j4_cos_b1p * t307 - j4_sin_b1p * t314);
+    let t329 = t305 + (j4_cos_b1p * t308 + j4_sin_b1p * t317);
+    let t334 = 0.8179571762026022 * t327 + 0.39252029079901796 * t328
+        - 0.4205637635480731 * t329;
+    let t335 = 0.8179571762026022 * t334;
+    let t336 = 0.39252029079901796 * t334;
+    let t337 = 0.4205637635480731 * t334;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t314
-        + (j5_cos_b1p * (t306 - t314)
-            - j5_sin_b1p * (0.39252029079901796 * t308 + 0.4205637635480731 * t307));
+    let y6_b1p_x = t335
+        + (j5_cos_b1p * (t327 - t335)
+            - j5_sin_b1p * (0.39252029079901796 * t329 + 0.4205637635480731 * t328));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t315
-        + (j5_cos_b1p * (t307 - t315)
-            + j5_sin_b1p * (0.4205637635480731 * t306 + 0.8179571762026022 * t308));
+    let y6_b1p_y = t336
+        + (j5_cos_b1p * (t328 - t336)
+            + j5_sin_b1p * (0.4205637635480731 * t327 + 0.8179571762026022 * t329));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = j5_cos_b1p * (t308 + t316)
-        - j5_sin_b1p * (0.8179571762026022 * t307 - 0.39252029079901796 * t306) - t316;
+    let y6_b1p_z = j5_cos_b1p * (t329 + t337)
+        - j5_sin_b1p * (0.8179571762026022 * t328 - 0.39252029079901796 * t327) - t337;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1p = ::armforge_runtime::math::atan2(
         0.013801254640110039
@@ -379,11 +393,11 @@ fn candidates(
             + (0.011686840635510367 * y6_b1p_y - 0.007341143344285177 * y6_b1p_x),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t204 + t208;
+    let z_b1m_x = t216 + t220;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t209 - t205;
+    let z_b1m_y = t221 - t217;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t207 + t210;
+    let z_b1m_z = t219 + t222;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1m = 1.0094762566073372
         * (0.8847454097593066 * z_b1m_y - 0.4526175874883282 * z_b1m_x
@@ -398,39 +412,42 @@ fn candidates(
                     * (0.5318678882191131 * z_b1m_z - 0.013801254640110039 * z_b1m_x)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
-    let t394 = g6_z * z_b1m_z + (g6_x * z_b1m_x + g6_y * z_b1m_y) - t248;
-    let t408 = 0.9618439941275024 * (g6_y * z_b1m_x - g6_x * z_b1m_y)
-        + (0.06865561389509453 * (g6_x * z_b1m_z - g6_z * z_b1m_x)
-            - 0.2648443649420179 * (g6_z * z_b1m_y - g6_y * z_b1m_z));
-    let t411 = t394 * t394 + t408 * t408;
+    let t410 = t216 + t259;
+    let t411 = t260 - t217;
+    let t412 = t219 + t261;
+    let t417 = g6_z * t412 + (g6_x * t410 + g6_y * t411);
+    let t431 = 0.9618439941275024 * (g6_y * t410 - g6_x * t411)
+        + (0.06865561389509453 * (g6_x * t412 - g6_z * t410)
+            - 0.2648443649420179 * (g6_z * t411 - g6_y * t412));
+    let t434 = t417 * t417 + t431 * t431;
+    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t411;
-    let t415 = 1.0 / ::armforge_runtime::math::sqrt(t411.max(1.0000000000000001e-40));
+    let aligned_b1_2 = 1.0000000000000001e-40 - t434;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t394 * t415 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t408 * t415 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t432 = t285 * j4_cos_b1m - t290 * j4_sin_b1m - t282;
-    let t433 = t283 + (t286 * j4_cos_b1m - t293 * j4_sin_b1m);
-    let t434 = t284 + (t287 * j4_cos_b1m + t296 * j4_sin_b1m);
-    let t439 = 0.8179571762026022 * t432 + 0.39252029079901796 * t433
-        - 0.4205637635480731 * t434;
-    let t440 = 0.8179571762026022 * t439;
-    let t441 = 0.39252029079901796 * t439;
-    let t442 = 0.4205637635480731 * t439;
+    let t455 = t306 * j4_cos_b1m - t311 * j4_sin_b1m - t303;
+    let t456 = t304 + (t307 * j4_cos_b1m - t314 * j4_sin_b1m);
+    let t457 = t305 + (t308 * j4_cos_b1m + t317 * j4_sin_b1m);
+    let t462 = 0.8179571762026022 * t455 + 0.39252029079901796 * t456
+        - 0.4205637635480731 * t457;
+    let t463 = 0.8179571762026022 * t462;
+    let t464 = 0.39252029079901796 * t462;
+    let t465 = 0.4205637635480731 * t462;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t440
-        + (j5_cos_b1m * (t432 - t440)
-            - j5_sin_b1m * (0.39252029079901796 * t434 + 0.4205637635480731 * t433));
+    let y6_b1m_x = t463
+        + (j5_cos_b1m * (t455 - t463)
+            - j5_sin_b1m * (0.39252029079901796 * t457 + 0.4205637635480731 * t456));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t441
-        + (j5_cos_b1m * (t433 - t441)
-            + j5_sin_b1m * (0.4205637635480731 * t432 + 0.8179571762026022 * t434));
+    let y6_b1m_y = t464
+        + (j5_cos_b1m * (t456 - t464)
+            + j5_sin_b1m * (0.4205637635480731 * t455 + 0.8179571762026022 * t457));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = j5_cos_b1m * (t434 + t442)
-        - j5_sin_b1m * (0.8179571762026022 * t433 - 0.39252029079901796 * t432) - t442;
+    let y6_b1m_z = j5_cos_b1m * (t457 + t465)
+        - j5_sin_b1m * (0.8179571762026022 * t456 - 0.39252029079901796 * t455) - t465;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1m = ::armforge_runtime::math::atan2(
         0.013801254640110039
@@ -454,7 +471,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
                     have_squared: j5_gap_b1,
-                    limit: j5_gap_b1,
+                    limit: j5_a_b1,
                 },
                 ::armforge_runtime::internal::Check::NONE,
                 ::armforge_runtime::internal::Check::NONE,
@@ -474,7 +491,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
                     have_squared: j5_gap_b1,
-                    limit: j5_gap_b1,
+                    limit: j5_a_b1,
                 },
                 ::armforge_runtime::internal::Check::NONE,
                 ::armforge_runtime::internal::Check::NONE,

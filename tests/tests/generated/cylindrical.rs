@@ -109,6 +109,7 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
+    wrist_twist_cosines: [-0.7967243094771491, 0.6734051213416657],
 };
 #[allow(
     clippy::approx_constant,
@@ -119,7 +120,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     shoulder: ::armforge_runtime::internal::ShoulderRule::Radial {
         direction: [-0.29088833522944446, 0.49707832103632676, -0.3350895823358808],
         point: [-0.0718205649237493, 0.05958435676594763, -0.06363035897545057],
-        wrist_center: [-0.010576586074590277, 0.035337963727544774, -0.16192647610050367],
+        wrist_center: [-0.010576586074590257, 0.0353379637275448, -0.16192647610050365],
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Only,
     wrist: ::armforge_runtime::internal::WristRule {
@@ -222,14 +223,14 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.0021013859416021442 * r00 + 0.0020109803706884 * r01
-            - 0.03808331050759379 * r02) - 0.8624805996216751;
+        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
+            - 0.038083310507593754 * r02) - 0.8624805996216751;
     let t40 = py
-        + (0.0021013859416021442 * r10 + 0.0020109803706884 * r11
-            - 0.03808331050759379 * r12) + 0.2568536871780642;
+        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
+            - 0.038083310507593754 * r12) + 0.2568536871780642;
     let t42 = pz
-        + (0.0021013859416021442 * r20 + 0.0020109803706884 * r21
-            - 0.03808331050759379 * r22) - 0.027184467307596938;
+        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
+            - 0.038083310507593754 * r22) - 0.027184467307596938;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
     let wc_x = 0.6263556831868291 * t42
         + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
@@ -254,11 +255,11 @@ fn candidates(
     // ρ² = |(c_t − p1)⊥h1|²
     let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
     // W = A0 + z A1: the radial part with slide 3 at zero (x)
-    let w0_x = 0.6929980374229754 * height - 0.08206751613923777;
+    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
     // W = A0 + z A1: the radial part with slide 3 at zero (y)
-    let w0_y = 0.6547490679980396 * height - 0.07239180464887757;
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
     // W = A0 + z A1: the radial part with slide 3 at zero (z)
-    let w0_z = 0.24194839912612498 * height - 0.030209353871831456;
+    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
     // D · W
     let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
         - 0.3350895823358808 * w0_z;
@@ -275,7 +276,7 @@ fn candidates(
     let t134 = 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_p = t133 - t134;
-    let t140 = 1.4026694727397795 * (height - 0.11820820044027434);
+    let t140 = 1.4026694727397795 * (height - 0.11820820044027433);
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
     let slide2_p = t140 + 0.7768010686602598 * slide3_p;
     let t146 = w0_x - 0.29088833522944446 * slide3_p;
@@ -395,25 +396,32 @@ fn candidates(
     let j5_alpha_b1 = 2.7379979029778605 * t349;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 2.1814294885999184 * j5_a_b1 + 1.8437818100880325;
-    // γ² |h4 × h5|² = 1 − α² − β² − 2 α β (h4·h5)
-    let j5_gap_b1 = 1.5934486189542982 * (j5_alpha_b1 * j5_beta_b1)
-        + (1.0 - j5_alpha_b1 * j5_alpha_b1 - j5_beta_b1 * j5_beta_b1);
+    let t357 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
+    let t360 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
+    let t363 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
+    let t372 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
+    // γ² |h4 × v|²-form: |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t363 * t363 + (t357 * t357 + t360 * t360)
+        - 2.7379979029778605 * (t372 * t372);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b1).max(0.0),
     );
-    let t381 = 0.5917856509530054 * j5_gamma_b1;
-    let t382 = 0.06565761653993642 * j5_gamma_b1;
-    let t383 = 0.10348524244829747 * j5_gamma_b1;
-    let t384 = 0.008443901475437254 * j5_beta_b1 - 0.35368845495650103 * t349;
-    let t385 = 0.8672481684250324 * t349 - 0.8218117691663878 * j5_beta_b1;
-    let t386 = 0.569696512704339 * j5_beta_b1 - 2.572822887006619 * t349;
+    let t387 = 0.008443901475437254 * j5_beta_b1;
+    let t389 = 0.8218117691663878 * j5_beta_b1;
+    let t390 = 0.569696512704339 * j5_beta_b1;
+    let t394 = 0.591785650953 * j5_gamma_b1;
+    let t395 = 0.06565761653993642 * j5_gamma_b1;
+    let t396 = 0.10348524244829747 * j5_gamma_b1;
+    let t397 = t387 - 0.35368845495650103 * t349;
+    let t398 = 0.8672481684250324 * t349 - t389;
+    let t399 = t390 - 2.572822887006619 * t349;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t384 - t381;
+    let z_b1p_x = t397 - t394;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t382 + t385;
+    let z_b1p_y = t395 + t398;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t383 + t386;
+    let z_b1p_z = t396 + t399;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1p = 1.8297406473129645
         * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
@@ -428,51 +436,57 @@ fn candidates(
                     * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
-    let t424 = j5_a_b1 * j5_a_b1;
-    let t425 = v_b1_z * z_b1p_z + (v_b1_x * z_b1p_x + v_b1_y * z_b1p_y) - t424;
-    let t439 = 0.31674537350149495 * (v_b1_x * z_b1p_z - v_b1_z * z_b1p_x)
-        - 0.12917776692663924 * (v_b1_z * z_b1p_y - v_b1_y * z_b1p_z)
-        - 0.9396730670277007 * (v_b1_y * z_b1p_x - v_b1_x * z_b1p_y);
-    let t442 = t425 * t425 + t439 * t439;
+    let t432 = j5_alpha_b1 - j5_a_b1;
+    let t436 = t387 - 0.12917776692663924 * t432;
+    let t437 = 0.31674537350149495 * t432 - t389;
+    let t438 = t390 - 0.9396730670277007 * t432;
+    let t439 = t436 - t394;
+    let t440 = t395 + t437;
+    let t441 = t396 + t438;
+    let t446 = v_b1_z * t441 + (v_b1_x * t439 + v_b1_y * t440);
+    let t460 = 0.31674537350149495 * (v_b1_x * t441 - v_b1_z * t439)
+        - 0.12917776692663924 * (v_b1_z * t440 - v_b1_y * t441)
+        - 0.9396730670277007 * (v_b1_y * t439 - v_b1_x * t440);
+    let t463 = t446 * t446 + t460 * t460;
+    let t467 = 1.0 / ::armforge_runtime::math::sqrt(t463.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t442;
-    let t447 = 1.0 / ::armforge_runtime::math::sqrt(t442.max(1.0000000000000001e-40));
+    let aligned_b1 = 1.0000000000000001e-40 - t463;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t425 * t447 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t439 * t447 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
-    let t457 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
+    let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
-    let t458 = 0.12917776692663924 * t457;
-    let t459 = 0.31674537350149495 * t457;
-    let t460 = 0.9396730670277007 * t457;
-    let t461 = xv_b1_x + t458;
-    let t462 = xv_b1_y - t459;
-    let t463 = xv_b1_z + t460;
-    let t466 = 0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y;
-    let t469 = 0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x;
-    let t472 = 0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x;
-    let t482 = j4_cos_b1p * t461 - j4_sin_b1p * t466 - t458;
-    let t483 = t459 + (j4_cos_b1p * t462 - j4_sin_b1p * t469);
-    let t484 = j4_cos_b1p * t463 + j4_sin_b1p * t472 - t460;
-    let t489 = 0.569696512704339 * t484
-        + (0.008443901475437254 * t482 - 0.8218117691663878 * t483);
-    let t490 = 0.008443901475437254 * t489;
-    let t491 = 0.8218117691663878 * t489;
-    let t492 = 0.569696512704339 * t489;
+    let t479 = 0.12917776692663924 * t478;
+    let t480 = 0.31674537350149495 * t478;
+    let t481 = 0.9396730670277007 * t478;
+    let t482 = xv_b1_x + t479;
+    let t483 = xv_b1_y - t480;
+    let t484 = xv_b1_z + t481;
+    let t487 = 0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y;
+    let t490 = 0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x;
+    let t493 = 0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x;
+    let t503 = j4_cos_b1p * t482 - j4_sin_b1p * t487 - t479;
+    let t504 = t480 + (j4_cos_b1p * t483 - j4_sin_b1p * t490);
+    let t505 = j4_cos_b1p * t484 + j4_sin_b1p * t493 - t481;
+    let t510 = 0.569696512704339 * t505
+        + (0.008443901475437254 * t503 - 0.8218117691663878 * t504);
+    let t511 = 0.008443901475437254 * t510;
+    let t512 = 0.8218117691663878 * t510;
+    let t513 = 0.569696512704339 * t510;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t490
-        + (j5_cos_b1p * (t482 - t490)
-            + j5_sin_b1p * (0.8218117691663878 * t484 + 0.569696512704339 * t483));
+    let y6_b1p_x = t511
+        + (j5_cos_b1p * (t503 - t511)
+            + j5_sin_b1p * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t483 + t491)
-        - j5_sin_b1p * (0.569696512704339 * t482 - 0.008443901475437254 * t484) - t491;
+    let y6_b1p_y = j5_cos_b1p * (t504 + t512)
+        - j5_sin_b1p * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t492
-        + (j5_cos_b1p * (t484 - t492)
-            - j5_sin_b1p * (0.008443901475437254 * t483 + 0.8218117691663878 * t482));
+    let y6_b1p_z = t513
+        + (j5_cos_b1p * (t505 - t513)
+            - j5_sin_b1p * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1p = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -486,11 +500,11 @@ fn candidates(
             + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t381 + t384;
+    let z_b1m_x = t394 + t397;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t385 - t382;
+    let z_b1m_y = t398 - t395;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t386 - t383;
+    let z_b1m_z = t399 - t396;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1m = 1.8297406473129645
         * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
@@ -505,41 +519,44 @@ fn candidates(
                     * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
-    let t571 = v_b1_z * z_b1m_z + (v_b1_x * z_b1m_x + v_b1_y * z_b1m_y) - t424;
-    let t585 = 0.31674537350149495 * (v_b1_x * z_b1m_z - v_b1_z * z_b1m_x)
-        - 0.12917776692663924 * (v_b1_z * z_b1m_y - v_b1_y * z_b1m_z)
-        - 0.9396730670277007 * (v_b1_y * z_b1m_x - v_b1_x * z_b1m_y);
-    let t588 = t571 * t571 + t585 * t585;
+    let t587 = t394 + t436;
+    let t588 = t437 - t395;
+    let t589 = t438 - t396;
+    let t594 = v_b1_z * t589 + (v_b1_x * t587 + v_b1_y * t588);
+    let t608 = 0.31674537350149495 * (v_b1_x * t589 - v_b1_z * t587)
+        - 0.12917776692663924 * (v_b1_z * t588 - v_b1_y * t589)
+        - 0.9396730670277007 * (v_b1_y * t587 - v_b1_x * t588);
+    let t611 = t594 * t594 + t608 * t608;
+    let t614 = 1.0 / ::armforge_runtime::math::sqrt(t611.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t588;
-    let t592 = 1.0 / ::armforge_runtime::math::sqrt(t588.max(1.0000000000000001e-40));
-    let t595 = -ref4_cos;
-    let t596 = -ref4_sin;
+    let aligned_b1_2 = 1.0000000000000001e-40 - t611;
+    let t618 = -ref4_cos;
+    let t619 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t595 } else { t571 * t592 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t618 } else { t594 * t614 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t596 } else { t585 * t592 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t619 } else { t608 * t614 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t609 = t461 * j4_cos_b1m - t466 * j4_sin_b1m - t458;
-    let t610 = t459 + (t462 * j4_cos_b1m - t469 * j4_sin_b1m);
-    let t611 = t463 * j4_cos_b1m + t472 * j4_sin_b1m - t460;
-    let t616 = 0.569696512704339 * t611
-        + (0.008443901475437254 * t609 - 0.8218117691663878 * t610);
-    let t617 = 0.008443901475437254 * t616;
-    let t618 = 0.8218117691663878 * t616;
-    let t619 = 0.569696512704339 * t616;
+    let t632 = t482 * j4_cos_b1m - t487 * j4_sin_b1m - t479;
+    let t633 = t480 + (t483 * j4_cos_b1m - t490 * j4_sin_b1m);
+    let t634 = t484 * j4_cos_b1m + t493 * j4_sin_b1m - t481;
+    let t639 = 0.569696512704339 * t634
+        + (0.008443901475437254 * t632 - 0.8218117691663878 * t633);
+    let t640 = 0.008443901475437254 * t639;
+    let t641 = 0.8218117691663878 * t639;
+    let t642 = 0.569696512704339 * t639;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t617
-        + (j5_cos_b1m * (t609 - t617)
-            + j5_sin_b1m * (0.8218117691663878 * t611 + 0.569696512704339 * t610));
+    let y6_b1m_x = t640
+        + (j5_cos_b1m * (t632 - t640)
+            + j5_sin_b1m * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t610 + t618)
-        - j5_sin_b1m * (0.569696512704339 * t609 - 0.008443901475437254 * t611) - t618;
+    let y6_b1m_y = j5_cos_b1m * (t633 + t641)
+        - j5_sin_b1m * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t619
-        + (j5_cos_b1m * (t611 - t619)
-            - j5_sin_b1m * (0.008443901475437254 * t610 + 0.8218117691663878 * t609));
+    let y6_b1m_z = t642
+        + (j5_cos_b1m * (t634 - t642)
+            - j5_sin_b1m * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1m = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -567,30 +584,37 @@ fn candidates(
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
-    let t694 = j5_a_b2 + 0.5365182302993144;
+    let t717 = j5_a_b2 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b2 = 2.7379979029778605 * t694;
+    let j5_alpha_b2 = 2.7379979029778605 * t717;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 2.1814294885999184 * j5_a_b2 + 1.8437818100880325;
-    // γ² |h4 × h5|² = 1 − α² − β² − 2 α β (h4·h5)
-    let j5_gap_b2 = 1.5934486189542982 * (j5_alpha_b2 * j5_beta_b2)
-        + (1.0 - j5_alpha_b2 * j5_alpha_b2 - j5_beta_b2 * j5_beta_b2);
+    let t723 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
+    let t726 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
+    let t729 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
+    let t736 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
+    // γ² |h4 × v|²-form: |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t729 * t729 + (t723 * t723 + t726 * t726)
+        - 2.7379979029778605 * (t736 * t736);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b2).max(0.0),
     );
-    let t714 = 0.5917856509530054 * j5_gamma_b2;
-    let t715 = 0.06565761653993642 * j5_gamma_b2;
-    let t716 = 0.10348524244829747 * j5_gamma_b2;
-    let t717 = 0.008443901475437254 * j5_beta_b2 - 0.35368845495650103 * t694;
-    let t718 = 0.8672481684250324 * t694 - 0.8218117691663878 * j5_beta_b2;
-    let t719 = 0.569696512704339 * j5_beta_b2 - 2.572822887006619 * t694;
+    let t746 = 0.008443901475437254 * j5_beta_b2;
+    let t747 = 0.8218117691663878 * j5_beta_b2;
+    let t748 = 0.569696512704339 * j5_beta_b2;
+    let t749 = 0.591785650953 * j5_gamma_b2;
+    let t750 = 0.06565761653993642 * j5_gamma_b2;
+    let t751 = 0.10348524244829747 * j5_gamma_b2;
+    let t752 = t746 - 0.35368845495650103 * t717;
+    let t753 = 0.8672481684250324 * t717 - t747;
+    let t754 = t748 - 2.572822887006619 * t717;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t717 - t714;
+    let z_b2p_x = t752 - t749;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t715 + t718;
+    let z_b2p_y = t750 + t753;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t716 + t719;
+    let z_b2p_z = t751 + t754;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2p = 1.8297406473129645
         * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
@@ -605,51 +629,57 @@ fn candidates(
                     * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
-    let t750 = j5_a_b2 * j5_a_b2;
-    let t751 = v_b2_z * z_b2p_z + (v_b2_x * z_b2p_x + v_b2_y * z_b2p_y) - t750;
-    let t765 = 0.31674537350149495 * (v_b2_x * z_b2p_z - v_b2_z * z_b2p_x)
-        - 0.12917776692663924 * (v_b2_z * z_b2p_y - v_b2_y * z_b2p_z)
-        - 0.9396730670277007 * (v_b2_y * z_b2p_x - v_b2_x * z_b2p_y);
-    let t768 = t751 * t751 + t765 * t765;
+    let t780 = j5_alpha_b2 - j5_a_b2;
+    let t784 = t746 - 0.12917776692663924 * t780;
+    let t785 = 0.31674537350149495 * t780 - t747;
+    let t786 = t748 - 0.9396730670277007 * t780;
+    let t787 = t784 - t749;
+    let t788 = t750 + t785;
+    let t789 = t751 + t786;
+    let t794 = v_b2_z * t789 + (v_b2_x * t787 + v_b2_y * t788);
+    let t808 = 0.31674537350149495 * (v_b2_x * t789 - v_b2_z * t787)
+        - 0.12917776692663924 * (v_b2_z * t788 - v_b2_y * t789)
+        - 0.9396730670277007 * (v_b2_y * t787 - v_b2_x * t788);
+    let t811 = t794 * t794 + t808 * t808;
+    let t814 = 1.0 / ::armforge_runtime::math::sqrt(t811.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t768;
-    let t772 = 1.0 / ::armforge_runtime::math::sqrt(t768.max(1.0000000000000001e-40));
+    let aligned_b2 = 1.0000000000000001e-40 - t811;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t751 * t772 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t765 * t772 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
-    let t782 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
+    let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
-    let t783 = 0.12917776692663924 * t782;
-    let t784 = 0.31674537350149495 * t782;
-    let t785 = 0.9396730670277007 * t782;
-    let t786 = xv_b2_x + t783;
-    let t787 = xv_b2_y - t784;
-    let t788 = xv_b2_z + t785;
-    let t791 = 0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y;
-    let t794 = 0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x;
-    let t797 = 0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x;
-    let t807 = j4_cos_b2p * t786 - j4_sin_b2p * t791 - t783;
-    let t808 = t784 + (j4_cos_b2p * t787 - j4_sin_b2p * t794);
-    let t809 = j4_cos_b2p * t788 + j4_sin_b2p * t797 - t785;
-    let t814 = 0.569696512704339 * t809
-        + (0.008443901475437254 * t807 - 0.8218117691663878 * t808);
-    let t815 = 0.008443901475437254 * t814;
-    let t816 = 0.8218117691663878 * t814;
-    let t817 = 0.569696512704339 * t814;
+    let t826 = 0.12917776692663924 * t825;
+    let t827 = 0.31674537350149495 * t825;
+    let t828 = 0.9396730670277007 * t825;
+    let t829 = xv_b2_x + t826;
+    let t830 = xv_b2_y - t827;
+    let t831 = xv_b2_z + t828;
+    let t834 = 0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y;
+    let t837 = 0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x;
+    let t840 = 0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x;
+    let t850 = j4_cos_b2p * t829 - j4_sin_b2p * t834 - t826;
+    let t851 = t827 + (j4_cos_b2p * t830 - j4_sin_b2p * t837);
+    let t852 = j4_cos_b2p * t831 + j4_sin_b2p * t840 - t828;
+    let t857 = 0.569696512704339 * t852
+        + (0.008443901475437254 * t850 - 0.8218117691663878 * t851);
+    let t858 = 0.008443901475437254 * t857;
+    let t859 = 0.8218117691663878 * t857;
+    let t860 = 0.569696512704339 * t857;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t815
-        + (j5_cos_b2p * (t807 - t815)
-            + j5_sin_b2p * (0.8218117691663878 * t809 + 0.569696512704339 * t808));
+    let y6_b2p_x = t858
+        + (j5_cos_b2p * (t850 - t858)
+            + j5_sin_b2p * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t808 + t816)
-        - j5_sin_b2p * (0.569696512704339 * t807 - 0.008443901475437254 * t809) - t816;
+    let y6_b2p_y = j5_cos_b2p * (t851 + t859)
+        - j5_sin_b2p * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t817
-        + (j5_cos_b2p * (t809 - t817)
-            - j5_sin_b2p * (0.008443901475437254 * t808 + 0.8218117691663878 * t807));
+    let y6_b2p_z = t860
+        + (j5_cos_b2p * (t852 - t860)
+            - j5_sin_b2p * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2p = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -663,11 +693,11 @@ fn candidates(
             + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t714 + t717;
+    let z_b2m_x = t749 + t752;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t718 - t715;
+    let z_b2m_y = t753 - t750;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t719 - t716;
+    let z_b2m_z = t754 - t751;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2m = 1.8297406473129645
         * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
@@ -682,39 +712,42 @@ fn candidates(
                     * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
-    let t893 = v_b2_z * z_b2m_z + (v_b2_x * z_b2m_x + v_b2_y * z_b2m_y) - t750;
-    let t907 = 0.31674537350149495 * (v_b2_x * z_b2m_z - v_b2_z * z_b2m_x)
-        - 0.12917776692663924 * (v_b2_z * z_b2m_y - v_b2_y * z_b2m_z)
-        - 0.9396730670277007 * (v_b2_y * z_b2m_x - v_b2_x * z_b2m_y);
-    let t910 = t893 * t893 + t907 * t907;
+    let t931 = t749 + t784;
+    let t932 = t785 - t750;
+    let t933 = t786 - t751;
+    let t938 = v_b2_z * t933 + (v_b2_x * t931 + v_b2_y * t932);
+    let t952 = 0.31674537350149495 * (v_b2_x * t933 - v_b2_z * t931)
+        - 0.12917776692663924 * (v_b2_z * t932 - v_b2_y * t933)
+        - 0.9396730670277007 * (v_b2_y * t931 - v_b2_x * t932);
+    let t955 = t938 * t938 + t952 * t952;
+    let t958 = 1.0 / ::armforge_runtime::math::sqrt(t955.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t910;
-    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t910.max(1.0000000000000001e-40));
+    let aligned_b2_2 = 1.0000000000000001e-40 - t955;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t595 } else { t893 * t914 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t618 } else { t938 * t958 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t596 } else { t907 * t914 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t619 } else { t952 * t958 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t929 = t786 * j4_cos_b2m - t791 * j4_sin_b2m - t783;
-    let t930 = t784 + (t787 * j4_cos_b2m - t794 * j4_sin_b2m);
-    let t931 = t788 * j4_cos_b2m + t797 * j4_sin_b2m - t785;
-    let t936 = 0.569696512704339 * t931
-        + (0.008443901475437254 * t929 - 0.8218117691663878 * t930);
-    let t937 = 0.008443901475437254 * t936;
-    let t938 = 0.8218117691663878 * t936;
-    let t939 = 0.569696512704339 * t936;
+    let t974 = t829 * j4_cos_b2m - t834 * j4_sin_b2m - t826;
+    let t975 = t827 + (t830 * j4_cos_b2m - t837 * j4_sin_b2m);
+    let t976 = t831 * j4_cos_b2m + t840 * j4_sin_b2m - t828;
+    let t981 = 0.569696512704339 * t976
+        + (0.008443901475437254 * t974 - 0.8218117691663878 * t975);
+    let t982 = 0.008443901475437254 * t981;
+    let t983 = 0.8218117691663878 * t981;
+    let t984 = 0.569696512704339 * t981;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t937
-        + (j5_cos_b2m * (t929 - t937)
-            + j5_sin_b2m * (0.8218117691663878 * t931 + 0.569696512704339 * t930));
+    let y6_b2m_x = t982
+        + (j5_cos_b2m * (t974 - t982)
+            + j5_sin_b2m * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t930 + t938)
-        - j5_sin_b2m * (0.569696512704339 * t929 - 0.008443901475437254 * t931) - t938;
+    let y6_b2m_y = j5_cos_b2m * (t975 + t983)
+        - j5_sin_b2m * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t939
-        + (j5_cos_b2m * (t931 - t939)
-            - j5_sin_b2m * (0.008443901475437254 * t930 + 0.8218117691663878 * t929));
+    let y6_b2m_z = t984
+        + (j5_cos_b2m * (t976 - t984)
+            - j5_sin_b2m * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2m = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -744,7 +777,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
                     have_squared: j5_gap_b1,
-                    limit: j5_gap_b1,
+                    limit: j5_a_b1,
                 },
                 ::armforge_runtime::internal::Check::NONE,
                 ::armforge_runtime::internal::Check::NONE,
@@ -768,7 +801,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
                     have_squared: j5_gap_b1,
-                    limit: j5_gap_b1,
+                    limit: j5_a_b1,
                 },
                 ::armforge_runtime::internal::Check::NONE,
                 ::armforge_runtime::internal::Check::NONE,
@@ -792,7 +825,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
                     have_squared: j5_gap_b2,
-                    limit: j5_gap_b2,
+                    limit: j5_a_b2,
                 },
                 ::armforge_runtime::internal::Check::NONE,
                 ::armforge_runtime::internal::Check::NONE,
@@ -816,7 +849,7 @@ fn candidates(
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
                     have_squared: j5_gap_b2,
-                    limit: j5_gap_b2,
+                    limit: j5_a_b2,
                 },
                 ::armforge_runtime::internal::Check::NONE,
                 ::armforge_runtime::internal::Check::NONE,

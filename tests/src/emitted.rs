@@ -1,0 +1,67 @@
+//! Every example arm's solver, emitted at compile time by `armforge_macros::solver!` from the
+//! files in `arms/` — the same modules `armforge emit` writes (see `emitted_matches_cli`).
+//!
+//! [`EMITTED_ARMS`] puts each module's functions behind plain function pointers so that tests
+//! and benchmarks can loop over the arms. The modules' own `#[cfg(test)]` round trips run
+//! with this crate's unit tests.
+
+use armforge_runtime::{Branch, Pose, Solution, Unreachable, JOINTS};
+
+/// One emitted solver, behind function pointers (SI units).
+#[derive(Clone, Copy)]
+pub struct EmittedArm {
+    /// The description's path as written in the macro call (relative to `tests/`).
+    pub path: &'static str,
+    /// The module's `CAPACITY`.
+    pub capacity: usize,
+    /// `solve`, as a list or the reason.
+    pub solve: fn(&Pose) -> Result<Vec<Solution>, Unreachable>,
+    /// `solve_near`.
+    pub solve_near: fn(&Pose, &[f64; JOINTS]) -> Result<Solution, Unreachable>,
+    /// `solve_branch`.
+    pub solve_branch: fn(&Pose, Branch) -> Result<Solution, Unreachable>,
+    /// `branch_of`.
+    pub branch_of: fn(&[f64; JOINTS]) -> Branch,
+    /// `forward`.
+    pub forward: fn(&[f64; JOINTS]) -> Pose,
+}
+
+impl EmittedArm {
+    /// The description file (absolute).
+    pub fn file(&self) -> std::path::PathBuf {
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(self.path)
+    }
+}
+
+macro_rules! emitted_arms {
+    ($($name:ident = $path:tt;)*) => {
+        $(
+            armforge_macros::solver!(
+                #[allow(missing_docs)]
+                pub mod $name = $path;
+            );
+        )*
+
+        /// Every example arm's emitted solver, in file-name order.
+        pub const EMITTED_ARMS: &[EmittedArm] = &[$(
+            EmittedArm {
+                path: $path,
+                capacity: $name::CAPACITY,
+                solve: |target| $name::solve(target).status().map(<[Solution]>::to_vec),
+                solve_near: $name::solve_near,
+                solve_branch: $name::solve_branch,
+                branch_of: $name::branch_of,
+                forward: $name::forward,
+            },
+        )*];
+    };
+}
+
+emitted_arms! {
+    bench_elbow = "../arms/bench-elbow-dh.toml";
+    ceiling_transfer = "../arms/ceiling-transfer-axes.toml";
+    centrifuge_loader = "../arms/centrifuge-loader-dh.toml";
+    hotel_loader = "../arms/hotel-loader-axes.toml";
+    rack_loader = "../arms/rack-loader-mdh.toml";
+    tray_gantry = "../arms/tray-gantry-axes.toml";
+}

@@ -1,0 +1,201 @@
+//! Round trip of the EMITTED solvers (compiled from `arms/*.toml` by `armforge_macros::solver!`)
+//! for every example arm: random configurations within the limits → forward kinematics →
+//! `solve`.
+//!
+//! The target pose and every check of a solution use the independent reference: the
+//! description read with the `toml` crate and forward kinematics from the textbook definitions
+//! with `nalgebra` (`armforge_tests::ReferenceArm`; Spong, Hutchinson & Vidyasagar 2006,
+//! eq. 3.10; Craig 2005, eq. 3.6; Murray, Li & Sastry 1994, §3.2).
+//!
+//! Checks per configuration: the original is among the solutions (modulo full turns where the
+//! joint's range is at most one turn); every solution reproduces the pose to 1e-9 (position
+//! relative to the arm's size, rotation by the Frobenius norm of the difference); solutions are
+//! distinct and within the limits; `branch_of(s.joints) == s.branch`.
+//!
+//! Samples per arm: `ARMFORGE_SAMPLES`, default 100,000 in release builds (a few seconds) and
+//! 2,000 in debug builds.
+
+use std::f64::consts::TAU;
+
+use armforge_generator::classify::Tolerances;
+use armforge_generator::pipeline::generate_module;
+use armforge_runtime::{JointKind, Pose, Solution, JOINTS};
+use armforge_tests::emitted::{EmittedArm, EMITTED_ARMS};
+use armforge_tests::{sample_count, ReferenceArm};
+use nalgebra::Isometry3;
+use rand::rngs::StdRng;
+use rand::{Rng, SeedableRng};
+
+fn samples() -> usize {
+    sample_count(if cfg!(debug_assertions) {
+        2_000
+    } else {
+        100_000
+    })
+}
+
+/// The joint table and size of the arm as the generator sees it.
+struct ArmFacts {
+    joints: [armforge_runtime::Joint; JOINTS],
+    size: f64,
+}
+
+fn facts(arm: &EmittedArm) -> ArmFacts {
+    let generated = generate_module(&arm.file(), arm.path, &Tolerances::default())
+        .unwrap_or_else(|e| panic!("{e}"));
+    let mut joints = [generated.plan.arm.joints[0]; JOINTS];
+    joints.copy_from_slice(&generated.plan.arm.joints);
+    ArmFacts {
+        joints,
+        size: generated.plan.arm.scale,
+    }
+}
+
+/// (position error ÷ size, rotation error by Frobenius norm) between a pose and a reference.
+fn pose_error(a: &Isometry3<f64>, b: &Isometry3<f64>, size: f64) -> (f64, f64) {
+    let dp = (a.translation.vector - b.translation.vector).norm() / size;
+    let dr = (a.rotation.to_rotation_matrix().matrix() - b.rotation.to_rotation_matrix().matrix())
+        .norm();
+    (dp, dr)
+}
+
+fn pose_of(iso: &Isometry3<f64>) -> Pose {
+    let r = iso.rotation.to_rotation_matrix();
+    let mut rotation = [[0.0; 3]; 3];
+    for (i, row) in rotation.iter_mut().enumerate() {
+        for (j, x) in row.iter_mut().enumerate() {
+            *x = r[(i, j)];
+        }
+    }
+    Pose {
+        rotation,
+        translation: iso.translation.vector.into(),
+    }
+}
+
+/// Distance between two values of one joint: modulo full turns when the range is at most one
+/// turn (then equivalent angles are one solution), plain otherwise.
+fn joint_gap(joint: &armforge_runtime::Joint, a: f64, b: f64) -> f64 {
+    let d = a - b;
+    let [lo, hi] = joint.limits;
+    if joint.kind == JointKind::Revolute && hi - lo <= TAU + 1e-9 {
+        (d - TAU * (d / TAU).round()).abs()
+    } else {
+        d.abs()
+    }
+}
+
+fn same(joints: &[armforge_runtime::Joint; JOINTS], a: &[f64; 6], b: &[f64; 6], tol: f64) -> bool {
+    (0..JOINTS).all(|i| joint_gap(&joints[i], a[i], b[i]) < tol)
+}
+
+fn random_configuration(
+    joints: &[armforge_runtime::Joint; JOINTS],
+    reference: &ReferenceArm,
+    rng: &mut StdRng,
+) -> [f64; JOINTS] {
+    let mut q = [0.0; JOINTS];
+    for i in 0..JOINTS {
+        let [mut lo, mut hi] = joints[i].limits;
+        if !(lo.is_finite() && hi.is_finite()) {
+            [lo, hi] = reference.limits[i];
+        }
+        q[i] = rng.random_range(lo..hi);
+    }
+    q
+}
+
+#[derive(Default, Debug)]
+struct Tally {
+    poses: usize,
+    solutions: usize,
+    most: usize,
+    flagged: usize,
+    worst_position: f64,
+    worst_rotation: f64,
+}
+
+fn round_trip(arm: &EmittedArm, count: usize, seed: u64) -> Tally {
+    let facts = facts(arm);
+    let reference = ReferenceArm::load(&arm.file());
+    let mut rng = StdRng::seed_from_u64(seed);
+    let mut tally = Tally::default();
+    for _ in 0..count {
+        let q = random_configuration(&facts.joints, &reference, &mut rng);
+        let target_iso = reference.forward(&q);
+        let target = pose_of(&target_iso);
+        let solutions: Vec<Solution> = (arm.solve)(&target)
+            .unwrap_or_else(|reason| panic!("{}: no solution for {q:?}: {reason}", arm.path));
+        tally.poses += 1;
+        tally.solutions += solutions.len();
+        tally.most = tally.most.max(solutions.len());
+        assert!(solutions.len() <= arm.capacity);
+        for s in &solutions {
+            let (dp, dr) = pose_error(&reference.forward(&s.joints), &target_iso, facts.size);
+            tally.worst_position = tally.worst_position.max(dp);
+            tally.worst_rotation = tally.worst_rotation.max(dr);
+            assert!(
+                dp < 1e-9 && dr < 1e-9,
+                "{}: solution {s:?} of {q:?} misses the pose by {dp:e} (position ÷ size), \
+                 {dr:e} (rotation)",
+                arm.path
+            );
+            for (j, v) in facts.joints.iter().zip(s.joints.iter()) {
+                assert!(
+                    *v >= j.limits[0] - 1e-12 && *v <= j.limits[1] + 1e-12,
+                    "{}: solution {s:?} outside the limits",
+                    arm.path
+                );
+            }
+            if s.flags.is_empty() {
+                assert_eq!((arm.branch_of)(&s.joints), s.branch, "{}: {s:?}", arm.path);
+            } else {
+                tally.flagged += 1;
+            }
+        }
+        for (i, a) in solutions.iter().enumerate() {
+            for b in &solutions[i + 1..] {
+                assert!(
+                    !same(&facts.joints, &a.joints, &b.joints, 1e-9),
+                    "{}: duplicate solutions {a:?} and {b:?}",
+                    arm.path
+                );
+            }
+        }
+        assert!(
+            solutions
+                .iter()
+                .any(|s| same(&facts.joints, &s.joints, &q, 1e-6)),
+            "{}: the original {q:?} is not among {solutions:#?}",
+            arm.path
+        );
+    }
+    tally
+}
+
+#[test]
+fn every_example_arm_round_trips_through_its_emitted_solver() {
+    let count = samples();
+    assert_eq!(
+        EMITTED_ARMS.len(),
+        armforge_tests::example_arm_paths().len()
+    );
+    for (k, arm) in EMITTED_ARMS.iter().enumerate() {
+        let tally = round_trip(arm, count, 0x5eed + k as u64);
+        println!(
+            "{}: {} poses, {} solutions (most {}), {} flagged; worst errors {:.1e} (position ÷ \
+             size), {:.1e} (rotation)",
+            arm.path,
+            tally.poses,
+            tally.solutions,
+            tally.most,
+            tally.flagged,
+            tally.worst_position,
+            tally.worst_rotation
+        );
+        assert_eq!(tally.poses, count);
+        // Every configuration within the limits is a solution of its own pose, so each pose
+        // has at least one: the sum can't be less than the count.
+        assert!(tally.solutions >= count);
+    }
+}
