@@ -99,8 +99,13 @@ pub struct Outcome {
     pub singular: bool,
     /// Recovery.
     pub status: Status,
-    /// The configuration, kept for failing samples only.
-    pub failing_joints: Option<Box<[f64; JOINTS]>>,
+    /// True when `solve` found no solution.
+    pub unreachable: bool,
+    /// Recovered only by `solve_near` with the original configuration as the current one
+    /// (the free joint of a singular pose held at the reference, as a controller holds it).
+    pub recovered_near: bool,
+    /// The sample, kept for failing samples only.
+    pub failing: Option<Box<Sample>>,
 }
 
 impl Outcome {
@@ -187,10 +192,15 @@ impl<'a> Checker<'a> {
                 joint: 0,
                 by: f64::INFINITY,
             },
-            failing_joints: None,
+            unreachable: false,
+            recovered_near: false,
+            failing: None,
         };
         match self.solver.solve(&target) {
-            Err(reason) => outcome.status = Status::Unreachable(reason),
+            Err(reason) => {
+                outcome.status = Status::Unreachable(reason);
+                outcome.unreachable = true;
+            }
             Ok(solutions) => {
                 outcome.solutions = solutions.len();
                 let mut nearest = (0, f64::INFINITY);
@@ -214,10 +224,31 @@ impl<'a> Checker<'a> {
                 };
             }
         }
+        if sample.kind.is_near_singular() && outcome.status != Status::Recovered {
+            self.recover_near(sample, &target, &mut outcome);
+        }
         if outcome.fails(&self.thresholds) {
-            outcome.failing_joints = Some(Box::new(sample.joints));
+            outcome.failing = Some(Box::new(*sample));
         }
         outcome
+    }
+
+    /// At a singular pose `solve` holds the free joint (joint 1 on axis 1, joint 4 at the
+    /// aligned wrist) at zero, and both representatives may be beyond the limits; a
+    /// controller calls `solve_near` with its current configuration instead. The original
+    /// configuration is recovered when that solution is it and reproduces the pose.
+    fn recover_near(&self, sample: &Sample, target: &Pose, outcome: &mut Outcome) {
+        let Ok(s) = self.solver.solve_near(target, &sample.joints) else {
+            return;
+        };
+        let (p, r) = self.pose_error(&self.pose(&s.joints), target);
+        let limit = self.thresholds.pose_for(sample.kind);
+        let miss = self.miss(sample, &s.joints);
+        if within(p, limit) && within(r, limit) && miss.1 <= self.thresholds.joint_for(sample.kind)
+        {
+            outcome.status = Status::Recovered;
+            outcome.recovered_near = true;
+        }
     }
 
     /// The joint of the largest difference between a solution and the sample, over the

@@ -31,6 +31,9 @@ pub struct KindSummary {
     pub unreachable: u64,
     /// Samples with a solution flagged singular.
     pub singular: u64,
+    /// Samples recovered only by `solve_near` from the original configuration (singular
+    /// poses: the free joint held at the reference).
+    pub recovered_near: u64,
     /// Samples that fail a threshold.
     pub failed: u64,
     /// Largest position error (fraction of the arm's size).
@@ -58,6 +61,9 @@ pub struct Failure {
     pub kind: Kind,
     /// The joint values in the file's units.
     pub joints: Vec<f64>,
+    /// How far it was placed from the singular configuration, boundary or limit (radians,
+    /// or fraction of the arm's size; zero for uniform samples).
+    pub offset: f64,
     /// What went wrong.
     pub problem: String,
 }
@@ -128,8 +134,9 @@ pub fn kind_summary(
         asked,
         tried: outcomes.len() as u64,
         recovered: count(&|o| o.status == Status::Recovered),
-        unreachable: count(&|o| matches!(o.status, Status::Unreachable(_))),
+        unreachable: count(&|o| o.unreachable),
         singular: count(&|o| o.singular),
+        recovered_near: count(&|o| o.recovered_near),
         failed: count(&|o| o.fails(thresholds)),
         max_position_error: max(&positions),
         p999_position_error: p999(&mut positions),
@@ -174,11 +181,11 @@ pub fn problem_text(o: &Outcome, thresholds: &Thresholds) -> String {
 /// A failing outcome, named, with its joints in the file's units.
 pub fn failure(model: &Model, o: &Outcome, thresholds: &Thresholds) -> Failure {
     let joints = o
-        .failing_joints
+        .failing
         .as_deref()
-        .map(|q| {
+        .map(|s| {
             model
-                .joint_values_from_si(q)
+                .joint_values_from_si(&s.joints)
                 .into_iter()
                 .map(tidy_full)
                 .collect()
@@ -188,6 +195,7 @@ pub fn failure(model: &Model, o: &Outcome, thresholds: &Thresholds) -> Failure {
         index: o.index,
         kind: o.kind,
         joints,
+        offset: o.failing.as_deref().map_or(0.0, |s| s.offset),
         problem: problem_text(o, thresholds),
     }
 }
@@ -226,7 +234,9 @@ impl Summary {
         let _ = writeln!(
             out,
             "position error: fraction of the arm's size ({}); rotation error: Frobenius norm of \
-             R_solution − R_target; joints: radians, slides as a fraction of the arm's size\n",
+             R_solution − R_target; joints: radians, slides as a fraction of the arm's size;\n\
+             unreachable: `solve` found nothing; near: recovered only by `solve_near` from the \
+             original configuration (a singular pose's free joint held at the reference)\n",
             model.units.show_length(self.arm_size)
         );
         let header = [
@@ -235,6 +245,7 @@ impl Summary {
             "recovered",
             "singular",
             "unreachable",
+            "near",
             "failed",
             "position max",
             "position 99.9%",
@@ -259,6 +270,7 @@ impl Summary {
                 k.recovered.to_string(),
                 k.singular.to_string(),
                 k.unreachable.to_string(),
+                k.recovered_near.to_string(),
                 k.failed.to_string(),
                 e(k.max_position_error),
                 e(k.p999_position_error),
@@ -293,9 +305,14 @@ impl Summary {
             );
             for f in &self.failures {
                 let joints: Vec<String> = f.joints.iter().map(|x| format!("{x}")).collect();
+                let placed = if f.offset > 0.0 {
+                    format!(", placed {:.2e} from it", f.offset)
+                } else {
+                    String::new()
+                };
                 let _ = writeln!(
                     out,
-                    "  sample {} ({}): joints [{}]: {}",
+                    "  sample {} ({}{placed}): joints [{}]: {}",
                     f.index,
                     f.kind_name(),
                     joints.join(", "),
