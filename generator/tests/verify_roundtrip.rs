@@ -73,6 +73,14 @@ fn every_example_arm_passes() {
         assert_eq!(uniform.kind, Kind::WithinLimits);
         assert_eq!(uniform.tried, samples());
         assert_eq!(uniform.recovered, samples());
+        // At most 4 postures × 2 wrist solutions for a decoupled 6R arm, fewer for the other
+        // families (Craig, Introduction to Robotics, 3rd ed., 2005, §4.7; Siciliano et al.,
+        // Robotics, 2009, §2.12), counting angles a whole turn apart once.
+        let most = summary.distinct_per_pose.keys().max().copied().unwrap_or(0);
+        assert!(
+            most <= geometry.solutions.total as usize,
+            "{path}: {most} distinct solutions for one pose"
+        );
         // Every arm's wrist can align within its limits, and every arm has finite limits.
         for kind in [Kind::WristNearAligned, Kind::AtLimit] {
             let k = summary.kinds.iter().find(|k| k.kind == kind).expect("kind");

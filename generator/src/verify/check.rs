@@ -10,6 +10,10 @@ use serde::Serialize;
 use super::sampler::{Kind, Sample};
 use crate::solver::Solver;
 
+/// Two revolute values whole turns apart differ by at most this after wrapping (radians):
+/// adding `2π k` to an angle of a few turns rounds at ~1e-15.
+const TURN_ROUNDING: f64 = 1e-13;
+
 /// True when `error` is at most `limit` (false for NaN).
 pub fn within(error: f64, limit: f64) -> bool {
     error <= limit
@@ -90,6 +94,8 @@ pub struct Outcome {
     pub kind: Kind,
     /// Number of solutions returned.
     pub solutions: usize,
+    /// Number of them that differ by more than whole turns of revolute joints.
+    pub distinct: usize,
     /// Largest position error of any solution, fraction of the arm's size.
     pub position_error: f64,
     /// Largest rotation error of any solution (Frobenius norm).
@@ -178,6 +184,15 @@ impl<'a> Checker<'a> {
         }
     }
 
+    /// True when two configurations differ only by whole turns of revolute joints (to within
+    /// the rounding of adding a turn, 1e-13 rad).
+    fn same_modulo_turns(&self, a: &[f64; JOINTS], b: &[f64; JOINTS]) -> bool {
+        (0..JOINTS).all(|i| match self.joints[i].kind {
+            JointKind::Revolute => self.joint_difference(i, a[i], b[i]) <= TURN_ROUNDING,
+            JointKind::Prismatic => a[i] == b[i],
+        })
+    }
+
     /// The round trip of one sample.
     pub fn check(&self, sample: &Sample) -> Outcome {
         let target = self.pose(&sample.joints);
@@ -185,6 +200,7 @@ impl<'a> Checker<'a> {
             index: sample.index,
             kind: sample.kind,
             solutions: 0,
+            distinct: 0,
             position_error: 0.0,
             rotation_error: 0.0,
             singular: false,
@@ -204,8 +220,17 @@ impl<'a> Checker<'a> {
             Ok(solutions) => {
                 outcome.solutions = solutions.len();
                 let mut nearest = (0, f64::INFINITY);
+                let mut checked: Vec<[f64; JOINTS]> = Vec::with_capacity(solutions.len());
                 for s in &solutions {
-                    let (p, r) = self.pose_error(&self.pose(&s.joints), &target);
+                    // The same configuration a whole turn away in a joint with a wider range:
+                    // its pose is that of one already checked.
+                    let turned = checked.iter().any(|c| self.same_modulo_turns(c, &s.joints));
+                    let (p, r) = if turned {
+                        (0.0, 0.0)
+                    } else {
+                        checked.push(s.joints);
+                        self.pose_error(&self.pose(&s.joints), &target)
+                    };
                     outcome.position_error = outcome.position_error.max(p);
                     outcome.rotation_error = outcome.rotation_error.max(r);
                     outcome.singular |= s.flags.is_singular();
@@ -214,6 +239,7 @@ impl<'a> Checker<'a> {
                         nearest = miss;
                     }
                 }
+                outcome.distinct = checked.len();
                 outcome.status = if nearest.1 <= self.thresholds.joint_for(sample.kind) {
                     Status::Recovered
                 } else {

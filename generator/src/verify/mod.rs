@@ -176,9 +176,13 @@ fn summarise(
         })
         .collect();
     let mut histogram = BTreeMap::new();
+    let mut distinct = BTreeMap::new();
     for k in &kinds {
         for (n, c) in &k.solutions_per_pose {
             *histogram.entry(*n).or_insert(0) += c;
+        }
+        for (n, c) in &k.distinct_per_pose {
+            *distinct.entry(*n).or_insert(0) += c;
         }
     }
     let failing: Vec<&Outcome> = outcomes.iter().filter(|o| o.fails(t)).collect();
@@ -196,6 +200,7 @@ fn summarise(
         thresholds: *t,
         kinds,
         solutions_per_pose: histogram,
+        distinct_per_pose: distinct,
         failed: failing.len() as u64,
         failures,
         passed: failing.is_empty(),

@@ -3,7 +3,7 @@
 //! just inside a maximum or minimum (a reach boundary is such a tangency).
 
 /// Points of the first scan over the joint's range.
-const GRID: usize = 256;
+const GRID: usize = 96;
 /// Iterations of bisection and golden-section search (far more than `f64` needs; both stop
 /// early once the interval stops shrinking).
 const ITERATIONS: usize = 200;

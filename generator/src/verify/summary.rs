@@ -50,6 +50,8 @@ pub struct KindSummary {
     pub joint_threshold: f64,
     /// Number of poses by number of solutions.
     pub solutions_per_pose: BTreeMap<usize, u64>,
+    /// Number of poses by number of solutions distinct modulo whole turns.
+    pub distinct_per_pose: BTreeMap<usize, u64>,
 }
 
 /// A failing sample, named.
@@ -87,6 +89,8 @@ pub struct Summary {
     pub kinds: Vec<KindSummary>,
     /// Number of poses by number of solutions, over every sample.
     pub solutions_per_pose: BTreeMap<usize, u64>,
+    /// Number of poses by number of solutions distinct modulo whole turns, over every sample.
+    pub distinct_per_pose: BTreeMap<usize, u64>,
     /// Samples that fail, in all.
     pub failed: u64,
     /// The first failing samples by index.
@@ -124,8 +128,10 @@ pub fn kind_summary(
     let mut positions: Vec<f64> = outcomes.iter().map(|o| o.position_error).collect();
     let mut rotations: Vec<f64> = outcomes.iter().map(|o| o.rotation_error).collect();
     let mut histogram = BTreeMap::new();
+    let mut distinct = BTreeMap::new();
     for o in outcomes {
         *histogram.entry(o.solutions).or_insert(0) += 1;
+        *distinct.entry(o.distinct).or_insert(0) += 1;
     }
     let count = |f: &dyn Fn(&Outcome) -> bool| outcomes.iter().filter(|o| f(o)).count() as u64;
     KindSummary {
@@ -145,6 +151,7 @@ pub fn kind_summary(
         pose_threshold: thresholds.pose_for(kind),
         joint_threshold: thresholds.joint_for(kind),
         solutions_per_pose: histogram,
+        distinct_per_pose: distinct,
     }
 }
 
@@ -283,17 +290,22 @@ impl Summary {
         out.push_str(&table(&rows));
         let _ = writeln!(
             out,
-            "\nsolutions per pose: {}",
-            histogram_text(&self.solutions_per_pose)
+            "\nsolutions per pose, distinct modulo whole turns (solutions: poses): {}",
+            histogram_text(&self.distinct_per_pose)
         );
         for k in self.kinds.iter().filter(|k| k.tried > 0) {
             let _ = writeln!(
                 out,
                 "  {}: {}",
                 k.name,
-                histogram_text(&k.solutions_per_pose)
+                histogram_text(&k.distinct_per_pose)
             );
         }
+        let _ = writeln!(
+            out,
+            "solutions per pose, every equivalent angle within the limits listed: {}",
+            histogram_text(&self.solutions_per_pose)
+        );
         if !self.failures.is_empty() {
             let _ = writeln!(
                 out,
@@ -346,8 +358,8 @@ impl Failure {
 fn none_reason(k: &KindSummary) -> &'static str {
     match k.kind {
         Kind::WristNearAligned => "joint 5's limits keep the wrist from aligning",
-        Kind::NearAxis1 => "the wrist center cannot reach axis 1",
-        Kind::ReachBoundary => "no reach boundary where solutions merge (slide limits bound it)",
+        Kind::NearAxis1 => "the wrist center cannot reach axis 1 within the joint limits",
+        Kind::ReachBoundary => "no reach boundary where solutions merge within the joint limits",
         Kind::AtLimit => "no finite joint limits",
         Kind::WithinLimits => "no samples asked for",
     }
