@@ -324,6 +324,10 @@ fn a_pose_out_of_reach_or_malformed_is_reported() {
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("far.json: no solution for this pose"), "{err}");
+    assert!(
+        err.contains(" mm beyond the arm's reach"),
+        "in the file's unit: {err}"
+    );
     assert!(!dir.join("f.svg").exists());
 
     std::fs::write(

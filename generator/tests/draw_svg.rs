@@ -619,3 +619,65 @@ fn dump_drawings_when_asked() {
     let svg = Drawing::configuration(&gantry, vec![0.5, 0.15, 0.2, 0.5, 0.8, 0.0]).to_svg();
     std::fs::write(format!("{dir}/bench_gantry.svg"), svg).unwrap();
 }
+
+/// An invented standard-DH arm (mm, degrees): `[a, alpha, d, theta]` per joint.
+const DH_TABLE: [[f64; 4]; 6] = [
+    [50.0, 90.0, 400.0, 0.0],
+    [350.0, 0.0, 0.0, 90.0],
+    [40.0, 90.0, 0.0, 0.0],
+    [0.0, -90.0, 380.0, 0.0],
+    [0.0, 90.0, 0.0, 0.0],
+    [0.0, 0.0, 90.0, 0.0],
+];
+
+fn dh_file() -> String {
+    let mut text = String::from(
+        "name = \"dh-check\"\nlength_unit = \"mm\"\nangle_unit = \"deg\"\nconvention = \"dh\"\n",
+    );
+    for [a, alpha, d, theta] in DH_TABLE {
+        text.push_str(&format!(
+            "\n[[joint]]\ntype = \"revolute\"\nlimits = [-360, 360]\na = {a}\nalpha = {alpha}\nd = {d}\ntheta = {theta}\n"
+        ));
+    }
+    text
+}
+
+#[test]
+fn joint_centres_of_a_dh_arm_are_its_frame_origins() {
+    // In standard DH, frame i−1's origin is where the common normal from axis z_{i−2} meets
+    // axis z_{i−1}, the axis of joint i (Spong, Hutchinson & Vidyasagar, Robot Modeling and
+    // Control, 2006, §3.2, from memory) — the point the drawing calls joint i's centre. The
+    // frames are chained here with nalgebra from the table, A_i = Rz(θ)·Tz(d)·Tx(a)·Rx(α),
+    // independently of armforge's reader and model.
+    let model = armforge_generator::description::load_str(&dh_file(), "dh-check.toml")
+        .expect("the DH file loads");
+    let q_deg = [25.0, -35.0, 50.0, 40.0, -60.0, 120.0];
+    let svg = Drawing::configuration(&model, degrees(q_deg)).to_svg();
+    let doc = roxmltree::Document::parse(&svg).unwrap();
+    let mut origins = vec![[0.0; 3]];
+    let mut t = Isometry3::identity();
+    for ([a, alpha, d, theta], q) in DH_TABLE.iter().zip(q_deg) {
+        let z = Vector3::z_axis();
+        let x = Vector3::x_axis();
+        t =
+            t * Isometry3::from_parts(
+                Translation3::new(0.0, 0.0, d / 1000.0),
+                UnitQuaternion::from_axis_angle(&z, (theta + q).to_radians()),
+            ) * Isometry3::from_parts(
+                Translation3::new(a / 1000.0, 0.0, 0.0),
+                UnitQuaternion::from_axis_angle(&x, alpha.to_radians()),
+            );
+        origins.push([t.translation.x, t.translation.y, t.translation.z]);
+    }
+    let mut checked = 0;
+    for view_node in doc.descendants().filter(|n| has_class(n, "view")) {
+        let view = View::of(view_node);
+        for mark in view_node.descendants().filter(|n| has_class(n, "joint")) {
+            let i: usize = mark.attribute("data-joint").unwrap().parse().unwrap();
+            let what = format!("{} view, joint {i} at DH origin {}", view.kind, i - 1);
+            assert_near(joint_centre(mark), view.expected(origins[i - 1]), &what);
+            checked += 1;
+        }
+    }
+    assert_eq!(checked, 18);
+}

@@ -20,7 +20,7 @@ use armforge_generator::description;
 use armforge_generator::draw::{solution_panels, Drawing};
 use armforge_generator::model::Model;
 use armforge_generator::solver::Solver;
-use armforge_runtime::Pose;
+use armforge_runtime::{JointKind, Pose, Unreachable};
 use serde_json::Value;
 
 /// Arguments of `armforge draw`.
@@ -104,11 +104,44 @@ fn solutions_drawing<'a>(
         std::fs::read_to_string(pose_path).map_err(|e| format!("cannot read {shown}: {e}"))?;
     let pose = parse_pose(&text).map_err(|e| format!("{shown}: {e}"))?;
     let target = model.units.pose_to_si(&pose);
-    let solutions = Solver::new(model, geometry)
-        .solve(&target)
-        .map_err(|why| format!("{shown}: no solution for this pose: {why}"))?;
+    let solutions = Solver::new(model, geometry).solve(&target).map_err(|why| {
+        format!(
+            "{shown}: no solution for this pose: {}",
+            unreachable(model, &why)
+        )
+    })?;
     let panels = solution_panels(model, &solutions);
     Ok(Drawing::solutions(model, target, panels).with_wrist_center(Some(geometry.wrist_center)))
+}
+
+/// Why a pose has no solution, with distances and angles in the file's units.
+fn unreachable(model: &Model, why: &Unreachable) -> String {
+    let units = &model.units;
+    match *why {
+        Unreachable::BeyondReach { by } => format!(
+            "the wrist center lies {} beyond the arm's reach",
+            units.show_length(by)
+        ),
+        Unreachable::InsideHole { by } => format!(
+            "the wrist center lies {} inside the region the arm cannot reach near its shoulder",
+            units.show_length(by)
+        ),
+        Unreachable::WristOrientation { by } => format!(
+            "the wrist cannot turn the tool to this orientation: axis 6 misses the cone it can reach by {}",
+            units.show_angle(by)
+        ),
+        Unreachable::OutsideLimits { joint, by } => {
+            let shown = match model.joints.get(joint).map(|j| j.joint.kind) {
+                Some(JointKind::Prismatic) => units.show_length(by),
+                _ => units.show_angle(by),
+            };
+            format!(
+                "every solution has a joint outside its limits; the closest misses the limits of {} by {shown}",
+                model.joint_label(joint)
+            )
+        }
+        _ => why.to_string(),
+    }
 }
 
 /// A pose from JSON: `{"rotation": [[...], [...], [...]], "translation": [x, y, z]}`.
@@ -214,10 +247,10 @@ fn limit_warnings(model: &Model, values: &[f64]) -> Vec<String> {
         .collect()
 }
 
-fn unit_symbol(model: &Model, kind: armforge_runtime::JointKind) -> &'static str {
+fn unit_symbol(model: &Model, kind: JointKind) -> &'static str {
     match kind {
-        armforge_runtime::JointKind::Revolute => model.units.angle.symbol(),
-        armforge_runtime::JointKind::Prismatic => model.units.length.symbol(),
+        JointKind::Revolute => model.units.angle.symbol(),
+        JointKind::Prismatic => model.units.length.symbol(),
     }
 }
 

@@ -94,6 +94,99 @@ fn caption(k: usize, count: usize, solution: &Solution) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::diagnostics::Location;
+    use crate::model::ModelJoint;
+    use armforge_runtime::{Branch, Elbow, Joint, Pose, Shoulder, Wrist};
+
+    fn six_revolute() -> Model {
+        let joint = Joint {
+            kind: JointKind::Revolute,
+            axis: [0.0, 0.0, 1.0],
+            point: [0.0; 3],
+            direction: 1.0,
+            offset: 0.0,
+            limits: [-2.0 * TAU, 2.0 * TAU],
+        };
+        Model {
+            name: "six".to_string(),
+            description: None,
+            units: Default::default(),
+            joints: (0..6)
+                .map(|i| ModelJoint {
+                    joint,
+                    name: format!("joint {}", i + 1),
+                    location: Location::default(),
+                })
+                .collect(),
+            tool: Pose::IDENTITY,
+            base: Pose::IDENTITY,
+            source_path: "six.toml".to_string(),
+        }
+    }
+
+    fn solution(joints: [f64; 6], wrist: Wrist) -> Solution {
+        Solution {
+            joints,
+            branch: Branch {
+                shoulder: Shoulder::Front,
+                elbow: Elbow::Up,
+                wrist,
+            },
+            flags: Flags::NONE,
+        }
+    }
+
+    #[test]
+    fn whole_turn_equivalents_share_a_panel_showing_the_smallest_values() {
+        let q = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6];
+        let mut turned = q;
+        turned[5] -= TAU;
+        let mut other = q;
+        other[4] = -0.5;
+        let panels = solution_panels(
+            &six_revolute(),
+            &[
+                solution(turned, Wrist::Plus),
+                solution(other, Wrist::Minus),
+                solution(q, Wrist::Plus),
+            ],
+        );
+        assert_eq!(panels.len(), 2);
+        assert_eq!(panels[0].joint_values, q.to_vec());
+        assert_eq!(panels[0].alternatives, vec![turned.to_vec()]);
+        assert_eq!(
+            panels[0].caption,
+            "1 of 2: shoulder front, elbow up, wrist plus"
+        );
+        assert_eq!(
+            panels[1].caption,
+            "2 of 2: shoulder front, elbow up, wrist minus"
+        );
+        assert!(panels[1].alternatives.is_empty());
+    }
+
+    #[test]
+    fn singular_conditions_are_named_in_the_caption() {
+        let mut s = solution([0.0; 6], Wrist::Plus);
+        s.flags = Flags::WRIST_ALIGNED.union(Flags::AT_REACH_LIMIT);
+        let panels = solution_panels(&six_revolute(), &[s]);
+        assert_eq!(
+            panels[0].caption,
+            "1 of 1: shoulder front, elbow up, wrist plus (wrist aligned) (at the reach limit)"
+        );
+    }
+
+    #[test]
+    fn a_half_turn_is_a_different_configuration() {
+        let q = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6];
+        let mut half = q;
+        half[3] += PI;
+        let panels = solution_panels(
+            &six_revolute(),
+            &[solution(q, Wrist::Plus), solution(half, Wrist::Plus)],
+        );
+        assert_eq!(panels.len(), 2);
+    }
 
     #[test]
     fn wrapping_keeps_half_turns_apart_and_merges_whole_turns() {

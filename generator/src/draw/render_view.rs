@@ -261,12 +261,10 @@ fn joints(
     taken: &mut Occupancy,
 ) -> (Group, Vec<svg::node::element::Text>) {
     let mut order: Vec<&JointMark> = scene.joints.iter().collect();
-    order.sort_by(|a, b| {
-        f.kind
-            .depth(&a.centre)
-            .total_cmp(&f.kind.depth(&b.centre))
-            .then(a.index.cmp(&b.index))
-    });
+    // Depths in whole hundredths of a pixel, so that rounding noise in the joint values
+    // cannot reorder joints that sit at the same place.
+    let depth = |j: &JointMark| (f.kind.depth(&j.centre) * f.scale * 100.0).round();
+    order.sort_by(|a, b| depth(a).total_cmp(&depth(b)).then(a.index.cmp(&b.index)));
     let mut group = Group::new().set("class", "joints");
     for joint in &order {
         group = group.add(joint_mark(f, joint));
