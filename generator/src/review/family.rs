@@ -3,7 +3,7 @@
 
 use std::fmt::Write as _;
 
-use super::show::Show;
+use super::show::{self, Show};
 use super::Facts;
 use crate::classify::report::{Item, Outcome, Report};
 use crate::classify::{Family, Geometry};
@@ -48,7 +48,7 @@ fn items(out: &mut String, items: &[Item]) {
             out,
             "| {} | {} |",
             item.label.replace('|', "\\|"),
-            item.shown.replace('-', "−")
+            show::minus(&item.shown)
         );
     }
 }

@@ -4,7 +4,7 @@
 use std::fmt::Write as _;
 
 use super::facts::Facts;
-use super::show::Show;
+use super::show::{self, Show};
 use crate::classify::report::{Item, Outcome, Report};
 use crate::classify::{ArmEvidence, Geometry};
 use crate::plan::vec3::num;
@@ -18,7 +18,7 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
     if let Outcome::Solvable(solvable) = &report.outcome {
         match &solvable.reach {
             Some(item) => {
-                let _ = writeln!(out, "- {}: {}", item.label, item.shown.replace('-', "−"));
+                let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
             }
             None => {
                 let _ = writeln!(
@@ -146,7 +146,7 @@ fn items(out: &mut String, items: &[Item]) {
             out,
             "| {} | {} |",
             item.label.replace('|', "\\|"),
-            item.shown.replace('-', "−")
+            show::minus(&item.shown)
         );
     }
 }

@@ -4,6 +4,22 @@ use armforge_runtime::{Joint, JointKind};
 
 use crate::units::{tidy, Units};
 
+/// `text` with the minus signs of numbers typeset as `−` (a hyphen before a digit that does
+/// not follow a letter or digit); hyphens in words (`joint-1`) and exponents stay.
+pub fn minus(text: &str) -> String {
+    let chars: Vec<char> = text.chars().collect();
+    let mut out = String::with_capacity(text.len());
+    for (i, &c) in chars.iter().enumerate() {
+        let before = i.checked_sub(1).and_then(|j| chars.get(j)).copied();
+        let after = chars.get(i + 1).copied();
+        let sign = c == '-'
+            && after.is_some_and(|a| a.is_ascii_digit())
+            && !before.is_some_and(|b| b.is_alphanumeric() || b == '.');
+        out.push(if sign { '−' } else { c });
+    }
+    out
+}
+
 /// Writes numbers of one arm in its file's units.
 #[derive(Clone, Copy, Debug)]
 pub struct Show {
@@ -14,7 +30,7 @@ pub struct Show {
 impl Show {
     /// A plain number.
     pub fn num(&self, x: f64) -> String {
-        tidy(x).replace('-', "−")
+        minus(&tidy(x))
     }
 
     /// A length (metres in) with its unit.

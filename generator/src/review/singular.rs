@@ -4,7 +4,7 @@
 use std::fmt::Write as _;
 
 use super::facts::Facts;
-use super::show::Show;
+use super::show::{self, Show};
 use crate::classify::{Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::vec3::num;
@@ -28,7 +28,7 @@ pub fn write(
          solution found there (`WRIST_ALIGNED`, `ON_AXIS_1`, `AT_REACH_LIMIT`).\n"
     );
     for (sing, text) in geometry.singularities.iter().zip(texts) {
-        let _ = writeln!(out, "- **{}**", text.replace('-', "−"));
+        let _ = writeln!(out, "- **{}**", show::minus(text));
         let _ = writeln!(out, "  - {}", equation(model, sing, plan, facts, s));
     }
     let _ = writeln!(out);
