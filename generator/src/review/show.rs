@@ -128,3 +128,15 @@ impl Show {
         format!("{} {} {}", self.num(v[0]), self.num(v[1]), self.num(v[2]))
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn minus_signs_of_numbers_only() {
+        assert_eq!(minus("-0.5 and (−1, -2)"), "−0.5 and (−1, −2)");
+        assert_eq!(minus("joint-1 at 8.54e-4 mm"), "joint-1 at 8.54e-4 mm");
+        assert_eq!(minus("a - b"), "a - b");
+    }
+}
