@@ -12,6 +12,7 @@ use armforge_generator::plan::build_plan;
 use armforge_generator::plan::vec3::num;
 use armforge_generator::review::{review_sheet, Facts};
 use armforge_generator::solver::Solver;
+use armforge_runtime::{joint_motion, Pose};
 
 fn workspace() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR"))
@@ -207,6 +208,51 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
     out
 }
 
+/// Joints 4–6 (model values) from the sheet's wrist equations, both signs, for the rotation
+/// left to the wrist `r456 = (R1 R2 R3)ᵀ rot(G)`.
+fn sheet_wrist_solutions(f: &Facts, r456: &[[f64; 3]; 3]) -> Vec<[f64; 3]> {
+    let (h4, h5, h6) = (f.h(4), f.h(5), f.h(6));
+    let x6 = num::any_perpendicular(&h6);
+    let v = num::mat_mul(r456, &h6);
+    let xv = num::mat_mul(r456, &x6);
+    let c45 = num::dot(&h4, &h5);
+    let b = num::dot(&h5, &h6);
+    let den = 1.0 - c45 * c45;
+    let a = num::dot(&h4, &v);
+    let alpha = (a - c45 * b) / den;
+    let beta = (b - c45 * a) / den;
+    let hv = num::cross(&h4, &v);
+    let gamma2 = (num::dot(&hv, &hv) - (b - c45 * a).powi(2) / den) / den;
+    let gamma = gamma2.max(0.0).sqrt();
+    let n = num::cross(&h4, &h5);
+    let h6p = num::sub(&h6, &num::scale(&h5, b));
+    let mut out = Vec::new();
+    for sign in [1.0, -1.0] {
+        let z = num::add(
+            &num::add(&num::scale(&h4, alpha), &num::scale(&h5, beta)),
+            &num::scale(&n, sign * gamma),
+        );
+        let t5 = num::dot(&h5, &num::cross(&h6, &z)).atan2(num::dot(&h6p, &z));
+        let t4 = num::dot(&h4, &num::cross(&z, &v)).atan2(num::dot(&z, &v) - a * a);
+        let y = num::rotate(&h5, -t5, &num::rotate(&h4, -t4, &xv));
+        let t6 = num::dot(&h6, &num::cross(&x6, &y)).atan2(num::dot(&x6, &y));
+        out.push([t4, t5, t6]);
+    }
+    out
+}
+
+fn transpose_mul(a: &[[f64; 3]; 3], b: &[[f64; 3]; 3]) -> [[f64; 3]; 3] {
+    std::array::from_fn(|i| std::array::from_fn(|j| (0..3).map(|k| a[k][i] * b[k][j]).sum()))
+}
+
+fn mul(a: &[[f64; 3]; 3], b: &[[f64; 3]; 3]) -> [[f64; 3]; 3] {
+    std::array::from_fn(|i| std::array::from_fn(|j| (0..3).map(|k| a[i][k] * b[k][j]).sum()))
+}
+
+fn wrapped(d: f64) -> f64 {
+    d - std::f64::consts::TAU * (d / std::f64::consts::TAU).round()
+}
+
 #[test]
 fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
     // The sheet documents the plan builders' method; evaluating its equations with its
@@ -257,6 +303,26 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
                     "{path}: solution {:?} (model values {theta:?}) not given by the sheet's \
                      equations {from_sheet:?}",
                     s.joints
+                );
+                if !s.flags.is_empty() {
+                    continue;
+                }
+                // The wrist: r456 = (R1 R2 R3)ᵀ rot(G), rot(G) = B_Rᵀ R_T M_Rᵀ.
+                let mut r123 = Pose::IDENTITY.rotation;
+                for (joint, q) in joints.iter().zip(&s.joints).take(3) {
+                    r123 = mul(&r123, &joint_motion(joint, *q).rotation);
+                }
+                let m_t: [[f64; 3]; 3] =
+                    std::array::from_fn(|i| std::array::from_fn(|j| m.rotation[j][i]));
+                let rot_g = mul(&transpose_mul(&b.rotation, &pose.rotation), &m_t);
+                let r456 = transpose_mul(&r123, &rot_g);
+                let wrist: Vec<f64> = (3..6).map(|i| joints[i].model_value(s.joints[i])).collect();
+                let from_sheet = sheet_wrist_solutions(&facts, &r456);
+                assert!(
+                    from_sheet
+                        .iter()
+                        .any(|t| (0..3).all(|i| wrapped(t[i] - wrist[i]).abs() < 1e-8)),
+                    "{path}: wrist {wrist:?} not given by the sheet's equations {from_sheet:?}"
                 );
             }
         }

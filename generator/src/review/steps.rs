@@ -373,7 +373,8 @@ fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
             "v  = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6,   a = h4 · v".into(),
             "α  = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²)".into(),
             "β  = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)".into(),
-            "γ² (1 − (h4·h5)²) = 1 − α² − β² − 2 α β (h4·h5)".into(),
+            "γ² (1 − (h4·h5)²) = 1 − α² − β² − 2 α β (h4·h5)                  (|z| = 1)".into(),
+            "                  = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)".into(),
             "z  = α h4 + β h5 ± γ (h4 × h5)          (+ wrist plus, − wrist minus)".into(),
             "θ5 = atan2(h5 · (h6 × z), h6⊥h5 · z)     (Paden–Kahan 1: h6 onto z about h5)".into(),
             "θ4 = atan2(h4 · (z × v), z · v − a²)     (Paden–Kahan 1: z onto v about h4)".into(),
@@ -382,9 +383,9 @@ fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
     );
     let _ = writeln!(
         out,
-        "Real when `γ² ≥ 0` (else the wrist cannot point axis 6 that way). The plan \
-         evaluates `γ²` in whichever algebraically equal form loses the fewest digits near the \
-         aligned wrist; §9 lists the form in use. This arm:\n"
+        "Real when `γ² ≥ 0` (else the wrist cannot point axis 6 that way). The two forms of \
+         `γ²` are equal; the second keeps its digits near the aligned wrist (`v` nearly along \
+         `h4`), and §9 names the form the plan evaluates. This arm:\n"
     );
     let mut lines = vec![
         format!(
