@@ -18,6 +18,8 @@ pub mod expand;
 pub mod model;
 pub mod pipeline;
 pub mod plan;
+pub mod review;
 pub mod scaffold;
 pub mod solver;
 pub mod units;
+pub mod verify;

@@ -11,6 +11,15 @@ use crate::classify::{classify, Geometry, Rejection, Tolerances};
 use crate::model::Model;
 use crate::plan::{build_plan, Plan};
 
+/// A joint of a solution outside its limits, and by how much (radians or metres).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct LimitViolation {
+    /// 0-based joint index.
+    pub joint: usize,
+    /// How far beyond the nearest limit.
+    pub by: f64,
+}
+
 /// An arm's solver, evaluating its plan with the runtime interpreter.
 #[derive(Clone, Debug)]
 pub struct Solver {
@@ -96,6 +105,56 @@ impl Solver {
     /// are kept at zero joint value.
     pub fn solve(&self, target: &Pose) -> Result<Vec<Solution>, Unreachable> {
         self.finish(target, &self.plan.zero_reference, None)
+    }
+
+    /// Every solution whether or not it is within the joint limits, each with the joints it
+    /// violates (empty for solutions that `solve` returns). Revolute joints are wrapped into
+    /// the turn centred on their range; equivalent angles are listed as in `solve`.
+    pub fn solve_ignoring_limits(
+        &self,
+        target: &Pose,
+    ) -> Result<Vec<(Solution, Vec<LimitViolation>)>, Unreachable> {
+        internal::check_pose(target)?;
+        let mut open = self.plan.arm.joints;
+        for j in open.iter_mut() {
+            let [lo, hi] = j.limits;
+            let one_turn = !(lo.is_finite() && hi.is_finite()) || hi - lo <= std::f64::consts::TAU;
+            if one_turn {
+                let center = if lo.is_finite() && hi.is_finite() {
+                    0.5 * (lo + hi)
+                } else {
+                    0.0
+                };
+                let half = match j.kind {
+                    armforge_runtime::JointKind::Revolute => std::f64::consts::PI,
+                    armforge_runtime::JointKind::Prismatic => f64::INFINITY,
+                };
+                j.limits = [center - half, center + half];
+            }
+        }
+        let candidates = self.candidates(target, &self.plan.zero_reference);
+        let mut out = vec![Solution::EMPTY; self.plan.capacity.max(1) * 2];
+        let len = internal::finish(&open, &self.plan.settings, &candidates, None, &mut out)?;
+        out.truncate(len);
+        Ok(out
+            .into_iter()
+            .map(|s| {
+                let violations = self
+                    .plan
+                    .arm
+                    .joints
+                    .iter()
+                    .zip(s.joints.iter())
+                    .enumerate()
+                    .filter_map(|(joint, (j, v))| {
+                        let by = (j.limits[0] - v).max(v - j.limits[1]);
+                        (by > self.plan.settings.limit_tolerance)
+                            .then_some(LimitViolation { joint, by })
+                    })
+                    .collect();
+                (s, violations)
+            })
+            .collect())
     }
 
     /// The solution nearest to `current` (wrap-aware); at the wrist singularity joint 4 stays

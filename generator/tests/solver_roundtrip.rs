@@ -18,12 +18,15 @@ fn heavy() -> bool {
     std::env::var_os("ARMFORGE_HEAVY").is_some()
 }
 
-/// (arms, configurations per arm).
+/// (arms, configurations per arm): small in debug builds, more in release builds (CI), many
+/// more with `ARMFORGE_HEAVY`.
 fn counts() -> (u64, usize) {
     if heavy() {
-        (200, 200)
-    } else {
+        (500, 400)
+    } else if cfg!(debug_assertions) {
         (25, 25)
+    } else {
+        (100, 100)
     }
 }
 
@@ -133,6 +136,10 @@ fn round_trip(family: Family, options: &SampleOptions, expect_count: Option<usiz
             }
         }
     }
+    eprintln!(
+        "{family:?} ({options:?}): {} arms, {} poses, {} solutions, {} with the expected count",
+        arms, tally.poses, tally.solutions, tally.eight
+    );
     tally
 }
 

@@ -374,6 +374,16 @@ fn limits_drop_solutions_and_name_the_joint() {
     assert!(s.iter().all(|x| x.joints[0] >= 0.1 && x.joints[0] <= 0.2));
     let (unlimited, _) = upright_elbow_arm(0.12, 0.0);
     let away = unlimited.forward(&[1.2, 0.2, -0.3, 0.1, 0.5, 0.2]);
+    // Ignoring the limits, the configurations are there, each with joint 1 in violation.
+    let all = solver.solve_ignoring_limits(&away).unwrap();
+    let free = Solver::new(&unlimited, &geometry).solve(&away).unwrap();
+    assert_eq!(all.len(), free.len());
+    assert!(all
+        .iter()
+        .all(|(_, v)| v.iter().any(|x| x.joint == 0 && x.by > 0.0)));
+    assert!(all
+        .iter()
+        .any(|(s, v)| (s.joints[0] - 1.2).abs() < 1e-9 && (v[0].by - 1.0).abs() < 1e-9));
     match solver.solve(&away) {
         Err(Unreachable::OutsideLimits { joint, by }) => {
             assert_eq!(joint, 0);

@@ -138,7 +138,7 @@ pub fn solve(
     let gap = g.name(
         gap,
         &format!("j5_gap_{tag}"),
-        "γ² |h4 × v|²-form: |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)",
+        "γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)",
     );
     let gamma = {
         let k = g.constant(1.0 / den);
