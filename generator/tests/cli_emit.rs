@@ -208,3 +208,34 @@ fn the_macro_reports_problems_at_the_path_with_the_cli_message() {
     let unset = solver_macro(quote!(mod m = "../arms/bench-elbow-dh.toml";), None);
     assert!(unset.to_string().contains("CARGO_MANIFEST_DIR"));
 }
+
+/// `--sheet` writes the same review sheet as `armforge explain`, and `--check` checks it too.
+#[test]
+fn sheet_beside_the_module_is_the_explain_sheet() {
+    let dir = std::env::temp_dir().join(format!("armforge-sheet-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).expect("temp dir");
+    let module = dir.join("bench_elbow.rs");
+    let sheet = dir.join("bench_elbow.md");
+    let arm = "../arms/bench-elbow-dh.toml";
+    let emit = |check: bool| {
+        let mut cmd = armforge();
+        cmd.args(["emit", arm, "-o"])
+            .arg(&module)
+            .arg("--sheet")
+            .arg(&sheet);
+        if check {
+            cmd.arg("--check");
+        }
+        cmd.status().expect("runs").success()
+    };
+    assert!(emit(false));
+    let explained = armforge().args(["explain", arm]).output().expect("runs");
+    assert_eq!(
+        std::fs::read(&sheet).expect("sheet written"),
+        explained.stdout
+    );
+    assert!(emit(true), "a fresh sheet passes --check");
+    std::fs::write(&sheet, "edited by hand\n").expect("write");
+    assert!(!emit(true), "an edited sheet fails --check");
+    std::fs::remove_dir_all(&dir).ok();
+}

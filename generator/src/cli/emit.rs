@@ -3,6 +3,7 @@
 //! Without `-o` the module goes to stdout. With `-o FILE` it is written only when its content
 //! changed (so build tools see no new timestamp); with `--check` nothing is written and the
 //! exit status says whether FILE is up to date (for CI in a user's repository).
+//! `--sheet FILE.md` also writes (or, with `--check`, checks) the review sheet beside it.
 //! Exit status: 0; 1 when `--check` finds FILE stale or missing, or FILE cannot be written;
 //! 2 for a file that is not a valid description; 3 for a geometry with no decoupled closed
 //! form (the codes of `armforge inspect`).
@@ -13,6 +14,7 @@ use std::process::ExitCode;
 
 use armforge_generator::classify::Tolerances;
 use armforge_generator::pipeline::{display_path, generate_module};
+use armforge_generator::review::review_sheet;
 
 /// Arguments of `armforge emit`.
 #[derive(clap::Args, Debug)]
@@ -25,6 +27,9 @@ pub struct Args {
     /// Write nothing; exit 1 when FILE differs from what would be written (needs -o).
     #[arg(long, requires = "output")]
     pub check: bool,
+    /// Also write the Markdown review sheet (as `armforge explain` does) to FILE.md.
+    #[arg(long, value_name = "FILE.md")]
+    pub sheet: Option<PathBuf>,
 }
 
 /// Exit code when `--check` finds the file stale, or the output cannot be written.
@@ -40,11 +45,24 @@ pub fn run(args: Args) -> ExitCode {
             return ExitCode::from(e.exit_code());
         }
     };
-    let text = generated.source;
-    match (&args.output, args.check) {
-        (None, _) => to_stdout(&text),
-        (Some(file), true) => check(file, &text),
-        (Some(file), false) => write_if_changed(file, &text),
+    let sheet = args.sheet.as_ref().map(|path| {
+        let text = review_sheet(&generated.model, &generated.geometry, &generated.plan);
+        (path, text)
+    });
+    let module = match (&args.output, args.check) {
+        (None, _) => to_stdout(&generated.source),
+        (Some(file), true) => check(file, &generated.source),
+        (Some(file), false) => write_if_changed(file, &generated.source),
+    };
+    let sheet = match &sheet {
+        None => ExitCode::SUCCESS,
+        Some((file, text)) if args.check => check(file, text),
+        Some((file, text)) => write_if_changed(file, text),
+    };
+    if module == ExitCode::SUCCESS {
+        sheet
+    } else {
+        module
     }
 }
 
