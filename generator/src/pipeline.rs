@@ -98,9 +98,7 @@ pub fn generate_from_str(
     shown_path: &str,
     tolerances: &Tolerances,
 ) -> Result<Generated, PipelineError> {
-    let model = description::load_str(text, shown_path).map_err(PipelineError::Description)?;
-    let geometry =
-        classify::classify(&model, tolerances).map_err(|r| PipelineError::Rejected(Box::new(r)))?;
+    let (model, geometry) = classify_text(text, shown_path, tolerances)?;
     let plan = build_plan(&model, &geometry);
     let options = EmitOptions {
         source_path: shown_path.to_string(),
@@ -115,14 +113,22 @@ pub fn generate_from_str(
     })
 }
 
-/// Loads and classifies without planning or emitting (for `armforge solve`).
+/// Loads and classifies without planning or emitting (for `solve`, `explain`, `verify`).
 pub fn load_and_classify(
     path: &Path,
     shown_path: &str,
     tolerances: &Tolerances,
 ) -> Result<(Model, Geometry), PipelineError> {
-    let text = read(path, shown_path)?;
-    let model = description::load_str(&text, shown_path).map_err(PipelineError::Description)?;
+    classify_text(&read(path, shown_path)?, shown_path, tolerances)
+}
+
+/// Reads description text and classifies the arm.
+fn classify_text(
+    text: &str,
+    shown_path: &str,
+    tolerances: &Tolerances,
+) -> Result<(Model, Geometry), PipelineError> {
+    let model = description::load_str(text, shown_path).map_err(PipelineError::Description)?;
     let geometry =
         classify::classify(&model, tolerances).map_err(|r| PipelineError::Rejected(Box::new(r)))?;
     Ok((model, geometry))

@@ -4,8 +4,8 @@
 
 use std::process::ExitCode;
 
-use armforge_generator::classify::{self, Tolerances};
-use armforge_generator::description;
+use armforge_generator::classify::Tolerances;
+use armforge_generator::pipeline::{display_path, load_and_classify};
 use armforge_generator::plan::build_plan;
 use armforge_generator::review::review_sheet;
 
@@ -27,27 +27,15 @@ pub struct Args {
 pub const WRITTEN: u8 = 0;
 /// Exit code of a file that cannot be read or written.
 pub const BAD_FILE: u8 = 2;
-/// Exit code of a geometry with no decoupled closed form.
-pub const NO_CLOSED_FORM: u8 = 3;
 
 /// Runs `armforge explain`.
 pub fn run(args: Args) -> ExitCode {
-    let model = match description::load_file(&args.arm) {
-        Ok(model) => model,
-        Err(diagnostics) => {
-            eprint!("{diagnostics}");
-            return ExitCode::from(BAD_FILE);
-        }
-    };
-    let geometry = match classify::classify(&model, &Tolerances::default()) {
-        Ok(g) => g,
-        Err(rejection) => {
-            eprintln!("{rejection}");
-            return ExitCode::from(if rejection.is_bad_input() {
-                BAD_FILE
-            } else {
-                NO_CLOSED_FORM
-            });
+    let shown = display_path(&args.arm.to_string_lossy());
+    let (model, geometry) = match load_and_classify(&args.arm, &shown, &Tolerances::default()) {
+        Ok(loaded) => loaded,
+        Err(e) => {
+            eprint!("{e}");
+            return ExitCode::from(e.exit_code());
         }
     };
     let plan = build_plan(&model, &geometry);

@@ -6,8 +6,8 @@
 use std::io::IsTerminal;
 use std::process::ExitCode;
 
-use armforge_generator::classify::{self, Tolerances};
-use armforge_generator::description;
+use armforge_generator::classify::Tolerances;
+use armforge_generator::pipeline::{display_path, load_and_classify};
 use armforge_generator::solver::Solver;
 use armforge_generator::verify::{self, Options};
 use indicatif::{ProgressBar, ProgressStyle};
@@ -40,27 +40,15 @@ pub const PASSED: u8 = 0;
 pub const FAILED: u8 = 1;
 /// Exit code of a file that cannot be read.
 pub const BAD_FILE: u8 = 2;
-/// Exit code of a geometry with no decoupled closed form.
-pub const NO_CLOSED_FORM: u8 = 3;
 
 /// Runs `armforge verify`.
 pub fn run(args: Args) -> ExitCode {
-    let model = match description::load_file(&args.arm) {
-        Ok(model) => model,
-        Err(diagnostics) => {
-            eprint!("{diagnostics}");
-            return ExitCode::from(BAD_FILE);
-        }
-    };
-    let geometry = match classify::classify(&model, &Tolerances::default()) {
-        Ok(g) => g,
-        Err(rejection) => {
-            eprintln!("{rejection}");
-            return ExitCode::from(if rejection.is_bad_input() {
-                BAD_FILE
-            } else {
-                NO_CLOSED_FORM
-            });
+    let shown = display_path(&args.arm.to_string_lossy());
+    let (model, geometry) = match load_and_classify(&args.arm, &shown, &Tolerances::default()) {
+        Ok(loaded) => loaded,
+        Err(e) => {
+            eprint!("{e}");
+            return ExitCode::from(e.exit_code());
         }
     };
     let solver = Solver::new(&model, &geometry);
