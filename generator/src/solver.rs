@@ -102,7 +102,8 @@ impl Solver {
     }
 
     /// Every solution within the limits, or why there is none. Free joints at singular poses
-    /// are kept at zero joint value.
+    /// are held at the plan's zero reference (joint 4 at zero; joint 1 nearest zero with both
+    /// shoulder solutions within its limits).
     pub fn solve(&self, target: &Pose) -> Result<Vec<Solution>, Unreachable> {
         self.finish(target, &self.plan.zero_reference, None)
     }

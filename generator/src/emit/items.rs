@@ -309,7 +309,8 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const LABELS: ::armforge_runtime::internal::BranchRule = #labels;
 
-        /// Cosine and sine of the model values of joints 1 and 4 at zero joint value.
+        /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+        /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const ZERO_REFERENCE: [f64; 4] = [#(#zero),*];
 
@@ -320,7 +321,8 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
 
         /// Every solution within the joint limits (equivalent angles included), each with its
         /// branch label and flags; or none, with the reason. At a singular pose the free
-        /// joint (4, or 1 with the wrist center on axis 1) is kept at zero joint value.
+        /// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
+        /// value nearest zero that keeps both shoulder solutions within its limits.
         pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
             if let ::core::result::Result::Err(reason) =
                 ::armforge_runtime::internal::check_pose(target)

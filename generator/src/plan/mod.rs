@@ -77,7 +77,8 @@ pub struct Plan {
     pub settings: Settings,
     /// Capacity a solution set needs: branches × equivalent angles.
     pub capacity: usize,
-    /// The reference inputs for all-zero joint values (cos, sin of joints 1 and 4).
+    /// The reference inputs of `solve` (cos, sin of the model values of joints 1 and 4): joint 4
+    /// at zero, joint 1 at [`free_joint_1_value`].
     pub zero_reference: [f64; 4],
 }
 
@@ -221,7 +222,7 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
         .map(|j| equivalent_count(j, settings.limit_tolerance))
         .product();
     let zero_reference = {
-        let m1 = arm.joints[0].model_value(0.0);
+        let m1 = arm.joints[0].model_value(free_joint_1_value(&arm.joints[0]));
         let m4 = arm.joints[3].model_value(0.0);
         [m1.cos(), m1.sin(), m4.cos(), m4.sin()]
     };
@@ -238,6 +239,39 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
         settings,
         zero_reference,
     }
+}
+
+/// The joint value `solve` holds joint 1 at when it is free (the wrist center on axis 1).
+///
+/// The back shoulder solution is the front one turned by half a turn, so the value is the one
+/// nearest zero for which both lie within joint 1's limits: zero where the range allows it
+/// (one full turn, say), otherwise just inside a limit (e.g. −10° for limits of ±170°, with the
+/// back solution at 170°). A range narrower than half a turn keeps the value nearest zero.
+pub fn free_joint_1_value(joint: &armforge_runtime::Joint) -> f64 {
+    let [lo, hi] = joint.limits;
+    let half = core::f64::consts::PI;
+    // A little slack so that a value computed as `hi − π` still counts `+ π` as inside.
+    let slack = 1e-9;
+    let inside = |q: f64| q >= lo - slack && q <= hi + slack;
+    let both_inside = |q: f64| inside(q) && (inside(q + half) || inside(q - half));
+    if joint.kind == armforge_runtime::JointKind::Prismatic || !lo.is_finite() || !hi.is_finite() {
+        return 0.0;
+    }
+    if both_inside(0.0) {
+        return 0.0;
+    }
+    if hi - lo < half {
+        return 0.0_f64.clamp(lo, hi);
+    }
+    // Both solutions fit for q in [lo, hi − π] ∪ [lo + π, hi]: take the point nearest zero.
+    [lo, hi - half, lo + half, hi]
+        .into_iter()
+        .filter(|&q| both_inside(q))
+        .fold(None, |best: Option<f64>, q| match best {
+            Some(b) if b.abs() <= q.abs() => Some(b),
+            _ => Some(q),
+        })
+        .unwrap_or(0.0)
 }
 
 fn compact(g: &Graph, candidates: &[CandidateLayout]) -> (Graph, Vec<CandidateLayout>) {

@@ -134,7 +134,8 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis6: [0.38734722705858016, 0.10799533335772074, -0.9155867701441429],
     },
 };
-/// Cosine and sine of the model values of joints 1 and 4 at zero joint value.
+/// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+/// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -152,7 +153,8 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
-/// joint (4, or 1 with the wrist center on axis 1) is kept at zero joint value.
+/// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
+/// value nearest zero that keeps both shoulder solutions within its limits.
 pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     if let ::core::result::Result::Err(reason) = ::armforge_runtime::internal::check_pose(
         target,
