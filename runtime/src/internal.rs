@@ -134,7 +134,7 @@ const INV_TAU: f64 = 1.0 / TAU;
 const ROUNDER: f64 = 6_755_399_441_055_744.0;
 
 /// `x` rounded to a whole number, branch-free (falls back to `round` beyond `2^51`).
-#[inline]
+#[inline(always)]
 fn round_fast(x: f64) -> f64 {
     if abs(x) < 2_251_799_813_685_248.0 {
         (x + ROUNDER) - ROUNDER
@@ -150,7 +150,7 @@ pub fn wrap(x: f64, center: f64) -> f64 {
 }
 
 /// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
-#[inline]
+#[inline(always)]
 pub fn lists_equivalents(joint: &Joint, tolerance: f64) -> bool {
     joint.kind == JointKind::Revolute
         && joint.limits[0].is_finite()
@@ -185,6 +185,15 @@ struct Finishing {
 }
 
 impl Finishing {
+    const NONE: Finishing = Finishing {
+        lists: false,
+        wraps: false,
+        center: 0.0,
+        lo: 0.0,
+        hi: 0.0,
+    };
+
+    #[inline(always)]
     fn of(joint: &Joint, tol: f64) -> Finishing {
         let [lo, hi] = joint.limits;
         let lists = lists_equivalents(joint, tol);
@@ -202,10 +211,9 @@ impl Finishing {
     }
 }
 
-/// The per-joint constants of the branch-free conversion, worked out once per solve.
+/// The per-joint constants of the conversion, worked out once per solve.
 struct Table {
-    /// No joint lists equivalent angles.
-    simple: bool,
+    finishing: [Finishing; JOINTS],
     offset: [f64; JOINTS],
     direction: [f64; JOINTS],
     center: [f64; JOINTS],
@@ -216,9 +224,14 @@ struct Table {
 }
 
 impl Table {
-    fn of(joints: &[Joint; JOINTS], finishing: &[Finishing; JOINTS], tol: f64) -> Table {
+    #[inline(always)]
+    fn of(joints: &[Joint; JOINTS], tol: f64) -> Table {
+        let mut finishing = [Finishing::NONE; JOINTS];
+        for (f, j) in finishing.iter_mut().zip(joints.iter()) {
+            *f = Finishing::of(j, tol);
+        }
         let mut t = Table {
-            simple: finishing.iter().all(|f| !f.lists),
+            finishing,
             offset: [0.0; JOINTS],
             direction: [0.0; JOINTS],
             center: [0.0; JOINTS],
@@ -237,27 +250,45 @@ impl Table {
         t
     }
 
-    /// Joint values of model values (wrapped where the joint wraps) and whether all are
-    /// within the limits. The same arithmetic as [`Joint::joint_value`] and [`wrap`].
-    #[inline]
-    fn convert(&self, model: &[f64; JOINTS]) -> ([f64; JOINTS], bool) {
+    /// Joint values of model values: the lowest equivalent within the limits for joints that
+    /// list equivalents (with how many there are), the wrapped value otherwise; and whether
+    /// every joint has a value within its limits. The same arithmetic as
+    /// [`Joint::joint_value`], [`wrap`] and [`equivalents`].
+    #[inline(always)]
+    fn convert(&self, model: &[f64; JOINTS], tol: f64) -> ([f64; JOINTS], [usize; JOINTS], bool) {
         let mut values = [0.0; JOINTS];
+        let mut counts = [1usize; JOINTS];
         let mut inside = true;
-        for i in 0..JOINTS {
+        // Written out per joint (constant indices) so that, inlined into an emitted solver,
+        // the table's constants fold into the code.
+        let mut joint = |i: usize| {
             let q = (model[i] - self.offset[i]) * self.direction[i];
-            let turns = round_fast((q - self.center[i]) * INV_TAU) * self.wraps[i];
-            let v = q - TAU * turns;
-            values[i] = v;
-            inside &= (v >= self.low[i]) & (v <= self.high[i]);
-        }
-        (values, inside)
+            if self.finishing[i].lists {
+                let (v, n, _) = equivalents(&self.finishing[i], q, tol);
+                values[i] = v;
+                counts[i] = n;
+                inside &= n > 0;
+            } else {
+                let turns = round_fast((q - self.center[i]) * INV_TAU) * self.wraps[i];
+                let v = q - TAU * turns;
+                values[i] = v;
+                inside &= (v >= self.low[i]) & (v <= self.high[i]);
+            }
+        };
+        joint(0);
+        joint(1);
+        joint(2);
+        joint(3);
+        joint(4);
+        joint(5);
+        (values, counts, inside)
     }
 }
 
 /// The joint values equivalent to `q` within the limits, as the lowest one and how many there
 /// are (`lowest + k·2π`, `k < count`), and by how much the nearest one misses the limits when
 /// there are none.
-#[inline]
+#[inline(always)]
 fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
     let (lo, hi) = (f.lo, f.hi);
     if f.lists {
@@ -283,7 +314,7 @@ fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
 }
 
 /// The largest whole number not above `x` (through rounding, so it works without `std`).
-#[inline]
+#[inline(always)]
 fn floor(x: f64) -> f64 {
     let r = round_fast(x);
     if r > x {
@@ -310,16 +341,9 @@ fn wrist_miss(cos_angle: f64, [c45, c56]: [f64; 2]) -> f64 {
     (lo - angle).max(angle - hi).max(0.0)
 }
 
-/// The outcome of a candidate's checks.
-enum Verdict {
-    Real { at_limit: bool },
-    Fails(Unreachable, f64),
-}
-
-#[inline]
-fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
+/// The first failing check of a candidate, with by how much it misses (`None` when all pass).
+fn verdict(checks: &[Check; 4], settings: &Settings) -> Option<(Unreachable, f64)> {
     let tol = settings.length_tolerance;
-    let mut at_limit = false;
     for c in checks {
         match c.kind {
             CheckKind::None => {}
@@ -327,31 +351,61 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Verdict {
                 let outer = c.limit + tol;
                 if c.have_squared > outer * outer {
                     let by = sqrt(c.have_squared) - c.limit;
-                    return Verdict::Fails(Unreachable::BeyondReach { by }, by);
+                    return Some((Unreachable::BeyondReach { by }, by));
                 }
-                let inner = (c.limit - tol).max(0.0);
-                at_limit |= c.have_squared >= inner * inner;
             }
             CheckKind::InsideHole => {
                 let inner = (c.limit - tol).max(0.0);
                 if c.have_squared < inner * inner {
                     let by = c.limit - sqrt(c.have_squared.max(0.0));
-                    return Verdict::Fails(Unreachable::InsideHole { by }, by);
+                    return Some((Unreachable::InsideHole { by }, by));
                 }
-                let outer = c.limit + tol;
-                at_limit |= c.limit > tol && c.have_squared <= outer * outer;
             }
             CheckKind::WristOrientation => {
                 if c.have_squared < -settings.angle_tolerance {
                     let by = wrist_miss(c.limit, settings.wrist_twist_cosines);
-                    return Verdict::Fails(Unreachable::WristOrientation { by }, by);
+                    return Some((Unreachable::WristOrientation { by }, by));
                 }
-                // On the edge of the wrist's cone its two solutions meet.
+            }
+        }
+    }
+    None
+}
+
+/// `Some(at_limit)` when every check passes (`at_limit`: the candidate is on a reach boundary),
+/// `None` otherwise: the same comparisons as [`verdict`], without working out by how much a
+/// failing check misses (that is done only when no candidate is left).
+#[inline(always)]
+fn passes(checks: &[Check; 4], settings: &Settings) -> Option<bool> {
+    let tol = settings.length_tolerance;
+    let mut at_limit = false;
+    let mut fails = false;
+    for c in checks {
+        match c.kind {
+            CheckKind::None => {}
+            CheckKind::BeyondReach => {
+                let outer = c.limit + tol;
+                let inner = (c.limit - tol).max(0.0);
+                fails |= c.have_squared > outer * outer;
+                at_limit |= c.have_squared >= inner * inner;
+            }
+            CheckKind::InsideHole => {
+                let inner = (c.limit - tol).max(0.0);
+                let outer = c.limit + tol;
+                fails |= c.have_squared < inner * inner;
+                at_limit |= (c.limit > tol) & (c.have_squared <= outer * outer);
+            }
+            CheckKind::WristOrientation => {
+                fails |= c.have_squared < -settings.angle_tolerance;
                 at_limit |= c.have_squared <= settings.angle_tolerance;
             }
         }
     }
-    Verdict::Real { at_limit }
+    if fails {
+        None
+    } else {
+        Some(at_limit)
+    }
 }
 
 /// Distance between two values of one joint: wrap-aware for revolute joints with at most one
@@ -418,7 +472,7 @@ fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amou
 /// Turns candidates into solutions: checks, joint values, wrapping and equivalent angles,
 /// limits, duplicates, flags. Writes into `out` and returns how many were written, or the
 /// reason when there are none. With `only`, candidates of other branches are skipped.
-#[inline]
+#[inline(always)]
 pub fn finish(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -427,24 +481,21 @@ pub fn finish(
     out: &mut [Solution],
 ) -> Result<usize, Unreachable> {
     let tol = settings.limit_tolerance;
-    let finishing = joints.map(|j| Finishing::of(&j, tol));
-    let table = Table::of(joints, &finishing, tol);
+    let table = Table::of(joints, tol);
     let mut len = 0;
-    let mut failure: Option<(Unreachable, f64)> = None;
-    let mut limit_failure: Option<(Unreachable, f64)> = None;
     let mut matched = false;
     for c in candidates {
         if only.is_some_and(|b| b != c.branch) {
             continue;
         }
         matched = true;
-        let at_limit = match verdict(&c.checks, settings) {
-            Verdict::Real { at_limit } => at_limit,
-            Verdict::Fails(reason, amount) => {
-                keep_smaller(&mut failure, reason, amount);
-                continue;
-            }
+        let Some(at_limit) = passes(&c.checks, settings) else {
+            continue;
         };
+        let (values, counts, inside) = table.convert(&c.model_values, tol);
+        if !inside {
+            continue;
+        }
         let mut flags = Flags::NONE;
         if c.wrist_aligned {
             flags = flags.union(Flags::WRIST_ALIGNED);
@@ -455,31 +506,44 @@ pub fn finish(
         if at_limit {
             flags = flags.union(Flags::AT_REACH_LIMIT);
         }
-        if table.simple {
-            // Every joint has one value: convert, wrap and check all six without branches.
-            let (values, inside) = table.convert(&c.model_values);
-            if inside {
-                len = push_combinations(
-                    joints,
-                    settings,
-                    &values,
-                    &[1; JOINTS],
-                    c.branch,
-                    flags,
-                    out,
-                    len,
-                );
-                continue;
-            }
+        len = push_combinations(
+            joints, settings, &values, &counts, c.branch, flags, out, len,
+        );
+    }
+    if len > 0 {
+        return Ok(len);
+    }
+    if !matched {
+        return Err(Unreachable::BranchUnavailable);
+    }
+    Err(failure(&table, settings, candidates, only))
+}
+
+/// Why no candidate became a solution (worked out only then): a joint limit before a failed
+/// check, the later stage, then the smaller miss.
+#[cold]
+#[inline(never)]
+fn failure(
+    table: &Table,
+    settings: &Settings,
+    candidates: &[Candidate],
+    only: Option<Branch>,
+) -> Unreachable {
+    let tol = settings.limit_tolerance;
+    let mut failure: Option<(Unreachable, f64)> = None;
+    let mut limit_failure: Option<(Unreachable, f64)> = None;
+    for c in candidates {
+        if only.is_some_and(|b| b != c.branch) {
+            continue;
         }
-        let mut lowest = [0.0; JOINTS];
-        let mut counts = [0usize; JOINTS];
+        if let Some((reason, amount)) = verdict(&c.checks, settings) {
+            keep_smaller(&mut failure, reason, amount);
+            continue;
+        }
         let mut worst: Option<(usize, f64)> = None;
         for i in 0..JOINTS {
-            let q = joints[i].joint_value(c.model_values[i]);
-            let (v, n, miss) = equivalents(&finishing[i], q, tol);
-            lowest[i] = v;
-            counts[i] = n;
+            let q = (c.model_values[i] - table.offset[i]) * table.direction[i];
+            let (_, n, miss) = equivalents(&table.finishing[i], q, tol);
             if n == 0 && worst.map_or(true, |(_, m)| miss > m) {
                 worst = Some((i, miss));
             }
@@ -490,28 +554,18 @@ pub fn finish(
                 Unreachable::OutsideLimits { joint, by },
                 by,
             );
-            continue;
         }
-        len = push_combinations(
-            joints, settings, &lowest, &counts, c.branch, flags, out, len,
-        );
-    }
-    if len > 0 {
-        return Ok(len);
-    }
-    if !matched {
-        return Err(Unreachable::BranchUnavailable);
     }
     match limit_failure.or(failure) {
-        Some((reason, _)) => Err(reason),
-        None => Err(Unreachable::BranchUnavailable),
+        Some((reason, _)) => reason,
+        None => Unreachable::BranchUnavailable,
     }
 }
 
 /// Writes every combination of equivalent values (an odometer over the joints: the first
 /// joint turns fastest).
 #[allow(clippy::too_many_arguments)]
-#[inline]
+#[inline(always)]
 fn push_combinations(
     joints: &[Joint; JOINTS],
     settings: &Settings,
@@ -575,11 +629,10 @@ pub fn collect<const CAP: usize>(
     settings: &Settings,
     candidates: &[Candidate],
 ) -> SolutionSet<CAP> {
-    let mut storage = [Solution::EMPTY; CAP];
-    match finish(joints, settings, candidates, None, &mut storage) {
-        Ok(len) => SolutionSet::from_parts(storage, len, None),
-        Err(reason) => SolutionSet::from_parts(storage, 0, Some(reason)),
-    }
+    let mut set = SolutionSet::empty();
+    let outcome = finish(joints, settings, candidates, None, set.storage_mut());
+    set.record(outcome);
+    set
 }
 
 /// The first solution of one branch (the one nearest the joints' range centers comes first

@@ -264,16 +264,29 @@ impl<const CAP: usize> SolutionSet<CAP> {
         }
     }
 
-    /// Builds a set from storage, the number of filled entries and the reason for none.
-    pub(crate) fn from_parts(
-        solutions: [Solution; CAP],
-        len: usize,
-        reason: Option<Unreachable>,
-    ) -> Self {
+    /// An empty set without a reason, to be filled in place through [`Self::storage_mut`] and
+    /// [`Self::record`] (the storage is set up once and not copied).
+    #[inline(always)]
+    pub(crate) const fn empty() -> Self {
         SolutionSet {
-            solutions,
-            len: if len < CAP { len } else { CAP },
-            reason,
+            solutions: [Solution::EMPTY; CAP],
+            len: 0,
+            reason: None,
+        }
+    }
+
+    /// The whole storage, to write solutions into.
+    #[inline(always)]
+    pub(crate) fn storage_mut(&mut self) -> &mut [Solution] {
+        &mut self.solutions
+    }
+
+    /// Records how many solutions were written, or the reason for none.
+    #[inline(always)]
+    pub(crate) fn record(&mut self, outcome: Result<usize, Unreachable>) {
+        match outcome {
+            Ok(len) => self.len = if len < CAP { len } else { CAP },
+            Err(reason) => self.reason = Some(reason),
         }
     }
 
