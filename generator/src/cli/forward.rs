@@ -6,7 +6,6 @@
 //! `{"error": "..."}` and the rest goes on; blank lines are skipped.
 //! Exit status: 0, or 1 if any line was malformed, or 2 if the arm file has problems.
 
-use std::io::{BufRead, Write};
 use std::process::ExitCode;
 
 use armforge_generator::description;
@@ -29,37 +28,7 @@ pub fn run(args: Args) -> ExitCode {
             return ExitCode::from(2);
         }
     };
-    let stdin = std::io::stdin();
-    let stdout = std::io::stdout();
-    let mut out = stdout.lock();
-    let mut any_malformed = false;
-    for (index, line) in stdin.lock().lines().enumerate() {
-        let line = match line {
-            Ok(line) => line,
-            Err(e) => {
-                eprintln!("armforge forward: cannot read stdin: {e}");
-                return ExitCode::from(1);
-            }
-        };
-        if line.trim().is_empty() {
-            continue;
-        }
-        let answer = match pose_for_line(&model, &line) {
-            Ok(answer) => answer,
-            Err(message) => {
-                any_malformed = true;
-                json!({ "error": format!("line {}: {message}", index + 1) })
-            }
-        };
-        if writeln!(out, "{answer}").is_err() {
-            return ExitCode::from(1);
-        }
-    }
-    if any_malformed {
-        ExitCode::from(1)
-    } else {
-        ExitCode::SUCCESS
-    }
+    super::lines::answer_lines(|line| pose_for_line(&model, line))
 }
 
 /// The answer for one input line, or what is wrong with it.

@@ -5,6 +5,7 @@ pub mod emit;
 pub mod explain;
 pub mod forward;
 pub mod inspect;
+pub mod lines;
 pub mod new;
 pub mod solve;
 pub mod verify;

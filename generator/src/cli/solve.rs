@@ -21,7 +21,6 @@
 //! Exit status: 0 when every line was read, 1 if any was malformed, 2 for a file that is not a
 //! valid description, 3 for a geometry with no decoupled closed form.
 
-use std::io::{BufRead, Write};
 use std::process::ExitCode;
 
 use armforge_generator::classify::Tolerances;
@@ -77,36 +76,9 @@ pub fn run(args: Args) -> ExitCode {
         }
     };
     let solver = Solver::new(&model, &geometry);
-    let stdin = std::io::stdin();
-    let mut out = std::io::stdout().lock();
-    let mut any_malformed = false;
-    for (index, line) in stdin.lock().lines().enumerate() {
-        let line = match line {
-            Ok(line) => line,
-            Err(e) => {
-                eprintln!("error: cannot read stdin: {e}");
-                return ExitCode::from(1);
-            }
-        };
-        if line.trim().is_empty() {
-            continue;
-        }
-        let answer = match read_pose(&model, &line) {
-            Ok(target) => answer(&model, &solver, &mode, &target),
-            Err(message) => {
-                any_malformed = true;
-                Line::new().with("error", json!(format!("line {}: {message}", index + 1)))
-            }
-        };
-        if writeln!(out, "{answer}").is_err() {
-            return ExitCode::from(1);
-        }
-    }
-    if any_malformed {
-        ExitCode::from(1)
-    } else {
-        ExitCode::SUCCESS
-    }
+    super::lines::answer_lines(|line| {
+        read_pose(&model, line).map(|target| answer(&model, &solver, &mode, &target))
+    })
 }
 
 fn mode(model: &Model, args: &Args) -> Result<Mode, String> {
