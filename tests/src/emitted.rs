@@ -1,4 +1,4 @@
-//! Every example arm's solver, emitted at compile time by `armforge_macros::solver!` from the
+//! Every example arm's solver, emitted at compile time by `armforge_runtime::solver!` (the `macros` feature, re-exporting `armforge_macros::solver!`) from the
 //! files in `arms/` — the same modules `armforge emit` writes (see `emitted_matches_cli`).
 //!
 //! [`EMITTED_ARMS`] puts each module's functions behind plain function pointers so that tests
@@ -36,7 +36,7 @@ impl EmittedArm {
 macro_rules! emitted_arms {
     ($($name:ident = $path:tt;)*) => {
         $(
-            armforge_macros::solver!(
+            armforge_runtime::solver!(
                 #[allow(missing_docs)]
                 pub mod $name = $path;
             );

@@ -1,0 +1,52 @@
+//! # armforge-kernel (use it through armforge-runtime)
+//!
+//! The small `no_std` library shared by the solvers that armforge emits and by the armforge
+//! interpreter: poses, the joint-axis model, forward kinematics by the product of exponentials,
+//! and the scalar math they use. Nothing here allocates or panics.
+//!
+//! All quantities are SI: metres and radians.
+//!
+//! ## What a solver gives you
+//!
+//! Every emitted solver module (and the generator's interpreter, `armforge_generator::solver`)
+//! answers with the types of [`solution`]:
+//!
+//! * `solve(&target)` → [`SolutionSet`]: every configuration within the joint limits (with
+//!   equivalent angles for joints whose range exceeds one turn), each a [`Solution`] with its
+//!   joint values, its [`Branch`] label and its [`Flags`]; or none, with the
+//!   [`Unreachable`] reason (beyond reach by how much, inside a hole, an orientation the wrist
+//!   cannot take, every solution outside the limits, an invalid pose).
+//! * `solve_near(&target, &current)` → the solution nearest to `current`; at a singularity the
+//!   free joint keeps its current value.
+//! * `solve_branch(&target, branch)` → the one configuration of a branch a controller holds.
+//! * `branch_of(&joints)` → the label of any configuration; it agrees with `solve`.
+//!
+//! A [`Branch`] names the shoulder ([`Shoulder::Front`]/[`Shoulder::Back`]), the elbow
+//! ([`Elbow::Up`]/[`Elbow::Down`], or [`Elbow::Extended`]/[`Elbow::Retracted`] for a polar
+//! arm's slide) and the wrist ([`Wrist::Plus`]/[`Wrist::Minus`]); families with fewer choices
+//! say `Only`. Each variant documents its geometric definition.
+//!
+//! [`plan`] is the interpreter of solve plans; `internal` (hidden) is the support code emitted
+//! modules call and is not for users.
+//!
+//! **Safety.** A generated solver is not a safety function. Validate every solver on the real
+//! machine at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
+//! robot safety standards (e.g. ISO 10218) and licensed practice.
+#![cfg_attr(not(feature = "std"), no_std)]
+#![deny(missing_docs)]
+
+pub mod fk;
+#[doc(hidden)]
+pub mod internal;
+pub mod math;
+pub mod model;
+pub mod plan;
+pub mod pose;
+pub mod solution;
+
+pub use fk::{forward, joint_motion};
+pub use model::{Joint, JointKind};
+pub use pose::Pose;
+pub use solution::{
+    Branch, Elbow, Flags, PoseProblem, Shoulder, Solution, SolutionSet, Unreachable, Wrist, JOINTS,
+};
