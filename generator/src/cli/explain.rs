@@ -4,8 +4,7 @@
 
 use std::process::ExitCode;
 
-use armforge_generator::classify::Tolerances;
-use armforge_generator::pipeline::{display_path, load_and_classify};
+use armforge_generator::pipeline::EXIT_BAD_FILE;
 use armforge_generator::plan::build_plan;
 use armforge_generator::review::review_sheet;
 
@@ -25,18 +24,12 @@ pub struct Args {
 
 /// Exit code when the sheet was written.
 pub const WRITTEN: u8 = 0;
-/// Exit code of a file that cannot be read or written.
-pub const BAD_FILE: u8 = 2;
 
 /// Runs `armforge explain`.
 pub fn run(args: Args) -> ExitCode {
-    let shown = display_path(&args.arm.to_string_lossy());
-    let (model, geometry) = match load_and_classify(&args.arm, &shown, &Tolerances::default()) {
+    let (model, geometry) = match super::load_classified(&args.arm) {
         Ok(loaded) => loaded,
-        Err(e) => {
-            eprint!("{e}");
-            return ExitCode::from(e.exit_code());
-        }
+        Err(code) => return code,
     };
     let plan = build_plan(&model, &geometry);
     let sheet = review_sheet(&model, &geometry, &plan);
@@ -45,7 +38,7 @@ pub fn run(args: Args) -> ExitCode {
         Some(path) => {
             if let Err(e) = std::fs::write(path, sheet) {
                 eprintln!("error: cannot write {}: {e}", path.display());
-                return ExitCode::from(BAD_FILE);
+                return ExitCode::from(EXIT_BAD_FILE);
             }
         }
     }

@@ -23,9 +23,8 @@
 
 use std::process::ExitCode;
 
-use armforge_generator::classify::Tolerances;
 use armforge_generator::model::Model;
-use armforge_generator::pipeline::{display_path, load_and_classify, EXIT_BAD_FILE};
+use armforge_generator::pipeline::EXIT_BAD_FILE;
 use armforge_generator::solver::Solver;
 use armforge_runtime::{
     Branch, Elbow, Flags, Pose, PoseProblem, Shoulder, Solution, Unreachable, Wrist, JOINTS,
@@ -60,13 +59,9 @@ enum Mode {
 
 /// Runs `armforge solve`.
 pub fn run(args: Args) -> ExitCode {
-    let shown = display_path(&args.arm.to_string_lossy());
-    let (model, geometry) = match load_and_classify(&args.arm, &shown, &Tolerances::default()) {
-        Ok(found) => found,
-        Err(e) => {
-            eprint!("{e}");
-            return ExitCode::from(e.exit_code());
-        }
+    let (model, geometry) = match super::load_classified(&args.arm) {
+        Ok(loaded) => loaded,
+        Err(code) => return code,
     };
     let mode = match mode(&model, &args) {
         Ok(mode) => mode,

@@ -6,8 +6,7 @@
 use std::io::IsTerminal;
 use std::process::ExitCode;
 
-use armforge_generator::classify::Tolerances;
-use armforge_generator::pipeline::{display_path, load_and_classify};
+use armforge_generator::pipeline::EXIT_BAD_FILE;
 use armforge_generator::solver::Solver;
 use armforge_generator::verify::{self, Options};
 use indicatif::{ProgressBar, ProgressStyle};
@@ -38,18 +37,12 @@ pub struct Args {
 pub const PASSED: u8 = 0;
 /// Exit code when a sample fails.
 pub const FAILED: u8 = 1;
-/// Exit code of a file that cannot be read.
-pub const BAD_FILE: u8 = 2;
 
 /// Runs `armforge verify`.
 pub fn run(args: Args) -> ExitCode {
-    let shown = display_path(&args.arm.to_string_lossy());
-    let (model, geometry) = match load_and_classify(&args.arm, &shown, &Tolerances::default()) {
+    let (model, geometry) = match super::load_classified(&args.arm) {
         Ok(loaded) => loaded,
-        Err(e) => {
-            eprint!("{e}");
-            return ExitCode::from(e.exit_code());
-        }
+        Err(code) => return code,
     };
     let solver = Solver::new(&model, &geometry);
     let options = Options {
@@ -66,7 +59,7 @@ pub fn run(args: Args) -> ExitCode {
         Ok(s) => s,
         Err(e) => {
             eprintln!("error: {e}");
-            return ExitCode::from(BAD_FILE);
+            return ExitCode::from(EXIT_BAD_FILE);
         }
     };
     if let Some(b) = bar {
