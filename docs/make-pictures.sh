@@ -7,7 +7,7 @@
 # outside the workspace so CI never builds it). Run from anywhere inside the repository.
 set -eu
 cd "$(dirname "$0")/.."
-cargo build -q -p armforge-generator
+cargo build -q -p armforge-workbench
 cargo build -q --release --manifest-path tools/svg-to-png/Cargo.toml
 armforge="${CARGO_TARGET_DIR:-target}/debug/armforge"
 png="tools/svg-to-png/target/release/svg-to-png"

@@ -14,7 +14,7 @@
 //! dependency). A file that cannot be read, an invalid description or an arm without a
 //! decoupled closed form is a compile error at the path, with the file, line and column.
 //!
-//! The work is done by `armforge_generator::expand`; this crate is only the compiler's entry
+//! The work is done by `armforge_compiler::expand`; this crate is only the compiler's entry
 //! point.
 //!
 //! **Safety.** A generated solver is not a safety function. Validate every solver on the real
@@ -30,5 +30,5 @@ use proc_macro::TokenStream;
 #[proc_macro]
 pub fn solver(input: TokenStream) -> TokenStream {
     let manifest_dir = std::env::var_os("CARGO_MANIFEST_DIR").map(std::path::PathBuf::from);
-    armforge_generator::expand::solver_macro(input.into(), manifest_dir.as_deref()).into()
+    armforge_compiler::expand::solver_macro(input.into(), manifest_dir.as_deref()).into()
 }

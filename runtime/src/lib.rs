@@ -3,7 +3,7 @@
 //! The small `no_std` library that the solvers armforge emits depend on: poses, the joint-axis
 //! model, forward kinematics, solution sets with branch labels and flags, and the support code
 //! emitted modules call. Everything here is re-exported from `armforge-kernel`, which the
-//! generator's interpreter uses too, so emitted solvers and the interpreter share every type
+//! compiler's interpreter uses too, so emitted solvers and the interpreter share every type
 //! and every line of finishing code.
 //!
 //! With the `macros` feature, [`solver!`] emits an arm's solver module at compile time from its
@@ -14,8 +14,8 @@
 //! ```
 //!
 //! (The macro cannot live in this crate itself: a proc macro is its own crate, and it runs the
-//! generator, which uses the kernel; re-exporting it here behind a feature keeps Cargo's graph
-//! free of cycles: runtime → macros → generator → kernel.)
+//! compiler, which uses the kernel; re-exporting it here behind a feature keeps Cargo's graph
+//! free of cycles: runtime → macros → compiler → kernel.)
 //!
 //! **Safety.** A generated solver is not a safety function. Validate every solver on the real
 //! machine at reduced speed in a safeguarded cell, and defer to local regulations, the applicable

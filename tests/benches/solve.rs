@@ -16,9 +16,9 @@
 use std::hint::black_box;
 use std::path::PathBuf;
 
-use armforge_generator::classify::Tolerances;
-use armforge_generator::pipeline::generate_module;
-use armforge_generator::solver::Solver;
+use armforge_compiler::classify::Tolerances;
+use armforge_compiler::pipeline::generate_module;
+use armforge_compiler::solver::Solver;
 use armforge_runtime::math::{atan2, sqrt};
 use armforge_runtime::{Branch, Pose, JOINTS};
 use armforge_tests::emitted::bench_elbow;

@@ -125,10 +125,10 @@ fn pose_of(iso: &Isometry3<f64>) -> Pose {
 }
 
 fn joint_table(arm: &EmittedArm) -> ([Joint; JOINTS], f64) {
-    let generated = armforge_generator::pipeline::generate_module(
+    let generated = armforge_compiler::pipeline::generate_module(
         &arm.file(),
         arm.path,
-        &armforge_generator::classify::Tolerances::default(),
+        &armforge_compiler::classify::Tolerances::default(),
     )
     .unwrap_or_else(|e| panic!("{e}"));
     let mut joints = [generated.plan.arm.joints[0]; JOINTS];

@@ -1,7 +1,7 @@
 //! The examples in the documentation are real: the README's and the format reference's TOML
 //! examples read without problems, and the README's error example is what armforge prints.
 
-use armforge_generator::description::load_str;
+use armforge_compiler::description::load_str;
 use armforge_tests::{fixture, workspace_root};
 
 /// The fenced blocks of one language in Markdown text (`prefix` is stripped from each line,
@@ -42,7 +42,7 @@ fn the_readme_example_reads() {
 
 #[test]
 fn the_format_reference_example_reads() {
-    let path = workspace_root().join("generator/src/description/mod.rs");
+    let path = workspace_root().join("compiler/src/description/mod.rs");
     let source = std::fs::read_to_string(path).unwrap();
     let blocks = fenced_blocks(&source, "toml", "//!");
     assert_eq!(blocks.len(), 1);

@@ -6,8 +6,8 @@
 
 use std::path::Path;
 
-use armforge_generator::description::{load_file, load_str};
-use armforge_generator::diagnostics::Diagnostics;
+use armforge_compiler::description::{load_file, load_str};
+use armforge_compiler::diagnostics::Diagnostics;
 use armforge_tests::{example_arm_paths, fixture, toml_files_in};
 
 /// One expected diagnostic.

@@ -1,8 +1,8 @@
 //! What the reader accepts and how it fills the model: inline tables, integers for floats,
 //! rotations near the tolerance, names and locations.
 
-use armforge_generator::description::{load_str, ROTATION_TOLERANCE};
-use armforge_generator::diagnostics::Location;
+use armforge_compiler::description::{load_str, ROTATION_TOLERANCE};
+use armforge_compiler::diagnostics::Location;
 use armforge_tests::pose_difference_of;
 
 const WITH_HEADERS: &str = r#"name = "headers"

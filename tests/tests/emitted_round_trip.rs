@@ -19,8 +19,8 @@
 
 use std::f64::consts::TAU;
 
-use armforge_generator::classify::Tolerances;
-use armforge_generator::pipeline::generate_module;
+use armforge_compiler::classify::Tolerances;
+use armforge_compiler::pipeline::generate_module;
 use armforge_runtime::{JointKind, Pose, Solution, JOINTS};
 use armforge_tests::emitted::{EmittedArm, EMITTED_ARMS};
 use armforge_tests::{sample_count, ReferenceArm};

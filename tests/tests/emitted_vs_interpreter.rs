@@ -1,13 +1,13 @@
 //! The emitted modules (compiled by `armforge_macros::solver!`) and the interpreter
-//! (`armforge_generator::solver::Solver` evaluating the same plan) agree to 1e-12 on 10,000
+//! (`armforge_compiler::solver::Solver` evaluating the same plan) agree to 1e-12 on 10,000
 //! poses per example arm: half made by forward kinematics from random configurations
 //! (reachable), half random rotations at random places in a box twice the arm's size
 //! (mostly unreachable, so the reasons are compared too). `solve`, `solve_branch` and
 //! `solve_near` are compared.
 
-use armforge_generator::classify::Tolerances;
-use armforge_generator::pipeline::generate_module;
-use armforge_generator::solver::Solver;
+use armforge_compiler::classify::Tolerances;
+use armforge_compiler::pipeline::generate_module;
+use armforge_compiler::solver::Solver;
 use armforge_runtime::{Pose, Solution, Unreachable, JOINTS};
 use armforge_tests::emitted::{EmittedArm, EMITTED_ARMS};
 use armforge_tests::sample_count;

@@ -5,8 +5,8 @@
 
 use std::collections::BTreeSet;
 
-use armforge_generator::description::load_file;
-use armforge_generator::model::Model;
+use armforge_compiler::description::load_file;
+use armforge_compiler::model::Model;
 use armforge_runtime::math::{cross, dot, norm, sub};
 use armforge_runtime::{joint_motion, JointKind};
 use armforge_tests::example_arm_paths;

@@ -7,8 +7,8 @@
 //! compared with Spong, Hutchinson & Vidyasagar 2006, §3.2), and the axes file lists the z axes
 //! and origins of the standard frames at zero.
 
-use armforge_generator::description::load_file;
-use armforge_generator::model::Model;
+use armforge_compiler::description::load_file;
+use armforge_compiler::model::Model;
 use armforge_tests::{fixture, pose_difference_of, sample_count, ReferenceArm};
 use rand::rngs::StdRng;
 use rand::SeedableRng;

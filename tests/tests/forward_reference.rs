@@ -5,7 +5,7 @@
 
 use std::path::Path;
 
-use armforge_generator::description::load_file;
+use armforge_compiler::description::load_file;
 use armforge_tests::{
     example_arm_paths, fixture, pose_difference, sample_count, toml_files_in, ReferenceArm,
 };

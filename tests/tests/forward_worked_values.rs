@@ -3,7 +3,7 @@
 
 use std::f64::consts::{FRAC_PI_2, PI};
 
-use armforge_generator::description::{load_file, load_str};
+use armforge_compiler::description::{load_file, load_str};
 use armforge_tests::{fixture, pose_difference_of, workspace_root, ReferenceArm};
 use rand::rngs::StdRng;
 use rand::SeedableRng;

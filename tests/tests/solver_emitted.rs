@@ -33,11 +33,11 @@ emitted!(polar, "generated/polar.rs");
 emitted!(cylindrical, "generated/cylindrical.rs");
 emitted!(cartesian, "generated/cartesian.rs");
 
-use armforge_generator::classify::Family;
-use armforge_generator::plan::samples::{
+use armforge_compiler::classify::Family;
+use armforge_compiler::plan::samples::{
     sample_arm, sample_configuration, SampleOptions, SampleRng,
 };
-use armforge_generator::solver::Solver;
+use armforge_compiler::solver::Solver;
 use armforge_runtime::{Branch, Pose, Solution, SolutionSet, Unreachable};
 
 /// The emitted module's API, so one test body serves every module.
@@ -85,7 +85,7 @@ fn compare<const CAP: usize>(m: Emitted<CAP>, family: Family, seed: u64, options
     assert_eq!((m.solve)(&bad).reason(), solver.solve(&bad).err());
 }
 
-fn rng_configuration(model: &armforge_generator::model::Model, rng: &mut SampleRng) -> [f64; 6] {
+fn rng_configuration(model: &armforge_compiler::model::Model, rng: &mut SampleRng) -> [f64; 6] {
     sample_configuration(model, rng)
 }
 

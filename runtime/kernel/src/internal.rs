@@ -1,6 +1,6 @@
 //! Not for users: the support code that armforge-emitted solvers and the armforge interpreter
 //! call. Its items may change in any release; use the emitted module's functions or the
-//! generator's `Solver` instead.
+//! compiler's `Solver` instead.
 //!
 //! Everything that both back ends of a plan need after the closed-form steps lives here, so
 //! that no formula is written twice: turning model values into joint values, wrapping revolute

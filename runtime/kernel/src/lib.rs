@@ -8,7 +8,7 @@
 //!
 //! ## What a solver gives you
 //!
-//! Every emitted solver module (and the generator's interpreter, `armforge_generator::solver`)
+//! Every emitted solver module (and the compiler's interpreter, `armforge_compiler::solver`)
 //! answers with the types of [`solution`]:
 //!
 //! * `solve(&target)` → [`SolutionSet`]: every configuration within the joint limits (with

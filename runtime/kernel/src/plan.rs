@@ -1,5 +1,5 @@
 //! The plan interpreter: evaluates a solve plan (a straight-line expression graph made by
-//! armforge-generator) at run time, without heap and without panics.
+//! armforge-compiler) at run time, without heap and without panics.
 //!
 //! A plan is a slice of [`Op`]s in evaluation order; op `i` writes value `i` of a caller-given
 //! scratch buffer and reads only values before it. Every op runs exactly once per evaluation,

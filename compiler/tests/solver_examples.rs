@@ -1,0 +1,129 @@
+//! The example arms under `arms/`: each loads, classifies, and round-trips through the
+//! interpreter; its plan and emitted module are snapshotted (insta), one case per arm.
+
+use std::path::{Path, PathBuf};
+
+use armforge_compiler::classify::{classify, Tolerances};
+use armforge_compiler::description::load_file;
+use armforge_compiler::emit::{emit_module, EmitOptions};
+use armforge_compiler::plan::build_plan;
+use armforge_compiler::plan::samples::{sample_configuration, SampleRng};
+use armforge_compiler::solver::Solver;
+use armforge_runtime::{JointKind, Pose};
+
+fn arms() -> Vec<PathBuf> {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("../arms");
+    let mut paths: Vec<PathBuf> = std::fs::read_dir(&dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
+        .collect();
+    paths.sort();
+    assert!(
+        paths.len() >= 5,
+        "example arms missing in {}",
+        dir.display()
+    );
+    paths
+}
+
+fn stem(path: &Path) -> String {
+    path.file_stem().unwrap().to_string_lossy().into_owned()
+}
+
+fn display_path(path: &Path) -> String {
+    format!("arms/{}", path.file_name().unwrap().to_string_lossy())
+}
+
+fn error(a: &Pose, b: &Pose, reach: f64) -> f64 {
+    let mut e: f64 = 0.0;
+    for i in 0..3 {
+        e = e.max((a.translation[i] - b.translation[i]).abs() / reach);
+        for j in 0..3 {
+            e = e.max((a.rotation[i][j] - b.rotation[i][j]).abs());
+        }
+    }
+    e
+}
+
+#[test]
+fn example_arms_round_trip_through_the_interpreter() {
+    let samples = if std::env::var_os("ARMFORGE_HEAVY").is_some() {
+        20_000
+    } else {
+        300
+    };
+    for path in arms() {
+        let model = load_file(&path).unwrap_or_else(|d| panic!("{d}"));
+        let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));
+        let reach = solver.plan().arm.scale;
+        let mut rng = SampleRng::new(17);
+        let mut total = 0;
+        for _ in 0..samples {
+            let q = sample_configuration(&model, &mut rng);
+            let target = model.forward(&q);
+            let solutions = solver
+                .solve(&target)
+                .unwrap_or_else(|r| panic!("{}: {q:?}: {r}", path.display()));
+            total += solutions.len();
+            let mut found = false;
+            for s in &solutions {
+                // Arms are accepted within the classifier's tolerances (1e-6 of the size):
+                // a pose is reproduced to well within that.
+                let e = error(&solver.forward(&s.joints), &target, reach);
+                assert!(e < 1e-9, "{}: {s:?} misses by {e:e}", path.display());
+                if s.flags.is_empty() {
+                    assert_eq!(solver.branch_of(&s.joints), s.branch);
+                }
+                found |= s
+                    .joints
+                    .iter()
+                    .zip(q.iter())
+                    .zip(&model.joints)
+                    .all(|((a, b), j)| {
+                        let d = a - b;
+                        match j.joint.kind {
+                            JointKind::Revolute
+                                if j.joint.limits[1] - j.joint.limits[0]
+                                    <= std::f64::consts::TAU =>
+                            {
+                                (d - std::f64::consts::TAU * (d / std::f64::consts::TAU).round())
+                                    .abs()
+                                    < 1e-6
+                            }
+                            _ => d.abs() < 1e-6,
+                        }
+                    });
+            }
+            assert!(
+                found,
+                "{}: original {q:?} not among {solutions:#?}",
+                path.display()
+            );
+        }
+        eprintln!(
+            "{}: {samples} poses, {:.2} solutions per pose",
+            stem(&path),
+            total as f64 / samples as f64
+        );
+    }
+}
+
+#[test]
+fn example_arm_plans_and_modules() {
+    for path in arms() {
+        let model = load_file(&path).unwrap_or_else(|d| panic!("{d}"));
+        let geometry = classify(&model, &Tolerances::default()).unwrap();
+        let plan = build_plan(&model, &geometry);
+        let name = stem(&path);
+        insta::assert_snapshot!(format!("plan_{name}"), plan.to_string());
+        let options = EmitOptions {
+            source_path: display_path(&path),
+            without_test: false,
+        };
+        insta::assert_snapshot!(
+            format!("module_{name}"),
+            emit_module(&model, &plan, &options)
+        );
+    }
+}

@@ -1,0 +1,222 @@
+//! Round trips through the interpreter for random arms of every family: random
+//! configurations → forward → solve. The original configuration must be among the solutions,
+//! every solution must reproduce the pose, lie within the limits, carry the label that
+//! `branch_of` reads back, and differ from the others.
+//!
+//! Sample counts are modest by default; set `ARMFORGE_HEAVY=1` (release builds) for more.
+
+use std::f64::consts::{PI, TAU};
+
+use armforge_compiler::classify::Family;
+use armforge_compiler::plan::samples::{
+    sample_arm, sample_configuration, SampleOptions, SampleRng,
+};
+use armforge_compiler::solver::Solver;
+use armforge_runtime::{JointKind, Pose, Solution};
+
+fn heavy() -> bool {
+    std::env::var_os("ARMFORGE_HEAVY").is_some()
+}
+
+/// (arms, configurations per arm): small in debug builds, more in release builds (CI), many
+/// more with `ARMFORGE_HEAVY`.
+fn counts() -> (u64, usize) {
+    if heavy() {
+        (500, 400)
+    } else if cfg!(debug_assertions) {
+        (25, 25)
+    } else {
+        (100, 100)
+    }
+}
+
+/// Position error relative to the arm's reach, and rotation error by Frobenius norm.
+fn pose_error(a: &Pose, b: &Pose, reach: f64) -> (f64, f64) {
+    let mut p: f64 = 0.0;
+    for i in 0..3 {
+        p += (a.translation[i] - b.translation[i]).powi(2);
+    }
+    let mut r: f64 = 0.0;
+    for i in 0..3 {
+        for j in 0..3 {
+            r += (a.rotation[i][j] - b.rotation[i][j]).powi(2);
+        }
+    }
+    (p.sqrt() / reach, r.sqrt())
+}
+
+fn joint_gap(kind: JointKind, limits: [f64; 2], a: f64, b: f64) -> f64 {
+    let d = a - b;
+    if kind == JointKind::Revolute && limits[1] - limits[0] <= TAU + 1e-9 {
+        (d - TAU * (d / TAU).round()).abs()
+    } else {
+        d.abs()
+    }
+}
+
+fn same(solver: &Solver, a: &[f64; 6], b: &[f64; 6], tol: f64) -> bool {
+    solver
+        .plan()
+        .arm
+        .joints
+        .iter()
+        .zip(a.iter().zip(b.iter()))
+        .all(|(j, (x, y))| joint_gap(j.kind, j.limits, *x, *y) < tol)
+}
+
+struct Tally {
+    poses: usize,
+    solutions: usize,
+    eight: usize,
+    most: usize,
+}
+
+fn round_trip(family: Family, options: &SampleOptions, expect_count: Option<usize>) -> Tally {
+    let (arms, configs) = counts();
+    let mut tally = Tally {
+        poses: 0,
+        solutions: 0,
+        eight: 0,
+        most: 0,
+    };
+    for seed in 0..arms {
+        let (model, geometry) = sample_arm(family, seed, options);
+        let solver = Solver::new(&model, &geometry);
+        let reach = solver.plan().arm.scale;
+        let mut rng = SampleRng::new(1000 + seed);
+        for _ in 0..configs {
+            let q = sample_configuration(&model, &mut rng);
+            let target = model.forward(&q);
+            let (dp, dr) = pose_error(&solver.forward(&q), &target, reach);
+            assert!(dp < 1e-14 && dr < 1e-14, "canonical arm differs from model");
+            let solutions: Vec<Solution> = match solver.solve(&target) {
+                Ok(s) => s,
+                Err(reason) => panic!("{family:?} arm {seed}: no solution for {q:?}: {reason}"),
+            };
+            tally.poses += 1;
+            tally.solutions += solutions.len();
+            tally.most = tally.most.max(solutions.len());
+            for s in &solutions {
+                let (dp, dr) = pose_error(&solver.forward(&s.joints), &target, reach);
+                assert!(
+                    dp < 1e-9 && dr < 1e-9,
+                    "{family:?} arm {seed}: solution {:?} misses the pose by {dp:e} / {dr:e}",
+                    s
+                );
+                for (j, v) in solver.plan().arm.joints.iter().zip(s.joints.iter()) {
+                    assert!(*v >= j.limits[0] - 1e-12 && *v <= j.limits[1] + 1e-12);
+                }
+                if s.flags.is_empty() {
+                    assert_eq!(
+                        solver.branch_of(&s.joints),
+                        s.branch,
+                        "{family:?} arm {seed}: branch_of disagrees for {:?}",
+                        s
+                    );
+                }
+            }
+            for (i, a) in solutions.iter().enumerate() {
+                for b in &solutions[i + 1..] {
+                    assert!(
+                        !same(&solver, &a.joints, &b.joints, 1e-9),
+                        "{family:?} arm {seed}: duplicate solutions {a:?} {b:?}"
+                    );
+                }
+            }
+            let found = solutions.iter().any(|s| same(&solver, &s.joints, &q, 1e-6));
+            assert!(
+                found,
+                "{family:?} arm {seed}: original {q:?} ({}) not among {solutions:#?}",
+                solver.branch_of(&q)
+            );
+            if let Some(n) = expect_count {
+                if solutions.len() == n {
+                    tally.eight += 1;
+                }
+            }
+        }
+    }
+    eprintln!(
+        "{family:?} ({options:?}): {} arms, {} poses, {} solutions, {} with the expected count",
+        arms, tally.poses, tally.solutions, tally.eight
+    );
+    tally
+}
+
+#[test]
+fn elbow_arms_round_trip() {
+    // Any shoulder offset: the back posture may reach less far than the front one, so only
+    // "at most 8" holds everywhere.
+    let t = round_trip(Family::Elbow, &SampleOptions::default(), Some(8));
+    assert_eq!(t.most, 8);
+    assert!(t.eight > 0);
+}
+
+#[test]
+fn elbow_arms_have_eight_solutions_in_the_dextrous_workspace() {
+    // Craig, Introduction to Robotics, 3rd ed., 2005, §4.7; Siciliano et al., Robotics, 2009,
+    // §2.12: 4 arm postures × 2 wrist solutions = 8 for a 6R arm with a spherical wrist. With
+    // axis 2 meeting axis 1, the front and back postures reach the same distances, and a wrist
+    // with h4 ⟂ h5 ⟂ h6 reaches every orientation, so every reachable generic pose is in the
+    // dextrous workspace. (A wrist with other twist angles reaches only a band of directions
+    // of axis 6 in some postures.)
+    let options = SampleOptions {
+        orthogonal_wrist: true,
+        shoulder_axes_meet: true,
+        ..SampleOptions::default()
+    };
+    let t = round_trip(Family::Elbow, &options, Some(8));
+    assert_eq!(t.eight, t.poses, "generic poses must have all 8 solutions");
+}
+
+#[test]
+fn elbow_arms_with_orthogonal_wrists_round_trip() {
+    let options = SampleOptions {
+        orthogonal_wrist: true,
+        ..SampleOptions::default()
+    };
+    let t = round_trip(Family::Elbow, &options, Some(8));
+    assert_eq!(t.most, 8);
+}
+
+#[test]
+fn polar_arms_round_trip() {
+    let t = round_trip(Family::Polar, &SampleOptions::default(), None);
+    assert!(t.most <= 8);
+}
+
+#[test]
+fn cylindrical_arms_round_trip() {
+    let t = round_trip(Family::Cylindrical, &SampleOptions::default(), None);
+    assert!(t.most <= 4);
+}
+
+#[test]
+fn cartesian_arms_round_trip() {
+    let t = round_trip(Family::Cartesian, &SampleOptions::default(), Some(2));
+    assert_eq!(
+        t.eight, t.poses,
+        "a cartesian arm has one posture × 2 wrist solutions"
+    );
+}
+
+#[test]
+fn two_turn_limits_list_equivalent_angles() {
+    let options = SampleOptions {
+        revolute_range: TAU,
+        ..SampleOptions::default()
+    };
+    let (model, geometry) = sample_arm(Family::Elbow, 3, &options);
+    let solver = Solver::new(&model, &geometry);
+    let mut rng = SampleRng::new(77);
+    let q = sample_configuration(&model, &mut rng);
+    let solutions = solver.solve(&model.forward(&q)).unwrap();
+    // Each of the 8 branches has 2 equivalent values for each of the 6 joints.
+    assert_eq!(solutions.len(), 8 * 64);
+    assert!(solutions.iter().any(|s| s
+        .joints
+        .iter()
+        .zip(q.iter())
+        .all(|(a, b)| (a - b).abs() < 1e-6)));
+    let _ = PI;
+}

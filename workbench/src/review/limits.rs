@@ -1,0 +1,152 @@
+//! §7 Reach and §8 tolerances: how near and far the wrist center gets, where solutions merge,
+//! and every tolerance the classifier, the solver and `armforge verify` use.
+
+use std::fmt::Write as _;
+
+use super::facts::Facts;
+use super::show::{self, Show};
+use crate::report::{Item, Outcome, Report};
+use crate::verify::Thresholds;
+use armforge_compiler::classify::{ArmEvidence, Geometry};
+use armforge_compiler::plan::vec3::num;
+use armforge_compiler::plan::wrist::ALIGNED_SINE;
+use armforge_compiler::plan::Plan;
+
+/// Writes §7.
+pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Facts, s: &Show) {
+    let _ = writeln!(out, "## 7. Reach\n");
+    if let Outcome::Solvable(solvable) = &report.outcome {
+        match &solvable.reach {
+            Some(item) => {
+                let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
+            }
+            None => {
+                let _ = writeln!(
+                    out,
+                    "- the wrist center moves in the box the three slides span (their limits in §1)"
+                );
+            }
+        }
+    }
+    match &geometry.arm {
+        ArmEvidence::Elbow(e) => {
+            let _ = writeln!(
+                out,
+                "- distance `d` of the wrist center from axis 2: {} (folded, `||L| − |V||`) to \
+                 {} (stretched, `|L| + |V|`); beyond them no elbow solution (`cos ψ` outside \
+                 [−1, 1])",
+                s.len(e.reach_from_axis_2[0]),
+                s.len(e.reach_from_axis_2[1])
+            );
+        }
+        ArmEvidence::Polar(p) => {
+            let _ = writeln!(
+                out,
+                "- distance `d` of the wrist center from axis 2 within the slide's limits: {} to \
+                 {}; nearest approach of its line of travel {} (the slide's roots merge)",
+                s.len(p.reach_from_axis_2[0]),
+                s.len(p.reach_from_axis_2[1]),
+                s.len(p.closest_to_axis_2)
+            );
+        }
+        ArmEvidence::Cylindrical(_) => {
+            let k = facts.cylindrical();
+            let _ = writeln!(
+                out,
+                "- the slide's two roots merge where `ρ² = |W⊥D|²` (`|D|²` = {}); nearer axis 1 \
+                 than `|W⊥D|` the target is out of reach",
+                s.num(num::dot(&k.d, &k.d))
+            );
+        }
+        ArmEvidence::Cartesian(_) => {}
+    }
+    if let ArmEvidence::Elbow(e) = &geometry.arm {
+        if !e.shoulder.axes_1_2_meet {
+            let _ = writeln!(
+                out,
+                "- shoulder offset {}: the back posture (reaching over axis 1) may reach less \
+                 far than the front one",
+                s.len(e.shoulder.offset)
+            );
+        }
+    }
+    let _ = writeln!(
+        out,
+        "- joint limits cut these ranges further; the solver drops candidates beyond them and \
+         reports the joint and the amount when none is left\n"
+    );
+}
+
+/// Writes §8.
+pub fn tolerances(out: &mut String, report: &Report, plan: &Plan, s: &Show) {
+    let _ = writeln!(out, "## 8. Tolerances\n");
+    let _ = writeln!(out, "Classification (`armforge inspect` uses the same):\n");
+    items(out, &report.tolerances);
+    let st = &plan.settings;
+    let t = Thresholds::default();
+    let _ = writeln!(out, "\nSolver (in the plan and the emitted module):\n");
+    let _ = writeln!(out, "| tolerance | value |\n|---|---|");
+    let rows = [
+        (
+            "a target this close to a reach boundary counts as on it (double root returned \
+             once, flagged)",
+            s.small_len(st.length_tolerance),
+        ),
+        (
+            "wrist counted as aligned (joint 4 held at the reference) when `|z⊥h4|` is below",
+            format!("{ALIGNED_SINE:e}"),
+        ),
+        (
+            "wrist orientation counted as reachable down to `γ²` of",
+            format!("−{:e}", st.angle_tolerance),
+        ),
+        (
+            "joint values this far beyond a limit still count as within it (rad or m)",
+            format!("{:e}", st.limit_tolerance),
+        ),
+        (
+            "two solutions closer than this in every joint are one (rad or m)",
+            format!("{:e}", st.duplicate_tolerance),
+        ),
+    ];
+    for (what, value) in rows {
+        let _ = writeln!(out, "| {} | {} |", what.replace('|', "\\|"), value);
+    }
+    let _ = writeln!(out, "\n`armforge verify` (round trips):\n");
+    let _ = writeln!(out, "| threshold | value |\n|---|---|");
+    let verify_rows = [
+        (
+            "position error of every solution (fraction of the arm's size) and rotation error \
+             (Frobenius norm), away from singular configurations",
+            t.pose,
+        ),
+        (
+            "the same near singular configurations and reach boundaries",
+            t.pose_near_singular,
+        ),
+        (
+            "recovered: the original configuration within (rad, or fraction of the arm's size)",
+            t.joint,
+        ),
+        (
+            "recovered at a reach boundary (the two roots merge there)",
+            t.joint_at_boundary,
+        ),
+    ];
+    for (what, value) in verify_rows {
+        let _ = writeln!(out, "| {what} | {value:e} |");
+    }
+    let _ = writeln!(out);
+}
+
+fn items(out: &mut String, items: &[Item]) {
+    let _ = writeln!(out, "| tolerance | value |\n|---|---|");
+    for item in items {
+        let _ = writeln!(
+            out,
+            "| {} | {} |",
+            item.label.replace('|', "\\|"),
+            show::minus(&item.shown)
+        );
+    }
+}

@@ -1,0 +1,346 @@
+//! Every geometry no family fits is rejected with the property that fails, the joints by
+//! number and name, the measured numbers in the file's units, and the offending joint's place
+//! in the file; never a panic.
+
+mod classify_support;
+
+use armforge_compiler::classify::{classify, Note, Reason, Rejection, Tolerances};
+use armforge_compiler::model::Model;
+use armforge_compiler::units::{AngleUnit, LengthUnit, Units};
+use classify_support::arms;
+
+fn reject(model: &Model) -> Rejection {
+    match classify(model, &Tolerances::default()) {
+        Ok(g) => panic!("expected a rejection, got {:?}", g.family),
+        Err(e) => e,
+    }
+}
+
+fn in_mm_deg(mut m: Model) -> Model {
+    m.units = Units {
+        length: LengthUnit::Millimetre,
+        angle: AngleUnit::Degree,
+    };
+    m
+}
+
+#[test]
+fn offset_wrist_names_the_pair_and_the_gap_in_file_units() {
+    let e = reject(&in_mm_deg(arms::offset_wrist(0.02)));
+    assert!(
+        matches!(
+            e.reason,
+            Reason::WristAxesMiss {
+                first: 4,
+                second: 6,
+                ..
+            }
+        ),
+        "{e}"
+    );
+    let text = e.to_string();
+    assert!(
+        text.starts_with("error: test.toml:60:1: "),
+        "located at joint 6's table: {text}"
+    );
+    assert!(
+        text.contains("axes of joint 4 (\"j4\") and joint 6 (\"j6\") pass 20 mm apart"),
+        "{text}"
+    );
+    assert!(text
+        .contains("kinematic decoupling needs the axes of joints 4, 5 and 6 to meet in one point"));
+}
+
+#[test]
+fn three_parallel_axes_say_so() {
+    let e = reject(&arms::three_parallel());
+    assert!(
+        e.notes.contains(&Note::ThreeParallelAxes { first: 2 }),
+        "{e}"
+    );
+    assert!(
+        e.to_string().contains("joints 2, 3 and 4 are parallel"),
+        "{e}"
+    );
+    assert!(e
+        .to_string()
+        .contains("closed form, but not by decoupling at the wrist"));
+}
+
+#[test]
+fn degenerate_wrist() {
+    let e = reject(&in_mm_deg(arms::degenerate_wrist()));
+    assert!(
+        matches!(
+            e.reason,
+            Reason::WristAxesParallel {
+                first: 4,
+                second: 5,
+                ..
+            }
+        ),
+        "{e}"
+    );
+    assert_eq!(e.location.line, 50);
+    let text = e.to_string();
+    assert!(
+        text.contains("are parallel (angle 0°, 100 mm apart)"),
+        "{text}"
+    );
+    assert!(text.contains("cannot reach every orientation"), "{text}");
+}
+
+#[test]
+fn first_three_meet() {
+    let e = reject(&arms::first_three_meet());
+    assert!(e.notes.contains(&Note::FirstThreeMeet), "{e}");
+    assert!(e.to_string().contains("meet in one point instead of"));
+}
+
+#[test]
+fn joint_count() {
+    let e = reject(&arms::five_joints());
+    assert_eq!(e.reason, Reason::JointCount { count: 5 });
+    assert!(e.to_string().contains("the arm has 5 joints"), "{e}");
+    assert_eq!(e.location.line, 50, "points at the last joint");
+    let mut seven = arms::plain_elbow();
+    seven.joints.push(seven.joints[5].clone());
+    let e = reject(&seven);
+    assert_eq!(e.reason, Reason::JointCount { count: 7 });
+    assert_eq!(e.location.line, 60, "points at the seventh joint");
+    let mut none = arms::plain_elbow();
+    none.joints.clear();
+    let e = reject(&none);
+    assert_eq!((e.location.line, e.location.column), (1, 1));
+}
+
+#[test]
+fn rrr_without_parallel_axes_2_and_3_points_to_pieper() {
+    let e = reject(&in_mm_deg(arms::tilted_axis_3(10f64.to_radians())));
+    assert!(matches!(e.reason, Reason::ElbowAxes2And3NotParallel { .. }));
+    assert_eq!(e.notes, vec![Note::PieperQuartic]);
+    let text = e.to_string();
+    assert!(text.contains("make 10°"), "{text}");
+    // Pieper's criterion: three consecutive revolute axes meeting in a point give a closed
+    // form (Pieper, 1968, PhD thesis, Stanford University).
+    assert!(text.contains("Pieper's criterion holds"), "{text}");
+}
+
+#[test]
+fn unsupported_pattern() {
+    let e = reject(&arms::slide_first());
+    assert_eq!(
+        e.reason,
+        Reason::UnsupportedPattern {
+            pattern: "P R R".into()
+        }
+    );
+    // P R R: joint 2 is where it leaves the only pattern starting with P (P P P).
+    assert_eq!(e.joint, Some(2));
+    // R P R: joint 3 is where it leaves the cylindrical pattern (R P P).
+    let mut m = arms::plain_elbow();
+    m.joints[1].joint.kind = armforge_runtime::JointKind::Prismatic;
+    let e = reject(&m);
+    assert_eq!(e.joint, Some(3), "{e}");
+}
+
+#[test]
+fn general_six_revolute_mentions_sixteen_solutions() {
+    let e = reject(&arms::general_six_revolute());
+    assert_eq!(e.notes, vec![Note::GeneralSixRevolute]);
+    // At most 16 solutions for a general 6R arm (Raghavan & Roth 1990; from memory).
+    assert!(e.to_string().contains("up to 16 solutions"));
+}
+
+#[test]
+fn polar_slide_must_be_perpendicular_to_axis_2() {
+    let e = reject(&in_mm_deg(arms::polar_arm(
+        [0.0, 1.0, 0.0],
+        [1.0, 0.3, 0.0],
+    )));
+    let Reason::PolarSlideNotPerpendicular { angle } = e.reason else {
+        panic!("{e}")
+    };
+    // The slide (1, 0.3, 0) makes atan(1/0.3) with y.
+    assert!((angle - (1.0f64 / 0.3).atan()).abs() < 1e-12);
+}
+
+#[test]
+fn cylindrical_slides_both_across_axis_1() {
+    let e = reject(&arms::cylindrical_arm([0.0, 1.0, 0.0], [1.0, 0.0, 0.0]));
+    assert!(matches!(
+        e.reason,
+        Reason::CylindricalSlidesPerpendicularToAxis1 { .. }
+    ));
+    let e = reject(&arms::cylindrical_arm([1.0, 0.0, 0.0], [-1.0, 0.0, 0.0]));
+    assert!(matches!(e.reason, Reason::CylindricalSlidesParallel { .. }));
+}
+
+#[test]
+fn cartesian_slides_in_one_plane() {
+    let e = reject(&arms::cartesian_arm([
+        [1.0, 0.0, 0.0],
+        [0.0, 1.0, 0.0],
+        [1.0, 1.0, 0.0],
+    ]));
+    assert!(matches!(
+        e.reason,
+        Reason::CartesianSlidesDependent {
+            parallel_pair: None,
+            ..
+        }
+    ));
+    let e = reject(&arms::cartesian_arm([
+        [1.0, 0.0, 0.0],
+        [0.0, 1.0, 0.0],
+        [0.0, -1.0, 0.0],
+    ]));
+    assert!(matches!(
+        e.reason,
+        Reason::CartesianSlidesDependent {
+            parallel_pair: Some([2, 3]),
+            ..
+        }
+    ));
+}
+
+#[test]
+fn elbow_needs_a_forearm() {
+    // Move the wrist onto axis 3: all three wrist axes through (0, 0, 0.75).
+    let mut m = arms::plain_elbow();
+    for j in 3..6 {
+        m.joints[j].joint.point = [0.0, 0.0, 0.75];
+    }
+    let e = reject(&m);
+    assert!(matches!(e.reason, Reason::WristCenterOnAxis3 { .. }), "{e}");
+}
+
+#[test]
+fn a_sliding_wrist_joint() {
+    let mut m = arms::plain_elbow();
+    m.joints[4].joint.kind = armforge_runtime::JointKind::Prismatic;
+    let e = reject(&m);
+    assert_eq!(e.reason, Reason::WristJointNotRevolute { joint: 5 });
+}
+
+#[test]
+fn bad_axes_are_bad_input_not_a_panic() {
+    for bad in [
+        [0.0, 0.0, 0.0],
+        [f64::NAN, 0.0, 1.0],
+        [f64::INFINITY, 0.0, 0.0],
+    ] {
+        let mut m = arms::plain_elbow();
+        m.joints[2].joint.axis = bad;
+        let e = reject(&m);
+        assert_eq!(e.reason, Reason::InvalidAxis { joint: 3 });
+        assert!(e.is_bad_input());
+    }
+}
+
+/// An arm whose wrist axes miss by just over the tolerance is rejected; just under, accepted.
+/// The miss is linear in the offset of axis 6, so it is scaled to land 1 % either side.
+#[test]
+fn tolerance_boundary() {
+    let tol = Tolerances::default();
+    let loose = Tolerances {
+        distance: 1e-3,
+        angle: tol.angle,
+    };
+    let unit = 1e-6;
+    let g = classify(&arms::offset_wrist(unit), &loose).expect("loose tolerance accepts");
+    let miss_per_metre = g.wrist.miss / unit;
+    let limit = tol.distance * g.resolved.arm_size;
+    let under = classify(&arms::offset_wrist(0.99 * limit / miss_per_metre), &tol)
+        .expect("just under the tolerance is accepted");
+    assert!(under.wrist.miss <= under.resolved.distance);
+    assert!(under.wrist.miss > 0.98 * under.resolved.distance);
+    let over = classify(&arms::offset_wrist(1.01 * limit / miss_per_metre), &tol)
+        .expect_err("just over the tolerance is rejected");
+    let Reason::WristAxesMiss { miss, .. } = over.reason else {
+        panic!("{over}")
+    };
+    assert!(miss > limit && miss < 1.02 * limit);
+}
+
+#[test]
+fn overriding_the_tolerance_accepts_a_small_offset() {
+    let m = arms::offset_wrist(1e-4);
+    assert!(classify(&m, &Tolerances::default()).is_err());
+    let generous = Tolerances {
+        distance: 1e-3,
+        ..Tolerances::default()
+    };
+    assert!(classify(&m, &generous).is_ok());
+}
+
+/// Whatever lines a file gives, classification answers (a geometry or a located rejection)
+/// and never panics: random kinds, axes, points, joint counts and a few broken numbers.
+#[test]
+fn random_arms_never_panic() {
+    use rand::Rng;
+    let mut rng = classify_support::rng(0x5eed_0004);
+    let specials = [0.0, f64::NAN, f64::INFINITY, -f64::INFINITY, 1e300, 1e-300];
+    let mut solvable = 0;
+    for _ in 0..3000 {
+        let count = if rng.random_bool(0.5) {
+            6
+        } else {
+            rng.random_range(0..9)
+        };
+        let pick = |rng: &mut rand::rngs::StdRng| -> f64 {
+            if rng.random_bool(0.03) {
+                specials[rng.random_range(0..specials.len())]
+            } else if rng.random_bool(0.3) {
+                // Axis-aligned values make parallel and meeting lines common.
+                f64::from(rng.random_range(-1i32..=1))
+            } else {
+                rng.random_range(-1.0..1.0)
+            }
+        };
+        let lines: Vec<classify_support::Line> = (0..count)
+            .map(|_| {
+                let axis = [pick(&mut rng), pick(&mut rng), pick(&mut rng)];
+                let point = [pick(&mut rng), pick(&mut rng), pick(&mut rng)];
+                let kind = if rng.random_bool(0.25) {
+                    armforge_runtime::JointKind::Prismatic
+                } else {
+                    armforge_runtime::JointKind::Revolute
+                };
+                classify_support::Line {
+                    kind,
+                    axis,
+                    point,
+                    limits: [pick(&mut rng), pick(&mut rng)],
+                }
+            })
+            .collect();
+        let mut lines = lines;
+        if count == 6 && rng.random_bool(0.7) {
+            // Give it a spherical wrist, and often axis 3 parallel to axis 2.
+            let c = [pick(&mut rng), pick(&mut rng), pick(&mut rng)];
+            for line in &mut lines[3..] {
+                line.kind = armforge_runtime::JointKind::Revolute;
+                line.point = c;
+            }
+            if rng.random_bool(0.5) {
+                lines[2].axis = lines[1].axis;
+            }
+        }
+        let model = classify_support::arm(&lines, [pick(&mut rng), pick(&mut rng), 0.3]);
+        match classify(&model, &Tolerances::default()) {
+            Ok(g) => {
+                solvable += 1;
+                assert!(g.wrist_center.iter().all(|x| x.is_finite()));
+                let report =
+                    armforge_workbench::report::build(&model, &Tolerances::default(), &Ok(g));
+                assert!(report.to_text().contains("family: "));
+            }
+            Err(e) => {
+                assert!(e.to_string().starts_with("error: test.toml:"), "{e}");
+            }
+        }
+    }
+    // Enough of them are solvable that the report is exercised too.
+    assert!(solvable > 100, "{solvable} of 3000 random arms solvable");
+}

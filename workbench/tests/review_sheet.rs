@@ -1,0 +1,383 @@
+//! `armforge explain`: the review sheet of every example arm (insta snapshots, so a change in
+//! an equation or a number shows in review), byte-identical across runs, its numbers checked
+//! against hand-worked values and against the solver, and the command's exit codes.
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+use armforge_compiler::classify::{classify, Family, Geometry, Tolerances};
+use armforge_compiler::description::load_str;
+use armforge_compiler::model::Model;
+use armforge_compiler::plan::build_plan;
+use armforge_compiler::plan::vec3::num;
+use armforge_compiler::solver::Solver;
+use armforge_runtime::{joint_motion, Pose};
+use armforge_workbench::review::{review_sheet, Facts};
+
+fn workspace() -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+        .parent()
+        .expect("the generator crate sits in the workspace")
+        .to_path_buf()
+}
+
+/// The example arms `arms/*.toml`, sorted, as (path relative to the workspace, text).
+fn examples() -> Vec<(String, String)> {
+    let folder = workspace().join("arms");
+    let mut files: Vec<PathBuf> = std::fs::read_dir(&folder)
+        .expect("arms/ exists")
+        .filter_map(|e| e.ok().map(|e| e.path()))
+        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
+        .collect();
+    files.sort();
+    files
+        .into_iter()
+        .map(|p| {
+            let name = p.file_name().expect("a file").to_string_lossy().to_string();
+            let text = std::fs::read_to_string(&p).expect("readable arm file");
+            (format!("arms/{name}"), text)
+        })
+        .collect()
+}
+
+fn classified(path: &str, text: &str) -> (Model, Geometry) {
+    let model = load_str(text, path).unwrap_or_else(|d| panic!("{path} does not load:\n{d}"));
+    let geometry = classify(&model, &Tolerances::default())
+        .unwrap_or_else(|r| panic!("{path} does not classify: {r}"));
+    (model, geometry)
+}
+
+fn sheet(path: &str, text: &str) -> String {
+    let (model, geometry) = classified(path, text);
+    review_sheet(&model, &geometry, &build_plan(&model, &geometry))
+}
+
+#[test]
+fn sheets_of_the_example_arms() {
+    let arms = examples();
+    assert!(
+        arms.len() >= 5,
+        "expected the example arms, found {}",
+        arms.len()
+    );
+    for (path, text) in &arms {
+        let name = path
+            .trim_start_matches("arms/")
+            .trim_end_matches(".toml")
+            .to_string();
+        insta::assert_snapshot!(name, sheet(path, text));
+    }
+}
+
+#[test]
+fn sheets_are_byte_identical_across_runs() {
+    for (path, text) in examples() {
+        let first = sheet(&path, &text);
+        let second = sheet(&path, &text);
+        assert_eq!(first, second, "{path}: two runs differ");
+    }
+}
+
+#[test]
+fn every_sheet_carries_the_safety_caution_and_every_section() {
+    for (path, text) in examples() {
+        let s = sheet(&path, &text);
+        assert!(
+            s.contains("not a safety function") && s.contains("ISO 10218"),
+            "{path}"
+        );
+        for section in [
+            "## 1. The arm as described",
+            "## 2. Classification",
+            "## 3. The method",
+            "## 4. The solve, step by step",
+            "## 5. Branches",
+            "## 6. Singular configurations",
+            "## 7. Reach",
+            "## 8. Tolerances",
+            "## 9. The plan as evaluated",
+        ] {
+            assert!(s.contains(section), "{path}: no {section}");
+        }
+    }
+}
+
+#[test]
+fn bench_elbow_numbers_match_hand_worked_values() {
+    // Worked by hand from arms/bench-elbow-dh.toml (standard DH, Spong, Hutchinson &
+    // Vidyasagar 2006, §3.2): the forearm runs 380 mm along x and 75 mm along z from axis 3,
+    // so |V| = √(380² + 75²) = 387.330608 mm (Pythagoras) and the stretched arm puts V along
+    // L = (0, 0, 400): φ0 = −atan2(380, 75) = −78.83512°.
+    let (path, text) = examples()
+        .into_iter()
+        .find(|(p, _)| p.ends_with("bench-elbow-dh.toml"))
+        .expect("bench-elbow example");
+    let s = sheet(&path, &text);
+    assert!(
+        s.contains("V = (380, 0, 75) mm,  |V| = 387.330608 mm"),
+        "{s}"
+    );
+    assert!(s.contains("L = (0, 0, 400) mm,  |L| = 400 mm"));
+    assert!(s.contains("φ0 = −78.83512°"));
+    // c_tool: the wrist center 90 mm (flange) + 120 mm (gripper) behind the tool point.
+    assert!(s.contains("c_tool = (0, 0, −210) mm"));
+    let expected = -(380f64.atan2(75.0)).to_degrees();
+    assert!((expected + 78.83512).abs() < 1e-5);
+}
+
+/// Joints 1–3 (model values) from the sheet's equations with the sheet's constants, for a
+/// wrist-center target `ct`, every branch.
+fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64; 3]> {
+    let mut out = Vec::new();
+    match family {
+        Family::Elbow | Family::Polar => {
+            let k = f.joint_one();
+            let u = num::sub(&ct, &k.p1);
+            let a = num::dot(&k.alpha, &u);
+            let b = num::dot(&k.beta, &u);
+            let e = k.e0 - k.cos12 * num::dot(&k.h1, &u);
+            let r2 = a * a + b * b;
+            let kk = (r2 - e * e).max(0.0).sqrt();
+            for sigma in [1.0, -1.0] {
+                let c1 = (a * e - sigma * b * kk) / r2;
+                let s1 = (b * e + sigma * a * kk) / r2;
+                let t1 = s1.atan2(c1);
+                let w = num::add(&num::rotate(&k.h1, -t1, &u), &num::sub(&k.p1, &k.p2));
+                let d2 = num::dot(&w, &w) - num::dot(&k.h2, &w).powi(2);
+                if family == Family::Elbow {
+                    let el = f.elbow();
+                    let (l, v) = (num::norm(&el.l), num::norm(&el.v));
+                    let cpsi = ((d2 - l * l - v * v) / (2.0 * l * v)).clamp(-1.0, 1.0);
+                    for bend in [1.0, -1.0] {
+                        let psi = bend * (1.0 - cpsi * cpsi).sqrt().atan2(cpsi);
+                        let phi = el.stretched + psi;
+                        let x = num::add(
+                            &el.l,
+                            &num::add(
+                                &num::scale(&el.v, phi.cos()),
+                                &num::scale(&el.hv, phi.sin()),
+                            ),
+                        );
+                        let t2 = num::dot(&k.h2, &num::cross(&x, &w)).atan2(num::dot(&x, &w));
+                        out.push([t1, t2, el.sense * phi]);
+                    }
+                } else {
+                    let p = f.polar();
+                    let pp = num::dot(&p.p, &p.p);
+                    for sign in [1.0, -1.0] {
+                        let s = -p.m + sign * (d2 - (pp - p.m * p.m)).max(0.0).sqrt();
+                        let x = num::add(&p.p, &num::scale(&p.u3, s));
+                        let t2 = num::dot(&k.h2, &num::cross(&x, &w)).atan2(num::dot(&x, &w));
+                        out.push([t1, t2, s]);
+                    }
+                }
+            }
+        }
+        Family::Cylindrical => {
+            let k = f.cylindrical();
+            let (h1, p1) = (f.h(1), f.p(1));
+            let y = num::sub(&ct, &p1);
+            let z = num::dot(&h1, &y);
+            let radial = num::sub(&y, &num::scale(&h1, z));
+            let rho2 = num::dot(&radial, &radial);
+            let w = num::add(&k.a0, &num::scale(&k.a1, z));
+            let dd = num::dot(&k.d, &k.d);
+            let dw = num::dot(&k.d, &w);
+            let closest = num::dot(&w, &w) - dw * dw / dd;
+            for sign in [1.0, -1.0] {
+                let s = (-dw + sign * dd.sqrt() * (rho2 - closest).max(0.0).sqrt()) / dd;
+                let sk = (z - k.height - k.along_j * s) / k.along_k;
+                let x = num::add(&w, &num::scale(&k.d, s));
+                let t1 = num::dot(&h1, &num::cross(&x, &radial)).atan2(num::dot(&x, &radial));
+                let mut q = [t1, 0.0, 0.0];
+                q[k.pivot - 1] = sk;
+                q[k.other - 1] = s;
+                out.push(q);
+            }
+        }
+        Family::Cartesian => {
+            let inv = f.cartesian_inverse();
+            let shift = num::sub(&ct, &f.c());
+            out.push([
+                num::dot(&inv[0], &shift),
+                num::dot(&inv[1], &shift),
+                num::dot(&inv[2], &shift),
+            ]);
+        }
+    }
+    out
+}
+
+/// Joints 4–6 (model values) from the sheet's wrist equations, both signs, for the rotation
+/// left to the wrist `r456 = (R1 R2 R3)ᵀ rot(G)`.
+fn sheet_wrist_solutions(f: &Facts, r456: &[[f64; 3]; 3]) -> Vec<[f64; 3]> {
+    let (h4, h5, h6) = (f.h(4), f.h(5), f.h(6));
+    let x6 = num::any_perpendicular(&h6);
+    let v = num::mat_mul(r456, &h6);
+    let xv = num::mat_mul(r456, &x6);
+    let c45 = num::dot(&h4, &h5);
+    let b = num::dot(&h5, &h6);
+    let den = 1.0 - c45 * c45;
+    let a = num::dot(&h4, &v);
+    let alpha = (a - c45 * b) / den;
+    let beta = (b - c45 * a) / den;
+    let hv = num::cross(&h4, &v);
+    let gamma2 = (num::dot(&hv, &hv) - (b - c45 * a).powi(2) / den) / den;
+    let gamma = gamma2.max(0.0).sqrt();
+    let n = num::cross(&h4, &h5);
+    let h6p = num::sub(&h6, &num::scale(&h5, b));
+    let mut out = Vec::new();
+    for sign in [1.0, -1.0] {
+        let z = num::add(
+            &num::add(&num::scale(&h4, alpha), &num::scale(&h5, beta)),
+            &num::scale(&n, sign * gamma),
+        );
+        let t5 = num::dot(&h5, &num::cross(&h6, &z)).atan2(num::dot(&h6p, &z));
+        let t4 = num::dot(&h4, &num::cross(&z, &v)).atan2(num::dot(&z, &v) - a * a);
+        let y = num::rotate(&h5, -t5, &num::rotate(&h4, -t4, &xv));
+        let t6 = num::dot(&h6, &num::cross(&x6, &y)).atan2(num::dot(&x6, &y));
+        out.push([t4, t5, t6]);
+    }
+    out
+}
+
+fn transpose_mul(a: &[[f64; 3]; 3], b: &[[f64; 3]; 3]) -> [[f64; 3]; 3] {
+    std::array::from_fn(|i| std::array::from_fn(|j| (0..3).map(|k| a[k][i] * b[k][j]).sum()))
+}
+
+fn mul(a: &[[f64; 3]; 3], b: &[[f64; 3]; 3]) -> [[f64; 3]; 3] {
+    std::array::from_fn(|i| std::array::from_fn(|j| (0..3).map(|k| a[i][k] * b[k][j]).sum()))
+}
+
+fn wrapped(d: f64) -> f64 {
+    d - std::f64::consts::TAU * (d / std::f64::consts::TAU).round()
+}
+
+#[test]
+fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
+    // The sheet documents the plan builders' method; evaluating its equations with its
+    // constants must reproduce joints 1–3 of every solution the solver returns.
+    for (path, text) in examples() {
+        let (model, geometry) = classified(&path, &text);
+        let solver = Solver::new(&model, &geometry);
+        let plan = solver.plan();
+        let facts = Facts::new(&plan.arm);
+        let joints = plan.arm.joints;
+        for step in 0..20 {
+            // Configurations spread over the limits (midpoints shifted by a fixed pattern).
+            let q: [f64; 6] = std::array::from_fn(|i| {
+                let [lo, hi] = joints[i].limits;
+                let (lo, hi) = (lo.max(-3.0), hi.min(3.0));
+                let t = ((step * 7 + i * 3) % 19) as f64 / 19.0;
+                lo + (hi - lo) * (0.1 + 0.8 * t)
+            });
+            let pose = solver.forward(&q);
+            let Ok(solutions) = solver.solve(&pose) else {
+                panic!("{path}: no solution for {q:?}");
+            };
+            // Wrist center target: c_t = B⁻¹ T M⁻¹ c.
+            let b = &plan.arm.base;
+            let m = &plan.arm.tool;
+            let ct = b
+                .inverse()
+                .compose(&pose)
+                .compose(&m.inverse())
+                .transform_point(&plan.arm.wrist_center);
+            let from_sheet = sheet_position_solutions(plan.arm.family, &facts, ct);
+            for s in &solutions {
+                let theta: Vec<f64> = (0..3).map(|i| joints[i].model_value(s.joints[i])).collect();
+                let found = from_sheet.iter().any(|t| {
+                    (0..3).all(|i| {
+                        let d = t[i] - theta[i];
+                        let d = match joints[i].kind {
+                            armforge_runtime::JointKind::Revolute => {
+                                d - std::f64::consts::TAU * (d / std::f64::consts::TAU).round()
+                            }
+                            armforge_runtime::JointKind::Prismatic => d,
+                        };
+                        d.abs() < 1e-9
+                    })
+                });
+                assert!(
+                    found,
+                    "{path}: solution {:?} (model values {theta:?}) not given by the sheet's \
+                     equations {from_sheet:?}",
+                    s.joints
+                );
+                if !s.flags.is_empty() {
+                    continue;
+                }
+                // The wrist: r456 = (R1 R2 R3)ᵀ rot(G), rot(G) = B_Rᵀ R_T M_Rᵀ.
+                let mut r123 = Pose::IDENTITY.rotation;
+                for (joint, q) in joints.iter().zip(&s.joints).take(3) {
+                    r123 = mul(&r123, &joint_motion(joint, *q).rotation);
+                }
+                let m_t: [[f64; 3]; 3] =
+                    std::array::from_fn(|i| std::array::from_fn(|j| m.rotation[j][i]));
+                let rot_g = mul(&transpose_mul(&b.rotation, &pose.rotation), &m_t);
+                let r456 = transpose_mul(&r123, &rot_g);
+                let wrist: Vec<f64> = (3..6).map(|i| joints[i].model_value(s.joints[i])).collect();
+                let from_sheet = sheet_wrist_solutions(&facts, &r456);
+                assert!(
+                    from_sheet
+                        .iter()
+                        .any(|t| (0..3).all(|i| wrapped(t[i] - wrist[i]).abs() < 1e-8)),
+                    "{path}: wrist {wrist:?} not given by the sheet's equations {from_sheet:?}"
+                );
+            }
+        }
+    }
+}
+
+fn armforge() -> Command {
+    Command::new(env!("CARGO_BIN_EXE_armforge"))
+}
+
+#[test]
+fn explain_prints_the_library_sheet_and_writes_files() {
+    let root = workspace();
+    let out = armforge()
+        .current_dir(&root)
+        .args(["explain", "arms/hotel-loader-axes.toml"])
+        .output()
+        .expect("armforge runs");
+    assert_eq!(out.status.code(), Some(0));
+    let text = std::fs::read_to_string(root.join("arms/hotel-loader-axes.toml")).expect("arm");
+    assert_eq!(
+        String::from_utf8_lossy(&out.stdout),
+        sheet("arms/hotel-loader-axes.toml", &text)
+    );
+    let dir = std::env::temp_dir().join(format!("armforge-explain-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).expect("temp dir");
+    let file = dir.join("sheet.md");
+    let status = armforge()
+        .current_dir(&root)
+        .args(["explain", "arms/hotel-loader-axes.toml", "-o"])
+        .arg(&file)
+        .status()
+        .expect("armforge runs");
+    assert_eq!(status.code(), Some(0));
+    assert_eq!(
+        std::fs::read_to_string(&file).expect("written"),
+        String::from_utf8_lossy(&out.stdout)
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn explain_exit_codes() {
+    let root = workspace();
+    let rejected = armforge()
+        .current_dir(&root)
+        .args(["explain", "arms/rejected/offset-wrist.toml"])
+        .output()
+        .expect("armforge runs");
+    assert_eq!(rejected.status.code(), Some(3));
+    assert!(rejected.stdout.is_empty());
+    let missing = armforge()
+        .current_dir(&root)
+        .args(["explain", "arms/no-such-arm.toml"])
+        .output()
+        .expect("armforge runs");
+    assert_eq!(missing.status.code(), Some(2));
+}
