@@ -145,7 +145,7 @@ fn round_trip(family: Family, options: &SampleOptions, expect_count: Option<usiz
 
 #[test]
 fn elbow_arms_round_trip() {
-    // Any shoulder offset: the back posture may reach less far than the front one, so only
+    // Any shoulder offset: the across posture may reach less far than the facing one, so only
     // "at most 8" holds everywhere.
     let t = round_trip(Family::Elbow, &SampleOptions::default(), Some(8));
     assert_eq!(t.most, 8);
@@ -156,7 +156,7 @@ fn elbow_arms_round_trip() {
 fn elbow_arms_have_eight_solutions_in_the_dextrous_workspace() {
     // Craig, Introduction to Robotics, 3rd ed., 2005, §4.7; Siciliano et al., Robotics, 2009,
     // §2.12: 4 arm postures × 2 wrist solutions = 8 for a 6R arm with a spherical wrist. With
-    // axis 2 meeting axis 1, the front and back postures reach the same distances, and a wrist
+    // axis 2 meeting axis 1, the facing and across postures reach the same distances, and a wrist
     // with h4 ⟂ h5 ⟂ h6 reaches every orientation, so every reachable generic pose is in the
     // dextrous workspace. (A wrist with other twist angles reaches only a band of directions
     // of axis 6 in some postures.)

@@ -434,7 +434,7 @@ fn invalid_poses_are_rejected_with_the_problem() {
 
 #[test]
 fn labels_mean_what_they_say_on_an_upright_arm() {
-    // Shoulder front: the wrist center lies ahead of axis 1 in the direction the shoulder
+    // Shoulder facing: the wrist center lies ahead of axis 1 in the direction the shoulder
     // offset points; elbow up: the elbow lies above the line from shoulder to wrist center.
     let (model, geometry) = upright_elbow_arm(0.12, 0.0);
     let solver = Solver::new(&model, &geometry);
@@ -454,10 +454,10 @@ fn labels_mean_what_they_say_on_an_upright_arm() {
                 e1.transform_point(&e2.transform_point(&e3.transform_point(&arm.wrist_center)));
             let forward = e1.rotate(&[1.0, 0.0, 0.0]);
             let ahead = forward[0] * wrist[0] + forward[1] * wrist[1];
-            assert_eq!(ahead > 0.0, s.branch.shoulder == Shoulder::Front, "{s:?}");
+            assert_eq!(ahead > 0.0, s.branch.shoulder == Shoulder::Facing, "{s:?}");
             // Up: seen from the side with the reaching direction to the right and axis 1 up,
             // the elbow lies left of the directed line from shoulder to wrist center.
-            let reach = if s.branch.shoulder == Shoulder::Front {
+            let reach = if s.branch.shoulder == Shoulder::Facing {
                 forward
             } else {
                 [-forward[0], -forward[1], -forward[2]]

@@ -1,7 +1,7 @@
 //! The solver against textbook closed forms, worked independently for the upright example
 //! arm (axis 1 vertical, shoulder and elbow axes horizontal, a wrist with axes x, y, x):
 //!
-//! * joint 1: `θ1 = atan2(y_c, x_c)` for the front posture (Spong, Hutchinson & Vidyasagar,
+//! * joint 1: `θ1 = atan2(y_c, x_c)` for the facing posture (Spong, Hutchinson & Vidyasagar,
 //!   Robot Modeling and Control, 2006, §3.3, from memory);
 //! * joints 2 and 3: the planar elbow manipulator, `cos ψ = (r² − a1² − a2²) / (2 a1 a2)` and
 //!   `θ = atan2(·) − atan2(a2 sin ψ, a1 + a2 cos ψ)` (same source, §3.3, from memory);
@@ -51,7 +51,7 @@ fn wrap(x: f64) -> f64 {
     x - TAU * (x / TAU).round()
 }
 
-/// The four front-shoulder solutions of the upright arm (shoulder offset 0.12 m, upper arm
+/// The four facing-shoulder solutions of the upright arm (shoulder offset 0.12 m, upper arm
 /// 0.40 m, forearm (0.38, 0.075) m, flange 0.09 m along x, tool rotation identity at zero).
 fn textbook(target: &Pose) -> Vec<[f64; 6]> {
     let r = &target.rotation;
@@ -85,7 +85,7 @@ fn textbook(target: &Pose) -> Vec<[f64; 6]> {
 }
 
 #[test]
-fn front_solutions_match_the_textbook_closed_forms() {
+fn facing_solutions_match_the_textbook_closed_forms() {
     let (model, geometry) = upright_elbow_arm(0.12, 0.0);
     let solver = Solver::new(&model, &geometry);
     let mut rng = SampleRng::new(2006);

@@ -76,8 +76,8 @@ fn reachable_poses_come_back_with_their_joint_values_in_file_units() {
         .iter()
         .find(|s| close_to(&joints_of(s), &q, 1e-9))
         .expect("the original among the solutions");
-    // Joint 1 at 10° keeps the wrist center on its zero-configuration side: shoulder front.
-    assert_eq!(original["branch"]["shoulder"], "front");
+    // Joint 1 at 10° keeps the wrist center on its zero-configuration side: shoulder facing.
+    assert_eq!(original["branch"]["shoulder"], "facing");
     for flag in ["wrist_aligned", "on_axis_1", "at_reach_limit"] {
         assert_eq!(original[flag], false, "{flag}");
     }
@@ -122,7 +122,10 @@ fn near_and_branch_give_one_solution() {
     assert_eq!(lines[0]["count"], 1);
     assert_eq!(&lines[0]["solutions"][0]["branch"], branch);
     assert!(close_to(&joints_of(&lines[0]["solutions"][0]), &q, 1e-9));
-    let (code, _, stderr) = run(&["solve", ARM, "--branch", "front,sideways,plus"], &line);
+    let (code, _, stderr) = run(
+        &["solve", ARM, "--branch", "facing,sideways,leading"],
+        &line,
+    );
     assert_eq!(code, Some(2));
     assert!(stderr.contains("sideways"), "{stderr}");
 }

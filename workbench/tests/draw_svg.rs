@@ -600,7 +600,7 @@ fn dump_drawings_when_asked() {
     std::fs::write(format!("{dir}/tray_arm.svg"), svg).unwrap();
     let panels: Vec<Panel> = (0..8)
         .map(|k| Panel {
-            caption: format!("{}. shoulder front, elbow up, wrist flipped", k + 1),
+            caption: format!("{}. facing, up, trailing", k + 1),
             joint_values: degrees([
                 20.0 * k as f64,
                 -30.0 + 10.0 * k as f64,

@@ -36,7 +36,7 @@ fn the_back_shoulder_is_found_when_joint_1_cannot_turn_half_a_turn_from_zero() {
     // bench-elbow: joint 1 within ±170°, wrist center 210 mm behind the flange along the tool z
     // axis. With the tool z along world x at (210, 0, 1200) mm, the wrist center is on axis 1
     // at 1200 mm height: joint 1 is free, and the back shoulder solutions need joint 1 half a
-    // turn from the front ones, so only a front value other than zero keeps both inside.
+    // turn from the facing ones, so only a facing value other than zero keeps both inside.
     let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../arms/bench-elbow-dh.toml");
     let model = load_file(std::path::Path::new(path)).expect("example arm loads");
     let solver = Solver::for_model(&model).expect("classifies");
@@ -45,7 +45,7 @@ fn the_back_shoulder_is_found_when_joint_1_cannot_turn_half_a_turn_from_zero() {
         translation: [0.21, 0.0, 1.2],
     };
     let solutions = solver.solve(&target).expect("reachable");
-    for shoulder in [Shoulder::Front, Shoulder::Back] {
+    for shoulder in [Shoulder::Facing, Shoulder::Across] {
         let found: Vec<_> = solutions
             .iter()
             .filter(|s| s.branch.shoulder == shoulder)
@@ -53,7 +53,7 @@ fn the_back_shoulder_is_found_when_joint_1_cannot_turn_half_a_turn_from_zero() {
         assert!(!found.is_empty(), "{shoulder:?} missing: {solutions:?}");
         for s in found {
             assert!(s.flags.contains(Flags::ON_AXIS_1), "{s:?}");
-            let expected = if shoulder == Shoulder::Front {
+            let expected = if shoulder == Shoulder::Facing {
                 -10.0
             } else {
                 170.0

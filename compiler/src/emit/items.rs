@@ -77,11 +77,16 @@ fn rule(r: &BranchRule) -> TokenStream {
             normal,
             point,
             wrist_center,
-            front,
+            facing,
         } => {
-            let (n, p, c, f) = (lit3(&normal), lit3(&point), lit3(&wrist_center), lit(front));
+            let (n, p, c, f) = (
+                lit3(&normal),
+                lit3(&point),
+                lit3(&wrist_center),
+                lit(facing),
+            );
             quote!(::armforge_runtime::internal::ShoulderRule::Plane {
-                normal: #n, point: #p, wrist_center: #c, front: #f,
+                normal: #n, point: #p, wrist_center: #c, facing: #f,
             })
         }
         ShoulderRule::Radial {
@@ -129,8 +134,8 @@ fn rule(r: &BranchRule) -> TokenStream {
 
 fn branch(b: &Branch) -> TokenStream {
     let shoulder = match b.shoulder {
-        Shoulder::Front => quote!(Front),
-        Shoulder::Back => quote!(Back),
+        Shoulder::Facing => quote!(Facing),
+        Shoulder::Across => quote!(Across),
         Shoulder::Only => quote!(Only),
     };
     let elbow = match b.elbow {
@@ -141,8 +146,8 @@ fn branch(b: &Branch) -> TokenStream {
         Elbow::Only => quote!(Only),
     };
     let wrist = match b.wrist {
-        Wrist::Plus => quote!(Plus),
-        Wrist::Minus => quote!(Minus),
+        Wrist::Leading => quote!(Leading),
+        Wrist::Trailing => quote!(Trailing),
     };
     quote! {
         ::armforge_runtime::Branch {

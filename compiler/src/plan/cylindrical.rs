@@ -152,13 +152,13 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let one = g.constant(1.0);
     let inv = g.div(one, safe);
     let mut out = Vec::new();
-    for (front, tag) in [(true, "p"), (false, "m")] {
+    for (facing, tag) in [(true, "p"), (false, "m")] {
         // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|².
         let kd = g.constant(1.0 / dd.sqrt());
         let r = g.mul(kd, root);
         let kw = g.constant(-1.0 / dd);
         let base = g.mul(kw, dw);
-        let s = if front {
+        let s = if facing {
             g.add(base, r)
         } else {
             g.sub(base, r)
@@ -193,7 +193,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         let (nc, ns) = rotate_onto(g, k.h1, x, y_perp);
         let c1 = g.mul(nc, inv);
         let s1 = g.mul(ns, inv);
-        let (rc, rs) = if front {
+        let (rc, rs) = if facing {
             t.reference1
         } else {
             (g.neg(t.reference1.0), g.neg(t.reference1.1))
@@ -218,10 +218,10 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
                 cos: c1,
                 sin: s1,
             }],
-            shoulder: if front {
-                Shoulder::Front
+            shoulder: if facing {
+                Shoulder::Facing
             } else {
-                Shoulder::Back
+                Shoulder::Across
             },
             elbow: Elbow::Only,
             checks: vec![CheckLayout {

@@ -80,29 +80,29 @@ fn constants(arm: &Arm) -> Constants {
     }
 }
 
-/// The label references: which sign of `(h1×h2)·(w − p1)` is `Front`, which bend is `Up`.
+/// The label references: which sign of `(h1×h2)·(w − p1)` is `Facing`, which bend is `Up`.
 fn references(arm: &Arm, k: &Constants) -> (f64, f64) {
     let c = arm.wrist_center;
-    let front = sign(num::dot(&k.beta, &num::sub(&c, &k.p1)));
+    let facing = sign(num::dot(&k.beta, &num::sub(&c, &k.p1)));
     let up = num::unit(&num::perpendicular(&k.h1, &k.h2));
     let mut forward = num::perpendicular(&num::perpendicular(&num::sub(&c, &k.p1), &k.h2), &up);
     if num::norm(&forward) < 1e-9 {
         forward = num::cross(&k.h2, &up);
     }
     let up_sign = sign(num::dot(&k.h2, &num::cross(&up, &forward)));
-    (front, up_sign)
+    (facing, up_sign)
 }
 
 /// The label rules of an elbow arm.
 pub fn rules(arm: &Arm) -> (ShoulderRule, ElbowRule) {
     let k = constants(arm);
-    let (front, up) = references(arm, &k);
+    let (facing, up) = references(arm, &k);
     (
         ShoulderRule::Plane {
             normal: k.beta,
             point: k.p1,
             wrist_center: arm.wrist_center,
-            front,
+            facing,
         },
         ElbowRule::Bend {
             sense: k.sense,
@@ -134,7 +134,7 @@ pub(crate) struct JointOne {
 /// Builds joint 1 of an elbow or polar arm.
 pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOne {
     let k = constants(arm);
-    let (front, _) = references(arm, &k);
+    let (facing, _) = references(arm, &k);
     let tol = 1e-10 * arm.scale;
     let u = vec3::add_const(g, ct, num::scale(&k.p1, -1.0));
     let u = vec3::name(g, u, "u", "u = c_t − p1");
@@ -165,7 +165,7 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
     let mut w_out = [[0; 3]; 2];
     let mut d2_out = [0; 2];
     let mut angles = [0; 2];
-    let mut shoulders = [Shoulder::Front; 2];
+    let mut shoulders = [Shoulder::Facing; 2];
     for (i, sigma) in [1.0, -1.0].into_iter().enumerate() {
         let tag = if sigma > 0.0 { "p" } else { "m" };
         let (c1, s1) = roots.roots[i];
@@ -191,10 +191,10 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
         let theta1 = g.atan2(s1, c1);
         angles[i] = g.name(theta1, &format!("q1_{tag}"), "θ1 = atan2(sin θ1, cos θ1)");
         // (h1 × h2) · (w − p1) = −σ k: the shoulder's side.
-        shoulders[i] = if -sigma == front {
-            Shoulder::Front
+        shoulders[i] = if -sigma == facing {
+            Shoulder::Facing
         } else {
-            Shoulder::Back
+            Shoulder::Across
         };
         w_out[i] = w;
         d2_out[i] = d2;
@@ -268,7 +268,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             "1 / |L + R3 V|², the squared distance of the wrist center from axis 2",
         );
         let shoulder = one_.shoulders[i];
-        let side = if shoulder == Shoulder::Front {
+        let side = if shoulder == Shoulder::Facing {
             1.0
         } else {
             -1.0

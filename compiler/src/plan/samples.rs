@@ -115,7 +115,7 @@ pub struct SampleOptions {
     /// Random joint directions (±1) and offsets.
     pub random_zero: bool,
     /// Axis 2 meets axis 1 (no offset across the shoulder; offsets along axis 2 and in the
-    /// forearm stay): the front and back postures then reach the same distances, so generic
+    /// forearm stay): the facing and across postures then reach the same distances, so generic
     /// reachable poses have all 8 solutions.
     pub shoulder_axes_meet: bool,
 }

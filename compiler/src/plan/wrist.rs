@@ -25,7 +25,7 @@ use crate::units::tidy;
 pub struct WristSolution {
     /// θ4, θ5, θ6.
     pub angles: [Id; 3],
-    /// Plus or minus.
+    /// Leading or trailing.
     pub wrist: Wrist,
     /// `≥ 0` when joint 5 is at the aligned position.
     pub aligned: Id,
@@ -268,9 +268,9 @@ pub fn solve(
             "Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)",
         );
         let wrist = if sign > 0.0 {
-            Wrist::Plus
+            Wrist::Leading
         } else {
-            Wrist::Minus
+            Wrist::Trailing
         };
         out.push(WristSolution {
             angles: [theta4, theta5, theta6],
@@ -298,7 +298,7 @@ pub fn solve(
             let t6 = g.name(t6, &format!("q6_{tag}m"), "θ6 + π (mirror wrist branch)");
             out.push(WristSolution {
                 angles: [t4, t5, t6],
-                wrist: Wrist::Minus,
+                wrist: Wrist::Trailing,
                 aligned,
                 check: None,
             });

@@ -713,8 +713,8 @@ pub fn near<const CAP: usize>(
 /// How the shoulder label is read from joint values.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum ShoulderRule {
-    /// Elbow and polar arms: the sign of `normal · (E2 E3 c − point)`; `Front` when it equals
-    /// `front` (`±1`; zero counts as positive).
+    /// Elbow and polar arms: the sign of `normal · (E2 E3 c − point)`; `Facing` when it
+    /// equals `facing` (`±1`; zero counts as positive).
     Plane {
         /// `h1 × h2`.
         normal: [f64; 3],
@@ -722,10 +722,10 @@ pub enum ShoulderRule {
         point: [f64; 3],
         /// The wrist center at zero.
         wrist_center: [f64; 3],
-        /// The sign that means `Front`.
-        front: f64,
+        /// The sign that means `Facing`.
+        facing: f64,
     },
-    /// Cylindrical arms: the sign of `direction · (E2 E3 c − point)`; `Front` when `≥ 0`.
+    /// Cylindrical arms: the sign of `direction · (E2 E3 c − point)`; `Facing` when `≥ 0`.
     Radial {
         /// The radial direction of the solved slide, ⟂ axis 1.
         direction: [f64; 3],
@@ -742,13 +742,13 @@ pub enum ShoulderRule {
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum ElbowRule {
     /// Elbow arms: bend `= sign sin(sense · θ3 − stretched)` (θ3 the model value); `Up` when
-    /// bend × (+1 front, −1 back) equals `up`.
+    /// bend × (+1 facing, −1 across) equals `up`.
     Bend {
         /// `±1`: axis 3's direction relative to axis 2.
         sense: f64,
         /// The angle of the stretched configuration about axis 2.
         stretched: f64,
-        /// The sign that means `Up` with the shoulder in front.
+        /// The sign that means `Up` with the shoulder `Facing`.
         up: f64,
     },
     /// Polar arms: `Extended` when the slide's model value is at least `nearest` (the value at
@@ -815,13 +815,13 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
             normal,
             point,
             wrist_center,
-            front,
+            facing,
         } => {
             let w = moved_center(&wrist_center);
-            if sign(dot(&normal, &sub(&w, &point))) == front {
-                Shoulder::Front
+            if sign(dot(&normal, &sub(&w, &point))) == facing {
+                Shoulder::Facing
             } else {
-                Shoulder::Back
+                Shoulder::Across
             }
         }
         ShoulderRule::Radial {
@@ -831,9 +831,9 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
         } => {
             let w = moved_center(&wrist_center);
             if dot(&direction, &sub(&w, &point)) >= 0.0 {
-                Shoulder::Front
+                Shoulder::Facing
             } else {
-                Shoulder::Back
+                Shoulder::Across
             }
         }
         ShoulderRule::Only => Shoulder::Only,
@@ -846,7 +846,7 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
         } => {
             let theta3 = joints[2].model_value(q[2]);
             let bend = sign(crate::math::sin(sense * theta3 - stretched));
-            let side = if shoulder == Shoulder::Back {
+            let side = if shoulder == Shoulder::Across {
                 -1.0
             } else {
                 1.0
@@ -870,9 +870,9 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
     let w = &rule.wrist;
     let turned = rotate(&w.axis5, theta5, &w.axis6);
     let wrist = if dot(&w.normal, &turned) >= 0.0 {
-        Wrist::Plus
+        Wrist::Leading
     } else {
-        Wrist::Minus
+        Wrist::Trailing
     };
     Branch {
         shoulder,

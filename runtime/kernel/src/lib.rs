@@ -21,9 +21,9 @@
 //! * `solve_branch(&target, branch)` → the one configuration of a branch a controller holds.
 //! * `branch_of(&joints)` → the label of any configuration; it agrees with `solve`.
 //!
-//! A [`Branch`] names the shoulder ([`Shoulder::Front`]/[`Shoulder::Back`]), the elbow
+//! A [`Branch`] names the shoulder ([`Shoulder::Facing`]/[`Shoulder::Across`]), the elbow
 //! ([`Elbow::Up`]/[`Elbow::Down`], or [`Elbow::Extended`]/[`Elbow::Retracted`] for a polar
-//! arm's slide) and the wrist ([`Wrist::Plus`]/[`Wrist::Minus`]); families with fewer choices
+//! arm's slide) and the wrist ([`Wrist::Leading`]/[`Wrist::Trailing`]); families with fewer choices
 //! say `Only`. Each variant documents its geometric definition.
 //!
 //! [`plan`] is the interpreter of solve plans; `internal` (hidden) is the support code emitted

@@ -10,19 +10,24 @@ pub const JOINTS: usize = 6;
 
 /// Which of the (up to two) solutions of the first joint choice an arm is in.
 ///
+/// Each choice has one word, used alike by the types, `Display`, JSON, `--branch`, the review
+/// sheet and the drawings ([`Shoulder::word`]).
+///
 /// * Elbow and polar arms: the wrist center's side of the plane through axis 1 spanned by
-///   axes 1 and 2 (normal `h1 × h2`). `Front` is the side on which the wrist center lies in the
-///   zero configuration, `Back` the other one (reaching over backwards).
+///   axes 1 and 2 (normal `h1 × h2`). `Facing` is the side on which the wrist center lies in
+///   the zero configuration, `Across` the other one (the wrist center reached across the
+///   plane, over or past axis 1).
 /// * Cylindrical arms: the sign of the radial slide's reach along its own direction measured
-///   from the point of the slide's line closest to axis 1: `Front` reaches out along the slide's
-///   direction, `Back` through the other side of axis 1.
+///   from the point of the slide's line closest to axis 1: `Facing` reaches out along the
+///   slide's direction, `Across` through the other side of axis 1.
 /// * Cartesian arms have no such choice: `Only`.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub enum Shoulder {
-    /// The wrist center on the side it has in the zero configuration.
-    Front,
-    /// The wrist center on the opposite side (reaching over backwards).
-    Back,
+    /// The wrist center on the side of axis 1 it has in the zero configuration.
+    Facing,
+    /// The wrist center reached across axis 1, on the side opposite to its zero-configuration
+    /// side.
+    Across,
     /// The arm's family has a single shoulder solution.
     Only,
 }
@@ -31,9 +36,9 @@ pub enum Shoulder {
 ///
 /// * Elbow arms: the sign of the elbow bend measured from the stretched configuration (the
 ///   angle from the upper arm to the forearm about axis 2). `Up` puts the elbow on the side of
-///   the shoulder–wrist-center line toward axis 1's direction when the shoulder is in front;
-///   the label follows the arm when it reaches over backwards, so `Up` keeps meaning "the
-///   elbow above the line" for an arm whose axis 1 points up.
+///   the shoulder–wrist-center line toward axis 1's direction when the shoulder is `Facing`;
+///   the label follows the arm when it reaches across, so `Up` keeps meaning "the elbow above
+///   the line" for an arm whose axis 1 points up.
 /// * Polar arms: which root of the slide's length: `Extended` the larger, `Retracted` the
 ///   smaller (the slide passing the wrist center's nearest approach to axis 2).
 /// * Cylindrical and cartesian arms: `Only`.
@@ -51,22 +56,87 @@ pub enum Elbow {
     Only,
 }
 
-/// Which of the two wrist solutions an arm is in: the sign of joint 5's angle measured from
-/// the aligned position (where axes 4 and 6 line up), in the sense of `h4 × h5`:
-/// `Plus` when `(h4 × h5) · R5(θ5) h6 ≥ 0` (all vectors as seen after joint 4), `Minus`
-/// otherwise.
+/// Which of the two wrist solutions an arm is in: the side of the aligned position (where
+/// axes 4 and 6 line up) joint 5 is turned to. `Leading` when axis 6 leans toward `h4 × h5`,
+/// i.e. `(h4 × h5) · R5(θ5) h6 ≥ 0` (all vectors as seen after joint 4), `Trailing`
+/// otherwise (axis 6 leaning away from `h4 × h5`).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub enum Wrist {
-    /// Joint 5 turned to the positive side of the aligned position.
-    Plus,
-    /// Joint 5 turned to the negative side of the aligned position.
-    Minus,
+    /// Joint 5 turned so that axis 6 leans toward `h4 × h5` (or aligned).
+    Leading,
+    /// Joint 5 turned so that axis 6 leans away from `h4 × h5`.
+    Trailing,
+}
+
+impl Shoulder {
+    /// Every shoulder choice, in the order of [`Shoulder::word`]'s documentation.
+    pub const ALL: [Shoulder; 3] = [Shoulder::Facing, Shoulder::Across, Shoulder::Only];
+
+    /// The choice's one word: `facing`, `across` or `only`.
+    pub const fn word(self) -> &'static str {
+        match self {
+            Shoulder::Facing => "facing",
+            Shoulder::Across => "across",
+            Shoulder::Only => "only",
+        }
+    }
+
+    /// The choice named by `word` (as [`Shoulder::word`] writes it).
+    pub fn from_word(word: &str) -> Option<Shoulder> {
+        Shoulder::ALL.into_iter().find(|c| c.word() == word)
+    }
+}
+
+impl Elbow {
+    /// Every elbow choice.
+    pub const ALL: [Elbow; 5] = [
+        Elbow::Up,
+        Elbow::Down,
+        Elbow::Extended,
+        Elbow::Retracted,
+        Elbow::Only,
+    ];
+
+    /// The choice's one word: `up`, `down`, `extended`, `retracted` or `only`.
+    pub const fn word(self) -> &'static str {
+        match self {
+            Elbow::Up => "up",
+            Elbow::Down => "down",
+            Elbow::Extended => "extended",
+            Elbow::Retracted => "retracted",
+            Elbow::Only => "only",
+        }
+    }
+
+    /// The choice named by `word` (as [`Elbow::word`] writes it).
+    pub fn from_word(word: &str) -> Option<Elbow> {
+        Elbow::ALL.into_iter().find(|c| c.word() == word)
+    }
+}
+
+impl Wrist {
+    /// Both wrist choices.
+    pub const ALL: [Wrist; 2] = [Wrist::Leading, Wrist::Trailing];
+
+    /// The choice's one word: `leading` or `trailing`.
+    pub const fn word(self) -> &'static str {
+        match self {
+            Wrist::Leading => "leading",
+            Wrist::Trailing => "trailing",
+        }
+    }
+
+    /// The choice named by `word` (as [`Wrist::word`] writes it).
+    pub fn from_word(word: &str) -> Option<Wrist> {
+        Wrist::ALL.into_iter().find(|c| c.word() == word)
+    }
 }
 
 /// The branch label of a configuration: the choice at the shoulder, the elbow and the wrist.
 ///
 /// A label is a function of the joint values alone (see each solver's `branch_of`), so a
-/// controller can hold one branch while it moves.
+/// controller can hold one branch while it moves. It displays as the three words separated by
+/// commas (`facing, up, leading`), the words `armforge solve --branch` reads.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub struct Branch {
     /// Shoulder choice.
@@ -79,23 +149,13 @@ pub struct Branch {
 
 impl fmt::Display for Branch {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        let shoulder = match self.shoulder {
-            Shoulder::Front => "shoulder front",
-            Shoulder::Back => "shoulder back",
-            Shoulder::Only => "shoulder single",
-        };
-        let elbow = match self.elbow {
-            Elbow::Up => "elbow up",
-            Elbow::Down => "elbow down",
-            Elbow::Extended => "slide extended",
-            Elbow::Retracted => "slide retracted",
-            Elbow::Only => "elbow single",
-        };
-        let wrist = match self.wrist {
-            Wrist::Plus => "wrist plus",
-            Wrist::Minus => "wrist minus",
-        };
-        write!(f, "{shoulder}, {elbow}, {wrist}")
+        write!(
+            f,
+            "{}, {}, {}",
+            self.shoulder.word(),
+            self.elbow.word(),
+            self.wrist.word()
+        )
     }
 }
 
@@ -154,7 +214,7 @@ impl Solution {
         branch: Branch {
             shoulder: Shoulder::Only,
             elbow: Elbow::Only,
-            wrist: Wrist::Plus,
+            wrist: Wrist::Leading,
         },
         flags: Flags::NONE,
     };

@@ -467,7 +467,7 @@ fn candidates(
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Only,
                 elbow: ::armforge_runtime::Elbow::Only,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -487,7 +487,7 @@ fn candidates(
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Only,
                 elbow: ::armforge_runtime::Elbow::Only,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {

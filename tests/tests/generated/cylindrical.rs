@@ -766,9 +766,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, slide2_p, slide3_p, q4_b1p, q5_b1p, q6_b1p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Only,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -790,9 +790,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, slide2_p, slide3_p, q4_b1m, q5_b1m, q6_b1m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Only,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -814,9 +814,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, slide2_m, slide3_m, q4_b2p, q5_b2p, q6_b2p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Only,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -838,9 +838,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, slide2_m, slide3_m, q4_b2m, q5_b2m, q6_b2m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Only,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {

@@ -121,7 +121,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         normal: [0.25138098356734706, 0.29998222105922023, -0.783405601408612],
         point: [-0.12610473873370642, -0.14855515348839365, 0.09120285126503383],
         wrist_center: [-0.7369762517508439, 0.29055493040836866, 0.3059935384078808],
-        front: -1.0,
+        facing: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Bend {
         sense: -1.0,
@@ -1009,9 +1009,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1037,9 +1037,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1065,9 +1065,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1093,9 +1093,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1121,9 +1121,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1149,9 +1149,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1177,9 +1177,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1205,9 +1205,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {

@@ -121,7 +121,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         normal: [0.07772687934296175, -0.5727563020289683, 0.0048757245008763175],
         point: [-0.05414621230012627, 0.0007842334702639602, 0.06836364393080274],
         wrist_center: [0.4773750824304897, 0.2365542490704434, -0.12338449690051963],
-        front: -1.0,
+        facing: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Bend {
         sense: 1.0,
@@ -1319,9 +1319,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1351,9 +1351,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1383,9 +1383,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1415,9 +1415,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1447,9 +1447,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1479,9 +1479,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1511,9 +1511,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1543,9 +1543,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {

@@ -121,7 +121,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         normal: [0.34053123949945474, 0.5665013041999709, -0.6810061803766807],
         point: [0.05174928778435288, 0.10106495215777812, -0.16109142656675932],
         wrist_center: [-0.8342317670431972, 0.37936098520415545, 0.38476990157572766],
-        front: -1.0,
+        facing: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Bend {
         sense: 1.0,
@@ -1022,9 +1022,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1050,9 +1050,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1078,9 +1078,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1106,9 +1106,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1134,9 +1134,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1162,9 +1162,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1190,9 +1190,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1218,9 +1218,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {

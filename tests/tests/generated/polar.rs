@@ -121,7 +121,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         normal: [-0.23403204910039818, 0.48292443904485405, -0.33044529346519896],
         point: [-0.12107082938914343, 0.14917046818868374, 0.05599637759668776],
         wrist_center: [0.23724692405229514, 0.2862502386349305, 0.5978534526703301],
-        front: -1.0,
+        facing: -1.0,
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Slide {
         nearest: -0.2750702190093362,
@@ -1264,9 +1264,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Extended,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1292,9 +1292,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Extended,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1320,9 +1320,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Retracted,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1348,9 +1348,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Front,
+                shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Retracted,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1376,9 +1376,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Extended,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1404,9 +1404,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Extended,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1432,9 +1432,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Retracted,
-                wrist: ::armforge_runtime::Wrist::Plus,
+                wrist: ::armforge_runtime::Wrist::Leading,
             },
             checks: [
                 ::armforge_runtime::internal::Check {
@@ -1460,9 +1460,9 @@ fn candidates(
         ::armforge_runtime::internal::Candidate {
             model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
             branch: ::armforge_runtime::Branch {
-                shoulder: ::armforge_runtime::Shoulder::Back,
+                shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Retracted,
-                wrist: ::armforge_runtime::Wrist::Minus,
+                wrist: ::armforge_runtime::Wrist::Trailing,
             },
             checks: [
                 ::armforge_runtime::internal::Check {

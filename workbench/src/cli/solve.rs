@@ -5,8 +5,8 @@
 //! stdin and writes one line per input:
 //!
 //! ```text
-//! {"status": "ok", "count": 8, "solutions": [{"joints": [...], "branch": {"shoulder": "front",
-//!   "elbow": "up", "wrist": "plus"}, "wrist_aligned": false, "on_axis_1": false,
+//! {"status": "ok", "count": 8, "solutions": [{"joints": [...], "branch": {"shoulder": "facing",
+//!   "elbow": "up", "wrist": "leading"}, "wrist_aligned": false, "on_axis_1": false,
 //!   "at_reach_limit": false}, ...]}
 //! {"status": "beyond_reach", "reason": "...", "by": 12.5, "unit": "mm", "count": 0, "solutions": []}
 //! ```
@@ -94,46 +94,45 @@ fn mode(model: &Model, args: &Args) -> Result<Mode, String> {
     Ok(Mode::All)
 }
 
-/// Reads `SHOULDER,ELBOW,WRIST`, e.g. `front,up,plus`.
+/// Reads `SHOULDER,ELBOW,WRIST`, e.g. `facing,up,leading` (the words of
+/// [`Shoulder::word`], [`Elbow::word`] and [`Wrist::word`]).
 fn parse_branch(text: &str) -> Result<Branch, String> {
     let words: Vec<&str> = text.split(',').map(str::trim).collect();
     let [shoulder, elbow, wrist] = words.as_slice() else {
         return Err(format!(
-            "--branch needs three words SHOULDER,ELBOW,WRIST (e.g. front,up,plus), found \"{text}\""
+            "--branch needs three words SHOULDER,ELBOW,WRIST (e.g. facing,up,leading), found \"{text}\""
         ));
     };
-    let shoulder = match *shoulder {
-        "front" => Shoulder::Front,
-        "back" => Shoulder::Back,
-        "single" => Shoulder::Only,
-        other => {
-            return Err(format!(
-                "--branch: unknown shoulder \"{other}\" (front, back, single)"
-            ))
-        }
-    };
-    let elbow = match *elbow {
-        "up" => Elbow::Up,
-        "down" => Elbow::Down,
-        "extended" => Elbow::Extended,
-        "retracted" => Elbow::Retracted,
-        "single" => Elbow::Only,
-        other => {
-            return Err(format!(
-                "--branch: unknown elbow \"{other}\" (up, down, extended, retracted, single)"
-            ))
-        }
-    };
-    let wrist = match *wrist {
-        "plus" => Wrist::Plus,
-        "minus" => Wrist::Minus,
-        other => return Err(format!("--branch: unknown wrist \"{other}\" (plus, minus)")),
-    };
     Ok(Branch {
-        shoulder,
-        elbow,
-        wrist,
+        shoulder: read_word(
+            "shoulder",
+            shoulder,
+            Shoulder::from_word,
+            Shoulder::ALL.map(Shoulder::word),
+        )?,
+        elbow: read_word(
+            "elbow",
+            elbow,
+            Elbow::from_word,
+            Elbow::ALL.map(Elbow::word),
+        )?,
+        wrist: read_word(
+            "wrist",
+            wrist,
+            Wrist::from_word,
+            Wrist::ALL.map(Wrist::word),
+        )?,
     })
+}
+
+/// One choice of `--branch`, or what is wrong with it.
+fn read_word<T, const N: usize>(
+    slot: &str,
+    word: &str,
+    read: fn(&str) -> Option<T>,
+    known: [&str; N],
+) -> Result<T, String> {
+    read(word).ok_or_else(|| format!("--branch: unknown {slot} \"{word}\" ({})", known.join(", ")))
 }
 
 /// The target pose of one input line (SI), or what is wrong with the line.
@@ -271,26 +270,10 @@ fn solution_json(model: &Model, s: &Solution) -> Line {
 
 /// A branch label as JSON words (the words `--branch` reads).
 fn branch_json(b: &Branch) -> Line {
-    let shoulder = match b.shoulder {
-        Shoulder::Front => "front",
-        Shoulder::Back => "back",
-        Shoulder::Only => "single",
-    };
-    let elbow = match b.elbow {
-        Elbow::Up => "up",
-        Elbow::Down => "down",
-        Elbow::Extended => "extended",
-        Elbow::Retracted => "retracted",
-        Elbow::Only => "single",
-    };
-    let wrist = match b.wrist {
-        Wrist::Plus => "plus",
-        Wrist::Minus => "minus",
-    };
     Line::new()
-        .with("shoulder", json!(shoulder))
-        .with("elbow", json!(elbow))
-        .with("wrist", json!(wrist))
+        .with("shoulder", json!(b.shoulder.word()))
+        .with("elbow", json!(b.elbow.word()))
+        .with("wrist", json!(b.wrist.word()))
 }
 
 /// Why a target has no solution, with the amount in the file's units.

@@ -76,7 +76,7 @@ fn size(q: &[f64]) -> f64 {
     q.iter().map(|x| x.abs()).sum()
 }
 
-/// `2 of 4: shoulder front, elbow down, wrist plus`, with any singular condition.
+/// `2 of 4: facing, down, leading`, with any singular condition.
 fn caption(k: usize, count: usize, solution: &Solution) -> String {
     let mut caption = format!("{} of {count}: {}", k + 1, solution.branch);
     for (flag, words) in [
@@ -128,7 +128,7 @@ mod tests {
         Solution {
             joints,
             branch: Branch {
-                shoulder: Shoulder::Front,
+                shoulder: Shoulder::Facing,
                 elbow: Elbow::Up,
                 wrist,
             },
@@ -146,33 +146,27 @@ mod tests {
         let panels = solution_panels(
             &six_revolute(),
             &[
-                solution(turned, Wrist::Plus),
-                solution(other, Wrist::Minus),
-                solution(q, Wrist::Plus),
+                solution(turned, Wrist::Leading),
+                solution(other, Wrist::Trailing),
+                solution(q, Wrist::Leading),
             ],
         );
         assert_eq!(panels.len(), 2);
         assert_eq!(panels[0].joint_values, q.to_vec());
         assert_eq!(panels[0].alternatives, vec![turned.to_vec()]);
-        assert_eq!(
-            panels[0].caption,
-            "1 of 2: shoulder front, elbow up, wrist plus"
-        );
-        assert_eq!(
-            panels[1].caption,
-            "2 of 2: shoulder front, elbow up, wrist minus"
-        );
+        assert_eq!(panels[0].caption, "1 of 2: facing, up, leading");
+        assert_eq!(panels[1].caption, "2 of 2: facing, up, trailing");
         assert!(panels[1].alternatives.is_empty());
     }
 
     #[test]
     fn singular_conditions_are_named_in_the_caption() {
-        let mut s = solution([0.0; 6], Wrist::Plus);
+        let mut s = solution([0.0; 6], Wrist::Leading);
         s.flags = Flags::WRIST_ALIGNED.union(Flags::AT_REACH_LIMIT);
         let panels = solution_panels(&six_revolute(), &[s]);
         assert_eq!(
             panels[0].caption,
-            "1 of 1: shoulder front, elbow up, wrist plus (wrist aligned) (at the reach limit)"
+            "1 of 1: facing, up, leading (wrist aligned) (at the reach limit)"
         );
     }
 
@@ -183,7 +177,7 @@ mod tests {
         half[3] += PI;
         let panels = solution_panels(
             &six_revolute(),
-            &[solution(q, Wrist::Plus), solution(half, Wrist::Plus)],
+            &[solution(q, Wrist::Leading), solution(half, Wrist::Leading)],
         );
         assert_eq!(panels.len(), 2);
     }

@@ -28,18 +28,18 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
         ShoulderRule::Plane {
             normal,
             point,
-            front,
+            facing,
             ..
         } => {
             let _ = writeln!(
                 out,
-                "| shoulder | front / back | the side of the plane through axis 1 spanned by \
+                "| shoulder | facing / across | the side of the plane through axis 1 spanned by \
                  axes 1 and 2 on which the wrist center lies: the sign of `(h1 × h2) · (E2 E3 c \
-                 − p1)`; front is the side it has with every joint at zero | `h1 × h2` = {}, \
-                 `p1` = {}, front when the sign is {} |",
+                 − p1)`; facing is the side it has with every joint at zero, across the other \
+                 side | `h1 × h2` = {}, `p1` = {}, facing when the sign is {} |",
                 s.dir(&normal),
                 s.point(&point),
-                sign_word(front)
+                sign_word(facing)
             );
         }
         ShoulderRule::Radial {
@@ -47,16 +47,16 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
         } => {
             let _ = writeln!(
                 out,
-                "| shoulder | front / back | the sign of the radial slide's reach along its \
+                "| shoulder | facing / across | the sign of the radial slide's reach along its \
                  own direction from the point of its line nearest axis 1: `D · (E2 E3 c − p1)` \
-                 ≥ 0 is front (reaching out), < 0 back (through the other side of axis 1) | \
+                 ≥ 0 is facing (reaching out), < 0 across (through the other side of axis 1) | \
                  `D` = {}, `p1` = {} |",
                 s.dir(&direction),
                 s.point(&point)
             );
         }
         ShoulderRule::Only => {
-            let _ = writeln!(out, "| shoulder | single | no choice (cartesian arm) | — |");
+            let _ = writeln!(out, "| shoulder | only | no choice (cartesian arm) | — |");
         }
     }
     match rule.elbow {
@@ -69,8 +69,8 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
                 out,
                 "| elbow | up / down | the sign of the bend from the stretched arm, `bend = \
                  sign sin(s3 θ3 − φ0)`; up is the elbow on the side of the shoulder–wrist-center \
-                 line toward axis 1's direction with the shoulder in front, and follows the arm \
-                 when it reaches over backwards: up when `bend × (+1 front, −1 back)` equals \
+                 line toward axis 1's direction with the shoulder facing, and follows the arm \
+                 when it reaches across: up when `bend × (+1 facing, −1 across)` equals \
                  the sign in the last column | `s3` = {}, `φ0` = {}, up when {} |",
                 s.num(sense),
                 s.angle(stretched),
@@ -80,7 +80,7 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
         ElbowRule::Slide { nearest } => {
             let _ = writeln!(
                 out,
-                "| slide | extended / retracted | which root of the slide's quadratic: extended \
+                "| elbow | extended / retracted | which root of the slide's quadratic: extended \
                  the longer (`θ3 ≥ −m`, past the wrist center's nearest approach to axis 2), \
                  retracted the shorter | `−m` = {} |",
                 s.len(nearest)
@@ -89,7 +89,7 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
         ElbowRule::Only => {
             let _ = writeln!(
                 out,
-                "| elbow | single | no choice ({} arm) | — |",
+                "| elbow | only | no choice ({} arm) | — |",
                 family(plan)
             );
         }
@@ -97,8 +97,9 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
     let w = rule.wrist;
     let _ = writeln!(
         out,
-        "| wrist | plus / minus | the side of the aligned position joint 5 is turned to: plus \
-         when `(h4 × h5) · R(h5, θ5) h6 ≥ 0` (vectors at zero) | `h4 × h5` = {}, `h5` = {}, \
+        "| wrist | leading / trailing | the side of the aligned position joint 5 is turned to: \
+         leading when axis 6 leans toward `h4 × h5`, `(h4 × h5) · R(h5, θ5) h6 ≥ 0` (vectors at \
+         zero), trailing otherwise | `h4 × h5` = {}, `h5` = {}, \
          `h6` = {} |\n",
         s.dir(&w.normal),
         s.dir(&w.axis5),

@@ -375,7 +375,7 @@ fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
             "β  = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)".into(),
             "γ² (1 − (h4·h5)²) = 1 − α² − β² − 2 α β (h4·h5)                  (|z| = 1)".into(),
             "                  = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)".into(),
-            "z  = α h4 + β h5 ± γ (h4 × h5)          (+ wrist plus, − wrist minus)".into(),
+            "z  = α h4 + β h5 ± γ (h4 × h5)          (+ leading, − trailing)".into(),
             "θ5 = atan2(h5 · (h6 × z), h6⊥h5 · z)     (Paden–Kahan 1: h6 onto z about h5)".into(),
             "θ4 = atan2(h4 · (z × v), z · v − a²)     (Paden–Kahan 1: z onto v about h4)".into(),
             "y  = R5ᵀ R4ᵀ R456 x6,  θ6 = atan2(h6 · (x6 × y), x6 · y)   (x6 ⟂ h6)".into(),
@@ -404,7 +404,7 @@ fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
     ];
     if c45.abs() < 1e-12 && b.abs() < 1e-12 {
         lines.push(format!(
-            "right-angled wrist: α = a, β = 0, and the minus branch is (θ4 + 180°, 2 θa − θ5, \
+            "right-angled wrist: α = a, β = 0, and the trailing branch is (θ4 + 180°, 2 θa − θ5, \
              θ6 + 180°) with θa = {}",
             s.angle(f.aligned_at())
         ));
