@@ -59,8 +59,14 @@ pub struct Bindings {
 impl Bindings {
     /// Named nodes and nodes used more than once get a `let` (constants never do).
     pub fn new(g: &Graph, extra_uses: &[Id]) -> Bindings {
+        Bindings::within(g, extra_uses, &vec![true; g.nodes().len()])
+    }
+
+    /// [`Bindings::new`] for the part of the graph marked `live` (what one branch needs):
+    /// uses are counted within that part only.
+    pub fn within(g: &Graph, extra_uses: &[Id], live: &[bool]) -> Bindings {
         let mut uses = vec![0usize; g.nodes().len()];
-        for node in g.nodes() {
+        for (node, _) in g.nodes().iter().zip(live).filter(|(_, &l)| l) {
             for o in operands(&node.op) {
                 uses[o as usize] += 1;
             }
@@ -70,7 +76,7 @@ impl Bindings {
         }
         let mut names = BTreeMap::new();
         for (i, node) in g.nodes().iter().enumerate() {
-            if matches!(node.op, Op::Const(_)) {
+            if matches!(node.op, Op::Const(_)) || !live[i] {
                 continue;
             }
             if let Some(name) = &node.name {
