@@ -46,6 +46,13 @@ pub fn literal(x: f64) -> (TokenStream, Prec) {
     }
 }
 
+/// A call of the runtime's scalar math (`sqrt`, `atan2`, `sin_cos`, …): every math call the
+/// emitter prints goes through here, so the scalar type is chosen in one place.
+pub fn math_call(function: &str, args: &[TokenStream]) -> TokenStream {
+    let f = format_ident!("{}", function);
+    quote!(::armforge_runtime::math::#f(#(#args),*))
+}
+
 /// An unsuffixed integer literal.
 pub fn index(i: usize) -> proc_macro2::Literal {
     proc_macro2::Literal::usize_unsuffixed(i)
@@ -166,25 +173,12 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
             let x = wrap(r(x), Prec::Atom);
             (quote!(-#x), Prec::Unary)
         }
-        Op::Abs(x) => {
-            let x = r(x).0;
-            (quote!(::armforge_runtime::math::abs(#x)), Prec::Atom)
-        }
-        Op::Sqrt(x) => {
-            let x = r(x).0;
-            (quote!(::armforge_runtime::math::sqrt(#x)), Prec::Atom)
-        }
-        Op::Atan2(y, x) => {
-            let (y, x) = (r(y).0, r(x).0);
-            (quote!(::armforge_runtime::math::atan2(#y, #x)), Prec::Atom)
-        }
+        Op::Abs(x) => (math_call("abs", &[r(x).0]), Prec::Atom),
+        Op::Sqrt(x) => (math_call("sqrt", &[r(x).0]), Prec::Atom),
+        Op::Atan2(y, x) => (math_call("atan2", &[r(y).0, r(x).0]), Prec::Atom),
         Op::Min(m, hi) if clamp_parts(g, b, m, hi).is_some() => {
             let (x, lo) = clamp_parts(g, b, m, hi).unwrap_or((m, hi));
-            let (x, lo, hi) = (r(x).0, r(lo).0, r(hi).0);
-            (
-                quote!(::armforge_runtime::math::clamp(#x, #lo, #hi)),
-                Prec::Atom,
-            )
+            (math_call("clamp", &[r(x).0, r(lo).0, r(hi).0]), Prec::Atom)
         }
         Op::Min(x, y) => {
             let (x, y) = (wrap(r(x), Prec::Atom), r(y).0);

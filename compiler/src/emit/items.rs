@@ -221,11 +221,19 @@ fn candidate(plan: &Plan, b: &Bindings, c: &CandidateLayout) -> TokenStream {
     }
 }
 
-/// One `let` per bound node, in evaluation order, and the notes of the named steps.
-fn lets(g: &Graph, b: &Bindings) -> (Vec<TokenStream>, BTreeMap<String, String>) {
+/// One `let` per bound node, in evaluation order, and the notes of the named steps; inputs
+/// are left out unless `with_inputs` (the caller binds them itself).
+pub(super) fn lets(
+    g: &Graph,
+    b: &Bindings,
+    with_inputs: bool,
+) -> (Vec<TokenStream>, BTreeMap<String, String>) {
     let mut notes = BTreeMap::new();
     let mut lets = Vec::new();
     for (&id, name) in b.bound() {
+        if !with_inputs && matches!(g.op(id), armforge_runtime::plan::Op::Input(_)) {
+            continue;
+        }
         let ident = format_ident!("{}", name);
         let value = definition(g, b, id).0;
         lets.push(quote!(let #ident = #value;));
@@ -240,7 +248,7 @@ fn lets(g: &Graph, b: &Bindings) -> (Vec<TokenStream>, BTreeMap<String, String>)
 
 /// The lints a straight-line solver body trips by nature (long, many short names, literals
 /// as the description wrote them).
-fn body_lints() -> TokenStream {
+pub(super) fn lint_allowances() -> TokenStream {
     quote! {
         #[allow(
             clippy::approx_constant,
@@ -258,14 +266,14 @@ fn body_lints() -> TokenStream {
 fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
     let g = &plan.graph;
     let b = Bindings::new(g, &candidate_uses(&plan.candidates));
-    let (lets, notes) = lets(g, &b);
+    let (lets, notes) = lets(g, &b, true);
     let candidates: Vec<TokenStream> = plan
         .candidates
         .iter()
         .map(|c| candidate(plan, &b, c))
         .collect();
     let n = super::expr::index(plan.candidates.len());
-    let lints = body_lints();
+    let lints = lint_allowances();
     let body = quote! {
         /// The closed-form steps: every branch's candidate, in model values.
         #lints
@@ -290,14 +298,18 @@ fn branch_fn_name(k: usize) -> proc_macro2::Ident {
 /// one elbow root, one wrist root).
 fn branch_bodies(plan: &Plan) -> TokenStream {
     let g = &plan.graph;
-    let lints = body_lints();
+    let lints = lint_allowances();
     let fns = plan.candidates.iter().enumerate().map(|(k, c)| {
         let uses = candidate_uses(std::slice::from_ref(c));
         let b = Bindings::within(g, &uses, &g.needed(&uses));
-        let (lets, _) = lets(g, &b);
+        let (lets, _) = lets(g, &b, true);
         let value = candidate(plan, &b, c);
         let name = branch_fn_name(k);
-        let doc = format!(" The closed-form steps of branch {} alone ({}).", k + 1, c.branch);
+        let doc = format!(
+            " The closed-form steps of branch {} alone ({}).",
+            k + 1,
+            c.branch
+        );
         quote! {
             #[doc = #doc]
             #lints
@@ -410,6 +422,7 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
     let (body, notes) = solver_body(plan);
     let branches = branch_bodies(plan);
     let branch_api = branch_api(plan);
+    let forward = super::forward::function(&plan.arm.joints, &plan.arm.base, &plan.arm.tool);
     let test = if with_test {
         super::selftest::module(plan.arm.scale)
     } else {
@@ -448,10 +461,8 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const ZERO_REFERENCE: [f64; 4] = [#(#zero),*];
 
-        /// Forward kinematics: the tool pose in the world for joint values (SI units).
-        pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-            ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
-        }
+        #forward
+
 
         /// Every solution within the joint limits (equivalent angles included), each with its
         /// branch label and flags; or none, with the reason. At a singular pose the free

@@ -497,16 +497,7 @@ pub fn finish(
         if !inside {
             continue;
         }
-        let mut flags = Flags::NONE;
-        if c.wrist_aligned {
-            flags = flags.union(Flags::WRIST_ALIGNED);
-        }
-        if c.on_axis_1 {
-            flags = flags.union(Flags::ON_AXIS_1);
-        }
-        if at_limit {
-            flags = flags.union(Flags::AT_REACH_LIMIT);
-        }
+        let flags = flags_of(c, at_limit);
         len = push_combinations(
             joints, settings, &values, &counts, c.branch, flags, out, len,
         );
@@ -636,40 +627,24 @@ pub fn collect<const CAP: usize>(
     set
 }
 
-/// The first solution of one branch (the one nearest the joints' range centers comes first
-/// among equivalent angles is not guaranteed; the first listed is returned).
+/// Sum of squared joint distances (wrap-aware for revolute joints with at most one turn of
+/// range).
 #[inline]
-pub fn first_of_branch<const CAP: usize>(
+fn distance(
     joints: &[Joint; JOINTS],
     settings: &Settings,
-    candidates: &[Candidate],
-    branch: Branch,
-) -> Result<Solution, Unreachable> {
-    let mut storage = [Solution::EMPTY; CAP];
-    let len = finish(joints, settings, candidates, Some(branch), &mut storage)?;
-    nearest_to_center(joints, settings, storage.get(..len).unwrap_or(&[]))
-        .ok_or(Unreachable::BranchUnavailable)
-}
-
-/// Of several solutions, the one whose joints are closest to the centers of their ranges
-/// (a controller's natural pick among equivalent angles).
-fn nearest_to_center(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    solutions: &[Solution],
-) -> Option<Solution> {
-    let mut center = [0.0; JOINTS];
-    for (c, j) in center.iter_mut().zip(joints.iter()) {
-        let [lo, hi] = j.limits;
-        if lo.is_finite() && hi.is_finite() {
-            *c = 0.5 * (lo + hi);
-        }
+    a: &[f64; JOINTS],
+    b: &[f64; JOINTS],
+) -> f64 {
+    let mut d = 0.0;
+    for i in 0..JOINTS {
+        let e = joint_distance(&joints[i], a[i], b[i], settings.limit_tolerance);
+        d += e * e;
     }
-    nearest(joints, settings, solutions, &center)
+    d
 }
 
-/// The solution nearest to `current` (sum of squared joint distances, wrap-aware for revolute
-/// joints with at most one turn of range).
+/// The solution nearest to `current` (see [`distance`]).
 #[inline]
 pub fn nearest(
     joints: &[Joint; JOINTS],
@@ -679,16 +654,7 @@ pub fn nearest(
 ) -> Option<Solution> {
     let mut best: Option<(f64, Solution)> = None;
     for s in solutions {
-        let mut d = 0.0;
-        for i in 0..JOINTS {
-            let e = joint_distance(
-                &joints[i],
-                s.joints[i],
-                current[i],
-                settings.limit_tolerance,
-            );
-            d += e * e;
-        }
+        let d = distance(joints, settings, &s.joints, current);
         if best.map_or(true, |(b, _)| d < b) {
             best = Some((d, *s));
         }
@@ -696,19 +662,130 @@ pub fn nearest(
     best.map(|(_, s)| s)
 }
 
-/// The solution nearest to `current` among all solutions of a target, or the reason.
-#[inline]
-pub fn near<const CAP: usize>(
+/// The values each joint is wrapped toward by `solve_branch` and `solve`: the centers of the
+/// ranges (zero for an unlimited joint). Among equivalent angles of a joint whose range
+/// exceeds a turn, the one nearest the center is the one within half a turn of it.
+#[inline(always)]
+pub fn centers(joints: &[Joint; JOINTS]) -> [f64; JOINTS] {
+    let mut out = [0.0; JOINTS];
+    for (c, j) in out.iter_mut().zip(joints.iter()) {
+        *c = Finishing::of(j, 0.0).center;
+    }
+    out
+}
+
+/// The values each joint is wrapped toward by `solve_near`: for a revolute joint whose range
+/// exceeds a turn, `current` clamped to `[lo + π, hi − π]` (so the equivalent within half a
+/// turn of it is the in-range one nearest `current`); otherwise the range's center. A
+/// non-finite `current` counts as the center.
+#[inline(always)]
+pub fn anchors_near(joints: &[Joint; JOINTS], current: &[f64; JOINTS], tol: f64) -> [f64; JOINTS] {
+    let mut out = [0.0; JOINTS];
+    for ((a, j), q) in out.iter_mut().zip(joints.iter()).zip(current.iter()) {
+        let f = Finishing::of(j, tol);
+        *a = if f.lists && q.is_finite() {
+            crate::math::clamp(*q, f.lo + PI, f.hi - PI)
+        } else {
+            f.center
+        };
+    }
+    out
+}
+
+/// One candidate finished: its checks, its joint values (each revolute value the equivalent
+/// within half a turn of `anchor`), the limits, its flags; or why it is not a solution.
+///
+/// Written for constant tables: inlined into an emitted solver with `JOINT_TABLE` and
+/// `SETTINGS`, every offset, direction, center and limit folds into the code, the per-joint
+/// loop unrolls and the revolute/prismatic choice disappears.
+#[inline(always)]
+pub fn finish_one(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    c: &Candidate,
+    anchor: &[f64; JOINTS],
+) -> Result<Solution, Unreachable> {
+    let Some(at_limit) = passes(&c.checks, settings) else {
+        return Err(failure_of_one(joints, settings, c));
+    };
+    let tol = settings.limit_tolerance;
+    let mut values = [0.0; JOINTS];
+    let mut inside = true;
+    for i in 0..JOINTS {
+        let j = &joints[i];
+        let q = (c.model_values[i] - j.offset) * j.direction;
+        let v = if j.kind == JointKind::Revolute {
+            wrap(q, anchor[i])
+        } else {
+            q
+        };
+        values[i] = v;
+        inside &= (v >= j.limits[0] - tol) & (v <= j.limits[1] + tol);
+    }
+    if !inside {
+        return Err(failure_of_one(joints, settings, c));
+    }
+    Ok(Solution {
+        joints: values,
+        branch: c.branch,
+        flags: flags_of(c, at_limit),
+    })
+}
+
+/// The flags of a candidate that passed its checks.
+#[inline(always)]
+fn flags_of(c: &Candidate, at_limit: bool) -> Flags {
+    let mut flags = Flags::NONE;
+    if c.wrist_aligned {
+        flags = flags.union(Flags::WRIST_ALIGNED);
+    }
+    if c.on_axis_1 {
+        flags = flags.union(Flags::ON_AXIS_1);
+    }
+    if at_limit {
+        flags = flags.union(Flags::AT_REACH_LIMIT);
+    }
+    flags
+}
+
+/// Why one candidate is not a solution (worked out only then).
+#[cold]
+#[inline(never)]
+fn failure_of_one(joints: &[Joint; JOINTS], settings: &Settings, c: &Candidate) -> Unreachable {
+    let table = Table::of(joints, settings.limit_tolerance);
+    failure(&table, settings, core::slice::from_ref(c), None)
+}
+
+/// Of every candidate, the solution nearest `current` (sum of squared joint distances,
+/// wrap-aware for revolute joints with at most one turn of range), each finished toward
+/// `anchor` (see [`anchors_near`]); or why there is none.
+pub fn nearest_candidate(
     joints: &[Joint; JOINTS],
     settings: &Settings,
     candidates: &[Candidate],
     current: &[f64; JOINTS],
+    anchor: &[f64; JOINTS],
 ) -> Result<Solution, Unreachable> {
-    let set = collect::<CAP>(joints, settings, candidates);
-    if let Some(reason) = set.reason() {
-        return Err(reason);
+    let mut best: Option<(f64, Solution)> = None;
+    for c in candidates {
+        let Ok(s) = finish_one(joints, settings, c, anchor) else {
+            continue;
+        };
+        let d = distance(joints, settings, &s.joints, current);
+        if best.map_or(true, |(b, _)| d < b) {
+            best = Some((d, s));
+        }
     }
-    nearest(joints, settings, set.as_slice(), current).ok_or(Unreachable::BranchUnavailable)
+    match best {
+        Some((_, s)) => Ok(s),
+        None if candidates.is_empty() => Err(Unreachable::BranchUnavailable),
+        None => Err(failure(
+            &Table::of(joints, settings.limit_tolerance),
+            settings,
+            candidates,
+            None,
+        )),
+    }
 }
 
 /// How the shoulder label is read from joint values.

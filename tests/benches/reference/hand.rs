@@ -30,7 +30,14 @@ const OFFSET2: f64 = -FRAC_PI_2;
 const L: f64 = 0.387_330_608_137_286_26; // √(0.075² + 0.38²)
 const PHI: f64 = 1.375_932_407_106_024_6; // atan2(0.38, 0.075)
 /// The centers of the joint ranges (radians), to wrap into.
-const CENTER: [f64; 6] = [0.0, 0.349_065_850_398_865_9, -0.741_764_932_097_590_1, 0.0, 0.0, 0.0];
+const CENTER: [f64; 6] = [
+    0.0,
+    0.349_065_850_398_865_9,
+    -0.741_764_932_097_590_1,
+    0.0,
+    0.0,
+    0.0,
+];
 
 /// `x` wrapped by whole turns into `[center − π, center + π]`, branch-free (adding and
 /// subtracting `1.5·2^52` rounds to the nearest whole number).

@@ -38,7 +38,11 @@ fn pose_and_jacobian(arm: &Arm, q: &[f64; JOINTS]) -> (Pose, Matrix6<f64>) {
     for i in 0..JOINTS {
         let joint = &arm.joints[i];
         let w = frames[i].rotate(&joint.axis);
-        let w = [w[0] * joint.direction, w[1] * joint.direction, w[2] * joint.direction];
+        let w = [
+            w[0] * joint.direction,
+            w[1] * joint.direction,
+            w[2] * joint.direction,
+        ];
         let column = match joint.kind {
             armforge_runtime::JointKind::Revolute => {
                 let p = frames[i].transform_point(&joint.point);
@@ -115,16 +119,19 @@ pub fn within_limits(arm: &Arm, q: &[f64; JOINTS]) -> Option<[f64; JOINTS]> {
 
 /// True when two configurations are one (modulo whole turns of revolute joints).
 pub fn same_configuration(arm: &Arm, a: &[f64; JOINTS], b: &[f64; JOINTS]) -> bool {
-    a.iter().zip(b.iter()).zip(arm.joints.iter()).all(|((x, y), j)| {
-        let d = x - y;
-        let d = if j.kind == armforge_runtime::JointKind::Revolute {
-            let tau = std::f64::consts::TAU;
-            d - tau * (d / tau).round()
-        } else {
-            d
-        };
-        d.abs() < 1e-6
-    })
+    a.iter()
+        .zip(b.iter())
+        .zip(arm.joints.iter())
+        .all(|((x, y), j)| {
+            let d = x - y;
+            let d = if j.kind == armforge_runtime::JointKind::Revolute {
+                let tau = std::f64::consts::TAU;
+                d - tau * (d / tau).round()
+            } else {
+                d
+            };
+            d.abs() < 1e-6
+        })
 }
 
 /// "Every solution" by damped least squares from `seeds`: the distinct configurations found
