@@ -170,9 +170,9 @@ impl Solver {
     ) -> Result<Solution, Unreachable> {
         internal::check_pose(target)?;
         let (joints, settings) = (&self.plan.arm.joints, &self.plan.settings);
-        let reference = internal::reference(joints, current);
         let anchor = internal::anchors_near(joints, current, settings.limit_tolerance);
-        let candidates = self.candidates(target, &reference);
+        // Away from singular poses the reference is not used (as in the emitted solver).
+        let candidates = self.candidates(target, &self.plan.zero_reference);
         let own = self.branch_of(current);
         if let Some(c) = candidates.iter().find(|c| c.branch == own) {
             if let Ok(s) = internal::finish_one(joints, settings, c, &anchor) {
@@ -181,6 +181,8 @@ impl Solver {
                 }
             }
         }
+        let reference = internal::reference(joints, current);
+        let candidates = self.candidates(target, &reference);
         internal::nearest_candidate(joints, settings, &candidates, current, &anchor)
     }
 

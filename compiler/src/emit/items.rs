@@ -364,12 +364,14 @@ fn branch_api(plan: &Plan) -> TokenStream {
             current: &[f64; JOINTS],
         ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
             ::armforge_runtime::internal::check_pose(target)?;
-            let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
             let anchor = ::armforge_runtime::internal::anchors_near(
                 &JOINT_TABLE,
                 current,
                 SETTINGS.limit_tolerance,
             );
+            // Away from singular poses the free joints' reference is not used: try the own
+            // branch with the zero reference, and work out `current`'s only when needed.
+            let reference = ZERO_REFERENCE;
             let own = match branch_of(current) {
                 #(#own)*
                 _ => ::core::option::Option::None,
@@ -383,6 +385,7 @@ fn branch_api(plan: &Plan) -> TokenStream {
                     }
                 }
             }
+            let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,
