@@ -70,7 +70,7 @@ fn arm_name(path: &str) -> &str {
 }
 
 /// The bench arm's plan: its op counts and the interpreter.
-fn plan() -> (OpCounts, Solver) {
+fn plan() -> (OpCounts, OpCounts, Solver) {
     let root = PathBuf::from(env!("CARGO_MANIFEST_DIR"));
     let generated = match generate_module(
         &root.join("../arms/bench-elbow-dh.toml"),
@@ -82,6 +82,7 @@ fn plan() -> (OpCounts, Solver) {
     };
     (
         generated.plan.op_counts(),
+        generated.plan.branch_op_counts(),
         Solver::from_plan(generated.plan.clone()),
     )
 }
@@ -97,7 +98,7 @@ fn measure(calls: usize, mut f: impl FnMut(usize)) {
 fn run(name: &str) -> Option<usize> {
     let samples = reference::samples();
     let s = |i: usize| &samples[i % samples.len()];
-    let (_, interpreter) = plan();
+    let (_, _, interpreter) = plan();
     let arm = reference::numeric_arm();
     let mut rng = StdRng::seed_from_u64(0x5eed);
     let seeds: Vec<[f64; JOINTS]> = (0..STARTS * SEARCH_CALLS + NUMERIC_CALLS)
@@ -307,7 +308,7 @@ fn report(file: &str) {
         })
     };
     let b = |n: &str| per_call(&format!("bench-elbow/{n}"));
-    let (counts, _) = plan();
+    let (counts, branch, _) = plan();
     println!(
         "instructions per call (valgrind --tool=callgrind, collection inside the calls only)\n"
     );
@@ -326,7 +327,15 @@ fn report(file: &str) {
         (Some(a), Some(s)) => Some(counts.atan2 as f64 * a + counts.sqrt as f64 * s),
         _ => None,
     };
-    println!("\nbench-elbow plan: {} atan2 + {} sqrt per solve; transcendental floor {:.0} instructions\n", counts.atan2, counts.sqrt, floor.unwrap_or(f64::NAN));
+    println!(
+        "\nbench-elbow plan: {} atan2 + {} sqrt per solve (transcendental floor {:.0} \
+         instructions), at most {} atan2 + {} sqrt per solve_branch\n",
+        counts.atan2,
+        counts.sqrt,
+        floor.unwrap_or(f64::NAN),
+        branch.atan2,
+        branch.sqrt
+    );
     println!("| ratio | measured | target |");
     println!("|---|---:|---:|");
     let rows = [

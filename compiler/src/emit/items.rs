@@ -10,7 +10,7 @@ use quote::{format_ident, quote};
 
 use super::expr::{definition, literal, reference, Bindings};
 use crate::plan::graph::{Graph, Id};
-use crate::plan::Plan;
+use crate::plan::{candidate_roots, Plan};
 
 fn lit(x: f64) -> TokenStream {
     literal(x).0
@@ -162,19 +162,9 @@ fn check_kind(k: CheckKind) -> TokenStream {
     }
 }
 
-/// Every node a candidate reads directly (they count as uses for `let` decisions).
+/// Every node the candidates read directly (they count as uses for `let` decisions).
 fn candidate_uses(candidates: &[CandidateLayout]) -> Vec<Id> {
-    let mut uses = Vec::new();
-    for c in candidates {
-        uses.extend(c.model_values);
-        for ch in c.checks.iter().flatten() {
-            uses.push(ch.have_squared);
-            uses.push(ch.limit);
-        }
-        uses.extend(c.wrist_aligned);
-        uses.extend(c.on_axis_1);
-    }
-    uses
+    candidates.iter().flat_map(candidate_roots).collect()
 }
 
 fn candidate(plan: &Plan, b: &Bindings, c: &CandidateLayout) -> TokenStream {

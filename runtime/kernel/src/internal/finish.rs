@@ -652,7 +652,6 @@ pub fn nearest_candidate(
     }
 }
 
-
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -177,4 +177,3 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
         wrist,
     }
 }
-
