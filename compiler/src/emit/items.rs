@@ -435,12 +435,13 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [#(#joints),*];
 
-        /// The base frame in the world.
-        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        /// The base frame in the world (folded into `forward`; kept for callers).
+        #[allow(dead_code, clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         pub const BASE: ::armforge_runtime::Pose = #base;
 
-        /// The tool frame in the base frame with every model value at zero.
-        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        /// The tool frame in the base frame with every model value at zero (folded into
+        /// `forward`; kept for callers).
+        #[allow(dead_code, clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         pub const TOOL: ::armforge_runtime::Pose = #tool;
 
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
