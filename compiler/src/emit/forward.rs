@@ -113,13 +113,13 @@ fn joint_motion(g: &mut Graph, joint: &Joint, i: usize) -> Motion {
 fn model_value(joint: &Joint, i: usize) -> TokenStream {
     let k = super::expr::index(i);
     let q = quote!(joints[#k]);
-    let scaled = match joint.direction {
-        d if d == 1.0 => q,
-        d if d == -1.0 => quote!(-#q),
-        d => {
-            let d = literal(d).0;
-            quote!(#d * #q)
-        }
+    let scaled = if joint.direction == 1.0 {
+        q
+    } else if joint.direction == -1.0 {
+        quote!(-#q)
+    } else {
+        let d = literal(joint.direction).0;
+        quote!(#d * #q)
     };
     if joint.offset == 0.0 {
         scaled
