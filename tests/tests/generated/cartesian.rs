@@ -748,7 +748,7 @@ fn candidates(
         },
     ]
 }
-/// The closed-form steps of branch 1 alone (shoulder single, elbow single, wrist plus).
+/// The closed-form steps of branch 1 alone (only, only, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -968,7 +968,7 @@ fn branch_1(
         on_axis_1: false,
     }
 }
-/// The closed-form steps of branch 2 alone (shoulder single, elbow single, wrist minus).
+/// The closed-form steps of branch 2 alone (only, only, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,

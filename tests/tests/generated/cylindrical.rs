@@ -1157,7 +1157,7 @@ fn candidates(
         },
     ]
 }
-/// The closed-form steps of branch 1 alone (shoulder front, elbow single, wrist plus).
+/// The closed-form steps of branch 1 alone (facing, only, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -1454,7 +1454,7 @@ fn branch_1(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 2 alone (shoulder front, elbow single, wrist minus).
+/// The closed-form steps of branch 2 alone (facing, only, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -1751,7 +1751,7 @@ fn branch_2(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 3 alone (shoulder back, elbow single, wrist plus).
+/// The closed-form steps of branch 3 alone (across, only, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -2049,7 +2049,7 @@ fn branch_3(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 4 alone (shoulder back, elbow single, wrist minus).
+/// The closed-form steps of branch 4 alone (across, only, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,

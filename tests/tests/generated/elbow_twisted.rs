@@ -1955,7 +1955,7 @@ fn candidates(
         },
     ]
 }
-/// The closed-form steps of branch 1 alone (shoulder front, elbow up, wrist plus).
+/// The closed-form steps of branch 1 alone (facing, up, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -2332,7 +2332,7 @@ fn branch_1(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 2 alone (shoulder front, elbow up, wrist minus).
+/// The closed-form steps of branch 2 alone (facing, up, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -2709,7 +2709,7 @@ fn branch_2(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 3 alone (shoulder front, elbow down, wrist plus).
+/// The closed-form steps of branch 3 alone (facing, down, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -3087,7 +3087,7 @@ fn branch_3(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 4 alone (shoulder front, elbow down, wrist minus).
+/// The closed-form steps of branch 4 alone (facing, down, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -3465,7 +3465,7 @@ fn branch_4(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 5 alone (shoulder back, elbow down, wrist plus).
+/// The closed-form steps of branch 5 alone (across, down, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -3842,7 +3842,7 @@ fn branch_5(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 6 alone (shoulder back, elbow down, wrist minus).
+/// The closed-form steps of branch 6 alone (across, down, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -4219,7 +4219,7 @@ fn branch_6(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 7 alone (shoulder back, elbow up, wrist plus).
+/// The closed-form steps of branch 7 alone (across, up, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -4597,7 +4597,7 @@ fn branch_7(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 8 alone (shoulder back, elbow up, wrist minus).
+/// The closed-form steps of branch 8 alone (across, up, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,

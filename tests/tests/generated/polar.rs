@@ -1844,7 +1844,7 @@ fn candidates(
         },
     ]
 }
-/// The closed-form steps of branch 1 alone (shoulder front, slide extended, wrist plus).
+/// The closed-form steps of branch 1 alone (facing, extended, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -2203,7 +2203,7 @@ fn branch_1(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 2 alone (shoulder front, slide extended, wrist minus).
+/// The closed-form steps of branch 2 alone (facing, extended, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -2562,7 +2562,7 @@ fn branch_2(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 3 alone (shoulder front, slide retracted, wrist plus).
+/// The closed-form steps of branch 3 alone (facing, retracted, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -2921,7 +2921,7 @@ fn branch_3(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 4 alone (shoulder front, slide retracted, wrist minus).
+/// The closed-form steps of branch 4 alone (facing, retracted, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -3280,7 +3280,7 @@ fn branch_4(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 5 alone (shoulder back, slide extended, wrist plus).
+/// The closed-form steps of branch 5 alone (across, extended, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -3639,7 +3639,7 @@ fn branch_5(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 6 alone (shoulder back, slide extended, wrist minus).
+/// The closed-form steps of branch 6 alone (across, extended, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -3998,7 +3998,7 @@ fn branch_6(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 7 alone (shoulder back, slide retracted, wrist plus).
+/// The closed-form steps of branch 7 alone (across, retracted, leading).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -4357,7 +4357,7 @@ fn branch_7(
         on_axis_1: j1_free >= 0.0,
     }
 }
-/// The closed-form steps of branch 8 alone (shoulder back, slide retracted, wrist minus).
+/// The closed-form steps of branch 8 alone (across, retracted, trailing).
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,

@@ -44,7 +44,7 @@ pub struct Args {
     )]
     pub near: Option<Vec<f64>>,
     /// Give only the solution of this branch: SHOULDER,ELBOW,WRIST with shoulder
-    /// front|back|single, elbow up|down|extended|retracted|single, wrist plus|minus.
+    /// facing|across|only, elbow up|down|extended|retracted|only, wrist leading|trailing.
     #[arg(long, value_name = "SHOULDER,ELBOW,WRIST", conflicts_with = "near")]
     pub branch: Option<String>,
 }
