@@ -379,5 +379,5 @@ fn explain_exit_codes() {
         .args(["explain", "arms/no-such-arm.toml"])
         .output()
         .expect("armforge runs");
-    assert_eq!(missing.status.code(), Some(2));
+    assert_eq!(missing.status.code(), Some(5));
 }

@@ -258,5 +258,5 @@ fn verify_exit_codes_and_json() {
         .args(["verify", "arms/no-such-arm.toml"])
         .output()
         .expect("armforge runs");
-    assert_eq!(missing.status.code(), Some(2));
+    assert_eq!(missing.status.code(), Some(5));
 }
