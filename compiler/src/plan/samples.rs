@@ -1,8 +1,10 @@
 //! Invented arms for tests and benchmarks: random arms of every family (random lengths,
 //! offsets, twists, mountings, joint directions and offsets), built directly as models.
 //!
-//! A small deterministic generator (SplitMix64) keeps the library free of a `rand`
-//! dependency and the samples reproducible from a seed.
+//! The samples come from SplitMix64, a few lines here, so that the same seed gives the same
+//! arm on every platform and every version: the compiler does not depend on `rand` (the
+//! workbench does, for `verify`'s random configurations; the tests use it for their own
+//! sampling), and a sample arm must not change when `rand` changes its algorithms.
 
 use armforge_runtime::{Joint, JointKind, Pose};
 
@@ -267,7 +269,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     let base = rng.pose(1.0);
     let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
     let model = Model {
-        name: format!("sample_{}_{seed}", family_name(family)),
+        name: format!("sample_{}_{seed}", family.name()),
         description: Some("invented sample arm for armforge's own tests".to_string()),
         units: Units::default(),
         joints: joints
@@ -281,7 +283,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
             .collect(),
         tool,
         base,
-        source_path: format!("<sample {} {seed}>", family_name(family)),
+        source_path: format!("<sample {} {seed}>", family.name()),
     };
     // The geometry comes from the classifier, as in the real pipeline; a sample is built to
     // be of `family` with its wrist center at `c`, so anything else is a bug in one of them.
@@ -289,26 +291,16 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         Ok(g) if g.family == family && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
         Ok(g) => panic!(
             "sample arm {seed}: built as {} with wrist center {c:?}, classified as {:?} with {:?}",
-            family_name(family),
+            family.name(),
             g.family,
             g.wrist_center
         ),
         Err(rejection) => panic!(
             "sample arm {seed} of the {} family is rejected: {rejection}",
-            family_name(family)
+            family.name()
         ),
     };
     (model, geometry)
-}
-
-/// The family's name in lower case.
-pub fn family_name(family: Family) -> &'static str {
-    match family {
-        Family::Elbow => "elbow",
-        Family::Polar => "polar",
-        Family::Cylindrical => "cylindrical",
-        Family::Cartesian => "cartesian",
-    }
 }
 
 /// Random joint values within the model's limits (finite limits; infinite ones use ±π).
