@@ -133,6 +133,57 @@ impl Default for SampleOptions {
     }
 }
 
+/// A sample arm whose emitted module is checked in as a fixture
+/// (`tests/tests/generated/NAME.rs`, compiled and run by the workspace tests).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Fixture {
+    /// The fixture's file and module name.
+    pub name: &'static str,
+    /// The family of the sample arm.
+    pub family: Family,
+    /// The sample arm's seed.
+    pub seed: u64,
+    /// The sample arm's options.
+    pub options: SampleOptions,
+}
+
+impl Fixture {
+    /// The sample arm and its geometry.
+    pub fn arm(&self) -> (Model, Geometry) {
+        sample_arm(self.family, self.seed, &self.options)
+    }
+}
+
+/// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
+/// the fixture refresh and the tests that compile the fixtures all read.
+pub fn fixtures() -> [Fixture; 6] {
+    let plain = SampleOptions::default();
+    let dextrous = SampleOptions {
+        orthogonal_wrist: true,
+        shoulder_axes_meet: true,
+        ..plain
+    };
+    let two_turns = SampleOptions {
+        revolute_range: std::f64::consts::TAU,
+        orthogonal_wrist: true,
+        ..plain
+    };
+    let fixture = |name, family, seed, options| Fixture {
+        name,
+        family,
+        seed,
+        options,
+    };
+    [
+        fixture("elbow_orthogonal", Family::Elbow, 11, dextrous),
+        fixture("elbow_twisted", Family::Elbow, 12, plain),
+        fixture("elbow_two_turns", Family::Elbow, 13, two_turns),
+        fixture("polar", Family::Polar, 14, plain),
+        fixture("cylindrical", Family::Cylindrical, 15, plain),
+        fixture("cartesian", Family::Cartesian, 16, plain),
+    ]
+}
+
 fn revolute(axis: [f64; 3], point: [f64; 3], range: f64) -> Joint {
     Joint {
         kind: JointKind::Revolute,
@@ -301,6 +352,26 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         ),
     };
     (model, geometry)
+}
+
+/// The environment variable that scales every randomized test: `ARMFORGE_SCALE=K` runs `K`
+/// times each test's default sample count (default 1; CI runs the defaults).
+pub const SCALE_VARIABLE: &str = "ARMFORGE_SCALE";
+
+/// A test's sample count: `default` times `ARMFORGE_SCALE` (1 when unset). The one knob for
+/// every randomized test of the workspace, so a long run is `ARMFORGE_SCALE=20 cargo test
+/// --workspace --release`.
+///
+/// # Panics
+/// When `ARMFORGE_SCALE` is set to anything but a positive whole number (tests only).
+pub fn sample_count(default: usize) -> usize {
+    match std::env::var(SCALE_VARIABLE) {
+        Err(_) => default,
+        Ok(text) => match text.trim().parse::<usize>() {
+            Ok(k) if k > 0 => default.saturating_mul(k),
+            _ => panic!("{SCALE_VARIABLE}={text:?}: expected a positive whole number"),
+        },
+    }
 }
 
 /// Random joint values within the model's limits (finite limits; infinite ones use ±π).
