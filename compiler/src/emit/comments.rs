@@ -49,6 +49,12 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
         "// Cost of one solve: {} sqrt, {} atan2, {} divisions, no loops, no heap.",
         counts.sqrt, counts.atan2, counts.div
     );
+    let one = plan.branch_op_counts();
+    let _ = writeln!(
+        h,
+        "// Cost of one solve_branch: at most {} sqrt, {} atan2, {} divisions (that branch alone).",
+        one.sqrt, one.atan2, one.div
+    );
     let _ = writeln!(h, "//");
     let _ = writeln!(
         h,

@@ -21,6 +21,7 @@
 
 mod comments;
 mod expr;
+mod forward;
 mod items;
 mod selftest;
 
