@@ -102,6 +102,7 @@ use crate::diagnostics::Diagnostics;
 use crate::model::Model;
 
 pub use checks::{MAX_JOINTS, ROTATION_TOLERANCE};
+pub use schema::{arm_name_problem, Convention};
 
 /// Reads description text into a [`Model`]; `path` names the text in messages.
 pub fn load_str(text: &str, path: &str) -> Result<Model, Diagnostics> {

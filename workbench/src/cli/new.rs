@@ -2,7 +2,9 @@
 
 use std::path::PathBuf;
 
-use armforge_workbench::scaffold::{is_valid_arm_name, starting_description, Convention};
+use armforge_workbench::scaffold::{
+    arm_name_problem, parse_convention, starting_description, Convention,
+};
 
 use super::io::exit;
 use super::io::files::{self, Replace, Written};
@@ -12,10 +14,10 @@ use super::io::terminal::{fail, say, Outcome};
 #[derive(clap::Args, Debug)]
 #[command(after_help = super::io::exit::TABLE)]
 pub struct Args {
-    /// The arm's name (letters, digits, '-' and '_', starting with a letter).
+    /// The arm's name (letters, digits, '-' and '_', starting with a letter; not a Rust keyword).
     pub name: String,
     /// How the joints are described.
-    #[arg(long, value_enum, default_value = "dh")]
+    #[arg(long, value_parser = parse_convention, default_value = "dh")]
     pub convention: Convention,
     /// Where to write the file (default: NAME.toml; `-` for standard output).
     #[arg(short = 'o', long = "output")]
@@ -27,13 +29,10 @@ pub struct Args {
 
 /// Runs `armforge new`.
 pub fn run(args: Args) -> Outcome {
-    if !is_valid_arm_name(&args.name) {
+    if let Some(problem) = arm_name_problem(&args.name) {
         return Err(fail(
             exit::USAGE,
-            &format!(
-                "arm name `{}` must start with a letter and contain only letters, digits, '-' and '_'",
-                args.name
-            ),
+            &format!("arm name: {problem} (it becomes a Rust module name)"),
         ));
     }
     let text = starting_description(&args.name, args.convention);
@@ -49,7 +48,7 @@ pub fn run(args: Args) -> Outcome {
     if written == Written::Written && files::Destination::of(&path) != files::Destination::Stdout {
         say(&format!(
             "{} convention; next: armforge inspect {}",
-            args.convention.key(),
+            args.convention.word(),
             files::shown(&path)
         ));
     }
