@@ -15,7 +15,10 @@ pub mod cylindrical;
 pub mod decouple;
 pub mod elbow;
 pub mod graph;
+pub mod parallel;
+pub mod planar;
 pub mod polar;
+pub mod pose;
 pub mod render;
 pub mod samples;
 pub mod subproblems;
@@ -205,16 +208,34 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
             });
         }
     }
-    let (graph, candidates) = compact(&g, &candidates);
+    let w = wrist::WristAxes::of(&arm);
+    let twist = [vec3::num::dot(&w.h4, &w.h5), vec3::num::dot(&w.h5, &w.h6)];
+    let rule = BranchRule {
+        shoulder: shoulder_rule,
+        elbow: elbow_rule,
+        wrist: wrist::rule(&arm),
+    };
+    assemble(arm, &g, &candidates, rule, twist, [0, 3])
+}
+
+/// The plan from a family's candidates: compacts the graph, sets the tolerances, the capacity
+/// and the reference values of the two joints that `solve` holds when they are free
+/// (`free`, 0-based; their cosines and sines are the plan's reference inputs).
+pub fn assemble(
+    arm: Arm,
+    g: &Graph,
+    candidates: &[CandidateLayout],
+    rule: BranchRule,
+    wrist_twist_cosines: [f64; 2],
+    free: [usize; 2],
+) -> Plan {
+    let (graph, candidates) = compact(g, candidates);
     let settings = Settings {
         length_tolerance: 1e-10 * arm.scale,
         angle_tolerance: 1e-18,
         limit_tolerance: 1e-12,
         duplicate_tolerance: 1e-10,
-        wrist_twist_cosines: {
-            let w = wrist::WristAxes::of(&arm);
-            [vec3::num::dot(&w.h4, &w.h5), vec3::num::dot(&w.h5, &w.h6)]
-        },
+        wrist_twist_cosines,
     };
     let multiplicity: usize = arm
         .joints
@@ -222,22 +243,19 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
         .map(|j| equivalent_count(j, settings.limit_tolerance))
         .product();
     let zero_reference = {
-        let m1 = arm.joints[0].model_value(free_joint_1_value(&arm.joints[0]));
-        let m4 = arm.joints[3].model_value(0.0);
+        let m1 = arm.joints[free[0]].model_value(free_joint_1_value(&arm.joints[free[0]]));
+        let m4 = arm.joints[free[1]].model_value(0.0);
         [m1.cos(), m1.sin(), m4.cos(), m4.sin()]
     };
     Plan {
-        rule: BranchRule {
-            shoulder: shoulder_rule,
-            elbow: elbow_rule,
-            wrist: wrist::rule(&arm),
-        },
+        rule,
         capacity: candidates.len() * multiplicity,
         arm,
         graph,
         candidates,
         settings,
         zero_reference,
+        free_joints: free,
     }
 }
 
