@@ -10,7 +10,7 @@
 use core::f64::consts::{PI, TAU};
 
 use crate::fk::joint_motion;
-use crate::math::{abs, cross, dot, round, sin_cos, sqrt, sub};
+use crate::math::{abs, cross, dot, rotation_tolerance, round, sin_cos, sqrt, sub, Scalar};
 use crate::model::{Joint, JointKind};
 use crate::pose::Pose;
 use crate::solution::{
@@ -87,28 +87,29 @@ pub struct Settings {
     pub wrist_twist_cosines: [f64; 2],
 }
 
-/// Checks that a target pose is finite with a proper orthonormal rotation (within 1e-6).
+/// Checks that a target pose is finite with a proper orthonormal rotation (within
+/// [`rotation_tolerance`]: 1e-6 for `f64`, about 7.6e-6 for `f32`).
 #[inline]
-pub fn check_pose(target: &Pose) -> Result<(), Unreachable> {
+pub fn check_pose<S: Scalar>(target: &Pose<S>) -> Result<(), Unreachable<S>> {
     if !target.is_finite() {
         return Err(Unreachable::InvalidPose(PoseProblem::NotFinite));
     }
     let r = &target.rotation;
-    let mut error: f64 = 0.0;
+    let mut error = S::ZERO;
     for i in 0..3 {
         for j in 0..3 {
             let g = r[0][i] * r[0][j] + r[1][i] * r[1][j] + r[2][i] * r[2][j];
-            let want = if i == j { 1.0 } else { 0.0 };
+            let want = if i == j { S::ONE } else { S::ZERO };
             error = error.max(abs(g - want));
         }
     }
-    if error > 1e-6 {
+    if error > rotation_tolerance() {
         return Err(Unreachable::InvalidPose(PoseProblem::NotOrthonormal {
             error,
         }));
     }
     let det = dot(&r[0], &cross(&r[1], &r[2]));
-    if det < 0.0 {
+    if det < S::ZERO {
         return Err(Unreachable::InvalidPose(PoseProblem::Reflection));
     }
     Ok(())
@@ -932,7 +933,7 @@ mod tests {
 
     #[test]
     fn pose_checks() {
-        assert!(check_pose(&Pose::IDENTITY).is_ok());
+        assert!(check_pose(&Pose::<f64>::IDENTITY).is_ok());
         let mut p = Pose::IDENTITY;
         p.translation[0] = f64::NAN;
         assert_eq!(

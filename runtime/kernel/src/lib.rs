@@ -6,6 +6,15 @@
 //!
 //! All quantities are SI: metres and radians.
 //!
+//! ## Scalars
+//!
+//! The types are generic over the scalar with `f64` as the default: [`Pose`] is `Pose<f64>`,
+//! `Pose<f32>` is the same pose in single precision, and so on for [`Solution`],
+//! [`SolutionSet`], [`Unreachable`] and [`Joint`]. A solver is emitted for one scalar (a
+//! property of the target, not of the arm); [`math::Scalar`] is the small trait its math goes
+//! through (`std` when the `std` feature is on, `libm` otherwise), and its tolerances follow
+//! the scalar's epsilon ([`math::tolerance`]).
+//!
 //! ## What a solver gives you
 //!
 //! Every emitted solver module (and the compiler's interpreter, `armforge_compiler::solver`)
@@ -45,6 +54,7 @@ pub mod pose;
 pub mod solution;
 
 pub use fk::{forward, joint_motion};
+pub use math::Scalar;
 pub use model::{Joint, JointKind};
 pub use pose::Pose;
 pub use solution::{

@@ -1,80 +1,248 @@
-//! Scalar math that works with and without `std` (through `libm` when `std` is off).
+//! Scalar math that works with and without `std` (through `libm` when `std` is off), for both
+//! scalars a solver can be emitted in: `f64` (the default) and `f32`.
 //!
-//! Emitted solvers call these so that the same source compiles in firmware and on a desktop.
+//! Emitted solvers call these free functions so that the same source compiles in firmware and
+//! on a desktop, whichever scalar it was emitted for; [`Scalar`] is the small trait behind them.
+
+use core::fmt;
+use core::ops::{Add, AddAssign, Div, Mul, MulAssign, Neg, Sub, SubAssign};
+
+mod sealed {
+    /// Keeps [`super::Scalar`] to the two scalars armforge emits.
+    pub trait Sealed {}
+    impl Sealed for f32 {}
+    impl Sealed for f64 {}
+}
+
+/// A floating-point scalar the runtime's types and emitted solvers can use: `f64` or `f32`.
+///
+/// Sealed: the runtime's tolerances are worked out for IEEE 754 binary64 and binary32 only.
+pub trait Scalar:
+    Copy
+    + PartialEq
+    + PartialOrd
+    + Default
+    + fmt::Debug
+    + fmt::Display
+    + fmt::LowerExp
+    + Add<Output = Self>
+    + Sub<Output = Self>
+    + Mul<Output = Self>
+    + Div<Output = Self>
+    + Neg<Output = Self>
+    + AddAssign
+    + SubAssign
+    + MulAssign
+    + Send
+    + Sync
+    + 'static
+    + sealed::Sealed
+{
+    /// `0`.
+    const ZERO: Self;
+    /// `1`.
+    const ONE: Self;
+    /// `π`.
+    const PI: Self;
+    /// `2π`, one turn.
+    const TAU: Self;
+    /// Machine epsilon: the difference between 1 and the next larger number.
+    const EPSILON: Self;
+    /// Not a number.
+    const NAN: Self;
+    /// Name of the type, `"f64"` or `"f32"`.
+    const NAME: &'static str;
+
+    /// The nearest value of this scalar to `x` (exact for `f64`).
+    fn of(x: f64) -> Self;
+    /// The value as `f64` (exact).
+    fn to_f64(self) -> f64;
+    /// Square root.
+    fn sqrt(self) -> Self;
+    /// Four-quadrant arc tangent of `self / x`.
+    fn atan2(self, x: Self) -> Self;
+    /// Sine and cosine, as `(sin, cos)`.
+    fn sin_cos(self) -> (Self, Self);
+    /// Rounds to the nearest integer, halves away from zero.
+    fn round(self) -> Self;
+    /// Absolute value (clears the sign bit; NaN stays NaN).
+    fn abs(self) -> Self;
+    /// True unless NaN or infinite.
+    fn is_finite(self) -> bool;
+    /// The smaller of two values (the other one when one is NaN).
+    fn min(self, other: Self) -> Self;
+    /// The larger of two values (the other one when one is NaN).
+    fn max(self, other: Self) -> Self;
+}
+
+/// Implements [`Scalar`] for one float type with its `libm` functions.
+macro_rules! scalar {
+    ($t:ident, $bits:ty, $name:literal, $sqrt:ident, $atan2:ident, $sincos:ident, $round:ident) => {
+        impl Scalar for $t {
+            const ZERO: Self = 0.0;
+            const ONE: Self = 1.0;
+            const PI: Self = core::$t::consts::PI;
+            const TAU: Self = core::$t::consts::TAU;
+            const EPSILON: Self = $t::EPSILON;
+            const NAN: Self = $t::NAN;
+            const NAME: &'static str = $name;
+
+            #[inline(always)]
+            fn of(x: f64) -> Self {
+                x as $t
+            }
+            #[inline(always)]
+            fn to_f64(self) -> f64 {
+                self as f64
+            }
+            #[inline(always)]
+            fn sqrt(self) -> Self {
+                #[cfg(feature = "std")]
+                {
+                    $t::sqrt(self)
+                }
+                #[cfg(not(feature = "std"))]
+                {
+                    libm::$sqrt(self)
+                }
+            }
+            #[inline(always)]
+            fn atan2(self, x: Self) -> Self {
+                #[cfg(feature = "std")]
+                {
+                    $t::atan2(self, x)
+                }
+                #[cfg(not(feature = "std"))]
+                {
+                    libm::$atan2(self, x)
+                }
+            }
+            #[inline(always)]
+            fn sin_cos(self) -> (Self, Self) {
+                #[cfg(feature = "std")]
+                {
+                    $t::sin_cos(self)
+                }
+                #[cfg(not(feature = "std"))]
+                {
+                    libm::$sincos(self)
+                }
+            }
+            #[inline(always)]
+            fn round(self) -> Self {
+                #[cfg(feature = "std")]
+                {
+                    $t::round(self)
+                }
+                #[cfg(not(feature = "std"))]
+                {
+                    libm::$round(self)
+                }
+            }
+            #[inline(always)]
+            fn abs(self) -> Self {
+                const SIGN: $bits = 1 << (<$bits>::BITS - 1);
+                $t::from_bits(self.to_bits() & !SIGN)
+            }
+            #[inline(always)]
+            fn is_finite(self) -> bool {
+                $t::is_finite(self)
+            }
+            #[inline(always)]
+            fn min(self, other: Self) -> Self {
+                $t::min(self, other)
+            }
+            #[inline(always)]
+            fn max(self, other: Self) -> Self {
+                $t::max(self, other)
+            }
+        }
+    };
+}
+
+scalar!(f64, u64, "f64", sqrt, atan2, sincos, round);
+scalar!(f32, u32, "f32", sqrtf, atan2f, sincosf, roundf);
+
+/// How a tolerance grows with the scalar's rounding error (see [`tolerance`]).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Growth {
+    /// With the rounding error itself: a value compared with a limit, a squared quantity
+    /// compared with zero.
+    Linear,
+    /// With its square root: where two roots of a quadratic meet, a rounding error `δ` in the
+    /// discriminant moves the roots by about `√δ`, so a length at a reach boundary or the
+    /// distance between two roots that should be one.
+    SquareRoot,
+}
+
+/// A tolerance that follows the scalar's epsilon: `f64_value` for `f64`; for another scalar,
+/// `f64_value` times the ratio of the epsilons (`2^29` for `f32`) or its square root
+/// (`2^14.5 ≈ 23170`), as `growth` says.
+///
+/// Every solver tolerance is written once, for `f64`; this carries it to `f32`.
+#[inline]
+pub fn tolerance<S: Scalar>(f64_value: f64, growth: Growth) -> S {
+    let ratio = S::EPSILON.to_f64() / f64::EPSILON;
+    let factor = match growth {
+        Growth::Linear => ratio,
+        Growth::SquareRoot => Scalar::sqrt(ratio),
+    };
+    S::of(f64_value * factor)
+}
+
+/// Largest entry of `RᵀR − I` an input rotation may have: `1e-6`, or 64 epsilons of the
+/// scalar when that is larger (`f32`: about `7.6e-6`, since a rotation rounded to `f32` and
+/// multiplied out already carries errors of a few epsilons).
+#[inline]
+pub fn rotation_tolerance<S: Scalar>() -> S {
+    S::of(1e-6).max(S::of(64.0) * S::EPSILON)
+}
 
 /// Square root.
 #[inline(always)]
-pub fn sqrt(x: f64) -> f64 {
-    #[cfg(feature = "std")]
-    {
-        x.sqrt()
-    }
-    #[cfg(not(feature = "std"))]
-    {
-        libm::sqrt(x)
-    }
+pub fn sqrt<S: Scalar>(x: S) -> S {
+    x.sqrt()
 }
 
 /// Four-quadrant arc tangent of `y / x`.
 #[inline(always)]
-pub fn atan2(y: f64, x: f64) -> f64 {
-    #[cfg(feature = "std")]
-    {
-        y.atan2(x)
-    }
-    #[cfg(not(feature = "std"))]
-    {
-        libm::atan2(y, x)
-    }
+pub fn atan2<S: Scalar>(y: S, x: S) -> S {
+    y.atan2(x)
 }
 
 /// Sine and cosine of `x`, as `(sin, cos)`.
 #[inline(always)]
-pub fn sin_cos(x: f64) -> (f64, f64) {
-    #[cfg(feature = "std")]
-    {
-        x.sin_cos()
-    }
-    #[cfg(not(feature = "std"))]
-    {
-        libm::sincos(x)
-    }
+pub fn sin_cos<S: Scalar>(x: S) -> (S, S) {
+    x.sin_cos()
 }
 
 /// Sine of `x`.
 #[inline(always)]
-pub fn sin(x: f64) -> f64 {
-    sin_cos(x).0
+pub fn sin<S: Scalar>(x: S) -> S {
+    x.sin_cos().0
 }
 
 /// Cosine of `x`.
 #[inline(always)]
-pub fn cos(x: f64) -> f64 {
-    sin_cos(x).1
+pub fn cos<S: Scalar>(x: S) -> S {
+    x.sin_cos().1
 }
 
 /// Absolute value.
 #[inline(always)]
-pub fn abs(x: f64) -> f64 {
-    f64::from_bits(x.to_bits() & !(1u64 << 63))
+pub fn abs<S: Scalar>(x: S) -> S {
+    x.abs()
 }
 
 /// Rounds to the nearest integer, halves away from zero.
 #[inline(always)]
-pub fn round(x: f64) -> f64 {
-    #[cfg(feature = "std")]
-    {
-        x.round()
-    }
-    #[cfg(not(feature = "std"))]
-    {
-        libm::round(x)
-    }
+pub fn round<S: Scalar>(x: S) -> S {
+    x.round()
 }
 
 /// `x` limited to `[lo, hi]`; NaN stays NaN.
 #[inline(always)]
-pub fn clamp(x: f64, lo: f64, hi: f64) -> f64 {
+pub fn clamp<S: Scalar>(x: S, lo: S, hi: S) -> S {
     if x < lo {
         lo
     } else if x > hi {
@@ -86,13 +254,13 @@ pub fn clamp(x: f64, lo: f64, hi: f64) -> f64 {
 
 /// Dot product of two 3-vectors.
 #[inline(always)]
-pub fn dot(a: &[f64; 3], b: &[f64; 3]) -> f64 {
+pub fn dot<S: Scalar>(a: &[S; 3], b: &[S; 3]) -> S {
     a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
 }
 
 /// Cross product of two 3-vectors.
 #[inline(always)]
-pub fn cross(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
+pub fn cross<S: Scalar>(a: &[S; 3], b: &[S; 3]) -> [S; 3] {
     [
         a[1] * b[2] - a[2] * b[1],
         a[2] * b[0] - a[0] * b[2],
@@ -102,24 +270,55 @@ pub fn cross(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
 
 /// `a - b` for 3-vectors.
 #[inline(always)]
-pub fn sub(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
+pub fn sub<S: Scalar>(a: &[S; 3], b: &[S; 3]) -> [S; 3] {
     [a[0] - b[0], a[1] - b[1], a[2] - b[2]]
 }
 
 /// `a + b` for 3-vectors.
 #[inline(always)]
-pub fn add(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
+pub fn add<S: Scalar>(a: &[S; 3], b: &[S; 3]) -> [S; 3] {
     [a[0] + b[0], a[1] + b[1], a[2] + b[2]]
 }
 
 /// `k · a` for a 3-vector.
 #[inline(always)]
-pub fn scale(a: &[f64; 3], k: f64) -> [f64; 3] {
+pub fn scale<S: Scalar>(a: &[S; 3], k: S) -> [S; 3] {
     [a[0] * k, a[1] * k, a[2] * k]
 }
 
 /// Euclidean length of a 3-vector.
 #[inline(always)]
-pub fn norm(a: &[f64; 3]) -> f64 {
+pub fn norm<S: Scalar>(a: &[S; 3]) -> S {
     sqrt(dot(a, a))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn both_scalars_agree_with_known_values() {
+        // sin(π/6) = 1/2, atan2(1, 1) = π/4, √2 (textbook values).
+        let (s, c) = sin_cos(core::f64::consts::FRAC_PI_6);
+        assert!((s - 0.5).abs() < 1e-15 && (c - 0.75f64.sqrt()).abs() < 1e-15);
+        let (s, _) = sin_cos(core::f32::consts::FRAC_PI_6);
+        assert!((s - 0.5).abs() < 1e-6);
+        assert!((atan2(1.0f32, 1.0) - core::f32::consts::FRAC_PI_4).abs() < 1e-6);
+        assert_eq!(sqrt(2.0f32), core::f32::consts::SQRT_2);
+        assert_eq!(abs(-0.0f32).to_bits(), 0);
+        assert_eq!(abs(-2.5f64), 2.5);
+    }
+
+    #[test]
+    fn tolerances_follow_the_epsilon() {
+        assert_eq!(tolerance::<f64>(1e-12, Growth::Linear), 1e-12);
+        assert_eq!(tolerance::<f64>(1e-10, Growth::SquareRoot), 1e-10);
+        // f32 has 24 significand bits, f64 53 (IEEE 754): the epsilons differ by 2^29.
+        let linear: f32 = tolerance(1e-12, Growth::Linear);
+        assert!((linear as f64 / 1e-12 / 536_870_912.0 - 1.0).abs() < 1e-6);
+        let root: f32 = tolerance(1e-10, Growth::SquareRoot);
+        assert!((root as f64 / 1e-10 / 23_170.475 - 1.0).abs() < 1e-6);
+        assert_eq!(rotation_tolerance::<f64>(), 1e-6);
+        assert_eq!(rotation_tolerance::<f32>(), 64.0 * f32::EPSILON);
+    }
 }

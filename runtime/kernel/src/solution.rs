@@ -5,6 +5,8 @@
 
 use core::fmt;
 
+use crate::math::{rotation_tolerance, Scalar};
+
 /// Number of joints of every arm armforge solves.
 pub const JOINTS: usize = 6;
 
@@ -136,21 +138,22 @@ impl Flags {
     }
 }
 
-/// One inverse-kinematics solution.
+/// One inverse-kinematics solution, in the scalar `S` of its solver (`f64` unless said
+/// otherwise).
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Solution {
+pub struct Solution<S: Scalar = f64> {
     /// Joint values, SI (radians or metres), within the joints' limits.
-    pub joints: [f64; JOINTS],
+    pub joints: [S; JOINTS],
     /// The branch this configuration belongs to.
     pub branch: Branch,
     /// Singular conditions met by this solution.
     pub flags: Flags,
 }
 
-impl Solution {
+impl<S: Scalar> Solution<S> {
     /// A placeholder used to fill fixed-capacity storage.
-    pub const EMPTY: Solution = Solution {
-        joints: [0.0; JOINTS],
+    pub const EMPTY: Solution<S> = Solution {
+        joints: [S::ZERO; JOINTS],
         branch: Branch {
             shoulder: Shoulder::Only,
             elbow: Elbow::Only,
@@ -162,41 +165,45 @@ impl Solution {
 
 /// What is wrong with a target pose given to a solver.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub enum PoseProblem {
+pub enum PoseProblem<S: Scalar = f64> {
     /// An entry is NaN or infinite.
     NotFinite,
-    /// `RᵀR` differs from the identity by more than 1e-6 (largest entry difference given).
+    /// `RᵀR` differs from the identity by more than the scalar's rotation tolerance
+    /// ([`crate::math::rotation_tolerance`]: 1e-6 for `f64`, about 7.6e-6 for `f32`); the
+    /// largest entry difference is given.
     NotOrthonormal {
         /// Largest absolute entry of `RᵀR − I`.
-        error: f64,
+        error: S,
     },
     /// The rotation is a reflection (determinant −1).
     Reflection,
 }
 
 /// Why a target has no solution.
+///
+/// The amounts are in the solver's scalar `S` (`f64` unless said otherwise).
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub enum Unreachable {
+pub enum Unreachable<S: Scalar = f64> {
     /// The pose itself is invalid.
-    InvalidPose(PoseProblem),
+    InvalidPose(PoseProblem<S>),
     /// The wrist center is farther than the arm reaches, by `by` metres.
     BeyondReach {
         /// Metres beyond the reach.
-        by: f64,
+        by: S,
     },
     /// The wrist center is inside the region the arm cannot reach around its shoulder
     /// (too close to axis 1 for the shoulder offset, or closer to axis 2 than the folded arm),
     /// by `by` metres.
     InsideHole {
         /// Metres inside the unreachable region.
-        by: f64,
+        by: S,
     },
     /// The wrist cannot turn the tool to the requested orientation (possible only for wrists
     /// whose twist angles differ); `by` is the angle in radians by which the requested
     /// direction of axis 6 misses the cone the wrist can reach.
     WristOrientation {
         /// Radians outside the reachable cone.
-        by: f64,
+        by: S,
     },
     /// Every solution has a joint outside its limits; the one closest to the limits violates
     /// `joint` (0-based) by `by` (radians or metres).
@@ -204,13 +211,13 @@ pub enum Unreachable {
         /// 0-based joint index.
         joint: usize,
         /// Radians or metres beyond the nearest limit.
-        by: f64,
+        by: S,
     },
     /// The target is reachable, but not in the requested branch.
     BranchUnavailable,
 }
 
-impl fmt::Display for Unreachable {
+impl<S: Scalar> fmt::Display for Unreachable<S> {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match *self {
             Unreachable::InvalidPose(PoseProblem::NotFinite) => {
@@ -218,7 +225,8 @@ impl fmt::Display for Unreachable {
             }
             Unreachable::InvalidPose(PoseProblem::NotOrthonormal { error }) => write!(
                 f,
-                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {error:e}, allowed 1e-6)"
+                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {error:e}, allowed {:e})",
+                rotation_tolerance::<S>()
             ),
             Unreachable::InvalidPose(PoseProblem::Reflection) => {
                 write!(f, "invalid pose: the rotation is a reflection (determinant −1)")
@@ -246,17 +254,18 @@ impl fmt::Display for Unreachable {
     }
 }
 
-/// Solutions in fixed-capacity storage (no heap), with the reason when there are none.
+/// Solutions in fixed-capacity storage (no heap), with the reason when there are none; in the
+/// scalar `S` of its solver (`f64` unless said otherwise).
 #[derive(Clone, Debug)]
-pub struct SolutionSet<const CAP: usize> {
-    solutions: [Solution; CAP],
+pub struct SolutionSet<const CAP: usize, S: Scalar = f64> {
+    solutions: [Solution<S>; CAP],
     len: usize,
-    reason: Option<Unreachable>,
+    reason: Option<Unreachable<S>>,
 }
 
-impl<const CAP: usize> SolutionSet<CAP> {
+impl<const CAP: usize, S: Scalar> SolutionSet<CAP, S> {
     /// An empty set with a reason.
-    pub const fn unreachable(reason: Unreachable) -> Self {
+    pub const fn unreachable(reason: Unreachable<S>) -> Self {
         SolutionSet {
             solutions: [Solution::EMPTY; CAP],
             len: 0,
@@ -277,13 +286,13 @@ impl<const CAP: usize> SolutionSet<CAP> {
 
     /// The whole storage, to write solutions into.
     #[inline(always)]
-    pub(crate) fn storage_mut(&mut self) -> &mut [Solution] {
+    pub(crate) fn storage_mut(&mut self) -> &mut [Solution<S>] {
         &mut self.solutions
     }
 
     /// Records how many solutions were written, or the reason for none.
     #[inline(always)]
-    pub(crate) fn record(&mut self, outcome: Result<usize, Unreachable>) {
+    pub(crate) fn record(&mut self, outcome: Result<usize, Unreachable<S>>) {
         match outcome {
             Ok(len) => self.len = if len < CAP { len } else { CAP },
             Err(reason) => self.reason = Some(reason),
@@ -291,12 +300,12 @@ impl<const CAP: usize> SolutionSet<CAP> {
     }
 
     /// The solutions as a slice.
-    pub fn as_slice(&self) -> &[Solution] {
+    pub fn as_slice(&self) -> &[Solution<S>] {
         self.solutions.get(..self.len).unwrap_or(&[])
     }
 
     /// Iterates over the solutions.
-    pub fn iter(&self) -> core::slice::Iter<'_, Solution> {
+    pub fn iter(&self) -> core::slice::Iter<'_, Solution<S>> {
         self.as_slice().iter()
     }
 
@@ -311,12 +320,12 @@ impl<const CAP: usize> SolutionSet<CAP> {
     }
 
     /// Why there is no solution (`None` when there is at least one).
-    pub fn reason(&self) -> Option<Unreachable> {
+    pub fn reason(&self) -> Option<Unreachable<S>> {
         self.reason
     }
 
     /// `Ok(solutions)` or `Err(reason)`.
-    pub fn status(&self) -> Result<&[Solution], Unreachable> {
+    pub fn status(&self) -> Result<&[Solution<S>], Unreachable<S>> {
         match self.reason {
             Some(reason) if self.len == 0 => Err(reason),
             _ => Ok(self.as_slice()),
@@ -324,9 +333,9 @@ impl<const CAP: usize> SolutionSet<CAP> {
     }
 }
 
-impl<'a, const CAP: usize> IntoIterator for &'a SolutionSet<CAP> {
-    type Item = &'a Solution;
-    type IntoIter = core::slice::Iter<'a, Solution>;
+impl<'a, const CAP: usize, S: Scalar> IntoIterator for &'a SolutionSet<CAP, S> {
+    type Item = &'a Solution<S>;
+    type IntoIter = core::slice::Iter<'a, Solution<S>>;
     fn into_iter(self) -> Self::IntoIter {
         self.iter()
     }
