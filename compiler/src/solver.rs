@@ -165,7 +165,8 @@ impl Solver {
         target: &Pose,
         current: &[f64; JOINTS],
     ) -> Result<Solution, Unreachable> {
-        let reference = internal::reference(&self.plan.arm.joints, current);
+        let reference =
+            internal::reference_of(&self.plan.arm.joints, current, self.plan.free_joints);
         let all = self.finish(target, &reference, None)?;
         internal::nearest(&self.plan.arm.joints, &self.plan.settings, &all, current)
             .ok_or(Unreachable::BranchUnavailable)

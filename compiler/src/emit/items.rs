@@ -118,11 +118,13 @@ fn rule(r: &BranchRule) -> TokenStream {
         lit3(&r.wrist.axis5),
         lit3(&r.wrist.axis6),
     );
+    let mirrored = r.mirrored;
     quote! {
         ::armforge_runtime::internal::BranchRule {
             shoulder: #shoulder,
             elbow: #elbow,
             wrist: ::armforge_runtime::internal::WristRule { normal: #n, axis5: #a5, axis6: #a6 },
+            mirrored: #mirrored,
         }
     }
 }
@@ -276,6 +278,15 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
     let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| lit(x)).collect();
     let capacity = super::expr::index(plan.capacity);
     let (body, notes) = solver_body(plan);
+    let reference_call = if plan.free_joints == [0, 3] {
+        quote!(::armforge_runtime::internal::reference(
+            &JOINT_TABLE,
+            current
+        ))
+    } else {
+        let [a, b] = plan.free_joints.map(super::expr::index);
+        quote!(::armforge_runtime::internal::reference_of(&JOINT_TABLE, current, [#a, #b]))
+    };
     let test = if with_test {
         super::selftest::module(plan.arm.scale)
     } else {
@@ -343,7 +354,7 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
             current: &[f64; JOINTS],
         ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
             ::armforge_runtime::internal::check_pose(target)?;
-            let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
+            let reference = #reference_call;
             ::armforge_runtime::internal::near::<CAPACITY>(
                 &JOINT_TABLE,
                 &SETTINGS,

@@ -18,14 +18,12 @@
 //! reference), joint 6 when axis 6 lines up with the parallel axes (held at the reference, the
 //! sum Φ takes the rest).
 
-use armforge_runtime::internal::{
-    BranchRule, CheckKind, ElbowRule, ShoulderRule, WristRule,
-};
+use armforge_runtime::internal::{BranchRule, CheckKind, ElbowRule, WristRule};
 use armforge_runtime::plan::{CandidateLayout, CheckLayout};
 use armforge_runtime::{Branch, Elbow, Shoulder, Wrist};
 
 use super::arm::Arm;
-use super::decouple::Target;
+use super::decouple::{self, Target};
 use super::elbow;
 use super::graph::{Graph, Id};
 use super::planar::{self, TwoLink};
@@ -33,6 +31,9 @@ use super::pose::{self, Motion};
 use super::subproblems::{rotate_into_plane, rotate_onto};
 use super::vec3::{self, num, V3};
 use super::wrist::ALIGNED_SINE;
+use super::Plan;
+use crate::classify::Family;
+use crate::model::Model;
 use crate::units::tidy;
 
 /// Cosines below this count as perpendicular (the wrist check is then never needed).
@@ -124,6 +125,7 @@ pub fn rules(arm: &Arm) -> BranchRule {
             axis5: arm.axis(4),
             axis6: arm.axis(5),
         },
+        mirrored: false,
     }
 }
 
@@ -193,9 +195,6 @@ fn hand(
         &format!("aligned_{tag}"),
         format!("≥ 0 when axis 6 is within {ALIGNED_SINE:e} of the parallel axes' direction"),
     );
-    let safe = g.max(perp2, floor);
-    let one = g.constant(1.0);
-    let inv = g.div(one, safe);
     let scaled = vec3::scale_const(g, along, h6);
     let w_perp = vec3::sub(g, w, scaled);
     let mut out = Vec::with_capacity(2);
@@ -211,6 +210,16 @@ fn hand(
         };
         let y = vec3::name(g, y, &format!("y6_{name}"), "R5ᵀ h");
         let (nc, ns) = rotate_onto(g, h6, w_perp, y);
+        // Normalised by the root of nc² + ns² rather than by |h6 × w|²: near the alignment the
+        // two differ by rounding, and (cos θ6, sin θ6) must stay a unit pair to undo joint 6.
+        let inv = {
+            let q = g.mul_add2(nc, nc, ns, ns);
+            let floor4 = g.exact(ALIGNED_SINE.powi(4));
+            let safe = g.max(q, floor4);
+            let root = g.sqrt(safe);
+            let one = g.constant(1.0);
+            g.div(one, root)
+        };
         let (rc, rs) = if sigma > 0.0 {
             reference
         } else {
@@ -221,21 +230,25 @@ fn hand(
         let c6 = g.name(
             c6,
             &format!("j6_cos_{name}"),
-            "cos θ6 = w⊥ · R5ᵀh / |h6 × w|² (reference when aligned)",
+            "cos θ6 = w⊥ · R5ᵀh / √(nc² + ns²) (reference when aligned)",
         );
         let s6 = g.mul(ns, inv);
         let s6 = g.select(aligned, rs, s6);
         let s6 = g.name(
             s6,
             &format!("j6_sin_{name}"),
-            "sin θ6 = h6 · (w⊥ × R5ᵀh) / |h6 × w|² (reference when aligned)",
+            "sin θ6 = h6 · (w⊥ × R5ᵀh) / √(nc² + ns²) (reference when aligned)",
         );
         let theta6 = g.atan2(s6, c6);
         let theta6 = g.name(theta6, &format!("q6_{name}"), "θ6 = atan2(sin θ6, cos θ6)");
         out.push(Hand {
             angles: [theta5, theta6],
             turns: [(c5, s5), (c6, s6)],
-            wrist: if sigma > 0.0 { Wrist::Plus } else { Wrist::Minus },
+            wrist: if sigma > 0.0 {
+                Wrist::Plus
+            } else {
+                Wrist::Minus
+            },
         });
     }
     (out, check, aligned)
@@ -292,7 +305,10 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
         );
         let (hands, wrist_check, aligned) = hand(g, arm, &k, w, t.reference4, sigma1);
         for hd in &hands {
-            let tag = format!("{sigma1}{}", if hd.wrist == Wrist::Plus { "p" } else { "m" });
+            let tag = format!(
+                "{sigma1}{}",
+                if hd.wrist == Wrist::Plus { "p" } else { "m" }
+            );
             let [(c5, s5), (c6, s6)] = hd.turns;
             // Φ: R(h, Φ) x = R1ᵀ R R6ᵀ R5ᵀ x.
             let y = {
@@ -350,7 +366,12 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
                     format!("θ4 = {} (Φ − θ2 − φ3)", k.sense4),
                 );
                 let mut checks = [None; 4];
-                let list = [Some(one.check), wrist_check, Some(two.checks[0]), Some(two.checks[1])];
+                let list = [
+                    Some(one.check),
+                    wrist_check,
+                    Some(two.checks[0]),
+                    Some(two.checks[1]),
+                ];
                 for (slot, c) in checks.iter_mut().zip(list.into_iter().flatten()) {
                     *slot = Some(c);
                 }
@@ -380,4 +401,17 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
         }
     }
     out
+}
+
+/// The plan of a three-parallel arm.
+pub fn build(model: &Model, family: Family) -> Plan {
+    let probe = Arm::with_center(model, family, [0.0; 3]);
+    let k = Layout::of(&probe);
+    let arm = Arm::with_center(model, family, k.meeting);
+    let mut g = Graph::new();
+    let t = decouple::target(&mut g);
+    let candidates = solve(&mut g, &arm, &t);
+    let rule = rules(&arm);
+    let twist = k.twist_cosines(&arm);
+    super::assemble(arm, &g, &candidates, rule, twist, [0, 5])
 }

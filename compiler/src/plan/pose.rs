@@ -114,8 +114,18 @@ pub fn undo_revolute_const(
 pub fn name(g: &mut Graph, m: Motion, name: &str, note: &str) -> Motion {
     let mut rows = m.rows;
     for (i, row) in rows.iter_mut().enumerate() {
-        *row = vec3::name(g, *row, &format!("{name}_r{i}"), &format!("{note}: rotation row {i}"));
+        *row = vec3::name(
+            g,
+            *row,
+            &format!("{name}_r{i}"),
+            &format!("{note}: rotation row {i}"),
+        );
     }
-    let translation = vec3::name(g, m.translation, &format!("{name}_t"), &format!("{note}: translation"));
+    let translation = vec3::name(
+        g,
+        m.translation,
+        &format!("{name}_t"),
+        &format!("{note}: translation"),
+    );
     Motion { rows, translation }
 }
