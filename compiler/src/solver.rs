@@ -158,31 +158,44 @@ impl Solver {
             .collect())
     }
 
-    /// The solution nearest to `current` (wrap-aware); at the wrist singularity joint 4 stays
-    /// at its current value, on axis 1 joint 1 does.
+    /// The solution nearest to `current`: `current`'s own branch when it has a solution away
+    /// from singular poses, otherwise the nearest of every branch (wrap-aware); each joint
+    /// whose range exceeds a turn at the equivalent angle nearest `current`. At the wrist
+    /// singularity joint 4 stays at its current value, on axis 1 joint 1 does. The same rule
+    /// as the emitted `solve_near`.
     pub fn solve_near(
         &self,
         target: &Pose,
         current: &[f64; JOINTS],
     ) -> Result<Solution, Unreachable> {
-        let reference =
-            internal::reference_of(&self.plan.arm.joints, current, self.plan.free_joints);
-        let all = self.finish(target, &reference, None)?;
-        internal::nearest(&self.plan.arm.joints, &self.plan.settings, &all, current)
-            .ok_or(Unreachable::BranchUnavailable)
-    }
-
-    /// The configuration of one branch (among equivalent angles, the one nearest the centers
-    /// of the joint ranges).
-    pub fn solve_branch(&self, target: &Pose, branch: Branch) -> Result<Solution, Unreachable> {
-        let all = self.finish(target, &self.plan.zero_reference, Some(branch))?;
-        let mut center = [0.0; JOINTS];
-        for (c, j) in center.iter_mut().zip(self.plan.arm.joints.iter()) {
-            if j.limits[0].is_finite() && j.limits[1].is_finite() {
-                *c = 0.5 * (j.limits[0] + j.limits[1]);
+        internal::check_pose(target)?;
+        let (joints, settings) = (&self.plan.arm.joints, &self.plan.settings);
+        let anchor = internal::anchors_near(joints, current, settings.limit_tolerance);
+        // Away from singular poses the reference is not used (as in the emitted solver).
+        let candidates = self.candidates(target, &self.plan.zero_reference);
+        let own = self.branch_of(current);
+        if let Some(c) = candidates.iter().find(|c| c.branch == own) {
+            if let Ok(s) = internal::finish_one(joints, settings, c, &anchor) {
+                if !s.flags.is_singular() {
+                    return Ok(s);
+                }
             }
         }
-        internal::nearest(&self.plan.arm.joints, &self.plan.settings, &all, &center)
-            .ok_or(Unreachable::BranchUnavailable)
+        let reference = internal::reference_of(joints, current, self.plan.free_joints);
+        let candidates = self.candidates(target, &reference);
+        internal::nearest_candidate(joints, settings, &candidates, current, &anchor)
+    }
+
+    /// The configuration of one branch (each joint whose range exceeds a turn at the
+    /// equivalent angle nearest its range's center), or why there is none.
+    pub fn solve_branch(&self, target: &Pose, branch: Branch) -> Result<Solution, Unreachable> {
+        internal::check_pose(target)?;
+        let candidates = self.candidates(target, &self.plan.zero_reference);
+        let Some(c) = candidates.iter().find(|c| c.branch == branch) else {
+            return Err(Unreachable::BranchUnavailable);
+        };
+        let joints = &self.plan.arm.joints;
+        let centers = internal::centers(joints);
+        internal::finish_one(joints, &self.plan.settings, c, &centers)
     }
 }

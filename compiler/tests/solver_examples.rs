@@ -48,11 +48,7 @@ fn error(a: &Pose, b: &Pose, reach: f64) -> f64 {
 
 #[test]
 fn example_arms_round_trip_through_the_interpreter() {
-    let samples = if std::env::var_os("ARMFORGE_HEAVY").is_some() {
-        20_000
-    } else {
-        300
-    };
+    let samples = armforge_compiler::plan::samples::sample_count(300);
     for path in arms() {
         let model = load_file(&path).unwrap_or_else(|d| panic!("{d}"));
         let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));

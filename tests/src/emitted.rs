@@ -5,7 +5,7 @@
 //! and benchmarks can loop over the arms. The modules' own `#[cfg(test)]` round trips run
 //! with this crate's unit tests.
 
-use armforge_runtime::{Branch, Pose, Solution, Unreachable, JOINTS};
+use armforge_runtime::{Branch, Joint, Pose, Solution, Unreachable, JOINTS};
 
 /// One emitted solver, behind function pointers (SI units).
 #[derive(Clone, Copy)]
@@ -16,6 +16,10 @@ pub struct EmittedArm {
     pub capacity: usize,
     /// `solve`, as a list or the reason.
     pub solve: fn(&Pose) -> Result<Vec<Solution>, Unreachable>,
+    /// `solve`, counting the solutions (no heap: what a benchmark times).
+    pub solve_count: fn(&Pose) -> usize,
+    /// The module's `JOINT_TABLE`.
+    pub joints: &'static [Joint; JOINTS],
     /// `solve_near`.
     pub solve_near: fn(&Pose, &[f64; JOINTS]) -> Result<Solution, Unreachable>,
     /// `solve_branch`.
@@ -48,6 +52,8 @@ macro_rules! emitted_arms {
                 path: $path,
                 capacity: $name::CAPACITY,
                 solve: |target| $name::solve(target).status().map(<[Solution]>::to_vec),
+                solve_count: |target| $name::solve(target).len(),
+                joints: &$name::JOINT_TABLE,
                 solve_near: $name::solve_near,
                 solve_branch: $name::solve_branch,
                 branch_of: $name::branch_of,

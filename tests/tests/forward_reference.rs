@@ -47,14 +47,19 @@ fn every_example_arm_matches_the_nalgebra_reference() {
 
 #[test]
 fn every_twin_fixture_matches_the_nalgebra_reference() {
-    for path in toml_files_in(&fixture("twins")) {
+    let twins = toml_files_in(&fixture("twins"));
+    // Two arms (elbow, cylinder), each in the three conventions.
+    assert_eq!(twins.len(), 6, "twin fixtures found: {twins:?}");
+    for path in twins {
         compare_with_reference(&path, sample_count(1000));
     }
 }
 
 #[test]
 fn the_unit_twins_match_the_nalgebra_reference() {
-    for path in toml_files_in(&fixture("units")) {
+    let units = toml_files_in(&fixture("units"));
+    assert_eq!(units.len(), 2, "unit fixtures found: {units:?}");
+    for path in units {
         compare_with_reference(&path, sample_count(200));
     }
 }

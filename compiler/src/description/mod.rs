@@ -104,6 +104,7 @@ use crate::diagnostics::{Diagnostic, Diagnostics, Location};
 use crate::model::Model;
 
 pub use checks::{MAX_JOINTS, ROTATION_TOLERANCE};
+pub use schema::{arm_name_problem, Convention};
 
 /// Reads a description file into a [`Model`], or every problem found in it.
 ///

@@ -6,7 +6,6 @@ use std::fmt::Write;
 
 use super::GENERATOR_VERSION;
 use crate::model::Model;
-use crate::plan::samples::family_name;
 use crate::plan::Plan;
 
 /// Text from a file made safe for a `//` comment: one line, no control characters.
@@ -41,7 +40,7 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     let _ = writeln!(
         h,
         "// Family: {} with a spherical wrist; {} candidate branches, at most {} solutions.",
-        family_name(plan.arm.family),
+        plan.arm.family.name(),
         plan.candidates.len(),
         plan.capacity
     );
@@ -49,6 +48,12 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
         h,
         "// Cost of one solve: {} sqrt, {} atan2, {} divisions, no loops, no heap.",
         counts.sqrt, counts.atan2, counts.div
+    );
+    let one = plan.branch_op_counts();
+    let _ = writeln!(
+        h,
+        "// Cost of one solve_branch: at most {} sqrt, {} atan2, {} divisions (that branch alone).",
+        one.sqrt, one.atan2, one.div
     );
     let _ = writeln!(h, "//");
     let _ = writeln!(

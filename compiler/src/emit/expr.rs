@@ -46,6 +46,13 @@ pub fn literal(x: f64) -> (TokenStream, Prec) {
     }
 }
 
+/// A call of the runtime's scalar math (`sqrt`, `atan2`, `sin_cos`, …): every math call the
+/// emitter prints goes through here, so the scalar type is chosen in one place.
+pub fn math_call(function: &str, args: &[TokenStream]) -> TokenStream {
+    let f = format_ident!("{}", function);
+    quote!(::armforge_runtime::math::#f(#(#args),*))
+}
+
 /// An unsuffixed integer literal.
 pub fn index(i: usize) -> proc_macro2::Literal {
     proc_macro2::Literal::usize_unsuffixed(i)
@@ -59,8 +66,14 @@ pub struct Bindings {
 impl Bindings {
     /// Named nodes and nodes used more than once get a `let` (constants never do).
     pub fn new(g: &Graph, extra_uses: &[Id]) -> Bindings {
+        Bindings::within(g, extra_uses, &vec![true; g.nodes().len()])
+    }
+
+    /// [`Bindings::new`] for the part of the graph marked `live` (what one branch needs):
+    /// uses are counted within that part only.
+    pub fn within(g: &Graph, extra_uses: &[Id], live: &[bool]) -> Bindings {
         let mut uses = vec![0usize; g.nodes().len()];
-        for node in g.nodes() {
+        for (node, _) in g.nodes().iter().zip(live).filter(|(_, &l)| l) {
             for o in operands(&node.op) {
                 uses[o as usize] += 1;
             }
@@ -70,7 +83,7 @@ impl Bindings {
         }
         let mut names = BTreeMap::new();
         for (i, node) in g.nodes().iter().enumerate() {
-            if matches!(node.op, Op::Const(_)) {
+            if matches!(node.op, Op::Const(_)) || !live[i] {
                 continue;
             }
             if let Some(name) = &node.name {
@@ -160,25 +173,12 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
             let x = wrap(r(x), Prec::Atom);
             (quote!(-#x), Prec::Unary)
         }
-        Op::Abs(x) => {
-            let x = r(x).0;
-            (quote!(::armforge_runtime::math::abs(#x)), Prec::Atom)
-        }
-        Op::Sqrt(x) => {
-            let x = r(x).0;
-            (quote!(::armforge_runtime::math::sqrt(#x)), Prec::Atom)
-        }
-        Op::Atan2(y, x) => {
-            let (y, x) = (r(y).0, r(x).0);
-            (quote!(::armforge_runtime::math::atan2(#y, #x)), Prec::Atom)
-        }
+        Op::Abs(x) => (math_call("abs", &[r(x).0]), Prec::Atom),
+        Op::Sqrt(x) => (math_call("sqrt", &[r(x).0]), Prec::Atom),
+        Op::Atan2(y, x) => (math_call("atan2", &[r(y).0, r(x).0]), Prec::Atom),
         Op::Min(m, hi) if clamp_parts(g, b, m, hi).is_some() => {
             let (x, lo) = clamp_parts(g, b, m, hi).unwrap_or((m, hi));
-            let (x, lo, hi) = (r(x).0, r(lo).0, r(hi).0);
-            (
-                quote!(::armforge_runtime::math::clamp(#x, #lo, #hi)),
-                Prec::Atom,
-            )
+            (math_call("clamp", &[r(x).0, r(lo).0, r(hi).0]), Prec::Atom)
         }
         Op::Min(x, y) => {
             let (x, y) = (wrap(r(x), Prec::Atom), r(y).0);

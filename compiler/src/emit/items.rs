@@ -9,8 +9,8 @@ use proc_macro2::TokenStream;
 use quote::{format_ident, quote};
 
 use super::expr::{definition, literal, reference, Bindings};
-use crate::plan::graph::Id;
-use crate::plan::Plan;
+use crate::plan::graph::{Graph, Id};
+use crate::plan::{candidate_roots, Plan};
 
 fn lit(x: f64) -> TokenStream {
     literal(x).0
@@ -164,19 +164,9 @@ fn check_kind(k: CheckKind) -> TokenStream {
     }
 }
 
-/// Every node a candidate reads directly (they count as uses for `let` decisions).
+/// Every node the candidates read directly (they count as uses for `let` decisions).
 fn candidate_uses(candidates: &[CandidateLayout]) -> Vec<Id> {
-    let mut uses = Vec::new();
-    for c in candidates {
-        uses.extend(c.model_values);
-        for ch in c.checks.iter().flatten() {
-            uses.push(ch.have_squared);
-            uses.push(ch.limit);
-        }
-        uses.extend(c.wrist_aligned);
-        uses.extend(c.on_axis_1);
-    }
-    uses
+    candidates.iter().flat_map(candidate_roots).collect()
 }
 
 fn candidate(plan: &Plan, b: &Bindings, c: &CandidateLayout) -> TokenStream {
@@ -223,15 +213,21 @@ fn candidate(plan: &Plan, b: &Bindings, c: &CandidateLayout) -> TokenStream {
     }
 }
 
-/// The straight-line body and the notes of its named steps.
-fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
-    let g = &plan.graph;
-    let b = Bindings::new(g, &candidate_uses(&plan.candidates));
+/// One `let` per bound node, in evaluation order, and the notes of the named steps; inputs
+/// are left out unless `with_inputs` (the caller binds them itself).
+pub(super) fn lets(
+    g: &Graph,
+    b: &Bindings,
+    with_inputs: bool,
+) -> (Vec<TokenStream>, BTreeMap<String, String>) {
     let mut notes = BTreeMap::new();
     let mut lets = Vec::new();
     for (&id, name) in b.bound() {
+        if !with_inputs && matches!(g.op(id), armforge_runtime::plan::Op::Input(_)) {
+            continue;
+        }
         let ident = format_ident!("{}", name);
-        let value = definition(g, &b, id).0;
+        let value = definition(g, b, id).0;
         lets.push(quote!(let #ident = #value;));
         if let Some(note) = &g.nodes()[id as usize].note {
             if !matches!(g.op(id), armforge_runtime::plan::Op::Input(_)) {
@@ -239,14 +235,13 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
             }
         }
     }
-    let candidates: Vec<TokenStream> = plan
-        .candidates
-        .iter()
-        .map(|c| candidate(plan, &b, c))
-        .collect();
-    let n = super::expr::index(plan.candidates.len());
-    let body = quote! {
-        /// The closed-form steps: every branch's candidate, in model values.
+    (lets, notes)
+}
+
+/// The lints a straight-line solver body trips by nature (long, many short names, literals
+/// as the description wrote them).
+pub(super) fn lint_allowances() -> TokenStream {
+    quote! {
         #[allow(
             clippy::approx_constant,
             clippy::excessive_precision,
@@ -256,6 +251,24 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
             clippy::unreadable_literal,
             clippy::suboptimal_flops
         )]
+    }
+}
+
+/// The straight-line body of every branch and the notes of its named steps.
+fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
+    let g = &plan.graph;
+    let b = Bindings::new(g, &candidate_uses(&plan.candidates));
+    let (lets, notes) = lets(g, &b, true);
+    let candidates: Vec<TokenStream> = plan
+        .candidates
+        .iter()
+        .map(|c| candidate(plan, &b, c))
+        .collect();
+    let n = super::expr::index(plan.candidates.len());
+    let lints = lint_allowances();
+    let body = quote! {
+        /// The closed-form steps: every branch's candidate, in model values.
+        #lints
         #[inline]
         fn candidates(
             target: &::armforge_runtime::Pose,
@@ -268,6 +281,139 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
     (body, notes)
 }
 
+/// The name of the function that computes only candidate `k` (0-based).
+fn branch_fn_name(k: usize) -> proc_macro2::Ident {
+    format_ident!("branch_{}", k + 1)
+}
+
+/// One function per branch: only the steps that branch's candidate needs (one joint-1 root,
+/// one elbow root, one wrist root).
+fn branch_bodies(plan: &Plan) -> TokenStream {
+    let g = &plan.graph;
+    let lints = lint_allowances();
+    let fns = plan.candidates.iter().enumerate().map(|(k, c)| {
+        let uses = candidate_uses(std::slice::from_ref(c));
+        let b = Bindings::within(g, &uses, &g.needed(&uses));
+        let (lets, _) = lets(g, &b, true);
+        let value = candidate(plan, &b, c);
+        let name = branch_fn_name(k);
+        let doc = format!(
+            " The closed-form steps of branch {} alone ({}).",
+            k + 1,
+            c.branch
+        );
+        quote! {
+            #[doc = #doc]
+            #lints
+            #[allow(unused_variables)]
+            #[inline]
+            fn #name(
+                target: &::armforge_runtime::Pose,
+                reference: &[f64; 4],
+            ) -> ::armforge_runtime::internal::Candidate {
+                #(#lets)*
+                #value
+            }
+        }
+    });
+    quote!(#(#fns)*)
+}
+
+/// `match` arms from each branch label to its function's candidate: `label => wrap(call)`.
+fn branch_arms(plan: &Plan, wrap: impl Fn(TokenStream) -> TokenStream) -> Vec<TokenStream> {
+    plan.candidates
+        .iter()
+        .enumerate()
+        .map(|(k, c)| {
+            let pattern = branch(&c.branch);
+            let name = branch_fn_name(k);
+            let call = wrap(quote!(#name(target, &reference)));
+            quote!(#pattern => #call,)
+        })
+        .collect()
+}
+
+/// `solve_branch` and `solve_near`: one branch's steps, finished with the arm's constants.
+fn branch_api(plan: &Plan) -> TokenStream {
+    let reference_call = if plan.free_joints == [0, 3] {
+        quote!(::armforge_runtime::internal::reference(
+            &JOINT_TABLE,
+            current
+        ))
+    } else {
+        let [a, b] = plan.free_joints.map(super::expr::index);
+        quote!(::armforge_runtime::internal::reference_of(&JOINT_TABLE, current, [#a, #b]))
+    };
+    let centers: Vec<TokenStream> = armforge_runtime::internal::centers(&plan.arm.joints)
+        .iter()
+        .map(|&x| lit(x))
+        .collect();
+    let by_label = branch_arms(plan, |call| call);
+    let own = branch_arms(plan, |call| quote!(::core::option::Option::Some(#call)));
+    quote! {
+        /// The value each joint is wrapped toward by `solve_branch`: its range's center.
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        const CENTERS: [f64; JOINTS] = [#(#centers),*];
+
+        /// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+        /// when it has one away from singular poses, otherwise the nearest of every branch
+        /// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+        /// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+        /// current value (joint 1 likewise on axis 1).
+        pub fn solve_near(
+            target: &::armforge_runtime::Pose,
+            current: &[f64; JOINTS],
+        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
+            ::armforge_runtime::internal::check_pose(target)?;
+            let anchor = ::armforge_runtime::internal::anchors_near(
+                &JOINT_TABLE,
+                current,
+                SETTINGS.limit_tolerance,
+            );
+            // Away from singular poses the free joints' reference is not used: try the own
+            // branch with the zero reference, and work out `current`'s only when needed.
+            let reference = ZERO_REFERENCE;
+            let own = match branch_of(current) {
+                #(#own)*
+                _ => ::core::option::Option::None,
+            };
+            if let ::core::option::Option::Some(candidate) = own {
+                if let ::core::result::Result::Ok(solution) =
+                    ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &anchor)
+                {
+                    if !solution.flags.is_singular() {
+                        return ::core::result::Result::Ok(solution);
+                    }
+                }
+            }
+            let reference = #reference_call;
+            ::armforge_runtime::internal::nearest_candidate(
+                &JOINT_TABLE,
+                &SETTINGS,
+                &candidates(target, &reference),
+                current,
+                &anchor,
+            )
+        }
+
+        /// The one configuration of `branch` (each joint whose range exceeds a turn at the
+        /// equivalent angle nearest its range's center), or why there is none. Computes that
+        /// branch alone.
+        pub fn solve_branch(
+            target: &::armforge_runtime::Pose,
+            branch: ::armforge_runtime::Branch,
+        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
+            ::armforge_runtime::internal::check_pose(target)?;
+            let reference = ZERO_REFERENCE;
+            let candidate = match branch {
+                #(#by_label)*
+                _ => return ::core::result::Result::Err(::armforge_runtime::Unreachable::BranchUnavailable),
+            };
+            ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &CENTERS)
+        }
+    }
+}
+
 /// The whole module as tokens, and the notes for the step comments.
 pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, String>) {
     let joints: Vec<TokenStream> = plan.arm.joints.iter().map(joint).collect();
@@ -278,15 +424,9 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
     let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| lit(x)).collect();
     let capacity = super::expr::index(plan.capacity);
     let (body, notes) = solver_body(plan);
-    let reference_call = if plan.free_joints == [0, 3] {
-        quote!(::armforge_runtime::internal::reference(
-            &JOINT_TABLE,
-            current
-        ))
-    } else {
-        let [a, b] = plan.free_joints.map(super::expr::index);
-        quote!(::armforge_runtime::internal::reference_of(&JOINT_TABLE, current, [#a, #b]))
-    };
+    let branches = branch_bodies(plan);
+    let branch_api = branch_api(plan);
+    let forward = super::forward::function(&plan.arm.joints, &plan.arm.base, &plan.arm.tool);
     let test = if with_test {
         super::selftest::module(plan.arm.scale)
     } else {
@@ -306,12 +446,13 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [#(#joints),*];
 
-        /// The base frame in the world.
-        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        /// The base frame in the world (folded into `forward`; kept for callers).
+        #[allow(dead_code, clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         pub const BASE: ::armforge_runtime::Pose = #base;
 
-        /// The tool frame in the base frame with every model value at zero.
-        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        /// The tool frame in the base frame with every model value at zero (folded into
+        /// `forward`; kept for callers).
+        #[allow(dead_code, clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         pub const TOOL: ::armforge_runtime::Pose = #tool;
 
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
@@ -325,10 +466,8 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const ZERO_REFERENCE: [f64; 4] = [#(#zero),*];
 
-        /// Forward kinematics: the tool pose in the world for joint values (SI units).
-        pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-            ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
-        }
+        #forward
+
 
         /// Every solution within the joint limits (equivalent angles included), each with its
         /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -347,36 +486,7 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
             )
         }
 
-        /// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-        /// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
-        pub fn solve_near(
-            target: &::armforge_runtime::Pose,
-            current: &[f64; JOINTS],
-        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
-            ::armforge_runtime::internal::check_pose(target)?;
-            let reference = #reference_call;
-            ::armforge_runtime::internal::near::<CAPACITY>(
-                &JOINT_TABLE,
-                &SETTINGS,
-                &candidates(target, &reference),
-                current,
-            )
-        }
-
-        /// The one configuration of `branch` (among equivalent angles, the one nearest the
-        /// centers of the joint ranges), or why there is none.
-        pub fn solve_branch(
-            target: &::armforge_runtime::Pose,
-            branch: ::armforge_runtime::Branch,
-        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
-            ::armforge_runtime::internal::check_pose(target)?;
-            ::armforge_runtime::internal::first_of_branch::<CAPACITY>(
-                &JOINT_TABLE,
-                &SETTINGS,
-                &candidates(target, &ZERO_REFERENCE),
-                branch,
-            )
-        }
+        #branch_api
 
         /// The branch label of any configuration; agrees with the labels `solve` reports.
         pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -384,6 +494,8 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         }
 
         #body
+
+        #branches
 
         #test
     };

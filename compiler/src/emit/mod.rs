@@ -21,6 +21,7 @@
 
 mod comments;
 mod expr;
+mod forward;
 mod items;
 mod selftest;
 
@@ -54,4 +55,19 @@ pub fn emit_module(model: &Model, plan: &Plan, options: &EmitOptions) -> String 
     let mut out = comments::header(model, plan, &options.source_path);
     out.push_str(&body);
     out
+}
+
+/// The module checked in for a sample-arm fixture (`tests/tests/generated/NAME.rs`, see
+/// [`crate::plan::samples::fixtures`]).
+pub fn emit_fixture(fixture: &crate::plan::samples::Fixture) -> String {
+    let (model, geometry) = fixture.arm();
+    let plan = crate::plan::build_plan(&model, &geometry);
+    emit_module(
+        &model,
+        &plan,
+        &EmitOptions {
+            source_path: format!("<sample arm {}>", fixture.name),
+            without_test: false,
+        },
+    )
 }

@@ -360,9 +360,8 @@ impl Graph {
         self.add(x, y)
     }
 
-    /// Keeps only the nodes that `roots` need, renumbered in evaluation order. Returns the
-    /// compacted graph and the map from old to new ids.
-    pub fn compact(&self, roots: &[Id]) -> (Graph, Vec<Option<Id>>) {
+    /// Which nodes `roots` need (themselves included), by id.
+    pub fn needed(&self, roots: &[Id]) -> Vec<bool> {
         let mut live = vec![false; self.nodes.len()];
         for &r in roots {
             live[r as usize] = true;
@@ -374,6 +373,13 @@ impl Graph {
                 }
             }
         }
+        live
+    }
+
+    /// Keeps only the nodes that `roots` need, renumbered in evaluation order. Returns the
+    /// compacted graph and the map from old to new ids.
+    pub fn compact(&self, roots: &[Id]) -> (Graph, Vec<Option<Id>>) {
+        let live = self.needed(roots);
         let mut map = vec![None; self.nodes.len()];
         let mut out = Graph::new();
         for (i, node) in self.nodes.iter().enumerate() {

@@ -124,20 +124,41 @@ impl Plan {
 
     /// Counts the operations of one evaluation.
     pub fn op_counts(&self) -> OpCounts {
-        let mut c = OpCounts::default();
-        for n in self.graph.nodes() {
-            match n.op {
-                Op::Sqrt(_) => c.sqrt += 1,
-                Op::Atan2(..) => c.atan2 += 1,
-                Op::Div(..) => c.div += 1,
-                Op::Mul(..) => c.mul += 1,
-                Op::Add(..) | Op::Sub(..) | Op::Neg(_) => c.add += 1,
-                Op::Select(..) | Op::Min(..) | Op::Max(..) | Op::Abs(_) => c.select += 1,
-                Op::Input(_) | Op::Const(_) => {}
+        count_ops(self.graph.nodes().iter())
+    }
+
+    /// Counts the operations one branch alone needs (what the emitted `solve_branch` runs),
+    /// the most over the branches.
+    pub fn branch_op_counts(&self) -> OpCounts {
+        let nodes = self.graph.nodes();
+        let mut most = OpCounts::default();
+        for c in &self.candidates {
+            let roots = candidate_roots(c);
+            let live = self.graph.needed(&roots);
+            let n = count_ops(nodes.iter().zip(&live).filter(|(_, &l)| l).map(|(n, _)| n));
+            if (n.atan2, n.sqrt) > (most.atan2, most.sqrt) {
+                most = n;
             }
         }
-        c
+        most
     }
+}
+
+/// Counts the operations of some nodes.
+fn count_ops<'a>(nodes: impl Iterator<Item = &'a graph::Node>) -> OpCounts {
+    let mut c = OpCounts::default();
+    for n in nodes {
+        match n.op {
+            Op::Sqrt(_) => c.sqrt += 1,
+            Op::Atan2(..) => c.atan2 += 1,
+            Op::Div(..) => c.div += 1,
+            Op::Mul(..) => c.mul += 1,
+            Op::Add(..) | Op::Sub(..) | Op::Neg(_) => c.add += 1,
+            Op::Select(..) | Op::Min(..) | Op::Max(..) | Op::Abs(_) => c.select += 1,
+            Op::Input(_) | Op::Const(_) => {}
+        }
+    }
+    c
 }
 
 /// Builds the plan of a classified arm.
@@ -305,17 +326,21 @@ pub fn free_joint_1_value(joint: &armforge_runtime::Joint) -> f64 {
         .unwrap_or(0.0)
 }
 
-fn compact(g: &Graph, candidates: &[CandidateLayout]) -> (Graph, Vec<CandidateLayout>) {
+/// The values a candidate reads from the plan (its model values, checks and flags).
+pub fn candidate_roots(c: &CandidateLayout) -> Vec<Id> {
     let mut roots = Vec::new();
-    for c in candidates {
-        roots.extend(c.model_values);
-        for ch in c.checks.iter().flatten() {
-            roots.push(ch.have_squared);
-            roots.push(ch.limit);
-        }
-        roots.extend(c.wrist_aligned);
-        roots.extend(c.on_axis_1);
+    roots.extend(c.model_values);
+    for ch in c.checks.iter().flatten() {
+        roots.push(ch.have_squared);
+        roots.push(ch.limit);
     }
+    roots.extend(c.wrist_aligned);
+    roots.extend(c.on_axis_1);
+    roots
+}
+
+fn compact(g: &Graph, candidates: &[CandidateLayout]) -> (Graph, Vec<CandidateLayout>) {
+    let roots: Vec<Id> = candidates.iter().flat_map(candidate_roots).collect();
     let (graph, map) = g.compact(&roots);
     let m = |id: Id| map[id as usize].unwrap_or(0);
     let remapped = candidates

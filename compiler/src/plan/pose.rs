@@ -79,10 +79,12 @@ pub fn joint_motions(g: &mut Graph, arm: &Arm, t: &Target) -> Motion {
         [columns[0][1], columns[1][1], columns[2][1]],
         [columns[0][2], columns[1][2], columns[2][2]],
     ];
-    let back = num::scale(
-        &num::mat_mul(&num::transpose(&m.rotation), &m.translation),
-        -1.0,
-    );
+    // −M_Rᵀ M_t: the tool frame's origin seen from its own axes, reversed.
+    let back: [f64; 3] = std::array::from_fn(|i| {
+        -(0..3)
+            .map(|k| m.rotation[k][i] * m.translation[k])
+            .sum::<f64>()
+    });
     let k = vec3::constant(g, back);
     let moved = vec3::mat_mul(g, &t.rotation, k);
     let world = vec3::add(g, moved, t.translation);

@@ -2,9 +2,12 @@
 //! like the ones the module uses (`Pose`, `Result`, `Option`, `core`, `f64` helpers), all under
 //! `#![deny(warnings)]`: the emitted code must use absolute paths and compile cleanly.
 //!
-//! Built alone (`cargo build -p armforge-nostd-check`), the runtime is compiled without its
-//! `std` feature, on `libm`. `cargo clippy --workspace --all-targets -- -D warnings` lints the
-//! emitted code here too.
+//! Built alone (`cargo build -p armforge-nostd-check --features standalone`, as CI does), the
+//! runtime is compiled without its `std` feature, on `libm`, and the crate defines its own
+//! `#[panic_handler]`: if anything in its dependency graph linked `std`, the build would fail
+//! with "duplicate lang item `panic_impl`". (In a workspace build other crates turn `std` on,
+//! so the feature stays off there.) `cargo clippy --workspace --all-targets -- -D warnings`
+//! lints the emitted code here too.
 #![no_std]
 #![deny(warnings)]
 #![allow(dead_code)]
@@ -31,6 +34,13 @@ armforge_macros::solver!(
     /// The cylindrical centrifuge loader's solver.
     pub mod centrifuge_loader = "../../arms/centrifuge-loader-dh.toml";
 );
+
+/// The panic handler of a firmware image: only a build without `std` may define one.
+#[cfg(feature = "standalone")]
+#[panic_handler]
+fn halt(_: &::core::panic::PanicInfo) -> ! {
+    loop {}
+}
 
 /// Uses the emitted module without `std`: the number of solutions of the zero pose.
 pub fn solutions_at_zero() -> usize {

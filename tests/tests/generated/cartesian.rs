@@ -4,6 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: cartesian with a spherical wrist; 2 candidate branches, at most 2 solutions.
 // Cost of one solve: 3 sqrt, 6 atan2, 2 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 2 sqrt, 3 atan2, 1 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -71,8 +72,9 @@ pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [
         limits: [-::core::f64::consts::PI, ::core::f64::consts::PI],
     },
 ];
-/// The base frame in the world.
+/// The base frame in the world (folded into `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -85,8 +87,10 @@ pub const BASE: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     ],
     translation: [0.9412945896500504, 0.9329151484305636, 0.16166977542477623],
 };
-/// The tool frame in the base frame with every model value at zero.
+/// The tool frame in the base frame with every model value at zero (folded into
+/// `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -139,9 +143,182 @@ const ZERO_REFERENCE: [f64; 4] = [
     0.8846595584752271,
     0.4662375634785513,
 ];
-/// Forward kinematics: the tool pose in the world for joint values (SI units).
+/// Forward kinematics: the tool pose in the world for joint values (SI units). The
+/// product of exponentials with this arm's axes, base and tool folded in: one
+/// `sin_cos` per revolute joint.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
 pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-    ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+    let d1 = joints[0] + 0.021996612143654865;
+    let d2 = joints[1] + 0.14193889192483788;
+    let d3 = joints[2] - 0.12474439304819077;
+    let (s4, c4) = ::armforge_runtime::math::sin_cos(joints[3] + 0.48503301131555476);
+    let (s5, c5) = ::armforge_runtime::math::sin_cos(-joints[4] - 0.9397847731753595);
+    let (s6, c6) = ::armforge_runtime::math::sin_cos(-joints[5] - 0.8123383109623468);
+    let t101 = 0.9298574623584592 * c4 + 0.07014253764154077;
+    let t103 = 0.01818305246175069 * c4;
+    let t105 = 0.9618439941275024 * s4;
+    let t107 = t103 - t105 - 0.01818305246175069;
+    let t110 = 0.2547389617979924 * c4;
+    let t111 = 0.06865561389509453 * s4;
+    let t113 = t110 + t111 - 0.2547389617979924;
+    let t119 = 0.16245019494452895 * c4 - 0.2320468403053928 * s4 - 0.16245019494452895;
+    let t121 = t103 + t105 - 0.01818305246175069;
+    let t125 = 0.9952864066806877 * c4 + 0.004713593319312297;
+    let t128 = 0.06603598988813338 * c4;
+    let t129 = 0.2648443649420179 * s4;
+    let t131 = t129 - t128 + 0.06603598988813338;
+    let t137 = 0.2432057699978154 * c4 + 0.163500784406 * s4 - 0.2432057699978154;
+    let t139 = t110 - t111 - 0.2547389617979924;
+    let t141 = 0.06603598988813338 - (t128 + t129);
+    let t145 = 0.07485613096085308 * c4 + 0.9251438690391469;
+    let t151 = 0.027370943139945147 * c4 - 0.0755647955666 * s4 - 0.027370943139945147;
+    let t156 = 0.4451729166863663 * t139
+        + (0.8834798285294627 * t121 - 0.14589196972590557 * t101);
+    let t161 = 0.4451729166863663 * t141
+        + (0.8834798285294627 * t125 - 0.14589196972590557 * t107);
+    let t166 = 0.4451729166863663 * t145
+        + (0.8834798285294627 * t131 - 0.14589196972590557 * t113);
+    let t177 = 0.5674738351759937 * t139
+        - (0.7172497222885788 * t101 + 0.4043838303735768 * t121);
+    let t182 = 0.5674738351759937 * t141
+        - (0.7172497222885788 * t107 + 0.4043838303735768 * t125);
+    let t187 = 0.5674738351759937 * t145
+        - (0.7172497222885788 * t113 + 0.4043838303735768 * t131);
+    let t198 = 0.6926720151988258 * t139
+        + (0.6813724158244535 * t101 - 0.23651027528195326 * t121);
+    let t203 = 0.6926720151988258 * t141
+        + (0.6813724158244535 * t107 - 0.23651027528195326 * t125);
+    let t208 = 0.6926720151988258 * t145
+        + (0.6813724158244535 * t113 - 0.23651027528195326 * t131);
+    let t220 = 0.33094605789866516 * c5 + 0.6690539421013348;
+    let t223 = 0.32106478866418897 * c5;
+    let t224 = 0.4205637635480731 * s5;
+    let t226 = t224 - t223 + 0.32106478866418897;
+    let t229 = 0.3440031484449208 * c5;
+    let t230 = 0.39252029079901796 * s5;
+    let t232 = t229 + t230 - 0.3440031484449208;
+    let t238 = 0.00948349643031171 * c5 + 0.1578433111123979 * s5 - 0.00948349643031171;
+    let t240 = 0.32106478866418897 - (t223 + t224);
+    let t244 = 0.8459278213110544 * c5 + 0.15407217868894563;
+    let t246 = 0.1650798107674191 * c5;
+    let t248 = 0.8179571762026022 * s5;
+    let t250 = t246 - t248 - 0.1650798107674191;
+    let t256 = 0.19138575209896555 * c5 - 0.16518203788794839 * s5 - 0.19138575209896555;
+    let t258 = t229 - t230 - 0.3440031484449208;
+    let t260 = t246 + t248 - 0.1650798107674191;
+    let t264 = 0.8231261207902805 * c5 + 0.17687387920971956;
+    let t270 = 0.19706853564873578 * c5 + 0.15282288457566373 * s5 - 0.19706853564873578;
+    let t275 = t166 * t258 + (t156 * t220 + t161 * t240);
+    let t280 = t166 * t260 + (t156 * t226 + t161 * t244);
+    let t285 = t166 * t264 + (t156 * t232 + t161 * t250);
+    let t296 = t187 * t258 + (t177 * t220 + t182 * t240);
+    let t301 = t187 * t260 + (t177 * t226 + t182 * t244);
+    let t306 = t187 * t264 + (t177 * t232 + t182 * t250);
+    let t317 = t208 * t258 + (t198 * t220 + t203 * t240);
+    let t322 = t208 * t260 + (t198 * t226 + t203 * t244);
+    let t327 = t208 * t264 + (t198 * t232 + t203 * t250);
+    let t339 = 0.717116549481341 * c6 + 0.28288345051865904;
+    let t342 = 0.45034045101550374 * c6;
+    let t343 = 0.013801254640110039 * s6;
+    let t345 = t342 + t343 - 0.45034045101550374;
+    let t348 = 0.007340444160209562 * c6;
+    let t349 = 0.8467148722277766 * s6;
+    let t351 = t349 - t348 + 0.007340444160209562;
+    let t357 = 0.20750788188818262 * c6 + 0.11644211594882181 * s6 - 0.20750788188818262;
+    let t359 = t342 - t343 - 0.45034045101550374;
+    let t363 = 0.2830739251482999 * c6 + 0.7169260748517001;
+    let t366 = 0.01168572755918378 * c6;
+    let t367 = 0.5318678882191131 * s6;
+    let t369 = t366 + t367 - 0.01168572755918378;
+    let t375 = 0.13255340499475146 * c6 + 0.0691306398265087 * s6 - 0.13255340499475146;
+    let t377 = 0.007340444160209562 - (t348 + t349);
+    let t379 = t366 - t367 - 0.01168572755918378;
+    let t383 = 0.9998095253703588 * c6 + 0.00019047462964115887;
+    let t389 = 0.13536163874329987 * c6 - 0.24620090929002042 * s6 - 0.13536163874329987;
+    let t394 = t285 * t377 + (t275 * t339 + t280 * t359);
+    let t399 = t285 * t379 + (t275 * t345 + t280 * t363);
+    let t404 = t285 * t383 + (t275 * t351 + t280 * t369);
+    let t415 = t306 * t377 + (t296 * t339 + t301 * t359);
+    let t420 = t306 * t379 + (t296 * t345 + t301 * t363);
+    let t425 = t306 * t383 + (t296 * t351 + t301 * t369);
+    let t436 = t327 * t377 + (t317 * t339 + t322 * t359);
+    let t441 = t327 * t379 + (t317 * t345 + t322 * t363);
+    let t446 = t327 * t383 + (t317 * t351 + t322 * t369);
+    ::armforge_runtime::Pose {
+        rotation: [
+            [
+                0.373993185315931 * t404
+                    + (0.9261342623124849 * t394 - 0.04903494170642997 * t399),
+                0.6740311190882858 * t404
+                    + (0.7002891112039457 * t399 - 0.2351110614789973 * t394),
+                0.6370330822161725 * t404
+                    - (0.29495443197403975 * t394 + 0.7121732480380282 * t399),
+            ],
+            [
+                0.373993185315931 * t425
+                    + (0.9261342623124849 * t415 - 0.04903494170642997 * t420),
+                0.6740311190882858 * t425
+                    + (0.7002891112039457 * t420 - 0.2351110614789973 * t415),
+                0.6370330822161725 * t425
+                    - (0.29495443197403975 * t415 + 0.7121732480380282 * t420),
+            ],
+            [
+                0.373993185315931 * t446
+                    + (0.9261342623124849 * t436 - 0.04903494170642997 * t441),
+                0.6740311190882858 * t446
+                    + (0.7002891112039457 * t441 - 0.2351110614789973 * t436),
+                0.6370330822161725 * t446
+                    - (0.29495443197403975 * t436 + 0.7121732480380282 * t441),
+            ],
+        ],
+        translation: [
+            0.12632060837733813 * d1 - 0.26682143161280336 * d1
+                - 0.17756319453929434 * d1 + 0.9412945896500504
+                + (0.3515998227205034 * d2
+                    + (0.033824362150085836 * d2 - 0.501685667161563 * d2))
+                + (0.1441718476412187 * d3 - 0.03046946609404886 * d3
+                    - 0.42925199137452924 * d3)
+                + (0.4451729166863663 * t151
+                    + (0.8834798285294627 * t137 - 0.14589196972590557 * t119))
+                + (t166 * t270 + (t156 * t238 + t161 * t256))
+                + (t285 * t389 + (t275 * t357 + t280 * t375))
+                - (0.3168413904375249 * t404
+                    + (0.09326540736123742 * t394 + 0.31858353463994965 * t399)),
+            0.6210309001118512 * d1 + 0.12212873351159771 * d1 - 0.2263445578435844 * d1
+                + 0.9329151484305636
+                + (0.4481937071364388 * d2
+                    + (0.16629095079267764 * d2 + 0.22963011172308917 * d2))
+                - (0.5471790054421717 * d3
+                    + (0.14979725159168392 * d3 + 0.06598992087712108 * d3))
+                + (0.5674738351759937 * t151
+                    - (0.7172497222885788 * t119 + 0.4043838303735768 * t137))
+                + (t187 * t270 + (t177 * t238 + t182 * t256))
+                + (t306 * t389 + (t296 * t357 + t301 * t375))
+                - (0.3168413904375249 * t425
+                    + (0.09326540736123742 * t415 + 0.31858353463994965 * t420)),
+            0.07142892028096202 * d1 - 0.5899665229017617 * d1 - 0.2762815328079029 * d1
+                + 0.16166977542477623
+                + (0.547075863375 * d2
+                    + (0.13430280060031355 * d2 - 0.15797296722516463 * d2))
+                + (0.14230429378935772 * d3 - 0.038595248326482125 * d3
+                    - 0.6678996649362208 * d3)
+                + (0.6926720151988258 * t151
+                    + (0.6813724158244535 * t119 - 0.23651027528195326 * t137))
+                + (t208 * t270 + (t198 * t238 + t203 * t256))
+                + (t327 * t389 + (t317 * t357 + t322 * t375))
+                - (0.3168413904375249 * t446
+                    + (0.09326540736123742 * t436 + 0.31858353463994965 * t441)),
+        ],
+    }
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -157,8 +334,18 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
         CAPACITY,
     >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
 }
-/// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-/// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+/// The value each joint is wrapped toward by `solve_branch`: its range's center.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+/// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+/// when it has one away from singular poses, otherwise the nearest of every branch
+/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+/// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
     target: &::armforge_runtime::Pose,
     current: &[f64; JOINTS],
@@ -167,13 +354,49 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    let anchor = ::armforge_runtime::internal::anchors_near(
+        &JOINT_TABLE,
+        current,
+        SETTINGS.limit_tolerance,
+    );
+    let reference = ZERO_REFERENCE;
+    let own = match branch_of(current) {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Only,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_1(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Only,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_2(target, &reference)),
+        _ => ::core::option::Option::None,
+    };
+    if let ::core::option::Option::Some(candidate) = own {
+        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &candidate,
+            &anchor,
+        ) {
+            if !solution.flags.is_singular() {
+                return ::core::result::Result::Ok(solution);
+            }
+        }
+    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    ::armforge_runtime::internal::near::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &reference), current)
+    ::armforge_runtime::internal::nearest_candidate(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &reference),
+        current,
+        &anchor,
+    )
 }
-/// The one configuration of `branch` (among equivalent angles, the one nearest the
-/// centers of the joint ranges), or why there is none.
+/// The one configuration of `branch` (each joint whose range exceeds a turn at the
+/// equivalent angle nearest its range's center), or why there is none. Computes that
+/// branch alone.
 pub fn solve_branch(
     target: &::armforge_runtime::Pose,
     branch: ::armforge_runtime::Branch,
@@ -182,9 +405,30 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
-    ::armforge_runtime::internal::first_of_branch::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE), branch)
+    let reference = ZERO_REFERENCE;
+    let candidate = match branch {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Only,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_1(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Only,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_2(target, &reference),
+        _ => {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::Unreachable::BranchUnavailable,
+            );
+        }
+    };
+    ::armforge_runtime::internal::finish_one(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidate,
+        &CENTERS,
+    )
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -504,6 +748,446 @@ fn candidates(
             on_axis_1: false,
         },
     ]
+}
+/// The closed-form steps of branch 1 alone (shoulder single, elbow single, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_1(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t36 = px
+        + (0.0803381252800323 * r02
+            + (0.028241040306763852 * r00 + 0.180506147271682 * r01))
+        - 0.9412945896500504;
+    let t38 = py
+        + (0.0803381252800323 * r12
+            + (0.028241040306763852 * r10 + 0.180506147271682 * r11))
+        - 0.9329151484305636;
+    let t40 = pz
+        + (0.0803381252800323 * r22
+            + (0.028241040306763852 * r20 + 0.180506147271682 * r21))
+        - 0.16166977542477623;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (x)
+    let wc_x = 0.6813724158244535 * t40
+        - (0.14589196972590557 * t36 + 0.7172497222885788 * t38);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (y)
+    let wc_y = 0.8834798285294627 * t36 - 0.4043838303735768 * t38
+        - 0.23651027528195326 * t40;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (z)
+    let wc_z = 0.6926720151988258 * t40
+        + (0.4451729166863663 * t36 + 0.5674738351759937 * t38);
+    // c_t − c: how far the slides move the wrist center (x)
+    let shift_x = wc_x + 0.13324549032615607;
+    // c_t − c: how far the slides move the wrist center (y)
+    let shift_y = wc_y + 0.2507765065873527;
+    // c_t − c: how far the slides move the wrist center (z)
+    let shift_z = wc_z + 0.133434629802108;
+    // slide 1 = (-1.110472, 0.155443, -0.214217) · (c_t − c)  (row of U⁻¹, Cramer's rule)
+    let q1 = 0.15544255269071328 * shift_y - 1.1104718105116462 * shift_x
+        - 0.21421651300803188 * shift_z;
+    // slide 2 = (0.94507, -2.43545, -0.207475) · (c_t − c)  (row of U⁻¹, Cramer's rule)
+    let q2 = 0.945069689585 * shift_x - 2.4354495746908125 * shift_y
+        - 0.20747480211459815 * shift_z;
+    // slide 3 = (1.23346, -2.059174, -1.11842) · (c_t − c)  (row of U⁻¹, Cramer's rule)
+    let q3 = 1.2334602240084311 * shift_x - 2.0591739413921553 * shift_y
+        - 1.1184200926331294 * shift_z;
+    let t102 = 0.7086907539714447 * r01 - 0.5392612638893749 * r00
+        - 0.4549227456434987 * r02;
+    let t107 = 0.7086907539714447 * r11 - 0.5392612638893749 * r10
+        - 0.4549227456434987 * r12;
+    let t112 = 0.7086907539714447 * r21 - 0.5392612638893749 * r20
+        - 0.4549227456434987 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.531868, 0.846715, -0.013801) : where the target sends this wrist direction (x)
+    let g6_x = 0.6813724158244535 * t112
+        - (0.14589196972590557 * t102 + 0.7172497222885788 * t107);
+    // rot(B⁻¹ T M⁻¹) (-0.531868, 0.846715, -0.013801) : where the target sends this wrist direction (y)
+    let g6_y = 0.8834798285294627 * t102 - 0.4043838303735768 * t107
+        - 0.23651027528195326 * t112;
+    // rot(B⁻¹ T M⁻¹) (-0.531868, 0.846715, -0.013801) : where the target sends this wrist direction (z)
+    let g6_z = 0.6926720151988258 * t112
+        + (0.4451729166863663 * t102 + 0.5674738351759937 * t107);
+    let t135 = 0.6308146575171629 * r02
+        + (0.366585617587968 * r00 + 0.6838770743628949 * r01);
+    let t140 = 0.6308146575171629 * r12
+        + (0.366585617587968 * r10 + 0.6838770743628949 * r11);
+    let t145 = 0.6308146575171629 * r22
+        + (0.366585617587968 * r20 + 0.6838770743628949 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.007341, 0.011687, 0.999905) : where the target sends this wrist direction (x)
+    let gx_x = 0.6813724158244535 * t145
+        - (0.14589196972590557 * t135 + 0.7172497222885788 * t140);
+    // rot(B⁻¹ T M⁻¹) (-0.007341, 0.011687, 0.999905) : where the target sends this wrist direction (y)
+    let gx_y = 0.8834798285294627 * t135 - 0.4043838303735768 * t140
+        - 0.23651027528195326 * t145;
+    // rot(B⁻¹ T M⁻¹) (-0.007341, 0.011687, 0.999905) : where the target sends this wrist direction (z)
+    let gx_z = 0.6926720151988258 * t145
+        + (0.4451729166863663 * t135 + 0.5674738351759937 * t140);
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.9618439941275024 * g6_z
+        + (0.06865561389509453 * g6_y - 0.2648443649420179 * g6_x);
+    let t171 = j5_a_b1 - 0.057570835177304894;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.594199, h5·h6 = -0.096888
+    let j5_alpha_b1 = 1.545769165553188 * t171;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 0.9184950449631241 * j5_a_b1 - 0.14976660734146008;
+    let t179 = 0.06865561389509453 * g6_z - 0.9618439941275024 * g6_y;
+    let t182 = 0.9618439941275024 * g6_x + 0.2648443649420179 * g6_z;
+    let t185 = 0.2648443649420179 * g6_y + 0.06865561389509453 * g6_x;
+    let t194 = 0.59419935746643 * j5_a_b1 - 0.09688808049671684;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t185 * t185 + (t179 * t179 + t182 * t182)
+        - 1.545769165553188 * (t194 * t194);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (1.545769165553188 * j5_gap_b1).max(0.0),
+    );
+    let t210 = 0.8179571762026022 * j5_beta_b1;
+    let t211 = 0.39252029079901796 * j5_beta_b1;
+    let t213 = 0.4205637635480731 * j5_beta_b1;
+    let t216 = 0.4064173476466405 * j5_gamma_b1;
+    let t217 = 0.6753632545094499 * j5_gamma_b1;
+    let t219 = 0.16011413921560977 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = t210 - 0.409388252997887 * t171 - t216;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = t217 + (0.10612573100116213 * t171 + t211);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = 1.486788788194815 * t171 - t213 - t219;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = 1.0094762566073372
+        * (0.8847454097593066 * z_b1p_y - 0.4526175874883282 * z_b1p_x
+            - 0.05454887041675793 * z_b1p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = 1.0094762566073372
+        * (0.4205637635480731
+            * (0.5318678882191131 * z_b1p_y + 0.8467148722277766 * z_b1p_x)
+            + (0.8179571762026022
+                * (0.8467148722277766 * z_b1p_z + 0.013801254640110039 * z_b1p_y)
+                + 0.39252029079901796
+                    * (0.5318678882191131 * z_b1p_z - 0.013801254640110039 * z_b1p_x)));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t255 = j5_alpha_b1 - j5_a_b1;
+    let t262 = t210 - 0.2648443649420179 * t255 - t216;
+    let t263 = t217 + (t211 + 0.06865561389509453 * t255);
+    let t264 = 0.9618439941275024 * t255 - t213 - t219;
+    let t269 = g6_z * t264 + (g6_x * t262 + g6_y * t263);
+    let t283 = 0.9618439941275024 * (g6_y * t262 - g6_x * t263)
+        + (0.06865561389509453 * (g6_x * t264 - g6_z * t262)
+            - 0.2648443649420179 * (g6_z * t263 - g6_y * t264));
+    let t286 = t269 * t269 + t283 * t283;
+    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-40 - t286;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t302 = 0.9618439941275024 * gx_z
+        + (0.06865561389509453 * gx_y - 0.2648443649420179 * gx_x);
+    let t303 = 0.2648443649420179 * t302;
+    let t304 = 0.06865561389509453 * t302;
+    let t305 = 0.9618439941275024 * t302;
+    let t327 = j4_cos_b1p * (gx_x + t303)
+        - j4_sin_b1p * (0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y) - t303;
+    let t328 = t304
+        + (j4_cos_b1p * (gx_y - t304)
+            - j4_sin_b1p * (0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z));
+    let t329 = t305
+        + (j4_cos_b1p * (gx_z - t305)
+            + j4_sin_b1p * (0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x));
+    let t334 = 0.8179571762026022 * t327 + 0.39252029079901796 * t328
+        - 0.4205637635480731 * t329;
+    let t335 = 0.8179571762026022 * t334;
+    let t336 = 0.39252029079901796 * t334;
+    let t337 = 0.4205637635480731 * t334;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t335
+        + (j5_cos_b1p * (t327 - t335)
+            - j5_sin_b1p * (0.39252029079901796 * t329 + 0.4205637635480731 * t328));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1p_y = t336
+        + (j5_cos_b1p * (t328 - t336)
+            + j5_sin_b1p * (0.4205637635480731 * t327 + 0.8179571762026022 * t329));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1p_z = j5_cos_b1p * (t329 + t337)
+        - j5_sin_b1p * (0.8179571762026022 * t328 - 0.39252029079901796 * t327) - t337;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        0.013801254640110039
+            * (0.007341143344285177 * y6_b1p_y + 0.011686840635510367 * y6_b1p_x)
+            + (0.8467148722277766
+                * (0.9999047581496744 * y6_b1p_x + 0.007341143344285177 * y6_b1p_z)
+                - 0.5318678882191131
+                    * (0.011686840635510367 * y6_b1p_z - 0.9999047581496744 * y6_b1p_y)),
+        0.9999047581496744 * y6_b1p_z
+            + (0.011686840635510367 * y6_b1p_y - 0.007341143344285177 * y6_b1p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1, q2, q3, q4_b1p, q5_b1p, q6_b1p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Only,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: false,
+    }
+}
+/// The closed-form steps of branch 2 alone (shoulder single, elbow single, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_2(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t36 = px
+        + (0.0803381252800323 * r02
+            + (0.028241040306763852 * r00 + 0.180506147271682 * r01))
+        - 0.9412945896500504;
+    let t38 = py
+        + (0.0803381252800323 * r12
+            + (0.028241040306763852 * r10 + 0.180506147271682 * r11))
+        - 0.9329151484305636;
+    let t40 = pz
+        + (0.0803381252800323 * r22
+            + (0.028241040306763852 * r20 + 0.180506147271682 * r21))
+        - 0.16166977542477623;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (x)
+    let wc_x = 0.6813724158244535 * t40
+        - (0.14589196972590557 * t36 + 0.7172497222885788 * t38);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (y)
+    let wc_y = 0.8834798285294627 * t36 - 0.4043838303735768 * t38
+        - 0.23651027528195326 * t40;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.028241, 0.180506, 0.080338) m (z)
+    let wc_z = 0.6926720151988258 * t40
+        + (0.4451729166863663 * t36 + 0.5674738351759937 * t38);
+    // c_t − c: how far the slides move the wrist center (x)
+    let shift_x = wc_x + 0.13324549032615607;
+    // c_t − c: how far the slides move the wrist center (y)
+    let shift_y = wc_y + 0.2507765065873527;
+    // c_t − c: how far the slides move the wrist center (z)
+    let shift_z = wc_z + 0.133434629802108;
+    // slide 1 = (-1.110472, 0.155443, -0.214217) · (c_t − c)  (row of U⁻¹, Cramer's rule)
+    let q1 = 0.15544255269071328 * shift_y - 1.1104718105116462 * shift_x
+        - 0.21421651300803188 * shift_z;
+    // slide 2 = (0.94507, -2.43545, -0.207475) · (c_t − c)  (row of U⁻¹, Cramer's rule)
+    let q2 = 0.945069689585 * shift_x - 2.4354495746908125 * shift_y
+        - 0.20747480211459815 * shift_z;
+    // slide 3 = (1.23346, -2.059174, -1.11842) · (c_t − c)  (row of U⁻¹, Cramer's rule)
+    let q3 = 1.2334602240084311 * shift_x - 2.0591739413921553 * shift_y
+        - 1.1184200926331294 * shift_z;
+    let t102 = 0.7086907539714447 * r01 - 0.5392612638893749 * r00
+        - 0.4549227456434987 * r02;
+    let t107 = 0.7086907539714447 * r11 - 0.5392612638893749 * r10
+        - 0.4549227456434987 * r12;
+    let t112 = 0.7086907539714447 * r21 - 0.5392612638893749 * r20
+        - 0.4549227456434987 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.531868, 0.846715, -0.013801) : where the target sends this wrist direction (x)
+    let g6_x = 0.6813724158244535 * t112
+        - (0.14589196972590557 * t102 + 0.7172497222885788 * t107);
+    // rot(B⁻¹ T M⁻¹) (-0.531868, 0.846715, -0.013801) : where the target sends this wrist direction (y)
+    let g6_y = 0.8834798285294627 * t102 - 0.4043838303735768 * t107
+        - 0.23651027528195326 * t112;
+    // rot(B⁻¹ T M⁻¹) (-0.531868, 0.846715, -0.013801) : where the target sends this wrist direction (z)
+    let g6_z = 0.6926720151988258 * t112
+        + (0.4451729166863663 * t102 + 0.5674738351759937 * t107);
+    let t135 = 0.6308146575171629 * r02
+        + (0.366585617587968 * r00 + 0.6838770743628949 * r01);
+    let t140 = 0.6308146575171629 * r12
+        + (0.366585617587968 * r10 + 0.6838770743628949 * r11);
+    let t145 = 0.6308146575171629 * r22
+        + (0.366585617587968 * r20 + 0.6838770743628949 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.007341, 0.011687, 0.999905) : where the target sends this wrist direction (x)
+    let gx_x = 0.6813724158244535 * t145
+        - (0.14589196972590557 * t135 + 0.7172497222885788 * t140);
+    // rot(B⁻¹ T M⁻¹) (-0.007341, 0.011687, 0.999905) : where the target sends this wrist direction (y)
+    let gx_y = 0.8834798285294627 * t135 - 0.4043838303735768 * t140
+        - 0.23651027528195326 * t145;
+    // rot(B⁻¹ T M⁻¹) (-0.007341, 0.011687, 0.999905) : where the target sends this wrist direction (z)
+    let gx_z = 0.6926720151988258 * t145
+        + (0.4451729166863663 * t135 + 0.5674738351759937 * t140);
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.9618439941275024 * g6_z
+        + (0.06865561389509453 * g6_y - 0.2648443649420179 * g6_x);
+    let t171 = j5_a_b1 - 0.057570835177304894;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.594199, h5·h6 = -0.096888
+    let j5_alpha_b1 = 1.545769165553188 * t171;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 0.9184950449631241 * j5_a_b1 - 0.14976660734146008;
+    let t179 = 0.06865561389509453 * g6_z - 0.9618439941275024 * g6_y;
+    let t182 = 0.9618439941275024 * g6_x + 0.2648443649420179 * g6_z;
+    let t185 = 0.2648443649420179 * g6_y + 0.06865561389509453 * g6_x;
+    let t194 = 0.59419935746643 * j5_a_b1 - 0.09688808049671684;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t185 * t185 + (t179 * t179 + t182 * t182)
+        - 1.545769165553188 * (t194 * t194);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (1.545769165553188 * j5_gap_b1).max(0.0),
+    );
+    let t210 = 0.8179571762026022 * j5_beta_b1;
+    let t211 = 0.39252029079901796 * j5_beta_b1;
+    let t213 = 0.4205637635480731 * j5_beta_b1;
+    let t216 = 0.4064173476466405 * j5_gamma_b1;
+    let t217 = 0.6753632545094499 * j5_gamma_b1;
+    let t219 = 0.16011413921560977 * j5_gamma_b1;
+    let t255 = j5_alpha_b1 - j5_a_b1;
+    let t302 = 0.9618439941275024 * gx_z
+        + (0.06865561389509453 * gx_y - 0.2648443649420179 * gx_x);
+    let t303 = 0.2648443649420179 * t302;
+    let t304 = 0.06865561389509453 * t302;
+    let t305 = 0.9618439941275024 * t302;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1m_x = t216 + (t210 - 0.409388252997887 * t171);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1m_y = 0.10612573100116213 * t171 + t211 - t217;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1m_z = t219 + (1.486788788194815 * t171 - t213);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1m = 1.0094762566073372
+        * (0.8847454097593066 * z_b1m_y - 0.4526175874883282 * z_b1m_x
+            - 0.05454887041675793 * z_b1m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1m = 1.0094762566073372
+        * (0.4205637635480731
+            * (0.5318678882191131 * z_b1m_y + 0.8467148722277766 * z_b1m_x)
+            + (0.8179571762026022
+                * (0.8467148722277766 * z_b1m_z + 0.013801254640110039 * z_b1m_y)
+                + 0.39252029079901796
+                    * (0.5318678882191131 * z_b1m_z - 0.013801254640110039 * z_b1m_x)));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let t410 = t216 + (t210 - 0.2648443649420179 * t255);
+    let t411 = t211 + 0.06865561389509453 * t255 - t217;
+    let t412 = t219 + (0.9618439941275024 * t255 - t213);
+    let t417 = g6_z * t412 + (g6_x * t410 + g6_y * t411);
+    let t431 = 0.9618439941275024 * (g6_y * t410 - g6_x * t411)
+        + (0.06865561389509453 * (g6_x * t412 - g6_z * t410)
+            - 0.2648443649420179 * (g6_z * t411 - g6_y * t412));
+    let t434 = t417 * t417 + t431 * t431;
+    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1_2 = 1.0000000000000001e-40 - t434;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
+    let t455 = (gx_x + t303) * j4_cos_b1m
+        - (0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y) * j4_sin_b1m - t303;
+    let t456 = t304
+        + ((gx_y - t304) * j4_cos_b1m
+            - (0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z) * j4_sin_b1m);
+    let t457 = t305
+        + ((gx_z - t305) * j4_cos_b1m
+            + (0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x) * j4_sin_b1m);
+    let t462 = 0.8179571762026022 * t455 + 0.39252029079901796 * t456
+        - 0.4205637635480731 * t457;
+    let t463 = 0.8179571762026022 * t462;
+    let t464 = 0.39252029079901796 * t462;
+    let t465 = 0.4205637635480731 * t462;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1m_x = t463
+        + (j5_cos_b1m * (t455 - t463)
+            - j5_sin_b1m * (0.39252029079901796 * t457 + 0.4205637635480731 * t456));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1m_y = t464
+        + (j5_cos_b1m * (t456 - t464)
+            + j5_sin_b1m * (0.4205637635480731 * t455 + 0.8179571762026022 * t457));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1m_z = j5_cos_b1m * (t457 + t465)
+        - j5_sin_b1m * (0.8179571762026022 * t456 - 0.39252029079901796 * t455) - t465;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1m = ::armforge_runtime::math::atan2(
+        0.013801254640110039
+            * (0.007341143344285177 * y6_b1m_y + 0.011686840635510367 * y6_b1m_x)
+            + (0.8467148722277766
+                * (0.9999047581496744 * y6_b1m_x + 0.007341143344285177 * y6_b1m_z)
+                - 0.5318678882191131
+                    * (0.011686840635510367 * y6_b1m_z - 0.9999047581496744 * y6_b1m_y)),
+        0.9999047581496744 * y6_b1m_z
+            + (0.011686840635510367 * y6_b1m_y - 0.007341143344285177 * y6_b1m_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1, q2, q3, q4_b1m, q5_b1m, q6_b1m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Only,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1_2 >= 0.0,
+        on_axis_1: false,
+    }
 }
 #[cfg(test)]
 mod tests {

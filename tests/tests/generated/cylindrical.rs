@@ -4,6 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: cylindrical with a spherical wrist; 4 candidate branches, at most 4 solutions.
 // Cost of one solve: 8 sqrt, 14 atan2, 5 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 4 sqrt, 4 atan2, 2 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -71,8 +72,9 @@ pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [
         limits: [-::core::f64::consts::PI, ::core::f64::consts::PI],
     },
 ];
-/// The base frame in the world.
+/// The base frame in the world (folded into `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -85,8 +87,10 @@ pub const BASE: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     ],
     translation: [0.8624805996216751, -0.2568536871780642, 0.027184467307596938],
 };
-/// The tool frame in the base frame with every model value at zero.
+/// The tool frame in the base frame with every model value at zero (folded into
+/// `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -143,9 +147,214 @@ const ZERO_REFERENCE: [f64; 4] = [
     0.6616092932162188,
     -0.7498487468349436,
 ];
-/// Forward kinematics: the tool pose in the world for joint values (SI units).
+/// Forward kinematics: the tool pose in the world for joint values (SI units). The
+/// product of exponentials with this arm's axes, base and tool folded in: one
+/// `sin_cos` per revolute joint.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
 pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-    ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+    let (s1, c1) = ::armforge_runtime::math::sin_cos(joints[0] + 0.11980144913548951);
+    let d2 = joints[1] + 0.14854805989554104;
+    let d3 = joints[2] - 0.08901238947355364;
+    let (s4, c4) = ::armforge_runtime::math::sin_cos(-joints[3] - 0.8478334353269978);
+    let (s5, c5) = ::armforge_runtime::math::sin_cos(-joints[4] + 0.2325557918797898);
+    let (s6, c6) = ::armforge_runtime::math::sin_cos(joints[5] + 0.5790216055144732);
+    let t14 = 0.7302578697687476 * c1 + 0.2697421302312524;
+    let t17 = 0.1285203559919842 * c1;
+    let t18 = 0.8179385842370391 * s1;
+    let t20 = t17 + t18 - 0.1285203559919842;
+    let t22 = 0.42481034769088677 * c1;
+    let t24 = 0.24745573783013325 * s1;
+    let t26 = t22 - t24 - 0.42481034769088677;
+    let t32 = 0.07182056492374932 * c1 - 0.06448204184448021 * s1 - 0.07182056492374932;
+    let t34 = t17 - t18 - 0.1285203559919842;
+    let t38 = 0.9387656578149444 * c1 + 0.06123434218505564;
+    let t40 = 0.20240359586211112 * c1;
+    let t42 = 0.5193670476948382 * s1;
+    let t44 = 0.20240359586211112 - (t40 + t42);
+    let t50 = 0.059584356765947644
+        - (0.059584356765947644 * c1 + 0.09179232287767837 * s1);
+    let t52 = t22 + t24 - 0.42481034769088677;
+    let t54 = t42 - t40 + 0.20240359586211112;
+    let t58 = 0.330976472416308 * c1 + 0.669023527583692;
+    let t64 = 0.06363035897545055 * c1 - 0.013173740577742808 * s1 - 0.06363035897545055;
+    let t70 = 0.11558370133704315 * t52
+        + (0.7615120585877142 * t14 - 0.6377615483946422 * t34);
+    let t75 = 0.11558370133704315 * t54
+        + (0.7615120585877142 * t20 - 0.6377615483946422 * t38);
+    let t80 = 0.11558370133704315 * t58
+        + (0.7615120585877142 * t26 - 0.6377615483946422 * t44);
+    let t92 = 0.16666716162778683 * t14 + 0.02034657531518593 * t34
+        - 0.9858032633887357 * t52;
+    let t97 = 0.16666716162778683 * t20 + 0.02034657531518593 * t38
+        - 0.9858032633887357 * t54;
+    let t102 = 0.16666716162778683 * t26 + 0.02034657531518593 * t44
+        - 0.9858032633887357 * t58;
+    let t114 = 0.12178806951975465 * t52
+        + (0.6263556831868291 * t14 + 0.7699650798979213 * t34);
+    let t119 = 0.12178806951975465 * t54
+        + (0.6263556831868291 * t20 + 0.7699650798979213 * t38);
+    let t124 = 0.12178806951975465 * t58
+        + (0.6263556831868291 * t26 + 0.7699650798979213 * t44);
+    let t133 = 0.8643269912688327 * d2;
+    let t135 = 0.29037013928331684 * d2;
+    let t137 = 0.4106385690321291 * d2;
+    let t158 = 0.9622984657189807 * d3;
+    let t160 = 0.2715184865340178 * d3;
+    let t162 = 0.016105103078603005 * d3;
+    let t186 = 0.9833131045318468 * c4 + 0.01668689546815313;
+    let t189 = 0.040916460033267404 * c4;
+    let t190 = 0.9396730670277007 * s4;
+    let t192 = t189 + t190 - 0.040916460033267404;
+    let t195 = 0.12138486843974457 * c4;
+    let t196 = 0.31674537350149495 * s4;
+    let t198 = t196 - t195 + 0.12138486843974457;
+    let t204 = 0.018083329393859298 * s4 - 0.010701232690532548 * c4
+        + 0.010701232690532548;
+    let t206 = t189 - t190 - 0.040916460033267404;
+    let t210 = 0.8996723683653984 * c4 + 0.10032763163460154;
+    let t213 = 0.2976370965849844 * c4;
+    let t214 = 0.12917776692663924 * s4;
+    let t216 = t213 + t214 - 0.2976370965849844;
+    let t222 = 0.01683549314823039 * c4 + 0.010978767513570168 * s4
+        - 0.01683549314823039;
+    let t224 = 0.12138486843974457 - (t195 + t196);
+    let t226 = t213 - t214 - 0.2976370965849844;
+    let t230 = 0.11701452710275428 * c4 + 0.8829854728972457;
+    let t236 = 0.007146023594018249 * c4 + 0.0012147945354920031 * s4
+        - 0.007146023594018249;
+    let t241 = t80 * t224 + (t70 * t186 + t75 * t206);
+    let t246 = t80 * t226 + (t70 * t192 + t75 * t210);
+    let t251 = t80 * t230 + (t70 * t198 + t75 * t216);
+    let t262 = t102 * t224 + (t92 * t186 + t97 * t206);
+    let t267 = t102 * t226 + (t92 * t192 + t97 * t210);
+    let t272 = t102 * t230 + (t92 * t198 + t97 * t216);
+    let t283 = t124 * t224 + (t114 * t186 + t119 * t206);
+    let t288 = t124 * t226 + (t114 * t192 + t119 * t210);
+    let t293 = t124 * t230 + (t114 * t198 + t119 * t216);
+    let t305 = 0.9999287005278731 * c5 + 7.129947212689144e-5;
+    let t307 = 0.006939297610195762 * c5;
+    let t309 = 0.569696512704339 * s5;
+    let t311 = t307 - t309 - 0.006939297610195762;
+    let t313 = 0.004810461224175626 * c5;
+    let t315 = 0.8218117691663878 * s5;
+    let t317 = 0.004810461224175626 - (t313 + t315);
+    let t323 = 0.009551670287893645 * c5 - 0.11294116909737904 * s5
+        - 0.009551670287893645;
+    let t325 = t307 + t309 - 0.006939297610195762;
+    let t329 = 0.3246254160596118 * c5 + 0.6753745839403882;
+    let t331 = 0.46818329899347433 * c5;
+    let t333 = 0.008443901475437254 * s5;
+    let t335 = t331 - t333 - 0.46818329899347433;
+    let t341 = 0.06441306467583952 * c5 + 0.004658152992553957 * s5
+        - 0.06441306467583952;
+    let t343 = t315 - t313 + 0.004810461224175626;
+    let t345 = t331 + t333 - 0.46818329899347433;
+    let t349 = 0.675445883412515 * c5 + 0.32455411658748506;
+    let t355 = 0.0927770490027106 * c5 + 0.008393572629641653 * s5 - 0.0927770490027106;
+    let t360 = t251 * t343 + (t241 * t305 + t246 * t325);
+    let t365 = t251 * t345 + (t241 * t311 + t246 * t329);
+    let t370 = t251 * t349 + (t241 * t317 + t246 * t335);
+    let t381 = t272 * t343 + (t262 * t305 + t267 * t325);
+    let t386 = t272 * t345 + (t262 * t311 + t267 * t329);
+    let t391 = t272 * t349 + (t262 * t317 + t267 * t335);
+    let t402 = t293 * t343 + (t283 * t305 + t288 * t325);
+    let t407 = t293 * t345 + (t283 * t311 + t288 * t329);
+    let t412 = t293 * t349 + (t283 * t317 + t288 * t335);
+    let t424 = 0.7662418927619516 * c6 + 0.23375810723804835;
+    let t427 = 0.4213468255702085 * c6;
+    let t428 = 0.08226869371717187 * s6;
+    let t430 = t427 + t428 - 0.4213468255702085;
+    let t432 = 0.03977571018148805 * c6;
+    let t434 = 0.8714779141183223 * s6;
+    let t436 = t432 - t434 - 0.03977571018148805;
+    let t442 = 0.00034457492187912105
+        - (0.00034457492187912105 * c6 + 0.14402255574708725 * s6);
+    let t444 = t427 - t428 - 0.4213468255702085;
+    let t448 = 0.24052624520397803 * c6 + 0.759473754796022;
+    let t450 = 0.07169534959788007 * c6;
+    let t452 = 0.4834853743786345 * s6;
+    let t454 = 0.07169534959788007 - (t450 + t452);
+    let t460 = 0.015652672073820414
+        - (0.015652672073820414 * c6 + 0.07915920483960881 * s6);
+    let t462 = t432 + t434 - 0.03977571018148805;
+    let t464 = t452 - t450 + 0.07169534959788007;
+    let t468 = 0.9932318620340702 * c6 + 0.006768137965929834;
+    let t474 = 0.16378479425585463 * c6 - 0.00786812745181376 * s6 - 0.16378479425585463;
+    let t479 = t370 * t462 + (t360 * t424 + t365 * t444);
+    let t484 = t370 * t464 + (t360 * t430 + t365 * t448);
+    let t489 = t370 * t468 + (t360 * t436 + t365 * t454);
+    let t500 = t391 * t462 + (t381 * t424 + t386 * t444);
+    let t505 = t391 * t464 + (t381 * t430 + t386 * t448);
+    let t510 = t391 * t468 + (t381 * t436 + t386 * t454);
+    let t521 = t412 * t462 + (t402 * t424 + t407 * t444);
+    let t526 = t412 * t464 + (t402 * t430 + t407 * t448);
+    let t531 = t412 * t468 + (t402 * t436 + t407 * t454);
+    ::armforge_runtime::Pose {
+        rotation: [
+            [
+                0.9758563851251512 * t479 - 0.1762062330956456 * t484
+                    - 0.12905688291879583 * t489,
+                0.14558342630540566 * t479 + 0.9652412561634902 * t484
+                    - 0.2170594005914187 * t489,
+                0.9675895501637966 * t489
+                    + (0.1628182471212956 * t479 + 0.19303025881496005 * t484),
+            ],
+            [
+                0.9758563851251512 * t500 - 0.1762062330956456 * t505
+                    - 0.12905688291879583 * t510,
+                0.14558342630540566 * t500 + 0.9652412561634902 * t505
+                    - 0.2170594005914187 * t510,
+                0.9675895501637966 * t510
+                    + (0.1628182471212956 * t500 + 0.19303025881496005 * t505),
+            ],
+            [
+                0.9758563851251512 * t521 - 0.1762062330956456 * t526
+                    - 0.12905688291879583 * t531,
+                0.14558342630540566 * t521 + 0.9652412561634902 * t526
+                    - 0.2170594005914187 * t531,
+                0.9675895501637966 * t531
+                    + (0.1628182471212956 * t521 + 0.19303025881496005 * t526),
+            ],
+        ],
+        translation: [
+            0.11558370133704315 * t64
+                + (0.7615120585877142 * t32 - 0.6377615483946422 * t50)
+                + 0.8624805996216751 + (t70 * t133 + t75 * t135 - t80 * t137)
+                + (t75 * t160 - t70 * t158 - t80 * t162)
+                + (t80 * t236 + (t70 * t204 + t75 * t222))
+                + (t251 * t355 + (t241 * t323 + t246 * t341))
+                + (t370 * t474 + (t360 * t442 + t365 * t460))
+                + (0.04111839109328256 * t484 - 0.00671934451449025 * t479
+                    - 0.12436976230441753 * t489),
+            0.16666716162778683 * t32 + 0.02034657531518593 * t50
+                - 0.9858032633887357 * t64 - 0.2568536871780642
+                + (t92 * t133 + t97 * t135 - t102 * t137)
+                + (t97 * t160 - t92 * t158 - t102 * t162)
+                + (t102 * t236 + (t92 * t204 + t97 * t222))
+                + (t272 * t355 + (t262 * t323 + t267 * t341))
+                + (t391 * t474 + (t381 * t442 + t386 * t460))
+                + (0.04111839109328256 * t505 - 0.00671934451449025 * t500
+                    - 0.12436976230441753 * t510),
+            0.12178806951975465 * t64
+                + (0.6263556831868291 * t32 + 0.7699650798979213 * t50)
+                + 0.027184467307596938 + (t114 * t133 + t119 * t135 - t124 * t137)
+                + (t119 * t160 - t114 * t158 - t124 * t162)
+                + (t124 * t236 + (t114 * t204 + t119 * t222))
+                + (t293 * t355 + (t283 * t323 + t288 * t341))
+                + (t412 * t474 + (t402 * t442 + t407 * t460))
+                + (0.04111839109328256 * t526 - 0.00671934451449025 * t521
+                    - 0.12436976230441753 * t531),
+        ],
+    }
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -161,8 +370,18 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
         CAPACITY,
     >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
 }
-/// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-/// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+/// The value each joint is wrapped toward by `solve_branch`: its range's center.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+/// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+/// when it has one away from singular poses, otherwise the nearest of every branch
+/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+/// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
     target: &::armforge_runtime::Pose,
     current: &[f64; JOINTS],
@@ -171,13 +390,59 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    let anchor = ::armforge_runtime::internal::anchors_near(
+        &JOINT_TABLE,
+        current,
+        SETTINGS.limit_tolerance,
+    );
+    let reference = ZERO_REFERENCE;
+    let own = match branch_of(current) {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_1(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_2(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_3(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_4(target, &reference)),
+        _ => ::core::option::Option::None,
+    };
+    if let ::core::option::Option::Some(candidate) = own {
+        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &candidate,
+            &anchor,
+        ) {
+            if !solution.flags.is_singular() {
+                return ::core::result::Result::Ok(solution);
+            }
+        }
+    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    ::armforge_runtime::internal::near::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &reference), current)
+    ::armforge_runtime::internal::nearest_candidate(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &reference),
+        current,
+        &anchor,
+    )
 }
-/// The one configuration of `branch` (among equivalent angles, the one nearest the
-/// centers of the joint ranges), or why there is none.
+/// The one configuration of `branch` (each joint whose range exceeds a turn at the
+/// equivalent angle nearest its range's center), or why there is none. Computes that
+/// branch alone.
 pub fn solve_branch(
     target: &::armforge_runtime::Pose,
     branch: ::armforge_runtime::Branch,
@@ -186,9 +451,40 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
-    ::armforge_runtime::internal::first_of_branch::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE), branch)
+    let reference = ZERO_REFERENCE;
+    let candidate = match branch {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_1(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_2(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_3(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_4(target, &reference),
+        _ => {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::Unreachable::BranchUnavailable,
+            );
+        }
+    };
+    ::armforge_runtime::internal::finish_one(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidate,
+        &CENTERS,
+    )
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -861,6 +1157,1196 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// The closed-form steps of branch 1 alone (shoulder front, elbow single, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_1(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
+            - 0.038083310507593754 * r02) - 0.8624805996216751;
+    let t40 = py
+        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
+            - 0.038083310507593754 * r12) + 0.2568536871780642;
+    let t42 = pz
+        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
+            - 0.038083310507593754 * r22) - 0.027184467307596938;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
+    let wc_x = 0.6263556831868291 * t42
+        + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (y)
+    let wc_y = 0.7699650798979213 * t42
+        + (0.02034657531518593 * t40 - 0.6377615483946422 * t39);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (z)
+    let wc_z = 0.12178806951975465 * t42
+        + (0.11558370133704315 * t39 - 0.9858032633887357 * t40);
+    let t69 = wc_x + 0.0718205649237493;
+    let t71 = wc_y - 0.05958435676594763;
+    let t72 = wc_z + 0.06363035897545057;
+    // h1 · (c_t − p1): the target's height along axis 1
+    let height = 0.5193670476948382 * t69 - 0.24745573783013325 * t71
+        - 0.8179385842370391 * t72;
+    // (c_t − p1)⊥h1 (x)
+    let radial_x = t69 - 0.5193670476948382 * height;
+    // (c_t − p1)⊥h1 (y)
+    let radial_y = t71 + 0.24745573783013325 * height;
+    // (c_t − p1)⊥h1 (z)
+    let radial_z = t72 + 0.8179385842370391 * height;
+    // ρ² = |(c_t − p1)⊥h1|²
+    let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
+    // W = A0 + z A1: the radial part with slide 3 at zero (x)
+    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    // W = A0 + z A1: the radial part with slide 3 at zero (y)
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    // W = A0 + z A1: the radial part with slide 3 at zero (z)
+    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    // D · W
+    let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
+        - 0.3350895823358808 * w0_z;
+    // |W⊥D|²: squared nearest approach to axis 1
+    let closest2 = w0_z * w0_z + (w0_x * w0_x + w0_y * w0_y)
+        - 2.252313587180344 * (dw * dw);
+    // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
+    let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
+    // ≥ 0 when the wrist center is on axis 1
+    let j1_free = 3.7902730645198247e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
+    let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
+    // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
+    let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
+        + 0.7768010686602598 * slide3_p;
+    let t146 = w0_x - 0.29088833522944446 * slide3_p;
+    let t147 = w0_y + 0.49707832103632676 * slide3_p;
+    let t148 = w0_z - 0.3350895823358808 * slide3_p;
+    // cos θ1 = (x · radial) / ρ²
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
+    };
+    // sin θ1 = h1 · (x × radial) / ρ²
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        t131
+            * (0.5193670476948382 * (radial_z * t147 - radial_y * t148)
+                - 0.24745573783013325 * (radial_x * t148 - radial_z * t146)
+                - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
+    };
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+        - 0.16910369449503013 * r02;
+    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+        - 0.16910369449503013 * r12;
+    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+        - 0.16910369449503013 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
+    let g6_x = 0.6263556831868291 * t226
+        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
+    let g6_y = 0.7699650798979213 * t226
+        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
+    let g6_z = 0.12178806951975465 * t226
+        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
+    let t249 = 0.9569213960465764 * r02
+        - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
+    let t254 = 0.9569213960465764 * r12
+        - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
+    let t259 = 0.9569213960465764 * r22
+        - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
+    let gx_x = 0.6263556831868291 * t259
+        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
+    let gx_y = 0.7699650798979213 * t259
+        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
+    let gx_z = 0.12178806951975465 * t259
+        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
+    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+        - 0.8179385842370391 * g6_z;
+    let t280 = 0.5193670476948382 * t279;
+    let t281 = 0.24745573783013325 * t279;
+    let t282 = 0.8179385842370391 * t279;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t280
+        + (j1_cos_p * (g6_x - t280)
+            - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = j1_cos_p * (g6_y + t281)
+        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = j1_cos_p * (g6_z + t282)
+        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+        - 0.8179385842370391 * gx_z;
+    let t312 = 0.5193670476948382 * t311;
+    let t313 = 0.24745573783013325 * t311;
+    let t314 = 0.8179385842370391 * t311;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t312
+        + (j1_cos_p * (gx_x - t312)
+            - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = j1_cos_p * (gx_y + t313)
+        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = j1_cos_p * (gx_z + t314)
+        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
+        - 0.9396730670277007 * v_b1_z;
+    let t349 = j5_a_b1 + 0.5365182302993144;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
+    let j5_alpha_b1 = 2.7379979029778605 * t349;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 2.1814294885999184 * j5_a_b1 + 1.8437818100880325;
+    let t357 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
+    let t360 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
+    let t363 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
+    let t372 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t363 * t363 + (t357 * t357 + t360 * t360)
+        - 2.7379979029778605 * (t372 * t372);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (2.7379979029778605 * j5_gap_b1).max(0.0),
+    );
+    let t387 = 0.008443901475437254 * j5_beta_b1;
+    let t389 = 0.8218117691663878 * j5_beta_b1;
+    let t390 = 0.569696512704339 * j5_beta_b1;
+    let t394 = 0.591785650953 * j5_gamma_b1;
+    let t395 = 0.06565761653993642 * j5_gamma_b1;
+    let t396 = 0.10348524244829747 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = t387 - 0.35368845495650103 * t349 - t394;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = t395 + (0.8672481684250324 * t349 - t389);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = t396 + (t390 - 2.572822887006619 * t349);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = 1.8297406473129645
+        * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
+            - 0.4659052429827611 * z_b1p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = 1.8297406473129645
+        * (0.569696512704339
+            * (0.4834853743786345 * z_b1p_y + 0.8714779141183223 * z_b1p_x)
+            + (0.008443901475437254
+                * (0.08226869371717187 * z_b1p_y - 0.8714779141183223 * z_b1p_z)
+                + 0.8218117691663878
+                    * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t432 = j5_alpha_b1 - j5_a_b1;
+    let t439 = t387 - 0.12917776692663924 * t432 - t394;
+    let t440 = t395 + (0.31674537350149495 * t432 - t389);
+    let t441 = t396 + (t390 - 0.9396730670277007 * t432);
+    let t446 = v_b1_z * t441 + (v_b1_x * t439 + v_b1_y * t440);
+    let t460 = 0.31674537350149495 * (v_b1_x * t441 - v_b1_z * t439)
+        - 0.12917776692663924 * (v_b1_z * t440 - v_b1_y * t441)
+        - 0.9396730670277007 * (v_b1_y * t439 - v_b1_x * t440);
+    let t463 = t446 * t446 + t460 * t460;
+    let t467 = 1.0 / ::armforge_runtime::math::sqrt(t463.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-40 - t463;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
+        - 0.9396730670277007 * xv_b1_z;
+    let t479 = 0.12917776692663924 * t478;
+    let t480 = 0.31674537350149495 * t478;
+    let t481 = 0.9396730670277007 * t478;
+    let t503 = j4_cos_b1p * (xv_b1_x + t479)
+        - j4_sin_b1p * (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y)
+        - t479;
+    let t504 = t480
+        + (j4_cos_b1p * (xv_b1_y - t480)
+            - j4_sin_b1p
+                * (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x));
+    let t505 = j4_cos_b1p * (xv_b1_z + t481)
+        + j4_sin_b1p * (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x)
+        - t481;
+    let t510 = 0.569696512704339 * t505
+        + (0.008443901475437254 * t503 - 0.8218117691663878 * t504);
+    let t511 = 0.008443901475437254 * t510;
+    let t512 = 0.8218117691663878 * t510;
+    let t513 = 0.569696512704339 * t510;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t511
+        + (j5_cos_b1p * (t503 - t511)
+            + j5_sin_b1p * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1p_y = j5_cos_b1p * (t504 + t512)
+        - j5_sin_b1p * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1p_z = t513
+        + (j5_cos_b1p * (t505 - t513)
+            - j5_sin_b1p * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        -(0.08226869371717187
+            * (0.039911001067778125 * y6_b1p_y + 0.07193921016870876 * y6_b1p_x)
+            + (0.4834853743786345
+                * (0.07193921016870876 * y6_b1p_z + 0.9966101855961891 * y6_b1p_y)
+                + 0.8714779141183223
+                    * (0.9966101855961891 * y6_b1p_x
+                        - 0.039911001067778125 * y6_b1p_z))),
+        0.9966101855961891 * y6_b1p_z
+            + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, slide2_p, slide3_p, q4_b1p, q5_b1p, q6_b1p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: rho2,
+                limit: ::armforge_runtime::math::sqrt(closest2.max(0.0)),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 2 alone (shoulder front, elbow single, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_2(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
+            - 0.038083310507593754 * r02) - 0.8624805996216751;
+    let t40 = py
+        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
+            - 0.038083310507593754 * r12) + 0.2568536871780642;
+    let t42 = pz
+        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
+            - 0.038083310507593754 * r22) - 0.027184467307596938;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
+    let wc_x = 0.6263556831868291 * t42
+        + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (y)
+    let wc_y = 0.7699650798979213 * t42
+        + (0.02034657531518593 * t40 - 0.6377615483946422 * t39);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (z)
+    let wc_z = 0.12178806951975465 * t42
+        + (0.11558370133704315 * t39 - 0.9858032633887357 * t40);
+    let t69 = wc_x + 0.0718205649237493;
+    let t71 = wc_y - 0.05958435676594763;
+    let t72 = wc_z + 0.06363035897545057;
+    // h1 · (c_t − p1): the target's height along axis 1
+    let height = 0.5193670476948382 * t69 - 0.24745573783013325 * t71
+        - 0.8179385842370391 * t72;
+    // (c_t − p1)⊥h1 (x)
+    let radial_x = t69 - 0.5193670476948382 * height;
+    // (c_t − p1)⊥h1 (y)
+    let radial_y = t71 + 0.24745573783013325 * height;
+    // (c_t − p1)⊥h1 (z)
+    let radial_z = t72 + 0.8179385842370391 * height;
+    // ρ² = |(c_t − p1)⊥h1|²
+    let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
+    // W = A0 + z A1: the radial part with slide 3 at zero (x)
+    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    // W = A0 + z A1: the radial part with slide 3 at zero (y)
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    // W = A0 + z A1: the radial part with slide 3 at zero (z)
+    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    // D · W
+    let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
+        - 0.3350895823358808 * w0_z;
+    // |W⊥D|²: squared nearest approach to axis 1
+    let closest2 = w0_z * w0_z + (w0_x * w0_x + w0_y * w0_y)
+        - 2.252313587180344 * (dw * dw);
+    // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
+    let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
+    // ≥ 0 when the wrist center is on axis 1
+    let j1_free = 3.7902730645198247e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
+    let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
+    // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
+    let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
+        + 0.7768010686602598 * slide3_p;
+    let t146 = w0_x - 0.29088833522944446 * slide3_p;
+    let t147 = w0_y + 0.49707832103632676 * slide3_p;
+    let t148 = w0_z - 0.3350895823358808 * slide3_p;
+    // cos θ1 = (x · radial) / ρ²
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
+    };
+    // sin θ1 = h1 · (x × radial) / ρ²
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        t131
+            * (0.5193670476948382 * (radial_z * t147 - radial_y * t148)
+                - 0.24745573783013325 * (radial_x * t148 - radial_z * t146)
+                - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
+    };
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+        - 0.16910369449503013 * r02;
+    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+        - 0.16910369449503013 * r12;
+    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+        - 0.16910369449503013 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
+    let g6_x = 0.6263556831868291 * t226
+        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
+    let g6_y = 0.7699650798979213 * t226
+        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
+    let g6_z = 0.12178806951975465 * t226
+        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
+    let t249 = 0.9569213960465764 * r02
+        - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
+    let t254 = 0.9569213960465764 * r12
+        - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
+    let t259 = 0.9569213960465764 * r22
+        - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
+    let gx_x = 0.6263556831868291 * t259
+        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
+    let gx_y = 0.7699650798979213 * t259
+        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
+    let gx_z = 0.12178806951975465 * t259
+        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
+    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+        - 0.8179385842370391 * g6_z;
+    let t280 = 0.5193670476948382 * t279;
+    let t281 = 0.24745573783013325 * t279;
+    let t282 = 0.8179385842370391 * t279;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t280
+        + (j1_cos_p * (g6_x - t280)
+            - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = j1_cos_p * (g6_y + t281)
+        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = j1_cos_p * (g6_z + t282)
+        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+        - 0.8179385842370391 * gx_z;
+    let t312 = 0.5193670476948382 * t311;
+    let t313 = 0.24745573783013325 * t311;
+    let t314 = 0.8179385842370391 * t311;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t312
+        + (j1_cos_p * (gx_x - t312)
+            - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = j1_cos_p * (gx_y + t313)
+        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = j1_cos_p * (gx_z + t314)
+        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
+        - 0.9396730670277007 * v_b1_z;
+    let t349 = j5_a_b1 + 0.5365182302993144;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
+    let j5_alpha_b1 = 2.7379979029778605 * t349;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 2.1814294885999184 * j5_a_b1 + 1.8437818100880325;
+    let t357 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
+    let t360 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
+    let t363 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
+    let t372 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t363 * t363 + (t357 * t357 + t360 * t360)
+        - 2.7379979029778605 * (t372 * t372);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (2.7379979029778605 * j5_gap_b1).max(0.0),
+    );
+    let t387 = 0.008443901475437254 * j5_beta_b1;
+    let t389 = 0.8218117691663878 * j5_beta_b1;
+    let t390 = 0.569696512704339 * j5_beta_b1;
+    let t394 = 0.591785650953 * j5_gamma_b1;
+    let t395 = 0.06565761653993642 * j5_gamma_b1;
+    let t396 = 0.10348524244829747 * j5_gamma_b1;
+    let t432 = j5_alpha_b1 - j5_a_b1;
+    let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
+        - 0.9396730670277007 * xv_b1_z;
+    let t479 = 0.12917776692663924 * t478;
+    let t480 = 0.31674537350149495 * t478;
+    let t481 = 0.9396730670277007 * t478;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1m_x = t394 + (t387 - 0.35368845495650103 * t349);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1m_y = 0.8672481684250324 * t349 - t389 - t395;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1m_z = t390 - 2.572822887006619 * t349 - t396;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1m = 1.8297406473129645
+        * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
+            - 0.4659052429827611 * z_b1m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1m = 1.8297406473129645
+        * (0.569696512704339
+            * (0.4834853743786345 * z_b1m_y + 0.8714779141183223 * z_b1m_x)
+            + (0.008443901475437254
+                * (0.08226869371717187 * z_b1m_y - 0.8714779141183223 * z_b1m_z)
+                + 0.8218117691663878
+                    * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let t587 = t394 + (t387 - 0.12917776692663924 * t432);
+    let t588 = 0.31674537350149495 * t432 - t389 - t395;
+    let t589 = t390 - 0.9396730670277007 * t432 - t396;
+    let t594 = v_b1_z * t589 + (v_b1_x * t587 + v_b1_y * t588);
+    let t608 = 0.31674537350149495 * (v_b1_x * t589 - v_b1_z * t587)
+        - 0.12917776692663924 * (v_b1_z * t588 - v_b1_y * t589)
+        - 0.9396730670277007 * (v_b1_y * t587 - v_b1_x * t588);
+    let t611 = t594 * t594 + t608 * t608;
+    let t614 = 1.0 / ::armforge_runtime::math::sqrt(t611.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1_2 = 1.0000000000000001e-40 - t611;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t594 * t614 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t608 * t614 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
+    let t632 = (xv_b1_x + t479) * j4_cos_b1m
+        - (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y) * j4_sin_b1m
+        - t479;
+    let t633 = t480
+        + ((xv_b1_y - t480) * j4_cos_b1m
+            - (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x)
+                * j4_sin_b1m);
+    let t634 = (xv_b1_z + t481) * j4_cos_b1m
+        + (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x) * j4_sin_b1m
+        - t481;
+    let t639 = 0.569696512704339 * t634
+        + (0.008443901475437254 * t632 - 0.8218117691663878 * t633);
+    let t640 = 0.008443901475437254 * t639;
+    let t641 = 0.8218117691663878 * t639;
+    let t642 = 0.569696512704339 * t639;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1m_x = t640
+        + (j5_cos_b1m * (t632 - t640)
+            + j5_sin_b1m * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1m_y = j5_cos_b1m * (t633 + t641)
+        - j5_sin_b1m * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1m_z = t642
+        + (j5_cos_b1m * (t634 - t642)
+            - j5_sin_b1m * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1m = ::armforge_runtime::math::atan2(
+        -(0.08226869371717187
+            * (0.039911001067778125 * y6_b1m_y + 0.07193921016870876 * y6_b1m_x)
+            + (0.4834853743786345
+                * (0.07193921016870876 * y6_b1m_z + 0.9966101855961891 * y6_b1m_y)
+                + 0.8714779141183223
+                    * (0.9966101855961891 * y6_b1m_x
+                        - 0.039911001067778125 * y6_b1m_z))),
+        0.9966101855961891 * y6_b1m_z
+            + (0.039911001067778125 * y6_b1m_x - 0.07193921016870876 * y6_b1m_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, slide2_p, slide3_p, q4_b1m, q5_b1m, q6_b1m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: rho2,
+                limit: ::armforge_runtime::math::sqrt(closest2.max(0.0)),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 3 alone (shoulder back, elbow single, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_3(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
+            - 0.038083310507593754 * r02) - 0.8624805996216751;
+    let t40 = py
+        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
+            - 0.038083310507593754 * r12) + 0.2568536871780642;
+    let t42 = pz
+        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
+            - 0.038083310507593754 * r22) - 0.027184467307596938;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
+    let wc_x = 0.6263556831868291 * t42
+        + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (y)
+    let wc_y = 0.7699650798979213 * t42
+        + (0.02034657531518593 * t40 - 0.6377615483946422 * t39);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (z)
+    let wc_z = 0.12178806951975465 * t42
+        + (0.11558370133704315 * t39 - 0.9858032633887357 * t40);
+    let t69 = wc_x + 0.0718205649237493;
+    let t71 = wc_y - 0.05958435676594763;
+    let t72 = wc_z + 0.06363035897545057;
+    // h1 · (c_t − p1): the target's height along axis 1
+    let height = 0.5193670476948382 * t69 - 0.24745573783013325 * t71
+        - 0.8179385842370391 * t72;
+    // (c_t − p1)⊥h1 (x)
+    let radial_x = t69 - 0.5193670476948382 * height;
+    // (c_t − p1)⊥h1 (y)
+    let radial_y = t71 + 0.24745573783013325 * height;
+    // (c_t − p1)⊥h1 (z)
+    let radial_z = t72 + 0.8179385842370391 * height;
+    // ρ² = |(c_t − p1)⊥h1|²
+    let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
+    // W = A0 + z A1: the radial part with slide 3 at zero (x)
+    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    // W = A0 + z A1: the radial part with slide 3 at zero (y)
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    // W = A0 + z A1: the radial part with slide 3 at zero (z)
+    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    // D · W
+    let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
+        - 0.3350895823358808 * w0_z;
+    // |W⊥D|²: squared nearest approach to axis 1
+    let closest2 = w0_z * w0_z + (w0_x * w0_x + w0_y * w0_y)
+        - 2.252313587180344 * (dw * dw);
+    // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
+    let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
+    // ≥ 0 when the wrist center is on axis 1
+    let j1_free = 3.7902730645198247e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let t173 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
+    // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
+    let slide3_m = -t173;
+    // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
+    let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
+        - 0.7768010686602598 * t173;
+    let t180 = w0_x + 0.29088833522944446 * t173;
+    let t181 = w0_y - 0.49707832103632676 * t173;
+    let t182 = w0_z + 0.3350895823358808 * t173;
+    // cos θ1 = (x · radial) / ρ²
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
+    };
+    // sin θ1 = h1 · (x × radial) / ρ²
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        t131
+            * (0.5193670476948382 * (radial_z * t181 - radial_y * t182)
+                - 0.24745573783013325 * (radial_x * t182 - radial_z * t180)
+                - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
+    };
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+        - 0.16910369449503013 * r02;
+    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+        - 0.16910369449503013 * r12;
+    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+        - 0.16910369449503013 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
+    let g6_x = 0.6263556831868291 * t226
+        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
+    let g6_y = 0.7699650798979213 * t226
+        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
+    let g6_z = 0.12178806951975465 * t226
+        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
+    let t249 = 0.9569213960465764 * r02
+        - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
+    let t254 = 0.9569213960465764 * r12
+        - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
+    let t259 = 0.9569213960465764 * r22
+        - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
+    let gx_x = 0.6263556831868291 * t259
+        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
+    let gx_y = 0.7699650798979213 * t259
+        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
+    let gx_z = 0.12178806951975465 * t259
+        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
+    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+        - 0.8179385842370391 * g6_z;
+    let t280 = 0.5193670476948382 * t279;
+    let t281 = 0.24745573783013325 * t279;
+    let t282 = 0.8179385842370391 * t279;
+    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+        - 0.8179385842370391 * gx_z;
+    let t312 = 0.5193670476948382 * t311;
+    let t313 = 0.24745573783013325 * t311;
+    let t314 = 0.8179385842370391 * t311;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t280
+        + (j1_cos_m * (g6_x - t280)
+            - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = j1_cos_m * (g6_y + t281)
+        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = j1_cos_m * (g6_z + t282)
+        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t312
+        + (j1_cos_m * (gx_x - t312)
+            - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = j1_cos_m * (gx_y + t313)
+        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = j1_cos_m * (gx_z + t314)
+        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
+        - 0.9396730670277007 * v_b2_z;
+    let t717 = j5_a_b2 + 0.5365182302993144;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
+    let j5_alpha_b2 = 2.7379979029778605 * t717;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b2 = 2.1814294885999184 * j5_a_b2 + 1.8437818100880325;
+    let t723 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
+    let t726 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
+    let t729 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
+    let t736 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t729 * t729 + (t723 * t723 + t726 * t726)
+        - 2.7379979029778605 * (t736 * t736);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
+        (2.7379979029778605 * j5_gap_b2).max(0.0),
+    );
+    let t746 = 0.008443901475437254 * j5_beta_b2;
+    let t747 = 0.8218117691663878 * j5_beta_b2;
+    let t748 = 0.569696512704339 * j5_beta_b2;
+    let t749 = 0.591785650953 * j5_gamma_b2;
+    let t750 = 0.06565761653993642 * j5_gamma_b2;
+    let t751 = 0.10348524244829747 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = t746 - 0.35368845495650103 * t717 - t749;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = t750 + (0.8672481684250324 * t717 - t747);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = t751 + (t748 - 2.572822887006619 * t717);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = 1.8297406473129645
+        * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
+            - 0.4659052429827611 * z_b2p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = 1.8297406473129645
+        * (0.569696512704339
+            * (0.4834853743786345 * z_b2p_y + 0.8714779141183223 * z_b2p_x)
+            + (0.008443901475437254
+                * (0.08226869371717187 * z_b2p_y - 0.8714779141183223 * z_b2p_z)
+                + 0.8218117691663878
+                    * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t780 = j5_alpha_b2 - j5_a_b2;
+    let t787 = t746 - 0.12917776692663924 * t780 - t749;
+    let t788 = t750 + (0.31674537350149495 * t780 - t747);
+    let t789 = t751 + (t748 - 0.9396730670277007 * t780);
+    let t794 = v_b2_z * t789 + (v_b2_x * t787 + v_b2_y * t788);
+    let t808 = 0.31674537350149495 * (v_b2_x * t789 - v_b2_z * t787)
+        - 0.12917776692663924 * (v_b2_z * t788 - v_b2_y * t789)
+        - 0.9396730670277007 * (v_b2_y * t787 - v_b2_x * t788);
+    let t811 = t794 * t794 + t808 * t808;
+    let t814 = 1.0 / ::armforge_runtime::math::sqrt(t811.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-40 - t811;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
+        - 0.9396730670277007 * xv_b2_z;
+    let t826 = 0.12917776692663924 * t825;
+    let t827 = 0.31674537350149495 * t825;
+    let t828 = 0.9396730670277007 * t825;
+    let t850 = j4_cos_b2p * (xv_b2_x + t826)
+        - j4_sin_b2p * (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y)
+        - t826;
+    let t851 = t827
+        + (j4_cos_b2p * (xv_b2_y - t827)
+            - j4_sin_b2p
+                * (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x));
+    let t852 = j4_cos_b2p * (xv_b2_z + t828)
+        + j4_sin_b2p * (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x)
+        - t828;
+    let t857 = 0.569696512704339 * t852
+        + (0.008443901475437254 * t850 - 0.8218117691663878 * t851);
+    let t858 = 0.008443901475437254 * t857;
+    let t859 = 0.8218117691663878 * t857;
+    let t860 = 0.569696512704339 * t857;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t858
+        + (j5_cos_b2p * (t850 - t858)
+            + j5_sin_b2p * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2p_y = j5_cos_b2p * (t851 + t859)
+        - j5_sin_b2p * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2p_z = t860
+        + (j5_cos_b2p * (t852 - t860)
+            - j5_sin_b2p * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        -(0.08226869371717187
+            * (0.039911001067778125 * y6_b2p_y + 0.07193921016870876 * y6_b2p_x)
+            + (0.4834853743786345
+                * (0.07193921016870876 * y6_b2p_z + 0.9966101855961891 * y6_b2p_y)
+                + 0.8714779141183223
+                    * (0.9966101855961891 * y6_b2p_x
+                        - 0.039911001067778125 * y6_b2p_z))),
+        0.9966101855961891 * y6_b2p_z
+            + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, slide2_m, slide3_m, q4_b2p, q5_b2p, q6_b2p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: rho2,
+                limit: ::armforge_runtime::math::sqrt(closest2.max(0.0)),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b2,
+                limit: j5_a_b2,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 4 alone (shoulder back, elbow single, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_4(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
+            - 0.038083310507593754 * r02) - 0.8624805996216751;
+    let t40 = py
+        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
+            - 0.038083310507593754 * r12) + 0.2568536871780642;
+    let t42 = pz
+        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
+            - 0.038083310507593754 * r22) - 0.027184467307596938;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
+    let wc_x = 0.6263556831868291 * t42
+        + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (y)
+    let wc_y = 0.7699650798979213 * t42
+        + (0.02034657531518593 * t40 - 0.6377615483946422 * t39);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (z)
+    let wc_z = 0.12178806951975465 * t42
+        + (0.11558370133704315 * t39 - 0.9858032633887357 * t40);
+    let t69 = wc_x + 0.0718205649237493;
+    let t71 = wc_y - 0.05958435676594763;
+    let t72 = wc_z + 0.06363035897545057;
+    // h1 · (c_t − p1): the target's height along axis 1
+    let height = 0.5193670476948382 * t69 - 0.24745573783013325 * t71
+        - 0.8179385842370391 * t72;
+    // (c_t − p1)⊥h1 (x)
+    let radial_x = t69 - 0.5193670476948382 * height;
+    // (c_t − p1)⊥h1 (y)
+    let radial_y = t71 + 0.24745573783013325 * height;
+    // (c_t − p1)⊥h1 (z)
+    let radial_z = t72 + 0.8179385842370391 * height;
+    // ρ² = |(c_t − p1)⊥h1|²
+    let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
+    // W = A0 + z A1: the radial part with slide 3 at zero (x)
+    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    // W = A0 + z A1: the radial part with slide 3 at zero (y)
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    // W = A0 + z A1: the radial part with slide 3 at zero (z)
+    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    // D · W
+    let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
+        - 0.3350895823358808 * w0_z;
+    // |W⊥D|²: squared nearest approach to axis 1
+    let closest2 = w0_z * w0_z + (w0_x * w0_x + w0_y * w0_y)
+        - 2.252313587180344 * (dw * dw);
+    // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
+    let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
+    // ≥ 0 when the wrist center is on axis 1
+    let j1_free = 3.7902730645198247e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let t173 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
+    // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
+    let slide3_m = -t173;
+    // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
+    let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
+        - 0.7768010686602598 * t173;
+    let t180 = w0_x + 0.29088833522944446 * t173;
+    let t181 = w0_y - 0.49707832103632676 * t173;
+    let t182 = w0_z + 0.3350895823358808 * t173;
+    // cos θ1 = (x · radial) / ρ²
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
+    };
+    // sin θ1 = h1 · (x × radial) / ρ²
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        t131
+            * (0.5193670476948382 * (radial_z * t181 - radial_y * t182)
+                - 0.24745573783013325 * (radial_x * t182 - radial_z * t180)
+                - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
+    };
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+        - 0.16910369449503013 * r02;
+    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+        - 0.16910369449503013 * r12;
+    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+        - 0.16910369449503013 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
+    let g6_x = 0.6263556831868291 * t226
+        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
+    let g6_y = 0.7699650798979213 * t226
+        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
+    let g6_z = 0.12178806951975465 * t226
+        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
+    let t249 = 0.9569213960465764 * r02
+        - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
+    let t254 = 0.9569213960465764 * r12
+        - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
+    let t259 = 0.9569213960465764 * r22
+        - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
+    let gx_x = 0.6263556831868291 * t259
+        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
+    let gx_y = 0.7699650798979213 * t259
+        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
+    let gx_z = 0.12178806951975465 * t259
+        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
+    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+        - 0.8179385842370391 * g6_z;
+    let t280 = 0.5193670476948382 * t279;
+    let t281 = 0.24745573783013325 * t279;
+    let t282 = 0.8179385842370391 * t279;
+    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+        - 0.8179385842370391 * gx_z;
+    let t312 = 0.5193670476948382 * t311;
+    let t313 = 0.24745573783013325 * t311;
+    let t314 = 0.8179385842370391 * t311;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t280
+        + (j1_cos_m * (g6_x - t280)
+            - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = j1_cos_m * (g6_y + t281)
+        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = j1_cos_m * (g6_z + t282)
+        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t312
+        + (j1_cos_m * (gx_x - t312)
+            - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = j1_cos_m * (gx_y + t313)
+        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = j1_cos_m * (gx_z + t314)
+        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
+        - 0.9396730670277007 * v_b2_z;
+    let t717 = j5_a_b2 + 0.5365182302993144;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
+    let j5_alpha_b2 = 2.7379979029778605 * t717;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b2 = 2.1814294885999184 * j5_a_b2 + 1.8437818100880325;
+    let t723 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
+    let t726 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
+    let t729 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
+    let t736 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t729 * t729 + (t723 * t723 + t726 * t726)
+        - 2.7379979029778605 * (t736 * t736);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
+        (2.7379979029778605 * j5_gap_b2).max(0.0),
+    );
+    let t746 = 0.008443901475437254 * j5_beta_b2;
+    let t747 = 0.8218117691663878 * j5_beta_b2;
+    let t748 = 0.569696512704339 * j5_beta_b2;
+    let t749 = 0.591785650953 * j5_gamma_b2;
+    let t750 = 0.06565761653993642 * j5_gamma_b2;
+    let t751 = 0.10348524244829747 * j5_gamma_b2;
+    let t780 = j5_alpha_b2 - j5_a_b2;
+    let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
+        - 0.9396730670277007 * xv_b2_z;
+    let t826 = 0.12917776692663924 * t825;
+    let t827 = 0.31674537350149495 * t825;
+    let t828 = 0.9396730670277007 * t825;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2m_x = t749 + (t746 - 0.35368845495650103 * t717);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2m_y = 0.8672481684250324 * t717 - t747 - t750;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2m_z = t748 - 2.572822887006619 * t717 - t751;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2m = 1.8297406473129645
+        * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
+            - 0.4659052429827611 * z_b2m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2m = 1.8297406473129645
+        * (0.569696512704339
+            * (0.4834853743786345 * z_b2m_y + 0.8714779141183223 * z_b2m_x)
+            + (0.008443901475437254
+                * (0.08226869371717187 * z_b2m_y - 0.8714779141183223 * z_b2m_z)
+                + 0.8218117691663878
+                    * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let t931 = t749 + (t746 - 0.12917776692663924 * t780);
+    let t932 = 0.31674537350149495 * t780 - t747 - t750;
+    let t933 = t748 - 0.9396730670277007 * t780 - t751;
+    let t938 = v_b2_z * t933 + (v_b2_x * t931 + v_b2_y * t932);
+    let t952 = 0.31674537350149495 * (v_b2_x * t933 - v_b2_z * t931)
+        - 0.12917776692663924 * (v_b2_z * t932 - v_b2_y * t933)
+        - 0.9396730670277007 * (v_b2_y * t931 - v_b2_x * t932);
+    let t955 = t938 * t938 + t952 * t952;
+    let t958 = 1.0 / ::armforge_runtime::math::sqrt(t955.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2_2 = 1.0000000000000001e-40 - t955;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t938 * t958 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t952 * t958 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
+    let t974 = (xv_b2_x + t826) * j4_cos_b2m
+        - (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y) * j4_sin_b2m
+        - t826;
+    let t975 = t827
+        + ((xv_b2_y - t827) * j4_cos_b2m
+            - (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x)
+                * j4_sin_b2m);
+    let t976 = (xv_b2_z + t828) * j4_cos_b2m
+        + (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x) * j4_sin_b2m
+        - t828;
+    let t981 = 0.569696512704339 * t976
+        + (0.008443901475437254 * t974 - 0.8218117691663878 * t975);
+    let t982 = 0.008443901475437254 * t981;
+    let t983 = 0.8218117691663878 * t981;
+    let t984 = 0.569696512704339 * t981;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2m_x = t982
+        + (j5_cos_b2m * (t974 - t982)
+            + j5_sin_b2m * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2m_y = j5_cos_b2m * (t975 + t983)
+        - j5_sin_b2m * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2m_z = t984
+        + (j5_cos_b2m * (t976 - t984)
+            - j5_sin_b2m * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2m = ::armforge_runtime::math::atan2(
+        -(0.08226869371717187
+            * (0.039911001067778125 * y6_b2m_y + 0.07193921016870876 * y6_b2m_x)
+            + (0.4834853743786345
+                * (0.07193921016870876 * y6_b2m_z + 0.9966101855961891 * y6_b2m_y)
+                + 0.8714779141183223
+                    * (0.9966101855961891 * y6_b2m_x
+                        - 0.039911001067778125 * y6_b2m_z))),
+        0.9966101855961891 * y6_b2m_z
+            + (0.039911001067778125 * y6_b2m_x - 0.07193921016870876 * y6_b2m_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, slide2_m, slide3_m, q4_b2m, q5_b2m, q6_b2m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Only,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: rho2,
+                limit: ::armforge_runtime::math::sqrt(closest2.max(0.0)),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b2,
+                limit: j5_a_b2,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
 }
 #[cfg(test)]
 mod tests {

@@ -4,6 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 8 solutions.
 // Cost of one solve: 7 sqrt, 22 atan2, 7 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -71,8 +72,9 @@ pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [
         limits: [-::core::f64::consts::PI, ::core::f64::consts::PI],
     },
 ];
-/// The base frame in the world.
+/// The base frame in the world (folded into `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -85,8 +87,10 @@ pub const BASE: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     ],
     translation: [0.24564840122849207, -0.7394004936737368, 0.2460614690751377],
 };
-/// The tool frame in the base frame with every model value at zero.
+/// The tool frame in the base frame with every model value at zero (folded into
+/// `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -148,9 +152,257 @@ const ZERO_REFERENCE: [f64; 4] = [
     0.9093434939738431,
     0.4160461632648992,
 ];
-/// Forward kinematics: the tool pose in the world for joint values (SI units).
+/// Forward kinematics: the tool pose in the world for joint values (SI units). The
+/// product of exponentials with this arm's axes, base and tool folded in: one
+/// `sin_cos` per revolute joint.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
 pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-    ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+    let (s1, c1) = ::armforge_runtime::math::sin_cos(-joints[0] + 0.766074612132726);
+    let (s2, c2) = ::armforge_runtime::math::sin_cos(joints[1] + 0.0971926687438256);
+    let (s3, c3) = ::armforge_runtime::math::sin_cos(-joints[2] - 0.127401684673772);
+    let (s4, c4) = ::armforge_runtime::math::sin_cos(joints[3] + 0.42909296055040724);
+    let (s5, c5) = ::armforge_runtime::math::sin_cos(joints[4] + 0.264986797588622);
+    let (s6, c6) = ::armforge_runtime::math::sin_cos(-joints[5] - 0.9774699368182167);
+    let t12 = 0.4207300977839896 * c1 + 0.5792699022160104;
+    let t14 = 0.4936661953866648 * c1;
+    let t16 = 0.004148680977921899 * s1;
+    let t18 = t14 - t16 - 0.4936661953866648;
+    let t21 = 0.0031575520770814663 * c1;
+    let t22 = 0.6486238403189734 * s1;
+    let t24 = t21 + t22 - 0.0031575520770814663;
+    let t30 = 0.12610473873370642 * c1 - 0.05977265157501595 * s1 - 0.12610473873370642;
+    let t32 = t14 + t16 - 0.4936661953866648;
+    let t36 = 0.579287113769867 * c1 + 0.42071288623013303;
+    let t39 = 0.002690933388157976 * c1;
+    let t40 = 0.7610978269683933 * s1;
+    let t42 = t40 - t39 + 0.002690933388157976;
+    let t48 = 0.14855515348839365 * c1 - 0.06889112358032849 * s1 - 0.14855515348839365;
+    let t50 = t21 - t22 - 0.0031575520770814663;
+    let t52 = 0.002690933388157976 - (t39 + t40);
+    let t56 = 0.9999827884461434 * c1 + 1.7211553856571004e-5;
+    let t62 = 0.09120285126503383
+        - (0.09120285126503383 * c1 + 0.19485954442484998 * s1);
+    let t67 = 0.7581855658887094 * t50
+        + (0.5343470882191231 * t12 + 0.37366808398599166 * t32);
+    let t72 = 0.7581855658887094 * t52
+        + (0.5343470882191231 * t18 + 0.37366808398599166 * t36);
+    let t77 = 0.7581855658887094 * t56
+        + (0.5343470882191231 * t24 + 0.37366808398599166 * t42);
+    let t90 = 0.9222063922610226 * t32 - 0.30173306576622755 * t12
+        - 0.24185228362829736 * t50;
+    let t95 = 0.9222063922610226 * t36 - 0.30173306576622755 * t18
+        - 0.24185228362829736 * t52;
+    let t100 = 0.9222063922610226 * t42 - 0.30173306576622755 * t24
+        - 0.24185228362829736 * t56;
+    let t114 = 0.6055263170018254 * t50
+        - (0.7895760548136311 * t12 + 0.09953659167937622 * t32);
+    let t119 = 0.6055263170018254 * t52
+        - (0.7895760548136311 * t18 + 0.09953659167937622 * t36);
+    let t124 = 0.6055263170018254 * t56
+        - (0.7895760548136311 * t24 + 0.09953659167937622 * t42);
+    let t136 = 0.9798577049810693 * c2 + 0.020142295018930667;
+    let t138 = 0.12891763779396062 * c2;
+    let t140 = 0.393370490499651 * s2;
+    let t142 = 0.12891763779396062 - (t138 + t140);
+    let t145 = 0.055828537827227805 * c2;
+    let t146 = 0.9083597096883664 * s2;
+    let t148 = t146 - t145 + 0.055828537827227805;
+    let t154 = 0.2531840798197981 * c2 - 0.09774630772809856 * s2 - 0.2531840798197981;
+    let t156 = t140 - t138 + 0.12891763779396062;
+    let t160 = 0.17488263781486668 * c2 + 0.8251173621851333;
+    let t162 = 0.35732190455023327 * c2;
+    let t164 = 0.14192355343258098 * s2;
+    let t166 = 0.35732190455023327 - (t162 + t164);
+    let t172 = 0.00593006462937215 * c2 + 0.11450271625202194 * s2 - 0.00593006462937215;
+    let t174 = 0.055828537827227805 - (t145 + t146);
+    let t176 = t164 - t162 + 0.35732190455023327;
+    let t180 = 0.845259657204064 * c2 + 0.15474034279593601;
+    let t186 = 0.10503944007917485
+        - (0.10503944007917485 * c2 + 0.22914060139854267 * s2);
+    let t191 = t77 * t174 + (t67 * t136 + t72 * t156);
+    let t196 = t77 * t176 + (t67 * t142 + t72 * t160);
+    let t201 = t77 * t180 + (t67 * t148 + t72 * t166);
+    let t212 = t100 * t174 + (t90 * t136 + t95 * t156);
+    let t217 = t100 * t176 + (t90 * t142 + t95 * t160);
+    let t222 = t100 * t180 + (t90 * t148 + t95 * t166);
+    let t233 = t124 * t174 + (t114 * t136 + t119 * t156);
+    let t238 = t124 * t176 + (t114 * t142 + t119 * t160);
+    let t243 = t124 * t180 + (t114 * t148 + t119 * t166);
+    let t253 = 0.9798577049810693 * c3 + 0.020142295018930667;
+    let t254 = 0.12891763779396062 * c3;
+    let t255 = 0.393370490499651 * s3;
+    let t257 = t255 - t254 + 0.12891763779396062;
+    let t258 = 0.055828537827227805 * c3;
+    let t259 = 0.9083597096883664 * s3;
+    let t261 = 0.055828537827227805 - (t258 + t259);
+    let t267 = 1.023384993814993 * c3 + 0.14354486491758178 * s3 - 1.023384993814993;
+    let t269 = 0.12891763779396062 - (t254 + t255);
+    let t271 = 0.17488263781486668 * c3 + 0.8251173621851333;
+    let t272 = 0.35732190455023327 * c3;
+    let t273 = 0.14192355343258098 * s3;
+    let t275 = t273 - t272 + 0.35732190455023327;
+    let t281 = 0.07701736859490087
+        - (0.07701736859490087 * c3 + 0.42973068410759613 * s3);
+    let t283 = t259 - t258 + 0.055828537827227805;
+    let t285 = 0.35732190455023327 - (t272 + t273);
+    let t287 = 0.845259657204064 * c3 + 0.15474034279593601;
+    let t293 = 0.9405322745082332 * s3 - 0.19137927753135436 * c3 + 0.19137927753135436;
+    let t298 = t201 * t283 + (t191 * t253 + t196 * t269);
+    let t303 = t201 * t285 + (t191 * t257 + t196 * t271);
+    let t308 = t201 * t287 + (t191 * t261 + t196 * t275);
+    let t319 = t222 * t283 + (t212 * t253 + t217 * t269);
+    let t324 = t222 * t285 + (t212 * t257 + t217 * t271);
+    let t329 = t222 * t287 + (t212 * t261 + t217 * t275);
+    let t340 = t243 * t283 + (t233 * t253 + t238 * t269);
+    let t345 = t243 * t285 + (t233 * t257 + t238 * t271);
+    let t350 = t243 * t287 + (t233 * t261 + t238 * t275);
+    let t362 = 0.9996564799671169 * c4 + 0.0003435200328830726;
+    let t364 = 0.009485354119738767 * c4;
+    let t366 = 0.8589206607284425 * s4;
+    let t368 = 0.009485354119738767 - (t364 + t366);
+    let t371 = 0.015919487557494914 * c4;
+    let t372 = 0.51177317098587 * s4;
+    let t374 = t372 - t371 + 0.015919487557494914;
+    let t380 = 0.7443503623781257 * c4 + 0.09296434935207475 * s4 - 0.7443503623781257;
+    let t382 = t366 - t364 + 0.009485354119738767;
+    let t386 = 0.7380882214590674 * c4 + 0.26191177854093256;
+    let t388 = 0.4395725501662737 * c4;
+    let t390 = 0.01853429342821227 * s4;
+    let t392 = 0.4395725501662737 - (t388 + t390);
+    let t398 = 0.638675503123 * s4 - 0.08693929253461652 * c4 + 0.08693929253461652;
+    let t400 = 0.015919487557494914 - (t371 + t372);
+    let t402 = t390 - t388 + 0.4395725501662737;
+    let t406 = 0.2622552985738157 * c4 + 0.7377447014261843;
+    let t412 = 0.03573926067625682 * c4 - 0.38254990363701263 * s4 - 0.03573926067625682;
+    let t417 = t308 * t400 + (t298 * t362 + t303 * t382);
+    let t422 = t308 * t402 + (t298 * t368 + t303 * t386);
+    let t427 = t308 * t406 + (t298 * t374 + t303 * t392);
+    let t438 = t329 * t400 + (t319 * t362 + t324 * t382);
+    let t443 = t329 * t402 + (t319 * t368 + t324 * t386);
+    let t448 = t329 * t406 + (t319 * t374 + t324 * t392);
+    let t459 = t350 * t400 + (t340 * t362 + t345 * t382);
+    let t464 = t350 * t402 + (t340 * t368 + t345 * t386);
+    let t469 = t350 * t406 + (t340 * t374 + t345 * t392);
+    let t481 = 0.5824487437309522 * c5 + 0.41755125626904777;
+    let t483 = 0.42756389251742644 * c5;
+    let t485 = 0.38030529548240455 * s5;
+    let t487 = t483 - t485 - 0.42756389251742644;
+    let t489 = 0.24574645973550538 * c5;
+    let t491 = 0.6616771312044819 * s5;
+    let t493 = 0.24574645973550538 - (t489 + t491);
+    let t499 = 0.38021692372197 * c5 + 0.31296850532365905 * s5 - 0.38021692372197;
+    let t501 = t483 + t485 - 0.42756389251742644;
+    let t505 = 0.5621833740410068 * c5 + 0.4378166259589932;
+    let t507 = 0.25163931689667024 * c5;
+    let t509 = 0.6461820612405205 * s5;
+    let t511 = t507 - t509 - 0.25163931689667024;
+    let t517 = 0.07475927879051289 * c5 + 0.4780035065603044 * s5 - 0.07475927879051289;
+    let t519 = t491 - t489 + 0.24574645973550538;
+    let t521 = t507 + t509 - 0.25163931689667024;
+    let t525 = 0.8553678822280409 * c5 + 0.14463211777195903;
+    let t531 = 0.29988894818945483 * s5 - 0.5159613939092476 * c5 + 0.5159613939092476;
+    let t536 = t427 * t519 + (t417 * t481 + t422 * t501);
+    let t541 = t427 * t521 + (t417 * t487 + t422 * t505);
+    let t546 = t427 * t525 + (t417 * t493 + t422 * t511);
+    let t557 = t448 * t519 + (t438 * t481 + t443 * t501);
+    let t562 = t448 * t521 + (t438 * t487 + t443 * t505);
+    let t567 = t448 * t525 + (t438 * t493 + t443 * t511);
+    let t578 = t469 * t519 + (t459 * t481 + t464 * t501);
+    let t583 = t469 * t521 + (t459 * t487 + t464 * t505);
+    let t588 = t469 * t525 + (t459 * t493 + t464 * t511);
+    let t600 = 0.5792258932721557 * c6 + 0.4207741067278444;
+    let t603 = 0.4791839395570616 * c6;
+    let t604 = 0.1830954655425997 * s6;
+    let t606 = t604 - t603 + 0.4791839395570616;
+    let t608 = 0.1187687244429415 * c6;
+    let t610 = 0.7387164163397849 * s6;
+    let t612 = 0.1187687244429415 - (t608 + t610);
+    let t618 = 0.6024474461960437 * c6 + 0.1728431598669821 * s6 - 0.6024474461960437;
+    let t620 = 0.4791839395570616 - (t603 + t604);
+    let t624 = 0.45429805623010555 * c6 + 0.5457019437698944;
+    let t627 = 0.13525562615369383 * c6;
+    let t628 = 0.6486710312075331 * s6;
+    let t630 = t628 - t627 + 0.13525562615369383;
+    let t636 = 0.4437583761502193 - (0.4437583761502193 * c6 + 0.33342615401004283 * s6);
+    let t638 = t610 - t608 + 0.1187687244429415;
+    let t640 = 0.13525562615369383 - (t627 + t628);
+    let t644 = 0.9664760504977387 * c6 + 0.03352394950226131;
+    let t650 = 0.7328910219513399 * s6 - 0.34396596679903774 * c6 + 0.34396596679903774;
+    let t655 = t546 * t638 + (t536 * t600 + t541 * t620);
+    let t660 = t546 * t640 + (t536 * t606 + t541 * t624);
+    let t665 = t546 * t644 + (t536 * t612 + t541 * t630);
+    let t676 = t567 * t638 + (t557 * t600 + t562 * t620);
+    let t681 = t567 * t640 + (t557 * t606 + t562 * t624);
+    let t686 = t567 * t644 + (t557 * t612 + t562 * t630);
+    let t697 = t588 * t638 + (t578 * t600 + t583 * t620);
+    let t702 = t588 * t640 + (t578 * t606 + t583 * t624);
+    let t707 = t588 * t644 + (t578 * t612 + t583 * t630);
+    ::armforge_runtime::Pose {
+        rotation: [
+            [
+                0.8333619980328468 * t655 - 0.26740523698043095 * t660
+                    - 0.48373775898738847 * t665,
+                0.28177252743084635 * t665
+                    - (0.14097335789303053 * t655 + 0.9490683616840234 * t660),
+                -(0.8286145203380714 * t665
+                    + (0.5344476518790823 * t655 + 0.16662438022643364 * t660)),
+            ],
+            [
+                0.8333619980328468 * t676 - 0.26740523698043095 * t681
+                    - 0.48373775898738847 * t686,
+                0.28177252743084635 * t686
+                    - (0.14097335789303053 * t676 + 0.9490683616840234 * t681),
+                -(0.8286145203380714 * t686
+                    + (0.5344476518790823 * t676 + 0.16662438022643364 * t681)),
+            ],
+            [
+                0.8333619980328468 * t697 - 0.26740523698043095 * t702
+                    - 0.48373775898738847 * t707,
+                0.28177252743084635 * t707
+                    - (0.14097335789303053 * t697 + 0.9490683616840234 * t702),
+                -(0.8286145203380714 * t707
+                    + (0.5344476518790823 * t697 + 0.16662438022643364 * t702)),
+            ],
+        ],
+        translation: [
+            0.7581855658887094 * t62
+                + (0.5343470882191231 * t30 + 0.37366808398599166 * t48)
+                + 0.24564840122849207 + (t77 * t186 + (t67 * t154 + t72 * t172))
+                + (t201 * t293 + (t191 * t267 + t196 * t281))
+                + (t308 * t412 + (t298 * t380 + t303 * t398))
+                + (t427 * t531 + (t417 * t499 + t422 * t517))
+                + (t546 * t650 + (t536 * t618 + t541 * t636))
+                + (0.31641671874156135 * t665
+                    + (0.34283475542998193 * t660 - 0.7706214342397045 * t655)),
+            0.9222063922610226 * t48 - 0.30173306576622755 * t30
+                - 0.24185228362829736 * t62 - 0.7394004936737368
+                + (t100 * t186 + (t90 * t154 + t95 * t172))
+                + (t222 * t293 + (t212 * t267 + t217 * t281))
+                + (t329 * t412 + (t319 * t380 + t324 * t398))
+                + (t448 * t531 + (t438 * t499 + t443 * t517))
+                + (t567 * t650 + (t557 * t618 + t562 * t636))
+                + (0.31641671874156135 * t686
+                    + (0.34283475542998193 * t681 - 0.7706214342397045 * t676)),
+            0.6055263170018254 * t62
+                - (0.7895760548136311 * t30 + 0.09953659167937622 * t48)
+                + 0.2460614690751377 + (t124 * t186 + (t114 * t154 + t119 * t172))
+                + (t243 * t293 + (t233 * t267 + t238 * t281))
+                + (t350 * t412 + (t340 * t380 + t345 * t398))
+                + (t469 * t531 + (t459 * t499 + t464 * t517))
+                + (t588 * t650 + (t578 * t618 + t583 * t636))
+                + (0.31641671874156135 * t707
+                    + (0.34283475542998193 * t702 - 0.7706214342397045 * t697)),
+        ],
+    }
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -166,8 +418,18 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
         CAPACITY,
     >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
 }
-/// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-/// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+/// The value each joint is wrapped toward by `solve_branch`: its range's center.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+/// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+/// when it has one away from singular poses, otherwise the nearest of every branch
+/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+/// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
     target: &::armforge_runtime::Pose,
     current: &[f64; JOINTS],
@@ -176,13 +438,79 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    let anchor = ::armforge_runtime::internal::anchors_near(
+        &JOINT_TABLE,
+        current,
+        SETTINGS.limit_tolerance,
+    );
+    let reference = ZERO_REFERENCE;
+    let own = match branch_of(current) {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_1(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_2(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_3(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_4(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_5(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_6(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_7(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_8(target, &reference)),
+        _ => ::core::option::Option::None,
+    };
+    if let ::core::option::Option::Some(candidate) = own {
+        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &candidate,
+            &anchor,
+        ) {
+            if !solution.flags.is_singular() {
+                return ::core::result::Result::Ok(solution);
+            }
+        }
+    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    ::armforge_runtime::internal::near::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &reference), current)
+    ::armforge_runtime::internal::nearest_candidate(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &reference),
+        current,
+        &anchor,
+    )
 }
-/// The one configuration of `branch` (among equivalent angles, the one nearest the
-/// centers of the joint ranges), or why there is none.
+/// The one configuration of `branch` (each joint whose range exceeds a turn at the
+/// equivalent angle nearest its range's center), or why there is none. Computes that
+/// branch alone.
 pub fn solve_branch(
     target: &::armforge_runtime::Pose,
     branch: ::armforge_runtime::Branch,
@@ -191,9 +519,60 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
-    ::armforge_runtime::internal::first_of_branch::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE), branch)
+    let reference = ZERO_REFERENCE;
+    let candidate = match branch {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_1(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_2(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_3(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_4(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_5(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_6(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_7(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_8(target, &reference),
+        _ => {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::Unreachable::BranchUnavailable,
+            );
+        }
+    };
+    ::armforge_runtime::internal::finish_one(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidate,
+        &CENTERS,
+    )
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -1232,6 +1611,2930 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// The closed-form steps of branch 1 alone (shoulder front, elbow up, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_1(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t173 = 0.393370490499651 * w_p_z
+        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
+    let t177 = w_p_x - 0.14192355343258098 * t173;
+    let t178 = w_p_y - 0.9083597096883664 * t173;
+    let t179 = w_p_z - 0.393370490499651 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_p - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
+        - 0.9901136168642846 * j3_cos_psi_p;
+    let t244 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pp = -t244;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
+    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+        - 0.7702009139951951;
+    let t267 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
+    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+        + 0.08633983745217953;
+    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
+    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
+        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
+            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = j2_inv_p * t273;
+    let t290 = j2_inv_p * t287;
+    // cos(θ2 + φ3)
+    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t540 = j1_cos_p * (g6_x + t516)
+        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t541 = t517
+        + (j1_cos_p * (g6_y - t517)
+            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t542 = t518
+        + (j1_cos_p * (g6_z - t518)
+            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t572 = j1_cos_p * (gx_x + t548)
+        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t573 = t549
+        + (j1_cos_p * (gx_y - t549)
+            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t574 = t550
+        + (j1_cos_p * (gx_z - t550)
+            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t575 = t244 * t289 - j3_cos_pp * t290;
+    let t580 = 0.393370490499651 * t542
+        + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
+    let t581 = 0.14192355343258098 * t580;
+    let t582 = 0.9083597096883664 * t580;
+    let t583 = 0.393370490499651 * t580;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t581
+        + (c23_pp * (t540 - t581)
+            + t575 * (0.9083597096883664 * t542 - 0.393370490499651 * t541));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t582
+        + (c23_pp * (t541 - t582)
+            + t575 * (0.393370490499651 * t540 - 0.14192355343258098 * t542));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t583
+        + (c23_pp * (t542 - t583)
+            + t575 * (0.14192355343258098 * t541 - 0.9083597096883664 * t540));
+    let t612 = 0.393370490499651 * t574
+        + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
+    let t613 = 0.14192355343258098 * t612;
+    let t614 = 0.9083597096883664 * t612;
+    let t615 = 0.393370490499651 * t612;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t613
+        + (c23_pp * (t572 - t613)
+            + t575 * (0.9083597096883664 * t574 - 0.393370490499651 * t573));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t614
+        + (c23_pp * (t573 - t614)
+            + t575 * (0.393370490499651 * t572 - 0.14192355343258098 * t574));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t615
+        + (c23_pp * (t574 - t615)
+            + t575 * (0.14192355343258098 * t573 - 0.9083597096883664 * t572));
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.8589206607284425 * v_b1_z
+        + (0.01853429342821227 * v_b1_x + 0.51177317098587 * v_b1_y);
+    let t650 = 0.51177317098587 * v_b1_z - 0.8589206607284425 * v_b1_y;
+    let t653 = 0.8589206607284425 * v_b1_x - 0.01853429342821227 * v_b1_z;
+    let t656 = 0.01853429342821227 * v_b1_y - 0.51177317098587 * v_b1_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t656 * t656 + (t650 * t650 + t653 * t653);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(j5_gap_b1.max(0.0));
+    let t671 = 0.7629582057348024 * j5_gamma_b1;
+    let t672 = 0.5479704330528009 * j5_gamma_b1;
+    let t674 = 0.3429623606197284 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t671;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t672;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t674;
+    let t685 = 0.18309546554259973 * z_b1p_z
+        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = -t685;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = 0.38030529548240455
+        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b1_x * t671 + v_b1_y * t672 - v_b1_z * t674) * t725
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b1_y * t671 - v_b1_x * t672)
+            + (0.01853429342821227 * (v_b1_z * t672 + v_b1_y * t674)
+                - 0.51177317098587 * (v_b1_x * t674 + v_b1_z * t671))) * t725
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t736 = 0.8589206607284425 * xv_b1_z
+        + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
+    let t737 = 0.01853429342821227 * t736;
+    let t738 = 0.51177317098587 * t736;
+    let t739 = 0.8589206607284425 * t736;
+    let t761 = t737
+        + (j4_cos_b1p * (xv_b1_x - t737)
+            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+    let t762 = t738
+        + (j4_cos_b1p * (xv_b1_y - t738)
+            - j4_sin_b1p
+                * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
+    let t763 = t739
+        + (j4_cos_b1p * (xv_b1_z - t739)
+            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+    let t768 = 0.38030529548240455 * t763
+        + (0.6461820612405205 * t761 - 0.6616771312044819 * t762);
+    let t769 = 0.6461820612405205 * t768;
+    let t770 = 0.6616771312044819 * t768;
+    let t771 = 0.38030529548240455 * t768;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t769
+        + (j5_sin_b1p * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
+            - t685 * (t761 - t769));
+    let t794 = t770
+        + (t685 * (t762 + t770)
+            + j5_sin_b1p * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1p_z = t771
+        - (t685 * (t763 - t771)
+            + j5_sin_b1p * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
+        0.9830951380704407 * y6_b1p_z
+            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 2 alone (shoulder front, elbow up, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_2(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t173 = 0.393370490499651 * w_p_z
+        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
+    let t177 = w_p_x - 0.14192355343258098 * t173;
+    let t178 = w_p_y - 0.9083597096883664 * t173;
+    let t179 = w_p_z - 0.393370490499651 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_p - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
+        - 0.9901136168642846 * j3_cos_psi_p;
+    let t244 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pp = -t244;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
+    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+        - 0.7702009139951951;
+    let t267 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
+    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+        + 0.08633983745217953;
+    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
+    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
+        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
+            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = j2_inv_p * t273;
+    let t290 = j2_inv_p * t287;
+    // cos(θ2 + φ3)
+    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t540 = j1_cos_p * (g6_x + t516)
+        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t541 = t517
+        + (j1_cos_p * (g6_y - t517)
+            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t542 = t518
+        + (j1_cos_p * (g6_z - t518)
+            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t572 = j1_cos_p * (gx_x + t548)
+        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t573 = t549
+        + (j1_cos_p * (gx_y - t549)
+            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t574 = t550
+        + (j1_cos_p * (gx_z - t550)
+            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t575 = t244 * t289 - j3_cos_pp * t290;
+    let t580 = 0.393370490499651 * t542
+        + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
+    let t581 = 0.14192355343258098 * t580;
+    let t582 = 0.9083597096883664 * t580;
+    let t583 = 0.393370490499651 * t580;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t581
+        + (c23_pp * (t540 - t581)
+            + t575 * (0.9083597096883664 * t542 - 0.393370490499651 * t541));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t582
+        + (c23_pp * (t541 - t582)
+            + t575 * (0.393370490499651 * t540 - 0.14192355343258098 * t542));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t583
+        + (c23_pp * (t542 - t583)
+            + t575 * (0.14192355343258098 * t541 - 0.9083597096883664 * t540));
+    let t612 = 0.393370490499651 * t574
+        + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
+    let t613 = 0.14192355343258098 * t612;
+    let t614 = 0.9083597096883664 * t612;
+    let t615 = 0.393370490499651 * t612;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t613
+        + (c23_pp * (t572 - t613)
+            + t575 * (0.9083597096883664 * t574 - 0.393370490499651 * t573));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t614
+        + (c23_pp * (t573 - t614)
+            + t575 * (0.393370490499651 * t572 - 0.14192355343258098 * t574));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t615
+        + (c23_pp * (t574 - t615)
+            + t575 * (0.14192355343258098 * t573 - 0.9083597096883664 * t572));
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.8589206607284425 * v_b1_z
+        + (0.01853429342821227 * v_b1_x + 0.51177317098587 * v_b1_y);
+    let t650 = 0.51177317098587 * v_b1_z - 0.8589206607284425 * v_b1_y;
+    let t653 = 0.8589206607284425 * v_b1_x - 0.01853429342821227 * v_b1_z;
+    let t656 = 0.01853429342821227 * v_b1_y - 0.51177317098587 * v_b1_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t656 * t656 + (t650 * t650 + t653 * t653);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(j5_gap_b1.max(0.0));
+    let t671 = 0.7629582057348024 * j5_gamma_b1;
+    let t672 = 0.5479704330528009 * j5_gamma_b1;
+    let t674 = 0.3429623606197284 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t671;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t672;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t674;
+    let t685 = 0.18309546554259973 * z_b1p_z
+        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = -t685;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = 0.38030529548240455
+        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b1_x * t671 + v_b1_y * t672 - v_b1_z * t674) * t725
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b1_y * t671 - v_b1_x * t672)
+            + (0.01853429342821227 * (v_b1_z * t672 + v_b1_y * t674)
+                - 0.51177317098587 * (v_b1_x * t674 + v_b1_z * t671))) * t725
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t736 = 0.8589206607284425 * xv_b1_z
+        + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
+    let t737 = 0.01853429342821227 * t736;
+    let t738 = 0.51177317098587 * t736;
+    let t739 = 0.8589206607284425 * t736;
+    let t761 = t737
+        + (j4_cos_b1p * (xv_b1_x - t737)
+            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+    let t762 = t738
+        + (j4_cos_b1p * (xv_b1_y - t738)
+            - j4_sin_b1p
+                * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
+    let t763 = t739
+        + (j4_cos_b1p * (xv_b1_z - t739)
+            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+    let t768 = 0.38030529548240455 * t763
+        + (0.6461820612405205 * t761 - 0.6616771312044819 * t762);
+    let t769 = 0.6461820612405205 * t768;
+    let t770 = 0.6616771312044819 * t768;
+    let t771 = 0.38030529548240455 * t768;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t769
+        + (j5_sin_b1p * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
+            - t685 * (t761 - t769));
+    let t794 = t770
+        + (t685 * (t762 + t770)
+            + j5_sin_b1p * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1p_z = t771
+        - (t685 * (t763 - t771)
+            + j5_sin_b1p * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
+        0.9830951380704407 * y6_b1p_z
+            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1p_x),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.149982 rad (aligned position)
+    let q5_b1m = -4.299963472122064 - q5_b1p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 3 alone (shoulder front, elbow down, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_3(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t173 = 0.393370490499651 * w_p_z
+        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
+    let t177 = w_p_x - 0.14192355343258098 * t173;
+    let t178 = w_p_y - 0.9083597096883664 * t173;
+    let t179 = w_p_z - 0.393370490499651 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_p - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    let t296 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_pm = -t296;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
+        - 0.14026769300136338 * j3_cos_psi_p;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
+    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+        - 0.7702009139951951;
+    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+        + 0.082947433224273;
+    let t312 = 0.08633983745217953
+        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
+    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
+    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
+        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
+            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
+    let t333 = j2_inv_p * t317;
+    let t334 = j2_inv_p * t331;
+    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t540 = j1_cos_p * (g6_x + t516)
+        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t541 = t517
+        + (j1_cos_p * (g6_y - t517)
+            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t542 = t518
+        + (j1_cos_p * (g6_z - t518)
+            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t572 = j1_cos_p * (gx_x + t548)
+        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t573 = t549
+        + (j1_cos_p * (gx_y - t549)
+            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t574 = t550
+        + (j1_cos_p * (gx_z - t550)
+            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t580 = 0.393370490499651 * t542
+        + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
+    let t581 = 0.14192355343258098 * t580;
+    let t582 = 0.9083597096883664 * t580;
+    let t583 = 0.393370490499651 * t580;
+    let t612 = 0.393370490499651 * t574
+        + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
+    let t613 = 0.14192355343258098 * t612;
+    let t614 = 0.9083597096883664 * t612;
+    let t615 = 0.393370490499651 * t612;
+    let t825 = t296 * t334 - j3_sin_pm * t333;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t581
+        + ((0.9083597096883664 * t542 - 0.393370490499651 * t541) * t825
+            - t337 * (t540 - t581));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t582
+        + ((0.393370490499651 * t540 - 0.14192355343258098 * t542) * t825
+            - t337 * (t541 - t582));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t583
+        + ((0.14192355343258098 * t541 - 0.9083597096883664 * t540) * t825
+            - t337 * (t542 - t583));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t613
+        + ((0.9083597096883664 * t574 - 0.393370490499651 * t573) * t825
+            - t337 * (t572 - t613));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t614
+        + ((0.393370490499651 * t572 - 0.14192355343258098 * t574) * t825
+            - t337 * (t573 - t614));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t615
+        + ((0.14192355343258098 * t573 - 0.9083597096883664 * t572) * t825
+            - t337 * (t574 - t615));
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.8589206607284425 * v_b2_z
+        + (0.01853429342821227 * v_b2_x + 0.51177317098587 * v_b2_y);
+    let t857 = 0.51177317098587 * v_b2_z - 0.8589206607284425 * v_b2_y;
+    let t860 = 0.8589206607284425 * v_b2_x - 0.01853429342821227 * v_b2_z;
+    let t863 = 0.01853429342821227 * v_b2_y - 0.51177317098587 * v_b2_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t863 * t863 + (t857 * t857 + t860 * t860);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(j5_gap_b2.max(0.0));
+    let t874 = 0.7629582057348024 * j5_gamma_b2;
+    let t875 = 0.5479704330528009 * j5_gamma_b2;
+    let t876 = 0.3429623606197284 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t874;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t875;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t876;
+    let t884 = 0.18309546554259973 * z_b2p_z
+        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = -t884;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = 0.38030529548240455
+        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b2_x * t874 + v_b2_y * t875 - v_b2_z * t876) * t921
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b2_y * t874 - v_b2_x * t875)
+            + (0.01853429342821227 * (v_b2_z * t875 + v_b2_y * t876)
+                - 0.51177317098587 * (v_b2_x * t876 + v_b2_z * t874))) * t921
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t932 = 0.8589206607284425 * xv_b2_z
+        + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
+    let t933 = 0.01853429342821227 * t932;
+    let t934 = 0.51177317098587 * t932;
+    let t935 = 0.8589206607284425 * t932;
+    let t957 = t933
+        + (j4_cos_b2p * (xv_b2_x - t933)
+            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+    let t958 = t934
+        + (j4_cos_b2p * (xv_b2_y - t934)
+            - j4_sin_b2p
+                * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
+    let t959 = t935
+        + (j4_cos_b2p * (xv_b2_z - t935)
+            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+    let t964 = 0.38030529548240455 * t959
+        + (0.6461820612405205 * t957 - 0.6616771312044819 * t958);
+    let t965 = 0.6461820612405205 * t964;
+    let t966 = 0.6616771312044819 * t964;
+    let t967 = 0.38030529548240455 * t964;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t965
+        + (j5_sin_b2p * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
+            - t884 * (t957 - t965));
+    let t990 = t966
+        + (t884 * (t958 + t966)
+            + j5_sin_b2p * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2p_z = t967
+        - (t884 * (t959 - t967)
+            + j5_sin_b2p * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
+        0.9830951380704407 * y6_b2p_z
+            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 4 alone (shoulder front, elbow down, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_4(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t173 = 0.393370490499651 * w_p_z
+        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
+    let t177 = w_p_x - 0.14192355343258098 * t173;
+    let t178 = w_p_y - 0.9083597096883664 * t173;
+    let t179 = w_p_z - 0.393370490499651 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_p - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    let t296 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_pm = -t296;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
+        - 0.14026769300136338 * j3_cos_psi_p;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
+    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+        - 0.7702009139951951;
+    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+        + 0.082947433224273;
+    let t312 = 0.08633983745217953
+        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
+    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
+    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
+        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
+            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
+    let t333 = j2_inv_p * t317;
+    let t334 = j2_inv_p * t331;
+    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t540 = j1_cos_p * (g6_x + t516)
+        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t541 = t517
+        + (j1_cos_p * (g6_y - t517)
+            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t542 = t518
+        + (j1_cos_p * (g6_z - t518)
+            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t572 = j1_cos_p * (gx_x + t548)
+        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t573 = t549
+        + (j1_cos_p * (gx_y - t549)
+            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t574 = t550
+        + (j1_cos_p * (gx_z - t550)
+            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t580 = 0.393370490499651 * t542
+        + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
+    let t581 = 0.14192355343258098 * t580;
+    let t582 = 0.9083597096883664 * t580;
+    let t583 = 0.393370490499651 * t580;
+    let t612 = 0.393370490499651 * t574
+        + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
+    let t613 = 0.14192355343258098 * t612;
+    let t614 = 0.9083597096883664 * t612;
+    let t615 = 0.393370490499651 * t612;
+    let t825 = t296 * t334 - j3_sin_pm * t333;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t581
+        + ((0.9083597096883664 * t542 - 0.393370490499651 * t541) * t825
+            - t337 * (t540 - t581));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t582
+        + ((0.393370490499651 * t540 - 0.14192355343258098 * t542) * t825
+            - t337 * (t541 - t582));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t583
+        + ((0.14192355343258098 * t541 - 0.9083597096883664 * t540) * t825
+            - t337 * (t542 - t583));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t613
+        + ((0.9083597096883664 * t574 - 0.393370490499651 * t573) * t825
+            - t337 * (t572 - t613));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t614
+        + ((0.393370490499651 * t572 - 0.14192355343258098 * t574) * t825
+            - t337 * (t573 - t614));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t615
+        + ((0.14192355343258098 * t573 - 0.9083597096883664 * t572) * t825
+            - t337 * (t574 - t615));
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.8589206607284425 * v_b2_z
+        + (0.01853429342821227 * v_b2_x + 0.51177317098587 * v_b2_y);
+    let t857 = 0.51177317098587 * v_b2_z - 0.8589206607284425 * v_b2_y;
+    let t860 = 0.8589206607284425 * v_b2_x - 0.01853429342821227 * v_b2_z;
+    let t863 = 0.01853429342821227 * v_b2_y - 0.51177317098587 * v_b2_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t863 * t863 + (t857 * t857 + t860 * t860);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(j5_gap_b2.max(0.0));
+    let t874 = 0.7629582057348024 * j5_gamma_b2;
+    let t875 = 0.5479704330528009 * j5_gamma_b2;
+    let t876 = 0.3429623606197284 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t874;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t875;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t876;
+    let t884 = 0.18309546554259973 * z_b2p_z
+        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = -t884;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = 0.38030529548240455
+        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b2_x * t874 + v_b2_y * t875 - v_b2_z * t876) * t921
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b2_y * t874 - v_b2_x * t875)
+            + (0.01853429342821227 * (v_b2_z * t875 + v_b2_y * t876)
+                - 0.51177317098587 * (v_b2_x * t876 + v_b2_z * t874))) * t921
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t932 = 0.8589206607284425 * xv_b2_z
+        + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
+    let t933 = 0.01853429342821227 * t932;
+    let t934 = 0.51177317098587 * t932;
+    let t935 = 0.8589206607284425 * t932;
+    let t957 = t933
+        + (j4_cos_b2p * (xv_b2_x - t933)
+            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+    let t958 = t934
+        + (j4_cos_b2p * (xv_b2_y - t934)
+            - j4_sin_b2p
+                * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
+    let t959 = t935
+        + (j4_cos_b2p * (xv_b2_z - t935)
+            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+    let t964 = 0.38030529548240455 * t959
+        + (0.6461820612405205 * t957 - 0.6616771312044819 * t958);
+    let t965 = 0.6461820612405205 * t964;
+    let t966 = 0.6616771312044819 * t964;
+    let t967 = 0.38030529548240455 * t964;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t965
+        + (j5_sin_b2p * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
+            - t884 * (t957 - t965));
+    let t990 = t966
+        + (t884 * (t958 + t966)
+            + j5_sin_b2p * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2p_z = t967
+        - (t884 * (t959 - t967)
+            + j5_sin_b2p * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
+        0.9830951380704407 * y6_b2p_z
+            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2p_x),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.149982 rad (aligned position)
+    let q5_b2m = -4.299963472122064 - q5_b2p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 5 alone (shoulder back, elbow down, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_5(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t205 = 0.393370490499651 * w_m_z
+        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
+    let t209 = w_m_x - 0.14192355343258098 * t205;
+    let t210 = w_m_y - 0.9083597096883664 * t205;
+    let t211 = w_m_z - 0.393370490499651 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_m - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
+        - 0.9901136168642846 * j3_cos_psi_m;
+    let t358 = 0.14026769300136338 * j3_cos_psi_m + 0.9901136168642846 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mp = -t358;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_mp = -::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
+    let t371 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t358
+        - 0.7702009139951951;
+    let t372 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t358);
+    let t373 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t358
+        + 0.08633983745217953;
+    let t378 = w_m_z * t373 + (w_m_x * t371 + w_m_y * t372);
+    let t392 = 0.393370490499651 * (w_m_y * t371 - w_m_x * t372)
+        + (0.14192355343258098 * (w_m_z * t372 - w_m_y * t373)
+            + 0.9083597096883664 * (w_m_x * t373 - w_m_z * t371));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_m * t378;
+    let t395 = j2_inv_m * t392;
+    // cos(θ2 + φ3)
+    let c23_mp = j3_cos_mp * t394 + t358 * t395;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t1025 = j1_cos_m * (g6_x + t516)
+        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1026 = t517
+        + (j1_cos_m * (g6_y - t517)
+            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t1027 = t518
+        + (j1_cos_m * (g6_z - t518)
+            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_m * (gx_x + t548)
+        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t1038 = t549
+        + (j1_cos_m * (gx_y - t549)
+            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t1039 = t550
+        + (j1_cos_m * (gx_z - t550)
+            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1040 = t358 * t394 - j3_cos_mp * t395;
+    let t1045 = 0.393370490499651 * t1027
+        + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
+    let t1046 = 0.14192355343258098 * t1045;
+    let t1047 = 0.9083597096883664 * t1045;
+    let t1048 = 0.393370490499651 * t1045;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1046
+        + (c23_mp * (t1025 - t1046)
+            + t1040 * (0.9083597096883664 * t1027 - 0.393370490499651 * t1026));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1047
+        + (c23_mp * (t1026 - t1047)
+            + t1040 * (0.393370490499651 * t1025 - 0.14192355343258098 * t1027));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t1048
+        + (c23_mp * (t1027 - t1048)
+            + t1040 * (0.14192355343258098 * t1026 - 0.9083597096883664 * t1025));
+    let t1077 = 0.393370490499651 * t1039
+        + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
+    let t1078 = 0.14192355343258098 * t1077;
+    let t1079 = 0.9083597096883664 * t1077;
+    let t1080 = 0.393370490499651 * t1077;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1078
+        + (c23_mp * (t1037 - t1078)
+            + t1040 * (0.9083597096883664 * t1039 - 0.393370490499651 * t1038));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1079
+        + (c23_mp * (t1038 - t1079)
+            + t1040 * (0.393370490499651 * t1037 - 0.14192355343258098 * t1039));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t1080
+        + (c23_mp * (t1039 - t1080)
+            + t1040 * (0.14192355343258098 * t1038 - 0.9083597096883664 * t1037));
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.8589206607284425 * v_b3_z
+        + (0.01853429342821227 * v_b3_x + 0.51177317098587 * v_b3_y);
+    let t1112 = 0.51177317098587 * v_b3_z - 0.8589206607284425 * v_b3_y;
+    let t1115 = 0.8589206607284425 * v_b3_x - 0.01853429342821227 * v_b3_z;
+    let t1118 = 0.01853429342821227 * v_b3_y - 0.51177317098587 * v_b3_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1118 * t1118 + (t1112 * t1112 + t1115 * t1115);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(j5_gap_b3.max(0.0));
+    let t1129 = 0.7629582057348024 * j5_gamma_b3;
+    let t1130 = 0.5479704330528009 * j5_gamma_b3;
+    let t1131 = 0.3429623606197284 * j5_gamma_b3;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1129;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1130;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1131;
+    let t1139 = 0.18309546554259973 * z_b3p_z
+        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3p = -t1139;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3p = 0.38030529548240455
+        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b3_x * t1129 + v_b3_y * t1130 - v_b3_z * t1131) * t1176
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b3_y * t1129 - v_b3_x * t1130)
+            + (0.01853429342821227 * (v_b3_z * t1130 + v_b3_y * t1131)
+                - 0.51177317098587 * (v_b3_x * t1131 + v_b3_z * t1129))) * t1176
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let t1187 = 0.8589206607284425 * xv_b3_z
+        + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
+    let t1188 = 0.01853429342821227 * t1187;
+    let t1189 = 0.51177317098587 * t1187;
+    let t1190 = 0.8589206607284425 * t1187;
+    let t1212 = t1188
+        + (j4_cos_b3p * (xv_b3_x - t1188)
+            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+    let t1213 = t1189
+        + (j4_cos_b3p * (xv_b3_y - t1189)
+            - j4_sin_b3p
+                * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
+    let t1214 = t1190
+        + (j4_cos_b3p * (xv_b3_z - t1190)
+            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+    let t1219 = 0.38030529548240455 * t1214
+        + (0.6461820612405205 * t1212 - 0.6616771312044819 * t1213);
+    let t1220 = 0.6461820612405205 * t1219;
+    let t1221 = 0.6616771312044819 * t1219;
+    let t1222 = 0.38030529548240455 * t1219;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3p_x = t1220
+        + (j5_sin_b3p * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
+            - t1139 * (t1212 - t1220));
+    let t1245 = t1221
+        + (t1139 * (t1213 + t1221)
+            + j5_sin_b3p * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b3p_z = t1222
+        - (t1139 * (t1214 - t1222)
+            + j5_sin_b3p * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
+        0.9830951380704407 * y6_b3p_z
+            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b3 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 6 alone (shoulder back, elbow down, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_6(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t205 = 0.393370490499651 * w_m_z
+        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
+    let t209 = w_m_x - 0.14192355343258098 * t205;
+    let t210 = w_m_y - 0.9083597096883664 * t205;
+    let t211 = w_m_z - 0.393370490499651 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_m - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
+        - 0.9901136168642846 * j3_cos_psi_m;
+    let t358 = 0.14026769300136338 * j3_cos_psi_m + 0.9901136168642846 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mp = -t358;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_mp = -::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
+    let t371 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t358
+        - 0.7702009139951951;
+    let t372 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t358);
+    let t373 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t358
+        + 0.08633983745217953;
+    let t378 = w_m_z * t373 + (w_m_x * t371 + w_m_y * t372);
+    let t392 = 0.393370490499651 * (w_m_y * t371 - w_m_x * t372)
+        + (0.14192355343258098 * (w_m_z * t372 - w_m_y * t373)
+            + 0.9083597096883664 * (w_m_x * t373 - w_m_z * t371));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_m * t378;
+    let t395 = j2_inv_m * t392;
+    // cos(θ2 + φ3)
+    let c23_mp = j3_cos_mp * t394 + t358 * t395;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t1025 = j1_cos_m * (g6_x + t516)
+        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1026 = t517
+        + (j1_cos_m * (g6_y - t517)
+            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t1027 = t518
+        + (j1_cos_m * (g6_z - t518)
+            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_m * (gx_x + t548)
+        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t1038 = t549
+        + (j1_cos_m * (gx_y - t549)
+            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t1039 = t550
+        + (j1_cos_m * (gx_z - t550)
+            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1040 = t358 * t394 - j3_cos_mp * t395;
+    let t1045 = 0.393370490499651 * t1027
+        + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
+    let t1046 = 0.14192355343258098 * t1045;
+    let t1047 = 0.9083597096883664 * t1045;
+    let t1048 = 0.393370490499651 * t1045;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1046
+        + (c23_mp * (t1025 - t1046)
+            + t1040 * (0.9083597096883664 * t1027 - 0.393370490499651 * t1026));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1047
+        + (c23_mp * (t1026 - t1047)
+            + t1040 * (0.393370490499651 * t1025 - 0.14192355343258098 * t1027));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t1048
+        + (c23_mp * (t1027 - t1048)
+            + t1040 * (0.14192355343258098 * t1026 - 0.9083597096883664 * t1025));
+    let t1077 = 0.393370490499651 * t1039
+        + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
+    let t1078 = 0.14192355343258098 * t1077;
+    let t1079 = 0.9083597096883664 * t1077;
+    let t1080 = 0.393370490499651 * t1077;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1078
+        + (c23_mp * (t1037 - t1078)
+            + t1040 * (0.9083597096883664 * t1039 - 0.393370490499651 * t1038));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1079
+        + (c23_mp * (t1038 - t1079)
+            + t1040 * (0.393370490499651 * t1037 - 0.14192355343258098 * t1039));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t1080
+        + (c23_mp * (t1039 - t1080)
+            + t1040 * (0.14192355343258098 * t1038 - 0.9083597096883664 * t1037));
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.8589206607284425 * v_b3_z
+        + (0.01853429342821227 * v_b3_x + 0.51177317098587 * v_b3_y);
+    let t1112 = 0.51177317098587 * v_b3_z - 0.8589206607284425 * v_b3_y;
+    let t1115 = 0.8589206607284425 * v_b3_x - 0.01853429342821227 * v_b3_z;
+    let t1118 = 0.01853429342821227 * v_b3_y - 0.51177317098587 * v_b3_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1118 * t1118 + (t1112 * t1112 + t1115 * t1115);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(j5_gap_b3.max(0.0));
+    let t1129 = 0.7629582057348024 * j5_gamma_b3;
+    let t1130 = 0.5479704330528009 * j5_gamma_b3;
+    let t1131 = 0.3429623606197284 * j5_gamma_b3;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1129;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1130;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1131;
+    let t1139 = 0.18309546554259973 * z_b3p_z
+        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3p = -t1139;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3p = 0.38030529548240455
+        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b3_x * t1129 + v_b3_y * t1130 - v_b3_z * t1131) * t1176
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b3_y * t1129 - v_b3_x * t1130)
+            + (0.01853429342821227 * (v_b3_z * t1130 + v_b3_y * t1131)
+                - 0.51177317098587 * (v_b3_x * t1131 + v_b3_z * t1129))) * t1176
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let t1187 = 0.8589206607284425 * xv_b3_z
+        + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
+    let t1188 = 0.01853429342821227 * t1187;
+    let t1189 = 0.51177317098587 * t1187;
+    let t1190 = 0.8589206607284425 * t1187;
+    let t1212 = t1188
+        + (j4_cos_b3p * (xv_b3_x - t1188)
+            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+    let t1213 = t1189
+        + (j4_cos_b3p * (xv_b3_y - t1189)
+            - j4_sin_b3p
+                * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
+    let t1214 = t1190
+        + (j4_cos_b3p * (xv_b3_z - t1190)
+            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+    let t1219 = 0.38030529548240455 * t1214
+        + (0.6461820612405205 * t1212 - 0.6616771312044819 * t1213);
+    let t1220 = 0.6461820612405205 * t1219;
+    let t1221 = 0.6616771312044819 * t1219;
+    let t1222 = 0.38030529548240455 * t1219;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3p_x = t1220
+        + (j5_sin_b3p * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
+            - t1139 * (t1212 - t1220));
+    let t1245 = t1221
+        + (t1139 * (t1213 + t1221)
+            + j5_sin_b3p * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b3p_z = t1222
+        - (t1139 * (t1214 - t1222)
+            + j5_sin_b3p * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
+        0.9830951380704407 * y6_b3p_z
+            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3p_x),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.149982 rad (aligned position)
+    let q5_b3m = -4.299963472122064 - q5_b3p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b3 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 7 alone (shoulder back, elbow up, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_7(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t205 = 0.393370490499651 * w_m_z
+        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
+    let t209 = w_m_x - 0.14192355343258098 * t205;
+    let t210 = w_m_y - 0.9083597096883664 * t205;
+    let t211 = w_m_z - 0.393370490499651 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_m - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    let t401 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_mm = -t401;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mm = 0.9901136168642846 * j3_sin_psi_m
+        - 0.14026769300136338 * j3_cos_psi_m;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_mm = -::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let t415 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t401
+        - 0.7702009139951951;
+    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_mm
+        + 0.082947433224273;
+    let t417 = 0.08633983745217953
+        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_mm);
+    let t422 = w_m_z * t417 + (w_m_x * t415 + w_m_y * t416);
+    let t436 = 0.393370490499651 * (w_m_y * t415 - w_m_x * t416)
+        + (0.14192355343258098 * (w_m_z * t416 - w_m_y * t417)
+            + 0.9083597096883664 * (w_m_x * t417 - w_m_z * t415));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mm = ::armforge_runtime::math::atan2(t436, t422);
+    let t438 = j2_inv_m * t422;
+    let t439 = j2_inv_m * t436;
+    let t442 = t401 * t438 + j3_sin_mm * t439;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t1025 = j1_cos_m * (g6_x + t516)
+        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1026 = t517
+        + (j1_cos_m * (g6_y - t517)
+            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t1027 = t518
+        + (j1_cos_m * (g6_z - t518)
+            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_m * (gx_x + t548)
+        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t1038 = t549
+        + (j1_cos_m * (gx_y - t549)
+            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t1039 = t550
+        + (j1_cos_m * (gx_z - t550)
+            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1045 = 0.393370490499651 * t1027
+        + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
+    let t1046 = 0.14192355343258098 * t1045;
+    let t1047 = 0.9083597096883664 * t1045;
+    let t1048 = 0.393370490499651 * t1045;
+    let t1077 = 0.393370490499651 * t1039
+        + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
+    let t1078 = 0.14192355343258098 * t1077;
+    let t1079 = 0.9083597096883664 * t1077;
+    let t1080 = 0.393370490499651 * t1077;
+    let t1271 = t401 * t439 - j3_sin_mm * t438;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1046
+        + ((0.9083597096883664 * t1027 - 0.393370490499651 * t1026) * t1271
+            - t442 * (t1025 - t1046));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1047
+        + ((0.393370490499651 * t1025 - 0.14192355343258098 * t1027) * t1271
+            - t442 * (t1026 - t1047));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t1048
+        + ((0.14192355343258098 * t1026 - 0.9083597096883664 * t1025) * t1271
+            - t442 * (t1027 - t1048));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1078
+        + ((0.9083597096883664 * t1039 - 0.393370490499651 * t1038) * t1271
+            - t442 * (t1037 - t1078));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1079
+        + ((0.393370490499651 * t1037 - 0.14192355343258098 * t1039) * t1271
+            - t442 * (t1038 - t1079));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t1080
+        + ((0.14192355343258098 * t1038 - 0.9083597096883664 * t1037) * t1271
+            - t442 * (t1039 - t1080));
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.8589206607284425 * v_b4_z
+        + (0.01853429342821227 * v_b4_x + 0.51177317098587 * v_b4_y);
+    let t1303 = 0.51177317098587 * v_b4_z - 0.8589206607284425 * v_b4_y;
+    let t1306 = 0.8589206607284425 * v_b4_x - 0.01853429342821227 * v_b4_z;
+    let t1309 = 0.01853429342821227 * v_b4_y - 0.51177317098587 * v_b4_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1309 * t1309 + (t1303 * t1303 + t1306 * t1306);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(j5_gap_b4.max(0.0));
+    let t1320 = 0.7629582057348024 * j5_gamma_b4;
+    let t1321 = 0.5479704330528009 * j5_gamma_b4;
+    let t1322 = 0.3429623606197284 * j5_gamma_b4;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1320;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1321;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1322;
+    let t1330 = 0.18309546554259973 * z_b4p_z
+        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4p = -t1330;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4p = 0.38030529548240455
+        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b4_x * t1320 + v_b4_y * t1321 - v_b4_z * t1322) * t1367
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b4_y * t1320 - v_b4_x * t1321)
+            + (0.01853429342821227 * (v_b4_z * t1321 + v_b4_y * t1322)
+                - 0.51177317098587 * (v_b4_x * t1322 + v_b4_z * t1320))) * t1367
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let t1378 = 0.8589206607284425 * xv_b4_z
+        + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
+    let t1379 = 0.01853429342821227 * t1378;
+    let t1380 = 0.51177317098587 * t1378;
+    let t1381 = 0.8589206607284425 * t1378;
+    let t1403 = t1379
+        + (j4_cos_b4p * (xv_b4_x - t1379)
+            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+    let t1404 = t1380
+        + (j4_cos_b4p * (xv_b4_y - t1380)
+            - j4_sin_b4p
+                * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
+    let t1405 = t1381
+        + (j4_cos_b4p * (xv_b4_z - t1381)
+            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+    let t1410 = 0.38030529548240455 * t1405
+        + (0.6461820612405205 * t1403 - 0.6616771312044819 * t1404);
+    let t1411 = 0.6461820612405205 * t1410;
+    let t1412 = 0.6616771312044819 * t1410;
+    let t1413 = 0.38030529548240455 * t1410;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4p_x = t1411
+        + (j5_sin_b4p * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
+            - t1330 * (t1403 - t1411));
+    let t1436 = t1412
+        + (t1330 * (t1404 + t1412)
+            + j5_sin_b4p * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b4p_z = t1413
+        - (t1330 * (t1405 - t1413)
+            + j5_sin_b4p * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
+        0.9830951380704407 * y6_b4p_z
+            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b4 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 8 alone (shoulder back, elbow up, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_8(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.04706060139843265 * r00 + 0.04193708766352278 * r01
+            - 0.0006336967630521297 * r02) - 0.24564840122849207;
+    let t40 = py
+        + (0.04706060139843265 * r10 + 0.04193708766352278 * r11
+            - 0.0006336967630521297 * r12) + 0.7394004936737368;
+    let t42 = pz
+        + (0.04706060139843265 * r20 + 0.04193708766352278 * r21
+            - 0.0006336967630521297 * r22) - 0.2460614690751377;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (x)
+    let wc_x = 0.5343470882191231 * t39 - 0.30173306576622755 * t40
+        - 0.7895760548136311 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (y)
+    let wc_y = 0.37366808398599166 * t39 + 0.9222063922610226 * t40
+        - 0.09953659167937622 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.047061, 0.041937, -0.000634) m (z)
+    let wc_z = 0.6055263170018254 * t42
+        + (0.7581855658887094 * t39 - 0.24185228362829736 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12610473873370642;
+    // u = c_t − p1 (y)
+    let u_y = wc_y + 0.14855515348839365;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.09120285126503383;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3913675155219381 * u_z
+        + (0.509380080247272 * u_x + 0.5952054013622248 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.25138098356734706 * u_x + 0.29998222105922023 * u_y
+        - 0.783405601408612 * u_z;
+    let t96 = 0.004148680977921899 * u_z
+        + (0.6486238403189734 * u_y - 0.7610978269683933 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.396665 − 0.482798 (h1·u)
+    let j1_e = 0.3966651704677067 - 0.48279802384713766 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7610978269683933 * t96;
+    let t134 = 0.6486238403189734 * t96;
+    let t135 = 0.004148680977921899 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+        + 0.1270793410860917;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+        - 0.1426250888590215;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+        - 0.013836588814141002;
+    let t205 = 0.393370490499651 * w_m_z
+        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
+    let t209 = w_m_x - 0.14192355343258098 * t205;
+    let t210 = w_m_y - 0.9083597096883664 * t205;
+    let t211 = w_m_z - 0.393370490499651 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_m - 0.6700752485449181),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+            .max(1.9858518512535248e-20);
+    let t401 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
+    let j3_cos_mm = -t401;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mm = 0.9901136168642846 * j3_sin_psi_m
+        - 0.14026769300136338 * j3_cos_psi_m;
+    // θ3 = -1 atan2(sin φ3, cos φ3)
+    let q3_mm = -::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let t415 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t401
+        - 0.7702009139951951;
+    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_mm
+        + 0.082947433224273;
+    let t417 = 0.08633983745217953
+        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_mm);
+    let t422 = w_m_z * t417 + (w_m_x * t415 + w_m_y * t416);
+    let t436 = 0.393370490499651 * (w_m_y * t415 - w_m_x * t416)
+        + (0.14192355343258098 * (w_m_z * t416 - w_m_y * t417)
+            + 0.9083597096883664 * (w_m_x * t417 - w_m_z * t415));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mm = ::armforge_runtime::math::atan2(t436, t422);
+    let t438 = j2_inv_m * t422;
+    let t439 = j2_inv_m * t436;
+    let t442 = t401 * t438 + j3_sin_mm * t439;
+    let t452 = 0.6214844358632149 * r02
+        + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
+    let t457 = 0.6214844358632149 * r12
+        + (0.7409464403548875 * r11 - 0.25447095807813225 * r10);
+    let t462 = 0.6214844358632149 * r22
+        + (0.7409464403548875 * r21 - 0.25447095807813225 * r20);
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (x)
+    let g6_x = 0.5343470882191231 * t452 - 0.30173306576622755 * t457
+        - 0.7895760548136311 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (y)
+    let g6_y = 0.37366808398599166 * t452 + 0.9222063922610226 * t457
+        - 0.09953659167937622 * t462;
+    // rot(B⁻¹ T M⁻¹) (-0.648671, -0.738716, -0.183095) : where the target sends this wrist direction (z)
+    let g6_z = 0.6055263170018254 * t462
+        + (0.7581855658887094 * t452 - 0.24185228362829736 * t457);
+    let t485 = 0.42461451054378674 * r01 - 0.5394495578166274 * r00
+        - 0.7271153223575374 * r02;
+    let t490 = 0.42461451054378674 * r11 - 0.5394495578166274 * r10
+        - 0.7271153223575374 * r12;
+    let t495 = 0.42461451054378674 * r21 - 0.5394495578166274 * r20
+        - 0.7271153223575374 * r22;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (x)
+    let gx_x = 0.5343470882191231 * t485 - 0.30173306576622755 * t490
+        - 0.7895760548136311 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (y)
+    let gx_y = 0.37366808398599166 * t485 + 0.9222063922610226 * t490
+        - 0.09953659167937622 * t495;
+    // rot(B⁻¹ T M⁻¹) (-0.120811, -0.137581, 0.983095) : where the target sends this wrist direction (z)
+    let gx_z = 0.6055263170018254 * t495
+        + (0.7581855658887094 * t485 - 0.24185228362829736 * t490);
+    let t515 = 0.004148680977921899 * g6_z
+        + (0.6486238403189734 * g6_y - 0.7610978269683933 * g6_x);
+    let t516 = 0.7610978269683933 * t515;
+    let t517 = 0.6486238403189734 * t515;
+    let t518 = 0.004148680977921899 * t515;
+    let t547 = 0.004148680977921899 * gx_z
+        + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
+    let t548 = 0.7610978269683933 * t547;
+    let t549 = 0.6486238403189734 * t547;
+    let t550 = 0.004148680977921899 * t547;
+    let t1025 = j1_cos_m * (g6_x + t516)
+        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1026 = t517
+        + (j1_cos_m * (g6_y - t517)
+            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+    let t1027 = t518
+        + (j1_cos_m * (g6_z - t518)
+            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_m * (gx_x + t548)
+        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t1038 = t549
+        + (j1_cos_m * (gx_y - t549)
+            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+    let t1039 = t550
+        + (j1_cos_m * (gx_z - t550)
+            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1045 = 0.393370490499651 * t1027
+        + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
+    let t1046 = 0.14192355343258098 * t1045;
+    let t1047 = 0.9083597096883664 * t1045;
+    let t1048 = 0.393370490499651 * t1045;
+    let t1077 = 0.393370490499651 * t1039
+        + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
+    let t1078 = 0.14192355343258098 * t1077;
+    let t1079 = 0.9083597096883664 * t1077;
+    let t1080 = 0.393370490499651 * t1077;
+    let t1271 = t401 * t439 - j3_sin_mm * t438;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1046
+        + ((0.9083597096883664 * t1027 - 0.393370490499651 * t1026) * t1271
+            - t442 * (t1025 - t1046));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1047
+        + ((0.393370490499651 * t1025 - 0.14192355343258098 * t1027) * t1271
+            - t442 * (t1026 - t1047));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t1048
+        + ((0.14192355343258098 * t1026 - 0.9083597096883664 * t1025) * t1271
+            - t442 * (t1027 - t1048));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1078
+        + ((0.9083597096883664 * t1039 - 0.393370490499651 * t1038) * t1271
+            - t442 * (t1037 - t1078));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1079
+        + ((0.393370490499651 * t1037 - 0.14192355343258098 * t1039) * t1271
+            - t442 * (t1038 - t1079));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t1080
+        + ((0.14192355343258098 * t1038 - 0.9083597096883664 * t1037) * t1271
+            - t442 * (t1039 - t1080));
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.8589206607284425 * v_b4_z
+        + (0.01853429342821227 * v_b4_x + 0.51177317098587 * v_b4_y);
+    let t1303 = 0.51177317098587 * v_b4_z - 0.8589206607284425 * v_b4_y;
+    let t1306 = 0.8589206607284425 * v_b4_x - 0.01853429342821227 * v_b4_z;
+    let t1309 = 0.01853429342821227 * v_b4_y - 0.51177317098587 * v_b4_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1309 * t1309 + (t1303 * t1303 + t1306 * t1306);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(j5_gap_b4.max(0.0));
+    let t1320 = 0.7629582057348024 * j5_gamma_b4;
+    let t1321 = 0.5479704330528009 * j5_gamma_b4;
+    let t1322 = 0.3429623606197284 * j5_gamma_b4;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1320;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1321;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1322;
+    let t1330 = 0.18309546554259973 * z_b4p_z
+        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4p = -t1330;
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4p = 0.38030529548240455
+        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+        + (0.6461820612405205
+            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            - 0.6616771312044819
+                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b4_x * t1320 + v_b4_y * t1321 - v_b4_z * t1322) * t1367
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.8589206607284425 * (v_b4_y * t1320 - v_b4_x * t1321)
+            + (0.01853429342821227 * (v_b4_z * t1321 + v_b4_y * t1322)
+                - 0.51177317098587 * (v_b4_x * t1322 + v_b4_z * t1320))) * t1367
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let t1378 = 0.8589206607284425 * xv_b4_z
+        + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
+    let t1379 = 0.01853429342821227 * t1378;
+    let t1380 = 0.51177317098587 * t1378;
+    let t1381 = 0.8589206607284425 * t1378;
+    let t1403 = t1379
+        + (j4_cos_b4p * (xv_b4_x - t1379)
+            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+    let t1404 = t1380
+        + (j4_cos_b4p * (xv_b4_y - t1380)
+            - j4_sin_b4p
+                * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
+    let t1405 = t1381
+        + (j4_cos_b4p * (xv_b4_z - t1381)
+            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+    let t1410 = 0.38030529548240455 * t1405
+        + (0.6461820612405205 * t1403 - 0.6616771312044819 * t1404);
+    let t1411 = 0.6461820612405205 * t1410;
+    let t1412 = 0.6616771312044819 * t1410;
+    let t1413 = 0.38030529548240455 * t1410;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4p_x = t1411
+        + (j5_sin_b4p * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
+            - t1330 * (t1403 - t1411));
+    let t1436 = t1412
+        + (t1330 * (t1404 + t1412)
+            + j5_sin_b4p * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b4p_z = t1413
+        - (t1330 * (t1405 - t1413)
+            + j5_sin_b4p * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4p = ::armforge_runtime::math::atan2(
+        -(0.1830954655425997
+            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4p_x)
+            + (0.6486710312075331
+                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4p_z)
+                + 0.7387164163397849
+                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
+        0.9830951380704407 * y6_b4p_z
+            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4p_x),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.149982 rad (aligned position)
+    let q5_b4m = -4.299963472122064 - q5_b4p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.0295131814697287,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.5293893711342471,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b4 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
 }
 #[cfg(test)]
 mod tests {

@@ -4,6 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 8 solutions.
 // Cost of one solve: 15 sqrt, 34 atan2, 11 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 4 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -71,8 +72,9 @@ pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [
         limits: [-::core::f64::consts::PI, ::core::f64::consts::PI],
     },
 ];
-/// The base frame in the world.
+/// The base frame in the world (folded into `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -85,8 +87,10 @@ pub const BASE: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     ],
     translation: [-0.6832069059637735, -0.360136483143775, 0.11524802033856063],
 };
-/// The tool frame in the base frame with every model value at zero.
+/// The tool frame in the base frame with every model value at zero (folded into
+/// `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -148,9 +152,259 @@ const ZERO_REFERENCE: [f64; 4] = [
     0.9511959164952845,
     -0.3085876349478311,
 ];
-/// Forward kinematics: the tool pose in the world for joint values (SI units).
+/// Forward kinematics: the tool pose in the world for joint values (SI units). The
+/// product of exponentials with this arm's axes, base and tool folded in: one
+/// `sin_cos` per revolute joint.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
 pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-    ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+    let (s1, c1) = ::armforge_runtime::math::sin_cos(-joints[0] + 0.5435209984320624);
+    let (s2, c2) = ::armforge_runtime::math::sin_cos(-joints[1] - 0.341069712071717);
+    let (s3, c3) = ::armforge_runtime::math::sin_cos(joints[2] - 0.5758574670486944);
+    let (s4, c4) = ::armforge_runtime::math::sin_cos(joints[3] - 0.3137078432317959);
+    let (s5, c5) = ::armforge_runtime::math::sin_cos(-joints[4] - 0.8440224776937961);
+    let (s6, c6) = ::armforge_runtime::math::sin_cos(joints[5] + 0.7838836486880414);
+    let t8 = 0.3921036560622495 * c1 + 0.6078963439377505;
+    let t11 = 0.08658582183887795 * c1;
+    let t12 = 0.616255457921199 * s1;
+    let t14 = t12 - t11 + 0.08658582183887795;
+    let t16 = 0.4804802539349072 * c1;
+    let t18 = 0.111053440489627 * s1;
+    let t20 = 0.4804802539349072 - (t16 + t18);
+    let t26 = 0.0541462123001263 * c1 + 0.007108729706588804 * s1 - 0.0541462123001263;
+    let t28 = 0.08658582183887795 - (t11 + t12);
+    let t32 = 0.9876671333554169 * c1 + 0.012332866644583124;
+    let t35 = 0.0684372888226597 * c1;
+    let t36 = 0.7796770767040355 * s1;
+    let t38 = t36 - t35 + 0.0684372888226597;
+    let t44 = 0.0007842334702639567
+        - (0.0007842334702639567 * c1 + 0.08666946490851662 * s1);
+    let t46 = t18 - t16 + 0.4804802539349072;
+    let t48 = 0.0684372888226597 - (t35 + t36);
+    let t52 = 0.6202292105823334 * c1 + 0.3797707894176666;
+    let t58 = 0.006624572024959648 * s1 - 0.06836364393080273 * c1 + 0.06836364393080273;
+    let t66 = 0.772593908014675 * t46
+        + (0.32762950633798815 * t8 + 0.5438359678021842 * t28);
+    let t71 = 0.772593908014675 * t48
+        + (0.32762950633798815 * t14 + 0.5438359678021842 * t32);
+    let t76 = 0.772593908014675 * t52
+        + (0.32762950633798815 * t20 + 0.5438359678021842 * t38);
+    let t90 = 0.5900356107239746 * t46
+        - (0.6867873360467376 * t8 + 0.4244774824692261 * t28);
+    let t95 = 0.5900356107239746 * t48
+        - (0.6867873360467376 * t14 + 0.4244774824692261 * t32);
+    let t100 = 0.5900356107239746 * t52
+        - (0.6867873360467376 * t20 + 0.4244774824692261 * t38);
+    let t114 = 0.7239207877946658 * t28 - 0.6488313044409555 * t8
+        - 0.23442830754027677 * t46;
+    let t119 = 0.7239207877946658 * t32 - 0.6488313044409555 * t14
+        - 0.23442830754027677 * t48;
+    let t124 = 0.7239207877946658 * t38 - 0.6488313044409555 * t20
+        - 0.23442830754027677 * t52;
+    let t136 = 0.9200667579582968 * c2 + 0.07993324204170318;
+    let t139 = 0.013153329078358566 * c2;
+    let t140 = 0.9580721924635943 * s2;
+    let t142 = t140 - t139 + 0.013153329078358566;
+    let t144 = 0.2708706495590877 * c2;
+    let t146 = 0.04652345630215346 * s2;
+    let t148 = 0.2708706495590877 - (t144 + t146);
+    let t154 = 0.02662541708629461
+        - (0.02662541708629461 * c2 + 0.1870351291322363 * s2);
+    let t156 = 0.013153329078358566 - (t139 + t140);
+    let t160 = 0.9978355680137017 * c2 + 0.0021644319862983825;
+    let t163 = 0.04457282978038839 * c2;
+    let t164 = 0.28272467533220935 * s2;
+    let t166 = t164 - t163 + 0.04457282978038839;
+    let t172 = 0.030399105373483396 * s2 - 0.1943803988305323 * c2 + 0.1943803988305323;
+    let t174 = t146 - t144 + 0.2708706495590877;
+    let t176 = 0.04457282978038839 - (t163 + t164);
+    let t180 = 0.0820976740280015 * c2 + 0.917902325972;
+    let t186 = 0.017296097854258938 * c2 + 0.05371742872196677 * s2
+        - 0.017296097854258938;
+    let t191 = t76 * t174 + (t66 * t136 + t71 * t156);
+    let t196 = t76 * t176 + (t66 * t142 + t71 * t160);
+    let t201 = t76 * t180 + (t66 * t148 + t71 * t166);
+    let t212 = t100 * t174 + (t90 * t136 + t95 * t156);
+    let t217 = t100 * t176 + (t90 * t142 + t95 * t160);
+    let t222 = t100 * t180 + (t90 * t148 + t95 * t166);
+    let t233 = t124 * t174 + (t114 * t136 + t119 * t156);
+    let t238 = t124 * t176 + (t114 * t142 + t119 * t160);
+    let t243 = t124 * t180 + (t114 * t148 + t119 * t166);
+    let t253 = 0.9200667579582968 * c3 + 0.07993324204170318;
+    let t254 = 0.013153329078358566 * c3;
+    let t255 = 0.9580721924635943 * s3;
+    let t257 = t255 - t254 + 0.013153329078358566;
+    let t258 = 0.2708706495590877 * c3;
+    let t259 = 0.04652345630215346 * s3;
+    let t261 = 0.2708706495590877 - (t258 + t259);
+    let t267 = 0.4101630224439631 - (0.4101630224439631 * c3 + 0.46508905756959706 * s3);
+    let t269 = 0.013153329078358566 - (t254 + t255);
+    let t271 = 0.9978355680137017 * c3 + 0.0021644319862983825;
+    let t272 = 0.04457282978038839 * c3;
+    let t273 = 0.28272467533220935 * s3;
+    let t275 = t273 - t272 + 0.04457282978038839;
+    let t281 = 0.43375467285758373 * s3 - 0.4784368960828203 * c3 + 0.4784368960828203;
+    let t283 = t259 - t258 + 0.2708706495590877;
+    let t285 = 0.04457282978038839 - (t272 + t273);
+    let t287 = 0.0820976740280015 * c3 + 0.917902325972;
+    let t293 = 0.1442706995039379 * c3 + 0.11618371466053445 * s3 - 0.1442706995039379;
+    let t298 = t201 * t283 + (t191 * t253 + t196 * t269);
+    let t303 = t201 * t285 + (t191 * t257 + t196 * t271);
+    let t308 = t201 * t287 + (t191 * t261 + t196 * t275);
+    let t319 = t222 * t283 + (t212 * t253 + t217 * t269);
+    let t324 = t222 * t285 + (t212 * t257 + t217 * t271);
+    let t329 = t222 * t287 + (t212 * t261 + t217 * t275);
+    let t340 = t243 * t283 + (t233 * t253 + t238 * t269);
+    let t345 = t243 * t285 + (t233 * t257 + t238 * t271);
+    let t350 = t243 * t287 + (t233 * t261 + t238 * t275);
+    let t362 = 0.5369563613991324 * c4 + 0.46304363860086767;
+    let t364 = 0.08600478064842806 * c4;
+    let t366 = 0.7217908346079124 * s4;
+    let t368 = 0.08600478064842806 - (t364 + t366);
+    let t371 = 0.49115924612874035 * c4;
+    let t372 = 0.12638968500295295 * s4;
+    let t374 = t372 - t371 + 0.49115924612874035;
+    let t380 = 0.18633721656410768 * s4 - 0.29658622746336255 * c4 + 0.29658622746336255;
+    let t382 = t366 - t364 + 0.08600478064842806;
+    let t386 = 0.9840256475248543 * c4 + 0.01597435247514567;
+    let t388 = 0.09122691622411255 * c4;
+    let t390 = 0.6804730991015498 * s4;
+    let t392 = 0.09122691622411255 - (t388 + t390);
+    let t398 = 0.20297489602693702
+        - (0.20297489602693702 * c4 + 0.42852479015550615 * s4);
+    let t400 = 0.49115924612874035 - (t371 + t372);
+    let t402 = t390 - t388 + 0.09122691622411255;
+    let t406 = 0.4790179910760133 * c4 + 0.5209820089239867;
+    let t412 = 0.3151506941048232 * c4 - 0.10063351667395616 * s4 - 0.3151506941048232;
+    let t417 = t308 * t400 + (t298 * t362 + t303 * t382);
+    let t422 = t308 * t402 + (t298 * t368 + t303 * t386);
+    let t427 = t308 * t406 + (t298 * t374 + t303 * t392);
+    let t438 = t329 * t400 + (t319 * t362 + t324 * t382);
+    let t443 = t329 * t402 + (t319 * t368 + t324 * t386);
+    let t448 = t329 * t406 + (t319 * t374 + t324 * t392);
+    let t459 = t350 * t400 + (t340 * t362 + t345 * t382);
+    let t464 = t350 * t402 + (t340 * t368 + t345 * t386);
+    let t469 = t350 * t406 + (t340 * t374 + t345 * t392);
+    let t481 = 0.7315446830369907 * c5 + 0.26845531696300934;
+    let t484 = 0.41498532496244833 * c5;
+    let t485 = 0.300082319579281 * s5;
+    let t487 = t484 + t485 - 0.41498532496244833;
+    let t489 = 0.15548067347136976 * c5;
+    let t491 = 0.8009340075892076 * s5;
+    let t493 = t489 - t491 - 0.15548067347136976;
+    let t499 = 0.4282038406140967 - (0.4282038406140967 * c5 + 0.1698085873443049 * s5);
+    let t501 = t484 - t485 - 0.41498532496244833;
+    let t505 = 0.35850471548709106 * c5 + 0.6414952845129089;
+    let t507 = 0.24034613482729889 * c5;
+    let t509 = 0.5181267383208565 * s5;
+    let t511 = 0.24034613482729889 - (t507 + t509);
+    let t517 = 0.07932301510666573 * s5 - 0.31256445439930475 * c5 + 0.31256445439930475;
+    let t519 = t489 + t491 - 0.15548067347136976;
+    let t521 = t509 - t507 + 0.24034613482729889;
+    let t525 = 0.9099506014759182 * c5 + 0.09004939852408173;
+    let t531 = 0.09490609729374337 * c5 - 0.5049110194010886 * s5 - 0.09490609729374337;
+    let t536 = t427 * t519 + (t417 * t481 + t422 * t501);
+    let t541 = t427 * t521 + (t417 * t487 + t422 * t505);
+    let t546 = t427 * t525 + (t417 * t493 + t422 * t511);
+    let t557 = t448 * t519 + (t438 * t481 + t443 * t501);
+    let t562 = t448 * t521 + (t438 * t487 + t443 * t505);
+    let t567 = t448 * t525 + (t438 * t493 + t443 * t511);
+    let t578 = t469 * t519 + (t459 * t481 + t464 * t501);
+    let t583 = t469 * t521 + (t459 * t487 + t464 * t505);
+    let t588 = t469 * t525 + (t459 * t493 + t464 * t511);
+    let t600 = 0.8499621256900287 * c6 + 0.15003787430997126;
+    let t603 = 0.041831692911380114 * c6;
+    let t604 = 0.9155867701441429 * s6;
+    let t606 = t604 - t603 + 0.041831692911380114;
+    let t609 = 0.35464999654685536 * c6;
+    let t610 = 0.10799533335772074 * s6;
+    let t612 = t609 + t610 - 0.35464999654685536;
+    let t618 = 0.3520969637103699 - (0.3520969637103699 * c6 + 0.20326099099633396 * s6);
+    let t620 = 0.041831692911380114 - (t603 + t604);
+    let t624 = 0.9883370079729548 * c6 + 0.01166299202704523;
+    let t626 = 0.09887909845963555 * c6;
+    let t628 = 0.38734722705858016 * s6;
+    let t630 = t626 - t628 - 0.09887909845963555;
+    let t636 = 0.3892856671333917 * s6 - 0.2016257630803749 * c6 + 0.2016257630803749;
+    let t638 = t609 - t610 - 0.35464999654685536;
+    let t640 = t626 + t628 - 0.09887909845963555;
+    let t644 = 0.1617008663370164 * c6 + 0.8382991336629836;
+    let t650 = 0.17273996217903848
+        - (0.17273996217903848 * c6 + 0.04007435126261076 * s6);
+    let t655 = t546 * t638 + (t536 * t600 + t541 * t620);
+    let t660 = t546 * t640 + (t536 * t606 + t541 * t624);
+    let t665 = t546 * t644 + (t536 * t612 + t541 * t630);
+    let t676 = t567 * t638 + (t557 * t600 + t562 * t620);
+    let t681 = t567 * t640 + (t557 * t606 + t562 * t624);
+    let t686 = t567 * t644 + (t557 * t612 + t562 * t630);
+    let t697 = t588 * t638 + (t578 * t600 + t583 * t620);
+    let t702 = t588 * t640 + (t578 * t606 + t583 * t624);
+    let t707 = t588 * t644 + (t578 * t612 + t583 * t630);
+    ::armforge_runtime::Pose {
+        rotation: [
+            [
+                -(0.16652155969327423 * t665
+                    + (0.9595052751791117 * t655 + 0.22720078578380062 * t660)),
+                0.259662215381 * t655 - 0.942550189684308 * t660
+                    - 0.21017771963152326 * t665,
+                0.10920238462089302 * t655 + 0.24490598781021755 * t660
+                    - 0.9633773384960911 * t665,
+            ],
+            [
+                0.16652155969327423 * t686
+                    + (0.9595052751791117 * t676 + 0.22720078578380062 * t681),
+                0.21017771963152326 * t686
+                    + (0.942550189684308 * t681 - 0.259662215381 * t676),
+                0.9633773384960911 * t686
+                    - (0.10920238462089302 * t676 + 0.24490598781021755 * t681),
+            ],
+            [
+                0.16652155969327423 * t707
+                    + (0.9595052751791117 * t697 + 0.22720078578380062 * t702),
+                0.21017771963152326 * t707
+                    + (0.942550189684308 * t702 - 0.259662215381 * t697),
+                0.9633773384960911 * t707
+                    - (0.10920238462089302 * t697 + 0.24490598781021755 * t702),
+            ],
+        ],
+        translation: [
+            0.24065352527032224 * t665
+                - (0.4074491675461953 * t655 + 0.23447881266172446 * t660)
+                - (0.772593908014675 * t58
+                    + (0.32762950633798815 * t26 + 0.5438359678021842 * t44)
+                    + 0.6832069059637735 + (t76 * t186 + (t66 * t154 + t71 * t172))
+                    + (t201 * t293 + (t191 * t267 + t196 * t281))
+                    + (t308 * t412 + (t298 * t380 + t303 * t398))
+                    + (t427 * t531 + (t417 * t499 + t422 * t517))
+                    + (t546 * t650 + (t536 * t618 + t541 * t636))),
+            0.5900356107239746 * t58
+                - (0.6867873360467376 * t26 + 0.4244774824692261 * t44)
+                - 0.360136483143775 + (t100 * t186 + (t90 * t154 + t95 * t172))
+                + (t222 * t293 + (t212 * t267 + t217 * t281))
+                + (t329 * t412 + (t319 * t380 + t324 * t398))
+                + (t448 * t531 + (t438 * t499 + t443 * t517))
+                + (t567 * t650 + (t557 * t618 + t562 * t636))
+                + (0.4074491675461953 * t676 + 0.23447881266172446 * t681
+                    - 0.24065352527032224 * t686),
+            0.7239207877946658 * t44 - 0.6488313044409555 * t26
+                - 0.23442830754027677 * t58 + 0.11524802033856063
+                + (t124 * t186 + (t114 * t154 + t119 * t172))
+                + (t243 * t293 + (t233 * t267 + t238 * t281))
+                + (t350 * t412 + (t340 * t380 + t345 * t398))
+                + (t469 * t531 + (t459 * t499 + t464 * t517))
+                + (t588 * t650 + (t578 * t618 + t583 * t636))
+                + (0.4074491675461953 * t697 + 0.23447881266172446 * t702
+                    - 0.24065352527032224 * t707),
+        ],
+    }
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -166,8 +420,18 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
         CAPACITY,
     >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
 }
-/// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-/// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+/// The value each joint is wrapped toward by `solve_branch`: its range's center.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+/// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+/// when it has one away from singular poses, otherwise the nearest of every branch
+/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+/// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
     target: &::armforge_runtime::Pose,
     current: &[f64; JOINTS],
@@ -176,13 +440,79 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    let anchor = ::armforge_runtime::internal::anchors_near(
+        &JOINT_TABLE,
+        current,
+        SETTINGS.limit_tolerance,
+    );
+    let reference = ZERO_REFERENCE;
+    let own = match branch_of(current) {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_1(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_2(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_3(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_4(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_5(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_6(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_7(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_8(target, &reference)),
+        _ => ::core::option::Option::None,
+    };
+    if let ::core::option::Option::Some(candidate) = own {
+        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &candidate,
+            &anchor,
+        ) {
+            if !solution.flags.is_singular() {
+                return ::core::result::Result::Ok(solution);
+            }
+        }
+    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    ::armforge_runtime::internal::near::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &reference), current)
+    ::armforge_runtime::internal::nearest_candidate(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &reference),
+        current,
+        &anchor,
+    )
 }
-/// The one configuration of `branch` (among equivalent angles, the one nearest the
-/// centers of the joint ranges), or why there is none.
+/// The one configuration of `branch` (each joint whose range exceeds a turn at the
+/// equivalent angle nearest its range's center), or why there is none. Computes that
+/// branch alone.
 pub fn solve_branch(
     target: &::armforge_runtime::Pose,
     branch: ::armforge_runtime::Branch,
@@ -191,9 +521,60 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
-    ::armforge_runtime::internal::first_of_branch::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE), branch)
+    let reference = ZERO_REFERENCE;
+    let candidate = match branch {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_1(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_2(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_3(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_4(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_5(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_6(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_7(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_8(target, &reference),
+        _ => {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::Unreachable::BranchUnavailable,
+            );
+        }
+    };
+    ::armforge_runtime::internal::finish_one(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidate,
+        &CENTERS,
+    )
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -1574,6 +1955,3026 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// The closed-form steps of branch 1 alone (shoulder front, elbow up, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_1(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t173 = 0.9580721924635943 * w_p_z
+        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
+    let t177 = w_p_x - 0.28272467533220935 * t173;
+    let t178 = w_p_y - 0.04652345630215346 * t173;
+    let t179 = w_p_z - 0.9580721924635943 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_p - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
+        - 0.3686182725083974 * j3_cos_psi_p;
+    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pp = -t244;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
+    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+        + 0.38353760535766845;
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+        + 0.28405649725228804;
+    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+        + 0.12697460164967897;
+    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
+    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
+        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
+        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_p * t272;
+    let t289 = j2_inv_p * t286;
+    // cos(θ2 + φ3)
+    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t540 = j1_cos_p * (t516 - t467)
+        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_p * (g6_y + t517)
+        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_p * (g6_z + t518)
+        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t572 = j1_cos_p * (t548 - t500)
+        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_p * (gx_y + t549)
+        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_p * (gx_z + t550)
+        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t580 = 0.9580721924635943 * t542
+        + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
+    let t581 = 0.28272467533220935 * t580;
+    let t582 = 0.04652345630215346 * t580;
+    let t583 = 0.9580721924635943 * t580;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t581
+        + (c23_pp * (t540 - t581)
+            + t575 * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t582
+        + (c23_pp * (t541 - t582)
+            + t575 * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t583
+        + (c23_pp * (t542 - t583)
+            + t575 * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
+    let t612 = 0.9580721924635943 * t574
+        + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
+    let t613 = 0.28272467533220935 * t612;
+    let t614 = 0.04652345630215346 * t612;
+    let t615 = 0.9580721924635943 * t612;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t613
+        + (c23_pp * (t572 - t613)
+            + t575 * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t614
+        + (c23_pp * (t573 - t614)
+            + t575 * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t615
+        + (c23_pp * (t574 - t615)
+            + t575 * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.7217908346079124 * v_b1_z
+        + (0.6804730991015498 * v_b1_x + 0.12638968500295295 * v_b1_y);
+    let t650 = j5_a_b1 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b1 = 1.0012086631852188 * t650;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b1;
+    let t658 = 0.12638968500295295 * v_b1_z - 0.7217908346079124 * v_b1_y;
+    let t661 = 0.7217908346079124 * v_b1_x - 0.6804730991015498 * v_b1_z;
+    let t664 = 0.6804730991015498 * v_b1_y - 0.12638968500295295 * v_b1_x;
+    let t673 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b1;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t664 * t664 + (t658 * t658 + t661 * t661)
+        - 1.0012086631852188 * (t673 * t673);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b1).max(0.0),
+    );
+    let t687 = 0.5181267383208565 * j5_beta_b1;
+    let t689 = 0.8009340075892076 * j5_beta_b1;
+    let t691 = 0.300082319579281 * j5_beta_b1;
+    let t694 = 0.5401795159570935 * j5_gamma_b1;
+    let t695 = 0.5781770768749814 * j5_gamma_b1;
+    let t697 = 0.6104999215680328 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = t694 + (0.6812955618849657 * t650 + t687);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = t695 + (0.12654244756220742 * t650 - t689);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = 0.7226632366171314 * t650 - t691 - t697;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = 1.1782469650210095
+        * (0.18582223530822034 * z_b1p_x + 0.4195179924567066 * z_b1p_y
+            - 0.7988699854176344 * z_b1p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b1p_z + 0.9155867701441429 * z_b1p_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b1p_x + 0.38734722705858016 * z_b1p_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b1p_y - 0.10799533335772074 * z_b1p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t733 = j5_alpha_b1 - j5_a_b1;
+    let t740 = t694 + (t687 + 0.6804730991015498 * t733);
+    let t741 = t695 + (0.12638968500295295 * t733 - t689);
+    let t742 = 0.7217908346079124 * t733 - t691 - t697;
+    let t747 = v_b1_z * t742 + (v_b1_x * t740 + v_b1_y * t741);
+    let t761 = 0.7217908346079124 * (v_b1_y * t740 - v_b1_x * t741)
+        + (0.6804730991015498 * (v_b1_z * t741 - v_b1_y * t742)
+            + 0.12638968500295295 * (v_b1_x * t742 - v_b1_z * t740));
+    let t764 = t747 * t747 + t761 * t761;
+    let t768 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-40 - t764;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t768 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t779 = 0.7217908346079124 * xv_b1_z
+        + (0.6804730991015498 * xv_b1_x + 0.12638968500295295 * xv_b1_y);
+    let t780 = 0.6804730991015498 * t779;
+    let t781 = 0.12638968500295295 * t779;
+    let t782 = 0.7217908346079124 * t779;
+    let t804 = t780
+        + (j4_cos_b1p * (xv_b1_x - t780)
+            - j4_sin_b1p
+                * (0.12638968500295295 * xv_b1_z - 0.7217908346079124 * xv_b1_y));
+    let t805 = t781
+        + (j4_cos_b1p * (xv_b1_y - t781)
+            - j4_sin_b1p
+                * (0.7217908346079124 * xv_b1_x - 0.6804730991015498 * xv_b1_z));
+    let t806 = t782
+        + (j4_cos_b1p * (xv_b1_z - t782)
+            - j4_sin_b1p
+                * (0.6804730991015498 * xv_b1_y - 0.12638968500295295 * xv_b1_x));
+    let t811 = 0.5181267383208565 * t804 - 0.8009340075892076 * t805
+        - 0.300082319579281 * t806;
+    let t812 = 0.5181267383208565 * t811;
+    let t813 = 0.8009340075892076 * t811;
+    let t814 = 0.300082319579281 * t811;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t812
+        + (j5_cos_b1p * (t804 - t812)
+            - j5_sin_b1p * (0.300082319579281 * t805 - 0.8009340075892076 * t806));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1p_y = j5_cos_b1p * (t805 + t813)
+        + j5_sin_b1p * (0.300082319579281 * t804 + 0.5181267383208565 * t806) - t813;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1p_z = j5_cos_b1p * (t806 + t814)
+        - j5_sin_b1p * (0.5181267383208565 * t805 + 0.8009340075892076 * t804) - t814;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b1p_y + 0.9941514009309421 * y6_b1p_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b1p_z - 0.09946080483017306 * y6_b1p_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b1p_x + 0.04207778902912386 * y6_b1p_z)),
+        0.09946080483017306 * y6_b1p_z
+            + (0.9941514009309421 * y6_b1p_y - 0.04207778902912386 * y6_b1p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 2 alone (shoulder front, elbow up, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_2(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t173 = 0.9580721924635943 * w_p_z
+        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
+    let t177 = w_p_x - 0.28272467533220935 * t173;
+    let t178 = w_p_y - 0.04652345630215346 * t173;
+    let t179 = w_p_z - 0.9580721924635943 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_p - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
+        - 0.3686182725083974 * j3_cos_psi_p;
+    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pp = -t244;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
+    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+        + 0.38353760535766845;
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+        + 0.28405649725228804;
+    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+        + 0.12697460164967897;
+    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
+    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
+        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
+        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_p * t272;
+    let t289 = j2_inv_p * t286;
+    // cos(θ2 + φ3)
+    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t540 = j1_cos_p * (t516 - t467)
+        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_p * (g6_y + t517)
+        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_p * (g6_z + t518)
+        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t572 = j1_cos_p * (t548 - t500)
+        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_p * (gx_y + t549)
+        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_p * (gx_z + t550)
+        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t580 = 0.9580721924635943 * t542
+        + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
+    let t581 = 0.28272467533220935 * t580;
+    let t582 = 0.04652345630215346 * t580;
+    let t583 = 0.9580721924635943 * t580;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t581
+        + (c23_pp * (t540 - t581)
+            + t575 * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t582
+        + (c23_pp * (t541 - t582)
+            + t575 * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t583
+        + (c23_pp * (t542 - t583)
+            + t575 * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
+    let t612 = 0.9580721924635943 * t574
+        + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
+    let t613 = 0.28272467533220935 * t612;
+    let t614 = 0.04652345630215346 * t612;
+    let t615 = 0.9580721924635943 * t612;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t613
+        + (c23_pp * (t572 - t613)
+            + t575 * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t614
+        + (c23_pp * (t573 - t614)
+            + t575 * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t615
+        + (c23_pp * (t574 - t615)
+            + t575 * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.7217908346079124 * v_b1_z
+        + (0.6804730991015498 * v_b1_x + 0.12638968500295295 * v_b1_y);
+    let t650 = j5_a_b1 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b1 = 1.0012086631852188 * t650;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b1;
+    let t658 = 0.12638968500295295 * v_b1_z - 0.7217908346079124 * v_b1_y;
+    let t661 = 0.7217908346079124 * v_b1_x - 0.6804730991015498 * v_b1_z;
+    let t664 = 0.6804730991015498 * v_b1_y - 0.12638968500295295 * v_b1_x;
+    let t673 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b1;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t664 * t664 + (t658 * t658 + t661 * t661)
+        - 1.0012086631852188 * (t673 * t673);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b1).max(0.0),
+    );
+    let t687 = 0.5181267383208565 * j5_beta_b1;
+    let t689 = 0.8009340075892076 * j5_beta_b1;
+    let t691 = 0.300082319579281 * j5_beta_b1;
+    let t694 = 0.5401795159570935 * j5_gamma_b1;
+    let t695 = 0.5781770768749814 * j5_gamma_b1;
+    let t697 = 0.6104999215680328 * j5_gamma_b1;
+    let t733 = j5_alpha_b1 - j5_a_b1;
+    let t779 = 0.7217908346079124 * xv_b1_z
+        + (0.6804730991015498 * xv_b1_x + 0.12638968500295295 * xv_b1_y);
+    let t780 = 0.6804730991015498 * t779;
+    let t781 = 0.12638968500295295 * t779;
+    let t782 = 0.7217908346079124 * t779;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1m_x = 0.6812955618849657 * t650 + t687 - t694;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1m_y = 0.12654244756220742 * t650 - t689 - t695;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1m_z = t697 + (0.7226632366171314 * t650 - t691);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1m = 1.1782469650210095
+        * (0.18582223530822034 * z_b1m_x + 0.4195179924567066 * z_b1m_y
+            - 0.7988699854176344 * z_b1m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1m = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b1m_z + 0.9155867701441429 * z_b1m_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b1m_x + 0.38734722705858016 * z_b1m_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b1m_y - 0.10799533335772074 * z_b1m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let t887 = t687 + 0.6804730991015498 * t733 - t694;
+    let t888 = 0.12638968500295295 * t733 - t689 - t695;
+    let t889 = t697 + (0.7217908346079124 * t733 - t691);
+    let t894 = v_b1_z * t889 + (v_b1_x * t887 + v_b1_y * t888);
+    let t908 = 0.7217908346079124 * (v_b1_y * t887 - v_b1_x * t888)
+        + (0.6804730991015498 * (v_b1_z * t888 - v_b1_y * t889)
+            + 0.12638968500295295 * (v_b1_x * t889 - v_b1_z * t887));
+    let t911 = t894 * t894 + t908 * t908;
+    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1_2 = 1.0000000000000001e-40 - t911;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t894 * t914 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t908 * t914 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
+    let t932 = t780
+        + ((xv_b1_x - t780) * j4_cos_b1m
+            - (0.12638968500295295 * xv_b1_z - 0.7217908346079124 * xv_b1_y)
+                * j4_sin_b1m);
+    let t933 = t781
+        + ((xv_b1_y - t781) * j4_cos_b1m
+            - (0.7217908346079124 * xv_b1_x - 0.6804730991015498 * xv_b1_z)
+                * j4_sin_b1m);
+    let t934 = t782
+        + ((xv_b1_z - t782) * j4_cos_b1m
+            - (0.6804730991015498 * xv_b1_y - 0.12638968500295295 * xv_b1_x)
+                * j4_sin_b1m);
+    let t939 = 0.5181267383208565 * t932 - 0.8009340075892076 * t933
+        - 0.300082319579281 * t934;
+    let t940 = 0.5181267383208565 * t939;
+    let t941 = 0.8009340075892076 * t939;
+    let t942 = 0.300082319579281 * t939;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1m_x = t940
+        + (j5_cos_b1m * (t932 - t940)
+            - j5_sin_b1m * (0.300082319579281 * t933 - 0.8009340075892076 * t934));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1m_y = j5_cos_b1m * (t933 + t941)
+        + j5_sin_b1m * (0.300082319579281 * t932 + 0.5181267383208565 * t934) - t941;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1m_z = j5_cos_b1m * (t934 + t942)
+        - j5_sin_b1m * (0.5181267383208565 * t933 + 0.8009340075892076 * t932) - t942;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1m = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b1m_y + 0.9941514009309421 * y6_b1m_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b1m_z - 0.09946080483017306 * y6_b1m_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b1m_x + 0.04207778902912386 * y6_b1m_z)),
+        0.09946080483017306 * y6_b1m_z
+            + (0.9941514009309421 * y6_b1m_y - 0.04207778902912386 * y6_b1m_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+        ],
+        wrist_aligned: aligned_b1_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 3 alone (shoulder front, elbow down, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_3(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t173 = 0.9580721924635943 * w_p_z
+        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
+    let t177 = w_p_x - 0.28272467533220935 * t173;
+    let t178 = w_p_y - 0.04652345630215346 * t173;
+    let t179 = w_p_z - 0.9580721924635943 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_p - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_pm = -t295;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
+        - 0.9295808567160389 * j3_cos_psi_p;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
+    let t308 = 0.38353760535766845
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
+    let t309 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+        + 0.28405649725228804;
+    let t310 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+        - 0.12697460164967897;
+    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
+    let t329 = 0.9580721924635943 * (w_p_y * t308 - w_p_x * t309)
+        + (0.28272467533220935 * (w_p_z * t309 - w_p_y * t310)
+            + 0.04652345630215346 * (w_p_x * t310 - w_p_z * t308));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pm = ::armforge_runtime::math::atan2(-t329, t315);
+    let t332 = j2_inv_p * t315;
+    let t333 = j2_inv_p * t329;
+    // cos(θ2 + φ3)
+    let c23_pm = j3_sin_pm * t333 - t295 * t332;
+    // sin(θ2 + φ3)
+    let s23_pm = t295 * t333 + j3_sin_pm * t332;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t540 = j1_cos_p * (t516 - t467)
+        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_p * (g6_y + t517)
+        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_p * (g6_z + t518)
+        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t572 = j1_cos_p * (t548 - t500)
+        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_p * (gx_y + t549)
+        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_p * (gx_z + t550)
+        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t580 = 0.9580721924635943 * t542
+        + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
+    let t581 = 0.28272467533220935 * t580;
+    let t582 = 0.04652345630215346 * t580;
+    let t583 = 0.9580721924635943 * t580;
+    let t612 = 0.9580721924635943 * t574
+        + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
+    let t613 = 0.28272467533220935 * t612;
+    let t614 = 0.04652345630215346 * t612;
+    let t615 = 0.9580721924635943 * t612;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t581
+        + (c23_pm * (t540 - t581)
+            - s23_pm * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t582
+        + (c23_pm * (t541 - t582)
+            - s23_pm * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t583
+        + (c23_pm * (t542 - t583)
+            - s23_pm * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t613
+        + (c23_pm * (t572 - t613)
+            - s23_pm * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t614
+        + (c23_pm * (t573 - t614)
+            - s23_pm * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t615
+        + (c23_pm * (t574 - t615)
+            - s23_pm * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.7217908346079124 * v_b2_z
+        + (0.6804730991015498 * v_b2_x + 0.12638968500295295 * v_b2_y);
+    let t1016 = j5_a_b2 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b2 = 1.0012086631852188 * t1016;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b2 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b2;
+    let t1022 = 0.12638968500295295 * v_b2_z - 0.7217908346079124 * v_b2_y;
+    let t1025 = 0.7217908346079124 * v_b2_x - 0.6804730991015498 * v_b2_z;
+    let t1028 = 0.6804730991015498 * v_b2_y - 0.12638968500295295 * v_b2_x;
+    let t1035 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b2;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t1028 * t1028 + (t1022 * t1022 + t1025 * t1025)
+        - 1.0012086631852188 * (t1035 * t1035);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b2).max(0.0),
+    );
+    let t1045 = 0.5181267383208565 * j5_beta_b2;
+    let t1046 = 0.8009340075892076 * j5_beta_b2;
+    let t1047 = 0.300082319579281 * j5_beta_b2;
+    let t1048 = 0.5401795159570935 * j5_gamma_b2;
+    let t1049 = 0.5781770768749814 * j5_gamma_b2;
+    let t1050 = 0.6104999215680328 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = t1048 + (0.6812955618849657 * t1016 + t1045);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = t1049 + (0.12654244756220742 * t1016 - t1046);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = 0.7226632366171314 * t1016 - t1047 - t1050;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = 1.1782469650210095
+        * (0.18582223530822034 * z_b2p_x + 0.4195179924567066 * z_b2p_y
+            - 0.7988699854176344 * z_b2p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b2p_z + 0.9155867701441429 * z_b2p_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b2p_x + 0.38734722705858016 * z_b2p_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b2p_y - 0.10799533335772074 * z_b2p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t1079 = j5_alpha_b2 - j5_a_b2;
+    let t1086 = t1048 + (t1045 + 0.6804730991015498 * t1079);
+    let t1087 = t1049 + (0.12638968500295295 * t1079 - t1046);
+    let t1088 = 0.7217908346079124 * t1079 - t1047 - t1050;
+    let t1093 = v_b2_z * t1088 + (v_b2_x * t1086 + v_b2_y * t1087);
+    let t1107 = 0.7217908346079124 * (v_b2_y * t1086 - v_b2_x * t1087)
+        + (0.6804730991015498 * (v_b2_z * t1087 - v_b2_y * t1088)
+            + 0.12638968500295295 * (v_b2_x * t1088 - v_b2_z * t1086));
+    let t1110 = t1093 * t1093 + t1107 * t1107;
+    let t1113 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-40 - t1110;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1113 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t1124 = 0.7217908346079124 * xv_b2_z
+        + (0.6804730991015498 * xv_b2_x + 0.12638968500295295 * xv_b2_y);
+    let t1125 = 0.6804730991015498 * t1124;
+    let t1126 = 0.12638968500295295 * t1124;
+    let t1127 = 0.7217908346079124 * t1124;
+    let t1149 = t1125
+        + (j4_cos_b2p * (xv_b2_x - t1125)
+            - j4_sin_b2p
+                * (0.12638968500295295 * xv_b2_z - 0.7217908346079124 * xv_b2_y));
+    let t1150 = t1126
+        + (j4_cos_b2p * (xv_b2_y - t1126)
+            - j4_sin_b2p
+                * (0.7217908346079124 * xv_b2_x - 0.6804730991015498 * xv_b2_z));
+    let t1151 = t1127
+        + (j4_cos_b2p * (xv_b2_z - t1127)
+            - j4_sin_b2p
+                * (0.6804730991015498 * xv_b2_y - 0.12638968500295295 * xv_b2_x));
+    let t1156 = 0.5181267383208565 * t1149 - 0.8009340075892076 * t1150
+        - 0.300082319579281 * t1151;
+    let t1157 = 0.5181267383208565 * t1156;
+    let t1158 = 0.8009340075892076 * t1156;
+    let t1159 = 0.300082319579281 * t1156;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t1157
+        + (j5_cos_b2p * (t1149 - t1157)
+            - j5_sin_b2p * (0.300082319579281 * t1150 - 0.8009340075892076 * t1151));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2p_y = j5_cos_b2p * (t1150 + t1158)
+        + j5_sin_b2p * (0.300082319579281 * t1149 + 0.5181267383208565 * t1151) - t1158;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2p_z = j5_cos_b2p * (t1151 + t1159)
+        - j5_sin_b2p * (0.5181267383208565 * t1150 + 0.8009340075892076 * t1149) - t1159;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b2p_y + 0.9941514009309421 * y6_b2p_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b2p_z - 0.09946080483017306 * y6_b2p_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b2p_x + 0.04207778902912386 * y6_b2p_z)),
+        0.09946080483017306 * y6_b2p_z
+            + (0.9941514009309421 * y6_b2p_y - 0.04207778902912386 * y6_b2p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b2,
+                limit: j5_a_b2,
+            },
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 4 alone (shoulder front, elbow down, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_4(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t173 = 0.9580721924635943 * w_p_z
+        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
+    let t177 = w_p_x - 0.28272467533220935 * t173;
+    let t178 = w_p_y - 0.04652345630215346 * t173;
+    let t179 = w_p_z - 0.9580721924635943 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_p - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_pm = -t295;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
+        - 0.9295808567160389 * j3_cos_psi_p;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
+    let t308 = 0.38353760535766845
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
+    let t309 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+        + 0.28405649725228804;
+    let t310 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+        - 0.12697460164967897;
+    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
+    let t329 = 0.9580721924635943 * (w_p_y * t308 - w_p_x * t309)
+        + (0.28272467533220935 * (w_p_z * t309 - w_p_y * t310)
+            + 0.04652345630215346 * (w_p_x * t310 - w_p_z * t308));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pm = ::armforge_runtime::math::atan2(-t329, t315);
+    let t332 = j2_inv_p * t315;
+    let t333 = j2_inv_p * t329;
+    // cos(θ2 + φ3)
+    let c23_pm = j3_sin_pm * t333 - t295 * t332;
+    // sin(θ2 + φ3)
+    let s23_pm = t295 * t333 + j3_sin_pm * t332;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t540 = j1_cos_p * (t516 - t467)
+        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_p * (g6_y + t517)
+        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_p * (g6_z + t518)
+        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t572 = j1_cos_p * (t548 - t500)
+        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_p * (gx_y + t549)
+        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_p * (gx_z + t550)
+        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t580 = 0.9580721924635943 * t542
+        + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
+    let t581 = 0.28272467533220935 * t580;
+    let t582 = 0.04652345630215346 * t580;
+    let t583 = 0.9580721924635943 * t580;
+    let t612 = 0.9580721924635943 * t574
+        + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
+    let t613 = 0.28272467533220935 * t612;
+    let t614 = 0.04652345630215346 * t612;
+    let t615 = 0.9580721924635943 * t612;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t581
+        + (c23_pm * (t540 - t581)
+            - s23_pm * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t582
+        + (c23_pm * (t541 - t582)
+            - s23_pm * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t583
+        + (c23_pm * (t542 - t583)
+            - s23_pm * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t613
+        + (c23_pm * (t572 - t613)
+            - s23_pm * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t614
+        + (c23_pm * (t573 - t614)
+            - s23_pm * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t615
+        + (c23_pm * (t574 - t615)
+            - s23_pm * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.7217908346079124 * v_b2_z
+        + (0.6804730991015498 * v_b2_x + 0.12638968500295295 * v_b2_y);
+    let t1016 = j5_a_b2 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b2 = 1.0012086631852188 * t1016;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b2 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b2;
+    let t1022 = 0.12638968500295295 * v_b2_z - 0.7217908346079124 * v_b2_y;
+    let t1025 = 0.7217908346079124 * v_b2_x - 0.6804730991015498 * v_b2_z;
+    let t1028 = 0.6804730991015498 * v_b2_y - 0.12638968500295295 * v_b2_x;
+    let t1035 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b2;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t1028 * t1028 + (t1022 * t1022 + t1025 * t1025)
+        - 1.0012086631852188 * (t1035 * t1035);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b2).max(0.0),
+    );
+    let t1045 = 0.5181267383208565 * j5_beta_b2;
+    let t1046 = 0.8009340075892076 * j5_beta_b2;
+    let t1047 = 0.300082319579281 * j5_beta_b2;
+    let t1048 = 0.5401795159570935 * j5_gamma_b2;
+    let t1049 = 0.5781770768749814 * j5_gamma_b2;
+    let t1050 = 0.6104999215680328 * j5_gamma_b2;
+    let t1079 = j5_alpha_b2 - j5_a_b2;
+    let t1124 = 0.7217908346079124 * xv_b2_z
+        + (0.6804730991015498 * xv_b2_x + 0.12638968500295295 * xv_b2_y);
+    let t1125 = 0.6804730991015498 * t1124;
+    let t1126 = 0.12638968500295295 * t1124;
+    let t1127 = 0.7217908346079124 * t1124;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2m_x = 0.6812955618849657 * t1016 + t1045 - t1048;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2m_y = 0.12654244756220742 * t1016 - t1046 - t1049;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2m_z = t1050 + (0.7226632366171314 * t1016 - t1047);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2m = 1.1782469650210095
+        * (0.18582223530822034 * z_b2m_x + 0.4195179924567066 * z_b2m_y
+            - 0.7988699854176344 * z_b2m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2m = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b2m_z + 0.9155867701441429 * z_b2m_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b2m_x + 0.38734722705858016 * z_b2m_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b2m_y - 0.10799533335772074 * z_b2m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let t1229 = t1045 + 0.6804730991015498 * t1079 - t1048;
+    let t1230 = 0.12638968500295295 * t1079 - t1046 - t1049;
+    let t1231 = t1050 + (0.7217908346079124 * t1079 - t1047);
+    let t1236 = v_b2_z * t1231 + (v_b2_x * t1229 + v_b2_y * t1230);
+    let t1250 = 0.7217908346079124 * (v_b2_y * t1229 - v_b2_x * t1230)
+        + (0.6804730991015498 * (v_b2_z * t1230 - v_b2_y * t1231)
+            + 0.12638968500295295 * (v_b2_x * t1231 - v_b2_z * t1229));
+    let t1253 = t1236 * t1236 + t1250 * t1250;
+    let t1256 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2_2 = 1.0000000000000001e-40 - t1253;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1236 * t1256 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1250 * t1256 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
+    let t1272 = t1125
+        + ((xv_b2_x - t1125) * j4_cos_b2m
+            - (0.12638968500295295 * xv_b2_z - 0.7217908346079124 * xv_b2_y)
+                * j4_sin_b2m);
+    let t1273 = t1126
+        + ((xv_b2_y - t1126) * j4_cos_b2m
+            - (0.7217908346079124 * xv_b2_x - 0.6804730991015498 * xv_b2_z)
+                * j4_sin_b2m);
+    let t1274 = t1127
+        + ((xv_b2_z - t1127) * j4_cos_b2m
+            - (0.6804730991015498 * xv_b2_y - 0.12638968500295295 * xv_b2_x)
+                * j4_sin_b2m);
+    let t1279 = 0.5181267383208565 * t1272 - 0.8009340075892076 * t1273
+        - 0.300082319579281 * t1274;
+    let t1280 = 0.5181267383208565 * t1279;
+    let t1281 = 0.8009340075892076 * t1279;
+    let t1282 = 0.300082319579281 * t1279;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2m_x = t1280
+        + (j5_cos_b2m * (t1272 - t1280)
+            - j5_sin_b2m * (0.300082319579281 * t1273 - 0.8009340075892076 * t1274));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2m_y = j5_cos_b2m * (t1273 + t1281)
+        + j5_sin_b2m * (0.300082319579281 * t1272 + 0.5181267383208565 * t1274) - t1281;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2m_z = j5_cos_b2m * (t1274 + t1282)
+        - j5_sin_b2m * (0.5181267383208565 * t1273 + 0.8009340075892076 * t1272) - t1282;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2m = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b2m_y + 0.9941514009309421 * y6_b2m_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b2m_z - 0.09946080483017306 * y6_b2m_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b2m_x + 0.04207778902912386 * y6_b2m_z)),
+        0.09946080483017306 * y6_b2m_z
+            + (0.9941514009309421 * y6_b2m_y - 0.04207778902912386 * y6_b2m_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b2,
+                limit: j5_a_b2,
+            },
+        ],
+        wrist_aligned: aligned_b2_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 5 alone (shoulder back, elbow down, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_5(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t205 = 0.9580721924635943 * w_m_z
+        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
+    let t209 = w_m_x - 0.28272467533220935 * t205;
+    let t210 = w_m_y - 0.04652345630215346 * t205;
+    let t211 = w_m_z - 0.9580721924635943 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_m - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_mp = 0.9295808567160389 * j3_sin_psi_m
+        - 0.3686182725083974 * j3_cos_psi_m;
+    let t358 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mp = -t358;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
+    let t370 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t358
+        + 0.38353760535766845;
+    let t371 = 0.058488960821312025 * t358 - 0.24317412797069082 * j3_cos_mp
+        + 0.28405649725228804;
+    let t372 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t358
+        + 0.12697460164967897;
+    let t377 = w_m_x * t370 + w_m_y * t371 - w_m_z * t372;
+    let t391 = 0.04652345630215346 * (w_m_x * t372 + w_m_z * t370)
+        - 0.28272467533220935 * (w_m_z * t371 + w_m_y * t372)
+        - 0.9580721924635943 * (w_m_y * t370 - w_m_x * t371);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
+    let t393 = j2_inv_m * t377;
+    let t394 = j2_inv_m * t391;
+    // cos(θ2 + φ3)
+    let c23_mp = j3_cos_mp * t393 + t358 * t394;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t1336 = j1_cos_m * (t516 - t467)
+        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_m * (g6_y + t517)
+        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_m * (g6_z + t518)
+        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_m * (t548 - t500)
+        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_m * (gx_y + t549)
+        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_m * (gx_z + t550)
+        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1351 = t358 * t393 - j3_cos_mp * t394;
+    let t1356 = 0.9580721924635943 * t1338
+        + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
+    let t1357 = 0.28272467533220935 * t1356;
+    let t1358 = 0.04652345630215346 * t1356;
+    let t1359 = 0.9580721924635943 * t1356;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1357
+        + (c23_mp * (t1336 - t1357)
+            + t1351 * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1358
+        + (c23_mp * (t1337 - t1358)
+            + t1351 * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t1359
+        + (c23_mp * (t1338 - t1359)
+            + t1351 * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
+    let t1388 = 0.9580721924635943 * t1350
+        + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
+    let t1389 = 0.28272467533220935 * t1388;
+    let t1390 = 0.04652345630215346 * t1388;
+    let t1391 = 0.9580721924635943 * t1388;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1389
+        + (c23_mp * (t1348 - t1389)
+            + t1351 * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1390
+        + (c23_mp * (t1349 - t1390)
+            + t1351 * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t1391
+        + (c23_mp * (t1350 - t1391)
+            + t1351 * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.7217908346079124 * v_b3_z
+        + (0.6804730991015498 * v_b3_x + 0.12638968500295295 * v_b3_y);
+    let t1421 = j5_a_b3 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b3 = 1.0012086631852188 * t1421;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b3 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b3;
+    let t1427 = 0.12638968500295295 * v_b3_z - 0.7217908346079124 * v_b3_y;
+    let t1430 = 0.7217908346079124 * v_b3_x - 0.6804730991015498 * v_b3_z;
+    let t1433 = 0.6804730991015498 * v_b3_y - 0.12638968500295295 * v_b3_x;
+    let t1440 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b3;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1433 * t1433 + (t1427 * t1427 + t1430 * t1430)
+        - 1.0012086631852188 * (t1440 * t1440);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b3).max(0.0),
+    );
+    let t1450 = 0.5181267383208565 * j5_beta_b3;
+    let t1451 = 0.8009340075892076 * j5_beta_b3;
+    let t1452 = 0.300082319579281 * j5_beta_b3;
+    let t1453 = 0.5401795159570935 * j5_gamma_b3;
+    let t1454 = 0.5781770768749814 * j5_gamma_b3;
+    let t1455 = 0.6104999215680328 * j5_gamma_b3;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3p_x = t1453 + (0.6812955618849657 * t1421 + t1450);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3p_y = t1454 + (0.12654244756220742 * t1421 - t1451);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3p_z = 0.7226632366171314 * t1421 - t1452 - t1455;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3p = 1.1782469650210095
+        * (0.18582223530822034 * z_b3p_x + 0.4195179924567066 * z_b3p_y
+            - 0.7988699854176344 * z_b3p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3p = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b3p_z + 0.9155867701441429 * z_b3p_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b3p_x + 0.38734722705858016 * z_b3p_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b3p_y - 0.10799533335772074 * z_b3p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let t1484 = j5_alpha_b3 - j5_a_b3;
+    let t1491 = t1453 + (t1450 + 0.6804730991015498 * t1484);
+    let t1492 = t1454 + (0.12638968500295295 * t1484 - t1451);
+    let t1493 = 0.7217908346079124 * t1484 - t1452 - t1455;
+    let t1498 = v_b3_z * t1493 + (v_b3_x * t1491 + v_b3_y * t1492);
+    let t1512 = 0.7217908346079124 * (v_b3_y * t1491 - v_b3_x * t1492)
+        + (0.6804730991015498 * (v_b3_z * t1492 - v_b3_y * t1493)
+            + 0.12638968500295295 * (v_b3_x * t1493 - v_b3_z * t1491));
+    let t1515 = t1498 * t1498 + t1512 * t1512;
+    let t1518 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3 = 1.0000000000000001e-40 - t1515;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1518 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let t1529 = 0.7217908346079124 * xv_b3_z
+        + (0.6804730991015498 * xv_b3_x + 0.12638968500295295 * xv_b3_y);
+    let t1530 = 0.6804730991015498 * t1529;
+    let t1531 = 0.12638968500295295 * t1529;
+    let t1532 = 0.7217908346079124 * t1529;
+    let t1554 = t1530
+        + (j4_cos_b3p * (xv_b3_x - t1530)
+            - j4_sin_b3p
+                * (0.12638968500295295 * xv_b3_z - 0.7217908346079124 * xv_b3_y));
+    let t1555 = t1531
+        + (j4_cos_b3p * (xv_b3_y - t1531)
+            - j4_sin_b3p
+                * (0.7217908346079124 * xv_b3_x - 0.6804730991015498 * xv_b3_z));
+    let t1556 = t1532
+        + (j4_cos_b3p * (xv_b3_z - t1532)
+            - j4_sin_b3p
+                * (0.6804730991015498 * xv_b3_y - 0.12638968500295295 * xv_b3_x));
+    let t1561 = 0.5181267383208565 * t1554 - 0.8009340075892076 * t1555
+        - 0.300082319579281 * t1556;
+    let t1562 = 0.5181267383208565 * t1561;
+    let t1563 = 0.8009340075892076 * t1561;
+    let t1564 = 0.300082319579281 * t1561;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3p_x = t1562
+        + (j5_cos_b3p * (t1554 - t1562)
+            - j5_sin_b3p * (0.300082319579281 * t1555 - 0.8009340075892076 * t1556));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b3p_y = j5_cos_b3p * (t1555 + t1563)
+        + j5_sin_b3p * (0.300082319579281 * t1554 + 0.5181267383208565 * t1556) - t1563;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b3p_z = j5_cos_b3p * (t1556 + t1564)
+        - j5_sin_b3p * (0.5181267383208565 * t1555 + 0.8009340075892076 * t1554) - t1564;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3p = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b3p_y + 0.9941514009309421 * y6_b3p_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b3p_z - 0.09946080483017306 * y6_b3p_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b3p_x + 0.04207778902912386 * y6_b3p_z)),
+        0.09946080483017306 * y6_b3p_z
+            + (0.9941514009309421 * y6_b3p_y - 0.04207778902912386 * y6_b3p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b3,
+                limit: j5_a_b3,
+            },
+        ],
+        wrist_aligned: aligned_b3 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 6 alone (shoulder back, elbow down, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_6(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t205 = 0.9580721924635943 * w_m_z
+        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
+    let t209 = w_m_x - 0.28272467533220935 * t205;
+    let t210 = w_m_y - 0.04652345630215346 * t205;
+    let t211 = w_m_z - 0.9580721924635943 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_m - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_mp = 0.9295808567160389 * j3_sin_psi_m
+        - 0.3686182725083974 * j3_cos_psi_m;
+    let t358 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mp = -t358;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
+    let t370 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t358
+        + 0.38353760535766845;
+    let t371 = 0.058488960821312025 * t358 - 0.24317412797069082 * j3_cos_mp
+        + 0.28405649725228804;
+    let t372 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t358
+        + 0.12697460164967897;
+    let t377 = w_m_x * t370 + w_m_y * t371 - w_m_z * t372;
+    let t391 = 0.04652345630215346 * (w_m_x * t372 + w_m_z * t370)
+        - 0.28272467533220935 * (w_m_z * t371 + w_m_y * t372)
+        - 0.9580721924635943 * (w_m_y * t370 - w_m_x * t371);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
+    let t393 = j2_inv_m * t377;
+    let t394 = j2_inv_m * t391;
+    // cos(θ2 + φ3)
+    let c23_mp = j3_cos_mp * t393 + t358 * t394;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t1336 = j1_cos_m * (t516 - t467)
+        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_m * (g6_y + t517)
+        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_m * (g6_z + t518)
+        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_m * (t548 - t500)
+        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_m * (gx_y + t549)
+        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_m * (gx_z + t550)
+        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1351 = t358 * t393 - j3_cos_mp * t394;
+    let t1356 = 0.9580721924635943 * t1338
+        + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
+    let t1357 = 0.28272467533220935 * t1356;
+    let t1358 = 0.04652345630215346 * t1356;
+    let t1359 = 0.9580721924635943 * t1356;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1357
+        + (c23_mp * (t1336 - t1357)
+            + t1351 * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1358
+        + (c23_mp * (t1337 - t1358)
+            + t1351 * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t1359
+        + (c23_mp * (t1338 - t1359)
+            + t1351 * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
+    let t1388 = 0.9580721924635943 * t1350
+        + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
+    let t1389 = 0.28272467533220935 * t1388;
+    let t1390 = 0.04652345630215346 * t1388;
+    let t1391 = 0.9580721924635943 * t1388;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1389
+        + (c23_mp * (t1348 - t1389)
+            + t1351 * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1390
+        + (c23_mp * (t1349 - t1390)
+            + t1351 * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t1391
+        + (c23_mp * (t1350 - t1391)
+            + t1351 * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.7217908346079124 * v_b3_z
+        + (0.6804730991015498 * v_b3_x + 0.12638968500295295 * v_b3_y);
+    let t1421 = j5_a_b3 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b3 = 1.0012086631852188 * t1421;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b3 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b3;
+    let t1427 = 0.12638968500295295 * v_b3_z - 0.7217908346079124 * v_b3_y;
+    let t1430 = 0.7217908346079124 * v_b3_x - 0.6804730991015498 * v_b3_z;
+    let t1433 = 0.6804730991015498 * v_b3_y - 0.12638968500295295 * v_b3_x;
+    let t1440 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b3;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1433 * t1433 + (t1427 * t1427 + t1430 * t1430)
+        - 1.0012086631852188 * (t1440 * t1440);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b3).max(0.0),
+    );
+    let t1450 = 0.5181267383208565 * j5_beta_b3;
+    let t1451 = 0.8009340075892076 * j5_beta_b3;
+    let t1452 = 0.300082319579281 * j5_beta_b3;
+    let t1453 = 0.5401795159570935 * j5_gamma_b3;
+    let t1454 = 0.5781770768749814 * j5_gamma_b3;
+    let t1455 = 0.6104999215680328 * j5_gamma_b3;
+    let t1484 = j5_alpha_b3 - j5_a_b3;
+    let t1529 = 0.7217908346079124 * xv_b3_z
+        + (0.6804730991015498 * xv_b3_x + 0.12638968500295295 * xv_b3_y);
+    let t1530 = 0.6804730991015498 * t1529;
+    let t1531 = 0.12638968500295295 * t1529;
+    let t1532 = 0.7217908346079124 * t1529;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3m_x = 0.6812955618849657 * t1421 + t1450 - t1453;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3m_y = 0.12654244756220742 * t1421 - t1451 - t1454;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3m_z = t1455 + (0.7226632366171314 * t1421 - t1452);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3m = 1.1782469650210095
+        * (0.18582223530822034 * z_b3m_x + 0.4195179924567066 * z_b3m_y
+            - 0.7988699854176344 * z_b3m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3m = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b3m_z + 0.9155867701441429 * z_b3m_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b3m_x + 0.38734722705858016 * z_b3m_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b3m_y - 0.10799533335772074 * z_b3m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let t1634 = t1450 + 0.6804730991015498 * t1484 - t1453;
+    let t1635 = 0.12638968500295295 * t1484 - t1451 - t1454;
+    let t1636 = t1455 + (0.7217908346079124 * t1484 - t1452);
+    let t1641 = v_b3_z * t1636 + (v_b3_x * t1634 + v_b3_y * t1635);
+    let t1655 = 0.7217908346079124 * (v_b3_y * t1634 - v_b3_x * t1635)
+        + (0.6804730991015498 * (v_b3_z * t1635 - v_b3_y * t1636)
+            + 0.12638968500295295 * (v_b3_x * t1636 - v_b3_z * t1634));
+    let t1658 = t1641 * t1641 + t1655 * t1655;
+    let t1661 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3_2 = 1.0000000000000001e-40 - t1658;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1641 * t1661 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1655 * t1661 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
+    let t1677 = t1530
+        + ((xv_b3_x - t1530) * j4_cos_b3m
+            - (0.12638968500295295 * xv_b3_z - 0.7217908346079124 * xv_b3_y)
+                * j4_sin_b3m);
+    let t1678 = t1531
+        + ((xv_b3_y - t1531) * j4_cos_b3m
+            - (0.7217908346079124 * xv_b3_x - 0.6804730991015498 * xv_b3_z)
+                * j4_sin_b3m);
+    let t1679 = t1532
+        + ((xv_b3_z - t1532) * j4_cos_b3m
+            - (0.6804730991015498 * xv_b3_y - 0.12638968500295295 * xv_b3_x)
+                * j4_sin_b3m);
+    let t1684 = 0.5181267383208565 * t1677 - 0.8009340075892076 * t1678
+        - 0.300082319579281 * t1679;
+    let t1685 = 0.5181267383208565 * t1684;
+    let t1686 = 0.8009340075892076 * t1684;
+    let t1687 = 0.300082319579281 * t1684;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3m_x = t1685
+        + (j5_cos_b3m * (t1677 - t1685)
+            - j5_sin_b3m * (0.300082319579281 * t1678 - 0.8009340075892076 * t1679));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b3m_y = j5_cos_b3m * (t1678 + t1686)
+        + j5_sin_b3m * (0.300082319579281 * t1677 + 0.5181267383208565 * t1679) - t1686;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b3m_z = j5_cos_b3m * (t1679 + t1687)
+        - j5_sin_b3m * (0.5181267383208565 * t1678 + 0.8009340075892076 * t1677) - t1687;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3m = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b3m_y + 0.9941514009309421 * y6_b3m_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b3m_z - 0.09946080483017306 * y6_b3m_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b3m_x + 0.04207778902912386 * y6_b3m_z)),
+        0.09946080483017306 * y6_b3m_z
+            + (0.9941514009309421 * y6_b3m_y - 0.04207778902912386 * y6_b3m_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b3,
+                limit: j5_a_b3,
+            },
+        ],
+        wrist_aligned: aligned_b3_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 7 alone (shoulder back, elbow up, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_7(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t205 = 0.9580721924635943 * w_m_z
+        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
+    let t209 = w_m_x - 0.28272467533220935 * t205;
+    let t210 = w_m_y - 0.04652345630215346 * t205;
+    let t211 = w_m_z - 0.9580721924635943 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_m - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    let t400 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_mm = -t400;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mm = 0.3686182725083974 * j3_sin_psi_m
+        - 0.9295808567160389 * j3_cos_psi_m;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let t413 = 0.38353760535766845
+        - (0.059363684915989756 * t400 + 0.23271273627618366 * j3_sin_mm);
+    let t414 = 0.24317412797069082 * t400 - 0.058488960821312025 * j3_sin_mm
+        + 0.28405649725228804;
+    let t415 = 0.005709671641624163 * t400 + 0.07151313018083055 * j3_sin_mm
+        - 0.12697460164967897;
+    let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
+    let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
+        + (0.28272467533220935 * (w_m_z * t414 - w_m_y * t415)
+            + 0.04652345630215346 * (w_m_x * t415 - w_m_z * t413));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mm = ::armforge_runtime::math::atan2(-t434, t420);
+    let t437 = j2_inv_m * t420;
+    let t438 = j2_inv_m * t434;
+    // cos(θ2 + φ3)
+    let c23_mm = j3_sin_mm * t438 - t400 * t437;
+    // sin(θ2 + φ3)
+    let s23_mm = t400 * t438 + j3_sin_mm * t437;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t1336 = j1_cos_m * (t516 - t467)
+        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_m * (g6_y + t517)
+        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_m * (g6_z + t518)
+        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_m * (t548 - t500)
+        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_m * (gx_y + t549)
+        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_m * (gx_z + t550)
+        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1356 = 0.9580721924635943 * t1338
+        + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
+    let t1357 = 0.28272467533220935 * t1356;
+    let t1358 = 0.04652345630215346 * t1356;
+    let t1359 = 0.9580721924635943 * t1356;
+    let t1388 = 0.9580721924635943 * t1350
+        + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
+    let t1389 = 0.28272467533220935 * t1388;
+    let t1390 = 0.04652345630215346 * t1388;
+    let t1391 = 0.9580721924635943 * t1388;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1357
+        + (c23_mm * (t1336 - t1357)
+            - s23_mm * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1358
+        + (c23_mm * (t1337 - t1358)
+            - s23_mm * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t1359
+        + (c23_mm * (t1338 - t1359)
+            - s23_mm * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1389
+        + (c23_mm * (t1348 - t1389)
+            - s23_mm * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1390
+        + (c23_mm * (t1349 - t1390)
+            - s23_mm * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t1391
+        + (c23_mm * (t1350 - t1391)
+            - s23_mm * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.7217908346079124 * v_b4_z
+        + (0.6804730991015498 * v_b4_x + 0.12638968500295295 * v_b4_y);
+    let t1761 = j5_a_b4 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b4 = 1.0012086631852188 * t1761;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b4 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b4;
+    let t1767 = 0.12638968500295295 * v_b4_z - 0.7217908346079124 * v_b4_y;
+    let t1770 = 0.7217908346079124 * v_b4_x - 0.6804730991015498 * v_b4_z;
+    let t1773 = 0.6804730991015498 * v_b4_y - 0.12638968500295295 * v_b4_x;
+    let t1780 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b4;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1773 * t1773 + (t1767 * t1767 + t1770 * t1770)
+        - 1.0012086631852188 * (t1780 * t1780);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b4).max(0.0),
+    );
+    let t1790 = 0.5181267383208565 * j5_beta_b4;
+    let t1791 = 0.8009340075892076 * j5_beta_b4;
+    let t1792 = 0.300082319579281 * j5_beta_b4;
+    let t1793 = 0.5401795159570935 * j5_gamma_b4;
+    let t1794 = 0.5781770768749814 * j5_gamma_b4;
+    let t1795 = 0.6104999215680328 * j5_gamma_b4;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4p_x = t1793 + (0.6812955618849657 * t1761 + t1790);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4p_y = t1794 + (0.12654244756220742 * t1761 - t1791);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4p_z = 0.7226632366171314 * t1761 - t1792 - t1795;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4p = 1.1782469650210095
+        * (0.18582223530822034 * z_b4p_x + 0.4195179924567066 * z_b4p_y
+            - 0.7988699854176344 * z_b4p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4p = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b4p_z + 0.9155867701441429 * z_b4p_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b4p_x + 0.38734722705858016 * z_b4p_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b4p_y - 0.10799533335772074 * z_b4p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let t1824 = j5_alpha_b4 - j5_a_b4;
+    let t1831 = t1793 + (t1790 + 0.6804730991015498 * t1824);
+    let t1832 = t1794 + (0.12638968500295295 * t1824 - t1791);
+    let t1833 = 0.7217908346079124 * t1824 - t1792 - t1795;
+    let t1838 = v_b4_z * t1833 + (v_b4_x * t1831 + v_b4_y * t1832);
+    let t1852 = 0.7217908346079124 * (v_b4_y * t1831 - v_b4_x * t1832)
+        + (0.6804730991015498 * (v_b4_z * t1832 - v_b4_y * t1833)
+            + 0.12638968500295295 * (v_b4_x * t1833 - v_b4_z * t1831));
+    let t1855 = t1838 * t1838 + t1852 * t1852;
+    let t1858 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4 = 1.0000000000000001e-40 - t1855;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1858 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let t1869 = 0.7217908346079124 * xv_b4_z
+        + (0.6804730991015498 * xv_b4_x + 0.12638968500295295 * xv_b4_y);
+    let t1870 = 0.6804730991015498 * t1869;
+    let t1871 = 0.12638968500295295 * t1869;
+    let t1872 = 0.7217908346079124 * t1869;
+    let t1894 = t1870
+        + (j4_cos_b4p * (xv_b4_x - t1870)
+            - j4_sin_b4p
+                * (0.12638968500295295 * xv_b4_z - 0.7217908346079124 * xv_b4_y));
+    let t1895 = t1871
+        + (j4_cos_b4p * (xv_b4_y - t1871)
+            - j4_sin_b4p
+                * (0.7217908346079124 * xv_b4_x - 0.6804730991015498 * xv_b4_z));
+    let t1896 = t1872
+        + (j4_cos_b4p * (xv_b4_z - t1872)
+            - j4_sin_b4p
+                * (0.6804730991015498 * xv_b4_y - 0.12638968500295295 * xv_b4_x));
+    let t1901 = 0.5181267383208565 * t1894 - 0.8009340075892076 * t1895
+        - 0.300082319579281 * t1896;
+    let t1902 = 0.5181267383208565 * t1901;
+    let t1903 = 0.8009340075892076 * t1901;
+    let t1904 = 0.300082319579281 * t1901;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4p_x = t1902
+        + (j5_cos_b4p * (t1894 - t1902)
+            - j5_sin_b4p * (0.300082319579281 * t1895 - 0.8009340075892076 * t1896));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b4p_y = j5_cos_b4p * (t1895 + t1903)
+        + j5_sin_b4p * (0.300082319579281 * t1894 + 0.5181267383208565 * t1896) - t1903;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b4p_z = j5_cos_b4p * (t1896 + t1904)
+        - j5_sin_b4p * (0.5181267383208565 * t1895 + 0.8009340075892076 * t1894) - t1904;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4p = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b4p_y + 0.9941514009309421 * y6_b4p_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b4p_z - 0.09946080483017306 * y6_b4p_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b4p_x + 0.04207778902912386 * y6_b4p_z)),
+        0.09946080483017306 * y6_b4p_z
+            + (0.9941514009309421 * y6_b4p_y - 0.04207778902912386 * y6_b4p_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b4,
+                limit: j5_a_b4,
+            },
+        ],
+        wrist_aligned: aligned_b4 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 8 alone (shoulder back, elbow up, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_8(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        + (0.10482996098294589 * r02
+            + (0.08709364649396563 * r00 + 0.008446421975486298 * r01))
+        + 0.6832069059637735;
+    let t40 = py
+        + (0.10482996098294589 * r12
+            + (0.08709364649396563 * r10 + 0.008446421975486298 * r11))
+        + 0.360136483143775;
+    let t42 = pz
+        + (0.10482996098294589 * r22
+            + (0.08709364649396563 * r20 + 0.008446421975486298 * r21))
+        - 0.11524802033856063;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (y)
+    let wc_y = 0.7239207877946658 * t42
+        - (0.5438359678021842 * t39 + 0.4244774824692261 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.087094, 0.008446, 0.10483) m (z)
+    let wc_z = 0.5900356107239746 * t40 - 0.772593908014675 * t39
+        - 0.23442830754027677 * t42;
+    // u = c_t − p1 (x)
+    let u_x = 0.05414621230012627
+        - (0.6488313044409555 * t42
+            + (0.32762950633798815 * t39 + 0.6867873360467376 * t40));
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.0007842334702639602;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.06836364393080274;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.35350566316481646 * u_x + 0.0440981229966252 * u_y
+        - 0.45519679659931744 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.0048757245008763175 * u_z
+        + (0.07772687934296175 * u_x - 0.5727563020289683 * u_y);
+    let t96 = 0.616255457921199 * u_z
+        + (0.7796770767040355 * u_x + 0.111053440489627 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.022466 − 0.816018 (h1·u)
+    let j1_e = 0.8160177559491569 * t96 + 0.02246554018408111;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7796770767040355 * t96;
+    let t134 = 0.111053440489627 * t96;
+    let t135 = 0.616255457921199 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+        - 0.08077162938642088;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+        - 0.1935961653602683;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+        + 0.08565974178506168;
+    let t205 = 0.9580721924635943 * w_m_z
+        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
+    let t209 = w_m_x - 0.28272467533220935 * t205;
+    let t210 = w_m_y - 0.04652345630215346 * t205;
+    let t211 = w_m_z - 0.9580721924635943 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_m - 0.30660204177019446),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+            .max(1.2297140543538239e-20);
+    let t400 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
+    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
+    let j3_cos_mm = -t400;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mm = 0.3686182725083974 * j3_sin_psi_m
+        - 0.9295808567160389 * j3_cos_psi_m;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let t413 = 0.38353760535766845
+        - (0.059363684915989756 * t400 + 0.23271273627618366 * j3_sin_mm);
+    let t414 = 0.24317412797069082 * t400 - 0.058488960821312025 * j3_sin_mm
+        + 0.28405649725228804;
+    let t415 = 0.005709671641624163 * t400 + 0.07151313018083055 * j3_sin_mm
+        - 0.12697460164967897;
+    let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
+    let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
+        + (0.28272467533220935 * (w_m_z * t414 - w_m_y * t415)
+            + 0.04652345630215346 * (w_m_x * t415 - w_m_z * t413));
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mm = ::armforge_runtime::math::atan2(-t434, t420);
+    let t437 = j2_inv_m * t420;
+    let t438 = j2_inv_m * t434;
+    // cos(θ2 + φ3)
+    let c23_mm = j3_sin_mm * t438 - t400 * t437;
+    // sin(θ2 + φ3)
+    let s23_mm = t400 * t438 + j3_sin_mm * t437;
+    let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
+        - 0.9508034904496505 * r02;
+    let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
+        - 0.9508034904496505 * r12;
+    let t462 = 0.24373339528963645 * r20 - 0.19122435663206516 * r21
+        - 0.9508034904496505 * r22;
+    let t467 = 0.6488313044409555 * t462
+        + (0.32762950633798815 * t452 + 0.6867873360467376 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (y)
+    let g6_y = 0.7239207877946658 * t462
+        - (0.5438359678021842 * t452 + 0.4244774824692261 * t457);
+    // rot(B⁻¹ T M⁻¹) (0.387347, 0.107995, -0.915587) : where the target sends this wrist direction (z)
+    let g6_z = 0.5900356107239746 * t457 - 0.772593908014675 * t452
+        - 0.23442830754027677 * t462;
+    let t485 = 0.20206048728692694 * r00 + 0.9688680485919384 * r01
+        - 0.14306035053437755 * r02;
+    let t490 = 0.20206048728692694 * r10 + 0.9688680485919384 * r11
+        - 0.14306035053437755 * r12;
+    let t495 = 0.20206048728692694 * r20 + 0.9688680485919384 * r21
+        - 0.14306035053437755 * r22;
+    let t500 = 0.6488313044409555 * t495
+        + (0.32762950633798815 * t485 + 0.6867873360467376 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (y)
+    let gx_y = 0.7239207877946658 * t495
+        - (0.5438359678021842 * t485 + 0.4244774824692261 * t490);
+    // rot(B⁻¹ T M⁻¹) (-0.042078, 0.994151, 0.099461) : where the target sends this wrist direction (z)
+    let gx_z = 0.5900356107239746 * t490 - 0.772593908014675 * t485
+        - 0.23442830754027677 * t495;
+    let t515 = 0.7796770767040355 * t467 - 0.111053440489627 * g6_y
+        - 0.616255457921199 * g6_z;
+    let t516 = 0.7796770767040355 * t515;
+    let t517 = 0.111053440489627 * t515;
+    let t518 = 0.616255457921199 * t515;
+    let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
+        - 0.616255457921199 * gx_z;
+    let t548 = 0.7796770767040355 * t547;
+    let t549 = 0.111053440489627 * t547;
+    let t550 = 0.616255457921199 * t547;
+    let t1336 = j1_cos_m * (t516 - t467)
+        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_m * (g6_y + t517)
+        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_m * (g6_z + t518)
+        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_m * (t548 - t500)
+        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_m * (gx_y + t549)
+        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_m * (gx_z + t550)
+        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1356 = 0.9580721924635943 * t1338
+        + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
+    let t1357 = 0.28272467533220935 * t1356;
+    let t1358 = 0.04652345630215346 * t1356;
+    let t1359 = 0.9580721924635943 * t1356;
+    let t1388 = 0.9580721924635943 * t1350
+        + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
+    let t1389 = 0.28272467533220935 * t1388;
+    let t1390 = 0.04652345630215346 * t1388;
+    let t1391 = 0.9580721924635943 * t1388;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1357
+        + (c23_mm * (t1336 - t1357)
+            - s23_mm * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1358
+        + (c23_mm * (t1337 - t1358)
+            - s23_mm * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t1359
+        + (c23_mm * (t1338 - t1359)
+            - s23_mm * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1389
+        + (c23_mm * (t1348 - t1389)
+            - s23_mm * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1390
+        + (c23_mm * (t1349 - t1390)
+            - s23_mm * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t1391
+        + (c23_mm * (t1350 - t1391)
+            - s23_mm * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.7217908346079124 * v_b4_z
+        + (0.6804730991015498 * v_b4_x + 0.12638968500295295 * v_b4_y);
+    let t1761 = j5_a_b4 - 0.013513979467479826;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.034745, h5·h6 = 0.388949
+    let j5_alpha_b4 = 1.0012086631852188 * t1761;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b4 = 0.38941933057282646 - 0.03478683733704699 * j5_a_b4;
+    let t1767 = 0.12638968500295295 * v_b4_z - 0.7217908346079124 * v_b4_y;
+    let t1770 = 0.7217908346079124 * v_b4_x - 0.6804730991015498 * v_b4_z;
+    let t1773 = 0.6804730991015498 * v_b4_y - 0.12638968500295295 * v_b4_x;
+    let t1780 = 0.3889492219673151 - 0.03474484252501078 * j5_a_b4;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1773 * t1773 + (t1767 * t1767 + t1770 * t1770)
+        - 1.0012086631852188 * (t1780 * t1780);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
+        (1.0012086631852188 * j5_gap_b4).max(0.0),
+    );
+    let t1790 = 0.5181267383208565 * j5_beta_b4;
+    let t1791 = 0.8009340075892076 * j5_beta_b4;
+    let t1792 = 0.300082319579281 * j5_beta_b4;
+    let t1793 = 0.5401795159570935 * j5_gamma_b4;
+    let t1794 = 0.5781770768749814 * j5_gamma_b4;
+    let t1795 = 0.6104999215680328 * j5_gamma_b4;
+    let t1824 = j5_alpha_b4 - j5_a_b4;
+    let t1869 = 0.7217908346079124 * xv_b4_z
+        + (0.6804730991015498 * xv_b4_x + 0.12638968500295295 * xv_b4_y);
+    let t1870 = 0.6804730991015498 * t1869;
+    let t1871 = 0.12638968500295295 * t1869;
+    let t1872 = 0.7217908346079124 * t1869;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4m_x = 0.6812955618849657 * t1761 + t1790 - t1793;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4m_y = 0.12654244756220742 * t1761 - t1791 - t1794;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4m_z = t1795 + (0.7226632366171314 * t1761 - t1792);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4m = 1.1782469650210095
+        * (0.18582223530822034 * z_b4m_x + 0.4195179924567066 * z_b4m_y
+            - 0.7988699854176344 * z_b4m_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4m = 1.1782469650210095
+        * (0.5181267383208565
+            * (0.10799533335772074 * z_b4m_z + 0.9155867701441429 * z_b4m_y)
+            + 0.8009340075892076
+                * (0.9155867701441429 * z_b4m_x + 0.38734722705858016 * z_b4m_z)
+            - 0.300082319579281
+                * (0.38734722705858016 * z_b4m_y - 0.10799533335772074 * z_b4m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let t1974 = t1790 + 0.6804730991015498 * t1824 - t1793;
+    let t1975 = 0.12638968500295295 * t1824 - t1791 - t1794;
+    let t1976 = t1795 + (0.7217908346079124 * t1824 - t1792);
+    let t1981 = v_b4_z * t1976 + (v_b4_x * t1974 + v_b4_y * t1975);
+    let t1995 = 0.7217908346079124 * (v_b4_y * t1974 - v_b4_x * t1975)
+        + (0.6804730991015498 * (v_b4_z * t1975 - v_b4_y * t1976)
+            + 0.12638968500295295 * (v_b4_x * t1976 - v_b4_z * t1974));
+    let t1998 = t1981 * t1981 + t1995 * t1995;
+    let t2001 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4_2 = 1.0000000000000001e-40 - t1998;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1981 * t2001 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1995 * t2001 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
+    let t2017 = t1870
+        + ((xv_b4_x - t1870) * j4_cos_b4m
+            - (0.12638968500295295 * xv_b4_z - 0.7217908346079124 * xv_b4_y)
+                * j4_sin_b4m);
+    let t2018 = t1871
+        + ((xv_b4_y - t1871) * j4_cos_b4m
+            - (0.7217908346079124 * xv_b4_x - 0.6804730991015498 * xv_b4_z)
+                * j4_sin_b4m);
+    let t2019 = t1872
+        + ((xv_b4_z - t1872) * j4_cos_b4m
+            - (0.6804730991015498 * xv_b4_y - 0.12638968500295295 * xv_b4_x)
+                * j4_sin_b4m);
+    let t2024 = 0.5181267383208565 * t2017 - 0.8009340075892076 * t2018
+        - 0.300082319579281 * t2019;
+    let t2025 = 0.5181267383208565 * t2024;
+    let t2026 = 0.8009340075892076 * t2024;
+    let t2027 = 0.300082319579281 * t2024;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4m_x = t2025
+        + (j5_cos_b4m * (t2017 - t2025)
+            - j5_sin_b4m * (0.300082319579281 * t2018 - 0.8009340075892076 * t2019));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b4m_y = j5_cos_b4m * (t2018 + t2026)
+        + j5_sin_b4m * (0.300082319579281 * t2017 + 0.5181267383208565 * t2019) - t2026;
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b4m_z = j5_cos_b4m * (t2019 + t2027)
+        - j5_sin_b4m * (0.5181267383208565 * t2018 + 0.8009340075892076 * t2017) - t2027;
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4m = ::armforge_runtime::math::atan2(
+        0.9155867701441429
+            * (0.04207778902912386 * y6_b4m_y + 0.9941514009309421 * y6_b4m_x)
+            + (0.38734722705858016
+                * (0.9941514009309421 * y6_b4m_z - 0.09946080483017306 * y6_b4m_y)
+                + 0.10799533335772074
+                    * (0.09946080483017306 * y6_b4m_x + 0.04207778902912386 * y6_b4m_z)),
+        0.09946080483017306 * y6_b4m_z
+            + (0.9941514009309421 * y6_b4m_y - 0.04207778902912386 * y6_b4m_x),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 0.7442545311651372,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.24349389392867876,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b4,
+                limit: j5_a_b4,
+            },
+        ],
+        wrist_aligned: aligned_b4_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
 }
 #[cfg(test)]
 mod tests {

@@ -4,6 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 5832 solutions.
 // Cost of one solve: 7 sqrt, 22 atan2, 7 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -71,8 +72,9 @@ pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [
         limits: [-6.283185307179586, 6.283185307179586],
     },
 ];
-/// The base frame in the world.
+/// The base frame in the world (folded into `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -85,8 +87,10 @@ pub const BASE: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     ],
     translation: [0.9952394067927088, -0.6613976333511493, 0.9158300892120408],
 };
-/// The tool frame in the base frame with every model value at zero.
+/// The tool frame in the base frame with every model value at zero (folded into
+/// `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -148,9 +152,261 @@ const ZERO_REFERENCE: [f64; 4] = [
     0.6517755176929484,
     0.7584119425062406,
 ];
-/// Forward kinematics: the tool pose in the world for joint values (SI units).
+/// Forward kinematics: the tool pose in the world for joint values (SI units). The
+/// product of exponentials with this arm's axes, base and tool folded in: one
+/// `sin_cos` per revolute joint.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
 pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-    ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+    let (s1, c1) = ::armforge_runtime::math::sin_cos(-joints[0] + 0.5090838424897437);
+    let (s2, c2) = ::armforge_runtime::math::sin_cos(-joints[1] - 0.7192418683142581);
+    let (s3, c3) = ::armforge_runtime::math::sin_cos(-joints[2] - 0.46223359926807284);
+    let (s4, c4) = ::armforge_runtime::math::sin_cos(joints[3] + 0.8608731389442748);
+    let (s5, c5) = ::armforge_runtime::math::sin_cos(joints[4] - 0.6567296829855225);
+    let (s6, c6) = ::armforge_runtime::math::sin_cos(joints[5] + 0.22640096837107704);
+    let t11 = 0.44941639697141367 * c1 + 0.5505836030285863;
+    let t13 = 0.4814296277099546 * c1;
+    let t15 = 0.16868586344770164 * s1;
+    let t17 = t13 - t15 - 0.4814296277099546;
+    let t20 = 0.1251671389291173 * c1;
+    let t21 = 0.6488154409724827 * s1;
+    let t23 = t20 + t21 - 0.1251671389291173;
+    let t29 = 0.12156683368383372 * s1 - 0.05174928778435291 * c1 + 0.05174928778435291;
+    let t31 = t13 + t15 - 0.4814296277099546;
+    let t35 = 0.5790385235556829 * c1 + 0.42096147644431714;
+    let t38 = 0.10944599287864454 * c1;
+    let t39 = 0.7420132094704153 * s1;
+    let t41 = t39 - t38 + 0.10944599287864454;
+    let t47 = 0.11080259315226164 * s1 - 0.10106495215777811 * c1 + 0.10106495215777811;
+    let t49 = t20 - t21 - 0.1251671389291173;
+    let t51 = 0.10944599287864454 - (t38 + t39);
+    let t55 = 0.9715450794729034 * c1 + 0.028454920527096646;
+    let t61 = 0.16109142656675932 * c1 + 0.10856726648938372 * s1 - 0.16109142656675932;
+    let t67 = 0.24302023525437577 * t11 + 0.5805710860490257 * t31
+        - 0.7770961197308622 * t49;
+    let t72 = 0.24302023525437577 * t17 + 0.5805710860490257 * t35
+        - 0.7770961197308622 * t51;
+    let t77 = 0.24302023525437577 * t23 + 0.5805710860490257 * t41
+        - 0.7770961197308622 * t55;
+    let t91 = 0.4532830168086135 * t49
+        + (0.8560607776146506 * t11 + 0.24838367841442807 * t31);
+    let t96 = 0.4532830168086135 * t51
+        + (0.8560607776146506 * t17 + 0.24838367841442807 * t35);
+    let t101 = 0.4532830168086135 * t55
+        + (0.8560607776146506 * t23 + 0.24838367841442807 * t41);
+    let t114 = 0.43664187542208954 * t49
+        + (0.775398453919772 * t31 - 0.4561810060564858 * t11);
+    let t119 = 0.43664187542208954 * t51
+        + (0.775398453919772 * t35 - 0.4561810060564858 * t17);
+    let t124 = 0.43664187542208954 * t55
+        + (0.775398453919772 * t41 - 0.4561810060564858 * t23);
+    let t136 = 0.40512110100725773 * c2 + 0.5948788989927423;
+    let t138 = 0.18770893221186244 * c2;
+    let t140 = 0.5881251211149515 * s2;
+    let t142 = 0.18770893221186244 - (t138 + t140);
+    let t145 = 0.45361145410340736 * c2;
+    let t146 = 0.24337202575641612 * s2;
+    let t148 = t146 - t145 + 0.45361145410340736;
+    let t154 = 0.004543299993929206
+        - (0.004543299993929206 * c2 + 0.001469820493472625 * s2);
+    let t156 = t140 - t138 + 0.18770893221186244;
+    let t160 = 0.9407700570792183 * c2 + 0.05922994292078167;
+    let t162 = 0.14313320212398334 * c2;
+    let t164 = 0.7712839289086363 * s2;
+    let t166 = 0.14313320212398334 - (t162 + t164);
+    let t172 = 0.004238871641219872 * c2 - 0.005914602862849609 * s2
+        - 0.004238871641219872;
+    let t174 = 0.45361145410340736 - (t145 + t146);
+    let t176 = t164 - t162 + 0.14313320212398334;
+    let t180 = 0.6541088419135236 * c2 + 0.3458911580864764;
+    let t186 = 0.004204124942998185 * c2 + 0.004375085696721126 * s2
+        - 0.004204124942998185;
+    let t191 = t77 * t174 + (t67 * t136 + t72 * t156);
+    let t196 = t77 * t176 + (t67 * t142 + t72 * t160);
+    let t201 = t77 * t180 + (t67 * t148 + t72 * t166);
+    let t212 = t101 * t174 + (t91 * t136 + t96 * t156);
+    let t217 = t101 * t176 + (t91 * t142 + t96 * t160);
+    let t222 = t101 * t180 + (t91 * t148 + t96 * t166);
+    let t233 = t124 * t174 + (t114 * t136 + t119 * t156);
+    let t238 = t124 * t176 + (t114 * t142 + t119 * t160);
+    let t243 = t124 * t180 + (t114 * t148 + t119 * t166);
+    let t253 = 0.40512110100725773 * c3 + 0.5948788989927423;
+    let t254 = 0.18770893221186244 * c3;
+    let t255 = 0.5881251211149515 * s3;
+    let t257 = 0.18770893221186244 - (t254 + t255);
+    let t258 = 0.45361145410340736 * c3;
+    let t259 = 0.24337202575641612 * s3;
+    let t261 = t259 - t258 + 0.45361145410340736;
+    let t267 = 0.28752191797905985 * c3 - 0.13367168679779928 * s3 - 0.28752191797905985;
+    let t269 = t255 - t254 + 0.18770893221186244;
+    let t271 = 0.9407700570792183 * c3 + 0.05922994292078167;
+    let t272 = 0.14313320212398334 * c3;
+    let t273 = 0.7712839289086363 * s3;
+    let t275 = 0.14313320212398334 - (t272 + t273);
+    let t281 = 0.06083426588978891 * c3 + 0.4793387259947542 * s3 - 0.06083426588978891;
+    let t283 = 0.45361145410340736 - (t258 + t259);
+    let t285 = t273 - t272 + 0.14313320212398334;
+    let t287 = 0.6541088419135236 * c3 + 0.3458911580864764;
+    let t293 = 0.4022382050655517
+        - (0.4022382050655517 * c3 + 0.023054300020184895 * s3);
+    let t298 = t201 * t283 + (t191 * t253 + t196 * t269);
+    let t303 = t201 * t285 + (t191 * t257 + t196 * t271);
+    let t308 = t201 * t287 + (t191 * t261 + t196 * t275);
+    let t319 = t222 * t283 + (t212 * t253 + t217 * t269);
+    let t324 = t222 * t285 + (t212 * t257 + t217 * t271);
+    let t329 = t222 * t287 + (t212 * t261 + t217 * t275);
+    let t340 = t243 * t283 + (t233 * t253 + t238 * t269);
+    let t345 = t243 * t285 + (t233 * t257 + t238 * t271);
+    let t350 = t243 * t287 + (t233 * t261 + t238 * t275);
+    let t362 = 0.5365023299275777 * c4 + 0.46349767007242226;
+    let t364 = 0.4352888106330355 * c4;
+    let t366 = 0.35735915230664755 * s4;
+    let t368 = 0.4352888106330355 - (t364 + t366);
+    let t371 = 0.2432924808692938 * c4;
+    let t372 = 0.6393721656361435 * s4;
+    let t374 = t372 - t371 + 0.2432924808692938;
+    let t380 = 0.7063105026865614 * c4 - 0.11044304515130715 * s4 - 0.7063105026865614;
+    let t382 = t366 - t364 + 0.4352888106330355;
+    let t386 = 0.5912032338097479 * c4 + 0.4087967661902521;
+    let t388 = 0.2284854951201977 * c4;
+    let t390 = 0.6808066319245298 * s4;
+    let t392 = 0.2284854951201977 - (t388 + t390);
+    let t398 = 0.5600742578555373 * s4 - 0.49949685343359723 * c4 + 0.49949685343359723;
+    let t400 = 0.2432924808692938 - (t371 + t372);
+    let t402 = t390 - t388 + 0.2284854951201977;
+    let t406 = 0.8722944362626743 * c4 + 0.12770556373732572;
+    let t412 = 0.45191647807610064
+        - (0.45191647807610064 * c4 + 0.7916560461572877 * s4);
+    let t417 = t308 * t400 + (t298 * t362 + t303 * t382);
+    let t422 = t308 * t402 + (t298 * t368 + t303 * t386);
+    let t427 = t308 * t406 + (t298 * t374 + t303 * t392);
+    let t438 = t329 * t400 + (t319 * t362 + t324 * t382);
+    let t443 = t329 * t402 + (t319 * t368 + t324 * t386);
+    let t448 = t329 * t406 + (t319 * t374 + t324 * t392);
+    let t459 = t350 * t400 + (t340 * t362 + t345 * t382);
+    let t464 = t350 * t402 + (t340 * t368 + t345 * t386);
+    let t469 = t350 * t406 + (t340 * t374 + t345 * t392);
+    let t481 = 0.7768071263830189 * c5 + 0.22319287361698115;
+    let t484 = 0.3572274580814195 * c5;
+    let t485 = 0.45282773069178184 * s5;
+    let t487 = t484 + t485 - 0.3572274580814195;
+    let t490 = 0.2139307317246944 * c5;
+    let t491 = 0.7561442803457222 * s5;
+    let t493 = t491 - t490 + 0.2139307317246944;
+    let t499 = 0.5948331278442444 * c5 - 0.4627267343686692 * s5 - 0.5948331278442444;
+    let t501 = t484 - t485 - 0.3572274580814195;
+    let t505 = 0.4282458273004498 * c5 + 0.5717541726995502;
+    let t508 = 0.3424030985445239 * c5;
+    let t509 = 0.4724329302842692 * s5;
+    let t511 = t508 + t509 - 0.3424030985445239;
+    let t517 = 0.0038043281111442007 * c5 - 0.5595412500277768 * s5
+        - 0.0038043281111442007;
+    let t519 = 0.2139307317246944 - (t490 + t491);
+    let t521 = t508 - t509 - 0.3424030985445239;
+    let t525 = 0.7949470463165311 * c5 + 0.2050529536834689;
+    let t531 = 0.6142338859214689 - (0.6142338859214689 * c5 + 0.45157695725689184 * s5);
+    let t536 = t427 * t519 + (t417 * t481 + t422 * t501);
+    let t541 = t427 * t521 + (t417 * t487 + t422 * t505);
+    let t546 = t427 * t525 + (t417 * t493 + t422 * t511);
+    let t557 = t448 * t519 + (t438 * t481 + t443 * t501);
+    let t562 = t448 * t521 + (t438 * t487 + t443 * t505);
+    let t567 = t448 * t525 + (t438 * t493 + t443 * t511);
+    let t578 = t469 * t519 + (t459 * t481 + t464 * t501);
+    let t583 = t469 * t521 + (t459 * t487 + t464 * t505);
+    let t588 = t469 * t525 + (t459 * t493 + t464 * t511);
+    let t600 = 0.976260487276 * c6 + 0.02373951272400362;
+    let t603 = 0.08885921010328908 * c6;
+    let t604 = 0.8022793632742339 * s6;
+    let t606 = t604 - t603 + 0.08885921010328908;
+    let t608 = 0.12361225278850806 * c6;
+    let t610 = 0.5767220392357884 * s6;
+    let t612 = 0.12361225278850806 - (t608 + t610);
+    let t618 = 0.8956995032229417 * c6 - 0.08244820738736855 * s6 - 0.8956995032229417;
+    let t620 = 0.08885921010328908 - (t603 + t604);
+    let t624 = 0.6673916894597138 * c6 + 0.3326083105402862;
+    let t627 = 0.462692190424306 * c6;
+    let t628 = 0.15407632110095185 * s6;
+    let t630 = t628 - t627 + 0.462692190424306;
+    let t636 = 0.14928151612361418
+        - (0.14928151612361418 * c6 + 0.7285708617917183 * s6);
+    let t638 = t610 - t608 + 0.12361225278850806;
+    let t640 = 0.462692190424306 - (t627 + t628);
+    let t644 = 0.3563478232642898 * c6 + 0.6436521767357102;
+    let t650 = 0.5395703908539164 * s6 - 0.06470581975043962 * c6 + 0.06470581975043962;
+    let t655 = t546 * t638 + (t536 * t600 + t541 * t620);
+    let t660 = t546 * t640 + (t536 * t606 + t541 * t624);
+    let t665 = t546 * t644 + (t536 * t612 + t541 * t630);
+    let t676 = t567 * t638 + (t557 * t600 + t562 * t620);
+    let t681 = t567 * t640 + (t557 * t606 + t562 * t624);
+    let t686 = t567 * t644 + (t557 * t612 + t562 * t630);
+    let t697 = t588 * t638 + (t578 * t600 + t583 * t620);
+    let t702 = t588 * t640 + (t578 * t606 + t583 * t624);
+    let t707 = t588 * t644 + (t578 * t612 + t583 * t630);
+    ::armforge_runtime::Pose {
+        rotation: [
+            [
+                0.1237803944639744 * t665
+                    + (0.9294125705378146 * t655 - 0.3476646195295616 * t660),
+                0.09459895967728374 * t665
+                    + (0.3377110141337991 * t655 + 0.9364840136172622 * t660),
+                0.9877901856033591 * t665
+                    - (0.14880707193884588 * t655 + 0.04611945973955687 * t660),
+            ],
+            [
+                0.3476646195295616 * t681 - 0.9294125705378146 * t676
+                    - 0.1237803944639744 * t686,
+                -(0.09459895967728374 * t686
+                    + (0.3377110141337991 * t676 + 0.9364840136172622 * t681)),
+                0.14880707193884588 * t676 + 0.04611945973955687 * t681
+                    - 0.9877901856033591 * t686,
+            ],
+            [
+                0.1237803944639744 * t707
+                    + (0.9294125705378146 * t697 - 0.3476646195295616 * t702),
+                0.09459895967728374 * t707
+                    + (0.3377110141337991 * t697 + 0.9364840136172622 * t702),
+                0.9877901856033591 * t707
+                    - (0.14880707193884588 * t697 + 0.04611945973955687 * t702),
+            ],
+        ],
+        translation: [
+            0.24302023525437577 * t29 + 0.5805710860490257 * t47
+                - 0.7770961197308622 * t61 + 0.9952394067927088
+                + (t77 * t186 + (t67 * t154 + t72 * t172))
+                + (t201 * t293 + (t191 * t267 + t196 * t281))
+                + (t308 * t412 + (t298 * t380 + t303 * t398))
+                + (t427 * t531 + (t417 * t499 + t422 * t517))
+                + (t546 * t650 + (t536 * t618 + t541 * t636))
+                + (0.5275755988477142 * t665
+                    + (0.4204990598042645 * t660 - 0.6906590946364423 * t655)),
+            0.6906590946364423 * t676 - 0.4204990598042645 * t681
+                - 0.5275755988477142 * t686
+                - (0.4532830168086135 * t61
+                    + (0.8560607776146506 * t29 + 0.24838367841442807 * t47)
+                    + 0.6613976333511493 + (t101 * t186 + (t91 * t154 + t96 * t172))
+                    + (t222 * t293 + (t212 * t267 + t217 * t281))
+                    + (t329 * t412 + (t319 * t380 + t324 * t398))
+                    + (t448 * t531 + (t438 * t499 + t443 * t517))
+                    + (t567 * t650 + (t557 * t618 + t562 * t636))),
+            0.43664187542208954 * t61
+                + (0.775398453919772 * t47 - 0.4561810060564858 * t29)
+                + 0.9158300892120408 + (t124 * t186 + (t114 * t154 + t119 * t172))
+                + (t243 * t293 + (t233 * t267 + t238 * t281))
+                + (t350 * t412 + (t340 * t380 + t345 * t398))
+                + (t469 * t531 + (t459 * t499 + t464 * t517))
+                + (t588 * t650 + (t578 * t618 + t583 * t636))
+                + (0.5275755988477142 * t707
+                    + (0.4204990598042645 * t702 - 0.6906590946364423 * t697)),
+        ],
+    }
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -166,8 +422,18 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
         CAPACITY,
     >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
 }
-/// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-/// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+/// The value each joint is wrapped toward by `solve_branch`: its range's center.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+/// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+/// when it has one away from singular poses, otherwise the nearest of every branch
+/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+/// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
     target: &::armforge_runtime::Pose,
     current: &[f64; JOINTS],
@@ -176,13 +442,79 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    let anchor = ::armforge_runtime::internal::anchors_near(
+        &JOINT_TABLE,
+        current,
+        SETTINGS.limit_tolerance,
+    );
+    let reference = ZERO_REFERENCE;
+    let own = match branch_of(current) {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_1(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_2(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_3(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_4(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_5(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_6(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_7(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_8(target, &reference)),
+        _ => ::core::option::Option::None,
+    };
+    if let ::core::option::Option::Some(candidate) = own {
+        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &candidate,
+            &anchor,
+        ) {
+            if !solution.flags.is_singular() {
+                return ::core::result::Result::Ok(solution);
+            }
+        }
+    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    ::armforge_runtime::internal::near::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &reference), current)
+    ::armforge_runtime::internal::nearest_candidate(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &reference),
+        current,
+        &anchor,
+    )
 }
-/// The one configuration of `branch` (among equivalent angles, the one nearest the
-/// centers of the joint ranges), or why there is none.
+/// The one configuration of `branch` (each joint whose range exceeds a turn at the
+/// equivalent angle nearest its range's center), or why there is none. Computes that
+/// branch alone.
 pub fn solve_branch(
     target: &::armforge_runtime::Pose,
     branch: ::armforge_runtime::Branch,
@@ -191,9 +523,60 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
-    ::armforge_runtime::internal::first_of_branch::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE), branch)
+    let reference = ZERO_REFERENCE;
+    let candidate = match branch {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_1(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_2(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_3(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_4(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_5(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_6(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_7(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_8(target, &reference),
+        _ => {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::Unreachable::BranchUnavailable,
+            );
+        }
+    };
+    ::armforge_runtime::internal::finish_one(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidate,
+        &CENTERS,
+    )
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -1245,6 +1628,2982 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// The closed-form steps of branch 1 alone (shoulder front, elbow up, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_1(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t173 = 0.5881251211149515 * w_p_z
+        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
+    let t177 = w_p_x - 0.7712839289086363 * t173;
+    let t178 = w_p_y - 0.24337202575641612 * t173;
+    let t179 = w_p_z - 0.5881251211149515 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_p - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_pp = 0.4071777476800675 * j3_cos_psi_p
+        - 0.9133489375885797 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pp = 0.9133489375885797 * j3_cos_psi_p
+        + 0.4071777476800675 * j3_sin_psi_p;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
+    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+        + 0.292065217972989;
+    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+        - 0.05659539424856903;
+    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+        + 0.4064423300085499;
+    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
+    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
+        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
+        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_p * t271;
+    let t288 = j2_inv_p * t285;
+    // cos(θ2 + φ3)
+    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    // sin(θ2 + φ3)
+    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t536 = j1_cos_p * (g6_x + t512)
+        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t537 = t513
+        + (j1_cos_p * (g6_y - t513)
+            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t538 = t514
+        + (j1_cos_p * (g6_z - t514)
+            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t568 = j1_cos_p * (gx_x + t544)
+        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t569 = t545
+        + (j1_cos_p * (gx_y - t545)
+            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t570 = t546
+        + (j1_cos_p * (gx_z - t546)
+            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t575 = 0.5881251211149515 * t538
+        + (0.7712839289086363 * t536 + 0.24337202575641612 * t537);
+    let t576 = 0.7712839289086363 * t575;
+    let t577 = 0.24337202575641612 * t575;
+    let t578 = 0.5881251211149515 * t575;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t576
+        + (c23_pp * (t536 - t576)
+            - s23_pp * (0.24337202575641612 * t538 - 0.5881251211149515 * t537));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t577
+        + (c23_pp * (t537 - t577)
+            - s23_pp * (0.5881251211149515 * t536 - 0.7712839289086363 * t538));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t578
+        + (c23_pp * (t538 - t578)
+            - s23_pp * (0.7712839289086363 * t537 - 0.24337202575641612 * t536));
+    let t607 = 0.5881251211149515 * t570
+        + (0.7712839289086363 * t568 + 0.24337202575641612 * t569);
+    let t608 = 0.7712839289086363 * t607;
+    let t609 = 0.24337202575641612 * t607;
+    let t610 = 0.5881251211149515 * t607;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t608
+        + (c23_pp * (t568 - t608)
+            - s23_pp * (0.24337202575641612 * t570 - 0.5881251211149515 * t569));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t609
+        + (c23_pp * (t569 - t609)
+            - s23_pp * (0.5881251211149515 * t568 - 0.7712839289086363 * t570));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t610
+        + (c23_pp * (t570 - t610)
+            - s23_pp * (0.7712839289086363 * t569 - 0.24337202575641612 * t568));
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.35735915230664755 * v_b1_z
+        + (0.6808066319245298 * v_b1_x + 0.6393721656361435 * v_b1_y);
+    let t645 = 0.6393721656361435 * v_b1_z - 0.35735915230664755 * v_b1_y;
+    let t648 = 0.35735915230664755 * v_b1_x - 0.6808066319245298 * v_b1_z;
+    let t651 = 0.6808066319245298 * v_b1_y - 0.6393721656361435 * v_b1_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t651 * t651 + (t645 * t645 + t648 * t648);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(j5_gap_b1.max(0.0));
+    let t666 = 0.5597405258783723 * j5_gamma_b1;
+    let t667 = 0.13945989068616807 * j5_gamma_b1;
+    let t668 = 0.816848506504851 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = 0.6808066319245298 * j5_a_b1 - t666;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = 0.6393721656361435 * j5_a_b1 + t667;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = 0.35735915230664755 * j5_a_b1 + t668;
+    let t679 = 0.8022793632742343 * z_b1p_z
+        + (0.1540763211009523 * z_b1p_x + 0.5767220392357877 * z_b1p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = -t679;
+    let t697 = 0.45282773069178184
+        * (0.5767220392357884 * z_b1p_x - 0.15407632110095185 * z_b1p_y);
+    let t698 = 0.7561442803457222
+        * (0.15407632110095185 * z_b1p_z - 0.8022793632742339 * z_b1p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b1p_y - 0.5767220392357884 * z_b1p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = t698 - t697;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t722 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b1_z * t668 + (v_b1_y * t667 - v_b1_x * t666)) * t722
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b1_z * t667 - v_b1_y * t668)
+            + 0.6393721656361435 * (v_b1_x * t668 + v_b1_z * t666)
+            - 0.35735915230664755 * (v_b1_y * t666 + v_b1_x * t667)) * t722
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t733 = 0.35735915230664755 * xv_b1_z
+        + (0.6808066319245298 * xv_b1_x + 0.6393721656361435 * xv_b1_y);
+    let t734 = 0.6808066319245298 * t733;
+    let t735 = 0.6393721656361435 * t733;
+    let t736 = 0.35735915230664755 * t733;
+    let t758 = t734
+        + (j4_cos_b1p * (xv_b1_x - t734)
+            - j4_sin_b1p
+                * (0.6393721656361435 * xv_b1_z - 0.35735915230664755 * xv_b1_y));
+    let t759 = t735
+        + (j4_cos_b1p * (xv_b1_y - t735)
+            - j4_sin_b1p
+                * (0.35735915230664755 * xv_b1_x - 0.6808066319245298 * xv_b1_z));
+    let t760 = t736
+        + (j4_cos_b1p * (xv_b1_z - t736)
+            - j4_sin_b1p
+                * (0.6808066319245298 * xv_b1_y - 0.6393721656361435 * xv_b1_x));
+    let t761 = t697 - t698;
+    let t766 = 0.7561442803457222 * t759 - 0.4724329302842692 * t758
+        - 0.45282773069178184 * t760;
+    let t767 = 0.4724329302842692 * t766;
+    let t768 = 0.7561442803457222 * t766;
+    let t769 = 0.45282773069178184 * t766;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t761 * (0.7561442803457222 * t760 + 0.45282773069178184 * t759)
+        - t679 * (t758 + t767) - t767;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1p_y = t768
+        + (t761 * (0.4724329302842692 * t760 - 0.45282773069178184 * t758)
+            - t679 * (t759 - t768));
+    let t793 = t769
+        + (t679 * (t760 + t769)
+            + t761 * (0.4724329302842692 * t759 + 0.7561442803457222 * t758));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b1p_y + 0.089933105880942 * y6_b1p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t793 + 0.12510615168971864 * y6_b1p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t793 - 0.12510615168971864 * y6_b1p_x))),
+        0.12510615168971864 * t793
+            + (0.988058949292 * y6_b1p_x - 0.089933105880942 * y6_b1p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 2 alone (shoulder front, elbow up, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_2(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t173 = 0.5881251211149515 * w_p_z
+        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
+    let t177 = w_p_x - 0.7712839289086363 * t173;
+    let t178 = w_p_y - 0.24337202575641612 * t173;
+    let t179 = w_p_z - 0.5881251211149515 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_p - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_pp = 0.4071777476800675 * j3_cos_psi_p
+        - 0.9133489375885797 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pp = 0.9133489375885797 * j3_cos_psi_p
+        + 0.4071777476800675 * j3_sin_psi_p;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
+    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+        + 0.292065217972989;
+    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+        - 0.05659539424856903;
+    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+        + 0.4064423300085499;
+    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
+    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
+        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
+        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_p * t271;
+    let t288 = j2_inv_p * t285;
+    // cos(θ2 + φ3)
+    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    // sin(θ2 + φ3)
+    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t536 = j1_cos_p * (g6_x + t512)
+        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t537 = t513
+        + (j1_cos_p * (g6_y - t513)
+            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t538 = t514
+        + (j1_cos_p * (g6_z - t514)
+            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t568 = j1_cos_p * (gx_x + t544)
+        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t569 = t545
+        + (j1_cos_p * (gx_y - t545)
+            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t570 = t546
+        + (j1_cos_p * (gx_z - t546)
+            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t575 = 0.5881251211149515 * t538
+        + (0.7712839289086363 * t536 + 0.24337202575641612 * t537);
+    let t576 = 0.7712839289086363 * t575;
+    let t577 = 0.24337202575641612 * t575;
+    let t578 = 0.5881251211149515 * t575;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t576
+        + (c23_pp * (t536 - t576)
+            - s23_pp * (0.24337202575641612 * t538 - 0.5881251211149515 * t537));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t577
+        + (c23_pp * (t537 - t577)
+            - s23_pp * (0.5881251211149515 * t536 - 0.7712839289086363 * t538));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t578
+        + (c23_pp * (t538 - t578)
+            - s23_pp * (0.7712839289086363 * t537 - 0.24337202575641612 * t536));
+    let t607 = 0.5881251211149515 * t570
+        + (0.7712839289086363 * t568 + 0.24337202575641612 * t569);
+    let t608 = 0.7712839289086363 * t607;
+    let t609 = 0.24337202575641612 * t607;
+    let t610 = 0.5881251211149515 * t607;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t608
+        + (c23_pp * (t568 - t608)
+            - s23_pp * (0.24337202575641612 * t570 - 0.5881251211149515 * t569));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t609
+        + (c23_pp * (t569 - t609)
+            - s23_pp * (0.5881251211149515 * t568 - 0.7712839289086363 * t570));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t610
+        + (c23_pp * (t570 - t610)
+            - s23_pp * (0.7712839289086363 * t569 - 0.24337202575641612 * t568));
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.35735915230664755 * v_b1_z
+        + (0.6808066319245298 * v_b1_x + 0.6393721656361435 * v_b1_y);
+    let t645 = 0.6393721656361435 * v_b1_z - 0.35735915230664755 * v_b1_y;
+    let t648 = 0.35735915230664755 * v_b1_x - 0.6808066319245298 * v_b1_z;
+    let t651 = 0.6808066319245298 * v_b1_y - 0.6393721656361435 * v_b1_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t651 * t651 + (t645 * t645 + t648 * t648);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(j5_gap_b1.max(0.0));
+    let t666 = 0.5597405258783723 * j5_gamma_b1;
+    let t667 = 0.13945989068616807 * j5_gamma_b1;
+    let t668 = 0.816848506504851 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = 0.6808066319245298 * j5_a_b1 - t666;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = 0.6393721656361435 * j5_a_b1 + t667;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = 0.35735915230664755 * j5_a_b1 + t668;
+    let t679 = 0.8022793632742343 * z_b1p_z
+        + (0.1540763211009523 * z_b1p_x + 0.5767220392357877 * z_b1p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = -t679;
+    let t697 = 0.45282773069178184
+        * (0.5767220392357884 * z_b1p_x - 0.15407632110095185 * z_b1p_y);
+    let t698 = 0.7561442803457222
+        * (0.15407632110095185 * z_b1p_z - 0.8022793632742339 * z_b1p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b1p_y - 0.5767220392357884 * z_b1p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = t698 - t697;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t722 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b1_z * t668 + (v_b1_y * t667 - v_b1_x * t666)) * t722
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b1_z * t667 - v_b1_y * t668)
+            + 0.6393721656361435 * (v_b1_x * t668 + v_b1_z * t666)
+            - 0.35735915230664755 * (v_b1_y * t666 + v_b1_x * t667)) * t722
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t733 = 0.35735915230664755 * xv_b1_z
+        + (0.6808066319245298 * xv_b1_x + 0.6393721656361435 * xv_b1_y);
+    let t734 = 0.6808066319245298 * t733;
+    let t735 = 0.6393721656361435 * t733;
+    let t736 = 0.35735915230664755 * t733;
+    let t758 = t734
+        + (j4_cos_b1p * (xv_b1_x - t734)
+            - j4_sin_b1p
+                * (0.6393721656361435 * xv_b1_z - 0.35735915230664755 * xv_b1_y));
+    let t759 = t735
+        + (j4_cos_b1p * (xv_b1_y - t735)
+            - j4_sin_b1p
+                * (0.35735915230664755 * xv_b1_x - 0.6808066319245298 * xv_b1_z));
+    let t760 = t736
+        + (j4_cos_b1p * (xv_b1_z - t736)
+            - j4_sin_b1p
+                * (0.6808066319245298 * xv_b1_y - 0.6393721656361435 * xv_b1_x));
+    let t761 = t697 - t698;
+    let t766 = 0.7561442803457222 * t759 - 0.4724329302842692 * t758
+        - 0.45282773069178184 * t760;
+    let t767 = 0.4724329302842692 * t766;
+    let t768 = 0.7561442803457222 * t766;
+    let t769 = 0.45282773069178184 * t766;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t761 * (0.7561442803457222 * t760 + 0.45282773069178184 * t759)
+        - t679 * (t758 + t767) - t767;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1p_y = t768
+        + (t761 * (0.4724329302842692 * t760 - 0.45282773069178184 * t758)
+            - t679 * (t759 - t768));
+    let t793 = t769
+        + (t679 * (t760 + t769)
+            + t761 * (0.4724329302842692 * t759 + 0.7561442803457222 * t758));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b1p_y + 0.089933105880942 * y6_b1p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t793 + 0.12510615168971864 * y6_b1p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t793 - 0.12510615168971864 * y6_b1p_x))),
+        0.12510615168971864 * t793
+            + (0.988058949292 * y6_b1p_x - 0.089933105880942 * y6_b1p_y),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.43463 rad (aligned position)
+    let q5_b1m = -4.869259549848829 - q5_b1p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 3 alone (shoulder front, elbow down, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_3(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t173 = 0.5881251211149515 * w_p_z
+        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
+    let t177 = w_p_x - 0.7712839289086363 * t173;
+    let t178 = w_p_y - 0.24337202575641612 * t173;
+    let t179 = w_p_z - 0.5881251211149515 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_p - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_pm = 0.4071777476800675 * j3_cos_psi_p
+        + 0.9133489375885797 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pm = 0.9133489375885797 * j3_cos_psi_p
+        - 0.4071777476800675 * j3_sin_psi_p;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
+    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+        + 0.292065217972989;
+    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+        - 0.05659539424856903;
+    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+        + 0.4064423300085499;
+    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
+    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
+        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
+        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
+    let t330 = j2_inv_p * t314;
+    let t331 = j2_inv_p * t328;
+    // cos(θ2 + φ3)
+    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    // sin(θ2 + φ3)
+    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t536 = j1_cos_p * (g6_x + t512)
+        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t537 = t513
+        + (j1_cos_p * (g6_y - t513)
+            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t538 = t514
+        + (j1_cos_p * (g6_z - t514)
+            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t568 = j1_cos_p * (gx_x + t544)
+        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t569 = t545
+        + (j1_cos_p * (gx_y - t545)
+            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t570 = t546
+        + (j1_cos_p * (gx_z - t546)
+            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t575 = 0.5881251211149515 * t538
+        + (0.7712839289086363 * t536 + 0.24337202575641612 * t537);
+    let t576 = 0.7712839289086363 * t575;
+    let t577 = 0.24337202575641612 * t575;
+    let t578 = 0.5881251211149515 * t575;
+    let t607 = 0.5881251211149515 * t570
+        + (0.7712839289086363 * t568 + 0.24337202575641612 * t569);
+    let t608 = 0.7712839289086363 * t607;
+    let t609 = 0.24337202575641612 * t607;
+    let t610 = 0.5881251211149515 * t607;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t576
+        + (c23_pm * (t536 - t576)
+            - s23_pm * (0.24337202575641612 * t538 - 0.5881251211149515 * t537));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t577
+        + (c23_pm * (t537 - t577)
+            - s23_pm * (0.5881251211149515 * t536 - 0.7712839289086363 * t538));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t578
+        + (c23_pm * (t538 - t578)
+            - s23_pm * (0.7712839289086363 * t537 - 0.24337202575641612 * t536));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t608
+        + (c23_pm * (t568 - t608)
+            - s23_pm * (0.24337202575641612 * t570 - 0.5881251211149515 * t569));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t609
+        + (c23_pm * (t569 - t609)
+            - s23_pm * (0.5881251211149515 * t568 - 0.7712839289086363 * t570));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t610
+        + (c23_pm * (t570 - t610)
+            - s23_pm * (0.7712839289086363 * t569 - 0.24337202575641612 * t568));
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.35735915230664755 * v_b2_z
+        + (0.6808066319245298 * v_b2_x + 0.6393721656361435 * v_b2_y);
+    let t854 = 0.6393721656361435 * v_b2_z - 0.35735915230664755 * v_b2_y;
+    let t857 = 0.35735915230664755 * v_b2_x - 0.6808066319245298 * v_b2_z;
+    let t860 = 0.6808066319245298 * v_b2_y - 0.6393721656361435 * v_b2_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t860 * t860 + (t854 * t854 + t857 * t857);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(j5_gap_b2.max(0.0));
+    let t871 = 0.5597405258783723 * j5_gamma_b2;
+    let t872 = 0.13945989068616807 * j5_gamma_b2;
+    let t873 = 0.816848506504851 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = 0.6808066319245298 * j5_a_b2 - t871;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = 0.6393721656361435 * j5_a_b2 + t872;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = 0.35735915230664755 * j5_a_b2 + t873;
+    let t881 = 0.8022793632742343 * z_b2p_z
+        + (0.1540763211009523 * z_b2p_x + 0.5767220392357877 * z_b2p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = -t881;
+    let t894 = 0.45282773069178184
+        * (0.5767220392357884 * z_b2p_x - 0.15407632110095185 * z_b2p_y);
+    let t895 = 0.7561442803457222
+        * (0.15407632110095185 * z_b2p_z - 0.8022793632742339 * z_b2p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b2p_y - 0.5767220392357884 * z_b2p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = t895 - t894;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t918 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b2_z * t873 + (v_b2_y * t872 - v_b2_x * t871)) * t918
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b2_z * t872 - v_b2_y * t873)
+            + 0.6393721656361435 * (v_b2_x * t873 + v_b2_z * t871)
+            - 0.35735915230664755 * (v_b2_y * t871 + v_b2_x * t872)) * t918
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t929 = 0.35735915230664755 * xv_b2_z
+        + (0.6808066319245298 * xv_b2_x + 0.6393721656361435 * xv_b2_y);
+    let t930 = 0.6808066319245298 * t929;
+    let t931 = 0.6393721656361435 * t929;
+    let t932 = 0.35735915230664755 * t929;
+    let t954 = t930
+        + (j4_cos_b2p * (xv_b2_x - t930)
+            - j4_sin_b2p
+                * (0.6393721656361435 * xv_b2_z - 0.35735915230664755 * xv_b2_y));
+    let t955 = t931
+        + (j4_cos_b2p * (xv_b2_y - t931)
+            - j4_sin_b2p
+                * (0.35735915230664755 * xv_b2_x - 0.6808066319245298 * xv_b2_z));
+    let t956 = t932
+        + (j4_cos_b2p * (xv_b2_z - t932)
+            - j4_sin_b2p
+                * (0.6808066319245298 * xv_b2_y - 0.6393721656361435 * xv_b2_x));
+    let t957 = t894 - t895;
+    let t962 = 0.7561442803457222 * t955 - 0.4724329302842692 * t954
+        - 0.45282773069178184 * t956;
+    let t963 = 0.4724329302842692 * t962;
+    let t964 = 0.7561442803457222 * t962;
+    let t965 = 0.45282773069178184 * t962;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t957 * (0.7561442803457222 * t956 + 0.45282773069178184 * t955)
+        - t881 * (t954 + t963) - t963;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2p_y = t964
+        + (t957 * (0.4724329302842692 * t956 - 0.45282773069178184 * t954)
+            - t881 * (t955 - t964));
+    let t989 = t965
+        + (t881 * (t956 + t965)
+            + t957 * (0.4724329302842692 * t955 + 0.7561442803457222 * t954));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b2p_y + 0.089933105880942 * y6_b2p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t989 + 0.12510615168971864 * y6_b2p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t989 - 0.12510615168971864 * y6_b2p_x))),
+        0.12510615168971864 * t989
+            + (0.988058949292 * y6_b2p_x - 0.089933105880942 * y6_b2p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 4 alone (shoulder front, elbow down, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_4(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = j1_cos_p * (u_x + t133)
+        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t173 = 0.5881251211149515 * w_p_z
+        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
+    let t177 = w_p_x - 0.7712839289086363 * t173;
+    let t178 = w_p_y - 0.24337202575641612 * t173;
+    let t179 = w_p_z - 0.5881251211149515 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_p - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_p = 1.0
+        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_pm = 0.4071777476800675 * j3_cos_psi_p
+        + 0.9133489375885797 * j3_sin_psi_p;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_pm = 0.9133489375885797 * j3_cos_psi_p
+        - 0.4071777476800675 * j3_sin_psi_p;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
+    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+        + 0.292065217972989;
+    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+        - 0.05659539424856903;
+    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+        + 0.4064423300085499;
+    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
+    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
+        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
+        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
+    let t330 = j2_inv_p * t314;
+    let t331 = j2_inv_p * t328;
+    // cos(θ2 + φ3)
+    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    // sin(θ2 + φ3)
+    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t536 = j1_cos_p * (g6_x + t512)
+        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t537 = t513
+        + (j1_cos_p * (g6_y - t513)
+            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t538 = t514
+        + (j1_cos_p * (g6_z - t514)
+            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t568 = j1_cos_p * (gx_x + t544)
+        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t569 = t545
+        + (j1_cos_p * (gx_y - t545)
+            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t570 = t546
+        + (j1_cos_p * (gx_z - t546)
+            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t575 = 0.5881251211149515 * t538
+        + (0.7712839289086363 * t536 + 0.24337202575641612 * t537);
+    let t576 = 0.7712839289086363 * t575;
+    let t577 = 0.24337202575641612 * t575;
+    let t578 = 0.5881251211149515 * t575;
+    let t607 = 0.5881251211149515 * t570
+        + (0.7712839289086363 * t568 + 0.24337202575641612 * t569);
+    let t608 = 0.7712839289086363 * t607;
+    let t609 = 0.24337202575641612 * t607;
+    let t610 = 0.5881251211149515 * t607;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t576
+        + (c23_pm * (t536 - t576)
+            - s23_pm * (0.24337202575641612 * t538 - 0.5881251211149515 * t537));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t577
+        + (c23_pm * (t537 - t577)
+            - s23_pm * (0.5881251211149515 * t536 - 0.7712839289086363 * t538));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t578
+        + (c23_pm * (t538 - t578)
+            - s23_pm * (0.7712839289086363 * t537 - 0.24337202575641612 * t536));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t608
+        + (c23_pm * (t568 - t608)
+            - s23_pm * (0.24337202575641612 * t570 - 0.5881251211149515 * t569));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t609
+        + (c23_pm * (t569 - t609)
+            - s23_pm * (0.5881251211149515 * t568 - 0.7712839289086363 * t570));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t610
+        + (c23_pm * (t570 - t610)
+            - s23_pm * (0.7712839289086363 * t569 - 0.24337202575641612 * t568));
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.35735915230664755 * v_b2_z
+        + (0.6808066319245298 * v_b2_x + 0.6393721656361435 * v_b2_y);
+    let t854 = 0.6393721656361435 * v_b2_z - 0.35735915230664755 * v_b2_y;
+    let t857 = 0.35735915230664755 * v_b2_x - 0.6808066319245298 * v_b2_z;
+    let t860 = 0.6808066319245298 * v_b2_y - 0.6393721656361435 * v_b2_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t860 * t860 + (t854 * t854 + t857 * t857);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(j5_gap_b2.max(0.0));
+    let t871 = 0.5597405258783723 * j5_gamma_b2;
+    let t872 = 0.13945989068616807 * j5_gamma_b2;
+    let t873 = 0.816848506504851 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = 0.6808066319245298 * j5_a_b2 - t871;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = 0.6393721656361435 * j5_a_b2 + t872;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = 0.35735915230664755 * j5_a_b2 + t873;
+    let t881 = 0.8022793632742343 * z_b2p_z
+        + (0.1540763211009523 * z_b2p_x + 0.5767220392357877 * z_b2p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = -t881;
+    let t894 = 0.45282773069178184
+        * (0.5767220392357884 * z_b2p_x - 0.15407632110095185 * z_b2p_y);
+    let t895 = 0.7561442803457222
+        * (0.15407632110095185 * z_b2p_z - 0.8022793632742339 * z_b2p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b2p_y - 0.5767220392357884 * z_b2p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = t895 - t894;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t918 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b2_z * t873 + (v_b2_y * t872 - v_b2_x * t871)) * t918
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b2_z * t872 - v_b2_y * t873)
+            + 0.6393721656361435 * (v_b2_x * t873 + v_b2_z * t871)
+            - 0.35735915230664755 * (v_b2_y * t871 + v_b2_x * t872)) * t918
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t929 = 0.35735915230664755 * xv_b2_z
+        + (0.6808066319245298 * xv_b2_x + 0.6393721656361435 * xv_b2_y);
+    let t930 = 0.6808066319245298 * t929;
+    let t931 = 0.6393721656361435 * t929;
+    let t932 = 0.35735915230664755 * t929;
+    let t954 = t930
+        + (j4_cos_b2p * (xv_b2_x - t930)
+            - j4_sin_b2p
+                * (0.6393721656361435 * xv_b2_z - 0.35735915230664755 * xv_b2_y));
+    let t955 = t931
+        + (j4_cos_b2p * (xv_b2_y - t931)
+            - j4_sin_b2p
+                * (0.35735915230664755 * xv_b2_x - 0.6808066319245298 * xv_b2_z));
+    let t956 = t932
+        + (j4_cos_b2p * (xv_b2_z - t932)
+            - j4_sin_b2p
+                * (0.6808066319245298 * xv_b2_y - 0.6393721656361435 * xv_b2_x));
+    let t957 = t894 - t895;
+    let t962 = 0.7561442803457222 * t955 - 0.4724329302842692 * t954
+        - 0.45282773069178184 * t956;
+    let t963 = 0.4724329302842692 * t962;
+    let t964 = 0.7561442803457222 * t962;
+    let t965 = 0.45282773069178184 * t962;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t957 * (0.7561442803457222 * t956 + 0.45282773069178184 * t955)
+        - t881 * (t954 + t963) - t963;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2p_y = t964
+        + (t957 * (0.4724329302842692 * t956 - 0.45282773069178184 * t954)
+            - t881 * (t955 - t964));
+    let t989 = t965
+        + (t881 * (t956 + t965)
+            + t957 * (0.4724329302842692 * t955 + 0.7561442803457222 * t954));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b2p_y + 0.089933105880942 * y6_b2p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t989 + 0.12510615168971864 * y6_b2p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t989 - 0.12510615168971864 * y6_b2p_x))),
+        0.12510615168971864 * t989
+            + (0.988058949292 * y6_b2p_x - 0.089933105880942 * y6_b2p_y),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.43463 rad (aligned position)
+    let q5_b2m = -4.869259549848829 - q5_b2p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_p,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 5 alone (shoulder back, elbow down, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_5(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t205 = 0.5881251211149515 * w_m_z
+        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
+    let t209 = w_m_x - 0.7712839289086363 * t205;
+    let t210 = w_m_y - 0.24337202575641612 * t205;
+    let t211 = w_m_z - 0.5881251211149515 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_m - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_mp = 0.4071777476800675 * j3_cos_psi_m
+        - 0.9133489375885797 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mp = 0.9133489375885797 * j3_cos_psi_m
+        + 0.4071777476800675 * j3_sin_psi_m;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
+    let t367 = 0.29618845398521326 * j3_cos_mp + 0.2631411817706989 * j3_sin_mp
+        + 0.292065217972989;
+    let t368 = 0.5192451277093607 * j3_cos_mp - 0.3080607744485827 * j3_sin_mp
+        - 0.05659539424856903;
+    let t369 = 0.17356112199186785 * j3_cos_mp + 0.4725694062183847 * j3_sin_mp
+        + 0.4064423300085499;
+    let t374 = w_m_z * t369 + (w_m_y * t368 - w_m_x * t367);
+    let t388 = 0.7712839289086363 * (w_m_z * t368 - w_m_y * t369)
+        + 0.24337202575641612 * (w_m_x * t369 + w_m_z * t367)
+        - 0.5881251211149515 * (w_m_y * t367 + w_m_x * t368);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mp = ::armforge_runtime::math::atan2(t388, t374);
+    let t390 = j2_inv_m * t374;
+    let t391 = j2_inv_m * t388;
+    // cos(θ2 + φ3)
+    let c23_mp = j3_cos_mp * t390 - j3_sin_mp * t391;
+    // sin(θ2 + φ3)
+    let s23_mp = j3_cos_mp * t391 + j3_sin_mp * t390;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t1023 = j1_cos_m * (g6_x + t512)
+        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t1024 = t513
+        + (j1_cos_m * (g6_y - t513)
+            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t1025 = t514
+        + (j1_cos_m * (g6_z - t514)
+            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1035 = j1_cos_m * (gx_x + t544)
+        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t1036 = t545
+        + (j1_cos_m * (gx_y - t545)
+            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t1037 = t546
+        + (j1_cos_m * (gx_z - t546)
+            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t1042 = 0.5881251211149515 * t1025
+        + (0.7712839289086363 * t1023 + 0.24337202575641612 * t1024);
+    let t1043 = 0.7712839289086363 * t1042;
+    let t1044 = 0.24337202575641612 * t1042;
+    let t1045 = 0.5881251211149515 * t1042;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1043
+        + (c23_mp * (t1023 - t1043)
+            - s23_mp * (0.24337202575641612 * t1025 - 0.5881251211149515 * t1024));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1044
+        + (c23_mp * (t1024 - t1044)
+            - s23_mp * (0.5881251211149515 * t1023 - 0.7712839289086363 * t1025));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t1045
+        + (c23_mp * (t1025 - t1045)
+            - s23_mp * (0.7712839289086363 * t1024 - 0.24337202575641612 * t1023));
+    let t1074 = 0.5881251211149515 * t1037
+        + (0.7712839289086363 * t1035 + 0.24337202575641612 * t1036);
+    let t1075 = 0.7712839289086363 * t1074;
+    let t1076 = 0.24337202575641612 * t1074;
+    let t1077 = 0.5881251211149515 * t1074;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1075
+        + (c23_mp * (t1035 - t1075)
+            - s23_mp * (0.24337202575641612 * t1037 - 0.5881251211149515 * t1036));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1076
+        + (c23_mp * (t1036 - t1076)
+            - s23_mp * (0.5881251211149515 * t1035 - 0.7712839289086363 * t1037));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t1077
+        + (c23_mp * (t1037 - t1077)
+            - s23_mp * (0.7712839289086363 * t1036 - 0.24337202575641612 * t1035));
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.35735915230664755 * v_b3_z
+        + (0.6808066319245298 * v_b3_x + 0.6393721656361435 * v_b3_y);
+    let t1109 = 0.6393721656361435 * v_b3_z - 0.35735915230664755 * v_b3_y;
+    let t1112 = 0.35735915230664755 * v_b3_x - 0.6808066319245298 * v_b3_z;
+    let t1115 = 0.6808066319245298 * v_b3_y - 0.6393721656361435 * v_b3_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1115 * t1115 + (t1109 * t1109 + t1112 * t1112);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(j5_gap_b3.max(0.0));
+    let t1126 = 0.5597405258783723 * j5_gamma_b3;
+    let t1127 = 0.13945989068616807 * j5_gamma_b3;
+    let t1128 = 0.816848506504851 * j5_gamma_b3;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3p_x = 0.6808066319245298 * j5_a_b3 - t1126;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3p_y = 0.6393721656361435 * j5_a_b3 + t1127;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3p_z = 0.35735915230664755 * j5_a_b3 + t1128;
+    let t1136 = 0.8022793632742343 * z_b3p_z
+        + (0.1540763211009523 * z_b3p_x + 0.5767220392357877 * z_b3p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3p = -t1136;
+    let t1149 = 0.45282773069178184
+        * (0.5767220392357884 * z_b3p_x - 0.15407632110095185 * z_b3p_y);
+    let t1150 = 0.7561442803457222
+        * (0.15407632110095185 * z_b3p_z - 0.8022793632742339 * z_b3p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b3p_y - 0.5767220392357884 * z_b3p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3p = t1150 - t1149;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let t1173 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b3_z * t1128 + (v_b3_y * t1127 - v_b3_x * t1126)) * t1173
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b3_z * t1127 - v_b3_y * t1128)
+            + 0.6393721656361435 * (v_b3_x * t1128 + v_b3_z * t1126)
+            - 0.35735915230664755 * (v_b3_y * t1126 + v_b3_x * t1127)) * t1173
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let t1184 = 0.35735915230664755 * xv_b3_z
+        + (0.6808066319245298 * xv_b3_x + 0.6393721656361435 * xv_b3_y);
+    let t1185 = 0.6808066319245298 * t1184;
+    let t1186 = 0.6393721656361435 * t1184;
+    let t1187 = 0.35735915230664755 * t1184;
+    let t1209 = t1185
+        + (j4_cos_b3p * (xv_b3_x - t1185)
+            - j4_sin_b3p
+                * (0.6393721656361435 * xv_b3_z - 0.35735915230664755 * xv_b3_y));
+    let t1210 = t1186
+        + (j4_cos_b3p * (xv_b3_y - t1186)
+            - j4_sin_b3p
+                * (0.35735915230664755 * xv_b3_x - 0.6808066319245298 * xv_b3_z));
+    let t1211 = t1187
+        + (j4_cos_b3p * (xv_b3_z - t1187)
+            - j4_sin_b3p
+                * (0.6808066319245298 * xv_b3_y - 0.6393721656361435 * xv_b3_x));
+    let t1212 = t1149 - t1150;
+    let t1217 = 0.7561442803457222 * t1210 - 0.4724329302842692 * t1209
+        - 0.45282773069178184 * t1211;
+    let t1218 = 0.4724329302842692 * t1217;
+    let t1219 = 0.7561442803457222 * t1217;
+    let t1220 = 0.45282773069178184 * t1217;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3p_x = t1212 * (0.7561442803457222 * t1211 + 0.45282773069178184 * t1210)
+        - t1136 * (t1209 + t1218) - t1218;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b3p_y = t1219
+        + (t1212 * (0.4724329302842692 * t1211 - 0.45282773069178184 * t1209)
+            - t1136 * (t1210 - t1219));
+    let t1244 = t1220
+        + (t1136 * (t1211 + t1220)
+            + t1212 * (0.4724329302842692 * t1210 + 0.7561442803457222 * t1209));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b3p_y + 0.089933105880942 * y6_b3p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t1244 + 0.12510615168971864 * y6_b3p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t1244 - 0.12510615168971864 * y6_b3p_x))),
+        0.12510615168971864 * t1244
+            + (0.988058949292 * y6_b3p_x - 0.089933105880942 * y6_b3p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b3 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 6 alone (shoulder back, elbow down, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_6(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t205 = 0.5881251211149515 * w_m_z
+        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
+    let t209 = w_m_x - 0.7712839289086363 * t205;
+    let t210 = w_m_y - 0.24337202575641612 * t205;
+    let t211 = w_m_z - 0.5881251211149515 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_m - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_mp = 0.4071777476800675 * j3_cos_psi_m
+        - 0.9133489375885797 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mp = 0.9133489375885797 * j3_cos_psi_m
+        + 0.4071777476800675 * j3_sin_psi_m;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
+    let t367 = 0.29618845398521326 * j3_cos_mp + 0.2631411817706989 * j3_sin_mp
+        + 0.292065217972989;
+    let t368 = 0.5192451277093607 * j3_cos_mp - 0.3080607744485827 * j3_sin_mp
+        - 0.05659539424856903;
+    let t369 = 0.17356112199186785 * j3_cos_mp + 0.4725694062183847 * j3_sin_mp
+        + 0.4064423300085499;
+    let t374 = w_m_z * t369 + (w_m_y * t368 - w_m_x * t367);
+    let t388 = 0.7712839289086363 * (w_m_z * t368 - w_m_y * t369)
+        + 0.24337202575641612 * (w_m_x * t369 + w_m_z * t367)
+        - 0.5881251211149515 * (w_m_y * t367 + w_m_x * t368);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mp = ::armforge_runtime::math::atan2(t388, t374);
+    let t390 = j2_inv_m * t374;
+    let t391 = j2_inv_m * t388;
+    // cos(θ2 + φ3)
+    let c23_mp = j3_cos_mp * t390 - j3_sin_mp * t391;
+    // sin(θ2 + φ3)
+    let s23_mp = j3_cos_mp * t391 + j3_sin_mp * t390;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t1023 = j1_cos_m * (g6_x + t512)
+        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t1024 = t513
+        + (j1_cos_m * (g6_y - t513)
+            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t1025 = t514
+        + (j1_cos_m * (g6_z - t514)
+            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1035 = j1_cos_m * (gx_x + t544)
+        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t1036 = t545
+        + (j1_cos_m * (gx_y - t545)
+            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t1037 = t546
+        + (j1_cos_m * (gx_z - t546)
+            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t1042 = 0.5881251211149515 * t1025
+        + (0.7712839289086363 * t1023 + 0.24337202575641612 * t1024);
+    let t1043 = 0.7712839289086363 * t1042;
+    let t1044 = 0.24337202575641612 * t1042;
+    let t1045 = 0.5881251211149515 * t1042;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1043
+        + (c23_mp * (t1023 - t1043)
+            - s23_mp * (0.24337202575641612 * t1025 - 0.5881251211149515 * t1024));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1044
+        + (c23_mp * (t1024 - t1044)
+            - s23_mp * (0.5881251211149515 * t1023 - 0.7712839289086363 * t1025));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t1045
+        + (c23_mp * (t1025 - t1045)
+            - s23_mp * (0.7712839289086363 * t1024 - 0.24337202575641612 * t1023));
+    let t1074 = 0.5881251211149515 * t1037
+        + (0.7712839289086363 * t1035 + 0.24337202575641612 * t1036);
+    let t1075 = 0.7712839289086363 * t1074;
+    let t1076 = 0.24337202575641612 * t1074;
+    let t1077 = 0.5881251211149515 * t1074;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1075
+        + (c23_mp * (t1035 - t1075)
+            - s23_mp * (0.24337202575641612 * t1037 - 0.5881251211149515 * t1036));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1076
+        + (c23_mp * (t1036 - t1076)
+            - s23_mp * (0.5881251211149515 * t1035 - 0.7712839289086363 * t1037));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t1077
+        + (c23_mp * (t1037 - t1077)
+            - s23_mp * (0.7712839289086363 * t1036 - 0.24337202575641612 * t1035));
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.35735915230664755 * v_b3_z
+        + (0.6808066319245298 * v_b3_x + 0.6393721656361435 * v_b3_y);
+    let t1109 = 0.6393721656361435 * v_b3_z - 0.35735915230664755 * v_b3_y;
+    let t1112 = 0.35735915230664755 * v_b3_x - 0.6808066319245298 * v_b3_z;
+    let t1115 = 0.6808066319245298 * v_b3_y - 0.6393721656361435 * v_b3_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1115 * t1115 + (t1109 * t1109 + t1112 * t1112);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(j5_gap_b3.max(0.0));
+    let t1126 = 0.5597405258783723 * j5_gamma_b3;
+    let t1127 = 0.13945989068616807 * j5_gamma_b3;
+    let t1128 = 0.816848506504851 * j5_gamma_b3;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3p_x = 0.6808066319245298 * j5_a_b3 - t1126;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3p_y = 0.6393721656361435 * j5_a_b3 + t1127;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3p_z = 0.35735915230664755 * j5_a_b3 + t1128;
+    let t1136 = 0.8022793632742343 * z_b3p_z
+        + (0.1540763211009523 * z_b3p_x + 0.5767220392357877 * z_b3p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3p = -t1136;
+    let t1149 = 0.45282773069178184
+        * (0.5767220392357884 * z_b3p_x - 0.15407632110095185 * z_b3p_y);
+    let t1150 = 0.7561442803457222
+        * (0.15407632110095185 * z_b3p_z - 0.8022793632742339 * z_b3p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b3p_y - 0.5767220392357884 * z_b3p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3p = t1150 - t1149;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let t1173 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b3_z * t1128 + (v_b3_y * t1127 - v_b3_x * t1126)) * t1173
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b3_z * t1127 - v_b3_y * t1128)
+            + 0.6393721656361435 * (v_b3_x * t1128 + v_b3_z * t1126)
+            - 0.35735915230664755 * (v_b3_y * t1126 + v_b3_x * t1127)) * t1173
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let t1184 = 0.35735915230664755 * xv_b3_z
+        + (0.6808066319245298 * xv_b3_x + 0.6393721656361435 * xv_b3_y);
+    let t1185 = 0.6808066319245298 * t1184;
+    let t1186 = 0.6393721656361435 * t1184;
+    let t1187 = 0.35735915230664755 * t1184;
+    let t1209 = t1185
+        + (j4_cos_b3p * (xv_b3_x - t1185)
+            - j4_sin_b3p
+                * (0.6393721656361435 * xv_b3_z - 0.35735915230664755 * xv_b3_y));
+    let t1210 = t1186
+        + (j4_cos_b3p * (xv_b3_y - t1186)
+            - j4_sin_b3p
+                * (0.35735915230664755 * xv_b3_x - 0.6808066319245298 * xv_b3_z));
+    let t1211 = t1187
+        + (j4_cos_b3p * (xv_b3_z - t1187)
+            - j4_sin_b3p
+                * (0.6808066319245298 * xv_b3_y - 0.6393721656361435 * xv_b3_x));
+    let t1212 = t1149 - t1150;
+    let t1217 = 0.7561442803457222 * t1210 - 0.4724329302842692 * t1209
+        - 0.45282773069178184 * t1211;
+    let t1218 = 0.4724329302842692 * t1217;
+    let t1219 = 0.7561442803457222 * t1217;
+    let t1220 = 0.45282773069178184 * t1217;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3p_x = t1212 * (0.7561442803457222 * t1211 + 0.45282773069178184 * t1210)
+        - t1136 * (t1209 + t1218) - t1218;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b3p_y = t1219
+        + (t1212 * (0.4724329302842692 * t1211 - 0.45282773069178184 * t1209)
+            - t1136 * (t1210 - t1219));
+    let t1244 = t1220
+        + (t1136 * (t1211 + t1220)
+            + t1212 * (0.4724329302842692 * t1210 + 0.7561442803457222 * t1209));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b3p_y + 0.089933105880942 * y6_b3p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t1244 + 0.12510615168971864 * y6_b3p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t1244 - 0.12510615168971864 * y6_b3p_x))),
+        0.12510615168971864 * t1244
+            + (0.988058949292 * y6_b3p_x - 0.089933105880942 * y6_b3p_y),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.43463 rad (aligned position)
+    let q5_b3m = -4.869259549848829 - q5_b3p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Down,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b3 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 7 alone (shoulder back, elbow up, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_7(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t205 = 0.5881251211149515 * w_m_z
+        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
+    let t209 = w_m_x - 0.7712839289086363 * t205;
+    let t210 = w_m_y - 0.24337202575641612 * t205;
+    let t211 = w_m_z - 0.5881251211149515 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_m - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_mm = 0.4071777476800675 * j3_cos_psi_m
+        + 0.9133489375885797 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mm = 0.9133489375885797 * j3_cos_psi_m
+        - 0.4071777476800675 * j3_sin_psi_m;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let t410 = 0.29618845398521326 * j3_cos_mm + 0.2631411817706989 * j3_sin_mm
+        + 0.292065217972989;
+    let t411 = 0.5192451277093607 * j3_cos_mm - 0.3080607744485827 * j3_sin_mm
+        - 0.05659539424856903;
+    let t412 = 0.17356112199186785 * j3_cos_mm + 0.4725694062183847 * j3_sin_mm
+        + 0.4064423300085499;
+    let t417 = w_m_z * t412 + (w_m_y * t411 - w_m_x * t410);
+    let t431 = 0.7712839289086363 * (w_m_z * t411 - w_m_y * t412)
+        + 0.24337202575641612 * (w_m_x * t412 + w_m_z * t410)
+        - 0.5881251211149515 * (w_m_y * t410 + w_m_x * t411);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mm = ::armforge_runtime::math::atan2(t431, t417);
+    let t433 = j2_inv_m * t417;
+    let t434 = j2_inv_m * t431;
+    // cos(θ2 + φ3)
+    let c23_mm = j3_cos_mm * t433 - j3_sin_mm * t434;
+    // sin(θ2 + φ3)
+    let s23_mm = j3_cos_mm * t434 + j3_sin_mm * t433;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t1023 = j1_cos_m * (g6_x + t512)
+        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t1024 = t513
+        + (j1_cos_m * (g6_y - t513)
+            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t1025 = t514
+        + (j1_cos_m * (g6_z - t514)
+            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1035 = j1_cos_m * (gx_x + t544)
+        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t1036 = t545
+        + (j1_cos_m * (gx_y - t545)
+            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t1037 = t546
+        + (j1_cos_m * (gx_z - t546)
+            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t1042 = 0.5881251211149515 * t1025
+        + (0.7712839289086363 * t1023 + 0.24337202575641612 * t1024);
+    let t1043 = 0.7712839289086363 * t1042;
+    let t1044 = 0.24337202575641612 * t1042;
+    let t1045 = 0.5881251211149515 * t1042;
+    let t1074 = 0.5881251211149515 * t1037
+        + (0.7712839289086363 * t1035 + 0.24337202575641612 * t1036);
+    let t1075 = 0.7712839289086363 * t1074;
+    let t1076 = 0.24337202575641612 * t1074;
+    let t1077 = 0.5881251211149515 * t1074;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1043
+        + (c23_mm * (t1023 - t1043)
+            - s23_mm * (0.24337202575641612 * t1025 - 0.5881251211149515 * t1024));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1044
+        + (c23_mm * (t1024 - t1044)
+            - s23_mm * (0.5881251211149515 * t1023 - 0.7712839289086363 * t1025));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t1045
+        + (c23_mm * (t1025 - t1045)
+            - s23_mm * (0.7712839289086363 * t1024 - 0.24337202575641612 * t1023));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1075
+        + (c23_mm * (t1035 - t1075)
+            - s23_mm * (0.24337202575641612 * t1037 - 0.5881251211149515 * t1036));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1076
+        + (c23_mm * (t1036 - t1076)
+            - s23_mm * (0.5881251211149515 * t1035 - 0.7712839289086363 * t1037));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t1077
+        + (c23_mm * (t1037 - t1077)
+            - s23_mm * (0.7712839289086363 * t1036 - 0.24337202575641612 * t1035));
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.35735915230664755 * v_b4_z
+        + (0.6808066319245298 * v_b4_x + 0.6393721656361435 * v_b4_y);
+    let t1300 = 0.6393721656361435 * v_b4_z - 0.35735915230664755 * v_b4_y;
+    let t1303 = 0.35735915230664755 * v_b4_x - 0.6808066319245298 * v_b4_z;
+    let t1306 = 0.6808066319245298 * v_b4_y - 0.6393721656361435 * v_b4_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1306 * t1306 + (t1300 * t1300 + t1303 * t1303);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(j5_gap_b4.max(0.0));
+    let t1317 = 0.5597405258783723 * j5_gamma_b4;
+    let t1318 = 0.13945989068616807 * j5_gamma_b4;
+    let t1319 = 0.816848506504851 * j5_gamma_b4;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4p_x = 0.6808066319245298 * j5_a_b4 - t1317;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4p_y = 0.6393721656361435 * j5_a_b4 + t1318;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4p_z = 0.35735915230664755 * j5_a_b4 + t1319;
+    let t1327 = 0.8022793632742343 * z_b4p_z
+        + (0.1540763211009523 * z_b4p_x + 0.5767220392357877 * z_b4p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4p = -t1327;
+    let t1340 = 0.45282773069178184
+        * (0.5767220392357884 * z_b4p_x - 0.15407632110095185 * z_b4p_y);
+    let t1341 = 0.7561442803457222
+        * (0.15407632110095185 * z_b4p_z - 0.8022793632742339 * z_b4p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b4p_y - 0.5767220392357884 * z_b4p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4p = t1341 - t1340;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let t1364 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b4_z * t1319 + (v_b4_y * t1318 - v_b4_x * t1317)) * t1364
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b4_z * t1318 - v_b4_y * t1319)
+            + 0.6393721656361435 * (v_b4_x * t1319 + v_b4_z * t1317)
+            - 0.35735915230664755 * (v_b4_y * t1317 + v_b4_x * t1318)) * t1364
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let t1375 = 0.35735915230664755 * xv_b4_z
+        + (0.6808066319245298 * xv_b4_x + 0.6393721656361435 * xv_b4_y);
+    let t1376 = 0.6808066319245298 * t1375;
+    let t1377 = 0.6393721656361435 * t1375;
+    let t1378 = 0.35735915230664755 * t1375;
+    let t1400 = t1376
+        + (j4_cos_b4p * (xv_b4_x - t1376)
+            - j4_sin_b4p
+                * (0.6393721656361435 * xv_b4_z - 0.35735915230664755 * xv_b4_y));
+    let t1401 = t1377
+        + (j4_cos_b4p * (xv_b4_y - t1377)
+            - j4_sin_b4p
+                * (0.35735915230664755 * xv_b4_x - 0.6808066319245298 * xv_b4_z));
+    let t1402 = t1378
+        + (j4_cos_b4p * (xv_b4_z - t1378)
+            - j4_sin_b4p
+                * (0.6808066319245298 * xv_b4_y - 0.6393721656361435 * xv_b4_x));
+    let t1403 = t1340 - t1341;
+    let t1408 = 0.7561442803457222 * t1401 - 0.4724329302842692 * t1400
+        - 0.45282773069178184 * t1402;
+    let t1409 = 0.4724329302842692 * t1408;
+    let t1410 = 0.7561442803457222 * t1408;
+    let t1411 = 0.45282773069178184 * t1408;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4p_x = t1403 * (0.7561442803457222 * t1402 + 0.45282773069178184 * t1401)
+        - t1327 * (t1400 + t1409) - t1409;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b4p_y = t1410
+        + (t1403 * (0.4724329302842692 * t1402 - 0.45282773069178184 * t1400)
+            - t1327 * (t1401 - t1410));
+    let t1435 = t1411
+        + (t1327 * (t1402 + t1411)
+            + t1403 * (0.4724329302842692 * t1401 + 0.7561442803457222 * t1400));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b4p_y + 0.089933105880942 * y6_b4p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t1435 + 0.12510615168971864 * y6_b4p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t1435 - 0.12510615168971864 * y6_b4p_x))),
+        0.12510615168971864 * t1435
+            + (0.988058949292 * y6_b4p_x - 0.089933105880942 * y6_b4p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b4 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 8 alone (shoulder back, elbow up, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_8(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t39 = px
+        - (0.11780017144694574 * r02
+            + (0.13681253900654947 * r00 + 0.10052049241230045 * r01))
+        - 0.9952394067927088;
+    let t40 = py
+        - (0.11780017144694574 * r12
+            + (0.13681253900654947 * r10 + 0.10052049241230045 * r11))
+        + 0.6613976333511493;
+    let t42 = pz
+        - (0.11780017144694574 * r22
+            + (0.13681253900654947 * r20 + 0.10052049241230045 * r21))
+        - 0.9158300892120408;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (x)
+    let wc_x = 0.24302023525437577 * t39 - 0.8560607776146506 * t40
+        - 0.4561810060564858 * t42;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (y)
+    let wc_y = 0.775398453919772 * t42
+        + (0.5805710860490257 * t39 - 0.24838367841442807 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.136813, -0.10052, -0.1178) m (z)
+    let wc_z = 0.43664187542208954 * t42
+        - (0.7770961197308622 * t39 + 0.4532830168086135 * t40);
+    // u = c_t − p1 (x)
+    let u_x = wc_x - 0.05174928778435288;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.10106495215777812;
+    // u = c_t − p1 (z)
+    let u_z = wc_z + 0.16109142656675932;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.6412933772193412 * u_z
+        + (0.5374080868693032 * u_x + 0.4478727754046078 * u_y);
+    // b = (h1 × h2) · u
+    let j1_b = 0.34053123949945474 * u_x + 0.5665013041999709 * u_y
+        - 0.6810061803766807 * u_z;
+    let t96 = 0.16868586344770164 * u_z
+        + (0.6488154409724827 * u_y - 0.7420132094704153 * u_x);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = -0.294579 − -0.315191 (h1·u)
+    let j1_e = 0.3151909414203736 * t96 - 0.2945787198577709;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7420132094704153 * t96;
+    let t134 = 0.6488154409724827 * t96;
+    let t135 = 0.16868586344770164 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = j1_cos_m * (u_x + t133)
+        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+        + 0.047205987790423634;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+        + 0.10530382379899798;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+        - 0.15688730162376116;
+    let t205 = 0.5881251211149515 * w_m_z
+        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
+    let t209 = w_m_x - 0.7712839289086363 * t205;
+    let t210 = w_m_y - 0.24337202575641612 * t205;
+    let t211 = w_m_z - 0.5881251211149515 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
+    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_m - 0.6411670638136766),
+        -1.0,
+        1.0,
+    );
+    // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
+    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    );
+    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    let j2_inv_m = 1.0
+        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+            .max(2.5830917772457932e-20);
+    // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
+    let j3_cos_mm = 0.4071777476800675 * j3_cos_psi_m
+        + 0.9133489375885797 * j3_sin_psi_m;
+    // sin φ3 = sin(φ0 ± ψ)
+    let j3_sin_mm = 0.9133489375885797 * j3_cos_psi_m
+        - 0.4071777476800675 * j3_sin_psi_m;
+    // θ3 = 1 atan2(sin φ3, cos φ3)
+    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let t410 = 0.29618845398521326 * j3_cos_mm + 0.2631411817706989 * j3_sin_mm
+        + 0.292065217972989;
+    let t411 = 0.5192451277093607 * j3_cos_mm - 0.3080607744485827 * j3_sin_mm
+        - 0.05659539424856903;
+    let t412 = 0.17356112199186785 * j3_cos_mm + 0.4725694062183847 * j3_sin_mm
+        + 0.4064423300085499;
+    let t417 = w_m_z * t412 + (w_m_y * t411 - w_m_x * t410);
+    let t431 = 0.7712839289086363 * (w_m_z * t411 - w_m_y * t412)
+        + 0.24337202575641612 * (w_m_x * t412 + w_m_z * t410)
+        - 0.5881251211149515 * (w_m_y * t410 + w_m_x * t411);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
+    let q2_mm = ::armforge_runtime::math::atan2(t431, t417);
+    let t433 = j2_inv_m * t417;
+    let t434 = j2_inv_m * t431;
+    // cos(θ2 + φ3)
+    let c23_mm = j3_cos_mm * t433 - j3_sin_mm * t434;
+    // sin(θ2 + φ3)
+    let s23_mm = j3_cos_mm * t434 + j3_sin_mm * t433;
+    let t448 = 0.7429579260868081 * r02
+        + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
+    let t453 = 0.7429579260868081 * r12
+        + (0.04200107736461299 * r10 + 0.6680190338343667 * r11);
+    let t458 = 0.7429579260868081 * r22
+        + (0.04200107736461299 * r20 + 0.6680190338343667 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (x)
+    let g6_x = 0.4561810060564858 * t458
+        + (0.8560607776146506 * t453 - 0.24302023525437577 * t448);
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (y)
+    let g6_y = 0.24838367841442807 * t453 - 0.5805710860490257 * t448
+        - 0.775398453919772 * t458;
+    // rot(B⁻¹ T M⁻¹) (-0.154076, -0.576722, -0.802279) : where the target sends this wrist direction (z)
+    let g6_z = 0.7770961197308622 * t448 + 0.4532830168086135 * t453
+        - 0.43664187542208954 * t458;
+    let t481 = 0.9340952781375492 * r00 + 0.23762256203784815 * r01
+        - 0.26646112168889374 * r02;
+    let t486 = 0.9340952781375492 * r10 + 0.23762256203784815 * r11
+        - 0.26646112168889374 * r12;
+    let t491 = 0.9340952781375492 * r20 + 0.23762256203784815 * r21
+        - 0.26646112168889374 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (x)
+    let gx_x = 0.24302023525437577 * t481 - 0.8560607776146506 * t486
+        - 0.4561810060564858 * t491;
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (y)
+    let gx_y = 0.775398453919772 * t491
+        + (0.5805710860490257 * t481 - 0.24838367841442807 * t486);
+    // rot(B⁻¹ T M⁻¹) (0.988059, -0.089933, -0.125106) : where the target sends this wrist direction (z)
+    let gx_z = 0.43664187542208954 * t491
+        - (0.7770961197308622 * t481 + 0.4532830168086135 * t486);
+    let t511 = 0.16868586344770164 * g6_z
+        + (0.6488154409724827 * g6_y - 0.7420132094704153 * g6_x);
+    let t512 = 0.7420132094704153 * t511;
+    let t513 = 0.6488154409724827 * t511;
+    let t514 = 0.16868586344770164 * t511;
+    let t543 = 0.16868586344770164 * gx_z
+        + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
+    let t544 = 0.7420132094704153 * t543;
+    let t545 = 0.6488154409724827 * t543;
+    let t546 = 0.16868586344770164 * t543;
+    let t1023 = j1_cos_m * (g6_x + t512)
+        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t512;
+    let t1024 = t513
+        + (j1_cos_m * (g6_y - t513)
+            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+    let t1025 = t514
+        + (j1_cos_m * (g6_z - t514)
+            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1035 = j1_cos_m * (gx_x + t544)
+        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t544;
+    let t1036 = t545
+        + (j1_cos_m * (gx_y - t545)
+            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+    let t1037 = t546
+        + (j1_cos_m * (gx_z - t546)
+            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+    let t1042 = 0.5881251211149515 * t1025
+        + (0.7712839289086363 * t1023 + 0.24337202575641612 * t1024);
+    let t1043 = 0.7712839289086363 * t1042;
+    let t1044 = 0.24337202575641612 * t1042;
+    let t1045 = 0.5881251211149515 * t1042;
+    let t1074 = 0.5881251211149515 * t1037
+        + (0.7712839289086363 * t1035 + 0.24337202575641612 * t1036);
+    let t1075 = 0.7712839289086363 * t1074;
+    let t1076 = 0.24337202575641612 * t1074;
+    let t1077 = 0.5881251211149515 * t1074;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1043
+        + (c23_mm * (t1023 - t1043)
+            - s23_mm * (0.24337202575641612 * t1025 - 0.5881251211149515 * t1024));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1044
+        + (c23_mm * (t1024 - t1044)
+            - s23_mm * (0.5881251211149515 * t1023 - 0.7712839289086363 * t1025));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t1045
+        + (c23_mm * (t1025 - t1045)
+            - s23_mm * (0.7712839289086363 * t1024 - 0.24337202575641612 * t1023));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1075
+        + (c23_mm * (t1035 - t1075)
+            - s23_mm * (0.24337202575641612 * t1037 - 0.5881251211149515 * t1036));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1076
+        + (c23_mm * (t1036 - t1076)
+            - s23_mm * (0.5881251211149515 * t1035 - 0.7712839289086363 * t1037));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t1077
+        + (c23_mm * (t1037 - t1077)
+            - s23_mm * (0.7712839289086363 * t1036 - 0.24337202575641612 * t1035));
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.35735915230664755 * v_b4_z
+        + (0.6808066319245298 * v_b4_x + 0.6393721656361435 * v_b4_y);
+    let t1300 = 0.6393721656361435 * v_b4_z - 0.35735915230664755 * v_b4_y;
+    let t1303 = 0.35735915230664755 * v_b4_x - 0.6808066319245298 * v_b4_z;
+    let t1306 = 0.6808066319245298 * v_b4_y - 0.6393721656361435 * v_b4_x;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1306 * t1306 + (t1300 * t1300 + t1303 * t1303);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(j5_gap_b4.max(0.0));
+    let t1317 = 0.5597405258783723 * j5_gamma_b4;
+    let t1318 = 0.13945989068616807 * j5_gamma_b4;
+    let t1319 = 0.816848506504851 * j5_gamma_b4;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4p_x = 0.6808066319245298 * j5_a_b4 - t1317;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4p_y = 0.6393721656361435 * j5_a_b4 + t1318;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4p_z = 0.35735915230664755 * j5_a_b4 + t1319;
+    let t1327 = 0.8022793632742343 * z_b4p_z
+        + (0.1540763211009523 * z_b4p_x + 0.5767220392357877 * z_b4p_y);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4p = -t1327;
+    let t1340 = 0.45282773069178184
+        * (0.5767220392357884 * z_b4p_x - 0.15407632110095185 * z_b4p_y);
+    let t1341 = 0.7561442803457222
+        * (0.15407632110095185 * z_b4p_z - 0.8022793632742339 * z_b4p_x)
+        - 0.4724329302842692
+            * (0.8022793632742339 * z_b4p_y - 0.5767220392357884 * z_b4p_z);
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4p = t1341 - t1340;
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let t1364 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+        ref4_cos
+    } else {
+        (v_b4_z * t1319 + (v_b4_y * t1318 - v_b4_x * t1317)) * t1364
+    };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+        ref4_sin
+    } else {
+        (0.6808066319245298 * (v_b4_z * t1318 - v_b4_y * t1319)
+            + 0.6393721656361435 * (v_b4_x * t1319 + v_b4_z * t1317)
+            - 0.35735915230664755 * (v_b4_y * t1317 + v_b4_x * t1318)) * t1364
+    };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let t1375 = 0.35735915230664755 * xv_b4_z
+        + (0.6808066319245298 * xv_b4_x + 0.6393721656361435 * xv_b4_y);
+    let t1376 = 0.6808066319245298 * t1375;
+    let t1377 = 0.6393721656361435 * t1375;
+    let t1378 = 0.35735915230664755 * t1375;
+    let t1400 = t1376
+        + (j4_cos_b4p * (xv_b4_x - t1376)
+            - j4_sin_b4p
+                * (0.6393721656361435 * xv_b4_z - 0.35735915230664755 * xv_b4_y));
+    let t1401 = t1377
+        + (j4_cos_b4p * (xv_b4_y - t1377)
+            - j4_sin_b4p
+                * (0.35735915230664755 * xv_b4_x - 0.6808066319245298 * xv_b4_z));
+    let t1402 = t1378
+        + (j4_cos_b4p * (xv_b4_z - t1378)
+            - j4_sin_b4p
+                * (0.6808066319245298 * xv_b4_y - 0.6393721656361435 * xv_b4_x));
+    let t1403 = t1340 - t1341;
+    let t1408 = 0.7561442803457222 * t1401 - 0.4724329302842692 * t1400
+        - 0.45282773069178184 * t1402;
+    let t1409 = 0.4724329302842692 * t1408;
+    let t1410 = 0.7561442803457222 * t1408;
+    let t1411 = 0.45282773069178184 * t1408;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4p_x = t1403 * (0.7561442803457222 * t1402 + 0.45282773069178184 * t1401)
+        - t1327 * (t1400 + t1409) - t1409;
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b4p_y = t1410
+        + (t1403 * (0.4724329302842692 * t1402 - 0.45282773069178184 * t1400)
+            - t1327 * (t1401 - t1410));
+    let t1435 = t1411
+        + (t1327 * (t1402 + t1411)
+            + t1403 * (0.4724329302842692 * t1401 + 0.7561442803457222 * t1400));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4p = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b4p_y + 0.089933105880942 * y6_b4p_x)
+            + (0.15407632110095185
+                * (0.089933105880942 * t1435 + 0.12510615168971864 * y6_b4p_y)
+                + 0.5767220392357884
+                    * (0.988058949292 * t1435 - 0.12510615168971864 * y6_b4p_x))),
+        0.12510615168971864 * t1435
+            + (0.988058949292 * y6_b4p_x - 0.089933105880942 * y6_b4p_y),
+    );
+    // θ4 + π (mirror wrist branch)
+    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    // 2 θa − θ5, θa = -2.43463 rad (aligned position)
+    let q5_b4m = -4.869259549848829 - q5_b4p;
+    // θ6 + π (mirror wrist branch)
+    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Up,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
+                have_squared: d2_m,
+                limit: 1.1261550290353073,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.11878121992065782,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b4 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
 }
 #[cfg(test)]
 mod tests {

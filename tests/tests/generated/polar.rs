@@ -4,6 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: polar with a spherical wrist; 8 candidate branches, at most 8 solutions.
 // Cost of one solve: 15 sqrt, 30 atan2, 11 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 4 sqrt, 5 atan2, 3 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -71,8 +72,9 @@ pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [
         limits: [-::core::f64::consts::PI, ::core::f64::consts::PI],
     },
 ];
-/// The base frame in the world.
+/// The base frame in the world (folded into `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -85,8 +87,10 @@ pub const BASE: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     ],
     translation: [-0.5795266030280415, 0.832995122054119, 0.6567806392209417],
 };
-/// The tool frame in the base frame with every model value at zero.
+/// The tool frame in the base frame with every model value at zero (folded into
+/// `forward`; kept for callers).
 #[allow(
+    dead_code,
     clippy::approx_constant,
     clippy::excessive_precision,
     clippy::unreadable_literal
@@ -146,9 +150,235 @@ const ZERO_REFERENCE: [f64; 4] = [
     0.6031178219208729,
     0.7976521126916309,
 ];
-/// Forward kinematics: the tool pose in the world for joint values (SI units).
+/// Forward kinematics: the tool pose in the world for joint values (SI units). The
+/// product of exponentials with this arm's axes, base and tool folded in: one
+/// `sin_cos` per revolute joint.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
 pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
-    ::armforge_runtime::forward(&JOINT_TABLE, &BASE, &TOOL, joints)
+    let (s1, c1) = ::armforge_runtime::math::sin_cos(-joints[0] + 0.9689750312557981);
+    let (s2, c2) = ::armforge_runtime::math::sin_cos(joints[1] - 0.9152407202519195);
+    let d3 = -joints[2] + 0.02348083669101908;
+    let (s4, c4) = ::armforge_runtime::math::sin_cos(joints[3] + 0.9233922181705687);
+    let (s5, c5) = ::armforge_runtime::math::sin_cos(-joints[4] - 0.8372665027925441);
+    let (s6, c6) = ::armforge_runtime::math::sin_cos(-joints[5] + 0.49417602456623433);
+    let t14 = 0.3668278189589729 * c1 + 0.6331721810410271;
+    let t16 = 0.44054917302907515 * c1;
+    let t18 = 0.2455648081179022 * s1;
+    let t20 = 0.44054917302907515 - (t16 + t18);
+    let t23 = 0.19540111652744943 * c1;
+    let t24 = 0.553647671333485 * s1;
+    let t26 = t24 - t23 + 0.19540111652744943;
+    let t32 = 0.12107082938914343 * c1 + 0.005628753338095049 * s1 - 0.12107082938914343;
+    let t34 = t18 - t16 + 0.44054917302907515;
+    let t38 = 0.6934742560270093 * c1 + 0.30652574397299065;
+    let t40 = 0.13595638417593064 * c1;
+    let t42 = 0.7957211704114873 * s1;
+    let t44 = 0.13595638417593064 - (t40 + t42);
+    let t50 = 0.07428823810766025 * s1 - 0.14917046818868374 * c1 + 0.14917046818868374;
+    let t52 = 0.19540111652744943 - (t23 + t24);
+    let t54 = t42 - t40 + 0.13595638417593064;
+    let t58 = 0.9396979250140178 * c1 + 0.06030207498598213;
+    let t64 = 0.055996377596687755
+        - (0.055996377596687755 * c1 + 0.18572868229564188 * s1);
+    let t70 = 0.5366051090545466 * t14 + 0.33722370156285647 * t34
+        - 0.7735212550672437 * t52;
+    let t75 = 0.5366051090545466 * t20 + 0.33722370156285647 * t38
+        - 0.7735212550672437 * t54;
+    let t80 = 0.5366051090545466 * t26 + 0.33722370156285647 * t44
+        - 0.7735212550672437 * t58;
+    let t93 = 0.06011831507188942 * t52
+        + (0.8819112023028204 * t34 - 0.46756648665800565 * t14);
+    let t98 = 0.06011831507188942 * t54
+        + (0.8819112023028204 * t38 - 0.46756648665800565 * t20);
+    let t103 = 0.06011831507188942 * t58
+        + (0.8819112023028204 * t44 - 0.46756648665800565 * t26);
+    let t114 = 0.6309125582456838 * t52
+        + (0.7024503808034039 * t14 + 0.3294128205717553 * t34);
+    let t119 = 0.6309125582456838 * t54
+        + (0.7024503808034039 * t20 + 0.3294128205717553 * t38);
+    let t124 = 0.6309125582456838 * t58
+        + (0.7024503808034039 * t26 + 0.3294128205717553 * t44);
+    let t136 = 0.15479802101214368 * c2 + 0.8452019789878563;
+    let t139 = 0.20629043460221314 * c2;
+    let t140 = 0.32318451312347624 * s2;
+    let t142 = t140 - t139 + 0.20629043460221314;
+    let t145 = 0.2971192526486591 * c2;
+    let t146 = 0.22438759210189282 * s2;
+    let t148 = t145 + t146 - 0.2971192526486591;
+    let t154 = 0.025564968521076675
+        - (0.025564968521076675 * c2 + 0.16754377202938076 * s2);
+    let t156 = 0.20629043460221314 - (t139 + t140);
+    let t160 = 0.9496502085107146 * c2 + 0.050349791489285436;
+    let t162 = 0.0725185947044 * c2;
+    let t164 = 0.919348671064388 * s2;
+    let t166 = t162 - t164 - 0.0725185947044;
+    let t172 = 0.2766500448218046 * s2 - 0.31572589626030934 * c2 + 0.31572589626030934;
+    let t174 = t145 - t146 - 0.2971192526486591;
+    let t176 = t162 + t164 - 0.0725185947044;
+    let t180 = 0.8955517704771416 * c2 + 0.10444822952285839;
+    let t186 = 0.2919325946341706 - (0.2919325946341706 * c2 + 0.2845257214189231 * s2);
+    let t191 = t80 * t174 + (t70 * t136 + t75 * t156);
+    let t196 = t80 * t176 + (t70 * t142 + t75 * t160);
+    let t201 = t80 * t180 + (t70 * t148 + t75 * t166);
+    let t212 = t103 * t174 + (t93 * t136 + t98 * t156);
+    let t217 = t103 * t176 + (t93 * t142 + t98 * t160);
+    let t222 = t103 * t180 + (t93 * t148 + t98 * t166);
+    let t233 = t124 * t174 + (t114 * t136 + t119 * t156);
+    let t238 = t124 * t176 + (t114 * t142 + t119 * t160);
+    let t243 = t124 * t180 + (t114 * t148 + t119 * t166);
+    let t252 = 0.37797065569255767 * d3;
+    let t254 = 0.7317961020620863 * d3;
+    let t256 = 0.5671090269446208 * d3;
+    let t280 = 0.6151768872624591 * c4 + 0.3848231127375409;
+    let t283 = 0.47767752119833207 * c4;
+    let t284 = 0.14913085300184115 * s4;
+    let t286 = t283 + t284 - 0.47767752119833207;
+    let t289 = 0.0925120012882 * c4;
+    let t290 = 0.7700239450467775 * s4;
+    let t292 = t290 - t289 + 0.0925120012882;
+    let t298 = 0.227375509301056 - (0.227375509301056 * c4 + 0.5030502164446522 * s4);
+    let t300 = t283 - t284 - 0.47767752119833207;
+    let t304 = 0.4070631240545973 * c4 + 0.5929368759454027;
+    let t307 = 0.11483432775666878 * c4;
+    let t308 = 0.620341126105259 * s4;
+    let t310 = t307 + t308 - 0.11483432775666878;
+    let t316 = 0.2985035383277387 - (0.2985035383277387 * c4 + 0.33549224791944793 * s4);
+    let t318 = 0.0925120012882 - (t289 + t290);
+    let t320 = t307 - t308 - 0.11483432775666878;
+    let t324 = 0.9777599886829432 * c4 + 0.022240011317056753;
+    let t330 = 0.36025860779165314 * s4 - 0.5954803510972813 * c4 + 0.5954803510972813;
+    let t335 = t201 * t318 + (t191 * t280 + t196 * t300);
+    let t340 = t201 * t320 + (t191 * t286 + t196 * t304);
+    let t345 = t201 * t324 + (t191 * t292 + t196 * t310);
+    let t356 = t222 * t318 + (t212 * t280 + t217 * t300);
+    let t361 = t222 * t320 + (t212 * t286 + t217 * t304);
+    let t366 = t222 * t324 + (t212 * t292 + t217 * t310);
+    let t377 = t243 * t318 + (t233 * t280 + t238 * t300);
+    let t382 = t243 * t320 + (t233 * t286 + t238 * t304);
+    let t387 = t243 * t324 + (t233 * t292 + t238 * t310);
+    let t399 = 0.8992079590219434 * c5 + 0.10079204097805664;
+    let t401 = 0.2984024931364459 * c5;
+    let t403 = 0.12555760611043656 * s5;
+    let t405 = 0.2984024931364459 - (t401 + t403);
+    let t408 = 0.039861730312265205 * c5;
+    let t409 = 0.9399166168175558 * s5;
+    let t411 = t409 - t408 + 0.039861730312265205;
+    let t417 = 0.10408506439513093
+        - (0.10408506439513093 * c5 + 0.5259914998750481 * s5);
+    let t419 = t403 - t401 + 0.2984024931364459;
+    let t423 = 0.11655675343023997 * c5 + 0.88344324656976;
+    let t425 = 0.11801368035103281 * c5;
+    let t427 = 0.3174776227989252 * s5;
+    let t429 = 0.11801368035103281 - (t425 + t427);
+    let t435 = 0.10798556140243644 * c5 + 0.16001693709483542 * s5 - 0.10798556140243644;
+    let t437 = 0.039861730312265205 - (t408 + t409);
+    let t439 = t427 - t425 + 0.11801368035103281;
+    let t443 = 0.9842352875478164 * c5 + 0.015764712452183537;
+    let t449 = 0.1321142809181618 * s5 - 0.5451899478337805 * c5 + 0.5451899478337805;
+    let t454 = t345 * t437 + (t335 * t399 + t340 * t419);
+    let t459 = t345 * t439 + (t335 * t405 + t340 * t423);
+    let t464 = t345 * t443 + (t335 * t411 + t340 * t429);
+    let t475 = t366 * t437 + (t356 * t399 + t361 * t419);
+    let t480 = t366 * t439 + (t356 * t405 + t361 * t423);
+    let t485 = t366 * t443 + (t356 * t411 + t361 * t429);
+    let t496 = t387 * t437 + (t377 * t399 + t382 * t419);
+    let t501 = t387 * t439 + (t377 * t405 + t382 * t423);
+    let t506 = t387 * t443 + (t377 * t411 + t382 * t429);
+    let t518 = 0.9931690564424936 * c6 + 0.0068309435575063;
+    let t520 = 0.02829088292164999 * c6;
+    let t522 = 0.935948806852255 * s6;
+    let t524 = t520 - t522 - 0.02829088292164999;
+    let t527 = 0.07735572190299794 * c6;
+    let t528 = 0.34229941191058744 * s6;
+    let t530 = t527 + t528 - 0.07735572190299794;
+    let t536 = 0.06327068405376822 * s6 - 0.28997196111592993 * c6 + 0.28997196111592993;
+    let t538 = t520 + t522 - 0.02829088292164999;
+    let t542 = 0.882831112605666 * c6 + 0.11716888739433401;
+    let t545 = 0.32037472616394286 * c6;
+    let t546 = 0.08264952242757546 * s6;
+    let t548 = t546 - t545 + 0.32037472616394286;
+    let t554 = 0.06788540542417335
+        - (0.06788540542417335 * c6 + 0.2714632778409928 * s6);
+    let t556 = t527 - t528 - 0.07735572190299794;
+    let t558 = 0.32037472616394286 - (t545 + t546);
+    let t562 = 0.1239998309518402 * c6 + 0.8760001690481598;
+    let t568 = 0.10486792809865284 * s6 - 0.0007787923273968374 * c6
+        + 0.0007787923273968374;
+    let t573 = t464 * t556 + (t454 * t518 + t459 * t538);
+    let t578 = t464 * t558 + (t454 * t524 + t459 * t542);
+    let t583 = t464 * t562 + (t454 * t530 + t459 * t548);
+    let t594 = t485 * t556 + (t475 * t518 + t480 * t538);
+    let t599 = t485 * t558 + (t475 * t524 + t480 * t542);
+    let t604 = t485 * t562 + (t475 * t530 + t480 * t548);
+    let t615 = t506 * t556 + (t496 * t518 + t501 * t538);
+    let t620 = t506 * t558 + (t496 * t524 + t501 * t542);
+    let t625 = t506 * t562 + (t496 * t530 + t501 * t548);
+    ::armforge_runtime::Pose {
+        rotation: [
+            [
+                0.8438324902119216 * t583
+                    + (0.3309970944466586 * t573 + 0.4223596239351209 * t578),
+                0.9009083286512836 * t578 - 0.25587612618098704 * t573
+                    - 0.3505589699570706 * t583,
+                0.4062697835741475 * t583
+                    - (0.9082776731366247 * t573 + 0.09988258825307839 * t578),
+            ],
+            [
+                0.8438324902119216 * t604
+                    + (0.3309970944466586 * t594 + 0.4223596239351209 * t599),
+                0.9009083286512836 * t599 - 0.25587612618098704 * t594
+                    - 0.3505589699570706 * t604,
+                0.4062697835741475 * t604
+                    - (0.9082776731366247 * t594 + 0.09988258825307839 * t599),
+            ],
+            [
+                0.8438324902119216 * t625
+                    + (0.3309970944466586 * t615 + 0.4223596239351209 * t620),
+                0.9009083286512836 * t620 - 0.25587612618098704 * t615
+                    - 0.3505589699570706 * t625,
+                0.4062697835741475 * t625
+                    - (0.9082776731366247 * t615 + 0.09988258825307839 * t620),
+            ],
+        ],
+        translation: [
+            0.5366051090545466 * t32 + 0.33722370156285647 * t50
+                - 0.7735212550672437 * t64 - 0.5795266030280415
+                + (t80 * t186 + (t70 * t154 + t75 * t172))
+                + (t201 * t256 + (t191 * t252 - t196 * t254))
+                + (t201 * t330 + (t191 * t298 + t196 * t316))
+                + (t345 * t449 + (t335 * t417 + t340 * t435))
+                + (t464 * t568 + (t454 * t536 + t459 * t554))
+                + (0.553331916623736 * t583
+                    + (0.20738128208870563 * t573 + 0.5049479527738362 * t578)),
+            0.06011831507188942 * t64
+                + (0.8819112023028204 * t50 - 0.46756648665800565 * t32)
+                + 0.832995122054119 + (t103 * t186 + (t93 * t154 + t98 * t172))
+                + (t222 * t256 + (t212 * t252 - t217 * t254))
+                + (t222 * t330 + (t212 * t298 + t217 * t316))
+                + (t366 * t449 + (t356 * t417 + t361 * t435))
+                + (t485 * t568 + (t475 * t536 + t480 * t554))
+                + (0.553331916623736 * t604
+                    + (0.20738128208870563 * t594 + 0.5049479527738362 * t599)),
+            0.6309125582456838 * t64
+                + (0.7024503808034039 * t32 + 0.3294128205717553 * t50)
+                + 0.6567806392209417 + (t124 * t186 + (t114 * t154 + t119 * t172))
+                + (t243 * t256 + (t233 * t252 - t238 * t254))
+                + (t243 * t330 + (t233 * t298 + t238 * t316))
+                + (t387 * t449 + (t377 * t417 + t382 * t435))
+                + (t506 * t568 + (t496 * t536 + t501 * t554))
+                + (0.553331916623736 * t625
+                    + (0.20738128208870563 * t615 + 0.5049479527738362 * t620)),
+        ],
+    }
 }
 /// Every solution within the joint limits (equivalent angles included), each with its
 /// branch label and flags; or none, with the reason. At a singular pose the free
@@ -164,8 +394,18 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
         CAPACITY,
     >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
 }
-/// The solution nearest to `current` (wrap-aware joint distance). At the wrist
-/// singularity joint 4 stays at its current value (joint 1 likewise on axis 1).
+/// The value each joint is wrapped toward by `solve_branch`: its range's center.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
+/// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
+/// when it has one away from singular poses, otherwise the nearest of every branch
+/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
+/// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
     target: &::armforge_runtime::Pose,
     current: &[f64; JOINTS],
@@ -174,13 +414,79 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    let anchor = ::armforge_runtime::internal::anchors_near(
+        &JOINT_TABLE,
+        current,
+        SETTINGS.limit_tolerance,
+    );
+    let reference = ZERO_REFERENCE;
+    let own = match branch_of(current) {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_1(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_2(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_3(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_4(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_5(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_6(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => ::core::option::Option::Some(branch_7(target, &reference)),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => ::core::option::Option::Some(branch_8(target, &reference)),
+        _ => ::core::option::Option::None,
+    };
+    if let ::core::option::Option::Some(candidate) = own {
+        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &candidate,
+            &anchor,
+        ) {
+            if !solution.flags.is_singular() {
+                return ::core::result::Result::Ok(solution);
+            }
+        }
+    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    ::armforge_runtime::internal::near::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &reference), current)
+    ::armforge_runtime::internal::nearest_candidate(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &reference),
+        current,
+        &anchor,
+    )
 }
-/// The one configuration of `branch` (among equivalent angles, the one nearest the
-/// centers of the joint ranges), or why there is none.
+/// The one configuration of `branch` (each joint whose range exceeds a turn at the
+/// equivalent angle nearest its range's center), or why there is none. Computes that
+/// branch alone.
 pub fn solve_branch(
     target: &::armforge_runtime::Pose,
     branch: ::armforge_runtime::Branch,
@@ -189,9 +495,60 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
-    ::armforge_runtime::internal::first_of_branch::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE), branch)
+    let reference = ZERO_REFERENCE;
+    let candidate = match branch {
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_1(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_2(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_3(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_4(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_5(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_6(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        } => branch_7(target, &reference),
+        ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        } => branch_8(target, &reference),
+        _ => {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::Unreachable::BranchUnavailable,
+            );
+        }
+    };
+    ::armforge_runtime::internal::finish_one(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidate,
+        &CENTERS,
+    )
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -1487,6 +1844,2878 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// The closed-form steps of branch 1 alone (shoulder front, slide extended, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_1(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
+        - 0.32318451312347624 * w_p_z;
+    let t177 = w_p_x - 0.919348671064388 * t173;
+    let t178 = w_p_y - 0.22438759210189282 * t173;
+    let t179 = w_p_z + 0.32318451312347624 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_p = ::armforge_runtime::math::sqrt(
+        (d2_p - 0.05565844753959191).max(0.0),
+    );
+    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_pp = j3_root_p - 0.2750702190093362;
+    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
+    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
+    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
+    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
+    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
+        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
+        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
+    let t260 = t224 * t244;
+    let t261 = t224 * t258;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t449 = t425
+        + (j1_cos_p * (g6_x - t425)
+            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t450 = t426
+        + (j1_cos_p * (g6_y - t426)
+            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t451 = t427
+        + (j1_cos_p * (g6_z - t427)
+            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t481 = t457
+        + (j1_cos_p * (gx_x - t457)
+            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t482 = t458
+        + (j1_cos_p * (gx_y - t458)
+            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t483 = t459
+        + (j1_cos_p * (gx_z - t459)
+            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
+        - 0.32318451312347624 * t451;
+    let t489 = 0.919348671064388 * t488;
+    let t490 = 0.22438759210189282 * t488;
+    let t491 = 0.32318451312347624 * t488;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t489
+        + (t260 * (t449 - t489)
+            - t261 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t490
+        + (t260 * (t450 - t490)
+            + t261 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t260 * (t451 + t491)
+        - t261 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
+    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
+        - 0.32318451312347624 * t483;
+    let t521 = 0.919348671064388 * t520;
+    let t522 = 0.22438759210189282 * t520;
+    let t523 = 0.32318451312347624 * t520;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t521
+        + (t260 * (t481 - t521)
+            - t261 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t522
+        + (t260 * (t482 - t522)
+            + t261 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t260 * (t483 + t523)
+        - t261 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
+        - 0.14913085300184115 * v_b1_z;
+    let t558 = j5_a_b1 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b1 = 1.3479901200256164 * t558;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
+    let t566 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t569 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t572 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t581 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t572 * t572 + (t566 * t566 + t569 * t569)
+        - 1.3479901200256164 * (t581 * t581);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b1).max(0.0),
+    );
+    let t597 = 0.3174776227989252 * j5_beta_b1;
+    let t598 = 0.9399166168175558 * j5_beta_b1;
+    let t599 = 0.12555760611043656 * j5_beta_b1;
+    let t602 = 0.2368529300043945 * j5_gamma_b1;
+    let t603 = 0.030542838068628286 * j5_gamma_b1;
+    let t605 = 0.8275343040933489 * j5_gamma_b1;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1p_x = t602 + (t597 - 0.8362137090354541 * t558);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1p_y = t603 + (1.0379846701062043 * t558 + t598);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1p_z = t599 - 0.2010269164374744 * t558 - t605;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1p = 1.2056566317887352
+        * (0.8840923826341479 * z_b1p_z
+            - (0.21377064521432798 * z_b1p_x + 0.04589463161448898 * z_b1p_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1p = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b1p_z - 0.935948806852255 * z_b1p_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b1p_x + 0.08264952242757546 * z_b1p_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let t641 = j5_alpha_b1 - j5_a_b1;
+    let t648 = t602 + (t597 - 0.620341126105259 * t641);
+    let t649 = t603 + (t598 + 0.7700239450467775 * t641);
+    let t650 = t599 - 0.14913085300184115 * t641 - t605;
+    let t655 = v_b1_z * t650 + (v_b1_x * t648 + v_b1_y * t649);
+    let t669 = 0.7700239450467775 * (v_b1_x * t650 - v_b1_z * t648)
+        - 0.620341126105259 * (v_b1_z * t649 - v_b1_y * t650)
+        - 0.14913085300184115 * (v_b1_y * t648 - v_b1_x * t649);
+    let t672 = t655 * t655 + t669 * t669;
+    let t676 = 1.0 / ::armforge_runtime::math::sqrt(t672.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1 = 1.0000000000000001e-40 - t672;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+        - 0.14913085300184115 * xv_b1_z;
+    let t688 = 0.620341126105259 * t687;
+    let t689 = 0.7700239450467775 * t687;
+    let t690 = 0.14913085300184115 * t687;
+    let t712 = j4_cos_b1p * (xv_b1_x + t688)
+        - j4_sin_b1p * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
+        - t688;
+    let t713 = t689
+        + (j4_cos_b1p * (xv_b1_y - t689)
+            - j4_sin_b1p
+                * (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x));
+    let t714 = j4_cos_b1p * (xv_b1_z + t690)
+        + j4_sin_b1p * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
+        - t690;
+    let t719 = 0.12555760611043656 * t714
+        + (0.3174776227989252 * t712 + 0.9399166168175558 * t713);
+    let t720 = 0.3174776227989252 * t719;
+    let t721 = 0.9399166168175558 * t719;
+    let t722 = 0.12555760611043656 * t719;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1p_x = t720
+        + (j5_cos_b1p * (t712 - t720)
+            - j5_sin_b1p * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1p_y = t721
+        + (j5_cos_b1p * (t713 - t721)
+            - j5_sin_b1p * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1p_z = t722
+        + (j5_cos_b1p * (t714 - t722)
+            - j5_sin_b1p * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1p = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b1p_y - 0.028388007507509954 * y6_b1p_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b1p_x - 0.9965786754905472 * y6_b1p_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b1p_z - 0.0776212895233 * y6_b1p_y)),
+        0.0776212895233 * y6_b1p_z
+            + (0.9965786754905472 * y6_b1p_x + 0.028388007507509954 * y6_b1p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 2 alone (shoulder front, slide extended, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_2(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
+        - 0.32318451312347624 * w_p_z;
+    let t177 = w_p_x - 0.919348671064388 * t173;
+    let t178 = w_p_y - 0.22438759210189282 * t173;
+    let t179 = w_p_z + 0.32318451312347624 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_p = ::armforge_runtime::math::sqrt(
+        (d2_p - 0.05565844753959191).max(0.0),
+    );
+    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_pp = j3_root_p - 0.2750702190093362;
+    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
+    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
+    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
+    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
+    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
+        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
+        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
+    let t260 = t224 * t244;
+    let t261 = t224 * t258;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t449 = t425
+        + (j1_cos_p * (g6_x - t425)
+            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t450 = t426
+        + (j1_cos_p * (g6_y - t426)
+            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t451 = t427
+        + (j1_cos_p * (g6_z - t427)
+            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t481 = t457
+        + (j1_cos_p * (gx_x - t457)
+            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t482 = t458
+        + (j1_cos_p * (gx_y - t458)
+            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t483 = t459
+        + (j1_cos_p * (gx_z - t459)
+            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
+        - 0.32318451312347624 * t451;
+    let t489 = 0.919348671064388 * t488;
+    let t490 = 0.22438759210189282 * t488;
+    let t491 = 0.32318451312347624 * t488;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b1_x = t489
+        + (t260 * (t449 - t489)
+            - t261 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b1_y = t490
+        + (t260 * (t450 - t490)
+            + t261 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b1_z = t260 * (t451 + t491)
+        - t261 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
+    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
+        - 0.32318451312347624 * t483;
+    let t521 = 0.919348671064388 * t520;
+    let t522 = 0.22438759210189282 * t520;
+    let t523 = 0.32318451312347624 * t520;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b1_x = t521
+        + (t260 * (t481 - t521)
+            - t261 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b1_y = t522
+        + (t260 * (t482 - t522)
+            + t261 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b1_z = t260 * (t483 + t523)
+        - t261 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    // a = h4 · v = h4 · z
+    let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
+        - 0.14913085300184115 * v_b1_z;
+    let t558 = j5_a_b1 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b1 = 1.3479901200256164 * t558;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
+    let t566 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t569 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t572 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t581 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b1 = t572 * t572 + (t566 * t566 + t569 * t569)
+        - 1.3479901200256164 * (t581 * t581);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b1).max(0.0),
+    );
+    let t597 = 0.3174776227989252 * j5_beta_b1;
+    let t598 = 0.9399166168175558 * j5_beta_b1;
+    let t599 = 0.12555760611043656 * j5_beta_b1;
+    let t602 = 0.2368529300043945 * j5_gamma_b1;
+    let t603 = 0.030542838068628286 * j5_gamma_b1;
+    let t605 = 0.8275343040933489 * j5_gamma_b1;
+    let t641 = j5_alpha_b1 - j5_a_b1;
+    let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+        - 0.14913085300184115 * xv_b1_z;
+    let t688 = 0.620341126105259 * t687;
+    let t689 = 0.7700239450467775 * t687;
+    let t690 = 0.14913085300184115 * t687;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b1m_x = t597 - 0.8362137090354541 * t558 - t602;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b1m_y = 1.0379846701062043 * t558 + t598 - t603;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b1m_z = t605 + (t599 - 0.2010269164374744 * t558);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b1m = 1.2056566317887352
+        * (0.8840923826341479 * z_b1m_z
+            - (0.21377064521432798 * z_b1m_x + 0.04589463161448898 * z_b1m_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b1m = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b1m_z - 0.935948806852255 * z_b1m_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b1m_x + 0.08264952242757546 * z_b1m_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let t795 = t597 - 0.620341126105259 * t641 - t602;
+    let t796 = t598 + 0.7700239450467775 * t641 - t603;
+    let t797 = t605 + (t599 - 0.14913085300184115 * t641);
+    let t802 = v_b1_z * t797 + (v_b1_x * t795 + v_b1_y * t796);
+    let t816 = 0.7700239450467775 * (v_b1_x * t797 - v_b1_z * t795)
+        - 0.620341126105259 * (v_b1_z * t796 - v_b1_y * t797)
+        - 0.14913085300184115 * (v_b1_y * t795 - v_b1_x * t796);
+    let t819 = t802 * t802 + t816 * t816;
+    let t822 = 1.0 / ::armforge_runtime::math::sqrt(t819.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b1_2 = 1.0000000000000001e-40 - t819;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t802 * t822 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t816 * t822 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
+    let t840 = (xv_b1_x + t688) * j4_cos_b1m
+        - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1m
+        - t688;
+    let t841 = t689
+        + ((xv_b1_y - t689) * j4_cos_b1m
+            - (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x)
+                * j4_sin_b1m);
+    let t842 = (xv_b1_z + t690) * j4_cos_b1m
+        + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1m
+        - t690;
+    let t847 = 0.12555760611043656 * t842
+        + (0.3174776227989252 * t840 + 0.9399166168175558 * t841);
+    let t848 = 0.3174776227989252 * t847;
+    let t849 = 0.9399166168175558 * t847;
+    let t850 = 0.12555760611043656 * t847;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b1m_x = t848
+        + (j5_cos_b1m * (t840 - t848)
+            - j5_sin_b1m * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b1m_y = t849
+        + (j5_cos_b1m * (t841 - t849)
+            - j5_sin_b1m * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b1m_z = t850
+        + (j5_cos_b1m * (t842 - t850)
+            - j5_sin_b1m * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b1m = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b1m_y - 0.028388007507509954 * y6_b1m_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b1m_x - 0.9965786754905472 * y6_b1m_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b1m_z - 0.0776212895233 * y6_b1m_y)),
+        0.0776212895233 * y6_b1m_z
+            + (0.9965786754905472 * y6_b1m_x + 0.028388007507509954 * y6_b1m_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b1,
+                limit: j5_a_b1,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b1_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 3 alone (shoulder front, slide retracted, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_3(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
+        - 0.32318451312347624 * w_p_z;
+    let t177 = w_p_x - 0.919348671064388 * t173;
+    let t178 = w_p_y - 0.22438759210189282 * t173;
+    let t179 = w_p_z + 0.32318451312347624 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_p = ::armforge_runtime::math::sqrt(
+        (d2_p - 0.05565844753959191).max(0.0),
+    );
+    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_pm = -0.2750702190093362 - j3_root_p;
+    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
+    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
+    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
+    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
+    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
+        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
+        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = t224 * t273;
+    let t290 = t224 * t287;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t449 = t425
+        + (j1_cos_p * (g6_x - t425)
+            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t450 = t426
+        + (j1_cos_p * (g6_y - t426)
+            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t451 = t427
+        + (j1_cos_p * (g6_z - t427)
+            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t481 = t457
+        + (j1_cos_p * (gx_x - t457)
+            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t482 = t458
+        + (j1_cos_p * (gx_y - t458)
+            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t483 = t459
+        + (j1_cos_p * (gx_z - t459)
+            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
+        - 0.32318451312347624 * t451;
+    let t489 = 0.919348671064388 * t488;
+    let t490 = 0.22438759210189282 * t488;
+    let t491 = 0.32318451312347624 * t488;
+    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
+        - 0.32318451312347624 * t483;
+    let t521 = 0.919348671064388 * t520;
+    let t522 = 0.22438759210189282 * t520;
+    let t523 = 0.32318451312347624 * t520;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t489
+        + (t289 * (t449 - t489)
+            - t290 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t490
+        + (t289 * (t450 - t490)
+            + t290 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t289 * (t451 + t491)
+        - t290 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t521
+        + (t289 * (t481 - t521)
+            - t290 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t522
+        + (t289 * (t482 - t522)
+            + t290 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t289 * (t483 + t523)
+        - t290 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
+        - 0.14913085300184115 * v_b2_z;
+    let t924 = j5_a_b2 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b2 = 1.3479901200256164 * t924;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
+    let t930 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t933 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t936 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t943 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t936 * t936 + (t930 * t930 + t933 * t933)
+        - 1.3479901200256164 * (t943 * t943);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b2).max(0.0),
+    );
+    let t953 = 0.3174776227989252 * j5_beta_b2;
+    let t954 = 0.9399166168175558 * j5_beta_b2;
+    let t955 = 0.12555760611043656 * j5_beta_b2;
+    let t956 = 0.2368529300043945 * j5_gamma_b2;
+    let t957 = 0.030542838068628286 * j5_gamma_b2;
+    let t958 = 0.8275343040933489 * j5_gamma_b2;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2p_x = t956 + (t953 - 0.8362137090354541 * t924);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2p_y = t957 + (1.0379846701062043 * t924 + t954);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2p_z = t955 - 0.2010269164374744 * t924 - t958;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2p = 1.2056566317887352
+        * (0.8840923826341479 * z_b2p_z
+            - (0.21377064521432798 * z_b2p_x + 0.04589463161448898 * z_b2p_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2p = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b2p_z - 0.935948806852255 * z_b2p_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b2p_x + 0.08264952242757546 * z_b2p_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let t987 = j5_alpha_b2 - j5_a_b2;
+    let t994 = t956 + (t953 - 0.620341126105259 * t987);
+    let t995 = t957 + (t954 + 0.7700239450467775 * t987);
+    let t996 = t955 - 0.14913085300184115 * t987 - t958;
+    let t1001 = v_b2_z * t996 + (v_b2_x * t994 + v_b2_y * t995);
+    let t1015 = 0.7700239450467775 * (v_b2_x * t996 - v_b2_z * t994)
+        - 0.620341126105259 * (v_b2_z * t995 - v_b2_y * t996)
+        - 0.14913085300184115 * (v_b2_y * t994 - v_b2_x * t995);
+    let t1018 = t1001 * t1001 + t1015 * t1015;
+    let t1021 = 1.0 / ::armforge_runtime::math::sqrt(t1018.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2 = 1.0000000000000001e-40 - t1018;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+        - 0.14913085300184115 * xv_b2_z;
+    let t1033 = 0.620341126105259 * t1032;
+    let t1034 = 0.7700239450467775 * t1032;
+    let t1035 = 0.14913085300184115 * t1032;
+    let t1057 = j4_cos_b2p * (xv_b2_x + t1033)
+        - j4_sin_b2p * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
+        - t1033;
+    let t1058 = t1034
+        + (j4_cos_b2p * (xv_b2_y - t1034)
+            - j4_sin_b2p
+                * (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x));
+    let t1059 = j4_cos_b2p * (xv_b2_z + t1035)
+        + j4_sin_b2p * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
+        - t1035;
+    let t1064 = 0.12555760611043656 * t1059
+        + (0.3174776227989252 * t1057 + 0.9399166168175558 * t1058);
+    let t1065 = 0.3174776227989252 * t1064;
+    let t1066 = 0.9399166168175558 * t1064;
+    let t1067 = 0.12555760611043656 * t1064;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2p_x = t1065
+        + (j5_cos_b2p * (t1057 - t1065)
+            - j5_sin_b2p * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2p_y = t1066
+        + (j5_cos_b2p * (t1058 - t1066)
+            - j5_sin_b2p * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2p_z = t1067
+        + (j5_cos_b2p * (t1059 - t1067)
+            - j5_sin_b2p * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2p = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b2p_y - 0.028388007507509954 * y6_b2p_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b2p_x - 0.9965786754905472 * y6_b2p_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b2p_z - 0.0776212895233 * y6_b2p_y)),
+        0.0776212895233 * y6_b2p_z
+            + (0.9965786754905472 * y6_b2p_x + 0.028388007507509954 * y6_b2p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b2,
+                limit: j5_a_b2,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 4 alone (shoulder front, slide retracted, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_4(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e − b k) / r²  (σ = +1)
+    let j1_cos_p = if j1_free >= 0.0 {
+        ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
+    };
+    // sin θ = (b e + a k) / r²  (σ = +1)
+    let j1_sin_p = if j1_free >= 0.0 {
+        ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_p_x = t133
+        + (j1_cos_p * (u_x - t133)
+            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_p_y = t134
+        + (j1_cos_p * (u_y - t134)
+            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_p_z = t135
+        + (j1_cos_p * (u_z - t135)
+            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
+        - 0.32318451312347624 * w_p_z;
+    let t177 = w_p_x - 0.919348671064388 * t173;
+    let t178 = w_p_y - 0.22438759210189282 * t173;
+    let t179 = w_p_z + 0.32318451312347624 * t173;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_p = ::armforge_runtime::math::sqrt(
+        (d2_p - 0.05565844753959191).max(0.0),
+    );
+    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_pm = -0.2750702190093362 - j3_root_p;
+    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
+    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
+    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
+    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
+    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
+        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
+        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = t224 * t273;
+    let t290 = t224 * t287;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t449 = t425
+        + (j1_cos_p * (g6_x - t425)
+            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t450 = t426
+        + (j1_cos_p * (g6_y - t426)
+            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t451 = t427
+        + (j1_cos_p * (g6_z - t427)
+            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t481 = t457
+        + (j1_cos_p * (gx_x - t457)
+            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t482 = t458
+        + (j1_cos_p * (gx_y - t458)
+            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t483 = t459
+        + (j1_cos_p * (gx_z - t459)
+            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
+        - 0.32318451312347624 * t451;
+    let t489 = 0.919348671064388 * t488;
+    let t490 = 0.22438759210189282 * t488;
+    let t491 = 0.32318451312347624 * t488;
+    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
+        - 0.32318451312347624 * t483;
+    let t521 = 0.919348671064388 * t520;
+    let t522 = 0.22438759210189282 * t520;
+    let t523 = 0.32318451312347624 * t520;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b2_x = t489
+        + (t289 * (t449 - t489)
+            - t290 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b2_y = t490
+        + (t289 * (t450 - t490)
+            + t290 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b2_z = t289 * (t451 + t491)
+        - t290 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b2_x = t521
+        + (t289 * (t481 - t521)
+            - t290 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b2_y = t522
+        + (t289 * (t482 - t522)
+            + t290 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b2_z = t289 * (t483 + t523)
+        - t290 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    // a = h4 · v = h4 · z
+    let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
+        - 0.14913085300184115 * v_b2_z;
+    let t924 = j5_a_b2 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b2 = 1.3479901200256164 * t924;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
+    let t930 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t933 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t936 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t943 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b2 = t936 * t936 + (t930 * t930 + t933 * t933)
+        - 1.3479901200256164 * (t943 * t943);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b2).max(0.0),
+    );
+    let t953 = 0.3174776227989252 * j5_beta_b2;
+    let t954 = 0.9399166168175558 * j5_beta_b2;
+    let t955 = 0.12555760611043656 * j5_beta_b2;
+    let t956 = 0.2368529300043945 * j5_gamma_b2;
+    let t957 = 0.030542838068628286 * j5_gamma_b2;
+    let t958 = 0.8275343040933489 * j5_gamma_b2;
+    let t987 = j5_alpha_b2 - j5_a_b2;
+    let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+        - 0.14913085300184115 * xv_b2_z;
+    let t1033 = 0.620341126105259 * t1032;
+    let t1034 = 0.7700239450467775 * t1032;
+    let t1035 = 0.14913085300184115 * t1032;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b2m_x = t953 - 0.8362137090354541 * t924 - t956;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b2m_y = 1.0379846701062043 * t924 + t954 - t957;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b2m_z = t958 + (t955 - 0.2010269164374744 * t924);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b2m = 1.2056566317887352
+        * (0.8840923826341479 * z_b2m_z
+            - (0.21377064521432798 * z_b2m_x + 0.04589463161448898 * z_b2m_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b2m = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b2m_z - 0.935948806852255 * z_b2m_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b2m_x + 0.08264952242757546 * z_b2m_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let t1137 = t953 - 0.620341126105259 * t987 - t956;
+    let t1138 = t954 + 0.7700239450467775 * t987 - t957;
+    let t1139 = t958 + (t955 - 0.14913085300184115 * t987);
+    let t1144 = v_b2_z * t1139 + (v_b2_x * t1137 + v_b2_y * t1138);
+    let t1158 = 0.7700239450467775 * (v_b2_x * t1139 - v_b2_z * t1137)
+        - 0.620341126105259 * (v_b2_z * t1138 - v_b2_y * t1139)
+        - 0.14913085300184115 * (v_b2_y * t1137 - v_b2_x * t1138);
+    let t1161 = t1144 * t1144 + t1158 * t1158;
+    let t1164 = 1.0 / ::armforge_runtime::math::sqrt(t1161.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b2_2 = 1.0000000000000001e-40 - t1161;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1144 * t1164 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1158 * t1164 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
+    let t1180 = (xv_b2_x + t1033) * j4_cos_b2m
+        - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2m
+        - t1033;
+    let t1181 = t1034
+        + ((xv_b2_y - t1034) * j4_cos_b2m
+            - (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x)
+                * j4_sin_b2m);
+    let t1182 = (xv_b2_z + t1035) * j4_cos_b2m
+        + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2m
+        - t1035;
+    let t1187 = 0.12555760611043656 * t1182
+        + (0.3174776227989252 * t1180 + 0.9399166168175558 * t1181);
+    let t1188 = 0.3174776227989252 * t1187;
+    let t1189 = 0.9399166168175558 * t1187;
+    let t1190 = 0.12555760611043656 * t1187;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b2m_x = t1188
+        + (j5_cos_b2m * (t1180 - t1188)
+            - j5_sin_b2m * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b2m_y = t1189
+        + (j5_cos_b2m * (t1181 - t1189)
+            - j5_sin_b2m * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b2m_z = t1190
+        + (j5_cos_b2m * (t1182 - t1190)
+            - j5_sin_b2m * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b2m = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b2m_y - 0.028388007507509954 * y6_b2m_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b2m_x - 0.9965786754905472 * y6_b2m_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b2m_z - 0.0776212895233 * y6_b2m_y)),
+        0.0776212895233 * y6_b2m_z
+            + (0.9965786754905472 * y6_b2m_x + 0.028388007507509954 * y6_b2m_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Front,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_p,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b2,
+                limit: j5_a_b2,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b2_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 5 alone (shoulder back, slide extended, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_5(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
+        - 0.32318451312347624 * w_m_z;
+    let t209 = w_m_x - 0.919348671064388 * t205;
+    let t210 = w_m_y - 0.22438759210189282 * t205;
+    let t211 = w_m_z + 0.32318451312347624 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_m = ::armforge_runtime::math::sqrt(
+        (d2_m - 0.05565844753959191).max(0.0),
+    );
+    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_mp = j3_root_m - 0.2750702190093362;
+    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
+    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
+    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
+    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
+    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
+        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
+        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
+    let t323 = t295 * t307;
+    let t324 = t295 * t321;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t1244 = t425
+        + (j1_cos_m * (g6_x - t425)
+            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t1245 = t426
+        + (j1_cos_m * (g6_y - t426)
+            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t1246 = t427
+        + (j1_cos_m * (g6_z - t427)
+            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t1256 = t457
+        + (j1_cos_m * (gx_x - t457)
+            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t1257 = t458
+        + (j1_cos_m * (gx_y - t458)
+            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t1258 = t459
+        + (j1_cos_m * (gx_z - t459)
+            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
+        - 0.32318451312347624 * t1246;
+    let t1264 = 0.919348671064388 * t1263;
+    let t1265 = 0.22438759210189282 * t1263;
+    let t1266 = 0.32318451312347624 * t1263;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1264
+        + (t323 * (t1244 - t1264)
+            - t324 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1265
+        + (t323 * (t1245 - t1265)
+            + t324 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t323 * (t1246 + t1266)
+        - t324 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
+    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
+        - 0.32318451312347624 * t1258;
+    let t1296 = 0.919348671064388 * t1295;
+    let t1297 = 0.22438759210189282 * t1295;
+    let t1298 = 0.32318451312347624 * t1295;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1296
+        + (t323 * (t1256 - t1296)
+            - t324 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1297
+        + (t323 * (t1257 - t1297)
+            + t324 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t323 * (t1258 + t1298)
+        - t324 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
+        - 0.14913085300184115 * v_b3_z;
+    let t1328 = j5_a_b3 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b3 = 1.3479901200256164 * t1328;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
+    let t1334 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1337 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1340 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1347 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1340 * t1340 + (t1334 * t1334 + t1337 * t1337)
+        - 1.3479901200256164 * (t1347 * t1347);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b3).max(0.0),
+    );
+    let t1357 = 0.3174776227989252 * j5_beta_b3;
+    let t1358 = 0.9399166168175558 * j5_beta_b3;
+    let t1359 = 0.12555760611043656 * j5_beta_b3;
+    let t1360 = 0.2368529300043945 * j5_gamma_b3;
+    let t1361 = 0.030542838068628286 * j5_gamma_b3;
+    let t1362 = 0.8275343040933489 * j5_gamma_b3;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3p_x = t1360 + (t1357 - 0.8362137090354541 * t1328);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3p_y = t1361 + (1.0379846701062043 * t1328 + t1358);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3p_z = t1359 - 0.2010269164374744 * t1328 - t1362;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3p = 1.2056566317887352
+        * (0.8840923826341479 * z_b3p_z
+            - (0.21377064521432798 * z_b3p_x + 0.04589463161448898 * z_b3p_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3p = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b3p_z - 0.935948806852255 * z_b3p_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b3p_x + 0.08264952242757546 * z_b3p_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let t1391 = j5_alpha_b3 - j5_a_b3;
+    let t1398 = t1360 + (t1357 - 0.620341126105259 * t1391);
+    let t1399 = t1361 + (t1358 + 0.7700239450467775 * t1391);
+    let t1400 = t1359 - 0.14913085300184115 * t1391 - t1362;
+    let t1405 = v_b3_z * t1400 + (v_b3_x * t1398 + v_b3_y * t1399);
+    let t1419 = 0.7700239450467775 * (v_b3_x * t1400 - v_b3_z * t1398)
+        - 0.620341126105259 * (v_b3_z * t1399 - v_b3_y * t1400)
+        - 0.14913085300184115 * (v_b3_y * t1398 - v_b3_x * t1399);
+    let t1422 = t1405 * t1405 + t1419 * t1419;
+    let t1425 = 1.0 / ::armforge_runtime::math::sqrt(t1422.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3 = 1.0000000000000001e-40 - t1422;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+        - 0.14913085300184115 * xv_b3_z;
+    let t1437 = 0.620341126105259 * t1436;
+    let t1438 = 0.7700239450467775 * t1436;
+    let t1439 = 0.14913085300184115 * t1436;
+    let t1461 = j4_cos_b3p * (xv_b3_x + t1437)
+        - j4_sin_b3p * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
+        - t1437;
+    let t1462 = t1438
+        + (j4_cos_b3p * (xv_b3_y - t1438)
+            - j4_sin_b3p
+                * (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x));
+    let t1463 = j4_cos_b3p * (xv_b3_z + t1439)
+        + j4_sin_b3p * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
+        - t1439;
+    let t1468 = 0.12555760611043656 * t1463
+        + (0.3174776227989252 * t1461 + 0.9399166168175558 * t1462);
+    let t1469 = 0.3174776227989252 * t1468;
+    let t1470 = 0.9399166168175558 * t1468;
+    let t1471 = 0.12555760611043656 * t1468;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3p_x = t1469
+        + (j5_cos_b3p * (t1461 - t1469)
+            - j5_sin_b3p * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b3p_y = t1470
+        + (j5_cos_b3p * (t1462 - t1470)
+            - j5_sin_b3p * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b3p_z = t1471
+        + (j5_cos_b3p * (t1463 - t1471)
+            - j5_sin_b3p * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3p = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b3p_y - 0.028388007507509954 * y6_b3p_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b3p_x - 0.9965786754905472 * y6_b3p_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b3p_z - 0.0776212895233 * y6_b3p_y)),
+        0.0776212895233 * y6_b3p_z
+            + (0.9965786754905472 * y6_b3p_x + 0.028388007507509954 * y6_b3p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b3,
+                limit: j5_a_b3,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b3 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 6 alone (shoulder back, slide extended, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_6(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
+        - 0.32318451312347624 * w_m_z;
+    let t209 = w_m_x - 0.919348671064388 * t205;
+    let t210 = w_m_y - 0.22438759210189282 * t205;
+    let t211 = w_m_z + 0.32318451312347624 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_m = ::armforge_runtime::math::sqrt(
+        (d2_m - 0.05565844753959191).max(0.0),
+    );
+    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_mp = j3_root_m - 0.2750702190093362;
+    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
+    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
+    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
+    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
+    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
+        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
+        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
+    let t323 = t295 * t307;
+    let t324 = t295 * t321;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t1244 = t425
+        + (j1_cos_m * (g6_x - t425)
+            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t1245 = t426
+        + (j1_cos_m * (g6_y - t426)
+            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t1246 = t427
+        + (j1_cos_m * (g6_z - t427)
+            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t1256 = t457
+        + (j1_cos_m * (gx_x - t457)
+            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t1257 = t458
+        + (j1_cos_m * (gx_y - t458)
+            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t1258 = t459
+        + (j1_cos_m * (gx_z - t459)
+            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
+        - 0.32318451312347624 * t1246;
+    let t1264 = 0.919348671064388 * t1263;
+    let t1265 = 0.22438759210189282 * t1263;
+    let t1266 = 0.32318451312347624 * t1263;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b3_x = t1264
+        + (t323 * (t1244 - t1264)
+            - t324 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b3_y = t1265
+        + (t323 * (t1245 - t1265)
+            + t324 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b3_z = t323 * (t1246 + t1266)
+        - t324 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
+    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
+        - 0.32318451312347624 * t1258;
+    let t1296 = 0.919348671064388 * t1295;
+    let t1297 = 0.22438759210189282 * t1295;
+    let t1298 = 0.32318451312347624 * t1295;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b3_x = t1296
+        + (t323 * (t1256 - t1296)
+            - t324 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b3_y = t1297
+        + (t323 * (t1257 - t1297)
+            + t324 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b3_z = t323 * (t1258 + t1298)
+        - t324 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    // a = h4 · v = h4 · z
+    let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
+        - 0.14913085300184115 * v_b3_z;
+    let t1328 = j5_a_b3 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b3 = 1.3479901200256164 * t1328;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
+    let t1334 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1337 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1340 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1347 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b3 = t1340 * t1340 + (t1334 * t1334 + t1337 * t1337)
+        - 1.3479901200256164 * (t1347 * t1347);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b3).max(0.0),
+    );
+    let t1357 = 0.3174776227989252 * j5_beta_b3;
+    let t1358 = 0.9399166168175558 * j5_beta_b3;
+    let t1359 = 0.12555760611043656 * j5_beta_b3;
+    let t1360 = 0.2368529300043945 * j5_gamma_b3;
+    let t1361 = 0.030542838068628286 * j5_gamma_b3;
+    let t1362 = 0.8275343040933489 * j5_gamma_b3;
+    let t1391 = j5_alpha_b3 - j5_a_b3;
+    let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+        - 0.14913085300184115 * xv_b3_z;
+    let t1437 = 0.620341126105259 * t1436;
+    let t1438 = 0.7700239450467775 * t1436;
+    let t1439 = 0.14913085300184115 * t1436;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b3m_x = t1357 - 0.8362137090354541 * t1328 - t1360;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b3m_y = 1.0379846701062043 * t1328 + t1358 - t1361;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b3m_z = t1362 + (t1359 - 0.2010269164374744 * t1328);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b3m = 1.2056566317887352
+        * (0.8840923826341479 * z_b3m_z
+            - (0.21377064521432798 * z_b3m_x + 0.04589463161448898 * z_b3m_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b3m = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b3m_z - 0.935948806852255 * z_b3m_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b3m_x + 0.08264952242757546 * z_b3m_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let t1541 = t1357 - 0.620341126105259 * t1391 - t1360;
+    let t1542 = t1358 + 0.7700239450467775 * t1391 - t1361;
+    let t1543 = t1362 + (t1359 - 0.14913085300184115 * t1391);
+    let t1548 = v_b3_z * t1543 + (v_b3_x * t1541 + v_b3_y * t1542);
+    let t1562 = 0.7700239450467775 * (v_b3_x * t1543 - v_b3_z * t1541)
+        - 0.620341126105259 * (v_b3_z * t1542 - v_b3_y * t1543)
+        - 0.14913085300184115 * (v_b3_y * t1541 - v_b3_x * t1542);
+    let t1565 = t1548 * t1548 + t1562 * t1562;
+    let t1568 = 1.0 / ::armforge_runtime::math::sqrt(t1565.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b3_2 = 1.0000000000000001e-40 - t1565;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1548 * t1568 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1562 * t1568 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
+    let t1584 = (xv_b3_x + t1437) * j4_cos_b3m
+        - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3m
+        - t1437;
+    let t1585 = t1438
+        + ((xv_b3_y - t1438) * j4_cos_b3m
+            - (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x)
+                * j4_sin_b3m);
+    let t1586 = (xv_b3_z + t1439) * j4_cos_b3m
+        + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3m
+        - t1439;
+    let t1591 = 0.12555760611043656 * t1586
+        + (0.3174776227989252 * t1584 + 0.9399166168175558 * t1585);
+    let t1592 = 0.3174776227989252 * t1591;
+    let t1593 = 0.9399166168175558 * t1591;
+    let t1594 = 0.12555760611043656 * t1591;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b3m_x = t1592
+        + (j5_cos_b3m * (t1584 - t1592)
+            - j5_sin_b3m * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b3m_y = t1593
+        + (j5_cos_b3m * (t1585 - t1593)
+            - j5_sin_b3m * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b3m_z = t1594
+        + (j5_cos_b3m * (t1586 - t1594)
+            - j5_sin_b3m * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b3m = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b3m_y - 0.028388007507509954 * y6_b3m_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b3m_x - 0.9965786754905472 * y6_b3m_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b3m_z - 0.0776212895233 * y6_b3m_y)),
+        0.0776212895233 * y6_b3m_z
+            + (0.9965786754905472 * y6_b3m_x + 0.028388007507509954 * y6_b3m_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Extended,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b3,
+                limit: j5_a_b3,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b3_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 7 alone (shoulder back, slide retracted, wrist plus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_7(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
+        - 0.32318451312347624 * w_m_z;
+    let t209 = w_m_x - 0.919348671064388 * t205;
+    let t210 = w_m_y - 0.22438759210189282 * t205;
+    let t211 = w_m_z + 0.32318451312347624 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_m = ::armforge_runtime::math::sqrt(
+        (d2_m - 0.05565844753959191).max(0.0),
+    );
+    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_mm = -0.2750702190093362 - j3_root_m;
+    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
+    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
+    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
+    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
+    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
+        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
+        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
+    let t352 = t295 * t336;
+    let t353 = t295 * t350;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t1244 = t425
+        + (j1_cos_m * (g6_x - t425)
+            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t1245 = t426
+        + (j1_cos_m * (g6_y - t426)
+            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t1246 = t427
+        + (j1_cos_m * (g6_z - t427)
+            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t1256 = t457
+        + (j1_cos_m * (gx_x - t457)
+            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t1257 = t458
+        + (j1_cos_m * (gx_y - t458)
+            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t1258 = t459
+        + (j1_cos_m * (gx_z - t459)
+            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
+        - 0.32318451312347624 * t1246;
+    let t1264 = 0.919348671064388 * t1263;
+    let t1265 = 0.22438759210189282 * t1263;
+    let t1266 = 0.32318451312347624 * t1263;
+    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
+        - 0.32318451312347624 * t1258;
+    let t1296 = 0.919348671064388 * t1295;
+    let t1297 = 0.22438759210189282 * t1295;
+    let t1298 = 0.32318451312347624 * t1295;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1264
+        + (t352 * (t1244 - t1264)
+            - t353 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1265
+        + (t352 * (t1245 - t1265)
+            + t353 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t352 * (t1246 + t1266)
+        - t353 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1296
+        + (t352 * (t1256 - t1296)
+            - t353 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1297
+        + (t352 * (t1257 - t1297)
+            + t353 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t352 * (t1258 + t1298)
+        - t353 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
+        - 0.14913085300184115 * v_b4_z;
+    let t1668 = j5_a_b4 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b4 = 1.3479901200256164 * t1668;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
+    let t1674 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1677 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1680 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1687 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1680 * t1680 + (t1674 * t1674 + t1677 * t1677)
+        - 1.3479901200256164 * (t1687 * t1687);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b4).max(0.0),
+    );
+    let t1697 = 0.3174776227989252 * j5_beta_b4;
+    let t1698 = 0.9399166168175558 * j5_beta_b4;
+    let t1699 = 0.12555760611043656 * j5_beta_b4;
+    let t1700 = 0.2368529300043945 * j5_gamma_b4;
+    let t1701 = 0.030542838068628286 * j5_gamma_b4;
+    let t1702 = 0.8275343040933489 * j5_gamma_b4;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4p_x = t1700 + (t1697 - 0.8362137090354541 * t1668);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4p_y = t1701 + (1.0379846701062043 * t1668 + t1698);
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4p_z = t1699 - 0.2010269164374744 * t1668 - t1702;
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4p = 1.2056566317887352
+        * (0.8840923826341479 * z_b4p_z
+            - (0.21377064521432798 * z_b4p_x + 0.04589463161448898 * z_b4p_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4p = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b4p_z - 0.935948806852255 * z_b4p_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b4p_x + 0.08264952242757546 * z_b4p_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let t1731 = j5_alpha_b4 - j5_a_b4;
+    let t1738 = t1700 + (t1697 - 0.620341126105259 * t1731);
+    let t1739 = t1701 + (t1698 + 0.7700239450467775 * t1731);
+    let t1740 = t1699 - 0.14913085300184115 * t1731 - t1702;
+    let t1745 = v_b4_z * t1740 + (v_b4_x * t1738 + v_b4_y * t1739);
+    let t1759 = 0.7700239450467775 * (v_b4_x * t1740 - v_b4_z * t1738)
+        - 0.620341126105259 * (v_b4_z * t1739 - v_b4_y * t1740)
+        - 0.14913085300184115 * (v_b4_y * t1738 - v_b4_x * t1739);
+    let t1762 = t1745 * t1745 + t1759 * t1759;
+    let t1765 = 1.0 / ::armforge_runtime::math::sqrt(t1762.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4 = 1.0000000000000001e-40 - t1762;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+        - 0.14913085300184115 * xv_b4_z;
+    let t1777 = 0.620341126105259 * t1776;
+    let t1778 = 0.7700239450467775 * t1776;
+    let t1779 = 0.14913085300184115 * t1776;
+    let t1801 = j4_cos_b4p * (xv_b4_x + t1777)
+        - j4_sin_b4p * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
+        - t1777;
+    let t1802 = t1778
+        + (j4_cos_b4p * (xv_b4_y - t1778)
+            - j4_sin_b4p
+                * (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x));
+    let t1803 = j4_cos_b4p * (xv_b4_z + t1779)
+        + j4_sin_b4p * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
+        - t1779;
+    let t1808 = 0.12555760611043656 * t1803
+        + (0.3174776227989252 * t1801 + 0.9399166168175558 * t1802);
+    let t1809 = 0.3174776227989252 * t1808;
+    let t1810 = 0.9399166168175558 * t1808;
+    let t1811 = 0.12555760611043656 * t1808;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4p_x = t1809
+        + (j5_cos_b4p * (t1801 - t1809)
+            - j5_sin_b4p * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b4p_y = t1810
+        + (j5_cos_b4p * (t1802 - t1810)
+            - j5_sin_b4p * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b4p_z = t1811
+        + (j5_cos_b4p * (t1803 - t1811)
+            - j5_sin_b4p * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4p = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b4p_y - 0.028388007507509954 * y6_b4p_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b4p_x - 0.9965786754905472 * y6_b4p_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b4p_z - 0.0776212895233 * y6_b4p_y)),
+        0.0776212895233 * y6_b4p_z
+            + (0.9965786754905472 * y6_b4p_x + 0.028388007507509954 * y6_b4p_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Plus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b4,
+                limit: j5_a_b4,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b4 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
+}
+/// The closed-form steps of branch 8 alone (shoulder back, slide retracted, wrist minus).
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::too_many_lines,
+    clippy::many_single_char_names,
+    clippy::similar_names,
+    clippy::unreadable_literal,
+    clippy::suboptimal_flops
+)]
+#[allow(unused_variables)]
+#[inline]
+fn branch_8(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> ::armforge_runtime::internal::Candidate {
+    let r00 = target.rotation[0][0];
+    let r01 = target.rotation[0][1];
+    let r02 = target.rotation[0][2];
+    let r10 = target.rotation[1][0];
+    let r11 = target.rotation[1][1];
+    let r12 = target.rotation[1][2];
+    let r20 = target.rotation[2][0];
+    let r21 = target.rotation[2][1];
+    let r22 = target.rotation[2][2];
+    let px = target.translation[0];
+    let py = target.translation[1];
+    let pz = target.translation[2];
+    let ref1_cos = reference[0];
+    let ref1_sin = reference[1];
+    let ref4_cos = reference[2];
+    let ref4_sin = reference[3];
+    let t38 = px
+        + (0.012805552757843508 * r02
+            - (0.04491492495518917 * r00 + 0.22027592071368993 * r01))
+        + 0.5795266030280415;
+    let t40 = py
+        + (0.012805552757843508 * r12
+            - (0.04491492495518917 * r10 + 0.22027592071368993 * r11))
+        - 0.832995122054119;
+    let t42 = pz
+        + (0.012805552757843508 * r22
+            - (0.04491492495518917 * r20 + 0.22027592071368993 * r21))
+        - 0.6567806392209417;
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (x)
+    let wc_x = 0.7024503808034039 * t42
+        + (0.5366051090545466 * t38 - 0.46756648665800565 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (y)
+    let wc_y = 0.3294128205717553 * t42
+        + (0.33722370156285647 * t38 + 0.8819112023028204 * t40);
+    // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (-0.044915, -0.220276, 0.012806) m (z)
+    let wc_z = 0.6309125582456838 * t42
+        + (0.06011831507188942 * t40 - 0.7735212550672437 * t38);
+    // u = c_t − p1 (x)
+    let u_x = wc_x + 0.12107082938914343;
+    // u = c_t − p1 (y)
+    let u_y = wc_y - 0.14917046818868374;
+    // u = c_t − p1 (z)
+    let u_z = wc_z - 0.05599637759668776;
+    // a = (h2 − (h1·h2) h1) · u
+    let j1_a = 0.3015395144396127 * u_x - 0.20547228044231672 * u_y
+        - 0.5138444988589215 * u_z;
+    // b = (h1 × h2) · u
+    let j1_b = 0.48292443904485405 * u_y - 0.23403204910039818 * u_x
+        - 0.33044529346519896 * u_z;
+    let t96 = 0.2455648081179022 * u_z
+        + (0.7957211704114873 * u_x + 0.553647671333485 * u_y);
+    // e = h2·(c − p1) − (h1·h2)(h1·u) = 0.185058 − 0.776414 (h1·u)
+    let j1_e = 0.1850581350712911 - 0.776414125447097 * t96;
+    // r² = a² + b²
+    let j1_r2 = j1_a * j1_a + j1_b * j1_b;
+    // k = √max(r² − e², 0)
+    let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
+    // 1 / max(r², threshold²)
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    let j1_free = 8.539556986014195e-20 - j1_r2;
+    // cos θ = (a e + b k) / r²  (σ = -1)
+    let j1_cos_m = if j1_free >= 0.0 {
+        -ref1_cos
+    } else {
+        j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
+    };
+    // sin θ = (b e − a k) / r²  (σ = -1)
+    let j1_sin_m = if j1_free >= 0.0 {
+        -ref1_sin
+    } else {
+        j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
+    };
+    let t133 = 0.7957211704114873 * t96;
+    let t134 = 0.553647671333485 * t96;
+    let t135 = 0.2455648081179022 * t96;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
+    let w_m_x = t133
+        + (j1_cos_m * (u_x - t133)
+            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+        - 0.1466357979102201;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
+    let w_m_y = t134
+        + (j1_cos_m * (u_y - t134)
+            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+        - 0.1665554280716256;
+    // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
+    let w_m_z = t135
+        + (j1_cos_m * (u_z - t135)
+            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+        - 0.23593621703748283;
+    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
+        - 0.32318451312347624 * w_m_z;
+    let t209 = w_m_x - 0.919348671064388 * t205;
+    let t210 = w_m_y - 0.22438759210189282 * t205;
+    let t211 = w_m_z + 0.32318451312347624 * t205;
+    // d² = |(w − p2)⊥h2|²: squared distance from axis 2
+    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    // θ1 = atan2(sin θ1, cos θ1)
+    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
+    let j3_root_m = ::armforge_runtime::math::sqrt(
+        (d2_m - 0.05565844753959191).max(0.0),
+    );
+    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
+    let q3_mm = -0.2750702190093362 - j3_root_m;
+    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
+    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
+    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
+    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
+    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
+        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
+        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
+    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
+    let t352 = t295 * t336;
+    let t353 = t295 * t350;
+    let t361 = 0.42112668389358265 * r02
+        + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
+    let t366 = 0.42112668389358265 * r12
+        + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
+    let t371 = 0.42112668389358265 * r22
+        + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
+    let g6_x = 0.7024503808034039 * t371
+        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
+    let g6_y = 0.3294128205717553 * t371
+        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
+    let g6_z = 0.6309125582456838 * t371
+        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
+    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+        - 0.8764704436419545 * r02;
+    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+        - 0.8764704436419545 * r12;
+    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+        - 0.8764704436419545 * r22;
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
+    let gx_x = 0.7024503808034039 * t404
+        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
+    let gx_y = 0.3294128205717553 * t404
+        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
+    let gx_z = 0.6309125582456838 * t404
+        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
+    let t424 = 0.2455648081179022 * g6_z
+        + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
+    let t425 = 0.7957211704114873 * t424;
+    let t426 = 0.553647671333485 * t424;
+    let t427 = 0.2455648081179022 * t424;
+    let t456 = 0.2455648081179022 * gx_z
+        + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
+    let t457 = 0.7957211704114873 * t456;
+    let t458 = 0.553647671333485 * t456;
+    let t459 = 0.2455648081179022 * t456;
+    let t1244 = t425
+        + (j1_cos_m * (g6_x - t425)
+            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+    let t1245 = t426
+        + (j1_cos_m * (g6_y - t426)
+            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+    let t1246 = t427
+        + (j1_cos_m * (g6_z - t427)
+            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+    let t1256 = t457
+        + (j1_cos_m * (gx_x - t457)
+            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+    let t1257 = t458
+        + (j1_cos_m * (gx_y - t458)
+            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+    let t1258 = t459
+        + (j1_cos_m * (gx_z - t459)
+            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
+        - 0.32318451312347624 * t1246;
+    let t1264 = 0.919348671064388 * t1263;
+    let t1265 = 0.22438759210189282 * t1263;
+    let t1266 = 0.32318451312347624 * t1263;
+    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
+        - 0.32318451312347624 * t1258;
+    let t1296 = 0.919348671064388 * t1295;
+    let t1297 = 0.22438759210189282 * t1295;
+    let t1298 = 0.32318451312347624 * t1295;
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
+    let v_b4_x = t1264
+        + (t352 * (t1244 - t1264)
+            - t353 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
+    let v_b4_y = t1265
+        + (t352 * (t1245 - t1265)
+            + t353 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
+    let v_b4_z = t352 * (t1246 + t1266)
+        - t353 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
+    let xv_b4_x = t1296
+        + (t352 * (t1256 - t1296)
+            - t353 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
+    let xv_b4_y = t1297
+        + (t352 * (t1257 - t1297)
+            + t353 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
+    let xv_b4_z = t352 * (t1258 + t1298)
+        - t353 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    // a = h4 · v = h4 · z
+    let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
+        - 0.14913085300184115 * v_b4_z;
+    let t1668 = j5_a_b4 - 0.20984549109584813;
+    // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
+    let j5_alpha_b4 = 1.3479901200256164 * t1668;
+    // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
+    let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
+    let t1674 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1677 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1680 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1687 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
+    let j5_gap_b4 = t1680 * t1680 + (t1674 * t1674 + t1677 * t1677)
+        - 1.3479901200256164 * (t1687 * t1687);
+    // γ = √(γ²) ≥ 0
+    let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
+        (1.3479901200256164 * j5_gap_b4).max(0.0),
+    );
+    let t1697 = 0.3174776227989252 * j5_beta_b4;
+    let t1698 = 0.9399166168175558 * j5_beta_b4;
+    let t1699 = 0.12555760611043656 * j5_beta_b4;
+    let t1700 = 0.2368529300043945 * j5_gamma_b4;
+    let t1701 = 0.030542838068628286 * j5_gamma_b4;
+    let t1702 = 0.8275343040933489 * j5_gamma_b4;
+    let t1731 = j5_alpha_b4 - j5_a_b4;
+    let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+        - 0.14913085300184115 * xv_b4_z;
+    let t1777 = 0.620341126105259 * t1776;
+    let t1778 = 0.7700239450467775 * t1776;
+    let t1779 = 0.14913085300184115 * t1776;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
+    let z_b4m_x = t1697 - 0.8362137090354541 * t1668 - t1700;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
+    let z_b4m_y = 1.0379846701062043 * t1668 + t1698 - t1701;
+    // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
+    let z_b4m_z = t1702 + (t1699 - 0.2010269164374744 * t1668);
+    // cos θ5 = (h6⊥ · z) / |h6⊥|²
+    let j5_cos_b4m = 1.2056566317887352
+        * (0.8840923826341479 * z_b4m_z
+            - (0.21377064521432798 * z_b4m_x + 0.04589463161448898 * z_b4m_y));
+    // sin θ5 = h5 · (h6 × z) / |h6⊥|²
+    let j5_sin_b4m = 1.2056566317887352
+        * (0.3174776227989252
+            * (0.34229941191058744 * z_b4m_z - 0.935948806852255 * z_b4m_y)
+            + 0.9399166168175558
+                * (0.935948806852255 * z_b4m_x + 0.08264952242757546 * z_b4m_z)
+            - 0.12555760611043656
+                * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
+    // θ5 = atan2(sin θ5, cos θ5)
+    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let t1881 = t1697 - 0.620341126105259 * t1731 - t1700;
+    let t1882 = t1698 + 0.7700239450467775 * t1731 - t1701;
+    let t1883 = t1702 + (t1699 - 0.14913085300184115 * t1731);
+    let t1888 = v_b4_z * t1883 + (v_b4_x * t1881 + v_b4_y * t1882);
+    let t1902 = 0.7700239450467775 * (v_b4_x * t1883 - v_b4_z * t1881)
+        - 0.620341126105259 * (v_b4_z * t1882 - v_b4_y * t1883)
+        - 0.14913085300184115 * (v_b4_y * t1881 - v_b4_x * t1882);
+    let t1905 = t1888 * t1888 + t1902 * t1902;
+    let t1908 = 1.0 / ::armforge_runtime::math::sqrt(t1905.max(1.0000000000000001e-40));
+    // ≥ 0 when joint 5 is within 1e-10 of the aligned position
+    let aligned_b4_2 = 1.0000000000000001e-40 - t1905;
+    // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
+    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1888 * t1908 };
+    // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
+    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1902 * t1908 };
+    // θ4 = atan2(sin θ4, cos θ4)
+    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
+    let t1924 = (xv_b4_x + t1777) * j4_cos_b4m
+        - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4m
+        - t1777;
+    let t1925 = t1778
+        + ((xv_b4_y - t1778) * j4_cos_b4m
+            - (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x)
+                * j4_sin_b4m);
+    let t1926 = (xv_b4_z + t1779) * j4_cos_b4m
+        + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4m
+        - t1779;
+    let t1931 = 0.12555760611043656 * t1926
+        + (0.3174776227989252 * t1924 + 0.9399166168175558 * t1925);
+    let t1932 = 0.3174776227989252 * t1931;
+    let t1933 = 0.9399166168175558 * t1931;
+    let t1934 = 0.12555760611043656 * t1931;
+    // R5ᵀ R4ᵀ R456 x6 (x)
+    let y6_b4m_x = t1932
+        + (j5_cos_b4m * (t1924 - t1932)
+            - j5_sin_b4m * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
+    // R5ᵀ R4ᵀ R456 x6 (y)
+    let y6_b4m_y = t1933
+        + (j5_cos_b4m * (t1925 - t1933)
+            - j5_sin_b4m * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
+    // R5ᵀ R4ᵀ R456 x6 (z)
+    let y6_b4m_z = t1934
+        + (j5_cos_b4m * (t1926 - t1934)
+            - j5_sin_b4m * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
+    // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
+    let q6_b4m = ::armforge_runtime::math::atan2(
+        0.935948806852255
+            * (0.9965786754905472 * y6_b4m_y - 0.028388007507509954 * y6_b4m_x)
+            + (0.34229941191058744
+                * (0.0776212895233 * y6_b4m_x - 0.9965786754905472 * y6_b4m_z)
+                - 0.08264952242757546
+                    * (0.028388007507509954 * y6_b4m_z - 0.0776212895233 * y6_b4m_y)),
+        0.0776212895233 * y6_b4m_z
+            + (0.9965786754905472 * y6_b4m_x + 0.028388007507509954 * y6_b4m_y),
+    );
+    ::armforge_runtime::internal::Candidate {
+        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        branch: ::armforge_runtime::Branch {
+            shoulder: ::armforge_runtime::Shoulder::Back,
+            elbow: ::armforge_runtime::Elbow::Retracted,
+            wrist: ::armforge_runtime::Wrist::Minus,
+        },
+        checks: [
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: j1_r2,
+                limit: ::armforge_runtime::math::abs(j1_e),
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::InsideHole,
+                have_squared: d2_m,
+                limit: 0.23592042628732238,
+            },
+            ::armforge_runtime::internal::Check {
+                kind: ::armforge_runtime::internal::CheckKind::WristOrientation,
+                have_squared: j5_gap_b4,
+                limit: j5_a_b4,
+            },
+            ::armforge_runtime::internal::Check::NONE,
+        ],
+        wrist_aligned: aligned_b4_2 >= 0.0,
+        on_axis_1: j1_free >= 0.0,
+    }
 }
 #[cfg(test)]
 mod tests {

@@ -3,15 +3,17 @@
 use std::path::PathBuf;
 use std::process::ExitCode;
 
-use armforge_workbench::scaffold::{is_valid_arm_name, starting_description, Convention};
+use armforge_workbench::scaffold::{
+    arm_name_problem, parse_convention, starting_description, Convention,
+};
 
 /// Arguments of `armforge new`.
 #[derive(clap::Args, Debug)]
 pub struct Args {
-    /// The arm's name (letters, digits, '-' and '_', starting with a letter).
+    /// The arm's name (letters, digits, '-' and '_', starting with a letter; not a Rust keyword).
     pub name: String,
     /// How the joints are described.
-    #[arg(long, value_enum, default_value = "dh")]
+    #[arg(long, value_parser = parse_convention, default_value = "dh")]
     pub convention: Convention,
     /// Where to write the file (default: NAME.toml; `-` for standard output).
     #[arg(short = 'o', long = "output")]
@@ -23,11 +25,8 @@ pub struct Args {
 
 /// Runs `armforge new`.
 pub fn run(args: Args) -> ExitCode {
-    if !is_valid_arm_name(&args.name) {
-        eprintln!(
-            "error: arm name `{}` must start with a letter and contain only letters, digits, '-' and '_'",
-            args.name
-        );
+    if let Some(problem) = arm_name_problem(&args.name) {
+        eprintln!("error: arm name: {problem} (it becomes a Rust module name)");
         return ExitCode::from(2);
     }
     let text = starting_description(&args.name, args.convention);
@@ -50,7 +49,7 @@ pub fn run(args: Args) -> ExitCode {
             eprintln!(
                 "wrote {} ({} convention); next: armforge inspect {}",
                 path.display(),
-                args.convention.key(),
+                args.convention.word(),
                 path.display()
             );
             ExitCode::SUCCESS

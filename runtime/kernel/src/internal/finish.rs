@@ -1,166 +1,18 @@
-//! Not for users: the support code that armforge-emitted solvers and the armforge interpreter
-//! call. Its items may change in any release; use the emitted module's functions or the
-//! compiler's `Solver` instead.
-//!
-//! Everything that both back ends of a plan need after the closed-form steps lives here, so
-//! that no formula is written twice: turning model values into joint values, wrapping revolute
-//! values into their limits, listing equivalent angles, dropping candidates outside the limits,
-//! returning double roots once, flags, and the reason when nothing is left.
+//! Finishing: candidates straight out of the closed-form steps become solutions. Model values
+//! become joint values (wrapped by whole turns toward an anchor, or listed as equivalents),
+//! the reach and wrist checks and the limits are applied, double roots at a boundary are
+//! returned once, flags are set, and the reason is worked out when nothing is left.
 
 use core::f64::consts::{PI, TAU};
 
-use crate::fk::joint_motion;
-use crate::math::{abs, cross, dot, rotation_tolerance, round, sin_cos, sqrt, sub, Scalar};
+use super::{round_fast, wrap, Candidate, Check, CheckKind, Settings, INV_TAU};
+use crate::math::{abs, sqrt};
 use crate::model::{Joint, JointKind};
-use crate::pose::Pose;
-use crate::solution::{
-    Branch, Elbow, Flags, PoseProblem, Shoulder, Solution, SolutionSet, Unreachable, Wrist, JOINTS,
-};
+use crate::solution::{Branch, Flags, Solution, SolutionSet, Unreachable, JOINTS};
 
 /// At most this many equivalent angles are listed for one revolute joint (a range of up to
 /// seven turns); wider ranges list the first ones from the lower limit.
 pub const MAX_EQUIVALENTS: usize = 8;
-
-/// What a [`Check`] guards.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum CheckKind {
-    /// Unused slot.
-    None,
-    /// Real when `have_squared ≤ limit²`; otherwise beyond reach by `√have − limit` metres.
-    BeyondReach,
-    /// Real when `have_squared ≥ limit²`; otherwise inside the hole by `limit − √have` metres.
-    InsideHole,
-    /// Real when `have_squared ≥ 0` (`γ² |h4 × h5|²` of Paden–Kahan subproblem 2, negative
-    /// when the two cones miss each other); `limit` is `h4 · v`, the cosine of the angle
-    /// between axis 4 and the requested direction of axis 6 after joints 1–3.
-    WristOrientation,
-}
-
-/// A condition for a candidate to be a real solution.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Check {
-    /// What is checked.
-    pub kind: CheckKind,
-    /// The squared quantity (see [`CheckKind`]).
-    pub have_squared: f64,
-    /// Its limit (metres, not squared).
-    pub limit: f64,
-}
-
-impl Check {
-    /// An unused check.
-    pub const NONE: Check = Check {
-        kind: CheckKind::None,
-        have_squared: 0.0,
-        limit: 0.0,
-    };
-}
-
-/// One candidate solution straight out of the closed-form steps, in model values.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Candidate {
-    /// Model values (radians or metres) of the six joints.
-    pub model_values: [f64; JOINTS],
-    /// The branch the candidate belongs to.
-    pub branch: Branch,
-    /// Conditions for the candidate to be real.
-    pub checks: [Check; 4],
-    /// Joint 5 at the aligned position (joint 4 taken from the reference).
-    pub wrist_aligned: bool,
-    /// The wrist center on axis 1 (joint 1 taken from the reference).
-    pub on_axis_1: bool,
-}
-
-/// Tolerances of one arm's solver.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Settings {
-    /// A target this close to a reach boundary (metres) counts as on it.
-    pub length_tolerance: f64,
-    /// A wrist cone gap this small (radians, squared sine) counts as closed.
-    pub angle_tolerance: f64,
-    /// Joint values this far beyond a limit (radians or metres) still count as within it.
-    pub limit_tolerance: f64,
-    /// Two solutions closer than this in every joint are one.
-    pub duplicate_tolerance: f64,
-    /// `h4 · h5` and `h5 · h6`: the wrist's twist cosines, to say by how much an orientation
-    /// misses what the wrist reaches.
-    pub wrist_twist_cosines: [f64; 2],
-}
-
-/// Checks that a target pose is finite with a proper orthonormal rotation (within
-/// [`rotation_tolerance`]: 1e-6 for `f64`, about 7.6e-6 for `f32`).
-#[inline]
-pub fn check_pose<S: Scalar>(target: &Pose<S>) -> Result<(), Unreachable<S>> {
-    if !target.is_finite() {
-        return Err(Unreachable::InvalidPose(PoseProblem::NotFinite));
-    }
-    let r = &target.rotation;
-    let mut error = S::ZERO;
-    for i in 0..3 {
-        for j in 0..3 {
-            let g = r[0][i] * r[0][j] + r[1][i] * r[1][j] + r[2][i] * r[2][j];
-            let want = if i == j { S::ONE } else { S::ZERO };
-            error = error.max(abs(g - want));
-        }
-    }
-    if error > rotation_tolerance() {
-        return Err(Unreachable::InvalidPose(PoseProblem::NotOrthonormal {
-            error,
-        }));
-    }
-    let det = dot(&r[0], &cross(&r[1], &r[2]));
-    if det < S::ZERO {
-        return Err(Unreachable::InvalidPose(PoseProblem::Reflection));
-    }
-    Ok(())
-}
-
-/// The plan's reference inputs for the current joint values: cosine and sine of the model
-/// values of joints 1 and 4 (a non-finite value counts as zero).
-pub fn reference(joints: &[Joint; JOINTS], current: &[f64; JOINTS]) -> [f64; 4] {
-    reference_of(joints, current, [0, 3])
-}
-
-/// The plan's reference inputs for the current joint values when the free joints are `free`
-/// (0-based): joints 1 and 4 for an arm that decouples at its wrist, others for families that
-/// hold other joints at their singularities (a non-finite value counts as zero).
-pub fn reference_of(
-    joints: &[Joint; JOINTS],
-    current: &[f64; JOINTS],
-    free: [usize; 2],
-) -> [f64; 4] {
-    let model = |i: usize| {
-        let i = i.min(JOINTS - 1);
-        let q = current[i];
-        joints[i].model_value(if q.is_finite() { q } else { 0.0 })
-    };
-    let (s1, c1) = sin_cos(model(free[0]));
-    let (s4, c4) = sin_cos(model(free[1]));
-    [c1, s1, c4, s4]
-}
-
-/// `1 / 2π`.
-const INV_TAU: f64 = 1.0 / TAU;
-
-/// `1.5 · 2^52`: adding and subtracting it rounds a double of magnitude below `2^51` to the
-/// nearest whole number (ties to even) with two additions, no call and no branch.
-const ROUNDER: f64 = 6_755_399_441_055_744.0;
-
-/// `x` rounded to a whole number, branch-free (falls back to `round` beyond `2^51`).
-#[inline(always)]
-fn round_fast(x: f64) -> f64 {
-    if abs(x) < 2_251_799_813_685_248.0 {
-        (x + ROUNDER) - ROUNDER
-    } else {
-        round(x)
-    }
-}
-
-/// `x` wrapped by whole turns into `[center − π, center + π]`, without data-dependent branches.
-#[inline]
-pub fn wrap(x: f64, center: f64) -> f64 {
-    x - TAU * round_fast((x - center) * INV_TAU)
-}
 
 /// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
 #[inline(always)]
@@ -509,16 +361,7 @@ pub fn finish(
         if !inside {
             continue;
         }
-        let mut flags = Flags::NONE;
-        if c.wrist_aligned {
-            flags = flags.union(Flags::WRIST_ALIGNED);
-        }
-        if c.on_axis_1 {
-            flags = flags.union(Flags::ON_AXIS_1);
-        }
-        if at_limit {
-            flags = flags.union(Flags::AT_REACH_LIMIT);
-        }
+        let flags = flags_of(c, at_limit);
         len = push_combinations(
             joints, settings, &values, &counts, c.branch, flags, out, len,
         );
@@ -648,40 +491,24 @@ pub fn collect<const CAP: usize>(
     set
 }
 
-/// The first solution of one branch (the one nearest the joints' range centers comes first
-/// among equivalent angles is not guaranteed; the first listed is returned).
+/// Sum of squared joint distances (wrap-aware for revolute joints with at most one turn of
+/// range).
 #[inline]
-pub fn first_of_branch<const CAP: usize>(
+fn distance(
     joints: &[Joint; JOINTS],
     settings: &Settings,
-    candidates: &[Candidate],
-    branch: Branch,
-) -> Result<Solution, Unreachable> {
-    let mut storage = [Solution::EMPTY; CAP];
-    let len = finish(joints, settings, candidates, Some(branch), &mut storage)?;
-    nearest_to_center(joints, settings, storage.get(..len).unwrap_or(&[]))
-        .ok_or(Unreachable::BranchUnavailable)
-}
-
-/// Of several solutions, the one whose joints are closest to the centers of their ranges
-/// (a controller's natural pick among equivalent angles).
-fn nearest_to_center(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    solutions: &[Solution],
-) -> Option<Solution> {
-    let mut center = [0.0; JOINTS];
-    for (c, j) in center.iter_mut().zip(joints.iter()) {
-        let [lo, hi] = j.limits;
-        if lo.is_finite() && hi.is_finite() {
-            *c = 0.5 * (lo + hi);
-        }
+    a: &[f64; JOINTS],
+    b: &[f64; JOINTS],
+) -> f64 {
+    let mut d = 0.0;
+    for i in 0..JOINTS {
+        let e = joint_distance(&joints[i], a[i], b[i], settings.limit_tolerance);
+        d += e * e;
     }
-    nearest(joints, settings, solutions, &center)
+    d
 }
 
-/// The solution nearest to `current` (sum of squared joint distances, wrap-aware for revolute
-/// joints with at most one turn of range).
+/// The solution nearest to `current` (see [`distance`]).
 #[inline]
 pub fn nearest(
     joints: &[Joint; JOINTS],
@@ -691,16 +518,7 @@ pub fn nearest(
 ) -> Option<Solution> {
     let mut best: Option<(f64, Solution)> = None;
     for s in solutions {
-        let mut d = 0.0;
-        for i in 0..JOINTS {
-            let e = joint_distance(
-                &joints[i],
-                s.joints[i],
-                current[i],
-                settings.limit_tolerance,
-            );
-            d += e * e;
-        }
+        let d = distance(joints, settings, &s.joints, current);
         if best.map_or(true, |(b, _)| d < b) {
             best = Some((d, *s));
         }
@@ -708,227 +526,131 @@ pub fn nearest(
     best.map(|(_, s)| s)
 }
 
-/// The solution nearest to `current` among all solutions of a target, or the reason.
-#[inline]
-pub fn near<const CAP: usize>(
+/// The values each joint is wrapped toward by `solve_branch` and `solve`: the centers of the
+/// ranges (zero for an unlimited joint). Among equivalent angles of a joint whose range
+/// exceeds a turn, the one nearest the center is the one within half a turn of it.
+#[inline(always)]
+pub fn centers(joints: &[Joint; JOINTS]) -> [f64; JOINTS] {
+    let mut out = [0.0; JOINTS];
+    for (c, j) in out.iter_mut().zip(joints.iter()) {
+        *c = Finishing::of(j, 0.0).center;
+    }
+    out
+}
+
+/// The values each joint is wrapped toward by `solve_near`: for a revolute joint whose range
+/// exceeds a turn, `current` clamped to `[lo + π, hi − π]` (so the equivalent within half a
+/// turn of it is the in-range one nearest `current`); otherwise the range's center. A
+/// non-finite `current` counts as the center.
+#[inline(always)]
+pub fn anchors_near(joints: &[Joint; JOINTS], current: &[f64; JOINTS], tol: f64) -> [f64; JOINTS] {
+    let mut out = [0.0; JOINTS];
+    for ((a, j), q) in out.iter_mut().zip(joints.iter()).zip(current.iter()) {
+        let f = Finishing::of(j, tol);
+        *a = if f.lists && q.is_finite() {
+            crate::math::clamp(*q, f.lo + PI, f.hi - PI)
+        } else {
+            f.center
+        };
+    }
+    out
+}
+
+/// One candidate finished: its checks, its joint values (each revolute value the equivalent
+/// within half a turn of `anchor`), the limits, its flags; or why it is not a solution.
+///
+/// Written for constant tables: inlined into an emitted solver with `JOINT_TABLE` and
+/// `SETTINGS`, every offset, direction, center and limit folds into the code, the per-joint
+/// loop unrolls and the revolute/prismatic choice disappears.
+#[inline(always)]
+pub fn finish_one(
+    joints: &[Joint; JOINTS],
+    settings: &Settings,
+    c: &Candidate,
+    anchor: &[f64; JOINTS],
+) -> Result<Solution, Unreachable> {
+    let Some(at_limit) = passes(&c.checks, settings) else {
+        return Err(failure_of_one(joints, settings, c));
+    };
+    let tol = settings.limit_tolerance;
+    let mut values = [0.0; JOINTS];
+    let mut inside = true;
+    for i in 0..JOINTS {
+        let j = &joints[i];
+        let q = (c.model_values[i] - j.offset) * j.direction;
+        let v = if j.kind == JointKind::Revolute {
+            wrap(q, anchor[i])
+        } else {
+            q
+        };
+        values[i] = v;
+        inside &= (v >= j.limits[0] - tol) & (v <= j.limits[1] + tol);
+    }
+    if !inside {
+        return Err(failure_of_one(joints, settings, c));
+    }
+    Ok(Solution {
+        joints: values,
+        branch: c.branch,
+        flags: flags_of(c, at_limit),
+    })
+}
+
+/// The flags of a candidate that passed its checks.
+#[inline(always)]
+fn flags_of(c: &Candidate, at_limit: bool) -> Flags {
+    let mut flags = Flags::NONE;
+    if c.wrist_aligned {
+        flags = flags.union(Flags::WRIST_ALIGNED);
+    }
+    if c.on_axis_1 {
+        flags = flags.union(Flags::ON_AXIS_1);
+    }
+    if at_limit {
+        flags = flags.union(Flags::AT_REACH_LIMIT);
+    }
+    flags
+}
+
+/// Why one candidate is not a solution (worked out only then).
+#[cold]
+#[inline(never)]
+fn failure_of_one(joints: &[Joint; JOINTS], settings: &Settings, c: &Candidate) -> Unreachable {
+    let table = Table::of(joints, settings.limit_tolerance);
+    failure(&table, settings, core::slice::from_ref(c), None)
+}
+
+/// Of every candidate, the solution nearest `current` (sum of squared joint distances,
+/// wrap-aware for revolute joints with at most one turn of range), each finished toward
+/// `anchor` (see [`anchors_near`]); or why there is none.
+pub fn nearest_candidate(
     joints: &[Joint; JOINTS],
     settings: &Settings,
     candidates: &[Candidate],
     current: &[f64; JOINTS],
+    anchor: &[f64; JOINTS],
 ) -> Result<Solution, Unreachable> {
-    let set = collect::<CAP>(joints, settings, candidates);
-    if let Some(reason) = set.reason() {
-        return Err(reason);
-    }
-    nearest(joints, settings, set.as_slice(), current).ok_or(Unreachable::BranchUnavailable)
-}
-
-/// How the shoulder label is read from joint values.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub enum ShoulderRule {
-    /// Elbow and polar arms: the sign of `normal · (E2 E3 c − point)`; `Front` when it equals
-    /// `front` (`±1`; zero counts as positive).
-    Plane {
-        /// `h1 × h2`.
-        normal: [f64; 3],
-        /// A point on axis 1.
-        point: [f64; 3],
-        /// The wrist center at zero.
-        wrist_center: [f64; 3],
-        /// The sign that means `Front`.
-        front: f64,
-    },
-    /// Cylindrical arms: the sign of `direction · (E2 E3 c − point)`; `Front` when `≥ 0`.
-    Radial {
-        /// The radial direction of the solved slide, ⟂ axis 1.
-        direction: [f64; 3],
-        /// The point of the slide's line nearest axis 1 at zero, shifted by the slides.
-        point: [f64; 3],
-        /// The wrist center at zero.
-        wrist_center: [f64; 3],
-    },
-    /// No shoulder choice.
-    Only,
-}
-
-/// How the elbow label is read from joint values.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub enum ElbowRule {
-    /// Elbow arms: bend `= sign sin(sense · θ3 − stretched)` (θ3 the model value); `Up` when
-    /// bend × (+1 front, −1 back) equals `up`.
-    Bend {
-        /// `±1`: axis 3's direction relative to axis 2.
-        sense: f64,
-        /// The angle of the stretched configuration about axis 2.
-        stretched: f64,
-        /// The sign that means `Up` with the shoulder in front.
-        up: f64,
-    },
-    /// Polar arms: `Extended` when the slide's model value is at least `nearest` (the value at
-    /// the nearest approach to axis 2).
-    Slide {
-        /// The slide value of the nearest approach.
-        nearest: f64,
-    },
-    /// No elbow choice.
-    Only,
-}
-
-/// How the wrist label is read from joint values.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct WristRule {
-    /// `h4 × h5` at zero.
-    pub normal: [f64; 3],
-    /// `h5` at zero.
-    pub axis5: [f64; 3],
-    /// `h6` at zero.
-    pub axis6: [f64; 3],
-}
-
-/// The rules that read a branch label from joint values.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct BranchRule {
-    /// Shoulder rule.
-    pub shoulder: ShoulderRule,
-    /// Elbow rule.
-    pub elbow: ElbowRule,
-    /// Wrist rule.
-    pub wrist: WristRule,
-    /// The rules read the arm backwards: for an arm whose axes 1–3 meet (the wrist at the
-    /// base), they are the rules of the mirrored arm, whose joint `i` is joint `7 − i` turning
-    /// about the reversed axis (same joint values).
-    pub mirrored: bool,
-}
-
-/// The mirrored arm of [`BranchRule::mirrored`]: joints in reverse order, axes reversed, and
-/// the joint values in reverse order. `E(−h, θ) = E(h, −θ)`, so the mirrored arm's forward
-/// kinematics with the reversed values is the inverse of the arm's joint motions.
-pub fn mirror(joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> ([Joint; JOINTS], [f64; JOINTS]) {
-    let mut mj = *joints;
-    let mut mq = *q;
-    for i in 0..JOINTS {
-        let j = joints[JOINTS - 1 - i];
-        mj[i] = Joint {
-            axis: [-j.axis[0], -j.axis[1], -j.axis[2]],
-            ..j
+    let mut best: Option<(f64, Solution)> = None;
+    for c in candidates {
+        let Ok(s) = finish_one(joints, settings, c, anchor) else {
+            continue;
         };
-        mq[i] = q[JOINTS - 1 - i];
+        let d = distance(joints, settings, &s.joints, current);
+        if best.map_or(true, |(b, _)| d < b) {
+            best = Some((d, s));
+        }
     }
-    (mj, mq)
-}
-
-fn sign(x: f64) -> f64 {
-    if x >= 0.0 {
-        1.0
-    } else {
-        -1.0
-    }
-}
-
-/// Rodrigues' rotation of `v` about unit `h` by `angle`.
-fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
-    let (s, c) = sin_cos(angle);
-    let k = dot(h, v) * (1.0 - c);
-    let hv = cross(h, v);
-    [
-        c * v[0] + s * hv[0] + k * h[0],
-        c * v[1] + s * hv[1] + k * h[1],
-        c * v[2] + s * hv[2] + k * h[2],
-    ]
-}
-
-/// The branch label of a configuration, read by the arm's rules.
-pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> Branch {
-    if rule.mirrored {
-        let (mj, mq) = mirror(joints, q);
-        let forward = BranchRule {
-            mirrored: false,
-            ..*rule
-        };
-        return branch_of(&forward, &mj, &mq);
-    }
-    // The point joints 2–6 carry (a wrist center is fixed by joints 4–6; the meeting point of
-    // axes 5 and 6 of a three-parallel arm is moved by joint 4).
-    let moved_center = |c: &[f64; 3]| {
-        let mut w = *c;
-        for i in (1..JOINTS).rev() {
-            w = joint_motion(&joints[i], q[i]).transform_point(&w);
-        }
-        w
-    };
-    let shoulder = match rule.shoulder {
-        ShoulderRule::Plane {
-            normal,
-            point,
-            wrist_center,
-            front,
-        } => {
-            let w = moved_center(&wrist_center);
-            if sign(dot(&normal, &sub(&w, &point))) == front {
-                Shoulder::Front
-            } else {
-                Shoulder::Back
-            }
-        }
-        ShoulderRule::Radial {
-            direction,
-            point,
-            wrist_center,
-        } => {
-            let w = moved_center(&wrist_center);
-            if dot(&direction, &sub(&w, &point)) >= 0.0 {
-                Shoulder::Front
-            } else {
-                Shoulder::Back
-            }
-        }
-        ShoulderRule::Only => Shoulder::Only,
-    };
-    let elbow = match rule.elbow {
-        ElbowRule::Bend {
-            sense,
-            stretched,
-            up,
-        } => {
-            let theta3 = joints[2].model_value(q[2]);
-            let bend = sign(crate::math::sin(sense * theta3 - stretched));
-            let side = if shoulder == Shoulder::Back {
-                -1.0
-            } else {
-                1.0
-            };
-            if bend * side == up {
-                Elbow::Up
-            } else {
-                Elbow::Down
-            }
-        }
-        ElbowRule::Slide { nearest } => {
-            if joints[2].model_value(q[2]) >= nearest {
-                Elbow::Extended
-            } else {
-                Elbow::Retracted
-            }
-        }
-        ElbowRule::Only => Elbow::Only,
-    };
-    let theta5 = joints[4].model_value(q[4]);
-    let w = &rule.wrist;
-    let turned = rotate(&w.axis5, theta5, &w.axis6);
-    let wrist = if dot(&w.normal, &turned) >= 0.0 {
-        Wrist::Plus
-    } else {
-        Wrist::Minus
-    };
-    Branch {
-        shoulder,
-        elbow,
-        wrist,
+    match best {
+        Some((_, s)) => Ok(s),
+        None if candidates.is_empty() => Err(Unreachable::BranchUnavailable),
+        None => Err(failure(
+            &Table::of(joints, settings.limit_tolerance),
+            settings,
+            candidates,
+            None,
+        )),
     }
 }
-
-/// Half a turn, for emitted code that adds it to a model value.
-pub const HALF_TURN: f64 = PI;
 
 #[cfg(test)]
 mod tests {
@@ -943,15 +665,6 @@ mod tests {
             offset: 0.0,
             limits,
         }
-    }
-
-    #[test]
-    fn wrap_lands_within_half_a_turn_of_the_center() {
-        for k in -5..=5 {
-            let x = 0.3 + TAU * k as f64;
-            assert!((wrap(x, 0.0) - 0.3).abs() < 1e-12);
-        }
-        assert!((wrap(3.0 * PI / 2.0, 0.0) + PI / 2.0).abs() < 1e-12);
     }
 
     #[test]
@@ -974,28 +687,5 @@ mod tests {
         let (_, n, miss) = equivalents(&Finishing::of(&j, 1e-12), 1.5, 1e-12);
         assert_eq!(n, 0);
         assert!((miss - 0.5).abs() < 1e-12);
-    }
-
-    #[test]
-    fn pose_checks() {
-        assert!(check_pose(&Pose::<f64>::IDENTITY).is_ok());
-        let mut p = Pose::IDENTITY;
-        p.translation[0] = f64::NAN;
-        assert_eq!(
-            check_pose(&p),
-            Err(Unreachable::InvalidPose(PoseProblem::NotFinite))
-        );
-        let mut p = Pose::IDENTITY;
-        p.rotation[2][2] = -1.0;
-        assert_eq!(
-            check_pose(&p),
-            Err(Unreachable::InvalidPose(PoseProblem::Reflection))
-        );
-        let mut p = Pose::IDENTITY;
-        p.rotation[0][1] = 1e-3;
-        assert!(matches!(
-            check_pose(&p),
-            Err(Unreachable::InvalidPose(PoseProblem::NotOrthonormal { .. }))
-        ));
     }
 }

@@ -1,0 +1,212 @@
+//! Branch labels read back from joint values: the geometric definitions of the shoulder, elbow
+//! and wrist choices (documented on [`crate::Shoulder`], [`crate::Elbow`], [`crate::Wrist`]),
+//! which every solver's `branch_of` applies and `solve`'s labels agree with.
+
+use crate::fk::joint_motion;
+use crate::math::{cross, dot, sin_cos, sub};
+use crate::model::Joint;
+use crate::solution::{Branch, Elbow, Shoulder, Wrist, JOINTS};
+
+/// How the shoulder label is read from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ShoulderRule {
+    /// Elbow and polar arms: the sign of `normal · (E2 E3 c − point)`; `Front` when it equals
+    /// `front` (`±1`; zero counts as positive).
+    Plane {
+        /// `h1 × h2`.
+        normal: [f64; 3],
+        /// A point on axis 1.
+        point: [f64; 3],
+        /// The wrist center at zero.
+        wrist_center: [f64; 3],
+        /// The sign that means `Front`.
+        front: f64,
+    },
+    /// Cylindrical arms: the sign of `direction · (E2 E3 c − point)`; `Front` when `≥ 0`.
+    Radial {
+        /// The radial direction of the solved slide, ⟂ axis 1.
+        direction: [f64; 3],
+        /// The point of the slide's line nearest axis 1 at zero, shifted by the slides.
+        point: [f64; 3],
+        /// The wrist center at zero.
+        wrist_center: [f64; 3],
+    },
+    /// No shoulder choice.
+    Only,
+}
+
+/// How the elbow label is read from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ElbowRule {
+    /// Elbow arms: bend `= sign sin(sense · θ3 − stretched)` (θ3 the model value); `Up` when
+    /// bend × (+1 front, −1 back) equals `up`.
+    Bend {
+        /// `±1`: axis 3's direction relative to axis 2.
+        sense: f64,
+        /// The angle of the stretched configuration about axis 2.
+        stretched: f64,
+        /// The sign that means `Up` with the shoulder in front.
+        up: f64,
+    },
+    /// Polar arms: `Extended` when the slide's model value is at least `nearest` (the value at
+    /// the nearest approach to axis 2).
+    Slide {
+        /// The slide value of the nearest approach.
+        nearest: f64,
+    },
+    /// No elbow choice.
+    Only,
+}
+
+/// How the wrist label is read from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WristRule {
+    /// `h4 × h5` at zero.
+    pub normal: [f64; 3],
+    /// `h5` at zero.
+    pub axis5: [f64; 3],
+    /// `h6` at zero.
+    pub axis6: [f64; 3],
+}
+
+/// The rules that read a branch label from joint values.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct BranchRule {
+    /// Shoulder rule.
+    pub shoulder: ShoulderRule,
+    /// Elbow rule.
+    pub elbow: ElbowRule,
+    /// Wrist rule.
+    pub wrist: WristRule,
+    /// The rules read the arm backwards: for an arm whose axes 1–3 meet (the wrist at the
+    /// base), they are the rules of the mirrored arm, whose joint `i` is joint `7 − i` turning
+    /// about the reversed axis (same joint values).
+    pub mirrored: bool,
+}
+
+/// The mirrored arm of [`BranchRule::mirrored`]: joints in reverse order, axes reversed, and
+/// the joint values in reverse order. `E(−h, θ) = E(h, −θ)`, so the mirrored arm's forward
+/// kinematics with the reversed values is the inverse of the arm's joint motions.
+pub fn mirror(joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> ([Joint; JOINTS], [f64; JOINTS]) {
+    let mut mj = *joints;
+    let mut mq = *q;
+    for i in 0..JOINTS {
+        let j = joints[JOINTS - 1 - i];
+        mj[i] = Joint {
+            axis: [-j.axis[0], -j.axis[1], -j.axis[2]],
+            ..j
+        };
+        mq[i] = q[JOINTS - 1 - i];
+    }
+    (mj, mq)
+}
+
+fn sign(x: f64) -> f64 {
+    if x >= 0.0 {
+        1.0
+    } else {
+        -1.0
+    }
+}
+
+/// Rodrigues' rotation of `v` about unit `h` by `angle`.
+fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
+    let (s, c) = sin_cos(angle);
+    let k = dot(h, v) * (1.0 - c);
+    let hv = cross(h, v);
+    [
+        c * v[0] + s * hv[0] + k * h[0],
+        c * v[1] + s * hv[1] + k * h[1],
+        c * v[2] + s * hv[2] + k * h[2],
+    ]
+}
+
+/// The branch label of a configuration, read by the arm's rules.
+pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> Branch {
+    if rule.mirrored {
+        let (mj, mq) = mirror(joints, q);
+        let forward = BranchRule {
+            mirrored: false,
+            ..*rule
+        };
+        return branch_of(&forward, &mj, &mq);
+    }
+    // The point joints 2–6 carry (a wrist center is fixed by joints 4–6; the meeting point of
+    // axes 5 and 6 of a three-parallel arm is moved by joint 4).
+    let moved_center = |c: &[f64; 3]| {
+        let mut w = *c;
+        for i in (1..JOINTS).rev() {
+            w = joint_motion(&joints[i], q[i]).transform_point(&w);
+        }
+        w
+    };
+    let shoulder = match rule.shoulder {
+        ShoulderRule::Plane {
+            normal,
+            point,
+            wrist_center,
+            front,
+        } => {
+            let w = moved_center(&wrist_center);
+            if sign(dot(&normal, &sub(&w, &point))) == front {
+                Shoulder::Front
+            } else {
+                Shoulder::Back
+            }
+        }
+        ShoulderRule::Radial {
+            direction,
+            point,
+            wrist_center,
+        } => {
+            let w = moved_center(&wrist_center);
+            if dot(&direction, &sub(&w, &point)) >= 0.0 {
+                Shoulder::Front
+            } else {
+                Shoulder::Back
+            }
+        }
+        ShoulderRule::Only => Shoulder::Only,
+    };
+    let elbow = match rule.elbow {
+        ElbowRule::Bend {
+            sense,
+            stretched,
+            up,
+        } => {
+            let theta3 = joints[2].model_value(q[2]);
+            let bend = sign(crate::math::sin(sense * theta3 - stretched));
+            let side = if shoulder == Shoulder::Back {
+                -1.0
+            } else {
+                1.0
+            };
+            if bend * side == up {
+                Elbow::Up
+            } else {
+                Elbow::Down
+            }
+        }
+        ElbowRule::Slide { nearest } => {
+            if joints[2].model_value(q[2]) >= nearest {
+                Elbow::Extended
+            } else {
+                Elbow::Retracted
+            }
+        }
+        ElbowRule::Only => Elbow::Only,
+    };
+    let theta5 = joints[4].model_value(q[4]);
+    let w = &rule.wrist;
+    let turned = rotate(&w.axis5, theta5, &w.axis6);
+    let wrist = if dot(&w.normal, &turned) >= 0.0 {
+        Wrist::Plus
+    } else {
+        Wrist::Minus
+    };
+    Branch {
+        shoulder,
+        elbow,
+        wrist,
+    }
+}
