@@ -447,3 +447,93 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
     };
     (model, geometry)
 }
+
+/// A random arm with three consecutive parallel axes (joints 2, 3, 4) and axes 5 and 6 meeting
+/// (random lengths, offsets along the axes, twists, tool and mounting). With `layout`, axes 1
+/// and 5 are perpendicular to the parallel axes and axis 6 perpendicular to axis 5; otherwise
+/// their angles are random. Not classified: the model only.
+pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -> Model {
+    let mut rng = SampleRng::new(seed.wrapping_mul(7927).wrapping_add(11));
+    let range = options.revolute_range;
+    let h = rng.direction();
+    let (h1, h5) = if layout {
+        (rng.perpendicular(&h), rng.perpendicular(&h))
+    } else {
+        (
+            rng.direction_away_from(&h, 0.85),
+            rng.direction_away_from(&h, 0.85),
+        )
+    };
+    let h6 = if layout {
+        rng.perpendicular(&h5)
+    } else {
+        rng.direction_away_from(&h5, 0.85)
+    };
+    let p1 = rng.point(0.2);
+    let p2 = num::add(&p1, &rng.point(0.3));
+    let step = |rng: &mut SampleRng, from: &[f64; 3]| {
+        let across = num::scale(&rng.perpendicular(&h), rng.range(0.25, 0.7));
+        num::add(
+            &num::add(from, &across),
+            &num::scale(&h, rng.range(-0.15, 0.15)),
+        )
+    };
+    let p3 = step(&mut rng, &p2);
+    let p4 = step(&mut rng, &p3);
+    let q = num::add(&p4, &rng.point(0.15));
+    let mut joints = [
+        revolute(h1, p1, range),
+        revolute(h, p2, range),
+        revolute(num::scale(&h, rng.sign()), p3, range),
+        revolute(num::scale(&h, rng.sign()), p4, range),
+        revolute(
+            h5,
+            num::add(&q, &num::scale(&h5, rng.range(-0.1, 0.1))),
+            range,
+        ),
+        revolute(
+            h6,
+            num::add(&q, &num::scale(&h6, rng.range(-0.1, 0.1))),
+            range,
+        ),
+    ];
+    if options.random_zero {
+        for j in joints.iter_mut() {
+            j.direction = rng.sign();
+            j.offset = rng.range(-1.0, 1.0);
+        }
+    }
+    let tool = Pose {
+        rotation: rng.rotation(),
+        translation: num::add(&q, &num::scale(&rng.direction(), rng.range(0.0, 0.2))),
+    };
+    let base = rng.pose(1.0);
+    named_model(
+        format!("sample_three_parallel_{seed}"),
+        &joints,
+        tool,
+        base,
+        format!("<sample three-parallel {seed}>"),
+    )
+}
+
+fn named_model(name: String, joints: &[Joint; 6], tool: Pose, base: Pose, path: String) -> Model {
+    let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
+    Model {
+        name,
+        description: Some("invented sample arm for armforge's own tests".to_string()),
+        units: Units::default(),
+        joints: joints
+            .iter()
+            .zip(names)
+            .map(|(joint, name)| ModelJoint {
+                joint: *joint,
+                name: name.to_string(),
+                location: Location::default(),
+            })
+            .collect(),
+        tool,
+        base,
+        source_path: path,
+    }
+}

@@ -128,6 +128,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis5: [0.8179571762026022, 0.39252029079901796, -0.4205637635480731],
         axis6: [-0.5318678882191131, 0.8467148722277766, -0.013801254640110039],
     },
+    mirrored: false,
 };
 /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.

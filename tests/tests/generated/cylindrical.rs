@@ -132,6 +132,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis5: [0.008443901475437254, -0.8218117691663878, 0.569696512704339],
         axis6: [0.4834853743786345, -0.8714779141183223, -0.08226869371717187],
     },
+    mirrored: false,
 };
 /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.

@@ -137,6 +137,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis5: [0.6461820612405205, -0.6616771312044819, 0.38030529548240455],
         axis6: [-0.6486710312075331, -0.7387164163397849, -0.1830954655425997],
     },
+    mirrored: false,
 };
 /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.

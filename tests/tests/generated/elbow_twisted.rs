@@ -137,6 +137,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis5: [0.5181267383208565, -0.8009340075892076, -0.300082319579281],
         axis6: [0.38734722705858016, 0.10799533335772074, -0.9155867701441429],
     },
+    mirrored: false,
 };
 /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.

@@ -137,6 +137,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis5: [-0.4724329302842692, 0.7561442803457222, -0.45282773069178184],
         axis6: [-0.15407632110095185, -0.5767220392357884, -0.8022793632742339],
     },
+    mirrored: false,
 };
 /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.

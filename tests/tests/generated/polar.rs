@@ -135,6 +135,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
         axis5: [0.3174776227989252, 0.9399166168175558, 0.12555760611043656],
         axis6: [-0.08264952242757546, 0.34229941191058744, 0.935948806852255],
     },
+    mirrored: false,
 };
 /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
