@@ -2,6 +2,8 @@
 
 use std::fmt;
 
+use crate::text::escape_line;
+
 /// A place in a source file: 1-based line and column.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
 pub struct Location {
@@ -34,7 +36,10 @@ pub struct Diagnostics {
 }
 
 impl fmt::Display for Diagnostics {
+    /// Every problem with its place and caret. Text from the file (path, key, source line) is
+    /// shown through [`escape_line`], so it cannot change how the message reads.
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let path = escape_line(&self.path);
         for (i, d) in self.items.iter().enumerate() {
             if i > 0 {
                 writeln!(f)?;
@@ -42,28 +47,30 @@ impl fmt::Display for Diagnostics {
             let key = if d.key.is_empty() {
                 String::new()
             } else {
-                format!("`{}`: ", d.key)
+                format!("`{}`: ", escape_line(&d.key))
             };
+            let message = escape_line(&d.message);
             if d.location.line == 0 {
                 // No place in the file (e.g. the file could not be read).
-                writeln!(f, "error: {}: {}{}", self.path, key, d.message)?;
+                writeln!(f, "error: {path}: {key}{message}")?;
                 continue;
             }
             writeln!(
                 f,
-                "error: {}:{}:{}: {}{}",
-                self.path, d.location.line, d.location.column, key, d.message
+                "error: {path}:{}:{}: {key}{message}",
+                d.location.line, d.location.column
             )?;
+            // The caret goes under the same character of the escaped line.
+            let before: String = d
+                .source_line
+                .chars()
+                .take(d.location.column.saturating_sub(1))
+                .collect();
+            let caret_column = escape_line(&before).chars().count() + 1;
             let gutter = d.location.line.to_string().len();
             writeln!(f, "{:gutter$} |", "")?;
-            writeln!(f, "{} | {}", d.location.line, d.source_line)?;
-            write!(
-                f,
-                "{:gutter$} | {:>col$}",
-                "",
-                "^",
-                col = d.location.column.max(1)
-            )?;
+            writeln!(f, "{} | {}", d.location.line, escape_line(&d.source_line))?;
+            write!(f, "{:gutter$} | {:>caret_column$}", "", "^")?;
             writeln!(f)?;
         }
         Ok(())

@@ -20,7 +20,6 @@ use crate::classify::Tolerances;
 use crate::pipeline::{display_path, generate_module};
 
 /// What the macro call says: `[attributes] [pub] mod NAME = "path";`.
-#[derive(Clone)]
 pub struct MacroInput {
     /// Outer attributes and doc comments, put on the generated module.
     pub attrs: Vec<Attribute>,

@@ -20,4 +20,5 @@ pub mod model;
 pub mod pipeline;
 pub mod plan;
 pub mod solver;
+pub mod text;
 pub mod units;

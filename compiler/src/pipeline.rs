@@ -31,18 +31,21 @@ pub struct Generated {
 /// Why the pipeline made no module.
 #[derive(Clone, Debug)]
 pub enum PipelineError {
-    /// The file cannot be read or is not a valid description (every problem, located).
+    /// The file cannot be opened or read (one diagnostic without a place).
+    Unreadable(Diagnostics),
+    /// The file is not a valid description (every problem, located).
     Description(Diagnostics),
     /// The arm has no decoupled closed form (located at the offending joint).
     Rejected(Box<Rejection>),
 }
 
 impl PipelineError {
-    /// True when the description itself is at fault (unreadable, invalid, or a model no
-    /// classification can start from); false when it is a valid arm whose geometry has no
-    /// closed form. Command-line tools map the two to different exit codes.
+    /// True when the description itself is at fault (invalid, or a model no classification
+    /// can start from); false when it is a valid arm whose geometry has no closed form or a
+    /// file that cannot be read. Command-line tools map these to different exit codes.
     pub fn is_bad_description(&self) -> bool {
         match self {
+            PipelineError::Unreadable(_) => false,
             PipelineError::Description(_) => true,
             PipelineError::Rejected(r) => r.is_bad_input(),
         }
@@ -60,7 +63,7 @@ impl PipelineError {
 impl fmt::Display for PipelineError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
-            PipelineError::Description(d) => write!(f, "{d}"),
+            PipelineError::Unreadable(d) | PipelineError::Description(d) => write!(f, "{d}"),
             PipelineError::Rejected(r) => writeln!(f, "{r}"),
         }
     }
@@ -83,7 +86,7 @@ pub fn generate_module(
     shown_path: &str,
     tolerances: &Tolerances,
 ) -> Result<Generated, PipelineError> {
-    let text = read(path, shown_path)?;
+    let text = read_description(path, shown_path)?;
     generate_from_str(&text, shown_path, tolerances)
 }
 
@@ -114,7 +117,14 @@ pub fn load_and_classify(
     shown_path: &str,
     tolerances: &Tolerances,
 ) -> Result<(Model, Geometry), PipelineError> {
-    classify_text(&read(path, shown_path)?, shown_path, tolerances)
+    classify_text(&read_description(path, shown_path)?, shown_path, tolerances)
+}
+
+/// Reads and loads the description at `path` into a model, without classifying it (for
+/// `forward`, `inspect`, `draw`).
+pub fn load_model(path: &Path, shown_path: &str) -> Result<Model, PipelineError> {
+    let text = read_description(path, shown_path)?;
+    description::load_str(&text, shown_path).map_err(PipelineError::Description)
 }
 
 /// Reads description text and classifies the arm.
@@ -129,17 +139,60 @@ fn classify_text(
     Ok((model, geometry))
 }
 
-/// The file's text, or one unlocated diagnostic saying why it cannot be read.
-fn read(path: &Path, shown_path: &str) -> Result<String, PipelineError> {
-    std::fs::read_to_string(path).map_err(|e| {
-        PipelineError::Description(Diagnostics {
-            path: shown_path.to_string(),
-            items: vec![Diagnostic {
-                location: Location::default(),
-                key: String::new(),
-                message: format!("cannot read the file: {e}"),
-                source_line: String::new(),
-            }],
-        })
-    })
+/// The largest description file read, in bytes (1 MiB: a six-joint arm takes about 2 KiB).
+pub const MAX_FILE_BYTES: u64 = 1 << 20;
+
+/// The one way every tool reads a description file: at most [`MAX_FILE_BYTES`], as UTF-8.
+///
+/// `shown_path` names the file in messages. A file that cannot be opened or read, a file over
+/// the cap (also an endless one such as `/dev/zero`) and a file that is not UTF-8 (located at
+/// the first bad byte's line and column) each give one diagnostic: the first as
+/// [`PipelineError::Unreadable`], the others as [`PipelineError::Description`].
+pub fn read_description(path: &Path, shown_path: &str) -> Result<String, PipelineError> {
+    use std::io::Read;
+    let unreadable = |message: String| Diagnostics {
+        path: shown_path.to_string(),
+        items: vec![Diagnostic {
+            location: Location::default(),
+            key: String::new(),
+            message,
+            source_line: String::new(),
+        }],
+    };
+    let mut bytes = Vec::new();
+    std::fs::File::open(path)
+        .and_then(|file| file.take(MAX_FILE_BYTES + 1).read_to_end(&mut bytes))
+        .map_err(|e| PipelineError::Unreadable(unreadable(format!("cannot read the file: {e}"))))?;
+    if bytes.len() as u64 > MAX_FILE_BYTES {
+        return Err(PipelineError::Description(unreadable(format!(
+            "the file is larger than {} KiB; a description is a few KiB",
+            MAX_FILE_BYTES / 1024
+        ))));
+    }
+    String::from_utf8(bytes).map_err(|e| PipelineError::Description(not_utf8(shown_path, e)))
+}
+
+/// The diagnostic for a file that is not UTF-8, at the first invalid byte.
+fn not_utf8(shown_path: &str, e: std::string::FromUtf8Error) -> Diagnostics {
+    let bytes = e.as_bytes();
+    let valid = e.utf8_error().valid_up_to();
+    // The prefix up to `valid` is UTF-8 by definition of `valid_up_to`.
+    let before = std::str::from_utf8(&bytes[..valid]).unwrap_or_default();
+    let line_start = before.rfind('\n').map_or(0, |i| i + 1);
+    let line_text = &before[line_start..];
+    Diagnostics {
+        path: shown_path.to_string(),
+        items: vec![Diagnostic {
+            location: Location {
+                line: before.matches('\n').count() + 1,
+                column: line_text.chars().count() + 1,
+            },
+            key: String::new(),
+            message: format!(
+                "the file is not UTF-8 text: byte 0x{:02x} at offset {valid} starts no character",
+                bytes.get(valid).copied().unwrap_or_default()
+            ),
+            source_line: line_text.to_string(),
+        }],
+    }
 }

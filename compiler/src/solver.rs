@@ -181,7 +181,7 @@ impl Solver {
                 }
             }
         }
-        let reference = internal::reference(joints, current);
+        let reference = internal::reference_of(joints, current, self.plan.free_joints);
         let candidates = self.candidates(target, &reference);
         internal::nearest_candidate(joints, settings, &candidates, current, &anchor)
     }

@@ -4,8 +4,8 @@
 use std::path::{Path, PathBuf};
 
 use armforge_compiler::classify::{classify, Tolerances};
-use armforge_compiler::description::load_file;
 use armforge_compiler::emit::{emit_module, EmitOptions};
+use armforge_compiler::pipeline::load_model;
 use armforge_compiler::plan::build_plan;
 use armforge_compiler::plan::samples::{sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -48,13 +48,9 @@ fn error(a: &Pose, b: &Pose, reach: f64) -> f64 {
 
 #[test]
 fn example_arms_round_trip_through_the_interpreter() {
-    let samples = if std::env::var_os("ARMFORGE_HEAVY").is_some() {
-        20_000
-    } else {
-        300
-    };
+    let samples = armforge_compiler::plan::samples::sample_count(300);
     for path in arms() {
-        let model = load_file(&path).unwrap_or_else(|d| panic!("{d}"));
+        let model = load_model(&path, "arm").unwrap_or_else(|d| panic!("{d}"));
         let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));
         let reach = solver.plan().arm.scale;
         let mut rng = SampleRng::new(17);
@@ -112,7 +108,7 @@ fn example_arms_round_trip_through_the_interpreter() {
 #[test]
 fn example_arm_plans_and_modules() {
     for path in arms() {
-        let model = load_file(&path).unwrap_or_else(|d| panic!("{d}"));
+        let model = load_model(&path, "arm").unwrap_or_else(|d| panic!("{d}"));
         let geometry = classify(&model, &Tolerances::default()).unwrap();
         let plan = build_plan(&model, &geometry);
         let name = stem(&path);

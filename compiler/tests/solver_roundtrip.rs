@@ -3,30 +3,25 @@
 //! every solution must reproduce the pose, lie within the limits, carry the label that
 //! `branch_of` reads back, and differ from the others.
 //!
-//! Sample counts are modest by default; set `ARMFORGE_HEAVY=1` (release builds) for more.
+//! Sample counts are modest by default; `ARMFORGE_SCALE=K` (release builds) runs K times more
+//! arms.
 
 use std::f64::consts::{PI, TAU};
 
 use armforge_compiler::classify::Family;
 use armforge_compiler::plan::samples::{
-    sample_arm, sample_configuration, SampleOptions, SampleRng,
+    sample_arm, sample_configuration, sample_count, SampleOptions, SampleRng,
 };
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{JointKind, Pose, Solution};
 
-fn heavy() -> bool {
-    std::env::var_os("ARMFORGE_HEAVY").is_some()
-}
-
-/// (arms, configurations per arm): small in debug builds, more in release builds (CI), many
-/// more with `ARMFORGE_HEAVY`.
+/// (arms, configurations per arm): small in debug builds, more in release builds (CI), `K`
+/// times the arms with `ARMFORGE_SCALE=K`.
 fn counts() -> (u64, usize) {
-    if heavy() {
-        (500, 400)
-    } else if cfg!(debug_assertions) {
-        (25, 25)
+    if cfg!(debug_assertions) {
+        (sample_count(25) as u64, 25)
     } else {
-        (100, 100)
+        (sample_count(100) as u64, 100)
     }
 }
 

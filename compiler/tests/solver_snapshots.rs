@@ -22,10 +22,7 @@ fn plans_of_sample_arms_of_every_family() {
         Family::Cartesian,
     ] {
         let (model, geometry) = sample_arm(family, 1, &SampleOptions::default());
-        let name = format!(
-            "plan_{}",
-            armforge_compiler::plan::samples::family_name(family)
-        );
+        let name = format!("plan_{}", family.name());
         insta::assert_snapshot!(name, build_plan(&model, &geometry).to_string());
     }
 }

@@ -119,13 +119,13 @@ fn run(name: &str) -> Option<usize> {
         }
         Some("emitted/solve_branch") => {
             measure(CALLS, |i| {
-                black_box(bench_elbow::solve_branch(&s(i).pose, s(i).branch));
+                let _ = black_box(bench_elbow::solve_branch(&s(i).pose, s(i).branch));
             });
             CALLS
         }
         Some("emitted/solve_near") => {
             measure(CALLS, |i| {
-                black_box(bench_elbow::solve_near(&s(i).pose, &s(i).joints));
+                let _ = black_box(bench_elbow::solve_near(&s(i).pose, &s(i).joints));
             });
             CALLS
         }
@@ -137,7 +137,7 @@ fn run(name: &str) -> Option<usize> {
         }
         Some("interpreter/solve") => {
             measure(CALLS, |i| {
-                black_box(interpreter.solve(&s(i).pose));
+                let _ = black_box(interpreter.solve(&s(i).pose));
             });
             CALLS
         }
@@ -222,10 +222,10 @@ fn run_example_arm(name: &str, _bench: &[Sample]) -> Option<usize> {
             black_box((arm.solve_count)(&poses[i]));
         }),
         "solve_branch" => measure(CALLS, |i| {
-            black_box((arm.solve_branch)(&poses[i], branches[i]));
+            let _ = black_box((arm.solve_branch)(&poses[i], branches[i]));
         }),
         "solve_near" => measure(CALLS, |i| {
-            black_box((arm.solve_near)(&poses[i], &joints[i]));
+            let _ = black_box((arm.solve_near)(&poses[i], &joints[i]));
         }),
         "forward" => measure(CALLS, |i| {
             black_box((arm.forward)(&joints[i]));

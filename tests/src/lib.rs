@@ -38,6 +38,15 @@ pub fn example_arm_paths() -> Vec<PathBuf> {
     toml_files_in(&workspace_root().join("arms"))
 }
 
+/// The folder of the checked-in emitted modules of the sample-arm fixtures
+/// (`armforge_compiler::plan::samples::fixtures`).
+pub fn generated_dir() -> PathBuf {
+    workspace_root()
+        .join("tests")
+        .join("tests")
+        .join("generated")
+}
+
 /// A file or folder under `tests/fixtures/`.
 pub fn fixture(relative: &str) -> PathBuf {
     workspace_root()
@@ -365,10 +374,5 @@ pub fn pose_difference_of(a: &Pose, b: &Pose) -> (f64, f64) {
     (rotation, translation)
 }
 
-/// The number of random samples for a test: `default`, or `ARMFORGE_SAMPLES` when set.
-pub fn sample_count(default: usize) -> usize {
-    std::env::var("ARMFORGE_SAMPLES")
-        .ok()
-        .and_then(|s| s.parse().ok())
-        .unwrap_or(default)
-}
+/// A test's sample count: `default` times `ARMFORGE_SCALE` (see DEVELOPERS.md).
+pub use armforge_compiler::plan::samples::sample_count;

@@ -9,8 +9,8 @@
 //! The test prints how many distinct solutions the numerical method found versus armforge;
 //! it finds a subset (random starts miss some basins), and must never find more.
 //!
-//! Poses per arm: `ARMFORGE_LM_POSES` (default 300 in release builds, 20 in debug builds);
-//! 32 starts per pose.
+//! Poses per arm: 300 in release builds, 20 in debug builds, times `ARMFORGE_SCALE`; 32 starts
+//! per pose.
 
 use std::f64::consts::TAU;
 
@@ -27,10 +27,7 @@ const STARTS: usize = 32;
 const CONVERGED: f64 = 1e-10;
 
 fn poses_per_arm() -> usize {
-    std::env::var("ARMFORGE_LM_POSES")
-        .ok()
-        .and_then(|s| s.parse().ok())
-        .unwrap_or(if cfg!(debug_assertions) { 20 } else { 300 })
+    armforge_tests::sample_count(if cfg!(debug_assertions) { 20 } else { 300 })
 }
 
 /// `T(q) = target` as least squares: the position error divided by the arm's size and the nine

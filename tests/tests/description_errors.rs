@@ -6,9 +6,20 @@
 
 use std::path::Path;
 
-use armforge_compiler::description::{load_file, load_str};
+use armforge_compiler::description::load_str;
 use armforge_compiler::diagnostics::Diagnostics;
+use armforge_compiler::model::Model;
+use armforge_compiler::pipeline::{load_model, PipelineError};
 use armforge_tests::{example_arm_paths, fixture, toml_files_in};
+
+/// The description at `path` through the one file-loading entry point, or its problems.
+fn load_file(path: &Path) -> Result<Model, Diagnostics> {
+    match load_model(path, &path.display().to_string()) {
+        Ok(model) => Ok(model),
+        Err(PipelineError::Unreadable(d) | PipelineError::Description(d)) => Err(d),
+        Err(PipelineError::Rejected(r)) => panic!("loading does not classify: {r}"),
+    }
+}
 
 /// One expected diagnostic.
 #[derive(Debug)]

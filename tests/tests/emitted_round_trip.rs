@@ -14,8 +14,8 @@
 //! original gives the original; `solve_branch` of the original's branch gives a solution of
 //! that branch reproducing the pose.
 //!
-//! Samples per arm: `ARMFORGE_SAMPLES`, default 100,000 in release builds (a few seconds) and
-//! 2,000 in debug builds.
+//! Samples per arm: 100,000 in release builds (a few seconds) and 2,000 in debug builds, times
+//! `ARMFORGE_SCALE`.
 
 use std::f64::consts::TAU;
 

@@ -5,8 +5,8 @@
 
 use std::collections::BTreeSet;
 
-use armforge_compiler::description::load_file;
 use armforge_compiler::model::Model;
+use armforge_compiler::pipeline::load_model;
 use armforge_runtime::math::{cross, dot, norm, sub};
 use armforge_runtime::{joint_motion, JointKind};
 use armforge_tests::example_arm_paths;
@@ -18,7 +18,7 @@ fn arms() -> Vec<(String, Model)> {
     example_arm_paths()
         .into_iter()
         .map(|p| {
-            let model = load_file(&p).unwrap_or_else(|d| panic!("{d}"));
+            let model = load_model(&p, "arm").unwrap_or_else(|d| panic!("{d}"));
             (p.display().to_string(), model)
         })
         .collect()

@@ -7,8 +7,8 @@
 //! compared with Spong, Hutchinson & Vidyasagar 2006, §3.2), and the axes file lists the z axes
 //! and origins of the standard frames at zero.
 
-use armforge_compiler::description::load_file;
 use armforge_compiler::model::Model;
+use armforge_compiler::pipeline::load_model;
 use armforge_tests::{fixture, pose_difference_of, sample_count, ReferenceArm};
 use rand::rngs::StdRng;
 use rand::SeedableRng;
@@ -16,7 +16,7 @@ use rand::SeedableRng;
 const TOLERANCE: f64 = 1e-12;
 
 fn load(name: &str) -> Model {
-    load_file(&fixture(&format!("twins/{name}.toml"))).unwrap_or_else(|d| panic!("{d}"))
+    load_model(&fixture(&format!("twins/{name}.toml")), "arm").unwrap_or_else(|d| panic!("{d}"))
 }
 
 fn assert_twins(stem: &str) {

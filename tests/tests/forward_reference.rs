@@ -5,7 +5,7 @@
 
 use std::path::Path;
 
-use armforge_compiler::description::load_file;
+use armforge_compiler::pipeline::load_model;
 use armforge_tests::{
     example_arm_paths, fixture, pose_difference, sample_count, toml_files_in, ReferenceArm,
 };
@@ -15,7 +15,7 @@ use rand::SeedableRng;
 const TOLERANCE: f64 = 1e-12;
 
 fn compare_with_reference(path: &Path, samples: usize) {
-    let model = load_file(path).unwrap_or_else(|d| panic!("{d}"));
+    let model = load_model(path, "arm").unwrap_or_else(|d| panic!("{d}"));
     let reference = ReferenceArm::load(path);
     assert_eq!(model.joints.len(), reference.joint_count());
     for (joint, limits) in model.joints.iter().zip(&reference.limits) {
@@ -47,14 +47,19 @@ fn every_example_arm_matches_the_nalgebra_reference() {
 
 #[test]
 fn every_twin_fixture_matches_the_nalgebra_reference() {
-    for path in toml_files_in(&fixture("twins")) {
+    let twins = toml_files_in(&fixture("twins"));
+    // Two arms (elbow, cylinder), each in the three conventions.
+    assert_eq!(twins.len(), 6, "twin fixtures found: {twins:?}");
+    for path in twins {
         compare_with_reference(&path, sample_count(1000));
     }
 }
 
 #[test]
 fn the_unit_twins_match_the_nalgebra_reference() {
-    for path in toml_files_in(&fixture("units")) {
+    let units = toml_files_in(&fixture("units"));
+    assert_eq!(units.len(), 2, "unit fixtures found: {units:?}");
+    for path in units {
         compare_with_reference(&path, sample_count(200));
     }
 }

@@ -3,7 +3,8 @@
 
 use std::f64::consts::{FRAC_PI_2, PI};
 
-use armforge_compiler::description::{load_file, load_str};
+use armforge_compiler::description::load_str;
+use armforge_compiler::pipeline::load_model;
 use armforge_tests::{fixture, pose_difference_of, workspace_root, ReferenceArm};
 use rand::rngs::StdRng;
 use rand::SeedableRng;
@@ -99,7 +100,7 @@ fn the_bench_elbow_at_zero_is_where_its_dh_table_puts_it() {
     // By hand from arms/bench-elbow-dh.toml: reach x = a1 + d4 + d6 + tool = 120 + 380 + 90 +
     // 120 = 710 mm; height z = d1 + a2 + a3 = 450 + 400 + 75 = 925 mm; the tool z axis points
     // along the base x axis.
-    let model = load_file(&workspace_root().join("arms/bench-elbow-dh.toml")).unwrap();
+    let model = load_model(&workspace_root().join("arms/bench-elbow-dh.toml"), "arm").unwrap();
     let pose = model.forward_in_file_units(&[0.0; 6]);
     let expected = [710.0, 0.0, 925.0];
     for (found, expected) in pose.translation.iter().zip(expected) {
@@ -117,7 +118,7 @@ fn the_bench_elbow_at_zero_is_where_its_dh_table_puts_it() {
 fn the_gantry_moves_its_tool_by_exactly_its_slide_values() {
     // arms/tray-gantry-axes.toml: the slides are x, y and −z; with the wrist at zero the tool
     // sits at base (0, 0, 2000) + (150, 100, −510) + (q1, q2, −q3) mm.
-    let model = load_file(&workspace_root().join("arms/tray-gantry-axes.toml")).unwrap();
+    let model = load_model(&workspace_root().join("arms/tray-gantry-axes.toml"), "arm").unwrap();
     let pose = model.forward_in_file_units(&[1000.0, 250.0, 300.0, 0.0, 0.0, 0.0]);
     let expected = [1150.0, 350.0, 2000.0 - 510.0 - 300.0];
     for (found, expected) in pose.translation.iter().zip(expected) {
@@ -135,8 +136,8 @@ fn files_in_mm_and_degrees_equal_their_m_and_rad_twins() {
         ),
     ];
     for (arm, twin) in pairs {
-        let a = load_file(&workspace_root().join(arm)).unwrap_or_else(|d| panic!("{d}"));
-        let b = load_file(&fixture(twin)).unwrap_or_else(|d| panic!("{d}"));
+        let a = load_model(&workspace_root().join(arm), "arm").unwrap_or_else(|d| panic!("{d}"));
+        let b = load_model(&fixture(twin), "arm").unwrap_or_else(|d| panic!("{d}"));
         let reference = ReferenceArm::load(&fixture(twin));
         let mut rng = StdRng::seed_from_u64(11);
         for _ in 0..200 {

@@ -2,8 +2,9 @@
 //! named like the runtime's next to them), run against the interpreter: the two back ends of
 //! one plan must give bit-identical solutions.
 //!
-//! The modules under `generated/` are written by the generator's `solver_emit` test (which
-//! fails when they are stale).
+//! The modules under `generated/` are the emitted modules of the sample arms in
+//! `armforge_compiler::plan::samples::fixtures` (`generated_fresh.rs` fails when they are
+//! stale).
 #![deny(warnings)]
 
 macro_rules! emitted {
@@ -33,10 +34,7 @@ emitted!(polar, "generated/polar.rs");
 emitted!(cylindrical, "generated/cylindrical.rs");
 emitted!(cartesian, "generated/cartesian.rs");
 
-use armforge_compiler::classify::Family;
-use armforge_compiler::plan::samples::{
-    sample_arm, sample_configuration, SampleOptions, SampleRng,
-};
+use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{Branch, Pose, Solution, SolutionSet, Unreachable};
 
@@ -49,15 +47,17 @@ struct Emitted<const CAP: usize> {
     branch_of: fn(&[f64; 6]) -> Branch,
 }
 
-fn compare<const CAP: usize>(m: Emitted<CAP>, family: Family, seed: u64, options: SampleOptions) {
-    let (model, geometry) = sample_arm(family, seed, &options);
+/// Compares module `m` with the interpreter on the fixture arm named `name`; returns the name.
+fn compare<const CAP: usize>(m: Emitted<CAP>, name: &'static str) -> &'static str {
+    let fixture = fixtures()
+        .into_iter()
+        .find(|f| f.name == name)
+        .unwrap_or_else(|| panic!("{name} is not in the fixture table"));
+    let (model, geometry) = fixture.arm();
+    let seed = fixture.seed;
     let solver = Solver::new(&model, &geometry);
     let mut rng = SampleRng::new(seed * 31 + 5);
-    let samples = if std::env::var_os("ARMFORGE_HEAVY").is_some() {
-        2000
-    } else {
-        100
-    };
+    let samples = armforge_compiler::plan::samples::sample_count(100);
     for _ in 0..samples {
         let q = sample_configuration(&model, &mut rng);
         let target = model.forward(&q);
@@ -97,6 +97,7 @@ fn compare<const CAP: usize>(m: Emitted<CAP>, family: Family, seed: u64, options
         translation: [0.0; 3],
     };
     assert_eq!((m.solve)(&bad).reason(), solver.solve(&bad).err());
+    name
 }
 
 fn rng_configuration(model: &armforge_compiler::model::Model, rng: &mut SampleRng) -> [f64; 6] {
@@ -117,37 +118,27 @@ macro_rules! api {
 
 #[test]
 fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
-    let plain = SampleOptions::default();
-    let dextrous = SampleOptions {
-        orthogonal_wrist: true,
-        shoulder_axes_meet: true,
-        ..plain
-    };
-    let two_turns = SampleOptions {
-        revolute_range: std::f64::consts::TAU,
-        orthogonal_wrist: true,
-        ..plain
-    };
-    compare(api!(elbow_orthogonal), Family::Elbow, 11, dextrous);
-    compare(api!(elbow_twisted), Family::Elbow, 12, plain);
-    compare(api!(elbow_two_turns), Family::Elbow, 13, two_turns);
-    compare(api!(polar), Family::Polar, 14, plain);
-    compare(api!(cylindrical), Family::Cylindrical, 15, plain);
-    compare(api!(cartesian), Family::Cartesian, 16, plain);
+    let compared = [
+        compare(api!(elbow_orthogonal), "elbow_orthogonal"),
+        compare(api!(elbow_twisted), "elbow_twisted"),
+        compare(api!(elbow_two_turns), "elbow_two_turns"),
+        compare(api!(polar), "polar"),
+        compare(api!(cylindrical), "cylindrical"),
+        compare(api!(cartesian), "cartesian"),
+    ];
+    let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
+    assert_eq!(
+        compared.as_slice(),
+        table.as_slice(),
+        "every fixture compiled and compared"
+    );
 }
 
 #[test]
 fn emitted_elbow_module_has_eight_solutions_with_plain_labels() {
     let mut rng = SampleRng::new(99);
-    let (model, _) = sample_arm(
-        Family::Elbow,
-        11,
-        &SampleOptions {
-            orthogonal_wrist: true,
-            shoulder_axes_meet: true,
-            ..SampleOptions::default()
-        },
-    );
+    let (model, _) = fixtures()[0].arm();
+    assert_eq!(fixtures()[0].name, "elbow_orthogonal");
     for _ in 0..50 {
         let q = sample_configuration(&model, &mut rng);
         let set = elbow_orthogonal::solve(&elbow_orthogonal::forward(&q));

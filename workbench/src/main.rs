@@ -8,7 +8,7 @@ use clap::{Parser, Subcommand};
 
 /// armforge: closed-form inverse-kinematics solvers from arm descriptions.
 #[derive(Parser, Debug)]
-#[command(name = "armforge", version, about)]
+#[command(name = "armforge", version, about, after_help = cli::io::exit::TABLE)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -36,7 +36,7 @@ enum Command {
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
-    match cli.command {
+    let outcome = match cli.command {
         Command::Forward(a) => cli::forward::run(a),
         Command::Inspect(a) => cli::inspect::run(a),
         Command::Emit(a) => cli::emit::run(a),
@@ -45,5 +45,6 @@ fn main() -> ExitCode {
         Command::Verify(a) => cli::verify::run(a),
         Command::Draw(a) => cli::draw::run(a),
         Command::New(a) => cli::new::run(a),
-    }
+    };
+    outcome.unwrap_or_else(|stopped| stopped)
 }

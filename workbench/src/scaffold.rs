@@ -6,33 +6,15 @@
 
 use std::fmt::Write as _;
 
-/// The description conventions a starting file can be written in.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, clap::ValueEnum)]
-pub enum Convention {
-    /// Standard Denavit–Hartenberg parameters.
-    Dh,
-    /// Modified (proximal) Denavit–Hartenberg parameters.
-    ModifiedDh,
-    /// Joint axes and points in the base frame at zero.
-    Axes,
-}
+pub use armforge_compiler::description::{arm_name_problem, Convention};
 
-impl Convention {
-    /// The value of the file's `convention` key.
-    pub fn key(self) -> &'static str {
-        match self {
-            Convention::Dh => "dh",
-            Convention::ModifiedDh => "modified-dh",
-            Convention::Axes => "axes",
-        }
-    }
-}
-
-/// True when `name` can be an arm name: letters, digits, `-` and `_`, starting with a letter.
-pub fn is_valid_arm_name(name: &str) -> bool {
-    let mut chars = name.chars();
-    matches!(chars.next(), Some(c) if c.is_ascii_alphabetic())
-        && chars.all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_')
+/// The convention a command-line word names (the file's words: `dh`, `modified-dh`, `axes`),
+/// or what the valid words are.
+pub fn parse_convention(word: &str) -> Result<Convention, String> {
+    Convention::from_word(word).ok_or_else(|| {
+        let words: Vec<&str> = Convention::ALL.iter().map(|c| c.word()).collect();
+        format!("expected one of {}", words.join(", "))
+    })
 }
 
 /// Joint names, limits (degrees) and purpose of the starting arm, base to tool.
@@ -196,7 +178,7 @@ rpy = [0.0, 0.0, 0.0]
 #              turn (-180°, 180°] and a prismatic joint is unlimited. A revolute range wider
 #              than one turn allows several equivalent angles.
 ",
-        convention = convention.key(),
+        convention = convention.word(),
         help = convention_help(convention),
     );
     for ((joint_name, limits, purpose), geometry) in JOINTS.iter().zip(geometry_rows(convention)) {
@@ -224,10 +206,12 @@ mod tests {
 
     #[test]
     fn arm_names_follow_the_rust_module_rule() {
-        assert!(is_valid_arm_name("tray-arm_2"));
-        assert!(!is_valid_arm_name("2arm"));
-        assert!(!is_valid_arm_name("tray arm"));
-        assert!(!is_valid_arm_name(""));
+        assert_eq!(arm_name_problem("tray-arm_2"), None);
+        assert!(arm_name_problem("2arm").is_some());
+        assert!(arm_name_problem("tray arm").is_some());
+        assert!(arm_name_problem("").is_some());
+        // A module cannot be named with a keyword (The Rust Reference, "Keywords").
+        assert!(arm_name_problem("fn").is_some());
     }
 
     #[test]

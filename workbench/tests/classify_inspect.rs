@@ -152,13 +152,15 @@ fn exit_codes() {
         assert_eq!(v["outcome"]["status"], "rejected");
         assert!(err.starts_with(&format!("error: {path}:")), "{err}");
     }
+    // The exit-code table of `armforge --help` (workbench/src/cli/io/exit.rs): 5 for a file
+    // that cannot be read, 4 for one that is not a description, 2 for a usage error.
     let (code, _, err) = armforge(&["inspect", "arms/rejected/no-such-arm.toml"]);
-    assert_eq!(code, 2, "{err}");
+    assert_eq!(code, 5, "{err}");
     let bad = std::env::temp_dir().join(format!("armforge-inspect-{}.toml", std::process::id()));
     std::fs::write(&bad, "name = \"x\"\nconvention = \"sideways\"\n").expect("temp file");
     let (code, _, err) = armforge(&["inspect", &bad.to_string_lossy()]);
     let _ = std::fs::remove_file(&bad);
-    assert_eq!(code, 2, "{err}");
+    assert_eq!(code, 4, "{err}");
     assert!(err.contains("error: "), "{err}");
 }
 

@@ -120,7 +120,7 @@ fn three_conventions_classify_the_same() {
     use armforge_compiler::description::load_str;
     use armforge_workbench::scaffold::{starting_description, Convention};
     let mut reference: Option<(armforge_compiler::classify::Family, Vec<(String, f64)>)> = None;
-    for convention in [Convention::Dh, Convention::ModifiedDh, Convention::Axes] {
+    for convention in Convention::ALL {
         let text = starting_description("starter", convention);
         let model = load_str(&text, "starter.toml").expect("the starting description loads");
         let g = classify(&model, &Tolerances::default())

@@ -148,12 +148,12 @@ fn emit_exit_codes_match_inspect() {
     for (file, code, needle) in [
         (
             "tests/fixtures/bad/malformed-toml.toml",
-            2,
+            4,
             "malformed-toml.toml:",
         ),
         (
             "tests/fixtures/bad/does-not-exist.toml",
-            2,
+            5,
             "cannot read the file",
         ),
         ("arms/rejected/tilted-elbow.toml", 3, "tilted-elbow.toml:"),

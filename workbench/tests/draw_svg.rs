@@ -588,38 +588,6 @@ fn a_solutions_drawing_has_one_labelled_panel_per_configuration() {
         .all(|v| (v.scale - views[0].scale).abs() < 1e-9));
 }
 
-/// Writes example drawings for looking at them (`ARMFORGE_DRAW_DUMP=dir cargo test …`).
-#[test]
-fn dump_drawings_when_asked() {
-    let Ok(dir) = std::env::var("ARMFORGE_DRAW_DUMP") else {
-        return;
-    };
-    let model = tray_arm();
-    let q = degrees([35.0, -40.0, 70.0, 20.0, -50.0, 15.0]);
-    let svg = Drawing::configuration(&model, q).to_svg();
-    std::fs::write(format!("{dir}/tray_arm.svg"), svg).unwrap();
-    let panels: Vec<Panel> = (0..8)
-        .map(|k| Panel {
-            caption: format!("{}. facing, up, trailing", k + 1),
-            joint_values: degrees([
-                20.0 * k as f64,
-                -30.0 + 10.0 * k as f64,
-                60.0 - 20.0 * k as f64,
-                10.0,
-                40.0,
-                0.0,
-            ]),
-            alternatives: Vec::new(),
-        })
-        .collect();
-    let target = model.forward(&panels[0].joint_values);
-    let svg = Drawing::solutions(&model, target, panels).to_svg();
-    std::fs::write(format!("{dir}/tray_arm_solutions.svg"), svg).unwrap();
-    let gantry = bench_gantry();
-    let svg = Drawing::configuration(&gantry, vec![0.5, 0.15, 0.2, 0.5, 0.8, 0.0]).to_svg();
-    std::fs::write(format!("{dir}/bench_gantry.svg"), svg).unwrap();
-}
-
 /// An invented standard-DH arm (mm, degrees): `[a, alpha, d, theta]` per joint.
 const DH_TABLE: [[f64; 4]; 6] = [
     [50.0, 90.0, 400.0, 0.0],

@@ -3,7 +3,7 @@
 
 use std::path::{Path, PathBuf};
 
-use armforge_compiler::description::load_file;
+use armforge_compiler::pipeline::load_model;
 use assert_cmd::Command;
 use serde_json::Value;
 
@@ -60,7 +60,7 @@ fn the_bundled_sample_gives_one_pose_per_line_in_the_file_units() {
         std::fs::read_to_string(workspace().join("arms/bench-elbow-joints.jsonl")).unwrap();
     let (code, lines, stderr) = forward(&arm, &sample);
     assert_eq!(code, 0, "{stderr}");
-    let model = load_file(&arm).unwrap();
+    let model = load_model(&arm, "arm").unwrap();
     let inputs: Vec<&str> = sample.lines().collect();
     assert_eq!(lines.len(), inputs.len());
     for (input, output) in inputs.iter().zip(&lines) {
@@ -105,23 +105,28 @@ fn malformed_lines_get_an_error_and_the_rest_goes_on_with_exit_1() {
         1e-9,
     );
     assert!(
-        error(1).contains("line 2: expected 6 joint values"),
+        error(1).contains("expected 6 joint values") && lines[1]["line"] == 2,
         "{}",
         error(1)
     );
     assert!(
-        error(2).contains("line 3: joint 6 (\"tray-turn\") is not a number"),
+        error(2).contains("joint 6 (\"tray-turn\") is not a finite number")
+            && lines[2]["line"] == 3,
         "{}",
         error(2)
     );
-    assert!(error(3).contains("line 4: not valid JSON"), "{}", error(3));
     assert!(
-        error(4).contains("line 6: unknown key \"joint\""),
+        error(3).contains("not valid JSON") && lines[3]["line"] == 4,
+        "{}",
+        error(3)
+    );
+    assert!(
+        error(4).contains("unknown key \"joint\"") && lines[4]["line"] == 6,
         "{}",
         error(4)
     );
     assert!(
-        error(5).contains("line 7: expected an object"),
+        error(5).contains("expected an object") && lines[5]["line"] == 7,
         "{}",
         error(5)
     );
@@ -139,7 +144,7 @@ fn every_bad_file_gives_exit_2_its_diagnostics_and_no_output() {
     assert!(files.len() >= 20);
     for path in files {
         let (code, lines, stderr) = forward(&path, "{\"joints\": [0]}\n");
-        assert_eq!(code, 2, "{}", path.display());
+        assert_eq!(code, 4, "{}", path.display());
         assert!(lines.is_empty(), "{}: nothing written", path.display());
         let text = std::fs::read_to_string(&path).unwrap();
         for expectation in text.lines().filter_map(|l| l.strip_prefix("# expect: ")) {
@@ -163,7 +168,7 @@ fn every_bad_file_gives_exit_2_its_diagnostics_and_no_output() {
 #[test]
 fn a_missing_file_gives_exit_2() {
     let (code, lines, stderr) = forward(Path::new("/nonexistent/arm.toml"), "");
-    assert_eq!(code, 2);
+    assert_eq!(code, 5, "an I/O failure");
     assert!(lines.is_empty());
     assert!(stderr.contains("cannot read the file"), "{stderr}");
 }

@@ -213,8 +213,12 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
 fn sheet_wrist_solutions(f: &Facts, r456: &[[f64; 3]; 3]) -> Vec<[f64; 3]> {
     let (h4, h5, h6) = (f.h(4), f.h(5), f.h(6));
     let x6 = num::any_perpendicular(&h6);
-    let v = num::mat_mul(r456, &h6);
-    let xv = num::mat_mul(r456, &x6);
+    let wrist = Pose {
+        rotation: *r456,
+        translation: [0.0; 3],
+    };
+    let v = wrist.rotate(&h6);
+    let xv = wrist.rotate(&x6);
     let c45 = num::dot(&h4, &h5);
     let b = num::dot(&h5, &h6);
     let den = 1.0 - c45 * c45;
@@ -379,5 +383,5 @@ fn explain_exit_codes() {
         .args(["explain", "arms/no-such-arm.toml"])
         .output()
         .expect("armforge runs");
-    assert_eq!(missing.status.code(), Some(2));
+    assert_eq!(missing.status.code(), Some(5));
 }

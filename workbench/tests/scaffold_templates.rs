@@ -1,9 +1,11 @@
 //! `armforge new` writes descriptions that load, and its three conventions describe one arm.
 
+use std::process::Command;
+
 use armforge_compiler::description::load_str;
 use armforge_workbench::scaffold::{starting_description, Convention};
 
-const CONVENTIONS: [Convention; 3] = [Convention::Dh, Convention::ModifiedDh, Convention::Axes];
+const CONVENTIONS: [Convention; 3] = Convention::ALL;
 
 #[test]
 fn every_starting_description_loads() {
@@ -52,4 +54,41 @@ fn the_flange_sits_where_the_comments_say() {
         assert!((got - want).abs() < 1e-12, "{pose:?}");
     }
     assert!((pose.rotation[0][2] - 1.0).abs() < 1e-12, "{pose:?}");
+}
+
+/// `armforge new` refuses the names the description reader refuses, with the reader's reason,
+/// and writes nothing: `fn` is a Rust keyword (The Rust Reference, "Keywords") and cannot name
+/// the module the arm becomes.
+#[test]
+fn new_refuses_a_keyword_name_as_the_reader_does() {
+    let dir = std::env::temp_dir().join(format!("armforge-new-keyword-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    let out = Command::new(env!("CARGO_BIN_EXE_armforge"))
+        .args(["new", "fn"])
+        .current_dir(&dir)
+        .output()
+        .expect("armforge runs");
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(2), "{stderr}");
+    assert!(stderr.contains("Rust keyword"), "{stderr}");
+    assert!(!dir.join("fn.toml").exists());
+    // The reader refuses the same name in a file, for the same reason.
+    let text = starting_description("fn", Convention::Dh);
+    let problems = load_str(&text, "fn.toml").expect_err("a keyword name is refused");
+    assert!(problems.to_string().contains("Rust keyword"), "{problems}");
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+/// `--convention` takes the words the file's `convention` key takes, and no others.
+#[test]
+fn new_takes_the_file_convention_words() {
+    for convention in Convention::ALL {
+        let word = convention.word();
+        assert_eq!(
+            armforge_workbench::scaffold::parse_convention(word),
+            Ok(convention)
+        );
+    }
+    assert!(armforge_workbench::scaffold::parse_convention("denavit").is_err());
 }

@@ -1,7 +1,7 @@
 //! With the wrist center on axis 1, joint 1 is free; `solve` holds it where both shoulder
 //! solutions fit joint 1's limits, so a reachable pose there is never reported unreachable.
 
-use armforge_compiler::description::load_file;
+use armforge_compiler::pipeline::load_model;
 use armforge_compiler::plan::free_joint_1_value;
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{Flags, Joint, JointKind, Pose, Shoulder};
@@ -38,7 +38,7 @@ fn the_back_shoulder_is_found_when_joint_1_cannot_turn_half_a_turn_from_zero() {
     // at 1200 mm height: joint 1 is free, and the back shoulder solutions need joint 1 half a
     // turn from the facing ones, so only a facing value other than zero keeps both inside.
     let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../arms/bench-elbow-dh.toml");
-    let model = load_file(std::path::Path::new(path)).expect("example arm loads");
+    let model = load_model(std::path::Path::new(path), "arm").expect("example arm loads");
     let solver = Solver::for_model(&model).expect("classifies");
     let target = Pose {
         rotation: [[0.0, 0.0, 1.0], [0.0, -1.0, 0.0], [1.0, 0.0, 0.0]],
@@ -81,7 +81,7 @@ fn poses_near_axis_1_are_rarely_reported_unreachable() {
     // Joint 1 also turns the wrist's orientation, so near axis 1 a wrist limit can still rule
     // out the held value; what is left is a small fraction of the near-axis-1 samples.
     let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../arms/bench-elbow-dh.toml");
-    let model = load_file(std::path::Path::new(path)).expect("example arm loads");
+    let model = load_model(std::path::Path::new(path), "arm").expect("example arm loads");
     let solver = Solver::for_model(&model).expect("classifies");
     let geometry =
         armforge_compiler::classify::classify(&model, &Default::default()).expect("classifies");

@@ -3,7 +3,7 @@
 //! built from a description with one number changed fails with the failing samples named, and
 //! the command's exit codes.
 //!
-//! Set `ARMFORGE_HEAVY=1` (release builds) for 20,000 samples per arm.
+//! `ARMFORGE_SCALE=K` (release builds) runs K times the 400 samples per arm.
 
 use std::path::{Path, PathBuf};
 use std::process::Command;
@@ -22,11 +22,7 @@ fn workspace() -> PathBuf {
 }
 
 fn samples() -> u64 {
-    if std::env::var_os("ARMFORGE_HEAVY").is_some() {
-        20_000
-    } else {
-        400
-    }
+    armforge_compiler::plan::samples::sample_count(400) as u64
 }
 
 fn examples() -> Vec<(String, String)> {
@@ -258,5 +254,5 @@ fn verify_exit_codes_and_json() {
         .args(["verify", "arms/no-such-arm.toml"])
         .output()
         .expect("armforge runs");
-    assert_eq!(missing.status.code(), Some(2));
+    assert_eq!(missing.status.code(), Some(5));
 }

@@ -4,7 +4,6 @@
 use std::f64::consts::{FRAC_PI_2, PI};
 
 use nalgebra::{Point3, Vector3};
-use serde::Serialize;
 
 use super::context::Context;
 use super::family::{slide_3_out_of_plane, slide_independence};
@@ -13,7 +12,8 @@ use super::reach::{line_norm_range, model_range, plane_norm_range};
 use super::Family;
 
 /// Joints 1 and 2 when both turn (elbow and polar).
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Shoulder {
     /// True when axes 1 and 2 meet (common normal within the tolerance).
     pub axes_1_2_meet: bool,
@@ -32,7 +32,8 @@ pub struct Shoulder {
 }
 
 /// Evidence of an elbow arm (R R R, axis 2 ∥ axis 3).
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct ElbowEvidence {
     /// Joints 1 and 2.
     pub shoulder: Shoulder,
@@ -50,7 +51,8 @@ pub struct ElbowEvidence {
 }
 
 /// Evidence of a polar arm (R R P, slide ⟂ axis 2).
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct PolarEvidence {
     /// Joints 1 and 2.
     pub shoulder: Shoulder,
@@ -67,7 +69,8 @@ pub struct PolarEvidence {
 }
 
 /// Evidence of a cylindrical arm (R P P).
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct CylindricalEvidence {
     /// The unit slide directions of joints 2 and 3, base frame at zero.
     pub slide_directions: [[f64; 3]; 2],
@@ -80,7 +83,8 @@ pub struct CylindricalEvidence {
 }
 
 /// Evidence of a cartesian arm (P P P).
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct CartesianEvidence {
     /// The unit slide directions of joints 1, 2, 3, base frame.
     pub slide_directions: [[f64; 3]; 3],
@@ -93,8 +97,9 @@ pub struct CartesianEvidence {
 }
 
 /// The family's own evidence.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-#[serde(tag = "family", rename_all = "snake_case")]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(tag = "family", rename_all = "snake_case"))]
 pub enum ArmEvidence {
     /// R R R.
     Elbow(ElbowEvidence),
@@ -107,8 +112,9 @@ pub enum ArmEvidence {
 }
 
 /// What a reach is measured from.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
-#[serde(rename_all = "snake_case")]
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(rename_all = "snake_case"))]
 pub enum ReachOrigin {
     /// The distance from the shoulder point (see [`Shoulder::point`]).
     ShoulderPoint,
@@ -118,7 +124,8 @@ pub enum ReachOrigin {
 
 /// The nearest and farthest the wrist center can get, ignoring revolute limits but keeping
 /// slide limits (a slide's stroke is its reach).
-#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Reach {
     /// What the distance is measured from.
     pub from: ReachOrigin,
@@ -129,8 +136,9 @@ pub struct Reach {
 }
 
 /// A singular configuration of the arm.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(tag = "kind", rename_all = "snake_case"))]
 pub enum Singularity {
     /// Axes 4 and 6 line up: joints 4 and 6 turn about one line.
     WristAligned {

@@ -23,8 +23,6 @@ pub mod reject;
 pub mod tolerances;
 pub mod wrist;
 
-use serde::Serialize;
-
 pub use evidence::{ArmEvidence, Reach, ReachOrigin, Singularity};
 pub use reject::{Note, Reason, Rejection};
 pub use tolerances::{Resolved, Tolerances};
@@ -33,8 +31,9 @@ pub use wrist::WristEvidence;
 use crate::model::Model;
 
 /// The family of the first three joints. The names are armforge's own.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
-#[serde(rename_all = "snake_case")]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(rename_all = "snake_case"))]
 pub enum Family {
     /// R R R with axis 2 ∥ axis 3 and axis 1 ∦ axis 2.
     Elbow,
@@ -84,7 +83,8 @@ pub const WRIST_SOLUTIONS: u32 = 2;
 
 /// How many solutions to expect for one tool pose, at most (joints 1–3 × joints 4–6), counting
 /// revolute values modulo full turns.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct SolutionCount {
     /// Solutions of joints 1–3 for one wrist-center target.
     pub position: u32,
@@ -95,7 +95,8 @@ pub struct SolutionCount {
 }
 
 /// What the classifier found: the family, the wrist center and the evidence for both.
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Geometry {
     /// The family of joints 1–3.
     pub family: Family,

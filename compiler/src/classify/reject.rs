@@ -3,15 +3,15 @@
 use std::fmt;
 
 use armforge_runtime::JointKind;
-use serde::Serialize;
 
 use crate::diagnostics::Location;
 use crate::model::Model;
 use crate::units::Units;
 
 /// The property that fails. Joint numbers are 1-based; lengths in metres, angles in radians.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(tag = "kind", rename_all = "snake_case"))]
 pub enum Reason {
     /// The arm does not have six joints.
     JointCount {
@@ -56,25 +56,25 @@ pub enum Reason {
         miss: f64,
     },
     /// Axis 1 is parallel to axis 2: joints 1 and 2 cannot position the wrist center in space.
-    #[serde(rename = "axes_1_and_2_parallel")]
+    #[cfg_attr(feature = "serde", serde(rename = "axes_1_and_2_parallel"))]
     Axes1And2Parallel {
         /// The angle between the axes, radians.
         angle: f64,
     },
     /// R R R whose axes 2 and 3 are not parallel.
-    #[serde(rename = "elbow_axes_2_and_3_not_parallel")]
+    #[cfg_attr(feature = "serde", serde(rename = "elbow_axes_2_and_3_not_parallel"))]
     ElbowAxes2And3NotParallel {
         /// The angle between the axes, radians.
         angle: f64,
     },
     /// R R R whose axes 2 and 3 are one line: joints 2 and 3 turn about the same line.
-    #[serde(rename = "elbow_axes_2_and_3_coincide")]
+    #[cfg_attr(feature = "serde", serde(rename = "elbow_axes_2_and_3_coincide"))]
     ElbowAxes2And3Coincide {
         /// The distance between the axes, metres.
         distance: f64,
     },
     /// R R R whose wrist center lies on axis 3: joint 3 cannot move it.
-    #[serde(rename = "wrist_center_on_axis_3")]
+    #[cfg_attr(feature = "serde", serde(rename = "wrist_center_on_axis_3"))]
     WristCenterOnAxis3 {
         /// The distance of the wrist center from axis 3, metres.
         distance: f64,
@@ -90,7 +90,10 @@ pub enum Reason {
         angle: f64,
     },
     /// R P P whose slides are both perpendicular to axis 1: the height along axis 1 is fixed.
-    #[serde(rename = "cylindrical_slides_perpendicular_to_axis_1")]
+    #[cfg_attr(
+        feature = "serde",
+        serde(rename = "cylindrical_slides_perpendicular_to_axis_1")
+    )]
     CylindricalSlidesPerpendicularToAxis1 {
         /// The angles of the slides of joints 2 and 3 with axis 1, radians.
         angles: [f64; 2],
@@ -111,8 +114,9 @@ pub enum Reason {
 }
 
 /// Another family the arm belongs to, said in general terms.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(tag = "kind", rename_all = "snake_case"))]
 pub enum Note {
     /// Three consecutive revolute axes are parallel.
     ThreeParallelAxes {
@@ -128,7 +132,8 @@ pub enum Note {
 }
 
 /// Why an arm has no decoupled closed form armforge can build, located in the file.
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Rejection {
     /// The property that fails (SI numbers).
     pub reason: Reason,
@@ -139,7 +144,7 @@ pub struct Rejection {
     /// The file, as given.
     pub path: String,
     /// Where the offending joint's table starts.
-    #[serde(serialize_with = "location_as_pair")]
+    #[cfg_attr(feature = "serde", serde(serialize_with = "location_as_pair"))]
     pub location: Location,
     /// The message, with numbers in the file's units.
     pub message: String,
@@ -147,8 +152,9 @@ pub struct Rejection {
     pub note_texts: Vec<String>,
 }
 
+#[cfg(feature = "serde")]
 fn location_as_pair<S: serde::Serializer>(l: &Location, s: S) -> Result<S::Ok, S::Error> {
-    [l.line, l.column].serialize(s)
+    serde::Serialize::serialize(&[l.line, l.column], s)
 }
 
 impl Rejection {

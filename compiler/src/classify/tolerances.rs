@@ -2,7 +2,6 @@
 
 use armforge_runtime::JointKind;
 use nalgebra::Point3;
-use serde::Serialize;
 
 use super::lines::Line;
 use crate::model::Model;
@@ -21,7 +20,8 @@ use crate::model::Model;
 /// (0.01 mm, 0.001°), while it is about ten orders of magnitude above the round-off that
 /// converting a description into axes leaves behind (`f64` trigonometry: ~1e-16 relative).
 /// So an offset written on purpose is always seen, and conversion noise never is.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Tolerances {
     /// Largest miss that still counts as meeting, as a fraction of the arm's size.
     pub distance: f64,
@@ -84,7 +84,8 @@ pub fn arm_size(model: &Model) -> f64 {
 }
 
 /// Tolerances resolved for one arm: absolute distance (metres) and angle (radians).
-#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct Resolved {
     /// The arm's size, metres.
     pub arm_size: f64,

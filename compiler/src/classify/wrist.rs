@@ -4,14 +4,14 @@
 use std::f64::consts::{FRAC_PI_2, PI};
 
 use nalgebra::Vector3;
-use serde::Serialize;
 
 use super::context::Context;
 use super::lines::{angle_between_directions, signed_angle_about};
 use super::reject::{Reason, Rejection};
 
 /// The wrist as measured, in metres and radians.
-#[derive(Clone, Debug, PartialEq, Serialize)]
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
 pub struct WristEvidence {
     /// Where axes 4, 5, 6 meet (least-squares point), base frame at zero, metres.
     pub center: [f64; 3],

@@ -98,31 +98,11 @@ mod reader;
 mod schema;
 mod source;
 
-use std::path::Path;
-
-use crate::diagnostics::{Diagnostic, Diagnostics, Location};
+use crate::diagnostics::Diagnostics;
 use crate::model::Model;
 
 pub use checks::{MAX_JOINTS, ROTATION_TOLERANCE};
-
-/// Reads a description file into a [`Model`], or every problem found in it.
-///
-/// A file that cannot be read gives one diagnostic without a location.
-pub fn load_file(path: &Path) -> Result<Model, Diagnostics> {
-    let shown = path.display().to_string();
-    match std::fs::read_to_string(path) {
-        Ok(text) => load_str(&text, &shown),
-        Err(e) => Err(Diagnostics {
-            path: shown,
-            items: vec![Diagnostic {
-                location: Location::default(),
-                key: String::new(),
-                message: format!("cannot read the file: {e}"),
-                source_line: String::new(),
-            }],
-        }),
-    }
-}
+pub use schema::{arm_name_problem, Convention};
 
 /// Reads description text into a [`Model`]; `path` names the text in messages.
 pub fn load_str(text: &str, path: &str) -> Result<Model, Diagnostics> {

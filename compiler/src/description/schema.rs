@@ -35,7 +35,7 @@ pub(crate) const FRAME_KEYS: &[&str] = &["translation", "rpy", "rotation"];
 
 /// How the joints of a file are described.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub(crate) enum Convention {
+pub enum Convention {
     /// Standard Denavit–Hartenberg parameters.
     Dh,
     /// Modified (proximal) Denavit–Hartenberg parameters.
@@ -45,8 +45,16 @@ pub(crate) enum Convention {
 }
 
 impl Convention {
+    /// Every convention, in the order the format reference lists them.
+    pub const ALL: [Convention; 3] = [Convention::Dh, Convention::ModifiedDh, Convention::Axes];
+
+    /// The convention a file's `convention` word names, if any.
+    pub fn from_word(word: &str) -> Option<Convention> {
+        Convention::ALL.into_iter().find(|c| c.word() == word)
+    }
+
     /// The word used in files.
-    pub(crate) fn word(self) -> &'static str {
+    pub fn word(self) -> &'static str {
         match self {
             Convention::Dh => "dh",
             Convention::ModifiedDh => "modified-dh",
@@ -240,10 +248,9 @@ fn angle_unit(source: &mut Source, entry: &Entry) -> AngleUnit {
 
 fn convention(source: &mut Source, entry: &Entry) -> Option<Convention> {
     let s = reader::string(source, entry, "convention")?;
-    let all = [Convention::Dh, Convention::ModifiedDh, Convention::Axes];
-    let found = all.into_iter().find(|c| c.word() == s.value);
+    let found = Convention::from_word(&s.value);
     if found.is_none() {
-        let words: Vec<&str> = all.iter().map(|c| c.word()).collect();
+        let words: Vec<&str> = Convention::ALL.iter().map(|c| c.word()).collect();
         reader::report_not_one_of(source, &s, "convention", "convention", &words);
     }
     found
@@ -262,8 +269,20 @@ fn arm_name(source: &mut Source, entry: &Entry) -> String {
     let Some(s) = reader::string(source, entry, "name") else {
         return String::new();
     };
-    let name = &s.value;
-    let problem = if name.is_empty() {
+    if let Some(message) = arm_name_problem(&s.value) {
+        source.report(
+            &s.span,
+            "name",
+            format!("{message} (it becomes a Rust module name)"),
+        );
+    }
+    s.value
+}
+
+/// What is wrong with `name` as an arm name, which becomes a Rust module name: `None` when it
+/// has only letters, digits, `-` and `_`, starts with a letter and is not a Rust keyword.
+pub fn arm_name_problem(name: &str) -> Option<String> {
+    if name.is_empty() {
         Some("the name is empty".to_string())
     } else if !name.starts_with(|c: char| c.is_ascii_alphabetic()) {
         Some(format!("\"{name}\" must start with a letter (a-z, A-Z)"))
@@ -280,15 +299,7 @@ fn arm_name(source: &mut Source, entry: &Entry) -> String {
         ))
     } else {
         None
-    };
-    if let Some(message) = problem {
-        source.report(
-            &s.span,
-            "name",
-            format!("{message} (it becomes a Rust module name)"),
-        );
     }
-    s.value
 }
 
 /// The joint tables, or `None` (reported) when `joint` is not an array of tables.

@@ -6,16 +6,13 @@ use std::fmt::Write;
 
 use super::GENERATOR_VERSION;
 use crate::model::Model;
-use crate::plan::samples::family_name;
 use crate::plan::Plan;
 
-/// Text from a file made safe for a `//` comment: one line, no control characters.
+/// Text from a file made safe for a `//` comment: one line, every non-printing character
+/// (control, bidirectional control, line or paragraph separator, …) shown as `\u{…}`, so
+/// rustc accepts the comment and an editor shows it as it is.
 pub fn sanitize(text: &str) -> String {
-    text.chars()
-        .map(|c| if c.is_control() { ' ' } else { c })
-        .collect::<String>()
-        .trim()
-        .to_string()
+    crate::text::escape_line(text.trim()).into_owned()
 }
 
 /// The module header: generator, source file, units, safety caution.
@@ -41,7 +38,7 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     let _ = writeln!(
         h,
         "// Family: {} with a spherical wrist; {} candidate branches, at most {} solutions.",
-        family_name(plan.arm.family),
+        plan.arm.family.name(),
         plan.candidates.len(),
         plan.capacity
     );

@@ -5,7 +5,7 @@
 //! fixed frames are worked out once here, not at run time.
 
 use armforge_runtime::{Joint, JointKind, Pose, JOINTS};
-use proc_macro2::TokenStream;
+use proc_macro2::{Ident, TokenStream};
 use quote::{format_ident, quote};
 
 use super::expr::{literal, math_call, reference, Bindings};
@@ -168,12 +168,20 @@ pub fn function(joints: &[Joint; JOINTS], base: &Pose, tool: &Pose) -> TokenStre
     });
     let (steps, _) = lets(&g, &b, false);
     let entry = |id: Id| reference(&g, &b, id).0;
-    let row = |k: usize| -> Vec<TokenStream> {
-        roots[3 * k..3 * k + 3]
-            .iter()
-            .map(|&id| entry(id))
-            .collect()
-    };
+    // Every entry gets its own `let`, so the pose literal holds only names: an entry such as
+    // `a * b - c` inside an array literal reads like a missing comma once expanded by a macro.
+    let names: Vec<Ident> = [
+        "r11", "r12", "r13", "r21", "r22", "r23", "r31", "r32", "r33",
+    ]
+    .iter()
+    .chain(["px", "py", "pz"].iter())
+    .map(|n| format_ident!("{n}"))
+    .collect();
+    let entries = names.iter().zip(roots.iter()).map(|(name, &id)| {
+        let value = entry(id);
+        quote!(let #name = #value;)
+    });
+    let row = |k: usize| names[3 * k..3 * k + 3].to_vec();
     let (r0, r1, r2, p) = (row(0), row(1), row(2), row(3));
     let lints = lint_allowances();
     quote! {
@@ -185,6 +193,7 @@ pub fn function(joints: &[Joint; JOINTS], base: &Pose, tool: &Pose) -> TokenStre
         pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
             #(#inputs)*
             #(#steps)*
+            #(#entries)*
             ::armforge_runtime::Pose {
                 rotation: [[#(#r0),*], [#(#r1),*], [#(#r2),*]],
                 translation: [#(#p),*],

@@ -123,11 +123,13 @@ fn rule(r: &BranchRule) -> TokenStream {
         lit3(&r.wrist.axis5),
         lit3(&r.wrist.axis6),
     );
+    let mirrored = r.mirrored;
     quote! {
         ::armforge_runtime::internal::BranchRule {
             shoulder: #shoulder,
             elbow: #elbow,
             wrist: ::armforge_runtime::internal::WristRule { normal: #n, axis5: #a5, axis6: #a6 },
+            mirrored: #mirrored,
         }
     }
 }
@@ -338,6 +340,15 @@ fn branch_arms(plan: &Plan, wrap: impl Fn(TokenStream) -> TokenStream) -> Vec<To
 
 /// `solve_branch` and `solve_near`: one branch's steps, finished with the arm's constants.
 fn branch_api(plan: &Plan) -> TokenStream {
+    let reference_call = if plan.free_joints == [0, 3] {
+        quote!(::armforge_runtime::internal::reference(
+            &JOINT_TABLE,
+            current
+        ))
+    } else {
+        let [a, b] = plan.free_joints.map(super::expr::index);
+        quote!(::armforge_runtime::internal::reference_of(&JOINT_TABLE, current, [#a, #b]))
+    };
     let centers: Vec<TokenStream> = armforge_runtime::internal::centers(&plan.arm.joints)
         .iter()
         .map(|&x| lit(x))
@@ -380,7 +391,7 @@ fn branch_api(plan: &Plan) -> TokenStream {
                     }
                 }
             }
-            let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
+            let reference = #reference_call;
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,

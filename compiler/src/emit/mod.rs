@@ -56,3 +56,18 @@ pub fn emit_module(model: &Model, plan: &Plan, options: &EmitOptions) -> String 
     out.push_str(&body);
     out
 }
+
+/// The module checked in for a sample-arm fixture (`tests/tests/generated/NAME.rs`, see
+/// [`crate::plan::samples::fixtures`]).
+pub fn emit_fixture(fixture: &crate::plan::samples::Fixture) -> String {
+    let (model, geometry) = fixture.arm();
+    let plan = crate::plan::build_plan(&model, &geometry);
+    emit_module(
+        &model,
+        &plan,
+        &EmitOptions {
+            source_path: format!("<sample arm {}>", fixture.name),
+            without_test: false,
+        },
+    )
+}

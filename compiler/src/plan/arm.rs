@@ -49,6 +49,12 @@ impl Arm {
     /// The planner's arm for a six-joint model and its geometry. Models with other joint
     /// counts are padded with fixed joints or cut (the classifier rejects them first).
     pub fn new(model: &Model, geometry: &Geometry) -> Arm {
+        Arm::with_center(model, geometry.family, geometry.wrist_center)
+    }
+
+    /// The planner's arm with `center` as the point the family's position step places (the
+    /// wrist center of a decoupled arm).
+    pub fn with_center(model: &Model, family: Family, center: [f64; 3]) -> Arm {
         let mut joints = [Joint {
             kind: JointKind::Revolute,
             axis: [0.0, 0.0, 1.0],
@@ -62,7 +68,7 @@ impl Arm {
         }
         // The classifier finds the wrist center by least squares: drop its last-digit noise
         // (below 1e-14 relative) so the plan shows the description's numbers.
-        let c = geometry.wrist_center.map(tidy_coordinate);
+        let c = center.map(tidy_coordinate);
         let mut scale = 0.0;
         let mut last = joints[0].point;
         for j in &joints[..3] {
@@ -79,7 +85,7 @@ impl Arm {
         scale += num::norm(&num::sub(&c, &last));
         scale += num::norm(&num::sub(&model.tool.translation, &c));
         Arm {
-            family: geometry.family,
+            family,
             joints,
             base: model.base,
             tool: model.tool,

@@ -52,11 +52,7 @@ fn show(v: &[f64; 3]) -> String {
 /// The wrist-center target `c_t = B_Rᵀ (T_R c_tool + T_t − B_t)` with
 /// `c_tool = M_Rᵀ (c − M_t)` (the wrist center seen from the tool frame).
 pub fn wrist_center_target(g: &mut Graph, arm: &Arm, t: &Target) -> V3 {
-    let m = &arm.tool;
-    let c_tool = num::mat_mul(
-        &num::transpose(&m.rotation),
-        &num::sub(&arm.wrist_center, &m.translation),
-    );
+    let c_tool = wrist_center_in_tool(arm);
     let k = vec3::constant(g, c_tool);
     let rotated = vec3::mat_mul(g, &t.rotation, k);
     let world = vec3::add(g, rotated, t.translation);
@@ -74,9 +70,15 @@ pub fn wrist_center_target(g: &mut Graph, arm: &Arm, t: &Target) -> V3 {
     )
 }
 
+/// The wrist center seen from the tool frame: `c_tool = M_Rᵀ (c − M_t)`.
+pub fn wrist_center_in_tool(arm: &Arm) -> [f64; 3] {
+    let m = &arm.tool;
+    m.rotate_back(&num::sub(&arm.wrist_center, &m.translation))
+}
+
 /// `rot(G) x = B_Rᵀ T_R M_Rᵀ x` for a constant direction `x` of the tool at zero.
 pub fn target_direction(g: &mut Graph, arm: &Arm, t: &Target, x: [f64; 3], name: &str) -> V3 {
-    let in_tool = num::mat_mul(&num::transpose(&arm.tool.rotation), &x);
+    let in_tool = arm.tool.rotate_back(&x);
     let k = vec3::constant(g, in_tool);
     let world = vec3::mat_mul(g, &t.rotation, k);
     let v = vec3::mat_t_mul_const(g, &arm.base.rotation, world);

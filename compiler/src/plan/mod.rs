@@ -15,7 +15,11 @@ pub mod cylindrical;
 pub mod decouple;
 pub mod elbow;
 pub mod graph;
+pub mod mirror;
+pub mod parallel;
+pub mod planar;
 pub mod polar;
+pub mod pose;
 pub mod render;
 pub mod samples;
 pub mod subproblems;
@@ -80,6 +84,10 @@ pub struct Plan {
     /// The reference inputs of `solve` (cos, sin of the model values of joints 1 and 4): joint 4
     /// at zero, joint 1 at [`free_joint_1_value`].
     pub zero_reference: [f64; 4],
+    /// The joints (0-based) whose reference values are the plan's reference inputs: the one
+    /// held when the position step leaves it free (joint 1 of a decoupled arm) and the one held
+    /// when the orientation step does (joint 4 of a spherical wrist).
+    pub free_joints: [usize; 2],
 }
 
 /// `+1` for non-negative, `−1` for negative.
@@ -158,50 +166,59 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
     let arm = Arm::new(model, geometry);
     let mut g = Graph::new();
     let target = decouple::target(&mut g);
-    let ct = decouple::wrist_center_target(&mut g, &arm, &target);
+    let (candidates, rule) = decoupled(&mut g, &arm, &target);
+    let w = wrist::WristAxes::of(&arm);
+    let twist = [vec3::num::dot(&w.h4, &w.h5), vec3::num::dot(&w.h5, &w.h6)];
+    assemble(arm, &g, &candidates, rule, twist, [0, 3])
+}
+
+/// The candidates of an arm that decouples at a spherical wrist (joints 1–3 of its family, then
+/// the wrist), for the target `target`, and its label rules.
+pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLayout>, BranchRule) {
+    let ct = decouple::wrist_center_target(g, arm, target);
     let (arm_solutions, shoulder_rule, elbow_rule) = match arm.family {
         Family::Elbow => {
-            let (s, e) = elbow::rules(&arm);
-            (elbow::solve(&mut g, &arm, &target, ct), s, e)
+            let (s, e) = elbow::rules(arm);
+            (elbow::solve(g, arm, target, ct), s, e)
         }
         Family::Polar => {
-            let (s, e) = polar::rules(&arm);
-            (polar::solve(&mut g, &arm, &target, ct), s, e)
+            let (s, e) = polar::rules(arm);
+            (polar::solve(g, arm, target, ct), s, e)
         }
         Family::Cylindrical => {
-            let (s, e) = cylindrical::rules(&arm);
-            (cylindrical::solve(&mut g, &arm, &target, ct), s, e)
+            let (s, e) = cylindrical::rules(arm);
+            (cylindrical::solve(g, arm, target, ct), s, e)
         }
         Family::Cartesian => {
-            let (s, e) = cartesian::rules(&arm);
-            (cartesian::solve(&mut g, &arm, ct), s, e)
+            let (s, e) = cartesian::rules(arm);
+            (cartesian::solve(g, arm, ct), s, e)
         }
     };
-    let axes = wrist::WristAxes::of(&arm);
-    let g6 = decouple::target_direction(&mut g, &arm, &target, axes.h6, "g6");
-    let gx = decouple::target_direction(&mut g, &arm, &target, axes.x6, "gx");
+    let axes = wrist::WristAxes::of(arm);
+    let g6 = decouple::target_direction(g, arm, target, axes.h6, "g6");
+    let gx = decouple::target_direction(g, arm, target, axes.x6, "gx");
     let mut candidates = Vec::new();
     for (i, s) in arm_solutions.iter().enumerate() {
         let tag = format!("b{}", i + 1);
         let mut v = g6;
         let mut xv = gx;
         for turn in &s.undo {
-            v = vec3::rotate_back(&mut g, turn.axis, turn.cos, turn.sin, v);
-            xv = vec3::rotate_back(&mut g, turn.axis, turn.cos, turn.sin, xv);
+            v = vec3::rotate_back(g, turn.axis, turn.cos, turn.sin, v);
+            xv = vec3::rotate_back(g, turn.axis, turn.cos, turn.sin, xv);
         }
         let v = vec3::name(
-            &mut g,
+            g,
             v,
             &format!("v_{tag}"),
             "v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6",
         );
         let xv = vec3::name(
-            &mut g,
+            g,
             xv,
             &format!("xv_{tag}"),
             "R456 x6 = (R1 R2 R3)ᵀ rot(G) x6",
         );
-        for w in wrist::solve(&mut g, &arm, v, xv, target.reference4, &tag) {
+        for w in wrist::solve(g, arm, v, xv, target.reference4, &tag) {
             let mut checks = [None; 4];
             for (slot, c) in checks.iter_mut().zip(s.checks.iter().chain(w.check.iter())) {
                 *slot = Some(*c);
@@ -226,16 +243,33 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
             });
         }
     }
-    let (graph, candidates) = compact(&g, &candidates);
+    let rule = BranchRule {
+        shoulder: shoulder_rule,
+        elbow: elbow_rule,
+        wrist: wrist::rule(arm),
+        mirrored: false,
+    };
+    (candidates, rule)
+}
+
+/// The plan from a family's candidates: compacts the graph, sets the tolerances, the capacity
+/// and the reference values of the two joints that `solve` holds when they are free
+/// (`free`, 0-based; their cosines and sines are the plan's reference inputs).
+pub fn assemble(
+    arm: Arm,
+    g: &Graph,
+    candidates: &[CandidateLayout],
+    rule: BranchRule,
+    wrist_twist_cosines: [f64; 2],
+    free: [usize; 2],
+) -> Plan {
+    let (graph, candidates) = compact(g, candidates);
     let settings = Settings {
         length_tolerance: 1e-10 * arm.scale,
         angle_tolerance: 1e-18,
         limit_tolerance: 1e-12,
         duplicate_tolerance: 1e-10,
-        wrist_twist_cosines: {
-            let w = wrist::WristAxes::of(&arm);
-            [vec3::num::dot(&w.h4, &w.h5), vec3::num::dot(&w.h5, &w.h6)]
-        },
+        wrist_twist_cosines,
     };
     let multiplicity: usize = arm
         .joints
@@ -243,22 +277,19 @@ pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
         .map(|j| equivalent_count(j, settings.limit_tolerance))
         .product();
     let zero_reference = {
-        let m1 = arm.joints[0].model_value(free_joint_1_value(&arm.joints[0]));
-        let m4 = arm.joints[3].model_value(0.0);
+        let m1 = arm.joints[free[0]].model_value(free_joint_1_value(&arm.joints[free[0]]));
+        let m4 = arm.joints[free[1]].model_value(0.0);
         [m1.cos(), m1.sin(), m4.cos(), m4.sin()]
     };
     Plan {
-        rule: BranchRule {
-            shoulder: shoulder_rule,
-            elbow: elbow_rule,
-            wrist: wrist::rule(&arm),
-        },
+        rule,
         capacity: candidates.len() * multiplicity,
         arm,
         graph,
         candidates,
         settings,
         zero_reference,
+        free_joints: free,
     }
 }
 

@@ -1,8 +1,10 @@
 //! Invented arms for tests and benchmarks: random arms of every family (random lengths,
 //! offsets, twists, mountings, joint directions and offsets), built directly as models.
 //!
-//! A small deterministic generator (SplitMix64) keeps the library free of a `rand`
-//! dependency and the samples reproducible from a seed.
+//! The samples come from SplitMix64, a few lines here, so that the same seed gives the same
+//! arm on every platform and every version: the compiler does not depend on `rand` (the
+//! workbench does, for `verify`'s random configurations; the tests use it for their own
+//! sampling), and a sample arm must not change when `rand` changes its algorithms.
 
 use armforge_runtime::{Joint, JointKind, Pose};
 
@@ -129,6 +131,57 @@ impl Default for SampleOptions {
             shoulder_axes_meet: false,
         }
     }
+}
+
+/// A sample arm whose emitted module is checked in as a fixture
+/// (`tests/tests/generated/NAME.rs`, compiled and run by the workspace tests).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Fixture {
+    /// The fixture's file and module name.
+    pub name: &'static str,
+    /// The family of the sample arm.
+    pub family: Family,
+    /// The sample arm's seed.
+    pub seed: u64,
+    /// The sample arm's options.
+    pub options: SampleOptions,
+}
+
+impl Fixture {
+    /// The sample arm and its geometry.
+    pub fn arm(&self) -> (Model, Geometry) {
+        sample_arm(self.family, self.seed, &self.options)
+    }
+}
+
+/// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
+/// the fixture refresh and the tests that compile the fixtures all read.
+pub fn fixtures() -> [Fixture; 6] {
+    let plain = SampleOptions::default();
+    let dextrous = SampleOptions {
+        orthogonal_wrist: true,
+        shoulder_axes_meet: true,
+        ..plain
+    };
+    let two_turns = SampleOptions {
+        revolute_range: std::f64::consts::TAU,
+        orthogonal_wrist: true,
+        ..plain
+    };
+    let fixture = |name, family, seed, options| Fixture {
+        name,
+        family,
+        seed,
+        options,
+    };
+    [
+        fixture("elbow_orthogonal", Family::Elbow, 11, dextrous),
+        fixture("elbow_twisted", Family::Elbow, 12, plain),
+        fixture("elbow_two_turns", Family::Elbow, 13, two_turns),
+        fixture("polar", Family::Polar, 14, plain),
+        fixture("cylindrical", Family::Cylindrical, 15, plain),
+        fixture("cartesian", Family::Cartesian, 16, plain),
+    ]
 }
 
 fn revolute(axis: [f64; 3], point: [f64; 3], range: f64) -> Joint {
@@ -267,7 +320,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     let base = rng.pose(1.0);
     let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
     let model = Model {
-        name: format!("sample_{}_{seed}", family_name(family)),
+        name: format!("sample_{}_{seed}", family.name()),
         description: Some("invented sample arm for armforge's own tests".to_string()),
         units: Units::default(),
         joints: joints
@@ -281,7 +334,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
             .collect(),
         tool,
         base,
-        source_path: format!("<sample {} {seed}>", family_name(family)),
+        source_path: format!("<sample {} {seed}>", family.name()),
     };
     // The geometry comes from the classifier, as in the real pipeline; a sample is built to
     // be of `family` with its wrist center at `c`, so anything else is a bug in one of them.
@@ -289,25 +342,35 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         Ok(g) if g.family == family && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
         Ok(g) => panic!(
             "sample arm {seed}: built as {} with wrist center {c:?}, classified as {:?} with {:?}",
-            family_name(family),
+            family.name(),
             g.family,
             g.wrist_center
         ),
         Err(rejection) => panic!(
             "sample arm {seed} of the {} family is rejected: {rejection}",
-            family_name(family)
+            family.name()
         ),
     };
     (model, geometry)
 }
 
-/// The family's name in lower case.
-pub fn family_name(family: Family) -> &'static str {
-    match family {
-        Family::Elbow => "elbow",
-        Family::Polar => "polar",
-        Family::Cylindrical => "cylindrical",
-        Family::Cartesian => "cartesian",
+/// The environment variable that scales every randomized test: `ARMFORGE_SCALE=K` runs `K`
+/// times each test's default sample count (default 1; CI runs the defaults).
+pub const SCALE_VARIABLE: &str = "ARMFORGE_SCALE";
+
+/// A test's sample count: `default` times `ARMFORGE_SCALE` (1 when unset). The one knob for
+/// every randomized test of the workspace, so a long run is `ARMFORGE_SCALE=20 cargo test
+/// --workspace --release`.
+///
+/// # Panics
+/// When `ARMFORGE_SCALE` is set to anything but a positive whole number (tests only).
+pub fn sample_count(default: usize) -> usize {
+    match std::env::var(SCALE_VARIABLE) {
+        Err(_) => default,
+        Ok(text) => match text.trim().parse::<usize>() {
+            Ok(k) if k > 0 => default.saturating_mul(k),
+            _ => panic!("{SCALE_VARIABLE}={text:?}: expected a positive whole number"),
+        },
     }
 }
 
@@ -383,4 +446,94 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
         other => panic!("the upright elbow arm must classify as an elbow arm: {other:?}"),
     };
     (model, geometry)
+}
+
+/// A random arm with three consecutive parallel axes (joints 2, 3, 4) and axes 5 and 6 meeting
+/// (random lengths, offsets along the axes, twists, tool and mounting). With `layout`, axes 1
+/// and 5 are perpendicular to the parallel axes and axis 6 perpendicular to axis 5; otherwise
+/// their angles are random. Not classified: the model only.
+pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -> Model {
+    let mut rng = SampleRng::new(seed.wrapping_mul(7927).wrapping_add(11));
+    let range = options.revolute_range;
+    let h = rng.direction();
+    let (h1, h5) = if layout {
+        (rng.perpendicular(&h), rng.perpendicular(&h))
+    } else {
+        (
+            rng.direction_away_from(&h, 0.85),
+            rng.direction_away_from(&h, 0.85),
+        )
+    };
+    let h6 = if layout {
+        rng.perpendicular(&h5)
+    } else {
+        rng.direction_away_from(&h5, 0.85)
+    };
+    let p1 = rng.point(0.2);
+    let p2 = num::add(&p1, &rng.point(0.3));
+    let step = |rng: &mut SampleRng, from: &[f64; 3]| {
+        let across = num::scale(&rng.perpendicular(&h), rng.range(0.25, 0.7));
+        num::add(
+            &num::add(from, &across),
+            &num::scale(&h, rng.range(-0.15, 0.15)),
+        )
+    };
+    let p3 = step(&mut rng, &p2);
+    let p4 = step(&mut rng, &p3);
+    let q = num::add(&p4, &rng.point(0.15));
+    let mut joints = [
+        revolute(h1, p1, range),
+        revolute(h, p2, range),
+        revolute(num::scale(&h, rng.sign()), p3, range),
+        revolute(num::scale(&h, rng.sign()), p4, range),
+        revolute(
+            h5,
+            num::add(&q, &num::scale(&h5, rng.range(-0.1, 0.1))),
+            range,
+        ),
+        revolute(
+            h6,
+            num::add(&q, &num::scale(&h6, rng.range(-0.1, 0.1))),
+            range,
+        ),
+    ];
+    if options.random_zero {
+        for j in joints.iter_mut() {
+            j.direction = rng.sign();
+            j.offset = rng.range(-1.0, 1.0);
+        }
+    }
+    let tool = Pose {
+        rotation: rng.rotation(),
+        translation: num::add(&q, &num::scale(&rng.direction(), rng.range(0.0, 0.2))),
+    };
+    let base = rng.pose(1.0);
+    named_model(
+        format!("sample_three_parallel_{seed}"),
+        &joints,
+        tool,
+        base,
+        format!("<sample three-parallel {seed}>"),
+    )
+}
+
+fn named_model(name: String, joints: &[Joint; 6], tool: Pose, base: Pose, path: String) -> Model {
+    let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
+    Model {
+        name,
+        description: Some("invented sample arm for armforge's own tests".to_string()),
+        units: Units::default(),
+        joints: joints
+            .iter()
+            .zip(names)
+            .map(|(joint, name)| ModelJoint {
+                joint: *joint,
+                name: name.to_string(),
+                location: Location::default(),
+            })
+            .collect(),
+        tool,
+        base,
+        source_path: path,
+    }
 }

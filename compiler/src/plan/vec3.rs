@@ -125,36 +125,11 @@ pub fn name(g: &mut Graph, v: V3, name: &str, note: &str) -> V3 {
     out
 }
 
-/// Plain-number helpers for the constants of a plan.
+/// Plain-number helpers for the constants of a plan: the kernel's vector math, plus what only
+/// the planner needs.
 pub mod num {
-    /// `a · b`.
-    pub fn dot(a: &[f64; 3], b: &[f64; 3]) -> f64 {
-        a[0] * b[0] + a[1] * b[1] + a[2] * b[2]
-    }
-    /// `a × b`.
-    pub fn cross(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
-        [
-            a[1] * b[2] - a[2] * b[1],
-            a[2] * b[0] - a[0] * b[2],
-            a[0] * b[1] - a[1] * b[0],
-        ]
-    }
-    /// `a − b`.
-    pub fn sub(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
-        [a[0] - b[0], a[1] - b[1], a[2] - b[2]]
-    }
-    /// `a + b`.
-    pub fn add(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
-        [a[0] + b[0], a[1] + b[1], a[2] + b[2]]
-    }
-    /// `k · a`.
-    pub fn scale(a: &[f64; 3], k: f64) -> [f64; 3] {
-        [a[0] * k, a[1] * k, a[2] * k]
-    }
-    /// `|a|`.
-    pub fn norm(a: &[f64; 3]) -> f64 {
-        dot(a, a).sqrt()
-    }
+    pub use armforge_runtime::math::{add, cross, dot, norm, scale, sub};
+
     /// `a / |a|` (or `a` when it is zero).
     pub fn unit(a: &[f64; 3]) -> [f64; 3] {
         let n = norm(a);
@@ -178,14 +153,6 @@ pub mod num {
             c * v[1] + s * hv[1] + k * h[1],
             c * v[2] + s * hv[2] + k * h[2],
         ]
-    }
-    /// `Rᵀ` of a row-major matrix.
-    pub fn transpose(m: &[[f64; 3]; 3]) -> [[f64; 3]; 3] {
-        super::transpose(m)
-    }
-    /// `M v`.
-    pub fn mat_mul(m: &[[f64; 3]; 3], v: &[f64; 3]) -> [f64; 3] {
-        [dot(&m[0], v), dot(&m[1], v), dot(&m[2], v)]
     }
     /// A unit vector perpendicular to unit `h` (the most perpendicular base axis, made
     /// perpendicular).

@@ -192,9 +192,9 @@ pub fn forward(q: &[f64; 6]) -> Pose {
         m = mul(&m, &link(q[i] + o, d, a, ca, sa));
     }
     let mut pose = Pose::IDENTITY;
-    for i in 0..3 {
-        pose.rotation[i] = [m[i][0], m[i][1], m[i][2]];
-        pose.translation[i] = m[i][3] + TOOL * m[i][2];
+    for (i, row) in m.iter().take(3).enumerate() {
+        pose.rotation[i] = [row[0], row[1], row[2]];
+        pose.translation[i] = row[3] + TOOL * row[2];
     }
     pose
 }

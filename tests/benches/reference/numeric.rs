@@ -35,9 +35,8 @@ fn pose_and_jacobian(arm: &Arm, q: &[f64; JOINTS]) -> (Pose, Matrix6<f64>) {
     }
     let tool = t.compose(&arm.tool);
     let mut jac = Matrix6::zeros();
-    for i in 0..JOINTS {
-        let joint = &arm.joints[i];
-        let w = frames[i].rotate(&joint.axis);
+    for (i, (joint, frame)) in arm.joints.iter().zip(frames.iter()).enumerate() {
+        let w = frame.rotate(&joint.axis);
         let w = [
             w[0] * joint.direction,
             w[1] * joint.direction,

@@ -8,23 +8,23 @@
 //! in the file's units: `{"rotation": [[r11, r12, r13], [r21, r22, r23], [r31, r32, r33]],
 //! "translation": [x, y, z]}` (rotation row-major).
 //!
-//! Exit status: 0; 1 if the joint values or the pose are malformed, the pose has no solution
-//! or the file cannot be written; 2 if the arm file has problems or the arm has no closed-form
-//! solver.
+//! Joint values outside their limits are drawn with a warning; a pose with no solution exits 1.
 
 use std::path::{Path, PathBuf};
-use std::process::ExitCode;
 
 use armforge_compiler::classify::{classify, Geometry, Tolerances};
-use armforge_compiler::description;
 use armforge_compiler::model::Model;
 use armforge_compiler::solver::Solver;
-use armforge_runtime::{JointKind, Pose, Unreachable};
+use armforge_runtime::JointKind;
 use armforge_workbench::draw::{solution_panels, Drawing};
-use serde_json::Value;
+
+use super::io::files::{self, Replace};
+use super::io::terminal::{fail, say, Outcome};
+use super::io::{exit, unreachable, values};
 
 /// Arguments of `armforge draw`.
 #[derive(clap::Args, Debug)]
+#[command(after_help = super::io::exit::TABLE)]
 pub struct Args {
     /// The arm description file.
     pub arm: PathBuf,
@@ -41,47 +41,34 @@ pub struct Args {
 }
 
 /// Runs `armforge draw`.
-pub fn run(args: Args) -> ExitCode {
-    let model = match description::load_file(&args.arm) {
-        Ok(model) => model,
-        Err(diagnostics) => {
-            eprint!("{diagnostics}");
-            return ExitCode::from(2);
-        }
-    };
+pub fn run(args: Args) -> Outcome {
+    let inputs: Vec<&Path> = [Some(args.arm.as_path()), args.pose.as_deref()]
+        .into_iter()
+        .flatten()
+        .collect();
+    files::refuse_inputs(&args.output, &inputs)?;
+    let model = files::load(&args.arm)?.model;
     let geometry = classify(&model, &Tolerances::default());
     let drawing = match &args.pose {
         Some(pose_path) => {
-            let geometry = match geometry {
-                Ok(geometry) => geometry,
-                Err(rejection) => {
-                    eprintln!("{rejection}");
-                    return ExitCode::from(2);
-                }
-            };
-            match solutions_drawing(&model, &geometry, pose_path) {
-                Ok(drawing) => drawing,
-                Err(message) => {
-                    eprintln!("error: {message}");
-                    return ExitCode::from(1);
-                }
-            }
+            let geometry = geometry.map_err(|rejection| {
+                say(&rejection.to_string());
+                exit::code(if rejection.is_bad_input() {
+                    exit::BAD_DESCRIPTION
+                } else {
+                    exit::REJECTED
+                })
+            })?;
+            solutions_drawing(&model, &geometry, pose_path)?
         }
         None => {
-            let values = match args
-                .joints
-                .as_deref()
-                .map(|s| parse_joint_values(&model, s))
-            {
+            let values = match args.joints.as_deref() {
                 None => vec![0.0; model.joints.len()],
-                Some(Ok(values)) => values,
-                Some(Err(message)) => {
-                    eprintln!("error: --joints: {message}");
-                    return ExitCode::from(1);
-                }
+                Some(text) => values::joints_option(&model, "--joints", text)
+                    .map_err(|message| fail(exit::USAGE, &message))?,
             };
             for warning in limit_warnings(&model, &values) {
-                eprintln!("warning: {warning}");
+                say(&format!("warning: {warning}"));
             }
             let drawing = Drawing::configuration(&model, model.joint_values_to_si(&values));
             match geometry {
@@ -90,7 +77,8 @@ pub fn run(args: Args) -> ExitCode {
             }
         }
     };
-    write_output(&args.output, &drawing.to_svg())
+    files::write(&args.output, &drawing.to_svg(), &inputs, Replace::Yes)?;
+    Ok(exit::code(exit::OK))
 }
 
 /// One panel per solution of the pose in `pose_path`, labelled with its branch.
@@ -98,127 +86,21 @@ fn solutions_drawing<'a>(
     model: &'a Model,
     geometry: &Geometry,
     pose_path: &Path,
-) -> Result<Drawing<'a>, String> {
-    let shown = pose_path.display();
-    let text =
-        std::fs::read_to_string(pose_path).map_err(|e| format!("cannot read {shown}: {e}"))?;
-    let pose = parse_pose(&text).map_err(|e| format!("{shown}: {e}"))?;
+) -> Result<Drawing<'a>, super::io::terminal::Stopped> {
+    let shown = files::shown(pose_path);
+    let text = files::read_small(pose_path, 1 << 20).map_err(|e| fail(exit::IO, &e))?;
+    let pose =
+        values::pose(&text, true).map_err(|e| fail(exit::FAILED, &format!("{shown}: {e}")))?;
     let target = model.units.pose_to_si(&pose);
     let solutions = Solver::new(model, geometry).solve(&target).map_err(|why| {
-        format!(
-            "{shown}: no solution for this pose: {}",
-            unreachable(model, &why)
+        let reason = unreachable::reason(model, &why);
+        fail(
+            exit::FAILED,
+            &format!("{shown}: no solution for this pose: {}", reason.text),
         )
     })?;
     let panels = solution_panels(model, &solutions);
     Ok(Drawing::solutions(model, target, panels).with_wrist_center(Some(geometry.wrist_center)))
-}
-
-/// Why a pose has no solution, with distances and angles in the file's units.
-fn unreachable(model: &Model, why: &Unreachable) -> String {
-    let units = &model.units;
-    match *why {
-        Unreachable::BeyondReach { by } => format!(
-            "the wrist center lies {} beyond the arm's reach",
-            units.show_length(by)
-        ),
-        Unreachable::InsideHole { by } => format!(
-            "the wrist center lies {} inside the region the arm cannot reach near its shoulder",
-            units.show_length(by)
-        ),
-        Unreachable::WristOrientation { by } => format!(
-            "the wrist cannot turn the tool to this orientation: axis 6 misses the cone it can reach by {}",
-            units.show_angle(by)
-        ),
-        Unreachable::OutsideLimits { joint, by } => {
-            let shown = match model.joints.get(joint).map(|j| j.joint.kind) {
-                Some(JointKind::Prismatic) => units.show_length(by),
-                _ => units.show_angle(by),
-            };
-            format!(
-                "every solution has a joint outside its limits; the closest misses the limits of {} by {shown}",
-                model.joint_label(joint)
-            )
-        }
-        _ => why.to_string(),
-    }
-}
-
-/// A pose from JSON: `{"rotation": [[...], [...], [...]], "translation": [x, y, z]}`.
-fn parse_pose(text: &str) -> Result<Pose, String> {
-    let value: Value = serde_json::from_str(text).map_err(|e| format!("not valid JSON: {e}"))?;
-    let Value::Object(object) = value else {
-        return Err("expected an object {\"rotation\": [[...]], \"translation\": [...]}".into());
-    };
-    if let Some(other) = object
-        .keys()
-        .find(|k| k.as_str() != "rotation" && k.as_str() != "translation")
-    {
-        return Err(format!(
-            "unknown key \"{other}\"; expected \"rotation\" and \"translation\""
-        ));
-    }
-    let rows = array(object.get("rotation"), "rotation", 3)?;
-    let mut rotation = [[0.0; 3]; 3];
-    for (r, row) in rows.iter().enumerate() {
-        let row = array(Some(row), &format!("rotation row {}", r + 1), 3)?;
-        for (c, x) in row.iter().enumerate() {
-            rotation[r][c] = number(x, &format!("rotation[{r}][{c}]"))?;
-        }
-    }
-    let items = array(object.get("translation"), "translation", 3)?;
-    let mut translation = [0.0; 3];
-    for (k, x) in items.iter().enumerate() {
-        translation[k] = number(x, &format!("translation[{k}]"))?;
-    }
-    Ok(Pose {
-        rotation,
-        translation,
-    })
-}
-
-/// The items of a JSON array that must have `len` entries.
-fn array<'v>(value: Option<&'v Value>, what: &str, len: usize) -> Result<&'v Vec<Value>, String> {
-    match value {
-        Some(Value::Array(items)) if items.len() == len => Ok(items),
-        Some(Value::Array(items)) => Err(format!(
-            "\"{what}\" has {} entries, expected {len}",
-            items.len()
-        )),
-        Some(other) => Err(format!("\"{what}\" is not an array: {other}")),
-        None => Err(format!("\"{what}\" is missing")),
-    }
-}
-
-fn number(value: &Value, what: &str) -> Result<f64, String> {
-    match value.as_f64() {
-        Some(x) if x.is_finite() => Ok(x),
-        _ => Err(format!("{what} is not a finite number: {value}")),
-    }
-}
-
-/// The joint values of `--joints`, one number per joint in the file's units.
-fn parse_joint_values(model: &Model, text: &str) -> Result<Vec<f64>, String> {
-    let items: Vec<&str> = text.split(',').map(str::trim).collect();
-    let expected = model.joints.len();
-    if items.len() != expected {
-        return Err(format!(
-            "expected {expected} comma-separated joint values for arm \"{}\", found {} in `{text}`",
-            model.name,
-            items.len()
-        ));
-    }
-    items
-        .iter()
-        .enumerate()
-        .map(|(i, item)| match item.parse::<f64>() {
-            Ok(v) if v.is_finite() => Ok(v),
-            _ => Err(format!(
-                "the value of {} is not a finite number: `{item}`",
-                model.joint_label(i)
-            )),
-        })
-        .collect()
 }
 
 /// A warning for each joint value outside the joint's limits (the drawing is still made).
@@ -233,7 +115,10 @@ fn limit_warnings(model: &Model, values: &[f64]) -> Vec<String> {
             let kind = j.joint.kind;
             let [lo, hi] = j.joint.limits.map(|l| units.joint_from_si(kind, l));
             let show = |x: f64| armforge_compiler::units::tidy(x);
-            (v < lo || v > hi).then(|| {
+            // The limits went file units → SI → file units: 120° may come back as
+            // 119.99999999999999, so a value on a limit is inside it.
+            let slack = 1e-9 * (1.0 + lo.abs().max(hi.abs()));
+            (v < lo - slack || v > hi + slack).then(|| {
                 format!(
                     "{} value {} lies outside its limits [{}, {}] ({}); drawn anyway",
                     model.joint_label(i),
@@ -251,22 +136,5 @@ fn unit_symbol(model: &Model, kind: JointKind) -> &'static str {
     match kind {
         JointKind::Revolute => model.units.angle.symbol(),
         JointKind::Prismatic => model.units.length.symbol(),
-    }
-}
-
-fn write_output(path: &PathBuf, svg: &str) -> ExitCode {
-    if path.as_os_str() == "-" {
-        print!("{svg}");
-        return ExitCode::SUCCESS;
-    }
-    match std::fs::write(path, svg) {
-        Ok(()) => {
-            eprintln!("wrote {}", path.display());
-            ExitCode::SUCCESS
-        }
-        Err(e) => {
-            eprintln!("error: cannot write {}: {e}", path.display());
-            ExitCode::from(1)
-        }
     }
 }

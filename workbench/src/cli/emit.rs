@@ -1,30 +1,33 @@
 //! `armforge emit`: write the arm's solver as a Rust module.
 //!
-//! Without `-o` the module goes to stdout. With `-o FILE` it is written only when its content
-//! changed (so build tools see no new timestamp); with `--check` nothing is written and the
-//! exit status says whether FILE is up to date (for CI in a user's repository).
-//! `--sheet FILE.md` also writes (or, with `--check`, checks) the review sheet beside it.
-//! Exit status: 0; 1 when `--check` finds FILE stale or missing, or FILE cannot be written;
-//! 2 for a file that is not a valid description; 3 for a geometry with no decoupled closed
-//! form (the codes of `armforge inspect`).
+//! Without `-o` the module goes to stdout. With `-o FILE` it is written (atomically) only when
+//! its content changed, so build tools see no new timestamp; with `--check` nothing is written
+//! and the exit status says whether FILE is up to date (for CI in a user's repository). A FILE
+//! that `cargo fmt` reformatted is still up to date: the check compares the code and its
+//! comments, not the layout. `--sheet FILE.md` also writes (or, with `--check`, checks) the
+//! review sheet beside it.
 
-use std::io::Write;
 use std::path::{Path, PathBuf};
-use std::process::ExitCode;
 
 use armforge_compiler::classify::Tolerances;
-use armforge_compiler::pipeline::{display_path, generate_module};
+use armforge_compiler::pipeline::generate_module;
 use armforge_workbench::review::review_sheet;
+
+use super::io::files::{self, Replace};
+use super::io::terminal::{fail, Outcome, Stopped};
+use super::io::{exit, same_code};
 
 /// Arguments of `armforge emit`.
 #[derive(clap::Args, Debug)]
+#[command(after_help = super::io::exit::TABLE)]
 pub struct Args {
     /// The arm description file.
     pub arm: PathBuf,
     /// Write the module to FILE (only when its content changed) instead of stdout.
     #[arg(short = 'o', long = "output", value_name = "FILE")]
     pub output: Option<PathBuf>,
-    /// Write nothing; exit 1 when FILE differs from what would be written (needs -o).
+    /// Write nothing; exit 1 when FILE differs from what would be written, layout aside
+    /// (needs -o).
     #[arg(long, requires = "output")]
     pub check: bool,
     /// Also write the Markdown review sheet (as `armforge explain` does) to FILE.md.
@@ -32,82 +35,66 @@ pub struct Args {
     pub sheet: Option<PathBuf>,
 }
 
-/// Exit code when `--check` finds the file stale, or the output cannot be written.
-const STALE_OR_UNWRITABLE: u8 = 1;
-
 /// Runs `armforge emit`.
-pub fn run(args: Args) -> ExitCode {
-    let shown = display_path(&args.arm.to_string_lossy());
-    let generated = match generate_module(&args.arm, &shown, &Tolerances::default()) {
-        Ok(generated) => generated,
-        Err(e) => {
-            eprint!("{e}");
-            return super::exit::of_pipeline(&e);
-        }
-    };
+pub fn run(args: Args) -> Outcome {
+    let output = args.output.as_deref().unwrap_or(Path::new("-"));
+    let mut inputs = vec![args.arm.as_path()];
+    files::refuse_inputs(output, &inputs)?;
+    if let Some(sheet) = &args.sheet {
+        inputs.push(output);
+        files::refuse_inputs(sheet, &inputs)?;
+        inputs.pop();
+    }
+    let shown = files::shown(&args.arm);
+    let generated = generate_module(&args.arm, &shown, &Tolerances::default())
+        .map_err(|e| files::report(&e))?;
     let sheet = args.sheet.as_ref().map(|path| {
         let text = review_sheet(&generated.model, &generated.geometry, &generated.plan);
         (path, text)
     });
-    let module = match (&args.output, args.check) {
-        (None, _) => to_stdout(&generated.source),
-        (Some(file), true) => check(file, &generated.source),
-        (Some(file), false) => write_if_changed(file, &generated.source),
-    };
-    let sheet = match &sheet {
-        None => ExitCode::SUCCESS,
-        Some((file, text)) if args.check => check(file, text),
-        Some((file, text)) => write_if_changed(file, text),
-    };
-    if module == ExitCode::SUCCESS {
-        sheet
+    if args.check {
+        let module = check(output, &generated.source, same_code::same_module);
+        let sheet = match &sheet {
+            Some((file, text)) => check(file, text, |a, b| a == b),
+            None => Ok(()),
+        };
+        module.and(sheet)?;
     } else {
-        module
+        files::write(output, &generated.source, &inputs, Replace::IfChanged)?;
+        if let Some((file, text)) = &sheet {
+            files::write(file, text, &inputs, Replace::IfChanged)?;
+        }
     }
+    Ok(exit::code(exit::OK))
 }
 
-fn to_stdout(text: &str) -> ExitCode {
-    let mut out = std::io::stdout().lock();
-    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(e) => {
-            eprintln!("error: cannot write to stdout: {e}");
-            ExitCode::from(STALE_OR_UNWRITABLE)
-        }
+/// Whether `file` holds what would be written now (by `same`); a stale file gives
+/// [`exit::FAILED`], an unreadable one [`exit::IO`].
+fn check(file: &Path, text: &str, same: fn(&str, &str) -> bool) -> Result<(), Stopped> {
+    let shown = files::shown(file);
+    let meta = std::fs::metadata(file);
+    if meta.is_err() {
+        return Err(fail(
+            exit::FAILED,
+            &format!("{shown} is stale: it does not exist; run `armforge emit` without --check"),
+        ));
     }
-}
-
-fn check(file: &Path, text: &str) -> ExitCode {
-    match std::fs::read(file) {
-        Ok(existing) if existing == text.as_bytes() => ExitCode::SUCCESS,
-        Ok(_) => {
-            eprintln!(
-                "error: {} is stale: it differs from what `armforge emit` writes now; \
-                 run `armforge emit` without --check to update it",
-                file.display()
-            );
-            ExitCode::from(STALE_OR_UNWRITABLE)
-        }
-        Err(e) => {
-            eprintln!("error: cannot read {}: {e}", file.display());
-            ExitCode::from(STALE_OR_UNWRITABLE)
-        }
+    if !meta.is_ok_and(|m| m.is_file()) {
+        return Err(fail(
+            exit::IO,
+            &format!("--check compares with a file, and {shown} is not a regular file"),
+        ));
     }
-}
-
-fn write_if_changed(file: &Path, text: &str) -> ExitCode {
-    if std::fs::read(file).is_ok_and(|existing| existing == text.as_bytes()) {
-        eprintln!("{} is up to date", file.display());
-        return ExitCode::SUCCESS;
+    let existing = files::read_small(file, (text.len() as u64).saturating_mul(4).max(1 << 20))
+        .map_err(|e| fail(exit::IO, &e))?;
+    if same(&existing, text) {
+        return Ok(());
     }
-    match std::fs::write(file, text) {
-        Ok(()) => {
-            eprintln!("wrote {}", file.display());
-            ExitCode::SUCCESS
-        }
-        Err(e) => {
-            eprintln!("error: cannot write {}: {e}", file.display());
-            ExitCode::from(STALE_OR_UNWRITABLE)
-        }
-    }
+    Err(fail(
+        exit::FAILED,
+        &format!(
+            "{shown} is stale: it differs from what `armforge emit` writes now; run `armforge \
+             emit` without --check to update it"
+        ),
+    ))
 }

@@ -1,20 +1,15 @@
 //! `armforge inspect`: classify an arm and report the evidence, or why it has no decoupled
-//! closed form. Exit 0 for a solvable arm, 3 for a geometry with no decoupled closed form,
-//! 2 for a file that cannot be read.
-
-use std::process::ExitCode;
+//! closed form.
 
 use armforge_compiler::classify::{self, Tolerances};
-use armforge_compiler::description;
 use armforge_workbench::report;
+
+use super::io::terminal::{fail, out, report as report_text, say, Outcome};
+use super::io::{exit, files};
 
 /// Arguments of `armforge inspect`.
 #[derive(clap::Args, Debug)]
-#[command(
-    after_help = "Exit status: 0 for an arm armforge can solve (kinematic decoupling at a \
-    spherical wrist), 3 for a geometry with no decoupled closed form (the report says why and \
-    where), 2 for a file that cannot be read or is not a valid description."
-)]
+#[command(after_help = super::io::exit::TABLE)]
 pub struct Args {
     /// The arm description file.
     pub arm: std::path::PathBuf,
@@ -29,15 +24,8 @@ pub struct Args {
     pub parallel_tolerance: f64,
 }
 
-/// Exit code of a solvable arm.
-pub const SOLVABLE: u8 = 0;
-/// Exit code of a file that cannot be read or is not a valid description.
-pub const BAD_FILE: u8 = 2;
-/// Exit code of a geometry with no decoupled closed form.
-pub const NO_CLOSED_FORM: u8 = 3;
-
 /// Runs `armforge inspect`.
-pub fn run(args: Args) -> ExitCode {
+pub fn run(args: Args) -> Outcome {
     let tolerances = Tolerances {
         distance: args.meet_tolerance,
         angle: args.parallel_tolerance,
@@ -47,46 +35,36 @@ pub fn run(args: Args) -> ExitCode {
         ("--parallel-tolerance", tolerances.angle),
     ] {
         if !(value.is_finite() && value >= 0.0) {
-            eprintln!("error: {name} must be a finite number ≥ 0, not {value}");
-            return ExitCode::from(BAD_FILE);
+            return Err(fail(
+                exit::USAGE,
+                &format!("{name} must be a finite number ≥ 0, not {value}"),
+            ));
         }
     }
-    let model = match description::load_file(&args.arm) {
-        Ok(model) => model,
-        Err(diagnostics) => {
-            eprint!("{diagnostics}");
-            return ExitCode::from(BAD_FILE);
-        }
-    };
-    let result = classify::classify(&model, &tolerances);
-    let mut report = report::build(&model, &tolerances, &result);
-    if let Ok(text) = std::fs::read_to_string(&args.arm) {
-        report = report.with_source(&text);
-    }
+    let loaded = files::load(&args.arm)?;
+    let model = &loaded.model;
+    let result = classify::classify(model, &tolerances);
+    let report = report::build(model, &tolerances, &result).with_source(&loaded.text);
     if args.json {
-        match serde_json::to_string_pretty(&report) {
-            Ok(text) => println!("{text}"),
-            Err(e) => {
-                eprintln!("error: cannot write the report as JSON: {e}");
-                return ExitCode::from(BAD_FILE);
-            }
-        }
+        let text = serde_json::to_string_pretty(&report)
+            .map_err(|e| fail(exit::IO, &format!("cannot write the report as JSON: {e}")))?;
+        out(&format!("{text}\n"))?;
     } else {
-        print!("{}", report.to_text());
+        report_text(&report.to_text())?;
     }
-    match &result {
-        Ok(_) => ExitCode::from(SOLVABLE),
+    Ok(exit::code(match &result {
+        Ok(_) => exit::OK,
         Err(rejection) => {
             // The text report already ends with the rejection; JSON readers still get it on
             // stderr for people.
             if args.json {
-                eprintln!("{rejection}");
+                say(&rejection.to_string());
             }
-            ExitCode::from(if rejection.is_bad_input() {
-                BAD_FILE
+            if rejection.is_bad_input() {
+                exit::BAD_DESCRIPTION
             } else {
-                NO_CLOSED_FORM
-            })
+                exit::REJECTED
+            }
         }
-    }
+    }))
 }

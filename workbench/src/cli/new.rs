@@ -1,17 +1,23 @@
 //! `armforge new`: write a commented starting description for a new arm.
 
 use std::path::PathBuf;
-use std::process::ExitCode;
 
-use armforge_workbench::scaffold::{is_valid_arm_name, starting_description, Convention};
+use armforge_workbench::scaffold::{
+    arm_name_problem, parse_convention, starting_description, Convention,
+};
+
+use super::io::exit;
+use super::io::files::{self, Replace, Written};
+use super::io::terminal::{fail, say, Outcome};
 
 /// Arguments of `armforge new`.
 #[derive(clap::Args, Debug)]
+#[command(after_help = super::io::exit::TABLE)]
 pub struct Args {
-    /// The arm's name (letters, digits, '-' and '_', starting with a letter).
+    /// The arm's name (letters, digits, '-' and '_', starting with a letter; not a Rust keyword).
     pub name: String,
     /// How the joints are described.
-    #[arg(long, value_enum, default_value = "dh")]
+    #[arg(long, value_parser = parse_convention, default_value = "dh")]
     pub convention: Convention,
     /// Where to write the file (default: NAME.toml; `-` for standard output).
     #[arg(short = 'o', long = "output")]
@@ -22,42 +28,29 @@ pub struct Args {
 }
 
 /// Runs `armforge new`.
-pub fn run(args: Args) -> ExitCode {
-    if !is_valid_arm_name(&args.name) {
-        eprintln!(
-            "error: arm name `{}` must start with a letter and contain only letters, digits, '-' and '_'",
-            args.name
-        );
-        return ExitCode::from(2);
+pub fn run(args: Args) -> Outcome {
+    if let Some(problem) = arm_name_problem(&args.name) {
+        return Err(fail(
+            exit::USAGE,
+            &format!("arm name: {problem} (it becomes a Rust module name)"),
+        ));
     }
     let text = starting_description(&args.name, args.convention);
     let path = args
         .output
         .unwrap_or_else(|| PathBuf::from(format!("{}.toml", args.name)));
-    if path.as_os_str() == "-" {
-        print!("{text}");
-        return ExitCode::SUCCESS;
+    let replace = if args.force {
+        Replace::Yes
+    } else {
+        Replace::No
+    };
+    let written = files::write(&path, &text, &[], replace)?;
+    if written == Written::Written && files::Destination::of(&path) != files::Destination::Stdout {
+        say(&format!(
+            "{} convention; next: armforge inspect {}",
+            args.convention.word(),
+            files::shown(&path)
+        ));
     }
-    if path.exists() && !args.force {
-        eprintln!(
-            "error: {} exists; pass --force to replace it",
-            path.display()
-        );
-        return ExitCode::from(2);
-    }
-    match std::fs::write(&path, text) {
-        Ok(()) => {
-            eprintln!(
-                "wrote {} ({} convention); next: armforge inspect {}",
-                path.display(),
-                args.convention.key(),
-                path.display()
-            );
-            ExitCode::SUCCESS
-        }
-        Err(e) => {
-            eprintln!("error: cannot write {}: {e}", path.display());
-            ExitCode::from(2)
-        }
-    }
+    Ok(exit::code(exit::OK))
 }

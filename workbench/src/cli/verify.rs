@@ -1,22 +1,20 @@
 //! `armforge verify`: round trips through the arm's solver (the interpreter of its plan) on
 //! random configurations within the limits and near singular configurations and reach
-//! boundaries. Exit 0 when every sample passes, 1 when one fails, 2 for a file that cannot be
-//! read, 3 for a geometry with no decoupled closed form.
+//! boundaries. Exit 0 when every sample passes, 1 when one fails (the table in
+//! [`super::io::exit`] for the rest).
 
 use std::io::IsTerminal;
-use std::process::ExitCode;
 
 use armforge_compiler::solver::Solver;
 use armforge_workbench::verify::{self, Options};
 use indicatif::{ProgressBar, ProgressStyle};
 
+use super::io::terminal::{fail, out, report, Outcome};
+use super::io::{exit, files};
+
 /// Arguments of `armforge verify`.
 #[derive(clap::Args, Debug)]
-#[command(
-    after_help = "Exit status: 0 when every configuration is recovered and every error is within \
-    its limit, 1 when a sample fails (the failing samples are named), 2 for a file that cannot \
-    be read, 3 for a geometry with no decoupled closed form."
-)]
+#[command(after_help = super::io::exit::TABLE)]
 pub struct Args {
     /// The arm description file.
     pub arm: std::path::PathBuf,
@@ -32,17 +30,9 @@ pub struct Args {
     pub json: bool,
 }
 
-/// Exit code when every sample passes.
-pub const PASSED: u8 = 0;
-/// Exit code when a sample fails.
-pub const FAILED: u8 = 1;
-
 /// Runs `armforge verify`.
-pub fn run(args: Args) -> ExitCode {
-    let (model, geometry) = match super::load_classified(&args.arm) {
-        Ok(loaded) => loaded,
-        Err(code) => return code,
-    };
+pub fn run(args: Args) -> Outcome {
+    let (model, geometry) = files::load_classified(&args.arm)?;
     let solver = Solver::new(&model, &geometry);
     let options = Options {
         samples: args.samples,
@@ -56,26 +46,23 @@ pub fn run(args: Args) -> ExitCode {
         }
     }) {
         Ok(s) => s,
-        Err(e) => {
-            eprintln!("error: {e}");
-            return ExitCode::from(super::exit::BAD_FILE);
-        }
+        Err(e) => return Err(fail(exit::BAD_DESCRIPTION, &e.to_string())),
     };
     if let Some(b) = bar {
         b.finish_and_clear();
     }
     if args.json {
-        match serde_json::to_string_pretty(&summary) {
-            Ok(text) => println!("{text}"),
-            Err(e) => {
-                eprintln!("error: cannot write the findings as JSON: {e}");
-                return ExitCode::from(FAILED);
-            }
-        }
+        let text = serde_json::to_string_pretty(&summary)
+            .map_err(|e| fail(exit::IO, &format!("cannot write the findings as JSON: {e}")))?;
+        out(&format!("{text}\n"))?;
     } else {
-        print!("{}", summary.to_text(&model));
+        report(&summary.to_text(&model))?;
     }
-    ExitCode::from(if summary.passed { PASSED } else { FAILED })
+    Ok(exit::code(if summary.passed {
+        exit::OK
+    } else {
+        exit::FAILED
+    }))
 }
 
 /// A progress bar on stderr when stdout is a terminal (a person is watching).

@@ -221,11 +221,7 @@ impl Facts {
 
     /// The wrist center seen from the tool frame: `c_tool = M_Rᵀ (c − M_t)`.
     pub fn c_tool(&self) -> [f64; 3] {
-        let m = &self.arm.tool;
-        num::mat_mul(
-            &num::transpose(&m.rotation),
-            &num::sub(&self.c(), &m.translation),
-        )
+        armforge_compiler::plan::decouple::wrist_center_in_tool(&self.arm)
     }
 
     /// The aligned position of joint 5 (model value): `θa = atan2(h5·(h6 × h4), h6·h4)`.

@@ -78,6 +78,27 @@ pub struct BranchRule {
     pub elbow: ElbowRule,
     /// Wrist rule.
     pub wrist: WristRule,
+    /// The rules read the arm backwards: for an arm whose axes 1–3 meet (the wrist at the
+    /// base), they are the rules of the mirrored arm, whose joint `i` is joint `7 − i` turning
+    /// about the reversed axis (same joint values).
+    pub mirrored: bool,
+}
+
+/// The mirrored arm of [`BranchRule::mirrored`]: joints in reverse order, axes reversed, and
+/// the joint values in reverse order. `E(−h, θ) = E(h, −θ)`, so the mirrored arm's forward
+/// kinematics with the reversed values is the inverse of the arm's joint motions.
+pub fn mirror(joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> ([Joint; JOINTS], [f64; JOINTS]) {
+    let mut mj = *joints;
+    let mut mq = *q;
+    for i in 0..JOINTS {
+        let j = joints[JOINTS - 1 - i];
+        mj[i] = Joint {
+            axis: [-j.axis[0], -j.axis[1], -j.axis[2]],
+            ..j
+        };
+        mq[i] = q[JOINTS - 1 - i];
+    }
+    (mj, mq)
 }
 
 fn sign(x: f64) -> f64 {
@@ -102,10 +123,22 @@ fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
 
 /// The branch label of a configuration, read by the arm's rules.
 pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> Branch {
+    if rule.mirrored {
+        let (mj, mq) = mirror(joints, q);
+        let forward = BranchRule {
+            mirrored: false,
+            ..*rule
+        };
+        return branch_of(&forward, &mj, &mq);
+    }
+    // The point joints 2–6 carry (a wrist center is fixed by joints 4–6; the meeting point of
+    // axes 5 and 6 of a three-parallel arm is moved by joint 4).
     let moved_center = |c: &[f64; 3]| {
-        let e3 = joint_motion(&joints[2], q[2]);
-        let e2 = joint_motion(&joints[1], q[1]);
-        e2.transform_point(&e3.transform_point(c))
+        let mut w = *c;
+        for i in (1..JOINTS).rev() {
+            w = joint_motion(&joints[i], q[i]).transform_point(&w);
+        }
+        w
     };
     let shoulder = match rule.shoulder {
         ShoulderRule::Plane {

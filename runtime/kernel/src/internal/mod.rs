@@ -123,12 +123,24 @@ pub fn check_pose<S: Scalar>(target: &Pose<S>) -> Result<(), Unreachable<S>> {
 /// The plan's reference inputs for the current joint values: cosine and sine of the model
 /// values of joints 1 and 4 (a non-finite value counts as zero).
 pub fn reference(joints: &[Joint; JOINTS], current: &[f64; JOINTS]) -> [f64; 4] {
+    reference_of(joints, current, [0, 3])
+}
+
+/// The plan's reference inputs for the current joint values when the free joints are `free`
+/// (0-based): joints 1 and 4 for an arm that decouples at its wrist, others for families that
+/// hold other joints at their singularities (a non-finite value counts as zero).
+pub fn reference_of(
+    joints: &[Joint; JOINTS],
+    current: &[f64; JOINTS],
+    free: [usize; 2],
+) -> [f64; 4] {
     let model = |i: usize| {
+        let i = i.min(JOINTS - 1);
         let q = current[i];
         joints[i].model_value(if q.is_finite() { q } else { 0.0 })
     };
-    let (s1, c1) = sin_cos(model(0));
-    let (s4, c4) = sin_cos(model(3));
+    let (s1, c1) = sin_cos(model(free[0]));
+    let (s4, c4) = sin_cos(model(free[1]));
     [c1, s1, c4, s4]
 }
 

@@ -1,0 +1,122 @@
+//! The wrist at the base (axes 1–3 meet): round trips on random arms whose last three joints
+//! have every named family's shape, solved by mirrored decoupling.
+
+use std::f64::consts::TAU;
+
+use armforge_compiler::classify::{classify, Family, Tolerances};
+use armforge_compiler::model::Model;
+use armforge_compiler::plan::mirror;
+use armforge_compiler::plan::samples::{
+    sample_arm, sample_configuration, SampleOptions, SampleRng,
+};
+use armforge_compiler::solver::Solver;
+use armforge_runtime::{Pose, Solution};
+
+fn arms() -> u64 {
+    std::env::var("ARMFORGE_BASE_WRIST_ARMS")
+        .ok()
+        .and_then(|s| s.parse().ok())
+        .unwrap_or(200)
+}
+
+fn pose_error(a: &Pose, b: &Pose, reach: f64) -> f64 {
+    let mut p: f64 = 0.0;
+    let mut r: f64 = 0.0;
+    for i in 0..3 {
+        p += (a.translation[i] - b.translation[i]).powi(2);
+        for j in 0..3 {
+            r += (a.rotation[i][j] - b.rotation[i][j]).powi(2);
+        }
+    }
+    (p.sqrt() / reach).max(r.sqrt())
+}
+
+fn gap(model: &Model, a: &[f64; 6], b: &[f64; 6]) -> f64 {
+    model
+        .joints
+        .iter()
+        .zip(a.iter().zip(b))
+        .map(|(j, (x, y))| {
+            let d = x - y;
+            match j.joint.kind {
+                armforge_runtime::JointKind::Revolute => (d - TAU * (d / TAU).round()).abs(),
+                armforge_runtime::JointKind::Prismatic => d.abs(),
+            }
+        })
+        .fold(0.0, f64::max)
+}
+
+/// A random arm with its wrist at the base whose joints 6, 5, 4 have the shape of `family`.
+fn base_wrist_arm(family: Family, seed: u64) -> Model {
+    let (inner, _) = sample_arm(family, seed, &SampleOptions::default());
+    let mut arm = mirror::mirrored_model(&inner);
+    let mut rng = SampleRng::new(77 + seed);
+    arm.tool = rng.pose(0.5);
+    arm.base = rng.pose(1.0);
+    arm
+}
+
+fn round_trip(family: Family, most: usize) -> usize {
+    let mut full = 0;
+    for seed in 0..arms() {
+        let model = base_wrist_arm(family, seed);
+        let inner = classify(&mirror::mirrored_model(&model), &Tolerances::default())
+            .unwrap_or_else(|r| panic!("arm {seed}: mirrored arm rejected: {r}"));
+        assert_eq!(inner.family, family);
+        let solver = Solver::from_plan(mirror::build(&model, &inner, family));
+        let reach = solver.plan().arm.scale;
+        let mut rng = SampleRng::new(9000 + seed);
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            let target = model.forward(&q);
+            let solutions: Vec<Solution> = solver
+                .solve(&target)
+                .unwrap_or_else(|e| panic!("{family:?} arm {seed}: no solution for {q:?}: {e}"));
+            assert!(solutions.len() <= most);
+            if solutions.len() == most {
+                full += 1;
+            }
+            for s in &solutions {
+                let e = pose_error(&solver.forward(&s.joints), &target, reach);
+                assert!(e < 1e-9, "{family:?} arm {seed}: {s:?} misses by {e:e}");
+                if s.flags.is_empty() {
+                    assert_eq!(solver.branch_of(&s.joints), s.branch, "arm {seed}: {s:?}");
+                }
+            }
+            for (i, a) in solutions.iter().enumerate() {
+                for b in &solutions[i + 1..] {
+                    assert!(
+                        gap(&model, &a.joints, &b.joints) > 1e-9,
+                        "arm {seed}: duplicates"
+                    );
+                }
+            }
+            assert!(
+                solutions.iter().any(|s| gap(&model, &s.joints, &q) < 1e-6),
+                "{family:?} arm {seed}: {q:?} ({}) not among {solutions:#?}",
+                solver.branch_of(&q)
+            );
+        }
+    }
+    full
+}
+
+#[test]
+fn elbow_hand_round_trip() {
+    eprintln!("elbow: {} poses with 8", round_trip(Family::Elbow, 8));
+}
+
+#[test]
+fn polar_hand_round_trip() {
+    round_trip(Family::Polar, 8);
+}
+
+#[test]
+fn cylindrical_hand_round_trip() {
+    round_trip(Family::Cylindrical, 4);
+}
+
+#[test]
+fn cartesian_hand_round_trip() {
+    round_trip(Family::Cartesian, 2);
+}
