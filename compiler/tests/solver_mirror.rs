@@ -12,11 +12,9 @@ use armforge_compiler::plan::samples::{
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{Pose, Solution};
 
+/// Random arms per run: 200 times `ARMFORGE_SCALE`.
 fn arms() -> u64 {
-    std::env::var("ARMFORGE_BASE_WRIST_ARMS")
-        .ok()
-        .and_then(|s| s.parse().ok())
-        .unwrap_or(200)
+    armforge_compiler::plan::samples::sample_count(200) as u64
 }
 
 fn pose_error(a: &Pose, b: &Pose, reach: f64) -> f64 {
