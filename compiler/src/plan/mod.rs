@@ -295,7 +295,7 @@ pub fn assemble(
 
 /// The joint value `solve` holds joint 1 at when it is free (the wrist center on axis 1).
 ///
-/// The back shoulder solution is the front one turned by half a turn, so the value is the one
+/// The `across` shoulder solution is the `facing` one turned by half a turn, so the value is the one
 /// nearest zero for which both lie within joint 1's limits: zero where the range allows it
 /// (one full turn, say), otherwise just inside a limit (e.g. −10° for limits of ±170°, with the
 /// back solution at 170°). A range narrower than half a turn keeps the value nearest zero.
