@@ -189,12 +189,12 @@ impl View {
         }
     }
 
-    /// The world point on the page, px: side = x–z, top = x–y, front = y–z, SVG y downwards.
+    /// The world point on the page, px: side = x–z, top = x–y, end = y–z, SVG y downwards.
     fn expected(&self, p: [f64; 3]) -> [f64; 2] {
         let (u, v) = match self.kind.as_str() {
             "side" => (p[0], p[2]),
             "top" => (p[0], p[1]),
-            "front" => (p[1], p[2]),
+            "end" => (p[1], p[2]),
             other => panic!("unknown view {other}"),
         };
         [

@@ -94,7 +94,7 @@ impl<'a> Drawing<'a> {
                 joint_values,
                 alternatives: Vec::new(),
             }],
-            views: vec![ViewKind::Side, ViewKind::Top, ViewKind::Front],
+            views: vec![ViewKind::Side, ViewKind::Top, ViewKind::End],
             arrangement: Arrangement::Row,
             columns: 1,
             wrist_center: wrist_center_from_axes(model),

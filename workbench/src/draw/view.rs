@@ -10,7 +10,7 @@ pub enum ViewKind {
     /// The x–y plane seen from +z (from above): x to the right, y up.
     Top,
     /// The y–z plane seen from +x: y to the right, z up.
-    Front,
+    End,
 }
 
 impl ViewKind {
@@ -18,14 +18,14 @@ impl ViewKind {
     pub fn right(self) -> [f64; 3] {
         match self {
             ViewKind::Side | ViewKind::Top => [1.0, 0.0, 0.0],
-            ViewKind::Front => [0.0, 1.0, 0.0],
+            ViewKind::End => [0.0, 1.0, 0.0],
         }
     }
 
     /// The world direction drawn upwards.
     pub fn up(self) -> [f64; 3] {
         match self {
-            ViewKind::Side | ViewKind::Front => [0.0, 0.0, 1.0],
+            ViewKind::Side | ViewKind::End => [0.0, 0.0, 1.0],
             ViewKind::Top => [0.0, 1.0, 0.0],
         }
     }
@@ -40,7 +40,7 @@ impl ViewKind {
         match self {
             ViewKind::Side => "side",
             ViewKind::Top => "top",
-            ViewKind::Front => "front",
+            ViewKind::End => "end",
         }
     }
 
@@ -49,7 +49,7 @@ impl ViewKind {
         match self {
             ViewKind::Side => "side: x → right, z ↑ (seen from −y)",
             ViewKind::Top => "top: x → right, y ↑ (seen from +z)",
-            ViewKind::Front => "front: y → right, z ↑ (seen from +x)",
+            ViewKind::End => "end: y → right, z ↑ (seen from +x)",
         }
     }
 
@@ -72,6 +72,6 @@ mod tests {
     fn views_are_right_handed_and_seen_from_the_stated_side() {
         assert_eq!(ViewKind::Side.toward_viewer(), [0.0, -1.0, 0.0]);
         assert_eq!(ViewKind::Top.toward_viewer(), [0.0, 0.0, 1.0]);
-        assert_eq!(ViewKind::Front.toward_viewer(), [1.0, 0.0, 0.0]);
+        assert_eq!(ViewKind::End.toward_viewer(), [1.0, 0.0, 0.0]);
     }
 }
