@@ -69,10 +69,44 @@ impl Model {
     }
 
     /// Forward kinematics in the file's units: joint values in the file's units in, the world
-    /// pose of the tool frame out with its translation in the file's length unit.
+    /// pose of the tool frame out with its translation in the file's length unit, rounding
+    /// noise taken out ([`crate::units::snap`]: `0` for `6.1e-17`, `0.85` for
+    /// `0.8500000000000001`).
     pub fn forward_in_file_units(&self, joint_values: &[f64]) -> Pose {
         let pose = self.forward(&self.joint_values_to_si(joint_values));
-        self.units.pose_from_si(&pose)
+        let pose = self.units.pose_from_si(&pose);
+        crate::units::snap_pose(&pose, self.units.length_from_si(self.extent()))
+    }
+
+    /// The arm's extent in metres, at least 1 m: the largest coordinate of a joint point, the
+    /// tool or the base. The scale below which rounding noise in a length is taken for zero.
+    pub fn extent(&self) -> f64 {
+        self.joints
+            .iter()
+            .flat_map(|j| j.joint.point)
+            .chain(self.tool.translation)
+            .chain(self.base.translation)
+            .fold(1.0f64, |m, x| m.max(x.abs()))
+    }
+
+    /// Joint values in the file's units with rounding noise taken out ([`crate::units::snap`]:
+    /// a turn is the scale of an angle, the arm's extent that of a slide).
+    pub fn tidy_joint_values(&self, values: &[f64]) -> Vec<f64> {
+        self.joints
+            .iter()
+            .zip(values)
+            .map(|(j, &x)| {
+                let scale = match j.joint.kind {
+                    armforge_runtime::JointKind::Revolute => {
+                        self.units.angle_from_si(core::f64::consts::TAU)
+                    }
+                    armforge_runtime::JointKind::Prismatic => {
+                        self.units.length_from_si(self.extent())
+                    }
+                };
+                crate::units::snap(x, scale)
+            })
+            .collect()
     }
 
     /// The joint's label for messages: `joint 3 ("elbow")`, 1-based.

@@ -190,6 +190,9 @@ impl Solver {
     /// equivalent angle nearest its range's center), or why there is none.
     pub fn solve_branch(&self, target: &Pose, branch: Branch) -> Result<Solution, Unreachable> {
         internal::check_pose(target)?;
+        if !self.plan.candidates.iter().any(|c| c.branch == branch) {
+            return Err(Unreachable::NoSuchBranch);
+        }
         let candidates = self.candidates(target, &self.plan.zero_reference);
         let Some(c) = candidates.iter().find(|c| c.branch == branch) else {
             return Err(Unreachable::BranchUnavailable);

@@ -142,6 +142,48 @@ impl Units {
     }
 }
 
+/// Rounding noise allowed by [`snap`], in units of the scale: 64 ulps of 1 (about 1.4e-14),
+/// more than the few roundings a frame walk, a unit conversion or forward kinematics adds, far
+/// below any dimension or tolerance of an arm.
+pub const SNAP_ULPS: f64 = 64.0 * f64::EPSILON;
+
+/// `x` as the description meant it: `0` when `|x|` is within [`SNAP_ULPS`] × `scale` of zero
+/// (never `-0`), else the shortest decimal of at most 12 significant digits within
+/// [`SNAP_ULPS`] × max(`scale`, `|x|`) of `x` (`0.8500000000000001` → `0.85`,
+/// `29.99999999999999` → `30`), else `x` unchanged. `scale` is the size of the quantity: the
+/// arm's size for lengths, 1 for direction cosines, a turn for angles.
+pub fn snap(x: f64, scale: f64) -> f64 {
+    if !x.is_finite() {
+        return x;
+    }
+    let scale = scale.abs();
+    if x.abs() <= SNAP_ULPS * scale {
+        return 0.0;
+    }
+    let tolerance = SNAP_ULPS * scale.max(x.abs());
+    for digits in 0..12 {
+        let short: f64 = format!("{x:.digits$e}").parse().unwrap_or(x);
+        if (short - x).abs() <= tolerance {
+            return short + 0.0;
+        }
+    }
+    x + 0.0
+}
+
+/// [`snap`] on each component.
+pub fn snap3(v: [f64; 3], scale: f64) -> [f64; 3] {
+    v.map(|x| snap(x, scale))
+}
+
+/// A pose with each rotation entry snapped at scale 1 and each translation component at
+/// `length_scale` ([`snap`]).
+pub fn snap_pose(pose: &Pose, length_scale: f64) -> Pose {
+    Pose {
+        rotation: pose.rotation.map(|row| snap3(row, 1.0)),
+        translation: snap3(pose.translation, length_scale),
+    }
+}
+
 /// A number printed for people: up to six significant decimals, no trailing zeros, no `-0`.
 pub fn tidy(x: f64) -> String {
     if !x.is_finite() {
@@ -153,5 +195,28 @@ pub fn tidy(x: f64) -> String {
         "0".to_string()
     } else {
         s
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn snap_gives_the_decimal_the_file_wrote_and_zero_for_noise() {
+        // Values seen in emitted tables and `forward` output before snapping.
+        assert_eq!(snap(0.8500000000000001, 1.0), 0.85);
+        assert_eq!(snap(0.12000000000000002, 1.0), 0.12);
+        assert_eq!(snap(29.99999999999999, 360.0), 30.0);
+        assert_eq!(snap(6.123233995736766e-17, 1.0), 0.0);
+        assert_eq!(snap(7.041719095097277e-15, 1.463), 0.0);
+        assert!(snap(-1e-17, 1.0).is_sign_positive());
+        assert!(snap(-0.0, 1.0).is_sign_positive());
+        // Real values stay: a cosine, a long decimal from a file, a small length.
+        let c = (30f64).to_radians().cos();
+        assert_eq!(snap(c, 1.0), c);
+        assert_eq!(snap(std::f64::consts::PI, 1.0), std::f64::consts::PI);
+        assert_eq!(snap(1e-9, 1.0), 1e-9);
+        assert_eq!(snap(-0.21, 1.0), -0.21);
     }
 }

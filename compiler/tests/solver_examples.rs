@@ -123,3 +123,62 @@ fn example_arm_plans_and_modules() {
         );
     }
 }
+
+/// The float literals of the emitted module's arm tables (`JOINT_TABLE`, `BASE`, `TOOL`,
+/// `LABELS`): the text from each `const NAME` to the next blank line.
+fn table_literals(module: &str) -> Vec<(String, f64)> {
+    let mut found = Vec::new();
+    for name in ["JOINT_TABLE", "BASE", "TOOL", "LABELS"] {
+        let Some(start) = module.find(&format!("const {name}:")) else {
+            panic!("no {name} in the emitted module");
+        };
+        let body = &module[start..];
+        let body = &body[..body.find("\n\n").unwrap_or(body.len())];
+        for word in body.split(|c: char| !(c.is_ascii_alphanumeric() || c == '.' || c == '-')) {
+            let word = word.trim_start_matches('-');
+            if word.starts_with(|c: char| c.is_ascii_digit()) && word.contains('.') {
+                if let Ok(x) = word.parse::<f64>() {
+                    found.push((format!("{name}: {word}"), x));
+                }
+            }
+        }
+    }
+    found
+}
+
+#[test]
+fn emitted_tables_and_forward_at_zero_carry_no_rounding_noise() {
+    // A value within 1e-12 of zero is zero, and a value one shorter decimal stands for within a
+    // few ulps (0.8500000000000001 for 0.85) is written as that decimal.
+    for path in arms() {
+        let model = load_model(&path, "arm").unwrap_or_else(|d| panic!("{d}"));
+        let geometry = classify(&model, &Tolerances::default()).unwrap();
+        let plan = build_plan(&model, &geometry);
+        let module = emit_module(&model, &plan, &EmitOptions::default());
+        let literals = table_literals(&module);
+        assert!(literals.len() > 30, "{}: tables found", stem(&path));
+        for (what, x) in literals {
+            assert!(
+                x == 0.0 || x.abs() > 1e-12,
+                "{}: {what} is rounding noise",
+                stem(&path)
+            );
+            let short = format!("{x:.11e}").parse::<f64>().unwrap();
+            assert!(
+                short == x || (short - x).abs() > 64.0 * f64::EPSILON * x.abs(),
+                "{}: {what} stands for {short}",
+                stem(&path)
+            );
+        }
+        assert!(!module.contains(" 1 atan2") && !module.contains(" 1 divisions"));
+        let zero = model.forward_in_file_units(&vec![0.0; model.joints.len()]);
+        for x in zero.rotation.concat().into_iter().chain(zero.translation) {
+            assert!(
+                x == 0.0 || x.abs() > 1e-12,
+                "{}: forward at zero carries {x:e}",
+                stem(&path)
+            );
+            assert!(!(x == 0.0 && x.is_sign_negative()), "{}: -0", stem(&path));
+        }
+    }
+}

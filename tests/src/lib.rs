@@ -15,6 +15,7 @@
 //! Later tests (solver round trips) reuse it: joint values are in SI units (radians, metres).
 
 pub mod emitted;
+pub mod readme;
 
 use std::path::{Path, PathBuf};
 

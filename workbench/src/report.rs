@@ -12,7 +12,7 @@ use armforge_compiler::classify::evidence::{ArmEvidence, ReachOrigin, Shoulder, 
 use armforge_compiler::classify::reject::{Quantity, Rejection};
 use armforge_compiler::classify::{Geometry, SolutionCount};
 use armforge_compiler::model::Model;
-use armforge_compiler::units::{tidy, Units};
+use armforge_compiler::units::{snap, tidy, Units};
 
 /// One joint of the model, in the file's units.
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -186,8 +186,8 @@ fn flag_item(key: &'static str, label: &str, yes: bool) -> Item {
     }
 }
 
-/// A number for JSON: rounded like the text (so the two agree and snapshots are stable);
-/// `null` when infinite.
+/// A number for JSON at full precision without rounding noise ([`clean`]); `null` when
+/// infinite.
 fn number(x: f64) -> Value {
     if x.is_finite() {
         json!(clean(x))
@@ -196,8 +196,10 @@ fn number(x: f64) -> Value {
     }
 }
 
+/// `x` (in the file's units) at full precision with its rounding noise taken out
+/// ([`snap`]: zero within 64 ulps of 1000 units, `0.85` for `0.8500000000000001`).
 fn clean(x: f64) -> f64 {
-    tidy(x).parse().unwrap_or(x)
+    snap(x, 1e3)
 }
 
 fn joint_rows(model: &Model) -> Vec<JointRow> {
@@ -330,10 +332,10 @@ fn shoulder_items(u: &Units, s: &Shoulder) -> Vec<Item> {
         ),
         length_item(
             u,
-            "forearm_offset",
-            "forearm offset (distance of the wrist center from the plane through the shoulder \
+            "sideways_offset",
+            "sideways offset (distance of the wrist center from the plane through the shoulder \
              point perpendicular to axis 2)",
-            s.forearm_offset,
+            s.sideways_offset,
         ),
     ]
 }
@@ -489,16 +491,16 @@ fn wrist_items(u: &Units, g: &Geometry) -> Vec<Item> {
     ]
 }
 
-/// A joint value for a model value, in the file's units, marked when the joint's limits keep
-/// the arm from getting there.
-fn joint_value(model: &Model, index: usize, model_value: f64) -> String {
+/// A joint value for a model value, in the file's units, and whether the joint's limits let
+/// the arm get there.
+fn joint_value(model: &Model, index: usize, model_value: f64) -> (String, bool) {
     let Some(j) = model.joints.get(index) else {
-        return tidy(model_value);
+        return (tidy(model_value), true);
     };
     let q = j.joint.joint_value(model_value);
     let [lo, hi] = j.joint.limits;
     let inside = |x: f64| x >= lo && x <= hi;
-    let (shown, reachable) = match j.joint.kind {
+    match j.joint.kind {
         JointKind::Revolute => {
             // Wrapped into (−π, π]: a half turn reads as +180°.
             let turn = 2.0 * std::f64::consts::PI;
@@ -512,11 +514,31 @@ fn joint_value(model: &Model, index: usize, model_value: f64) -> String {
             (model.units.show_angle(wrapped), reachable)
         }
         JointKind::Prismatic => (model.units.show_length(q), inside(q)),
+    }
+}
+
+/// Joint values for model values, those the limits rule out said apart:
+/// `0°`, `0° (180° is outside the joint's limits)`, `180° (outside the joint's limits)`.
+fn joint_values(model: &Model, index: usize, model_values: &[f64]) -> String {
+    let (inside, outside): (Vec<_>, Vec<_>) = model_values
+        .iter()
+        .map(|&m| joint_value(model, index, m))
+        .partition(|(_, reachable)| *reachable);
+    let words = |v: &[(String, bool)]| {
+        v.iter()
+            .map(|(s, _)| s.as_str())
+            .collect::<Vec<_>>()
+            .join(" and ")
     };
-    if reachable {
-        shown
-    } else {
-        format!("{shown} (outside the joint's limits)")
+    match (inside.is_empty(), outside.is_empty()) {
+        (_, true) => words(&inside),
+        (true, false) => format!("{} (outside the joint's limits)", words(&outside)),
+        (false, false) => format!(
+            "{} ({} {} outside the joint's limits)",
+            words(&inside),
+            words(&outside),
+            if outside.len() == 1 { "is" } else { "are" }
+        ),
     }
 }
 
@@ -526,11 +548,7 @@ fn singularity_text(model: &Model, s: &Singularity) -> String {
         Singularity::WristAligned { joint_5_at } => format!(
             "wrist aligned: axes 4 and 6 in one line, joints 4 and 6 turn together, at joint 5 \
              = {}",
-            joint_5_at
-                .iter()
-                .map(|&m| joint_value(model, 4, m))
-                .collect::<Vec<_>>()
-                .join(" and ")
+            joint_values(model, 4, joint_5_at)
         ),
         Singularity::WristNeverAligned => {
             "wrist never aligned: axes 4 and 6 cannot line up (the wrist's twists differ)".into()
@@ -562,17 +580,17 @@ fn singularity_text(model: &Model, s: &Singularity) -> String {
         Singularity::Stretched { joint_3_at } => format!(
             "arm stretched (wrist center farthest from axis 2) at joint 3 = {}: the two elbow \
              solutions merge",
-            joint_value(model, 2, *joint_3_at)
+            joint_values(model, 2, &[*joint_3_at])
         ),
         Singularity::Folded { joint_3_at } => format!(
             "arm folded (wrist center nearest axis 2) at joint 3 = {}: the two elbow solutions \
              merge",
-            joint_value(model, 2, *joint_3_at)
+            joint_values(model, 2, &[*joint_3_at])
         ),
         Singularity::SlideClosestToAxis2 { joint_3_at } => format!(
             "slide where the wrist center passes nearest axis 2, joint 3 = {}: the two slide \
              solutions merge",
-            joint_value(model, 2, *joint_3_at)
+            joint_values(model, 2, &[*joint_3_at])
         ),
     }
 }
@@ -744,12 +762,39 @@ fn rejected_text(out: &mut String, r: &Rejected) {
         r.path, r.line, r.column, r.message
     );
     if let Some(source) = &r.source_line {
-        let gutter = r.line.to_string().len();
-        let _ = writeln!(out, "{:gutter$} |", "");
-        let _ = writeln!(out, "{} | {source}", r.line);
-        let _ = writeln!(out, "{:gutter$} | {:>col$}", "", "^", col = r.column.max(1));
+        source_excerpt(out, r.line, r.column, source);
     }
     for note in &r.notes {
         let _ = writeln!(out, "  note: {note}");
     }
+}
+
+/// The offending line of the file with a caret under the column, as `inspect` shows it.
+fn source_excerpt(out: &mut String, line: usize, column: usize, source: &str) {
+    let gutter = line.to_string().len();
+    let _ = writeln!(out, "{:gutter$} |", "");
+    let _ = writeln!(out, "{line} | {source}");
+    let _ = writeln!(out, "{:gutter$} | {:>col$}", "", "^", col = column.max(1));
+}
+
+/// A rejection as every command prints it: the located message, the offending line of the
+/// file's `text` with a caret (as in `inspect`'s report), then the notes.
+pub fn rejection_text(rejection: &Rejection, text: &str) -> String {
+    let mut out = format!(
+        "error: {}:{}:{}: {}\n",
+        rejection.path, rejection.location.line, rejection.location.column, rejection.message
+    );
+    let line = rejection.location.line.checked_sub(1);
+    if let Some(source) = line.and_then(|i| text.lines().nth(i)) {
+        source_excerpt(
+            &mut out,
+            rejection.location.line,
+            rejection.location.column,
+            source.trim_end(),
+        );
+    }
+    for note in &rejection.note_texts {
+        let _ = writeln!(out, "  note: {note}");
+    }
+    out.trim_end().to_string()
 }

@@ -133,7 +133,7 @@ rotation = [[0.0, 0.0, 1.0], [0.0, -1.0, 0.0], [1.0, 0.0, 0.0]]"
 /// A commented, valid starting description named `name` in `convention`.
 ///
 /// The arm is invented: a floor-standing six-joint elbow arm with a 50 mm shoulder offset, a
-/// 350 mm upper arm, a 40 mm forearm offset, a 380 mm forearm and a spherical wrist.
+/// 350 mm upper arm, a 40 mm elbow step, a 380 mm forearm and a spherical wrist.
 pub fn starting_description(name: &str, convention: Convention) -> String {
     let mut out = String::new();
     let _ = write!(
@@ -144,7 +144,7 @@ pub fn starting_description(name: &str, convention: Convention) -> String {
 # is explained where it first appears; the full reference is in armforge's README.
 #
 # The arm below is invented: a floor-standing six-joint elbow arm (50 mm shoulder offset,
-# 350 mm upper arm, 40 mm forearm offset, 380 mm forearm) with a spherical wrist whose three
+# 350 mm upper arm, 40 mm elbow step, 380 mm forearm) with a spherical wrist whose three
 # axes meet 90 mm behind the flange.
 #
 # Safety: a generated solver is not a safety function. Validate it on the real machine at

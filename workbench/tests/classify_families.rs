@@ -49,7 +49,7 @@ fn plain_elbow_evidence() {
     close(e.shoulder.offset, 0.0, "shoulder offset");
     close(e.shoulder.angle_1_2, FRAC_PI_2, "angle 1–2");
     close3(e.shoulder.point, [0.0, 0.0, 0.4], "shoulder point");
-    close(e.shoulder.forearm_offset, 0.0, "forearm offset");
+    close(e.shoulder.sideways_offset, 0.0, "sideways offset");
     close(e.upper_arm, 0.35, "upper arm");
     close(e.forearm, 0.4, "forearm");
     // Turning the forearm (+x) about +y by −90° points it up (+z), along the upper arm.
@@ -88,7 +88,7 @@ fn offset_tilted_elbow_evidence() {
     close3(e.shoulder.point, [0.1, 0.0, 0.4], "shoulder point");
     close(e.upper_arm, 0.3, "upper arm");
     close(e.forearm, 0.35, "forearm");
-    close(e.shoulder.forearm_offset, 0.05, "forearm offset");
+    close(e.shoulder.sideways_offset, 0.05, "sideways offset");
     let reach = g.reach.expect("reach");
     close(reach.min, 0.05f64.hypot(0.05), "reach min");
     close(reach.max, 0.65f64.hypot(0.05), "reach max");
@@ -201,7 +201,7 @@ fn polar_evidence() {
     };
     assert!(e.shoulder.axes_1_2_meet);
     close(
-        e.shoulder.forearm_offset,
+        e.shoulder.sideways_offset,
         0.05,
         "sideways offset along axis 2",
     );

@@ -174,4 +174,12 @@ fn tolerance_options_change_the_verdict() {
     assert_eq!(code, 0, "{out}");
     let (code, _, err) = armforge(&["inspect", "--parallel-tolerance", "-1", path]);
     assert_eq!(code, 2, "{err}");
+    // The parallel tolerance is in the file's angle unit: the tilted elbow's axes 2 and 3
+    // make 10°, so 11 (degrees, as the file says) counts them parallel, and 9 does not. Read
+    // as radians, 9 would have accepted them.
+    let tilted = "arms/rejected/tilted-elbow.toml";
+    let (code, out, _) = armforge(&["inspect", "--parallel-tolerance", "11", tilted]);
+    assert_ne!(code, 3, "{out}");
+    let (code, out, _) = armforge(&["inspect", "--parallel-tolerance", "9", tilted]);
+    assert_eq!(code, 3, "{out}");
 }

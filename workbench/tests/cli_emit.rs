@@ -166,6 +166,11 @@ fn emit_exit_codes_match_inspect() {
         assert!(stderr.contains(needle), "{file}: {stderr}");
         let inspect = armforge().args(["inspect", &path]).output().expect("runs");
         assert_eq!(inspect.status.code(), Some(code), "inspect {file}");
+        if code == 3 {
+            // A rejection shows the offending line and a caret under it, as inspect does.
+            assert!(stderr.contains("| [[joint]]"), "{file}: {stderr}");
+            assert!(stderr.contains("| ^"), "{file}: {stderr}");
+        }
     }
 }
 

@@ -128,6 +128,40 @@ fn near_and_branch_give_one_solution() {
     );
     assert_eq!(code, Some(2));
     assert!(stderr.contains("sideways"), "{stderr}");
+    // An elbow word on a polar arm: a branch the arm never has, said so.
+    let polar = "../arms/hotel-loader-axes.toml";
+    let pose = r#"{"rotation": [[1,0,0],[0,1,0],[0,0,1]], "translation": [0.5, 0.2, 1.0]}"#;
+    let (code, lines, _) = run(&["solve", polar, "--branch", "facing,up,leading"], pose);
+    assert_eq!(code, Some(0));
+    assert_eq!(lines[0]["status"], "no_such_branch", "{}", lines[0]);
+    assert_eq!(lines[0]["reason"], "this arm has no such branch");
+}
+
+#[test]
+fn solutions_print_the_joint_values_without_rounding_noise() {
+    // The pose of 30° on every joint of the degree arm: the solution comes back as 30, not
+    // 29.99999999999999, and no value is -0.
+    let (_, forward, _) = run_forward(ARM, r#"{"joints": [30, 30, 30, 30, 30, 30]}"#);
+    let pose = forward[0].to_string();
+    let (code, lines, _) = run(&["solve", ARM], &pose);
+    assert_eq!(code, Some(0));
+    let text = lines[0].to_string();
+    assert!(!text.contains("-0.0,") && !text.contains("-0.0]"), "{text}");
+    let solutions = lines[0]["solutions"].as_array().expect("solutions");
+    assert!(solutions
+        .iter()
+        .any(|s| joints_of(s).iter().all(|&x| x == 30.0)));
+    for s in solutions {
+        let joints = joints_of(s);
+        assert!(
+            joints.iter().all(|&x| x == 30.0 || (x - 30.0).abs() > 1e-9),
+            "{joints:?}"
+        );
+    }
+}
+
+fn run_forward(arm: &str, stdin: &str) -> (Option<i32>, Vec<Value>, String) {
+    run(&["forward", arm], stdin)
 }
 
 #[test]

@@ -649,3 +649,74 @@ fn joint_centres_of_a_dh_arm_are_its_frame_origins() {
     }
     assert_eq!(checked, 18);
 }
+
+/// The hotel loader's joint centres at zero, derived by hand from `arms/hotel-loader-axes.toml`:
+/// the turn axis (z through the origin) at the origin; the tilt axis (y through
+/// (0.12, 0, 0.62)) at the foot of its common normal with the turn axis; the boom (a slide
+/// along z, no point in the file) where it leaves the tilt axis on its way to the wrist; the
+/// three wrist axes where they meet, 0.55 m up the boom.
+const HOTEL_CENTRES_AT_ZERO: [[f64; 3]; 6] = [
+    [0.0, 0.0, 0.0],
+    [0.12, 0.0, 0.62],
+    [0.12, 0.0, 0.62],
+    [0.12, 0.0, 1.17],
+    [0.12, 0.0, 1.17],
+    [0.12, 0.0, 1.17],
+];
+
+#[test]
+fn the_polar_boom_runs_from_its_tilt_axis_where_forward_kinematics_puts_it() {
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../arms/hotel-loader-axes.toml"
+    );
+    let text = std::fs::read_to_string(path).expect("the hotel loader example");
+    let model = armforge_compiler::description::load_str(&text, path).expect("loads");
+    let q = vec![
+        30f64.to_radians(),
+        40f64.to_radians(),
+        0.25,
+        10f64.to_radians(),
+        20f64.to_radians(),
+        30f64.to_radians(),
+    ];
+    let svg = Drawing::configuration(&model, q.clone()).to_svg();
+    let doc = roxmltree::Document::parse(&svg).unwrap();
+    let mut checked = 0;
+    for view_node in doc.descendants().filter(|n| has_class(n, "view")) {
+        let view = View::of(view_node);
+        for mark in view_node.descendants().filter(|n| has_class(n, "joint")) {
+            let i: usize = mark.attribute("data-joint").unwrap().parse().unwrap();
+            // E_i leaves a turning joint's centre in place and moves a slide's carriage.
+            let expected = view.expected(world(&model, &q, i, HOTEL_CENTRES_AT_ZERO[i - 1]));
+            assert_near(
+                joint_centre(mark),
+                expected,
+                &format!("{} view, joint {i}", view.kind),
+            );
+            checked += 1;
+        }
+    }
+    assert_eq!(checked, 3 * 6, "three views of six joints");
+}
+
+#[test]
+fn the_title_and_the_subject_are_apart_in_every_viewer() {
+    // SVG collapses leading spaces in a text span (SVG 1.1 §10.15, `xml:space`), so the gap
+    // between the arm's name and the subject must be a shift, not spaces.
+    let svg = Drawing::configuration(&tray_arm(), vec![0.0; 6]).to_svg();
+    let doc = roxmltree::Document::parse(&svg).unwrap();
+    let title = doc
+        .descendants()
+        .find(|n| has_class(n, "title"))
+        .expect("a title group");
+    let spans: Vec<_> = title
+        .descendants()
+        .filter(|n| n.tag_name().name() == "tspan")
+        .collect();
+    assert_eq!(spans.len(), 2, "name and subject");
+    let subject = spans[1];
+    assert!(number(subject, "dx") > 0.0);
+    let words = subject.text().unwrap_or_default();
+    assert!(words.starts_with('—'), "{words:?}");
+}

@@ -385,3 +385,47 @@ fn explain_exit_codes() {
         .expect("armforge runs");
     assert_eq!(missing.status.code(), Some(5));
 }
+
+#[test]
+fn sheets_of_millimetre_and_degree_arms_speak_no_metres_or_radians() {
+    // One unit system per sheet, the file's: no number with ` m`/` rad`, no `metres` or
+    // `radians`, no minus sign as a hyphen before a number, no `1e-20`-style noise.
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("..");
+    let mut checked = 0;
+    for name in ["bench-elbow-dh", "tray-gantry-axes"] {
+        let path = format!("arms/{name}.toml");
+        let text = std::fs::read_to_string(root.join(&path)).expect("arm");
+        let sheet = sheet(&path, &text);
+        assert!(sheet.contains("lengths in mm, angles in deg"), "{name}");
+        for word in [
+            "metres", "radians", " rad ", " rad)", " rad,", "rad or m", "e-20",
+        ] {
+            assert!(!sheet.contains(word), "{name}: the sheet says {word:?}");
+        }
+        let chars: Vec<char> = sheet.chars().collect();
+        for (i, w) in chars.windows(3).enumerate() {
+            // A digit, a space and `m` that ends a word: a length in metres.
+            let ends = chars.get(i + 3).map_or(true, |c| !c.is_alphanumeric());
+            assert!(
+                !(w[0].is_ascii_digit() && w[1] == ' ' && w[2] == 'm' && ends),
+                "{name}: metres at {:?}",
+                chars[i.saturating_sub(40)..(i + 10).min(chars.len())]
+                    .iter()
+                    .collect::<String>()
+            );
+            // A hyphen as the minus sign of a number (not in a word, not in an exponent).
+            let hyphen_minus = w[1] == '-'
+                && w[2].is_ascii_digit()
+                && !(w[0].is_alphanumeric() || w[0] == '.' || w[0] == '_');
+            assert!(
+                !hyphen_minus,
+                "{name}: a hyphen as minus sign at {:?}",
+                chars[i.saturating_sub(40)..(i + 10).min(chars.len())]
+                    .iter()
+                    .collect::<String>()
+            );
+        }
+        checked += 1;
+    }
+    assert_eq!(checked, 2);
+}

@@ -25,10 +25,10 @@ pub struct Shoulder {
     pub point: [f64; 3],
     /// The foot of that common normal on axis 1, base frame, metres.
     pub point_on_axis_1: [f64; 3],
-    /// The forearm offset: the distance of the wrist center from the plane through the
+    /// The sideways offset: the distance of the wrist center from the plane through the
     /// shoulder point perpendicular to axis 2 (joints 2 and 3 never change it). For the elbow
     /// this plane also passes through the elbow point (the shoulder point's foot on axis 3).
-    pub forearm_offset: f64,
+    pub sideways_offset: f64,
 }
 
 /// Evidence of an elbow arm (R R R, axis 2 ∥ axis 3).
@@ -193,7 +193,7 @@ fn wrap(angle: f64) -> f64 {
     }
 }
 
-/// Measures joints 1 and 2 (both revolute) and the forearm offset.
+/// Measures joints 1 and 2 (both revolute) and the sideways offset.
 fn shoulder(ctx: &Context, center: &Point3<f64>) -> Shoulder {
     let cp = closest_points(ctx.line(1), ctx.line(2), ctx.tol.angle);
     let h2 = ctx.line(2).direction.into_inner();
@@ -203,7 +203,7 @@ fn shoulder(ctx: &Context, center: &Point3<f64>) -> Shoulder {
         angle_1_2: ctx.angle(1, 2),
         point: arr(&cp.on_second.coords),
         point_on_axis_1: arr(&cp.on_first.coords),
-        forearm_offset: h2.dot(&(center - cp.on_second)).abs(),
+        sideways_offset: h2.dot(&(center - cp.on_second)).abs(),
     }
 }
 
@@ -256,7 +256,7 @@ fn elbow(ctx: &Context, center: &Point3<f64>) -> Measured {
     let stretched_at =
         signed_angle_about(&axis3.direction, &fore, &upper, ctx.tol.distance).unwrap_or(0.0);
     let rho = [(upper_arm - forearm).abs(), upper_arm + forearm];
-    let reach = reach_from_shoulder(rho, s.forearm_offset);
+    let reach = reach_from_shoulder(rho, s.sideways_offset);
     let singularities = vec![
         shoulder_singularity(ctx, &s, center),
         Singularity::Stretched {
@@ -303,7 +303,7 @@ fn polar(ctx: &Context, center: &Point3<f64>) -> Measured {
             joint_3_at: closest_at,
         },
     ];
-    let reach = reach_from_shoulder(rho, s.forearm_offset);
+    let reach = reach_from_shoulder(rho, s.sideways_offset);
     Measured {
         arm: ArmEvidence::Polar(PolarEvidence {
             shoulder: s,

@@ -15,7 +15,7 @@ use nalgebra::Matrix3;
 use super::schema::{Convention, Description, DhParameters, FrameEntry, JointEntry};
 use super::source::Source;
 use crate::model::{Model, ModelJoint};
-use crate::units::Units;
+use crate::units::{snap3, snap_pose, Units};
 
 /// Converts a description that passed every check.
 pub(crate) fn to_model(source: &Source, description: &Description, path: &str) -> Model {
@@ -49,7 +49,7 @@ pub(crate) fn to_model(source: &Source, description: &Description, path: &str) -
             location: source.location(entry.span.start),
         })
         .collect();
-    Model {
+    snapped(Model {
         name: description.name.clone(),
         description: description.description.clone(),
         units,
@@ -57,7 +57,22 @@ pub(crate) fn to_model(source: &Source, description: &Description, path: &str) -
         tool,
         base: frame_pose(description.base.as_ref(), units),
         source_path: path.to_string(),
+    })
+}
+
+/// The model with the rounding of the frame walk and the unit conversion taken out
+/// ([`crate::units::snap`]): axes and rotations at scale 1, points and translations at the
+/// arm's extent, so that `0.45 + 0.4` is `0.85` and `cos 90°` is `0` wherever the model is
+/// shown (emitted tables, `forward`, reports).
+fn snapped(mut model: Model) -> Model {
+    let extent = model.extent();
+    for j in &mut model.joints {
+        j.joint.axis = snap3(j.joint.axis, 1.0);
+        j.joint.point = snap3(j.joint.point, extent);
     }
+    model.tool = snap_pose(&model.tool, extent);
+    model.base = snap_pose(&model.base, extent);
+    model
 }
 
 /// The runtime joint for a joint entry, with axis and point still to be filled in.

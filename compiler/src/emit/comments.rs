@@ -6,6 +6,7 @@ use std::fmt::Write;
 
 use super::GENERATOR_VERSION;
 use crate::model::Model;
+use crate::plan::render::counted;
 use crate::plan::Plan;
 
 /// Text from a file made safe for a `//` comment: one line, every non-printing character
@@ -44,14 +45,18 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     );
     let _ = writeln!(
         h,
-        "// Cost of one solve: {} sqrt, {} atan2, {} divisions, no loops, no heap.",
-        counts.sqrt, counts.atan2, counts.div
+        "// Cost of one solve: {} sqrt, {} atan2, {}, no loops, no heap.",
+        counts.sqrt,
+        counts.atan2,
+        counted(counts.div, "division", "divisions")
     );
     let one = plan.branch_op_counts();
     let _ = writeln!(
         h,
-        "// Cost of one solve_branch: at most {} sqrt, {} atan2, {} divisions (that branch alone).",
-        one.sqrt, one.atan2, one.div
+        "// Cost of one solve_branch: at most {} sqrt, {} atan2, {} (that branch alone).",
+        one.sqrt,
+        one.atan2,
+        counted(one.div, "division", "divisions")
     );
     let _ = writeln!(h, "//");
     let _ = writeln!(

@@ -412,7 +412,7 @@ fn branch_api(plan: &Plan) -> TokenStream {
             let reference = ZERO_REFERENCE;
             let candidate = match branch {
                 #(#by_label)*
-                _ => return ::core::result::Result::Err(::armforge_runtime::Unreachable::BranchUnavailable),
+                _ => return ::core::result::Result::Err(::armforge_runtime::Unreachable::NoSuchBranch),
             };
             ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &CENTERS)
         }

@@ -7,6 +7,7 @@ use armforge_runtime::{Joint, JointKind, Pose};
 use super::vec3::num;
 use crate::classify::{Family, Geometry};
 use crate::model::Model;
+use crate::units::snap3;
 
 /// The planner's view of an arm.
 #[derive(Clone, Debug, PartialEq)]
@@ -25,21 +26,11 @@ pub struct Arm {
     pub scale: f64,
 }
 
-/// `x` (metres), or the 12-digit decimal within 1e-14 relative of it.
-fn tidy_coordinate(x: f64) -> f64 {
-    let short: f64 = format!("{x:.11e}").parse().unwrap_or(x);
-    if (short - x).abs() <= 1e-14 * x.abs().max(1e-3) {
-        short
-    } else {
-        x
-    }
-}
-
-fn canonical(joint: &Joint) -> Joint {
+fn canonical(joint: &Joint, extent: f64) -> Joint {
     let mut j = *joint;
-    j.axis = num::unit(&j.axis);
+    j.axis = snap3(num::unit(&j.axis), 1.0);
     j.point = match j.kind {
-        JointKind::Revolute => num::perpendicular(&j.point, &j.axis),
+        JointKind::Revolute => snap3(num::perpendicular(&j.point, &j.axis), extent),
         JointKind::Prismatic => [0.0; 3],
     };
     j
@@ -64,11 +55,11 @@ impl Arm {
             limits: [0.0, 0.0],
         }; 6];
         for (out, j) in joints.iter_mut().zip(model.joints.iter()) {
-            *out = canonical(&j.joint);
+            *out = canonical(&j.joint, model.extent());
         }
         // The classifier finds the wrist center by least squares: drop its last-digit noise
-        // (below 1e-14 relative) so the plan shows the description's numbers.
-        let c = center.map(tidy_coordinate);
+        // so the plan shows the description's numbers.
+        let c = snap3(center, model.extent());
         let mut scale = 0.0;
         let mut last = joints[0].point;
         for j in &joints[..3] {

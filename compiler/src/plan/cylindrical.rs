@@ -152,7 +152,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let one = g.constant(1.0);
     let inv = g.div(one, safe);
     let mut out = Vec::new();
-    for (facing, tag) in [(true, "p"), (false, "m")] {
+    for (facing, tag) in [(true, "a"), (false, "b")] {
         // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|².
         let kd = g.constant(1.0 / dd.sqrt());
         let r = g.mul(kd, root);

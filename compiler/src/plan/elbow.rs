@@ -1,5 +1,5 @@
 //! Joints 1–3 of an elbow arm (R R R, axis 2 ∥ axis 3, axis 1 ∦ axis 2), any shoulder and
-//! forearm offset and any angle between axes 1 and 2.
+//! sideways offset, any elbow step and any angle between axes 1 and 2.
 //!
 //! 1. Joint 1, rotate a point into a plane: joints 2 and 3 turn about lines parallel to `h2`, so
 //!    `h2 · (E1(−θ1) c_t − p2) = h2 · (c − p2)`, i.e. `a cos θ1 + b sin θ1 = e` (0–2 roots).
@@ -156,7 +156,7 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
             tidy(k.cos12)
         ),
     );
-    let roots = rotate_into_plane(g, [a, b, e], t.reference1, tol * tol, "j1");
+    let roots = rotate_into_plane(g, [a, b, e], t.reference1, tol * tol, " m", "j1");
     let check = CheckLayout {
         kind: CheckKind::InsideHole,
         have_squared: roots.radius_squared,
@@ -167,7 +167,7 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
     let mut angles = [0; 2];
     let mut shoulders = [Shoulder::Facing; 2];
     for (i, sigma) in [1.0, -1.0].into_iter().enumerate() {
-        let tag = if sigma > 0.0 { "p" } else { "m" };
+        let tag = if sigma > 0.0 { "a" } else { "b" };
         let (c1, s1) = roots.roots[i];
         let w = vec3::rotate_back(g, k.h1, c1, s1, u);
         let w = vec3::add_const(g, w, k.p1_minus_p2);
@@ -226,7 +226,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
 
     let mut out = Vec::new();
     for (i, sigma) in [1.0, -1.0].into_iter().enumerate() {
-        let tag = if sigma > 0.0 { "p" } else { "m" };
+        let tag = if sigma > 0.0 { "a" } else { "b" };
         let (c1, s1) = one_.roots[i];
         let w = one_.w[i];
         let d2 = one_.d2[i];
@@ -274,7 +274,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             -1.0
         };
         for bend in [1.0, -1.0] {
-            let btag = if bend > 0.0 { "p" } else { "m" };
+            let btag = if bend > 0.0 { "a" } else { "b" };
             let tag2 = format!("{tag}{btag}");
             let sp = if bend > 0.0 { sin_psi } else { g.neg(sin_psi) };
             let (cf, sf) = (k.stretched.cos(), k.stretched.sin());
@@ -304,7 +304,11 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             let theta3 = g.name(
                 theta3,
                 &format!("q3_{tag2}"),
-                format!("θ3 = {} atan2(sin φ3, cos φ3)", k.sense),
+                if k.sense > 0.0 {
+                    "θ3 = atan2(sin φ3, cos φ3)"
+                } else {
+                    "θ3 = -atan2(sin φ3, cos φ3)"
+                },
             );
             // x⊥ = L + R(h2, φ3) V.
             let x = {

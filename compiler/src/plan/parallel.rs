@@ -168,7 +168,7 @@ fn hand(
             tidy(c56 * num::dot(&h5, &k.h))
         ),
     );
-    let roots = rotate_into_plane(g, [a, b, e], reference, 1e-20, &format!("j5_{tag}"));
+    let roots = rotate_into_plane(g, [a, b, e], reference, 1e-20, "", &format!("j5_{tag}"));
     let check = (!k.wrist_reaches_all(arm)).then(|| {
         let ee = g.mul(e, e);
         let gap = g.sub(roots.radius_squared, ee);
@@ -199,7 +199,7 @@ fn hand(
     let w_perp = vec3::sub(g, w, scaled);
     let mut out = Vec::with_capacity(2);
     for (i, sigma) in [1.0, -1.0].into_iter().enumerate() {
-        let stag = if sigma > 0.0 { "p" } else { "m" };
+        let stag = if sigma > 0.0 { "a" } else { "b" };
         let name = format!("{tag}{stag}");
         let (c5, s5) = roots.roots[i];
         let theta5 = g.atan2(s5, c5);
@@ -285,7 +285,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     );
     let one = elbow::joint_one(g, &with_center(arm, k.meeting), t, target_q);
     let mut out = Vec::new();
-    for (i1, sigma1) in ["p", "m"].into_iter().enumerate() {
+    for (i1, sigma1) in ["a", "b"].into_iter().enumerate() {
         let (c1, s1) = one.roots[i1];
         let side = if one.shoulders[i1] == Shoulder::Across {
             -1.0
@@ -307,7 +307,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
         for hd in &hands {
             let tag = format!(
                 "{sigma1}{}",
-                if hd.wrist == Wrist::Leading { "p" } else { "m" }
+                if hd.wrist == Wrist::Leading { "a" } else { "b" }
             );
             let [(c5, s5), (c6, s6)] = hd.turns;
             // Φ: R(h, Φ) x = R1ᵀ R R6ᵀ R5ᵀ x.
@@ -350,7 +350,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
             );
             let two = planar::solve(g, &k.two_link, placed, d2, tol, &tag);
             for bend in &two.bends {
-                let btag = format!("{tag}{}", if bend.bend > 0.0 { "p" } else { "m" });
+                let btag = format!("{tag}{}", if bend.bend > 0.0 { "a" } else { "b" });
                 // θ4 = s4 (Φ − θ2 − φ3), φ3 = s3 θ3.
                 let phi3 = if k.two_link.sense > 0.0 {
                     bend.second

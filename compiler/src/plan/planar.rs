@@ -121,7 +121,7 @@ pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> 
     let sf = g.constant(sf);
     let mut bends = Vec::with_capacity(2);
     for bend in [1.0, -1.0] {
-        let btag = if bend > 0.0 { "p" } else { "m" };
+        let btag = if bend > 0.0 { "a" } else { "b" };
         let tag2 = format!("{tag}{btag}");
         let sp = if bend > 0.0 { sin_psi } else { g.neg(sin_psi) };
         let cos_phi = {
@@ -148,7 +148,11 @@ pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> 
         let second = g.name(
             second,
             &format!("q3_{tag2}"),
-            format!("θ3 = {} atan2(sin φ3, cos φ3)", k.sense),
+            if k.sense > 0.0 {
+                "θ3 = atan2(sin φ3, cos φ3)"
+            } else {
+                "θ3 = -atan2(sin φ3, cos φ3)"
+            },
         );
         // x⊥ = L + R(h, φ3) V.
         let x = {

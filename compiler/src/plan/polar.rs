@@ -59,7 +59,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let nearest = g.constant(nearest2.sqrt());
     let mut out = Vec::new();
     for i in 0..2 {
-        let tag = if i == 0 { "p" } else { "m" };
+        let tag = if i == 0 { "a" } else { "b" };
         let d2 = one.d2[i];
         let off = g.constant(nearest2);
         let disc = g.sub(d2, off);
@@ -73,7 +73,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         let n = g.max(d2, floor);
         let one_c = g.constant(1.0);
         let inv_n = g.div(one_c, n);
-        for (extended, rtag) in [(true, "p"), (false, "m")] {
+        for (extended, rtag) in [(true, "a"), (false, "b")] {
             let tag2 = format!("{tag}{rtag}");
             let minus_m = g.constant(-k.m);
             let s = if extended {

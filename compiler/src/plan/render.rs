@@ -8,6 +8,15 @@ use armforge_runtime::plan::Op;
 use super::graph::{Graph, Id};
 use super::Plan;
 
+/// `n` and the noun, singular for one: `1 division`, `3 divisions` (`many` is the plural).
+pub fn counted(n: usize, one: &str, many: &str) -> String {
+    if n == 1 {
+        format!("1 {one}")
+    } else {
+        format!("{n} {many}")
+    }
+}
+
 /// How a node is referred to: its name, `tN` for an unnamed node, or a constant's literal.
 pub fn reference(g: &Graph, id: Id) -> String {
     let node = &g.nodes()[id as usize];

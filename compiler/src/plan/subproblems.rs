@@ -29,6 +29,7 @@ pub fn rotate_into_plane(
     [a, b, e]: [Id; 3],
     reference: (Id, Id),
     threshold_squared: f64,
+    unit: &str,
     label: &str,
 ) -> PlaneRoots {
     let aa = g.mul(a, a);
@@ -48,7 +49,10 @@ pub fn rotate_into_plane(
     let singular = g.name(
         singular,
         &format!("{label}_free"),
-        format!("≥ 0 when r² < {threshold_squared:e}: θ is free, the reference is used"),
+        format!(
+            "≥ 0 when r < {:.2e}{unit}: θ is free, the reference is used",
+            threshold_squared.sqrt()
+        ),
     );
     let ae = g.mul(a, e);
     let be = g.mul(b, e);
@@ -70,7 +74,7 @@ pub fn rotate_into_plane(
         };
         let c = g.select(singular, rc, c);
         let s = g.select(singular, rs, s);
-        let tag = if sigma > 0.0 { "p" } else { "m" };
+        let tag = if sigma > 0.0 { "a" } else { "b" };
         let sign = if sigma > 0.0 { "−" } else { "+" };
         let c = g.name(
             c,

@@ -290,16 +290,16 @@ fn mirror(g: &mut Graph, w: &WristAxes, first: &WristSolution, tag: &str) -> Wri
     };
     let pi = g.constant(std::f64::consts::PI);
     let t4 = g.add(theta4, pi);
-    let t4 = g.name(t4, &format!("q4_{tag}m"), "θ4 + π (mirror wrist branch)");
+    let t4 = g.name(t4, &format!("q4_{tag}b"), "θ4 + π (mirror wrist branch)");
     let k = g.constant(2.0 * theta_a);
     let t5 = g.sub(k, theta5);
     let t5 = g.name(
         t5,
-        &format!("q5_{tag}m"),
+        &format!("q5_{tag}b"),
         format!("2 θa − θ5, θa = {} rad (aligned position)", tidy(theta_a)),
     );
     let t6 = g.add(theta6, pi);
-    let t6 = g.name(t6, &format!("q6_{tag}m"), "θ6 + π (mirror wrist branch)");
+    let t6 = g.name(t6, &format!("q6_{tag}b"), "θ6 + π (mirror wrist branch)");
     WristSolution {
         angles: [t4, t5, t6],
         wrist: Wrist::Trailing,
@@ -334,7 +334,7 @@ pub fn solve(
     let mut out = Vec::new();
     for &sign in branches {
         let first_branch = sign > 0.0;
-        let name = format!("{tag}{}", if first_branch { "p" } else { "m" });
+        let name = format!("{tag}{}", if first_branch { "a" } else { "b" });
         let gm = if first_branch {
             cone.gamma
         } else {

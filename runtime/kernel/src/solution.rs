@@ -275,6 +275,9 @@ pub enum Unreachable<S: Scalar = f64> {
     },
     /// The target is reachable, but not in the requested branch.
     BranchUnavailable,
+    /// The requested branch is none of this arm's (an elbow word for a polar arm, say): no
+    /// target ever has a solution in it.
+    NoSuchBranch,
 }
 
 impl<S: Scalar> fmt::Display for Unreachable<S> {
@@ -309,6 +312,9 @@ impl<S: Scalar> fmt::Display for Unreachable<S> {
             ),
             Unreachable::BranchUnavailable => {
                 write!(f, "the target is reachable, but not in the requested branch")
+            }
+            Unreachable::NoSuchBranch => {
+                write!(f, "this arm has no such branch")
             }
         }
     }

@@ -47,7 +47,7 @@ pub fn run(args: Args) -> Outcome {
     }
     let shown = files::shown(&args.arm);
     let generated = generate_module(&args.arm, &shown, &Tolerances::default())
-        .map_err(|e| files::report(&e))?;
+        .map_err(|e| files::report_at(&e, &args.arm))?;
     let sheet = args.sheet.as_ref().map(|path| {
         let text = review_sheet(&generated.model, &generated.geometry, &generated.plan);
         (path, text)

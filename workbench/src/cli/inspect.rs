@@ -19,20 +19,20 @@ pub struct Args {
     /// Largest miss between axes still counted as meeting, as a fraction of the arm's size.
     #[arg(long, value_name = "FRACTION", default_value_t = Tolerances::default().distance)]
     pub meet_tolerance: f64,
-    /// Largest angle between axes still counted as parallel (or as perpendicular), radians.
-    #[arg(long, value_name = "RADIANS", default_value_t = Tolerances::default().angle)]
-    pub parallel_tolerance: f64,
+    /// Largest angle between axes still counted as parallel (or as perpendicular), in the
+    /// file's angle unit (default 1e-6 rad, which is 0.0000573 deg).
+    #[arg(long, value_name = "ANGLE", allow_hyphen_values = true)]
+    pub parallel_tolerance: Option<f64>,
 }
 
 /// Runs `armforge inspect`.
 pub fn run(args: Args) -> Outcome {
-    let tolerances = Tolerances {
-        distance: args.meet_tolerance,
-        angle: args.parallel_tolerance,
-    };
     for (name, value) in [
-        ("--meet-tolerance", tolerances.distance),
-        ("--parallel-tolerance", tolerances.angle),
+        ("--meet-tolerance", args.meet_tolerance),
+        (
+            "--parallel-tolerance",
+            args.parallel_tolerance.unwrap_or(0.0),
+        ),
     ] {
         if !(value.is_finite() && value >= 0.0) {
             return Err(fail(
@@ -43,6 +43,12 @@ pub fn run(args: Args) -> Outcome {
     }
     let loaded = files::load(&args.arm)?;
     let model = &loaded.model;
+    let tolerances = Tolerances {
+        distance: args.meet_tolerance,
+        angle: args
+            .parallel_tolerance
+            .map_or(Tolerances::default().angle, |a| model.units.angle_to_si(a)),
+    };
     let result = classify::classify(model, &tolerances);
     let report = report::build(model, &tolerances, &result).with_source(&loaded.text);
     if args.json {

@@ -13,8 +13,8 @@
 //!
 //! Joint values are in the file's units. Statuses other than `ok`: `invalid_pose`,
 //! `beyond_reach`, `inside_hole`, `wrist_orientation`, `outside_limits` (with the 1-based
-//! `joint`), `branch_unavailable`; each with a sentence in `reason` and, where there is one, the
-//! amount `by` in the file's `unit`. A malformed line gets `{"error": "...", "line": N}` and
+//! `joint`), `branch_unavailable`, `no_such_branch` (a branch this arm never has); each with
+//! a sentence in `reason` and, where there is one, the amount `by` in the file's `unit`. A malformed line gets `{"error": "...", "line": N}` and
 //! the rest goes on; blank lines are skipped. `--near` gives the one solution nearest to given
 //! joint values, `--branch` the one of a branch.
 
@@ -182,7 +182,10 @@ impl std::fmt::Display for Line {
 
 fn solution_json(model: &Model, s: &Solution) -> Line {
     Line::new()
-        .with("joints", json!(model.joint_values_from_si(&s.joints)))
+        .with(
+            "joints",
+            json!(model.tidy_joint_values(&model.joint_values_from_si(&s.joints))),
+        )
         .with_object("branch", &branch_json(&s.branch))
         .with(
             "wrist_aligned",

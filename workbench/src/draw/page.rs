@@ -114,8 +114,10 @@ fn title(drawing: &Drawing, layout: &PageLayout) -> Group {
     let name = TSpan::new(model.name.as_str())
         .set("font-weight", "bold")
         .set("font-size", num(style::TITLE));
-    let subject =
-        TSpan::new(format!("  — {}", drawing.subject)).set("font-size", num(style::NORMAL + 1.0));
+    // The gap is a shift (`dx`), not spaces: SVG collapses leading spaces in some viewers.
+    let subject = TSpan::new(format!("— {}", drawing.subject))
+        .set("dx", num(style::NORMAL))
+        .set("font-size", num(style::NORMAL + 1.0));
     let heading = Text::new("")
         .set("x", num(MARGIN))
         .set("y", "28.00")

@@ -26,12 +26,8 @@ impl Skeleton {
     /// file says the later joint sits). A common normal whose feet lie far outside the arm
     /// (nearly parallel axes) is treated the same way.
     pub fn of(model: &Model) -> Skeleton {
-        let lines: Vec<Line> = model
-            .joints
-            .iter()
-            .map(|j| Line::new(j.joint.point, j.joint.axis))
-            .collect();
         let far = 4.0 * arm_size_at_zero(model).max(1e-3);
+        let lines = joint_lines(model, far * 1e-9);
         let mut entry = Vec::with_capacity(lines.len());
         let mut exit = Vec::with_capacity(lines.len());
         for (i, line) in lines.iter().enumerate() {
@@ -54,6 +50,44 @@ impl Skeleton {
         }
         Skeleton { entry, exit }
     }
+}
+
+/// Each joint's line at zero. A slide's direction has no place of its own (an `axes` file may
+/// leave its point out, at the base origin): a slide that follows a turning joint and whose
+/// line misses that joint's axis is drawn where it carries the rest of the arm, on the line
+/// along the slide through the next turning joint's point (or the tool origin), moved onto the
+/// previous axis when that line misses it too. So a polar arm's boom comes out of its tilt
+/// axis and runs to the wrist, where forward kinematics puts them.
+fn joint_lines(model: &Model, meet: f64) -> Vec<Line> {
+    let mut lines: Vec<Line> = model
+        .joints
+        .iter()
+        .map(|j| Line::new(j.joint.point, j.joint.axis))
+        .collect();
+    for i in 1..lines.len() {
+        let (previous, joint) = (&model.joints[i - 1].joint, &model.joints[i].joint);
+        if joint.kind != JointKind::Prismatic || previous.kind != JointKind::Revolute {
+            continue;
+        }
+        let misses = |line: &Line| {
+            common_normal_feet(&lines[i - 1], line).map(|(a, b)| norm(&sub(&a, &b)) > meet)
+        };
+        if misses(&lines[i]) != Some(true) {
+            continue;
+        }
+        let anchor = model.joints[i + 1..]
+            .iter()
+            .find(|j| j.joint.kind == JointKind::Revolute)
+            .map_or(model.tool.translation, |j| j.joint.point);
+        let through_anchor = Line::new(anchor, joint.axis);
+        lines[i] = match common_normal_feet(&lines[i - 1], &through_anchor) {
+            Some((on_previous, _)) if misses(&through_anchor) == Some(true) => {
+                Line::new(on_previous, joint.axis)
+            }
+            _ => through_anchor,
+        };
+    }
+    lines
 }
 
 /// The largest distance from the base origin of any joint point or the tool origin at zero.

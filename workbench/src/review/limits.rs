@@ -101,12 +101,12 @@ pub fn tolerances(out: &mut String, report: &Report, plan: &Plan, s: &Show) {
             format!("−{:e}", st.angle_tolerance),
         ),
         (
-            "joint values this far beyond a limit still count as within it (rad or m)",
-            format!("{:e}", st.limit_tolerance),
+            "joint values this far beyond a limit still count as within it",
+            s.per_kind(st.limit_tolerance),
         ),
         (
-            "two solutions closer than this in every joint are one (rad or m)",
-            format!("{:e}", st.duplicate_tolerance),
+            "two solutions closer than this in every joint are one",
+            s.per_kind(st.duplicate_tolerance),
         ),
     ];
     for (what, value) in rows {
@@ -118,23 +118,24 @@ pub fn tolerances(out: &mut String, report: &Report, plan: &Plan, s: &Show) {
         (
             "position error of every solution (fraction of the arm's size) and rotation error \
              (Frobenius norm), away from singular configurations",
-            t.pose,
+            format!("{:e}", t.pose),
         ),
         (
             "the same near singular configurations and reach boundaries",
-            t.pose_near_singular,
+            format!("{:e}", t.pose_near_singular),
         ),
         (
-            "recovered: the original configuration within (rad, or fraction of the arm's size)",
-            t.joint,
+            "recovered: the original configuration within (a slide: that fraction of the \
+             arm's size)",
+            s.turning_or_fraction(t.joint),
         ),
         (
             "recovered at a reach boundary (the two roots merge there)",
-            t.joint_at_boundary,
+            s.turning_or_fraction(t.joint_at_boundary),
         ),
     ];
     for (what, value) in verify_rows {
-        let _ = writeln!(out, "| {what} | {value:e} |");
+        let _ = writeln!(out, "| {what} | {value} |");
     }
     let _ = writeln!(out);
 }

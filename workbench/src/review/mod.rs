@@ -54,7 +54,7 @@ pub fn review_sheet(model: &Model, geometry: &Geometry, plan: &Plan) -> String {
     singular::write(&mut out, model, geometry, plan, &texts, &facts, &s);
     limits::reach(&mut out, &report, geometry, &facts, &s);
     limits::tolerances(&mut out, &report, plan, &s);
-    listing::write(&mut out, plan);
+    listing::write(&mut out, plan, &s);
     out
 }
 

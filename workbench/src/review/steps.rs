@@ -38,7 +38,7 @@ pub fn write(out: &mut String, plan: &Plan, facts: &Facts, s: &Show) {
         Family::Cartesian => cartesian(out, facts, s),
     }
     wrist(out, plan.arm.family, facts, s);
-    finishing(out, plan);
+    finishing(out, plan, s);
 }
 
 fn method(out: &mut String, family: Family) {
@@ -412,17 +412,18 @@ fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
     block(out, &lines);
 }
 
-fn finishing(out: &mut String, plan: &Plan) {
+fn finishing(out: &mut String, plan: &Plan, s: &Show) {
     let _ = writeln!(out, "### Last step: joint values, limits, duplicates\n");
     let _ = writeln!(
         out,
         "Each candidate's model values become joint values `q_i = (θ_i − offset_i) · \
          direction_i` (§1). A revolute value is wrapped into the joint's range; where the \
          range is wider than one turn every equivalent value inside it is listed. Candidates \
-         with a joint beyond its limits by more than {:e} (radians or metres) are dropped; two \
-         solutions closer than {:e} in every joint are returned once. With nothing left the solver says why: \
+         with a joint beyond its limits by more than {} are dropped; two solutions closer \
+         than {} in every joint are returned once. With nothing left the solver says why: \
          beyond reach, inside the unreachable region near the shoulder, wrist orientation out \
          of reach, or outside the limits (joint and amount).\n",
-        plan.settings.limit_tolerance, plan.settings.duplicate_tolerance
+        s.per_kind(plan.settings.limit_tolerance),
+        s.per_kind(plan.settings.duplicate_tolerance)
     );
 }

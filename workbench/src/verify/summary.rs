@@ -81,7 +81,8 @@ pub struct Summary {
     pub seed: u64,
     /// Uniform samples asked for.
     pub samples: u64,
-    /// The arm's size, metres (position errors are fractions of it).
+    /// The arm's size, metres (position errors are fractions of it); `arm_size_m` in JSON.
+    #[serde(rename = "arm_size_m")]
     pub arm_size: f64,
     /// The thresholds.
     pub thresholds: Thresholds,
@@ -368,8 +369,14 @@ fn none_reason(k: &KindSummary) -> &'static str {
 fn table(rows: &[Vec<String>]) -> String {
     let columns = rows.iter().map(Vec::len).max().unwrap_or(0);
     let mut widths = vec![0; columns];
-    for row in rows.iter().filter(|r| r.len() == columns) {
-        for (w, cell) in widths.iter_mut().zip(row) {
+    for row in rows {
+        // A short row's last cell runs on across the remaining columns: it sets no width.
+        let fixed = if row.len() < columns {
+            row.len().saturating_sub(1)
+        } else {
+            row.len()
+        };
+        for (w, cell) in widths.iter_mut().zip(&row[..fixed]) {
             *w = (*w).max(cell.chars().count());
         }
     }
@@ -387,4 +394,27 @@ fn table(rows: &[Vec<String>]) -> String {
         out.push('\n');
     }
     out
+}
+
+#[cfg(test)]
+mod table_tests {
+    use super::table;
+
+    #[test]
+    fn a_row_that_says_none_keeps_the_columns_aligned() {
+        let row = |cells: &[&str]| cells.iter().map(|c| c.to_string()).collect::<Vec<_>>();
+        let text = table(&[
+            row(&["samples", "tried", "recovered"]),
+            row(&["within limits", "200", "200"]),
+            row(&["wrist center near axis 1", "0", "none: it cannot get there"]),
+        ]);
+        let lines: Vec<&str> = text.lines().collect();
+        let column_of = |line: &str, cell: &str| line.find(cell).expect("cell");
+        assert_eq!(column_of(lines[0], "tried"), column_of(lines[1], "200"));
+        assert_eq!(column_of(lines[0], "tried"), column_of(lines[2], "0"));
+        assert_eq!(
+            column_of(lines[0], "recovered"),
+            column_of(lines[2], "none")
+        );
+    }
 }

@@ -225,7 +225,7 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
         ArmEvidence::Elbow(e) => {
             put("shoulder.offset", e.shoulder.offset);
             put("shoulder.angle", e.shoulder.angle_1_2);
-            put("forearm_offset", e.shoulder.forearm_offset);
+            put("sideways_offset", e.shoulder.sideways_offset);
             put("upper_arm", e.upper_arm);
             put("forearm", e.forearm);
             put("stretched", joint_value(model, 2, e.stretched_at));
@@ -234,7 +234,7 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
         ArmEvidence::Polar(e) => {
             put("shoulder.offset", e.shoulder.offset);
             put("shoulder.angle", e.shoulder.angle_1_2);
-            put("forearm_offset", e.shoulder.forearm_offset);
+            put("sideways_offset", e.shoulder.sideways_offset);
             put("slide_angle", e.slide_angle_to_axis_2);
             put("closest", e.closest_to_axis_2);
             put("closest_at", joint_value(model, 2, e.closest_at));

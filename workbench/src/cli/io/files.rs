@@ -47,7 +47,19 @@ pub fn load(path: &Path) -> Result<Loaded, Stopped> {
 /// Loads and classifies the arm at `path` with the default tolerances; on failure says why and
 /// gives the exit code.
 pub fn load_classified(path: &Path) -> Result<(Model, Geometry), Stopped> {
-    load_and_classify(path, &shown(path), &Tolerances::default()).map_err(|e| report(&e))
+    load_and_classify(path, &shown(path), &Tolerances::default()).map_err(|e| report_at(&e, path))
+}
+
+/// [`report`] for the description at `path`: a rejection also shows the offending line of the
+/// file with a caret, as `inspect` does.
+pub fn report_at(e: &PipelineError, path: &Path) -> Stopped {
+    if let PipelineError::Rejected(r) = e {
+        if let Ok(text) = read_description(path, &shown(path)) {
+            say(&armforge_workbench::report::rejection_text(r, &text));
+            return exit::of_pipeline(e);
+        }
+    }
+    report(e)
 }
 
 /// Says what is wrong and gives the exit code of a pipeline error.

@@ -79,6 +79,12 @@ pub fn reason(model: &Model, why: &Unreachable) -> Reason {
             None,
             None,
         ),
+        Unreachable::NoSuchBranch => (
+            "no_such_branch",
+            "this arm has no such branch".into(),
+            None,
+            None,
+        ),
     };
     Reason {
         status,
