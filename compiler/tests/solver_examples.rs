@@ -125,7 +125,8 @@ fn example_arm_plans_and_modules() {
 }
 
 /// The float literals of the emitted module's arm tables (`JOINT_TABLE`, `BASE`, `TOOL`,
-/// `LABELS`): the text from each `const NAME` to the next blank line.
+/// `LABELS`): the text from each `const NAME` to the end of its item (a line starting `]` or
+/// `}`).
 fn table_literals(module: &str) -> Vec<(String, f64)> {
     let mut found = Vec::new();
     for name in ["JOINT_TABLE", "BASE", "TOOL", "LABELS"] {
@@ -133,7 +134,12 @@ fn table_literals(module: &str) -> Vec<(String, f64)> {
             panic!("no {name} in the emitted module");
         };
         let body = &module[start..];
-        let body = &body[..body.find("\n\n").unwrap_or(body.len())];
+        let end = ["\n]", "\n}"]
+            .iter()
+            .filter_map(|e| body.find(e))
+            .min()
+            .unwrap_or(body.len());
+        let body = &body[..end];
         for word in body.split(|c: char| !(c.is_ascii_alphanumeric() || c == '.' || c == '-')) {
             let word = word.trim_start_matches('-');
             if word.starts_with(|c: char| c.is_ascii_digit()) && word.contains('.') {

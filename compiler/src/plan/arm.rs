@@ -26,11 +26,11 @@ pub struct Arm {
     pub scale: f64,
 }
 
-fn canonical(joint: &Joint, extent: f64) -> Joint {
+fn canonical(joint: &Joint) -> Joint {
     let mut j = *joint;
-    j.axis = snap3(num::unit(&j.axis), 1.0);
+    j.axis = num::unit(&j.axis);
     j.point = match j.kind {
-        JointKind::Revolute => snap3(num::perpendicular(&j.point, &j.axis), extent),
+        JointKind::Revolute => num::perpendicular(&j.point, &j.axis),
         JointKind::Prismatic => [0.0; 3],
     };
     j
@@ -55,7 +55,7 @@ impl Arm {
             limits: [0.0, 0.0],
         }; 6];
         for (out, j) in joints.iter_mut().zip(model.joints.iter()) {
-            *out = canonical(&j.joint, model.extent());
+            *out = canonical(&j.joint);
         }
         // The classifier finds the wrist center by least squares: drop its last-digit noise
         // so the plan shows the description's numbers.

@@ -26,7 +26,9 @@ pub mod subproblems;
 pub mod vec3;
 pub mod wrist;
 
-use armforge_runtime::internal::{equivalent_count, BranchRule, Settings};
+use armforge_runtime::internal::{
+    equivalent_count, BranchRule, ElbowRule, Settings, ShoulderRule, WristRule,
+};
 use armforge_runtime::plan::{CandidateLayout, CheckLayout, Op};
 use armforge_runtime::{Branch, Elbow, Shoulder};
 
@@ -252,6 +254,62 @@ pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLay
     (candidates, rule)
 }
 
+/// The label rules with rounding noise taken out ([`crate::units::snap`]): directions at
+/// scale 1, points and lengths at the arm's scale, so that `LABELS` shows `0.55`, not
+/// `0.5499999999999999`, and `0`, not `6e-17`. The interpreter and the emitted module read the
+/// same snapped rule.
+fn snapped_rule(rule: BranchRule, scale: f64) -> BranchRule {
+    use crate::units::{snap, snap3};
+    let shoulder = match rule.shoulder {
+        ShoulderRule::Plane {
+            normal,
+            point,
+            wrist_center,
+            facing,
+        } => ShoulderRule::Plane {
+            normal: snap3(normal, 1.0),
+            point: snap3(point, scale),
+            wrist_center: snap3(wrist_center, scale),
+            facing,
+        },
+        ShoulderRule::Radial {
+            direction,
+            point,
+            wrist_center,
+        } => ShoulderRule::Radial {
+            direction: snap3(direction, 1.0),
+            point: snap3(point, scale),
+            wrist_center: snap3(wrist_center, scale),
+        },
+        ShoulderRule::Only => ShoulderRule::Only,
+    };
+    let elbow = match rule.elbow {
+        ElbowRule::Bend {
+            sense,
+            stretched,
+            up,
+        } => ElbowRule::Bend {
+            sense,
+            stretched: snap(stretched, core::f64::consts::TAU),
+            up,
+        },
+        ElbowRule::Slide { nearest } => ElbowRule::Slide {
+            nearest: snap(nearest, scale),
+        },
+        ElbowRule::Only => ElbowRule::Only,
+    };
+    BranchRule {
+        shoulder,
+        elbow,
+        wrist: WristRule {
+            normal: snap3(rule.wrist.normal, 1.0),
+            axis5: snap3(rule.wrist.axis5, 1.0),
+            axis6: snap3(rule.wrist.axis6, 1.0),
+        },
+        mirrored: rule.mirrored,
+    }
+}
+
 /// The plan from a family's candidates: compacts the graph, sets the tolerances, the capacity
 /// and the reference values of the two joints that `solve` holds when they are free
 /// (`free`, 0-based; their cosines and sines are the plan's reference inputs).
@@ -263,6 +321,7 @@ pub fn assemble(
     wrist_twist_cosines: [f64; 2],
     free: [usize; 2],
 ) -> Plan {
+    let rule = snapped_rule(rule, arm.scale);
     let (graph, candidates) = compact(g, candidates);
     let settings = Settings {
         length_tolerance: 1e-10 * arm.scale,

@@ -4,7 +4,7 @@
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: cartesian with a spherical wrist; 2 candidate branches, at most 2 solutions.
 // Cost of one solve: 3 sqrt, 6 atan2, 2 divisions, no loops, no heap.
-// Cost of one solve_branch: at most 2 sqrt, 3 atan2, 1 divisions (that branch alone).
+// Cost of one solve_branch: at most 2 sqrt, 3 atan2, 1 division (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -126,7 +126,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     wrist: ::armforge_runtime::internal::WristRule {
         normal: [-0.4064173476466405, 0.6753632545094499, -0.16011413921560977],
         axis5: [0.8179571762026022, 0.39252029079901796, -0.4205637635480731],
-        axis6: [-0.5318678882191131, 0.8467148722277766, -0.013801254640110039],
+        axis6: [-0.5318678882191131, 0.8467148722277766, -0.0138012546401],
     },
     mirrored: false,
 };
@@ -409,7 +409,7 @@ pub fn solve_branch(
         } => branch_2(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -548,25 +548,25 @@ fn candidates(
     let t221 = 0.10612573100116213 * t171 + t211;
     let t222 = 1.486788788194815 * t171 - t213;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t220 - t216;
+    let z_b1a_x = t220 - t216;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t217 + t221;
+    let z_b1a_y = t217 + t221;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t222 - t219;
+    let z_b1a_z = t222 - t219;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.0094762566073372
-        * (0.8847454097593066 * z_b1p_y - 0.4526175874883282 * z_b1p_x
-            - 0.05454887041675793 * z_b1p_z);
+    let j5_cos_b1a = 1.0094762566073372
+        * (0.8847454097593066 * z_b1a_y - 0.4526175874883282 * z_b1a_x
+            - 0.05454887041675793 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.0094762566073372
+    let j5_sin_b1a = 1.0094762566073372
         * (0.4205637635480731
-            * (0.5318678882191131 * z_b1p_y + 0.8467148722277766 * z_b1p_x)
+            * (0.5318678882191131 * z_b1a_y + 0.8467148722277766 * z_b1a_x)
             + (0.8179571762026022
-                * (0.8467148722277766 * z_b1p_z + 0.013801254640110039 * z_b1p_y)
+                * (0.8467148722277766 * z_b1a_z + 0.013801254640110039 * z_b1a_y)
                 + 0.39252029079901796
-                    * (0.5318678882191131 * z_b1p_z - 0.013801254640110039 * z_b1p_x)));
+                    * (0.5318678882191131 * z_b1a_z - 0.013801254640110039 * z_b1a_x)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t255 = j5_alpha_b1 - j5_a_b1;
     let t259 = t210 - 0.2648443649420179 * t255;
     let t260 = t211 + 0.06865561389509453 * t255;
@@ -583,11 +583,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t286;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t302 = 0.9618439941275024 * gx_z
         + (0.06865561389509453 * gx_y - 0.2648443649420179 * gx_x);
     let t303 = 0.2648443649420179 * t302;
@@ -599,56 +599,56 @@ fn candidates(
     let t311 = 0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y;
     let t314 = 0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z;
     let t317 = 0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x;
-    let t327 = j4_cos_b1p * t306 - j4_sin_b1p * t311 - t303;
-    let t328 = t304 + (j4_cos_b1p * t307 - j4_sin_b1p * t314);
-    let t329 = t305 + (j4_cos_b1p * t308 + j4_sin_b1p * t317);
+    let t327 = j4_cos_b1a * t306 - j4_sin_b1a * t311 - t303;
+    let t328 = t304 + (j4_cos_b1a * t307 - j4_sin_b1a * t314);
+    let t329 = t305 + (j4_cos_b1a * t308 + j4_sin_b1a * t317);
     let t334 = 0.8179571762026022 * t327 + 0.39252029079901796 * t328
         - 0.4205637635480731 * t329;
     let t335 = 0.8179571762026022 * t334;
     let t336 = 0.39252029079901796 * t334;
     let t337 = 0.4205637635480731 * t334;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t335
-        + (j5_cos_b1p * (t327 - t335)
-            - j5_sin_b1p * (0.39252029079901796 * t329 + 0.4205637635480731 * t328));
+    let y6_b1a_x = t335
+        + (j5_cos_b1a * (t327 - t335)
+            - j5_sin_b1a * (0.39252029079901796 * t329 + 0.4205637635480731 * t328));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t336
-        + (j5_cos_b1p * (t328 - t336)
-            + j5_sin_b1p * (0.4205637635480731 * t327 + 0.8179571762026022 * t329));
+    let y6_b1a_y = t336
+        + (j5_cos_b1a * (t328 - t336)
+            + j5_sin_b1a * (0.4205637635480731 * t327 + 0.8179571762026022 * t329));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = j5_cos_b1p * (t329 + t337)
-        - j5_sin_b1p * (0.8179571762026022 * t328 - 0.39252029079901796 * t327) - t337;
+    let y6_b1a_z = j5_cos_b1a * (t329 + t337)
+        - j5_sin_b1a * (0.8179571762026022 * t328 - 0.39252029079901796 * t327) - t337;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.013801254640110039
-            * (0.007341143344285177 * y6_b1p_y + 0.011686840635510367 * y6_b1p_x)
+            * (0.007341143344285177 * y6_b1a_y + 0.011686840635510367 * y6_b1a_x)
             + (0.8467148722277766
-                * (0.9999047581496744 * y6_b1p_x + 0.007341143344285177 * y6_b1p_z)
+                * (0.9999047581496744 * y6_b1a_x + 0.007341143344285177 * y6_b1a_z)
                 - 0.5318678882191131
-                    * (0.011686840635510367 * y6_b1p_z - 0.9999047581496744 * y6_b1p_y)),
-        0.9999047581496744 * y6_b1p_z
-            + (0.011686840635510367 * y6_b1p_y - 0.007341143344285177 * y6_b1p_x),
+                    * (0.011686840635510367 * y6_b1a_z - 0.9999047581496744 * y6_b1a_y)),
+        0.9999047581496744 * y6_b1a_z
+            + (0.011686840635510367 * y6_b1a_y - 0.007341143344285177 * y6_b1a_x),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t216 + t220;
+    let z_b1b_x = t216 + t220;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t221 - t217;
+    let z_b1b_y = t221 - t217;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t219 + t222;
+    let z_b1b_z = t219 + t222;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.0094762566073372
-        * (0.8847454097593066 * z_b1m_y - 0.4526175874883282 * z_b1m_x
-            - 0.05454887041675793 * z_b1m_z);
+    let j5_cos_b1b = 1.0094762566073372
+        * (0.8847454097593066 * z_b1b_y - 0.4526175874883282 * z_b1b_x
+            - 0.05454887041675793 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.0094762566073372
+    let j5_sin_b1b = 1.0094762566073372
         * (0.4205637635480731
-            * (0.5318678882191131 * z_b1m_y + 0.8467148722277766 * z_b1m_x)
+            * (0.5318678882191131 * z_b1b_y + 0.8467148722277766 * z_b1b_x)
             + (0.8179571762026022
-                * (0.8467148722277766 * z_b1m_z + 0.013801254640110039 * z_b1m_y)
+                * (0.8467148722277766 * z_b1b_z + 0.013801254640110039 * z_b1b_y)
                 + 0.39252029079901796
-                    * (0.5318678882191131 * z_b1m_z - 0.013801254640110039 * z_b1m_x)));
+                    * (0.5318678882191131 * z_b1b_z - 0.013801254640110039 * z_b1b_x)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t410 = t216 + t259;
     let t411 = t260 - t217;
     let t412 = t219 + t261;
@@ -661,44 +661,44 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t434;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t455 = t306 * j4_cos_b1m - t311 * j4_sin_b1m - t303;
-    let t456 = t304 + (t307 * j4_cos_b1m - t314 * j4_sin_b1m);
-    let t457 = t305 + (t308 * j4_cos_b1m + t317 * j4_sin_b1m);
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t455 = t306 * j4_cos_b1b - t311 * j4_sin_b1b - t303;
+    let t456 = t304 + (t307 * j4_cos_b1b - t314 * j4_sin_b1b);
+    let t457 = t305 + (t308 * j4_cos_b1b + t317 * j4_sin_b1b);
     let t462 = 0.8179571762026022 * t455 + 0.39252029079901796 * t456
         - 0.4205637635480731 * t457;
     let t463 = 0.8179571762026022 * t462;
     let t464 = 0.39252029079901796 * t462;
     let t465 = 0.4205637635480731 * t462;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t463
-        + (j5_cos_b1m * (t455 - t463)
-            - j5_sin_b1m * (0.39252029079901796 * t457 + 0.4205637635480731 * t456));
+    let y6_b1b_x = t463
+        + (j5_cos_b1b * (t455 - t463)
+            - j5_sin_b1b * (0.39252029079901796 * t457 + 0.4205637635480731 * t456));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t464
-        + (j5_cos_b1m * (t456 - t464)
-            + j5_sin_b1m * (0.4205637635480731 * t455 + 0.8179571762026022 * t457));
+    let y6_b1b_y = t464
+        + (j5_cos_b1b * (t456 - t464)
+            + j5_sin_b1b * (0.4205637635480731 * t455 + 0.8179571762026022 * t457));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = j5_cos_b1m * (t457 + t465)
-        - j5_sin_b1m * (0.8179571762026022 * t456 - 0.39252029079901796 * t455) - t465;
+    let y6_b1b_z = j5_cos_b1b * (t457 + t465)
+        - j5_sin_b1b * (0.8179571762026022 * t456 - 0.39252029079901796 * t455) - t465;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.013801254640110039
-            * (0.007341143344285177 * y6_b1m_y + 0.011686840635510367 * y6_b1m_x)
+            * (0.007341143344285177 * y6_b1b_y + 0.011686840635510367 * y6_b1b_x)
             + (0.8467148722277766
-                * (0.9999047581496744 * y6_b1m_x + 0.007341143344285177 * y6_b1m_z)
+                * (0.9999047581496744 * y6_b1b_x + 0.007341143344285177 * y6_b1b_z)
                 - 0.5318678882191131
-                    * (0.011686840635510367 * y6_b1m_z - 0.9999047581496744 * y6_b1m_y)),
-        0.9999047581496744 * y6_b1m_z
-            + (0.011686840635510367 * y6_b1m_y - 0.007341143344285177 * y6_b1m_x),
+                    * (0.011686840635510367 * y6_b1b_z - 0.9999047581496744 * y6_b1b_y)),
+        0.9999047581496744 * y6_b1b_z
+            + (0.011686840635510367 * y6_b1b_y - 0.007341143344285177 * y6_b1b_x),
     );
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1, q2, q3, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1, q2, q3, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Only,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -718,7 +718,7 @@ fn candidates(
             on_axis_1: false,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1, q2, q3, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1, q2, q3, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Only,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -861,25 +861,25 @@ fn branch_1(
     let t217 = 0.6753632545094499 * j5_gamma_b1;
     let t219 = 0.16011413921560977 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t210 - 0.409388252997887 * t171 - t216;
+    let z_b1a_x = t210 - 0.409388252997887 * t171 - t216;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t217 + (0.10612573100116213 * t171 + t211);
+    let z_b1a_y = t217 + (0.10612573100116213 * t171 + t211);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 1.486788788194815 * t171 - t213 - t219;
+    let z_b1a_z = 1.486788788194815 * t171 - t213 - t219;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.0094762566073372
-        * (0.8847454097593066 * z_b1p_y - 0.4526175874883282 * z_b1p_x
-            - 0.05454887041675793 * z_b1p_z);
+    let j5_cos_b1a = 1.0094762566073372
+        * (0.8847454097593066 * z_b1a_y - 0.4526175874883282 * z_b1a_x
+            - 0.05454887041675793 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.0094762566073372
+    let j5_sin_b1a = 1.0094762566073372
         * (0.4205637635480731
-            * (0.5318678882191131 * z_b1p_y + 0.8467148722277766 * z_b1p_x)
+            * (0.5318678882191131 * z_b1a_y + 0.8467148722277766 * z_b1a_x)
             + (0.8179571762026022
-                * (0.8467148722277766 * z_b1p_z + 0.013801254640110039 * z_b1p_y)
+                * (0.8467148722277766 * z_b1a_z + 0.013801254640110039 * z_b1a_y)
                 + 0.39252029079901796
-                    * (0.5318678882191131 * z_b1p_z - 0.013801254640110039 * z_b1p_x)));
+                    * (0.5318678882191131 * z_b1a_z - 0.013801254640110039 * z_b1a_x)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t255 = j5_alpha_b1 - j5_a_b1;
     let t262 = t210 - 0.2648443649420179 * t255 - t216;
     let t263 = t217 + (t211 + 0.06865561389509453 * t255);
@@ -893,53 +893,53 @@ fn branch_1(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t286;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t283 * t291 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t302 = 0.9618439941275024 * gx_z
         + (0.06865561389509453 * gx_y - 0.2648443649420179 * gx_x);
     let t303 = 0.2648443649420179 * t302;
     let t304 = 0.06865561389509453 * t302;
     let t305 = 0.9618439941275024 * t302;
-    let t327 = j4_cos_b1p * (gx_x + t303)
-        - j4_sin_b1p * (0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y) - t303;
+    let t327 = j4_cos_b1a * (gx_x + t303)
+        - j4_sin_b1a * (0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y) - t303;
     let t328 = t304
-        + (j4_cos_b1p * (gx_y - t304)
-            - j4_sin_b1p * (0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z));
+        + (j4_cos_b1a * (gx_y - t304)
+            - j4_sin_b1a * (0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z));
     let t329 = t305
-        + (j4_cos_b1p * (gx_z - t305)
-            + j4_sin_b1p * (0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x));
+        + (j4_cos_b1a * (gx_z - t305)
+            + j4_sin_b1a * (0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x));
     let t334 = 0.8179571762026022 * t327 + 0.39252029079901796 * t328
         - 0.4205637635480731 * t329;
     let t335 = 0.8179571762026022 * t334;
     let t336 = 0.39252029079901796 * t334;
     let t337 = 0.4205637635480731 * t334;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t335
-        + (j5_cos_b1p * (t327 - t335)
-            - j5_sin_b1p * (0.39252029079901796 * t329 + 0.4205637635480731 * t328));
+    let y6_b1a_x = t335
+        + (j5_cos_b1a * (t327 - t335)
+            - j5_sin_b1a * (0.39252029079901796 * t329 + 0.4205637635480731 * t328));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t336
-        + (j5_cos_b1p * (t328 - t336)
-            + j5_sin_b1p * (0.4205637635480731 * t327 + 0.8179571762026022 * t329));
+    let y6_b1a_y = t336
+        + (j5_cos_b1a * (t328 - t336)
+            + j5_sin_b1a * (0.4205637635480731 * t327 + 0.8179571762026022 * t329));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = j5_cos_b1p * (t329 + t337)
-        - j5_sin_b1p * (0.8179571762026022 * t328 - 0.39252029079901796 * t327) - t337;
+    let y6_b1a_z = j5_cos_b1a * (t329 + t337)
+        - j5_sin_b1a * (0.8179571762026022 * t328 - 0.39252029079901796 * t327) - t337;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.013801254640110039
-            * (0.007341143344285177 * y6_b1p_y + 0.011686840635510367 * y6_b1p_x)
+            * (0.007341143344285177 * y6_b1a_y + 0.011686840635510367 * y6_b1a_x)
             + (0.8467148722277766
-                * (0.9999047581496744 * y6_b1p_x + 0.007341143344285177 * y6_b1p_z)
+                * (0.9999047581496744 * y6_b1a_x + 0.007341143344285177 * y6_b1a_z)
                 - 0.5318678882191131
-                    * (0.011686840635510367 * y6_b1p_z - 0.9999047581496744 * y6_b1p_y)),
-        0.9999047581496744 * y6_b1p_z
-            + (0.011686840635510367 * y6_b1p_y - 0.007341143344285177 * y6_b1p_x),
+                    * (0.011686840635510367 * y6_b1a_z - 0.9999047581496744 * y6_b1a_y)),
+        0.9999047581496744 * y6_b1a_z
+            + (0.011686840635510367 * y6_b1a_y - 0.007341143344285177 * y6_b1a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1, q2, q3, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1, q2, q3, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Only,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -1087,25 +1087,25 @@ fn branch_2(
     let t304 = 0.06865561389509453 * t302;
     let t305 = 0.9618439941275024 * t302;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t216 + (t210 - 0.409388252997887 * t171);
+    let z_b1b_x = t216 + (t210 - 0.409388252997887 * t171);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 0.10612573100116213 * t171 + t211 - t217;
+    let z_b1b_y = 0.10612573100116213 * t171 + t211 - t217;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t219 + (1.486788788194815 * t171 - t213);
+    let z_b1b_z = t219 + (1.486788788194815 * t171 - t213);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.0094762566073372
-        * (0.8847454097593066 * z_b1m_y - 0.4526175874883282 * z_b1m_x
-            - 0.05454887041675793 * z_b1m_z);
+    let j5_cos_b1b = 1.0094762566073372
+        * (0.8847454097593066 * z_b1b_y - 0.4526175874883282 * z_b1b_x
+            - 0.05454887041675793 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.0094762566073372
+    let j5_sin_b1b = 1.0094762566073372
         * (0.4205637635480731
-            * (0.5318678882191131 * z_b1m_y + 0.8467148722277766 * z_b1m_x)
+            * (0.5318678882191131 * z_b1b_y + 0.8467148722277766 * z_b1b_x)
             + (0.8179571762026022
-                * (0.8467148722277766 * z_b1m_z + 0.013801254640110039 * z_b1m_y)
+                * (0.8467148722277766 * z_b1b_z + 0.013801254640110039 * z_b1b_y)
                 + 0.39252029079901796
-                    * (0.5318678882191131 * z_b1m_z - 0.013801254640110039 * z_b1m_x)));
+                    * (0.5318678882191131 * z_b1b_z - 0.013801254640110039 * z_b1b_x)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t410 = t216 + (t210 - 0.2648443649420179 * t255);
     let t411 = t211 + 0.06865561389509453 * t255 - t217;
     let t412 = t219 + (0.9618439941275024 * t255 - t213);
@@ -1118,48 +1118,48 @@ fn branch_2(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t434;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t431 * t437 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t455 = (gx_x + t303) * j4_cos_b1m
-        - (0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y) * j4_sin_b1m - t303;
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t455 = (gx_x + t303) * j4_cos_b1b
+        - (0.06865561389509453 * gx_z - 0.9618439941275024 * gx_y) * j4_sin_b1b - t303;
     let t456 = t304
-        + ((gx_y - t304) * j4_cos_b1m
-            - (0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z) * j4_sin_b1m);
+        + ((gx_y - t304) * j4_cos_b1b
+            - (0.9618439941275024 * gx_x + 0.2648443649420179 * gx_z) * j4_sin_b1b);
     let t457 = t305
-        + ((gx_z - t305) * j4_cos_b1m
-            + (0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x) * j4_sin_b1m);
+        + ((gx_z - t305) * j4_cos_b1b
+            + (0.2648443649420179 * gx_y + 0.06865561389509453 * gx_x) * j4_sin_b1b);
     let t462 = 0.8179571762026022 * t455 + 0.39252029079901796 * t456
         - 0.4205637635480731 * t457;
     let t463 = 0.8179571762026022 * t462;
     let t464 = 0.39252029079901796 * t462;
     let t465 = 0.4205637635480731 * t462;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t463
-        + (j5_cos_b1m * (t455 - t463)
-            - j5_sin_b1m * (0.39252029079901796 * t457 + 0.4205637635480731 * t456));
+    let y6_b1b_x = t463
+        + (j5_cos_b1b * (t455 - t463)
+            - j5_sin_b1b * (0.39252029079901796 * t457 + 0.4205637635480731 * t456));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t464
-        + (j5_cos_b1m * (t456 - t464)
-            + j5_sin_b1m * (0.4205637635480731 * t455 + 0.8179571762026022 * t457));
+    let y6_b1b_y = t464
+        + (j5_cos_b1b * (t456 - t464)
+            + j5_sin_b1b * (0.4205637635480731 * t455 + 0.8179571762026022 * t457));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = j5_cos_b1m * (t457 + t465)
-        - j5_sin_b1m * (0.8179571762026022 * t456 - 0.39252029079901796 * t455) - t465;
+    let y6_b1b_z = j5_cos_b1b * (t457 + t465)
+        - j5_sin_b1b * (0.8179571762026022 * t456 - 0.39252029079901796 * t455) - t465;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.013801254640110039
-            * (0.007341143344285177 * y6_b1m_y + 0.011686840635510367 * y6_b1m_x)
+            * (0.007341143344285177 * y6_b1b_y + 0.011686840635510367 * y6_b1b_x)
             + (0.8467148722277766
-                * (0.9999047581496744 * y6_b1m_x + 0.007341143344285177 * y6_b1m_z)
+                * (0.9999047581496744 * y6_b1b_x + 0.007341143344285177 * y6_b1b_z)
                 - 0.5318678882191131
-                    * (0.011686840635510367 * y6_b1m_z - 0.9999047581496744 * y6_b1m_y)),
-        0.9999047581496744 * y6_b1m_z
-            + (0.011686840635510367 * y6_b1m_y - 0.007341143344285177 * y6_b1m_x),
+                    * (0.011686840635510367 * y6_b1b_z - 0.9999047581496744 * y6_b1b_y)),
+        0.9999047581496744 * y6_b1b_z
+            + (0.011686840635510367 * y6_b1b_y - 0.007341143344285177 * y6_b1b_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1, q2, q3, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1, q2, q3, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Only,
             elbow: ::armforge_runtime::Elbow::Only,

@@ -109,7 +109,7 @@ pub const TOOL: ::armforge_runtime::Pose = ::armforge_runtime::Pose {
     clippy::unreadable_literal
 )]
 const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::internal::Settings {
-    length_tolerance: 6.15651936122987e-10,
+    length_tolerance: 6.156519361229865e-10,
     angle_tolerance: 1e-18,
     limit_tolerance: 1e-12,
     duplicate_tolerance: 1e-10,
@@ -123,13 +123,13 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
 const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
     shoulder: ::armforge_runtime::internal::ShoulderRule::Radial {
         direction: [-0.29088833522944446, 0.49707832103632676, -0.3350895823358808],
-        point: [-0.0718205649237493, 0.05958435676594763, -0.06363035897545057],
-        wrist_center: [-0.010576586074590257, 0.0353379637275448, -0.16192647610050365],
+        point: [-0.0718205649237, 0.059584356766, -0.0636303589755],
+        wrist_center: [-0.0105765860746, 0.0353379637275, -0.16192647610050365],
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Only,
     wrist: ::armforge_runtime::internal::WristRule {
-        normal: [-0.5917856509530054, 0.06565761653993642, 0.10348524244829747],
-        axis5: [0.008443901475437254, -0.8218117691663878, 0.569696512704339],
+        normal: [-0.591785650953, 0.06565761653993642, 0.10348524244829747],
+        axis5: [0.00844390147544, -0.8218117691663878, 0.569696512704339],
         axis6: [0.4834853743786345, -0.8714779141183223, -0.08226869371717187],
     },
     mirrored: false,
@@ -466,7 +466,7 @@ pub fn solve_branch(
         } => branch_4(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -513,14 +513,14 @@ fn candidates(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
-            - 0.038083310507593754 * r02) - 0.8624805996216751;
+        + (0.002101385941592647 * r00 + 0.0020109803706870044 * r01
+            - 0.038083310507595336 * r02) - 0.8624805996216751;
     let t40 = py
-        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
-            - 0.038083310507593754 * r12) + 0.2568536871780642;
+        + (0.002101385941592647 * r10 + 0.0020109803706870044 * r11
+            - 0.038083310507595336 * r12) + 0.2568536871780642;
     let t42 = pz
-        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
-            - 0.038083310507593754 * r22) - 0.027184467307596938;
+        + (0.002101385941592647 * r20 + 0.0020109803706870044 * r21
+            - 0.038083310507595336 * r22) - 0.027184467307596938;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
     let wc_x = 0.6263556831868291 * t42
         + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
@@ -545,11 +545,11 @@ fn candidates(
     // ρ² = |(c_t − p1)⊥h1|²
     let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
     // W = A0 + z A1: the radial part with slide 3 at zero (x)
-    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    let w0_x = 0.6929980374229754 * height - 0.0820675161392413;
     // W = A0 + z A1: the radial part with slide 3 at zero (y)
-    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887546;
     // W = A0 + z A1: the radial part with slide 3 at zero (z)
-    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    let w0_z = 0.24194839912612498 * height - 0.030209353871834356;
     // D · W
     let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
         - 0.3350895823358808 * w0_z;
@@ -560,26 +560,26 @@ fn candidates(
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     let t126 = ::armforge_runtime::math::sqrt(closest2.max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let j1_free = 3.790273064519818e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.790273064519818e-19);
     let t133 = 1.5007709975810246 * slide_root;
     let t134 = 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = t133 - t134;
-    let t140 = 1.4026694727397795 * (height - 0.11820820044027433);
+    let slide3_a = t133 - t134;
+    let t140 = 1.4026694727397795 * (height - 0.11820820044026925);
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = t140 + 0.7768010686602598 * slide3_p;
-    let t146 = w0_x - 0.29088833522944446 * slide3_p;
-    let t147 = w0_y + 0.49707832103632676 * slide3_p;
-    let t148 = w0_z - 0.3350895823358808 * slide3_p;
+    let slide2_a = t140 + 0.7768010686602598 * slide3_a;
+    let t146 = w0_x - 0.29088833522944446 * slide3_a;
+    let t147 = w0_y + 0.49707832103632676 * slide3_a;
+    let t148 = w0_z - 0.3350895823358808 * slide3_a;
     // cos θ1 = (x · radial) / ρ²
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
     };
     // sin θ1 = h1 · (x × radial) / ρ²
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         t131
@@ -588,23 +588,23 @@ fn candidates(
                 - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     let t173 = t133 + t134;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t173;
+    let slide3_b = -t173;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = t140 - 0.7768010686602598 * t173;
+    let slide2_b = t140 - 0.7768010686602598 * t173;
     let t180 = w0_x + 0.29088833522944446 * t173;
     let t181 = w0_y - 0.49707832103632676 * t173;
     let t182 = w0_z + 0.3350895823358808 * t173;
     // cos θ1 = (x · radial) / ρ²
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
     };
     // sin θ1 = h1 · (x × radial) / ρ²
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         t131
@@ -613,7 +613,7 @@ fn candidates(
                 - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -656,11 +656,11 @@ fn candidates(
     let t291 = 0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z;
     let t294 = 0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t280 + (j1_cos_p * t283 - j1_sin_p * t288);
+    let v_b1_x = t280 + (j1_cos_a * t283 - j1_sin_a * t288);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * t284 + j1_sin_p * t291 - t281;
+    let v_b1_y = j1_cos_a * t284 + j1_sin_a * t291 - t281;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * t285 - j1_sin_p * t294 - t282;
+    let v_b1_z = j1_cos_a * t285 - j1_sin_a * t294 - t282;
     let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
     let t312 = 0.5193670476948382 * t311;
@@ -673,11 +673,11 @@ fn candidates(
     let t323 = 0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z;
     let t326 = 0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t312 + (j1_cos_p * t315 - j1_sin_p * t320);
+    let xv_b1_x = t312 + (j1_cos_a * t315 - j1_sin_a * t320);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * t316 + j1_sin_p * t323 - t313;
+    let xv_b1_y = j1_cos_a * t316 + j1_sin_a * t323 - t313;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * t317 - j1_sin_p * t326 - t314;
+    let xv_b1_z = j1_cos_a * t317 - j1_sin_a * t326 - t314;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
@@ -707,25 +707,25 @@ fn candidates(
     let t398 = 0.8672481684250324 * t349 - t389;
     let t399 = t390 - 2.572822887006619 * t349;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t397 - t394;
+    let z_b1a_x = t397 - t394;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t395 + t398;
+    let z_b1a_y = t395 + t398;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t396 + t399;
+    let z_b1a_z = t396 + t399;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.8297406473129645
-        * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
-            - 0.4659052429827611 * z_b1p_z);
+    let j5_cos_b1a = 1.8297406473129645
+        * (0.4777992078809706 * z_b1a_x - 0.318065659982822 * z_b1a_y
+            - 0.4659052429827611 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.8297406473129645
+    let j5_sin_b1a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1p_y + 0.8714779141183223 * z_b1p_x)
+            * (0.4834853743786345 * z_b1a_y + 0.8714779141183223 * z_b1a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1p_y - 0.8714779141183223 * z_b1p_z)
+                * (0.08226869371717187 * z_b1a_y - 0.8714779141183223 * z_b1a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
+                    * (0.08226869371717187 * z_b1a_x + 0.4834853743786345 * z_b1a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t432 = j5_alpha_b1 - j5_a_b1;
     let t436 = t387 - 0.12917776692663924 * t432;
     let t437 = 0.31674537350149495 * t432 - t389;
@@ -742,11 +742,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t463;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
     let t479 = 0.12917776692663924 * t478;
@@ -758,57 +758,57 @@ fn candidates(
     let t487 = 0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y;
     let t490 = 0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x;
     let t493 = 0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x;
-    let t503 = j4_cos_b1p * t482 - j4_sin_b1p * t487 - t479;
-    let t504 = t480 + (j4_cos_b1p * t483 - j4_sin_b1p * t490);
-    let t505 = j4_cos_b1p * t484 + j4_sin_b1p * t493 - t481;
+    let t503 = j4_cos_b1a * t482 - j4_sin_b1a * t487 - t479;
+    let t504 = t480 + (j4_cos_b1a * t483 - j4_sin_b1a * t490);
+    let t505 = j4_cos_b1a * t484 + j4_sin_b1a * t493 - t481;
     let t510 = 0.569696512704339 * t505
         + (0.008443901475437254 * t503 - 0.8218117691663878 * t504);
     let t511 = 0.008443901475437254 * t510;
     let t512 = 0.8218117691663878 * t510;
     let t513 = 0.569696512704339 * t510;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t511
-        + (j5_cos_b1p * (t503 - t511)
-            + j5_sin_b1p * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
+    let y6_b1a_x = t511
+        + (j5_cos_b1a * (t503 - t511)
+            + j5_sin_b1a * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t504 + t512)
-        - j5_sin_b1p * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
+    let y6_b1a_y = j5_cos_b1a * (t504 + t512)
+        - j5_sin_b1a * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t513
-        + (j5_cos_b1p * (t505 - t513)
-            - j5_sin_b1p * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
+    let y6_b1a_z = t513
+        + (j5_cos_b1a * (t505 - t513)
+            - j5_sin_b1a * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1p_y + 0.07193921016870876 * y6_b1p_x)
+            * (0.039911001067778125 * y6_b1a_y + 0.07193921016870876 * y6_b1a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1p_z + 0.9966101855961891 * y6_b1p_y)
+                * (0.07193921016870876 * y6_b1a_z + 0.9966101855961891 * y6_b1a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1p_x
-                        - 0.039911001067778125 * y6_b1p_z))),
-        0.9966101855961891 * y6_b1p_z
-            + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
+                    * (0.9966101855961891 * y6_b1a_x
+                        - 0.039911001067778125 * y6_b1a_z))),
+        0.9966101855961891 * y6_b1a_z
+            + (0.039911001067778125 * y6_b1a_x - 0.07193921016870876 * y6_b1a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t394 + t397;
+    let z_b1b_x = t394 + t397;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t398 - t395;
+    let z_b1b_y = t398 - t395;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t399 - t396;
+    let z_b1b_z = t399 - t396;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.8297406473129645
-        * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
-            - 0.4659052429827611 * z_b1m_z);
+    let j5_cos_b1b = 1.8297406473129645
+        * (0.4777992078809706 * z_b1b_x - 0.318065659982822 * z_b1b_y
+            - 0.4659052429827611 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.8297406473129645
+    let j5_sin_b1b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1m_y + 0.8714779141183223 * z_b1m_x)
+            * (0.4834853743786345 * z_b1b_y + 0.8714779141183223 * z_b1b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1m_y - 0.8714779141183223 * z_b1m_z)
+                * (0.08226869371717187 * z_b1b_y - 0.8714779141183223 * z_b1b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
+                    * (0.08226869371717187 * z_b1b_x + 0.4834853743786345 * z_b1b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t587 = t394 + t436;
     let t588 = t437 - t395;
     let t589 = t438 - t396;
@@ -823,54 +823,54 @@ fn candidates(
     let t618 = -ref4_cos;
     let t619 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t618 } else { t594 * t614 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t618 } else { t594 * t614 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t619 } else { t608 * t614 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t619 } else { t608 * t614 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t632 = t482 * j4_cos_b1m - t487 * j4_sin_b1m - t479;
-    let t633 = t480 + (t483 * j4_cos_b1m - t490 * j4_sin_b1m);
-    let t634 = t484 * j4_cos_b1m + t493 * j4_sin_b1m - t481;
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t632 = t482 * j4_cos_b1b - t487 * j4_sin_b1b - t479;
+    let t633 = t480 + (t483 * j4_cos_b1b - t490 * j4_sin_b1b);
+    let t634 = t484 * j4_cos_b1b + t493 * j4_sin_b1b - t481;
     let t639 = 0.569696512704339 * t634
         + (0.008443901475437254 * t632 - 0.8218117691663878 * t633);
     let t640 = 0.008443901475437254 * t639;
     let t641 = 0.8218117691663878 * t639;
     let t642 = 0.569696512704339 * t639;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t640
-        + (j5_cos_b1m * (t632 - t640)
-            + j5_sin_b1m * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
+    let y6_b1b_x = t640
+        + (j5_cos_b1b * (t632 - t640)
+            + j5_sin_b1b * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t633 + t641)
-        - j5_sin_b1m * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
+    let y6_b1b_y = j5_cos_b1b * (t633 + t641)
+        - j5_sin_b1b * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t642
-        + (j5_cos_b1m * (t634 - t642)
-            - j5_sin_b1m * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
+    let y6_b1b_z = t642
+        + (j5_cos_b1b * (t634 - t642)
+            - j5_sin_b1b * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1m_y + 0.07193921016870876 * y6_b1m_x)
+            * (0.039911001067778125 * y6_b1b_y + 0.07193921016870876 * y6_b1b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1m_z + 0.9966101855961891 * y6_b1m_y)
+                * (0.07193921016870876 * y6_b1b_z + 0.9966101855961891 * y6_b1b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1m_x
-                        - 0.039911001067778125 * y6_b1m_z))),
-        0.9966101855961891 * y6_b1m_z
-            + (0.039911001067778125 * y6_b1m_x - 0.07193921016870876 * y6_b1m_y),
+                    * (0.9966101855961891 * y6_b1b_x
+                        - 0.039911001067778125 * y6_b1b_z))),
+        0.9966101855961891 * y6_b1b_z
+            + (0.039911001067778125 * y6_b1b_x - 0.07193921016870876 * y6_b1b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t280 + (j1_cos_m * t283 - j1_sin_m * t288);
+    let v_b2_x = t280 + (j1_cos_b * t283 - j1_sin_b * t288);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * t284 + j1_sin_m * t291 - t281;
+    let v_b2_y = j1_cos_b * t284 + j1_sin_b * t291 - t281;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * t285 - j1_sin_m * t294 - t282;
+    let v_b2_z = j1_cos_b * t285 - j1_sin_b * t294 - t282;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t312 + (j1_cos_m * t315 - j1_sin_m * t320);
+    let xv_b2_x = t312 + (j1_cos_b * t315 - j1_sin_b * t320);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * t316 + j1_sin_m * t323 - t313;
+    let xv_b2_y = j1_cos_b * t316 + j1_sin_b * t323 - t313;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * t317 - j1_sin_m * t326 - t314;
+    let xv_b2_z = j1_cos_b * t317 - j1_sin_b * t326 - t314;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
@@ -900,25 +900,25 @@ fn candidates(
     let t753 = 0.8672481684250324 * t717 - t747;
     let t754 = t748 - 2.572822887006619 * t717;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t752 - t749;
+    let z_b2a_x = t752 - t749;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t750 + t753;
+    let z_b2a_y = t750 + t753;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t751 + t754;
+    let z_b2a_z = t751 + t754;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.8297406473129645
-        * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
-            - 0.4659052429827611 * z_b2p_z);
+    let j5_cos_b2a = 1.8297406473129645
+        * (0.4777992078809706 * z_b2a_x - 0.318065659982822 * z_b2a_y
+            - 0.4659052429827611 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.8297406473129645
+    let j5_sin_b2a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2p_y + 0.8714779141183223 * z_b2p_x)
+            * (0.4834853743786345 * z_b2a_y + 0.8714779141183223 * z_b2a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2p_y - 0.8714779141183223 * z_b2p_z)
+                * (0.08226869371717187 * z_b2a_y - 0.8714779141183223 * z_b2a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
+                    * (0.08226869371717187 * z_b2a_x + 0.4834853743786345 * z_b2a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t780 = j5_alpha_b2 - j5_a_b2;
     let t784 = t746 - 0.12917776692663924 * t780;
     let t785 = 0.31674537350149495 * t780 - t747;
@@ -935,11 +935,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t811;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
     let t826 = 0.12917776692663924 * t825;
@@ -951,57 +951,57 @@ fn candidates(
     let t834 = 0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y;
     let t837 = 0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x;
     let t840 = 0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x;
-    let t850 = j4_cos_b2p * t829 - j4_sin_b2p * t834 - t826;
-    let t851 = t827 + (j4_cos_b2p * t830 - j4_sin_b2p * t837);
-    let t852 = j4_cos_b2p * t831 + j4_sin_b2p * t840 - t828;
+    let t850 = j4_cos_b2a * t829 - j4_sin_b2a * t834 - t826;
+    let t851 = t827 + (j4_cos_b2a * t830 - j4_sin_b2a * t837);
+    let t852 = j4_cos_b2a * t831 + j4_sin_b2a * t840 - t828;
     let t857 = 0.569696512704339 * t852
         + (0.008443901475437254 * t850 - 0.8218117691663878 * t851);
     let t858 = 0.008443901475437254 * t857;
     let t859 = 0.8218117691663878 * t857;
     let t860 = 0.569696512704339 * t857;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t858
-        + (j5_cos_b2p * (t850 - t858)
-            + j5_sin_b2p * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
+    let y6_b2a_x = t858
+        + (j5_cos_b2a * (t850 - t858)
+            + j5_sin_b2a * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t851 + t859)
-        - j5_sin_b2p * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
+    let y6_b2a_y = j5_cos_b2a * (t851 + t859)
+        - j5_sin_b2a * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t860
-        + (j5_cos_b2p * (t852 - t860)
-            - j5_sin_b2p * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
+    let y6_b2a_z = t860
+        + (j5_cos_b2a * (t852 - t860)
+            - j5_sin_b2a * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2p_y + 0.07193921016870876 * y6_b2p_x)
+            * (0.039911001067778125 * y6_b2a_y + 0.07193921016870876 * y6_b2a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2p_z + 0.9966101855961891 * y6_b2p_y)
+                * (0.07193921016870876 * y6_b2a_z + 0.9966101855961891 * y6_b2a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2p_x
-                        - 0.039911001067778125 * y6_b2p_z))),
-        0.9966101855961891 * y6_b2p_z
-            + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
+                    * (0.9966101855961891 * y6_b2a_x
+                        - 0.039911001067778125 * y6_b2a_z))),
+        0.9966101855961891 * y6_b2a_z
+            + (0.039911001067778125 * y6_b2a_x - 0.07193921016870876 * y6_b2a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t749 + t752;
+    let z_b2b_x = t749 + t752;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t753 - t750;
+    let z_b2b_y = t753 - t750;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t754 - t751;
+    let z_b2b_z = t754 - t751;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.8297406473129645
-        * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
-            - 0.4659052429827611 * z_b2m_z);
+    let j5_cos_b2b = 1.8297406473129645
+        * (0.4777992078809706 * z_b2b_x - 0.318065659982822 * z_b2b_y
+            - 0.4659052429827611 * z_b2b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.8297406473129645
+    let j5_sin_b2b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2m_y + 0.8714779141183223 * z_b2m_x)
+            * (0.4834853743786345 * z_b2b_y + 0.8714779141183223 * z_b2b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2m_y - 0.8714779141183223 * z_b2m_z)
+                * (0.08226869371717187 * z_b2b_y - 0.8714779141183223 * z_b2b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
+                    * (0.08226869371717187 * z_b2b_x + 0.4834853743786345 * z_b2b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t931 = t749 + t784;
     let t932 = t785 - t750;
     let t933 = t786 - t751;
@@ -1014,45 +1014,45 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t955;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t618 } else { t938 * t958 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t618 } else { t938 * t958 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t619 } else { t952 * t958 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t619 } else { t952 * t958 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t974 = t829 * j4_cos_b2m - t834 * j4_sin_b2m - t826;
-    let t975 = t827 + (t830 * j4_cos_b2m - t837 * j4_sin_b2m);
-    let t976 = t831 * j4_cos_b2m + t840 * j4_sin_b2m - t828;
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t974 = t829 * j4_cos_b2b - t834 * j4_sin_b2b - t826;
+    let t975 = t827 + (t830 * j4_cos_b2b - t837 * j4_sin_b2b);
+    let t976 = t831 * j4_cos_b2b + t840 * j4_sin_b2b - t828;
     let t981 = 0.569696512704339 * t976
         + (0.008443901475437254 * t974 - 0.8218117691663878 * t975);
     let t982 = 0.008443901475437254 * t981;
     let t983 = 0.8218117691663878 * t981;
     let t984 = 0.569696512704339 * t981;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t982
-        + (j5_cos_b2m * (t974 - t982)
-            + j5_sin_b2m * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
+    let y6_b2b_x = t982
+        + (j5_cos_b2b * (t974 - t982)
+            + j5_sin_b2b * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t975 + t983)
-        - j5_sin_b2m * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
+    let y6_b2b_y = j5_cos_b2b * (t975 + t983)
+        - j5_sin_b2b * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t984
-        + (j5_cos_b2m * (t976 - t984)
-            - j5_sin_b2m * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
+    let y6_b2b_z = t984
+        + (j5_cos_b2b * (t976 - t984)
+            - j5_sin_b2b * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2m_y + 0.07193921016870876 * y6_b2m_x)
+            * (0.039911001067778125 * y6_b2b_y + 0.07193921016870876 * y6_b2b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2m_z + 0.9966101855961891 * y6_b2m_y)
+                * (0.07193921016870876 * y6_b2b_z + 0.9966101855961891 * y6_b2b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2m_x
-                        - 0.039911001067778125 * y6_b2m_z))),
-        0.9966101855961891 * y6_b2m_z
-            + (0.039911001067778125 * y6_b2m_x - 0.07193921016870876 * y6_b2m_y),
+                    * (0.9966101855961891 * y6_b2b_x
+                        - 0.039911001067778125 * y6_b2b_z))),
+        0.9966101855961891 * y6_b2b_z
+            + (0.039911001067778125 * y6_b2b_x - 0.07193921016870876 * y6_b2b_y),
     );
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, slide2_p, slide3_p, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, slide2_a, slide3_a, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1076,7 +1076,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, slide2_p, slide3_p, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, slide2_a, slide3_a, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1100,7 +1100,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, slide2_m, slide3_m, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_b, slide2_b, slide3_b, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1124,7 +1124,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, slide2_m, slide3_m, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_b, slide2_b, slide3_b, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1182,14 +1182,14 @@ fn branch_1(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
-            - 0.038083310507593754 * r02) - 0.8624805996216751;
+        + (0.002101385941592647 * r00 + 0.0020109803706870044 * r01
+            - 0.038083310507595336 * r02) - 0.8624805996216751;
     let t40 = py
-        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
-            - 0.038083310507593754 * r12) + 0.2568536871780642;
+        + (0.002101385941592647 * r10 + 0.0020109803706870044 * r11
+            - 0.038083310507595336 * r12) + 0.2568536871780642;
     let t42 = pz
-        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
-            - 0.038083310507593754 * r22) - 0.027184467307596938;
+        + (0.002101385941592647 * r20 + 0.0020109803706870044 * r21
+            - 0.038083310507595336 * r22) - 0.027184467307596938;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
     let wc_x = 0.6263556831868291 * t42
         + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
@@ -1214,11 +1214,11 @@ fn branch_1(
     // ρ² = |(c_t − p1)⊥h1|²
     let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
     // W = A0 + z A1: the radial part with slide 3 at zero (x)
-    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    let w0_x = 0.6929980374229754 * height - 0.0820675161392413;
     // W = A0 + z A1: the radial part with slide 3 at zero (y)
-    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887546;
     // W = A0 + z A1: the radial part with slide 3 at zero (z)
-    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    let w0_z = 0.24194839912612498 * height - 0.030209353871834356;
     // D · W
     let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
         - 0.3350895823358808 * w0_z;
@@ -1228,24 +1228,24 @@ fn branch_1(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let j1_free = 3.790273064519818e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.790273064519818e-19);
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
+    let slide3_a = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
-        + 0.7768010686602598 * slide3_p;
-    let t146 = w0_x - 0.29088833522944446 * slide3_p;
-    let t147 = w0_y + 0.49707832103632676 * slide3_p;
-    let t148 = w0_z - 0.3350895823358808 * slide3_p;
+    let slide2_a = 1.4026694727397795 * (height - 0.11820820044026925)
+        + 0.7768010686602598 * slide3_a;
+    let t146 = w0_x - 0.29088833522944446 * slide3_a;
+    let t147 = w0_y + 0.49707832103632676 * slide3_a;
+    let t148 = w0_z - 0.3350895823358808 * slide3_a;
     // cos θ1 = (x · radial) / ρ²
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
     };
     // sin θ1 = h1 · (x × radial) / ρ²
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         t131
@@ -1254,7 +1254,7 @@ fn branch_1(
                 - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -1292,14 +1292,14 @@ fn branch_1(
     let t282 = 0.8179385842370391 * t279;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t280
-        + (j1_cos_p * (g6_x - t280)
-            - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_a * (g6_x - t280)
+            - j1_sin_a * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * (g6_y + t281)
-        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b1_y = j1_cos_a * (g6_y + t281)
+        + j1_sin_a * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * (g6_z + t282)
-        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let v_b1_z = j1_cos_a * (g6_z + t282)
+        - j1_sin_a * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
     let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
     let t312 = 0.5193670476948382 * t311;
@@ -1307,14 +1307,14 @@ fn branch_1(
     let t314 = 0.8179385842370391 * t311;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t312
-        + (j1_cos_p * (gx_x - t312)
-            - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_a * (gx_x - t312)
+            - j1_sin_a * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * (gx_y + t313)
-        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b1_y = j1_cos_a * (gx_y + t313)
+        + j1_sin_a * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * (gx_z + t314)
-        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b1_z = j1_cos_a * (gx_z + t314)
+        - j1_sin_a * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
@@ -1341,25 +1341,25 @@ fn branch_1(
     let t395 = 0.06565761653993642 * j5_gamma_b1;
     let t396 = 0.10348524244829747 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t387 - 0.35368845495650103 * t349 - t394;
+    let z_b1a_x = t387 - 0.35368845495650103 * t349 - t394;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t395 + (0.8672481684250324 * t349 - t389);
+    let z_b1a_y = t395 + (0.8672481684250324 * t349 - t389);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t396 + (t390 - 2.572822887006619 * t349);
+    let z_b1a_z = t396 + (t390 - 2.572822887006619 * t349);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.8297406473129645
-        * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
-            - 0.4659052429827611 * z_b1p_z);
+    let j5_cos_b1a = 1.8297406473129645
+        * (0.4777992078809706 * z_b1a_x - 0.318065659982822 * z_b1a_y
+            - 0.4659052429827611 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.8297406473129645
+    let j5_sin_b1a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1p_y + 0.8714779141183223 * z_b1p_x)
+            * (0.4834853743786345 * z_b1a_y + 0.8714779141183223 * z_b1a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1p_y - 0.8714779141183223 * z_b1p_z)
+                * (0.08226869371717187 * z_b1a_y - 0.8714779141183223 * z_b1a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
+                    * (0.08226869371717187 * z_b1a_x + 0.4834853743786345 * z_b1a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t432 = j5_alpha_b1 - j5_a_b1;
     let t439 = t387 - 0.12917776692663924 * t432 - t394;
     let t440 = t395 + (0.31674537350149495 * t432 - t389);
@@ -1373,25 +1373,25 @@ fn branch_1(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t463;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
     let t479 = 0.12917776692663924 * t478;
     let t480 = 0.31674537350149495 * t478;
     let t481 = 0.9396730670277007 * t478;
-    let t503 = j4_cos_b1p * (xv_b1_x + t479)
-        - j4_sin_b1p * (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y)
+    let t503 = j4_cos_b1a * (xv_b1_x + t479)
+        - j4_sin_b1a * (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y)
         - t479;
     let t504 = t480
-        + (j4_cos_b1p * (xv_b1_y - t480)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t480)
+            - j4_sin_b1a
                 * (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x));
-    let t505 = j4_cos_b1p * (xv_b1_z + t481)
-        + j4_sin_b1p * (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x)
+    let t505 = j4_cos_b1a * (xv_b1_z + t481)
+        + j4_sin_b1a * (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x)
         - t481;
     let t510 = 0.569696512704339 * t505
         + (0.008443901475437254 * t503 - 0.8218117691663878 * t504);
@@ -1399,30 +1399,30 @@ fn branch_1(
     let t512 = 0.8218117691663878 * t510;
     let t513 = 0.569696512704339 * t510;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t511
-        + (j5_cos_b1p * (t503 - t511)
-            + j5_sin_b1p * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
+    let y6_b1a_x = t511
+        + (j5_cos_b1a * (t503 - t511)
+            + j5_sin_b1a * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t504 + t512)
-        - j5_sin_b1p * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
+    let y6_b1a_y = j5_cos_b1a * (t504 + t512)
+        - j5_sin_b1a * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t513
-        + (j5_cos_b1p * (t505 - t513)
-            - j5_sin_b1p * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
+    let y6_b1a_z = t513
+        + (j5_cos_b1a * (t505 - t513)
+            - j5_sin_b1a * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1p_y + 0.07193921016870876 * y6_b1p_x)
+            * (0.039911001067778125 * y6_b1a_y + 0.07193921016870876 * y6_b1a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1p_z + 0.9966101855961891 * y6_b1p_y)
+                * (0.07193921016870876 * y6_b1a_z + 0.9966101855961891 * y6_b1a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1p_x
-                        - 0.039911001067778125 * y6_b1p_z))),
-        0.9966101855961891 * y6_b1p_z
-            + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
+                    * (0.9966101855961891 * y6_b1a_x
+                        - 0.039911001067778125 * y6_b1a_z))),
+        0.9966101855961891 * y6_b1a_z
+            + (0.039911001067778125 * y6_b1a_x - 0.07193921016870876 * y6_b1a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, slide2_p, slide3_p, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, slide2_a, slide3_a, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -1479,14 +1479,14 @@ fn branch_2(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
-            - 0.038083310507593754 * r02) - 0.8624805996216751;
+        + (0.002101385941592647 * r00 + 0.0020109803706870044 * r01
+            - 0.038083310507595336 * r02) - 0.8624805996216751;
     let t40 = py
-        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
-            - 0.038083310507593754 * r12) + 0.2568536871780642;
+        + (0.002101385941592647 * r10 + 0.0020109803706870044 * r11
+            - 0.038083310507595336 * r12) + 0.2568536871780642;
     let t42 = pz
-        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
-            - 0.038083310507593754 * r22) - 0.027184467307596938;
+        + (0.002101385941592647 * r20 + 0.0020109803706870044 * r21
+            - 0.038083310507595336 * r22) - 0.027184467307596938;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
     let wc_x = 0.6263556831868291 * t42
         + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
@@ -1511,11 +1511,11 @@ fn branch_2(
     // ρ² = |(c_t − p1)⊥h1|²
     let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
     // W = A0 + z A1: the radial part with slide 3 at zero (x)
-    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    let w0_x = 0.6929980374229754 * height - 0.0820675161392413;
     // W = A0 + z A1: the radial part with slide 3 at zero (y)
-    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887546;
     // W = A0 + z A1: the radial part with slide 3 at zero (z)
-    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    let w0_z = 0.24194839912612498 * height - 0.030209353871834356;
     // D · W
     let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
         - 0.3350895823358808 * w0_z;
@@ -1525,24 +1525,24 @@ fn branch_2(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let j1_free = 3.790273064519818e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.790273064519818e-19);
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
+    let slide3_a = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
-        + 0.7768010686602598 * slide3_p;
-    let t146 = w0_x - 0.29088833522944446 * slide3_p;
-    let t147 = w0_y + 0.49707832103632676 * slide3_p;
-    let t148 = w0_z - 0.3350895823358808 * slide3_p;
+    let slide2_a = 1.4026694727397795 * (height - 0.11820820044026925)
+        + 0.7768010686602598 * slide3_a;
+    let t146 = w0_x - 0.29088833522944446 * slide3_a;
+    let t147 = w0_y + 0.49707832103632676 * slide3_a;
+    let t148 = w0_z - 0.3350895823358808 * slide3_a;
     // cos θ1 = (x · radial) / ρ²
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
     };
     // sin θ1 = h1 · (x × radial) / ρ²
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         t131
@@ -1551,7 +1551,7 @@ fn branch_2(
                 - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -1589,14 +1589,14 @@ fn branch_2(
     let t282 = 0.8179385842370391 * t279;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t280
-        + (j1_cos_p * (g6_x - t280)
-            - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_a * (g6_x - t280)
+            - j1_sin_a * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * (g6_y + t281)
-        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b1_y = j1_cos_a * (g6_y + t281)
+        + j1_sin_a * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * (g6_z + t282)
-        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let v_b1_z = j1_cos_a * (g6_z + t282)
+        - j1_sin_a * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
     let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
     let t312 = 0.5193670476948382 * t311;
@@ -1604,14 +1604,14 @@ fn branch_2(
     let t314 = 0.8179385842370391 * t311;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t312
-        + (j1_cos_p * (gx_x - t312)
-            - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_a * (gx_x - t312)
+            - j1_sin_a * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * (gx_y + t313)
-        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b1_y = j1_cos_a * (gx_y + t313)
+        + j1_sin_a * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * (gx_z + t314)
-        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b1_z = j1_cos_a * (gx_z + t314)
+        - j1_sin_a * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
@@ -1644,25 +1644,25 @@ fn branch_2(
     let t480 = 0.31674537350149495 * t478;
     let t481 = 0.9396730670277007 * t478;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t394 + (t387 - 0.35368845495650103 * t349);
+    let z_b1b_x = t394 + (t387 - 0.35368845495650103 * t349);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 0.8672481684250324 * t349 - t389 - t395;
+    let z_b1b_y = 0.8672481684250324 * t349 - t389 - t395;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t390 - 2.572822887006619 * t349 - t396;
+    let z_b1b_z = t390 - 2.572822887006619 * t349 - t396;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.8297406473129645
-        * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
-            - 0.4659052429827611 * z_b1m_z);
+    let j5_cos_b1b = 1.8297406473129645
+        * (0.4777992078809706 * z_b1b_x - 0.318065659982822 * z_b1b_y
+            - 0.4659052429827611 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.8297406473129645
+    let j5_sin_b1b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1m_y + 0.8714779141183223 * z_b1m_x)
+            * (0.4834853743786345 * z_b1b_y + 0.8714779141183223 * z_b1b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1m_y - 0.8714779141183223 * z_b1m_z)
+                * (0.08226869371717187 * z_b1b_y - 0.8714779141183223 * z_b1b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
+                    * (0.08226869371717187 * z_b1b_x + 0.4834853743786345 * z_b1b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t587 = t394 + (t387 - 0.12917776692663924 * t432);
     let t588 = 0.31674537350149495 * t432 - t389 - t395;
     let t589 = t390 - 0.9396730670277007 * t432 - t396;
@@ -1675,20 +1675,20 @@ fn branch_2(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t611;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t594 * t614 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t594 * t614 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t608 * t614 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t608 * t614 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t632 = (xv_b1_x + t479) * j4_cos_b1m
-        - (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y) * j4_sin_b1m
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t632 = (xv_b1_x + t479) * j4_cos_b1b
+        - (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y) * j4_sin_b1b
         - t479;
     let t633 = t480
-        + ((xv_b1_y - t480) * j4_cos_b1m
+        + ((xv_b1_y - t480) * j4_cos_b1b
             - (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x)
-                * j4_sin_b1m);
-    let t634 = (xv_b1_z + t481) * j4_cos_b1m
-        + (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x) * j4_sin_b1m
+                * j4_sin_b1b);
+    let t634 = (xv_b1_z + t481) * j4_cos_b1b
+        + (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x) * j4_sin_b1b
         - t481;
     let t639 = 0.569696512704339 * t634
         + (0.008443901475437254 * t632 - 0.8218117691663878 * t633);
@@ -1696,30 +1696,30 @@ fn branch_2(
     let t641 = 0.8218117691663878 * t639;
     let t642 = 0.569696512704339 * t639;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t640
-        + (j5_cos_b1m * (t632 - t640)
-            + j5_sin_b1m * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
+    let y6_b1b_x = t640
+        + (j5_cos_b1b * (t632 - t640)
+            + j5_sin_b1b * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t633 + t641)
-        - j5_sin_b1m * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
+    let y6_b1b_y = j5_cos_b1b * (t633 + t641)
+        - j5_sin_b1b * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t642
-        + (j5_cos_b1m * (t634 - t642)
-            - j5_sin_b1m * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
+    let y6_b1b_z = t642
+        + (j5_cos_b1b * (t634 - t642)
+            - j5_sin_b1b * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1m_y + 0.07193921016870876 * y6_b1m_x)
+            * (0.039911001067778125 * y6_b1b_y + 0.07193921016870876 * y6_b1b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1m_z + 0.9966101855961891 * y6_b1m_y)
+                * (0.07193921016870876 * y6_b1b_z + 0.9966101855961891 * y6_b1b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1m_x
-                        - 0.039911001067778125 * y6_b1m_z))),
-        0.9966101855961891 * y6_b1m_z
-            + (0.039911001067778125 * y6_b1m_x - 0.07193921016870876 * y6_b1m_y),
+                    * (0.9966101855961891 * y6_b1b_x
+                        - 0.039911001067778125 * y6_b1b_z))),
+        0.9966101855961891 * y6_b1b_z
+            + (0.039911001067778125 * y6_b1b_x - 0.07193921016870876 * y6_b1b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, slide2_p, slide3_p, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, slide2_a, slide3_a, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -1776,14 +1776,14 @@ fn branch_3(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
-            - 0.038083310507593754 * r02) - 0.8624805996216751;
+        + (0.002101385941592647 * r00 + 0.0020109803706870044 * r01
+            - 0.038083310507595336 * r02) - 0.8624805996216751;
     let t40 = py
-        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
-            - 0.038083310507593754 * r12) + 0.2568536871780642;
+        + (0.002101385941592647 * r10 + 0.0020109803706870044 * r11
+            - 0.038083310507595336 * r12) + 0.2568536871780642;
     let t42 = pz
-        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
-            - 0.038083310507593754 * r22) - 0.027184467307596938;
+        + (0.002101385941592647 * r20 + 0.0020109803706870044 * r21
+            - 0.038083310507595336 * r22) - 0.027184467307596938;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
     let wc_x = 0.6263556831868291 * t42
         + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
@@ -1808,11 +1808,11 @@ fn branch_3(
     // ρ² = |(c_t − p1)⊥h1|²
     let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
     // W = A0 + z A1: the radial part with slide 3 at zero (x)
-    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    let w0_x = 0.6929980374229754 * height - 0.0820675161392413;
     // W = A0 + z A1: the radial part with slide 3 at zero (y)
-    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887546;
     // W = A0 + z A1: the radial part with slide 3 at zero (z)
-    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    let w0_z = 0.24194839912612498 * height - 0.030209353871834356;
     // D · W
     let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
         - 0.3350895823358808 * w0_z;
@@ -1822,25 +1822,25 @@ fn branch_3(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let j1_free = 3.790273064519818e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.790273064519818e-19);
     let t173 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t173;
+    let slide3_b = -t173;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
+    let slide2_b = 1.4026694727397795 * (height - 0.11820820044026925)
         - 0.7768010686602598 * t173;
     let t180 = w0_x + 0.29088833522944446 * t173;
     let t181 = w0_y - 0.49707832103632676 * t173;
     let t182 = w0_z + 0.3350895823358808 * t173;
     // cos θ1 = (x · radial) / ρ²
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
     };
     // sin θ1 = h1 · (x × radial) / ρ²
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         t131
@@ -1849,7 +1849,7 @@ fn branch_3(
                 - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -1892,24 +1892,24 @@ fn branch_3(
     let t314 = 0.8179385842370391 * t311;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t280
-        + (j1_cos_m * (g6_x - t280)
-            - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_b * (g6_x - t280)
+            - j1_sin_b * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * (g6_y + t281)
-        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b2_y = j1_cos_b * (g6_y + t281)
+        + j1_sin_b * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * (g6_z + t282)
-        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let v_b2_z = j1_cos_b * (g6_z + t282)
+        - j1_sin_b * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t312
-        + (j1_cos_m * (gx_x - t312)
-            - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_b * (gx_x - t312)
+            - j1_sin_b * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * (gx_y + t313)
-        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b2_y = j1_cos_b * (gx_y + t313)
+        + j1_sin_b * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * (gx_z + t314)
-        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b2_z = j1_cos_b * (gx_z + t314)
+        - j1_sin_b * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
@@ -1936,25 +1936,25 @@ fn branch_3(
     let t750 = 0.06565761653993642 * j5_gamma_b2;
     let t751 = 0.10348524244829747 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t746 - 0.35368845495650103 * t717 - t749;
+    let z_b2a_x = t746 - 0.35368845495650103 * t717 - t749;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t750 + (0.8672481684250324 * t717 - t747);
+    let z_b2a_y = t750 + (0.8672481684250324 * t717 - t747);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t751 + (t748 - 2.572822887006619 * t717);
+    let z_b2a_z = t751 + (t748 - 2.572822887006619 * t717);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.8297406473129645
-        * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
-            - 0.4659052429827611 * z_b2p_z);
+    let j5_cos_b2a = 1.8297406473129645
+        * (0.4777992078809706 * z_b2a_x - 0.318065659982822 * z_b2a_y
+            - 0.4659052429827611 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.8297406473129645
+    let j5_sin_b2a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2p_y + 0.8714779141183223 * z_b2p_x)
+            * (0.4834853743786345 * z_b2a_y + 0.8714779141183223 * z_b2a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2p_y - 0.8714779141183223 * z_b2p_z)
+                * (0.08226869371717187 * z_b2a_y - 0.8714779141183223 * z_b2a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
+                    * (0.08226869371717187 * z_b2a_x + 0.4834853743786345 * z_b2a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t780 = j5_alpha_b2 - j5_a_b2;
     let t787 = t746 - 0.12917776692663924 * t780 - t749;
     let t788 = t750 + (0.31674537350149495 * t780 - t747);
@@ -1968,25 +1968,25 @@ fn branch_3(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t811;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
     let t826 = 0.12917776692663924 * t825;
     let t827 = 0.31674537350149495 * t825;
     let t828 = 0.9396730670277007 * t825;
-    let t850 = j4_cos_b2p * (xv_b2_x + t826)
-        - j4_sin_b2p * (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y)
+    let t850 = j4_cos_b2a * (xv_b2_x + t826)
+        - j4_sin_b2a * (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y)
         - t826;
     let t851 = t827
-        + (j4_cos_b2p * (xv_b2_y - t827)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t827)
+            - j4_sin_b2a
                 * (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x));
-    let t852 = j4_cos_b2p * (xv_b2_z + t828)
-        + j4_sin_b2p * (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x)
+    let t852 = j4_cos_b2a * (xv_b2_z + t828)
+        + j4_sin_b2a * (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x)
         - t828;
     let t857 = 0.569696512704339 * t852
         + (0.008443901475437254 * t850 - 0.8218117691663878 * t851);
@@ -1994,30 +1994,30 @@ fn branch_3(
     let t859 = 0.8218117691663878 * t857;
     let t860 = 0.569696512704339 * t857;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t858
-        + (j5_cos_b2p * (t850 - t858)
-            + j5_sin_b2p * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
+    let y6_b2a_x = t858
+        + (j5_cos_b2a * (t850 - t858)
+            + j5_sin_b2a * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t851 + t859)
-        - j5_sin_b2p * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
+    let y6_b2a_y = j5_cos_b2a * (t851 + t859)
+        - j5_sin_b2a * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t860
-        + (j5_cos_b2p * (t852 - t860)
-            - j5_sin_b2p * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
+    let y6_b2a_z = t860
+        + (j5_cos_b2a * (t852 - t860)
+            - j5_sin_b2a * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2p_y + 0.07193921016870876 * y6_b2p_x)
+            * (0.039911001067778125 * y6_b2a_y + 0.07193921016870876 * y6_b2a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2p_z + 0.9966101855961891 * y6_b2p_y)
+                * (0.07193921016870876 * y6_b2a_z + 0.9966101855961891 * y6_b2a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2p_x
-                        - 0.039911001067778125 * y6_b2p_z))),
-        0.9966101855961891 * y6_b2p_z
-            + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
+                    * (0.9966101855961891 * y6_b2a_x
+                        - 0.039911001067778125 * y6_b2a_z))),
+        0.9966101855961891 * y6_b2a_z
+            + (0.039911001067778125 * y6_b2a_x - 0.07193921016870876 * y6_b2a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, slide2_m, slide3_m, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_b, slide2_b, slide3_b, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -2074,14 +2074,14 @@ fn branch_4(
     let ref4_cos = reference[2];
     let ref4_sin = reference[3];
     let t39 = px
-        + (0.002101385941602156 * r00 + 0.0020109803706884234 * r01
-            - 0.038083310507593754 * r02) - 0.8624805996216751;
+        + (0.002101385941592647 * r00 + 0.0020109803706870044 * r01
+            - 0.038083310507595336 * r02) - 0.8624805996216751;
     let t40 = py
-        + (0.002101385941602156 * r10 + 0.0020109803706884234 * r11
-            - 0.038083310507593754 * r12) + 0.2568536871780642;
+        + (0.002101385941592647 * r10 + 0.0020109803706870044 * r11
+            - 0.038083310507595336 * r12) + 0.2568536871780642;
     let t42 = pz
-        + (0.002101385941602156 * r20 + 0.0020109803706884234 * r21
-            - 0.038083310507593754 * r22) - 0.027184467307596938;
+        + (0.002101385941592647 * r20 + 0.0020109803706870044 * r21
+            - 0.038083310507595336 * r22) - 0.027184467307596938;
     // wrist-center target c_t = B⁻¹ (T_R c_tool + T_t), c_tool = (0.002101, 0.002011, -0.038083) m (x)
     let wc_x = 0.6263556831868291 * t42
         + (0.7615120585877142 * t39 + 0.16666716162778683 * t40);
@@ -2106,11 +2106,11 @@ fn branch_4(
     // ρ² = |(c_t − p1)⊥h1|²
     let rho2 = radial_z * radial_z + (radial_x * radial_x + radial_y * radial_y);
     // W = A0 + z A1: the radial part with slide 3 at zero (x)
-    let w0_x = 0.6929980374229754 * height - 0.08206751613923773;
+    let w0_x = 0.6929980374229754 * height - 0.0820675161392413;
     // W = A0 + z A1: the radial part with slide 3 at zero (y)
-    let w0_y = 0.6547490679980396 * height - 0.07239180464887754;
+    let w0_y = 0.6547490679980396 * height - 0.07239180464887546;
     // W = A0 + z A1: the radial part with slide 3 at zero (z)
-    let w0_z = 0.24194839912612498 * height - 0.030209353871831424;
+    let w0_z = 0.24194839912612498 * height - 0.030209353871834356;
     // D · W
     let dw = 0.49707832103632676 * w0_y - 0.29088833522944446 * w0_x
         - 0.3350895823358808 * w0_z;
@@ -2120,25 +2120,25 @@ fn branch_4(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
+    let j1_free = 3.790273064519818e-19 - rho2;
+    let t131 = 1.0 / rho2.max(3.790273064519818e-19);
     let t173 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t173;
+    let slide3_b = -t173;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
+    let slide2_b = 1.4026694727397795 * (height - 0.11820820044026925)
         - 0.7768010686602598 * t173;
     let t180 = w0_x + 0.29088833522944446 * t173;
     let t181 = w0_y - 0.49707832103632676 * t173;
     let t182 = w0_z + 0.3350895823358808 * t173;
     // cos θ1 = (x · radial) / ρ²
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
     };
     // sin θ1 = h1 · (x × radial) / ρ²
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         t131
@@ -2147,7 +2147,7 @@ fn branch_4(
                 - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -2190,24 +2190,24 @@ fn branch_4(
     let t314 = 0.8179385842370391 * t311;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t280
-        + (j1_cos_m * (g6_x - t280)
-            - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_b * (g6_x - t280)
+            - j1_sin_b * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * (g6_y + t281)
-        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b2_y = j1_cos_b * (g6_y + t281)
+        + j1_sin_b * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * (g6_z + t282)
-        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let v_b2_z = j1_cos_b * (g6_z + t282)
+        - j1_sin_b * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t312
-        + (j1_cos_m * (gx_x - t312)
-            - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_b * (gx_x - t312)
+            - j1_sin_b * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * (gx_y + t313)
-        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b2_y = j1_cos_b * (gx_y + t313)
+        + j1_sin_b * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * (gx_z + t314)
-        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b2_z = j1_cos_b * (gx_z + t314)
+        - j1_sin_b * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
@@ -2240,25 +2240,25 @@ fn branch_4(
     let t827 = 0.31674537350149495 * t825;
     let t828 = 0.9396730670277007 * t825;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t749 + (t746 - 0.35368845495650103 * t717);
+    let z_b2b_x = t749 + (t746 - 0.35368845495650103 * t717);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 0.8672481684250324 * t717 - t747 - t750;
+    let z_b2b_y = 0.8672481684250324 * t717 - t747 - t750;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t748 - 2.572822887006619 * t717 - t751;
+    let z_b2b_z = t748 - 2.572822887006619 * t717 - t751;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.8297406473129645
-        * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
-            - 0.4659052429827611 * z_b2m_z);
+    let j5_cos_b2b = 1.8297406473129645
+        * (0.4777992078809706 * z_b2b_x - 0.318065659982822 * z_b2b_y
+            - 0.4659052429827611 * z_b2b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.8297406473129645
+    let j5_sin_b2b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2m_y + 0.8714779141183223 * z_b2m_x)
+            * (0.4834853743786345 * z_b2b_y + 0.8714779141183223 * z_b2b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2m_y - 0.8714779141183223 * z_b2m_z)
+                * (0.08226869371717187 * z_b2b_y - 0.8714779141183223 * z_b2b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
+                    * (0.08226869371717187 * z_b2b_x + 0.4834853743786345 * z_b2b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t931 = t749 + (t746 - 0.12917776692663924 * t780);
     let t932 = 0.31674537350149495 * t780 - t747 - t750;
     let t933 = t748 - 0.9396730670277007 * t780 - t751;
@@ -2271,20 +2271,20 @@ fn branch_4(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t955;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t938 * t958 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t938 * t958 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t952 * t958 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t952 * t958 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t974 = (xv_b2_x + t826) * j4_cos_b2m
-        - (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y) * j4_sin_b2m
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t974 = (xv_b2_x + t826) * j4_cos_b2b
+        - (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y) * j4_sin_b2b
         - t826;
     let t975 = t827
-        + ((xv_b2_y - t827) * j4_cos_b2m
+        + ((xv_b2_y - t827) * j4_cos_b2b
             - (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x)
-                * j4_sin_b2m);
-    let t976 = (xv_b2_z + t828) * j4_cos_b2m
-        + (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x) * j4_sin_b2m
+                * j4_sin_b2b);
+    let t976 = (xv_b2_z + t828) * j4_cos_b2b
+        + (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x) * j4_sin_b2b
         - t828;
     let t981 = 0.569696512704339 * t976
         + (0.008443901475437254 * t974 - 0.8218117691663878 * t975);
@@ -2292,30 +2292,30 @@ fn branch_4(
     let t983 = 0.8218117691663878 * t981;
     let t984 = 0.569696512704339 * t981;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t982
-        + (j5_cos_b2m * (t974 - t982)
-            + j5_sin_b2m * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
+    let y6_b2b_x = t982
+        + (j5_cos_b2b * (t974 - t982)
+            + j5_sin_b2b * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t975 + t983)
-        - j5_sin_b2m * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
+    let y6_b2b_y = j5_cos_b2b * (t975 + t983)
+        - j5_sin_b2b * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t984
-        + (j5_cos_b2m * (t976 - t984)
-            - j5_sin_b2m * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
+    let y6_b2b_z = t984
+        + (j5_cos_b2b * (t976 - t984)
+            - j5_sin_b2b * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2m_y + 0.07193921016870876 * y6_b2m_x)
+            * (0.039911001067778125 * y6_b2b_y + 0.07193921016870876 * y6_b2b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2m_z + 0.9966101855961891 * y6_b2m_y)
+                * (0.07193921016870876 * y6_b2b_z + 0.9966101855961891 * y6_b2b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2m_x
-                        - 0.039911001067778125 * y6_b2m_z))),
-        0.9966101855961891 * y6_b2m_z
-            + (0.039911001067778125 * y6_b2m_x - 0.07193921016870876 * y6_b2m_y),
+                    * (0.9966101855961891 * y6_b2b_x
+                        - 0.039911001067778125 * y6_b2b_z))),
+        0.9966101855961891 * y6_b2b_z
+            + (0.039911001067778125 * y6_b2b_x - 0.07193921016870876 * y6_b2b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, slide2_m, slide3_m, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_b, slide2_b, slide3_b, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -2344,7 +2344,7 @@ mod tests {
     use super::{branch_of, forward, solve, JOINTS, JOINT_TABLE};
     /// The arm's length scale for position errors (metres).
     #[allow(clippy::approx_constant, clippy::excessive_precision)]
-    const REACH: f64 = 6.156519361229869;
+    const REACH: f64 = 6.156519361229865;
     /// A linear congruential generator (Knuth's MMIX constants): uniform in [0, 1).
     fn next(state: &mut u64) -> f64 {
         *state = state

@@ -555,7 +555,7 @@ pub fn solve_branch(
         } => branch_8(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -641,20 +641,20 @@ fn candidates(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
     let t117 = j1_a * j1_k;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
+    let j1_cos_a = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
+    let j1_sin_a = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
+    let j1_cos_b = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
+    let j1_sin_b = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
     let t132 = ::armforge_runtime::math::abs(j1_e);
     let t133 = 0.7610978269683933 * t96;
     let t134 = 0.6486238403189734 * t96;
@@ -666,161 +666,161 @@ fn candidates(
     let t144 = 0.004148680977921899 * u_x + 0.7610978269683933 * u_z;
     let t147 = 0.7610978269683933 * u_y + 0.6486238403189734 * u_x;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * t136 - j1_sin_p * t141 - t133 + 0.1270793410860917;
+    let w_a_x = j1_cos_a * t136 - j1_sin_a * t141 - t133 + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134 + (j1_cos_p * t137 - j1_sin_p * t144) - 0.1426250888590215;
+    let w_a_y = t134 + (j1_cos_a * t137 - j1_sin_a * t144) - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135 + (j1_cos_p * t138 + j1_sin_p * t147) - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let w_a_z = t135 + (j1_cos_a * t138 + j1_sin_a * t147) - 0.013836588814141002;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * t136 - j1_sin_m * t141 - t133 + 0.1270793410860917;
+    let w_b_x = j1_cos_b * t136 - j1_sin_b * t141 - t133 + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134 + (j1_cos_m * t137 - j1_sin_m * t144) - 0.1426250888590215;
+    let w_b_y = t134 + (j1_cos_b * t137 - j1_sin_b * t144) - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135 + (j1_cos_m * t138 + j1_sin_m * t147) - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let w_b_z = t135 + (j1_cos_b * t138 + j1_sin_b * t147) - 0.013836588814141002;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449181)
             .max(1.9858518512535248e-20);
-    let t238 = 0.9901136168642846 * j3_cos_psi_p;
-    let t240 = 0.14026769300136338 * j3_sin_psi_p;
+    let t238 = 0.9901136168642846 * j3_cos_psi_a;
+    let t240 = 0.14026769300136338 * j3_sin_psi_a;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = t240 - t238;
-    let t242 = 0.14026769300136338 * j3_cos_psi_p;
-    let t243 = 0.9901136168642846 * j3_sin_psi_p;
+    let j3_cos_aa = t240 - t238;
+    let t242 = 0.14026769300136338 * j3_cos_psi_a;
+    let t243 = 0.9901136168642846 * j3_sin_psi_a;
     let t244 = t242 + t243;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+    let j3_sin_aa = -t244;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_aa = -::armforge_runtime::math::atan2(j3_sin_aa, j3_cos_aa);
+    let t266 = 0.2467123080373334 * j3_cos_aa - 0.02011160130528487 * t244
         - 0.7702009139951951;
     let t267 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
-    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+        - (0.040533312372973224 * j3_cos_aa + 0.09639828417151698 * t244);
+    let t268 = 0.004587381288611317 * j3_cos_aa + 0.22985615222970415 * t244
         + 0.08633983745217953;
-    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
-    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
-        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
-            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    let t273 = w_a_z * t268 + (w_a_x * t266 + w_a_y * t267);
+    let t287 = 0.393370490499651 * (w_a_y * t266 - w_a_x * t267)
+        + (0.14192355343258098 * (w_a_z * t267 - w_a_y * t268)
+            + 0.9083597096883664 * (w_a_x * t268 - w_a_z * t266));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = j2_inv_p * t273;
-    let t290 = j2_inv_p * t287;
+    let q2_aa = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = j2_inv_a * t273;
+    let t290 = j2_inv_a * t287;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let c23_aa = j3_cos_aa * t289 + t244 * t290;
     let t296 = t238 + t240;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pm = -t296;
+    let j3_cos_ab = -t296;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t243 - t242;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+    let j3_sin_ab = t243 - t242;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_ab = -::armforge_runtime::math::atan2(j3_sin_ab, j3_cos_ab);
+    let t310 = 0.02011160130528487 * j3_sin_ab - 0.2467123080373334 * t296
         - 0.7702009139951951;
-    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_ab
         + 0.082947433224273;
     let t312 = 0.08633983745217953
-        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
-    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
-    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
-        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
-            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_ab);
+    let t317 = w_a_z * t312 + (w_a_x * t310 + w_a_y * t311);
+    let t331 = 0.393370490499651 * (w_a_y * t310 - w_a_x * t311)
+        + (0.14192355343258098 * (w_a_z * t311 - w_a_y * t312)
+            + 0.9083597096883664 * (w_a_x * t312 - w_a_z * t310));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
-    let t333 = j2_inv_p * t317;
-    let t334 = j2_inv_p * t331;
-    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let q2_ab = ::armforge_runtime::math::atan2(t331, t317);
+    let t333 = j2_inv_a * t317;
+    let t334 = j2_inv_a * t331;
+    let t337 = t296 * t333 + j3_sin_ab * t334;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449181)
             .max(1.9858518512535248e-20);
-    let t353 = 0.9901136168642846 * j3_cos_psi_m;
-    let t354 = 0.14026769300136338 * j3_sin_psi_m;
+    let t353 = 0.9901136168642846 * j3_cos_psi_b;
+    let t354 = 0.14026769300136338 * j3_sin_psi_b;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mp = t354 - t353;
-    let t356 = 0.14026769300136338 * j3_cos_psi_m;
-    let t357 = 0.9901136168642846 * j3_sin_psi_m;
+    let j3_cos_ba = t354 - t353;
+    let t356 = 0.14026769300136338 * j3_cos_psi_b;
+    let t357 = 0.9901136168642846 * j3_sin_psi_b;
     let t358 = t356 + t357;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = -t358;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_mp = -::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t371 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t358
+    let j3_sin_ba = -t358;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_ba = -::armforge_runtime::math::atan2(j3_sin_ba, j3_cos_ba);
+    let t371 = 0.2467123080373334 * j3_cos_ba - 0.02011160130528487 * t358
         - 0.7702009139951951;
     let t372 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t358);
-    let t373 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t358
+        - (0.040533312372973224 * j3_cos_ba + 0.09639828417151698 * t358);
+    let t373 = 0.004587381288611317 * j3_cos_ba + 0.22985615222970415 * t358
         + 0.08633983745217953;
-    let t378 = w_m_z * t373 + (w_m_x * t371 + w_m_y * t372);
-    let t392 = 0.393370490499651 * (w_m_y * t371 - w_m_x * t372)
-        + (0.14192355343258098 * (w_m_z * t372 - w_m_y * t373)
-            + 0.9083597096883664 * (w_m_x * t373 - w_m_z * t371));
+    let t378 = w_b_z * t373 + (w_b_x * t371 + w_b_y * t372);
+    let t392 = 0.393370490499651 * (w_b_y * t371 - w_b_x * t372)
+        + (0.14192355343258098 * (w_b_z * t372 - w_b_y * t373)
+            + 0.9083597096883664 * (w_b_x * t373 - w_b_z * t371));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
-    let t394 = j2_inv_m * t378;
-    let t395 = j2_inv_m * t392;
+    let q2_ba = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_b * t378;
+    let t395 = j2_inv_b * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t394 + t358 * t395;
+    let c23_ba = j3_cos_ba * t394 + t358 * t395;
     let t401 = t353 + t354;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mm = -t401;
+    let j3_cos_bb = -t401;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = t357 - t356;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_mm = -::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
-    let t415 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t401
+    let j3_sin_bb = t357 - t356;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_bb = -::armforge_runtime::math::atan2(j3_sin_bb, j3_cos_bb);
+    let t415 = 0.02011160130528487 * j3_sin_bb - 0.2467123080373334 * t401
         - 0.7702009139951951;
-    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_mm
+    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_bb
         + 0.082947433224273;
     let t417 = 0.08633983745217953
-        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_mm);
-    let t422 = w_m_z * t417 + (w_m_x * t415 + w_m_y * t416);
-    let t436 = 0.393370490499651 * (w_m_y * t415 - w_m_x * t416)
-        + (0.14192355343258098 * (w_m_z * t416 - w_m_y * t417)
-            + 0.9083597096883664 * (w_m_x * t417 - w_m_z * t415));
+        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_bb);
+    let t422 = w_b_z * t417 + (w_b_x * t415 + w_b_y * t416);
+    let t436 = 0.393370490499651 * (w_b_y * t415 - w_b_x * t416)
+        + (0.14192355343258098 * (w_b_z * t416 - w_b_y * t417)
+            + 0.9083597096883664 * (w_b_x * t417 - w_b_z * t415));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t436, t422);
-    let t438 = j2_inv_m * t422;
-    let t439 = j2_inv_m * t436;
-    let t442 = t401 * t438 + j3_sin_mm * t439;
+    let q2_bb = ::armforge_runtime::math::atan2(t436, t422);
+    let t438 = j2_inv_b * t422;
+    let t439 = j2_inv_b * t436;
+    let t442 = t401 * t438 + j3_sin_bb * t439;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -862,9 +862,9 @@ fn candidates(
     let t524 = 0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y;
     let t527 = 0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z;
     let t530 = 0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x;
-    let t540 = j1_cos_p * t519 - j1_sin_p * t524 - t516;
-    let t541 = t517 + (j1_cos_p * t520 - j1_sin_p * t527);
-    let t542 = t518 + (j1_cos_p * t521 + j1_sin_p * t530);
+    let t540 = j1_cos_a * t519 - j1_sin_a * t524 - t516;
+    let t541 = t517 + (j1_cos_a * t520 - j1_sin_a * t527);
+    let t542 = t518 + (j1_cos_a * t521 + j1_sin_a * t530);
     let t547 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t548 = 0.7610978269683933 * t547;
@@ -876,10 +876,10 @@ fn candidates(
     let t556 = 0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y;
     let t559 = 0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z;
     let t562 = 0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x;
-    let t572 = j1_cos_p * t551 - j1_sin_p * t556 - t548;
-    let t573 = t549 + (j1_cos_p * t552 - j1_sin_p * t559);
-    let t574 = t550 + (j1_cos_p * t553 + j1_sin_p * t562);
-    let t575 = t244 * t289 - j3_cos_pp * t290;
+    let t572 = j1_cos_a * t551 - j1_sin_a * t556 - t548;
+    let t573 = t549 + (j1_cos_a * t552 - j1_sin_a * t559);
+    let t574 = t550 + (j1_cos_a * t553 + j1_sin_a * t562);
+    let t575 = t244 * t289 - j3_cos_aa * t290;
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -892,11 +892,11 @@ fn candidates(
     let t592 = 0.393370490499651 * t540 - 0.14192355343258098 * t542;
     let t595 = 0.14192355343258098 * t541 - 0.9083597096883664 * t540;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t581 + (c23_pp * t584 + t575 * t589);
+    let v_b1_x = t581 + (c23_aa * t584 + t575 * t589);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t582 + (c23_pp * t585 + t575 * t592);
+    let v_b1_y = t582 + (c23_aa * t585 + t575 * t592);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t583 + (c23_pp * t586 + t575 * t595);
+    let v_b1_z = t583 + (c23_aa * t586 + t575 * t595);
     let t612 = 0.393370490499651 * t574
         + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
     let t613 = 0.14192355343258098 * t612;
@@ -909,11 +909,11 @@ fn candidates(
     let t624 = 0.393370490499651 * t572 - 0.14192355343258098 * t574;
     let t627 = 0.14192355343258098 * t573 - 0.9083597096883664 * t572;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t613 + (c23_pp * t616 + t575 * t621);
+    let xv_b1_x = t613 + (c23_aa * t616 + t575 * t621);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t614 + (c23_pp * t617 + t575 * t624);
+    let xv_b1_y = t614 + (c23_aa * t617 + t575 * t624);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t615 + (c23_pp * t618 + t575 * t627);
+    let xv_b1_z = t615 + (c23_aa * t618 + t575 * t627);
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.8589206607284425 * v_b1_z
         + (0.01853429342821227 * v_b1_x + 0.51177317098587 * v_b1_y);
@@ -928,35 +928,35 @@ fn candidates(
     let t672 = 0.5479704330528009 * j5_gamma_b1;
     let t674 = 0.3429623606197284 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t671;
+    let z_b1a_x = 0.01853429342821227 * j5_a_b1 + t671;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t672;
+    let z_b1a_y = 0.51177317098587 * j5_a_b1 + t672;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t674;
-    let t685 = 0.18309546554259973 * z_b1p_z
-        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    let z_b1a_z = 0.8589206607284425 * j5_a_b1 - t674;
+    let t685 = 0.18309546554259973 * z_b1a_z
+        + (0.6486710312075331 * z_b1a_x + 0.7387164163397849 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t685;
+    let j5_cos_b1a = -t685;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 0.38030529548240455
-        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+    let j5_sin_b1a = 0.38030529548240455
+        * (0.7387164163397849 * z_b1a_x - 0.6486710312075331 * z_b1a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            * (0.1830954655425997 * z_b1a_y - 0.7387164163397849 * z_b1a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+                * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_x * t671 + v_b1_y * t672 - v_b1_z * t674) * t725
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b1_y * t671 - v_b1_x * t672)
@@ -964,56 +964,56 @@ fn candidates(
                 - 0.51177317098587 * (v_b1_x * t674 + v_b1_z * t671))) * t725
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t736 = 0.8589206607284425 * xv_b1_z
         + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
     let t737 = 0.01853429342821227 * t736;
     let t738 = 0.51177317098587 * t736;
     let t739 = 0.8589206607284425 * t736;
     let t761 = t737
-        + (j4_cos_b1p * (xv_b1_x - t737)
-            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+        + (j4_cos_b1a * (xv_b1_x - t737)
+            - j4_sin_b1a * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
     let t762 = t738
-        + (j4_cos_b1p * (xv_b1_y - t738)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t738)
+            - j4_sin_b1a
                 * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
     let t763 = t739
-        + (j4_cos_b1p * (xv_b1_z - t739)
-            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+        + (j4_cos_b1a * (xv_b1_z - t739)
+            - j4_sin_b1a * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
     let t768 = 0.38030529548240455 * t763
         + (0.6461820612405205 * t761 - 0.6616771312044819 * t762);
     let t769 = 0.6461820612405205 * t768;
     let t770 = 0.6616771312044819 * t768;
     let t771 = 0.38030529548240455 * t768;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t769
-        + (j5_sin_b1p * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
+    let y6_b1a_x = t769
+        + (j5_sin_b1a * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
             - t685 * (t761 - t769));
     let t794 = t770
         + (t685 * (t762 + t770)
-            + j5_sin_b1p * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
+            + j5_sin_b1a * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t771
+    let y6_b1a_z = t771
         - (t685 * (t763 - t771)
-            + j5_sin_b1p * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
+            + j5_sin_b1a * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1p_x)
+            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1p_z)
+                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
-        0.9830951380704407 * y6_b1p_z
-            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1p_x),
+                    * (0.9830951380704407 * y6_b1a_x + 0.1208110180221759 * y6_b1a_z))),
+        0.9830951380704407 * y6_b1a_z
+            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    let q4_b1b = q4_b1a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b1m = -4.299963472122064 - q5_b1p;
+    let q5_b1b = -4.299963472122064 - q5_b1a;
     // θ6 + π (mirror wrist branch)
-    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
-    let t825 = t296 * t334 - j3_sin_pm * t333;
+    let q6_b1b = q6_b1a + ::core::f64::consts::PI;
+    let t825 = t296 * t334 - j3_sin_ab * t333;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581 + (t589 * t825 - t337 * t584);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
@@ -1040,35 +1040,35 @@ fn candidates(
     let t875 = 0.5479704330528009 * j5_gamma_b2;
     let t876 = 0.3429623606197284 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t874;
+    let z_b2a_x = 0.01853429342821227 * j5_a_b2 + t874;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t875;
+    let z_b2a_y = 0.51177317098587 * j5_a_b2 + t875;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t876;
-    let t884 = 0.18309546554259973 * z_b2p_z
-        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    let z_b2a_z = 0.8589206607284425 * j5_a_b2 - t876;
+    let t884 = 0.18309546554259973 * z_b2a_z
+        + (0.6486710312075331 * z_b2a_x + 0.7387164163397849 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t884;
+    let j5_cos_b2a = -t884;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 0.38030529548240455
-        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+    let j5_sin_b2a = 0.38030529548240455
+        * (0.7387164163397849 * z_b2a_x - 0.6486710312075331 * z_b2a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            * (0.1830954655425997 * z_b2a_y - 0.7387164163397849 * z_b2a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+                * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_x * t874 + v_b2_y * t875 - v_b2_z * t876) * t921
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b2_y * t874 - v_b2_x * t875)
@@ -1076,62 +1076,62 @@ fn candidates(
                 - 0.51177317098587 * (v_b2_x * t876 + v_b2_z * t874))) * t921
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t932 = 0.8589206607284425 * xv_b2_z
         + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
     let t933 = 0.01853429342821227 * t932;
     let t934 = 0.51177317098587 * t932;
     let t935 = 0.8589206607284425 * t932;
     let t957 = t933
-        + (j4_cos_b2p * (xv_b2_x - t933)
-            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+        + (j4_cos_b2a * (xv_b2_x - t933)
+            - j4_sin_b2a * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
     let t958 = t934
-        + (j4_cos_b2p * (xv_b2_y - t934)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t934)
+            - j4_sin_b2a
                 * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
     let t959 = t935
-        + (j4_cos_b2p * (xv_b2_z - t935)
-            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+        + (j4_cos_b2a * (xv_b2_z - t935)
+            - j4_sin_b2a * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
     let t964 = 0.38030529548240455 * t959
         + (0.6461820612405205 * t957 - 0.6616771312044819 * t958);
     let t965 = 0.6461820612405205 * t964;
     let t966 = 0.6616771312044819 * t964;
     let t967 = 0.38030529548240455 * t964;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t965
-        + (j5_sin_b2p * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
+    let y6_b2a_x = t965
+        + (j5_sin_b2a * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
             - t884 * (t957 - t965));
     let t990 = t966
         + (t884 * (t958 + t966)
-            + j5_sin_b2p * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
+            + j5_sin_b2a * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t967
+    let y6_b2a_z = t967
         - (t884 * (t959 - t967)
-            + j5_sin_b2p * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
+            + j5_sin_b2a * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2p_x)
+            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2p_z)
+                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
-        0.9830951380704407 * y6_b2p_z
-            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2p_x),
+                    * (0.9830951380704407 * y6_b2a_x + 0.1208110180221759 * y6_b2a_z))),
+        0.9830951380704407 * y6_b2a_z
+            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    let q4_b2b = q4_b2a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b2m = -4.299963472122064 - q5_b2p;
+    let q5_b2b = -4.299963472122064 - q5_b2a;
     // θ6 + π (mirror wrist branch)
-    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
-    let t1025 = j1_cos_m * t519 - j1_sin_m * t524 - t516;
-    let t1026 = t517 + (j1_cos_m * t520 - j1_sin_m * t527);
-    let t1027 = t518 + (j1_cos_m * t521 + j1_sin_m * t530);
-    let t1037 = j1_cos_m * t551 - j1_sin_m * t556 - t548;
-    let t1038 = t549 + (j1_cos_m * t552 - j1_sin_m * t559);
-    let t1039 = t550 + (j1_cos_m * t553 + j1_sin_m * t562);
-    let t1040 = t358 * t394 - j3_cos_mp * t395;
+    let q6_b2b = q6_b2a + ::core::f64::consts::PI;
+    let t1025 = j1_cos_b * t519 - j1_sin_b * t524 - t516;
+    let t1026 = t517 + (j1_cos_b * t520 - j1_sin_b * t527);
+    let t1027 = t518 + (j1_cos_b * t521 + j1_sin_b * t530);
+    let t1037 = j1_cos_b * t551 - j1_sin_b * t556 - t548;
+    let t1038 = t549 + (j1_cos_b * t552 - j1_sin_b * t559);
+    let t1039 = t550 + (j1_cos_b * t553 + j1_sin_b * t562);
+    let t1040 = t358 * t394 - j3_cos_ba * t395;
     let t1045 = 0.393370490499651 * t1027
         + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
     let t1046 = 0.14192355343258098 * t1045;
@@ -1144,11 +1144,11 @@ fn candidates(
     let t1057 = 0.393370490499651 * t1025 - 0.14192355343258098 * t1027;
     let t1060 = 0.14192355343258098 * t1026 - 0.9083597096883664 * t1025;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1046 + (c23_mp * t1049 + t1040 * t1054);
+    let v_b3_x = t1046 + (c23_ba * t1049 + t1040 * t1054);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1047 + (c23_mp * t1050 + t1040 * t1057);
+    let v_b3_y = t1047 + (c23_ba * t1050 + t1040 * t1057);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t1048 + (c23_mp * t1051 + t1040 * t1060);
+    let v_b3_z = t1048 + (c23_ba * t1051 + t1040 * t1060);
     let t1077 = 0.393370490499651 * t1039
         + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
     let t1078 = 0.14192355343258098 * t1077;
@@ -1161,11 +1161,11 @@ fn candidates(
     let t1089 = 0.393370490499651 * t1037 - 0.14192355343258098 * t1039;
     let t1092 = 0.14192355343258098 * t1038 - 0.9083597096883664 * t1037;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1078 + (c23_mp * t1081 + t1040 * t1086);
+    let xv_b3_x = t1078 + (c23_ba * t1081 + t1040 * t1086);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1079 + (c23_mp * t1082 + t1040 * t1089);
+    let xv_b3_y = t1079 + (c23_ba * t1082 + t1040 * t1089);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t1080 + (c23_mp * t1083 + t1040 * t1092);
+    let xv_b3_z = t1080 + (c23_ba * t1083 + t1040 * t1092);
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.8589206607284425 * v_b3_z
         + (0.01853429342821227 * v_b3_x + 0.51177317098587 * v_b3_y);
@@ -1180,35 +1180,35 @@ fn candidates(
     let t1130 = 0.5479704330528009 * j5_gamma_b3;
     let t1131 = 0.3429623606197284 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1129;
+    let z_b3a_x = 0.01853429342821227 * j5_a_b3 + t1129;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1130;
+    let z_b3a_y = 0.51177317098587 * j5_a_b3 + t1130;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1131;
-    let t1139 = 0.18309546554259973 * z_b3p_z
-        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    let z_b3a_z = 0.8589206607284425 * j5_a_b3 - t1131;
+    let t1139 = 0.18309546554259973 * z_b3a_z
+        + (0.6486710312075331 * z_b3a_x + 0.7387164163397849 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1139;
+    let j5_cos_b3a = -t1139;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 0.38030529548240455
-        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+    let j5_sin_b3a = 0.38030529548240455
+        * (0.7387164163397849 * z_b3a_x - 0.6486710312075331 * z_b3a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            * (0.1830954655425997 * z_b3a_y - 0.7387164163397849 * z_b3a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+                * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_x * t1129 + v_b3_y * t1130 - v_b3_z * t1131) * t1176
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b3_y * t1129 - v_b3_x * t1130)
@@ -1216,56 +1216,56 @@ fn candidates(
                 - 0.51177317098587 * (v_b3_x * t1131 + v_b3_z * t1129))) * t1176
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1187 = 0.8589206607284425 * xv_b3_z
         + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
     let t1188 = 0.01853429342821227 * t1187;
     let t1189 = 0.51177317098587 * t1187;
     let t1190 = 0.8589206607284425 * t1187;
     let t1212 = t1188
-        + (j4_cos_b3p * (xv_b3_x - t1188)
-            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+        + (j4_cos_b3a * (xv_b3_x - t1188)
+            - j4_sin_b3a * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
     let t1213 = t1189
-        + (j4_cos_b3p * (xv_b3_y - t1189)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1189)
+            - j4_sin_b3a
                 * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
     let t1214 = t1190
-        + (j4_cos_b3p * (xv_b3_z - t1190)
-            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+        + (j4_cos_b3a * (xv_b3_z - t1190)
+            - j4_sin_b3a * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
     let t1219 = 0.38030529548240455 * t1214
         + (0.6461820612405205 * t1212 - 0.6616771312044819 * t1213);
     let t1220 = 0.6461820612405205 * t1219;
     let t1221 = 0.6616771312044819 * t1219;
     let t1222 = 0.38030529548240455 * t1219;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1220
-        + (j5_sin_b3p * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
+    let y6_b3a_x = t1220
+        + (j5_sin_b3a * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
             - t1139 * (t1212 - t1220));
     let t1245 = t1221
         + (t1139 * (t1213 + t1221)
-            + j5_sin_b3p * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
+            + j5_sin_b3a * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1222
+    let y6_b3a_z = t1222
         - (t1139 * (t1214 - t1222)
-            + j5_sin_b3p * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
+            + j5_sin_b3a * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3p_x)
+            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3p_z)
+                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
-        0.9830951380704407 * y6_b3p_z
-            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3p_x),
+                    * (0.9830951380704407 * y6_b3a_x + 0.1208110180221759 * y6_b3a_z))),
+        0.9830951380704407 * y6_b3a_z
+            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    let q4_b3b = q4_b3a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b3m = -4.299963472122064 - q5_b3p;
+    let q5_b3b = -4.299963472122064 - q5_b3a;
     // θ6 + π (mirror wrist branch)
-    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
-    let t1271 = t401 * t439 - j3_sin_mm * t438;
+    let q6_b3b = q6_b3a + ::core::f64::consts::PI;
+    let t1271 = t401 * t439 - j3_sin_bb * t438;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1046 + (t1054 * t1271 - t442 * t1049);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
@@ -1292,35 +1292,35 @@ fn candidates(
     let t1321 = 0.5479704330528009 * j5_gamma_b4;
     let t1322 = 0.3429623606197284 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1320;
+    let z_b4a_x = 0.01853429342821227 * j5_a_b4 + t1320;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1321;
+    let z_b4a_y = 0.51177317098587 * j5_a_b4 + t1321;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1322;
-    let t1330 = 0.18309546554259973 * z_b4p_z
-        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    let z_b4a_z = 0.8589206607284425 * j5_a_b4 - t1322;
+    let t1330 = 0.18309546554259973 * z_b4a_z
+        + (0.6486710312075331 * z_b4a_x + 0.7387164163397849 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1330;
+    let j5_cos_b4a = -t1330;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 0.38030529548240455
-        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+    let j5_sin_b4a = 0.38030529548240455
+        * (0.7387164163397849 * z_b4a_x - 0.6486710312075331 * z_b4a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            * (0.1830954655425997 * z_b4a_y - 0.7387164163397849 * z_b4a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+                * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_x * t1320 + v_b4_y * t1321 - v_b4_z * t1322) * t1367
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b4_y * t1320 - v_b4_x * t1321)
@@ -1328,58 +1328,58 @@ fn candidates(
                 - 0.51177317098587 * (v_b4_x * t1322 + v_b4_z * t1320))) * t1367
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1378 = 0.8589206607284425 * xv_b4_z
         + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
     let t1379 = 0.01853429342821227 * t1378;
     let t1380 = 0.51177317098587 * t1378;
     let t1381 = 0.8589206607284425 * t1378;
     let t1403 = t1379
-        + (j4_cos_b4p * (xv_b4_x - t1379)
-            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+        + (j4_cos_b4a * (xv_b4_x - t1379)
+            - j4_sin_b4a * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
     let t1404 = t1380
-        + (j4_cos_b4p * (xv_b4_y - t1380)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1380)
+            - j4_sin_b4a
                 * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
     let t1405 = t1381
-        + (j4_cos_b4p * (xv_b4_z - t1381)
-            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+        + (j4_cos_b4a * (xv_b4_z - t1381)
+            - j4_sin_b4a * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
     let t1410 = 0.38030529548240455 * t1405
         + (0.6461820612405205 * t1403 - 0.6616771312044819 * t1404);
     let t1411 = 0.6461820612405205 * t1410;
     let t1412 = 0.6616771312044819 * t1410;
     let t1413 = 0.38030529548240455 * t1410;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1411
-        + (j5_sin_b4p * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
+    let y6_b4a_x = t1411
+        + (j5_sin_b4a * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
             - t1330 * (t1403 - t1411));
     let t1436 = t1412
         + (t1330 * (t1404 + t1412)
-            + j5_sin_b4p * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
+            + j5_sin_b4a * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1413
+    let y6_b4a_z = t1413
         - (t1330 * (t1405 - t1413)
-            + j5_sin_b4p * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
+            + j5_sin_b4a * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4p_x)
+            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4p_z)
+                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
-        0.9830951380704407 * y6_b4p_z
-            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4p_x),
+                    * (0.9830951380704407 * y6_b4a_x + 0.1208110180221759 * y6_b4a_z))),
+        0.9830951380704407 * y6_b4a_z
+            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    let q4_b4b = q4_b4a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b4m = -4.299963472122064 - q5_b4p;
+    let q5_b4b = -4.299963472122064 - q5_b4a;
     // θ6 + π (mirror wrist branch)
-    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    let q6_b4b = q6_b4a + ::core::f64::consts::PI;
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1393,12 +1393,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1407,7 +1407,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1421,12 +1421,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1435,7 +1435,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1449,12 +1449,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1463,7 +1463,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1477,12 +1477,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1491,7 +1491,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1505,12 +1505,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1519,7 +1519,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1533,12 +1533,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1547,7 +1547,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1561,12 +1561,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1575,7 +1575,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1589,12 +1589,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1676,16 +1676,16 @@ fn branch_1(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -1694,66 +1694,66 @@ fn branch_1(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449181)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
-        - 0.9901136168642846 * j3_cos_psi_p;
-    let t244 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    let j3_cos_aa = 0.14026769300136338 * j3_sin_psi_a
+        - 0.9901136168642846 * j3_cos_psi_a;
+    let t244 = 0.14026769300136338 * j3_cos_psi_a + 0.9901136168642846 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+    let j3_sin_aa = -t244;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_aa = -::armforge_runtime::math::atan2(j3_sin_aa, j3_cos_aa);
+    let t266 = 0.2467123080373334 * j3_cos_aa - 0.02011160130528487 * t244
         - 0.7702009139951951;
     let t267 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
-    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+        - (0.040533312372973224 * j3_cos_aa + 0.09639828417151698 * t244);
+    let t268 = 0.004587381288611317 * j3_cos_aa + 0.22985615222970415 * t244
         + 0.08633983745217953;
-    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
-    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
-        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
-            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    let t273 = w_a_z * t268 + (w_a_x * t266 + w_a_y * t267);
+    let t287 = 0.393370490499651 * (w_a_y * t266 - w_a_x * t267)
+        + (0.14192355343258098 * (w_a_z * t267 - w_a_y * t268)
+            + 0.9083597096883664 * (w_a_x * t268 - w_a_z * t266));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = j2_inv_p * t273;
-    let t290 = j2_inv_p * t287;
+    let q2_aa = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = j2_inv_a * t273;
+    let t290 = j2_inv_a * t287;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let c23_aa = j3_cos_aa * t289 + t244 * t290;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -1789,28 +1789,28 @@ fn branch_1(
     let t516 = 0.7610978269683933 * t515;
     let t517 = 0.6486238403189734 * t515;
     let t518 = 0.004148680977921899 * t515;
-    let t540 = j1_cos_p * (g6_x + t516)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t540 = j1_cos_a * (g6_x + t516)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t541 = t517
-        + (j1_cos_p * (g6_y - t517)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t517)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t542 = t518
-        + (j1_cos_p * (g6_z - t518)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t518)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t547 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t572 = j1_cos_p * (gx_x + t548)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t572 = j1_cos_a * (gx_x + t548)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t573 = t549
-        + (j1_cos_p * (gx_y - t549)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t549)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t574 = t550
-        + (j1_cos_p * (gx_z - t550)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t575 = t244 * t289 - j3_cos_pp * t290;
+        + (j1_cos_a * (gx_z - t550)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t575 = t244 * t289 - j3_cos_aa * t290;
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -1818,15 +1818,15 @@ fn branch_1(
     let t583 = 0.393370490499651 * t580;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t581
-        + (c23_pp * (t540 - t581)
+        + (c23_aa * (t540 - t581)
             + t575 * (0.9083597096883664 * t542 - 0.393370490499651 * t541));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t582
-        + (c23_pp * (t541 - t582)
+        + (c23_aa * (t541 - t582)
             + t575 * (0.393370490499651 * t540 - 0.14192355343258098 * t542));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t583
-        + (c23_pp * (t542 - t583)
+        + (c23_aa * (t542 - t583)
             + t575 * (0.14192355343258098 * t541 - 0.9083597096883664 * t540));
     let t612 = 0.393370490499651 * t574
         + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
@@ -1835,15 +1835,15 @@ fn branch_1(
     let t615 = 0.393370490499651 * t612;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t613
-        + (c23_pp * (t572 - t613)
+        + (c23_aa * (t572 - t613)
             + t575 * (0.9083597096883664 * t574 - 0.393370490499651 * t573));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t614
-        + (c23_pp * (t573 - t614)
+        + (c23_aa * (t573 - t614)
             + t575 * (0.393370490499651 * t572 - 0.14192355343258098 * t574));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t615
-        + (c23_pp * (t574 - t615)
+        + (c23_aa * (t574 - t615)
             + t575 * (0.14192355343258098 * t573 - 0.9083597096883664 * t572));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.8589206607284425 * v_b1_z
@@ -1859,35 +1859,35 @@ fn branch_1(
     let t672 = 0.5479704330528009 * j5_gamma_b1;
     let t674 = 0.3429623606197284 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t671;
+    let z_b1a_x = 0.01853429342821227 * j5_a_b1 + t671;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t672;
+    let z_b1a_y = 0.51177317098587 * j5_a_b1 + t672;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t674;
-    let t685 = 0.18309546554259973 * z_b1p_z
-        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    let z_b1a_z = 0.8589206607284425 * j5_a_b1 - t674;
+    let t685 = 0.18309546554259973 * z_b1a_z
+        + (0.6486710312075331 * z_b1a_x + 0.7387164163397849 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t685;
+    let j5_cos_b1a = -t685;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 0.38030529548240455
-        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+    let j5_sin_b1a = 0.38030529548240455
+        * (0.7387164163397849 * z_b1a_x - 0.6486710312075331 * z_b1a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            * (0.1830954655425997 * z_b1a_y - 0.7387164163397849 * z_b1a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+                * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_x * t671 + v_b1_y * t672 - v_b1_z * t674) * t725
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b1_y * t671 - v_b1_x * t672)
@@ -1895,51 +1895,51 @@ fn branch_1(
                 - 0.51177317098587 * (v_b1_x * t674 + v_b1_z * t671))) * t725
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t736 = 0.8589206607284425 * xv_b1_z
         + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
     let t737 = 0.01853429342821227 * t736;
     let t738 = 0.51177317098587 * t736;
     let t739 = 0.8589206607284425 * t736;
     let t761 = t737
-        + (j4_cos_b1p * (xv_b1_x - t737)
-            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+        + (j4_cos_b1a * (xv_b1_x - t737)
+            - j4_sin_b1a * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
     let t762 = t738
-        + (j4_cos_b1p * (xv_b1_y - t738)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t738)
+            - j4_sin_b1a
                 * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
     let t763 = t739
-        + (j4_cos_b1p * (xv_b1_z - t739)
-            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+        + (j4_cos_b1a * (xv_b1_z - t739)
+            - j4_sin_b1a * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
     let t768 = 0.38030529548240455 * t763
         + (0.6461820612405205 * t761 - 0.6616771312044819 * t762);
     let t769 = 0.6461820612405205 * t768;
     let t770 = 0.6616771312044819 * t768;
     let t771 = 0.38030529548240455 * t768;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t769
-        + (j5_sin_b1p * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
+    let y6_b1a_x = t769
+        + (j5_sin_b1a * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
             - t685 * (t761 - t769));
     let t794 = t770
         + (t685 * (t762 + t770)
-            + j5_sin_b1p * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
+            + j5_sin_b1a * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t771
+    let y6_b1a_z = t771
         - (t685 * (t763 - t771)
-            + j5_sin_b1p * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
+            + j5_sin_b1a * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1p_x)
+            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1p_z)
+                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
-        0.9830951380704407 * y6_b1p_z
-            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1p_x),
+                    * (0.9830951380704407 * y6_b1a_x + 0.1208110180221759 * y6_b1a_z))),
+        0.9830951380704407 * y6_b1a_z
+            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -1953,12 +1953,12 @@ fn branch_1(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2039,16 +2039,16 @@ fn branch_2(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2057,66 +2057,66 @@ fn branch_2(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449181)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
-        - 0.9901136168642846 * j3_cos_psi_p;
-    let t244 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    let j3_cos_aa = 0.14026769300136338 * j3_sin_psi_a
+        - 0.9901136168642846 * j3_cos_psi_a;
+    let t244 = 0.14026769300136338 * j3_cos_psi_a + 0.9901136168642846 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+    let j3_sin_aa = -t244;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_aa = -::armforge_runtime::math::atan2(j3_sin_aa, j3_cos_aa);
+    let t266 = 0.2467123080373334 * j3_cos_aa - 0.02011160130528487 * t244
         - 0.7702009139951951;
     let t267 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
-    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+        - (0.040533312372973224 * j3_cos_aa + 0.09639828417151698 * t244);
+    let t268 = 0.004587381288611317 * j3_cos_aa + 0.22985615222970415 * t244
         + 0.08633983745217953;
-    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
-    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
-        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
-            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    let t273 = w_a_z * t268 + (w_a_x * t266 + w_a_y * t267);
+    let t287 = 0.393370490499651 * (w_a_y * t266 - w_a_x * t267)
+        + (0.14192355343258098 * (w_a_z * t267 - w_a_y * t268)
+            + 0.9083597096883664 * (w_a_x * t268 - w_a_z * t266));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = j2_inv_p * t273;
-    let t290 = j2_inv_p * t287;
+    let q2_aa = ::armforge_runtime::math::atan2(t287, t273);
+    let t289 = j2_inv_a * t273;
+    let t290 = j2_inv_a * t287;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let c23_aa = j3_cos_aa * t289 + t244 * t290;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -2152,28 +2152,28 @@ fn branch_2(
     let t516 = 0.7610978269683933 * t515;
     let t517 = 0.6486238403189734 * t515;
     let t518 = 0.004148680977921899 * t515;
-    let t540 = j1_cos_p * (g6_x + t516)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t540 = j1_cos_a * (g6_x + t516)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t541 = t517
-        + (j1_cos_p * (g6_y - t517)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t517)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t542 = t518
-        + (j1_cos_p * (g6_z - t518)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t518)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t547 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t572 = j1_cos_p * (gx_x + t548)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t572 = j1_cos_a * (gx_x + t548)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t573 = t549
-        + (j1_cos_p * (gx_y - t549)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t549)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t574 = t550
-        + (j1_cos_p * (gx_z - t550)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t575 = t244 * t289 - j3_cos_pp * t290;
+        + (j1_cos_a * (gx_z - t550)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t575 = t244 * t289 - j3_cos_aa * t290;
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -2181,15 +2181,15 @@ fn branch_2(
     let t583 = 0.393370490499651 * t580;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t581
-        + (c23_pp * (t540 - t581)
+        + (c23_aa * (t540 - t581)
             + t575 * (0.9083597096883664 * t542 - 0.393370490499651 * t541));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t582
-        + (c23_pp * (t541 - t582)
+        + (c23_aa * (t541 - t582)
             + t575 * (0.393370490499651 * t540 - 0.14192355343258098 * t542));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t583
-        + (c23_pp * (t542 - t583)
+        + (c23_aa * (t542 - t583)
             + t575 * (0.14192355343258098 * t541 - 0.9083597096883664 * t540));
     let t612 = 0.393370490499651 * t574
         + (0.14192355343258098 * t572 + 0.9083597096883664 * t573);
@@ -2198,15 +2198,15 @@ fn branch_2(
     let t615 = 0.393370490499651 * t612;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t613
-        + (c23_pp * (t572 - t613)
+        + (c23_aa * (t572 - t613)
             + t575 * (0.9083597096883664 * t574 - 0.393370490499651 * t573));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t614
-        + (c23_pp * (t573 - t614)
+        + (c23_aa * (t573 - t614)
             + t575 * (0.393370490499651 * t572 - 0.14192355343258098 * t574));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t615
-        + (c23_pp * (t574 - t615)
+        + (c23_aa * (t574 - t615)
             + t575 * (0.14192355343258098 * t573 - 0.9083597096883664 * t572));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.8589206607284425 * v_b1_z
@@ -2222,35 +2222,35 @@ fn branch_2(
     let t672 = 0.5479704330528009 * j5_gamma_b1;
     let t674 = 0.3429623606197284 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t671;
+    let z_b1a_x = 0.01853429342821227 * j5_a_b1 + t671;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t672;
+    let z_b1a_y = 0.51177317098587 * j5_a_b1 + t672;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t674;
-    let t685 = 0.18309546554259973 * z_b1p_z
-        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    let z_b1a_z = 0.8589206607284425 * j5_a_b1 - t674;
+    let t685 = 0.18309546554259973 * z_b1a_z
+        + (0.6486710312075331 * z_b1a_x + 0.7387164163397849 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t685;
+    let j5_cos_b1a = -t685;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 0.38030529548240455
-        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+    let j5_sin_b1a = 0.38030529548240455
+        * (0.7387164163397849 * z_b1a_x - 0.6486710312075331 * z_b1a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            * (0.1830954655425997 * z_b1a_y - 0.7387164163397849 * z_b1a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+                * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_x * t671 + v_b1_y * t672 - v_b1_z * t674) * t725
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b1_y * t671 - v_b1_x * t672)
@@ -2258,57 +2258,57 @@ fn branch_2(
                 - 0.51177317098587 * (v_b1_x * t674 + v_b1_z * t671))) * t725
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t736 = 0.8589206607284425 * xv_b1_z
         + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
     let t737 = 0.01853429342821227 * t736;
     let t738 = 0.51177317098587 * t736;
     let t739 = 0.8589206607284425 * t736;
     let t761 = t737
-        + (j4_cos_b1p * (xv_b1_x - t737)
-            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+        + (j4_cos_b1a * (xv_b1_x - t737)
+            - j4_sin_b1a * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
     let t762 = t738
-        + (j4_cos_b1p * (xv_b1_y - t738)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t738)
+            - j4_sin_b1a
                 * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
     let t763 = t739
-        + (j4_cos_b1p * (xv_b1_z - t739)
-            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+        + (j4_cos_b1a * (xv_b1_z - t739)
+            - j4_sin_b1a * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
     let t768 = 0.38030529548240455 * t763
         + (0.6461820612405205 * t761 - 0.6616771312044819 * t762);
     let t769 = 0.6461820612405205 * t768;
     let t770 = 0.6616771312044819 * t768;
     let t771 = 0.38030529548240455 * t768;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t769
-        + (j5_sin_b1p * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
+    let y6_b1a_x = t769
+        + (j5_sin_b1a * (0.6616771312044819 * t763 + 0.38030529548240455 * t762)
             - t685 * (t761 - t769));
     let t794 = t770
         + (t685 * (t762 + t770)
-            + j5_sin_b1p * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
+            + j5_sin_b1a * (0.38030529548240455 * t761 - 0.6461820612405205 * t763));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t771
+    let y6_b1a_z = t771
         - (t685 * (t763 - t771)
-            + j5_sin_b1p * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
+            + j5_sin_b1a * (0.6461820612405205 * t762 + 0.6616771312044819 * t761));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1p_x)
+            * (0.1208110180221759 * t794 + 0.13758142108114313 * y6_b1a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1p_z)
+                * (0.9830951380704407 * t794 - 0.13758142108114313 * y6_b1a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
-        0.9830951380704407 * y6_b1p_z
-            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1p_x),
+                    * (0.9830951380704407 * y6_b1a_x + 0.1208110180221759 * y6_b1a_z))),
+        0.9830951380704407 * y6_b1a_z
+            + (0.13758142108114313 * t794 - 0.1208110180221759 * y6_b1a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    let q4_b1b = q4_b1a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b1m = -4.299963472122064 - q5_b1p;
+    let q5_b1b = -4.299963472122064 - q5_b1a;
     // θ6 + π (mirror wrist branch)
-    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
+    let q6_b1b = q6_b1a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -2322,12 +2322,12 @@ fn branch_2(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2408,16 +2408,16 @@ fn branch_3(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2426,65 +2426,65 @@ fn branch_3(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449181)
             .max(1.9858518512535248e-20);
-    let t296 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    let t296 = 0.9901136168642846 * j3_cos_psi_a + 0.14026769300136338 * j3_sin_psi_a;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pm = -t296;
+    let j3_cos_ab = -t296;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
-        - 0.14026769300136338 * j3_cos_psi_p;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+    let j3_sin_ab = 0.9901136168642846 * j3_sin_psi_a
+        - 0.14026769300136338 * j3_cos_psi_a;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_ab = -::armforge_runtime::math::atan2(j3_sin_ab, j3_cos_ab);
+    let t310 = 0.02011160130528487 * j3_sin_ab - 0.2467123080373334 * t296
         - 0.7702009139951951;
-    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_ab
         + 0.082947433224273;
     let t312 = 0.08633983745217953
-        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
-    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
-    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
-        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
-            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_ab);
+    let t317 = w_a_z * t312 + (w_a_x * t310 + w_a_y * t311);
+    let t331 = 0.393370490499651 * (w_a_y * t310 - w_a_x * t311)
+        + (0.14192355343258098 * (w_a_z * t311 - w_a_y * t312)
+            + 0.9083597096883664 * (w_a_x * t312 - w_a_z * t310));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
-    let t333 = j2_inv_p * t317;
-    let t334 = j2_inv_p * t331;
-    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let q2_ab = ::armforge_runtime::math::atan2(t331, t317);
+    let t333 = j2_inv_a * t317;
+    let t334 = j2_inv_a * t331;
+    let t337 = t296 * t333 + j3_sin_ab * t334;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -2520,27 +2520,27 @@ fn branch_3(
     let t516 = 0.7610978269683933 * t515;
     let t517 = 0.6486238403189734 * t515;
     let t518 = 0.004148680977921899 * t515;
-    let t540 = j1_cos_p * (g6_x + t516)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t540 = j1_cos_a * (g6_x + t516)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t541 = t517
-        + (j1_cos_p * (g6_y - t517)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t517)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t542 = t518
-        + (j1_cos_p * (g6_z - t518)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t518)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t547 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t572 = j1_cos_p * (gx_x + t548)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t572 = j1_cos_a * (gx_x + t548)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t573 = t549
-        + (j1_cos_p * (gx_y - t549)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t549)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t574 = t550
-        + (j1_cos_p * (gx_z - t550)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_a * (gx_z - t550)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -2551,7 +2551,7 @@ fn branch_3(
     let t613 = 0.14192355343258098 * t612;
     let t614 = 0.9083597096883664 * t612;
     let t615 = 0.393370490499651 * t612;
-    let t825 = t296 * t334 - j3_sin_pm * t333;
+    let t825 = t296 * t334 - j3_sin_ab * t333;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581
         + ((0.9083597096883664 * t542 - 0.393370490499651 * t541) * t825
@@ -2590,35 +2590,35 @@ fn branch_3(
     let t875 = 0.5479704330528009 * j5_gamma_b2;
     let t876 = 0.3429623606197284 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t874;
+    let z_b2a_x = 0.01853429342821227 * j5_a_b2 + t874;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t875;
+    let z_b2a_y = 0.51177317098587 * j5_a_b2 + t875;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t876;
-    let t884 = 0.18309546554259973 * z_b2p_z
-        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    let z_b2a_z = 0.8589206607284425 * j5_a_b2 - t876;
+    let t884 = 0.18309546554259973 * z_b2a_z
+        + (0.6486710312075331 * z_b2a_x + 0.7387164163397849 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t884;
+    let j5_cos_b2a = -t884;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 0.38030529548240455
-        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+    let j5_sin_b2a = 0.38030529548240455
+        * (0.7387164163397849 * z_b2a_x - 0.6486710312075331 * z_b2a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            * (0.1830954655425997 * z_b2a_y - 0.7387164163397849 * z_b2a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+                * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_x * t874 + v_b2_y * t875 - v_b2_z * t876) * t921
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b2_y * t874 - v_b2_x * t875)
@@ -2626,51 +2626,51 @@ fn branch_3(
                 - 0.51177317098587 * (v_b2_x * t876 + v_b2_z * t874))) * t921
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t932 = 0.8589206607284425 * xv_b2_z
         + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
     let t933 = 0.01853429342821227 * t932;
     let t934 = 0.51177317098587 * t932;
     let t935 = 0.8589206607284425 * t932;
     let t957 = t933
-        + (j4_cos_b2p * (xv_b2_x - t933)
-            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+        + (j4_cos_b2a * (xv_b2_x - t933)
+            - j4_sin_b2a * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
     let t958 = t934
-        + (j4_cos_b2p * (xv_b2_y - t934)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t934)
+            - j4_sin_b2a
                 * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
     let t959 = t935
-        + (j4_cos_b2p * (xv_b2_z - t935)
-            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+        + (j4_cos_b2a * (xv_b2_z - t935)
+            - j4_sin_b2a * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
     let t964 = 0.38030529548240455 * t959
         + (0.6461820612405205 * t957 - 0.6616771312044819 * t958);
     let t965 = 0.6461820612405205 * t964;
     let t966 = 0.6616771312044819 * t964;
     let t967 = 0.38030529548240455 * t964;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t965
-        + (j5_sin_b2p * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
+    let y6_b2a_x = t965
+        + (j5_sin_b2a * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
             - t884 * (t957 - t965));
     let t990 = t966
         + (t884 * (t958 + t966)
-            + j5_sin_b2p * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
+            + j5_sin_b2a * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t967
+    let y6_b2a_z = t967
         - (t884 * (t959 - t967)
-            + j5_sin_b2p * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
+            + j5_sin_b2a * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2p_x)
+            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2p_z)
+                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
-        0.9830951380704407 * y6_b2p_z
-            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2p_x),
+                    * (0.9830951380704407 * y6_b2a_x + 0.1208110180221759 * y6_b2a_z))),
+        0.9830951380704407 * y6_b2a_z
+            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -2684,12 +2684,12 @@ fn branch_3(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2770,16 +2770,16 @@ fn branch_4(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2788,65 +2788,65 @@ fn branch_4(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449181)
             .max(1.9858518512535248e-20);
-    let t296 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    let t296 = 0.9901136168642846 * j3_cos_psi_a + 0.14026769300136338 * j3_sin_psi_a;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pm = -t296;
+    let j3_cos_ab = -t296;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
-        - 0.14026769300136338 * j3_cos_psi_p;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+    let j3_sin_ab = 0.9901136168642846 * j3_sin_psi_a
+        - 0.14026769300136338 * j3_cos_psi_a;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_ab = -::armforge_runtime::math::atan2(j3_sin_ab, j3_cos_ab);
+    let t310 = 0.02011160130528487 * j3_sin_ab - 0.2467123080373334 * t296
         - 0.7702009139951951;
-    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_ab
         + 0.082947433224273;
     let t312 = 0.08633983745217953
-        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
-    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
-    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
-        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
-            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_ab);
+    let t317 = w_a_z * t312 + (w_a_x * t310 + w_a_y * t311);
+    let t331 = 0.393370490499651 * (w_a_y * t310 - w_a_x * t311)
+        + (0.14192355343258098 * (w_a_z * t311 - w_a_y * t312)
+            + 0.9083597096883664 * (w_a_x * t312 - w_a_z * t310));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
-    let t333 = j2_inv_p * t317;
-    let t334 = j2_inv_p * t331;
-    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let q2_ab = ::armforge_runtime::math::atan2(t331, t317);
+    let t333 = j2_inv_a * t317;
+    let t334 = j2_inv_a * t331;
+    let t337 = t296 * t333 + j3_sin_ab * t334;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -2882,27 +2882,27 @@ fn branch_4(
     let t516 = 0.7610978269683933 * t515;
     let t517 = 0.6486238403189734 * t515;
     let t518 = 0.004148680977921899 * t515;
-    let t540 = j1_cos_p * (g6_x + t516)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t540 = j1_cos_a * (g6_x + t516)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t541 = t517
-        + (j1_cos_p * (g6_y - t517)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t517)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t542 = t518
-        + (j1_cos_p * (g6_z - t518)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t518)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t547 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t572 = j1_cos_p * (gx_x + t548)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+    let t572 = j1_cos_a * (gx_x + t548)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t573 = t549
-        + (j1_cos_p * (gx_y - t549)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t549)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t574 = t550
-        + (j1_cos_p * (gx_z - t550)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_a * (gx_z - t550)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -2913,7 +2913,7 @@ fn branch_4(
     let t613 = 0.14192355343258098 * t612;
     let t614 = 0.9083597096883664 * t612;
     let t615 = 0.393370490499651 * t612;
-    let t825 = t296 * t334 - j3_sin_pm * t333;
+    let t825 = t296 * t334 - j3_sin_ab * t333;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581
         + ((0.9083597096883664 * t542 - 0.393370490499651 * t541) * t825
@@ -2952,35 +2952,35 @@ fn branch_4(
     let t875 = 0.5479704330528009 * j5_gamma_b2;
     let t876 = 0.3429623606197284 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t874;
+    let z_b2a_x = 0.01853429342821227 * j5_a_b2 + t874;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t875;
+    let z_b2a_y = 0.51177317098587 * j5_a_b2 + t875;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t876;
-    let t884 = 0.18309546554259973 * z_b2p_z
-        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    let z_b2a_z = 0.8589206607284425 * j5_a_b2 - t876;
+    let t884 = 0.18309546554259973 * z_b2a_z
+        + (0.6486710312075331 * z_b2a_x + 0.7387164163397849 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t884;
+    let j5_cos_b2a = -t884;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 0.38030529548240455
-        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+    let j5_sin_b2a = 0.38030529548240455
+        * (0.7387164163397849 * z_b2a_x - 0.6486710312075331 * z_b2a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            * (0.1830954655425997 * z_b2a_y - 0.7387164163397849 * z_b2a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+                * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_x * t874 + v_b2_y * t875 - v_b2_z * t876) * t921
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b2_y * t874 - v_b2_x * t875)
@@ -2988,57 +2988,57 @@ fn branch_4(
                 - 0.51177317098587 * (v_b2_x * t876 + v_b2_z * t874))) * t921
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t932 = 0.8589206607284425 * xv_b2_z
         + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
     let t933 = 0.01853429342821227 * t932;
     let t934 = 0.51177317098587 * t932;
     let t935 = 0.8589206607284425 * t932;
     let t957 = t933
-        + (j4_cos_b2p * (xv_b2_x - t933)
-            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+        + (j4_cos_b2a * (xv_b2_x - t933)
+            - j4_sin_b2a * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
     let t958 = t934
-        + (j4_cos_b2p * (xv_b2_y - t934)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t934)
+            - j4_sin_b2a
                 * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
     let t959 = t935
-        + (j4_cos_b2p * (xv_b2_z - t935)
-            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+        + (j4_cos_b2a * (xv_b2_z - t935)
+            - j4_sin_b2a * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
     let t964 = 0.38030529548240455 * t959
         + (0.6461820612405205 * t957 - 0.6616771312044819 * t958);
     let t965 = 0.6461820612405205 * t964;
     let t966 = 0.6616771312044819 * t964;
     let t967 = 0.38030529548240455 * t964;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t965
-        + (j5_sin_b2p * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
+    let y6_b2a_x = t965
+        + (j5_sin_b2a * (0.6616771312044819 * t959 + 0.38030529548240455 * t958)
             - t884 * (t957 - t965));
     let t990 = t966
         + (t884 * (t958 + t966)
-            + j5_sin_b2p * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
+            + j5_sin_b2a * (0.38030529548240455 * t957 - 0.6461820612405205 * t959));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t967
+    let y6_b2a_z = t967
         - (t884 * (t959 - t967)
-            + j5_sin_b2p * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
+            + j5_sin_b2a * (0.6461820612405205 * t958 + 0.6616771312044819 * t957));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2p_x)
+            * (0.1208110180221759 * t990 + 0.13758142108114313 * y6_b2a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2p_z)
+                * (0.9830951380704407 * t990 - 0.13758142108114313 * y6_b2a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
-        0.9830951380704407 * y6_b2p_z
-            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2p_x),
+                    * (0.9830951380704407 * y6_b2a_x + 0.1208110180221759 * y6_b2a_z))),
+        0.9830951380704407 * y6_b2a_z
+            + (0.13758142108114313 * t990 - 0.1208110180221759 * y6_b2a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    let q4_b2b = q4_b2a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b2m = -4.299963472122064 - q5_b2p;
+    let q5_b2b = -4.299963472122064 - q5_b2a;
     // θ6 + π (mirror wrist branch)
-    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
+    let q6_b2b = q6_b2a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3052,12 +3052,12 @@ fn branch_4(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3138,16 +3138,16 @@ fn branch_5(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3156,66 +3156,66 @@ fn branch_5(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449181)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
-        - 0.9901136168642846 * j3_cos_psi_m;
-    let t358 = 0.14026769300136338 * j3_cos_psi_m + 0.9901136168642846 * j3_sin_psi_m;
+    let j3_cos_ba = 0.14026769300136338 * j3_sin_psi_b
+        - 0.9901136168642846 * j3_cos_psi_b;
+    let t358 = 0.14026769300136338 * j3_cos_psi_b + 0.9901136168642846 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = -t358;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_mp = -::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t371 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t358
+    let j3_sin_ba = -t358;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_ba = -::armforge_runtime::math::atan2(j3_sin_ba, j3_cos_ba);
+    let t371 = 0.2467123080373334 * j3_cos_ba - 0.02011160130528487 * t358
         - 0.7702009139951951;
     let t372 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t358);
-    let t373 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t358
+        - (0.040533312372973224 * j3_cos_ba + 0.09639828417151698 * t358);
+    let t373 = 0.004587381288611317 * j3_cos_ba + 0.22985615222970415 * t358
         + 0.08633983745217953;
-    let t378 = w_m_z * t373 + (w_m_x * t371 + w_m_y * t372);
-    let t392 = 0.393370490499651 * (w_m_y * t371 - w_m_x * t372)
-        + (0.14192355343258098 * (w_m_z * t372 - w_m_y * t373)
-            + 0.9083597096883664 * (w_m_x * t373 - w_m_z * t371));
+    let t378 = w_b_z * t373 + (w_b_x * t371 + w_b_y * t372);
+    let t392 = 0.393370490499651 * (w_b_y * t371 - w_b_x * t372)
+        + (0.14192355343258098 * (w_b_z * t372 - w_b_y * t373)
+            + 0.9083597096883664 * (w_b_x * t373 - w_b_z * t371));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
-    let t394 = j2_inv_m * t378;
-    let t395 = j2_inv_m * t392;
+    let q2_ba = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_b * t378;
+    let t395 = j2_inv_b * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t394 + t358 * t395;
+    let c23_ba = j3_cos_ba * t394 + t358 * t395;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -3256,23 +3256,23 @@ fn branch_5(
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t1025 = j1_cos_m * (g6_x + t516)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1025 = j1_cos_b * (g6_x + t516)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t1026 = t517
-        + (j1_cos_m * (g6_y - t517)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t517)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1027 = t518
-        + (j1_cos_m * (g6_z - t518)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1037 = j1_cos_m * (gx_x + t548)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+        + (j1_cos_b * (g6_z - t518)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_b * (gx_x + t548)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t1038 = t549
-        + (j1_cos_m * (gx_y - t549)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t549)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1039 = t550
-        + (j1_cos_m * (gx_z - t550)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t1040 = t358 * t394 - j3_cos_mp * t395;
+        + (j1_cos_b * (gx_z - t550)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1040 = t358 * t394 - j3_cos_ba * t395;
     let t1045 = 0.393370490499651 * t1027
         + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
     let t1046 = 0.14192355343258098 * t1045;
@@ -3280,15 +3280,15 @@ fn branch_5(
     let t1048 = 0.393370490499651 * t1045;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1046
-        + (c23_mp * (t1025 - t1046)
+        + (c23_ba * (t1025 - t1046)
             + t1040 * (0.9083597096883664 * t1027 - 0.393370490499651 * t1026));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1047
-        + (c23_mp * (t1026 - t1047)
+        + (c23_ba * (t1026 - t1047)
             + t1040 * (0.393370490499651 * t1025 - 0.14192355343258098 * t1027));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1048
-        + (c23_mp * (t1027 - t1048)
+        + (c23_ba * (t1027 - t1048)
             + t1040 * (0.14192355343258098 * t1026 - 0.9083597096883664 * t1025));
     let t1077 = 0.393370490499651 * t1039
         + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
@@ -3297,15 +3297,15 @@ fn branch_5(
     let t1080 = 0.393370490499651 * t1077;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1078
-        + (c23_mp * (t1037 - t1078)
+        + (c23_ba * (t1037 - t1078)
             + t1040 * (0.9083597096883664 * t1039 - 0.393370490499651 * t1038));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1079
-        + (c23_mp * (t1038 - t1079)
+        + (c23_ba * (t1038 - t1079)
             + t1040 * (0.393370490499651 * t1037 - 0.14192355343258098 * t1039));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1080
-        + (c23_mp * (t1039 - t1080)
+        + (c23_ba * (t1039 - t1080)
             + t1040 * (0.14192355343258098 * t1038 - 0.9083597096883664 * t1037));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.8589206607284425 * v_b3_z
@@ -3321,35 +3321,35 @@ fn branch_5(
     let t1130 = 0.5479704330528009 * j5_gamma_b3;
     let t1131 = 0.3429623606197284 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1129;
+    let z_b3a_x = 0.01853429342821227 * j5_a_b3 + t1129;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1130;
+    let z_b3a_y = 0.51177317098587 * j5_a_b3 + t1130;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1131;
-    let t1139 = 0.18309546554259973 * z_b3p_z
-        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    let z_b3a_z = 0.8589206607284425 * j5_a_b3 - t1131;
+    let t1139 = 0.18309546554259973 * z_b3a_z
+        + (0.6486710312075331 * z_b3a_x + 0.7387164163397849 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1139;
+    let j5_cos_b3a = -t1139;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 0.38030529548240455
-        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+    let j5_sin_b3a = 0.38030529548240455
+        * (0.7387164163397849 * z_b3a_x - 0.6486710312075331 * z_b3a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            * (0.1830954655425997 * z_b3a_y - 0.7387164163397849 * z_b3a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+                * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_x * t1129 + v_b3_y * t1130 - v_b3_z * t1131) * t1176
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b3_y * t1129 - v_b3_x * t1130)
@@ -3357,51 +3357,51 @@ fn branch_5(
                 - 0.51177317098587 * (v_b3_x * t1131 + v_b3_z * t1129))) * t1176
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1187 = 0.8589206607284425 * xv_b3_z
         + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
     let t1188 = 0.01853429342821227 * t1187;
     let t1189 = 0.51177317098587 * t1187;
     let t1190 = 0.8589206607284425 * t1187;
     let t1212 = t1188
-        + (j4_cos_b3p * (xv_b3_x - t1188)
-            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+        + (j4_cos_b3a * (xv_b3_x - t1188)
+            - j4_sin_b3a * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
     let t1213 = t1189
-        + (j4_cos_b3p * (xv_b3_y - t1189)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1189)
+            - j4_sin_b3a
                 * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
     let t1214 = t1190
-        + (j4_cos_b3p * (xv_b3_z - t1190)
-            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+        + (j4_cos_b3a * (xv_b3_z - t1190)
+            - j4_sin_b3a * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
     let t1219 = 0.38030529548240455 * t1214
         + (0.6461820612405205 * t1212 - 0.6616771312044819 * t1213);
     let t1220 = 0.6461820612405205 * t1219;
     let t1221 = 0.6616771312044819 * t1219;
     let t1222 = 0.38030529548240455 * t1219;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1220
-        + (j5_sin_b3p * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
+    let y6_b3a_x = t1220
+        + (j5_sin_b3a * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
             - t1139 * (t1212 - t1220));
     let t1245 = t1221
         + (t1139 * (t1213 + t1221)
-            + j5_sin_b3p * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
+            + j5_sin_b3a * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1222
+    let y6_b3a_z = t1222
         - (t1139 * (t1214 - t1222)
-            + j5_sin_b3p * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
+            + j5_sin_b3a * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3p_x)
+            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3p_z)
+                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
-        0.9830951380704407 * y6_b3p_z
-            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3p_x),
+                    * (0.9830951380704407 * y6_b3a_x + 0.1208110180221759 * y6_b3a_z))),
+        0.9830951380704407 * y6_b3a_z
+            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3415,12 +3415,12 @@ fn branch_5(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3501,16 +3501,16 @@ fn branch_6(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3519,66 +3519,66 @@ fn branch_6(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449181)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
-        - 0.9901136168642846 * j3_cos_psi_m;
-    let t358 = 0.14026769300136338 * j3_cos_psi_m + 0.9901136168642846 * j3_sin_psi_m;
+    let j3_cos_ba = 0.14026769300136338 * j3_sin_psi_b
+        - 0.9901136168642846 * j3_cos_psi_b;
+    let t358 = 0.14026769300136338 * j3_cos_psi_b + 0.9901136168642846 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = -t358;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_mp = -::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t371 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t358
+    let j3_sin_ba = -t358;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_ba = -::armforge_runtime::math::atan2(j3_sin_ba, j3_cos_ba);
+    let t371 = 0.2467123080373334 * j3_cos_ba - 0.02011160130528487 * t358
         - 0.7702009139951951;
     let t372 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t358);
-    let t373 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t358
+        - (0.040533312372973224 * j3_cos_ba + 0.09639828417151698 * t358);
+    let t373 = 0.004587381288611317 * j3_cos_ba + 0.22985615222970415 * t358
         + 0.08633983745217953;
-    let t378 = w_m_z * t373 + (w_m_x * t371 + w_m_y * t372);
-    let t392 = 0.393370490499651 * (w_m_y * t371 - w_m_x * t372)
-        + (0.14192355343258098 * (w_m_z * t372 - w_m_y * t373)
-            + 0.9083597096883664 * (w_m_x * t373 - w_m_z * t371));
+    let t378 = w_b_z * t373 + (w_b_x * t371 + w_b_y * t372);
+    let t392 = 0.393370490499651 * (w_b_y * t371 - w_b_x * t372)
+        + (0.14192355343258098 * (w_b_z * t372 - w_b_y * t373)
+            + 0.9083597096883664 * (w_b_x * t373 - w_b_z * t371));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
-    let t394 = j2_inv_m * t378;
-    let t395 = j2_inv_m * t392;
+    let q2_ba = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_b * t378;
+    let t395 = j2_inv_b * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t394 + t358 * t395;
+    let c23_ba = j3_cos_ba * t394 + t358 * t395;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -3619,23 +3619,23 @@ fn branch_6(
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t1025 = j1_cos_m * (g6_x + t516)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1025 = j1_cos_b * (g6_x + t516)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t1026 = t517
-        + (j1_cos_m * (g6_y - t517)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t517)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1027 = t518
-        + (j1_cos_m * (g6_z - t518)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1037 = j1_cos_m * (gx_x + t548)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+        + (j1_cos_b * (g6_z - t518)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_b * (gx_x + t548)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t1038 = t549
-        + (j1_cos_m * (gx_y - t549)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t549)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1039 = t550
-        + (j1_cos_m * (gx_z - t550)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t1040 = t358 * t394 - j3_cos_mp * t395;
+        + (j1_cos_b * (gx_z - t550)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1040 = t358 * t394 - j3_cos_ba * t395;
     let t1045 = 0.393370490499651 * t1027
         + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
     let t1046 = 0.14192355343258098 * t1045;
@@ -3643,15 +3643,15 @@ fn branch_6(
     let t1048 = 0.393370490499651 * t1045;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1046
-        + (c23_mp * (t1025 - t1046)
+        + (c23_ba * (t1025 - t1046)
             + t1040 * (0.9083597096883664 * t1027 - 0.393370490499651 * t1026));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1047
-        + (c23_mp * (t1026 - t1047)
+        + (c23_ba * (t1026 - t1047)
             + t1040 * (0.393370490499651 * t1025 - 0.14192355343258098 * t1027));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1048
-        + (c23_mp * (t1027 - t1048)
+        + (c23_ba * (t1027 - t1048)
             + t1040 * (0.14192355343258098 * t1026 - 0.9083597096883664 * t1025));
     let t1077 = 0.393370490499651 * t1039
         + (0.14192355343258098 * t1037 + 0.9083597096883664 * t1038);
@@ -3660,15 +3660,15 @@ fn branch_6(
     let t1080 = 0.393370490499651 * t1077;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1078
-        + (c23_mp * (t1037 - t1078)
+        + (c23_ba * (t1037 - t1078)
             + t1040 * (0.9083597096883664 * t1039 - 0.393370490499651 * t1038));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1079
-        + (c23_mp * (t1038 - t1079)
+        + (c23_ba * (t1038 - t1079)
             + t1040 * (0.393370490499651 * t1037 - 0.14192355343258098 * t1039));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1080
-        + (c23_mp * (t1039 - t1080)
+        + (c23_ba * (t1039 - t1080)
             + t1040 * (0.14192355343258098 * t1038 - 0.9083597096883664 * t1037));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.8589206607284425 * v_b3_z
@@ -3684,35 +3684,35 @@ fn branch_6(
     let t1130 = 0.5479704330528009 * j5_gamma_b3;
     let t1131 = 0.3429623606197284 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1129;
+    let z_b3a_x = 0.01853429342821227 * j5_a_b3 + t1129;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1130;
+    let z_b3a_y = 0.51177317098587 * j5_a_b3 + t1130;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1131;
-    let t1139 = 0.18309546554259973 * z_b3p_z
-        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    let z_b3a_z = 0.8589206607284425 * j5_a_b3 - t1131;
+    let t1139 = 0.18309546554259973 * z_b3a_z
+        + (0.6486710312075331 * z_b3a_x + 0.7387164163397849 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1139;
+    let j5_cos_b3a = -t1139;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 0.38030529548240455
-        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+    let j5_sin_b3a = 0.38030529548240455
+        * (0.7387164163397849 * z_b3a_x - 0.6486710312075331 * z_b3a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            * (0.1830954655425997 * z_b3a_y - 0.7387164163397849 * z_b3a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+                * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_x * t1129 + v_b3_y * t1130 - v_b3_z * t1131) * t1176
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b3_y * t1129 - v_b3_x * t1130)
@@ -3720,57 +3720,57 @@ fn branch_6(
                 - 0.51177317098587 * (v_b3_x * t1131 + v_b3_z * t1129))) * t1176
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1187 = 0.8589206607284425 * xv_b3_z
         + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
     let t1188 = 0.01853429342821227 * t1187;
     let t1189 = 0.51177317098587 * t1187;
     let t1190 = 0.8589206607284425 * t1187;
     let t1212 = t1188
-        + (j4_cos_b3p * (xv_b3_x - t1188)
-            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+        + (j4_cos_b3a * (xv_b3_x - t1188)
+            - j4_sin_b3a * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
     let t1213 = t1189
-        + (j4_cos_b3p * (xv_b3_y - t1189)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1189)
+            - j4_sin_b3a
                 * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
     let t1214 = t1190
-        + (j4_cos_b3p * (xv_b3_z - t1190)
-            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+        + (j4_cos_b3a * (xv_b3_z - t1190)
+            - j4_sin_b3a * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
     let t1219 = 0.38030529548240455 * t1214
         + (0.6461820612405205 * t1212 - 0.6616771312044819 * t1213);
     let t1220 = 0.6461820612405205 * t1219;
     let t1221 = 0.6616771312044819 * t1219;
     let t1222 = 0.38030529548240455 * t1219;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1220
-        + (j5_sin_b3p * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
+    let y6_b3a_x = t1220
+        + (j5_sin_b3a * (0.6616771312044819 * t1214 + 0.38030529548240455 * t1213)
             - t1139 * (t1212 - t1220));
     let t1245 = t1221
         + (t1139 * (t1213 + t1221)
-            + j5_sin_b3p * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
+            + j5_sin_b3a * (0.38030529548240455 * t1212 - 0.6461820612405205 * t1214));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1222
+    let y6_b3a_z = t1222
         - (t1139 * (t1214 - t1222)
-            + j5_sin_b3p * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
+            + j5_sin_b3a * (0.6461820612405205 * t1213 + 0.6616771312044819 * t1212));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3p_x)
+            * (0.1208110180221759 * t1245 + 0.13758142108114313 * y6_b3a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3p_z)
+                * (0.9830951380704407 * t1245 - 0.13758142108114313 * y6_b3a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
-        0.9830951380704407 * y6_b3p_z
-            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3p_x),
+                    * (0.9830951380704407 * y6_b3a_x + 0.1208110180221759 * y6_b3a_z))),
+        0.9830951380704407 * y6_b3a_z
+            + (0.13758142108114313 * t1245 - 0.1208110180221759 * y6_b3a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    let q4_b3b = q4_b3a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b3m = -4.299963472122064 - q5_b3p;
+    let q5_b3b = -4.299963472122064 - q5_b3a;
     // θ6 + π (mirror wrist branch)
-    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
+    let q6_b3b = q6_b3a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3784,12 +3784,12 @@ fn branch_6(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3870,16 +3870,16 @@ fn branch_7(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3888,65 +3888,65 @@ fn branch_7(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449181)
             .max(1.9858518512535248e-20);
-    let t401 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
+    let t401 = 0.9901136168642846 * j3_cos_psi_b + 0.14026769300136338 * j3_sin_psi_b;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mm = -t401;
+    let j3_cos_bb = -t401;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.9901136168642846 * j3_sin_psi_m
-        - 0.14026769300136338 * j3_cos_psi_m;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_mm = -::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
-    let t415 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t401
+    let j3_sin_bb = 0.9901136168642846 * j3_sin_psi_b
+        - 0.14026769300136338 * j3_cos_psi_b;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_bb = -::armforge_runtime::math::atan2(j3_sin_bb, j3_cos_bb);
+    let t415 = 0.02011160130528487 * j3_sin_bb - 0.2467123080373334 * t401
         - 0.7702009139951951;
-    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_mm
+    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_bb
         + 0.082947433224273;
     let t417 = 0.08633983745217953
-        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_mm);
-    let t422 = w_m_z * t417 + (w_m_x * t415 + w_m_y * t416);
-    let t436 = 0.393370490499651 * (w_m_y * t415 - w_m_x * t416)
-        + (0.14192355343258098 * (w_m_z * t416 - w_m_y * t417)
-            + 0.9083597096883664 * (w_m_x * t417 - w_m_z * t415));
+        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_bb);
+    let t422 = w_b_z * t417 + (w_b_x * t415 + w_b_y * t416);
+    let t436 = 0.393370490499651 * (w_b_y * t415 - w_b_x * t416)
+        + (0.14192355343258098 * (w_b_z * t416 - w_b_y * t417)
+            + 0.9083597096883664 * (w_b_x * t417 - w_b_z * t415));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t436, t422);
-    let t438 = j2_inv_m * t422;
-    let t439 = j2_inv_m * t436;
-    let t442 = t401 * t438 + j3_sin_mm * t439;
+    let q2_bb = ::armforge_runtime::math::atan2(t436, t422);
+    let t438 = j2_inv_b * t422;
+    let t439 = j2_inv_b * t436;
+    let t442 = t401 * t438 + j3_sin_bb * t439;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -3987,22 +3987,22 @@ fn branch_7(
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t1025 = j1_cos_m * (g6_x + t516)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1025 = j1_cos_b * (g6_x + t516)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t1026 = t517
-        + (j1_cos_m * (g6_y - t517)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t517)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1027 = t518
-        + (j1_cos_m * (g6_z - t518)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1037 = j1_cos_m * (gx_x + t548)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+        + (j1_cos_b * (g6_z - t518)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_b * (gx_x + t548)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t1038 = t549
-        + (j1_cos_m * (gx_y - t549)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t549)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1039 = t550
-        + (j1_cos_m * (gx_z - t550)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_b * (gx_z - t550)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t1045 = 0.393370490499651 * t1027
         + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
     let t1046 = 0.14192355343258098 * t1045;
@@ -4013,7 +4013,7 @@ fn branch_7(
     let t1078 = 0.14192355343258098 * t1077;
     let t1079 = 0.9083597096883664 * t1077;
     let t1080 = 0.393370490499651 * t1077;
-    let t1271 = t401 * t439 - j3_sin_mm * t438;
+    let t1271 = t401 * t439 - j3_sin_bb * t438;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1046
         + ((0.9083597096883664 * t1027 - 0.393370490499651 * t1026) * t1271
@@ -4052,35 +4052,35 @@ fn branch_7(
     let t1321 = 0.5479704330528009 * j5_gamma_b4;
     let t1322 = 0.3429623606197284 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1320;
+    let z_b4a_x = 0.01853429342821227 * j5_a_b4 + t1320;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1321;
+    let z_b4a_y = 0.51177317098587 * j5_a_b4 + t1321;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1322;
-    let t1330 = 0.18309546554259973 * z_b4p_z
-        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    let z_b4a_z = 0.8589206607284425 * j5_a_b4 - t1322;
+    let t1330 = 0.18309546554259973 * z_b4a_z
+        + (0.6486710312075331 * z_b4a_x + 0.7387164163397849 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1330;
+    let j5_cos_b4a = -t1330;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 0.38030529548240455
-        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+    let j5_sin_b4a = 0.38030529548240455
+        * (0.7387164163397849 * z_b4a_x - 0.6486710312075331 * z_b4a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            * (0.1830954655425997 * z_b4a_y - 0.7387164163397849 * z_b4a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+                * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_x * t1320 + v_b4_y * t1321 - v_b4_z * t1322) * t1367
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b4_y * t1320 - v_b4_x * t1321)
@@ -4088,51 +4088,51 @@ fn branch_7(
                 - 0.51177317098587 * (v_b4_x * t1322 + v_b4_z * t1320))) * t1367
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1378 = 0.8589206607284425 * xv_b4_z
         + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
     let t1379 = 0.01853429342821227 * t1378;
     let t1380 = 0.51177317098587 * t1378;
     let t1381 = 0.8589206607284425 * t1378;
     let t1403 = t1379
-        + (j4_cos_b4p * (xv_b4_x - t1379)
-            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+        + (j4_cos_b4a * (xv_b4_x - t1379)
+            - j4_sin_b4a * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
     let t1404 = t1380
-        + (j4_cos_b4p * (xv_b4_y - t1380)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1380)
+            - j4_sin_b4a
                 * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
     let t1405 = t1381
-        + (j4_cos_b4p * (xv_b4_z - t1381)
-            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+        + (j4_cos_b4a * (xv_b4_z - t1381)
+            - j4_sin_b4a * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
     let t1410 = 0.38030529548240455 * t1405
         + (0.6461820612405205 * t1403 - 0.6616771312044819 * t1404);
     let t1411 = 0.6461820612405205 * t1410;
     let t1412 = 0.6616771312044819 * t1410;
     let t1413 = 0.38030529548240455 * t1410;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1411
-        + (j5_sin_b4p * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
+    let y6_b4a_x = t1411
+        + (j5_sin_b4a * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
             - t1330 * (t1403 - t1411));
     let t1436 = t1412
         + (t1330 * (t1404 + t1412)
-            + j5_sin_b4p * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
+            + j5_sin_b4a * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1413
+    let y6_b4a_z = t1413
         - (t1330 * (t1405 - t1413)
-            + j5_sin_b4p * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
+            + j5_sin_b4a * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4p_x)
+            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4p_z)
+                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
-        0.9830951380704407 * y6_b4p_z
-            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4p_x),
+                    * (0.9830951380704407 * y6_b4a_x + 0.1208110180221759 * y6_b4a_z))),
+        0.9830951380704407 * y6_b4a_z
+            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4146,12 +4146,12 @@ fn branch_7(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -4232,16 +4232,16 @@ fn branch_8(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4250,65 +4250,65 @@ fn branch_8(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449181),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449181)
             .max(1.9858518512535248e-20);
-    let t401 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
+    let t401 = 0.9901136168642846 * j3_cos_psi_b + 0.14026769300136338 * j3_sin_psi_b;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mm = -t401;
+    let j3_cos_bb = -t401;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.9901136168642846 * j3_sin_psi_m
-        - 0.14026769300136338 * j3_cos_psi_m;
-    // θ3 = -1 atan2(sin φ3, cos φ3)
-    let q3_mm = -::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
-    let t415 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t401
+    let j3_sin_bb = 0.9901136168642846 * j3_sin_psi_b
+        - 0.14026769300136338 * j3_cos_psi_b;
+    // θ3 = -atan2(sin φ3, cos φ3)
+    let q3_bb = -::armforge_runtime::math::atan2(j3_sin_bb, j3_cos_bb);
+    let t415 = 0.02011160130528487 * j3_sin_bb - 0.2467123080373334 * t401
         - 0.7702009139951951;
-    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_mm
+    let t416 = 0.040533312372973224 * t401 + 0.09639828417151698 * j3_sin_bb
         + 0.082947433224273;
     let t417 = 0.08633983745217953
-        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_mm);
-    let t422 = w_m_z * t417 + (w_m_x * t415 + w_m_y * t416);
-    let t436 = 0.393370490499651 * (w_m_y * t415 - w_m_x * t416)
-        + (0.14192355343258098 * (w_m_z * t416 - w_m_y * t417)
-            + 0.9083597096883664 * (w_m_x * t417 - w_m_z * t415));
+        - (0.004587381288611317 * t401 + 0.22985615222970415 * j3_sin_bb);
+    let t422 = w_b_z * t417 + (w_b_x * t415 + w_b_y * t416);
+    let t436 = 0.393370490499651 * (w_b_y * t415 - w_b_x * t416)
+        + (0.14192355343258098 * (w_b_z * t416 - w_b_y * t417)
+            + 0.9083597096883664 * (w_b_x * t417 - w_b_z * t415));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t436, t422);
-    let t438 = j2_inv_m * t422;
-    let t439 = j2_inv_m * t436;
-    let t442 = t401 * t438 + j3_sin_mm * t439;
+    let q2_bb = ::armforge_runtime::math::atan2(t436, t422);
+    let t438 = j2_inv_b * t422;
+    let t439 = j2_inv_b * t436;
+    let t442 = t401 * t438 + j3_sin_bb * t439;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -4349,22 +4349,22 @@ fn branch_8(
     let t548 = 0.7610978269683933 * t547;
     let t549 = 0.6486238403189734 * t547;
     let t550 = 0.004148680977921899 * t547;
-    let t1025 = j1_cos_m * (g6_x + t516)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
+    let t1025 = j1_cos_b * (g6_x + t516)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t516;
     let t1026 = t517
-        + (j1_cos_m * (g6_y - t517)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t517)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1027 = t518
-        + (j1_cos_m * (g6_z - t518)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1037 = j1_cos_m * (gx_x + t548)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
+        + (j1_cos_b * (g6_z - t518)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1037 = j1_cos_b * (gx_x + t548)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t548;
     let t1038 = t549
-        + (j1_cos_m * (gx_y - t549)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t549)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1039 = t550
-        + (j1_cos_m * (gx_z - t550)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_b * (gx_z - t550)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t1045 = 0.393370490499651 * t1027
         + (0.14192355343258098 * t1025 + 0.9083597096883664 * t1026);
     let t1046 = 0.14192355343258098 * t1045;
@@ -4375,7 +4375,7 @@ fn branch_8(
     let t1078 = 0.14192355343258098 * t1077;
     let t1079 = 0.9083597096883664 * t1077;
     let t1080 = 0.393370490499651 * t1077;
-    let t1271 = t401 * t439 - j3_sin_mm * t438;
+    let t1271 = t401 * t439 - j3_sin_bb * t438;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1046
         + ((0.9083597096883664 * t1027 - 0.393370490499651 * t1026) * t1271
@@ -4414,35 +4414,35 @@ fn branch_8(
     let t1321 = 0.5479704330528009 * j5_gamma_b4;
     let t1322 = 0.3429623606197284 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1320;
+    let z_b4a_x = 0.01853429342821227 * j5_a_b4 + t1320;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1321;
+    let z_b4a_y = 0.51177317098587 * j5_a_b4 + t1321;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1322;
-    let t1330 = 0.18309546554259973 * z_b4p_z
-        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    let z_b4a_z = 0.8589206607284425 * j5_a_b4 - t1322;
+    let t1330 = 0.18309546554259973 * z_b4a_z
+        + (0.6486710312075331 * z_b4a_x + 0.7387164163397849 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1330;
+    let j5_cos_b4a = -t1330;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 0.38030529548240455
-        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+    let j5_sin_b4a = 0.38030529548240455
+        * (0.7387164163397849 * z_b4a_x - 0.6486710312075331 * z_b4a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            * (0.1830954655425997 * z_b4a_y - 0.7387164163397849 * z_b4a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+                * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_x * t1320 + v_b4_y * t1321 - v_b4_z * t1322) * t1367
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b4_y * t1320 - v_b4_x * t1321)
@@ -4450,57 +4450,57 @@ fn branch_8(
                 - 0.51177317098587 * (v_b4_x * t1322 + v_b4_z * t1320))) * t1367
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1378 = 0.8589206607284425 * xv_b4_z
         + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
     let t1379 = 0.01853429342821227 * t1378;
     let t1380 = 0.51177317098587 * t1378;
     let t1381 = 0.8589206607284425 * t1378;
     let t1403 = t1379
-        + (j4_cos_b4p * (xv_b4_x - t1379)
-            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+        + (j4_cos_b4a * (xv_b4_x - t1379)
+            - j4_sin_b4a * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
     let t1404 = t1380
-        + (j4_cos_b4p * (xv_b4_y - t1380)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1380)
+            - j4_sin_b4a
                 * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
     let t1405 = t1381
-        + (j4_cos_b4p * (xv_b4_z - t1381)
-            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+        + (j4_cos_b4a * (xv_b4_z - t1381)
+            - j4_sin_b4a * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
     let t1410 = 0.38030529548240455 * t1405
         + (0.6461820612405205 * t1403 - 0.6616771312044819 * t1404);
     let t1411 = 0.6461820612405205 * t1410;
     let t1412 = 0.6616771312044819 * t1410;
     let t1413 = 0.38030529548240455 * t1410;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1411
-        + (j5_sin_b4p * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
+    let y6_b4a_x = t1411
+        + (j5_sin_b4a * (0.6616771312044819 * t1405 + 0.38030529548240455 * t1404)
             - t1330 * (t1403 - t1411));
     let t1436 = t1412
         + (t1330 * (t1404 + t1412)
-            + j5_sin_b4p * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
+            + j5_sin_b4a * (0.38030529548240455 * t1403 - 0.6461820612405205 * t1405));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1413
+    let y6_b4a_z = t1413
         - (t1330 * (t1405 - t1413)
-            + j5_sin_b4p * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
+            + j5_sin_b4a * (0.6461820612405205 * t1404 + 0.6616771312044819 * t1403));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4p_x)
+            * (0.1208110180221759 * t1436 + 0.13758142108114313 * y6_b4a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4p_z)
+                * (0.9830951380704407 * t1436 - 0.13758142108114313 * y6_b4a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
-        0.9830951380704407 * y6_b4p_z
-            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4p_x),
+                    * (0.9830951380704407 * y6_b4a_x + 0.1208110180221759 * y6_b4a_z))),
+        0.9830951380704407 * y6_b4a_z
+            + (0.13758142108114313 * t1436 - 0.1208110180221759 * y6_b4a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    let q4_b4b = q4_b4a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b4m = -4.299963472122064 - q5_b4p;
+    let q5_b4b = -4.299963472122064 - q5_b4a;
     // θ6 + π (mirror wrist branch)
-    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    let q6_b4b = q6_b4a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4514,12 +4514,12 @@ fn branch_8(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,

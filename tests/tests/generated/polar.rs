@@ -123,7 +123,7 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
 const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [-0.23403204910039818, 0.48292443904485405, -0.33044529346519896],
-        point: [-0.12107082938914343, 0.14917046818868374, 0.05599637759668776],
+        point: [-0.12107082938914343, 0.14917046818868374, 0.0559963775967],
         wrist_center: [0.23724692405229514, 0.2862502386349305, 0.5978534526703301],
         facing: -1.0,
     },
@@ -531,7 +531,7 @@ pub fn solve_branch(
         } => branch_8(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -620,20 +620,20 @@ fn candidates(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
     let t117 = j1_a * j1_k;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
+    let j1_cos_a = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
+    let j1_sin_a = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
+    let j1_cos_b = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
+    let j1_sin_b = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
     let t132 = ::armforge_runtime::math::abs(j1_e);
     let t133 = 0.7957211704114873 * t96;
     let t134 = 0.553647671333485 * t96;
@@ -645,95 +645,95 @@ fn candidates(
     let t144 = 0.2455648081179022 * u_x - 0.7957211704114873 * u_z;
     let t147 = 0.7957211704114873 * u_y - 0.553647671333485 * u_x;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133 + (j1_cos_p * t136 - j1_sin_p * t141) - 0.1466357979102201;
+    let w_a_x = t133 + (j1_cos_a * t136 - j1_sin_a * t141) - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134 + (j1_cos_p * t137 - j1_sin_p * t144) - 0.1665554280716256;
+    let w_a_y = t134 + (j1_cos_a * t137 - j1_sin_a * t144) - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135 + (j1_cos_p * t138 - j1_sin_p * t147) - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let w_a_z = t135 + (j1_cos_a * t138 - j1_sin_a * t147) - 0.23593621703748283;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133 + (j1_cos_m * t136 - j1_sin_m * t141) - 0.1466357979102201;
+    let w_b_x = t133 + (j1_cos_b * t136 - j1_sin_b * t141) - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134 + (j1_cos_m * t137 - j1_sin_m * t144) - 0.1665554280716256;
+    let w_b_y = t134 + (j1_cos_b * t137 - j1_sin_b * t144) - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135 + (j1_cos_m * t138 - j1_sin_m * t147) - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let w_b_z = t135 + (j1_cos_b * t138 - j1_sin_b * t147) - 0.23593621703748283;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    let t224 = 1.0 / d2_a.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.2750702190093362;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
-    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
-        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
-        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
+    let q3_aa = j3_root_a - 0.2750702190093362;
+    let t236 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t238 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t239 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t244 = w_a_z * t239 + (w_a_x * t236 - w_a_y * t238);
+    let t258 = 0.22438759210189282 * (w_a_x * t239 - w_a_z * t236)
+        - 0.919348671064388 * (w_a_z * t238 + w_a_y * t239)
+        - 0.32318451312347624 * (w_a_y * t236 + w_a_x * t238);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
+    let q2_aa = ::armforge_runtime::math::atan2(t258, t244);
     let t260 = t224 * t244;
     let t261 = t224 * t258;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
-    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
-        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
-        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
+    let q3_ab = -0.2750702190093362 - j3_root_a;
+    let t266 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t267 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t268 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t273 = w_a_z * t268 + (w_a_x * t266 - w_a_y * t267);
+    let t287 = 0.22438759210189282 * (w_a_x * t268 - w_a_z * t266)
+        - 0.919348671064388 * (w_a_z * t267 + w_a_y * t268)
+        - 0.32318451312347624 * (w_a_y * t266 + w_a_x * t267);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
+    let q2_ab = ::armforge_runtime::math::atan2(t287, t273);
     let t289 = t224 * t273;
     let t290 = t224 * t287;
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    let t295 = 1.0 / d2_b.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.2750702190093362;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
-    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
-        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
-        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
+    let q3_ba = j3_root_b - 0.2750702190093362;
+    let t300 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t301 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t302 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t307 = w_b_z * t302 + (w_b_x * t300 - w_b_y * t301);
+    let t321 = 0.22438759210189282 * (w_b_x * t302 - w_b_z * t300)
+        - 0.919348671064388 * (w_b_z * t301 + w_b_y * t302)
+        - 0.32318451312347624 * (w_b_y * t300 + w_b_x * t301);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
+    let q2_ba = ::armforge_runtime::math::atan2(t321, t307);
     let t323 = t295 * t307;
     let t324 = t295 * t321;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
-    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
-        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
-        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
+    let q3_bb = -0.2750702190093362 - j3_root_b;
+    let t329 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t330 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t331 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t336 = w_b_z * t331 + (w_b_x * t329 - w_b_y * t330);
+    let t350 = 0.22438759210189282 * (w_b_x * t331 - w_b_z * t329)
+        - 0.919348671064388 * (w_b_z * t330 + w_b_y * t331)
+        - 0.32318451312347624 * (w_b_y * t329 + w_b_x * t330);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
+    let q2_bb = ::armforge_runtime::math::atan2(t350, t336);
     let t352 = t295 * t336;
     let t353 = t295 * t350;
     let t361 = 0.42112668389358265 * r02
@@ -777,9 +777,9 @@ fn candidates(
     let t433 = 0.553647671333485 * g6_z - 0.2455648081179022 * g6_y;
     let t436 = 0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z;
     let t439 = 0.7957211704114873 * g6_y - 0.553647671333485 * g6_x;
-    let t449 = t425 + (j1_cos_p * t428 - j1_sin_p * t433);
-    let t450 = t426 + (j1_cos_p * t429 - j1_sin_p * t436);
-    let t451 = t427 + (j1_cos_p * t430 - j1_sin_p * t439);
+    let t449 = t425 + (j1_cos_a * t428 - j1_sin_a * t433);
+    let t450 = t426 + (j1_cos_a * t429 - j1_sin_a * t436);
+    let t451 = t427 + (j1_cos_a * t430 - j1_sin_a * t439);
     let t456 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t457 = 0.7957211704114873 * t456;
@@ -791,9 +791,9 @@ fn candidates(
     let t465 = 0.553647671333485 * gx_z - 0.2455648081179022 * gx_y;
     let t468 = 0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z;
     let t471 = 0.7957211704114873 * gx_y - 0.553647671333485 * gx_x;
-    let t481 = t457 + (j1_cos_p * t460 - j1_sin_p * t465);
-    let t482 = t458 + (j1_cos_p * t461 - j1_sin_p * t468);
-    let t483 = t459 + (j1_cos_p * t462 - j1_sin_p * t471);
+    let t481 = t457 + (j1_cos_a * t460 - j1_sin_a * t465);
+    let t482 = t458 + (j1_cos_a * t461 - j1_sin_a * t468);
+    let t483 = t459 + (j1_cos_a * t462 - j1_sin_a * t471);
     let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
         - 0.32318451312347624 * t451;
     let t489 = 0.919348671064388 * t488;
@@ -857,25 +857,25 @@ fn candidates(
     let t607 = 1.0379846701062043 * t558 + t598;
     let t608 = t599 - 0.2010269164374744 * t558;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t602 + t606;
+    let z_b1a_x = t602 + t606;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t603 + t607;
+    let z_b1a_y = t603 + t607;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t608 - t605;
+    let z_b1a_z = t608 - t605;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.2056566317887352
-        * (0.8840923826341479 * z_b1p_z
-            - (0.21377064521432798 * z_b1p_x + 0.04589463161448898 * z_b1p_y));
+    let j5_cos_b1a = 1.2056566317887352
+        * (0.8840923826341479 * z_b1a_z
+            - (0.21377064521432798 * z_b1a_x + 0.04589463161448898 * z_b1a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.2056566317887352
+    let j5_sin_b1a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1p_z - 0.935948806852255 * z_b1p_y)
+            * (0.34229941191058744 * z_b1a_z - 0.935948806852255 * z_b1a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1p_x + 0.08264952242757546 * z_b1p_z)
+                * (0.935948806852255 * z_b1a_x + 0.08264952242757546 * z_b1a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
+                * (0.08264952242757546 * z_b1a_y + 0.34229941191058744 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t641 = j5_alpha_b1 - j5_a_b1;
     let t645 = t597 - 0.620341126105259 * t641;
     let t646 = t598 + 0.7700239450467775 * t641;
@@ -892,11 +892,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t672;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
     let t688 = 0.620341126105259 * t687;
@@ -908,57 +908,57 @@ fn candidates(
     let t696 = 0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y;
     let t699 = 0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x;
     let t702 = 0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x;
-    let t712 = j4_cos_b1p * t691 - j4_sin_b1p * t696 - t688;
-    let t713 = t689 + (j4_cos_b1p * t692 - j4_sin_b1p * t699);
-    let t714 = j4_cos_b1p * t693 + j4_sin_b1p * t702 - t690;
+    let t712 = j4_cos_b1a * t691 - j4_sin_b1a * t696 - t688;
+    let t713 = t689 + (j4_cos_b1a * t692 - j4_sin_b1a * t699);
+    let t714 = j4_cos_b1a * t693 + j4_sin_b1a * t702 - t690;
     let t719 = 0.12555760611043656 * t714
         + (0.3174776227989252 * t712 + 0.9399166168175558 * t713);
     let t720 = 0.3174776227989252 * t719;
     let t721 = 0.9399166168175558 * t719;
     let t722 = 0.12555760611043656 * t719;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t720
-        + (j5_cos_b1p * (t712 - t720)
-            - j5_sin_b1p * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
+    let y6_b1a_x = t720
+        + (j5_cos_b1a * (t712 - t720)
+            - j5_sin_b1a * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t721
-        + (j5_cos_b1p * (t713 - t721)
-            - j5_sin_b1p * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
+    let y6_b1a_y = t721
+        + (j5_cos_b1a * (t713 - t721)
+            - j5_sin_b1a * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t722
-        + (j5_cos_b1p * (t714 - t722)
-            - j5_sin_b1p * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
+    let y6_b1a_z = t722
+        + (j5_cos_b1a * (t714 - t722)
+            - j5_sin_b1a * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1p_y - 0.028388007507509954 * y6_b1p_x)
+            * (0.9965786754905472 * y6_b1a_y - 0.028388007507509954 * y6_b1a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1p_x - 0.9965786754905472 * y6_b1p_z)
+                * (0.0776212895233 * y6_b1a_x - 0.9965786754905472 * y6_b1a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1p_z - 0.0776212895233 * y6_b1p_y)),
-        0.0776212895233 * y6_b1p_z
-            + (0.9965786754905472 * y6_b1p_x + 0.028388007507509954 * y6_b1p_y),
+                    * (0.028388007507509954 * y6_b1a_z - 0.0776212895233 * y6_b1a_y)),
+        0.0776212895233 * y6_b1a_z
+            + (0.9965786754905472 * y6_b1a_x + 0.028388007507509954 * y6_b1a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t606 - t602;
+    let z_b1b_x = t606 - t602;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t607 - t603;
+    let z_b1b_y = t607 - t603;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t605 + t608;
+    let z_b1b_z = t605 + t608;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.2056566317887352
-        * (0.8840923826341479 * z_b1m_z
-            - (0.21377064521432798 * z_b1m_x + 0.04589463161448898 * z_b1m_y));
+    let j5_cos_b1b = 1.2056566317887352
+        * (0.8840923826341479 * z_b1b_z
+            - (0.21377064521432798 * z_b1b_x + 0.04589463161448898 * z_b1b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.2056566317887352
+    let j5_sin_b1b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1m_z - 0.935948806852255 * z_b1m_y)
+            * (0.34229941191058744 * z_b1b_z - 0.935948806852255 * z_b1b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1m_x + 0.08264952242757546 * z_b1m_z)
+                * (0.935948806852255 * z_b1b_x + 0.08264952242757546 * z_b1b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
+                * (0.08264952242757546 * z_b1b_y + 0.34229941191058744 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t795 = t645 - t602;
     let t796 = t646 - t603;
     let t797 = t605 + t647;
@@ -973,41 +973,41 @@ fn candidates(
     let t826 = -ref4_cos;
     let t827 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t826 } else { t802 * t822 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t826 } else { t802 * t822 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t827 } else { t816 * t822 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t827 } else { t816 * t822 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t840 = t691 * j4_cos_b1m - t696 * j4_sin_b1m - t688;
-    let t841 = t689 + (t692 * j4_cos_b1m - t699 * j4_sin_b1m);
-    let t842 = t693 * j4_cos_b1m + t702 * j4_sin_b1m - t690;
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t840 = t691 * j4_cos_b1b - t696 * j4_sin_b1b - t688;
+    let t841 = t689 + (t692 * j4_cos_b1b - t699 * j4_sin_b1b);
+    let t842 = t693 * j4_cos_b1b + t702 * j4_sin_b1b - t690;
     let t847 = 0.12555760611043656 * t842
         + (0.3174776227989252 * t840 + 0.9399166168175558 * t841);
     let t848 = 0.3174776227989252 * t847;
     let t849 = 0.9399166168175558 * t847;
     let t850 = 0.12555760611043656 * t847;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t848
-        + (j5_cos_b1m * (t840 - t848)
-            - j5_sin_b1m * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
+    let y6_b1b_x = t848
+        + (j5_cos_b1b * (t840 - t848)
+            - j5_sin_b1b * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t849
-        + (j5_cos_b1m * (t841 - t849)
-            - j5_sin_b1m * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
+    let y6_b1b_y = t849
+        + (j5_cos_b1b * (t841 - t849)
+            - j5_sin_b1b * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t850
-        + (j5_cos_b1m * (t842 - t850)
-            - j5_sin_b1m * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
+    let y6_b1b_z = t850
+        + (j5_cos_b1b * (t842 - t850)
+            - j5_sin_b1b * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1m_y - 0.028388007507509954 * y6_b1m_x)
+            * (0.9965786754905472 * y6_b1b_y - 0.028388007507509954 * y6_b1b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1m_x - 0.9965786754905472 * y6_b1m_z)
+                * (0.0776212895233 * y6_b1b_x - 0.9965786754905472 * y6_b1b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1m_z - 0.0776212895233 * y6_b1m_y)),
-        0.0776212895233 * y6_b1m_z
-            + (0.9965786754905472 * y6_b1m_x + 0.028388007507509954 * y6_b1m_y),
+                    * (0.028388007507509954 * y6_b1b_z - 0.0776212895233 * y6_b1b_y)),
+        0.0776212895233 * y6_b1b_z
+            + (0.9965786754905472 * y6_b1b_x + 0.028388007507509954 * y6_b1b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t489 + (t289 * t492 - t290 * t497);
@@ -1050,25 +1050,25 @@ fn candidates(
     let t960 = 1.0379846701062043 * t924 + t954;
     let t961 = t955 - 0.2010269164374744 * t924;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t956 + t959;
+    let z_b2a_x = t956 + t959;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t957 + t960;
+    let z_b2a_y = t957 + t960;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t961 - t958;
+    let z_b2a_z = t961 - t958;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.2056566317887352
-        * (0.8840923826341479 * z_b2p_z
-            - (0.21377064521432798 * z_b2p_x + 0.04589463161448898 * z_b2p_y));
+    let j5_cos_b2a = 1.2056566317887352
+        * (0.8840923826341479 * z_b2a_z
+            - (0.21377064521432798 * z_b2a_x + 0.04589463161448898 * z_b2a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.2056566317887352
+    let j5_sin_b2a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2p_z - 0.935948806852255 * z_b2p_y)
+            * (0.34229941191058744 * z_b2a_z - 0.935948806852255 * z_b2a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2p_x + 0.08264952242757546 * z_b2p_z)
+                * (0.935948806852255 * z_b2a_x + 0.08264952242757546 * z_b2a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
+                * (0.08264952242757546 * z_b2a_y + 0.34229941191058744 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t987 = j5_alpha_b2 - j5_a_b2;
     let t991 = t953 - 0.620341126105259 * t987;
     let t992 = t954 + 0.7700239450467775 * t987;
@@ -1085,11 +1085,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1018;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
     let t1033 = 0.620341126105259 * t1032;
@@ -1101,57 +1101,57 @@ fn candidates(
     let t1041 = 0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y;
     let t1044 = 0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x;
     let t1047 = 0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x;
-    let t1057 = j4_cos_b2p * t1036 - j4_sin_b2p * t1041 - t1033;
-    let t1058 = t1034 + (j4_cos_b2p * t1037 - j4_sin_b2p * t1044);
-    let t1059 = j4_cos_b2p * t1038 + j4_sin_b2p * t1047 - t1035;
+    let t1057 = j4_cos_b2a * t1036 - j4_sin_b2a * t1041 - t1033;
+    let t1058 = t1034 + (j4_cos_b2a * t1037 - j4_sin_b2a * t1044);
+    let t1059 = j4_cos_b2a * t1038 + j4_sin_b2a * t1047 - t1035;
     let t1064 = 0.12555760611043656 * t1059
         + (0.3174776227989252 * t1057 + 0.9399166168175558 * t1058);
     let t1065 = 0.3174776227989252 * t1064;
     let t1066 = 0.9399166168175558 * t1064;
     let t1067 = 0.12555760611043656 * t1064;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1065
-        + (j5_cos_b2p * (t1057 - t1065)
-            - j5_sin_b2p * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
+    let y6_b2a_x = t1065
+        + (j5_cos_b2a * (t1057 - t1065)
+            - j5_sin_b2a * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t1066
-        + (j5_cos_b2p * (t1058 - t1066)
-            - j5_sin_b2p * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
+    let y6_b2a_y = t1066
+        + (j5_cos_b2a * (t1058 - t1066)
+            - j5_sin_b2a * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t1067
-        + (j5_cos_b2p * (t1059 - t1067)
-            - j5_sin_b2p * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
+    let y6_b2a_z = t1067
+        + (j5_cos_b2a * (t1059 - t1067)
+            - j5_sin_b2a * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2p_y - 0.028388007507509954 * y6_b2p_x)
+            * (0.9965786754905472 * y6_b2a_y - 0.028388007507509954 * y6_b2a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2p_x - 0.9965786754905472 * y6_b2p_z)
+                * (0.0776212895233 * y6_b2a_x - 0.9965786754905472 * y6_b2a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2p_z - 0.0776212895233 * y6_b2p_y)),
-        0.0776212895233 * y6_b2p_z
-            + (0.9965786754905472 * y6_b2p_x + 0.028388007507509954 * y6_b2p_y),
+                    * (0.028388007507509954 * y6_b2a_z - 0.0776212895233 * y6_b2a_y)),
+        0.0776212895233 * y6_b2a_z
+            + (0.9965786754905472 * y6_b2a_x + 0.028388007507509954 * y6_b2a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t959 - t956;
+    let z_b2b_x = t959 - t956;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t960 - t957;
+    let z_b2b_y = t960 - t957;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t958 + t961;
+    let z_b2b_z = t958 + t961;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.2056566317887352
-        * (0.8840923826341479 * z_b2m_z
-            - (0.21377064521432798 * z_b2m_x + 0.04589463161448898 * z_b2m_y));
+    let j5_cos_b2b = 1.2056566317887352
+        * (0.8840923826341479 * z_b2b_z
+            - (0.21377064521432798 * z_b2b_x + 0.04589463161448898 * z_b2b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.2056566317887352
+    let j5_sin_b2b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2m_z - 0.935948806852255 * z_b2m_y)
+            * (0.34229941191058744 * z_b2b_z - 0.935948806852255 * z_b2b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2m_x + 0.08264952242757546 * z_b2m_z)
+                * (0.935948806852255 * z_b2b_x + 0.08264952242757546 * z_b2b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
+                * (0.08264952242757546 * z_b2b_y + 0.34229941191058744 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t1137 = t991 - t956;
     let t1138 = t992 - t957;
     let t1139 = t958 + t993;
@@ -1164,48 +1164,48 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1161;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t826 } else { t1144 * t1164 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t826 } else { t1144 * t1164 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t827 } else { t1158 * t1164 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t827 } else { t1158 * t1164 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1180 = t1036 * j4_cos_b2m - t1041 * j4_sin_b2m - t1033;
-    let t1181 = t1034 + (t1037 * j4_cos_b2m - t1044 * j4_sin_b2m);
-    let t1182 = t1038 * j4_cos_b2m + t1047 * j4_sin_b2m - t1035;
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t1180 = t1036 * j4_cos_b2b - t1041 * j4_sin_b2b - t1033;
+    let t1181 = t1034 + (t1037 * j4_cos_b2b - t1044 * j4_sin_b2b);
+    let t1182 = t1038 * j4_cos_b2b + t1047 * j4_sin_b2b - t1035;
     let t1187 = 0.12555760611043656 * t1182
         + (0.3174776227989252 * t1180 + 0.9399166168175558 * t1181);
     let t1188 = 0.3174776227989252 * t1187;
     let t1189 = 0.9399166168175558 * t1187;
     let t1190 = 0.12555760611043656 * t1187;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1188
-        + (j5_cos_b2m * (t1180 - t1188)
-            - j5_sin_b2m * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
+    let y6_b2b_x = t1188
+        + (j5_cos_b2b * (t1180 - t1188)
+            - j5_sin_b2b * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = t1189
-        + (j5_cos_b2m * (t1181 - t1189)
-            - j5_sin_b2m * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
+    let y6_b2b_y = t1189
+        + (j5_cos_b2b * (t1181 - t1189)
+            - j5_sin_b2b * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1190
-        + (j5_cos_b2m * (t1182 - t1190)
-            - j5_sin_b2m * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
+    let y6_b2b_z = t1190
+        + (j5_cos_b2b * (t1182 - t1190)
+            - j5_sin_b2b * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2m_y - 0.028388007507509954 * y6_b2m_x)
+            * (0.9965786754905472 * y6_b2b_y - 0.028388007507509954 * y6_b2b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2m_x - 0.9965786754905472 * y6_b2m_z)
+                * (0.0776212895233 * y6_b2b_x - 0.9965786754905472 * y6_b2b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2m_z - 0.0776212895233 * y6_b2m_y)),
-        0.0776212895233 * y6_b2m_z
-            + (0.9965786754905472 * y6_b2m_x + 0.028388007507509954 * y6_b2m_y),
+                    * (0.028388007507509954 * y6_b2b_z - 0.0776212895233 * y6_b2b_y)),
+        0.0776212895233 * y6_b2b_z
+            + (0.9965786754905472 * y6_b2b_x + 0.028388007507509954 * y6_b2b_y),
     );
-    let t1244 = t425 + (j1_cos_m * t428 - j1_sin_m * t433);
-    let t1245 = t426 + (j1_cos_m * t429 - j1_sin_m * t436);
-    let t1246 = t427 + (j1_cos_m * t430 - j1_sin_m * t439);
-    let t1256 = t457 + (j1_cos_m * t460 - j1_sin_m * t465);
-    let t1257 = t458 + (j1_cos_m * t461 - j1_sin_m * t468);
-    let t1258 = t459 + (j1_cos_m * t462 - j1_sin_m * t471);
+    let t1244 = t425 + (j1_cos_b * t428 - j1_sin_b * t433);
+    let t1245 = t426 + (j1_cos_b * t429 - j1_sin_b * t436);
+    let t1246 = t427 + (j1_cos_b * t430 - j1_sin_b * t439);
+    let t1256 = t457 + (j1_cos_b * t460 - j1_sin_b * t465);
+    let t1257 = t458 + (j1_cos_b * t461 - j1_sin_b * t468);
+    let t1258 = t459 + (j1_cos_b * t462 - j1_sin_b * t471);
     let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
         - 0.32318451312347624 * t1246;
     let t1264 = 0.919348671064388 * t1263;
@@ -1269,25 +1269,25 @@ fn candidates(
     let t1364 = 1.0379846701062043 * t1328 + t1358;
     let t1365 = t1359 - 0.2010269164374744 * t1328;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1360 + t1363;
+    let z_b3a_x = t1360 + t1363;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1361 + t1364;
+    let z_b3a_y = t1361 + t1364;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1365 - t1362;
+    let z_b3a_z = t1365 - t1362;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = 1.2056566317887352
-        * (0.8840923826341479 * z_b3p_z
-            - (0.21377064521432798 * z_b3p_x + 0.04589463161448898 * z_b3p_y));
+    let j5_cos_b3a = 1.2056566317887352
+        * (0.8840923826341479 * z_b3a_z
+            - (0.21377064521432798 * z_b3a_x + 0.04589463161448898 * z_b3a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 1.2056566317887352
+    let j5_sin_b3a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3p_z - 0.935948806852255 * z_b3p_y)
+            * (0.34229941191058744 * z_b3a_z - 0.935948806852255 * z_b3a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3p_x + 0.08264952242757546 * z_b3p_z)
+                * (0.935948806852255 * z_b3a_x + 0.08264952242757546 * z_b3a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
+                * (0.08264952242757546 * z_b3a_y + 0.34229941191058744 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1391 = j5_alpha_b3 - j5_a_b3;
     let t1395 = t1357 - 0.620341126105259 * t1391;
     let t1396 = t1358 + 0.7700239450467775 * t1391;
@@ -1304,11 +1304,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1422;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
     let t1437 = 0.620341126105259 * t1436;
@@ -1320,57 +1320,57 @@ fn candidates(
     let t1445 = 0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y;
     let t1448 = 0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x;
     let t1451 = 0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x;
-    let t1461 = j4_cos_b3p * t1440 - j4_sin_b3p * t1445 - t1437;
-    let t1462 = t1438 + (j4_cos_b3p * t1441 - j4_sin_b3p * t1448);
-    let t1463 = j4_cos_b3p * t1442 + j4_sin_b3p * t1451 - t1439;
+    let t1461 = j4_cos_b3a * t1440 - j4_sin_b3a * t1445 - t1437;
+    let t1462 = t1438 + (j4_cos_b3a * t1441 - j4_sin_b3a * t1448);
+    let t1463 = j4_cos_b3a * t1442 + j4_sin_b3a * t1451 - t1439;
     let t1468 = 0.12555760611043656 * t1463
         + (0.3174776227989252 * t1461 + 0.9399166168175558 * t1462);
     let t1469 = 0.3174776227989252 * t1468;
     let t1470 = 0.9399166168175558 * t1468;
     let t1471 = 0.12555760611043656 * t1468;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1469
-        + (j5_cos_b3p * (t1461 - t1469)
-            - j5_sin_b3p * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
+    let y6_b3a_x = t1469
+        + (j5_cos_b3a * (t1461 - t1469)
+            - j5_sin_b3a * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1470
-        + (j5_cos_b3p * (t1462 - t1470)
-            - j5_sin_b3p * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
+    let y6_b3a_y = t1470
+        + (j5_cos_b3a * (t1462 - t1470)
+            - j5_sin_b3a * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1471
-        + (j5_cos_b3p * (t1463 - t1471)
-            - j5_sin_b3p * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
+    let y6_b3a_z = t1471
+        + (j5_cos_b3a * (t1463 - t1471)
+            - j5_sin_b3a * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3p_y - 0.028388007507509954 * y6_b3p_x)
+            * (0.9965786754905472 * y6_b3a_y - 0.028388007507509954 * y6_b3a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3p_x - 0.9965786754905472 * y6_b3p_z)
+                * (0.0776212895233 * y6_b3a_x - 0.9965786754905472 * y6_b3a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3p_z - 0.0776212895233 * y6_b3p_y)),
-        0.0776212895233 * y6_b3p_z
-            + (0.9965786754905472 * y6_b3p_x + 0.028388007507509954 * y6_b3p_y),
+                    * (0.028388007507509954 * y6_b3a_z - 0.0776212895233 * y6_b3a_y)),
+        0.0776212895233 * y6_b3a_z
+            + (0.9965786754905472 * y6_b3a_x + 0.028388007507509954 * y6_b3a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1363 - t1360;
+    let z_b3b_x = t1363 - t1360;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = t1364 - t1361;
+    let z_b3b_y = t1364 - t1361;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1362 + t1365;
+    let z_b3b_z = t1362 + t1365;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3m = 1.2056566317887352
-        * (0.8840923826341479 * z_b3m_z
-            - (0.21377064521432798 * z_b3m_x + 0.04589463161448898 * z_b3m_y));
+    let j5_cos_b3b = 1.2056566317887352
+        * (0.8840923826341479 * z_b3b_z
+            - (0.21377064521432798 * z_b3b_x + 0.04589463161448898 * z_b3b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3m = 1.2056566317887352
+    let j5_sin_b3b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3m_z - 0.935948806852255 * z_b3m_y)
+            * (0.34229941191058744 * z_b3b_z - 0.935948806852255 * z_b3b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3m_x + 0.08264952242757546 * z_b3m_z)
+                * (0.935948806852255 * z_b3b_x + 0.08264952242757546 * z_b3b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
+                * (0.08264952242757546 * z_b3b_y + 0.34229941191058744 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
     let t1541 = t1395 - t1360;
     let t1542 = t1396 - t1361;
     let t1543 = t1362 + t1397;
@@ -1383,41 +1383,41 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1565;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t826 } else { t1548 * t1568 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t826 } else { t1548 * t1568 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t827 } else { t1562 * t1568 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { t827 } else { t1562 * t1568 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1584 = t1440 * j4_cos_b3m - t1445 * j4_sin_b3m - t1437;
-    let t1585 = t1438 + (t1441 * j4_cos_b3m - t1448 * j4_sin_b3m);
-    let t1586 = t1442 * j4_cos_b3m + t1451 * j4_sin_b3m - t1439;
+    let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
+    let t1584 = t1440 * j4_cos_b3b - t1445 * j4_sin_b3b - t1437;
+    let t1585 = t1438 + (t1441 * j4_cos_b3b - t1448 * j4_sin_b3b);
+    let t1586 = t1442 * j4_cos_b3b + t1451 * j4_sin_b3b - t1439;
     let t1591 = 0.12555760611043656 * t1586
         + (0.3174776227989252 * t1584 + 0.9399166168175558 * t1585);
     let t1592 = 0.3174776227989252 * t1591;
     let t1593 = 0.9399166168175558 * t1591;
     let t1594 = 0.12555760611043656 * t1591;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1592
-        + (j5_cos_b3m * (t1584 - t1592)
-            - j5_sin_b3m * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
+    let y6_b3b_x = t1592
+        + (j5_cos_b3b * (t1584 - t1592)
+            - j5_sin_b3b * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = t1593
-        + (j5_cos_b3m * (t1585 - t1593)
-            - j5_sin_b3m * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
+    let y6_b3b_y = t1593
+        + (j5_cos_b3b * (t1585 - t1593)
+            - j5_sin_b3b * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = t1594
-        + (j5_cos_b3m * (t1586 - t1594)
-            - j5_sin_b3m * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
+    let y6_b3b_z = t1594
+        + (j5_cos_b3b * (t1586 - t1594)
+            - j5_sin_b3b * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3m = ::armforge_runtime::math::atan2(
+    let q6_b3b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3m_y - 0.028388007507509954 * y6_b3m_x)
+            * (0.9965786754905472 * y6_b3b_y - 0.028388007507509954 * y6_b3b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3m_x - 0.9965786754905472 * y6_b3m_z)
+                * (0.0776212895233 * y6_b3b_x - 0.9965786754905472 * y6_b3b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3m_z - 0.0776212895233 * y6_b3m_y)),
-        0.0776212895233 * y6_b3m_z
-            + (0.9965786754905472 * y6_b3m_x + 0.028388007507509954 * y6_b3m_y),
+                    * (0.028388007507509954 * y6_b3b_z - 0.0776212895233 * y6_b3b_y)),
+        0.0776212895233 * y6_b3b_z
+            + (0.9965786754905472 * y6_b3b_x + 0.028388007507509954 * y6_b3b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1264 + (t352 * t1267 - t353 * t1272);
@@ -1460,25 +1460,25 @@ fn candidates(
     let t1704 = 1.0379846701062043 * t1668 + t1698;
     let t1705 = t1699 - 0.2010269164374744 * t1668;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1700 + t1703;
+    let z_b4a_x = t1700 + t1703;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1701 + t1704;
+    let z_b4a_y = t1701 + t1704;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1705 - t1702;
+    let z_b4a_z = t1705 - t1702;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = 1.2056566317887352
-        * (0.8840923826341479 * z_b4p_z
-            - (0.21377064521432798 * z_b4p_x + 0.04589463161448898 * z_b4p_y));
+    let j5_cos_b4a = 1.2056566317887352
+        * (0.8840923826341479 * z_b4a_z
+            - (0.21377064521432798 * z_b4a_x + 0.04589463161448898 * z_b4a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 1.2056566317887352
+    let j5_sin_b4a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4p_z - 0.935948806852255 * z_b4p_y)
+            * (0.34229941191058744 * z_b4a_z - 0.935948806852255 * z_b4a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4p_x + 0.08264952242757546 * z_b4p_z)
+                * (0.935948806852255 * z_b4a_x + 0.08264952242757546 * z_b4a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
+                * (0.08264952242757546 * z_b4a_y + 0.34229941191058744 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1731 = j5_alpha_b4 - j5_a_b4;
     let t1735 = t1697 - 0.620341126105259 * t1731;
     let t1736 = t1698 + 0.7700239450467775 * t1731;
@@ -1495,11 +1495,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1762;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
     let t1777 = 0.620341126105259 * t1776;
@@ -1511,57 +1511,57 @@ fn candidates(
     let t1785 = 0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y;
     let t1788 = 0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x;
     let t1791 = 0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x;
-    let t1801 = j4_cos_b4p * t1780 - j4_sin_b4p * t1785 - t1777;
-    let t1802 = t1778 + (j4_cos_b4p * t1781 - j4_sin_b4p * t1788);
-    let t1803 = j4_cos_b4p * t1782 + j4_sin_b4p * t1791 - t1779;
+    let t1801 = j4_cos_b4a * t1780 - j4_sin_b4a * t1785 - t1777;
+    let t1802 = t1778 + (j4_cos_b4a * t1781 - j4_sin_b4a * t1788);
+    let t1803 = j4_cos_b4a * t1782 + j4_sin_b4a * t1791 - t1779;
     let t1808 = 0.12555760611043656 * t1803
         + (0.3174776227989252 * t1801 + 0.9399166168175558 * t1802);
     let t1809 = 0.3174776227989252 * t1808;
     let t1810 = 0.9399166168175558 * t1808;
     let t1811 = 0.12555760611043656 * t1808;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1809
-        + (j5_cos_b4p * (t1801 - t1809)
-            - j5_sin_b4p * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
+    let y6_b4a_x = t1809
+        + (j5_cos_b4a * (t1801 - t1809)
+            - j5_sin_b4a * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1810
-        + (j5_cos_b4p * (t1802 - t1810)
-            - j5_sin_b4p * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
+    let y6_b4a_y = t1810
+        + (j5_cos_b4a * (t1802 - t1810)
+            - j5_sin_b4a * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1811
-        + (j5_cos_b4p * (t1803 - t1811)
-            - j5_sin_b4p * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
+    let y6_b4a_z = t1811
+        + (j5_cos_b4a * (t1803 - t1811)
+            - j5_sin_b4a * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4p_y - 0.028388007507509954 * y6_b4p_x)
+            * (0.9965786754905472 * y6_b4a_y - 0.028388007507509954 * y6_b4a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4p_x - 0.9965786754905472 * y6_b4p_z)
+                * (0.0776212895233 * y6_b4a_x - 0.9965786754905472 * y6_b4a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4p_z - 0.0776212895233 * y6_b4p_y)),
-        0.0776212895233 * y6_b4p_z
-            + (0.9965786754905472 * y6_b4p_x + 0.028388007507509954 * y6_b4p_y),
+                    * (0.028388007507509954 * y6_b4a_z - 0.0776212895233 * y6_b4a_y)),
+        0.0776212895233 * y6_b4a_z
+            + (0.9965786754905472 * y6_b4a_x + 0.028388007507509954 * y6_b4a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1703 - t1700;
+    let z_b4b_x = t1703 - t1700;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = t1704 - t1701;
+    let z_b4b_y = t1704 - t1701;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1702 + t1705;
+    let z_b4b_z = t1702 + t1705;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4m = 1.2056566317887352
-        * (0.8840923826341479 * z_b4m_z
-            - (0.21377064521432798 * z_b4m_x + 0.04589463161448898 * z_b4m_y));
+    let j5_cos_b4b = 1.2056566317887352
+        * (0.8840923826341479 * z_b4b_z
+            - (0.21377064521432798 * z_b4b_x + 0.04589463161448898 * z_b4b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4m = 1.2056566317887352
+    let j5_sin_b4b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4m_z - 0.935948806852255 * z_b4m_y)
+            * (0.34229941191058744 * z_b4b_z - 0.935948806852255 * z_b4b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4m_x + 0.08264952242757546 * z_b4m_z)
+                * (0.935948806852255 * z_b4b_x + 0.08264952242757546 * z_b4b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
+                * (0.08264952242757546 * z_b4b_y + 0.34229941191058744 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
     let t1881 = t1735 - t1700;
     let t1882 = t1736 - t1701;
     let t1883 = t1702 + t1737;
@@ -1574,45 +1574,45 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1905;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t826 } else { t1888 * t1908 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t826 } else { t1888 * t1908 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t827 } else { t1902 * t1908 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { t827 } else { t1902 * t1908 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t1924 = t1780 * j4_cos_b4m - t1785 * j4_sin_b4m - t1777;
-    let t1925 = t1778 + (t1781 * j4_cos_b4m - t1788 * j4_sin_b4m);
-    let t1926 = t1782 * j4_cos_b4m + t1791 * j4_sin_b4m - t1779;
+    let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
+    let t1924 = t1780 * j4_cos_b4b - t1785 * j4_sin_b4b - t1777;
+    let t1925 = t1778 + (t1781 * j4_cos_b4b - t1788 * j4_sin_b4b);
+    let t1926 = t1782 * j4_cos_b4b + t1791 * j4_sin_b4b - t1779;
     let t1931 = 0.12555760611043656 * t1926
         + (0.3174776227989252 * t1924 + 0.9399166168175558 * t1925);
     let t1932 = 0.3174776227989252 * t1931;
     let t1933 = 0.9399166168175558 * t1931;
     let t1934 = 0.12555760611043656 * t1931;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t1932
-        + (j5_cos_b4m * (t1924 - t1932)
-            - j5_sin_b4m * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
+    let y6_b4b_x = t1932
+        + (j5_cos_b4b * (t1924 - t1932)
+            - j5_sin_b4b * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = t1933
-        + (j5_cos_b4m * (t1925 - t1933)
-            - j5_sin_b4m * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
+    let y6_b4b_y = t1933
+        + (j5_cos_b4b * (t1925 - t1933)
+            - j5_sin_b4b * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = t1934
-        + (j5_cos_b4m * (t1926 - t1934)
-            - j5_sin_b4m * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
+    let y6_b4b_z = t1934
+        + (j5_cos_b4b * (t1926 - t1934)
+            - j5_sin_b4b * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4m = ::armforge_runtime::math::atan2(
+    let q6_b4b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4m_y - 0.028388007507509954 * y6_b4m_x)
+            * (0.9965786754905472 * y6_b4b_y - 0.028388007507509954 * y6_b4b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4m_x - 0.9965786754905472 * y6_b4m_z)
+                * (0.0776212895233 * y6_b4b_x - 0.9965786754905472 * y6_b4b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4m_z - 0.0776212895233 * y6_b4m_y)),
-        0.0776212895233 * y6_b4m_z
-            + (0.9965786754905472 * y6_b4m_x + 0.028388007507509954 * y6_b4m_y),
+                    * (0.028388007507509954 * y6_b4b_z - 0.0776212895233 * y6_b4b_y)),
+        0.0776212895233 * y6_b4b_z
+            + (0.9965786754905472 * y6_b4b_x + 0.028388007507509954 * y6_b4b_y),
     );
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1626,7 +1626,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1640,7 +1640,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1654,7 +1654,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1668,7 +1668,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1682,7 +1682,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1696,7 +1696,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1710,7 +1710,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1724,7 +1724,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1738,7 +1738,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1752,7 +1752,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1766,7 +1766,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1780,7 +1780,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1794,7 +1794,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1808,7 +1808,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1822,7 +1822,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1912,16 +1912,16 @@ fn branch_1(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -1930,45 +1930,45 @@ fn branch_1(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    let t224 = 1.0 / d2_a.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.2750702190093362;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
-    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
-        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
-        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
+    let q3_aa = j3_root_a - 0.2750702190093362;
+    let t236 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t238 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t239 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t244 = w_a_z * t239 + (w_a_x * t236 - w_a_y * t238);
+    let t258 = 0.22438759210189282 * (w_a_x * t239 - w_a_z * t236)
+        - 0.919348671064388 * (w_a_z * t238 + w_a_y * t239)
+        - 0.32318451312347624 * (w_a_y * t236 + w_a_x * t238);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
+    let q2_aa = ::armforge_runtime::math::atan2(t258, t244);
     let t260 = t224 * t244;
     let t261 = t224 * t258;
     let t361 = 0.42112668389358265 * r02
@@ -2007,28 +2007,28 @@ fn branch_1(
     let t426 = 0.553647671333485 * t424;
     let t427 = 0.2455648081179022 * t424;
     let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t425)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t426)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t427)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t456 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t457 = 0.7957211704114873 * t456;
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t457)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t458)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t459)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
         - 0.32318451312347624 * t451;
     let t489 = 0.919348671064388 * t488;
@@ -2087,25 +2087,25 @@ fn branch_1(
     let t603 = 0.030542838068628286 * j5_gamma_b1;
     let t605 = 0.8275343040933489 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t602 + (t597 - 0.8362137090354541 * t558);
+    let z_b1a_x = t602 + (t597 - 0.8362137090354541 * t558);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t603 + (1.0379846701062043 * t558 + t598);
+    let z_b1a_y = t603 + (1.0379846701062043 * t558 + t598);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t599 - 0.2010269164374744 * t558 - t605;
+    let z_b1a_z = t599 - 0.2010269164374744 * t558 - t605;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.2056566317887352
-        * (0.8840923826341479 * z_b1p_z
-            - (0.21377064521432798 * z_b1p_x + 0.04589463161448898 * z_b1p_y));
+    let j5_cos_b1a = 1.2056566317887352
+        * (0.8840923826341479 * z_b1a_z
+            - (0.21377064521432798 * z_b1a_x + 0.04589463161448898 * z_b1a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.2056566317887352
+    let j5_sin_b1a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1p_z - 0.935948806852255 * z_b1p_y)
+            * (0.34229941191058744 * z_b1a_z - 0.935948806852255 * z_b1a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1p_x + 0.08264952242757546 * z_b1p_z)
+                * (0.935948806852255 * z_b1a_x + 0.08264952242757546 * z_b1a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
+                * (0.08264952242757546 * z_b1a_y + 0.34229941191058744 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t641 = j5_alpha_b1 - j5_a_b1;
     let t648 = t602 + (t597 - 0.620341126105259 * t641);
     let t649 = t603 + (t598 + 0.7700239450467775 * t641);
@@ -2119,25 +2119,25 @@ fn branch_1(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t672;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
     let t688 = 0.620341126105259 * t687;
     let t689 = 0.7700239450467775 * t687;
     let t690 = 0.14913085300184115 * t687;
-    let t712 = j4_cos_b1p * (xv_b1_x + t688)
-        - j4_sin_b1p * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
+    let t712 = j4_cos_b1a * (xv_b1_x + t688)
+        - j4_sin_b1a * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
         - t688;
     let t713 = t689
-        + (j4_cos_b1p * (xv_b1_y - t689)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t689)
+            - j4_sin_b1a
                 * (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x));
-    let t714 = j4_cos_b1p * (xv_b1_z + t690)
-        + j4_sin_b1p * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
+    let t714 = j4_cos_b1a * (xv_b1_z + t690)
+        + j4_sin_b1a * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
         - t690;
     let t719 = 0.12555760611043656 * t714
         + (0.3174776227989252 * t712 + 0.9399166168175558 * t713);
@@ -2145,30 +2145,30 @@ fn branch_1(
     let t721 = 0.9399166168175558 * t719;
     let t722 = 0.12555760611043656 * t719;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t720
-        + (j5_cos_b1p * (t712 - t720)
-            - j5_sin_b1p * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
+    let y6_b1a_x = t720
+        + (j5_cos_b1a * (t712 - t720)
+            - j5_sin_b1a * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t721
-        + (j5_cos_b1p * (t713 - t721)
-            - j5_sin_b1p * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
+    let y6_b1a_y = t721
+        + (j5_cos_b1a * (t713 - t721)
+            - j5_sin_b1a * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t722
-        + (j5_cos_b1p * (t714 - t722)
-            - j5_sin_b1p * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
+    let y6_b1a_z = t722
+        + (j5_cos_b1a * (t714 - t722)
+            - j5_sin_b1a * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1p_y - 0.028388007507509954 * y6_b1p_x)
+            * (0.9965786754905472 * y6_b1a_y - 0.028388007507509954 * y6_b1a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1p_x - 0.9965786754905472 * y6_b1p_z)
+                * (0.0776212895233 * y6_b1a_x - 0.9965786754905472 * y6_b1a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1p_z - 0.0776212895233 * y6_b1p_y)),
-        0.0776212895233 * y6_b1p_z
-            + (0.9965786754905472 * y6_b1p_x + 0.028388007507509954 * y6_b1p_y),
+                    * (0.028388007507509954 * y6_b1a_z - 0.0776212895233 * y6_b1a_y)),
+        0.0776212895233 * y6_b1a_z
+            + (0.9965786754905472 * y6_b1a_x + 0.028388007507509954 * y6_b1a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -2182,7 +2182,7 @@ fn branch_1(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -2271,16 +2271,16 @@ fn branch_2(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2289,45 +2289,45 @@ fn branch_2(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    let t224 = 1.0 / d2_a.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.2750702190093362;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
-    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
-        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
-        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
+    let q3_aa = j3_root_a - 0.2750702190093362;
+    let t236 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t238 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t239 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t244 = w_a_z * t239 + (w_a_x * t236 - w_a_y * t238);
+    let t258 = 0.22438759210189282 * (w_a_x * t239 - w_a_z * t236)
+        - 0.919348671064388 * (w_a_z * t238 + w_a_y * t239)
+        - 0.32318451312347624 * (w_a_y * t236 + w_a_x * t238);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
+    let q2_aa = ::armforge_runtime::math::atan2(t258, t244);
     let t260 = t224 * t244;
     let t261 = t224 * t258;
     let t361 = 0.42112668389358265 * r02
@@ -2366,28 +2366,28 @@ fn branch_2(
     let t426 = 0.553647671333485 * t424;
     let t427 = 0.2455648081179022 * t424;
     let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t425)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t426)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t427)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t456 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t457 = 0.7957211704114873 * t456;
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t457)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t458)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t459)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
         - 0.32318451312347624 * t451;
     let t489 = 0.919348671064388 * t488;
@@ -2452,25 +2452,25 @@ fn branch_2(
     let t689 = 0.7700239450467775 * t687;
     let t690 = 0.14913085300184115 * t687;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t597 - 0.8362137090354541 * t558 - t602;
+    let z_b1b_x = t597 - 0.8362137090354541 * t558 - t602;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 1.0379846701062043 * t558 + t598 - t603;
+    let z_b1b_y = 1.0379846701062043 * t558 + t598 - t603;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t605 + (t599 - 0.2010269164374744 * t558);
+    let z_b1b_z = t605 + (t599 - 0.2010269164374744 * t558);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.2056566317887352
-        * (0.8840923826341479 * z_b1m_z
-            - (0.21377064521432798 * z_b1m_x + 0.04589463161448898 * z_b1m_y));
+    let j5_cos_b1b = 1.2056566317887352
+        * (0.8840923826341479 * z_b1b_z
+            - (0.21377064521432798 * z_b1b_x + 0.04589463161448898 * z_b1b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.2056566317887352
+    let j5_sin_b1b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1m_z - 0.935948806852255 * z_b1m_y)
+            * (0.34229941191058744 * z_b1b_z - 0.935948806852255 * z_b1b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1m_x + 0.08264952242757546 * z_b1m_z)
+                * (0.935948806852255 * z_b1b_x + 0.08264952242757546 * z_b1b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
+                * (0.08264952242757546 * z_b1b_y + 0.34229941191058744 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t795 = t597 - 0.620341126105259 * t641 - t602;
     let t796 = t598 + 0.7700239450467775 * t641 - t603;
     let t797 = t605 + (t599 - 0.14913085300184115 * t641);
@@ -2483,20 +2483,20 @@ fn branch_2(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t819;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t802 * t822 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t802 * t822 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t816 * t822 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t816 * t822 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t840 = (xv_b1_x + t688) * j4_cos_b1m
-        - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1m
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t840 = (xv_b1_x + t688) * j4_cos_b1b
+        - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1b
         - t688;
     let t841 = t689
-        + ((xv_b1_y - t689) * j4_cos_b1m
+        + ((xv_b1_y - t689) * j4_cos_b1b
             - (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x)
-                * j4_sin_b1m);
-    let t842 = (xv_b1_z + t690) * j4_cos_b1m
-        + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1m
+                * j4_sin_b1b);
+    let t842 = (xv_b1_z + t690) * j4_cos_b1b
+        + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1b
         - t690;
     let t847 = 0.12555760611043656 * t842
         + (0.3174776227989252 * t840 + 0.9399166168175558 * t841);
@@ -2504,30 +2504,30 @@ fn branch_2(
     let t849 = 0.9399166168175558 * t847;
     let t850 = 0.12555760611043656 * t847;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t848
-        + (j5_cos_b1m * (t840 - t848)
-            - j5_sin_b1m * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
+    let y6_b1b_x = t848
+        + (j5_cos_b1b * (t840 - t848)
+            - j5_sin_b1b * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t849
-        + (j5_cos_b1m * (t841 - t849)
-            - j5_sin_b1m * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
+    let y6_b1b_y = t849
+        + (j5_cos_b1b * (t841 - t849)
+            - j5_sin_b1b * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t850
-        + (j5_cos_b1m * (t842 - t850)
-            - j5_sin_b1m * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
+    let y6_b1b_z = t850
+        + (j5_cos_b1b * (t842 - t850)
+            - j5_sin_b1b * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1m_y - 0.028388007507509954 * y6_b1m_x)
+            * (0.9965786754905472 * y6_b1b_y - 0.028388007507509954 * y6_b1b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1m_x - 0.9965786754905472 * y6_b1m_z)
+                * (0.0776212895233 * y6_b1b_x - 0.9965786754905472 * y6_b1b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1m_z - 0.0776212895233 * y6_b1m_y)),
-        0.0776212895233 * y6_b1m_z
-            + (0.9965786754905472 * y6_b1m_x + 0.028388007507509954 * y6_b1m_y),
+                    * (0.028388007507509954 * y6_b1b_z - 0.0776212895233 * y6_b1b_y)),
+        0.0776212895233 * y6_b1b_z
+            + (0.9965786754905472 * y6_b1b_x + 0.028388007507509954 * y6_b1b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -2541,7 +2541,7 @@ fn branch_2(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -2630,16 +2630,16 @@ fn branch_3(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2648,45 +2648,45 @@ fn branch_3(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    let t224 = 1.0 / d2_a.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
-    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
-        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
-        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
+    let q3_ab = -0.2750702190093362 - j3_root_a;
+    let t266 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t267 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t268 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t273 = w_a_z * t268 + (w_a_x * t266 - w_a_y * t267);
+    let t287 = 0.22438759210189282 * (w_a_x * t268 - w_a_z * t266)
+        - 0.919348671064388 * (w_a_z * t267 + w_a_y * t268)
+        - 0.32318451312347624 * (w_a_y * t266 + w_a_x * t267);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
+    let q2_ab = ::armforge_runtime::math::atan2(t287, t273);
     let t289 = t224 * t273;
     let t290 = t224 * t287;
     let t361 = 0.42112668389358265 * r02
@@ -2725,28 +2725,28 @@ fn branch_3(
     let t426 = 0.553647671333485 * t424;
     let t427 = 0.2455648081179022 * t424;
     let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t425)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t426)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t427)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t456 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t457 = 0.7957211704114873 * t456;
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t457)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t458)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t459)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
         - 0.32318451312347624 * t451;
     let t489 = 0.919348671064388 * t488;
@@ -2805,25 +2805,25 @@ fn branch_3(
     let t957 = 0.030542838068628286 * j5_gamma_b2;
     let t958 = 0.8275343040933489 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t956 + (t953 - 0.8362137090354541 * t924);
+    let z_b2a_x = t956 + (t953 - 0.8362137090354541 * t924);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t957 + (1.0379846701062043 * t924 + t954);
+    let z_b2a_y = t957 + (1.0379846701062043 * t924 + t954);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t955 - 0.2010269164374744 * t924 - t958;
+    let z_b2a_z = t955 - 0.2010269164374744 * t924 - t958;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.2056566317887352
-        * (0.8840923826341479 * z_b2p_z
-            - (0.21377064521432798 * z_b2p_x + 0.04589463161448898 * z_b2p_y));
+    let j5_cos_b2a = 1.2056566317887352
+        * (0.8840923826341479 * z_b2a_z
+            - (0.21377064521432798 * z_b2a_x + 0.04589463161448898 * z_b2a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.2056566317887352
+    let j5_sin_b2a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2p_z - 0.935948806852255 * z_b2p_y)
+            * (0.34229941191058744 * z_b2a_z - 0.935948806852255 * z_b2a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2p_x + 0.08264952242757546 * z_b2p_z)
+                * (0.935948806852255 * z_b2a_x + 0.08264952242757546 * z_b2a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
+                * (0.08264952242757546 * z_b2a_y + 0.34229941191058744 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t987 = j5_alpha_b2 - j5_a_b2;
     let t994 = t956 + (t953 - 0.620341126105259 * t987);
     let t995 = t957 + (t954 + 0.7700239450467775 * t987);
@@ -2837,25 +2837,25 @@ fn branch_3(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1018;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
     let t1033 = 0.620341126105259 * t1032;
     let t1034 = 0.7700239450467775 * t1032;
     let t1035 = 0.14913085300184115 * t1032;
-    let t1057 = j4_cos_b2p * (xv_b2_x + t1033)
-        - j4_sin_b2p * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
+    let t1057 = j4_cos_b2a * (xv_b2_x + t1033)
+        - j4_sin_b2a * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
         - t1033;
     let t1058 = t1034
-        + (j4_cos_b2p * (xv_b2_y - t1034)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t1034)
+            - j4_sin_b2a
                 * (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x));
-    let t1059 = j4_cos_b2p * (xv_b2_z + t1035)
-        + j4_sin_b2p * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
+    let t1059 = j4_cos_b2a * (xv_b2_z + t1035)
+        + j4_sin_b2a * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
         - t1035;
     let t1064 = 0.12555760611043656 * t1059
         + (0.3174776227989252 * t1057 + 0.9399166168175558 * t1058);
@@ -2863,30 +2863,30 @@ fn branch_3(
     let t1066 = 0.9399166168175558 * t1064;
     let t1067 = 0.12555760611043656 * t1064;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1065
-        + (j5_cos_b2p * (t1057 - t1065)
-            - j5_sin_b2p * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
+    let y6_b2a_x = t1065
+        + (j5_cos_b2a * (t1057 - t1065)
+            - j5_sin_b2a * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t1066
-        + (j5_cos_b2p * (t1058 - t1066)
-            - j5_sin_b2p * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
+    let y6_b2a_y = t1066
+        + (j5_cos_b2a * (t1058 - t1066)
+            - j5_sin_b2a * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t1067
-        + (j5_cos_b2p * (t1059 - t1067)
-            - j5_sin_b2p * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
+    let y6_b2a_z = t1067
+        + (j5_cos_b2a * (t1059 - t1067)
+            - j5_sin_b2a * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2p_y - 0.028388007507509954 * y6_b2p_x)
+            * (0.9965786754905472 * y6_b2a_y - 0.028388007507509954 * y6_b2a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2p_x - 0.9965786754905472 * y6_b2p_z)
+                * (0.0776212895233 * y6_b2a_x - 0.9965786754905472 * y6_b2a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2p_z - 0.0776212895233 * y6_b2p_y)),
-        0.0776212895233 * y6_b2p_z
-            + (0.9965786754905472 * y6_b2p_x + 0.028388007507509954 * y6_b2p_y),
+                    * (0.028388007507509954 * y6_b2a_z - 0.0776212895233 * y6_b2a_y)),
+        0.0776212895233 * y6_b2a_z
+            + (0.9965786754905472 * y6_b2a_x + 0.028388007507509954 * y6_b2a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -2900,7 +2900,7 @@ fn branch_3(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -2989,16 +2989,16 @@ fn branch_4(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -3007,45 +3007,45 @@ fn branch_4(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    let t224 = 1.0 / d2_a.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
-    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
-        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
-        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
+    let q3_ab = -0.2750702190093362 - j3_root_a;
+    let t266 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t267 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t268 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t273 = w_a_z * t268 + (w_a_x * t266 - w_a_y * t267);
+    let t287 = 0.22438759210189282 * (w_a_x * t268 - w_a_z * t266)
+        - 0.919348671064388 * (w_a_z * t267 + w_a_y * t268)
+        - 0.32318451312347624 * (w_a_y * t266 + w_a_x * t267);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
+    let q2_ab = ::armforge_runtime::math::atan2(t287, t273);
     let t289 = t224 * t273;
     let t290 = t224 * t287;
     let t361 = 0.42112668389358265 * r02
@@ -3084,28 +3084,28 @@ fn branch_4(
     let t426 = 0.553647671333485 * t424;
     let t427 = 0.2455648081179022 * t424;
     let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t425)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t426)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t427)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t456 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t457 = 0.7957211704114873 * t456;
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t457)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t458)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t459)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
         - 0.32318451312347624 * t451;
     let t489 = 0.919348671064388 * t488;
@@ -3170,25 +3170,25 @@ fn branch_4(
     let t1034 = 0.7700239450467775 * t1032;
     let t1035 = 0.14913085300184115 * t1032;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t953 - 0.8362137090354541 * t924 - t956;
+    let z_b2b_x = t953 - 0.8362137090354541 * t924 - t956;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 1.0379846701062043 * t924 + t954 - t957;
+    let z_b2b_y = 1.0379846701062043 * t924 + t954 - t957;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t958 + (t955 - 0.2010269164374744 * t924);
+    let z_b2b_z = t958 + (t955 - 0.2010269164374744 * t924);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.2056566317887352
-        * (0.8840923826341479 * z_b2m_z
-            - (0.21377064521432798 * z_b2m_x + 0.04589463161448898 * z_b2m_y));
+    let j5_cos_b2b = 1.2056566317887352
+        * (0.8840923826341479 * z_b2b_z
+            - (0.21377064521432798 * z_b2b_x + 0.04589463161448898 * z_b2b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.2056566317887352
+    let j5_sin_b2b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2m_z - 0.935948806852255 * z_b2m_y)
+            * (0.34229941191058744 * z_b2b_z - 0.935948806852255 * z_b2b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2m_x + 0.08264952242757546 * z_b2m_z)
+                * (0.935948806852255 * z_b2b_x + 0.08264952242757546 * z_b2b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
+                * (0.08264952242757546 * z_b2b_y + 0.34229941191058744 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t1137 = t953 - 0.620341126105259 * t987 - t956;
     let t1138 = t954 + 0.7700239450467775 * t987 - t957;
     let t1139 = t958 + (t955 - 0.14913085300184115 * t987);
@@ -3201,20 +3201,20 @@ fn branch_4(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1161;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1144 * t1164 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1144 * t1164 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1158 * t1164 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1158 * t1164 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1180 = (xv_b2_x + t1033) * j4_cos_b2m
-        - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2m
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t1180 = (xv_b2_x + t1033) * j4_cos_b2b
+        - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2b
         - t1033;
     let t1181 = t1034
-        + ((xv_b2_y - t1034) * j4_cos_b2m
+        + ((xv_b2_y - t1034) * j4_cos_b2b
             - (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x)
-                * j4_sin_b2m);
-    let t1182 = (xv_b2_z + t1035) * j4_cos_b2m
-        + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2m
+                * j4_sin_b2b);
+    let t1182 = (xv_b2_z + t1035) * j4_cos_b2b
+        + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2b
         - t1035;
     let t1187 = 0.12555760611043656 * t1182
         + (0.3174776227989252 * t1180 + 0.9399166168175558 * t1181);
@@ -3222,30 +3222,30 @@ fn branch_4(
     let t1189 = 0.9399166168175558 * t1187;
     let t1190 = 0.12555760611043656 * t1187;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1188
-        + (j5_cos_b2m * (t1180 - t1188)
-            - j5_sin_b2m * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
+    let y6_b2b_x = t1188
+        + (j5_cos_b2b * (t1180 - t1188)
+            - j5_sin_b2b * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = t1189
-        + (j5_cos_b2m * (t1181 - t1189)
-            - j5_sin_b2m * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
+    let y6_b2b_y = t1189
+        + (j5_cos_b2b * (t1181 - t1189)
+            - j5_sin_b2b * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1190
-        + (j5_cos_b2m * (t1182 - t1190)
-            - j5_sin_b2m * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
+    let y6_b2b_z = t1190
+        + (j5_cos_b2b * (t1182 - t1190)
+            - j5_sin_b2b * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2m_y - 0.028388007507509954 * y6_b2m_x)
+            * (0.9965786754905472 * y6_b2b_y - 0.028388007507509954 * y6_b2b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2m_x - 0.9965786754905472 * y6_b2m_z)
+                * (0.0776212895233 * y6_b2b_x - 0.9965786754905472 * y6_b2b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2m_z - 0.0776212895233 * y6_b2m_y)),
-        0.0776212895233 * y6_b2m_z
-            + (0.9965786754905472 * y6_b2m_x + 0.028388007507509954 * y6_b2m_y),
+                    * (0.028388007507509954 * y6_b2b_z - 0.0776212895233 * y6_b2b_y)),
+        0.0776212895233 * y6_b2b_z
+            + (0.9965786754905472 * y6_b2b_x + 0.028388007507509954 * y6_b2b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -3259,7 +3259,7 @@ fn branch_4(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -3348,16 +3348,16 @@ fn branch_5(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3366,45 +3366,45 @@ fn branch_5(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    let t295 = 1.0 / d2_b.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.2750702190093362;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
-    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
-        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
-        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
+    let q3_ba = j3_root_b - 0.2750702190093362;
+    let t300 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t301 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t302 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t307 = w_b_z * t302 + (w_b_x * t300 - w_b_y * t301);
+    let t321 = 0.22438759210189282 * (w_b_x * t302 - w_b_z * t300)
+        - 0.919348671064388 * (w_b_z * t301 + w_b_y * t302)
+        - 0.32318451312347624 * (w_b_y * t300 + w_b_x * t301);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
+    let q2_ba = ::armforge_runtime::math::atan2(t321, t307);
     let t323 = t295 * t307;
     let t324 = t295 * t321;
     let t361 = 0.42112668389358265 * r02
@@ -3448,23 +3448,23 @@ fn branch_5(
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t425)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t426)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t427)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t457)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t458)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t459)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
         - 0.32318451312347624 * t1246;
     let t1264 = 0.919348671064388 * t1263;
@@ -3523,25 +3523,25 @@ fn branch_5(
     let t1361 = 0.030542838068628286 * j5_gamma_b3;
     let t1362 = 0.8275343040933489 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1360 + (t1357 - 0.8362137090354541 * t1328);
+    let z_b3a_x = t1360 + (t1357 - 0.8362137090354541 * t1328);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1361 + (1.0379846701062043 * t1328 + t1358);
+    let z_b3a_y = t1361 + (1.0379846701062043 * t1328 + t1358);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1359 - 0.2010269164374744 * t1328 - t1362;
+    let z_b3a_z = t1359 - 0.2010269164374744 * t1328 - t1362;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = 1.2056566317887352
-        * (0.8840923826341479 * z_b3p_z
-            - (0.21377064521432798 * z_b3p_x + 0.04589463161448898 * z_b3p_y));
+    let j5_cos_b3a = 1.2056566317887352
+        * (0.8840923826341479 * z_b3a_z
+            - (0.21377064521432798 * z_b3a_x + 0.04589463161448898 * z_b3a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 1.2056566317887352
+    let j5_sin_b3a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3p_z - 0.935948806852255 * z_b3p_y)
+            * (0.34229941191058744 * z_b3a_z - 0.935948806852255 * z_b3a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3p_x + 0.08264952242757546 * z_b3p_z)
+                * (0.935948806852255 * z_b3a_x + 0.08264952242757546 * z_b3a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
+                * (0.08264952242757546 * z_b3a_y + 0.34229941191058744 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1391 = j5_alpha_b3 - j5_a_b3;
     let t1398 = t1360 + (t1357 - 0.620341126105259 * t1391);
     let t1399 = t1361 + (t1358 + 0.7700239450467775 * t1391);
@@ -3555,25 +3555,25 @@ fn branch_5(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1422;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
     let t1437 = 0.620341126105259 * t1436;
     let t1438 = 0.7700239450467775 * t1436;
     let t1439 = 0.14913085300184115 * t1436;
-    let t1461 = j4_cos_b3p * (xv_b3_x + t1437)
-        - j4_sin_b3p * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
+    let t1461 = j4_cos_b3a * (xv_b3_x + t1437)
+        - j4_sin_b3a * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
         - t1437;
     let t1462 = t1438
-        + (j4_cos_b3p * (xv_b3_y - t1438)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1438)
+            - j4_sin_b3a
                 * (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x));
-    let t1463 = j4_cos_b3p * (xv_b3_z + t1439)
-        + j4_sin_b3p * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
+    let t1463 = j4_cos_b3a * (xv_b3_z + t1439)
+        + j4_sin_b3a * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
         - t1439;
     let t1468 = 0.12555760611043656 * t1463
         + (0.3174776227989252 * t1461 + 0.9399166168175558 * t1462);
@@ -3581,30 +3581,30 @@ fn branch_5(
     let t1470 = 0.9399166168175558 * t1468;
     let t1471 = 0.12555760611043656 * t1468;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1469
-        + (j5_cos_b3p * (t1461 - t1469)
-            - j5_sin_b3p * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
+    let y6_b3a_x = t1469
+        + (j5_cos_b3a * (t1461 - t1469)
+            - j5_sin_b3a * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1470
-        + (j5_cos_b3p * (t1462 - t1470)
-            - j5_sin_b3p * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
+    let y6_b3a_y = t1470
+        + (j5_cos_b3a * (t1462 - t1470)
+            - j5_sin_b3a * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1471
-        + (j5_cos_b3p * (t1463 - t1471)
-            - j5_sin_b3p * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
+    let y6_b3a_z = t1471
+        + (j5_cos_b3a * (t1463 - t1471)
+            - j5_sin_b3a * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3p_y - 0.028388007507509954 * y6_b3p_x)
+            * (0.9965786754905472 * y6_b3a_y - 0.028388007507509954 * y6_b3a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3p_x - 0.9965786754905472 * y6_b3p_z)
+                * (0.0776212895233 * y6_b3a_x - 0.9965786754905472 * y6_b3a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3p_z - 0.0776212895233 * y6_b3p_y)),
-        0.0776212895233 * y6_b3p_z
-            + (0.9965786754905472 * y6_b3p_x + 0.028388007507509954 * y6_b3p_y),
+                    * (0.028388007507509954 * y6_b3a_z - 0.0776212895233 * y6_b3a_y)),
+        0.0776212895233 * y6_b3a_z
+            + (0.9965786754905472 * y6_b3a_x + 0.028388007507509954 * y6_b3a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -3618,7 +3618,7 @@ fn branch_5(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -3707,16 +3707,16 @@ fn branch_6(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3725,45 +3725,45 @@ fn branch_6(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    let t295 = 1.0 / d2_b.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.2750702190093362;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
-    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
-        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
-        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
+    let q3_ba = j3_root_b - 0.2750702190093362;
+    let t300 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t301 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t302 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t307 = w_b_z * t302 + (w_b_x * t300 - w_b_y * t301);
+    let t321 = 0.22438759210189282 * (w_b_x * t302 - w_b_z * t300)
+        - 0.919348671064388 * (w_b_z * t301 + w_b_y * t302)
+        - 0.32318451312347624 * (w_b_y * t300 + w_b_x * t301);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
+    let q2_ba = ::armforge_runtime::math::atan2(t321, t307);
     let t323 = t295 * t307;
     let t324 = t295 * t321;
     let t361 = 0.42112668389358265 * r02
@@ -3807,23 +3807,23 @@ fn branch_6(
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t425)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t426)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t427)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t457)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t458)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t459)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
         - 0.32318451312347624 * t1246;
     let t1264 = 0.919348671064388 * t1263;
@@ -3888,25 +3888,25 @@ fn branch_6(
     let t1438 = 0.7700239450467775 * t1436;
     let t1439 = 0.14913085300184115 * t1436;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1357 - 0.8362137090354541 * t1328 - t1360;
+    let z_b3b_x = t1357 - 0.8362137090354541 * t1328 - t1360;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = 1.0379846701062043 * t1328 + t1358 - t1361;
+    let z_b3b_y = 1.0379846701062043 * t1328 + t1358 - t1361;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1362 + (t1359 - 0.2010269164374744 * t1328);
+    let z_b3b_z = t1362 + (t1359 - 0.2010269164374744 * t1328);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3m = 1.2056566317887352
-        * (0.8840923826341479 * z_b3m_z
-            - (0.21377064521432798 * z_b3m_x + 0.04589463161448898 * z_b3m_y));
+    let j5_cos_b3b = 1.2056566317887352
+        * (0.8840923826341479 * z_b3b_z
+            - (0.21377064521432798 * z_b3b_x + 0.04589463161448898 * z_b3b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3m = 1.2056566317887352
+    let j5_sin_b3b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3m_z - 0.935948806852255 * z_b3m_y)
+            * (0.34229941191058744 * z_b3b_z - 0.935948806852255 * z_b3b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3m_x + 0.08264952242757546 * z_b3m_z)
+                * (0.935948806852255 * z_b3b_x + 0.08264952242757546 * z_b3b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
+                * (0.08264952242757546 * z_b3b_y + 0.34229941191058744 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
     let t1541 = t1357 - 0.620341126105259 * t1391 - t1360;
     let t1542 = t1358 + 0.7700239450467775 * t1391 - t1361;
     let t1543 = t1362 + (t1359 - 0.14913085300184115 * t1391);
@@ -3919,20 +3919,20 @@ fn branch_6(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1565;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1548 * t1568 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1548 * t1568 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1562 * t1568 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1562 * t1568 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1584 = (xv_b3_x + t1437) * j4_cos_b3m
-        - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3m
+    let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
+    let t1584 = (xv_b3_x + t1437) * j4_cos_b3b
+        - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3b
         - t1437;
     let t1585 = t1438
-        + ((xv_b3_y - t1438) * j4_cos_b3m
+        + ((xv_b3_y - t1438) * j4_cos_b3b
             - (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x)
-                * j4_sin_b3m);
-    let t1586 = (xv_b3_z + t1439) * j4_cos_b3m
-        + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3m
+                * j4_sin_b3b);
+    let t1586 = (xv_b3_z + t1439) * j4_cos_b3b
+        + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3b
         - t1439;
     let t1591 = 0.12555760611043656 * t1586
         + (0.3174776227989252 * t1584 + 0.9399166168175558 * t1585);
@@ -3940,30 +3940,30 @@ fn branch_6(
     let t1593 = 0.9399166168175558 * t1591;
     let t1594 = 0.12555760611043656 * t1591;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1592
-        + (j5_cos_b3m * (t1584 - t1592)
-            - j5_sin_b3m * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
+    let y6_b3b_x = t1592
+        + (j5_cos_b3b * (t1584 - t1592)
+            - j5_sin_b3b * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = t1593
-        + (j5_cos_b3m * (t1585 - t1593)
-            - j5_sin_b3m * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
+    let y6_b3b_y = t1593
+        + (j5_cos_b3b * (t1585 - t1593)
+            - j5_sin_b3b * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = t1594
-        + (j5_cos_b3m * (t1586 - t1594)
-            - j5_sin_b3m * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
+    let y6_b3b_z = t1594
+        + (j5_cos_b3b * (t1586 - t1594)
+            - j5_sin_b3b * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3m = ::armforge_runtime::math::atan2(
+    let q6_b3b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3m_y - 0.028388007507509954 * y6_b3m_x)
+            * (0.9965786754905472 * y6_b3b_y - 0.028388007507509954 * y6_b3b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3m_x - 0.9965786754905472 * y6_b3m_z)
+                * (0.0776212895233 * y6_b3b_x - 0.9965786754905472 * y6_b3b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3m_z - 0.0776212895233 * y6_b3m_y)),
-        0.0776212895233 * y6_b3m_z
-            + (0.9965786754905472 * y6_b3m_x + 0.028388007507509954 * y6_b3m_y),
+                    * (0.028388007507509954 * y6_b3b_z - 0.0776212895233 * y6_b3b_y)),
+        0.0776212895233 * y6_b3b_z
+            + (0.9965786754905472 * y6_b3b_x + 0.028388007507509954 * y6_b3b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -3977,7 +3977,7 @@ fn branch_6(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -4066,16 +4066,16 @@ fn branch_7(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4084,45 +4084,45 @@ fn branch_7(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    let t295 = 1.0 / d2_b.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
-    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
-        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
-        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
+    let q3_bb = -0.2750702190093362 - j3_root_b;
+    let t329 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t330 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t331 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t336 = w_b_z * t331 + (w_b_x * t329 - w_b_y * t330);
+    let t350 = 0.22438759210189282 * (w_b_x * t331 - w_b_z * t329)
+        - 0.919348671064388 * (w_b_z * t330 + w_b_y * t331)
+        - 0.32318451312347624 * (w_b_y * t329 + w_b_x * t330);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
+    let q2_bb = ::armforge_runtime::math::atan2(t350, t336);
     let t352 = t295 * t336;
     let t353 = t295 * t350;
     let t361 = 0.42112668389358265 * r02
@@ -4166,23 +4166,23 @@ fn branch_7(
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t425)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t426)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t427)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t457)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t458)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t459)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
         - 0.32318451312347624 * t1246;
     let t1264 = 0.919348671064388 * t1263;
@@ -4241,25 +4241,25 @@ fn branch_7(
     let t1701 = 0.030542838068628286 * j5_gamma_b4;
     let t1702 = 0.8275343040933489 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1700 + (t1697 - 0.8362137090354541 * t1668);
+    let z_b4a_x = t1700 + (t1697 - 0.8362137090354541 * t1668);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1701 + (1.0379846701062043 * t1668 + t1698);
+    let z_b4a_y = t1701 + (1.0379846701062043 * t1668 + t1698);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1699 - 0.2010269164374744 * t1668 - t1702;
+    let z_b4a_z = t1699 - 0.2010269164374744 * t1668 - t1702;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = 1.2056566317887352
-        * (0.8840923826341479 * z_b4p_z
-            - (0.21377064521432798 * z_b4p_x + 0.04589463161448898 * z_b4p_y));
+    let j5_cos_b4a = 1.2056566317887352
+        * (0.8840923826341479 * z_b4a_z
+            - (0.21377064521432798 * z_b4a_x + 0.04589463161448898 * z_b4a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 1.2056566317887352
+    let j5_sin_b4a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4p_z - 0.935948806852255 * z_b4p_y)
+            * (0.34229941191058744 * z_b4a_z - 0.935948806852255 * z_b4a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4p_x + 0.08264952242757546 * z_b4p_z)
+                * (0.935948806852255 * z_b4a_x + 0.08264952242757546 * z_b4a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
+                * (0.08264952242757546 * z_b4a_y + 0.34229941191058744 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1731 = j5_alpha_b4 - j5_a_b4;
     let t1738 = t1700 + (t1697 - 0.620341126105259 * t1731);
     let t1739 = t1701 + (t1698 + 0.7700239450467775 * t1731);
@@ -4273,25 +4273,25 @@ fn branch_7(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1762;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
     let t1777 = 0.620341126105259 * t1776;
     let t1778 = 0.7700239450467775 * t1776;
     let t1779 = 0.14913085300184115 * t1776;
-    let t1801 = j4_cos_b4p * (xv_b4_x + t1777)
-        - j4_sin_b4p * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
+    let t1801 = j4_cos_b4a * (xv_b4_x + t1777)
+        - j4_sin_b4a * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
         - t1777;
     let t1802 = t1778
-        + (j4_cos_b4p * (xv_b4_y - t1778)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1778)
+            - j4_sin_b4a
                 * (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x));
-    let t1803 = j4_cos_b4p * (xv_b4_z + t1779)
-        + j4_sin_b4p * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
+    let t1803 = j4_cos_b4a * (xv_b4_z + t1779)
+        + j4_sin_b4a * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
         - t1779;
     let t1808 = 0.12555760611043656 * t1803
         + (0.3174776227989252 * t1801 + 0.9399166168175558 * t1802);
@@ -4299,30 +4299,30 @@ fn branch_7(
     let t1810 = 0.9399166168175558 * t1808;
     let t1811 = 0.12555760611043656 * t1808;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1809
-        + (j5_cos_b4p * (t1801 - t1809)
-            - j5_sin_b4p * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
+    let y6_b4a_x = t1809
+        + (j5_cos_b4a * (t1801 - t1809)
+            - j5_sin_b4a * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1810
-        + (j5_cos_b4p * (t1802 - t1810)
-            - j5_sin_b4p * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
+    let y6_b4a_y = t1810
+        + (j5_cos_b4a * (t1802 - t1810)
+            - j5_sin_b4a * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1811
-        + (j5_cos_b4p * (t1803 - t1811)
-            - j5_sin_b4p * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
+    let y6_b4a_z = t1811
+        + (j5_cos_b4a * (t1803 - t1811)
+            - j5_sin_b4a * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4p_y - 0.028388007507509954 * y6_b4p_x)
+            * (0.9965786754905472 * y6_b4a_y - 0.028388007507509954 * y6_b4a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4p_x - 0.9965786754905472 * y6_b4p_z)
+                * (0.0776212895233 * y6_b4a_x - 0.9965786754905472 * y6_b4a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4p_z - 0.0776212895233 * y6_b4p_y)),
-        0.0776212895233 * y6_b4p_z
-            + (0.9965786754905472 * y6_b4p_x + 0.028388007507509954 * y6_b4p_y),
+                    * (0.028388007507509954 * y6_b4a_z - 0.0776212895233 * y6_b4a_y)),
+        0.0776212895233 * y6_b4a_z
+            + (0.9965786754905472 * y6_b4a_x + 0.028388007507509954 * y6_b4a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -4336,7 +4336,7 @@ fn branch_7(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -4425,16 +4425,16 @@ fn branch_8(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4443,45 +4443,45 @@ fn branch_8(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    let t295 = 1.0 / d2_b.max(8.539556986014195e-20);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
-    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
-        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
-        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
+    let q3_bb = -0.2750702190093362 - j3_root_b;
+    let t329 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t330 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t331 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t336 = w_b_z * t331 + (w_b_x * t329 - w_b_y * t330);
+    let t350 = 0.22438759210189282 * (w_b_x * t331 - w_b_z * t329)
+        - 0.919348671064388 * (w_b_z * t330 + w_b_y * t331)
+        - 0.32318451312347624 * (w_b_y * t329 + w_b_x * t330);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
+    let q2_bb = ::armforge_runtime::math::atan2(t350, t336);
     let t352 = t295 * t336;
     let t353 = t295 * t350;
     let t361 = 0.42112668389358265 * r02
@@ -4525,23 +4525,23 @@ fn branch_8(
     let t458 = 0.553647671333485 * t456;
     let t459 = 0.2455648081179022 * t456;
     let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t425)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t426)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t427)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t457)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t458)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t459)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
         - 0.32318451312347624 * t1246;
     let t1264 = 0.919348671064388 * t1263;
@@ -4606,25 +4606,25 @@ fn branch_8(
     let t1778 = 0.7700239450467775 * t1776;
     let t1779 = 0.14913085300184115 * t1776;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1697 - 0.8362137090354541 * t1668 - t1700;
+    let z_b4b_x = t1697 - 0.8362137090354541 * t1668 - t1700;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = 1.0379846701062043 * t1668 + t1698 - t1701;
+    let z_b4b_y = 1.0379846701062043 * t1668 + t1698 - t1701;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1702 + (t1699 - 0.2010269164374744 * t1668);
+    let z_b4b_z = t1702 + (t1699 - 0.2010269164374744 * t1668);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4m = 1.2056566317887352
-        * (0.8840923826341479 * z_b4m_z
-            - (0.21377064521432798 * z_b4m_x + 0.04589463161448898 * z_b4m_y));
+    let j5_cos_b4b = 1.2056566317887352
+        * (0.8840923826341479 * z_b4b_z
+            - (0.21377064521432798 * z_b4b_x + 0.04589463161448898 * z_b4b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4m = 1.2056566317887352
+    let j5_sin_b4b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4m_z - 0.935948806852255 * z_b4m_y)
+            * (0.34229941191058744 * z_b4b_z - 0.935948806852255 * z_b4b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4m_x + 0.08264952242757546 * z_b4m_z)
+                * (0.935948806852255 * z_b4b_x + 0.08264952242757546 * z_b4b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
+                * (0.08264952242757546 * z_b4b_y + 0.34229941191058744 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
     let t1881 = t1697 - 0.620341126105259 * t1731 - t1700;
     let t1882 = t1698 + 0.7700239450467775 * t1731 - t1701;
     let t1883 = t1702 + (t1699 - 0.14913085300184115 * t1731);
@@ -4637,20 +4637,20 @@ fn branch_8(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1905;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1888 * t1908 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1888 * t1908 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1902 * t1908 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1902 * t1908 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t1924 = (xv_b4_x + t1777) * j4_cos_b4m
-        - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4m
+    let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
+    let t1924 = (xv_b4_x + t1777) * j4_cos_b4b
+        - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4b
         - t1777;
     let t1925 = t1778
-        + ((xv_b4_y - t1778) * j4_cos_b4m
+        + ((xv_b4_y - t1778) * j4_cos_b4b
             - (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x)
-                * j4_sin_b4m);
-    let t1926 = (xv_b4_z + t1779) * j4_cos_b4m
-        + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4m
+                * j4_sin_b4b);
+    let t1926 = (xv_b4_z + t1779) * j4_cos_b4b
+        + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4b
         - t1779;
     let t1931 = 0.12555760611043656 * t1926
         + (0.3174776227989252 * t1924 + 0.9399166168175558 * t1925);
@@ -4658,30 +4658,30 @@ fn branch_8(
     let t1933 = 0.9399166168175558 * t1931;
     let t1934 = 0.12555760611043656 * t1931;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t1932
-        + (j5_cos_b4m * (t1924 - t1932)
-            - j5_sin_b4m * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
+    let y6_b4b_x = t1932
+        + (j5_cos_b4b * (t1924 - t1932)
+            - j5_sin_b4b * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = t1933
-        + (j5_cos_b4m * (t1925 - t1933)
-            - j5_sin_b4m * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
+    let y6_b4b_y = t1933
+        + (j5_cos_b4b * (t1925 - t1933)
+            - j5_sin_b4b * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = t1934
-        + (j5_cos_b4m * (t1926 - t1934)
-            - j5_sin_b4m * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
+    let y6_b4b_z = t1934
+        + (j5_cos_b4b * (t1926 - t1934)
+            - j5_sin_b4b * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4m = ::armforge_runtime::math::atan2(
+    let q6_b4b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4m_y - 0.028388007507509954 * y6_b4m_x)
+            * (0.9965786754905472 * y6_b4b_y - 0.028388007507509954 * y6_b4b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4m_x - 0.9965786754905472 * y6_b4m_z)
+                * (0.0776212895233 * y6_b4b_x - 0.9965786754905472 * y6_b4b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4m_z - 0.0776212895233 * y6_b4m_y)),
-        0.0776212895233 * y6_b4m_z
-            + (0.9965786754905472 * y6_b4m_x + 0.028388007507509954 * y6_b4m_y),
+                    * (0.028388007507509954 * y6_b4b_z - 0.0776212895233 * y6_b4b_y)),
+        0.0776212895233 * y6_b4b_z
+            + (0.9965786754905472 * y6_b4b_x + 0.028388007507509954 * y6_b4b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -4695,7 +4695,7 @@ fn branch_8(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
