@@ -5,7 +5,6 @@ mod common;
 
 use common::{arms, joint_gap, pose_error};
 
-
 use armforge_compiler::classify::{classify, Family, Tolerances};
 use armforge_compiler::model::Model;
 use armforge_compiler::plan::mirror;
@@ -61,7 +60,9 @@ fn round_trip(family: Family, most: usize) -> usize {
                 }
             }
             assert!(
-                solutions.iter().any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
+                solutions
+                    .iter()
+                    .any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
                 "{family:?} arm {seed}: {q:?} ({}) not among {solutions:#?}",
                 solver.branch_of(&q)
             );

@@ -5,7 +5,6 @@ mod common;
 
 use common::{arms, joint_gap, pose_error};
 
-
 use armforge_compiler::classify::Family;
 use armforge_compiler::plan::parallel;
 use armforge_compiler::plan::samples::{
@@ -45,12 +44,17 @@ fn round_trip(layout: bool) -> (usize, usize) {
             }
             for (i, a) in solutions.iter().enumerate() {
                 for b in &solutions[i + 1..] {
-                    assert!(joint_gap(&model, &a.joints, &b.joints) > 1e-9, "arm {seed}: duplicates");
+                    assert!(
+                        joint_gap(&model, &a.joints, &b.joints) > 1e-9,
+                        "arm {seed}: duplicates"
+                    );
                     assert_ne!(a.branch, b.branch, "arm {seed}: one label twice");
                 }
             }
             assert!(
-                solutions.iter().any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
+                solutions
+                    .iter()
+                    .any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
                 "arm {seed}: {q:?} ({}) not among {solutions:#?}",
                 solver.branch_of(&q)
             );

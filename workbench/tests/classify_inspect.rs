@@ -5,9 +5,8 @@
 
 mod common;
 
-use common::{workspace, arm_files};
+use common::{arm_files, workspace};
 
-use std::path::{Path, PathBuf};
 use std::process::Command;
 
 use armforge_compiler::classify::{classify, Family, Tolerances};

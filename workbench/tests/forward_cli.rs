@@ -3,7 +3,7 @@
 
 mod common;
 
-use common::{workspace};
+use common::workspace;
 
 use std::path::{Path, PathBuf};
 

@@ -4,14 +4,11 @@
 
 mod common;
 
-use common::{workspace, examples, classified};
+use common::{classified, examples, workspace};
 
-use std::path::{Path, PathBuf};
 use std::process::Command;
 
-use armforge_compiler::classify::{classify, Family, Geometry, Tolerances};
-use armforge_compiler::description::load_str;
-use armforge_compiler::model::Model;
+use armforge_compiler::classify::Family;
 use armforge_compiler::plan::build_plan;
 use armforge_compiler::plan::vec3::num;
 use armforge_compiler::solver::Solver;

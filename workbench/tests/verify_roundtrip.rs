@@ -7,9 +7,8 @@
 
 mod common;
 
-use common::{workspace, examples, classified};
+use common::{classified, examples, workspace};
 
-use std::path::{Path, PathBuf};
 use std::process::Command;
 
 use armforge_compiler::classify::{classify, Geometry, Singularity, Tolerances};
