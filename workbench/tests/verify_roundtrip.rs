@@ -228,3 +228,41 @@ fn verify_exit_codes_and_json() {
         .expect("armforge runs");
     assert_eq!(missing.status.code(), Some(5));
 }
+
+#[test]
+fn sample_counts_outside_the_range_are_usage_errors() {
+    // Zero would pass without checking anything; 2^64 − 1 and 10^12 would exhaust memory.
+    for n in [
+        "0",
+        "10000001",
+        "18446744073709551615",
+        "1000000000000",
+        "-3",
+    ] {
+        let out = armforge()
+            .current_dir(workspace())
+            .args([
+                "verify",
+                "arms/tray-gantry-axes.toml",
+                &format!("--samples={n}"),
+            ])
+            .output()
+            .expect("armforge runs");
+        assert_eq!(out.status.code(), Some(2), "--samples {n}");
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(err.contains("--samples"), "--samples {n}: {err}");
+        assert!(out.stdout.is_empty(), "--samples {n}");
+    }
+    let (path, text) = examples()
+        .into_iter()
+        .find(|(p, _)| p.ends_with("tray-gantry-axes.toml"))
+        .expect("tray-gantry example");
+    let (model, geometry) = classified(&path, &text);
+    let solver = Solver::new(&model, &geometry);
+    let options = Options {
+        samples: 0,
+        ..Options::default()
+    };
+    let e = verify(&model, &geometry, &solver, &options, &|_| {}).expect_err("zero samples");
+    assert!(e.to_string().contains("1 to 10000000"), "{e}");
+}
