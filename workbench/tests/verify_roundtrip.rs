@@ -5,7 +5,10 @@
 //!
 //! `ARMFORGE_SCALE=K` (release builds) runs K times the 400 samples per arm.
 
-use std::path::{Path, PathBuf};
+mod common;
+
+use common::{classified, examples, workspace};
+
 use std::process::Command;
 
 use armforge_compiler::classify::{classify, Geometry, Singularity, Tolerances};
@@ -14,39 +17,8 @@ use armforge_compiler::model::Model;
 use armforge_compiler::solver::Solver;
 use armforge_workbench::verify::{verify, Kind, Options, Summary};
 
-fn workspace() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .parent()
-        .expect("the generator crate sits in the workspace")
-        .to_path_buf()
-}
-
 fn samples() -> u64 {
     armforge_compiler::plan::samples::sample_count(400) as u64
-}
-
-fn examples() -> Vec<(String, String)> {
-    let mut files: Vec<PathBuf> = std::fs::read_dir(workspace().join("arms"))
-        .expect("arms/ exists")
-        .filter_map(|e| e.ok().map(|e| e.path()))
-        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
-        .collect();
-    files.sort();
-    files
-        .into_iter()
-        .map(|p| {
-            let name = p.file_name().expect("a file").to_string_lossy().to_string();
-            let text = std::fs::read_to_string(&p).expect("readable arm file");
-            (format!("arms/{name}"), text)
-        })
-        .collect()
-}
-
-fn classified(path: &str, text: &str) -> (Model, Geometry) {
-    let model = load_str(text, path).unwrap_or_else(|d| panic!("{path} does not load:\n{d}"));
-    let geometry = classify(&model, &Tolerances::default())
-        .unwrap_or_else(|r| panic!("{path} does not classify: {r}"));
-    (model, geometry)
 }
 
 fn run(reference: &Model, geometry: &Geometry, solver: &Solver, n: u64) -> Summary {
@@ -255,4 +227,42 @@ fn verify_exit_codes_and_json() {
         .output()
         .expect("armforge runs");
     assert_eq!(missing.status.code(), Some(5));
+}
+
+#[test]
+fn sample_counts_outside_the_range_are_usage_errors() {
+    // Zero would pass without checking anything; 2^64 − 1 and 10^12 would exhaust memory.
+    for n in [
+        "0",
+        "10000001",
+        "18446744073709551615",
+        "1000000000000",
+        "-3",
+    ] {
+        let out = armforge()
+            .current_dir(workspace())
+            .args([
+                "verify",
+                "arms/tray-gantry-axes.toml",
+                &format!("--samples={n}"),
+            ])
+            .output()
+            .expect("armforge runs");
+        assert_eq!(out.status.code(), Some(2), "--samples {n}");
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(err.contains("--samples"), "--samples {n}: {err}");
+        assert!(out.stdout.is_empty(), "--samples {n}");
+    }
+    let (path, text) = examples()
+        .into_iter()
+        .find(|(p, _)| p.ends_with("tray-gantry-axes.toml"))
+        .expect("tray-gantry example");
+    let (model, geometry) = classified(&path, &text);
+    let solver = Solver::new(&model, &geometry);
+    let options = Options {
+        samples: 0,
+        ..Options::default()
+    };
+    let e = verify(&model, &geometry, &solver, &options, &|_| {}).expect_err("zero samples");
+    assert!(e.to_string().contains("1 to 10000000"), "{e}");
 }

@@ -19,8 +19,13 @@ pub struct Args {
     /// The arm description file.
     pub arm: std::path::PathBuf,
     /// Configurations drawn uniformly within the joint limits (one in twenty more of each kind
-    /// near singular configurations, reach boundaries and joint limits).
-    #[arg(long, value_name = "N", default_value_t = Options::default().samples)]
+    /// near singular configurations, reach boundaries and joint limits); 1 to 10,000,000.
+    #[arg(
+        long,
+        value_name = "N",
+        default_value_t = Options::default().samples,
+        value_parser = clap::value_parser!(u64).range(verify::SAMPLES_MIN..=verify::SAMPLES_MAX)
+    )]
     pub samples: u64,
     /// The seed of the random draws (same seed, same samples).
     #[arg(long, value_name = "S", default_value_t = Options::default().seed)]
@@ -46,6 +51,7 @@ pub fn run(args: Args) -> Outcome {
         }
     }) {
         Ok(s) => s,
+        Err(e @ verify::Error::Samples(_)) => return Err(fail(exit::USAGE, &e.to_string())),
         Err(e) => return Err(fail(exit::BAD_DESCRIPTION, &e.to_string())),
     };
     if let Some(b) = bar {

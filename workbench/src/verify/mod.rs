@@ -50,6 +50,13 @@ impl Default for Options {
     }
 }
 
+/// The fewest uniform samples a verification takes: with none, nothing would be checked and
+/// the run would pass vacuously.
+pub const SAMPLES_MIN: u64 = 1;
+/// The most uniform samples a verification takes (about 10 s per million on one core; the
+/// outcomes of a run are kept in memory, about 100 bytes each).
+pub const SAMPLES_MAX: u64 = 10_000_000;
+
 /// Samples of each kind near singular configurations and boundaries, for `samples` uniform
 /// ones: one in twenty, at least one (when any are asked for).
 pub fn extra_samples(samples: u64) -> u64 {
@@ -64,12 +71,18 @@ const CHUNK: u64 = 2048;
 pub enum Error {
     /// The arm does not have six joints.
     JointCount(usize),
+    /// The number of uniform samples is outside [`SAMPLES_MIN`]`..=`[`SAMPLES_MAX`].
+    Samples(u64),
 }
 
 impl std::fmt::Display for Error {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         match self {
             Error::JointCount(n) => write!(f, "verification needs six joints, the arm has {n}"),
+            Error::Samples(n) => write!(
+                f,
+                "{n} samples asked for; a verification takes {SAMPLES_MIN} to {SAMPLES_MAX}"
+            ),
         }
     }
 }
@@ -85,6 +98,9 @@ pub fn verify(
     options: &Options,
     progress: &(dyn Fn(u64) + Sync),
 ) -> Result<Summary, Error> {
+    if !(SAMPLES_MIN..=SAMPLES_MAX).contains(&options.samples) {
+        return Err(Error::Samples(options.samples));
+    }
     let joints: [Joint; JOINTS] = reference
         .runtime_joints()
         .try_into()
