@@ -213,3 +213,55 @@ fn the_review_sheet_shows_names_and_description_as_text() {
     let header = sheet.lines().find(|l| l.starts_with("| joint |")).unwrap();
     assert_eq!(cells(row), cells(header), "{row}");
 }
+
+/// `armforge inspect` on byte-level mutations of an example arm: exit 0 (still valid), 3
+/// (rejected geometry) or 4 (not a valid description), and a refusal names the file with a
+/// line and column. (The proptest harness in `tests/tests/properties.rs` runs many more
+/// mutations through the library.)
+#[test]
+fn mutated_files_get_their_exit_code_and_a_place() {
+    let dir = scratch("mutated");
+    let original = std::fs::read(workspace().join("arms/bench-elbow-dh.toml")).unwrap();
+    let mut state = 0x5eed_u64;
+    let mut next = || {
+        // SplitMix64 (Steele, Lea & Flood, OOPSLA 2014), a fixed sequence for the test.
+        state = state.wrapping_add(0x9e37_79b9_7f4a_7c15);
+        let mut z = state;
+        z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+        z ^ (z >> 31)
+    };
+    let mut codes = std::collections::BTreeSet::new();
+    for case in 0..24 {
+        let mut bytes = original.clone();
+        // Past the header comment, where the keys are.
+        let at = 900 + (next() as usize) % (bytes.len() - 900);
+        bytes[at] = b"[]=\"#.\n\xff0x"[(next() % 10) as usize];
+        let path = dir.join(format!("mutated-{case}.toml"));
+        std::fs::write(&path, &bytes).unwrap();
+        let shown = path.display().to_string();
+        let (code, _, err) = armforge(&["inspect", &shown], "");
+        codes.insert(code);
+        match code {
+            0 => {}
+            3 | 4 => {
+                let place = err.split(&format!("{shown}:")).nth(1).and_then(|rest| {
+                    rest.split(':')
+                        .take(2)
+                        .map(str::parse::<usize>)
+                        .collect::<Result<Vec<_>, _>>()
+                        .ok()
+                });
+                assert!(
+                    place.is_some_and(|p| p.len() == 2 && p[0] >= 1 && p[1] >= 1),
+                    "case {case} (byte {at}): {err}"
+                );
+            }
+            other => panic!("case {case}: exit {other}: {err}"),
+        }
+    }
+    assert!(
+        codes.contains(&4),
+        "some mutations break the file: {codes:?}"
+    );
+}
