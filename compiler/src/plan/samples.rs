@@ -318,24 +318,13 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         translation: num::add(&c, &num::scale(&rng.direction(), rng.range(0.0, 0.25))),
     };
     let base = rng.pose(1.0);
-    let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
-    let model = Model {
-        name: format!("sample_{}_{seed}", family.name()),
-        description: Some("invented sample arm for armforge's own tests".to_string()),
-        units: Units::default(),
-        joints: joints
-            .iter()
-            .zip(names)
-            .map(|(joint, name)| ModelJoint {
-                joint: *joint,
-                name: name.to_string(),
-                location: Location::default(),
-            })
-            .collect(),
+    let model = named_model(
+        format!("sample_{}_{seed}", family.name()),
+        &joints,
         tool,
         base,
-        source_path: format!("<sample {} {seed}>", family.name()),
-    };
+        format!("<sample {} {seed}>", family.name()),
+    );
     // The geometry comes from the classifier, as in the real pipeline; a sample is built to
     // be of `family` with its wrist center at `c`, so anything else is a bug in one of them.
     let geometry = match classify(&model, &Tolerances::default()) {
@@ -421,26 +410,17 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
         "wrist-bend",
         "flange-roll",
     ];
+    let tool = Pose {
+        rotation: Pose::IDENTITY.rotation,
+        translation: [shoulder + 0.47, lateral, 0.925],
+    };
     let model = Model {
         name: "upright_elbow".to_string(),
         description: Some("invented upright elbow arm for armforge's own tests".to_string()),
-        units: Units::default(),
-        joints: joints
-            .iter()
-            .zip(names)
-            .map(|(joint, name)| ModelJoint {
-                joint: *joint,
-                name: name.to_string(),
-                location: Location::default(),
-            })
-            .collect(),
-        tool: Pose {
-            rotation: Pose::IDENTITY.rotation,
-            translation: [shoulder + 0.47, lateral, 0.925],
-        },
-        base: Pose::IDENTITY,
         source_path: "<upright elbow arm>".to_string(),
+        ..named_model(String::new(), &joints, tool, Pose::IDENTITY, String::new())
     };
+    let model = with_joint_names(model, names);
     let geometry = match classify(&model, &Tolerances::default()) {
         Ok(g) if g.family == Family::Elbow && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
         other => panic!("the upright elbow arm must classify as an elbow arm: {other:?}"),
@@ -515,6 +495,14 @@ pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -
         base,
         format!("<sample three-parallel {seed}>"),
     )
+}
+
+/// `model` with its joints renamed.
+fn with_joint_names(mut model: Model, names: [&str; 6]) -> Model {
+    for (joint, name) in model.joints.iter_mut().zip(names) {
+        joint.name = name.to_string();
+    }
+    model
 }
 
 fn named_model(name: String, joints: &[Joint; 6], tool: Pose, base: Pose, path: String) -> Model {
