@@ -82,11 +82,19 @@ impl AngleUnit {
 impl Units {
     /// A length in the file's unit, converted to metres.
     pub fn length_to_si(&self, x: f64) -> f64 {
-        x * self.length.metres()
+        // Dividing by 1000 (exact in decimal) keeps the file's decimal: 380 mm is 0.38 m, not
+        // 380 × 0.001 = 0.38000000000000006.
+        match self.length {
+            LengthUnit::Metre => x,
+            LengthUnit::Millimetre => x / 1000.0,
+        }
     }
     /// A length in metres, converted to the file's unit.
     pub fn length_from_si(&self, x: f64) -> f64 {
-        x / self.length.metres()
+        match self.length {
+            LengthUnit::Metre => x,
+            LengthUnit::Millimetre => x * 1000.0,
+        }
     }
     /// An angle in the file's unit, converted to radians.
     pub fn angle_to_si(&self, x: f64) -> f64 {
@@ -149,8 +157,8 @@ pub const SNAP_ULPS: f64 = 64.0 * f64::EPSILON;
 
 /// `x` as the description meant it: `0` when `|x|` is within [`SNAP_ULPS`] × `scale` of zero
 /// (never `-0`), else the shortest decimal of at most 12 significant digits within
-/// [`SNAP_ULPS`] × max(`scale`, `|x|`) of `x` (`0.8500000000000001` → `0.85`,
-/// `29.99999999999999` → `30`), else `x` unchanged. `scale` is the size of the quantity: the
+/// [`SNAP_ULPS`] × `|x|` of `x` (`0.8500000000000001` → `0.85`, `29.99999999999999` → `30`),
+/// else `x` unchanged. `scale` is the size of the quantity: the
 /// arm's size for lengths, 1 for direction cosines, a turn for angles.
 pub fn snap(x: f64, scale: f64) -> f64 {
     if !x.is_finite() {
@@ -160,7 +168,7 @@ pub fn snap(x: f64, scale: f64) -> f64 {
     if x.abs() <= SNAP_ULPS * scale {
         return 0.0;
     }
-    let tolerance = SNAP_ULPS * scale.max(x.abs());
+    let tolerance = SNAP_ULPS * x.abs();
     for digits in 0..12 {
         let short: f64 = format!("{x:.digits$e}").parse().unwrap_or(x);
         if (short - x).abs() <= tolerance {

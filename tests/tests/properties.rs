@@ -310,7 +310,9 @@ fn judge_pose(solver: &Solver, target: &Pose) -> Result<(), TestCaseError> {
                 | Unreachable::InsideHole { by }
                 | Unreachable::WristOrientation { by }
                 | Unreachable::OutsideLimits { by, .. } => by,
-                Unreachable::InvalidPose(_) | Unreachable::BranchUnavailable => 0.0,
+                Unreachable::InvalidPose(_)
+                | Unreachable::BranchUnavailable
+                | Unreachable::NoSuchBranch => 0.0,
             };
             prop_assert!(!number.is_nan(), "a reason without a number: {why:?}");
         }

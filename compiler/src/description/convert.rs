@@ -49,7 +49,7 @@ pub(crate) fn to_model(source: &Source, description: &Description, path: &str) -
             location: source.location(entry.span.start),
         })
         .collect();
-    snapped(Model {
+    let model = Model {
         name: description.name.clone(),
         description: description.description.clone(),
         units,
@@ -57,13 +57,17 @@ pub(crate) fn to_model(source: &Source, description: &Description, path: &str) -
         tool,
         base: frame_pose(description.base.as_ref(), units),
         source_path: path.to_string(),
-    })
+    };
+    match convention {
+        Convention::Dh | Convention::ModifiedDh => snapped(model),
+        Convention::Axes => model,
+    }
 }
 
-/// The model with the rounding of the frame walk and the unit conversion taken out
+/// The model of a DH file with the rounding of the frame walk taken out
 /// ([`crate::units::snap`]): axes and rotations at scale 1, points and translations at the
 /// arm's extent, so that `0.45 + 0.4` is `0.85` and `cos 90°` is `0` wherever the model is
-/// shown (emitted tables, `forward`, reports).
+/// shown (emitted tables, `forward`, reports). An `axes` file's numbers are the file's own.
 fn snapped(mut model: Model) -> Model {
     let extent = model.extent();
     for j in &mut model.joints {
@@ -199,11 +203,12 @@ fn frame_pose(frame: Option<&FrameEntry>, units: Units) -> Pose {
     };
     let rotation = if let Some(rpy) = &frame.rpy {
         let [roll, pitch, yaw] = rpy.value.map(|x| units.angle_to_si(x));
-        // R = Rz(yaw)·Ry(pitch)·Rx(roll)
+        // R = Rz(yaw)·Ry(pitch)·Rx(roll), with cos 90° = 6e-17 taken for 0.
         rotation_z(yaw)
             .compose(&rotation_y(pitch))
             .compose(&rotation_x(roll))
             .rotation
+            .map(|row| snap3(row, 1.0))
     } else if let Some(r) = &frame.rotation {
         nearest_rotation(&r.value)
     } else {

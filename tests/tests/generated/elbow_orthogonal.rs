@@ -555,7 +555,7 @@ pub fn solve_branch(
         } => branch_8(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -641,20 +641,20 @@ fn candidates(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
     let t117 = j1_a * j1_k;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
+    let j1_cos_a = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
+    let j1_sin_a = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
+    let j1_cos_b = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
+    let j1_sin_b = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
     let t132 = ::armforge_runtime::math::abs(j1_e);
     let t133 = 0.7610978269683933 * t96;
     let t134 = 0.6486238403189734 * t96;
@@ -666,157 +666,157 @@ fn candidates(
     let t144 = 0.004148680977921899 * u_x + 0.7610978269683933 * u_z;
     let t147 = 0.7610978269683933 * u_y + 0.6486238403189734 * u_x;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * t136 - j1_sin_p * t141 - t133 + 0.1270793410860917;
+    let w_a_x = j1_cos_a * t136 - j1_sin_a * t141 - t133 + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134 + (j1_cos_p * t137 - j1_sin_p * t144) - 0.1426250888590215;
+    let w_a_y = t134 + (j1_cos_a * t137 - j1_sin_a * t144) - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135 + (j1_cos_p * t138 + j1_sin_p * t147) - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let w_a_z = t135 + (j1_cos_a * t138 + j1_sin_a * t147) - 0.013836588814141002;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * t136 - j1_sin_m * t141 - t133 + 0.1270793410860917;
+    let w_b_x = j1_cos_b * t136 - j1_sin_b * t141 - t133 + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134 + (j1_cos_m * t137 - j1_sin_m * t144) - 0.1426250888590215;
+    let w_b_y = t134 + (j1_cos_b * t137 - j1_sin_b * t144) - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135 + (j1_cos_m * t138 + j1_sin_m * t147) - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let w_b_z = t135 + (j1_cos_b * t138 + j1_sin_b * t147) - 0.013836588814141002;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449182),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t237 = 0.9901136168642846 * j3_cos_psi_p;
-    let t239 = 0.14026769300136338 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t237 = 0.9901136168642846 * j3_cos_psi_a;
+    let t239 = 0.14026769300136338 * j3_sin_psi_a;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = t239 - t237;
-    let t241 = 0.14026769300136338 * j3_cos_psi_p;
-    let t242 = 0.9901136168642846 * j3_sin_psi_p;
+    let j3_cos_aa = t239 - t237;
+    let t241 = 0.14026769300136338 * j3_cos_psi_a;
+    let t242 = 0.9901136168642846 * j3_sin_psi_a;
     let t243 = t241 + t242;
     // θ3 = −φ3 = −(φ0 + ψ) (axis 3 opposite to axis 2)
-    let q3_pp = 3.000860878111602 - j3_psi_p;
-    let t264 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t243
+    let q3_aa = 3.000860878111602 - j3_psi_a;
+    let t264 = 0.2467123080373334 * j3_cos_aa - 0.02011160130528487 * t243
         - 0.7702009139951951;
     let t265 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t243);
-    let t266 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t243
+        - (0.040533312372973224 * j3_cos_aa + 0.09639828417151698 * t243);
+    let t266 = 0.004587381288611317 * j3_cos_aa + 0.22985615222970415 * t243
         + 0.08633983745217953;
-    let t271 = w_p_z * t266 + (w_p_x * t264 + w_p_y * t265);
-    let t285 = 0.393370490499651 * (w_p_y * t264 - w_p_x * t265)
-        + (0.14192355343258098 * (w_p_z * t265 - w_p_y * t266)
-            + 0.9083597096883664 * (w_p_x * t266 - w_p_z * t264));
+    let t271 = w_a_z * t266 + (w_a_x * t264 + w_a_y * t265);
+    let t285 = 0.393370490499651 * (w_a_y * t264 - w_a_x * t265)
+        + (0.14192355343258098 * (w_a_z * t265 - w_a_y * t266)
+            + 0.9083597096883664 * (w_a_x * t266 - w_a_z * t264));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_aa = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_a * t271;
+    let t288 = j2_inv_a * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 + t243 * t288;
+    let c23_aa = j3_cos_aa * t287 + t243 * t288;
     let t294 = t237 + t239;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t242 - t241;
+    let j3_sin_ab = t242 - t241;
     // θ3 = −φ3 = −(φ0 − ψ) (axis 3 opposite to axis 2)
-    let q3_pm = j3_psi_p + 3.000860878111602;
-    let t306 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t294
+    let q3_ab = j3_psi_a + 3.000860878111602;
+    let t306 = 0.02011160130528487 * j3_sin_ab - 0.2467123080373334 * t294
         - 0.7702009139951951;
-    let t307 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_pm
+    let t307 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_ab
         + 0.082947433224273;
     let t308 = 0.08633983745217953
-        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_pm);
-    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
-    let t327 = 0.393370490499651 * (w_p_y * t306 - w_p_x * t307)
-        + (0.14192355343258098 * (w_p_z * t307 - w_p_y * t308)
-            + 0.9083597096883664 * (w_p_x * t308 - w_p_z * t306));
+        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_ab);
+    let t313 = w_a_z * t308 + (w_a_x * t306 + w_a_y * t307);
+    let t327 = 0.393370490499651 * (w_a_y * t306 - w_a_x * t307)
+        + (0.14192355343258098 * (w_a_z * t307 - w_a_y * t308)
+            + 0.9083597096883664 * (w_a_x * t308 - w_a_z * t306));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t327, t313);
-    let t329 = j2_inv_p * t313;
-    let t330 = j2_inv_p * t327;
-    let t333 = t294 * t329 + j3_sin_pm * t330;
+    let q2_ab = ::armforge_runtime::math::atan2(t327, t313);
+    let t329 = j2_inv_a * t313;
+    let t330 = j2_inv_a * t327;
+    let t333 = t294 * t329 + j3_sin_ab * t330;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449182),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t352 = 0.9901136168642846 * j3_cos_psi_m;
-    let t353 = 0.14026769300136338 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t352 = 0.9901136168642846 * j3_cos_psi_b;
+    let t353 = 0.14026769300136338 * j3_sin_psi_b;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mp = t353 - t352;
-    let t355 = 0.14026769300136338 * j3_cos_psi_m;
-    let t356 = 0.9901136168642846 * j3_sin_psi_m;
+    let j3_cos_ba = t353 - t352;
+    let t355 = 0.14026769300136338 * j3_cos_psi_b;
+    let t356 = 0.9901136168642846 * j3_sin_psi_b;
     let t357 = t355 + t356;
     // θ3 = −φ3 = −(φ0 + ψ) (axis 3 opposite to axis 2)
-    let q3_mp = 3.000860878111602 - j3_psi_m;
-    let t368 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t357
+    let q3_ba = 3.000860878111602 - j3_psi_b;
+    let t368 = 0.2467123080373334 * j3_cos_ba - 0.02011160130528487 * t357
         - 0.7702009139951951;
     let t369 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t357);
-    let t370 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t357
+        - (0.040533312372973224 * j3_cos_ba + 0.09639828417151698 * t357);
+    let t370 = 0.004587381288611317 * j3_cos_ba + 0.22985615222970415 * t357
         + 0.08633983745217953;
-    let t375 = w_m_z * t370 + (w_m_x * t368 + w_m_y * t369);
-    let t389 = 0.393370490499651 * (w_m_y * t368 - w_m_x * t369)
-        + (0.14192355343258098 * (w_m_z * t369 - w_m_y * t370)
-            + 0.9083597096883664 * (w_m_x * t370 - w_m_z * t368));
+    let t375 = w_b_z * t370 + (w_b_x * t368 + w_b_y * t369);
+    let t389 = 0.393370490499651 * (w_b_y * t368 - w_b_x * t369)
+        + (0.14192355343258098 * (w_b_z * t369 - w_b_y * t370)
+            + 0.9083597096883664 * (w_b_x * t370 - w_b_z * t368));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t389, t375);
-    let t391 = j2_inv_m * t375;
-    let t392 = j2_inv_m * t389;
+    let q2_ba = ::armforge_runtime::math::atan2(t389, t375);
+    let t391 = j2_inv_b * t375;
+    let t392 = j2_inv_b * t389;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t391 + t357 * t392;
+    let c23_ba = j3_cos_ba * t391 + t357 * t392;
     let t398 = t352 + t353;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = t356 - t355;
+    let j3_sin_bb = t356 - t355;
     // θ3 = −φ3 = −(φ0 − ψ) (axis 3 opposite to axis 2)
-    let q3_mm = j3_psi_m + 3.000860878111602;
-    let t410 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t398
+    let q3_bb = j3_psi_b + 3.000860878111602;
+    let t410 = 0.02011160130528487 * j3_sin_bb - 0.2467123080373334 * t398
         - 0.7702009139951951;
-    let t411 = 0.040533312372973224 * t398 + 0.09639828417151698 * j3_sin_mm
+    let t411 = 0.040533312372973224 * t398 + 0.09639828417151698 * j3_sin_bb
         + 0.082947433224273;
     let t412 = 0.08633983745217953
-        - (0.004587381288611317 * t398 + 0.22985615222970415 * j3_sin_mm);
-    let t417 = w_m_z * t412 + (w_m_x * t410 + w_m_y * t411);
-    let t431 = 0.393370490499651 * (w_m_y * t410 - w_m_x * t411)
-        + (0.14192355343258098 * (w_m_z * t411 - w_m_y * t412)
-            + 0.9083597096883664 * (w_m_x * t412 - w_m_z * t410));
+        - (0.004587381288611317 * t398 + 0.22985615222970415 * j3_sin_bb);
+    let t417 = w_b_z * t412 + (w_b_x * t410 + w_b_y * t411);
+    let t431 = 0.393370490499651 * (w_b_y * t410 - w_b_x * t411)
+        + (0.14192355343258098 * (w_b_z * t411 - w_b_y * t412)
+            + 0.9083597096883664 * (w_b_x * t412 - w_b_z * t410));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t431, t417);
-    let t433 = j2_inv_m * t417;
-    let t434 = j2_inv_m * t431;
-    let t437 = t398 * t433 + j3_sin_mm * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(t431, t417);
+    let t433 = j2_inv_b * t417;
+    let t434 = j2_inv_b * t431;
+    let t437 = t398 * t433 + j3_sin_bb * t434;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -858,9 +858,9 @@ fn candidates(
     let t519 = 0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y;
     let t522 = 0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z;
     let t525 = 0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x;
-    let t535 = j1_cos_p * t514 - j1_sin_p * t519 - t511;
-    let t536 = t512 + (j1_cos_p * t515 - j1_sin_p * t522);
-    let t537 = t513 + (j1_cos_p * t516 + j1_sin_p * t525);
+    let t535 = j1_cos_a * t514 - j1_sin_a * t519 - t511;
+    let t536 = t512 + (j1_cos_a * t515 - j1_sin_a * t522);
+    let t537 = t513 + (j1_cos_a * t516 + j1_sin_a * t525);
     let t542 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t543 = 0.7610978269683933 * t542;
@@ -872,10 +872,10 @@ fn candidates(
     let t551 = 0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y;
     let t554 = 0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z;
     let t557 = 0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x;
-    let t567 = j1_cos_p * t546 - j1_sin_p * t551 - t543;
-    let t568 = t544 + (j1_cos_p * t547 - j1_sin_p * t554);
-    let t569 = t545 + (j1_cos_p * t548 + j1_sin_p * t557);
-    let t570 = t243 * t287 - j3_cos_pp * t288;
+    let t567 = j1_cos_a * t546 - j1_sin_a * t551 - t543;
+    let t568 = t544 + (j1_cos_a * t547 - j1_sin_a * t554);
+    let t569 = t545 + (j1_cos_a * t548 + j1_sin_a * t557);
+    let t570 = t243 * t287 - j3_cos_aa * t288;
     let t575 = 0.393370490499651 * t537
         + (0.14192355343258098 * t535 + 0.9083597096883664 * t536);
     let t576 = 0.14192355343258098 * t575;
@@ -888,11 +888,11 @@ fn candidates(
     let t587 = 0.393370490499651 * t535 - 0.14192355343258098 * t537;
     let t590 = 0.14192355343258098 * t536 - 0.9083597096883664 * t535;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t576 + (c23_pp * t579 + t570 * t584);
+    let v_b1_x = t576 + (c23_aa * t579 + t570 * t584);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t577 + (c23_pp * t580 + t570 * t587);
+    let v_b1_y = t577 + (c23_aa * t580 + t570 * t587);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t578 + (c23_pp * t581 + t570 * t590);
+    let v_b1_z = t578 + (c23_aa * t581 + t570 * t590);
     let t607 = 0.393370490499651 * t569
         + (0.14192355343258098 * t567 + 0.9083597096883664 * t568);
     let t608 = 0.14192355343258098 * t607;
@@ -905,11 +905,11 @@ fn candidates(
     let t619 = 0.393370490499651 * t567 - 0.14192355343258098 * t569;
     let t622 = 0.14192355343258098 * t568 - 0.9083597096883664 * t567;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t608 + (c23_pp * t611 + t570 * t616);
+    let xv_b1_x = t608 + (c23_aa * t611 + t570 * t616);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t609 + (c23_pp * t612 + t570 * t619);
+    let xv_b1_y = t609 + (c23_aa * t612 + t570 * t619);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t610 + (c23_pp * t613 + t570 * t622);
+    let xv_b1_z = t610 + (c23_aa * t613 + t570 * t622);
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.8589206607284425 * v_b1_z
         + (0.01853429342821227 * v_b1_x + 0.51177317098587 * v_b1_y);
@@ -924,35 +924,35 @@ fn candidates(
     let t667 = 0.5479704330528009 * j5_gamma_b1;
     let t669 = 0.3429623606197284 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t666;
+    let z_b1a_x = 0.01853429342821227 * j5_a_b1 + t666;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t667;
+    let z_b1a_y = 0.51177317098587 * j5_a_b1 + t667;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t669;
-    let t680 = 0.18309546554259973 * z_b1p_z
-        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    let z_b1a_z = 0.8589206607284425 * j5_a_b1 - t669;
+    let t680 = 0.18309546554259973 * z_b1a_z
+        + (0.6486710312075331 * z_b1a_x + 0.7387164163397849 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t680;
+    let j5_cos_b1a = -t680;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 0.38030529548240455
-        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+    let j5_sin_b1a = 0.38030529548240455
+        * (0.7387164163397849 * z_b1a_x - 0.6486710312075331 * z_b1a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            * (0.1830954655425997 * z_b1a_y - 0.7387164163397849 * z_b1a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+                * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t720 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_x * t666 + v_b1_y * t667 - v_b1_z * t669) * t720
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b1_y * t666 - v_b1_x * t667)
@@ -960,56 +960,56 @@ fn candidates(
                 - 0.51177317098587 * (v_b1_x * t669 + v_b1_z * t666))) * t720
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t731 = 0.8589206607284425 * xv_b1_z
         + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
     let t732 = 0.01853429342821227 * t731;
     let t733 = 0.51177317098587 * t731;
     let t734 = 0.8589206607284425 * t731;
     let t756 = t732
-        + (j4_cos_b1p * (xv_b1_x - t732)
-            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+        + (j4_cos_b1a * (xv_b1_x - t732)
+            - j4_sin_b1a * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
     let t757 = t733
-        + (j4_cos_b1p * (xv_b1_y - t733)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t733)
+            - j4_sin_b1a
                 * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
     let t758 = t734
-        + (j4_cos_b1p * (xv_b1_z - t734)
-            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+        + (j4_cos_b1a * (xv_b1_z - t734)
+            - j4_sin_b1a * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
     let t763 = 0.38030529548240455 * t758
         + (0.6461820612405205 * t756 - 0.6616771312044819 * t757);
     let t764 = 0.6461820612405205 * t763;
     let t765 = 0.6616771312044819 * t763;
     let t766 = 0.38030529548240455 * t763;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t764
-        + (j5_sin_b1p * (0.6616771312044819 * t758 + 0.38030529548240455 * t757)
+    let y6_b1a_x = t764
+        + (j5_sin_b1a * (0.6616771312044819 * t758 + 0.38030529548240455 * t757)
             - t680 * (t756 - t764));
     let t789 = t765
         + (t680 * (t757 + t765)
-            + j5_sin_b1p * (0.38030529548240455 * t756 - 0.6461820612405205 * t758));
+            + j5_sin_b1a * (0.38030529548240455 * t756 - 0.6461820612405205 * t758));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t766
+    let y6_b1a_z = t766
         - (t680 * (t758 - t766)
-            + j5_sin_b1p * (0.6461820612405205 * t757 + 0.6616771312044819 * t756));
+            + j5_sin_b1a * (0.6461820612405205 * t757 + 0.6616771312044819 * t756));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t789 + 0.13758142108114313 * y6_b1p_x)
+            * (0.1208110180221759 * t789 + 0.13758142108114313 * y6_b1a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t789 - 0.13758142108114313 * y6_b1p_z)
+                * (0.9830951380704407 * t789 - 0.13758142108114313 * y6_b1a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
-        0.9830951380704407 * y6_b1p_z
-            + (0.13758142108114313 * t789 - 0.1208110180221759 * y6_b1p_x),
+                    * (0.9830951380704407 * y6_b1a_x + 0.1208110180221759 * y6_b1a_z))),
+        0.9830951380704407 * y6_b1a_z
+            + (0.13758142108114313 * t789 - 0.1208110180221759 * y6_b1a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    let q4_b1b = q4_b1a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b1m = -4.299963472122064 - q5_b1p;
+    let q5_b1b = -4.299963472122064 - q5_b1a;
     // θ6 + π (mirror wrist branch)
-    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
-    let t820 = t294 * t330 - j3_sin_pm * t329;
+    let q6_b1b = q6_b1a + ::core::f64::consts::PI;
+    let t820 = t294 * t330 - j3_sin_ab * t329;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t576 + (t584 * t820 - t333 * t579);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
@@ -1036,35 +1036,35 @@ fn candidates(
     let t870 = 0.5479704330528009 * j5_gamma_b2;
     let t871 = 0.3429623606197284 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t869;
+    let z_b2a_x = 0.01853429342821227 * j5_a_b2 + t869;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t870;
+    let z_b2a_y = 0.51177317098587 * j5_a_b2 + t870;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t871;
-    let t879 = 0.18309546554259973 * z_b2p_z
-        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    let z_b2a_z = 0.8589206607284425 * j5_a_b2 - t871;
+    let t879 = 0.18309546554259973 * z_b2a_z
+        + (0.6486710312075331 * z_b2a_x + 0.7387164163397849 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t879;
+    let j5_cos_b2a = -t879;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 0.38030529548240455
-        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+    let j5_sin_b2a = 0.38030529548240455
+        * (0.7387164163397849 * z_b2a_x - 0.6486710312075331 * z_b2a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            * (0.1830954655425997 * z_b2a_y - 0.7387164163397849 * z_b2a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+                * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t916 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_x * t869 + v_b2_y * t870 - v_b2_z * t871) * t916
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b2_y * t869 - v_b2_x * t870)
@@ -1072,62 +1072,62 @@ fn candidates(
                 - 0.51177317098587 * (v_b2_x * t871 + v_b2_z * t869))) * t916
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t927 = 0.8589206607284425 * xv_b2_z
         + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
     let t928 = 0.01853429342821227 * t927;
     let t929 = 0.51177317098587 * t927;
     let t930 = 0.8589206607284425 * t927;
     let t952 = t928
-        + (j4_cos_b2p * (xv_b2_x - t928)
-            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+        + (j4_cos_b2a * (xv_b2_x - t928)
+            - j4_sin_b2a * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
     let t953 = t929
-        + (j4_cos_b2p * (xv_b2_y - t929)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t929)
+            - j4_sin_b2a
                 * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
     let t954 = t930
-        + (j4_cos_b2p * (xv_b2_z - t930)
-            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+        + (j4_cos_b2a * (xv_b2_z - t930)
+            - j4_sin_b2a * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
     let t959 = 0.38030529548240455 * t954
         + (0.6461820612405205 * t952 - 0.6616771312044819 * t953);
     let t960 = 0.6461820612405205 * t959;
     let t961 = 0.6616771312044819 * t959;
     let t962 = 0.38030529548240455 * t959;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t960
-        + (j5_sin_b2p * (0.6616771312044819 * t954 + 0.38030529548240455 * t953)
+    let y6_b2a_x = t960
+        + (j5_sin_b2a * (0.6616771312044819 * t954 + 0.38030529548240455 * t953)
             - t879 * (t952 - t960));
     let t985 = t961
         + (t879 * (t953 + t961)
-            + j5_sin_b2p * (0.38030529548240455 * t952 - 0.6461820612405205 * t954));
+            + j5_sin_b2a * (0.38030529548240455 * t952 - 0.6461820612405205 * t954));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t962
+    let y6_b2a_z = t962
         - (t879 * (t954 - t962)
-            + j5_sin_b2p * (0.6461820612405205 * t953 + 0.6616771312044819 * t952));
+            + j5_sin_b2a * (0.6461820612405205 * t953 + 0.6616771312044819 * t952));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t985 + 0.13758142108114313 * y6_b2p_x)
+            * (0.1208110180221759 * t985 + 0.13758142108114313 * y6_b2a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t985 - 0.13758142108114313 * y6_b2p_z)
+                * (0.9830951380704407 * t985 - 0.13758142108114313 * y6_b2a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
-        0.9830951380704407 * y6_b2p_z
-            + (0.13758142108114313 * t985 - 0.1208110180221759 * y6_b2p_x),
+                    * (0.9830951380704407 * y6_b2a_x + 0.1208110180221759 * y6_b2a_z))),
+        0.9830951380704407 * y6_b2a_z
+            + (0.13758142108114313 * t985 - 0.1208110180221759 * y6_b2a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    let q4_b2b = q4_b2a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b2m = -4.299963472122064 - q5_b2p;
+    let q5_b2b = -4.299963472122064 - q5_b2a;
     // θ6 + π (mirror wrist branch)
-    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
-    let t1020 = j1_cos_m * t514 - j1_sin_m * t519 - t511;
-    let t1021 = t512 + (j1_cos_m * t515 - j1_sin_m * t522);
-    let t1022 = t513 + (j1_cos_m * t516 + j1_sin_m * t525);
-    let t1032 = j1_cos_m * t546 - j1_sin_m * t551 - t543;
-    let t1033 = t544 + (j1_cos_m * t547 - j1_sin_m * t554);
-    let t1034 = t545 + (j1_cos_m * t548 + j1_sin_m * t557);
-    let t1035 = t357 * t391 - j3_cos_mp * t392;
+    let q6_b2b = q6_b2a + ::core::f64::consts::PI;
+    let t1020 = j1_cos_b * t514 - j1_sin_b * t519 - t511;
+    let t1021 = t512 + (j1_cos_b * t515 - j1_sin_b * t522);
+    let t1022 = t513 + (j1_cos_b * t516 + j1_sin_b * t525);
+    let t1032 = j1_cos_b * t546 - j1_sin_b * t551 - t543;
+    let t1033 = t544 + (j1_cos_b * t547 - j1_sin_b * t554);
+    let t1034 = t545 + (j1_cos_b * t548 + j1_sin_b * t557);
+    let t1035 = t357 * t391 - j3_cos_ba * t392;
     let t1040 = 0.393370490499651 * t1022
         + (0.14192355343258098 * t1020 + 0.9083597096883664 * t1021);
     let t1041 = 0.14192355343258098 * t1040;
@@ -1140,11 +1140,11 @@ fn candidates(
     let t1052 = 0.393370490499651 * t1020 - 0.14192355343258098 * t1022;
     let t1055 = 0.14192355343258098 * t1021 - 0.9083597096883664 * t1020;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1041 + (c23_mp * t1044 + t1035 * t1049);
+    let v_b3_x = t1041 + (c23_ba * t1044 + t1035 * t1049);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1042 + (c23_mp * t1045 + t1035 * t1052);
+    let v_b3_y = t1042 + (c23_ba * t1045 + t1035 * t1052);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t1043 + (c23_mp * t1046 + t1035 * t1055);
+    let v_b3_z = t1043 + (c23_ba * t1046 + t1035 * t1055);
     let t1072 = 0.393370490499651 * t1034
         + (0.14192355343258098 * t1032 + 0.9083597096883664 * t1033);
     let t1073 = 0.14192355343258098 * t1072;
@@ -1157,11 +1157,11 @@ fn candidates(
     let t1084 = 0.393370490499651 * t1032 - 0.14192355343258098 * t1034;
     let t1087 = 0.14192355343258098 * t1033 - 0.9083597096883664 * t1032;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1073 + (c23_mp * t1076 + t1035 * t1081);
+    let xv_b3_x = t1073 + (c23_ba * t1076 + t1035 * t1081);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1074 + (c23_mp * t1077 + t1035 * t1084);
+    let xv_b3_y = t1074 + (c23_ba * t1077 + t1035 * t1084);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t1075 + (c23_mp * t1078 + t1035 * t1087);
+    let xv_b3_z = t1075 + (c23_ba * t1078 + t1035 * t1087);
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.8589206607284425 * v_b3_z
         + (0.01853429342821227 * v_b3_x + 0.51177317098587 * v_b3_y);
@@ -1176,35 +1176,35 @@ fn candidates(
     let t1125 = 0.5479704330528009 * j5_gamma_b3;
     let t1126 = 0.3429623606197284 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1124;
+    let z_b3a_x = 0.01853429342821227 * j5_a_b3 + t1124;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1125;
+    let z_b3a_y = 0.51177317098587 * j5_a_b3 + t1125;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1126;
-    let t1134 = 0.18309546554259973 * z_b3p_z
-        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    let z_b3a_z = 0.8589206607284425 * j5_a_b3 - t1126;
+    let t1134 = 0.18309546554259973 * z_b3a_z
+        + (0.6486710312075331 * z_b3a_x + 0.7387164163397849 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1134;
+    let j5_cos_b3a = -t1134;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 0.38030529548240455
-        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+    let j5_sin_b3a = 0.38030529548240455
+        * (0.7387164163397849 * z_b3a_x - 0.6486710312075331 * z_b3a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            * (0.1830954655425997 * z_b3a_y - 0.7387164163397849 * z_b3a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+                * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1171 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_x * t1124 + v_b3_y * t1125 - v_b3_z * t1126) * t1171
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b3_y * t1124 - v_b3_x * t1125)
@@ -1212,56 +1212,56 @@ fn candidates(
                 - 0.51177317098587 * (v_b3_x * t1126 + v_b3_z * t1124))) * t1171
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1182 = 0.8589206607284425 * xv_b3_z
         + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
     let t1183 = 0.01853429342821227 * t1182;
     let t1184 = 0.51177317098587 * t1182;
     let t1185 = 0.8589206607284425 * t1182;
     let t1207 = t1183
-        + (j4_cos_b3p * (xv_b3_x - t1183)
-            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+        + (j4_cos_b3a * (xv_b3_x - t1183)
+            - j4_sin_b3a * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
     let t1208 = t1184
-        + (j4_cos_b3p * (xv_b3_y - t1184)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1184)
+            - j4_sin_b3a
                 * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
     let t1209 = t1185
-        + (j4_cos_b3p * (xv_b3_z - t1185)
-            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+        + (j4_cos_b3a * (xv_b3_z - t1185)
+            - j4_sin_b3a * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
     let t1214 = 0.38030529548240455 * t1209
         + (0.6461820612405205 * t1207 - 0.6616771312044819 * t1208);
     let t1215 = 0.6461820612405205 * t1214;
     let t1216 = 0.6616771312044819 * t1214;
     let t1217 = 0.38030529548240455 * t1214;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1215
-        + (j5_sin_b3p * (0.6616771312044819 * t1209 + 0.38030529548240455 * t1208)
+    let y6_b3a_x = t1215
+        + (j5_sin_b3a * (0.6616771312044819 * t1209 + 0.38030529548240455 * t1208)
             - t1134 * (t1207 - t1215));
     let t1240 = t1216
         + (t1134 * (t1208 + t1216)
-            + j5_sin_b3p * (0.38030529548240455 * t1207 - 0.6461820612405205 * t1209));
+            + j5_sin_b3a * (0.38030529548240455 * t1207 - 0.6461820612405205 * t1209));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1217
+    let y6_b3a_z = t1217
         - (t1134 * (t1209 - t1217)
-            + j5_sin_b3p * (0.6461820612405205 * t1208 + 0.6616771312044819 * t1207));
+            + j5_sin_b3a * (0.6461820612405205 * t1208 + 0.6616771312044819 * t1207));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1240 + 0.13758142108114313 * y6_b3p_x)
+            * (0.1208110180221759 * t1240 + 0.13758142108114313 * y6_b3a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1240 - 0.13758142108114313 * y6_b3p_z)
+                * (0.9830951380704407 * t1240 - 0.13758142108114313 * y6_b3a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
-        0.9830951380704407 * y6_b3p_z
-            + (0.13758142108114313 * t1240 - 0.1208110180221759 * y6_b3p_x),
+                    * (0.9830951380704407 * y6_b3a_x + 0.1208110180221759 * y6_b3a_z))),
+        0.9830951380704407 * y6_b3a_z
+            + (0.13758142108114313 * t1240 - 0.1208110180221759 * y6_b3a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    let q4_b3b = q4_b3a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b3m = -4.299963472122064 - q5_b3p;
+    let q5_b3b = -4.299963472122064 - q5_b3a;
     // θ6 + π (mirror wrist branch)
-    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
-    let t1266 = t398 * t434 - j3_sin_mm * t433;
+    let q6_b3b = q6_b3a + ::core::f64::consts::PI;
+    let t1266 = t398 * t434 - j3_sin_bb * t433;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1041 + (t1049 * t1266 - t437 * t1044);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
@@ -1288,35 +1288,35 @@ fn candidates(
     let t1316 = 0.5479704330528009 * j5_gamma_b4;
     let t1317 = 0.3429623606197284 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1315;
+    let z_b4a_x = 0.01853429342821227 * j5_a_b4 + t1315;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1316;
+    let z_b4a_y = 0.51177317098587 * j5_a_b4 + t1316;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1317;
-    let t1325 = 0.18309546554259973 * z_b4p_z
-        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    let z_b4a_z = 0.8589206607284425 * j5_a_b4 - t1317;
+    let t1325 = 0.18309546554259973 * z_b4a_z
+        + (0.6486710312075331 * z_b4a_x + 0.7387164163397849 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1325;
+    let j5_cos_b4a = -t1325;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 0.38030529548240455
-        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+    let j5_sin_b4a = 0.38030529548240455
+        * (0.7387164163397849 * z_b4a_x - 0.6486710312075331 * z_b4a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            * (0.1830954655425997 * z_b4a_y - 0.7387164163397849 * z_b4a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+                * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1362 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_x * t1315 + v_b4_y * t1316 - v_b4_z * t1317) * t1362
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b4_y * t1315 - v_b4_x * t1316)
@@ -1324,58 +1324,58 @@ fn candidates(
                 - 0.51177317098587 * (v_b4_x * t1317 + v_b4_z * t1315))) * t1362
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1373 = 0.8589206607284425 * xv_b4_z
         + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
     let t1374 = 0.01853429342821227 * t1373;
     let t1375 = 0.51177317098587 * t1373;
     let t1376 = 0.8589206607284425 * t1373;
     let t1398 = t1374
-        + (j4_cos_b4p * (xv_b4_x - t1374)
-            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+        + (j4_cos_b4a * (xv_b4_x - t1374)
+            - j4_sin_b4a * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
     let t1399 = t1375
-        + (j4_cos_b4p * (xv_b4_y - t1375)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1375)
+            - j4_sin_b4a
                 * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
     let t1400 = t1376
-        + (j4_cos_b4p * (xv_b4_z - t1376)
-            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+        + (j4_cos_b4a * (xv_b4_z - t1376)
+            - j4_sin_b4a * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
     let t1405 = 0.38030529548240455 * t1400
         + (0.6461820612405205 * t1398 - 0.6616771312044819 * t1399);
     let t1406 = 0.6461820612405205 * t1405;
     let t1407 = 0.6616771312044819 * t1405;
     let t1408 = 0.38030529548240455 * t1405;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1406
-        + (j5_sin_b4p * (0.6616771312044819 * t1400 + 0.38030529548240455 * t1399)
+    let y6_b4a_x = t1406
+        + (j5_sin_b4a * (0.6616771312044819 * t1400 + 0.38030529548240455 * t1399)
             - t1325 * (t1398 - t1406));
     let t1431 = t1407
         + (t1325 * (t1399 + t1407)
-            + j5_sin_b4p * (0.38030529548240455 * t1398 - 0.6461820612405205 * t1400));
+            + j5_sin_b4a * (0.38030529548240455 * t1398 - 0.6461820612405205 * t1400));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1408
+    let y6_b4a_z = t1408
         - (t1325 * (t1400 - t1408)
-            + j5_sin_b4p * (0.6461820612405205 * t1399 + 0.6616771312044819 * t1398));
+            + j5_sin_b4a * (0.6461820612405205 * t1399 + 0.6616771312044819 * t1398));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1431 + 0.13758142108114313 * y6_b4p_x)
+            * (0.1208110180221759 * t1431 + 0.13758142108114313 * y6_b4a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1431 - 0.13758142108114313 * y6_b4p_z)
+                * (0.9830951380704407 * t1431 - 0.13758142108114313 * y6_b4a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
-        0.9830951380704407 * y6_b4p_z
-            + (0.13758142108114313 * t1431 - 0.1208110180221759 * y6_b4p_x),
+                    * (0.9830951380704407 * y6_b4a_x + 0.1208110180221759 * y6_b4a_z))),
+        0.9830951380704407 * y6_b4a_z
+            + (0.13758142108114313 * t1431 - 0.1208110180221759 * y6_b4a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    let q4_b4b = q4_b4a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b4m = -4.299963472122064 - q5_b4p;
+    let q5_b4b = -4.299963472122064 - q5_b4a;
     // θ6 + π (mirror wrist branch)
-    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    let q6_b4b = q6_b4a + ::core::f64::consts::PI;
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1389,12 +1389,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1403,7 +1403,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1417,12 +1417,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1431,7 +1431,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1445,12 +1445,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1459,7 +1459,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1473,12 +1473,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1487,7 +1487,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1501,12 +1501,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1515,7 +1515,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1529,12 +1529,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1543,7 +1543,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1557,12 +1557,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1571,7 +1571,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1585,12 +1585,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.0295131814697287,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.5293893711342471,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1672,16 +1672,16 @@ fn branch_1(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -1690,66 +1690,66 @@ fn branch_1(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449182),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
-        - 0.9901136168642846 * j3_cos_psi_p;
-    let t243 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    let j3_cos_aa = 0.14026769300136338 * j3_sin_psi_a
+        - 0.9901136168642846 * j3_cos_psi_a;
+    let t243 = 0.14026769300136338 * j3_cos_psi_a + 0.9901136168642846 * j3_sin_psi_a;
     // θ3 = −φ3 = −(φ0 + ψ) (axis 3 opposite to axis 2)
-    let q3_pp = 3.000860878111602 - j3_psi_p;
-    let t264 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t243
+    let q3_aa = 3.000860878111602 - j3_psi_a;
+    let t264 = 0.2467123080373334 * j3_cos_aa - 0.02011160130528487 * t243
         - 0.7702009139951951;
     let t265 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t243);
-    let t266 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t243
+        - (0.040533312372973224 * j3_cos_aa + 0.09639828417151698 * t243);
+    let t266 = 0.004587381288611317 * j3_cos_aa + 0.22985615222970415 * t243
         + 0.08633983745217953;
-    let t271 = w_p_z * t266 + (w_p_x * t264 + w_p_y * t265);
-    let t285 = 0.393370490499651 * (w_p_y * t264 - w_p_x * t265)
-        + (0.14192355343258098 * (w_p_z * t265 - w_p_y * t266)
-            + 0.9083597096883664 * (w_p_x * t266 - w_p_z * t264));
+    let t271 = w_a_z * t266 + (w_a_x * t264 + w_a_y * t265);
+    let t285 = 0.393370490499651 * (w_a_y * t264 - w_a_x * t265)
+        + (0.14192355343258098 * (w_a_z * t265 - w_a_y * t266)
+            + 0.9083597096883664 * (w_a_x * t266 - w_a_z * t264));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_aa = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_a * t271;
+    let t288 = j2_inv_a * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 + t243 * t288;
+    let c23_aa = j3_cos_aa * t287 + t243 * t288;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -1785,28 +1785,28 @@ fn branch_1(
     let t511 = 0.7610978269683933 * t510;
     let t512 = 0.6486238403189734 * t510;
     let t513 = 0.004148680977921899 * t510;
-    let t535 = j1_cos_p * (g6_x + t511)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t535 = j1_cos_a * (g6_x + t511)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t536 = t512
-        + (j1_cos_p * (g6_y - t512)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t512)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t537 = t513
-        + (j1_cos_p * (g6_z - t513)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t513)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t542 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t567 = j1_cos_p * (gx_x + t543)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+    let t567 = j1_cos_a * (gx_x + t543)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t568 = t544
-        + (j1_cos_p * (gx_y - t544)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t544)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t569 = t545
-        + (j1_cos_p * (gx_z - t545)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t570 = t243 * t287 - j3_cos_pp * t288;
+        + (j1_cos_a * (gx_z - t545)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t570 = t243 * t287 - j3_cos_aa * t288;
     let t575 = 0.393370490499651 * t537
         + (0.14192355343258098 * t535 + 0.9083597096883664 * t536);
     let t576 = 0.14192355343258098 * t575;
@@ -1814,15 +1814,15 @@ fn branch_1(
     let t578 = 0.393370490499651 * t575;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t576
-        + (c23_pp * (t535 - t576)
+        + (c23_aa * (t535 - t576)
             + t570 * (0.9083597096883664 * t537 - 0.393370490499651 * t536));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t577
-        + (c23_pp * (t536 - t577)
+        + (c23_aa * (t536 - t577)
             + t570 * (0.393370490499651 * t535 - 0.14192355343258098 * t537));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t578
-        + (c23_pp * (t537 - t578)
+        + (c23_aa * (t537 - t578)
             + t570 * (0.14192355343258098 * t536 - 0.9083597096883664 * t535));
     let t607 = 0.393370490499651 * t569
         + (0.14192355343258098 * t567 + 0.9083597096883664 * t568);
@@ -1831,15 +1831,15 @@ fn branch_1(
     let t610 = 0.393370490499651 * t607;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t608
-        + (c23_pp * (t567 - t608)
+        + (c23_aa * (t567 - t608)
             + t570 * (0.9083597096883664 * t569 - 0.393370490499651 * t568));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t609
-        + (c23_pp * (t568 - t609)
+        + (c23_aa * (t568 - t609)
             + t570 * (0.393370490499651 * t567 - 0.14192355343258098 * t569));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t610
-        + (c23_pp * (t569 - t610)
+        + (c23_aa * (t569 - t610)
             + t570 * (0.14192355343258098 * t568 - 0.9083597096883664 * t567));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.8589206607284425 * v_b1_z
@@ -1855,35 +1855,35 @@ fn branch_1(
     let t667 = 0.5479704330528009 * j5_gamma_b1;
     let t669 = 0.3429623606197284 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t666;
+    let z_b1a_x = 0.01853429342821227 * j5_a_b1 + t666;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t667;
+    let z_b1a_y = 0.51177317098587 * j5_a_b1 + t667;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t669;
-    let t680 = 0.18309546554259973 * z_b1p_z
-        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    let z_b1a_z = 0.8589206607284425 * j5_a_b1 - t669;
+    let t680 = 0.18309546554259973 * z_b1a_z
+        + (0.6486710312075331 * z_b1a_x + 0.7387164163397849 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t680;
+    let j5_cos_b1a = -t680;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 0.38030529548240455
-        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+    let j5_sin_b1a = 0.38030529548240455
+        * (0.7387164163397849 * z_b1a_x - 0.6486710312075331 * z_b1a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            * (0.1830954655425997 * z_b1a_y - 0.7387164163397849 * z_b1a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+                * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t720 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_x * t666 + v_b1_y * t667 - v_b1_z * t669) * t720
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b1_y * t666 - v_b1_x * t667)
@@ -1891,51 +1891,51 @@ fn branch_1(
                 - 0.51177317098587 * (v_b1_x * t669 + v_b1_z * t666))) * t720
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t731 = 0.8589206607284425 * xv_b1_z
         + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
     let t732 = 0.01853429342821227 * t731;
     let t733 = 0.51177317098587 * t731;
     let t734 = 0.8589206607284425 * t731;
     let t756 = t732
-        + (j4_cos_b1p * (xv_b1_x - t732)
-            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+        + (j4_cos_b1a * (xv_b1_x - t732)
+            - j4_sin_b1a * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
     let t757 = t733
-        + (j4_cos_b1p * (xv_b1_y - t733)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t733)
+            - j4_sin_b1a
                 * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
     let t758 = t734
-        + (j4_cos_b1p * (xv_b1_z - t734)
-            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+        + (j4_cos_b1a * (xv_b1_z - t734)
+            - j4_sin_b1a * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
     let t763 = 0.38030529548240455 * t758
         + (0.6461820612405205 * t756 - 0.6616771312044819 * t757);
     let t764 = 0.6461820612405205 * t763;
     let t765 = 0.6616771312044819 * t763;
     let t766 = 0.38030529548240455 * t763;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t764
-        + (j5_sin_b1p * (0.6616771312044819 * t758 + 0.38030529548240455 * t757)
+    let y6_b1a_x = t764
+        + (j5_sin_b1a * (0.6616771312044819 * t758 + 0.38030529548240455 * t757)
             - t680 * (t756 - t764));
     let t789 = t765
         + (t680 * (t757 + t765)
-            + j5_sin_b1p * (0.38030529548240455 * t756 - 0.6461820612405205 * t758));
+            + j5_sin_b1a * (0.38030529548240455 * t756 - 0.6461820612405205 * t758));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t766
+    let y6_b1a_z = t766
         - (t680 * (t758 - t766)
-            + j5_sin_b1p * (0.6461820612405205 * t757 + 0.6616771312044819 * t756));
+            + j5_sin_b1a * (0.6461820612405205 * t757 + 0.6616771312044819 * t756));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t789 + 0.13758142108114313 * y6_b1p_x)
+            * (0.1208110180221759 * t789 + 0.13758142108114313 * y6_b1a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t789 - 0.13758142108114313 * y6_b1p_z)
+                * (0.9830951380704407 * t789 - 0.13758142108114313 * y6_b1a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
-        0.9830951380704407 * y6_b1p_z
-            + (0.13758142108114313 * t789 - 0.1208110180221759 * y6_b1p_x),
+                    * (0.9830951380704407 * y6_b1a_x + 0.1208110180221759 * y6_b1a_z))),
+        0.9830951380704407 * y6_b1a_z
+            + (0.13758142108114313 * t789 - 0.1208110180221759 * y6_b1a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -1949,12 +1949,12 @@ fn branch_1(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2035,16 +2035,16 @@ fn branch_2(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2053,66 +2053,66 @@ fn branch_2(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449182),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
-        - 0.9901136168642846 * j3_cos_psi_p;
-    let t243 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    let j3_cos_aa = 0.14026769300136338 * j3_sin_psi_a
+        - 0.9901136168642846 * j3_cos_psi_a;
+    let t243 = 0.14026769300136338 * j3_cos_psi_a + 0.9901136168642846 * j3_sin_psi_a;
     // θ3 = −φ3 = −(φ0 + ψ) (axis 3 opposite to axis 2)
-    let q3_pp = 3.000860878111602 - j3_psi_p;
-    let t264 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t243
+    let q3_aa = 3.000860878111602 - j3_psi_a;
+    let t264 = 0.2467123080373334 * j3_cos_aa - 0.02011160130528487 * t243
         - 0.7702009139951951;
     let t265 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t243);
-    let t266 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t243
+        - (0.040533312372973224 * j3_cos_aa + 0.09639828417151698 * t243);
+    let t266 = 0.004587381288611317 * j3_cos_aa + 0.22985615222970415 * t243
         + 0.08633983745217953;
-    let t271 = w_p_z * t266 + (w_p_x * t264 + w_p_y * t265);
-    let t285 = 0.393370490499651 * (w_p_y * t264 - w_p_x * t265)
-        + (0.14192355343258098 * (w_p_z * t265 - w_p_y * t266)
-            + 0.9083597096883664 * (w_p_x * t266 - w_p_z * t264));
+    let t271 = w_a_z * t266 + (w_a_x * t264 + w_a_y * t265);
+    let t285 = 0.393370490499651 * (w_a_y * t264 - w_a_x * t265)
+        + (0.14192355343258098 * (w_a_z * t265 - w_a_y * t266)
+            + 0.9083597096883664 * (w_a_x * t266 - w_a_z * t264));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_aa = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_a * t271;
+    let t288 = j2_inv_a * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 + t243 * t288;
+    let c23_aa = j3_cos_aa * t287 + t243 * t288;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -2148,28 +2148,28 @@ fn branch_2(
     let t511 = 0.7610978269683933 * t510;
     let t512 = 0.6486238403189734 * t510;
     let t513 = 0.004148680977921899 * t510;
-    let t535 = j1_cos_p * (g6_x + t511)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t535 = j1_cos_a * (g6_x + t511)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t536 = t512
-        + (j1_cos_p * (g6_y - t512)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t512)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t537 = t513
-        + (j1_cos_p * (g6_z - t513)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t513)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t542 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t567 = j1_cos_p * (gx_x + t543)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+    let t567 = j1_cos_a * (gx_x + t543)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t568 = t544
-        + (j1_cos_p * (gx_y - t544)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t544)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t569 = t545
-        + (j1_cos_p * (gx_z - t545)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t570 = t243 * t287 - j3_cos_pp * t288;
+        + (j1_cos_a * (gx_z - t545)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t570 = t243 * t287 - j3_cos_aa * t288;
     let t575 = 0.393370490499651 * t537
         + (0.14192355343258098 * t535 + 0.9083597096883664 * t536);
     let t576 = 0.14192355343258098 * t575;
@@ -2177,15 +2177,15 @@ fn branch_2(
     let t578 = 0.393370490499651 * t575;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t576
-        + (c23_pp * (t535 - t576)
+        + (c23_aa * (t535 - t576)
             + t570 * (0.9083597096883664 * t537 - 0.393370490499651 * t536));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t577
-        + (c23_pp * (t536 - t577)
+        + (c23_aa * (t536 - t577)
             + t570 * (0.393370490499651 * t535 - 0.14192355343258098 * t537));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t578
-        + (c23_pp * (t537 - t578)
+        + (c23_aa * (t537 - t578)
             + t570 * (0.14192355343258098 * t536 - 0.9083597096883664 * t535));
     let t607 = 0.393370490499651 * t569
         + (0.14192355343258098 * t567 + 0.9083597096883664 * t568);
@@ -2194,15 +2194,15 @@ fn branch_2(
     let t610 = 0.393370490499651 * t607;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t608
-        + (c23_pp * (t567 - t608)
+        + (c23_aa * (t567 - t608)
             + t570 * (0.9083597096883664 * t569 - 0.393370490499651 * t568));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t609
-        + (c23_pp * (t568 - t609)
+        + (c23_aa * (t568 - t609)
             + t570 * (0.393370490499651 * t567 - 0.14192355343258098 * t569));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t610
-        + (c23_pp * (t569 - t610)
+        + (c23_aa * (t569 - t610)
             + t570 * (0.14192355343258098 * t568 - 0.9083597096883664 * t567));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.8589206607284425 * v_b1_z
@@ -2218,35 +2218,35 @@ fn branch_2(
     let t667 = 0.5479704330528009 * j5_gamma_b1;
     let t669 = 0.3429623606197284 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.01853429342821227 * j5_a_b1 + t666;
+    let z_b1a_x = 0.01853429342821227 * j5_a_b1 + t666;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.51177317098587 * j5_a_b1 + t667;
+    let z_b1a_y = 0.51177317098587 * j5_a_b1 + t667;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.8589206607284425 * j5_a_b1 - t669;
-    let t680 = 0.18309546554259973 * z_b1p_z
-        + (0.6486710312075331 * z_b1p_x + 0.7387164163397849 * z_b1p_y);
+    let z_b1a_z = 0.8589206607284425 * j5_a_b1 - t669;
+    let t680 = 0.18309546554259973 * z_b1a_z
+        + (0.6486710312075331 * z_b1a_x + 0.7387164163397849 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t680;
+    let j5_cos_b1a = -t680;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 0.38030529548240455
-        * (0.7387164163397849 * z_b1p_x - 0.6486710312075331 * z_b1p_y)
+    let j5_sin_b1a = 0.38030529548240455
+        * (0.7387164163397849 * z_b1a_x - 0.6486710312075331 * z_b1a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b1p_y - 0.7387164163397849 * z_b1p_z)
+            * (0.1830954655425997 * z_b1a_y - 0.7387164163397849 * z_b1a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b1p_z - 0.1830954655425997 * z_b1p_x));
+                * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t720 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_x * t666 + v_b1_y * t667 - v_b1_z * t669) * t720
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b1_y * t666 - v_b1_x * t667)
@@ -2254,57 +2254,57 @@ fn branch_2(
                 - 0.51177317098587 * (v_b1_x * t669 + v_b1_z * t666))) * t720
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t731 = 0.8589206607284425 * xv_b1_z
         + (0.01853429342821227 * xv_b1_x + 0.51177317098587 * xv_b1_y);
     let t732 = 0.01853429342821227 * t731;
     let t733 = 0.51177317098587 * t731;
     let t734 = 0.8589206607284425 * t731;
     let t756 = t732
-        + (j4_cos_b1p * (xv_b1_x - t732)
-            - j4_sin_b1p * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
+        + (j4_cos_b1a * (xv_b1_x - t732)
+            - j4_sin_b1a * (0.51177317098587 * xv_b1_z - 0.8589206607284425 * xv_b1_y));
     let t757 = t733
-        + (j4_cos_b1p * (xv_b1_y - t733)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t733)
+            - j4_sin_b1a
                 * (0.8589206607284425 * xv_b1_x - 0.01853429342821227 * xv_b1_z));
     let t758 = t734
-        + (j4_cos_b1p * (xv_b1_z - t734)
-            - j4_sin_b1p * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
+        + (j4_cos_b1a * (xv_b1_z - t734)
+            - j4_sin_b1a * (0.01853429342821227 * xv_b1_y - 0.51177317098587 * xv_b1_x));
     let t763 = 0.38030529548240455 * t758
         + (0.6461820612405205 * t756 - 0.6616771312044819 * t757);
     let t764 = 0.6461820612405205 * t763;
     let t765 = 0.6616771312044819 * t763;
     let t766 = 0.38030529548240455 * t763;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t764
-        + (j5_sin_b1p * (0.6616771312044819 * t758 + 0.38030529548240455 * t757)
+    let y6_b1a_x = t764
+        + (j5_sin_b1a * (0.6616771312044819 * t758 + 0.38030529548240455 * t757)
             - t680 * (t756 - t764));
     let t789 = t765
         + (t680 * (t757 + t765)
-            + j5_sin_b1p * (0.38030529548240455 * t756 - 0.6461820612405205 * t758));
+            + j5_sin_b1a * (0.38030529548240455 * t756 - 0.6461820612405205 * t758));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t766
+    let y6_b1a_z = t766
         - (t680 * (t758 - t766)
-            + j5_sin_b1p * (0.6461820612405205 * t757 + 0.6616771312044819 * t756));
+            + j5_sin_b1a * (0.6461820612405205 * t757 + 0.6616771312044819 * t756));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t789 + 0.13758142108114313 * y6_b1p_x)
+            * (0.1208110180221759 * t789 + 0.13758142108114313 * y6_b1a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t789 - 0.13758142108114313 * y6_b1p_z)
+                * (0.9830951380704407 * t789 - 0.13758142108114313 * y6_b1a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b1p_x + 0.1208110180221759 * y6_b1p_z))),
-        0.9830951380704407 * y6_b1p_z
-            + (0.13758142108114313 * t789 - 0.1208110180221759 * y6_b1p_x),
+                    * (0.9830951380704407 * y6_b1a_x + 0.1208110180221759 * y6_b1a_z))),
+        0.9830951380704407 * y6_b1a_z
+            + (0.13758142108114313 * t789 - 0.1208110180221759 * y6_b1a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    let q4_b1b = q4_b1a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b1m = -4.299963472122064 - q5_b1p;
+    let q5_b1b = -4.299963472122064 - q5_b1a;
     // θ6 + π (mirror wrist branch)
-    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
+    let q6_b1b = q6_b1a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -2318,12 +2318,12 @@ fn branch_2(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2404,16 +2404,16 @@ fn branch_3(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2422,65 +2422,65 @@ fn branch_3(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449182),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t294 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t294 = 0.9901136168642846 * j3_cos_psi_a + 0.14026769300136338 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
-        - 0.14026769300136338 * j3_cos_psi_p;
+    let j3_sin_ab = 0.9901136168642846 * j3_sin_psi_a
+        - 0.14026769300136338 * j3_cos_psi_a;
     // θ3 = −φ3 = −(φ0 − ψ) (axis 3 opposite to axis 2)
-    let q3_pm = j3_psi_p + 3.000860878111602;
-    let t306 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t294
+    let q3_ab = j3_psi_a + 3.000860878111602;
+    let t306 = 0.02011160130528487 * j3_sin_ab - 0.2467123080373334 * t294
         - 0.7702009139951951;
-    let t307 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_pm
+    let t307 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_ab
         + 0.082947433224273;
     let t308 = 0.08633983745217953
-        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_pm);
-    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
-    let t327 = 0.393370490499651 * (w_p_y * t306 - w_p_x * t307)
-        + (0.14192355343258098 * (w_p_z * t307 - w_p_y * t308)
-            + 0.9083597096883664 * (w_p_x * t308 - w_p_z * t306));
+        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_ab);
+    let t313 = w_a_z * t308 + (w_a_x * t306 + w_a_y * t307);
+    let t327 = 0.393370490499651 * (w_a_y * t306 - w_a_x * t307)
+        + (0.14192355343258098 * (w_a_z * t307 - w_a_y * t308)
+            + 0.9083597096883664 * (w_a_x * t308 - w_a_z * t306));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t327, t313);
-    let t329 = j2_inv_p * t313;
-    let t330 = j2_inv_p * t327;
-    let t333 = t294 * t329 + j3_sin_pm * t330;
+    let q2_ab = ::armforge_runtime::math::atan2(t327, t313);
+    let t329 = j2_inv_a * t313;
+    let t330 = j2_inv_a * t327;
+    let t333 = t294 * t329 + j3_sin_ab * t330;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -2516,27 +2516,27 @@ fn branch_3(
     let t511 = 0.7610978269683933 * t510;
     let t512 = 0.6486238403189734 * t510;
     let t513 = 0.004148680977921899 * t510;
-    let t535 = j1_cos_p * (g6_x + t511)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t535 = j1_cos_a * (g6_x + t511)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t536 = t512
-        + (j1_cos_p * (g6_y - t512)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t512)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t537 = t513
-        + (j1_cos_p * (g6_z - t513)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t513)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t542 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t567 = j1_cos_p * (gx_x + t543)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+    let t567 = j1_cos_a * (gx_x + t543)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t568 = t544
-        + (j1_cos_p * (gx_y - t544)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t544)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t569 = t545
-        + (j1_cos_p * (gx_z - t545)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_a * (gx_z - t545)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t575 = 0.393370490499651 * t537
         + (0.14192355343258098 * t535 + 0.9083597096883664 * t536);
     let t576 = 0.14192355343258098 * t575;
@@ -2547,7 +2547,7 @@ fn branch_3(
     let t608 = 0.14192355343258098 * t607;
     let t609 = 0.9083597096883664 * t607;
     let t610 = 0.393370490499651 * t607;
-    let t820 = t294 * t330 - j3_sin_pm * t329;
+    let t820 = t294 * t330 - j3_sin_ab * t329;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t576
         + ((0.9083597096883664 * t537 - 0.393370490499651 * t536) * t820
@@ -2586,35 +2586,35 @@ fn branch_3(
     let t870 = 0.5479704330528009 * j5_gamma_b2;
     let t871 = 0.3429623606197284 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t869;
+    let z_b2a_x = 0.01853429342821227 * j5_a_b2 + t869;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t870;
+    let z_b2a_y = 0.51177317098587 * j5_a_b2 + t870;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t871;
-    let t879 = 0.18309546554259973 * z_b2p_z
-        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    let z_b2a_z = 0.8589206607284425 * j5_a_b2 - t871;
+    let t879 = 0.18309546554259973 * z_b2a_z
+        + (0.6486710312075331 * z_b2a_x + 0.7387164163397849 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t879;
+    let j5_cos_b2a = -t879;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 0.38030529548240455
-        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+    let j5_sin_b2a = 0.38030529548240455
+        * (0.7387164163397849 * z_b2a_x - 0.6486710312075331 * z_b2a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            * (0.1830954655425997 * z_b2a_y - 0.7387164163397849 * z_b2a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+                * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t916 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_x * t869 + v_b2_y * t870 - v_b2_z * t871) * t916
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b2_y * t869 - v_b2_x * t870)
@@ -2622,51 +2622,51 @@ fn branch_3(
                 - 0.51177317098587 * (v_b2_x * t871 + v_b2_z * t869))) * t916
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t927 = 0.8589206607284425 * xv_b2_z
         + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
     let t928 = 0.01853429342821227 * t927;
     let t929 = 0.51177317098587 * t927;
     let t930 = 0.8589206607284425 * t927;
     let t952 = t928
-        + (j4_cos_b2p * (xv_b2_x - t928)
-            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+        + (j4_cos_b2a * (xv_b2_x - t928)
+            - j4_sin_b2a * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
     let t953 = t929
-        + (j4_cos_b2p * (xv_b2_y - t929)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t929)
+            - j4_sin_b2a
                 * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
     let t954 = t930
-        + (j4_cos_b2p * (xv_b2_z - t930)
-            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+        + (j4_cos_b2a * (xv_b2_z - t930)
+            - j4_sin_b2a * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
     let t959 = 0.38030529548240455 * t954
         + (0.6461820612405205 * t952 - 0.6616771312044819 * t953);
     let t960 = 0.6461820612405205 * t959;
     let t961 = 0.6616771312044819 * t959;
     let t962 = 0.38030529548240455 * t959;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t960
-        + (j5_sin_b2p * (0.6616771312044819 * t954 + 0.38030529548240455 * t953)
+    let y6_b2a_x = t960
+        + (j5_sin_b2a * (0.6616771312044819 * t954 + 0.38030529548240455 * t953)
             - t879 * (t952 - t960));
     let t985 = t961
         + (t879 * (t953 + t961)
-            + j5_sin_b2p * (0.38030529548240455 * t952 - 0.6461820612405205 * t954));
+            + j5_sin_b2a * (0.38030529548240455 * t952 - 0.6461820612405205 * t954));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t962
+    let y6_b2a_z = t962
         - (t879 * (t954 - t962)
-            + j5_sin_b2p * (0.6461820612405205 * t953 + 0.6616771312044819 * t952));
+            + j5_sin_b2a * (0.6461820612405205 * t953 + 0.6616771312044819 * t952));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t985 + 0.13758142108114313 * y6_b2p_x)
+            * (0.1208110180221759 * t985 + 0.13758142108114313 * y6_b2a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t985 - 0.13758142108114313 * y6_b2p_z)
+                * (0.9830951380704407 * t985 - 0.13758142108114313 * y6_b2a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
-        0.9830951380704407 * y6_b2p_z
-            + (0.13758142108114313 * t985 - 0.1208110180221759 * y6_b2p_x),
+                    * (0.9830951380704407 * y6_b2a_x + 0.1208110180221759 * y6_b2a_z))),
+        0.9830951380704407 * y6_b2a_z
+            + (0.13758142108114313 * t985 - 0.1208110180221759 * y6_b2a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -2680,12 +2680,12 @@ fn branch_3(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2766,16 +2766,16 @@ fn branch_4(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2784,65 +2784,65 @@ fn branch_4(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t173 = 0.393370490499651 * w_p_z
-        + (0.14192355343258098 * w_p_x + 0.9083597096883664 * w_p_y);
-    let t177 = w_p_x - 0.14192355343258098 * t173;
-    let t178 = w_p_y - 0.9083597096883664 * t173;
-    let t179 = w_p_z - 0.393370490499651 * t173;
+    let t173 = 0.393370490499651 * w_a_z
+        + (0.14192355343258098 * w_a_x + 0.9083597096883664 * w_a_y);
+    let t177 = w_a_x - 0.14192355343258098 * t173;
+    let t178 = w_a_y - 0.9083597096883664 * t173;
+    let t179 = w_a_z - 0.393370490499651 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449182),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_a - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
+    let j2_inv_a = 1.0
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t294 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t294 = 0.9901136168642846 * j3_cos_psi_a + 0.14026769300136338 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
-        - 0.14026769300136338 * j3_cos_psi_p;
+    let j3_sin_ab = 0.9901136168642846 * j3_sin_psi_a
+        - 0.14026769300136338 * j3_cos_psi_a;
     // θ3 = −φ3 = −(φ0 − ψ) (axis 3 opposite to axis 2)
-    let q3_pm = j3_psi_p + 3.000860878111602;
-    let t306 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t294
+    let q3_ab = j3_psi_a + 3.000860878111602;
+    let t306 = 0.02011160130528487 * j3_sin_ab - 0.2467123080373334 * t294
         - 0.7702009139951951;
-    let t307 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_pm
+    let t307 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_ab
         + 0.082947433224273;
     let t308 = 0.08633983745217953
-        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_pm);
-    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
-    let t327 = 0.393370490499651 * (w_p_y * t306 - w_p_x * t307)
-        + (0.14192355343258098 * (w_p_z * t307 - w_p_y * t308)
-            + 0.9083597096883664 * (w_p_x * t308 - w_p_z * t306));
+        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_ab);
+    let t313 = w_a_z * t308 + (w_a_x * t306 + w_a_y * t307);
+    let t327 = 0.393370490499651 * (w_a_y * t306 - w_a_x * t307)
+        + (0.14192355343258098 * (w_a_z * t307 - w_a_y * t308)
+            + 0.9083597096883664 * (w_a_x * t308 - w_a_z * t306));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t327, t313);
-    let t329 = j2_inv_p * t313;
-    let t330 = j2_inv_p * t327;
-    let t333 = t294 * t329 + j3_sin_pm * t330;
+    let q2_ab = ::armforge_runtime::math::atan2(t327, t313);
+    let t329 = j2_inv_a * t313;
+    let t330 = j2_inv_a * t327;
+    let t333 = t294 * t329 + j3_sin_ab * t330;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -2878,27 +2878,27 @@ fn branch_4(
     let t511 = 0.7610978269683933 * t510;
     let t512 = 0.6486238403189734 * t510;
     let t513 = 0.004148680977921899 * t510;
-    let t535 = j1_cos_p * (g6_x + t511)
-        - j1_sin_p * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t535 = j1_cos_a * (g6_x + t511)
+        - j1_sin_a * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t536 = t512
-        + (j1_cos_p * (g6_y - t512)
-            - j1_sin_p * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_a * (g6_y - t512)
+            - j1_sin_a * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t537 = t513
-        + (j1_cos_p * (g6_z - t513)
-            + j1_sin_p * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+        + (j1_cos_a * (g6_z - t513)
+            + j1_sin_a * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
     let t542 = 0.004148680977921899 * gx_z
         + (0.6486238403189734 * gx_y - 0.7610978269683933 * gx_x);
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t567 = j1_cos_p * (gx_x + t543)
-        - j1_sin_p * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+    let t567 = j1_cos_a * (gx_x + t543)
+        - j1_sin_a * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t568 = t544
-        + (j1_cos_p * (gx_y - t544)
-            - j1_sin_p * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_a * (gx_y - t544)
+            - j1_sin_a * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t569 = t545
-        + (j1_cos_p * (gx_z - t545)
-            + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_a * (gx_z - t545)
+            + j1_sin_a * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t575 = 0.393370490499651 * t537
         + (0.14192355343258098 * t535 + 0.9083597096883664 * t536);
     let t576 = 0.14192355343258098 * t575;
@@ -2909,7 +2909,7 @@ fn branch_4(
     let t608 = 0.14192355343258098 * t607;
     let t609 = 0.9083597096883664 * t607;
     let t610 = 0.393370490499651 * t607;
-    let t820 = t294 * t330 - j3_sin_pm * t329;
+    let t820 = t294 * t330 - j3_sin_ab * t329;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t576
         + ((0.9083597096883664 * t537 - 0.393370490499651 * t536) * t820
@@ -2948,35 +2948,35 @@ fn branch_4(
     let t870 = 0.5479704330528009 * j5_gamma_b2;
     let t871 = 0.3429623606197284 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.01853429342821227 * j5_a_b2 + t869;
+    let z_b2a_x = 0.01853429342821227 * j5_a_b2 + t869;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.51177317098587 * j5_a_b2 + t870;
+    let z_b2a_y = 0.51177317098587 * j5_a_b2 + t870;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.8589206607284425 * j5_a_b2 - t871;
-    let t879 = 0.18309546554259973 * z_b2p_z
-        + (0.6486710312075331 * z_b2p_x + 0.7387164163397849 * z_b2p_y);
+    let z_b2a_z = 0.8589206607284425 * j5_a_b2 - t871;
+    let t879 = 0.18309546554259973 * z_b2a_z
+        + (0.6486710312075331 * z_b2a_x + 0.7387164163397849 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t879;
+    let j5_cos_b2a = -t879;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 0.38030529548240455
-        * (0.7387164163397849 * z_b2p_x - 0.6486710312075331 * z_b2p_y)
+    let j5_sin_b2a = 0.38030529548240455
+        * (0.7387164163397849 * z_b2a_x - 0.6486710312075331 * z_b2a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b2p_y - 0.7387164163397849 * z_b2p_z)
+            * (0.1830954655425997 * z_b2a_y - 0.7387164163397849 * z_b2a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b2p_z - 0.1830954655425997 * z_b2p_x));
+                * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t916 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_x * t869 + v_b2_y * t870 - v_b2_z * t871) * t916
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b2_y * t869 - v_b2_x * t870)
@@ -2984,57 +2984,57 @@ fn branch_4(
                 - 0.51177317098587 * (v_b2_x * t871 + v_b2_z * t869))) * t916
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t927 = 0.8589206607284425 * xv_b2_z
         + (0.01853429342821227 * xv_b2_x + 0.51177317098587 * xv_b2_y);
     let t928 = 0.01853429342821227 * t927;
     let t929 = 0.51177317098587 * t927;
     let t930 = 0.8589206607284425 * t927;
     let t952 = t928
-        + (j4_cos_b2p * (xv_b2_x - t928)
-            - j4_sin_b2p * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
+        + (j4_cos_b2a * (xv_b2_x - t928)
+            - j4_sin_b2a * (0.51177317098587 * xv_b2_z - 0.8589206607284425 * xv_b2_y));
     let t953 = t929
-        + (j4_cos_b2p * (xv_b2_y - t929)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t929)
+            - j4_sin_b2a
                 * (0.8589206607284425 * xv_b2_x - 0.01853429342821227 * xv_b2_z));
     let t954 = t930
-        + (j4_cos_b2p * (xv_b2_z - t930)
-            - j4_sin_b2p * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
+        + (j4_cos_b2a * (xv_b2_z - t930)
+            - j4_sin_b2a * (0.01853429342821227 * xv_b2_y - 0.51177317098587 * xv_b2_x));
     let t959 = 0.38030529548240455 * t954
         + (0.6461820612405205 * t952 - 0.6616771312044819 * t953);
     let t960 = 0.6461820612405205 * t959;
     let t961 = 0.6616771312044819 * t959;
     let t962 = 0.38030529548240455 * t959;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t960
-        + (j5_sin_b2p * (0.6616771312044819 * t954 + 0.38030529548240455 * t953)
+    let y6_b2a_x = t960
+        + (j5_sin_b2a * (0.6616771312044819 * t954 + 0.38030529548240455 * t953)
             - t879 * (t952 - t960));
     let t985 = t961
         + (t879 * (t953 + t961)
-            + j5_sin_b2p * (0.38030529548240455 * t952 - 0.6461820612405205 * t954));
+            + j5_sin_b2a * (0.38030529548240455 * t952 - 0.6461820612405205 * t954));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t962
+    let y6_b2a_z = t962
         - (t879 * (t954 - t962)
-            + j5_sin_b2p * (0.6461820612405205 * t953 + 0.6616771312044819 * t952));
+            + j5_sin_b2a * (0.6461820612405205 * t953 + 0.6616771312044819 * t952));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t985 + 0.13758142108114313 * y6_b2p_x)
+            * (0.1208110180221759 * t985 + 0.13758142108114313 * y6_b2a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t985 - 0.13758142108114313 * y6_b2p_z)
+                * (0.9830951380704407 * t985 - 0.13758142108114313 * y6_b2a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b2p_x + 0.1208110180221759 * y6_b2p_z))),
-        0.9830951380704407 * y6_b2p_z
-            + (0.13758142108114313 * t985 - 0.1208110180221759 * y6_b2p_x),
+                    * (0.9830951380704407 * y6_b2a_x + 0.1208110180221759 * y6_b2a_z))),
+        0.9830951380704407 * y6_b2a_z
+            + (0.13758142108114313 * t985 - 0.1208110180221759 * y6_b2a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    let q4_b2b = q4_b2a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b2m = -4.299963472122064 - q5_b2p;
+    let q5_b2b = -4.299963472122064 - q5_b2a;
     // θ6 + π (mirror wrist branch)
-    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
+    let q6_b2b = q6_b2a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3048,12 +3048,12 @@ fn branch_4(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3134,16 +3134,16 @@ fn branch_5(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3152,66 +3152,66 @@ fn branch_5(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449182),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
-        - 0.9901136168642846 * j3_cos_psi_m;
-    let t357 = 0.14026769300136338 * j3_cos_psi_m + 0.9901136168642846 * j3_sin_psi_m;
+    let j3_cos_ba = 0.14026769300136338 * j3_sin_psi_b
+        - 0.9901136168642846 * j3_cos_psi_b;
+    let t357 = 0.14026769300136338 * j3_cos_psi_b + 0.9901136168642846 * j3_sin_psi_b;
     // θ3 = −φ3 = −(φ0 + ψ) (axis 3 opposite to axis 2)
-    let q3_mp = 3.000860878111602 - j3_psi_m;
-    let t368 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t357
+    let q3_ba = 3.000860878111602 - j3_psi_b;
+    let t368 = 0.2467123080373334 * j3_cos_ba - 0.02011160130528487 * t357
         - 0.7702009139951951;
     let t369 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t357);
-    let t370 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t357
+        - (0.040533312372973224 * j3_cos_ba + 0.09639828417151698 * t357);
+    let t370 = 0.004587381288611317 * j3_cos_ba + 0.22985615222970415 * t357
         + 0.08633983745217953;
-    let t375 = w_m_z * t370 + (w_m_x * t368 + w_m_y * t369);
-    let t389 = 0.393370490499651 * (w_m_y * t368 - w_m_x * t369)
-        + (0.14192355343258098 * (w_m_z * t369 - w_m_y * t370)
-            + 0.9083597096883664 * (w_m_x * t370 - w_m_z * t368));
+    let t375 = w_b_z * t370 + (w_b_x * t368 + w_b_y * t369);
+    let t389 = 0.393370490499651 * (w_b_y * t368 - w_b_x * t369)
+        + (0.14192355343258098 * (w_b_z * t369 - w_b_y * t370)
+            + 0.9083597096883664 * (w_b_x * t370 - w_b_z * t368));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t389, t375);
-    let t391 = j2_inv_m * t375;
-    let t392 = j2_inv_m * t389;
+    let q2_ba = ::armforge_runtime::math::atan2(t389, t375);
+    let t391 = j2_inv_b * t375;
+    let t392 = j2_inv_b * t389;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t391 + t357 * t392;
+    let c23_ba = j3_cos_ba * t391 + t357 * t392;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -3252,23 +3252,23 @@ fn branch_5(
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t1020 = j1_cos_m * (g6_x + t511)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t1020 = j1_cos_b * (g6_x + t511)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t1021 = t512
-        + (j1_cos_m * (g6_y - t512)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t512)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1022 = t513
-        + (j1_cos_m * (g6_z - t513)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1032 = j1_cos_m * (gx_x + t543)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+        + (j1_cos_b * (g6_z - t513)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1032 = j1_cos_b * (gx_x + t543)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t1033 = t544
-        + (j1_cos_m * (gx_y - t544)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t544)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1034 = t545
-        + (j1_cos_m * (gx_z - t545)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t1035 = t357 * t391 - j3_cos_mp * t392;
+        + (j1_cos_b * (gx_z - t545)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1035 = t357 * t391 - j3_cos_ba * t392;
     let t1040 = 0.393370490499651 * t1022
         + (0.14192355343258098 * t1020 + 0.9083597096883664 * t1021);
     let t1041 = 0.14192355343258098 * t1040;
@@ -3276,15 +3276,15 @@ fn branch_5(
     let t1043 = 0.393370490499651 * t1040;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1041
-        + (c23_mp * (t1020 - t1041)
+        + (c23_ba * (t1020 - t1041)
             + t1035 * (0.9083597096883664 * t1022 - 0.393370490499651 * t1021));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1042
-        + (c23_mp * (t1021 - t1042)
+        + (c23_ba * (t1021 - t1042)
             + t1035 * (0.393370490499651 * t1020 - 0.14192355343258098 * t1022));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1043
-        + (c23_mp * (t1022 - t1043)
+        + (c23_ba * (t1022 - t1043)
             + t1035 * (0.14192355343258098 * t1021 - 0.9083597096883664 * t1020));
     let t1072 = 0.393370490499651 * t1034
         + (0.14192355343258098 * t1032 + 0.9083597096883664 * t1033);
@@ -3293,15 +3293,15 @@ fn branch_5(
     let t1075 = 0.393370490499651 * t1072;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1073
-        + (c23_mp * (t1032 - t1073)
+        + (c23_ba * (t1032 - t1073)
             + t1035 * (0.9083597096883664 * t1034 - 0.393370490499651 * t1033));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1074
-        + (c23_mp * (t1033 - t1074)
+        + (c23_ba * (t1033 - t1074)
             + t1035 * (0.393370490499651 * t1032 - 0.14192355343258098 * t1034));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1075
-        + (c23_mp * (t1034 - t1075)
+        + (c23_ba * (t1034 - t1075)
             + t1035 * (0.14192355343258098 * t1033 - 0.9083597096883664 * t1032));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.8589206607284425 * v_b3_z
@@ -3317,35 +3317,35 @@ fn branch_5(
     let t1125 = 0.5479704330528009 * j5_gamma_b3;
     let t1126 = 0.3429623606197284 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1124;
+    let z_b3a_x = 0.01853429342821227 * j5_a_b3 + t1124;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1125;
+    let z_b3a_y = 0.51177317098587 * j5_a_b3 + t1125;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1126;
-    let t1134 = 0.18309546554259973 * z_b3p_z
-        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    let z_b3a_z = 0.8589206607284425 * j5_a_b3 - t1126;
+    let t1134 = 0.18309546554259973 * z_b3a_z
+        + (0.6486710312075331 * z_b3a_x + 0.7387164163397849 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1134;
+    let j5_cos_b3a = -t1134;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 0.38030529548240455
-        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+    let j5_sin_b3a = 0.38030529548240455
+        * (0.7387164163397849 * z_b3a_x - 0.6486710312075331 * z_b3a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            * (0.1830954655425997 * z_b3a_y - 0.7387164163397849 * z_b3a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+                * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1171 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_x * t1124 + v_b3_y * t1125 - v_b3_z * t1126) * t1171
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b3_y * t1124 - v_b3_x * t1125)
@@ -3353,51 +3353,51 @@ fn branch_5(
                 - 0.51177317098587 * (v_b3_x * t1126 + v_b3_z * t1124))) * t1171
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1182 = 0.8589206607284425 * xv_b3_z
         + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
     let t1183 = 0.01853429342821227 * t1182;
     let t1184 = 0.51177317098587 * t1182;
     let t1185 = 0.8589206607284425 * t1182;
     let t1207 = t1183
-        + (j4_cos_b3p * (xv_b3_x - t1183)
-            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+        + (j4_cos_b3a * (xv_b3_x - t1183)
+            - j4_sin_b3a * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
     let t1208 = t1184
-        + (j4_cos_b3p * (xv_b3_y - t1184)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1184)
+            - j4_sin_b3a
                 * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
     let t1209 = t1185
-        + (j4_cos_b3p * (xv_b3_z - t1185)
-            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+        + (j4_cos_b3a * (xv_b3_z - t1185)
+            - j4_sin_b3a * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
     let t1214 = 0.38030529548240455 * t1209
         + (0.6461820612405205 * t1207 - 0.6616771312044819 * t1208);
     let t1215 = 0.6461820612405205 * t1214;
     let t1216 = 0.6616771312044819 * t1214;
     let t1217 = 0.38030529548240455 * t1214;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1215
-        + (j5_sin_b3p * (0.6616771312044819 * t1209 + 0.38030529548240455 * t1208)
+    let y6_b3a_x = t1215
+        + (j5_sin_b3a * (0.6616771312044819 * t1209 + 0.38030529548240455 * t1208)
             - t1134 * (t1207 - t1215));
     let t1240 = t1216
         + (t1134 * (t1208 + t1216)
-            + j5_sin_b3p * (0.38030529548240455 * t1207 - 0.6461820612405205 * t1209));
+            + j5_sin_b3a * (0.38030529548240455 * t1207 - 0.6461820612405205 * t1209));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1217
+    let y6_b3a_z = t1217
         - (t1134 * (t1209 - t1217)
-            + j5_sin_b3p * (0.6461820612405205 * t1208 + 0.6616771312044819 * t1207));
+            + j5_sin_b3a * (0.6461820612405205 * t1208 + 0.6616771312044819 * t1207));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1240 + 0.13758142108114313 * y6_b3p_x)
+            * (0.1208110180221759 * t1240 + 0.13758142108114313 * y6_b3a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1240 - 0.13758142108114313 * y6_b3p_z)
+                * (0.9830951380704407 * t1240 - 0.13758142108114313 * y6_b3a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
-        0.9830951380704407 * y6_b3p_z
-            + (0.13758142108114313 * t1240 - 0.1208110180221759 * y6_b3p_x),
+                    * (0.9830951380704407 * y6_b3a_x + 0.1208110180221759 * y6_b3a_z))),
+        0.9830951380704407 * y6_b3a_z
+            + (0.13758142108114313 * t1240 - 0.1208110180221759 * y6_b3a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3411,12 +3411,12 @@ fn branch_5(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3497,16 +3497,16 @@ fn branch_6(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3515,66 +3515,66 @@ fn branch_6(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449182),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
-        - 0.9901136168642846 * j3_cos_psi_m;
-    let t357 = 0.14026769300136338 * j3_cos_psi_m + 0.9901136168642846 * j3_sin_psi_m;
+    let j3_cos_ba = 0.14026769300136338 * j3_sin_psi_b
+        - 0.9901136168642846 * j3_cos_psi_b;
+    let t357 = 0.14026769300136338 * j3_cos_psi_b + 0.9901136168642846 * j3_sin_psi_b;
     // θ3 = −φ3 = −(φ0 + ψ) (axis 3 opposite to axis 2)
-    let q3_mp = 3.000860878111602 - j3_psi_m;
-    let t368 = 0.2467123080373334 * j3_cos_mp - 0.02011160130528487 * t357
+    let q3_ba = 3.000860878111602 - j3_psi_b;
+    let t368 = 0.2467123080373334 * j3_cos_ba - 0.02011160130528487 * t357
         - 0.7702009139951951;
     let t369 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_mp + 0.09639828417151698 * t357);
-    let t370 = 0.004587381288611317 * j3_cos_mp + 0.22985615222970415 * t357
+        - (0.040533312372973224 * j3_cos_ba + 0.09639828417151698 * t357);
+    let t370 = 0.004587381288611317 * j3_cos_ba + 0.22985615222970415 * t357
         + 0.08633983745217953;
-    let t375 = w_m_z * t370 + (w_m_x * t368 + w_m_y * t369);
-    let t389 = 0.393370490499651 * (w_m_y * t368 - w_m_x * t369)
-        + (0.14192355343258098 * (w_m_z * t369 - w_m_y * t370)
-            + 0.9083597096883664 * (w_m_x * t370 - w_m_z * t368));
+    let t375 = w_b_z * t370 + (w_b_x * t368 + w_b_y * t369);
+    let t389 = 0.393370490499651 * (w_b_y * t368 - w_b_x * t369)
+        + (0.14192355343258098 * (w_b_z * t369 - w_b_y * t370)
+            + 0.9083597096883664 * (w_b_x * t370 - w_b_z * t368));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t389, t375);
-    let t391 = j2_inv_m * t375;
-    let t392 = j2_inv_m * t389;
+    let q2_ba = ::armforge_runtime::math::atan2(t389, t375);
+    let t391 = j2_inv_b * t375;
+    let t392 = j2_inv_b * t389;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t391 + t357 * t392;
+    let c23_ba = j3_cos_ba * t391 + t357 * t392;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -3615,23 +3615,23 @@ fn branch_6(
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t1020 = j1_cos_m * (g6_x + t511)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t1020 = j1_cos_b * (g6_x + t511)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t1021 = t512
-        + (j1_cos_m * (g6_y - t512)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t512)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1022 = t513
-        + (j1_cos_m * (g6_z - t513)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1032 = j1_cos_m * (gx_x + t543)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+        + (j1_cos_b * (g6_z - t513)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1032 = j1_cos_b * (gx_x + t543)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t1033 = t544
-        + (j1_cos_m * (gx_y - t544)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t544)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1034 = t545
-        + (j1_cos_m * (gx_z - t545)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t1035 = t357 * t391 - j3_cos_mp * t392;
+        + (j1_cos_b * (gx_z - t545)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+    let t1035 = t357 * t391 - j3_cos_ba * t392;
     let t1040 = 0.393370490499651 * t1022
         + (0.14192355343258098 * t1020 + 0.9083597096883664 * t1021);
     let t1041 = 0.14192355343258098 * t1040;
@@ -3639,15 +3639,15 @@ fn branch_6(
     let t1043 = 0.393370490499651 * t1040;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1041
-        + (c23_mp * (t1020 - t1041)
+        + (c23_ba * (t1020 - t1041)
             + t1035 * (0.9083597096883664 * t1022 - 0.393370490499651 * t1021));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1042
-        + (c23_mp * (t1021 - t1042)
+        + (c23_ba * (t1021 - t1042)
             + t1035 * (0.393370490499651 * t1020 - 0.14192355343258098 * t1022));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1043
-        + (c23_mp * (t1022 - t1043)
+        + (c23_ba * (t1022 - t1043)
             + t1035 * (0.14192355343258098 * t1021 - 0.9083597096883664 * t1020));
     let t1072 = 0.393370490499651 * t1034
         + (0.14192355343258098 * t1032 + 0.9083597096883664 * t1033);
@@ -3656,15 +3656,15 @@ fn branch_6(
     let t1075 = 0.393370490499651 * t1072;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1073
-        + (c23_mp * (t1032 - t1073)
+        + (c23_ba * (t1032 - t1073)
             + t1035 * (0.9083597096883664 * t1034 - 0.393370490499651 * t1033));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1074
-        + (c23_mp * (t1033 - t1074)
+        + (c23_ba * (t1033 - t1074)
             + t1035 * (0.393370490499651 * t1032 - 0.14192355343258098 * t1034));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1075
-        + (c23_mp * (t1034 - t1075)
+        + (c23_ba * (t1034 - t1075)
             + t1035 * (0.14192355343258098 * t1033 - 0.9083597096883664 * t1032));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.8589206607284425 * v_b3_z
@@ -3680,35 +3680,35 @@ fn branch_6(
     let t1125 = 0.5479704330528009 * j5_gamma_b3;
     let t1126 = 0.3429623606197284 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.01853429342821227 * j5_a_b3 + t1124;
+    let z_b3a_x = 0.01853429342821227 * j5_a_b3 + t1124;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.51177317098587 * j5_a_b3 + t1125;
+    let z_b3a_y = 0.51177317098587 * j5_a_b3 + t1125;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.8589206607284425 * j5_a_b3 - t1126;
-    let t1134 = 0.18309546554259973 * z_b3p_z
-        + (0.6486710312075331 * z_b3p_x + 0.7387164163397849 * z_b3p_y);
+    let z_b3a_z = 0.8589206607284425 * j5_a_b3 - t1126;
+    let t1134 = 0.18309546554259973 * z_b3a_z
+        + (0.6486710312075331 * z_b3a_x + 0.7387164163397849 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1134;
+    let j5_cos_b3a = -t1134;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 0.38030529548240455
-        * (0.7387164163397849 * z_b3p_x - 0.6486710312075331 * z_b3p_y)
+    let j5_sin_b3a = 0.38030529548240455
+        * (0.7387164163397849 * z_b3a_x - 0.6486710312075331 * z_b3a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b3p_y - 0.7387164163397849 * z_b3p_z)
+            * (0.1830954655425997 * z_b3a_y - 0.7387164163397849 * z_b3a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b3p_z - 0.1830954655425997 * z_b3p_x));
+                * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1171 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_x * t1124 + v_b3_y * t1125 - v_b3_z * t1126) * t1171
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b3_y * t1124 - v_b3_x * t1125)
@@ -3716,57 +3716,57 @@ fn branch_6(
                 - 0.51177317098587 * (v_b3_x * t1126 + v_b3_z * t1124))) * t1171
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1182 = 0.8589206607284425 * xv_b3_z
         + (0.01853429342821227 * xv_b3_x + 0.51177317098587 * xv_b3_y);
     let t1183 = 0.01853429342821227 * t1182;
     let t1184 = 0.51177317098587 * t1182;
     let t1185 = 0.8589206607284425 * t1182;
     let t1207 = t1183
-        + (j4_cos_b3p * (xv_b3_x - t1183)
-            - j4_sin_b3p * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
+        + (j4_cos_b3a * (xv_b3_x - t1183)
+            - j4_sin_b3a * (0.51177317098587 * xv_b3_z - 0.8589206607284425 * xv_b3_y));
     let t1208 = t1184
-        + (j4_cos_b3p * (xv_b3_y - t1184)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1184)
+            - j4_sin_b3a
                 * (0.8589206607284425 * xv_b3_x - 0.01853429342821227 * xv_b3_z));
     let t1209 = t1185
-        + (j4_cos_b3p * (xv_b3_z - t1185)
-            - j4_sin_b3p * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
+        + (j4_cos_b3a * (xv_b3_z - t1185)
+            - j4_sin_b3a * (0.01853429342821227 * xv_b3_y - 0.51177317098587 * xv_b3_x));
     let t1214 = 0.38030529548240455 * t1209
         + (0.6461820612405205 * t1207 - 0.6616771312044819 * t1208);
     let t1215 = 0.6461820612405205 * t1214;
     let t1216 = 0.6616771312044819 * t1214;
     let t1217 = 0.38030529548240455 * t1214;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1215
-        + (j5_sin_b3p * (0.6616771312044819 * t1209 + 0.38030529548240455 * t1208)
+    let y6_b3a_x = t1215
+        + (j5_sin_b3a * (0.6616771312044819 * t1209 + 0.38030529548240455 * t1208)
             - t1134 * (t1207 - t1215));
     let t1240 = t1216
         + (t1134 * (t1208 + t1216)
-            + j5_sin_b3p * (0.38030529548240455 * t1207 - 0.6461820612405205 * t1209));
+            + j5_sin_b3a * (0.38030529548240455 * t1207 - 0.6461820612405205 * t1209));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1217
+    let y6_b3a_z = t1217
         - (t1134 * (t1209 - t1217)
-            + j5_sin_b3p * (0.6461820612405205 * t1208 + 0.6616771312044819 * t1207));
+            + j5_sin_b3a * (0.6461820612405205 * t1208 + 0.6616771312044819 * t1207));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1240 + 0.13758142108114313 * y6_b3p_x)
+            * (0.1208110180221759 * t1240 + 0.13758142108114313 * y6_b3a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1240 - 0.13758142108114313 * y6_b3p_z)
+                * (0.9830951380704407 * t1240 - 0.13758142108114313 * y6_b3a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b3p_x + 0.1208110180221759 * y6_b3p_z))),
-        0.9830951380704407 * y6_b3p_z
-            + (0.13758142108114313 * t1240 - 0.1208110180221759 * y6_b3p_x),
+                    * (0.9830951380704407 * y6_b3a_x + 0.1208110180221759 * y6_b3a_z))),
+        0.9830951380704407 * y6_b3a_z
+            + (0.13758142108114313 * t1240 - 0.1208110180221759 * y6_b3a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    let q4_b3b = q4_b3a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b3m = -4.299963472122064 - q5_b3p;
+    let q5_b3b = -4.299963472122064 - q5_b3a;
     // θ6 + π (mirror wrist branch)
-    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
+    let q6_b3b = q6_b3a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3780,12 +3780,12 @@ fn branch_6(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3866,16 +3866,16 @@ fn branch_7(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3884,65 +3884,65 @@ fn branch_7(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449182),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t398 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t398 = 0.9901136168642846 * j3_cos_psi_b + 0.14026769300136338 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.9901136168642846 * j3_sin_psi_m
-        - 0.14026769300136338 * j3_cos_psi_m;
+    let j3_sin_bb = 0.9901136168642846 * j3_sin_psi_b
+        - 0.14026769300136338 * j3_cos_psi_b;
     // θ3 = −φ3 = −(φ0 − ψ) (axis 3 opposite to axis 2)
-    let q3_mm = j3_psi_m + 3.000860878111602;
-    let t410 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t398
+    let q3_bb = j3_psi_b + 3.000860878111602;
+    let t410 = 0.02011160130528487 * j3_sin_bb - 0.2467123080373334 * t398
         - 0.7702009139951951;
-    let t411 = 0.040533312372973224 * t398 + 0.09639828417151698 * j3_sin_mm
+    let t411 = 0.040533312372973224 * t398 + 0.09639828417151698 * j3_sin_bb
         + 0.082947433224273;
     let t412 = 0.08633983745217953
-        - (0.004587381288611317 * t398 + 0.22985615222970415 * j3_sin_mm);
-    let t417 = w_m_z * t412 + (w_m_x * t410 + w_m_y * t411);
-    let t431 = 0.393370490499651 * (w_m_y * t410 - w_m_x * t411)
-        + (0.14192355343258098 * (w_m_z * t411 - w_m_y * t412)
-            + 0.9083597096883664 * (w_m_x * t412 - w_m_z * t410));
+        - (0.004587381288611317 * t398 + 0.22985615222970415 * j3_sin_bb);
+    let t417 = w_b_z * t412 + (w_b_x * t410 + w_b_y * t411);
+    let t431 = 0.393370490499651 * (w_b_y * t410 - w_b_x * t411)
+        + (0.14192355343258098 * (w_b_z * t411 - w_b_y * t412)
+            + 0.9083597096883664 * (w_b_x * t412 - w_b_z * t410));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t431, t417);
-    let t433 = j2_inv_m * t417;
-    let t434 = j2_inv_m * t431;
-    let t437 = t398 * t433 + j3_sin_mm * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(t431, t417);
+    let t433 = j2_inv_b * t417;
+    let t434 = j2_inv_b * t431;
+    let t437 = t398 * t433 + j3_sin_bb * t434;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -3983,22 +3983,22 @@ fn branch_7(
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t1020 = j1_cos_m * (g6_x + t511)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t1020 = j1_cos_b * (g6_x + t511)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t1021 = t512
-        + (j1_cos_m * (g6_y - t512)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t512)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1022 = t513
-        + (j1_cos_m * (g6_z - t513)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1032 = j1_cos_m * (gx_x + t543)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+        + (j1_cos_b * (g6_z - t513)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1032 = j1_cos_b * (gx_x + t543)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t1033 = t544
-        + (j1_cos_m * (gx_y - t544)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t544)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1034 = t545
-        + (j1_cos_m * (gx_z - t545)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_b * (gx_z - t545)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t1040 = 0.393370490499651 * t1022
         + (0.14192355343258098 * t1020 + 0.9083597096883664 * t1021);
     let t1041 = 0.14192355343258098 * t1040;
@@ -4009,7 +4009,7 @@ fn branch_7(
     let t1073 = 0.14192355343258098 * t1072;
     let t1074 = 0.9083597096883664 * t1072;
     let t1075 = 0.393370490499651 * t1072;
-    let t1266 = t398 * t434 - j3_sin_mm * t433;
+    let t1266 = t398 * t434 - j3_sin_bb * t433;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1041
         + ((0.9083597096883664 * t1022 - 0.393370490499651 * t1021) * t1266
@@ -4048,35 +4048,35 @@ fn branch_7(
     let t1316 = 0.5479704330528009 * j5_gamma_b4;
     let t1317 = 0.3429623606197284 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1315;
+    let z_b4a_x = 0.01853429342821227 * j5_a_b4 + t1315;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1316;
+    let z_b4a_y = 0.51177317098587 * j5_a_b4 + t1316;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1317;
-    let t1325 = 0.18309546554259973 * z_b4p_z
-        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    let z_b4a_z = 0.8589206607284425 * j5_a_b4 - t1317;
+    let t1325 = 0.18309546554259973 * z_b4a_z
+        + (0.6486710312075331 * z_b4a_x + 0.7387164163397849 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1325;
+    let j5_cos_b4a = -t1325;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 0.38030529548240455
-        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+    let j5_sin_b4a = 0.38030529548240455
+        * (0.7387164163397849 * z_b4a_x - 0.6486710312075331 * z_b4a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            * (0.1830954655425997 * z_b4a_y - 0.7387164163397849 * z_b4a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+                * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1362 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_x * t1315 + v_b4_y * t1316 - v_b4_z * t1317) * t1362
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b4_y * t1315 - v_b4_x * t1316)
@@ -4084,51 +4084,51 @@ fn branch_7(
                 - 0.51177317098587 * (v_b4_x * t1317 + v_b4_z * t1315))) * t1362
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1373 = 0.8589206607284425 * xv_b4_z
         + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
     let t1374 = 0.01853429342821227 * t1373;
     let t1375 = 0.51177317098587 * t1373;
     let t1376 = 0.8589206607284425 * t1373;
     let t1398 = t1374
-        + (j4_cos_b4p * (xv_b4_x - t1374)
-            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+        + (j4_cos_b4a * (xv_b4_x - t1374)
+            - j4_sin_b4a * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
     let t1399 = t1375
-        + (j4_cos_b4p * (xv_b4_y - t1375)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1375)
+            - j4_sin_b4a
                 * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
     let t1400 = t1376
-        + (j4_cos_b4p * (xv_b4_z - t1376)
-            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+        + (j4_cos_b4a * (xv_b4_z - t1376)
+            - j4_sin_b4a * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
     let t1405 = 0.38030529548240455 * t1400
         + (0.6461820612405205 * t1398 - 0.6616771312044819 * t1399);
     let t1406 = 0.6461820612405205 * t1405;
     let t1407 = 0.6616771312044819 * t1405;
     let t1408 = 0.38030529548240455 * t1405;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1406
-        + (j5_sin_b4p * (0.6616771312044819 * t1400 + 0.38030529548240455 * t1399)
+    let y6_b4a_x = t1406
+        + (j5_sin_b4a * (0.6616771312044819 * t1400 + 0.38030529548240455 * t1399)
             - t1325 * (t1398 - t1406));
     let t1431 = t1407
         + (t1325 * (t1399 + t1407)
-            + j5_sin_b4p * (0.38030529548240455 * t1398 - 0.6461820612405205 * t1400));
+            + j5_sin_b4a * (0.38030529548240455 * t1398 - 0.6461820612405205 * t1400));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1408
+    let y6_b4a_z = t1408
         - (t1325 * (t1400 - t1408)
-            + j5_sin_b4p * (0.6461820612405205 * t1399 + 0.6616771312044819 * t1398));
+            + j5_sin_b4a * (0.6461820612405205 * t1399 + 0.6616771312044819 * t1398));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1431 + 0.13758142108114313 * y6_b4p_x)
+            * (0.1208110180221759 * t1431 + 0.13758142108114313 * y6_b4a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1431 - 0.13758142108114313 * y6_b4p_z)
+                * (0.9830951380704407 * t1431 - 0.13758142108114313 * y6_b4a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
-        0.9830951380704407 * y6_b4p_z
-            + (0.13758142108114313 * t1431 - 0.1208110180221759 * y6_b4p_x),
+                    * (0.9830951380704407 * y6_b4a_x + 0.1208110180221759 * y6_b4a_z))),
+        0.9830951380704407 * y6_b4a_z
+            + (0.13758142108114313 * t1431 - 0.1208110180221759 * y6_b4a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4142,12 +4142,12 @@ fn branch_7(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -4228,16 +4228,16 @@ fn branch_8(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
-    // ≥ 0 when r² < 1.9858518512535248e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
     let j1_free = 1.9858518512535248e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4246,65 +4246,65 @@ fn branch_8(
     let t134 = 0.6486238403189734 * t96;
     let t135 = 0.004148680977921899 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6486238403189734 * u_z - 0.004148680977921899 * u_y) - t133
         + 0.1270793410860917;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.004148680977921899 * u_x + 0.7610978269683933 * u_z))
         - 0.1426250888590215;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7610978269683933 * u_y + 0.6486238403189734 * u_x))
         - 0.013836588814141002;
-    let t205 = 0.393370490499651 * w_m_z
-        + (0.14192355343258098 * w_m_x + 0.9083597096883664 * w_m_y);
-    let t209 = w_m_x - 0.14192355343258098 * t205;
-    let t210 = w_m_y - 0.9083597096883664 * t205;
-    let t211 = w_m_z - 0.393370490499651 * t205;
+    let t205 = 0.393370490499651 * w_b_z
+        + (0.14192355343258098 * w_b_x + 0.9083597096883664 * w_b_y);
+    let t209 = w_b_x - 0.14192355343258098 * t205;
+    let t210 = w_b_y - 0.9083597096883664 * t205;
+    let t211 = w_b_z - 0.393370490499651 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449182),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        2.565272444925764 * (d2_b - 0.6700752485449182),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
+    let j2_inv_b = 1.0
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t398 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t398 = 0.9901136168642846 * j3_cos_psi_b + 0.14026769300136338 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.9901136168642846 * j3_sin_psi_m
-        - 0.14026769300136338 * j3_cos_psi_m;
+    let j3_sin_bb = 0.9901136168642846 * j3_sin_psi_b
+        - 0.14026769300136338 * j3_cos_psi_b;
     // θ3 = −φ3 = −(φ0 − ψ) (axis 3 opposite to axis 2)
-    let q3_mm = j3_psi_m + 3.000860878111602;
-    let t410 = 0.02011160130528487 * j3_sin_mm - 0.2467123080373334 * t398
+    let q3_bb = j3_psi_b + 3.000860878111602;
+    let t410 = 0.02011160130528487 * j3_sin_bb - 0.2467123080373334 * t398
         - 0.7702009139951951;
-    let t411 = 0.040533312372973224 * t398 + 0.09639828417151698 * j3_sin_mm
+    let t411 = 0.040533312372973224 * t398 + 0.09639828417151698 * j3_sin_bb
         + 0.082947433224273;
     let t412 = 0.08633983745217953
-        - (0.004587381288611317 * t398 + 0.22985615222970415 * j3_sin_mm);
-    let t417 = w_m_z * t412 + (w_m_x * t410 + w_m_y * t411);
-    let t431 = 0.393370490499651 * (w_m_y * t410 - w_m_x * t411)
-        + (0.14192355343258098 * (w_m_z * t411 - w_m_y * t412)
-            + 0.9083597096883664 * (w_m_x * t412 - w_m_z * t410));
+        - (0.004587381288611317 * t398 + 0.22985615222970415 * j3_sin_bb);
+    let t417 = w_b_z * t412 + (w_b_x * t410 + w_b_y * t411);
+    let t431 = 0.393370490499651 * (w_b_y * t410 - w_b_x * t411)
+        + (0.14192355343258098 * (w_b_z * t411 - w_b_y * t412)
+            + 0.9083597096883664 * (w_b_x * t412 - w_b_z * t410));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t431, t417);
-    let t433 = j2_inv_m * t417;
-    let t434 = j2_inv_m * t431;
-    let t437 = t398 * t433 + j3_sin_mm * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(t431, t417);
+    let t433 = j2_inv_b * t417;
+    let t434 = j2_inv_b * t431;
+    let t437 = t398 * t433 + j3_sin_bb * t434;
     let t447 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t452 = 0.6214844358632149 * r12
@@ -4345,22 +4345,22 @@ fn branch_8(
     let t543 = 0.7610978269683933 * t542;
     let t544 = 0.6486238403189734 * t542;
     let t545 = 0.004148680977921899 * t542;
-    let t1020 = j1_cos_m * (g6_x + t511)
-        - j1_sin_m * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
+    let t1020 = j1_cos_b * (g6_x + t511)
+        - j1_sin_b * (0.6486238403189734 * g6_z - 0.004148680977921899 * g6_y) - t511;
     let t1021 = t512
-        + (j1_cos_m * (g6_y - t512)
-            - j1_sin_m * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
+        + (j1_cos_b * (g6_y - t512)
+            - j1_sin_b * (0.004148680977921899 * g6_x + 0.7610978269683933 * g6_z));
     let t1022 = t513
-        + (j1_cos_m * (g6_z - t513)
-            + j1_sin_m * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
-    let t1032 = j1_cos_m * (gx_x + t543)
-        - j1_sin_m * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
+        + (j1_cos_b * (g6_z - t513)
+            + j1_sin_b * (0.7610978269683933 * g6_y + 0.6486238403189734 * g6_x));
+    let t1032 = j1_cos_b * (gx_x + t543)
+        - j1_sin_b * (0.6486238403189734 * gx_z - 0.004148680977921899 * gx_y) - t543;
     let t1033 = t544
-        + (j1_cos_m * (gx_y - t544)
-            - j1_sin_m * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
+        + (j1_cos_b * (gx_y - t544)
+            - j1_sin_b * (0.004148680977921899 * gx_x + 0.7610978269683933 * gx_z));
     let t1034 = t545
-        + (j1_cos_m * (gx_z - t545)
-            + j1_sin_m * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
+        + (j1_cos_b * (gx_z - t545)
+            + j1_sin_b * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
     let t1040 = 0.393370490499651 * t1022
         + (0.14192355343258098 * t1020 + 0.9083597096883664 * t1021);
     let t1041 = 0.14192355343258098 * t1040;
@@ -4371,7 +4371,7 @@ fn branch_8(
     let t1073 = 0.14192355343258098 * t1072;
     let t1074 = 0.9083597096883664 * t1072;
     let t1075 = 0.393370490499651 * t1072;
-    let t1266 = t398 * t434 - j3_sin_mm * t433;
+    let t1266 = t398 * t434 - j3_sin_bb * t433;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1041
         + ((0.9083597096883664 * t1022 - 0.393370490499651 * t1021) * t1266
@@ -4410,35 +4410,35 @@ fn branch_8(
     let t1316 = 0.5479704330528009 * j5_gamma_b4;
     let t1317 = 0.3429623606197284 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.01853429342821227 * j5_a_b4 + t1315;
+    let z_b4a_x = 0.01853429342821227 * j5_a_b4 + t1315;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.51177317098587 * j5_a_b4 + t1316;
+    let z_b4a_y = 0.51177317098587 * j5_a_b4 + t1316;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.8589206607284425 * j5_a_b4 - t1317;
-    let t1325 = 0.18309546554259973 * z_b4p_z
-        + (0.6486710312075331 * z_b4p_x + 0.7387164163397849 * z_b4p_y);
+    let z_b4a_z = 0.8589206607284425 * j5_a_b4 - t1317;
+    let t1325 = 0.18309546554259973 * z_b4a_z
+        + (0.6486710312075331 * z_b4a_x + 0.7387164163397849 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1325;
+    let j5_cos_b4a = -t1325;
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 0.38030529548240455
-        * (0.7387164163397849 * z_b4p_x - 0.6486710312075331 * z_b4p_y)
+    let j5_sin_b4a = 0.38030529548240455
+        * (0.7387164163397849 * z_b4a_x - 0.6486710312075331 * z_b4a_y)
         + (0.6461820612405205
-            * (0.1830954655425997 * z_b4p_y - 0.7387164163397849 * z_b4p_z)
+            * (0.1830954655425997 * z_b4a_y - 0.7387164163397849 * z_b4a_z)
             - 0.6616771312044819
-                * (0.6486710312075331 * z_b4p_z - 0.1830954655425997 * z_b4p_x));
+                * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1362 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_x * t1315 + v_b4_y * t1316 - v_b4_z * t1317) * t1362
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.8589206607284425 * (v_b4_y * t1315 - v_b4_x * t1316)
@@ -4446,57 +4446,57 @@ fn branch_8(
                 - 0.51177317098587 * (v_b4_x * t1317 + v_b4_z * t1315))) * t1362
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1373 = 0.8589206607284425 * xv_b4_z
         + (0.01853429342821227 * xv_b4_x + 0.51177317098587 * xv_b4_y);
     let t1374 = 0.01853429342821227 * t1373;
     let t1375 = 0.51177317098587 * t1373;
     let t1376 = 0.8589206607284425 * t1373;
     let t1398 = t1374
-        + (j4_cos_b4p * (xv_b4_x - t1374)
-            - j4_sin_b4p * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
+        + (j4_cos_b4a * (xv_b4_x - t1374)
+            - j4_sin_b4a * (0.51177317098587 * xv_b4_z - 0.8589206607284425 * xv_b4_y));
     let t1399 = t1375
-        + (j4_cos_b4p * (xv_b4_y - t1375)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1375)
+            - j4_sin_b4a
                 * (0.8589206607284425 * xv_b4_x - 0.01853429342821227 * xv_b4_z));
     let t1400 = t1376
-        + (j4_cos_b4p * (xv_b4_z - t1376)
-            - j4_sin_b4p * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
+        + (j4_cos_b4a * (xv_b4_z - t1376)
+            - j4_sin_b4a * (0.01853429342821227 * xv_b4_y - 0.51177317098587 * xv_b4_x));
     let t1405 = 0.38030529548240455 * t1400
         + (0.6461820612405205 * t1398 - 0.6616771312044819 * t1399);
     let t1406 = 0.6461820612405205 * t1405;
     let t1407 = 0.6616771312044819 * t1405;
     let t1408 = 0.38030529548240455 * t1405;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1406
-        + (j5_sin_b4p * (0.6616771312044819 * t1400 + 0.38030529548240455 * t1399)
+    let y6_b4a_x = t1406
+        + (j5_sin_b4a * (0.6616771312044819 * t1400 + 0.38030529548240455 * t1399)
             - t1325 * (t1398 - t1406));
     let t1431 = t1407
         + (t1325 * (t1399 + t1407)
-            + j5_sin_b4p * (0.38030529548240455 * t1398 - 0.6461820612405205 * t1400));
+            + j5_sin_b4a * (0.38030529548240455 * t1398 - 0.6461820612405205 * t1400));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1408
+    let y6_b4a_z = t1408
         - (t1325 * (t1400 - t1408)
-            + j5_sin_b4p * (0.6461820612405205 * t1399 + 0.6616771312044819 * t1398));
+            + j5_sin_b4a * (0.6461820612405205 * t1399 + 0.6616771312044819 * t1398));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         -(0.1830954655425997
-            * (0.1208110180221759 * t1431 + 0.13758142108114313 * y6_b4p_x)
+            * (0.1208110180221759 * t1431 + 0.13758142108114313 * y6_b4a_x)
             + (0.6486710312075331
-                * (0.9830951380704407 * t1431 - 0.13758142108114313 * y6_b4p_z)
+                * (0.9830951380704407 * t1431 - 0.13758142108114313 * y6_b4a_z)
                 + 0.7387164163397849
-                    * (0.9830951380704407 * y6_b4p_x + 0.1208110180221759 * y6_b4p_z))),
-        0.9830951380704407 * y6_b4p_z
-            + (0.13758142108114313 * t1431 - 0.1208110180221759 * y6_b4p_x),
+                    * (0.9830951380704407 * y6_b4a_x + 0.1208110180221759 * y6_b4a_z))),
+        0.9830951380704407 * y6_b4a_z
+            + (0.13758142108114313 * t1431 - 0.1208110180221759 * y6_b4a_x),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    let q4_b4b = q4_b4a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.149982 rad (aligned position)
-    let q5_b4m = -4.299963472122064 - q5_b4p;
+    let q5_b4b = -4.299963472122064 - q5_b4a;
     // θ6 + π (mirror wrist branch)
-    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    let q6_b4b = q6_b4a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4510,12 +4510,12 @@ fn branch_8(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.0295131814697287,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.5293893711342471,
             },
             ::armforge_runtime::internal::Check::NONE,

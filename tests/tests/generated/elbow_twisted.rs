@@ -122,8 +122,8 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
 )]
 const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
-        normal: [0.07772687934296175, -0.5727563020289683, 0.0048757245008763175],
-        point: [-0.05414621230012627, 0.0007842334702639602, 0.06836364393080274],
+        normal: [0.07772687934296175, -0.5727563020289683, 0.00487572450088],
+        point: [-0.05414621230012627, 0.00078423347026, 0.0683636439308],
         wrist_center: [0.4773750824304897, 0.2365542490704434, -0.12338449690051963],
         facing: -1.0,
     },
@@ -557,7 +557,7 @@ pub fn solve_branch(
         } => branch_8(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -645,20 +645,20 @@ fn candidates(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
     let t117 = j1_a * j1_k;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
+    let j1_cos_a = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
+    let j1_sin_a = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
+    let j1_cos_b = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
+    let j1_sin_b = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
     let t132 = ::armforge_runtime::math::abs(j1_e);
     let t133 = 0.7796770767040355 * t96;
     let t134 = 0.111053440489627 * t96;
@@ -670,163 +670,163 @@ fn candidates(
     let t144 = 0.7796770767040355 * u_z - 0.616255457921199 * u_x;
     let t147 = 0.111053440489627 * u_x - 0.7796770767040355 * u_y;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133 + (j1_cos_p * t136 - j1_sin_p * t141) - 0.08077162938642088;
+    let w_a_x = t133 + (j1_cos_a * t136 - j1_sin_a * t141) - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134 + (j1_cos_p * t137 - j1_sin_p * t144) - 0.1935961653602683;
+    let w_a_y = t134 + (j1_cos_a * t137 - j1_sin_a * t144) - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135 + (j1_cos_p * t138 - j1_sin_p * t147) + 0.08565974178506168;
-    let t173 = 0.9580721924635943 * w_p_z
-        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
-    let t177 = w_p_x - 0.28272467533220935 * t173;
-    let t178 = w_p_y - 0.04652345630215346 * t173;
-    let t179 = w_p_z - 0.9580721924635943 * t173;
+    let w_a_z = t135 + (j1_cos_a * t138 - j1_sin_a * t147) + 0.08565974178506168;
+    let t173 = 0.9580721924635943 * w_a_z
+        + (0.28272467533220935 * w_a_x + 0.04652345630215346 * w_a_y);
+    let t177 = w_a_x - 0.28272467533220935 * t173;
+    let t178 = w_a_y - 0.04652345630215346 * t173;
+    let t179 = w_a_z - 0.9580721924635943 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133 + (j1_cos_m * t136 - j1_sin_m * t141) - 0.08077162938642088;
+    let w_b_x = t133 + (j1_cos_b * t136 - j1_sin_b * t141) - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134 + (j1_cos_m * t137 - j1_sin_m * t144) - 0.1935961653602683;
+    let w_b_y = t134 + (j1_cos_b * t137 - j1_sin_b * t144) - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135 + (j1_cos_m * t138 - j1_sin_m * t147) + 0.08565974178506168;
-    let t205 = 0.9580721924635943 * w_m_z
-        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
-    let t209 = w_m_x - 0.28272467533220935 * t205;
-    let t210 = w_m_y - 0.04652345630215346 * t205;
-    let t211 = w_m_z - 0.9580721924635943 * t205;
+    let w_b_z = t135 + (j1_cos_b * t138 - j1_sin_b * t147) + 0.08565974178506168;
+    let t205 = 0.9580721924635943 * w_b_z
+        + (0.28272467533220935 * w_b_x + 0.04652345630215346 * w_b_y);
+    let t209 = w_b_x - 0.28272467533220935 * t205;
+    let t210 = w_b_y - 0.04652345630215346 * t205;
+    let t211 = w_b_z - 0.9580721924635943 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_p - 0.30660204177019446),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_a - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+    let j2_inv_a = 1.0
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t238 = 0.3686182725083974 * j3_cos_psi_p;
-    let t240 = 0.9295808567160389 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t238 = 0.3686182725083974 * j3_cos_psi_a;
+    let t240 = 0.9295808567160389 * j3_sin_psi_a;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pp = t240 - t238;
-    let t242 = 0.9295808567160389 * j3_cos_psi_p;
-    let t243 = 0.3686182725083974 * j3_sin_psi_p;
+    let j3_cos_aa = t240 - t238;
+    let t242 = 0.9295808567160389 * j3_cos_psi_a;
+    let t243 = 0.3686182725083974 * j3_sin_psi_a;
     let t244 = t242 + t243;
     // θ3 = φ3 = φ0 + ψ
-    let q3_pp = j3_psi_p - 1.9483185102348586;
-    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+    let q3_aa = j3_psi_a - 1.9483185102348586;
+    let t264 = 0.059363684915989756 * j3_cos_aa + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_aa
         + 0.28405649725228804;
-    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+    let t267 = 0.005709671641624163 * j3_cos_aa + 0.07151313018083055 * t244
         + 0.12697460164967897;
-    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
-    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
-        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
-        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    let t272 = w_a_x * t264 + w_a_y * t265 - w_a_z * t267;
+    let t286 = 0.04652345630215346 * (w_a_x * t267 + w_a_z * t264)
+        - 0.28272467533220935 * (w_a_z * t265 + w_a_y * t267)
+        - 0.9580721924635943 * (w_a_y * t264 - w_a_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
-    let t288 = j2_inv_p * t272;
-    let t289 = j2_inv_p * t286;
+    let q2_aa = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_a * t272;
+    let t289 = j2_inv_a * t286;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let c23_aa = j3_cos_aa * t288 + t244 * t289;
     let t295 = t238 + t240;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t243 - t242;
+    let j3_sin_ab = t243 - t242;
     // θ3 = φ3 = φ0 − ψ
-    let q3_pm = -1.9483185102348586 - j3_psi_p;
+    let q3_ab = -1.9483185102348586 - j3_psi_a;
     let t307 = 0.38353760535766845
-        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
-    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_ab);
+    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_ab
         + 0.28405649725228804;
-    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_ab
         - 0.12697460164967897;
-    let t314 = w_p_z * t309 + (w_p_x * t307 + w_p_y * t308);
-    let t328 = 0.9580721924635943 * (w_p_y * t307 - w_p_x * t308)
-        + (0.28272467533220935 * (w_p_z * t308 - w_p_y * t309)
-            + 0.04652345630215346 * (w_p_x * t309 - w_p_z * t307));
+    let t314 = w_a_z * t309 + (w_a_x * t307 + w_a_y * t308);
+    let t328 = 0.9580721924635943 * (w_a_y * t307 - w_a_x * t308)
+        + (0.28272467533220935 * (w_a_z * t308 - w_a_y * t309)
+            + 0.04652345630215346 * (w_a_x * t309 - w_a_z * t307));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t328, t314);
-    let t331 = j2_inv_p * t314;
-    let t332 = j2_inv_p * t328;
+    let q2_ab = ::armforge_runtime::math::atan2(-t328, t314);
+    let t331 = j2_inv_a * t314;
+    let t332 = j2_inv_a * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t332 - t295 * t331;
+    let c23_ab = j3_sin_ab * t332 - t295 * t331;
     // sin(θ2 + φ3)
-    let s23_pm = t295 * t332 + j3_sin_pm * t331;
+    let s23_ab = t295 * t332 + j3_sin_ab * t331;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_m - 0.30660204177019446),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_b - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+    let j2_inv_b = 1.0
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t355 = 0.3686182725083974 * j3_cos_psi_m;
-    let t356 = 0.9295808567160389 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t355 = 0.3686182725083974 * j3_cos_psi_b;
+    let t356 = 0.9295808567160389 * j3_sin_psi_b;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mp = t356 - t355;
-    let t358 = 0.9295808567160389 * j3_cos_psi_m;
-    let t359 = 0.3686182725083974 * j3_sin_psi_m;
+    let j3_cos_ba = t356 - t355;
+    let t358 = 0.9295808567160389 * j3_cos_psi_b;
+    let t359 = 0.3686182725083974 * j3_sin_psi_b;
     let t360 = t358 + t359;
     // θ3 = φ3 = φ0 + ψ
-    let q3_mp = j3_psi_m - 1.9483185102348586;
-    let t371 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t360
+    let q3_ba = j3_psi_b - 1.9483185102348586;
+    let t371 = 0.059363684915989756 * j3_cos_ba + 0.23271273627618366 * t360
         + 0.38353760535766845;
-    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_mp
+    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_ba
         + 0.28405649725228804;
-    let t373 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t360
+    let t373 = 0.005709671641624163 * j3_cos_ba + 0.07151313018083055 * t360
         + 0.12697460164967897;
-    let t378 = w_m_x * t371 + w_m_y * t372 - w_m_z * t373;
-    let t392 = 0.04652345630215346 * (w_m_x * t373 + w_m_z * t371)
-        - 0.28272467533220935 * (w_m_z * t372 + w_m_y * t373)
-        - 0.9580721924635943 * (w_m_y * t371 - w_m_x * t372);
+    let t378 = w_b_x * t371 + w_b_y * t372 - w_b_z * t373;
+    let t392 = 0.04652345630215346 * (w_b_x * t373 + w_b_z * t371)
+        - 0.28272467533220935 * (w_b_z * t372 + w_b_y * t373)
+        - 0.9580721924635943 * (w_b_y * t371 - w_b_x * t372);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
-    let t394 = j2_inv_m * t378;
-    let t395 = j2_inv_m * t392;
+    let q2_ba = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_b * t378;
+    let t395 = j2_inv_b * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t394 + t360 * t395;
+    let c23_ba = j3_cos_ba * t394 + t360 * t395;
     let t401 = t355 + t356;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = t359 - t358;
+    let j3_sin_bb = t359 - t358;
     // θ3 = φ3 = φ0 − ψ
-    let q3_mm = -1.9483185102348586 - j3_psi_m;
+    let q3_bb = -1.9483185102348586 - j3_psi_b;
     let t413 = 0.38353760535766845
-        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_mm);
-    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_mm
+        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_bb);
+    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_bb
         + 0.28405649725228804;
-    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_bb
         - 0.12697460164967897;
-    let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
-    let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
-        + (0.28272467533220935 * (w_m_z * t414 - w_m_y * t415)
-            + 0.04652345630215346 * (w_m_x * t415 - w_m_z * t413));
+    let t420 = w_b_z * t415 + (w_b_x * t413 + w_b_y * t414);
+    let t434 = 0.9580721924635943 * (w_b_y * t413 - w_b_x * t414)
+        + (0.28272467533220935 * (w_b_z * t414 - w_b_y * t415)
+            + 0.04652345630215346 * (w_b_x * t415 - w_b_z * t413));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(-t434, t420);
-    let t437 = j2_inv_m * t420;
-    let t438 = j2_inv_m * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(-t434, t420);
+    let t437 = j2_inv_b * t420;
+    let t438 = j2_inv_b * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_sin_mm * t438 - t401 * t437;
+    let c23_bb = j3_sin_bb * t438 - t401 * t437;
     // sin(θ2 + φ3)
-    let s23_mm = t401 * t438 + j3_sin_mm * t437;
+    let s23_bb = t401 * t438 + j3_sin_bb * t437;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -866,9 +866,9 @@ fn candidates(
     let t524 = 0.616255457921199 * g6_y - 0.111053440489627 * g6_z;
     let t527 = 0.616255457921199 * t467 + 0.7796770767040355 * g6_z;
     let t530 = 0.7796770767040355 * g6_y + 0.111053440489627 * t467;
-    let t540 = j1_cos_p * t519 - j1_sin_p * t524 - t516;
-    let t541 = j1_cos_p * t520 - j1_sin_p * t527 - t517;
-    let t542 = j1_cos_p * t521 + j1_sin_p * t530 - t518;
+    let t540 = j1_cos_a * t519 - j1_sin_a * t524 - t516;
+    let t541 = j1_cos_a * t520 - j1_sin_a * t527 - t517;
+    let t542 = j1_cos_a * t521 + j1_sin_a * t530 - t518;
     let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
         - 0.616255457921199 * gx_z;
     let t548 = 0.7796770767040355 * t547;
@@ -880,10 +880,10 @@ fn candidates(
     let t556 = 0.616255457921199 * gx_y - 0.111053440489627 * gx_z;
     let t559 = 0.616255457921199 * t500 + 0.7796770767040355 * gx_z;
     let t562 = 0.7796770767040355 * gx_y + 0.111053440489627 * t500;
-    let t572 = j1_cos_p * t551 - j1_sin_p * t556 - t548;
-    let t573 = j1_cos_p * t552 - j1_sin_p * t559 - t549;
-    let t574 = j1_cos_p * t553 + j1_sin_p * t562 - t550;
-    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t572 = j1_cos_a * t551 - j1_sin_a * t556 - t548;
+    let t573 = j1_cos_a * t552 - j1_sin_a * t559 - t549;
+    let t574 = j1_cos_a * t553 + j1_sin_a * t562 - t550;
+    let t575 = t244 * t288 - j3_cos_aa * t289;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -896,11 +896,11 @@ fn candidates(
     let t592 = 0.28272467533220935 * t542 - 0.9580721924635943 * t540;
     let t595 = 0.04652345630215346 * t540 - 0.28272467533220935 * t541;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t581 + (c23_pp * t584 + t575 * t589);
+    let v_b1_x = t581 + (c23_aa * t584 + t575 * t589);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t582 + (c23_pp * t585 + t575 * t592);
+    let v_b1_y = t582 + (c23_aa * t585 + t575 * t592);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t583 + (c23_pp * t586 + t575 * t595);
+    let v_b1_z = t583 + (c23_aa * t586 + t575 * t595);
     let t612 = 0.9580721924635943 * t574
         + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
     let t613 = 0.28272467533220935 * t612;
@@ -913,11 +913,11 @@ fn candidates(
     let t624 = 0.28272467533220935 * t574 - 0.9580721924635943 * t572;
     let t627 = 0.04652345630215346 * t572 - 0.28272467533220935 * t573;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t613 + (c23_pp * t616 + t575 * t621);
+    let xv_b1_x = t613 + (c23_aa * t616 + t575 * t621);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t614 + (c23_pp * t617 + t575 * t624);
+    let xv_b1_y = t614 + (c23_aa * t617 + t575 * t624);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t615 + (c23_pp * t618 + t575 * t627);
+    let xv_b1_z = t615 + (c23_aa * t618 + t575 * t627);
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7217908346079124 * v_b1_z
         + (0.6804730991015498 * v_b1_x + 0.12638968500295295 * v_b1_y);
@@ -947,25 +947,25 @@ fn candidates(
     let t699 = 0.12654244756220742 * t650 - t689;
     let t700 = 0.7226632366171314 * t650 - t691;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t694 + t698;
+    let z_b1a_x = t694 + t698;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t695 + t699;
+    let z_b1a_y = t695 + t699;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t700 - t697;
+    let z_b1a_z = t700 - t697;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.1782469650210095
-        * (0.18582223530822034 * z_b1p_x + 0.4195179924567066 * z_b1p_y
-            - 0.7988699854176344 * z_b1p_z);
+    let j5_cos_b1a = 1.1782469650210095
+        * (0.18582223530822034 * z_b1a_x + 0.4195179924567066 * z_b1a_y
+            - 0.7988699854176344 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.1782469650210095
+    let j5_sin_b1a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b1p_z + 0.9155867701441429 * z_b1p_y)
+            * (0.10799533335772074 * z_b1a_z + 0.9155867701441429 * z_b1a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b1p_x + 0.38734722705858016 * z_b1p_z)
+                * (0.9155867701441429 * z_b1a_x + 0.38734722705858016 * z_b1a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b1p_y - 0.10799533335772074 * z_b1p_x));
+                * (0.38734722705858016 * z_b1a_y - 0.10799533335772074 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t733 = j5_alpha_b1 - j5_a_b1;
     let t737 = t687 + 0.6804730991015498 * t733;
     let t738 = 0.12638968500295295 * t733 - t689;
@@ -982,11 +982,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t764;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t768 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t768 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t779 = 0.7217908346079124 * xv_b1_z
         + (0.6804730991015498 * xv_b1_x + 0.12638968500295295 * xv_b1_y);
     let t780 = 0.6804730991015498 * t779;
@@ -998,55 +998,55 @@ fn candidates(
     let t788 = 0.12638968500295295 * xv_b1_z - 0.7217908346079124 * xv_b1_y;
     let t791 = 0.7217908346079124 * xv_b1_x - 0.6804730991015498 * xv_b1_z;
     let t794 = 0.6804730991015498 * xv_b1_y - 0.12638968500295295 * xv_b1_x;
-    let t804 = t780 + (j4_cos_b1p * t783 - j4_sin_b1p * t788);
-    let t805 = t781 + (j4_cos_b1p * t784 - j4_sin_b1p * t791);
-    let t806 = t782 + (j4_cos_b1p * t785 - j4_sin_b1p * t794);
+    let t804 = t780 + (j4_cos_b1a * t783 - j4_sin_b1a * t788);
+    let t805 = t781 + (j4_cos_b1a * t784 - j4_sin_b1a * t791);
+    let t806 = t782 + (j4_cos_b1a * t785 - j4_sin_b1a * t794);
     let t811 = 0.5181267383208565 * t804 - 0.8009340075892076 * t805
         - 0.300082319579281 * t806;
     let t812 = 0.5181267383208565 * t811;
     let t813 = 0.8009340075892076 * t811;
     let t814 = 0.300082319579281 * t811;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t812
-        + (j5_cos_b1p * (t804 - t812)
-            - j5_sin_b1p * (0.300082319579281 * t805 - 0.8009340075892076 * t806));
+    let y6_b1a_x = t812
+        + (j5_cos_b1a * (t804 - t812)
+            - j5_sin_b1a * (0.300082319579281 * t805 - 0.8009340075892076 * t806));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t805 + t813)
-        + j5_sin_b1p * (0.300082319579281 * t804 + 0.5181267383208565 * t806) - t813;
+    let y6_b1a_y = j5_cos_b1a * (t805 + t813)
+        + j5_sin_b1a * (0.300082319579281 * t804 + 0.5181267383208565 * t806) - t813;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = j5_cos_b1p * (t806 + t814)
-        - j5_sin_b1p * (0.5181267383208565 * t805 + 0.8009340075892076 * t804) - t814;
+    let y6_b1a_z = j5_cos_b1a * (t806 + t814)
+        - j5_sin_b1a * (0.5181267383208565 * t805 + 0.8009340075892076 * t804) - t814;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b1p_y + 0.9941514009309421 * y6_b1p_x)
+            * (0.04207778902912386 * y6_b1a_y + 0.9941514009309421 * y6_b1a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b1p_z - 0.09946080483017306 * y6_b1p_y)
+                * (0.9941514009309421 * y6_b1a_z - 0.09946080483017306 * y6_b1a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b1p_x + 0.04207778902912386 * y6_b1p_z)),
-        0.09946080483017306 * y6_b1p_z
-            + (0.9941514009309421 * y6_b1p_y - 0.04207778902912386 * y6_b1p_x),
+                    * (0.09946080483017306 * y6_b1a_x + 0.04207778902912386 * y6_b1a_z)),
+        0.09946080483017306 * y6_b1a_z
+            + (0.9941514009309421 * y6_b1a_y - 0.04207778902912386 * y6_b1a_x),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t698 - t694;
+    let z_b1b_x = t698 - t694;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t699 - t695;
+    let z_b1b_y = t699 - t695;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t697 + t700;
+    let z_b1b_z = t697 + t700;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.1782469650210095
-        * (0.18582223530822034 * z_b1m_x + 0.4195179924567066 * z_b1m_y
-            - 0.7988699854176344 * z_b1m_z);
+    let j5_cos_b1b = 1.1782469650210095
+        * (0.18582223530822034 * z_b1b_x + 0.4195179924567066 * z_b1b_y
+            - 0.7988699854176344 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.1782469650210095
+    let j5_sin_b1b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b1m_z + 0.9155867701441429 * z_b1m_y)
+            * (0.10799533335772074 * z_b1b_z + 0.9155867701441429 * z_b1b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b1m_x + 0.38734722705858016 * z_b1m_z)
+                * (0.9155867701441429 * z_b1b_x + 0.38734722705858016 * z_b1b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b1m_y - 0.10799533335772074 * z_b1m_x));
+                * (0.38734722705858016 * z_b1b_y - 0.10799533335772074 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t887 = t737 - t694;
     let t888 = t738 - t695;
     let t889 = t697 + t739;
@@ -1061,52 +1061,52 @@ fn candidates(
     let t918 = -ref4_cos;
     let t919 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t918 } else { t894 * t914 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t918 } else { t894 * t914 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t919 } else { t908 * t914 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t919 } else { t908 * t914 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t932 = t780 + (t783 * j4_cos_b1m - t788 * j4_sin_b1m);
-    let t933 = t781 + (t784 * j4_cos_b1m - t791 * j4_sin_b1m);
-    let t934 = t782 + (t785 * j4_cos_b1m - t794 * j4_sin_b1m);
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t932 = t780 + (t783 * j4_cos_b1b - t788 * j4_sin_b1b);
+    let t933 = t781 + (t784 * j4_cos_b1b - t791 * j4_sin_b1b);
+    let t934 = t782 + (t785 * j4_cos_b1b - t794 * j4_sin_b1b);
     let t939 = 0.5181267383208565 * t932 - 0.8009340075892076 * t933
         - 0.300082319579281 * t934;
     let t940 = 0.5181267383208565 * t939;
     let t941 = 0.8009340075892076 * t939;
     let t942 = 0.300082319579281 * t939;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t940
-        + (j5_cos_b1m * (t932 - t940)
-            - j5_sin_b1m * (0.300082319579281 * t933 - 0.8009340075892076 * t934));
+    let y6_b1b_x = t940
+        + (j5_cos_b1b * (t932 - t940)
+            - j5_sin_b1b * (0.300082319579281 * t933 - 0.8009340075892076 * t934));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t933 + t941)
-        + j5_sin_b1m * (0.300082319579281 * t932 + 0.5181267383208565 * t934) - t941;
+    let y6_b1b_y = j5_cos_b1b * (t933 + t941)
+        + j5_sin_b1b * (0.300082319579281 * t932 + 0.5181267383208565 * t934) - t941;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = j5_cos_b1m * (t934 + t942)
-        - j5_sin_b1m * (0.5181267383208565 * t933 + 0.8009340075892076 * t932) - t942;
+    let y6_b1b_z = j5_cos_b1b * (t934 + t942)
+        - j5_sin_b1b * (0.5181267383208565 * t933 + 0.8009340075892076 * t932) - t942;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b1m_y + 0.9941514009309421 * y6_b1m_x)
+            * (0.04207778902912386 * y6_b1b_y + 0.9941514009309421 * y6_b1b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b1m_z - 0.09946080483017306 * y6_b1m_y)
+                * (0.9941514009309421 * y6_b1b_z - 0.09946080483017306 * y6_b1b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b1m_x + 0.04207778902912386 * y6_b1m_z)),
-        0.09946080483017306 * y6_b1m_z
-            + (0.9941514009309421 * y6_b1m_y - 0.04207778902912386 * y6_b1m_x),
+                    * (0.09946080483017306 * y6_b1b_x + 0.04207778902912386 * y6_b1b_z)),
+        0.09946080483017306 * y6_b1b_z
+            + (0.9941514009309421 * y6_b1b_y - 0.04207778902912386 * y6_b1b_x),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t581 + (c23_pm * t584 - s23_pm * t589);
+    let v_b2_x = t581 + (c23_ab * t584 - s23_ab * t589);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t582 + (c23_pm * t585 - s23_pm * t592);
+    let v_b2_y = t582 + (c23_ab * t585 - s23_ab * t592);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t583 + (c23_pm * t586 - s23_pm * t595);
+    let v_b2_z = t583 + (c23_ab * t586 - s23_ab * t595);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t613 + (c23_pm * t616 - s23_pm * t621);
+    let xv_b2_x = t613 + (c23_ab * t616 - s23_ab * t621);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t614 + (c23_pm * t617 - s23_pm * t624);
+    let xv_b2_y = t614 + (c23_ab * t617 - s23_ab * t624);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t615 + (c23_pm * t618 - s23_pm * t627);
+    let xv_b2_z = t615 + (c23_ab * t618 - s23_ab * t627);
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7217908346079124 * v_b2_z
         + (0.6804730991015498 * v_b2_x + 0.12638968500295295 * v_b2_y);
@@ -1136,25 +1136,25 @@ fn candidates(
     let t1052 = 0.12654244756220742 * t1016 - t1046;
     let t1053 = 0.7226632366171314 * t1016 - t1047;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t1048 + t1051;
+    let z_b2a_x = t1048 + t1051;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t1049 + t1052;
+    let z_b2a_y = t1049 + t1052;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t1053 - t1050;
+    let z_b2a_z = t1053 - t1050;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.1782469650210095
-        * (0.18582223530822034 * z_b2p_x + 0.4195179924567066 * z_b2p_y
-            - 0.7988699854176344 * z_b2p_z);
+    let j5_cos_b2a = 1.1782469650210095
+        * (0.18582223530822034 * z_b2a_x + 0.4195179924567066 * z_b2a_y
+            - 0.7988699854176344 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.1782469650210095
+    let j5_sin_b2a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b2p_z + 0.9155867701441429 * z_b2p_y)
+            * (0.10799533335772074 * z_b2a_z + 0.9155867701441429 * z_b2a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b2p_x + 0.38734722705858016 * z_b2p_z)
+                * (0.9155867701441429 * z_b2a_x + 0.38734722705858016 * z_b2a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b2p_y - 0.10799533335772074 * z_b2p_x));
+                * (0.38734722705858016 * z_b2a_y - 0.10799533335772074 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t1079 = j5_alpha_b2 - j5_a_b2;
     let t1083 = t1045 + 0.6804730991015498 * t1079;
     let t1084 = 0.12638968500295295 * t1079 - t1046;
@@ -1171,11 +1171,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1110;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1113 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1113 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t1124 = 0.7217908346079124 * xv_b2_z
         + (0.6804730991015498 * xv_b2_x + 0.12638968500295295 * xv_b2_y);
     let t1125 = 0.6804730991015498 * t1124;
@@ -1187,55 +1187,55 @@ fn candidates(
     let t1133 = 0.12638968500295295 * xv_b2_z - 0.7217908346079124 * xv_b2_y;
     let t1136 = 0.7217908346079124 * xv_b2_x - 0.6804730991015498 * xv_b2_z;
     let t1139 = 0.6804730991015498 * xv_b2_y - 0.12638968500295295 * xv_b2_x;
-    let t1149 = t1125 + (j4_cos_b2p * t1128 - j4_sin_b2p * t1133);
-    let t1150 = t1126 + (j4_cos_b2p * t1129 - j4_sin_b2p * t1136);
-    let t1151 = t1127 + (j4_cos_b2p * t1130 - j4_sin_b2p * t1139);
+    let t1149 = t1125 + (j4_cos_b2a * t1128 - j4_sin_b2a * t1133);
+    let t1150 = t1126 + (j4_cos_b2a * t1129 - j4_sin_b2a * t1136);
+    let t1151 = t1127 + (j4_cos_b2a * t1130 - j4_sin_b2a * t1139);
     let t1156 = 0.5181267383208565 * t1149 - 0.8009340075892076 * t1150
         - 0.300082319579281 * t1151;
     let t1157 = 0.5181267383208565 * t1156;
     let t1158 = 0.8009340075892076 * t1156;
     let t1159 = 0.300082319579281 * t1156;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1157
-        + (j5_cos_b2p * (t1149 - t1157)
-            - j5_sin_b2p * (0.300082319579281 * t1150 - 0.8009340075892076 * t1151));
+    let y6_b2a_x = t1157
+        + (j5_cos_b2a * (t1149 - t1157)
+            - j5_sin_b2a * (0.300082319579281 * t1150 - 0.8009340075892076 * t1151));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t1150 + t1158)
-        + j5_sin_b2p * (0.300082319579281 * t1149 + 0.5181267383208565 * t1151) - t1158;
+    let y6_b2a_y = j5_cos_b2a * (t1150 + t1158)
+        + j5_sin_b2a * (0.300082319579281 * t1149 + 0.5181267383208565 * t1151) - t1158;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = j5_cos_b2p * (t1151 + t1159)
-        - j5_sin_b2p * (0.5181267383208565 * t1150 + 0.8009340075892076 * t1149) - t1159;
+    let y6_b2a_z = j5_cos_b2a * (t1151 + t1159)
+        - j5_sin_b2a * (0.5181267383208565 * t1150 + 0.8009340075892076 * t1149) - t1159;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b2p_y + 0.9941514009309421 * y6_b2p_x)
+            * (0.04207778902912386 * y6_b2a_y + 0.9941514009309421 * y6_b2a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b2p_z - 0.09946080483017306 * y6_b2p_y)
+                * (0.9941514009309421 * y6_b2a_z - 0.09946080483017306 * y6_b2a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b2p_x + 0.04207778902912386 * y6_b2p_z)),
-        0.09946080483017306 * y6_b2p_z
-            + (0.9941514009309421 * y6_b2p_y - 0.04207778902912386 * y6_b2p_x),
+                    * (0.09946080483017306 * y6_b2a_x + 0.04207778902912386 * y6_b2a_z)),
+        0.09946080483017306 * y6_b2a_z
+            + (0.9941514009309421 * y6_b2a_y - 0.04207778902912386 * y6_b2a_x),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t1051 - t1048;
+    let z_b2b_x = t1051 - t1048;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t1052 - t1049;
+    let z_b2b_y = t1052 - t1049;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t1050 + t1053;
+    let z_b2b_z = t1050 + t1053;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.1782469650210095
-        * (0.18582223530822034 * z_b2m_x + 0.4195179924567066 * z_b2m_y
-            - 0.7988699854176344 * z_b2m_z);
+    let j5_cos_b2b = 1.1782469650210095
+        * (0.18582223530822034 * z_b2b_x + 0.4195179924567066 * z_b2b_y
+            - 0.7988699854176344 * z_b2b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.1782469650210095
+    let j5_sin_b2b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b2m_z + 0.9155867701441429 * z_b2m_y)
+            * (0.10799533335772074 * z_b2b_z + 0.9155867701441429 * z_b2b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b2m_x + 0.38734722705858016 * z_b2m_z)
+                * (0.9155867701441429 * z_b2b_x + 0.38734722705858016 * z_b2b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b2m_y - 0.10799533335772074 * z_b2m_x));
+                * (0.38734722705858016 * z_b2b_y - 0.10799533335772074 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t1229 = t1083 - t1048;
     let t1230 = t1084 - t1049;
     let t1231 = t1050 + t1085;
@@ -1248,47 +1248,47 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1253;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t918 } else { t1236 * t1256 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t918 } else { t1236 * t1256 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t919 } else { t1250 * t1256 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t919 } else { t1250 * t1256 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1272 = t1125 + (t1128 * j4_cos_b2m - t1133 * j4_sin_b2m);
-    let t1273 = t1126 + (t1129 * j4_cos_b2m - t1136 * j4_sin_b2m);
-    let t1274 = t1127 + (t1130 * j4_cos_b2m - t1139 * j4_sin_b2m);
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t1272 = t1125 + (t1128 * j4_cos_b2b - t1133 * j4_sin_b2b);
+    let t1273 = t1126 + (t1129 * j4_cos_b2b - t1136 * j4_sin_b2b);
+    let t1274 = t1127 + (t1130 * j4_cos_b2b - t1139 * j4_sin_b2b);
     let t1279 = 0.5181267383208565 * t1272 - 0.8009340075892076 * t1273
         - 0.300082319579281 * t1274;
     let t1280 = 0.5181267383208565 * t1279;
     let t1281 = 0.8009340075892076 * t1279;
     let t1282 = 0.300082319579281 * t1279;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1280
-        + (j5_cos_b2m * (t1272 - t1280)
-            - j5_sin_b2m * (0.300082319579281 * t1273 - 0.8009340075892076 * t1274));
+    let y6_b2b_x = t1280
+        + (j5_cos_b2b * (t1272 - t1280)
+            - j5_sin_b2b * (0.300082319579281 * t1273 - 0.8009340075892076 * t1274));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t1273 + t1281)
-        + j5_sin_b2m * (0.300082319579281 * t1272 + 0.5181267383208565 * t1274) - t1281;
+    let y6_b2b_y = j5_cos_b2b * (t1273 + t1281)
+        + j5_sin_b2b * (0.300082319579281 * t1272 + 0.5181267383208565 * t1274) - t1281;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = j5_cos_b2m * (t1274 + t1282)
-        - j5_sin_b2m * (0.5181267383208565 * t1273 + 0.8009340075892076 * t1272) - t1282;
+    let y6_b2b_z = j5_cos_b2b * (t1274 + t1282)
+        - j5_sin_b2b * (0.5181267383208565 * t1273 + 0.8009340075892076 * t1272) - t1282;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b2m_y + 0.9941514009309421 * y6_b2m_x)
+            * (0.04207778902912386 * y6_b2b_y + 0.9941514009309421 * y6_b2b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b2m_z - 0.09946080483017306 * y6_b2m_y)
+                * (0.9941514009309421 * y6_b2b_z - 0.09946080483017306 * y6_b2b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b2m_x + 0.04207778902912386 * y6_b2m_z)),
-        0.09946080483017306 * y6_b2m_z
-            + (0.9941514009309421 * y6_b2m_y - 0.04207778902912386 * y6_b2m_x),
+                    * (0.09946080483017306 * y6_b2b_x + 0.04207778902912386 * y6_b2b_z)),
+        0.09946080483017306 * y6_b2b_z
+            + (0.9941514009309421 * y6_b2b_y - 0.04207778902912386 * y6_b2b_x),
     );
-    let t1336 = j1_cos_m * t519 - j1_sin_m * t524 - t516;
-    let t1337 = j1_cos_m * t520 - j1_sin_m * t527 - t517;
-    let t1338 = j1_cos_m * t521 + j1_sin_m * t530 - t518;
-    let t1348 = j1_cos_m * t551 - j1_sin_m * t556 - t548;
-    let t1349 = j1_cos_m * t552 - j1_sin_m * t559 - t549;
-    let t1350 = j1_cos_m * t553 + j1_sin_m * t562 - t550;
-    let t1351 = t360 * t394 - j3_cos_mp * t395;
+    let t1336 = j1_cos_b * t519 - j1_sin_b * t524 - t516;
+    let t1337 = j1_cos_b * t520 - j1_sin_b * t527 - t517;
+    let t1338 = j1_cos_b * t521 + j1_sin_b * t530 - t518;
+    let t1348 = j1_cos_b * t551 - j1_sin_b * t556 - t548;
+    let t1349 = j1_cos_b * t552 - j1_sin_b * t559 - t549;
+    let t1350 = j1_cos_b * t553 + j1_sin_b * t562 - t550;
+    let t1351 = t360 * t394 - j3_cos_ba * t395;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -1301,11 +1301,11 @@ fn candidates(
     let t1368 = 0.28272467533220935 * t1338 - 0.9580721924635943 * t1336;
     let t1371 = 0.04652345630215346 * t1336 - 0.28272467533220935 * t1337;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1357 + (c23_mp * t1360 + t1351 * t1365);
+    let v_b3_x = t1357 + (c23_ba * t1360 + t1351 * t1365);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1358 + (c23_mp * t1361 + t1351 * t1368);
+    let v_b3_y = t1358 + (c23_ba * t1361 + t1351 * t1368);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t1359 + (c23_mp * t1362 + t1351 * t1371);
+    let v_b3_z = t1359 + (c23_ba * t1362 + t1351 * t1371);
     let t1388 = 0.9580721924635943 * t1350
         + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
     let t1389 = 0.28272467533220935 * t1388;
@@ -1318,11 +1318,11 @@ fn candidates(
     let t1400 = 0.28272467533220935 * t1350 - 0.9580721924635943 * t1348;
     let t1403 = 0.04652345630215346 * t1348 - 0.28272467533220935 * t1349;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1389 + (c23_mp * t1392 + t1351 * t1397);
+    let xv_b3_x = t1389 + (c23_ba * t1392 + t1351 * t1397);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1390 + (c23_mp * t1393 + t1351 * t1400);
+    let xv_b3_y = t1390 + (c23_ba * t1393 + t1351 * t1400);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t1391 + (c23_mp * t1394 + t1351 * t1403);
+    let xv_b3_z = t1391 + (c23_ba * t1394 + t1351 * t1403);
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7217908346079124 * v_b3_z
         + (0.6804730991015498 * v_b3_x + 0.12638968500295295 * v_b3_y);
@@ -1352,25 +1352,25 @@ fn candidates(
     let t1457 = 0.12654244756220742 * t1421 - t1451;
     let t1458 = 0.7226632366171314 * t1421 - t1452;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1453 + t1456;
+    let z_b3a_x = t1453 + t1456;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1454 + t1457;
+    let z_b3a_y = t1454 + t1457;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1458 - t1455;
+    let z_b3a_z = t1458 - t1455;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = 1.1782469650210095
-        * (0.18582223530822034 * z_b3p_x + 0.4195179924567066 * z_b3p_y
-            - 0.7988699854176344 * z_b3p_z);
+    let j5_cos_b3a = 1.1782469650210095
+        * (0.18582223530822034 * z_b3a_x + 0.4195179924567066 * z_b3a_y
+            - 0.7988699854176344 * z_b3a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 1.1782469650210095
+    let j5_sin_b3a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b3p_z + 0.9155867701441429 * z_b3p_y)
+            * (0.10799533335772074 * z_b3a_z + 0.9155867701441429 * z_b3a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b3p_x + 0.38734722705858016 * z_b3p_z)
+                * (0.9155867701441429 * z_b3a_x + 0.38734722705858016 * z_b3a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b3p_y - 0.10799533335772074 * z_b3p_x));
+                * (0.38734722705858016 * z_b3a_y - 0.10799533335772074 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1484 = j5_alpha_b3 - j5_a_b3;
     let t1488 = t1450 + 0.6804730991015498 * t1484;
     let t1489 = 0.12638968500295295 * t1484 - t1451;
@@ -1387,11 +1387,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1515;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1518 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1518 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1529 = 0.7217908346079124 * xv_b3_z
         + (0.6804730991015498 * xv_b3_x + 0.12638968500295295 * xv_b3_y);
     let t1530 = 0.6804730991015498 * t1529;
@@ -1403,55 +1403,55 @@ fn candidates(
     let t1538 = 0.12638968500295295 * xv_b3_z - 0.7217908346079124 * xv_b3_y;
     let t1541 = 0.7217908346079124 * xv_b3_x - 0.6804730991015498 * xv_b3_z;
     let t1544 = 0.6804730991015498 * xv_b3_y - 0.12638968500295295 * xv_b3_x;
-    let t1554 = t1530 + (j4_cos_b3p * t1533 - j4_sin_b3p * t1538);
-    let t1555 = t1531 + (j4_cos_b3p * t1534 - j4_sin_b3p * t1541);
-    let t1556 = t1532 + (j4_cos_b3p * t1535 - j4_sin_b3p * t1544);
+    let t1554 = t1530 + (j4_cos_b3a * t1533 - j4_sin_b3a * t1538);
+    let t1555 = t1531 + (j4_cos_b3a * t1534 - j4_sin_b3a * t1541);
+    let t1556 = t1532 + (j4_cos_b3a * t1535 - j4_sin_b3a * t1544);
     let t1561 = 0.5181267383208565 * t1554 - 0.8009340075892076 * t1555
         - 0.300082319579281 * t1556;
     let t1562 = 0.5181267383208565 * t1561;
     let t1563 = 0.8009340075892076 * t1561;
     let t1564 = 0.300082319579281 * t1561;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1562
-        + (j5_cos_b3p * (t1554 - t1562)
-            - j5_sin_b3p * (0.300082319579281 * t1555 - 0.8009340075892076 * t1556));
+    let y6_b3a_x = t1562
+        + (j5_cos_b3a * (t1554 - t1562)
+            - j5_sin_b3a * (0.300082319579281 * t1555 - 0.8009340075892076 * t1556));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = j5_cos_b3p * (t1555 + t1563)
-        + j5_sin_b3p * (0.300082319579281 * t1554 + 0.5181267383208565 * t1556) - t1563;
+    let y6_b3a_y = j5_cos_b3a * (t1555 + t1563)
+        + j5_sin_b3a * (0.300082319579281 * t1554 + 0.5181267383208565 * t1556) - t1563;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = j5_cos_b3p * (t1556 + t1564)
-        - j5_sin_b3p * (0.5181267383208565 * t1555 + 0.8009340075892076 * t1554) - t1564;
+    let y6_b3a_z = j5_cos_b3a * (t1556 + t1564)
+        - j5_sin_b3a * (0.5181267383208565 * t1555 + 0.8009340075892076 * t1554) - t1564;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b3p_y + 0.9941514009309421 * y6_b3p_x)
+            * (0.04207778902912386 * y6_b3a_y + 0.9941514009309421 * y6_b3a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b3p_z - 0.09946080483017306 * y6_b3p_y)
+                * (0.9941514009309421 * y6_b3a_z - 0.09946080483017306 * y6_b3a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b3p_x + 0.04207778902912386 * y6_b3p_z)),
-        0.09946080483017306 * y6_b3p_z
-            + (0.9941514009309421 * y6_b3p_y - 0.04207778902912386 * y6_b3p_x),
+                    * (0.09946080483017306 * y6_b3a_x + 0.04207778902912386 * y6_b3a_z)),
+        0.09946080483017306 * y6_b3a_z
+            + (0.9941514009309421 * y6_b3a_y - 0.04207778902912386 * y6_b3a_x),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1456 - t1453;
+    let z_b3b_x = t1456 - t1453;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = t1457 - t1454;
+    let z_b3b_y = t1457 - t1454;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1455 + t1458;
+    let z_b3b_z = t1455 + t1458;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3m = 1.1782469650210095
-        * (0.18582223530822034 * z_b3m_x + 0.4195179924567066 * z_b3m_y
-            - 0.7988699854176344 * z_b3m_z);
+    let j5_cos_b3b = 1.1782469650210095
+        * (0.18582223530822034 * z_b3b_x + 0.4195179924567066 * z_b3b_y
+            - 0.7988699854176344 * z_b3b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3m = 1.1782469650210095
+    let j5_sin_b3b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b3m_z + 0.9155867701441429 * z_b3m_y)
+            * (0.10799533335772074 * z_b3b_z + 0.9155867701441429 * z_b3b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b3m_x + 0.38734722705858016 * z_b3m_z)
+                * (0.9155867701441429 * z_b3b_x + 0.38734722705858016 * z_b3b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b3m_y - 0.10799533335772074 * z_b3m_x));
+                * (0.38734722705858016 * z_b3b_y - 0.10799533335772074 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
     let t1634 = t1488 - t1453;
     let t1635 = t1489 - t1454;
     let t1636 = t1455 + t1490;
@@ -1464,52 +1464,52 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1658;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t918 } else { t1641 * t1661 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t918 } else { t1641 * t1661 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t919 } else { t1655 * t1661 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { t919 } else { t1655 * t1661 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1677 = t1530 + (t1533 * j4_cos_b3m - t1538 * j4_sin_b3m);
-    let t1678 = t1531 + (t1534 * j4_cos_b3m - t1541 * j4_sin_b3m);
-    let t1679 = t1532 + (t1535 * j4_cos_b3m - t1544 * j4_sin_b3m);
+    let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
+    let t1677 = t1530 + (t1533 * j4_cos_b3b - t1538 * j4_sin_b3b);
+    let t1678 = t1531 + (t1534 * j4_cos_b3b - t1541 * j4_sin_b3b);
+    let t1679 = t1532 + (t1535 * j4_cos_b3b - t1544 * j4_sin_b3b);
     let t1684 = 0.5181267383208565 * t1677 - 0.8009340075892076 * t1678
         - 0.300082319579281 * t1679;
     let t1685 = 0.5181267383208565 * t1684;
     let t1686 = 0.8009340075892076 * t1684;
     let t1687 = 0.300082319579281 * t1684;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1685
-        + (j5_cos_b3m * (t1677 - t1685)
-            - j5_sin_b3m * (0.300082319579281 * t1678 - 0.8009340075892076 * t1679));
+    let y6_b3b_x = t1685
+        + (j5_cos_b3b * (t1677 - t1685)
+            - j5_sin_b3b * (0.300082319579281 * t1678 - 0.8009340075892076 * t1679));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = j5_cos_b3m * (t1678 + t1686)
-        + j5_sin_b3m * (0.300082319579281 * t1677 + 0.5181267383208565 * t1679) - t1686;
+    let y6_b3b_y = j5_cos_b3b * (t1678 + t1686)
+        + j5_sin_b3b * (0.300082319579281 * t1677 + 0.5181267383208565 * t1679) - t1686;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = j5_cos_b3m * (t1679 + t1687)
-        - j5_sin_b3m * (0.5181267383208565 * t1678 + 0.8009340075892076 * t1677) - t1687;
+    let y6_b3b_z = j5_cos_b3b * (t1679 + t1687)
+        - j5_sin_b3b * (0.5181267383208565 * t1678 + 0.8009340075892076 * t1677) - t1687;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3m = ::armforge_runtime::math::atan2(
+    let q6_b3b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b3m_y + 0.9941514009309421 * y6_b3m_x)
+            * (0.04207778902912386 * y6_b3b_y + 0.9941514009309421 * y6_b3b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b3m_z - 0.09946080483017306 * y6_b3m_y)
+                * (0.9941514009309421 * y6_b3b_z - 0.09946080483017306 * y6_b3b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b3m_x + 0.04207778902912386 * y6_b3m_z)),
-        0.09946080483017306 * y6_b3m_z
-            + (0.9941514009309421 * y6_b3m_y - 0.04207778902912386 * y6_b3m_x),
+                    * (0.09946080483017306 * y6_b3b_x + 0.04207778902912386 * y6_b3b_z)),
+        0.09946080483017306 * y6_b3b_z
+            + (0.9941514009309421 * y6_b3b_y - 0.04207778902912386 * y6_b3b_x),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1357 + (c23_mm * t1360 - s23_mm * t1365);
+    let v_b4_x = t1357 + (c23_bb * t1360 - s23_bb * t1365);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1358 + (c23_mm * t1361 - s23_mm * t1368);
+    let v_b4_y = t1358 + (c23_bb * t1361 - s23_bb * t1368);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t1359 + (c23_mm * t1362 - s23_mm * t1371);
+    let v_b4_z = t1359 + (c23_bb * t1362 - s23_bb * t1371);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1389 + (c23_mm * t1392 - s23_mm * t1397);
+    let xv_b4_x = t1389 + (c23_bb * t1392 - s23_bb * t1397);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1390 + (c23_mm * t1393 - s23_mm * t1400);
+    let xv_b4_y = t1390 + (c23_bb * t1393 - s23_bb * t1400);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t1391 + (c23_mm * t1394 - s23_mm * t1403);
+    let xv_b4_z = t1391 + (c23_bb * t1394 - s23_bb * t1403);
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7217908346079124 * v_b4_z
         + (0.6804730991015498 * v_b4_x + 0.12638968500295295 * v_b4_y);
@@ -1539,25 +1539,25 @@ fn candidates(
     let t1797 = 0.12654244756220742 * t1761 - t1791;
     let t1798 = 0.7226632366171314 * t1761 - t1792;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1793 + t1796;
+    let z_b4a_x = t1793 + t1796;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1794 + t1797;
+    let z_b4a_y = t1794 + t1797;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1798 - t1795;
+    let z_b4a_z = t1798 - t1795;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = 1.1782469650210095
-        * (0.18582223530822034 * z_b4p_x + 0.4195179924567066 * z_b4p_y
-            - 0.7988699854176344 * z_b4p_z);
+    let j5_cos_b4a = 1.1782469650210095
+        * (0.18582223530822034 * z_b4a_x + 0.4195179924567066 * z_b4a_y
+            - 0.7988699854176344 * z_b4a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 1.1782469650210095
+    let j5_sin_b4a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b4p_z + 0.9155867701441429 * z_b4p_y)
+            * (0.10799533335772074 * z_b4a_z + 0.9155867701441429 * z_b4a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b4p_x + 0.38734722705858016 * z_b4p_z)
+                * (0.9155867701441429 * z_b4a_x + 0.38734722705858016 * z_b4a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b4p_y - 0.10799533335772074 * z_b4p_x));
+                * (0.38734722705858016 * z_b4a_y - 0.10799533335772074 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1824 = j5_alpha_b4 - j5_a_b4;
     let t1828 = t1790 + 0.6804730991015498 * t1824;
     let t1829 = 0.12638968500295295 * t1824 - t1791;
@@ -1574,11 +1574,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1855;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1858 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1858 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1869 = 0.7217908346079124 * xv_b4_z
         + (0.6804730991015498 * xv_b4_x + 0.12638968500295295 * xv_b4_y);
     let t1870 = 0.6804730991015498 * t1869;
@@ -1590,55 +1590,55 @@ fn candidates(
     let t1878 = 0.12638968500295295 * xv_b4_z - 0.7217908346079124 * xv_b4_y;
     let t1881 = 0.7217908346079124 * xv_b4_x - 0.6804730991015498 * xv_b4_z;
     let t1884 = 0.6804730991015498 * xv_b4_y - 0.12638968500295295 * xv_b4_x;
-    let t1894 = t1870 + (j4_cos_b4p * t1873 - j4_sin_b4p * t1878);
-    let t1895 = t1871 + (j4_cos_b4p * t1874 - j4_sin_b4p * t1881);
-    let t1896 = t1872 + (j4_cos_b4p * t1875 - j4_sin_b4p * t1884);
+    let t1894 = t1870 + (j4_cos_b4a * t1873 - j4_sin_b4a * t1878);
+    let t1895 = t1871 + (j4_cos_b4a * t1874 - j4_sin_b4a * t1881);
+    let t1896 = t1872 + (j4_cos_b4a * t1875 - j4_sin_b4a * t1884);
     let t1901 = 0.5181267383208565 * t1894 - 0.8009340075892076 * t1895
         - 0.300082319579281 * t1896;
     let t1902 = 0.5181267383208565 * t1901;
     let t1903 = 0.8009340075892076 * t1901;
     let t1904 = 0.300082319579281 * t1901;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1902
-        + (j5_cos_b4p * (t1894 - t1902)
-            - j5_sin_b4p * (0.300082319579281 * t1895 - 0.8009340075892076 * t1896));
+    let y6_b4a_x = t1902
+        + (j5_cos_b4a * (t1894 - t1902)
+            - j5_sin_b4a * (0.300082319579281 * t1895 - 0.8009340075892076 * t1896));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = j5_cos_b4p * (t1895 + t1903)
-        + j5_sin_b4p * (0.300082319579281 * t1894 + 0.5181267383208565 * t1896) - t1903;
+    let y6_b4a_y = j5_cos_b4a * (t1895 + t1903)
+        + j5_sin_b4a * (0.300082319579281 * t1894 + 0.5181267383208565 * t1896) - t1903;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = j5_cos_b4p * (t1896 + t1904)
-        - j5_sin_b4p * (0.5181267383208565 * t1895 + 0.8009340075892076 * t1894) - t1904;
+    let y6_b4a_z = j5_cos_b4a * (t1896 + t1904)
+        - j5_sin_b4a * (0.5181267383208565 * t1895 + 0.8009340075892076 * t1894) - t1904;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b4p_y + 0.9941514009309421 * y6_b4p_x)
+            * (0.04207778902912386 * y6_b4a_y + 0.9941514009309421 * y6_b4a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b4p_z - 0.09946080483017306 * y6_b4p_y)
+                * (0.9941514009309421 * y6_b4a_z - 0.09946080483017306 * y6_b4a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b4p_x + 0.04207778902912386 * y6_b4p_z)),
-        0.09946080483017306 * y6_b4p_z
-            + (0.9941514009309421 * y6_b4p_y - 0.04207778902912386 * y6_b4p_x),
+                    * (0.09946080483017306 * y6_b4a_x + 0.04207778902912386 * y6_b4a_z)),
+        0.09946080483017306 * y6_b4a_z
+            + (0.9941514009309421 * y6_b4a_y - 0.04207778902912386 * y6_b4a_x),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1796 - t1793;
+    let z_b4b_x = t1796 - t1793;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = t1797 - t1794;
+    let z_b4b_y = t1797 - t1794;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1795 + t1798;
+    let z_b4b_z = t1795 + t1798;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4m = 1.1782469650210095
-        * (0.18582223530822034 * z_b4m_x + 0.4195179924567066 * z_b4m_y
-            - 0.7988699854176344 * z_b4m_z);
+    let j5_cos_b4b = 1.1782469650210095
+        * (0.18582223530822034 * z_b4b_x + 0.4195179924567066 * z_b4b_y
+            - 0.7988699854176344 * z_b4b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4m = 1.1782469650210095
+    let j5_sin_b4b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b4m_z + 0.9155867701441429 * z_b4m_y)
+            * (0.10799533335772074 * z_b4b_z + 0.9155867701441429 * z_b4b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b4m_x + 0.38734722705858016 * z_b4m_z)
+                * (0.9155867701441429 * z_b4b_x + 0.38734722705858016 * z_b4b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b4m_y - 0.10799533335772074 * z_b4m_x));
+                * (0.38734722705858016 * z_b4b_y - 0.10799533335772074 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
     let t1974 = t1828 - t1793;
     let t1975 = t1829 - t1794;
     let t1976 = t1795 + t1830;
@@ -1651,43 +1651,43 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1998;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t918 } else { t1981 * t2001 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t918 } else { t1981 * t2001 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t919 } else { t1995 * t2001 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { t919 } else { t1995 * t2001 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t2017 = t1870 + (t1873 * j4_cos_b4m - t1878 * j4_sin_b4m);
-    let t2018 = t1871 + (t1874 * j4_cos_b4m - t1881 * j4_sin_b4m);
-    let t2019 = t1872 + (t1875 * j4_cos_b4m - t1884 * j4_sin_b4m);
+    let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
+    let t2017 = t1870 + (t1873 * j4_cos_b4b - t1878 * j4_sin_b4b);
+    let t2018 = t1871 + (t1874 * j4_cos_b4b - t1881 * j4_sin_b4b);
+    let t2019 = t1872 + (t1875 * j4_cos_b4b - t1884 * j4_sin_b4b);
     let t2024 = 0.5181267383208565 * t2017 - 0.8009340075892076 * t2018
         - 0.300082319579281 * t2019;
     let t2025 = 0.5181267383208565 * t2024;
     let t2026 = 0.8009340075892076 * t2024;
     let t2027 = 0.300082319579281 * t2024;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t2025
-        + (j5_cos_b4m * (t2017 - t2025)
-            - j5_sin_b4m * (0.300082319579281 * t2018 - 0.8009340075892076 * t2019));
+    let y6_b4b_x = t2025
+        + (j5_cos_b4b * (t2017 - t2025)
+            - j5_sin_b4b * (0.300082319579281 * t2018 - 0.8009340075892076 * t2019));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = j5_cos_b4m * (t2018 + t2026)
-        + j5_sin_b4m * (0.300082319579281 * t2017 + 0.5181267383208565 * t2019) - t2026;
+    let y6_b4b_y = j5_cos_b4b * (t2018 + t2026)
+        + j5_sin_b4b * (0.300082319579281 * t2017 + 0.5181267383208565 * t2019) - t2026;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = j5_cos_b4m * (t2019 + t2027)
-        - j5_sin_b4m * (0.5181267383208565 * t2018 + 0.8009340075892076 * t2017) - t2027;
+    let y6_b4b_z = j5_cos_b4b * (t2019 + t2027)
+        - j5_sin_b4b * (0.5181267383208565 * t2018 + 0.8009340075892076 * t2017) - t2027;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4m = ::armforge_runtime::math::atan2(
+    let q6_b4b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b4m_y + 0.9941514009309421 * y6_b4m_x)
+            * (0.04207778902912386 * y6_b4b_y + 0.9941514009309421 * y6_b4b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b4m_z - 0.09946080483017306 * y6_b4m_y)
+                * (0.9941514009309421 * y6_b4b_z - 0.09946080483017306 * y6_b4b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b4m_x + 0.04207778902912386 * y6_b4m_z)),
-        0.09946080483017306 * y6_b4m_z
-            + (0.9941514009309421 * y6_b4m_y - 0.04207778902912386 * y6_b4m_x),
+                    * (0.09946080483017306 * y6_b4b_x + 0.04207778902912386 * y6_b4b_z)),
+        0.09946080483017306 * y6_b4b_z
+            + (0.9941514009309421 * y6_b4b_y - 0.04207778902912386 * y6_b4b_x),
     );
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1701,12 +1701,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1719,7 +1719,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1733,12 +1733,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1751,7 +1751,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1765,12 +1765,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1783,7 +1783,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1797,12 +1797,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1815,7 +1815,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1829,12 +1829,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1847,7 +1847,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1861,12 +1861,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1879,7 +1879,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1893,12 +1893,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1911,7 +1911,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1925,12 +1925,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.7442545311651372,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.24349389392867876,
                 },
                 ::armforge_runtime::internal::Check {
@@ -2018,16 +2018,16 @@ fn branch_1(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2036,67 +2036,67 @@ fn branch_1(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t173 = 0.9580721924635943 * w_p_z
-        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
-    let t177 = w_p_x - 0.28272467533220935 * t173;
-    let t178 = w_p_y - 0.04652345630215346 * t173;
-    let t179 = w_p_z - 0.9580721924635943 * t173;
+    let t173 = 0.9580721924635943 * w_a_z
+        + (0.28272467533220935 * w_a_x + 0.04652345630215346 * w_a_y);
+    let t177 = w_a_x - 0.28272467533220935 * t173;
+    let t178 = w_a_y - 0.04652345630215346 * t173;
+    let t179 = w_a_z - 0.9580721924635943 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_p - 0.30660204177019446),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_a - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+    let j2_inv_a = 1.0
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
-        - 0.3686182725083974 * j3_cos_psi_p;
-    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    let j3_cos_aa = 0.9295808567160389 * j3_sin_psi_a
+        - 0.3686182725083974 * j3_cos_psi_a;
+    let t244 = 0.9295808567160389 * j3_cos_psi_a + 0.3686182725083974 * j3_sin_psi_a;
     // θ3 = φ3 = φ0 + ψ
-    let q3_pp = j3_psi_p - 1.9483185102348586;
-    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+    let q3_aa = j3_psi_a - 1.9483185102348586;
+    let t264 = 0.059363684915989756 * j3_cos_aa + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_aa
         + 0.28405649725228804;
-    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+    let t267 = 0.005709671641624163 * j3_cos_aa + 0.07151313018083055 * t244
         + 0.12697460164967897;
-    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
-    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
-        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
-        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    let t272 = w_a_x * t264 + w_a_y * t265 - w_a_z * t267;
+    let t286 = 0.04652345630215346 * (w_a_x * t267 + w_a_z * t264)
+        - 0.28272467533220935 * (w_a_z * t265 + w_a_y * t267)
+        - 0.9580721924635943 * (w_a_y * t264 - w_a_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
-    let t288 = j2_inv_p * t272;
-    let t289 = j2_inv_p * t286;
+    let q2_aa = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_a * t272;
+    let t289 = j2_inv_a * t286;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let c23_aa = j3_cos_aa * t288 + t244 * t289;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2130,24 +2130,24 @@ fn branch_1(
     let t516 = 0.7796770767040355 * t515;
     let t517 = 0.111053440489627 * t515;
     let t518 = 0.616255457921199 * t515;
-    let t540 = j1_cos_p * (t516 - t467)
-        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t541 = j1_cos_p * (g6_y + t517)
-        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t542 = j1_cos_p * (g6_z + t518)
-        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t540 = j1_cos_a * (t516 - t467)
+        - j1_sin_a * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_a * (g6_y + t517)
+        - j1_sin_a * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_a * (g6_z + t518)
+        + j1_sin_a * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
     let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
         - 0.616255457921199 * gx_z;
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t572 = j1_cos_p * (t548 - t500)
-        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t573 = j1_cos_p * (gx_y + t549)
-        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t574 = j1_cos_p * (gx_z + t550)
-        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t572 = j1_cos_a * (t548 - t500)
+        - j1_sin_a * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_a * (gx_y + t549)
+        - j1_sin_a * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_a * (gx_z + t550)
+        + j1_sin_a * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t575 = t244 * t288 - j3_cos_aa * t289;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2155,15 +2155,15 @@ fn branch_1(
     let t583 = 0.9580721924635943 * t580;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t581
-        + (c23_pp * (t540 - t581)
+        + (c23_aa * (t540 - t581)
             + t575 * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t582
-        + (c23_pp * (t541 - t582)
+        + (c23_aa * (t541 - t582)
             + t575 * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t583
-        + (c23_pp * (t542 - t583)
+        + (c23_aa * (t542 - t583)
             + t575 * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
     let t612 = 0.9580721924635943 * t574
         + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
@@ -2172,15 +2172,15 @@ fn branch_1(
     let t615 = 0.9580721924635943 * t612;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t613
-        + (c23_pp * (t572 - t613)
+        + (c23_aa * (t572 - t613)
             + t575 * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t614
-        + (c23_pp * (t573 - t614)
+        + (c23_aa * (t573 - t614)
             + t575 * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t615
-        + (c23_pp * (t574 - t615)
+        + (c23_aa * (t574 - t615)
             + t575 * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7217908346079124 * v_b1_z
@@ -2208,25 +2208,25 @@ fn branch_1(
     let t695 = 0.5781770768749814 * j5_gamma_b1;
     let t697 = 0.6104999215680328 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t694 + (0.6812955618849657 * t650 + t687);
+    let z_b1a_x = t694 + (0.6812955618849657 * t650 + t687);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t695 + (0.12654244756220742 * t650 - t689);
+    let z_b1a_y = t695 + (0.12654244756220742 * t650 - t689);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.7226632366171314 * t650 - t691 - t697;
+    let z_b1a_z = 0.7226632366171314 * t650 - t691 - t697;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.1782469650210095
-        * (0.18582223530822034 * z_b1p_x + 0.4195179924567066 * z_b1p_y
-            - 0.7988699854176344 * z_b1p_z);
+    let j5_cos_b1a = 1.1782469650210095
+        * (0.18582223530822034 * z_b1a_x + 0.4195179924567066 * z_b1a_y
+            - 0.7988699854176344 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.1782469650210095
+    let j5_sin_b1a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b1p_z + 0.9155867701441429 * z_b1p_y)
+            * (0.10799533335772074 * z_b1a_z + 0.9155867701441429 * z_b1a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b1p_x + 0.38734722705858016 * z_b1p_z)
+                * (0.9155867701441429 * z_b1a_x + 0.38734722705858016 * z_b1a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b1p_y - 0.10799533335772074 * z_b1p_x));
+                * (0.38734722705858016 * z_b1a_y - 0.10799533335772074 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t733 = j5_alpha_b1 - j5_a_b1;
     let t740 = t694 + (t687 + 0.6804730991015498 * t733);
     let t741 = t695 + (0.12638968500295295 * t733 - t689);
@@ -2240,27 +2240,27 @@ fn branch_1(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t764;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t768 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t761 * t768 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t779 = 0.7217908346079124 * xv_b1_z
         + (0.6804730991015498 * xv_b1_x + 0.12638968500295295 * xv_b1_y);
     let t780 = 0.6804730991015498 * t779;
     let t781 = 0.12638968500295295 * t779;
     let t782 = 0.7217908346079124 * t779;
     let t804 = t780
-        + (j4_cos_b1p * (xv_b1_x - t780)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_x - t780)
+            - j4_sin_b1a
                 * (0.12638968500295295 * xv_b1_z - 0.7217908346079124 * xv_b1_y));
     let t805 = t781
-        + (j4_cos_b1p * (xv_b1_y - t781)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t781)
+            - j4_sin_b1a
                 * (0.7217908346079124 * xv_b1_x - 0.6804730991015498 * xv_b1_z));
     let t806 = t782
-        + (j4_cos_b1p * (xv_b1_z - t782)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_z - t782)
+            - j4_sin_b1a
                 * (0.6804730991015498 * xv_b1_y - 0.12638968500295295 * xv_b1_x));
     let t811 = 0.5181267383208565 * t804 - 0.8009340075892076 * t805
         - 0.300082319579281 * t806;
@@ -2268,28 +2268,28 @@ fn branch_1(
     let t813 = 0.8009340075892076 * t811;
     let t814 = 0.300082319579281 * t811;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t812
-        + (j5_cos_b1p * (t804 - t812)
-            - j5_sin_b1p * (0.300082319579281 * t805 - 0.8009340075892076 * t806));
+    let y6_b1a_x = t812
+        + (j5_cos_b1a * (t804 - t812)
+            - j5_sin_b1a * (0.300082319579281 * t805 - 0.8009340075892076 * t806));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t805 + t813)
-        + j5_sin_b1p * (0.300082319579281 * t804 + 0.5181267383208565 * t806) - t813;
+    let y6_b1a_y = j5_cos_b1a * (t805 + t813)
+        + j5_sin_b1a * (0.300082319579281 * t804 + 0.5181267383208565 * t806) - t813;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = j5_cos_b1p * (t806 + t814)
-        - j5_sin_b1p * (0.5181267383208565 * t805 + 0.8009340075892076 * t804) - t814;
+    let y6_b1a_z = j5_cos_b1a * (t806 + t814)
+        - j5_sin_b1a * (0.5181267383208565 * t805 + 0.8009340075892076 * t804) - t814;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b1p_y + 0.9941514009309421 * y6_b1p_x)
+            * (0.04207778902912386 * y6_b1a_y + 0.9941514009309421 * y6_b1a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b1p_z - 0.09946080483017306 * y6_b1p_y)
+                * (0.9941514009309421 * y6_b1a_z - 0.09946080483017306 * y6_b1a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b1p_x + 0.04207778902912386 * y6_b1p_z)),
-        0.09946080483017306 * y6_b1p_z
-            + (0.9941514009309421 * y6_b1p_y - 0.04207778902912386 * y6_b1p_x),
+                    * (0.09946080483017306 * y6_b1a_x + 0.04207778902912386 * y6_b1a_z)),
+        0.09946080483017306 * y6_b1a_z
+            + (0.9941514009309421 * y6_b1a_y - 0.04207778902912386 * y6_b1a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -2303,12 +2303,12 @@ fn branch_1(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -2395,16 +2395,16 @@ fn branch_2(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2413,67 +2413,67 @@ fn branch_2(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t173 = 0.9580721924635943 * w_p_z
-        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
-    let t177 = w_p_x - 0.28272467533220935 * t173;
-    let t178 = w_p_y - 0.04652345630215346 * t173;
-    let t179 = w_p_z - 0.9580721924635943 * t173;
+    let t173 = 0.9580721924635943 * w_a_z
+        + (0.28272467533220935 * w_a_x + 0.04652345630215346 * w_a_y);
+    let t177 = w_a_x - 0.28272467533220935 * t173;
+    let t178 = w_a_y - 0.04652345630215346 * t173;
+    let t179 = w_a_z - 0.9580721924635943 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_p - 0.30660204177019446),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_a - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+    let j2_inv_a = 1.0
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
-        - 0.3686182725083974 * j3_cos_psi_p;
-    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    let j3_cos_aa = 0.9295808567160389 * j3_sin_psi_a
+        - 0.3686182725083974 * j3_cos_psi_a;
+    let t244 = 0.9295808567160389 * j3_cos_psi_a + 0.3686182725083974 * j3_sin_psi_a;
     // θ3 = φ3 = φ0 + ψ
-    let q3_pp = j3_psi_p - 1.9483185102348586;
-    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+    let q3_aa = j3_psi_a - 1.9483185102348586;
+    let t264 = 0.059363684915989756 * j3_cos_aa + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_aa
         + 0.28405649725228804;
-    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+    let t267 = 0.005709671641624163 * j3_cos_aa + 0.07151313018083055 * t244
         + 0.12697460164967897;
-    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
-    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
-        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
-        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    let t272 = w_a_x * t264 + w_a_y * t265 - w_a_z * t267;
+    let t286 = 0.04652345630215346 * (w_a_x * t267 + w_a_z * t264)
+        - 0.28272467533220935 * (w_a_z * t265 + w_a_y * t267)
+        - 0.9580721924635943 * (w_a_y * t264 - w_a_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
-    let t288 = j2_inv_p * t272;
-    let t289 = j2_inv_p * t286;
+    let q2_aa = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_a * t272;
+    let t289 = j2_inv_a * t286;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let c23_aa = j3_cos_aa * t288 + t244 * t289;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2507,24 +2507,24 @@ fn branch_2(
     let t516 = 0.7796770767040355 * t515;
     let t517 = 0.111053440489627 * t515;
     let t518 = 0.616255457921199 * t515;
-    let t540 = j1_cos_p * (t516 - t467)
-        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t541 = j1_cos_p * (g6_y + t517)
-        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t542 = j1_cos_p * (g6_z + t518)
-        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t540 = j1_cos_a * (t516 - t467)
+        - j1_sin_a * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_a * (g6_y + t517)
+        - j1_sin_a * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_a * (g6_z + t518)
+        + j1_sin_a * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
     let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
         - 0.616255457921199 * gx_z;
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t572 = j1_cos_p * (t548 - t500)
-        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t573 = j1_cos_p * (gx_y + t549)
-        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t574 = j1_cos_p * (gx_z + t550)
-        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t572 = j1_cos_a * (t548 - t500)
+        - j1_sin_a * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_a * (gx_y + t549)
+        - j1_sin_a * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_a * (gx_z + t550)
+        + j1_sin_a * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t575 = t244 * t288 - j3_cos_aa * t289;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2532,15 +2532,15 @@ fn branch_2(
     let t583 = 0.9580721924635943 * t580;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t581
-        + (c23_pp * (t540 - t581)
+        + (c23_aa * (t540 - t581)
             + t575 * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t582
-        + (c23_pp * (t541 - t582)
+        + (c23_aa * (t541 - t582)
             + t575 * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t583
-        + (c23_pp * (t542 - t583)
+        + (c23_aa * (t542 - t583)
             + t575 * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
     let t612 = 0.9580721924635943 * t574
         + (0.28272467533220935 * t572 + 0.04652345630215346 * t573);
@@ -2549,15 +2549,15 @@ fn branch_2(
     let t615 = 0.9580721924635943 * t612;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t613
-        + (c23_pp * (t572 - t613)
+        + (c23_aa * (t572 - t613)
             + t575 * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t614
-        + (c23_pp * (t573 - t614)
+        + (c23_aa * (t573 - t614)
             + t575 * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t615
-        + (c23_pp * (t574 - t615)
+        + (c23_aa * (t574 - t615)
             + t575 * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7217908346079124 * v_b1_z
@@ -2591,25 +2591,25 @@ fn branch_2(
     let t781 = 0.12638968500295295 * t779;
     let t782 = 0.7217908346079124 * t779;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = 0.6812955618849657 * t650 + t687 - t694;
+    let z_b1b_x = 0.6812955618849657 * t650 + t687 - t694;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 0.12654244756220742 * t650 - t689 - t695;
+    let z_b1b_y = 0.12654244756220742 * t650 - t689 - t695;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t697 + (0.7226632366171314 * t650 - t691);
+    let z_b1b_z = t697 + (0.7226632366171314 * t650 - t691);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.1782469650210095
-        * (0.18582223530822034 * z_b1m_x + 0.4195179924567066 * z_b1m_y
-            - 0.7988699854176344 * z_b1m_z);
+    let j5_cos_b1b = 1.1782469650210095
+        * (0.18582223530822034 * z_b1b_x + 0.4195179924567066 * z_b1b_y
+            - 0.7988699854176344 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.1782469650210095
+    let j5_sin_b1b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b1m_z + 0.9155867701441429 * z_b1m_y)
+            * (0.10799533335772074 * z_b1b_z + 0.9155867701441429 * z_b1b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b1m_x + 0.38734722705858016 * z_b1m_z)
+                * (0.9155867701441429 * z_b1b_x + 0.38734722705858016 * z_b1b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b1m_y - 0.10799533335772074 * z_b1m_x));
+                * (0.38734722705858016 * z_b1b_y - 0.10799533335772074 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t887 = t687 + 0.6804730991015498 * t733 - t694;
     let t888 = 0.12638968500295295 * t733 - t689 - t695;
     let t889 = t697 + (0.7217908346079124 * t733 - t691);
@@ -2622,51 +2622,51 @@ fn branch_2(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t911;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t894 * t914 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t894 * t914 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t908 * t914 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t908 * t914 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
     let t932 = t780
-        + ((xv_b1_x - t780) * j4_cos_b1m
+        + ((xv_b1_x - t780) * j4_cos_b1b
             - (0.12638968500295295 * xv_b1_z - 0.7217908346079124 * xv_b1_y)
-                * j4_sin_b1m);
+                * j4_sin_b1b);
     let t933 = t781
-        + ((xv_b1_y - t781) * j4_cos_b1m
+        + ((xv_b1_y - t781) * j4_cos_b1b
             - (0.7217908346079124 * xv_b1_x - 0.6804730991015498 * xv_b1_z)
-                * j4_sin_b1m);
+                * j4_sin_b1b);
     let t934 = t782
-        + ((xv_b1_z - t782) * j4_cos_b1m
+        + ((xv_b1_z - t782) * j4_cos_b1b
             - (0.6804730991015498 * xv_b1_y - 0.12638968500295295 * xv_b1_x)
-                * j4_sin_b1m);
+                * j4_sin_b1b);
     let t939 = 0.5181267383208565 * t932 - 0.8009340075892076 * t933
         - 0.300082319579281 * t934;
     let t940 = 0.5181267383208565 * t939;
     let t941 = 0.8009340075892076 * t939;
     let t942 = 0.300082319579281 * t939;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t940
-        + (j5_cos_b1m * (t932 - t940)
-            - j5_sin_b1m * (0.300082319579281 * t933 - 0.8009340075892076 * t934));
+    let y6_b1b_x = t940
+        + (j5_cos_b1b * (t932 - t940)
+            - j5_sin_b1b * (0.300082319579281 * t933 - 0.8009340075892076 * t934));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t933 + t941)
-        + j5_sin_b1m * (0.300082319579281 * t932 + 0.5181267383208565 * t934) - t941;
+    let y6_b1b_y = j5_cos_b1b * (t933 + t941)
+        + j5_sin_b1b * (0.300082319579281 * t932 + 0.5181267383208565 * t934) - t941;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = j5_cos_b1m * (t934 + t942)
-        - j5_sin_b1m * (0.5181267383208565 * t933 + 0.8009340075892076 * t932) - t942;
+    let y6_b1b_z = j5_cos_b1b * (t934 + t942)
+        - j5_sin_b1b * (0.5181267383208565 * t933 + 0.8009340075892076 * t932) - t942;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b1m_y + 0.9941514009309421 * y6_b1m_x)
+            * (0.04207778902912386 * y6_b1b_y + 0.9941514009309421 * y6_b1b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b1m_z - 0.09946080483017306 * y6_b1m_y)
+                * (0.9941514009309421 * y6_b1b_z - 0.09946080483017306 * y6_b1b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b1m_x + 0.04207778902912386 * y6_b1m_z)),
-        0.09946080483017306 * y6_b1m_z
-            + (0.9941514009309421 * y6_b1m_y - 0.04207778902912386 * y6_b1m_x),
+                    * (0.09946080483017306 * y6_b1b_x + 0.04207778902912386 * y6_b1b_z)),
+        0.09946080483017306 * y6_b1b_z
+            + (0.9941514009309421 * y6_b1b_y - 0.04207778902912386 * y6_b1b_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -2680,12 +2680,12 @@ fn branch_2(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -2772,16 +2772,16 @@ fn branch_3(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2790,69 +2790,69 @@ fn branch_3(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t173 = 0.9580721924635943 * w_p_z
-        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
-    let t177 = w_p_x - 0.28272467533220935 * t173;
-    let t178 = w_p_y - 0.04652345630215346 * t173;
-    let t179 = w_p_z - 0.9580721924635943 * t173;
+    let t173 = 0.9580721924635943 * w_a_z
+        + (0.28272467533220935 * w_a_x + 0.04652345630215346 * w_a_y);
+    let t177 = w_a_x - 0.28272467533220935 * t173;
+    let t178 = w_a_y - 0.04652345630215346 * t173;
+    let t179 = w_a_z - 0.9580721924635943 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_p - 0.30660204177019446),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_a - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+    let j2_inv_a = 1.0
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t295 = 0.3686182725083974 * j3_cos_psi_a + 0.9295808567160389 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
-        - 0.9295808567160389 * j3_cos_psi_p;
+    let j3_sin_ab = 0.3686182725083974 * j3_sin_psi_a
+        - 0.9295808567160389 * j3_cos_psi_a;
     // θ3 = φ3 = φ0 − ψ
-    let q3_pm = -1.9483185102348586 - j3_psi_p;
+    let q3_ab = -1.9483185102348586 - j3_psi_a;
     let t307 = 0.38353760535766845
-        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
-    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_ab);
+    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_ab
         + 0.28405649725228804;
-    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_ab
         - 0.12697460164967897;
-    let t314 = w_p_z * t309 + (w_p_x * t307 + w_p_y * t308);
-    let t328 = 0.9580721924635943 * (w_p_y * t307 - w_p_x * t308)
-        + (0.28272467533220935 * (w_p_z * t308 - w_p_y * t309)
-            + 0.04652345630215346 * (w_p_x * t309 - w_p_z * t307));
+    let t314 = w_a_z * t309 + (w_a_x * t307 + w_a_y * t308);
+    let t328 = 0.9580721924635943 * (w_a_y * t307 - w_a_x * t308)
+        + (0.28272467533220935 * (w_a_z * t308 - w_a_y * t309)
+            + 0.04652345630215346 * (w_a_x * t309 - w_a_z * t307));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t328, t314);
-    let t331 = j2_inv_p * t314;
-    let t332 = j2_inv_p * t328;
+    let q2_ab = ::armforge_runtime::math::atan2(-t328, t314);
+    let t331 = j2_inv_a * t314;
+    let t332 = j2_inv_a * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t332 - t295 * t331;
+    let c23_ab = j3_sin_ab * t332 - t295 * t331;
     // sin(θ2 + φ3)
-    let s23_pm = t295 * t332 + j3_sin_pm * t331;
+    let s23_ab = t295 * t332 + j3_sin_ab * t331;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2886,23 +2886,23 @@ fn branch_3(
     let t516 = 0.7796770767040355 * t515;
     let t517 = 0.111053440489627 * t515;
     let t518 = 0.616255457921199 * t515;
-    let t540 = j1_cos_p * (t516 - t467)
-        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t541 = j1_cos_p * (g6_y + t517)
-        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t542 = j1_cos_p * (g6_z + t518)
-        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t540 = j1_cos_a * (t516 - t467)
+        - j1_sin_a * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_a * (g6_y + t517)
+        - j1_sin_a * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_a * (g6_z + t518)
+        + j1_sin_a * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
     let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
         - 0.616255457921199 * gx_z;
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t572 = j1_cos_p * (t548 - t500)
-        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t573 = j1_cos_p * (gx_y + t549)
-        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t574 = j1_cos_p * (gx_z + t550)
-        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t572 = j1_cos_a * (t548 - t500)
+        - j1_sin_a * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_a * (gx_y + t549)
+        - j1_sin_a * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_a * (gx_z + t550)
+        + j1_sin_a * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2915,28 +2915,28 @@ fn branch_3(
     let t615 = 0.9580721924635943 * t612;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581
-        + (c23_pm * (t540 - t581)
-            - s23_pm * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
+        + (c23_ab * (t540 - t581)
+            - s23_ab * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b2_y = t582
-        + (c23_pm * (t541 - t582)
-            - s23_pm * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
+        + (c23_ab * (t541 - t582)
+            - s23_ab * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b2_z = t583
-        + (c23_pm * (t542 - t583)
-            - s23_pm * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
+        + (c23_ab * (t542 - t583)
+            - s23_ab * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t613
-        + (c23_pm * (t572 - t613)
-            - s23_pm * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
+        + (c23_ab * (t572 - t613)
+            - s23_ab * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b2_y = t614
-        + (c23_pm * (t573 - t614)
-            - s23_pm * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
+        + (c23_ab * (t573 - t614)
+            - s23_ab * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b2_z = t615
-        + (c23_pm * (t574 - t615)
-            - s23_pm * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
+        + (c23_ab * (t574 - t615)
+            - s23_ab * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7217908346079124 * v_b2_z
         + (0.6804730991015498 * v_b2_x + 0.12638968500295295 * v_b2_y);
@@ -2963,25 +2963,25 @@ fn branch_3(
     let t1049 = 0.5781770768749814 * j5_gamma_b2;
     let t1050 = 0.6104999215680328 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t1048 + (0.6812955618849657 * t1016 + t1045);
+    let z_b2a_x = t1048 + (0.6812955618849657 * t1016 + t1045);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t1049 + (0.12654244756220742 * t1016 - t1046);
+    let z_b2a_y = t1049 + (0.12654244756220742 * t1016 - t1046);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.7226632366171314 * t1016 - t1047 - t1050;
+    let z_b2a_z = 0.7226632366171314 * t1016 - t1047 - t1050;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.1782469650210095
-        * (0.18582223530822034 * z_b2p_x + 0.4195179924567066 * z_b2p_y
-            - 0.7988699854176344 * z_b2p_z);
+    let j5_cos_b2a = 1.1782469650210095
+        * (0.18582223530822034 * z_b2a_x + 0.4195179924567066 * z_b2a_y
+            - 0.7988699854176344 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.1782469650210095
+    let j5_sin_b2a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b2p_z + 0.9155867701441429 * z_b2p_y)
+            * (0.10799533335772074 * z_b2a_z + 0.9155867701441429 * z_b2a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b2p_x + 0.38734722705858016 * z_b2p_z)
+                * (0.9155867701441429 * z_b2a_x + 0.38734722705858016 * z_b2a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b2p_y - 0.10799533335772074 * z_b2p_x));
+                * (0.38734722705858016 * z_b2a_y - 0.10799533335772074 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t1079 = j5_alpha_b2 - j5_a_b2;
     let t1086 = t1048 + (t1045 + 0.6804730991015498 * t1079);
     let t1087 = t1049 + (0.12638968500295295 * t1079 - t1046);
@@ -2995,27 +2995,27 @@ fn branch_3(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1110;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1113 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1107 * t1113 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t1124 = 0.7217908346079124 * xv_b2_z
         + (0.6804730991015498 * xv_b2_x + 0.12638968500295295 * xv_b2_y);
     let t1125 = 0.6804730991015498 * t1124;
     let t1126 = 0.12638968500295295 * t1124;
     let t1127 = 0.7217908346079124 * t1124;
     let t1149 = t1125
-        + (j4_cos_b2p * (xv_b2_x - t1125)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_x - t1125)
+            - j4_sin_b2a
                 * (0.12638968500295295 * xv_b2_z - 0.7217908346079124 * xv_b2_y));
     let t1150 = t1126
-        + (j4_cos_b2p * (xv_b2_y - t1126)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t1126)
+            - j4_sin_b2a
                 * (0.7217908346079124 * xv_b2_x - 0.6804730991015498 * xv_b2_z));
     let t1151 = t1127
-        + (j4_cos_b2p * (xv_b2_z - t1127)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_z - t1127)
+            - j4_sin_b2a
                 * (0.6804730991015498 * xv_b2_y - 0.12638968500295295 * xv_b2_x));
     let t1156 = 0.5181267383208565 * t1149 - 0.8009340075892076 * t1150
         - 0.300082319579281 * t1151;
@@ -3023,28 +3023,28 @@ fn branch_3(
     let t1158 = 0.8009340075892076 * t1156;
     let t1159 = 0.300082319579281 * t1156;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1157
-        + (j5_cos_b2p * (t1149 - t1157)
-            - j5_sin_b2p * (0.300082319579281 * t1150 - 0.8009340075892076 * t1151));
+    let y6_b2a_x = t1157
+        + (j5_cos_b2a * (t1149 - t1157)
+            - j5_sin_b2a * (0.300082319579281 * t1150 - 0.8009340075892076 * t1151));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t1150 + t1158)
-        + j5_sin_b2p * (0.300082319579281 * t1149 + 0.5181267383208565 * t1151) - t1158;
+    let y6_b2a_y = j5_cos_b2a * (t1150 + t1158)
+        + j5_sin_b2a * (0.300082319579281 * t1149 + 0.5181267383208565 * t1151) - t1158;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = j5_cos_b2p * (t1151 + t1159)
-        - j5_sin_b2p * (0.5181267383208565 * t1150 + 0.8009340075892076 * t1149) - t1159;
+    let y6_b2a_z = j5_cos_b2a * (t1151 + t1159)
+        - j5_sin_b2a * (0.5181267383208565 * t1150 + 0.8009340075892076 * t1149) - t1159;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b2p_y + 0.9941514009309421 * y6_b2p_x)
+            * (0.04207778902912386 * y6_b2a_y + 0.9941514009309421 * y6_b2a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b2p_z - 0.09946080483017306 * y6_b2p_y)
+                * (0.9941514009309421 * y6_b2a_z - 0.09946080483017306 * y6_b2a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b2p_x + 0.04207778902912386 * y6_b2p_z)),
-        0.09946080483017306 * y6_b2p_z
-            + (0.9941514009309421 * y6_b2p_y - 0.04207778902912386 * y6_b2p_x),
+                    * (0.09946080483017306 * y6_b2a_x + 0.04207778902912386 * y6_b2a_z)),
+        0.09946080483017306 * y6_b2a_z
+            + (0.9941514009309421 * y6_b2a_y - 0.04207778902912386 * y6_b2a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3058,12 +3058,12 @@ fn branch_3(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -3150,16 +3150,16 @@ fn branch_4(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -3168,69 +3168,69 @@ fn branch_4(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t173 = 0.9580721924635943 * w_p_z
-        + (0.28272467533220935 * w_p_x + 0.04652345630215346 * w_p_y);
-    let t177 = w_p_x - 0.28272467533220935 * t173;
-    let t178 = w_p_y - 0.04652345630215346 * t173;
-    let t179 = w_p_z - 0.9580721924635943 * t173;
+    let t173 = 0.9580721924635943 * w_a_z
+        + (0.28272467533220935 * w_a_x + 0.04652345630215346 * w_a_y);
+    let t177 = w_a_x - 0.28272467533220935 * t173;
+    let t178 = w_a_y - 0.04652345630215346 * t173;
+    let t179 = w_a_z - 0.9580721924635943 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_p - 0.30660204177019446),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_a - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
+    let j2_inv_a = 1.0
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t295 = 0.3686182725083974 * j3_cos_psi_a + 0.9295808567160389 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
-        - 0.9295808567160389 * j3_cos_psi_p;
+    let j3_sin_ab = 0.3686182725083974 * j3_sin_psi_a
+        - 0.9295808567160389 * j3_cos_psi_a;
     // θ3 = φ3 = φ0 − ψ
-    let q3_pm = -1.9483185102348586 - j3_psi_p;
+    let q3_ab = -1.9483185102348586 - j3_psi_a;
     let t307 = 0.38353760535766845
-        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
-    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_ab);
+    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_ab
         + 0.28405649725228804;
-    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_ab
         - 0.12697460164967897;
-    let t314 = w_p_z * t309 + (w_p_x * t307 + w_p_y * t308);
-    let t328 = 0.9580721924635943 * (w_p_y * t307 - w_p_x * t308)
-        + (0.28272467533220935 * (w_p_z * t308 - w_p_y * t309)
-            + 0.04652345630215346 * (w_p_x * t309 - w_p_z * t307));
+    let t314 = w_a_z * t309 + (w_a_x * t307 + w_a_y * t308);
+    let t328 = 0.9580721924635943 * (w_a_y * t307 - w_a_x * t308)
+        + (0.28272467533220935 * (w_a_z * t308 - w_a_y * t309)
+            + 0.04652345630215346 * (w_a_x * t309 - w_a_z * t307));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t328, t314);
-    let t331 = j2_inv_p * t314;
-    let t332 = j2_inv_p * t328;
+    let q2_ab = ::armforge_runtime::math::atan2(-t328, t314);
+    let t331 = j2_inv_a * t314;
+    let t332 = j2_inv_a * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t332 - t295 * t331;
+    let c23_ab = j3_sin_ab * t332 - t295 * t331;
     // sin(θ2 + φ3)
-    let s23_pm = t295 * t332 + j3_sin_pm * t331;
+    let s23_ab = t295 * t332 + j3_sin_ab * t331;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3264,23 +3264,23 @@ fn branch_4(
     let t516 = 0.7796770767040355 * t515;
     let t517 = 0.111053440489627 * t515;
     let t518 = 0.616255457921199 * t515;
-    let t540 = j1_cos_p * (t516 - t467)
-        - j1_sin_p * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t541 = j1_cos_p * (g6_y + t517)
-        - j1_sin_p * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t542 = j1_cos_p * (g6_z + t518)
-        + j1_sin_p * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t540 = j1_cos_a * (t516 - t467)
+        - j1_sin_a * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t541 = j1_cos_a * (g6_y + t517)
+        - j1_sin_a * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t542 = j1_cos_a * (g6_z + t518)
+        + j1_sin_a * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
     let t547 = 0.7796770767040355 * t500 - 0.111053440489627 * gx_y
         - 0.616255457921199 * gx_z;
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t572 = j1_cos_p * (t548 - t500)
-        - j1_sin_p * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t573 = j1_cos_p * (gx_y + t549)
-        - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t574 = j1_cos_p * (gx_z + t550)
-        + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t572 = j1_cos_a * (t548 - t500)
+        - j1_sin_a * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t573 = j1_cos_a * (gx_y + t549)
+        - j1_sin_a * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t574 = j1_cos_a * (gx_z + t550)
+        + j1_sin_a * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -3293,28 +3293,28 @@ fn branch_4(
     let t615 = 0.9580721924635943 * t612;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581
-        + (c23_pm * (t540 - t581)
-            - s23_pm * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
+        + (c23_ab * (t540 - t581)
+            - s23_ab * (0.9580721924635943 * t541 - 0.04652345630215346 * t542));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b2_y = t582
-        + (c23_pm * (t541 - t582)
-            - s23_pm * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
+        + (c23_ab * (t541 - t582)
+            - s23_ab * (0.28272467533220935 * t542 - 0.9580721924635943 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b2_z = t583
-        + (c23_pm * (t542 - t583)
-            - s23_pm * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
+        + (c23_ab * (t542 - t583)
+            - s23_ab * (0.04652345630215346 * t540 - 0.28272467533220935 * t541));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t613
-        + (c23_pm * (t572 - t613)
-            - s23_pm * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
+        + (c23_ab * (t572 - t613)
+            - s23_ab * (0.9580721924635943 * t573 - 0.04652345630215346 * t574));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b2_y = t614
-        + (c23_pm * (t573 - t614)
-            - s23_pm * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
+        + (c23_ab * (t573 - t614)
+            - s23_ab * (0.28272467533220935 * t574 - 0.9580721924635943 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b2_z = t615
-        + (c23_pm * (t574 - t615)
-            - s23_pm * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
+        + (c23_ab * (t574 - t615)
+            - s23_ab * (0.04652345630215346 * t572 - 0.28272467533220935 * t573));
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7217908346079124 * v_b2_z
         + (0.6804730991015498 * v_b2_x + 0.12638968500295295 * v_b2_y);
@@ -3347,25 +3347,25 @@ fn branch_4(
     let t1126 = 0.12638968500295295 * t1124;
     let t1127 = 0.7217908346079124 * t1124;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = 0.6812955618849657 * t1016 + t1045 - t1048;
+    let z_b2b_x = 0.6812955618849657 * t1016 + t1045 - t1048;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 0.12654244756220742 * t1016 - t1046 - t1049;
+    let z_b2b_y = 0.12654244756220742 * t1016 - t1046 - t1049;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t1050 + (0.7226632366171314 * t1016 - t1047);
+    let z_b2b_z = t1050 + (0.7226632366171314 * t1016 - t1047);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.1782469650210095
-        * (0.18582223530822034 * z_b2m_x + 0.4195179924567066 * z_b2m_y
-            - 0.7988699854176344 * z_b2m_z);
+    let j5_cos_b2b = 1.1782469650210095
+        * (0.18582223530822034 * z_b2b_x + 0.4195179924567066 * z_b2b_y
+            - 0.7988699854176344 * z_b2b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.1782469650210095
+    let j5_sin_b2b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b2m_z + 0.9155867701441429 * z_b2m_y)
+            * (0.10799533335772074 * z_b2b_z + 0.9155867701441429 * z_b2b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b2m_x + 0.38734722705858016 * z_b2m_z)
+                * (0.9155867701441429 * z_b2b_x + 0.38734722705858016 * z_b2b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b2m_y - 0.10799533335772074 * z_b2m_x));
+                * (0.38734722705858016 * z_b2b_y - 0.10799533335772074 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t1229 = t1045 + 0.6804730991015498 * t1079 - t1048;
     let t1230 = 0.12638968500295295 * t1079 - t1046 - t1049;
     let t1231 = t1050 + (0.7217908346079124 * t1079 - t1047);
@@ -3378,51 +3378,51 @@ fn branch_4(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1253;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1236 * t1256 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1236 * t1256 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1250 * t1256 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1250 * t1256 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
     let t1272 = t1125
-        + ((xv_b2_x - t1125) * j4_cos_b2m
+        + ((xv_b2_x - t1125) * j4_cos_b2b
             - (0.12638968500295295 * xv_b2_z - 0.7217908346079124 * xv_b2_y)
-                * j4_sin_b2m);
+                * j4_sin_b2b);
     let t1273 = t1126
-        + ((xv_b2_y - t1126) * j4_cos_b2m
+        + ((xv_b2_y - t1126) * j4_cos_b2b
             - (0.7217908346079124 * xv_b2_x - 0.6804730991015498 * xv_b2_z)
-                * j4_sin_b2m);
+                * j4_sin_b2b);
     let t1274 = t1127
-        + ((xv_b2_z - t1127) * j4_cos_b2m
+        + ((xv_b2_z - t1127) * j4_cos_b2b
             - (0.6804730991015498 * xv_b2_y - 0.12638968500295295 * xv_b2_x)
-                * j4_sin_b2m);
+                * j4_sin_b2b);
     let t1279 = 0.5181267383208565 * t1272 - 0.8009340075892076 * t1273
         - 0.300082319579281 * t1274;
     let t1280 = 0.5181267383208565 * t1279;
     let t1281 = 0.8009340075892076 * t1279;
     let t1282 = 0.300082319579281 * t1279;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1280
-        + (j5_cos_b2m * (t1272 - t1280)
-            - j5_sin_b2m * (0.300082319579281 * t1273 - 0.8009340075892076 * t1274));
+    let y6_b2b_x = t1280
+        + (j5_cos_b2b * (t1272 - t1280)
+            - j5_sin_b2b * (0.300082319579281 * t1273 - 0.8009340075892076 * t1274));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t1273 + t1281)
-        + j5_sin_b2m * (0.300082319579281 * t1272 + 0.5181267383208565 * t1274) - t1281;
+    let y6_b2b_y = j5_cos_b2b * (t1273 + t1281)
+        + j5_sin_b2b * (0.300082319579281 * t1272 + 0.5181267383208565 * t1274) - t1281;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = j5_cos_b2m * (t1274 + t1282)
-        - j5_sin_b2m * (0.5181267383208565 * t1273 + 0.8009340075892076 * t1272) - t1282;
+    let y6_b2b_z = j5_cos_b2b * (t1274 + t1282)
+        - j5_sin_b2b * (0.5181267383208565 * t1273 + 0.8009340075892076 * t1272) - t1282;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b2m_y + 0.9941514009309421 * y6_b2m_x)
+            * (0.04207778902912386 * y6_b2b_y + 0.9941514009309421 * y6_b2b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b2m_z - 0.09946080483017306 * y6_b2m_y)
+                * (0.9941514009309421 * y6_b2b_z - 0.09946080483017306 * y6_b2b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b2m_x + 0.04207778902912386 * y6_b2m_z)),
-        0.09946080483017306 * y6_b2m_z
-            + (0.9941514009309421 * y6_b2m_y - 0.04207778902912386 * y6_b2m_x),
+                    * (0.09946080483017306 * y6_b2b_x + 0.04207778902912386 * y6_b2b_z)),
+        0.09946080483017306 * y6_b2b_z
+            + (0.9941514009309421 * y6_b2b_y - 0.04207778902912386 * y6_b2b_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3436,12 +3436,12 @@ fn branch_4(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -3528,16 +3528,16 @@ fn branch_5(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3546,67 +3546,67 @@ fn branch_5(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t205 = 0.9580721924635943 * w_m_z
-        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
-    let t209 = w_m_x - 0.28272467533220935 * t205;
-    let t210 = w_m_y - 0.04652345630215346 * t205;
-    let t211 = w_m_z - 0.9580721924635943 * t205;
+    let t205 = 0.9580721924635943 * w_b_z
+        + (0.28272467533220935 * w_b_x + 0.04652345630215346 * w_b_y);
+    let t209 = w_b_x - 0.28272467533220935 * t205;
+    let t210 = w_b_y - 0.04652345630215346 * t205;
+    let t211 = w_b_z - 0.9580721924635943 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_m - 0.30660204177019446),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_b - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+    let j2_inv_b = 1.0
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mp = 0.9295808567160389 * j3_sin_psi_m
-        - 0.3686182725083974 * j3_cos_psi_m;
-    let t360 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
+    let j3_cos_ba = 0.9295808567160389 * j3_sin_psi_b
+        - 0.3686182725083974 * j3_cos_psi_b;
+    let t360 = 0.9295808567160389 * j3_cos_psi_b + 0.3686182725083974 * j3_sin_psi_b;
     // θ3 = φ3 = φ0 + ψ
-    let q3_mp = j3_psi_m - 1.9483185102348586;
-    let t371 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t360
+    let q3_ba = j3_psi_b - 1.9483185102348586;
+    let t371 = 0.059363684915989756 * j3_cos_ba + 0.23271273627618366 * t360
         + 0.38353760535766845;
-    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_mp
+    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_ba
         + 0.28405649725228804;
-    let t373 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t360
+    let t373 = 0.005709671641624163 * j3_cos_ba + 0.07151313018083055 * t360
         + 0.12697460164967897;
-    let t378 = w_m_x * t371 + w_m_y * t372 - w_m_z * t373;
-    let t392 = 0.04652345630215346 * (w_m_x * t373 + w_m_z * t371)
-        - 0.28272467533220935 * (w_m_z * t372 + w_m_y * t373)
-        - 0.9580721924635943 * (w_m_y * t371 - w_m_x * t372);
+    let t378 = w_b_x * t371 + w_b_y * t372 - w_b_z * t373;
+    let t392 = 0.04652345630215346 * (w_b_x * t373 + w_b_z * t371)
+        - 0.28272467533220935 * (w_b_z * t372 + w_b_y * t373)
+        - 0.9580721924635943 * (w_b_y * t371 - w_b_x * t372);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
-    let t394 = j2_inv_m * t378;
-    let t395 = j2_inv_m * t392;
+    let q2_ba = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_b * t378;
+    let t395 = j2_inv_b * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t394 + t360 * t395;
+    let c23_ba = j3_cos_ba * t394 + t360 * t395;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3645,19 +3645,19 @@ fn branch_5(
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t1336 = j1_cos_m * (t516 - t467)
-        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t1337 = j1_cos_m * (g6_y + t517)
-        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t1338 = j1_cos_m * (g6_z + t518)
-        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
-    let t1348 = j1_cos_m * (t548 - t500)
-        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t1349 = j1_cos_m * (gx_y + t549)
-        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t1350 = j1_cos_m * (gx_z + t550)
-        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t1351 = t360 * t394 - j3_cos_mp * t395;
+    let t1336 = j1_cos_b * (t516 - t467)
+        - j1_sin_b * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_b * (g6_y + t517)
+        - j1_sin_b * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_b * (g6_z + t518)
+        + j1_sin_b * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_b * (t548 - t500)
+        - j1_sin_b * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_b * (gx_y + t549)
+        - j1_sin_b * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_b * (gx_z + t550)
+        + j1_sin_b * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1351 = t360 * t394 - j3_cos_ba * t395;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -3665,15 +3665,15 @@ fn branch_5(
     let t1359 = 0.9580721924635943 * t1356;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1357
-        + (c23_mp * (t1336 - t1357)
+        + (c23_ba * (t1336 - t1357)
             + t1351 * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1358
-        + (c23_mp * (t1337 - t1358)
+        + (c23_ba * (t1337 - t1358)
             + t1351 * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1359
-        + (c23_mp * (t1338 - t1359)
+        + (c23_ba * (t1338 - t1359)
             + t1351 * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
     let t1388 = 0.9580721924635943 * t1350
         + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
@@ -3682,15 +3682,15 @@ fn branch_5(
     let t1391 = 0.9580721924635943 * t1388;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1389
-        + (c23_mp * (t1348 - t1389)
+        + (c23_ba * (t1348 - t1389)
             + t1351 * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1390
-        + (c23_mp * (t1349 - t1390)
+        + (c23_ba * (t1349 - t1390)
             + t1351 * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1391
-        + (c23_mp * (t1350 - t1391)
+        + (c23_ba * (t1350 - t1391)
             + t1351 * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7217908346079124 * v_b3_z
@@ -3718,25 +3718,25 @@ fn branch_5(
     let t1454 = 0.5781770768749814 * j5_gamma_b3;
     let t1455 = 0.6104999215680328 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1453 + (0.6812955618849657 * t1421 + t1450);
+    let z_b3a_x = t1453 + (0.6812955618849657 * t1421 + t1450);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1454 + (0.12654244756220742 * t1421 - t1451);
+    let z_b3a_y = t1454 + (0.12654244756220742 * t1421 - t1451);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.7226632366171314 * t1421 - t1452 - t1455;
+    let z_b3a_z = 0.7226632366171314 * t1421 - t1452 - t1455;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = 1.1782469650210095
-        * (0.18582223530822034 * z_b3p_x + 0.4195179924567066 * z_b3p_y
-            - 0.7988699854176344 * z_b3p_z);
+    let j5_cos_b3a = 1.1782469650210095
+        * (0.18582223530822034 * z_b3a_x + 0.4195179924567066 * z_b3a_y
+            - 0.7988699854176344 * z_b3a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 1.1782469650210095
+    let j5_sin_b3a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b3p_z + 0.9155867701441429 * z_b3p_y)
+            * (0.10799533335772074 * z_b3a_z + 0.9155867701441429 * z_b3a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b3p_x + 0.38734722705858016 * z_b3p_z)
+                * (0.9155867701441429 * z_b3a_x + 0.38734722705858016 * z_b3a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b3p_y - 0.10799533335772074 * z_b3p_x));
+                * (0.38734722705858016 * z_b3a_y - 0.10799533335772074 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1484 = j5_alpha_b3 - j5_a_b3;
     let t1491 = t1453 + (t1450 + 0.6804730991015498 * t1484);
     let t1492 = t1454 + (0.12638968500295295 * t1484 - t1451);
@@ -3750,27 +3750,27 @@ fn branch_5(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1515;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1518 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1512 * t1518 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1529 = 0.7217908346079124 * xv_b3_z
         + (0.6804730991015498 * xv_b3_x + 0.12638968500295295 * xv_b3_y);
     let t1530 = 0.6804730991015498 * t1529;
     let t1531 = 0.12638968500295295 * t1529;
     let t1532 = 0.7217908346079124 * t1529;
     let t1554 = t1530
-        + (j4_cos_b3p * (xv_b3_x - t1530)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_x - t1530)
+            - j4_sin_b3a
                 * (0.12638968500295295 * xv_b3_z - 0.7217908346079124 * xv_b3_y));
     let t1555 = t1531
-        + (j4_cos_b3p * (xv_b3_y - t1531)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1531)
+            - j4_sin_b3a
                 * (0.7217908346079124 * xv_b3_x - 0.6804730991015498 * xv_b3_z));
     let t1556 = t1532
-        + (j4_cos_b3p * (xv_b3_z - t1532)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_z - t1532)
+            - j4_sin_b3a
                 * (0.6804730991015498 * xv_b3_y - 0.12638968500295295 * xv_b3_x));
     let t1561 = 0.5181267383208565 * t1554 - 0.8009340075892076 * t1555
         - 0.300082319579281 * t1556;
@@ -3778,28 +3778,28 @@ fn branch_5(
     let t1563 = 0.8009340075892076 * t1561;
     let t1564 = 0.300082319579281 * t1561;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1562
-        + (j5_cos_b3p * (t1554 - t1562)
-            - j5_sin_b3p * (0.300082319579281 * t1555 - 0.8009340075892076 * t1556));
+    let y6_b3a_x = t1562
+        + (j5_cos_b3a * (t1554 - t1562)
+            - j5_sin_b3a * (0.300082319579281 * t1555 - 0.8009340075892076 * t1556));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = j5_cos_b3p * (t1555 + t1563)
-        + j5_sin_b3p * (0.300082319579281 * t1554 + 0.5181267383208565 * t1556) - t1563;
+    let y6_b3a_y = j5_cos_b3a * (t1555 + t1563)
+        + j5_sin_b3a * (0.300082319579281 * t1554 + 0.5181267383208565 * t1556) - t1563;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = j5_cos_b3p * (t1556 + t1564)
-        - j5_sin_b3p * (0.5181267383208565 * t1555 + 0.8009340075892076 * t1554) - t1564;
+    let y6_b3a_z = j5_cos_b3a * (t1556 + t1564)
+        - j5_sin_b3a * (0.5181267383208565 * t1555 + 0.8009340075892076 * t1554) - t1564;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b3p_y + 0.9941514009309421 * y6_b3p_x)
+            * (0.04207778902912386 * y6_b3a_y + 0.9941514009309421 * y6_b3a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b3p_z - 0.09946080483017306 * y6_b3p_y)
+                * (0.9941514009309421 * y6_b3a_z - 0.09946080483017306 * y6_b3a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b3p_x + 0.04207778902912386 * y6_b3p_z)),
-        0.09946080483017306 * y6_b3p_z
-            + (0.9941514009309421 * y6_b3p_y - 0.04207778902912386 * y6_b3p_x),
+                    * (0.09946080483017306 * y6_b3a_x + 0.04207778902912386 * y6_b3a_z)),
+        0.09946080483017306 * y6_b3a_z
+            + (0.9941514009309421 * y6_b3a_y - 0.04207778902912386 * y6_b3a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3813,12 +3813,12 @@ fn branch_5(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -3905,16 +3905,16 @@ fn branch_6(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3923,67 +3923,67 @@ fn branch_6(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t205 = 0.9580721924635943 * w_m_z
-        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
-    let t209 = w_m_x - 0.28272467533220935 * t205;
-    let t210 = w_m_y - 0.04652345630215346 * t205;
-    let t211 = w_m_z - 0.9580721924635943 * t205;
+    let t205 = 0.9580721924635943 * w_b_z
+        + (0.28272467533220935 * w_b_x + 0.04652345630215346 * w_b_y);
+    let t209 = w_b_x - 0.28272467533220935 * t205;
+    let t210 = w_b_y - 0.04652345630215346 * t205;
+    let t211 = w_b_z - 0.9580721924635943 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_m - 0.30660204177019446),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_b - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+    let j2_inv_b = 1.0
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mp = 0.9295808567160389 * j3_sin_psi_m
-        - 0.3686182725083974 * j3_cos_psi_m;
-    let t360 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
+    let j3_cos_ba = 0.9295808567160389 * j3_sin_psi_b
+        - 0.3686182725083974 * j3_cos_psi_b;
+    let t360 = 0.9295808567160389 * j3_cos_psi_b + 0.3686182725083974 * j3_sin_psi_b;
     // θ3 = φ3 = φ0 + ψ
-    let q3_mp = j3_psi_m - 1.9483185102348586;
-    let t371 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t360
+    let q3_ba = j3_psi_b - 1.9483185102348586;
+    let t371 = 0.059363684915989756 * j3_cos_ba + 0.23271273627618366 * t360
         + 0.38353760535766845;
-    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_mp
+    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_ba
         + 0.28405649725228804;
-    let t373 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t360
+    let t373 = 0.005709671641624163 * j3_cos_ba + 0.07151313018083055 * t360
         + 0.12697460164967897;
-    let t378 = w_m_x * t371 + w_m_y * t372 - w_m_z * t373;
-    let t392 = 0.04652345630215346 * (w_m_x * t373 + w_m_z * t371)
-        - 0.28272467533220935 * (w_m_z * t372 + w_m_y * t373)
-        - 0.9580721924635943 * (w_m_y * t371 - w_m_x * t372);
+    let t378 = w_b_x * t371 + w_b_y * t372 - w_b_z * t373;
+    let t392 = 0.04652345630215346 * (w_b_x * t373 + w_b_z * t371)
+        - 0.28272467533220935 * (w_b_z * t372 + w_b_y * t373)
+        - 0.9580721924635943 * (w_b_y * t371 - w_b_x * t372);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
-    let t394 = j2_inv_m * t378;
-    let t395 = j2_inv_m * t392;
+    let q2_ba = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_b * t378;
+    let t395 = j2_inv_b * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t394 + t360 * t395;
+    let c23_ba = j3_cos_ba * t394 + t360 * t395;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -4022,19 +4022,19 @@ fn branch_6(
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t1336 = j1_cos_m * (t516 - t467)
-        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t1337 = j1_cos_m * (g6_y + t517)
-        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t1338 = j1_cos_m * (g6_z + t518)
-        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
-    let t1348 = j1_cos_m * (t548 - t500)
-        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t1349 = j1_cos_m * (gx_y + t549)
-        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t1350 = j1_cos_m * (gx_z + t550)
-        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t1351 = t360 * t394 - j3_cos_mp * t395;
+    let t1336 = j1_cos_b * (t516 - t467)
+        - j1_sin_b * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_b * (g6_y + t517)
+        - j1_sin_b * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_b * (g6_z + t518)
+        + j1_sin_b * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_b * (t548 - t500)
+        - j1_sin_b * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_b * (gx_y + t549)
+        - j1_sin_b * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_b * (gx_z + t550)
+        + j1_sin_b * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1351 = t360 * t394 - j3_cos_ba * t395;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -4042,15 +4042,15 @@ fn branch_6(
     let t1359 = 0.9580721924635943 * t1356;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1357
-        + (c23_mp * (t1336 - t1357)
+        + (c23_ba * (t1336 - t1357)
             + t1351 * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1358
-        + (c23_mp * (t1337 - t1358)
+        + (c23_ba * (t1337 - t1358)
             + t1351 * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1359
-        + (c23_mp * (t1338 - t1359)
+        + (c23_ba * (t1338 - t1359)
             + t1351 * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
     let t1388 = 0.9580721924635943 * t1350
         + (0.28272467533220935 * t1348 + 0.04652345630215346 * t1349);
@@ -4059,15 +4059,15 @@ fn branch_6(
     let t1391 = 0.9580721924635943 * t1388;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1389
-        + (c23_mp * (t1348 - t1389)
+        + (c23_ba * (t1348 - t1389)
             + t1351 * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1390
-        + (c23_mp * (t1349 - t1390)
+        + (c23_ba * (t1349 - t1390)
             + t1351 * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1391
-        + (c23_mp * (t1350 - t1391)
+        + (c23_ba * (t1350 - t1391)
             + t1351 * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7217908346079124 * v_b3_z
@@ -4101,25 +4101,25 @@ fn branch_6(
     let t1531 = 0.12638968500295295 * t1529;
     let t1532 = 0.7217908346079124 * t1529;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = 0.6812955618849657 * t1421 + t1450 - t1453;
+    let z_b3b_x = 0.6812955618849657 * t1421 + t1450 - t1453;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = 0.12654244756220742 * t1421 - t1451 - t1454;
+    let z_b3b_y = 0.12654244756220742 * t1421 - t1451 - t1454;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1455 + (0.7226632366171314 * t1421 - t1452);
+    let z_b3b_z = t1455 + (0.7226632366171314 * t1421 - t1452);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3m = 1.1782469650210095
-        * (0.18582223530822034 * z_b3m_x + 0.4195179924567066 * z_b3m_y
-            - 0.7988699854176344 * z_b3m_z);
+    let j5_cos_b3b = 1.1782469650210095
+        * (0.18582223530822034 * z_b3b_x + 0.4195179924567066 * z_b3b_y
+            - 0.7988699854176344 * z_b3b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3m = 1.1782469650210095
+    let j5_sin_b3b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b3m_z + 0.9155867701441429 * z_b3m_y)
+            * (0.10799533335772074 * z_b3b_z + 0.9155867701441429 * z_b3b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b3m_x + 0.38734722705858016 * z_b3m_z)
+                * (0.9155867701441429 * z_b3b_x + 0.38734722705858016 * z_b3b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b3m_y - 0.10799533335772074 * z_b3m_x));
+                * (0.38734722705858016 * z_b3b_y - 0.10799533335772074 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
     let t1634 = t1450 + 0.6804730991015498 * t1484 - t1453;
     let t1635 = 0.12638968500295295 * t1484 - t1451 - t1454;
     let t1636 = t1455 + (0.7217908346079124 * t1484 - t1452);
@@ -4132,51 +4132,51 @@ fn branch_6(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1658;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1641 * t1661 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1641 * t1661 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1655 * t1661 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1655 * t1661 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
+    let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
     let t1677 = t1530
-        + ((xv_b3_x - t1530) * j4_cos_b3m
+        + ((xv_b3_x - t1530) * j4_cos_b3b
             - (0.12638968500295295 * xv_b3_z - 0.7217908346079124 * xv_b3_y)
-                * j4_sin_b3m);
+                * j4_sin_b3b);
     let t1678 = t1531
-        + ((xv_b3_y - t1531) * j4_cos_b3m
+        + ((xv_b3_y - t1531) * j4_cos_b3b
             - (0.7217908346079124 * xv_b3_x - 0.6804730991015498 * xv_b3_z)
-                * j4_sin_b3m);
+                * j4_sin_b3b);
     let t1679 = t1532
-        + ((xv_b3_z - t1532) * j4_cos_b3m
+        + ((xv_b3_z - t1532) * j4_cos_b3b
             - (0.6804730991015498 * xv_b3_y - 0.12638968500295295 * xv_b3_x)
-                * j4_sin_b3m);
+                * j4_sin_b3b);
     let t1684 = 0.5181267383208565 * t1677 - 0.8009340075892076 * t1678
         - 0.300082319579281 * t1679;
     let t1685 = 0.5181267383208565 * t1684;
     let t1686 = 0.8009340075892076 * t1684;
     let t1687 = 0.300082319579281 * t1684;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1685
-        + (j5_cos_b3m * (t1677 - t1685)
-            - j5_sin_b3m * (0.300082319579281 * t1678 - 0.8009340075892076 * t1679));
+    let y6_b3b_x = t1685
+        + (j5_cos_b3b * (t1677 - t1685)
+            - j5_sin_b3b * (0.300082319579281 * t1678 - 0.8009340075892076 * t1679));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = j5_cos_b3m * (t1678 + t1686)
-        + j5_sin_b3m * (0.300082319579281 * t1677 + 0.5181267383208565 * t1679) - t1686;
+    let y6_b3b_y = j5_cos_b3b * (t1678 + t1686)
+        + j5_sin_b3b * (0.300082319579281 * t1677 + 0.5181267383208565 * t1679) - t1686;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = j5_cos_b3m * (t1679 + t1687)
-        - j5_sin_b3m * (0.5181267383208565 * t1678 + 0.8009340075892076 * t1677) - t1687;
+    let y6_b3b_z = j5_cos_b3b * (t1679 + t1687)
+        - j5_sin_b3b * (0.5181267383208565 * t1678 + 0.8009340075892076 * t1677) - t1687;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3m = ::armforge_runtime::math::atan2(
+    let q6_b3b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b3m_y + 0.9941514009309421 * y6_b3m_x)
+            * (0.04207778902912386 * y6_b3b_y + 0.9941514009309421 * y6_b3b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b3m_z - 0.09946080483017306 * y6_b3m_y)
+                * (0.9941514009309421 * y6_b3b_z - 0.09946080483017306 * y6_b3b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b3m_x + 0.04207778902912386 * y6_b3m_z)),
-        0.09946080483017306 * y6_b3m_z
-            + (0.9941514009309421 * y6_b3m_y - 0.04207778902912386 * y6_b3m_x),
+                    * (0.09946080483017306 * y6_b3b_x + 0.04207778902912386 * y6_b3b_z)),
+        0.09946080483017306 * y6_b3b_z
+            + (0.9941514009309421 * y6_b3b_y - 0.04207778902912386 * y6_b3b_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -4190,12 +4190,12 @@ fn branch_6(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -4282,16 +4282,16 @@ fn branch_7(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4300,69 +4300,69 @@ fn branch_7(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t205 = 0.9580721924635943 * w_m_z
-        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
-    let t209 = w_m_x - 0.28272467533220935 * t205;
-    let t210 = w_m_y - 0.04652345630215346 * t205;
-    let t211 = w_m_z - 0.9580721924635943 * t205;
+    let t205 = 0.9580721924635943 * w_b_z
+        + (0.28272467533220935 * w_b_x + 0.04652345630215346 * w_b_y);
+    let t209 = w_b_x - 0.28272467533220935 * t205;
+    let t210 = w_b_y - 0.04652345630215346 * t205;
+    let t211 = w_b_z - 0.9580721924635943 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_m - 0.30660204177019446),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_b - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+    let j2_inv_b = 1.0
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t401 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t401 = 0.3686182725083974 * j3_cos_psi_b + 0.9295808567160389 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.3686182725083974 * j3_sin_psi_m
-        - 0.9295808567160389 * j3_cos_psi_m;
+    let j3_sin_bb = 0.3686182725083974 * j3_sin_psi_b
+        - 0.9295808567160389 * j3_cos_psi_b;
     // θ3 = φ3 = φ0 − ψ
-    let q3_mm = -1.9483185102348586 - j3_psi_m;
+    let q3_bb = -1.9483185102348586 - j3_psi_b;
     let t413 = 0.38353760535766845
-        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_mm);
-    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_mm
+        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_bb);
+    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_bb
         + 0.28405649725228804;
-    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_bb
         - 0.12697460164967897;
-    let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
-    let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
-        + (0.28272467533220935 * (w_m_z * t414 - w_m_y * t415)
-            + 0.04652345630215346 * (w_m_x * t415 - w_m_z * t413));
+    let t420 = w_b_z * t415 + (w_b_x * t413 + w_b_y * t414);
+    let t434 = 0.9580721924635943 * (w_b_y * t413 - w_b_x * t414)
+        + (0.28272467533220935 * (w_b_z * t414 - w_b_y * t415)
+            + 0.04652345630215346 * (w_b_x * t415 - w_b_z * t413));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(-t434, t420);
-    let t437 = j2_inv_m * t420;
-    let t438 = j2_inv_m * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(-t434, t420);
+    let t437 = j2_inv_b * t420;
+    let t438 = j2_inv_b * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_sin_mm * t438 - t401 * t437;
+    let c23_bb = j3_sin_bb * t438 - t401 * t437;
     // sin(θ2 + φ3)
-    let s23_mm = t401 * t438 + j3_sin_mm * t437;
+    let s23_bb = t401 * t438 + j3_sin_bb * t437;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -4401,18 +4401,18 @@ fn branch_7(
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t1336 = j1_cos_m * (t516 - t467)
-        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t1337 = j1_cos_m * (g6_y + t517)
-        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t1338 = j1_cos_m * (g6_z + t518)
-        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
-    let t1348 = j1_cos_m * (t548 - t500)
-        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t1349 = j1_cos_m * (gx_y + t549)
-        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t1350 = j1_cos_m * (gx_z + t550)
-        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1336 = j1_cos_b * (t516 - t467)
+        - j1_sin_b * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_b * (g6_y + t517)
+        - j1_sin_b * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_b * (g6_z + t518)
+        + j1_sin_b * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_b * (t548 - t500)
+        - j1_sin_b * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_b * (gx_y + t549)
+        - j1_sin_b * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_b * (gx_z + t550)
+        + j1_sin_b * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -4425,28 +4425,28 @@ fn branch_7(
     let t1391 = 0.9580721924635943 * t1388;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1357
-        + (c23_mm * (t1336 - t1357)
-            - s23_mm * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
+        + (c23_bb * (t1336 - t1357)
+            - s23_bb * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b4_y = t1358
-        + (c23_mm * (t1337 - t1358)
-            - s23_mm * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
+        + (c23_bb * (t1337 - t1358)
+            - s23_bb * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b4_z = t1359
-        + (c23_mm * (t1338 - t1359)
-            - s23_mm * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
+        + (c23_bb * (t1338 - t1359)
+            - s23_bb * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b4_x = t1389
-        + (c23_mm * (t1348 - t1389)
-            - s23_mm * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
+        + (c23_bb * (t1348 - t1389)
+            - s23_bb * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b4_y = t1390
-        + (c23_mm * (t1349 - t1390)
-            - s23_mm * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
+        + (c23_bb * (t1349 - t1390)
+            - s23_bb * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b4_z = t1391
-        + (c23_mm * (t1350 - t1391)
-            - s23_mm * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
+        + (c23_bb * (t1350 - t1391)
+            - s23_bb * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7217908346079124 * v_b4_z
         + (0.6804730991015498 * v_b4_x + 0.12638968500295295 * v_b4_y);
@@ -4473,25 +4473,25 @@ fn branch_7(
     let t1794 = 0.5781770768749814 * j5_gamma_b4;
     let t1795 = 0.6104999215680328 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1793 + (0.6812955618849657 * t1761 + t1790);
+    let z_b4a_x = t1793 + (0.6812955618849657 * t1761 + t1790);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1794 + (0.12654244756220742 * t1761 - t1791);
+    let z_b4a_y = t1794 + (0.12654244756220742 * t1761 - t1791);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.7226632366171314 * t1761 - t1792 - t1795;
+    let z_b4a_z = 0.7226632366171314 * t1761 - t1792 - t1795;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = 1.1782469650210095
-        * (0.18582223530822034 * z_b4p_x + 0.4195179924567066 * z_b4p_y
-            - 0.7988699854176344 * z_b4p_z);
+    let j5_cos_b4a = 1.1782469650210095
+        * (0.18582223530822034 * z_b4a_x + 0.4195179924567066 * z_b4a_y
+            - 0.7988699854176344 * z_b4a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 1.1782469650210095
+    let j5_sin_b4a = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b4p_z + 0.9155867701441429 * z_b4p_y)
+            * (0.10799533335772074 * z_b4a_z + 0.9155867701441429 * z_b4a_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b4p_x + 0.38734722705858016 * z_b4p_z)
+                * (0.9155867701441429 * z_b4a_x + 0.38734722705858016 * z_b4a_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b4p_y - 0.10799533335772074 * z_b4p_x));
+                * (0.38734722705858016 * z_b4a_y - 0.10799533335772074 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1824 = j5_alpha_b4 - j5_a_b4;
     let t1831 = t1793 + (t1790 + 0.6804730991015498 * t1824);
     let t1832 = t1794 + (0.12638968500295295 * t1824 - t1791);
@@ -4505,27 +4505,27 @@ fn branch_7(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1855;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1858 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1852 * t1858 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1869 = 0.7217908346079124 * xv_b4_z
         + (0.6804730991015498 * xv_b4_x + 0.12638968500295295 * xv_b4_y);
     let t1870 = 0.6804730991015498 * t1869;
     let t1871 = 0.12638968500295295 * t1869;
     let t1872 = 0.7217908346079124 * t1869;
     let t1894 = t1870
-        + (j4_cos_b4p * (xv_b4_x - t1870)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_x - t1870)
+            - j4_sin_b4a
                 * (0.12638968500295295 * xv_b4_z - 0.7217908346079124 * xv_b4_y));
     let t1895 = t1871
-        + (j4_cos_b4p * (xv_b4_y - t1871)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1871)
+            - j4_sin_b4a
                 * (0.7217908346079124 * xv_b4_x - 0.6804730991015498 * xv_b4_z));
     let t1896 = t1872
-        + (j4_cos_b4p * (xv_b4_z - t1872)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_z - t1872)
+            - j4_sin_b4a
                 * (0.6804730991015498 * xv_b4_y - 0.12638968500295295 * xv_b4_x));
     let t1901 = 0.5181267383208565 * t1894 - 0.8009340075892076 * t1895
         - 0.300082319579281 * t1896;
@@ -4533,28 +4533,28 @@ fn branch_7(
     let t1903 = 0.8009340075892076 * t1901;
     let t1904 = 0.300082319579281 * t1901;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1902
-        + (j5_cos_b4p * (t1894 - t1902)
-            - j5_sin_b4p * (0.300082319579281 * t1895 - 0.8009340075892076 * t1896));
+    let y6_b4a_x = t1902
+        + (j5_cos_b4a * (t1894 - t1902)
+            - j5_sin_b4a * (0.300082319579281 * t1895 - 0.8009340075892076 * t1896));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = j5_cos_b4p * (t1895 + t1903)
-        + j5_sin_b4p * (0.300082319579281 * t1894 + 0.5181267383208565 * t1896) - t1903;
+    let y6_b4a_y = j5_cos_b4a * (t1895 + t1903)
+        + j5_sin_b4a * (0.300082319579281 * t1894 + 0.5181267383208565 * t1896) - t1903;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = j5_cos_b4p * (t1896 + t1904)
-        - j5_sin_b4p * (0.5181267383208565 * t1895 + 0.8009340075892076 * t1894) - t1904;
+    let y6_b4a_z = j5_cos_b4a * (t1896 + t1904)
+        - j5_sin_b4a * (0.5181267383208565 * t1895 + 0.8009340075892076 * t1894) - t1904;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b4p_y + 0.9941514009309421 * y6_b4p_x)
+            * (0.04207778902912386 * y6_b4a_y + 0.9941514009309421 * y6_b4a_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b4p_z - 0.09946080483017306 * y6_b4p_y)
+                * (0.9941514009309421 * y6_b4a_z - 0.09946080483017306 * y6_b4a_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b4p_x + 0.04207778902912386 * y6_b4p_z)),
-        0.09946080483017306 * y6_b4p_z
-            + (0.9941514009309421 * y6_b4p_y - 0.04207778902912386 * y6_b4p_x),
+                    * (0.09946080483017306 * y6_b4a_x + 0.04207778902912386 * y6_b4a_z)),
+        0.09946080483017306 * y6_b4a_z
+            + (0.9941514009309421 * y6_b4a_y - 0.04207778902912386 * y6_b4a_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4568,12 +4568,12 @@ fn branch_7(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {
@@ -4660,16 +4660,16 @@ fn branch_8(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
-    // ≥ 0 when r² < 1.2297140543538239e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
     let j1_free = 1.2297140543538239e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4678,69 +4678,69 @@ fn branch_8(
     let t134 = 0.111053440489627 * t96;
     let t135 = 0.616255457921199 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.616255457921199 * u_y - 0.111053440489627 * u_z))
         - 0.08077162938642088;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.7796770767040355 * u_z - 0.616255457921199 * u_x))
         - 0.1935961653602683;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.111053440489627 * u_x - 0.7796770767040355 * u_y))
         + 0.08565974178506168;
-    let t205 = 0.9580721924635943 * w_m_z
-        + (0.28272467533220935 * w_m_x + 0.04652345630215346 * w_m_y);
-    let t209 = w_m_x - 0.28272467533220935 * t205;
-    let t210 = w_m_y - 0.04652345630215346 * t205;
-    let t211 = w_m_z - 0.9580721924635943 * t205;
+    let t205 = 0.9580721924635943 * w_b_z
+        + (0.28272467533220935 * w_b_x + 0.04652345630215346 * w_b_y);
+    let t209 = w_b_x - 0.28272467533220935 * t205;
+    let t210 = w_b_y - 0.04652345630215346 * t205;
+    let t211 = w_b_z - 0.9580721924635943 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        4.043462934169572 * (d2_m - 0.30660204177019446),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        4.043462934169572 * (d2_b - 0.30660204177019446),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
+    let j2_inv_b = 1.0
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t401 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t401 = 0.3686182725083974 * j3_cos_psi_b + 0.9295808567160389 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.3686182725083974 * j3_sin_psi_m
-        - 0.9295808567160389 * j3_cos_psi_m;
+    let j3_sin_bb = 0.3686182725083974 * j3_sin_psi_b
+        - 0.9295808567160389 * j3_cos_psi_b;
     // θ3 = φ3 = φ0 − ψ
-    let q3_mm = -1.9483185102348586 - j3_psi_m;
+    let q3_bb = -1.9483185102348586 - j3_psi_b;
     let t413 = 0.38353760535766845
-        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_mm);
-    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_mm
+        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_bb);
+    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_bb
         + 0.28405649725228804;
-    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_bb
         - 0.12697460164967897;
-    let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
-    let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
-        + (0.28272467533220935 * (w_m_z * t414 - w_m_y * t415)
-            + 0.04652345630215346 * (w_m_x * t415 - w_m_z * t413));
+    let t420 = w_b_z * t415 + (w_b_x * t413 + w_b_y * t414);
+    let t434 = 0.9580721924635943 * (w_b_y * t413 - w_b_x * t414)
+        + (0.28272467533220935 * (w_b_z * t414 - w_b_y * t415)
+            + 0.04652345630215346 * (w_b_x * t415 - w_b_z * t413));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(-t434, t420);
-    let t437 = j2_inv_m * t420;
-    let t438 = j2_inv_m * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(-t434, t420);
+    let t437 = j2_inv_b * t420;
+    let t438 = j2_inv_b * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_sin_mm * t438 - t401 * t437;
+    let c23_bb = j3_sin_bb * t438 - t401 * t437;
     // sin(θ2 + φ3)
-    let s23_mm = t401 * t438 + j3_sin_mm * t437;
+    let s23_bb = t401 * t438 + j3_sin_bb * t437;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -4779,18 +4779,18 @@ fn branch_8(
     let t548 = 0.7796770767040355 * t547;
     let t549 = 0.111053440489627 * t547;
     let t550 = 0.616255457921199 * t547;
-    let t1336 = j1_cos_m * (t516 - t467)
-        - j1_sin_m * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
-    let t1337 = j1_cos_m * (g6_y + t517)
-        - j1_sin_m * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
-    let t1338 = j1_cos_m * (g6_z + t518)
-        + j1_sin_m * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
-    let t1348 = j1_cos_m * (t548 - t500)
-        - j1_sin_m * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
-    let t1349 = j1_cos_m * (gx_y + t549)
-        - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
-    let t1350 = j1_cos_m * (gx_z + t550)
-        + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
+    let t1336 = j1_cos_b * (t516 - t467)
+        - j1_sin_b * (0.616255457921199 * g6_y - 0.111053440489627 * g6_z) - t516;
+    let t1337 = j1_cos_b * (g6_y + t517)
+        - j1_sin_b * (0.616255457921199 * t467 + 0.7796770767040355 * g6_z) - t517;
+    let t1338 = j1_cos_b * (g6_z + t518)
+        + j1_sin_b * (0.7796770767040355 * g6_y + 0.111053440489627 * t467) - t518;
+    let t1348 = j1_cos_b * (t548 - t500)
+        - j1_sin_b * (0.616255457921199 * gx_y - 0.111053440489627 * gx_z) - t548;
+    let t1349 = j1_cos_b * (gx_y + t549)
+        - j1_sin_b * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
+    let t1350 = j1_cos_b * (gx_z + t550)
+        + j1_sin_b * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -4803,28 +4803,28 @@ fn branch_8(
     let t1391 = 0.9580721924635943 * t1388;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1357
-        + (c23_mm * (t1336 - t1357)
-            - s23_mm * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
+        + (c23_bb * (t1336 - t1357)
+            - s23_bb * (0.9580721924635943 * t1337 - 0.04652345630215346 * t1338));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b4_y = t1358
-        + (c23_mm * (t1337 - t1358)
-            - s23_mm * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
+        + (c23_bb * (t1337 - t1358)
+            - s23_bb * (0.28272467533220935 * t1338 - 0.9580721924635943 * t1336));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b4_z = t1359
-        + (c23_mm * (t1338 - t1359)
-            - s23_mm * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
+        + (c23_bb * (t1338 - t1359)
+            - s23_bb * (0.04652345630215346 * t1336 - 0.28272467533220935 * t1337));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b4_x = t1389
-        + (c23_mm * (t1348 - t1389)
-            - s23_mm * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
+        + (c23_bb * (t1348 - t1389)
+            - s23_bb * (0.9580721924635943 * t1349 - 0.04652345630215346 * t1350));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b4_y = t1390
-        + (c23_mm * (t1349 - t1390)
-            - s23_mm * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
+        + (c23_bb * (t1349 - t1390)
+            - s23_bb * (0.28272467533220935 * t1350 - 0.9580721924635943 * t1348));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b4_z = t1391
-        + (c23_mm * (t1350 - t1391)
-            - s23_mm * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
+        + (c23_bb * (t1350 - t1391)
+            - s23_bb * (0.04652345630215346 * t1348 - 0.28272467533220935 * t1349));
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7217908346079124 * v_b4_z
         + (0.6804730991015498 * v_b4_x + 0.12638968500295295 * v_b4_y);
@@ -4857,25 +4857,25 @@ fn branch_8(
     let t1871 = 0.12638968500295295 * t1869;
     let t1872 = 0.7217908346079124 * t1869;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = 0.6812955618849657 * t1761 + t1790 - t1793;
+    let z_b4b_x = 0.6812955618849657 * t1761 + t1790 - t1793;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = 0.12654244756220742 * t1761 - t1791 - t1794;
+    let z_b4b_y = 0.12654244756220742 * t1761 - t1791 - t1794;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1795 + (0.7226632366171314 * t1761 - t1792);
+    let z_b4b_z = t1795 + (0.7226632366171314 * t1761 - t1792);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4m = 1.1782469650210095
-        * (0.18582223530822034 * z_b4m_x + 0.4195179924567066 * z_b4m_y
-            - 0.7988699854176344 * z_b4m_z);
+    let j5_cos_b4b = 1.1782469650210095
+        * (0.18582223530822034 * z_b4b_x + 0.4195179924567066 * z_b4b_y
+            - 0.7988699854176344 * z_b4b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4m = 1.1782469650210095
+    let j5_sin_b4b = 1.1782469650210095
         * (0.5181267383208565
-            * (0.10799533335772074 * z_b4m_z + 0.9155867701441429 * z_b4m_y)
+            * (0.10799533335772074 * z_b4b_z + 0.9155867701441429 * z_b4b_y)
             + 0.8009340075892076
-                * (0.9155867701441429 * z_b4m_x + 0.38734722705858016 * z_b4m_z)
+                * (0.9155867701441429 * z_b4b_x + 0.38734722705858016 * z_b4b_z)
             - 0.300082319579281
-                * (0.38734722705858016 * z_b4m_y - 0.10799533335772074 * z_b4m_x));
+                * (0.38734722705858016 * z_b4b_y - 0.10799533335772074 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
     let t1974 = t1790 + 0.6804730991015498 * t1824 - t1793;
     let t1975 = 0.12638968500295295 * t1824 - t1791 - t1794;
     let t1976 = t1795 + (0.7217908346079124 * t1824 - t1792);
@@ -4888,51 +4888,51 @@ fn branch_8(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1998;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1981 * t2001 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1981 * t2001 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1995 * t2001 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1995 * t2001 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
+    let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
     let t2017 = t1870
-        + ((xv_b4_x - t1870) * j4_cos_b4m
+        + ((xv_b4_x - t1870) * j4_cos_b4b
             - (0.12638968500295295 * xv_b4_z - 0.7217908346079124 * xv_b4_y)
-                * j4_sin_b4m);
+                * j4_sin_b4b);
     let t2018 = t1871
-        + ((xv_b4_y - t1871) * j4_cos_b4m
+        + ((xv_b4_y - t1871) * j4_cos_b4b
             - (0.7217908346079124 * xv_b4_x - 0.6804730991015498 * xv_b4_z)
-                * j4_sin_b4m);
+                * j4_sin_b4b);
     let t2019 = t1872
-        + ((xv_b4_z - t1872) * j4_cos_b4m
+        + ((xv_b4_z - t1872) * j4_cos_b4b
             - (0.6804730991015498 * xv_b4_y - 0.12638968500295295 * xv_b4_x)
-                * j4_sin_b4m);
+                * j4_sin_b4b);
     let t2024 = 0.5181267383208565 * t2017 - 0.8009340075892076 * t2018
         - 0.300082319579281 * t2019;
     let t2025 = 0.5181267383208565 * t2024;
     let t2026 = 0.8009340075892076 * t2024;
     let t2027 = 0.300082319579281 * t2024;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t2025
-        + (j5_cos_b4m * (t2017 - t2025)
-            - j5_sin_b4m * (0.300082319579281 * t2018 - 0.8009340075892076 * t2019));
+    let y6_b4b_x = t2025
+        + (j5_cos_b4b * (t2017 - t2025)
+            - j5_sin_b4b * (0.300082319579281 * t2018 - 0.8009340075892076 * t2019));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = j5_cos_b4m * (t2018 + t2026)
-        + j5_sin_b4m * (0.300082319579281 * t2017 + 0.5181267383208565 * t2019) - t2026;
+    let y6_b4b_y = j5_cos_b4b * (t2018 + t2026)
+        + j5_sin_b4b * (0.300082319579281 * t2017 + 0.5181267383208565 * t2019) - t2026;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = j5_cos_b4m * (t2019 + t2027)
-        - j5_sin_b4m * (0.5181267383208565 * t2018 + 0.8009340075892076 * t2017) - t2027;
+    let y6_b4b_z = j5_cos_b4b * (t2019 + t2027)
+        - j5_sin_b4b * (0.5181267383208565 * t2018 + 0.8009340075892076 * t2017) - t2027;
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4m = ::armforge_runtime::math::atan2(
+    let q6_b4b = ::armforge_runtime::math::atan2(
         0.9155867701441429
-            * (0.04207778902912386 * y6_b4m_y + 0.9941514009309421 * y6_b4m_x)
+            * (0.04207778902912386 * y6_b4b_y + 0.9941514009309421 * y6_b4b_x)
             + (0.38734722705858016
-                * (0.9941514009309421 * y6_b4m_z - 0.09946080483017306 * y6_b4m_y)
+                * (0.9941514009309421 * y6_b4b_z - 0.09946080483017306 * y6_b4b_y)
                 + 0.10799533335772074
-                    * (0.09946080483017306 * y6_b4m_x + 0.04207778902912386 * y6_b4m_z)),
-        0.09946080483017306 * y6_b4m_z
-            + (0.9941514009309421 * y6_b4m_y - 0.04207778902912386 * y6_b4m_x),
+                    * (0.09946080483017306 * y6_b4b_x + 0.04207778902912386 * y6_b4b_z)),
+        0.09946080483017306 * y6_b4b_z
+            + (0.9941514009309421 * y6_b4b_y - 0.04207778902912386 * y6_b4b_x),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4946,12 +4946,12 @@ fn branch_8(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.7442545311651372,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.24349389392867876,
             },
             ::armforge_runtime::internal::Check {

@@ -559,7 +559,7 @@ pub fn solve_branch(
         } => branch_8(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -648,20 +648,20 @@ fn candidates(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
     let t117 = j1_a * j1_k;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
+    let j1_cos_a = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
+    let j1_sin_a = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
+    let j1_cos_b = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
+    let j1_sin_b = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
     let t132 = ::armforge_runtime::math::abs(j1_e);
     let t133 = 0.7420132094704153 * t96;
     let t134 = 0.6488154409724827 * t96;
@@ -673,171 +673,171 @@ fn candidates(
     let t144 = 0.16868586344770164 * u_x + 0.7420132094704153 * u_z;
     let t147 = 0.7420132094704153 * u_y + 0.6488154409724827 * u_x;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * t136 - j1_sin_p * t141 - t133 + 0.047205987790423634;
+    let w_a_x = j1_cos_a * t136 - j1_sin_a * t141 - t133 + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134 + (j1_cos_p * t137 - j1_sin_p * t144) + 0.10530382379899798;
+    let w_a_y = t134 + (j1_cos_a * t137 - j1_sin_a * t144) + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135 + (j1_cos_p * t138 + j1_sin_p * t147) - 0.15688730162376116;
-    let t173 = 0.5881251211149515 * w_p_z
-        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
-    let t177 = w_p_x - 0.7712839289086363 * t173;
-    let t178 = w_p_y - 0.24337202575641612 * t173;
-    let t179 = w_p_z - 0.5881251211149515 * t173;
+    let w_a_z = t135 + (j1_cos_a * t138 + j1_sin_a * t147) - 0.15688730162376116;
+    let t173 = 0.5881251211149515 * w_a_z
+        + (0.7712839289086363 * w_a_x + 0.24337202575641612 * w_a_y);
+    let t177 = w_a_x - 0.7712839289086363 * t173;
+    let t178 = w_a_y - 0.24337202575641612 * t173;
+    let t179 = w_a_z - 0.5881251211149515 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * t136 - j1_sin_m * t141 - t133 + 0.047205987790423634;
+    let w_b_x = j1_cos_b * t136 - j1_sin_b * t141 - t133 + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134 + (j1_cos_m * t137 - j1_sin_m * t144) + 0.10530382379899798;
+    let w_b_y = t134 + (j1_cos_b * t137 - j1_sin_b * t144) + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135 + (j1_cos_m * t138 + j1_sin_m * t147) - 0.15688730162376116;
-    let t205 = 0.5881251211149515 * w_m_z
-        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
-    let t209 = w_m_x - 0.7712839289086363 * t205;
-    let t210 = w_m_y - 0.24337202575641612 * t205;
-    let t211 = w_m_z - 0.5881251211149515 * t205;
+    let w_b_z = t135 + (j1_cos_b * t138 + j1_sin_b * t147) - 0.15688730162376116;
+    let t205 = 0.5881251211149515 * w_b_z
+        + (0.7712839289086363 * w_b_x + 0.24337202575641612 * w_b_y);
+    let t209 = w_b_x - 0.7712839289086363 * t205;
+    let t210 = w_b_y - 0.24337202575641612 * t205;
+    let t211 = w_b_z - 0.5881251211149515 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_p - 0.6411670638136766),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_a - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+    let j2_inv_a = 1.0
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
-    let t239 = 0.4071777476800675 * j3_cos_psi_p;
-    let t240 = 0.9133489375885797 * j3_sin_psi_p;
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
+    let t239 = 0.4071777476800675 * j3_cos_psi_a;
+    let t240 = 0.9133489375885797 * j3_sin_psi_a;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pp = t239 - t240;
-    let t242 = 0.9133489375885797 * j3_cos_psi_p;
-    let t243 = 0.4071777476800675 * j3_sin_psi_p;
+    let j3_cos_aa = t239 - t240;
+    let t242 = 0.9133489375885797 * j3_cos_psi_a;
+    let t243 = 0.4071777476800675 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = t242 + t243;
+    let j3_sin_aa = t242 + t243;
     // θ3 = φ3 = φ0 + ψ
-    let q3_pp = j3_psi_p + 1.151434405282846;
-    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+    let q3_aa = j3_psi_a + 1.151434405282846;
+    let t263 = 0.29618845398521326 * j3_cos_aa + 0.2631411817706989 * j3_sin_aa
         + 0.292065217972989;
-    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+    let t265 = 0.5192451277093607 * j3_cos_aa - 0.3080607744485827 * j3_sin_aa
         - 0.05659539424856903;
-    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+    let t266 = 0.17356112199186785 * j3_cos_aa + 0.4725694062183847 * j3_sin_aa
         + 0.4064423300085499;
-    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
-    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
-        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
-        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    let t271 = w_a_z * t266 + (w_a_y * t265 - w_a_x * t263);
+    let t285 = 0.7712839289086363 * (w_a_z * t265 - w_a_y * t266)
+        + 0.24337202575641612 * (w_a_x * t266 + w_a_z * t263)
+        - 0.5881251211149515 * (w_a_y * t263 + w_a_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_aa = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_a * t271;
+    let t288 = j2_inv_a * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    let c23_aa = j3_cos_aa * t287 - j3_sin_aa * t288;
     // sin(θ2 + φ3)
-    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let s23_aa = j3_cos_aa * t288 + j3_sin_aa * t287;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pm = t239 + t240;
+    let j3_cos_ab = t239 + t240;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t242 - t243;
+    let j3_sin_ab = t242 - t243;
     // θ3 = φ3 = φ0 − ψ
-    let q3_pm = 1.151434405282846 - j3_psi_p;
-    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+    let q3_ab = 1.151434405282846 - j3_psi_a;
+    let t307 = 0.29618845398521326 * j3_cos_ab + 0.2631411817706989 * j3_sin_ab
         + 0.292065217972989;
-    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+    let t308 = 0.5192451277093607 * j3_cos_ab - 0.3080607744485827 * j3_sin_ab
         - 0.05659539424856903;
-    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+    let t309 = 0.17356112199186785 * j3_cos_ab + 0.4725694062183847 * j3_sin_ab
         + 0.4064423300085499;
-    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
-    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
-        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
-        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    let t314 = w_a_z * t309 + (w_a_y * t308 - w_a_x * t307);
+    let t328 = 0.7712839289086363 * (w_a_z * t308 - w_a_y * t309)
+        + 0.24337202575641612 * (w_a_x * t309 + w_a_z * t307)
+        - 0.5881251211149515 * (w_a_y * t307 + w_a_x * t308);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
-    let t330 = j2_inv_p * t314;
-    let t331 = j2_inv_p * t328;
+    let q2_ab = ::armforge_runtime::math::atan2(t328, t314);
+    let t330 = j2_inv_a * t314;
+    let t331 = j2_inv_a * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    let c23_ab = j3_cos_ab * t330 - j3_sin_ab * t331;
     // sin(θ2 + φ3)
-    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let s23_ab = j3_cos_ab * t331 + j3_sin_ab * t330;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_m - 0.6411670638136766),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_b - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+    let j2_inv_b = 1.0
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
-    let t354 = 0.4071777476800675 * j3_cos_psi_m;
-    let t355 = 0.9133489375885797 * j3_sin_psi_m;
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
+    let t354 = 0.4071777476800675 * j3_cos_psi_b;
+    let t355 = 0.9133489375885797 * j3_sin_psi_b;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_mp = t354 - t355;
-    let t357 = 0.9133489375885797 * j3_cos_psi_m;
-    let t358 = 0.4071777476800675 * j3_sin_psi_m;
+    let j3_cos_ba = t354 - t355;
+    let t357 = 0.9133489375885797 * j3_cos_psi_b;
+    let t358 = 0.4071777476800675 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = t357 + t358;
+    let j3_sin_ba = t357 + t358;
     // θ3 = φ3 = φ0 + ψ
-    let q3_mp = j3_psi_m + 1.151434405282846;
-    let t370 = 0.29618845398521326 * j3_cos_mp + 0.2631411817706989 * j3_sin_mp
+    let q3_ba = j3_psi_b + 1.151434405282846;
+    let t370 = 0.29618845398521326 * j3_cos_ba + 0.2631411817706989 * j3_sin_ba
         + 0.292065217972989;
-    let t371 = 0.5192451277093607 * j3_cos_mp - 0.3080607744485827 * j3_sin_mp
+    let t371 = 0.5192451277093607 * j3_cos_ba - 0.3080607744485827 * j3_sin_ba
         - 0.05659539424856903;
-    let t372 = 0.17356112199186785 * j3_cos_mp + 0.4725694062183847 * j3_sin_mp
+    let t372 = 0.17356112199186785 * j3_cos_ba + 0.4725694062183847 * j3_sin_ba
         + 0.4064423300085499;
-    let t377 = w_m_z * t372 + (w_m_y * t371 - w_m_x * t370);
-    let t391 = 0.7712839289086363 * (w_m_z * t371 - w_m_y * t372)
-        + 0.24337202575641612 * (w_m_x * t372 + w_m_z * t370)
-        - 0.5881251211149515 * (w_m_y * t370 + w_m_x * t371);
+    let t377 = w_b_z * t372 + (w_b_y * t371 - w_b_x * t370);
+    let t391 = 0.7712839289086363 * (w_b_z * t371 - w_b_y * t372)
+        + 0.24337202575641612 * (w_b_x * t372 + w_b_z * t370)
+        - 0.5881251211149515 * (w_b_y * t370 + w_b_x * t371);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
-    let t393 = j2_inv_m * t377;
-    let t394 = j2_inv_m * t391;
+    let q2_ba = ::armforge_runtime::math::atan2(t391, t377);
+    let t393 = j2_inv_b * t377;
+    let t394 = j2_inv_b * t391;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t393 - j3_sin_mp * t394;
+    let c23_ba = j3_cos_ba * t393 - j3_sin_ba * t394;
     // sin(θ2 + φ3)
-    let s23_mp = j3_cos_mp * t394 + j3_sin_mp * t393;
+    let s23_ba = j3_cos_ba * t394 + j3_sin_ba * t393;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_mm = t354 + t355;
+    let j3_cos_bb = t354 + t355;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = t357 - t358;
+    let j3_sin_bb = t357 - t358;
     // θ3 = φ3 = φ0 − ψ
-    let q3_mm = 1.151434405282846 - j3_psi_m;
-    let t413 = 0.29618845398521326 * j3_cos_mm + 0.2631411817706989 * j3_sin_mm
+    let q3_bb = 1.151434405282846 - j3_psi_b;
+    let t413 = 0.29618845398521326 * j3_cos_bb + 0.2631411817706989 * j3_sin_bb
         + 0.292065217972989;
-    let t414 = 0.5192451277093607 * j3_cos_mm - 0.3080607744485827 * j3_sin_mm
+    let t414 = 0.5192451277093607 * j3_cos_bb - 0.3080607744485827 * j3_sin_bb
         - 0.05659539424856903;
-    let t415 = 0.17356112199186785 * j3_cos_mm + 0.4725694062183847 * j3_sin_mm
+    let t415 = 0.17356112199186785 * j3_cos_bb + 0.4725694062183847 * j3_sin_bb
         + 0.4064423300085499;
-    let t420 = w_m_z * t415 + (w_m_y * t414 - w_m_x * t413);
-    let t434 = 0.7712839289086363 * (w_m_z * t414 - w_m_y * t415)
-        + 0.24337202575641612 * (w_m_x * t415 + w_m_z * t413)
-        - 0.5881251211149515 * (w_m_y * t413 + w_m_x * t414);
+    let t420 = w_b_z * t415 + (w_b_y * t414 - w_b_x * t413);
+    let t434 = 0.7712839289086363 * (w_b_z * t414 - w_b_y * t415)
+        + 0.24337202575641612 * (w_b_x * t415 + w_b_z * t413)
+        - 0.5881251211149515 * (w_b_y * t413 + w_b_x * t414);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t434, t420);
-    let t436 = j2_inv_m * t420;
-    let t437 = j2_inv_m * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(t434, t420);
+    let t436 = j2_inv_b * t420;
+    let t437 = j2_inv_b * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_cos_mm * t436 - j3_sin_mm * t437;
+    let c23_bb = j3_cos_bb * t436 - j3_sin_bb * t437;
     // sin(θ2 + φ3)
-    let s23_mm = j3_cos_mm * t437 + j3_sin_mm * t436;
+    let s23_bb = j3_cos_bb * t437 + j3_sin_bb * t436;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -879,9 +879,9 @@ fn candidates(
     let t523 = 0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y;
     let t526 = 0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z;
     let t529 = 0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x;
-    let t539 = j1_cos_p * t518 - j1_sin_p * t523 - t515;
-    let t540 = t516 + (j1_cos_p * t519 - j1_sin_p * t526);
-    let t541 = t517 + (j1_cos_p * t520 + j1_sin_p * t529);
+    let t539 = j1_cos_a * t518 - j1_sin_a * t523 - t515;
+    let t540 = t516 + (j1_cos_a * t519 - j1_sin_a * t526);
+    let t541 = t517 + (j1_cos_a * t520 + j1_sin_a * t529);
     let t546 = 0.16868586344770164 * gx_z
         + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
     let t547 = 0.7420132094704153 * t546;
@@ -893,9 +893,9 @@ fn candidates(
     let t555 = 0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y;
     let t558 = 0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z;
     let t561 = 0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x;
-    let t571 = j1_cos_p * t550 - j1_sin_p * t555 - t547;
-    let t572 = t548 + (j1_cos_p * t551 - j1_sin_p * t558);
-    let t573 = t549 + (j1_cos_p * t552 + j1_sin_p * t561);
+    let t571 = j1_cos_a * t550 - j1_sin_a * t555 - t547;
+    let t572 = t548 + (j1_cos_a * t551 - j1_sin_a * t558);
+    let t573 = t549 + (j1_cos_a * t552 + j1_sin_a * t561);
     let t578 = 0.5881251211149515 * t541
         + (0.7712839289086363 * t539 + 0.24337202575641612 * t540);
     let t579 = 0.7712839289086363 * t578;
@@ -908,11 +908,11 @@ fn candidates(
     let t590 = 0.5881251211149515 * t539 - 0.7712839289086363 * t541;
     let t593 = 0.7712839289086363 * t540 - 0.24337202575641612 * t539;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t579 + (c23_pp * t582 - s23_pp * t587);
+    let v_b1_x = t579 + (c23_aa * t582 - s23_aa * t587);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t580 + (c23_pp * t583 - s23_pp * t590);
+    let v_b1_y = t580 + (c23_aa * t583 - s23_aa * t590);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t581 + (c23_pp * t584 - s23_pp * t593);
+    let v_b1_z = t581 + (c23_aa * t584 - s23_aa * t593);
     let t610 = 0.5881251211149515 * t573
         + (0.7712839289086363 * t571 + 0.24337202575641612 * t572);
     let t611 = 0.7712839289086363 * t610;
@@ -925,11 +925,11 @@ fn candidates(
     let t622 = 0.5881251211149515 * t571 - 0.7712839289086363 * t573;
     let t625 = 0.7712839289086363 * t572 - 0.24337202575641612 * t571;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t611 + (c23_pp * t614 - s23_pp * t619);
+    let xv_b1_x = t611 + (c23_aa * t614 - s23_aa * t619);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t612 + (c23_pp * t615 - s23_pp * t622);
+    let xv_b1_y = t612 + (c23_aa * t615 - s23_aa * t622);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t613 + (c23_pp * t616 - s23_pp * t625);
+    let xv_b1_z = t613 + (c23_aa * t616 - s23_aa * t625);
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.35735915230664755 * v_b1_z
         + (0.6808066319245298 * v_b1_x + 0.6393721656361435 * v_b1_y);
@@ -944,36 +944,36 @@ fn candidates(
     let t670 = 0.13945989068616807 * j5_gamma_b1;
     let t671 = 0.816848506504851 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.6808066319245298 * j5_a_b1 - t669;
+    let z_b1a_x = 0.6808066319245298 * j5_a_b1 - t669;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.6393721656361435 * j5_a_b1 + t670;
+    let z_b1a_y = 0.6393721656361435 * j5_a_b1 + t670;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.35735915230664755 * j5_a_b1 + t671;
-    let t682 = 0.8022793632742343 * z_b1p_z
-        + (0.1540763211009523 * z_b1p_x + 0.5767220392357877 * z_b1p_y);
+    let z_b1a_z = 0.35735915230664755 * j5_a_b1 + t671;
+    let t682 = 0.8022793632742343 * z_b1a_z
+        + (0.1540763211009523 * z_b1a_x + 0.5767220392357877 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t682;
+    let j5_cos_b1a = -t682;
     let t700 = 0.45282773069178184
-        * (0.5767220392357884 * z_b1p_x - 0.15407632110095185 * z_b1p_y);
+        * (0.5767220392357884 * z_b1a_x - 0.15407632110095185 * z_b1a_y);
     let t701 = 0.7561442803457222
-        * (0.15407632110095185 * z_b1p_z - 0.8022793632742339 * z_b1p_x)
+        * (0.15407632110095185 * z_b1a_z - 0.8022793632742339 * z_b1a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b1p_y - 0.5767220392357884 * z_b1p_z);
+            * (0.8022793632742339 * z_b1a_y - 0.5767220392357884 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = t701 - t700;
+    let j5_sin_b1a = t701 - t700;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_z * t671 + (v_b1_y * t670 - v_b1_x * t669)) * t725
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b1_z * t670 - v_b1_y * t671)
@@ -981,23 +981,23 @@ fn candidates(
             - 0.35735915230664755 * (v_b1_y * t669 + v_b1_x * t670)) * t725
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t736 = 0.35735915230664755 * xv_b1_z
         + (0.6808066319245298 * xv_b1_x + 0.6393721656361435 * xv_b1_y);
     let t737 = 0.6808066319245298 * t736;
     let t738 = 0.6393721656361435 * t736;
     let t739 = 0.35735915230664755 * t736;
     let t761 = t737
-        + (j4_cos_b1p * (xv_b1_x - t737)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_x - t737)
+            - j4_sin_b1a
                 * (0.6393721656361435 * xv_b1_z - 0.35735915230664755 * xv_b1_y));
     let t762 = t738
-        + (j4_cos_b1p * (xv_b1_y - t738)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t738)
+            - j4_sin_b1a
                 * (0.35735915230664755 * xv_b1_x - 0.6808066319245298 * xv_b1_z));
     let t763 = t739
-        + (j4_cos_b1p * (xv_b1_z - t739)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_z - t739)
+            - j4_sin_b1a
                 * (0.6808066319245298 * xv_b1_y - 0.6393721656361435 * xv_b1_x));
     let t764 = t700 - t701;
     let t769 = 0.7561442803457222 * t762 - 0.4724329302842692 * t761
@@ -1006,43 +1006,43 @@ fn candidates(
     let t771 = 0.7561442803457222 * t769;
     let t772 = 0.45282773069178184 * t769;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t764 * (0.7561442803457222 * t763 + 0.45282773069178184 * t762)
+    let y6_b1a_x = t764 * (0.7561442803457222 * t763 + 0.45282773069178184 * t762)
         - t682 * (t761 + t770) - t770;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t771
+    let y6_b1a_y = t771
         + (t764 * (0.4724329302842692 * t763 - 0.45282773069178184 * t761)
             - t682 * (t762 - t771));
     let t796 = t772
         + (t682 * (t763 + t772)
             + t764 * (0.4724329302842692 * t762 + 0.7561442803457222 * t761));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b1p_y + 0.089933105880942 * y6_b1p_x)
+    let q6_b1a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b1a_y + 0.089933105880942 * y6_b1a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t796 + 0.12510615168971864 * y6_b1p_y)
+                * (0.089933105880942 * t796 + 0.12510615168971864 * y6_b1a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t796 - 0.12510615168971864 * y6_b1p_x))),
+                    * (0.988058949292 * t796 - 0.12510615168971864 * y6_b1a_x))),
         0.12510615168971864 * t796
-            + (0.988058949292 * y6_b1p_x - 0.089933105880942 * y6_b1p_y),
+            + (0.988058949292 * y6_b1a_x - 0.089933105880942 * y6_b1a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    let q4_b1b = q4_b1a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b1m = -4.869259549848829 - q5_b1p;
+    let q5_b1b = -4.869259549848829 - q5_b1a;
     // θ6 + π (mirror wrist branch)
-    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
+    let q6_b1b = q6_b1a + ::core::f64::consts::PI;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t579 + (c23_pm * t582 - s23_pm * t587);
+    let v_b2_x = t579 + (c23_ab * t582 - s23_ab * t587);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t580 + (c23_pm * t583 - s23_pm * t590);
+    let v_b2_y = t580 + (c23_ab * t583 - s23_ab * t590);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t581 + (c23_pm * t584 - s23_pm * t593);
+    let v_b2_z = t581 + (c23_ab * t584 - s23_ab * t593);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t611 + (c23_pm * t614 - s23_pm * t619);
+    let xv_b2_x = t611 + (c23_ab * t614 - s23_ab * t619);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t612 + (c23_pm * t615 - s23_pm * t622);
+    let xv_b2_y = t612 + (c23_ab * t615 - s23_ab * t622);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t613 + (c23_pm * t616 - s23_pm * t625);
+    let xv_b2_z = t613 + (c23_ab * t616 - s23_ab * t625);
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.35735915230664755 * v_b2_z
         + (0.6808066319245298 * v_b2_x + 0.6393721656361435 * v_b2_y);
@@ -1057,36 +1057,36 @@ fn candidates(
     let t875 = 0.13945989068616807 * j5_gamma_b2;
     let t876 = 0.816848506504851 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.6808066319245298 * j5_a_b2 - t874;
+    let z_b2a_x = 0.6808066319245298 * j5_a_b2 - t874;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.6393721656361435 * j5_a_b2 + t875;
+    let z_b2a_y = 0.6393721656361435 * j5_a_b2 + t875;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.35735915230664755 * j5_a_b2 + t876;
-    let t884 = 0.8022793632742343 * z_b2p_z
-        + (0.1540763211009523 * z_b2p_x + 0.5767220392357877 * z_b2p_y);
+    let z_b2a_z = 0.35735915230664755 * j5_a_b2 + t876;
+    let t884 = 0.8022793632742343 * z_b2a_z
+        + (0.1540763211009523 * z_b2a_x + 0.5767220392357877 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t884;
+    let j5_cos_b2a = -t884;
     let t897 = 0.45282773069178184
-        * (0.5767220392357884 * z_b2p_x - 0.15407632110095185 * z_b2p_y);
+        * (0.5767220392357884 * z_b2a_x - 0.15407632110095185 * z_b2a_y);
     let t898 = 0.7561442803457222
-        * (0.15407632110095185 * z_b2p_z - 0.8022793632742339 * z_b2p_x)
+        * (0.15407632110095185 * z_b2a_z - 0.8022793632742339 * z_b2a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b2p_y - 0.5767220392357884 * z_b2p_z);
+            * (0.8022793632742339 * z_b2a_y - 0.5767220392357884 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = t898 - t897;
+    let j5_sin_b2a = t898 - t897;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_z * t876 + (v_b2_y * t875 - v_b2_x * t874)) * t921
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b2_z * t875 - v_b2_y * t876)
@@ -1094,23 +1094,23 @@ fn candidates(
             - 0.35735915230664755 * (v_b2_y * t874 + v_b2_x * t875)) * t921
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t932 = 0.35735915230664755 * xv_b2_z
         + (0.6808066319245298 * xv_b2_x + 0.6393721656361435 * xv_b2_y);
     let t933 = 0.6808066319245298 * t932;
     let t934 = 0.6393721656361435 * t932;
     let t935 = 0.35735915230664755 * t932;
     let t957 = t933
-        + (j4_cos_b2p * (xv_b2_x - t933)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_x - t933)
+            - j4_sin_b2a
                 * (0.6393721656361435 * xv_b2_z - 0.35735915230664755 * xv_b2_y));
     let t958 = t934
-        + (j4_cos_b2p * (xv_b2_y - t934)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t934)
+            - j4_sin_b2a
                 * (0.35735915230664755 * xv_b2_x - 0.6808066319245298 * xv_b2_z));
     let t959 = t935
-        + (j4_cos_b2p * (xv_b2_z - t935)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_z - t935)
+            - j4_sin_b2a
                 * (0.6808066319245298 * xv_b2_y - 0.6393721656361435 * xv_b2_x));
     let t960 = t897 - t898;
     let t965 = 0.7561442803457222 * t958 - 0.4724329302842692 * t957
@@ -1119,37 +1119,37 @@ fn candidates(
     let t967 = 0.7561442803457222 * t965;
     let t968 = 0.45282773069178184 * t965;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t960 * (0.7561442803457222 * t959 + 0.45282773069178184 * t958)
+    let y6_b2a_x = t960 * (0.7561442803457222 * t959 + 0.45282773069178184 * t958)
         - t884 * (t957 + t966) - t966;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t967
+    let y6_b2a_y = t967
         + (t960 * (0.4724329302842692 * t959 - 0.45282773069178184 * t957)
             - t884 * (t958 - t967));
     let t992 = t968
         + (t884 * (t959 + t968)
             + t960 * (0.4724329302842692 * t958 + 0.7561442803457222 * t957));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b2p_y + 0.089933105880942 * y6_b2p_x)
+    let q6_b2a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b2a_y + 0.089933105880942 * y6_b2a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t992 + 0.12510615168971864 * y6_b2p_y)
+                * (0.089933105880942 * t992 + 0.12510615168971864 * y6_b2a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t992 - 0.12510615168971864 * y6_b2p_x))),
+                    * (0.988058949292 * t992 - 0.12510615168971864 * y6_b2a_x))),
         0.12510615168971864 * t992
-            + (0.988058949292 * y6_b2p_x - 0.089933105880942 * y6_b2p_y),
+            + (0.988058949292 * y6_b2a_x - 0.089933105880942 * y6_b2a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    let q4_b2b = q4_b2a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b2m = -4.869259549848829 - q5_b2p;
+    let q5_b2b = -4.869259549848829 - q5_b2a;
     // θ6 + π (mirror wrist branch)
-    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
-    let t1026 = j1_cos_m * t518 - j1_sin_m * t523 - t515;
-    let t1027 = t516 + (j1_cos_m * t519 - j1_sin_m * t526);
-    let t1028 = t517 + (j1_cos_m * t520 + j1_sin_m * t529);
-    let t1038 = j1_cos_m * t550 - j1_sin_m * t555 - t547;
-    let t1039 = t548 + (j1_cos_m * t551 - j1_sin_m * t558);
-    let t1040 = t549 + (j1_cos_m * t552 + j1_sin_m * t561);
+    let q6_b2b = q6_b2a + ::core::f64::consts::PI;
+    let t1026 = j1_cos_b * t518 - j1_sin_b * t523 - t515;
+    let t1027 = t516 + (j1_cos_b * t519 - j1_sin_b * t526);
+    let t1028 = t517 + (j1_cos_b * t520 + j1_sin_b * t529);
+    let t1038 = j1_cos_b * t550 - j1_sin_b * t555 - t547;
+    let t1039 = t548 + (j1_cos_b * t551 - j1_sin_b * t558);
+    let t1040 = t549 + (j1_cos_b * t552 + j1_sin_b * t561);
     let t1045 = 0.5881251211149515 * t1028
         + (0.7712839289086363 * t1026 + 0.24337202575641612 * t1027);
     let t1046 = 0.7712839289086363 * t1045;
@@ -1162,11 +1162,11 @@ fn candidates(
     let t1057 = 0.5881251211149515 * t1026 - 0.7712839289086363 * t1028;
     let t1060 = 0.7712839289086363 * t1027 - 0.24337202575641612 * t1026;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1046 + (c23_mp * t1049 - s23_mp * t1054);
+    let v_b3_x = t1046 + (c23_ba * t1049 - s23_ba * t1054);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1047 + (c23_mp * t1050 - s23_mp * t1057);
+    let v_b3_y = t1047 + (c23_ba * t1050 - s23_ba * t1057);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t1048 + (c23_mp * t1051 - s23_mp * t1060);
+    let v_b3_z = t1048 + (c23_ba * t1051 - s23_ba * t1060);
     let t1077 = 0.5881251211149515 * t1040
         + (0.7712839289086363 * t1038 + 0.24337202575641612 * t1039);
     let t1078 = 0.7712839289086363 * t1077;
@@ -1179,11 +1179,11 @@ fn candidates(
     let t1089 = 0.5881251211149515 * t1038 - 0.7712839289086363 * t1040;
     let t1092 = 0.7712839289086363 * t1039 - 0.24337202575641612 * t1038;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1078 + (c23_mp * t1081 - s23_mp * t1086);
+    let xv_b3_x = t1078 + (c23_ba * t1081 - s23_ba * t1086);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1079 + (c23_mp * t1082 - s23_mp * t1089);
+    let xv_b3_y = t1079 + (c23_ba * t1082 - s23_ba * t1089);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t1080 + (c23_mp * t1083 - s23_mp * t1092);
+    let xv_b3_z = t1080 + (c23_ba * t1083 - s23_ba * t1092);
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.35735915230664755 * v_b3_z
         + (0.6808066319245298 * v_b3_x + 0.6393721656361435 * v_b3_y);
@@ -1198,36 +1198,36 @@ fn candidates(
     let t1130 = 0.13945989068616807 * j5_gamma_b3;
     let t1131 = 0.816848506504851 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.6808066319245298 * j5_a_b3 - t1129;
+    let z_b3a_x = 0.6808066319245298 * j5_a_b3 - t1129;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.6393721656361435 * j5_a_b3 + t1130;
+    let z_b3a_y = 0.6393721656361435 * j5_a_b3 + t1130;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.35735915230664755 * j5_a_b3 + t1131;
-    let t1139 = 0.8022793632742343 * z_b3p_z
-        + (0.1540763211009523 * z_b3p_x + 0.5767220392357877 * z_b3p_y);
+    let z_b3a_z = 0.35735915230664755 * j5_a_b3 + t1131;
+    let t1139 = 0.8022793632742343 * z_b3a_z
+        + (0.1540763211009523 * z_b3a_x + 0.5767220392357877 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1139;
+    let j5_cos_b3a = -t1139;
     let t1152 = 0.45282773069178184
-        * (0.5767220392357884 * z_b3p_x - 0.15407632110095185 * z_b3p_y);
+        * (0.5767220392357884 * z_b3a_x - 0.15407632110095185 * z_b3a_y);
     let t1153 = 0.7561442803457222
-        * (0.15407632110095185 * z_b3p_z - 0.8022793632742339 * z_b3p_x)
+        * (0.15407632110095185 * z_b3a_z - 0.8022793632742339 * z_b3a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b3p_y - 0.5767220392357884 * z_b3p_z);
+            * (0.8022793632742339 * z_b3a_y - 0.5767220392357884 * z_b3a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = t1153 - t1152;
+    let j5_sin_b3a = t1153 - t1152;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_z * t1131 + (v_b3_y * t1130 - v_b3_x * t1129)) * t1176
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b3_z * t1130 - v_b3_y * t1131)
@@ -1235,23 +1235,23 @@ fn candidates(
             - 0.35735915230664755 * (v_b3_y * t1129 + v_b3_x * t1130)) * t1176
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1187 = 0.35735915230664755 * xv_b3_z
         + (0.6808066319245298 * xv_b3_x + 0.6393721656361435 * xv_b3_y);
     let t1188 = 0.6808066319245298 * t1187;
     let t1189 = 0.6393721656361435 * t1187;
     let t1190 = 0.35735915230664755 * t1187;
     let t1212 = t1188
-        + (j4_cos_b3p * (xv_b3_x - t1188)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_x - t1188)
+            - j4_sin_b3a
                 * (0.6393721656361435 * xv_b3_z - 0.35735915230664755 * xv_b3_y));
     let t1213 = t1189
-        + (j4_cos_b3p * (xv_b3_y - t1189)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1189)
+            - j4_sin_b3a
                 * (0.35735915230664755 * xv_b3_x - 0.6808066319245298 * xv_b3_z));
     let t1214 = t1190
-        + (j4_cos_b3p * (xv_b3_z - t1190)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_z - t1190)
+            - j4_sin_b3a
                 * (0.6808066319245298 * xv_b3_y - 0.6393721656361435 * xv_b3_x));
     let t1215 = t1152 - t1153;
     let t1220 = 0.7561442803457222 * t1213 - 0.4724329302842692 * t1212
@@ -1260,43 +1260,43 @@ fn candidates(
     let t1222 = 0.7561442803457222 * t1220;
     let t1223 = 0.45282773069178184 * t1220;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1215 * (0.7561442803457222 * t1214 + 0.45282773069178184 * t1213)
+    let y6_b3a_x = t1215 * (0.7561442803457222 * t1214 + 0.45282773069178184 * t1213)
         - t1139 * (t1212 + t1221) - t1221;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1222
+    let y6_b3a_y = t1222
         + (t1215 * (0.4724329302842692 * t1214 - 0.45282773069178184 * t1212)
             - t1139 * (t1213 - t1222));
     let t1247 = t1223
         + (t1139 * (t1214 + t1223)
             + t1215 * (0.4724329302842692 * t1213 + 0.7561442803457222 * t1212));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b3p_y + 0.089933105880942 * y6_b3p_x)
+    let q6_b3a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b3a_y + 0.089933105880942 * y6_b3a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t1247 + 0.12510615168971864 * y6_b3p_y)
+                * (0.089933105880942 * t1247 + 0.12510615168971864 * y6_b3a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t1247 - 0.12510615168971864 * y6_b3p_x))),
+                    * (0.988058949292 * t1247 - 0.12510615168971864 * y6_b3a_x))),
         0.12510615168971864 * t1247
-            + (0.988058949292 * y6_b3p_x - 0.089933105880942 * y6_b3p_y),
+            + (0.988058949292 * y6_b3a_x - 0.089933105880942 * y6_b3a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    let q4_b3b = q4_b3a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b3m = -4.869259549848829 - q5_b3p;
+    let q5_b3b = -4.869259549848829 - q5_b3a;
     // θ6 + π (mirror wrist branch)
-    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
+    let q6_b3b = q6_b3a + ::core::f64::consts::PI;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1046 + (c23_mm * t1049 - s23_mm * t1054);
+    let v_b4_x = t1046 + (c23_bb * t1049 - s23_bb * t1054);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1047 + (c23_mm * t1050 - s23_mm * t1057);
+    let v_b4_y = t1047 + (c23_bb * t1050 - s23_bb * t1057);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t1048 + (c23_mm * t1051 - s23_mm * t1060);
+    let v_b4_z = t1048 + (c23_bb * t1051 - s23_bb * t1060);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1078 + (c23_mm * t1081 - s23_mm * t1086);
+    let xv_b4_x = t1078 + (c23_bb * t1081 - s23_bb * t1086);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1079 + (c23_mm * t1082 - s23_mm * t1089);
+    let xv_b4_y = t1079 + (c23_bb * t1082 - s23_bb * t1089);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t1080 + (c23_mm * t1083 - s23_mm * t1092);
+    let xv_b4_z = t1080 + (c23_bb * t1083 - s23_bb * t1092);
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.35735915230664755 * v_b4_z
         + (0.6808066319245298 * v_b4_x + 0.6393721656361435 * v_b4_y);
@@ -1311,36 +1311,36 @@ fn candidates(
     let t1321 = 0.13945989068616807 * j5_gamma_b4;
     let t1322 = 0.816848506504851 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.6808066319245298 * j5_a_b4 - t1320;
+    let z_b4a_x = 0.6808066319245298 * j5_a_b4 - t1320;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.6393721656361435 * j5_a_b4 + t1321;
+    let z_b4a_y = 0.6393721656361435 * j5_a_b4 + t1321;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.35735915230664755 * j5_a_b4 + t1322;
-    let t1330 = 0.8022793632742343 * z_b4p_z
-        + (0.1540763211009523 * z_b4p_x + 0.5767220392357877 * z_b4p_y);
+    let z_b4a_z = 0.35735915230664755 * j5_a_b4 + t1322;
+    let t1330 = 0.8022793632742343 * z_b4a_z
+        + (0.1540763211009523 * z_b4a_x + 0.5767220392357877 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1330;
+    let j5_cos_b4a = -t1330;
     let t1343 = 0.45282773069178184
-        * (0.5767220392357884 * z_b4p_x - 0.15407632110095185 * z_b4p_y);
+        * (0.5767220392357884 * z_b4a_x - 0.15407632110095185 * z_b4a_y);
     let t1344 = 0.7561442803457222
-        * (0.15407632110095185 * z_b4p_z - 0.8022793632742339 * z_b4p_x)
+        * (0.15407632110095185 * z_b4a_z - 0.8022793632742339 * z_b4a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b4p_y - 0.5767220392357884 * z_b4p_z);
+            * (0.8022793632742339 * z_b4a_y - 0.5767220392357884 * z_b4a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = t1344 - t1343;
+    let j5_sin_b4a = t1344 - t1343;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_z * t1322 + (v_b4_y * t1321 - v_b4_x * t1320)) * t1367
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b4_z * t1321 - v_b4_y * t1322)
@@ -1348,23 +1348,23 @@ fn candidates(
             - 0.35735915230664755 * (v_b4_y * t1320 + v_b4_x * t1321)) * t1367
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1378 = 0.35735915230664755 * xv_b4_z
         + (0.6808066319245298 * xv_b4_x + 0.6393721656361435 * xv_b4_y);
     let t1379 = 0.6808066319245298 * t1378;
     let t1380 = 0.6393721656361435 * t1378;
     let t1381 = 0.35735915230664755 * t1378;
     let t1403 = t1379
-        + (j4_cos_b4p * (xv_b4_x - t1379)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_x - t1379)
+            - j4_sin_b4a
                 * (0.6393721656361435 * xv_b4_z - 0.35735915230664755 * xv_b4_y));
     let t1404 = t1380
-        + (j4_cos_b4p * (xv_b4_y - t1380)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1380)
+            - j4_sin_b4a
                 * (0.35735915230664755 * xv_b4_x - 0.6808066319245298 * xv_b4_z));
     let t1405 = t1381
-        + (j4_cos_b4p * (xv_b4_z - t1381)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_z - t1381)
+            - j4_sin_b4a
                 * (0.6808066319245298 * xv_b4_y - 0.6393721656361435 * xv_b4_x));
     let t1406 = t1343 - t1344;
     let t1411 = 0.7561442803457222 * t1404 - 0.4724329302842692 * t1403
@@ -1373,34 +1373,34 @@ fn candidates(
     let t1413 = 0.7561442803457222 * t1411;
     let t1414 = 0.45282773069178184 * t1411;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1406 * (0.7561442803457222 * t1405 + 0.45282773069178184 * t1404)
+    let y6_b4a_x = t1406 * (0.7561442803457222 * t1405 + 0.45282773069178184 * t1404)
         - t1330 * (t1403 + t1412) - t1412;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1413
+    let y6_b4a_y = t1413
         + (t1406 * (0.4724329302842692 * t1405 - 0.45282773069178184 * t1403)
             - t1330 * (t1404 - t1413));
     let t1438 = t1414
         + (t1330 * (t1405 + t1414)
             + t1406 * (0.4724329302842692 * t1404 + 0.7561442803457222 * t1403));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b4p_y + 0.089933105880942 * y6_b4p_x)
+    let q6_b4a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b4a_y + 0.089933105880942 * y6_b4a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t1438 + 0.12510615168971864 * y6_b4p_y)
+                * (0.089933105880942 * t1438 + 0.12510615168971864 * y6_b4a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t1438 - 0.12510615168971864 * y6_b4p_x))),
+                    * (0.988058949292 * t1438 - 0.12510615168971864 * y6_b4a_x))),
         0.12510615168971864 * t1438
-            + (0.988058949292 * y6_b4p_x - 0.089933105880942 * y6_b4p_y),
+            + (0.988058949292 * y6_b4a_x - 0.089933105880942 * y6_b4a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    let q4_b4b = q4_b4a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b4m = -4.869259549848829 - q5_b4p;
+    let q5_b4b = -4.869259549848829 - q5_b4a;
     // θ6 + π (mirror wrist branch)
-    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    let q6_b4b = q6_b4a + ::core::f64::consts::PI;
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1414,12 +1414,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1428,7 +1428,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1442,12 +1442,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1456,7 +1456,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1470,12 +1470,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1484,7 +1484,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1498,12 +1498,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1512,7 +1512,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1526,12 +1526,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1540,7 +1540,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Down,
@@ -1554,12 +1554,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1568,7 +1568,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1582,12 +1582,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1596,7 +1596,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Up,
@@ -1610,12 +1610,12 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 1.1261550290353073,
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.11878121992065782,
                 },
                 ::armforge_runtime::internal::Check::NONE,
@@ -1700,16 +1700,16 @@ fn branch_1(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -1718,70 +1718,70 @@ fn branch_1(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t173 = 0.5881251211149515 * w_p_z
-        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
-    let t177 = w_p_x - 0.7712839289086363 * t173;
-    let t178 = w_p_y - 0.24337202575641612 * t173;
-    let t179 = w_p_z - 0.5881251211149515 * t173;
+    let t173 = 0.5881251211149515 * w_a_z
+        + (0.7712839289086363 * w_a_x + 0.24337202575641612 * w_a_y);
+    let t177 = w_a_x - 0.7712839289086363 * t173;
+    let t178 = w_a_y - 0.24337202575641612 * t173;
+    let t179 = w_a_z - 0.5881251211149515 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_p - 0.6411670638136766),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_a - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+    let j2_inv_a = 1.0
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pp = 0.4071777476800675 * j3_cos_psi_p
-        - 0.9133489375885797 * j3_sin_psi_p;
+    let j3_cos_aa = 0.4071777476800675 * j3_cos_psi_a
+        - 0.9133489375885797 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = 0.9133489375885797 * j3_cos_psi_p
-        + 0.4071777476800675 * j3_sin_psi_p;
+    let j3_sin_aa = 0.9133489375885797 * j3_cos_psi_a
+        + 0.4071777476800675 * j3_sin_psi_a;
     // θ3 = φ3 = φ0 + ψ
-    let q3_pp = j3_psi_p + 1.151434405282846;
-    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+    let q3_aa = j3_psi_a + 1.151434405282846;
+    let t263 = 0.29618845398521326 * j3_cos_aa + 0.2631411817706989 * j3_sin_aa
         + 0.292065217972989;
-    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+    let t265 = 0.5192451277093607 * j3_cos_aa - 0.3080607744485827 * j3_sin_aa
         - 0.05659539424856903;
-    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+    let t266 = 0.17356112199186785 * j3_cos_aa + 0.4725694062183847 * j3_sin_aa
         + 0.4064423300085499;
-    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
-    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
-        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
-        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    let t271 = w_a_z * t266 + (w_a_y * t265 - w_a_x * t263);
+    let t285 = 0.7712839289086363 * (w_a_z * t265 - w_a_y * t266)
+        + 0.24337202575641612 * (w_a_x * t266 + w_a_z * t263)
+        - 0.5881251211149515 * (w_a_y * t263 + w_a_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_aa = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_a * t271;
+    let t288 = j2_inv_a * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    let c23_aa = j3_cos_aa * t287 - j3_sin_aa * t288;
     // sin(θ2 + φ3)
-    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let s23_aa = j3_cos_aa * t288 + j3_sin_aa * t287;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -1817,27 +1817,27 @@ fn branch_1(
     let t515 = 0.7420132094704153 * t514;
     let t516 = 0.6488154409724827 * t514;
     let t517 = 0.16868586344770164 * t514;
-    let t539 = j1_cos_p * (g6_x + t515)
-        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t539 = j1_cos_a * (g6_x + t515)
+        - j1_sin_a * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t540 = t516
-        + (j1_cos_p * (g6_y - t516)
-            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_a * (g6_y - t516)
+            - j1_sin_a * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t541 = t517
-        + (j1_cos_p * (g6_z - t517)
-            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+        + (j1_cos_a * (g6_z - t517)
+            + j1_sin_a * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
     let t546 = 0.16868586344770164 * gx_z
         + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t571 = j1_cos_p * (gx_x + t547)
-        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+    let t571 = j1_cos_a * (gx_x + t547)
+        - j1_sin_a * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t572 = t548
-        + (j1_cos_p * (gx_y - t548)
-            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_a * (gx_y - t548)
+            - j1_sin_a * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t573 = t549
-        + (j1_cos_p * (gx_z - t549)
-            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_a * (gx_z - t549)
+            + j1_sin_a * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t578 = 0.5881251211149515 * t541
         + (0.7712839289086363 * t539 + 0.24337202575641612 * t540);
     let t579 = 0.7712839289086363 * t578;
@@ -1845,16 +1845,16 @@ fn branch_1(
     let t581 = 0.5881251211149515 * t578;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t579
-        + (c23_pp * (t539 - t579)
-            - s23_pp * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
+        + (c23_aa * (t539 - t579)
+            - s23_aa * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t580
-        + (c23_pp * (t540 - t580)
-            - s23_pp * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
+        + (c23_aa * (t540 - t580)
+            - s23_aa * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t581
-        + (c23_pp * (t541 - t581)
-            - s23_pp * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
+        + (c23_aa * (t541 - t581)
+            - s23_aa * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
     let t610 = 0.5881251211149515 * t573
         + (0.7712839289086363 * t571 + 0.24337202575641612 * t572);
     let t611 = 0.7712839289086363 * t610;
@@ -1862,16 +1862,16 @@ fn branch_1(
     let t613 = 0.5881251211149515 * t610;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t611
-        + (c23_pp * (t571 - t611)
-            - s23_pp * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
+        + (c23_aa * (t571 - t611)
+            - s23_aa * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t612
-        + (c23_pp * (t572 - t612)
-            - s23_pp * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
+        + (c23_aa * (t572 - t612)
+            - s23_aa * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t613
-        + (c23_pp * (t573 - t613)
-            - s23_pp * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
+        + (c23_aa * (t573 - t613)
+            - s23_aa * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.35735915230664755 * v_b1_z
         + (0.6808066319245298 * v_b1_x + 0.6393721656361435 * v_b1_y);
@@ -1886,36 +1886,36 @@ fn branch_1(
     let t670 = 0.13945989068616807 * j5_gamma_b1;
     let t671 = 0.816848506504851 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.6808066319245298 * j5_a_b1 - t669;
+    let z_b1a_x = 0.6808066319245298 * j5_a_b1 - t669;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.6393721656361435 * j5_a_b1 + t670;
+    let z_b1a_y = 0.6393721656361435 * j5_a_b1 + t670;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.35735915230664755 * j5_a_b1 + t671;
-    let t682 = 0.8022793632742343 * z_b1p_z
-        + (0.1540763211009523 * z_b1p_x + 0.5767220392357877 * z_b1p_y);
+    let z_b1a_z = 0.35735915230664755 * j5_a_b1 + t671;
+    let t682 = 0.8022793632742343 * z_b1a_z
+        + (0.1540763211009523 * z_b1a_x + 0.5767220392357877 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t682;
+    let j5_cos_b1a = -t682;
     let t700 = 0.45282773069178184
-        * (0.5767220392357884 * z_b1p_x - 0.15407632110095185 * z_b1p_y);
+        * (0.5767220392357884 * z_b1a_x - 0.15407632110095185 * z_b1a_y);
     let t701 = 0.7561442803457222
-        * (0.15407632110095185 * z_b1p_z - 0.8022793632742339 * z_b1p_x)
+        * (0.15407632110095185 * z_b1a_z - 0.8022793632742339 * z_b1a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b1p_y - 0.5767220392357884 * z_b1p_z);
+            * (0.8022793632742339 * z_b1a_y - 0.5767220392357884 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = t701 - t700;
+    let j5_sin_b1a = t701 - t700;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_z * t671 + (v_b1_y * t670 - v_b1_x * t669)) * t725
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b1_z * t670 - v_b1_y * t671)
@@ -1923,23 +1923,23 @@ fn branch_1(
             - 0.35735915230664755 * (v_b1_y * t669 + v_b1_x * t670)) * t725
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t736 = 0.35735915230664755 * xv_b1_z
         + (0.6808066319245298 * xv_b1_x + 0.6393721656361435 * xv_b1_y);
     let t737 = 0.6808066319245298 * t736;
     let t738 = 0.6393721656361435 * t736;
     let t739 = 0.35735915230664755 * t736;
     let t761 = t737
-        + (j4_cos_b1p * (xv_b1_x - t737)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_x - t737)
+            - j4_sin_b1a
                 * (0.6393721656361435 * xv_b1_z - 0.35735915230664755 * xv_b1_y));
     let t762 = t738
-        + (j4_cos_b1p * (xv_b1_y - t738)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t738)
+            - j4_sin_b1a
                 * (0.35735915230664755 * xv_b1_x - 0.6808066319245298 * xv_b1_z));
     let t763 = t739
-        + (j4_cos_b1p * (xv_b1_z - t739)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_z - t739)
+            - j4_sin_b1a
                 * (0.6808066319245298 * xv_b1_y - 0.6393721656361435 * xv_b1_x));
     let t764 = t700 - t701;
     let t769 = 0.7561442803457222 * t762 - 0.4724329302842692 * t761
@@ -1948,27 +1948,27 @@ fn branch_1(
     let t771 = 0.7561442803457222 * t769;
     let t772 = 0.45282773069178184 * t769;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t764 * (0.7561442803457222 * t763 + 0.45282773069178184 * t762)
+    let y6_b1a_x = t764 * (0.7561442803457222 * t763 + 0.45282773069178184 * t762)
         - t682 * (t761 + t770) - t770;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t771
+    let y6_b1a_y = t771
         + (t764 * (0.4724329302842692 * t763 - 0.45282773069178184 * t761)
             - t682 * (t762 - t771));
     let t796 = t772
         + (t682 * (t763 + t772)
             + t764 * (0.4724329302842692 * t762 + 0.7561442803457222 * t761));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b1p_y + 0.089933105880942 * y6_b1p_x)
+    let q6_b1a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b1a_y + 0.089933105880942 * y6_b1a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t796 + 0.12510615168971864 * y6_b1p_y)
+                * (0.089933105880942 * t796 + 0.12510615168971864 * y6_b1a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t796 - 0.12510615168971864 * y6_b1p_x))),
+                    * (0.988058949292 * t796 - 0.12510615168971864 * y6_b1a_x))),
         0.12510615168971864 * t796
-            + (0.988058949292 * y6_b1p_x - 0.089933105880942 * y6_b1p_y),
+            + (0.988058949292 * y6_b1a_x - 0.089933105880942 * y6_b1a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -1982,12 +1982,12 @@ fn branch_1(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2071,16 +2071,16 @@ fn branch_2(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2089,70 +2089,70 @@ fn branch_2(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t173 = 0.5881251211149515 * w_p_z
-        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
-    let t177 = w_p_x - 0.7712839289086363 * t173;
-    let t178 = w_p_y - 0.24337202575641612 * t173;
-    let t179 = w_p_z - 0.5881251211149515 * t173;
+    let t173 = 0.5881251211149515 * w_a_z
+        + (0.7712839289086363 * w_a_x + 0.24337202575641612 * w_a_y);
+    let t177 = w_a_x - 0.7712839289086363 * t173;
+    let t178 = w_a_y - 0.24337202575641612 * t173;
+    let t179 = w_a_z - 0.5881251211149515 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_p - 0.6411670638136766),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_a - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+    let j2_inv_a = 1.0
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pp = 0.4071777476800675 * j3_cos_psi_p
-        - 0.9133489375885797 * j3_sin_psi_p;
+    let j3_cos_aa = 0.4071777476800675 * j3_cos_psi_a
+        - 0.9133489375885797 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = 0.9133489375885797 * j3_cos_psi_p
-        + 0.4071777476800675 * j3_sin_psi_p;
+    let j3_sin_aa = 0.9133489375885797 * j3_cos_psi_a
+        + 0.4071777476800675 * j3_sin_psi_a;
     // θ3 = φ3 = φ0 + ψ
-    let q3_pp = j3_psi_p + 1.151434405282846;
-    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+    let q3_aa = j3_psi_a + 1.151434405282846;
+    let t263 = 0.29618845398521326 * j3_cos_aa + 0.2631411817706989 * j3_sin_aa
         + 0.292065217972989;
-    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+    let t265 = 0.5192451277093607 * j3_cos_aa - 0.3080607744485827 * j3_sin_aa
         - 0.05659539424856903;
-    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+    let t266 = 0.17356112199186785 * j3_cos_aa + 0.4725694062183847 * j3_sin_aa
         + 0.4064423300085499;
-    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
-    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
-        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
-        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    let t271 = w_a_z * t266 + (w_a_y * t265 - w_a_x * t263);
+    let t285 = 0.7712839289086363 * (w_a_z * t265 - w_a_y * t266)
+        + 0.24337202575641612 * (w_a_x * t266 + w_a_z * t263)
+        - 0.5881251211149515 * (w_a_y * t263 + w_a_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_aa = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_a * t271;
+    let t288 = j2_inv_a * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    let c23_aa = j3_cos_aa * t287 - j3_sin_aa * t288;
     // sin(θ2 + φ3)
-    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let s23_aa = j3_cos_aa * t288 + j3_sin_aa * t287;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -2188,27 +2188,27 @@ fn branch_2(
     let t515 = 0.7420132094704153 * t514;
     let t516 = 0.6488154409724827 * t514;
     let t517 = 0.16868586344770164 * t514;
-    let t539 = j1_cos_p * (g6_x + t515)
-        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t539 = j1_cos_a * (g6_x + t515)
+        - j1_sin_a * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t540 = t516
-        + (j1_cos_p * (g6_y - t516)
-            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_a * (g6_y - t516)
+            - j1_sin_a * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t541 = t517
-        + (j1_cos_p * (g6_z - t517)
-            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+        + (j1_cos_a * (g6_z - t517)
+            + j1_sin_a * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
     let t546 = 0.16868586344770164 * gx_z
         + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t571 = j1_cos_p * (gx_x + t547)
-        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+    let t571 = j1_cos_a * (gx_x + t547)
+        - j1_sin_a * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t572 = t548
-        + (j1_cos_p * (gx_y - t548)
-            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_a * (gx_y - t548)
+            - j1_sin_a * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t573 = t549
-        + (j1_cos_p * (gx_z - t549)
-            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_a * (gx_z - t549)
+            + j1_sin_a * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t578 = 0.5881251211149515 * t541
         + (0.7712839289086363 * t539 + 0.24337202575641612 * t540);
     let t579 = 0.7712839289086363 * t578;
@@ -2216,16 +2216,16 @@ fn branch_2(
     let t581 = 0.5881251211149515 * t578;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t579
-        + (c23_pp * (t539 - t579)
-            - s23_pp * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
+        + (c23_aa * (t539 - t579)
+            - s23_aa * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b1_y = t580
-        + (c23_pp * (t540 - t580)
-            - s23_pp * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
+        + (c23_aa * (t540 - t580)
+            - s23_aa * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b1_z = t581
-        + (c23_pp * (t541 - t581)
-            - s23_pp * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
+        + (c23_aa * (t541 - t581)
+            - s23_aa * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
     let t610 = 0.5881251211149515 * t573
         + (0.7712839289086363 * t571 + 0.24337202575641612 * t572);
     let t611 = 0.7712839289086363 * t610;
@@ -2233,16 +2233,16 @@ fn branch_2(
     let t613 = 0.5881251211149515 * t610;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t611
-        + (c23_pp * (t571 - t611)
-            - s23_pp * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
+        + (c23_aa * (t571 - t611)
+            - s23_aa * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b1_y = t612
-        + (c23_pp * (t572 - t612)
-            - s23_pp * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
+        + (c23_aa * (t572 - t612)
+            - s23_aa * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b1_z = t613
-        + (c23_pp * (t573 - t613)
-            - s23_pp * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
+        + (c23_aa * (t573 - t613)
+            - s23_aa * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.35735915230664755 * v_b1_z
         + (0.6808066319245298 * v_b1_x + 0.6393721656361435 * v_b1_y);
@@ -2257,36 +2257,36 @@ fn branch_2(
     let t670 = 0.13945989068616807 * j5_gamma_b1;
     let t671 = 0.816848506504851 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = 0.6808066319245298 * j5_a_b1 - t669;
+    let z_b1a_x = 0.6808066319245298 * j5_a_b1 - t669;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = 0.6393721656361435 * j5_a_b1 + t670;
+    let z_b1a_y = 0.6393721656361435 * j5_a_b1 + t670;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = 0.35735915230664755 * j5_a_b1 + t671;
-    let t682 = 0.8022793632742343 * z_b1p_z
-        + (0.1540763211009523 * z_b1p_x + 0.5767220392357877 * z_b1p_y);
+    let z_b1a_z = 0.35735915230664755 * j5_a_b1 + t671;
+    let t682 = 0.8022793632742343 * z_b1a_z
+        + (0.1540763211009523 * z_b1a_x + 0.5767220392357877 * z_b1a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = -t682;
+    let j5_cos_b1a = -t682;
     let t700 = 0.45282773069178184
-        * (0.5767220392357884 * z_b1p_x - 0.15407632110095185 * z_b1p_y);
+        * (0.5767220392357884 * z_b1a_x - 0.15407632110095185 * z_b1a_y);
     let t701 = 0.7561442803457222
-        * (0.15407632110095185 * z_b1p_z - 0.8022793632742339 * z_b1p_x)
+        * (0.15407632110095185 * z_b1a_z - 0.8022793632742339 * z_b1a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b1p_y - 0.5767220392357884 * z_b1p_z);
+            * (0.8022793632742339 * z_b1a_y - 0.5767220392357884 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = t701 - t700;
+    let j5_sin_b1a = t701 - t700;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 {
+    let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
     } else {
         (v_b1_z * t671 + (v_b1_y * t670 - v_b1_x * t669)) * t725
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 {
+    let j4_sin_b1a = if aligned_b1 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b1_z * t670 - v_b1_y * t671)
@@ -2294,23 +2294,23 @@ fn branch_2(
             - 0.35735915230664755 * (v_b1_y * t669 + v_b1_x * t670)) * t725
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t736 = 0.35735915230664755 * xv_b1_z
         + (0.6808066319245298 * xv_b1_x + 0.6393721656361435 * xv_b1_y);
     let t737 = 0.6808066319245298 * t736;
     let t738 = 0.6393721656361435 * t736;
     let t739 = 0.35735915230664755 * t736;
     let t761 = t737
-        + (j4_cos_b1p * (xv_b1_x - t737)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_x - t737)
+            - j4_sin_b1a
                 * (0.6393721656361435 * xv_b1_z - 0.35735915230664755 * xv_b1_y));
     let t762 = t738
-        + (j4_cos_b1p * (xv_b1_y - t738)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t738)
+            - j4_sin_b1a
                 * (0.35735915230664755 * xv_b1_x - 0.6808066319245298 * xv_b1_z));
     let t763 = t739
-        + (j4_cos_b1p * (xv_b1_z - t739)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_z - t739)
+            - j4_sin_b1a
                 * (0.6808066319245298 * xv_b1_y - 0.6393721656361435 * xv_b1_x));
     let t764 = t700 - t701;
     let t769 = 0.7561442803457222 * t762 - 0.4724329302842692 * t761
@@ -2319,33 +2319,33 @@ fn branch_2(
     let t771 = 0.7561442803457222 * t769;
     let t772 = 0.45282773069178184 * t769;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t764 * (0.7561442803457222 * t763 + 0.45282773069178184 * t762)
+    let y6_b1a_x = t764 * (0.7561442803457222 * t763 + 0.45282773069178184 * t762)
         - t682 * (t761 + t770) - t770;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t771
+    let y6_b1a_y = t771
         + (t764 * (0.4724329302842692 * t763 - 0.45282773069178184 * t761)
             - t682 * (t762 - t771));
     let t796 = t772
         + (t682 * (t763 + t772)
             + t764 * (0.4724329302842692 * t762 + 0.7561442803457222 * t761));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b1p_y + 0.089933105880942 * y6_b1p_x)
+    let q6_b1a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b1a_y + 0.089933105880942 * y6_b1a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t796 + 0.12510615168971864 * y6_b1p_y)
+                * (0.089933105880942 * t796 + 0.12510615168971864 * y6_b1a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t796 - 0.12510615168971864 * y6_b1p_x))),
+                    * (0.988058949292 * t796 - 0.12510615168971864 * y6_b1a_x))),
         0.12510615168971864 * t796
-            + (0.988058949292 * y6_b1p_x - 0.089933105880942 * y6_b1p_y),
+            + (0.988058949292 * y6_b1a_x - 0.089933105880942 * y6_b1a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b1m = q4_b1p + ::core::f64::consts::PI;
+    let q4_b1b = q4_b1a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b1m = -4.869259549848829 - q5_b1p;
+    let q5_b1b = -4.869259549848829 - q5_b1a;
     // θ6 + π (mirror wrist branch)
-    let q6_b1m = q6_b1p + ::core::f64::consts::PI;
+    let q6_b1b = q6_b1a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -2359,12 +2359,12 @@ fn branch_2(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2448,16 +2448,16 @@ fn branch_3(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2466,70 +2466,70 @@ fn branch_3(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t173 = 0.5881251211149515 * w_p_z
-        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
-    let t177 = w_p_x - 0.7712839289086363 * t173;
-    let t178 = w_p_y - 0.24337202575641612 * t173;
-    let t179 = w_p_z - 0.5881251211149515 * t173;
+    let t173 = 0.5881251211149515 * w_a_z
+        + (0.7712839289086363 * w_a_x + 0.24337202575641612 * w_a_y);
+    let t177 = w_a_x - 0.7712839289086363 * t173;
+    let t178 = w_a_y - 0.24337202575641612 * t173;
+    let t179 = w_a_z - 0.5881251211149515 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_p - 0.6411670638136766),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_a - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+    let j2_inv_a = 1.0
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pm = 0.4071777476800675 * j3_cos_psi_p
-        + 0.9133489375885797 * j3_sin_psi_p;
+    let j3_cos_ab = 0.4071777476800675 * j3_cos_psi_a
+        + 0.9133489375885797 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.9133489375885797 * j3_cos_psi_p
-        - 0.4071777476800675 * j3_sin_psi_p;
+    let j3_sin_ab = 0.9133489375885797 * j3_cos_psi_a
+        - 0.4071777476800675 * j3_sin_psi_a;
     // θ3 = φ3 = φ0 − ψ
-    let q3_pm = 1.151434405282846 - j3_psi_p;
-    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+    let q3_ab = 1.151434405282846 - j3_psi_a;
+    let t307 = 0.29618845398521326 * j3_cos_ab + 0.2631411817706989 * j3_sin_ab
         + 0.292065217972989;
-    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+    let t308 = 0.5192451277093607 * j3_cos_ab - 0.3080607744485827 * j3_sin_ab
         - 0.05659539424856903;
-    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+    let t309 = 0.17356112199186785 * j3_cos_ab + 0.4725694062183847 * j3_sin_ab
         + 0.4064423300085499;
-    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
-    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
-        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
-        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    let t314 = w_a_z * t309 + (w_a_y * t308 - w_a_x * t307);
+    let t328 = 0.7712839289086363 * (w_a_z * t308 - w_a_y * t309)
+        + 0.24337202575641612 * (w_a_x * t309 + w_a_z * t307)
+        - 0.5881251211149515 * (w_a_y * t307 + w_a_x * t308);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
-    let t330 = j2_inv_p * t314;
-    let t331 = j2_inv_p * t328;
+    let q2_ab = ::armforge_runtime::math::atan2(t328, t314);
+    let t330 = j2_inv_a * t314;
+    let t331 = j2_inv_a * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    let c23_ab = j3_cos_ab * t330 - j3_sin_ab * t331;
     // sin(θ2 + φ3)
-    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let s23_ab = j3_cos_ab * t331 + j3_sin_ab * t330;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -2565,27 +2565,27 @@ fn branch_3(
     let t515 = 0.7420132094704153 * t514;
     let t516 = 0.6488154409724827 * t514;
     let t517 = 0.16868586344770164 * t514;
-    let t539 = j1_cos_p * (g6_x + t515)
-        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t539 = j1_cos_a * (g6_x + t515)
+        - j1_sin_a * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t540 = t516
-        + (j1_cos_p * (g6_y - t516)
-            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_a * (g6_y - t516)
+            - j1_sin_a * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t541 = t517
-        + (j1_cos_p * (g6_z - t517)
-            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+        + (j1_cos_a * (g6_z - t517)
+            + j1_sin_a * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
     let t546 = 0.16868586344770164 * gx_z
         + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t571 = j1_cos_p * (gx_x + t547)
-        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+    let t571 = j1_cos_a * (gx_x + t547)
+        - j1_sin_a * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t572 = t548
-        + (j1_cos_p * (gx_y - t548)
-            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_a * (gx_y - t548)
+            - j1_sin_a * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t573 = t549
-        + (j1_cos_p * (gx_z - t549)
-            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_a * (gx_z - t549)
+            + j1_sin_a * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t578 = 0.5881251211149515 * t541
         + (0.7712839289086363 * t539 + 0.24337202575641612 * t540);
     let t579 = 0.7712839289086363 * t578;
@@ -2598,28 +2598,28 @@ fn branch_3(
     let t613 = 0.5881251211149515 * t610;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t579
-        + (c23_pm * (t539 - t579)
-            - s23_pm * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
+        + (c23_ab * (t539 - t579)
+            - s23_ab * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b2_y = t580
-        + (c23_pm * (t540 - t580)
-            - s23_pm * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
+        + (c23_ab * (t540 - t580)
+            - s23_ab * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b2_z = t581
-        + (c23_pm * (t541 - t581)
-            - s23_pm * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
+        + (c23_ab * (t541 - t581)
+            - s23_ab * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t611
-        + (c23_pm * (t571 - t611)
-            - s23_pm * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
+        + (c23_ab * (t571 - t611)
+            - s23_ab * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b2_y = t612
-        + (c23_pm * (t572 - t612)
-            - s23_pm * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
+        + (c23_ab * (t572 - t612)
+            - s23_ab * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b2_z = t613
-        + (c23_pm * (t573 - t613)
-            - s23_pm * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
+        + (c23_ab * (t573 - t613)
+            - s23_ab * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.35735915230664755 * v_b2_z
         + (0.6808066319245298 * v_b2_x + 0.6393721656361435 * v_b2_y);
@@ -2634,36 +2634,36 @@ fn branch_3(
     let t875 = 0.13945989068616807 * j5_gamma_b2;
     let t876 = 0.816848506504851 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.6808066319245298 * j5_a_b2 - t874;
+    let z_b2a_x = 0.6808066319245298 * j5_a_b2 - t874;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.6393721656361435 * j5_a_b2 + t875;
+    let z_b2a_y = 0.6393721656361435 * j5_a_b2 + t875;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.35735915230664755 * j5_a_b2 + t876;
-    let t884 = 0.8022793632742343 * z_b2p_z
-        + (0.1540763211009523 * z_b2p_x + 0.5767220392357877 * z_b2p_y);
+    let z_b2a_z = 0.35735915230664755 * j5_a_b2 + t876;
+    let t884 = 0.8022793632742343 * z_b2a_z
+        + (0.1540763211009523 * z_b2a_x + 0.5767220392357877 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t884;
+    let j5_cos_b2a = -t884;
     let t897 = 0.45282773069178184
-        * (0.5767220392357884 * z_b2p_x - 0.15407632110095185 * z_b2p_y);
+        * (0.5767220392357884 * z_b2a_x - 0.15407632110095185 * z_b2a_y);
     let t898 = 0.7561442803457222
-        * (0.15407632110095185 * z_b2p_z - 0.8022793632742339 * z_b2p_x)
+        * (0.15407632110095185 * z_b2a_z - 0.8022793632742339 * z_b2a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b2p_y - 0.5767220392357884 * z_b2p_z);
+            * (0.8022793632742339 * z_b2a_y - 0.5767220392357884 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = t898 - t897;
+    let j5_sin_b2a = t898 - t897;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_z * t876 + (v_b2_y * t875 - v_b2_x * t874)) * t921
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b2_z * t875 - v_b2_y * t876)
@@ -2671,23 +2671,23 @@ fn branch_3(
             - 0.35735915230664755 * (v_b2_y * t874 + v_b2_x * t875)) * t921
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t932 = 0.35735915230664755 * xv_b2_z
         + (0.6808066319245298 * xv_b2_x + 0.6393721656361435 * xv_b2_y);
     let t933 = 0.6808066319245298 * t932;
     let t934 = 0.6393721656361435 * t932;
     let t935 = 0.35735915230664755 * t932;
     let t957 = t933
-        + (j4_cos_b2p * (xv_b2_x - t933)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_x - t933)
+            - j4_sin_b2a
                 * (0.6393721656361435 * xv_b2_z - 0.35735915230664755 * xv_b2_y));
     let t958 = t934
-        + (j4_cos_b2p * (xv_b2_y - t934)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t934)
+            - j4_sin_b2a
                 * (0.35735915230664755 * xv_b2_x - 0.6808066319245298 * xv_b2_z));
     let t959 = t935
-        + (j4_cos_b2p * (xv_b2_z - t935)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_z - t935)
+            - j4_sin_b2a
                 * (0.6808066319245298 * xv_b2_y - 0.6393721656361435 * xv_b2_x));
     let t960 = t897 - t898;
     let t965 = 0.7561442803457222 * t958 - 0.4724329302842692 * t957
@@ -2696,27 +2696,27 @@ fn branch_3(
     let t967 = 0.7561442803457222 * t965;
     let t968 = 0.45282773069178184 * t965;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t960 * (0.7561442803457222 * t959 + 0.45282773069178184 * t958)
+    let y6_b2a_x = t960 * (0.7561442803457222 * t959 + 0.45282773069178184 * t958)
         - t884 * (t957 + t966) - t966;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t967
+    let y6_b2a_y = t967
         + (t960 * (0.4724329302842692 * t959 - 0.45282773069178184 * t957)
             - t884 * (t958 - t967));
     let t992 = t968
         + (t884 * (t959 + t968)
             + t960 * (0.4724329302842692 * t958 + 0.7561442803457222 * t957));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b2p_y + 0.089933105880942 * y6_b2p_x)
+    let q6_b2a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b2a_y + 0.089933105880942 * y6_b2a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t992 + 0.12510615168971864 * y6_b2p_y)
+                * (0.089933105880942 * t992 + 0.12510615168971864 * y6_b2a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t992 - 0.12510615168971864 * y6_b2p_x))),
+                    * (0.988058949292 * t992 - 0.12510615168971864 * y6_b2a_x))),
         0.12510615168971864 * t992
-            + (0.988058949292 * y6_b2p_x - 0.089933105880942 * y6_b2p_y),
+            + (0.988058949292 * y6_b2a_x - 0.089933105880942 * y6_b2a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -2730,12 +2730,12 @@ fn branch_3(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -2819,16 +2819,16 @@ fn branch_4(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2837,70 +2837,70 @@ fn branch_4(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = j1_cos_p * (u_x + t133)
-        - j1_sin_p * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_a_x = j1_cos_a * (u_x + t133)
+        - j1_sin_a * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            + j1_sin_p * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            + j1_sin_a * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t173 = 0.5881251211149515 * w_p_z
-        + (0.7712839289086363 * w_p_x + 0.24337202575641612 * w_p_y);
-    let t177 = w_p_x - 0.7712839289086363 * t173;
-    let t178 = w_p_y - 0.24337202575641612 * t173;
-    let t179 = w_p_z - 0.5881251211149515 * t173;
+    let t173 = 0.5881251211149515 * w_a_z
+        + (0.7712839289086363 * w_a_x + 0.24337202575641612 * w_a_y);
+    let t177 = w_a_x - 0.7712839289086363 * t173;
+    let t178 = w_a_y - 0.24337202575641612 * t173;
+    let t179 = w_a_z - 0.5881251211149515 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_p - 0.6411670638136766),
+    let j3_cos_psi_a = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_a - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
+    let j3_sin_psi_a = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_a) * (j3_cos_psi_a + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_p = 1.0
-        / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
+    let j2_inv_a = 1.0
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pm = 0.4071777476800675 * j3_cos_psi_p
-        + 0.9133489375885797 * j3_sin_psi_p;
+    let j3_cos_ab = 0.4071777476800675 * j3_cos_psi_a
+        + 0.9133489375885797 * j3_sin_psi_a;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = 0.9133489375885797 * j3_cos_psi_p
-        - 0.4071777476800675 * j3_sin_psi_p;
+    let j3_sin_ab = 0.9133489375885797 * j3_cos_psi_a
+        - 0.4071777476800675 * j3_sin_psi_a;
     // θ3 = φ3 = φ0 − ψ
-    let q3_pm = 1.151434405282846 - j3_psi_p;
-    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+    let q3_ab = 1.151434405282846 - j3_psi_a;
+    let t307 = 0.29618845398521326 * j3_cos_ab + 0.2631411817706989 * j3_sin_ab
         + 0.292065217972989;
-    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+    let t308 = 0.5192451277093607 * j3_cos_ab - 0.3080607744485827 * j3_sin_ab
         - 0.05659539424856903;
-    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+    let t309 = 0.17356112199186785 * j3_cos_ab + 0.4725694062183847 * j3_sin_ab
         + 0.4064423300085499;
-    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
-    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
-        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
-        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    let t314 = w_a_z * t309 + (w_a_y * t308 - w_a_x * t307);
+    let t328 = 0.7712839289086363 * (w_a_z * t308 - w_a_y * t309)
+        + 0.24337202575641612 * (w_a_x * t309 + w_a_z * t307)
+        - 0.5881251211149515 * (w_a_y * t307 + w_a_x * t308);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
-    let t330 = j2_inv_p * t314;
-    let t331 = j2_inv_p * t328;
+    let q2_ab = ::armforge_runtime::math::atan2(t328, t314);
+    let t330 = j2_inv_a * t314;
+    let t331 = j2_inv_a * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    let c23_ab = j3_cos_ab * t330 - j3_sin_ab * t331;
     // sin(θ2 + φ3)
-    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let s23_ab = j3_cos_ab * t331 + j3_sin_ab * t330;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -2936,27 +2936,27 @@ fn branch_4(
     let t515 = 0.7420132094704153 * t514;
     let t516 = 0.6488154409724827 * t514;
     let t517 = 0.16868586344770164 * t514;
-    let t539 = j1_cos_p * (g6_x + t515)
-        - j1_sin_p * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t539 = j1_cos_a * (g6_x + t515)
+        - j1_sin_a * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t540 = t516
-        + (j1_cos_p * (g6_y - t516)
-            - j1_sin_p * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_a * (g6_y - t516)
+            - j1_sin_a * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t541 = t517
-        + (j1_cos_p * (g6_z - t517)
-            + j1_sin_p * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+        + (j1_cos_a * (g6_z - t517)
+            + j1_sin_a * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
     let t546 = 0.16868586344770164 * gx_z
         + (0.6488154409724827 * gx_y - 0.7420132094704153 * gx_x);
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t571 = j1_cos_p * (gx_x + t547)
-        - j1_sin_p * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+    let t571 = j1_cos_a * (gx_x + t547)
+        - j1_sin_a * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t572 = t548
-        + (j1_cos_p * (gx_y - t548)
-            - j1_sin_p * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_a * (gx_y - t548)
+            - j1_sin_a * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t573 = t549
-        + (j1_cos_p * (gx_z - t549)
-            + j1_sin_p * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_a * (gx_z - t549)
+            + j1_sin_a * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t578 = 0.5881251211149515 * t541
         + (0.7712839289086363 * t539 + 0.24337202575641612 * t540);
     let t579 = 0.7712839289086363 * t578;
@@ -2969,28 +2969,28 @@ fn branch_4(
     let t613 = 0.5881251211149515 * t610;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t579
-        + (c23_pm * (t539 - t579)
-            - s23_pm * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
+        + (c23_ab * (t539 - t579)
+            - s23_ab * (0.24337202575641612 * t541 - 0.5881251211149515 * t540));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b2_y = t580
-        + (c23_pm * (t540 - t580)
-            - s23_pm * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
+        + (c23_ab * (t540 - t580)
+            - s23_ab * (0.5881251211149515 * t539 - 0.7712839289086363 * t541));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b2_z = t581
-        + (c23_pm * (t541 - t581)
-            - s23_pm * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
+        + (c23_ab * (t541 - t581)
+            - s23_ab * (0.7712839289086363 * t540 - 0.24337202575641612 * t539));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t611
-        + (c23_pm * (t571 - t611)
-            - s23_pm * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
+        + (c23_ab * (t571 - t611)
+            - s23_ab * (0.24337202575641612 * t573 - 0.5881251211149515 * t572));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b2_y = t612
-        + (c23_pm * (t572 - t612)
-            - s23_pm * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
+        + (c23_ab * (t572 - t612)
+            - s23_ab * (0.5881251211149515 * t571 - 0.7712839289086363 * t573));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b2_z = t613
-        + (c23_pm * (t573 - t613)
-            - s23_pm * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
+        + (c23_ab * (t573 - t613)
+            - s23_ab * (0.7712839289086363 * t572 - 0.24337202575641612 * t571));
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.35735915230664755 * v_b2_z
         + (0.6808066319245298 * v_b2_x + 0.6393721656361435 * v_b2_y);
@@ -3005,36 +3005,36 @@ fn branch_4(
     let t875 = 0.13945989068616807 * j5_gamma_b2;
     let t876 = 0.816848506504851 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = 0.6808066319245298 * j5_a_b2 - t874;
+    let z_b2a_x = 0.6808066319245298 * j5_a_b2 - t874;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = 0.6393721656361435 * j5_a_b2 + t875;
+    let z_b2a_y = 0.6393721656361435 * j5_a_b2 + t875;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = 0.35735915230664755 * j5_a_b2 + t876;
-    let t884 = 0.8022793632742343 * z_b2p_z
-        + (0.1540763211009523 * z_b2p_x + 0.5767220392357877 * z_b2p_y);
+    let z_b2a_z = 0.35735915230664755 * j5_a_b2 + t876;
+    let t884 = 0.8022793632742343 * z_b2a_z
+        + (0.1540763211009523 * z_b2a_x + 0.5767220392357877 * z_b2a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = -t884;
+    let j5_cos_b2a = -t884;
     let t897 = 0.45282773069178184
-        * (0.5767220392357884 * z_b2p_x - 0.15407632110095185 * z_b2p_y);
+        * (0.5767220392357884 * z_b2a_x - 0.15407632110095185 * z_b2a_y);
     let t898 = 0.7561442803457222
-        * (0.15407632110095185 * z_b2p_z - 0.8022793632742339 * z_b2p_x)
+        * (0.15407632110095185 * z_b2a_z - 0.8022793632742339 * z_b2a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b2p_y - 0.5767220392357884 * z_b2p_z);
+            * (0.8022793632742339 * z_b2a_y - 0.5767220392357884 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = t898 - t897;
+    let j5_sin_b2a = t898 - t897;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 {
+    let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
     } else {
         (v_b2_z * t876 + (v_b2_y * t875 - v_b2_x * t874)) * t921
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 {
+    let j4_sin_b2a = if aligned_b2 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b2_z * t875 - v_b2_y * t876)
@@ -3042,23 +3042,23 @@ fn branch_4(
             - 0.35735915230664755 * (v_b2_y * t874 + v_b2_x * t875)) * t921
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t932 = 0.35735915230664755 * xv_b2_z
         + (0.6808066319245298 * xv_b2_x + 0.6393721656361435 * xv_b2_y);
     let t933 = 0.6808066319245298 * t932;
     let t934 = 0.6393721656361435 * t932;
     let t935 = 0.35735915230664755 * t932;
     let t957 = t933
-        + (j4_cos_b2p * (xv_b2_x - t933)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_x - t933)
+            - j4_sin_b2a
                 * (0.6393721656361435 * xv_b2_z - 0.35735915230664755 * xv_b2_y));
     let t958 = t934
-        + (j4_cos_b2p * (xv_b2_y - t934)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t934)
+            - j4_sin_b2a
                 * (0.35735915230664755 * xv_b2_x - 0.6808066319245298 * xv_b2_z));
     let t959 = t935
-        + (j4_cos_b2p * (xv_b2_z - t935)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_z - t935)
+            - j4_sin_b2a
                 * (0.6808066319245298 * xv_b2_y - 0.6393721656361435 * xv_b2_x));
     let t960 = t897 - t898;
     let t965 = 0.7561442803457222 * t958 - 0.4724329302842692 * t957
@@ -3067,33 +3067,33 @@ fn branch_4(
     let t967 = 0.7561442803457222 * t965;
     let t968 = 0.45282773069178184 * t965;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t960 * (0.7561442803457222 * t959 + 0.45282773069178184 * t958)
+    let y6_b2a_x = t960 * (0.7561442803457222 * t959 + 0.45282773069178184 * t958)
         - t884 * (t957 + t966) - t966;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t967
+    let y6_b2a_y = t967
         + (t960 * (0.4724329302842692 * t959 - 0.45282773069178184 * t957)
             - t884 * (t958 - t967));
     let t992 = t968
         + (t884 * (t959 + t968)
             + t960 * (0.4724329302842692 * t958 + 0.7561442803457222 * t957));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b2p_y + 0.089933105880942 * y6_b2p_x)
+    let q6_b2a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b2a_y + 0.089933105880942 * y6_b2a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t992 + 0.12510615168971864 * y6_b2p_y)
+                * (0.089933105880942 * t992 + 0.12510615168971864 * y6_b2a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t992 - 0.12510615168971864 * y6_b2p_x))),
+                    * (0.988058949292 * t992 - 0.12510615168971864 * y6_b2a_x))),
         0.12510615168971864 * t992
-            + (0.988058949292 * y6_b2p_x - 0.089933105880942 * y6_b2p_y),
+            + (0.988058949292 * y6_b2a_x - 0.089933105880942 * y6_b2a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b2m = q4_b2p + ::core::f64::consts::PI;
+    let q4_b2b = q4_b2a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b2m = -4.869259549848829 - q5_b2p;
+    let q5_b2b = -4.869259549848829 - q5_b2a;
     // θ6 + π (mirror wrist branch)
-    let q6_b2m = q6_b2p + ::core::f64::consts::PI;
+    let q6_b2b = q6_b2a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3107,12 +3107,12 @@ fn branch_4(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3196,16 +3196,16 @@ fn branch_5(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3214,70 +3214,70 @@ fn branch_5(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t205 = 0.5881251211149515 * w_m_z
-        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
-    let t209 = w_m_x - 0.7712839289086363 * t205;
-    let t210 = w_m_y - 0.24337202575641612 * t205;
-    let t211 = w_m_z - 0.5881251211149515 * t205;
+    let t205 = 0.5881251211149515 * w_b_z
+        + (0.7712839289086363 * w_b_x + 0.24337202575641612 * w_b_y);
+    let t209 = w_b_x - 0.7712839289086363 * t205;
+    let t210 = w_b_y - 0.24337202575641612 * t205;
+    let t211 = w_b_z - 0.5881251211149515 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_m - 0.6411670638136766),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_b - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+    let j2_inv_b = 1.0
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_mp = 0.4071777476800675 * j3_cos_psi_m
-        - 0.9133489375885797 * j3_sin_psi_m;
+    let j3_cos_ba = 0.4071777476800675 * j3_cos_psi_b
+        - 0.9133489375885797 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = 0.9133489375885797 * j3_cos_psi_m
-        + 0.4071777476800675 * j3_sin_psi_m;
+    let j3_sin_ba = 0.9133489375885797 * j3_cos_psi_b
+        + 0.4071777476800675 * j3_sin_psi_b;
     // θ3 = φ3 = φ0 + ψ
-    let q3_mp = j3_psi_m + 1.151434405282846;
-    let t370 = 0.29618845398521326 * j3_cos_mp + 0.2631411817706989 * j3_sin_mp
+    let q3_ba = j3_psi_b + 1.151434405282846;
+    let t370 = 0.29618845398521326 * j3_cos_ba + 0.2631411817706989 * j3_sin_ba
         + 0.292065217972989;
-    let t371 = 0.5192451277093607 * j3_cos_mp - 0.3080607744485827 * j3_sin_mp
+    let t371 = 0.5192451277093607 * j3_cos_ba - 0.3080607744485827 * j3_sin_ba
         - 0.05659539424856903;
-    let t372 = 0.17356112199186785 * j3_cos_mp + 0.4725694062183847 * j3_sin_mp
+    let t372 = 0.17356112199186785 * j3_cos_ba + 0.4725694062183847 * j3_sin_ba
         + 0.4064423300085499;
-    let t377 = w_m_z * t372 + (w_m_y * t371 - w_m_x * t370);
-    let t391 = 0.7712839289086363 * (w_m_z * t371 - w_m_y * t372)
-        + 0.24337202575641612 * (w_m_x * t372 + w_m_z * t370)
-        - 0.5881251211149515 * (w_m_y * t370 + w_m_x * t371);
+    let t377 = w_b_z * t372 + (w_b_y * t371 - w_b_x * t370);
+    let t391 = 0.7712839289086363 * (w_b_z * t371 - w_b_y * t372)
+        + 0.24337202575641612 * (w_b_x * t372 + w_b_z * t370)
+        - 0.5881251211149515 * (w_b_y * t370 + w_b_x * t371);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
-    let t393 = j2_inv_m * t377;
-    let t394 = j2_inv_m * t391;
+    let q2_ba = ::armforge_runtime::math::atan2(t391, t377);
+    let t393 = j2_inv_b * t377;
+    let t394 = j2_inv_b * t391;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t393 - j3_sin_mp * t394;
+    let c23_ba = j3_cos_ba * t393 - j3_sin_ba * t394;
     // sin(θ2 + φ3)
-    let s23_mp = j3_cos_mp * t394 + j3_sin_mp * t393;
+    let s23_ba = j3_cos_ba * t394 + j3_sin_ba * t393;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -3318,22 +3318,22 @@ fn branch_5(
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t1026 = j1_cos_m * (g6_x + t515)
-        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t1026 = j1_cos_b * (g6_x + t515)
+        - j1_sin_b * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t1027 = t516
-        + (j1_cos_m * (g6_y - t516)
-            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_b * (g6_y - t516)
+            - j1_sin_b * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t1028 = t517
-        + (j1_cos_m * (g6_z - t517)
-            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
-    let t1038 = j1_cos_m * (gx_x + t547)
-        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+        + (j1_cos_b * (g6_z - t517)
+            + j1_sin_b * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1038 = j1_cos_b * (gx_x + t547)
+        - j1_sin_b * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t1039 = t548
-        + (j1_cos_m * (gx_y - t548)
-            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_b * (gx_y - t548)
+            - j1_sin_b * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t1040 = t549
-        + (j1_cos_m * (gx_z - t549)
-            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_b * (gx_z - t549)
+            + j1_sin_b * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t1045 = 0.5881251211149515 * t1028
         + (0.7712839289086363 * t1026 + 0.24337202575641612 * t1027);
     let t1046 = 0.7712839289086363 * t1045;
@@ -3341,16 +3341,16 @@ fn branch_5(
     let t1048 = 0.5881251211149515 * t1045;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1046
-        + (c23_mp * (t1026 - t1046)
-            - s23_mp * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
+        + (c23_ba * (t1026 - t1046)
+            - s23_ba * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1047
-        + (c23_mp * (t1027 - t1047)
-            - s23_mp * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
+        + (c23_ba * (t1027 - t1047)
+            - s23_ba * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1048
-        + (c23_mp * (t1028 - t1048)
-            - s23_mp * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
+        + (c23_ba * (t1028 - t1048)
+            - s23_ba * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
     let t1077 = 0.5881251211149515 * t1040
         + (0.7712839289086363 * t1038 + 0.24337202575641612 * t1039);
     let t1078 = 0.7712839289086363 * t1077;
@@ -3358,16 +3358,16 @@ fn branch_5(
     let t1080 = 0.5881251211149515 * t1077;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1078
-        + (c23_mp * (t1038 - t1078)
-            - s23_mp * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
+        + (c23_ba * (t1038 - t1078)
+            - s23_ba * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1079
-        + (c23_mp * (t1039 - t1079)
-            - s23_mp * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
+        + (c23_ba * (t1039 - t1079)
+            - s23_ba * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1080
-        + (c23_mp * (t1040 - t1080)
-            - s23_mp * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
+        + (c23_ba * (t1040 - t1080)
+            - s23_ba * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.35735915230664755 * v_b3_z
         + (0.6808066319245298 * v_b3_x + 0.6393721656361435 * v_b3_y);
@@ -3382,36 +3382,36 @@ fn branch_5(
     let t1130 = 0.13945989068616807 * j5_gamma_b3;
     let t1131 = 0.816848506504851 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.6808066319245298 * j5_a_b3 - t1129;
+    let z_b3a_x = 0.6808066319245298 * j5_a_b3 - t1129;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.6393721656361435 * j5_a_b3 + t1130;
+    let z_b3a_y = 0.6393721656361435 * j5_a_b3 + t1130;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.35735915230664755 * j5_a_b3 + t1131;
-    let t1139 = 0.8022793632742343 * z_b3p_z
-        + (0.1540763211009523 * z_b3p_x + 0.5767220392357877 * z_b3p_y);
+    let z_b3a_z = 0.35735915230664755 * j5_a_b3 + t1131;
+    let t1139 = 0.8022793632742343 * z_b3a_z
+        + (0.1540763211009523 * z_b3a_x + 0.5767220392357877 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1139;
+    let j5_cos_b3a = -t1139;
     let t1152 = 0.45282773069178184
-        * (0.5767220392357884 * z_b3p_x - 0.15407632110095185 * z_b3p_y);
+        * (0.5767220392357884 * z_b3a_x - 0.15407632110095185 * z_b3a_y);
     let t1153 = 0.7561442803457222
-        * (0.15407632110095185 * z_b3p_z - 0.8022793632742339 * z_b3p_x)
+        * (0.15407632110095185 * z_b3a_z - 0.8022793632742339 * z_b3a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b3p_y - 0.5767220392357884 * z_b3p_z);
+            * (0.8022793632742339 * z_b3a_y - 0.5767220392357884 * z_b3a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = t1153 - t1152;
+    let j5_sin_b3a = t1153 - t1152;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_z * t1131 + (v_b3_y * t1130 - v_b3_x * t1129)) * t1176
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b3_z * t1130 - v_b3_y * t1131)
@@ -3419,23 +3419,23 @@ fn branch_5(
             - 0.35735915230664755 * (v_b3_y * t1129 + v_b3_x * t1130)) * t1176
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1187 = 0.35735915230664755 * xv_b3_z
         + (0.6808066319245298 * xv_b3_x + 0.6393721656361435 * xv_b3_y);
     let t1188 = 0.6808066319245298 * t1187;
     let t1189 = 0.6393721656361435 * t1187;
     let t1190 = 0.35735915230664755 * t1187;
     let t1212 = t1188
-        + (j4_cos_b3p * (xv_b3_x - t1188)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_x - t1188)
+            - j4_sin_b3a
                 * (0.6393721656361435 * xv_b3_z - 0.35735915230664755 * xv_b3_y));
     let t1213 = t1189
-        + (j4_cos_b3p * (xv_b3_y - t1189)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1189)
+            - j4_sin_b3a
                 * (0.35735915230664755 * xv_b3_x - 0.6808066319245298 * xv_b3_z));
     let t1214 = t1190
-        + (j4_cos_b3p * (xv_b3_z - t1190)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_z - t1190)
+            - j4_sin_b3a
                 * (0.6808066319245298 * xv_b3_y - 0.6393721656361435 * xv_b3_x));
     let t1215 = t1152 - t1153;
     let t1220 = 0.7561442803457222 * t1213 - 0.4724329302842692 * t1212
@@ -3444,27 +3444,27 @@ fn branch_5(
     let t1222 = 0.7561442803457222 * t1220;
     let t1223 = 0.45282773069178184 * t1220;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1215 * (0.7561442803457222 * t1214 + 0.45282773069178184 * t1213)
+    let y6_b3a_x = t1215 * (0.7561442803457222 * t1214 + 0.45282773069178184 * t1213)
         - t1139 * (t1212 + t1221) - t1221;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1222
+    let y6_b3a_y = t1222
         + (t1215 * (0.4724329302842692 * t1214 - 0.45282773069178184 * t1212)
             - t1139 * (t1213 - t1222));
     let t1247 = t1223
         + (t1139 * (t1214 + t1223)
             + t1215 * (0.4724329302842692 * t1213 + 0.7561442803457222 * t1212));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b3p_y + 0.089933105880942 * y6_b3p_x)
+    let q6_b3a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b3a_y + 0.089933105880942 * y6_b3a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t1247 + 0.12510615168971864 * y6_b3p_y)
+                * (0.089933105880942 * t1247 + 0.12510615168971864 * y6_b3a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t1247 - 0.12510615168971864 * y6_b3p_x))),
+                    * (0.988058949292 * t1247 - 0.12510615168971864 * y6_b3a_x))),
         0.12510615168971864 * t1247
-            + (0.988058949292 * y6_b3p_x - 0.089933105880942 * y6_b3p_y),
+            + (0.988058949292 * y6_b3a_x - 0.089933105880942 * y6_b3a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3478,12 +3478,12 @@ fn branch_5(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3567,16 +3567,16 @@ fn branch_6(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3585,70 +3585,70 @@ fn branch_6(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t205 = 0.5881251211149515 * w_m_z
-        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
-    let t209 = w_m_x - 0.7712839289086363 * t205;
-    let t210 = w_m_y - 0.24337202575641612 * t205;
-    let t211 = w_m_z - 0.5881251211149515 * t205;
+    let t205 = 0.5881251211149515 * w_b_z
+        + (0.7712839289086363 * w_b_x + 0.24337202575641612 * w_b_y);
+    let t209 = w_b_x - 0.7712839289086363 * t205;
+    let t210 = w_b_y - 0.24337202575641612 * t205;
+    let t211 = w_b_z - 0.5881251211149515 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_m - 0.6411670638136766),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_b - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+    let j2_inv_b = 1.0
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_mp = 0.4071777476800675 * j3_cos_psi_m
-        - 0.9133489375885797 * j3_sin_psi_m;
+    let j3_cos_ba = 0.4071777476800675 * j3_cos_psi_b
+        - 0.9133489375885797 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = 0.9133489375885797 * j3_cos_psi_m
-        + 0.4071777476800675 * j3_sin_psi_m;
+    let j3_sin_ba = 0.9133489375885797 * j3_cos_psi_b
+        + 0.4071777476800675 * j3_sin_psi_b;
     // θ3 = φ3 = φ0 + ψ
-    let q3_mp = j3_psi_m + 1.151434405282846;
-    let t370 = 0.29618845398521326 * j3_cos_mp + 0.2631411817706989 * j3_sin_mp
+    let q3_ba = j3_psi_b + 1.151434405282846;
+    let t370 = 0.29618845398521326 * j3_cos_ba + 0.2631411817706989 * j3_sin_ba
         + 0.292065217972989;
-    let t371 = 0.5192451277093607 * j3_cos_mp - 0.3080607744485827 * j3_sin_mp
+    let t371 = 0.5192451277093607 * j3_cos_ba - 0.3080607744485827 * j3_sin_ba
         - 0.05659539424856903;
-    let t372 = 0.17356112199186785 * j3_cos_mp + 0.4725694062183847 * j3_sin_mp
+    let t372 = 0.17356112199186785 * j3_cos_ba + 0.4725694062183847 * j3_sin_ba
         + 0.4064423300085499;
-    let t377 = w_m_z * t372 + (w_m_y * t371 - w_m_x * t370);
-    let t391 = 0.7712839289086363 * (w_m_z * t371 - w_m_y * t372)
-        + 0.24337202575641612 * (w_m_x * t372 + w_m_z * t370)
-        - 0.5881251211149515 * (w_m_y * t370 + w_m_x * t371);
+    let t377 = w_b_z * t372 + (w_b_y * t371 - w_b_x * t370);
+    let t391 = 0.7712839289086363 * (w_b_z * t371 - w_b_y * t372)
+        + 0.24337202575641612 * (w_b_x * t372 + w_b_z * t370)
+        - 0.5881251211149515 * (w_b_y * t370 + w_b_x * t371);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
-    let t393 = j2_inv_m * t377;
-    let t394 = j2_inv_m * t391;
+    let q2_ba = ::armforge_runtime::math::atan2(t391, t377);
+    let t393 = j2_inv_b * t377;
+    let t394 = j2_inv_b * t391;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t393 - j3_sin_mp * t394;
+    let c23_ba = j3_cos_ba * t393 - j3_sin_ba * t394;
     // sin(θ2 + φ3)
-    let s23_mp = j3_cos_mp * t394 + j3_sin_mp * t393;
+    let s23_ba = j3_cos_ba * t394 + j3_sin_ba * t393;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -3689,22 +3689,22 @@ fn branch_6(
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t1026 = j1_cos_m * (g6_x + t515)
-        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t1026 = j1_cos_b * (g6_x + t515)
+        - j1_sin_b * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t1027 = t516
-        + (j1_cos_m * (g6_y - t516)
-            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_b * (g6_y - t516)
+            - j1_sin_b * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t1028 = t517
-        + (j1_cos_m * (g6_z - t517)
-            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
-    let t1038 = j1_cos_m * (gx_x + t547)
-        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+        + (j1_cos_b * (g6_z - t517)
+            + j1_sin_b * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1038 = j1_cos_b * (gx_x + t547)
+        - j1_sin_b * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t1039 = t548
-        + (j1_cos_m * (gx_y - t548)
-            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_b * (gx_y - t548)
+            - j1_sin_b * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t1040 = t549
-        + (j1_cos_m * (gx_z - t549)
-            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_b * (gx_z - t549)
+            + j1_sin_b * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t1045 = 0.5881251211149515 * t1028
         + (0.7712839289086363 * t1026 + 0.24337202575641612 * t1027);
     let t1046 = 0.7712839289086363 * t1045;
@@ -3712,16 +3712,16 @@ fn branch_6(
     let t1048 = 0.5881251211149515 * t1045;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b3_x = t1046
-        + (c23_mp * (t1026 - t1046)
-            - s23_mp * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
+        + (c23_ba * (t1026 - t1046)
+            - s23_ba * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b3_y = t1047
-        + (c23_mp * (t1027 - t1047)
-            - s23_mp * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
+        + (c23_ba * (t1027 - t1047)
+            - s23_ba * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b3_z = t1048
-        + (c23_mp * (t1028 - t1048)
-            - s23_mp * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
+        + (c23_ba * (t1028 - t1048)
+            - s23_ba * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
     let t1077 = 0.5881251211149515 * t1040
         + (0.7712839289086363 * t1038 + 0.24337202575641612 * t1039);
     let t1078 = 0.7712839289086363 * t1077;
@@ -3729,16 +3729,16 @@ fn branch_6(
     let t1080 = 0.5881251211149515 * t1077;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b3_x = t1078
-        + (c23_mp * (t1038 - t1078)
-            - s23_mp * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
+        + (c23_ba * (t1038 - t1078)
+            - s23_ba * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b3_y = t1079
-        + (c23_mp * (t1039 - t1079)
-            - s23_mp * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
+        + (c23_ba * (t1039 - t1079)
+            - s23_ba * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b3_z = t1080
-        + (c23_mp * (t1040 - t1080)
-            - s23_mp * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
+        + (c23_ba * (t1040 - t1080)
+            - s23_ba * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.35735915230664755 * v_b3_z
         + (0.6808066319245298 * v_b3_x + 0.6393721656361435 * v_b3_y);
@@ -3753,36 +3753,36 @@ fn branch_6(
     let t1130 = 0.13945989068616807 * j5_gamma_b3;
     let t1131 = 0.816848506504851 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = 0.6808066319245298 * j5_a_b3 - t1129;
+    let z_b3a_x = 0.6808066319245298 * j5_a_b3 - t1129;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = 0.6393721656361435 * j5_a_b3 + t1130;
+    let z_b3a_y = 0.6393721656361435 * j5_a_b3 + t1130;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = 0.35735915230664755 * j5_a_b3 + t1131;
-    let t1139 = 0.8022793632742343 * z_b3p_z
-        + (0.1540763211009523 * z_b3p_x + 0.5767220392357877 * z_b3p_y);
+    let z_b3a_z = 0.35735915230664755 * j5_a_b3 + t1131;
+    let t1139 = 0.8022793632742343 * z_b3a_z
+        + (0.1540763211009523 * z_b3a_x + 0.5767220392357877 * z_b3a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = -t1139;
+    let j5_cos_b3a = -t1139;
     let t1152 = 0.45282773069178184
-        * (0.5767220392357884 * z_b3p_x - 0.15407632110095185 * z_b3p_y);
+        * (0.5767220392357884 * z_b3a_x - 0.15407632110095185 * z_b3a_y);
     let t1153 = 0.7561442803457222
-        * (0.15407632110095185 * z_b3p_z - 0.8022793632742339 * z_b3p_x)
+        * (0.15407632110095185 * z_b3a_z - 0.8022793632742339 * z_b3a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b3p_y - 0.5767220392357884 * z_b3p_z);
+            * (0.8022793632742339 * z_b3a_y - 0.5767220392357884 * z_b3a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = t1153 - t1152;
+    let j5_sin_b3a = t1153 - t1152;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 {
+    let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
     } else {
         (v_b3_z * t1131 + (v_b3_y * t1130 - v_b3_x * t1129)) * t1176
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 {
+    let j4_sin_b3a = if aligned_b3 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b3_z * t1130 - v_b3_y * t1131)
@@ -3790,23 +3790,23 @@ fn branch_6(
             - 0.35735915230664755 * (v_b3_y * t1129 + v_b3_x * t1130)) * t1176
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1187 = 0.35735915230664755 * xv_b3_z
         + (0.6808066319245298 * xv_b3_x + 0.6393721656361435 * xv_b3_y);
     let t1188 = 0.6808066319245298 * t1187;
     let t1189 = 0.6393721656361435 * t1187;
     let t1190 = 0.35735915230664755 * t1187;
     let t1212 = t1188
-        + (j4_cos_b3p * (xv_b3_x - t1188)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_x - t1188)
+            - j4_sin_b3a
                 * (0.6393721656361435 * xv_b3_z - 0.35735915230664755 * xv_b3_y));
     let t1213 = t1189
-        + (j4_cos_b3p * (xv_b3_y - t1189)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1189)
+            - j4_sin_b3a
                 * (0.35735915230664755 * xv_b3_x - 0.6808066319245298 * xv_b3_z));
     let t1214 = t1190
-        + (j4_cos_b3p * (xv_b3_z - t1190)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_z - t1190)
+            - j4_sin_b3a
                 * (0.6808066319245298 * xv_b3_y - 0.6393721656361435 * xv_b3_x));
     let t1215 = t1152 - t1153;
     let t1220 = 0.7561442803457222 * t1213 - 0.4724329302842692 * t1212
@@ -3815,33 +3815,33 @@ fn branch_6(
     let t1222 = 0.7561442803457222 * t1220;
     let t1223 = 0.45282773069178184 * t1220;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1215 * (0.7561442803457222 * t1214 + 0.45282773069178184 * t1213)
+    let y6_b3a_x = t1215 * (0.7561442803457222 * t1214 + 0.45282773069178184 * t1213)
         - t1139 * (t1212 + t1221) - t1221;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1222
+    let y6_b3a_y = t1222
         + (t1215 * (0.4724329302842692 * t1214 - 0.45282773069178184 * t1212)
             - t1139 * (t1213 - t1222));
     let t1247 = t1223
         + (t1139 * (t1214 + t1223)
             + t1215 * (0.4724329302842692 * t1213 + 0.7561442803457222 * t1212));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b3p_y + 0.089933105880942 * y6_b3p_x)
+    let q6_b3a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b3a_y + 0.089933105880942 * y6_b3a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t1247 + 0.12510615168971864 * y6_b3p_y)
+                * (0.089933105880942 * t1247 + 0.12510615168971864 * y6_b3a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t1247 - 0.12510615168971864 * y6_b3p_x))),
+                    * (0.988058949292 * t1247 - 0.12510615168971864 * y6_b3a_x))),
         0.12510615168971864 * t1247
-            + (0.988058949292 * y6_b3p_x - 0.089933105880942 * y6_b3p_y),
+            + (0.988058949292 * y6_b3a_x - 0.089933105880942 * y6_b3a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b3m = q4_b3p + ::core::f64::consts::PI;
+    let q4_b3b = q4_b3a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b3m = -4.869259549848829 - q5_b3p;
+    let q5_b3b = -4.869259549848829 - q5_b3a;
     // θ6 + π (mirror wrist branch)
-    let q6_b3m = q6_b3p + ::core::f64::consts::PI;
+    let q6_b3b = q6_b3a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Down,
@@ -3855,12 +3855,12 @@ fn branch_6(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -3944,16 +3944,16 @@ fn branch_7(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3962,70 +3962,70 @@ fn branch_7(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t205 = 0.5881251211149515 * w_m_z
-        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
-    let t209 = w_m_x - 0.7712839289086363 * t205;
-    let t210 = w_m_y - 0.24337202575641612 * t205;
-    let t211 = w_m_z - 0.5881251211149515 * t205;
+    let t205 = 0.5881251211149515 * w_b_z
+        + (0.7712839289086363 * w_b_x + 0.24337202575641612 * w_b_y);
+    let t209 = w_b_x - 0.7712839289086363 * t205;
+    let t210 = w_b_y - 0.24337202575641612 * t205;
+    let t211 = w_b_z - 0.5881251211149515 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_m - 0.6411670638136766),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_b - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+    let j2_inv_b = 1.0
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_mm = 0.4071777476800675 * j3_cos_psi_m
-        + 0.9133489375885797 * j3_sin_psi_m;
+    let j3_cos_bb = 0.4071777476800675 * j3_cos_psi_b
+        + 0.9133489375885797 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.9133489375885797 * j3_cos_psi_m
-        - 0.4071777476800675 * j3_sin_psi_m;
+    let j3_sin_bb = 0.9133489375885797 * j3_cos_psi_b
+        - 0.4071777476800675 * j3_sin_psi_b;
     // θ3 = φ3 = φ0 − ψ
-    let q3_mm = 1.151434405282846 - j3_psi_m;
-    let t413 = 0.29618845398521326 * j3_cos_mm + 0.2631411817706989 * j3_sin_mm
+    let q3_bb = 1.151434405282846 - j3_psi_b;
+    let t413 = 0.29618845398521326 * j3_cos_bb + 0.2631411817706989 * j3_sin_bb
         + 0.292065217972989;
-    let t414 = 0.5192451277093607 * j3_cos_mm - 0.3080607744485827 * j3_sin_mm
+    let t414 = 0.5192451277093607 * j3_cos_bb - 0.3080607744485827 * j3_sin_bb
         - 0.05659539424856903;
-    let t415 = 0.17356112199186785 * j3_cos_mm + 0.4725694062183847 * j3_sin_mm
+    let t415 = 0.17356112199186785 * j3_cos_bb + 0.4725694062183847 * j3_sin_bb
         + 0.4064423300085499;
-    let t420 = w_m_z * t415 + (w_m_y * t414 - w_m_x * t413);
-    let t434 = 0.7712839289086363 * (w_m_z * t414 - w_m_y * t415)
-        + 0.24337202575641612 * (w_m_x * t415 + w_m_z * t413)
-        - 0.5881251211149515 * (w_m_y * t413 + w_m_x * t414);
+    let t420 = w_b_z * t415 + (w_b_y * t414 - w_b_x * t413);
+    let t434 = 0.7712839289086363 * (w_b_z * t414 - w_b_y * t415)
+        + 0.24337202575641612 * (w_b_x * t415 + w_b_z * t413)
+        - 0.5881251211149515 * (w_b_y * t413 + w_b_x * t414);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t434, t420);
-    let t436 = j2_inv_m * t420;
-    let t437 = j2_inv_m * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(t434, t420);
+    let t436 = j2_inv_b * t420;
+    let t437 = j2_inv_b * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_cos_mm * t436 - j3_sin_mm * t437;
+    let c23_bb = j3_cos_bb * t436 - j3_sin_bb * t437;
     // sin(θ2 + φ3)
-    let s23_mm = j3_cos_mm * t437 + j3_sin_mm * t436;
+    let s23_bb = j3_cos_bb * t437 + j3_sin_bb * t436;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -4066,22 +4066,22 @@ fn branch_7(
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t1026 = j1_cos_m * (g6_x + t515)
-        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t1026 = j1_cos_b * (g6_x + t515)
+        - j1_sin_b * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t1027 = t516
-        + (j1_cos_m * (g6_y - t516)
-            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_b * (g6_y - t516)
+            - j1_sin_b * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t1028 = t517
-        + (j1_cos_m * (g6_z - t517)
-            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
-    let t1038 = j1_cos_m * (gx_x + t547)
-        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+        + (j1_cos_b * (g6_z - t517)
+            + j1_sin_b * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1038 = j1_cos_b * (gx_x + t547)
+        - j1_sin_b * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t1039 = t548
-        + (j1_cos_m * (gx_y - t548)
-            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_b * (gx_y - t548)
+            - j1_sin_b * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t1040 = t549
-        + (j1_cos_m * (gx_z - t549)
-            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_b * (gx_z - t549)
+            + j1_sin_b * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t1045 = 0.5881251211149515 * t1028
         + (0.7712839289086363 * t1026 + 0.24337202575641612 * t1027);
     let t1046 = 0.7712839289086363 * t1045;
@@ -4094,28 +4094,28 @@ fn branch_7(
     let t1080 = 0.5881251211149515 * t1077;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1046
-        + (c23_mm * (t1026 - t1046)
-            - s23_mm * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
+        + (c23_bb * (t1026 - t1046)
+            - s23_bb * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b4_y = t1047
-        + (c23_mm * (t1027 - t1047)
-            - s23_mm * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
+        + (c23_bb * (t1027 - t1047)
+            - s23_bb * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b4_z = t1048
-        + (c23_mm * (t1028 - t1048)
-            - s23_mm * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
+        + (c23_bb * (t1028 - t1048)
+            - s23_bb * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b4_x = t1078
-        + (c23_mm * (t1038 - t1078)
-            - s23_mm * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
+        + (c23_bb * (t1038 - t1078)
+            - s23_bb * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b4_y = t1079
-        + (c23_mm * (t1039 - t1079)
-            - s23_mm * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
+        + (c23_bb * (t1039 - t1079)
+            - s23_bb * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b4_z = t1080
-        + (c23_mm * (t1040 - t1080)
-            - s23_mm * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
+        + (c23_bb * (t1040 - t1080)
+            - s23_bb * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.35735915230664755 * v_b4_z
         + (0.6808066319245298 * v_b4_x + 0.6393721656361435 * v_b4_y);
@@ -4130,36 +4130,36 @@ fn branch_7(
     let t1321 = 0.13945989068616807 * j5_gamma_b4;
     let t1322 = 0.816848506504851 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.6808066319245298 * j5_a_b4 - t1320;
+    let z_b4a_x = 0.6808066319245298 * j5_a_b4 - t1320;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.6393721656361435 * j5_a_b4 + t1321;
+    let z_b4a_y = 0.6393721656361435 * j5_a_b4 + t1321;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.35735915230664755 * j5_a_b4 + t1322;
-    let t1330 = 0.8022793632742343 * z_b4p_z
-        + (0.1540763211009523 * z_b4p_x + 0.5767220392357877 * z_b4p_y);
+    let z_b4a_z = 0.35735915230664755 * j5_a_b4 + t1322;
+    let t1330 = 0.8022793632742343 * z_b4a_z
+        + (0.1540763211009523 * z_b4a_x + 0.5767220392357877 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1330;
+    let j5_cos_b4a = -t1330;
     let t1343 = 0.45282773069178184
-        * (0.5767220392357884 * z_b4p_x - 0.15407632110095185 * z_b4p_y);
+        * (0.5767220392357884 * z_b4a_x - 0.15407632110095185 * z_b4a_y);
     let t1344 = 0.7561442803457222
-        * (0.15407632110095185 * z_b4p_z - 0.8022793632742339 * z_b4p_x)
+        * (0.15407632110095185 * z_b4a_z - 0.8022793632742339 * z_b4a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b4p_y - 0.5767220392357884 * z_b4p_z);
+            * (0.8022793632742339 * z_b4a_y - 0.5767220392357884 * z_b4a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = t1344 - t1343;
+    let j5_sin_b4a = t1344 - t1343;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_z * t1322 + (v_b4_y * t1321 - v_b4_x * t1320)) * t1367
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b4_z * t1321 - v_b4_y * t1322)
@@ -4167,23 +4167,23 @@ fn branch_7(
             - 0.35735915230664755 * (v_b4_y * t1320 + v_b4_x * t1321)) * t1367
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1378 = 0.35735915230664755 * xv_b4_z
         + (0.6808066319245298 * xv_b4_x + 0.6393721656361435 * xv_b4_y);
     let t1379 = 0.6808066319245298 * t1378;
     let t1380 = 0.6393721656361435 * t1378;
     let t1381 = 0.35735915230664755 * t1378;
     let t1403 = t1379
-        + (j4_cos_b4p * (xv_b4_x - t1379)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_x - t1379)
+            - j4_sin_b4a
                 * (0.6393721656361435 * xv_b4_z - 0.35735915230664755 * xv_b4_y));
     let t1404 = t1380
-        + (j4_cos_b4p * (xv_b4_y - t1380)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1380)
+            - j4_sin_b4a
                 * (0.35735915230664755 * xv_b4_x - 0.6808066319245298 * xv_b4_z));
     let t1405 = t1381
-        + (j4_cos_b4p * (xv_b4_z - t1381)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_z - t1381)
+            - j4_sin_b4a
                 * (0.6808066319245298 * xv_b4_y - 0.6393721656361435 * xv_b4_x));
     let t1406 = t1343 - t1344;
     let t1411 = 0.7561442803457222 * t1404 - 0.4724329302842692 * t1403
@@ -4192,27 +4192,27 @@ fn branch_7(
     let t1413 = 0.7561442803457222 * t1411;
     let t1414 = 0.45282773069178184 * t1411;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1406 * (0.7561442803457222 * t1405 + 0.45282773069178184 * t1404)
+    let y6_b4a_x = t1406 * (0.7561442803457222 * t1405 + 0.45282773069178184 * t1404)
         - t1330 * (t1403 + t1412) - t1412;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1413
+    let y6_b4a_y = t1413
         + (t1406 * (0.4724329302842692 * t1405 - 0.45282773069178184 * t1403)
             - t1330 * (t1404 - t1413));
     let t1438 = t1414
         + (t1330 * (t1405 + t1414)
             + t1406 * (0.4724329302842692 * t1404 + 0.7561442803457222 * t1403));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b4p_y + 0.089933105880942 * y6_b4p_x)
+    let q6_b4a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b4a_y + 0.089933105880942 * y6_b4a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t1438 + 0.12510615168971864 * y6_b4p_y)
+                * (0.089933105880942 * t1438 + 0.12510615168971864 * y6_b4a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t1438 - 0.12510615168971864 * y6_b4p_x))),
+                    * (0.988058949292 * t1438 - 0.12510615168971864 * y6_b4a_x))),
         0.12510615168971864 * t1438
-            + (0.988058949292 * y6_b4p_x - 0.089933105880942 * y6_b4p_y),
+            + (0.988058949292 * y6_b4a_x - 0.089933105880942 * y6_b4a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4226,12 +4226,12 @@ fn branch_7(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
@@ -4315,16 +4315,16 @@ fn branch_8(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
-    // ≥ 0 when r² < 2.5830917772457932e-20: θ is free, the reference is used
+    // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
     let j1_free = 2.5830917772457932e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4333,70 +4333,70 @@ fn branch_8(
     let t134 = 0.6488154409724827 * t96;
     let t135 = 0.16868586344770164 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = j1_cos_m * (u_x + t133)
-        - j1_sin_m * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
+    let w_b_x = j1_cos_b * (u_x + t133)
+        - j1_sin_b * (0.6488154409724827 * u_z - 0.16868586344770164 * u_y) - t133
         + 0.047205987790423634;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.16868586344770164 * u_x + 0.7420132094704153 * u_z))
         + 0.10530382379899798;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            + j1_sin_m * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            + j1_sin_b * (0.7420132094704153 * u_y + 0.6488154409724827 * u_x))
         - 0.15688730162376116;
-    let t205 = 0.5881251211149515 * w_m_z
-        + (0.7712839289086363 * w_m_x + 0.24337202575641612 * w_m_y);
-    let t209 = w_m_x - 0.7712839289086363 * t205;
-    let t210 = w_m_y - 0.24337202575641612 * t205;
-    let t211 = w_m_z - 0.5881251211149515 * t205;
+    let t205 = 0.5881251211149515 * w_b_z
+        + (0.7712839289086363 * w_b_x + 0.24337202575641612 * w_b_y);
+    let t209 = w_b_x - 0.7712839289086363 * t205;
+    let t210 = w_b_y - 0.24337202575641612 * t205;
+    let t211 = w_b_z - 0.5881251211149515 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
-    let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        1.5947485933949053 * (d2_m - 0.6411670638136766),
+    let j3_cos_psi_b = ::armforge_runtime::math::clamp(
+        1.5947485933949053 * (d2_b - 0.6411670638136766),
         -1.0,
         1.0,
     );
     // sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0
-    let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
-        ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
+    let j3_sin_psi_b = ::armforge_runtime::math::sqrt(
+        ((1.0 - j3_cos_psi_b) * (j3_cos_psi_b + 1.0)).max(0.0),
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
-    let j2_inv_m = 1.0
-        / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
+    let j2_inv_b = 1.0
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
             .max(2.5830917772457932e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
-    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_mm = 0.4071777476800675 * j3_cos_psi_m
-        + 0.9133489375885797 * j3_sin_psi_m;
+    let j3_cos_bb = 0.4071777476800675 * j3_cos_psi_b
+        + 0.9133489375885797 * j3_sin_psi_b;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = 0.9133489375885797 * j3_cos_psi_m
-        - 0.4071777476800675 * j3_sin_psi_m;
+    let j3_sin_bb = 0.9133489375885797 * j3_cos_psi_b
+        - 0.4071777476800675 * j3_sin_psi_b;
     // θ3 = φ3 = φ0 − ψ
-    let q3_mm = 1.151434405282846 - j3_psi_m;
-    let t413 = 0.29618845398521326 * j3_cos_mm + 0.2631411817706989 * j3_sin_mm
+    let q3_bb = 1.151434405282846 - j3_psi_b;
+    let t413 = 0.29618845398521326 * j3_cos_bb + 0.2631411817706989 * j3_sin_bb
         + 0.292065217972989;
-    let t414 = 0.5192451277093607 * j3_cos_mm - 0.3080607744485827 * j3_sin_mm
+    let t414 = 0.5192451277093607 * j3_cos_bb - 0.3080607744485827 * j3_sin_bb
         - 0.05659539424856903;
-    let t415 = 0.17356112199186785 * j3_cos_mm + 0.4725694062183847 * j3_sin_mm
+    let t415 = 0.17356112199186785 * j3_cos_bb + 0.4725694062183847 * j3_sin_bb
         + 0.4064423300085499;
-    let t420 = w_m_z * t415 + (w_m_y * t414 - w_m_x * t413);
-    let t434 = 0.7712839289086363 * (w_m_z * t414 - w_m_y * t415)
-        + 0.24337202575641612 * (w_m_x * t415 + w_m_z * t413)
-        - 0.5881251211149515 * (w_m_y * t413 + w_m_x * t414);
+    let t420 = w_b_z * t415 + (w_b_y * t414 - w_b_x * t413);
+    let t434 = 0.7712839289086363 * (w_b_z * t414 - w_b_y * t415)
+        + 0.24337202575641612 * (w_b_x * t415 + w_b_z * t413)
+        - 0.5881251211149515 * (w_b_y * t413 + w_b_x * t414);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mm = ::armforge_runtime::math::atan2(t434, t420);
-    let t436 = j2_inv_m * t420;
-    let t437 = j2_inv_m * t434;
+    let q2_bb = ::armforge_runtime::math::atan2(t434, t420);
+    let t436 = j2_inv_b * t420;
+    let t437 = j2_inv_b * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_cos_mm * t436 - j3_sin_mm * t437;
+    let c23_bb = j3_cos_bb * t436 - j3_sin_bb * t437;
     // sin(θ2 + φ3)
-    let s23_mm = j3_cos_mm * t437 + j3_sin_mm * t436;
+    let s23_bb = j3_cos_bb * t437 + j3_sin_bb * t436;
     let t451 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t456 = 0.7429579260868081 * r12
@@ -4437,22 +4437,22 @@ fn branch_8(
     let t547 = 0.7420132094704153 * t546;
     let t548 = 0.6488154409724827 * t546;
     let t549 = 0.16868586344770164 * t546;
-    let t1026 = j1_cos_m * (g6_x + t515)
-        - j1_sin_m * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
+    let t1026 = j1_cos_b * (g6_x + t515)
+        - j1_sin_b * (0.6488154409724827 * g6_z - 0.16868586344770164 * g6_y) - t515;
     let t1027 = t516
-        + (j1_cos_m * (g6_y - t516)
-            - j1_sin_m * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
+        + (j1_cos_b * (g6_y - t516)
+            - j1_sin_b * (0.16868586344770164 * g6_x + 0.7420132094704153 * g6_z));
     let t1028 = t517
-        + (j1_cos_m * (g6_z - t517)
-            + j1_sin_m * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
-    let t1038 = j1_cos_m * (gx_x + t547)
-        - j1_sin_m * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
+        + (j1_cos_b * (g6_z - t517)
+            + j1_sin_b * (0.7420132094704153 * g6_y + 0.6488154409724827 * g6_x));
+    let t1038 = j1_cos_b * (gx_x + t547)
+        - j1_sin_b * (0.6488154409724827 * gx_z - 0.16868586344770164 * gx_y) - t547;
     let t1039 = t548
-        + (j1_cos_m * (gx_y - t548)
-            - j1_sin_m * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
+        + (j1_cos_b * (gx_y - t548)
+            - j1_sin_b * (0.16868586344770164 * gx_x + 0.7420132094704153 * gx_z));
     let t1040 = t549
-        + (j1_cos_m * (gx_z - t549)
-            + j1_sin_m * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
+        + (j1_cos_b * (gx_z - t549)
+            + j1_sin_b * (0.7420132094704153 * gx_y + 0.6488154409724827 * gx_x));
     let t1045 = 0.5881251211149515 * t1028
         + (0.7712839289086363 * t1026 + 0.24337202575641612 * t1027);
     let t1046 = 0.7712839289086363 * t1045;
@@ -4465,28 +4465,28 @@ fn branch_8(
     let t1080 = 0.5881251211149515 * t1077;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1046
-        + (c23_mm * (t1026 - t1046)
-            - s23_mm * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
+        + (c23_bb * (t1026 - t1046)
+            - s23_bb * (0.24337202575641612 * t1028 - 0.5881251211149515 * t1027));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b4_y = t1047
-        + (c23_mm * (t1027 - t1047)
-            - s23_mm * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
+        + (c23_bb * (t1027 - t1047)
+            - s23_bb * (0.5881251211149515 * t1026 - 0.7712839289086363 * t1028));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b4_z = t1048
-        + (c23_mm * (t1028 - t1048)
-            - s23_mm * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
+        + (c23_bb * (t1028 - t1048)
+            - s23_bb * (0.7712839289086363 * t1027 - 0.24337202575641612 * t1026));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b4_x = t1078
-        + (c23_mm * (t1038 - t1078)
-            - s23_mm * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
+        + (c23_bb * (t1038 - t1078)
+            - s23_bb * (0.24337202575641612 * t1040 - 0.5881251211149515 * t1039));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b4_y = t1079
-        + (c23_mm * (t1039 - t1079)
-            - s23_mm * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
+        + (c23_bb * (t1039 - t1079)
+            - s23_bb * (0.5881251211149515 * t1038 - 0.7712839289086363 * t1040));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b4_z = t1080
-        + (c23_mm * (t1040 - t1080)
-            - s23_mm * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
+        + (c23_bb * (t1040 - t1080)
+            - s23_bb * (0.7712839289086363 * t1039 - 0.24337202575641612 * t1038));
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.35735915230664755 * v_b4_z
         + (0.6808066319245298 * v_b4_x + 0.6393721656361435 * v_b4_y);
@@ -4501,36 +4501,36 @@ fn branch_8(
     let t1321 = 0.13945989068616807 * j5_gamma_b4;
     let t1322 = 0.816848506504851 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = 0.6808066319245298 * j5_a_b4 - t1320;
+    let z_b4a_x = 0.6808066319245298 * j5_a_b4 - t1320;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = 0.6393721656361435 * j5_a_b4 + t1321;
+    let z_b4a_y = 0.6393721656361435 * j5_a_b4 + t1321;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = 0.35735915230664755 * j5_a_b4 + t1322;
-    let t1330 = 0.8022793632742343 * z_b4p_z
-        + (0.1540763211009523 * z_b4p_x + 0.5767220392357877 * z_b4p_y);
+    let z_b4a_z = 0.35735915230664755 * j5_a_b4 + t1322;
+    let t1330 = 0.8022793632742343 * z_b4a_z
+        + (0.1540763211009523 * z_b4a_x + 0.5767220392357877 * z_b4a_y);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = -t1330;
+    let j5_cos_b4a = -t1330;
     let t1343 = 0.45282773069178184
-        * (0.5767220392357884 * z_b4p_x - 0.15407632110095185 * z_b4p_y);
+        * (0.5767220392357884 * z_b4a_x - 0.15407632110095185 * z_b4a_y);
     let t1344 = 0.7561442803457222
-        * (0.15407632110095185 * z_b4p_z - 0.8022793632742339 * z_b4p_x)
+        * (0.15407632110095185 * z_b4a_z - 0.8022793632742339 * z_b4a_x)
         - 0.4724329302842692
-            * (0.8022793632742339 * z_b4p_y - 0.5767220392357884 * z_b4p_z);
+            * (0.8022793632742339 * z_b4a_y - 0.5767220392357884 * z_b4a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = t1344 - t1343;
+    let j5_sin_b4a = t1344 - t1343;
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 {
+    let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
     } else {
         (v_b4_z * t1322 + (v_b4_y * t1321 - v_b4_x * t1320)) * t1367
     };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 {
+    let j4_sin_b4a = if aligned_b4 >= 0.0 {
         ref4_sin
     } else {
         (0.6808066319245298 * (v_b4_z * t1321 - v_b4_y * t1322)
@@ -4538,23 +4538,23 @@ fn branch_8(
             - 0.35735915230664755 * (v_b4_y * t1320 + v_b4_x * t1321)) * t1367
     };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1378 = 0.35735915230664755 * xv_b4_z
         + (0.6808066319245298 * xv_b4_x + 0.6393721656361435 * xv_b4_y);
     let t1379 = 0.6808066319245298 * t1378;
     let t1380 = 0.6393721656361435 * t1378;
     let t1381 = 0.35735915230664755 * t1378;
     let t1403 = t1379
-        + (j4_cos_b4p * (xv_b4_x - t1379)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_x - t1379)
+            - j4_sin_b4a
                 * (0.6393721656361435 * xv_b4_z - 0.35735915230664755 * xv_b4_y));
     let t1404 = t1380
-        + (j4_cos_b4p * (xv_b4_y - t1380)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1380)
+            - j4_sin_b4a
                 * (0.35735915230664755 * xv_b4_x - 0.6808066319245298 * xv_b4_z));
     let t1405 = t1381
-        + (j4_cos_b4p * (xv_b4_z - t1381)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_z - t1381)
+            - j4_sin_b4a
                 * (0.6808066319245298 * xv_b4_y - 0.6393721656361435 * xv_b4_x));
     let t1406 = t1343 - t1344;
     let t1411 = 0.7561442803457222 * t1404 - 0.4724329302842692 * t1403
@@ -4563,33 +4563,33 @@ fn branch_8(
     let t1413 = 0.7561442803457222 * t1411;
     let t1414 = 0.45282773069178184 * t1411;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1406 * (0.7561442803457222 * t1405 + 0.45282773069178184 * t1404)
+    let y6_b4a_x = t1406 * (0.7561442803457222 * t1405 + 0.45282773069178184 * t1404)
         - t1330 * (t1403 + t1412) - t1412;
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1413
+    let y6_b4a_y = t1413
         + (t1406 * (0.4724329302842692 * t1405 - 0.45282773069178184 * t1403)
             - t1330 * (t1404 - t1413));
     let t1438 = t1414
         + (t1330 * (t1405 + t1414)
             + t1406 * (0.4724329302842692 * t1404 + 0.7561442803457222 * t1403));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
-        -(0.8022793632742339 * (0.988058949292 * y6_b4p_y + 0.089933105880942 * y6_b4p_x)
+    let q6_b4a = ::armforge_runtime::math::atan2(
+        -(0.8022793632742339 * (0.988058949292 * y6_b4a_y + 0.089933105880942 * y6_b4a_x)
             + (0.15407632110095185
-                * (0.089933105880942 * t1438 + 0.12510615168971864 * y6_b4p_y)
+                * (0.089933105880942 * t1438 + 0.12510615168971864 * y6_b4a_y)
                 + 0.5767220392357884
-                    * (0.988058949292 * t1438 - 0.12510615168971864 * y6_b4p_x))),
+                    * (0.988058949292 * t1438 - 0.12510615168971864 * y6_b4a_x))),
         0.12510615168971864 * t1438
-            + (0.988058949292 * y6_b4p_x - 0.089933105880942 * y6_b4p_y),
+            + (0.988058949292 * y6_b4a_x - 0.089933105880942 * y6_b4a_y),
     );
     // θ4 + π (mirror wrist branch)
-    let q4_b4m = q4_b4p + ::core::f64::consts::PI;
+    let q4_b4b = q4_b4a + ::core::f64::consts::PI;
     // 2 θa − θ5, θa = -2.43463 rad (aligned position)
-    let q5_b4m = -4.869259549848829 - q5_b4p;
+    let q5_b4b = -4.869259549848829 - q5_b4a;
     // θ6 + π (mirror wrist branch)
-    let q6_b4m = q6_b4p + ::core::f64::consts::PI;
+    let q6_b4b = q6_b4a + ::core::f64::consts::PI;
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Up,
@@ -4603,12 +4603,12 @@ fn branch_8(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::BeyondReach,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 1.1261550290353073,
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.11878121992065782,
             },
             ::armforge_runtime::internal::Check::NONE,
