@@ -126,7 +126,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     wrist: ::armforge_runtime::internal::WristRule {
         normal: [-0.4064173476466405, 0.6753632545094499, -0.16011413921560977],
         axis5: [0.8179571762026022, 0.39252029079901796, -0.4205637635480731],
-        axis6: [-0.5318678882191131, 0.8467148722277766, -0.0138012546401],
+        axis6: [-0.5318678882191131, 0.8467148722277766, -0.013801254640110039],
     },
     mirrored: false,
 };

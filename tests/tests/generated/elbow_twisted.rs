@@ -122,8 +122,8 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
 )]
 const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
-        normal: [0.07772687934296175, -0.5727563020289683, 0.00487572450088],
-        point: [-0.05414621230012627, 0.00078423347026, 0.0683636439308],
+        normal: [0.07772687934296175, -0.5727563020289683, 0.0048757245008763175],
+        point: [-0.05414621230012627, 0.0007842334702639602, 0.06836364393080274],
         wrist_center: [0.4773750824304897, 0.2365542490704434, -0.12338449690051963],
         facing: -1.0,
     },

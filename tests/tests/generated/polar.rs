@@ -123,7 +123,7 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
 const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
     shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
         normal: [-0.23403204910039818, 0.48292443904485405, -0.33044529346519896],
-        point: [-0.12107082938914343, 0.14917046818868374, 0.0559963775967],
+        point: [-0.12107082938914343, 0.14917046818868374, 0.05599637759668776],
         wrist_center: [0.23724692405229514, 0.2862502386349305, 0.5978534526703301],
         facing: -1.0,
     },
