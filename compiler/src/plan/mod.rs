@@ -14,6 +14,7 @@ pub mod cartesian;
 pub mod cylindrical;
 pub mod decouple;
 pub mod elbow;
+pub mod free;
 pub mod graph;
 pub mod mirror;
 pub mod parallel;
@@ -197,6 +198,10 @@ pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLay
     let axes = wrist::WristAxes::of(arm);
     let g6 = decouple::target_direction(g, arm, target, axes.h6, "g6");
     let gx = decouple::target_direction(g, arm, target, axes.x6, "gx");
+    let mut arm_solutions = arm_solutions;
+    for (i, s) in arm_solutions.iter_mut().enumerate() {
+        free::choose_joint_1(g, arm, g6, s, &format!("b{}", i + 1));
+    }
     let mut candidates = Vec::new();
     for (i, s) in arm_solutions.iter().enumerate() {
         let tag = format!("b{}", i + 1);
