@@ -105,7 +105,10 @@ fn a_pose_that_forward_made_and_solve_cannot_answer_fails_verify() {
     // 5e-3 rad, and `solve` found nothing. verify used to pass such a run (a `solve_near`
     // from the original configuration recovered it); now an unanswered pose always fails, and
     // the solver answers it.
-    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../arms/ceiling-transfer-axes.toml");
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../arms/ceiling-transfer-axes.toml"
+    );
     let model = load_model(std::path::Path::new(path), "arm").expect("example arm loads");
     let geometry =
         armforge_compiler::classify::classify(&model, &Default::default()).expect("classifies");
@@ -136,8 +139,7 @@ fn a_pose_that_forward_made_and_solve_cannot_answer_fails_verify() {
     for kind in &summary.kinds {
         assert!(kind.failed >= kind.unreachable, "{kind:?}");
     }
-    assert!(summary
-        .failures
-        .iter()
-        .any(|f| f.problem.contains("no solution for a pose that forward kinematics made")));
+    assert!(summary.failures.iter().any(|f| f
+        .problem
+        .contains("no solution for a pose that forward kinematics made")));
 }

@@ -14,7 +14,6 @@ pub mod cartesian;
 pub mod cylindrical;
 pub mod decouple;
 pub mod elbow;
-pub mod free;
 pub mod graph;
 pub mod mirror;
 pub mod parallel;
@@ -198,10 +197,6 @@ pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLay
     let axes = wrist::WristAxes::of(arm);
     let g6 = decouple::target_direction(g, arm, target, axes.h6, "g6");
     let gx = decouple::target_direction(g, arm, target, axes.x6, "gx");
-    let mut arm_solutions = arm_solutions;
-    for (i, s) in arm_solutions.iter_mut().enumerate() {
-        free::choose_joint_1(g, arm, g6, s, &format!("b{}", i + 1));
-    }
     let mut candidates = Vec::new();
     for (i, s) in arm_solutions.iter().enumerate() {
         let tag = format!("b{}", i + 1);
@@ -255,6 +250,29 @@ pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLay
         mirrored: false,
     };
     (candidates, rule)
+}
+
+/// `(c, s)` scaled to a unit pair. Where a family divides by a squared distance that, near a
+/// singular configuration (a cylindrical arm's wrist center near axis 1, a polar arm's near
+/// the pivot), rounding makes differ from the product of the two lengths it stands for, the
+/// pair drifts off the unit circle, and the wrist would undo something that is not a rotation.
+/// `atan2` of the pair (the reported angle) is unchanged, so the wrist undoes exactly the
+/// rotation of that angle. A pair with no direction at all, `(0, 0)`, becomes `(1, 0)`, the
+/// angle `atan2(0, 0) = 0`.
+pub(crate) fn unit_pair(g: &mut Graph, c: Id, s: Id) -> (Id, Id) {
+    let cc = g.mul(c, c);
+    let ss = g.mul(s, s);
+    let r2 = g.add(cc, ss);
+    let tiny = g.exact(1e-300);
+    let safe = g.max(r2, tiny);
+    let r = g.sqrt(safe);
+    let one = g.constant(1.0);
+    let inv = g.div(one, r);
+    let unit_c = g.mul(c, inv);
+    let unit_s = g.mul(s, inv);
+    let some = g.sub(r2, tiny);
+    let zero = g.constant(0.0);
+    (g.select(some, unit_c, one), g.select(some, unit_s, zero))
 }
 
 /// The plan from a family's candidates: compacts the graph, sets the tolerances, the capacity

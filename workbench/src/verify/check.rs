@@ -280,12 +280,16 @@ impl<'a> Checker<'a> {
             allowed: judgement.joint[0],
             ratio: 0.0,
         };
-        for i in 0..JOINTS {
-            let allowed = judgement.joint[i];
+        for (i, (&allowed, (&a, &b))) in judgement
+            .joint
+            .iter()
+            .zip(q.iter().zip(sample.joints.iter()))
+            .enumerate()
+        {
             if allowed == f64::INFINITY {
                 continue;
             }
-            let by = self.joint_difference(i, q[i], sample.joints[i]);
+            let by = self.joint_difference(i, a, b);
             let ratio = by / allowed;
             if ratio > worst.ratio || ratio.is_nan() {
                 worst = Miss {

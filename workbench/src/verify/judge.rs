@@ -125,7 +125,7 @@ impl Judge {
     /// The distance (metres) of the wrist center from axis `axis` (0 or 1, at zero): joints 3
     /// and 2 move the wrist center; joint 1 turns it about axis 1 and changes neither distance
     /// (nor does joint 2 its distance from axis 2).
-    fn from_axis(&self, q: &[f64; JOINTS], axis: usize) -> f64 {
+    fn distance_to_axis(&self, q: &[f64; JOINTS], axis: usize) -> f64 {
         let p = joint_motion(&self.joints[2], q[2]).transform_point(&self.center);
         let w = joint_motion(&self.joints[1], q[1]).transform_point(&p);
         distance_from_line(&w, &self.joints[axis])
@@ -145,13 +145,13 @@ impl Judge {
         let mut axis = [1.0; 2];
         for (i, a) in axis.iter_mut().enumerate() {
             if self.axes[i] {
-                *a = (self.from_axis(q, i) / self.size).min(1.0);
+                *a = (self.distance_to_axis(q, i) / self.size).min(1.0);
             }
         }
         let boundary = self
             .boundaries
             .iter()
-            .map(|b| (self.from_axis(q, b.axis) - b.at).abs() / self.size)
+            .map(|b| (self.distance_to_axis(q, b.axis) - b.at).abs() / self.size)
             .fold(f64::INFINITY, f64::min);
         Measures {
             wrist,
@@ -181,7 +181,7 @@ impl Judge {
                 JointKind::Revolute => PI,
                 JointKind::Prismatic => 1.0,
             };
-            if !(*x < free) {
+            if *x >= free || x.is_nan() {
                 *x = f64::INFINITY;
             }
         }
