@@ -18,6 +18,20 @@ pub fn escape_text(text: &str) -> Cow<'_, str> {
     escape(text, |c| c == '\n' || c == '\t')
 }
 
+/// `text` cut to at most `max_chars` characters for a message: a long value keeps its start
+/// and end around `…`, followed by its length, so a 10 MB value is never echoed whole.
+pub fn shorten(text: &str, max_chars: usize) -> Cow<'_, str> {
+    let count = text.chars().count();
+    if count <= max_chars {
+        return Cow::Borrowed(text);
+    }
+    let head = max_chars.saturating_sub(max_chars / 4).max(1);
+    let tail = (max_chars / 4).saturating_sub(1);
+    let start: String = text.chars().take(head).collect();
+    let end: String = text.chars().skip(count - tail).collect();
+    Cow::Owned(format!("{start}…{end} ({count} characters)"))
+}
+
 fn escape(text: &str, keep: impl Fn(char) -> bool) -> Cow<'_, str> {
     if text.chars().all(|c| keep(c) || !is_non_printing(c)) {
         return Cow::Borrowed(text);
@@ -81,6 +95,16 @@ mod tests {
             "a\\u{1b}[31mb\\u{202e}c\\u{2066}d\\u{2028}e\\u{200b}f\\u{0}g\\u{a}h"
         );
         assert_eq!(escape_text("a\tb\nc\u{85}"), "a\tb\nc\\u{85}");
+    }
+
+    #[test]
+    fn shortens_long_values_and_says_how_long_they_were() {
+        assert_eq!(shorten("abcdef", 6), "abcdef");
+        let long = "x".repeat(10_000_000);
+        let short = shorten(&long, 40);
+        assert!(short.chars().count() < 80, "{short}");
+        assert!(short.ends_with("(10000000 characters)"), "{short}");
+        assert_eq!(shorten("abcdefghij", 8), "abcdef…j (10 characters)");
     }
 
     #[test]

@@ -142,10 +142,15 @@ impl Units {
     }
 }
 
-/// A number printed for people: up to six significant decimals, no trailing zeros, no `-0`.
+/// A number printed for people: up to six significant decimals, no trailing zeros, no `-0`;
+/// from 1e15 on in scientific notation with up to six significant digits (`1e308`, not 309
+/// digits).
 pub fn tidy(x: f64) -> String {
     if !x.is_finite() {
         return format!("{x}");
+    }
+    if x.abs() >= 1e15 {
+        return scientific(x);
     }
     let s = format!("{:.6}", x);
     let s = s.trim_end_matches('0').trim_end_matches('.').to_string();
@@ -153,5 +158,27 @@ pub fn tidy(x: f64) -> String {
         "0".to_string()
     } else {
         s
+    }
+}
+
+/// `x` as `1.23457e20`: six significant digits at most, no trailing zeros.
+fn scientific(x: f64) -> String {
+    let s = format!("{x:.5e}");
+    let (mantissa, exponent) = s.split_once('e').unwrap_or((&s, "0"));
+    let mantissa = mantissa.trim_end_matches('0').trim_end_matches('.');
+    format!("{mantissa}e{exponent}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::tidy;
+
+    #[test]
+    fn huge_numbers_are_short() {
+        assert_eq!(tidy(1e308), "1e308");
+        assert_eq!(tidy(-1.234_567_89e20), "-1.23457e20");
+        assert_eq!(tidy(1e15), "1e15");
+        assert_eq!(tidy(123_456.5), "123456.5");
+        assert_eq!(tidy(-0.0), "0");
     }
 }

@@ -1,7 +1,9 @@
 //! The wrist at the base (axes 1–3 meet): round trips on random arms whose last three joints
 //! have every named family's shape, solved by mirrored decoupling.
 
-use std::f64::consts::TAU;
+mod common;
+
+use common::{arms, joint_gap, pose_error};
 
 use armforge_compiler::classify::{classify, Family, Tolerances};
 use armforge_compiler::model::Model;
@@ -10,39 +12,7 @@ use armforge_compiler::plan::samples::{
     sample_arm, sample_configuration, SampleOptions, SampleRng,
 };
 use armforge_compiler::solver::Solver;
-use armforge_runtime::{Pose, Solution};
-
-/// Random arms per run: 200 times `ARMFORGE_SCALE`.
-fn arms() -> u64 {
-    armforge_compiler::plan::samples::sample_count(200) as u64
-}
-
-fn pose_error(a: &Pose, b: &Pose, reach: f64) -> f64 {
-    let mut p: f64 = 0.0;
-    let mut r: f64 = 0.0;
-    for i in 0..3 {
-        p += (a.translation[i] - b.translation[i]).powi(2);
-        for j in 0..3 {
-            r += (a.rotation[i][j] - b.rotation[i][j]).powi(2);
-        }
-    }
-    (p.sqrt() / reach).max(r.sqrt())
-}
-
-fn gap(model: &Model, a: &[f64; 6], b: &[f64; 6]) -> f64 {
-    model
-        .joints
-        .iter()
-        .zip(a.iter().zip(b))
-        .map(|(j, (x, y))| {
-            let d = x - y;
-            match j.joint.kind {
-                armforge_runtime::JointKind::Revolute => (d - TAU * (d / TAU).round()).abs(),
-                armforge_runtime::JointKind::Prismatic => d.abs(),
-            }
-        })
-        .fold(0.0, f64::max)
-}
+use armforge_runtime::Solution;
 
 /// A random arm with its wrist at the base whose joints 6, 5, 4 have the shape of `family`.
 fn base_wrist_arm(family: Family, seed: u64) -> Model {
@@ -84,13 +54,15 @@ fn round_trip(family: Family, most: usize) -> usize {
             for (i, a) in solutions.iter().enumerate() {
                 for b in &solutions[i + 1..] {
                     assert!(
-                        gap(&model, &a.joints, &b.joints) > 1e-9,
+                        joint_gap(&model, &a.joints, &b.joints) > 1e-9,
                         "arm {seed}: duplicates"
                     );
                 }
             }
             assert!(
-                solutions.iter().any(|s| gap(&model, &s.joints, &q) < 1e-6),
+                solutions
+                    .iter()
+                    .any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
                 "{family:?} arm {seed}: {q:?} ({}) not among {solutions:#?}",
                 solver.branch_of(&q)
             );

@@ -1,7 +1,9 @@
 //! Three consecutive parallel axes: round trips on random arms, and the 8 solutions of a
 //! generic pose.
 
-use std::f64::consts::TAU;
+mod common;
+
+use common::{arms, joint_gap, pose_error};
 
 use armforge_compiler::classify::Family;
 use armforge_compiler::plan::parallel;
@@ -9,34 +11,7 @@ use armforge_compiler::plan::samples::{
     sample_configuration, sample_three_parallel, SampleOptions, SampleRng,
 };
 use armforge_compiler::solver::Solver;
-use armforge_runtime::{Pose, Solution};
-
-/// Random arms per run: 200 times `ARMFORGE_SCALE`.
-fn arms() -> u64 {
-    armforge_compiler::plan::samples::sample_count(200) as u64
-}
-
-fn pose_error(a: &Pose, b: &Pose, reach: f64) -> f64 {
-    let mut p: f64 = 0.0;
-    let mut r: f64 = 0.0;
-    for i in 0..3 {
-        p += (a.translation[i] - b.translation[i]).powi(2);
-        for j in 0..3 {
-            r += (a.rotation[i][j] - b.rotation[i][j]).powi(2);
-        }
-    }
-    (p.sqrt() / reach).max(r.sqrt())
-}
-
-fn gap(a: &[f64; 6], b: &[f64; 6]) -> f64 {
-    a.iter()
-        .zip(b)
-        .map(|(x, y)| {
-            let d = x - y;
-            (d - TAU * (d / TAU).round()).abs()
-        })
-        .fold(0.0, f64::max)
-}
+use armforge_runtime::Solution;
 
 fn round_trip(layout: bool) -> (usize, usize) {
     let mut eight = 0;
@@ -69,12 +44,17 @@ fn round_trip(layout: bool) -> (usize, usize) {
             }
             for (i, a) in solutions.iter().enumerate() {
                 for b in &solutions[i + 1..] {
-                    assert!(gap(&a.joints, &b.joints) > 1e-9, "arm {seed}: duplicates");
+                    assert!(
+                        joint_gap(&model, &a.joints, &b.joints) > 1e-9,
+                        "arm {seed}: duplicates"
+                    );
                     assert_ne!(a.branch, b.branch, "arm {seed}: one label twice");
                 }
             }
             assert!(
-                solutions.iter().any(|s| gap(&s.joints, &q) < 1e-6),
+                solutions
+                    .iter()
+                    .any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
                 "arm {seed}: {q:?} ({}) not among {solutions:#?}",
                 solver.branch_of(&q)
             );

@@ -2,6 +2,10 @@
 //! the reach boundary; every reason for no solution; what the labels mean; `solve_near` and
 //! `solve_branch`.
 
+mod common;
+
+use common::pose_error;
+
 use std::f64::consts::TAU;
 
 use armforge_compiler::classify::Family;
@@ -12,18 +16,6 @@ use armforge_compiler::solver::Solver;
 use armforge_runtime::{
     joint_motion, Elbow, Flags, Pose, PoseProblem, Shoulder, Solution, Unreachable,
 };
-
-fn pose_error(a: &Pose, b: &Pose, reach: f64) -> f64 {
-    let mut p: f64 = 0.0;
-    let mut r: f64 = 0.0;
-    for i in 0..3 {
-        p += (a.translation[i] - b.translation[i]).powi(2);
-        for j in 0..3 {
-            r += (a.rotation[i][j] - b.rotation[i][j]).powi(2);
-        }
-    }
-    (p.sqrt() / reach).max(r.sqrt())
-}
 
 fn sub(a: &[f64; 3], b: &[f64; 3]) -> [f64; 3] {
     [a[0] - b[0], a[1] - b[1], a[2] - b[2]]

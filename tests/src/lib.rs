@@ -213,28 +213,12 @@ impl ReferenceArm {
         assert_eq!(q.len(), self.joint_count(), "one value per joint");
         let moved = |i: usize| self.directions[i] * q[i];
         let arm = match &self.links {
-            Links::Dh(rows) => {
-                let product = rows
-                    .iter()
-                    .enumerate()
-                    .fold(Matrix4::identity(), |t, (i, row)| {
-                        let [a, alpha, d, theta] = *row;
-                        let (theta, d) = self.moved_dh(i, theta, d, moved(i));
-                        t * standard_dh_matrix(a, alpha, d, theta)
-                    });
-                isometry_of(&product) * self.tool
-            }
-            Links::ModifiedDh(rows) => {
-                let product = rows
-                    .iter()
-                    .enumerate()
-                    .fold(Matrix4::identity(), |t, (i, row)| {
-                        let [a, alpha, d, theta] = *row;
-                        let (theta, d) = self.moved_dh(i, theta, d, moved(i));
-                        t * modified_dh_matrix(alpha, a, theta, d)
-                    });
-                isometry_of(&product) * self.tool
-            }
+            Links::Dh(rows) => self.dh_chain(rows, &moved, |[a, alpha, d, theta]| {
+                standard_dh_matrix(a, alpha, d, theta)
+            }),
+            Links::ModifiedDh(rows) => self.dh_chain(rows, &moved, |[a, alpha, d, theta]| {
+                modified_dh_matrix(alpha, a, theta, d)
+            }),
             Links::Axes(joints) => {
                 let product = joints.iter().enumerate().fold(
                     Isometry3::identity(),
@@ -254,6 +238,25 @@ impl ReferenceArm {
             }
         };
         self.base * arm
+    }
+
+    /// The arm's tool pose through a chain of DH rows, `link` being the row's matrix (standard
+    /// or modified) of `[a, α, d, θ]` with the joint's motion added.
+    fn dh_chain(
+        &self,
+        rows: &[[f64; 4]],
+        moved: &dyn Fn(usize) -> f64,
+        link: impl Fn([f64; 4]) -> Matrix4<f64>,
+    ) -> Isometry3<f64> {
+        let product = rows
+            .iter()
+            .enumerate()
+            .fold(Matrix4::identity(), |t, (i, row)| {
+                let [a, alpha, d, theta] = *row;
+                let (theta, d) = self.moved_dh(i, theta, d, moved(i));
+                t * link([a, alpha, d, theta])
+            });
+        isometry_of(&product) * self.tool
     }
 
     fn moved_dh(&self, i: usize, theta: f64, d: f64, amount: f64) -> (f64, f64) {

@@ -3,46 +3,16 @@
 //! review; every example classifies, every rejected arm is rejected with a located, numeric
 //! reason; the binary's exit codes are 0, 3 and 2.
 
-use std::path::{Path, PathBuf};
+mod common;
+
+use common::{arm_files, workspace};
+
 use std::process::Command;
 
 use armforge_compiler::classify::{classify, Family, Tolerances};
 use armforge_compiler::description::load_str;
 use armforge_compiler::model::Model;
 use armforge_workbench::report;
-
-fn workspace() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .parent()
-        .expect("the generator crate sits in the workspace")
-        .to_path_buf()
-}
-
-/// The `.toml` files of `arms/<dir>`, sorted, as (path relative to the workspace, text).
-fn arm_files(dir: &str) -> Vec<(String, String)> {
-    let folder = workspace().join("arms").join(dir);
-    let mut files: Vec<PathBuf> = std::fs::read_dir(&folder)
-        .map(|entries| {
-            entries
-                .filter_map(|e| e.ok().map(|e| e.path()))
-                .filter(|p| p.extension().is_some_and(|x| x == "toml"))
-                .collect()
-        })
-        .unwrap_or_default();
-    files.sort();
-    files
-        .into_iter()
-        .map(|p| {
-            let rel = p
-                .strip_prefix(workspace())
-                .expect("inside the workspace")
-                .to_string_lossy()
-                .replace('\\', "/");
-            let text = std::fs::read_to_string(&p).expect("readable arm file");
-            (rel, text)
-        })
-        .collect()
-}
 
 fn load(path: &str, text: &str) -> Model {
     load_str(text, path).unwrap_or_else(|d| panic!("{path} does not load:\n{d}"))

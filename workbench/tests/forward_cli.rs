@@ -1,18 +1,15 @@
 //! `armforge forward` end to end through the binary: JSON lines in, poses out in the file's
 //! units; malformed lines answered with an error and exit 1; bad files reported with exit 2.
 
+mod common;
+
+use common::workspace;
+
 use std::path::{Path, PathBuf};
 
 use armforge_compiler::pipeline::load_model;
 use assert_cmd::Command;
 use serde_json::Value;
-
-fn workspace() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .parent()
-        .unwrap()
-        .to_path_buf()
-}
 
 fn forward(arm: &Path, stdin: &str) -> (i32, Vec<Value>, String) {
     let output = Command::cargo_bin("armforge")

@@ -2,50 +2,18 @@
 //! an equation or a number shows in review), byte-identical across runs, its numbers checked
 //! against hand-worked values and against the solver, and the command's exit codes.
 
-use std::path::{Path, PathBuf};
+mod common;
+
+use common::{classified, examples, workspace};
+
 use std::process::Command;
 
-use armforge_compiler::classify::{classify, Family, Geometry, Tolerances};
-use armforge_compiler::description::load_str;
-use armforge_compiler::model::Model;
+use armforge_compiler::classify::Family;
 use armforge_compiler::plan::build_plan;
 use armforge_compiler::plan::vec3::num;
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{joint_motion, Pose};
 use armforge_workbench::review::{review_sheet, Facts};
-
-fn workspace() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .parent()
-        .expect("the generator crate sits in the workspace")
-        .to_path_buf()
-}
-
-/// The example arms `arms/*.toml`, sorted, as (path relative to the workspace, text).
-fn examples() -> Vec<(String, String)> {
-    let folder = workspace().join("arms");
-    let mut files: Vec<PathBuf> = std::fs::read_dir(&folder)
-        .expect("arms/ exists")
-        .filter_map(|e| e.ok().map(|e| e.path()))
-        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
-        .collect();
-    files.sort();
-    files
-        .into_iter()
-        .map(|p| {
-            let name = p.file_name().expect("a file").to_string_lossy().to_string();
-            let text = std::fs::read_to_string(&p).expect("readable arm file");
-            (format!("arms/{name}"), text)
-        })
-        .collect()
-}
-
-fn classified(path: &str, text: &str) -> (Model, Geometry) {
-    let model = load_str(text, path).unwrap_or_else(|d| panic!("{path} does not load:\n{d}"));
-    let geometry = classify(&model, &Tolerances::default())
-        .unwrap_or_else(|r| panic!("{path} does not classify: {r}"));
-    (model, geometry)
-}
 
 fn sheet(path: &str, text: &str) -> String {
     let (model, geometry) = classified(path, text);

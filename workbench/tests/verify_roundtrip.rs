@@ -5,7 +5,10 @@
 //!
 //! `ARMFORGE_SCALE=K` (release builds) runs K times the 400 samples per arm.
 
-use std::path::{Path, PathBuf};
+mod common;
+
+use common::{classified, examples, workspace};
+
 use std::process::Command;
 
 use armforge_compiler::classify::{classify, Geometry, Singularity, Tolerances};
@@ -14,39 +17,8 @@ use armforge_compiler::model::Model;
 use armforge_compiler::solver::Solver;
 use armforge_workbench::verify::{verify, Kind, Options, Summary};
 
-fn workspace() -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .parent()
-        .expect("the generator crate sits in the workspace")
-        .to_path_buf()
-}
-
 fn samples() -> u64 {
     armforge_compiler::plan::samples::sample_count(400) as u64
-}
-
-fn examples() -> Vec<(String, String)> {
-    let mut files: Vec<PathBuf> = std::fs::read_dir(workspace().join("arms"))
-        .expect("arms/ exists")
-        .filter_map(|e| e.ok().map(|e| e.path()))
-        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
-        .collect();
-    files.sort();
-    files
-        .into_iter()
-        .map(|p| {
-            let name = p.file_name().expect("a file").to_string_lossy().to_string();
-            let text = std::fs::read_to_string(&p).expect("readable arm file");
-            (format!("arms/{name}"), text)
-        })
-        .collect()
-}
-
-fn classified(path: &str, text: &str) -> (Model, Geometry) {
-    let model = load_str(text, path).unwrap_or_else(|d| panic!("{path} does not load:\n{d}"));
-    let geometry = classify(&model, &Tolerances::default())
-        .unwrap_or_else(|r| panic!("{path} does not classify: {r}"));
-    (model, geometry)
 }
 
 fn run(reference: &Model, geometry: &Geometry, solver: &Solver, n: u64) -> Summary {

@@ -19,6 +19,7 @@ pub const ROTATION_TOLERANCE: f64 = 1e-6;
 /// Runs every cross-value check, reporting each problem.
 pub(crate) fn check(source: &mut Source, description: &Description) {
     joint_count(source, description);
+    joint_names(source, description);
     for (i, joint) in description.joints.iter().enumerate() {
         let path = format!("joint[{}]", i + 1);
         if let Some(convention) = description.convention {
@@ -45,6 +46,36 @@ fn joint_count(source: &mut Source, description: &Description) {
     } else if n > MAX_JOINTS {
         let message = format!("the arm has {n} joints; armforge reads at most {MAX_JOINTS}");
         source.report(&description.joints[MAX_JOINTS].span, "joint", message);
+    }
+}
+
+/// Joint names must be unique, also against the `joint N` a joint without a name is called.
+fn joint_names(source: &mut Source, description: &Description) {
+    let called = |i: usize, joint: &JointEntry| {
+        joint
+            .name
+            .as_ref()
+            .map_or_else(|| format!("joint {}", i + 1), |n| n.value.clone())
+    };
+    for (i, joint) in description.joints.iter().enumerate() {
+        let Some(name) = &joint.name else {
+            continue;
+        };
+        let other = description.joints.iter().enumerate().find(|&(k, other)| {
+            k != i && called(k, other) == name.value && (k < i || other.name.is_none())
+        });
+        if let Some((k, other)) = other {
+            let whose = if other.name.is_some() {
+                format!("joint {}'s name", k + 1)
+            } else {
+                format!("the name joint {} has by default", k + 1)
+            };
+            let message = format!(
+                "the joint name \"{}\" is also {whose}; joint names must be unique",
+                super::reader::shown(&name.value)
+            );
+            source.report(&name.span, &format!("joint[{}].name", i + 1), message);
+        }
     }
 }
 

@@ -44,8 +44,8 @@ pub(crate) fn to_model(source: &Source, description: &Description, path: &str) -
             joint,
             name: entry
                 .name
-                .clone()
-                .unwrap_or_else(|| format!("joint {}", i + 1)),
+                .as_ref()
+                .map_or_else(|| format!("joint {}", i + 1), |n| n.value.clone()),
             location: source.location(entry.span.start),
         })
         .collect();

@@ -22,7 +22,7 @@
 //! | key | type | default | meaning |
 //! |---|---|---|---|
 //! | `type` | `"revolute"` or `"prismatic"` | required | turns about its axis or slides along it |
-//! | `name` | string | `joint N` | a name for messages and generated code |
+//! | `name` | string | `joint N` | a name for messages and generated code: not blank, printing characters only, at most 64 characters, unique among the joints (also against the `joint N` of a joint without a name) |
 //! | `direction` | `1` or `-1` | `1` | the sign between the joint value (what the controller reports) and the model value |
 //! | `limits` | `[min, max]` | revolute: one turn, (−180°, 180°]; prismatic: unlimited | allowed joint values, in the file's units; min < max. A revolute range wider than one turn allows several equivalent angles |
 //!
@@ -91,9 +91,16 @@
 //! Every problem of a file is reported at once, each with the file, line and column, the key
 //! (joints count from 1: `joint[3].limits`), what is wrong with the numbers in the file's
 //! units, and the source line with a caret. A file with any problem gives no model.
+//!
+//! Numbers must be finite and plausible: every length at most 10 km and every angle at most
+//! 1,000 turns in size ([`plausible`]), so a slip such as `1e308` is an error at its place.
+//! A report shows the first 50 problems and counts the rest; a value from the file is
+//! repeated at most 60 characters long, and a long source line as a window around the caret.
 
 mod checks;
 mod convert;
+mod nesting;
+pub mod plausible;
 mod reader;
 mod schema;
 mod source;
@@ -102,7 +109,7 @@ use crate::diagnostics::Diagnostics;
 use crate::model::Model;
 
 pub use checks::{MAX_JOINTS, ROTATION_TOLERANCE};
-pub use schema::{arm_name_problem, Convention};
+pub use schema::{arm_name_problem, Convention, MAX_JOINT_NAME_CHARS};
 
 /// Reads description text into a [`Model`]; `path` names the text in messages.
 pub fn load_str(text: &str, path: &str) -> Result<Model, Diagnostics> {
@@ -110,8 +117,18 @@ pub fn load_str(text: &str, path: &str) -> Result<Model, Diagnostics> {
     let document = match toml_edit::Document::parse(text) {
         Ok(document) => document,
         Err(e) => {
-            let span = e.span().unwrap_or(0..0);
-            let message = format!("not valid TOML: {}", e.message());
+            let mut message = format!("not valid TOML: {}", e.message());
+            let span = match (e.span(), nesting::deepest(text)) {
+                (Some(span), _) => span,
+                (None, Some((at, depth))) => {
+                    message.push_str(&format!(
+                        "; tables, arrays and dotted keys nest {depth} deep here (a \
+                         description needs at most 4)"
+                    ));
+                    at..at
+                }
+                (None, None) => 0..0,
+            };
             source.report(&span, "", message);
             return Err(source.into_diagnostics());
         }

@@ -6,7 +6,9 @@ use std::ops::Range;
 
 use toml_edit::{Item, TableLike, Value};
 
+use super::plausible;
 use super::source::Source;
+use crate::text::shorten;
 use crate::units::tidy;
 use crate::units::{AngleUnit, LengthUnit};
 
@@ -90,16 +92,24 @@ pub(crate) fn entries<'d>(table: &'d dyn TableLike, fallback: &Range<usize>) -> 
 /// A short description of what was found, for "expected …, found …" messages.
 pub(crate) fn found(item: &Item) -> String {
     match item {
-        Item::Value(Value::String(s)) => format!("the string \"{}\"", s.value()),
+        Item::Value(Value::String(s)) => format!("the string \"{}\"", shown(s.value())),
         Item::Value(Value::Boolean(b)) => format!("the boolean {}", b.value()),
         Item::Value(Value::Integer(i)) => format!("the integer {}", i.value()),
-        Item::Value(Value::Float(f)) => format!("the number {}", f.value()),
+        Item::Value(Value::Float(f)) => format!("the number {}", tidy(*f.value())),
         Item::Value(Value::Datetime(_)) => "a date-time".to_string(),
         Item::Value(Value::Array(a)) => format!("an array of {} values", a.len()),
         Item::Value(Value::InlineTable(_)) | Item::Table(_) => "a table".to_string(),
         Item::ArrayOfTables(_) => "an array of tables".to_string(),
         Item::None => "nothing".to_string(),
     }
+}
+
+/// The most characters of a value from the file that a message repeats.
+pub(crate) const SHOWN_CHARS: usize = 60;
+
+/// A value from the file as a message repeats it: at most [`SHOWN_CHARS`] characters.
+pub(crate) fn shown(text: &str) -> std::borrow::Cow<'_, str> {
+    shorten(text, SHOWN_CHARS)
 }
 
 /// Reads a string.
@@ -164,6 +174,15 @@ fn number_value(
             "{x} is not a finite number; expected {}",
             quantity.describe()
         );
+        source.report(&span, path, message);
+        return None;
+    }
+    let implausible = match quantity {
+        Quantity::Length(unit) => plausible::length_problem(unit, x),
+        Quantity::Angle(unit) => plausible::angle_problem(unit, x),
+        Quantity::Plain => None,
+    };
+    if let Some(message) = implausible {
         source.report(&span, path, message);
         return None;
     }
@@ -270,7 +289,10 @@ pub(crate) fn report_unknown(source: &mut Source, entry: &Entry, path: &str, kno
         .map(|k| format!("`{k}`"))
         .collect::<Vec<_>>()
         .join(", ");
-    let message = format!("unknown key `{}`; the keys here are {list}", entry.key);
+    let message = format!(
+        "unknown key `{}`; the keys here are {list}",
+        shown(&entry.key)
+    );
     source.report(&entry.key_span, path, message);
 }
 
@@ -287,6 +309,9 @@ pub(crate) fn report_not_one_of(
         .map(|k| format!("\"{k}\""))
         .collect::<Vec<_>>()
         .join(", ");
-    let message = format!("unknown {what} \"{}\"; expected one of {list}", value.value);
+    let message = format!(
+        "unknown {what} \"{}\"; expected one of {list}",
+        shown(&value.value)
+    );
     source.report(&value.span, path, message);
 }

@@ -11,7 +11,8 @@ use toml_edit::{Item, TableLike};
 
 use super::reader::{self, Entry, Quantity, Spanned};
 use super::source::Source;
-use crate::units::{AngleUnit, LengthUnit, Units};
+use crate::text::is_non_printing;
+use crate::units::{tidy, AngleUnit, LengthUnit, Units};
 
 /// The keys allowed at the top level of a file.
 pub(crate) const TOP_KEYS: &[&str] = &[
@@ -101,8 +102,8 @@ pub(crate) struct JointEntry {
     pub span: Range<usize>,
     /// `type`, if given and known.
     pub kind: Option<JointKind>,
-    /// `name`.
-    pub name: Option<String>,
+    /// `name`, checked to be non-empty and printable.
+    pub name: Option<Spanned<String>>,
     /// `direction`: 1 or -1.
     pub direction: f64,
     /// `limits = [min, max]`.
@@ -282,6 +283,7 @@ fn arm_name(source: &mut Source, entry: &Entry) -> String {
 /// What is wrong with `name` as an arm name, which becomes a Rust module name: `None` when it
 /// has only letters, digits, `-` and `_`, starts with a letter and is not a Rust keyword.
 pub fn arm_name_problem(name: &str) -> Option<String> {
+    let name = &*reader::shown(name);
     if name.is_empty() {
         Some("the name is empty".to_string())
     } else if !name.starts_with(|c: char| c.is_ascii_alphabetic()) {
@@ -378,7 +380,7 @@ fn joint(
         let number = |source: &mut Source, q| reader::number(source, e, &key_path, q);
         match e.key.as_str() {
             "type" => {}
-            "name" => joint.name = reader::string(source, e, &key_path).map(|s| s.value),
+            "name" => joint.name = joint_name(source, e, &key_path),
             "direction" => joint.direction = direction(source, e, &key_path),
             "limits" => {
                 joint.limits = reader::numbers(source, e, &key_path, joint_quantity, "[min, max]")
@@ -404,6 +406,39 @@ fn joint(
     joint
 }
 
+/// The most characters a joint name may have.
+pub const MAX_JOINT_NAME_CHARS: usize = 64;
+
+/// Reads a joint name: not empty or blank, printable, at most [`MAX_JOINT_NAME_CHARS`]
+/// characters (it appears in messages, drawings, the review sheet and generated code).
+fn joint_name(source: &mut Source, entry: &Entry, path: &str) -> Option<Spanned<String>> {
+    let name = reader::string(source, entry, path)?;
+    let problem = if name.value.trim().is_empty() {
+        Some("the joint name is empty; give a name or leave `name` out (the joint is then called `joint N`)".to_string())
+    } else if let Some(bad) = name.value.chars().find(|&c| is_non_printing(c)) {
+        Some(format!(
+            "the joint name \"{}\" contains the non-printing character U+{:04X}; use printing characters only",
+            reader::shown(&name.value),
+            u32::from(bad)
+        ))
+    } else {
+        let count = name.value.chars().count();
+        (count > MAX_JOINT_NAME_CHARS).then(|| {
+            format!(
+                "the joint name \"{}\" has {count} characters; at most {MAX_JOINT_NAME_CHARS} are allowed",
+                reader::shown(&name.value)
+            )
+        })
+    };
+    match problem {
+        Some(message) => {
+            source.report(&name.span, path, message);
+            None
+        }
+        None => Some(name),
+    }
+}
+
 fn joint_kind(source: &mut Source, entry: &Entry, path: &str) -> Option<JointKind> {
     let s = reader::string(source, entry, path)?;
     match s.value.as_str() {
@@ -423,7 +458,7 @@ fn direction(source: &mut Source, entry: &Entry, path: &str) -> f64 {
     if x.value == 1.0 || x.value == -1.0 {
         x.value
     } else {
-        let message = format!("direction must be 1 or -1, found {}", x.value);
+        let message = format!("direction must be 1 or -1, found {}", tidy(x.value));
         source.report(&x.span, path, message);
         1.0
     }

@@ -14,7 +14,8 @@ use armforge_runtime::{Elbow, Shoulder};
 
 use super::arm::Arm;
 use super::graph::Graph;
-use super::subproblems::{rotate_into_plane, rotate_onto};
+use super::planar::{self, TwoLink};
+use super::subproblems::rotate_into_plane;
 use super::vec3::{self, num, V3};
 use super::{sign, ArmSolution, Target, Turn};
 use crate::units::tidy;
@@ -34,16 +35,9 @@ struct Constants {
     /// `h2 · (c − p2) − h2 · (p1 − p2)`.
     e0: f64,
     p1_minus_p2: [f64; 3],
-    /// Upper arm: from axis 2 to axis 3, ⟂ h2.
-    l: [f64; 3],
-    /// Forearm: from axis 3 to the wrist center, ⟂ h2.
-    v: [f64; 3],
-    /// `h2 × V`.
-    hv: [f64; 3],
-    /// `±1`: h3 = sense · h2.
-    sense: f64,
-    /// Angle of the stretched arm about h2 (`φ0 = atan2(2 L·(h×V), 2 L·V)`).
-    stretched: f64,
+    /// Joints 2 and 3 placing the wrist center: the upper arm `L` from axis 2 to axis 3 and
+    /// the forearm `V` from axis 3 to the wrist center, both ⟂ h2.
+    two_link: TwoLink,
 }
 
 fn constants(arm: &Arm) -> Constants {
@@ -58,11 +52,6 @@ fn constants(arm: &Arm) -> Constants {
     let height = num::dot(&h2, &num::sub(&c, &p2));
     let p1_minus_p2 = num::sub(&p1, &p2);
     let e0 = height - num::dot(&h2, &p1_minus_p2);
-    let l = num::perpendicular(&num::sub(&p3, &p2), &h2);
-    let v = num::perpendicular(&num::sub(&c, &p3), &h2);
-    let hv = num::cross(&h2, &v);
-    let sense = sign(num::dot(&h3, &h2));
-    let stretched = num::dot(&l, &hv).atan2(num::dot(&l, &v));
     Constants {
         h1,
         p1,
@@ -72,11 +61,7 @@ fn constants(arm: &Arm) -> Constants {
         cos12,
         e0,
         p1_minus_p2,
-        l,
-        v,
-        hv,
-        sense,
-        stretched,
+        two_link: TwoLink::new(h2, p2, h3, p3, c),
     }
 }
 
@@ -105,8 +90,8 @@ pub fn rules(arm: &Arm) -> (ShoulderRule, ElbowRule) {
             facing,
         },
         ElbowRule::Bend {
-            sense: k.sense,
-            stretched: k.stretched,
+            sense: k.two_link.sense,
+            stretched: k.two_link.stretched,
             up,
         },
     )
@@ -177,12 +162,7 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
             &format!("w_{tag}"),
             "w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone",
         );
-        // d² = |(w − p2)⊥h2|² (the perpendicular part first: no cancellation, and a unit
-        // axis folds its component away).
-        let hw = vec3::dot_const(g, k.h2, w);
-        let along = vec3::scale_const(g, hw, k.h2);
-        let w_perp = vec3::sub(g, w, along);
-        let d2 = vec3::dot(g, w_perp, w_perp);
+        let d2 = planar::distance_squared(g, k.h2, w);
         let d2 = g.name(
             d2,
             &format!("d2_{tag}"),
@@ -210,137 +190,34 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
     }
 }
 
-/// Builds joints 1–3 of an elbow arm for every branch (σ × elbow sign).
+/// Builds joints 1–3 of an elbow arm for every branch (σ × elbow sign): joint 1 by rotating
+/// the wrist center into axis 2's plane, then joints 2 and 3 by the planar two-link step.
 pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let k = constants(arm);
     let (_, up) = references(arm, &k);
     let tol = 1e-10 * arm.scale;
-    let one_ = joint_one(g, arm, t, ct);
-    let shoulder_check = one_.check;
-    let ll = num::dot(&k.l, &k.l);
-    let vv = num::dot(&k.v, &k.v);
-    let (len_l, len_v) = (ll.sqrt(), vv.sqrt());
-    let two_lv = (2.0 * len_l * len_v).max(1e-300);
-    let reach_out = g.constant(len_l + len_v);
-    let reach_in = g.constant((len_l - len_v).abs());
-
+    let one = joint_one(g, arm, t, ct);
     let mut out = Vec::new();
     for (i, sigma) in [1.0, -1.0].into_iter().enumerate() {
         let tag = if sigma > 0.0 { "p" } else { "m" };
-        let (c1, s1) = one_.roots[i];
-        let w = one_.w[i];
-        let d2 = one_.d2[i];
-        let theta1 = one_.angles[i];
-        let offset = g.constant(ll + vv);
-        let num_c = g.sub(d2, offset);
-        let inv = g.constant(1.0 / two_lv);
-        let cos_psi = g.mul(num_c, inv);
-        let cos_psi = g.clamp(cos_psi, -1.0, 1.0);
-        let cos_psi = g.name(
-            cos_psi,
-            &format!("j3_cos_psi_{tag}"),
-            format!(
-                "law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = {} m, |V| = {} m",
-                tidy(len_l),
-                tidy(len_v)
-            ),
-        );
-        let one = g.constant(1.0);
-        let om = g.sub(one, cos_psi);
-        let op = g.add(one, cos_psi);
-        let prod = g.mul(om, op);
-        let sin_psi = g.sqrt0(prod);
-        let sin_psi = g.name(
-            sin_psi,
-            &format!("j3_sin_psi_{tag}"),
-            "sin ψ = √((1 − cos ψ)(1 + cos ψ)) ≥ 0",
-        );
-        // |x⊥|² = |L + R(φ) V|² = |L|² + |V|² + 2|L||V| cos ψ, shared by both elbow roots.
-        let two = g.constant(two_lv);
-        let n = g.mul(two, cos_psi);
-        let n = g.add(offset, n);
-        let floor = g.exact(tol * tol);
-        let n = g.max(n, floor);
-        let inv_n = g.div(one, n);
-        let inv_n = g.name(
-            inv_n,
-            &format!("j2_inv_{tag}"),
-            "1 / |L + R3 V|², the squared distance of the wrist center from axis 2",
-        );
-        let shoulder = one_.shoulders[i];
+        let (c1, s1) = one.roots[i];
+        let two = planar::solve(g, &k.two_link, one.w[i], one.d2[i], tol, tag);
+        let shoulder = one.shoulders[i];
         let side = if shoulder == Shoulder::Facing {
             1.0
         } else {
             -1.0
         };
-        for bend in [1.0, -1.0] {
-            let btag = if bend > 0.0 { "p" } else { "m" };
-            let tag2 = format!("{tag}{btag}");
-            let sp = if bend > 0.0 { sin_psi } else { g.neg(sin_psi) };
-            let (cf, sf) = (k.stretched.cos(), k.stretched.sin());
-            let cf = g.constant(cf);
-            let sf = g.constant(sf);
-            let cos_phi = {
-                let x = g.mul(cf, cos_psi);
-                let y = g.mul(sf, sp);
-                g.sub(x, y)
-            };
-            let cos_phi = g.name(
-                cos_phi,
-                &format!("j3_cos_{tag2}"),
-                format!(
-                    "cos φ3 = cos(φ0 ± ψ), φ0 = {} rad (stretched)",
-                    tidy(k.stretched)
-                ),
-            );
-            let sin_phi = {
-                let x = g.mul(sf, cos_psi);
-                let y = g.mul(cf, sp);
-                g.add(x, y)
-            };
-            let sin_phi = g.name(sin_phi, &format!("j3_sin_{tag2}"), "sin φ3 = sin(φ0 ± ψ)");
-            let phi = g.atan2(sin_phi, cos_phi);
-            let theta3 = if k.sense > 0.0 { phi } else { g.neg(phi) };
-            let theta3 = g.name(
-                theta3,
-                &format!("q3_{tag2}"),
-                format!("θ3 = {} atan2(sin φ3, cos φ3)", k.sense),
-            );
-            // x⊥ = L + R(h2, φ3) V.
-            let x = {
-                let a = vec3::scale_const(g, cos_phi, k.v);
-                let b = vec3::scale_const(g, sin_phi, k.hv);
-                let ab = vec3::add(g, a, b);
-                vec3::add_const(g, ab, k.l)
-            };
-            let (nc, ns) = rotate_onto(g, k.h2, x, w);
-            let theta2 = g.atan2(ns, nc);
-            let theta2 = g.name(
-                theta2,
-                &format!("q2_{tag2}"),
-                "Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V",
-            );
-            let c2 = g.mul(nc, inv_n);
-            let s2 = g.mul(ns, inv_n);
-            let c23 = {
-                let x = g.mul(c2, cos_phi);
-                let y = g.mul(s2, sin_phi);
-                g.sub(x, y)
-            };
-            let c23 = g.name(c23, &format!("c23_{tag2}"), "cos(θ2 + φ3)");
-            let s23 = {
-                let x = g.mul(s2, cos_phi);
-                let y = g.mul(c2, sin_phi);
-                g.add(x, y)
-            };
-            let s23 = g.name(s23, &format!("s23_{tag2}"), "sin(θ2 + φ3)");
-            let elbow = if bend * side == up {
+        for bend in two.bends {
+            let elbow = if bend.bend * side == up {
                 Elbow::Up
             } else {
                 Elbow::Down
             };
+            let mut checks = vec![one.check];
+            checks.extend(two.checks);
             out.push(ArmSolution {
-                angles: [theta1, theta2, theta3],
+                angles: [one.angles[i], bend.first, bend.second],
                 undo: vec![
                     Turn {
                         axis: k.h1,
@@ -349,26 +226,14 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
                     },
                     Turn {
                         axis: k.h2,
-                        cos: c23,
-                        sin: s23,
+                        cos: bend.sum.0,
+                        sin: bend.sum.1,
                     },
                 ],
                 shoulder,
                 elbow,
-                checks: vec![
-                    shoulder_check,
-                    CheckLayout {
-                        kind: CheckKind::BeyondReach,
-                        have_squared: d2,
-                        limit: reach_out,
-                    },
-                    CheckLayout {
-                        kind: CheckKind::InsideHole,
-                        have_squared: d2,
-                        limit: reach_in,
-                    },
-                ],
-                on_axis_1: Some(one_.singular),
+                checks,
+                on_axis_1: Some(one.singular),
             });
         }
     }

@@ -318,24 +318,13 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         translation: num::add(&c, &num::scale(&rng.direction(), rng.range(0.0, 0.25))),
     };
     let base = rng.pose(1.0);
-    let names = ["j1", "j2", "j3", "j4", "j5", "j6"];
-    let model = Model {
-        name: format!("sample_{}_{seed}", family.name()),
-        description: Some("invented sample arm for armforge's own tests".to_string()),
-        units: Units::default(),
-        joints: joints
-            .iter()
-            .zip(names)
-            .map(|(joint, name)| ModelJoint {
-                joint: *joint,
-                name: name.to_string(),
-                location: Location::default(),
-            })
-            .collect(),
+    let model = named_model(
+        format!("sample_{}_{seed}", family.name()),
+        &joints,
         tool,
         base,
-        source_path: format!("<sample {} {seed}>", family.name()),
-    };
+        format!("<sample {} {seed}>", family.name()),
+    );
     // The geometry comes from the classifier, as in the real pipeline; a sample is built to
     // be of `family` with its wrist center at `c`, so anything else is a bug in one of them.
     let geometry = match classify(&model, &Tolerances::default()) {

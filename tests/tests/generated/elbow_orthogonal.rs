@@ -697,7 +697,7 @@ fn candidates(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+        2.565272444925764 * (d2_p - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -705,62 +705,62 @@ fn candidates(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
             .max(1.9858518512535248e-20);
-    let t238 = 0.9901136168642846 * j3_cos_psi_p;
-    let t240 = 0.14026769300136338 * j3_sin_psi_p;
+    let t236 = 0.9901136168642846 * j3_cos_psi_p;
+    let t238 = 0.14026769300136338 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pp = t240 - t238;
-    let t242 = 0.14026769300136338 * j3_cos_psi_p;
-    let t243 = 0.9901136168642846 * j3_sin_psi_p;
-    let t244 = t242 + t243;
+    let j3_cos_pp = t238 - t236;
+    let t240 = 0.14026769300136338 * j3_cos_psi_p;
+    let t241 = 0.9901136168642846 * j3_sin_psi_p;
+    let t242 = t240 + t241;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
+    let j3_sin_pp = -t242;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+    let t264 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t242
         - 0.7702009139951951;
-    let t267 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
-    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+    let t265 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t242);
+    let t266 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t242
         + 0.08633983745217953;
-    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
-    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
-        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
-            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    let t271 = w_p_z * t266 + (w_p_x * t264 + w_p_y * t265);
+    let t285 = 0.393370490499651 * (w_p_y * t264 - w_p_x * t265)
+        + (0.14192355343258098 * (w_p_z * t265 - w_p_y * t266)
+            + 0.9083597096883664 * (w_p_x * t266 - w_p_z * t264));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = j2_inv_p * t273;
-    let t290 = j2_inv_p * t287;
+    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_p * t271;
+    let t288 = j2_inv_p * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t289 + t244 * t290;
-    let t296 = t238 + t240;
+    let c23_pp = j3_cos_pp * t287 + t242 * t288;
+    let t294 = t236 + t238;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pm = -t296;
+    let j3_cos_pm = -t294;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t243 - t242;
+    let j3_sin_pm = t241 - t240;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+    let t308 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t294
         - 0.7702009139951951;
-    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+    let t309 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_pm
         + 0.082947433224273;
-    let t312 = 0.08633983745217953
-        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
-    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
-    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
-        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
-            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+    let t310 = 0.08633983745217953
+        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_pm);
+    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
+    let t329 = 0.393370490499651 * (w_p_y * t308 - w_p_x * t309)
+        + (0.14192355343258098 * (w_p_z * t309 - w_p_y * t310)
+            + 0.9083597096883664 * (w_p_x * t310 - w_p_z * t308));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
-    let t333 = j2_inv_p * t317;
-    let t334 = j2_inv_p * t331;
-    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let q2_pm = ::armforge_runtime::math::atan2(t329, t315);
+    let t331 = j2_inv_p * t315;
+    let t332 = j2_inv_p * t329;
+    let t335 = t294 * t331 + j3_sin_pm * t332;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+        2.565272444925764 * (d2_m - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -768,9 +768,9 @@ fn candidates(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     let t353 = 0.9901136168642846 * j3_cos_psi_m;
     let t354 = 0.14026769300136338 * j3_sin_psi_m;
@@ -879,7 +879,7 @@ fn candidates(
     let t572 = j1_cos_p * t551 - j1_sin_p * t556 - t548;
     let t573 = t549 + (j1_cos_p * t552 - j1_sin_p * t559);
     let t574 = t550 + (j1_cos_p * t553 + j1_sin_p * t562);
-    let t575 = t244 * t289 - j3_cos_pp * t290;
+    let t575 = t242 * t287 - j3_cos_pp * t288;
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -1013,19 +1013,19 @@ fn candidates(
     let q5_b1m = -4.299963472122064 - q5_b1p;
     // θ6 + π (mirror wrist branch)
     let q6_b1m = q6_b1p + ::core::f64::consts::PI;
-    let t825 = t296 * t334 - j3_sin_pm * t333;
+    let t825 = t294 * t332 - j3_sin_pm * t331;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t581 + (t589 * t825 - t337 * t584);
+    let v_b2_x = t581 + (t589 * t825 - t335 * t584);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t582 + (t592 * t825 - t337 * t585);
+    let v_b2_y = t582 + (t592 * t825 - t335 * t585);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t583 + (t595 * t825 - t337 * t586);
+    let v_b2_z = t583 + (t595 * t825 - t335 * t586);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t613 + (t621 * t825 - t337 * t616);
+    let xv_b2_x = t613 + (t621 * t825 - t335 * t616);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t614 + (t624 * t825 - t337 * t617);
+    let xv_b2_y = t614 + (t624 * t825 - t335 * t617);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t615 + (t627 * t825 - t337 * t618);
+    let xv_b2_z = t615 + (t627 * t825 - t335 * t618);
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.8589206607284425 * v_b2_z
         + (0.01853429342821227 * v_b2_x + 0.51177317098587 * v_b2_y);
@@ -1718,7 +1718,7 @@ fn branch_1(
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+        2.565272444925764 * (d2_p - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -1726,34 +1726,34 @@ fn branch_1(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
     let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
         - 0.9901136168642846 * j3_cos_psi_p;
-    let t244 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    let t242 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
+    let j3_sin_pp = -t242;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+    let t264 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t242
         - 0.7702009139951951;
-    let t267 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
-    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+    let t265 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t242);
+    let t266 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t242
         + 0.08633983745217953;
-    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
-    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
-        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
-            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    let t271 = w_p_z * t266 + (w_p_x * t264 + w_p_y * t265);
+    let t285 = 0.393370490499651 * (w_p_y * t264 - w_p_x * t265)
+        + (0.14192355343258098 * (w_p_z * t265 - w_p_y * t266)
+            + 0.9083597096883664 * (w_p_x * t266 - w_p_z * t264));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = j2_inv_p * t273;
-    let t290 = j2_inv_p * t287;
+    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_p * t271;
+    let t288 = j2_inv_p * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let c23_pp = j3_cos_pp * t287 + t242 * t288;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -1810,7 +1810,7 @@ fn branch_1(
     let t574 = t550
         + (j1_cos_p * (gx_z - t550)
             + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t575 = t244 * t289 - j3_cos_pp * t290;
+    let t575 = t242 * t287 - j3_cos_pp * t288;
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -2081,7 +2081,7 @@ fn branch_2(
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+        2.565272444925764 * (d2_p - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -2089,34 +2089,34 @@ fn branch_2(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
     let j3_cos_pp = 0.14026769300136338 * j3_sin_psi_p
         - 0.9901136168642846 * j3_cos_psi_p;
-    let t244 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
+    let t242 = 0.14026769300136338 * j3_cos_psi_p + 0.9901136168642846 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
+    let j3_sin_pp = -t242;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pp = -::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t266 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t244
+    let t264 = 0.2467123080373334 * j3_cos_pp - 0.02011160130528487 * t242
         - 0.7702009139951951;
-    let t267 = 0.082947433224273
-        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t244);
-    let t268 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t244
+    let t265 = 0.082947433224273
+        - (0.040533312372973224 * j3_cos_pp + 0.09639828417151698 * t242);
+    let t266 = 0.004587381288611317 * j3_cos_pp + 0.22985615222970415 * t242
         + 0.08633983745217953;
-    let t273 = w_p_z * t268 + (w_p_x * t266 + w_p_y * t267);
-    let t287 = 0.393370490499651 * (w_p_y * t266 - w_p_x * t267)
-        + (0.14192355343258098 * (w_p_z * t267 - w_p_y * t268)
-            + 0.9083597096883664 * (w_p_x * t268 - w_p_z * t266));
+    let t271 = w_p_z * t266 + (w_p_x * t264 + w_p_y * t265);
+    let t285 = 0.393370490499651 * (w_p_y * t264 - w_p_x * t265)
+        + (0.14192355343258098 * (w_p_z * t265 - w_p_y * t266)
+            + 0.9083597096883664 * (w_p_x * t266 - w_p_z * t264));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = j2_inv_p * t273;
-    let t290 = j2_inv_p * t287;
+    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
+    let t287 = j2_inv_p * t271;
+    let t288 = j2_inv_p * t285;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t289 + t244 * t290;
+    let c23_pp = j3_cos_pp * t287 + t242 * t288;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -2173,7 +2173,7 @@ fn branch_2(
     let t574 = t550
         + (j1_cos_p * (gx_z - t550)
             + j1_sin_p * (0.7610978269683933 * gx_y + 0.6486238403189734 * gx_x));
-    let t575 = t244 * t289 - j3_cos_pp * t290;
+    let t575 = t242 * t287 - j3_cos_pp * t288;
     let t580 = 0.393370490499651 * t542
         + (0.14192355343258098 * t540 + 0.9083597096883664 * t541);
     let t581 = 0.14192355343258098 * t580;
@@ -2450,7 +2450,7 @@ fn branch_3(
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+        2.565272444925764 * (d2_p - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -2458,33 +2458,33 @@ fn branch_3(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
             .max(1.9858518512535248e-20);
-    let t296 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    let t294 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pm = -t296;
+    let j3_cos_pm = -t294;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
         - 0.14026769300136338 * j3_cos_psi_p;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+    let t308 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t294
         - 0.7702009139951951;
-    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+    let t309 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_pm
         + 0.082947433224273;
-    let t312 = 0.08633983745217953
-        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
-    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
-    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
-        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
-            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+    let t310 = 0.08633983745217953
+        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_pm);
+    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
+    let t329 = 0.393370490499651 * (w_p_y * t308 - w_p_x * t309)
+        + (0.14192355343258098 * (w_p_z * t309 - w_p_y * t310)
+            + 0.9083597096883664 * (w_p_x * t310 - w_p_z * t308));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
-    let t333 = j2_inv_p * t317;
-    let t334 = j2_inv_p * t331;
-    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let q2_pm = ::armforge_runtime::math::atan2(t329, t315);
+    let t331 = j2_inv_p * t315;
+    let t332 = j2_inv_p * t329;
+    let t335 = t294 * t331 + j3_sin_pm * t332;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -2551,31 +2551,31 @@ fn branch_3(
     let t613 = 0.14192355343258098 * t612;
     let t614 = 0.9083597096883664 * t612;
     let t615 = 0.393370490499651 * t612;
-    let t825 = t296 * t334 - j3_sin_pm * t333;
+    let t825 = t294 * t332 - j3_sin_pm * t331;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581
         + ((0.9083597096883664 * t542 - 0.393370490499651 * t541) * t825
-            - t337 * (t540 - t581));
+            - t335 * (t540 - t581));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b2_y = t582
         + ((0.393370490499651 * t540 - 0.14192355343258098 * t542) * t825
-            - t337 * (t541 - t582));
+            - t335 * (t541 - t582));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b2_z = t583
         + ((0.14192355343258098 * t541 - 0.9083597096883664 * t540) * t825
-            - t337 * (t542 - t583));
+            - t335 * (t542 - t583));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t613
         + ((0.9083597096883664 * t574 - 0.393370490499651 * t573) * t825
-            - t337 * (t572 - t613));
+            - t335 * (t572 - t613));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b2_y = t614
         + ((0.393370490499651 * t572 - 0.14192355343258098 * t574) * t825
-            - t337 * (t573 - t614));
+            - t335 * (t573 - t614));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b2_z = t615
         + ((0.14192355343258098 * t573 - 0.9083597096883664 * t572) * t825
-            - t337 * (t574 - t615));
+            - t335 * (t574 - t615));
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.8589206607284425 * v_b2_z
         + (0.01853429342821227 * v_b2_x + 0.51177317098587 * v_b2_y);
@@ -2812,7 +2812,7 @@ fn branch_4(
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_p = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_p - 0.6700752485449181),
+        2.565272444925764 * (d2_p - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -2820,33 +2820,33 @@ fn branch_4(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
-        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_p + 0.6700752485449182)
             .max(1.9858518512535248e-20);
-    let t296 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
+    let t294 = 0.9901136168642846 * j3_cos_psi_p + 0.14026769300136338 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
-    let j3_cos_pm = -t296;
+    let j3_cos_pm = -t294;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pm = 0.9901136168642846 * j3_sin_psi_p
         - 0.14026769300136338 * j3_cos_psi_p;
     // θ3 = -1 atan2(sin φ3, cos φ3)
     let q3_pm = -::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t310 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t296
+    let t308 = 0.02011160130528487 * j3_sin_pm - 0.2467123080373334 * t294
         - 0.7702009139951951;
-    let t311 = 0.040533312372973224 * t296 + 0.09639828417151698 * j3_sin_pm
+    let t309 = 0.040533312372973224 * t294 + 0.09639828417151698 * j3_sin_pm
         + 0.082947433224273;
-    let t312 = 0.08633983745217953
-        - (0.004587381288611317 * t296 + 0.22985615222970415 * j3_sin_pm);
-    let t317 = w_p_z * t312 + (w_p_x * t310 + w_p_y * t311);
-    let t331 = 0.393370490499651 * (w_p_y * t310 - w_p_x * t311)
-        + (0.14192355343258098 * (w_p_z * t311 - w_p_y * t312)
-            + 0.9083597096883664 * (w_p_x * t312 - w_p_z * t310));
+    let t310 = 0.08633983745217953
+        - (0.004587381288611317 * t294 + 0.22985615222970415 * j3_sin_pm);
+    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
+    let t329 = 0.393370490499651 * (w_p_y * t308 - w_p_x * t309)
+        + (0.14192355343258098 * (w_p_z * t309 - w_p_y * t310)
+            + 0.9083597096883664 * (w_p_x * t310 - w_p_z * t308));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t331, t317);
-    let t333 = j2_inv_p * t317;
-    let t334 = j2_inv_p * t331;
-    let t337 = t296 * t333 + j3_sin_pm * t334;
+    let q2_pm = ::armforge_runtime::math::atan2(t329, t315);
+    let t331 = j2_inv_p * t315;
+    let t332 = j2_inv_p * t329;
+    let t335 = t294 * t331 + j3_sin_pm * t332;
     let t452 = 0.6214844358632149 * r02
         + (0.7409464403548875 * r01 - 0.25447095807813225 * r00);
     let t457 = 0.6214844358632149 * r12
@@ -2913,31 +2913,31 @@ fn branch_4(
     let t613 = 0.14192355343258098 * t612;
     let t614 = 0.9083597096883664 * t612;
     let t615 = 0.393370490499651 * t612;
-    let t825 = t296 * t334 - j3_sin_pm * t333;
+    let t825 = t294 * t332 - j3_sin_pm * t331;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t581
         + ((0.9083597096883664 * t542 - 0.393370490499651 * t541) * t825
-            - t337 * (t540 - t581));
+            - t335 * (t540 - t581));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
     let v_b2_y = t582
         + ((0.393370490499651 * t540 - 0.14192355343258098 * t542) * t825
-            - t337 * (t541 - t582));
+            - t335 * (t541 - t582));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
     let v_b2_z = t583
         + ((0.14192355343258098 * t541 - 0.9083597096883664 * t540) * t825
-            - t337 * (t542 - t583));
+            - t335 * (t542 - t583));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t613
         + ((0.9083597096883664 * t574 - 0.393370490499651 * t573) * t825
-            - t337 * (t572 - t613));
+            - t335 * (t572 - t613));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
     let xv_b2_y = t614
         + ((0.393370490499651 * t572 - 0.14192355343258098 * t574) * t825
-            - t337 * (t573 - t614));
+            - t335 * (t573 - t614));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
     let xv_b2_z = t615
         + ((0.14192355343258098 * t573 - 0.9083597096883664 * t572) * t825
-            - t337 * (t574 - t615));
+            - t335 * (t574 - t615));
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.8589206607284425 * v_b2_z
         + (0.01853429342821227 * v_b2_x + 0.51177317098587 * v_b2_y);
@@ -3180,7 +3180,7 @@ fn branch_5(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+        2.565272444925764 * (d2_m - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -3188,9 +3188,9 @@ fn branch_5(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
     let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
@@ -3543,7 +3543,7 @@ fn branch_6(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+        2.565272444925764 * (d2_m - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -3551,9 +3551,9 @@ fn branch_6(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
     let j3_cos_mp = 0.14026769300136338 * j3_sin_psi_m
@@ -3912,7 +3912,7 @@ fn branch_7(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+        2.565272444925764 * (d2_m - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -3920,9 +3920,9 @@ fn branch_7(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     let t401 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -4274,7 +4274,7 @@ fn branch_8(
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.779451 m, |V| = 0.250062 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
-        2.565272444925764 * (d2_m - 0.6700752485449181),
+        2.565272444925764 * (d2_m - 0.6700752485449182),
         -1.0,
         1.0,
     );
@@ -4282,9 +4282,9 @@ fn branch_8(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
-        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449181)
+        / (0.38982214227500456 * j3_cos_psi_m + 0.6700752485449182)
             .max(1.9858518512535248e-20);
     let t401 = 0.9901136168642846 * j3_cos_psi_m + 0.14026769300136338 * j3_sin_psi_m;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)

@@ -709,62 +709,62 @@ fn candidates(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t238 = 0.3686182725083974 * j3_cos_psi_p;
-    let t240 = 0.9295808567160389 * j3_sin_psi_p;
+    let t236 = 0.3686182725083974 * j3_cos_psi_p;
+    let t238 = 0.9295808567160389 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pp = t240 - t238;
-    let t242 = 0.9295808567160389 * j3_cos_psi_p;
-    let t243 = 0.3686182725083974 * j3_sin_psi_p;
-    let t244 = t242 + t243;
+    let j3_cos_pp = t238 - t236;
+    let t240 = 0.9295808567160389 * j3_cos_psi_p;
+    let t241 = 0.3686182725083974 * j3_sin_psi_p;
+    let t242 = t240 + t241;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
+    let j3_sin_pp = -t242;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+    let t262 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t242
         + 0.38353760535766845;
-    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+    let t263 = 0.058488960821312025 * t242 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+    let t265 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t242
         + 0.12697460164967897;
-    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
-    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
-        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
-        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    let t270 = w_p_x * t262 + w_p_y * t263 - w_p_z * t265;
+    let t284 = 0.04652345630215346 * (w_p_x * t265 + w_p_z * t262)
+        - 0.28272467533220935 * (w_p_z * t263 + w_p_y * t265)
+        - 0.9580721924635943 * (w_p_y * t262 - w_p_x * t263);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
-    let t288 = j2_inv_p * t272;
-    let t289 = j2_inv_p * t286;
+    let q2_pp = ::armforge_runtime::math::atan2(t284, t270);
+    let t286 = j2_inv_p * t270;
+    let t287 = j2_inv_p * t284;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t288 + t244 * t289;
-    let t295 = t238 + t240;
+    let c23_pp = j3_cos_pp * t286 + t242 * t287;
+    let t293 = t236 + t238;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pm = -t295;
+    let j3_cos_pm = -t293;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t243 - t242;
+    let j3_sin_pm = t241 - t240;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t308 = 0.38353760535766845
-        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
-    let t309 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+    let t306 = 0.38353760535766845
+        - (0.059363684915989756 * t293 + 0.23271273627618366 * j3_sin_pm);
+    let t307 = 0.24317412797069082 * t293 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t310 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+    let t308 = 0.005709671641624163 * t293 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
-    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
-    let t329 = 0.9580721924635943 * (w_p_y * t308 - w_p_x * t309)
-        + (0.28272467533220935 * (w_p_z * t309 - w_p_y * t310)
-            + 0.04652345630215346 * (w_p_x * t310 - w_p_z * t308));
+    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
+    let t327 = 0.9580721924635943 * (w_p_y * t306 - w_p_x * t307)
+        + (0.28272467533220935 * (w_p_z * t307 - w_p_y * t308)
+            + 0.04652345630215346 * (w_p_x * t308 - w_p_z * t306));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t329, t315);
-    let t332 = j2_inv_p * t315;
-    let t333 = j2_inv_p * t329;
+    let q2_pm = ::armforge_runtime::math::atan2(-t327, t313);
+    let t330 = j2_inv_p * t313;
+    let t331 = j2_inv_p * t327;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t333 - t295 * t332;
+    let c23_pm = j3_sin_pm * t331 - t293 * t330;
     // sin(θ2 + φ3)
-    let s23_pm = t295 * t333 + j3_sin_pm * t332;
+    let s23_pm = t293 * t331 + j3_sin_pm * t330;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
         4.043462934169572 * (d2_m - 0.30660204177019446),
@@ -775,7 +775,7 @@ fn candidates(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
@@ -887,7 +887,7 @@ fn candidates(
     let t572 = j1_cos_p * t551 - j1_sin_p * t556 - t548;
     let t573 = j1_cos_p * t552 - j1_sin_p * t559 - t549;
     let t574 = j1_cos_p * t553 + j1_sin_p * t562 - t550;
-    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t575 = t242 * t286 - j3_cos_pp * t287;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2073,34 +2073,34 @@ fn branch_1(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
         - 0.3686182725083974 * j3_cos_psi_p;
-    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    let t242 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
+    let j3_sin_pp = -t242;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+    let t262 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t242
         + 0.38353760535766845;
-    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+    let t263 = 0.058488960821312025 * t242 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+    let t265 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t242
         + 0.12697460164967897;
-    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
-    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
-        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
-        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    let t270 = w_p_x * t262 + w_p_y * t263 - w_p_z * t265;
+    let t284 = 0.04652345630215346 * (w_p_x * t265 + w_p_z * t262)
+        - 0.28272467533220935 * (w_p_z * t263 + w_p_y * t265)
+        - 0.9580721924635943 * (w_p_y * t262 - w_p_x * t263);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
-    let t288 = j2_inv_p * t272;
-    let t289 = j2_inv_p * t286;
+    let q2_pp = ::armforge_runtime::math::atan2(t284, t270);
+    let t286 = j2_inv_p * t270;
+    let t287 = j2_inv_p * t284;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let c23_pp = j3_cos_pp * t286 + t242 * t287;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2151,7 +2151,7 @@ fn branch_1(
         - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
     let t574 = j1_cos_p * (gx_z + t550)
         + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t575 = t242 * t286 - j3_cos_pp * t287;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2450,34 +2450,34 @@ fn branch_2(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
         - 0.3686182725083974 * j3_cos_psi_p;
-    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    let t242 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t244;
+    let j3_sin_pp = -t242;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
+    let t262 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t242
         + 0.38353760535766845;
-    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
+    let t263 = 0.058488960821312025 * t242 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
+    let t265 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t242
         + 0.12697460164967897;
-    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
-    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
-        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
-        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
+    let t270 = w_p_x * t262 + w_p_y * t263 - w_p_z * t265;
+    let t284 = 0.04652345630215346 * (w_p_x * t265 + w_p_z * t262)
+        - 0.28272467533220935 * (w_p_z * t263 + w_p_y * t265)
+        - 0.9580721924635943 * (w_p_y * t262 - w_p_x * t263);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
-    let t288 = j2_inv_p * t272;
-    let t289 = j2_inv_p * t286;
+    let q2_pp = ::armforge_runtime::math::atan2(t284, t270);
+    let t286 = j2_inv_p * t270;
+    let t287 = j2_inv_p * t284;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let c23_pp = j3_cos_pp * t286 + t242 * t287;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2528,7 +2528,7 @@ fn branch_2(
         - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
     let t574 = j1_cos_p * (gx_z + t550)
         + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t575 = t244 * t288 - j3_cos_pp * t289;
+    let t575 = t242 * t286 - j3_cos_pp * t287;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2827,36 +2827,36 @@ fn branch_3(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
+    let t293 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pm = -t295;
+    let j3_cos_pm = -t293;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
         - 0.9295808567160389 * j3_cos_psi_p;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t308 = 0.38353760535766845
-        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
-    let t309 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+    let t306 = 0.38353760535766845
+        - (0.059363684915989756 * t293 + 0.23271273627618366 * j3_sin_pm);
+    let t307 = 0.24317412797069082 * t293 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t310 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+    let t308 = 0.005709671641624163 * t293 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
-    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
-    let t329 = 0.9580721924635943 * (w_p_y * t308 - w_p_x * t309)
-        + (0.28272467533220935 * (w_p_z * t309 - w_p_y * t310)
-            + 0.04652345630215346 * (w_p_x * t310 - w_p_z * t308));
+    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
+    let t327 = 0.9580721924635943 * (w_p_y * t306 - w_p_x * t307)
+        + (0.28272467533220935 * (w_p_z * t307 - w_p_y * t308)
+            + 0.04652345630215346 * (w_p_x * t308 - w_p_z * t306));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t329, t315);
-    let t332 = j2_inv_p * t315;
-    let t333 = j2_inv_p * t329;
+    let q2_pm = ::armforge_runtime::math::atan2(-t327, t313);
+    let t330 = j2_inv_p * t313;
+    let t331 = j2_inv_p * t327;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t333 - t295 * t332;
+    let c23_pm = j3_sin_pm * t331 - t293 * t330;
     // sin(θ2 + φ3)
-    let s23_pm = t295 * t333 + j3_sin_pm * t332;
+    let s23_pm = t293 * t331 + j3_sin_pm * t330;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3205,36 +3205,36 @@ fn branch_4(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
+    let t293 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pm = -t295;
+    let j3_cos_pm = -t293;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
         - 0.9295808567160389 * j3_cos_psi_p;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t308 = 0.38353760535766845
-        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
-    let t309 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
+    let t306 = 0.38353760535766845
+        - (0.059363684915989756 * t293 + 0.23271273627618366 * j3_sin_pm);
+    let t307 = 0.24317412797069082 * t293 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t310 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
+    let t308 = 0.005709671641624163 * t293 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
-    let t315 = w_p_z * t310 + (w_p_x * t308 + w_p_y * t309);
-    let t329 = 0.9580721924635943 * (w_p_y * t308 - w_p_x * t309)
-        + (0.28272467533220935 * (w_p_z * t309 - w_p_y * t310)
-            + 0.04652345630215346 * (w_p_x * t310 - w_p_z * t308));
+    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
+    let t327 = 0.9580721924635943 * (w_p_y * t306 - w_p_x * t307)
+        + (0.28272467533220935 * (w_p_z * t307 - w_p_y * t308)
+            + 0.04652345630215346 * (w_p_x * t308 - w_p_z * t306));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t329, t315);
-    let t332 = j2_inv_p * t315;
-    let t333 = j2_inv_p * t329;
+    let q2_pm = ::armforge_runtime::math::atan2(-t327, t313);
+    let t330 = j2_inv_p * t313;
+    let t331 = j2_inv_p * t327;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t333 - t295 * t332;
+    let c23_pm = j3_sin_pm * t331 - t293 * t330;
     // sin(θ2 + φ3)
-    let s23_pm = t295 * t333 + j3_sin_pm * t332;
+    let s23_pm = t293 * t331 + j3_sin_pm * t330;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3583,7 +3583,7 @@ fn branch_5(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
@@ -3960,7 +3960,7 @@ fn branch_6(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
@@ -4337,7 +4337,7 @@ fn branch_7(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
@@ -4715,7 +4715,7 @@ fn branch_8(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);

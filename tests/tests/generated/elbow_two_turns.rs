@@ -712,62 +712,62 @@ fn candidates(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
             .max(2.5830917772457932e-20);
-    let t239 = 0.4071777476800675 * j3_cos_psi_p;
-    let t240 = 0.9133489375885797 * j3_sin_psi_p;
+    let t237 = 0.4071777476800675 * j3_cos_psi_p;
+    let t238 = 0.9133489375885797 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pp = t239 - t240;
-    let t242 = 0.9133489375885797 * j3_cos_psi_p;
-    let t243 = 0.4071777476800675 * j3_sin_psi_p;
+    let j3_cos_pp = t237 - t238;
+    let t240 = 0.9133489375885797 * j3_cos_psi_p;
+    let t241 = 0.4071777476800675 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = t242 + t243;
+    let j3_sin_pp = t240 + t241;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+    let t261 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
         + 0.292065217972989;
-    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+    let t263 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
         - 0.05659539424856903;
-    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+    let t264 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
         + 0.4064423300085499;
-    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
-    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
-        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
-        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    let t269 = w_p_z * t264 + (w_p_y * t263 - w_p_x * t261);
+    let t283 = 0.7712839289086363 * (w_p_z * t263 - w_p_y * t264)
+        + 0.24337202575641612 * (w_p_x * t264 + w_p_z * t261)
+        - 0.5881251211149515 * (w_p_y * t261 + w_p_x * t263);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_pp = ::armforge_runtime::math::atan2(t283, t269);
+    let t285 = j2_inv_p * t269;
+    let t286 = j2_inv_p * t283;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    let c23_pp = j3_cos_pp * t285 - j3_sin_pp * t286;
     // sin(θ2 + φ3)
-    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let s23_pp = j3_cos_pp * t286 + j3_sin_pp * t285;
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
-    let j3_cos_pm = t239 + t240;
+    let j3_cos_pm = t237 + t238;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t242 - t243;
+    let j3_sin_pm = t240 - t241;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+    let t305 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
         + 0.292065217972989;
-    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+    let t306 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
         - 0.05659539424856903;
-    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+    let t307 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
         + 0.4064423300085499;
-    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
-    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
-        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
-        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    let t312 = w_p_z * t307 + (w_p_y * t306 - w_p_x * t305);
+    let t326 = 0.7712839289086363 * (w_p_z * t306 - w_p_y * t307)
+        + 0.24337202575641612 * (w_p_x * t307 + w_p_z * t305)
+        - 0.5881251211149515 * (w_p_y * t305 + w_p_x * t306);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
-    let t330 = j2_inv_p * t314;
-    let t331 = j2_inv_p * t328;
+    let q2_pm = ::armforge_runtime::math::atan2(t326, t312);
+    let t328 = j2_inv_p * t312;
+    let t329 = j2_inv_p * t326;
     // cos(θ2 + φ3)
-    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    let c23_pm = j3_cos_pm * t328 - j3_sin_pm * t329;
     // sin(θ2 + φ3)
-    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let s23_pm = j3_cos_pm * t329 + j3_sin_pm * t328;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.503687 m, |V| = 0.622468 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
         1.5947485933949053 * (d2_m - 0.6411670638136766),
@@ -778,7 +778,7 @@ fn candidates(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -1746,7 +1746,7 @@ fn branch_1(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -1758,24 +1758,24 @@ fn branch_1(
         + 0.4071777476800675 * j3_sin_psi_p;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+    let t261 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
         + 0.292065217972989;
-    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+    let t263 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
         - 0.05659539424856903;
-    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+    let t264 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
         + 0.4064423300085499;
-    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
-    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
-        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
-        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    let t269 = w_p_z * t264 + (w_p_y * t263 - w_p_x * t261);
+    let t283 = 0.7712839289086363 * (w_p_z * t263 - w_p_y * t264)
+        + 0.24337202575641612 * (w_p_x * t264 + w_p_z * t261)
+        - 0.5881251211149515 * (w_p_y * t261 + w_p_x * t263);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_pp = ::armforge_runtime::math::atan2(t283, t269);
+    let t285 = j2_inv_p * t269;
+    let t286 = j2_inv_p * t283;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    let c23_pp = j3_cos_pp * t285 - j3_sin_pp * t286;
     // sin(θ2 + φ3)
-    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let s23_pp = j3_cos_pp * t286 + j3_sin_pp * t285;
     let t448 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t453 = 0.7429579260868081 * r12
@@ -2115,7 +2115,7 @@ fn branch_2(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -2127,24 +2127,24 @@ fn branch_2(
         + 0.4071777476800675 * j3_sin_psi_p;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t263 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
+    let t261 = 0.29618845398521326 * j3_cos_pp + 0.2631411817706989 * j3_sin_pp
         + 0.292065217972989;
-    let t265 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
+    let t263 = 0.5192451277093607 * j3_cos_pp - 0.3080607744485827 * j3_sin_pp
         - 0.05659539424856903;
-    let t266 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
+    let t264 = 0.17356112199186785 * j3_cos_pp + 0.4725694062183847 * j3_sin_pp
         + 0.4064423300085499;
-    let t271 = w_p_z * t266 + (w_p_y * t265 - w_p_x * t263);
-    let t285 = 0.7712839289086363 * (w_p_z * t265 - w_p_y * t266)
-        + 0.24337202575641612 * (w_p_x * t266 + w_p_z * t263)
-        - 0.5881251211149515 * (w_p_y * t263 + w_p_x * t265);
+    let t269 = w_p_z * t264 + (w_p_y * t263 - w_p_x * t261);
+    let t283 = 0.7712839289086363 * (w_p_z * t263 - w_p_y * t264)
+        + 0.24337202575641612 * (w_p_x * t264 + w_p_z * t261)
+        - 0.5881251211149515 * (w_p_y * t261 + w_p_x * t263);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t285, t271);
-    let t287 = j2_inv_p * t271;
-    let t288 = j2_inv_p * t285;
+    let q2_pp = ::armforge_runtime::math::atan2(t283, t269);
+    let t285 = j2_inv_p * t269;
+    let t286 = j2_inv_p * t283;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t287 - j3_sin_pp * t288;
+    let c23_pp = j3_cos_pp * t285 - j3_sin_pp * t286;
     // sin(θ2 + φ3)
-    let s23_pp = j3_cos_pp * t288 + j3_sin_pp * t287;
+    let s23_pp = j3_cos_pp * t286 + j3_sin_pp * t285;
     let t448 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t453 = 0.7429579260868081 * r12
@@ -2490,7 +2490,7 @@ fn branch_3(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -2502,24 +2502,24 @@ fn branch_3(
         - 0.4071777476800675 * j3_sin_psi_p;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+    let t305 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
         + 0.292065217972989;
-    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+    let t306 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
         - 0.05659539424856903;
-    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+    let t307 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
         + 0.4064423300085499;
-    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
-    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
-        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
-        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    let t312 = w_p_z * t307 + (w_p_y * t306 - w_p_x * t305);
+    let t326 = 0.7712839289086363 * (w_p_z * t306 - w_p_y * t307)
+        + 0.24337202575641612 * (w_p_x * t307 + w_p_z * t305)
+        - 0.5881251211149515 * (w_p_y * t305 + w_p_x * t306);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
-    let t330 = j2_inv_p * t314;
-    let t331 = j2_inv_p * t328;
+    let q2_pm = ::armforge_runtime::math::atan2(t326, t312);
+    let t328 = j2_inv_p * t312;
+    let t329 = j2_inv_p * t326;
     // cos(θ2 + φ3)
-    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    let c23_pm = j3_cos_pm * t328 - j3_sin_pm * t329;
     // sin(θ2 + φ3)
-    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let s23_pm = j3_cos_pm * t329 + j3_sin_pm * t328;
     let t448 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t453 = 0.7429579260868081 * r12
@@ -2859,7 +2859,7 @@ fn branch_4(
     let j3_sin_psi_p = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_p) * (j3_cos_psi_p + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_p = 1.0
         / (0.6270580856078369 * j3_cos_psi_p + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -2871,24 +2871,24 @@ fn branch_4(
         - 0.4071777476800675 * j3_sin_psi_p;
     // θ3 = 1 atan2(sin φ3, cos φ3)
     let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t307 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
+    let t305 = 0.29618845398521326 * j3_cos_pm + 0.2631411817706989 * j3_sin_pm
         + 0.292065217972989;
-    let t308 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
+    let t306 = 0.5192451277093607 * j3_cos_pm - 0.3080607744485827 * j3_sin_pm
         - 0.05659539424856903;
-    let t309 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
+    let t307 = 0.17356112199186785 * j3_cos_pm + 0.4725694062183847 * j3_sin_pm
         + 0.4064423300085499;
-    let t314 = w_p_z * t309 + (w_p_y * t308 - w_p_x * t307);
-    let t328 = 0.7712839289086363 * (w_p_z * t308 - w_p_y * t309)
-        + 0.24337202575641612 * (w_p_x * t309 + w_p_z * t307)
-        - 0.5881251211149515 * (w_p_y * t307 + w_p_x * t308);
+    let t312 = w_p_z * t307 + (w_p_y * t306 - w_p_x * t305);
+    let t326 = 0.7712839289086363 * (w_p_z * t306 - w_p_y * t307)
+        + 0.24337202575641612 * (w_p_x * t307 + w_p_z * t305)
+        - 0.5881251211149515 * (w_p_y * t305 + w_p_x * t306);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(t328, t314);
-    let t330 = j2_inv_p * t314;
-    let t331 = j2_inv_p * t328;
+    let q2_pm = ::armforge_runtime::math::atan2(t326, t312);
+    let t328 = j2_inv_p * t312;
+    let t329 = j2_inv_p * t326;
     // cos(θ2 + φ3)
-    let c23_pm = j3_cos_pm * t330 - j3_sin_pm * t331;
+    let c23_pm = j3_cos_pm * t328 - j3_sin_pm * t329;
     // sin(θ2 + φ3)
-    let s23_pm = j3_cos_pm * t331 + j3_sin_pm * t330;
+    let s23_pm = j3_cos_pm * t329 + j3_sin_pm * t328;
     let t448 = 0.7429579260868081 * r02
         + (0.04200107736461299 * r00 + 0.6680190338343667 * r01);
     let t453 = 0.7429579260868081 * r12
@@ -3234,7 +3234,7 @@ fn branch_5(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -3603,7 +3603,7 @@ fn branch_6(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -3978,7 +3978,7 @@ fn branch_7(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
             .max(2.5830917772457932e-20);
@@ -4347,7 +4347,7 @@ fn branch_8(
     let j3_sin_psi_m = ::armforge_runtime::math::sqrt(
         ((1.0 - j3_cos_psi_m) * (j3_cos_psi_m + 1.0)).max(0.0),
     );
-    // 1 / |L + R3 V|², the squared distance of the wrist center from axis 2
+    // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_m = 1.0
         / (0.6270580856078369 * j3_cos_psi_m + 0.6411670638136766)
             .max(2.5830917772457932e-20);
