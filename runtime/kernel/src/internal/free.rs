@@ -5,21 +5,20 @@
 //! joint 5 can fall outside its limits although another value of joint 1 keeps it inside.
 //! Choosing that value is a one-dimensional interval problem with a closed form:
 //!
-//! * Joint 5 fixes `k = h4 · v`, where `v = (R1 R2 R3)ᵀ rot(G) h6` is the direction axis 6 must
-//!   take (the wrist step's `a`): `k = h4 · R5(θ5) h6 = p + q cos θ5 + r sin θ5`. Over joint 5's
-//!   limits `k` covers an interval `[k_lo, k_hi]` (the ends of the range and the extremes of
-//!   the sinusoid inside it).
-//! * As a function of joint 1's model value `m`, with `u = R2 R3 h4` and `g = rot(G) h6`:
-//!   `k(m) = u · R1(m)ᵀ g = A + B cos m + C sin m`, `A = (u·h1)(g·h1)`, `B = u·g − A`,
-//!   `C = −h1 · (g × u)` (Rodrigues), i.e. `k(m) = A + ρ cos(m − μ)`. `k(m)` lies in
-//!   `[k_lo, k_hi]` on two arcs symmetric about `μ`, `acos(x_hi) ≤ |m − μ| ≤ acos(x_lo)`,
-//!   `x = (k − A) / ρ`.
-//! * The value taken is the one nearest the held value among the arc ends (moved 1e-9 rad
-//!   inside) and joint 1's limits that lie in both the arcs and joint 1's range.
+//! * With `R456 = (R1(m) R2 R3)ᵀ G` the wrist's rotation for joint 1's model value `m`, each
+//!   wrist joint reaching one of its limits is one condition `A + B cos m + C sin m = e`
+//!   (Rodrigues), with at most two roots `m = μ ± acos((e − A) / ρ)`, `ρ = √(B² + C²)`
+//!   ([`joint_1_tries`] lists the conditions). Between consecutive roots no wrist joint crosses
+//!   a limit, so the values of joint 1 that keep the wrist inside form arcs whose ends are
+//!   among those roots and joint 1's own limits.
+//! * The ends, each moved 1e-9 rad to either side, are tried nearest the held value first: the
+//!   plan is evaluated again with that value as joint 1's reference, and the first one whose
+//!   candidate is within every limit is taken. At most [`TRIES`] evaluations, in the rare
+//!   path only.
 //!
-//! Only candidates that are on axis 1 and outside the limits are moved (at most once each; a
-//! fixed number of steps, no search), so `solve` costs nothing more away from axis 1. The
-//! interpreter and every emitted module call this one function.
+//! Only candidates that are on axis 1 and outside the limits are moved, so `solve` costs
+//! nothing more away from axis 1. The interpreter and every emitted module call this one
+//! function.
 
 use core::f64::consts::{PI, TAU};
 
@@ -78,64 +77,105 @@ pub fn joint_5_interval(joints: &[Joint; JOINTS]) -> Option<[f64; 2]> {
     Some([low, high])
 }
 
-/// The model value of joint 1 nearest `held` for which joint 5 fits its limits, for a
-/// candidate whose joints 2 and 3 have the model values `m2`, `m3`, with `g` where the target
-/// sends axis 6 (base frame). `None` when no value does.
-fn joint_1_value(
-    joints: &[Joint; JOINTS],
-    g: &[f64; 3],
-    m2: f64,
-    m3: f64,
-    held: f64,
-) -> Option<f64> {
-    let [k_lo, k_hi] = joint_5_interval(joints)?;
-    let e2 = joint_motion(&joints[1], joints[1].joint_value(m2));
-    let e3 = joint_motion(&joints[2], joints[2].joint_value(m3));
-    let u = e2.rotate(&e3.rotate(&joints[3].axis));
-    let h1 = &joints[0].axis;
-    let a = dot(&u, h1) * dot(g, h1);
-    let b = dot(&u, g) - a;
-    let c = -dot(h1, &cross(g, &u));
+/// The most values of joint 1 tried for one candidate: for each of joints 4, 5 and 6, two
+/// limits, two roots each, one on either side of each root; and joint 1's own two limits.
+pub const TRIES: usize = 3 * 2 * 2 * 2 + 2;
+
+/// `A + B cos m + C sin m = e`: the roots `m = μ ± acos((e − A) / ρ)` (none when out of range).
+fn roots([a, b, c]: [f64; 3], e: f64) -> Option<[f64; 2]> {
     let rho = sqrt(b * b + c * c);
     if rho <= 1e-12 || rho.is_nan() {
         return None;
     }
-    let mu = atan2(c, b);
-    let inner = acos((k_hi - a) / rho);
-    let outer = acos((k_lo - a) / rho);
-    if (k_hi - a) / rho < -1.0 || (k_lo - a) / rho > 1.0 || inner > outer {
+    let x = (e - a) / rho;
+    if !(-1.0..=1.0).contains(&x) {
         return None;
     }
-    let margin = INSIDE.min(0.5 * (outer - inner));
-    let arc = |m: f64| {
-        let d = abs(wrap(m - mu, 0.0));
-        d >= inner - 1e-12 && d <= outer + 1e-12
+    let mu = atan2(c, b);
+    let alpha = acos(x);
+    Some([mu + alpha, mu - alpha])
+}
+
+/// The coefficients of `x · v(m) = A + B cos m + C sin m`, where `v(m) = (R1(m) R2 R3)ᵀ y` for
+/// a base-frame direction `y`, `u = R2 R3 x` and `h1` axis 1 (Rodrigues):
+/// `A = (u·h1)(y·h1)`, `B = u·y − A`, `C = −h1·(y × u)`.
+fn coefficients(h1: &[f64; 3], u: &[f64; 3], y: &[f64; 3]) -> [f64; 3] {
+    let a = dot(u, h1) * dot(y, h1);
+    [a, dot(u, y) - a, -dot(h1, &cross(y, u))]
+}
+
+/// The values of joint 1 (model values) at which one of joints 4, 5 and 6 reaches one of its
+/// limits, each moved 1e-9 rad to either side, and joint 1's own limits moved inside: every
+/// end of the arcs on which the wrist fits its limits. Sorted by their distance from `held`;
+/// returns how many there are.
+///
+/// With `R456 = (R1(m) R2 R3)ᵀ G`, `G = rot(B⁻¹ T M⁻¹)`, each limit is one linear condition:
+/// joint 5 at a limit fixes `h4 · R456 h6 = k` (the ends of [`joint_5_interval`]); joint 4
+/// at `L` puts `R456 h6` on the cone about `R4(L) h5` with `R4(L) h5 · R456 h6 = h5 · h6`;
+/// joint 6 at `L` puts `R456ᵀ h4` on the cone about `R6(L)ᵀ h5`, i.e.
+/// `u · R1(m)ᵀ (G R6(L)ᵀ h5) = h4 · h5` with `u = R2 R3 h4`. Each is
+/// `A + B cos m + C sin m = e`, with up to two roots.
+fn joint_1_tries(
+    joints: &[Joint; JOINTS],
+    to_base: &dyn Fn(&[f64; 3]) -> [f64; 3],
+    m2: f64,
+    m3: f64,
+    held: f64,
+) -> ([f64; TRIES], usize) {
+    let e2 = joint_motion(&joints[1], joints[1].joint_value(m2));
+    let e3 = joint_motion(&joints[2], joints[2].joint_value(m3));
+    let forward = |x: &[f64; 3]| e2.rotate(&e3.rotate(x));
+    let h1 = &joints[0].axis;
+    let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
+    let u4 = forward(h4);
+    let g6 = to_base(h6);
+    let mut tries = [f64::NAN; TRIES];
+    let mut n = 0;
+    let mut push = |m: f64, tries: &mut [f64; TRIES]| {
+        if let Some(slot) = tries.get_mut(n) {
+            *slot = m;
+            n += 1;
+        }
     };
-    let range = model_range(&joints[0]);
-    let in_range = |m: f64| range.map_or(true, |r| within(m, r, 0.0));
-    let mut tries = [
-        mu + inner + margin,
-        mu - inner - margin,
-        mu + outer - margin,
-        mu - outer + margin,
-        f64::NAN,
-        f64::NAN,
-    ];
-    if let Some([lo, hi]) = range {
-        tries[4] = lo + INSIDE;
-        tries[5] = hi - INSIDE;
-    }
-    let mut best: Option<(f64, f64)> = None;
-    for m in tries {
-        if !(m.is_finite() && arc(m) && in_range(m)) {
-            continue;
+    let mut both_sides = |r: Option<[f64; 2]>, tries: &mut [f64; TRIES]| {
+        for m in r.into_iter().flatten() {
+            push(m + INSIDE, tries);
+            push(m - INSIDE, tries);
         }
-        let d = abs(wrap(m - held, 0.0));
-        if best.map_or(true, |(_, bd)| d < bd) {
-            best = Some((m, d));
+    };
+    if let Some([k_lo, k_hi]) = joint_5_interval(joints) {
+        let k = coefficients(h1, &u4, &g6);
+        both_sides(roots(k, k_lo), &mut tries);
+        both_sides(roots(k, k_hi), &mut tries);
+    }
+    if let Some(range) = model_range(&joints[3]) {
+        for limit in range {
+            let axis = joint_motion(&joints[3], joints[3].joint_value(limit)).rotate(h5);
+            let k = coefficients(h1, &forward(&axis), &g6);
+            both_sides(roots(k, dot(h5, h6)), &mut tries);
         }
     }
-    best.map(|(m, _)| m)
+    if let Some(range) = model_range(&joints[5]) {
+        for limit in range {
+            let axis = joint_motion(&joints[5], joints[5].joint_value(limit)).rotate_back(h5);
+            let k = coefficients(h1, &u4, &to_base(&axis));
+            both_sides(roots(k, dot(h4, h5)), &mut tries);
+        }
+    }
+    if let Some([lo, hi]) = model_range(&joints[0]) {
+        push(lo + INSIDE, &mut tries);
+        push(hi - INSIDE, &mut tries);
+    }
+    // Nearest `held` first (insertion sort of at most TRIES values).
+    let distance = |m: f64| abs(wrap(m - held, 0.0));
+    for i in 1..n {
+        let mut j = i;
+        while j > 0 && distance(tries[j]) < distance(tries[j - 1]) {
+            tries.swap(j, j - 1);
+            j -= 1;
+        }
+    }
+    (tries, n)
 }
 
 /// True when a candidate passes its checks but some joint is outside its limits.
@@ -163,27 +203,31 @@ pub fn free_joint_1(
         return;
     }
     let [base, tool] = frames;
-    // g = rot(B⁻¹ T M⁻¹) h6: where the target sends axis 6, base frame at zero.
-    let in_tool = tool.rotate_back(&joints[5].axis);
-    let g = base.rotate_back(&target.rotate(&in_tool));
+    // rot(B⁻¹ T M⁻¹): where the target sends a direction of the arm at zero, base frame.
+    let to_base = |x: &[f64; 3]| base.rotate_back(&target.rotate(&tool.rotate_back(x)));
     let held_reference = atan2(reference[1], reference[0]);
     for (i, c) in candidates.iter_mut().enumerate() {
         if !c.on_axis_1 || !outside_limits(joints, settings, c) {
             continue;
         }
         let held = c.model_values[0];
-        let Some(m1) = joint_1_value(joints, &g, c.model_values[1], c.model_values[2], held) else {
-            continue;
-        };
-        // The candidate's joint 1 is the reference or a fixed turn from it (half a turn for
-        // the other shoulder solution): keep that turn.
-        let angle = m1 - (held - held_reference);
-        let mut moved = *reference;
-        moved[0] = cos(angle);
-        moved[1] = sin(angle);
-        if let Some(again) = rerun(&moved, i) {
-            if again.on_axis_1 {
-                *c = again;
+        let (tries, n) =
+            joint_1_tries(joints, &to_base, c.model_values[1], c.model_values[2], held);
+        for &m1 in tries.iter().take(n) {
+            if !model_range(&joints[0]).map_or(true, |r| within(m1, r, 0.0)) {
+                continue;
+            }
+            // The candidate's joint 1 is the reference or a fixed turn from it (half a turn
+            // for the other shoulder solution): keep that turn.
+            let angle = m1 - (held - held_reference);
+            let mut moved = *reference;
+            moved[0] = cos(angle);
+            moved[1] = sin(angle);
+            if let Some(again) = rerun(&moved, i) {
+                if again.on_axis_1 && !outside_limits(joints, settings, &again) {
+                    *c = again;
+                    break;
+                }
             }
         }
     }
@@ -236,26 +280,29 @@ mod tests {
     }
 
     #[test]
-    fn joint_1_moves_only_as_far_as_joint_5_needs() {
-        // Axis 1 along z; joints 2 and 3 at zero, so u = h4 = z and k = h1·g (A = g_z,
-        // B = C = 0 when g is along z): nothing to choose.
+    fn the_ends_where_joint_5_reaches_a_limit_are_tried_nearest_first() {
+        // Axis 1 along z; joint 2 (about y) at 90° turns axis 4 (z) into x, so
+        // h4 · v(m) = x · R1(m)ᵀ g = cos(m − μ) for a horizontal g at angle μ (joint 6 and
+        // joint 4 turn whole turns: no conditions from them). With μ = 170° and joint 5 within
+        // ±120° (k ≥ cos 120° = −0.5), the ends are m = 170° ± 120°: 50° and 290°, each 1e-9
+        // rad to either side; nearest the held 0 first: 50° and the wrapped 290° = −70°.
         let joints = wrist([-120.0, 120.0]);
-        assert_eq!(
-            joint_1_value(&joints, &[0.0, 0.0, 1.0], 0.0, 0.0, 0.3),
-            None
-        );
-        // Axis 4 tilted by joint 2 (about y, 90°): u = x, so k(m) = x · R1(m)ᵀ g = cos(m − μ)
-        // for a horizontal g at angle μ. With g at μ = 170°, k(0) = cos 170° ≈ −0.985, outside
-        // [−0.5, 1]; k ≥ −0.5 needs |m − 170°| ≤ 120°, i.e. 50° ≤ m ≤ 290°: the value
-        // nearest 0 is 50°, moved 1e-9 rad into the arc.
         let mu = 170_f64.to_radians();
         let g = [mu.cos(), mu.sin(), 0.0];
-        let m =
-            joint_1_value(&joints, &g, core::f64::consts::FRAC_PI_2, 0.0, 0.0).unwrap_or(f64::NAN);
-        assert!(
-            (m - (50_f64.to_radians() + INSIDE)).abs() < 1e-12,
-            "{}",
-            m.to_degrees()
-        );
+        let to_base = |x: &[f64; 3]| {
+            // The target sends h6 (z) to g; only h6 matters for joint 5.
+            if x[2] > 0.5 {
+                g
+            } else {
+                *x
+            }
+        };
+        let (tries, n) = joint_1_tries(&joints, &to_base, core::f64::consts::FRAC_PI_2, 0.0, 0.0);
+        assert_eq!(n, 4, "{tries:?}");
+        let deg = |m: f64| wrap(m, 0.0).to_degrees();
+        assert!((deg(tries[0]) - 50.0).abs() < 1e-6, "{}", deg(tries[0]));
+        assert!((deg(tries[1]) - 50.0).abs() < 1e-6, "{}", deg(tries[1]));
+        assert!((deg(tries[2]) + 70.0).abs() < 1e-6, "{}", deg(tries[2]));
+        assert!((wrap(tries[0] - tries[1], 0.0).abs() - 2.0 * INSIDE).abs() < 1e-12);
     }
 }
