@@ -3,7 +3,7 @@
 
 mod common;
 
-use common::{arms, joint_gap, pose_error};
+use common::{arms, check_round_trip};
 
 use armforge_compiler::classify::{classify, Family, Tolerances};
 use armforge_compiler::model::Model;
@@ -12,7 +12,6 @@ use armforge_compiler::plan::samples::{
     sample_arm, sample_configuration, SampleOptions, SampleRng,
 };
 use armforge_compiler::solver::Solver;
-use armforge_runtime::Solution;
 
 /// A random arm with its wrist at the base whose joints 6, 5, 4 have the shape of `family`.
 fn base_wrist_arm(family: Family, seed: u64) -> Model {
@@ -32,40 +31,13 @@ fn round_trip(family: Family, most: usize) -> usize {
             .unwrap_or_else(|r| panic!("arm {seed}: mirrored arm rejected: {r}"));
         assert_eq!(inner.family, family);
         let solver = Solver::from_plan(mirror::build(&model, &inner, family));
-        let reach = solver.plan().arm.scale;
         let mut rng = SampleRng::new(9000 + seed);
         for _ in 0..10 {
             let q = sample_configuration(&model, &mut rng);
-            let target = model.forward(&q);
-            let solutions: Vec<Solution> = solver
-                .solve(&target)
-                .unwrap_or_else(|e| panic!("{family:?} arm {seed}: no solution for {q:?}: {e}"));
-            assert!(solutions.len() <= most);
-            if solutions.len() == most {
+            let what = format!("{family:?} arm {seed}");
+            if check_round_trip(&solver, &model, &q, most, &what) == most {
                 full += 1;
             }
-            for s in &solutions {
-                let e = pose_error(&solver.forward(&s.joints), &target, reach);
-                assert!(e < 1e-9, "{family:?} arm {seed}: {s:?} misses by {e:e}");
-                if s.flags.is_empty() {
-                    assert_eq!(solver.branch_of(&s.joints), s.branch, "arm {seed}: {s:?}");
-                }
-            }
-            for (i, a) in solutions.iter().enumerate() {
-                for b in &solutions[i + 1..] {
-                    assert!(
-                        joint_gap(&model, &a.joints, &b.joints) > 1e-9,
-                        "arm {seed}: duplicates"
-                    );
-                }
-            }
-            assert!(
-                solutions
-                    .iter()
-                    .any(|s| joint_gap(&model, &s.joints, &q) < 1e-6),
-                "{family:?} arm {seed}: {q:?} ({}) not among {solutions:#?}",
-                solver.branch_of(&q)
-            );
         }
     }
     full

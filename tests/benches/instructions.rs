@@ -204,17 +204,7 @@ fn run(name: &str) -> Option<usize> {
 fn run_example_arm(name: &str, _bench: &[Sample]) -> Option<usize> {
     let (arm_part, call) = name.rsplit_once('/')?;
     let arm = EMITTED_ARMS.iter().find(|a| arm_name(a.path) == arm_part)?;
-    let mut rng = StdRng::seed_from_u64(0xa11);
-    let joints: Vec<[f64; JOINTS]> = (0..CALLS)
-        .map(|_| {
-            let mut q = [0.0; JOINTS];
-            for (v, j) in q.iter_mut().zip(arm.joints.iter()) {
-                let [lo, hi] = j.limits;
-                *v = rand::Rng::random_range(&mut rng, lo.max(-10.0)..hi.min(10.0));
-            }
-            q
-        })
-        .collect();
+    let joints = arm.random_joints(CALLS, 0xa11);
     let poses: Vec<_> = joints.iter().map(|q| (arm.forward)(q)).collect();
     let branches: Vec<_> = joints.iter().map(|q| (arm.branch_of)(q)).collect();
     match call {

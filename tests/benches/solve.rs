@@ -35,7 +35,7 @@ use armforge_runtime::{Pose, JOINTS};
 use armforge_tests::emitted::{bench_elbow, EMITTED_ARMS};
 use criterion::Criterion;
 use rand::rngs::StdRng;
-use rand::{Rng, SeedableRng};
+use rand::SeedableRng;
 use reference::{hand, numeric, POSES};
 
 const GROUP: &str = "bench-elbow";
@@ -161,17 +161,7 @@ fn bench_every_arm(criterion: &mut Criterion) {
     for arm in EMITTED_ARMS {
         let name = arm.path.rsplit('/').next().unwrap_or(arm.path);
         let name = name.strip_suffix(".toml").unwrap_or(name);
-        let mut rng = StdRng::seed_from_u64(0xa11);
-        let joints: Vec<[f64; JOINTS]> = (0..POSES)
-            .map(|_| {
-                let mut q = [0.0; JOINTS];
-                for (v, j) in q.iter_mut().zip(arm.joints.iter()) {
-                    let [lo, hi] = j.limits;
-                    *v = rng.random_range(lo.max(-10.0)..hi.min(10.0));
-                }
-                q
-            })
-            .collect();
+        let joints = arm.random_joints(POSES, 0xa11);
         let poses: Vec<Pose> = joints.iter().map(|q| (arm.forward)(q)).collect();
         let branches: Vec<_> = joints.iter().map(|q| (arm.branch_of)(q)).collect();
         let mut i = 0;

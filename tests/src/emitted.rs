@@ -31,6 +31,23 @@ pub struct EmittedArm {
 }
 
 impl EmittedArm {
+    /// `count` random joint vectors inside the limits (clipped to ±10 rad or m), reproducible
+    /// from `seed`: the configurations benchmarks pose the solver with.
+    pub fn random_joints(&self, count: usize, seed: u64) -> Vec<[f64; JOINTS]> {
+        use rand::{Rng, SeedableRng};
+        let mut rng = rand::rngs::StdRng::seed_from_u64(seed);
+        (0..count)
+            .map(|_| {
+                let mut q = [0.0; JOINTS];
+                for (v, j) in q.iter_mut().zip(self.joints.iter()) {
+                    let [lo, hi] = j.limits;
+                    *v = rng.random_range(lo.max(-10.0)..hi.min(10.0));
+                }
+                q
+            })
+            .collect()
+    }
+
     /// The description file (absolute).
     pub fn file(&self) -> std::path::PathBuf {
         std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(self.path)

@@ -274,6 +274,24 @@ impl ReferenceArm {
             .map(|[lo, hi]| rng.random_range(*lo..=*hi))
             .collect()
     }
+
+    /// Uniformly random joint values inside the emitted module's limits `table`, taking this
+    /// description's own limits where the module's are unbounded (an unlimited slide).
+    pub fn random_within(
+        &self,
+        table: &[armforge_runtime::Joint; armforge_runtime::JOINTS],
+        rng: &mut impl Rng,
+    ) -> [f64; armforge_runtime::JOINTS] {
+        let mut q = [0.0; armforge_runtime::JOINTS];
+        for (i, v) in q.iter_mut().enumerate() {
+            let [mut lo, mut hi] = table[i].limits;
+            if !(lo.is_finite() && hi.is_finite()) {
+                [lo, hi] = self.limits[i];
+            }
+            *v = rng.random_range(lo..hi);
+        }
+        q
+    }
 }
 
 /// The standard DH link matrix `A_i = Rz(θ)·Tz(d)·Tx(a)·Rx(α)` written out

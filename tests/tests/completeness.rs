@@ -21,7 +21,7 @@ use levenberg_marquardt::{LeastSquaresProblem, LevenbergMarquardt};
 use nalgebra::storage::Owned;
 use nalgebra::{Isometry3, SMatrix, SVector, U12, U6};
 use rand::rngs::StdRng;
-use rand::{Rng, SeedableRng};
+use rand::SeedableRng;
 
 const STARTS: usize = 32;
 const CONVERGED: f64 = 1e-10;
@@ -138,20 +138,9 @@ fn check_arm(arm: &EmittedArm, poses: usize, seed: u64) -> (usize, usize) {
     let reference = ReferenceArm::load(&arm.file());
     let (joints, size) = joint_table(arm);
     let mut rng = StdRng::seed_from_u64(seed);
-    let random = |rng: &mut StdRng| -> [f64; JOINTS] {
-        let mut q = [0.0; JOINTS];
-        for i in 0..JOINTS {
-            let [mut lo, mut hi] = joints[i].limits;
-            if !(lo.is_finite() && hi.is_finite()) {
-                [lo, hi] = reference.limits[i];
-            }
-            q[i] = rng.random_range(lo..hi);
-        }
-        q
-    };
     let (mut found_total, mut armforge_total) = (0, 0);
     for _ in 0..poses {
-        let q = random(&mut rng);
+        let q = reference.random_within(&joints, &mut rng);
         let target = reference.forward(&q);
         let solutions = (arm.solve)(&pose_of(&target))
             .unwrap_or_else(|r| panic!("{}: {q:?} unsolved: {r}", arm.path));
@@ -168,7 +157,7 @@ fn check_arm(arm: &EmittedArm, poses: usize, seed: u64) -> (usize, usize) {
                 arm: &reference,
                 target,
                 size,
-                q: SVector::from(random(&mut rng)),
+                q: SVector::from(reference.random_within(&joints, &mut rng)),
             };
             let (problem, _report) = LevenbergMarquardt::new().minimize(problem);
             let residual = problem.residuals_at(&problem.q).norm();

@@ -26,7 +26,7 @@ use armforge_tests::emitted::{EmittedArm, EMITTED_ARMS};
 use armforge_tests::{sample_count, ReferenceArm};
 use nalgebra::Isometry3;
 use rand::rngs::StdRng;
-use rand::{Rng, SeedableRng};
+use rand::SeedableRng;
 
 fn samples() -> usize {
     sample_count(if cfg!(debug_assertions) {
@@ -91,22 +91,6 @@ fn same(joints: &[armforge_runtime::Joint; JOINTS], a: &[f64; 6], b: &[f64; 6], 
     (0..JOINTS).all(|i| joint_gap(&joints[i], a[i], b[i]) < tol)
 }
 
-fn random_configuration(
-    joints: &[armforge_runtime::Joint; JOINTS],
-    reference: &ReferenceArm,
-    rng: &mut StdRng,
-) -> [f64; JOINTS] {
-    let mut q = [0.0; JOINTS];
-    for i in 0..JOINTS {
-        let [mut lo, mut hi] = joints[i].limits;
-        if !(lo.is_finite() && hi.is_finite()) {
-            [lo, hi] = reference.limits[i];
-        }
-        q[i] = rng.random_range(lo..hi);
-    }
-    q
-}
-
 #[derive(Default, Debug)]
 struct Tally {
     poses: usize,
@@ -123,7 +107,7 @@ fn round_trip(arm: &EmittedArm, count: usize, seed: u64) -> Tally {
     let mut rng = StdRng::seed_from_u64(seed);
     let mut tally = Tally::default();
     for _ in 0..count {
-        let q = random_configuration(&facts.joints, &reference, &mut rng);
+        let q = reference.random_within(&facts.joints, &mut rng);
         let target_iso = reference.forward(&q);
         let target = pose_of(&target_iso);
         let solutions: Vec<Solution> = (arm.solve)(&target)

@@ -11,7 +11,8 @@ use armforge_compiler::classify::{
 use armforge_compiler::model::Model;
 use armforge_runtime::joint_motion;
 use classify_support::arms::{
-    cartesian_arm, cylindrical_arm, offset_tilted_elbow, plain_elbow, polar_arm,
+    cartesian_arm, cylindrical_arm, oblique_wrist_elbow, offset_tilted_elbow, plain_elbow,
+    polar_arm,
 };
 
 fn ok(model: &Model) -> Geometry {
@@ -149,17 +150,9 @@ fn elbow_reach_agrees_with_forward_kinematics() {
 /// so their lines make from 15° to 90°.
 #[test]
 fn oblique_wrist() {
-    let c = [0.4, 0.0, 0.75];
-    let h5 = [FRAC_PI_3.cos(), FRAC_PI_3.sin(), 0.0];
-    let b = std::f64::consts::FRAC_PI_4;
     // h6 at 45° from h5 in the plane of h5 and z.
-    let h6 = [h5[0] * b.cos(), h5[1] * b.cos(), b.sin()];
-    let mut m = plain_elbow();
-    m.joints[4].joint.axis = h5;
-    m.joints[4].joint.point = c;
-    m.joints[5].joint.axis = h6;
-    m.joints[5].joint.point = c;
-    let g = ok(&m);
+    let b = std::f64::consts::FRAC_PI_4;
+    let g = ok(&oblique_wrist_elbow());
     close(g.wrist.angle_4_5, FRAC_PI_3, "angle 4–5");
     close(g.wrist.angle_5_6, b, "angle 5–6");
     close(g.wrist.axis_4_6_angle_range[0], PI / 12.0, "range min");

@@ -115,6 +115,14 @@ pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> 
         &format!("j2_inv_{tag}"),
         "1 / |L + R3 V|², the squared distance of the point from the first axis",
     );
+    // One atan2 for both bends: φ3 = φ0 ± ψ, with ψ ∈ [0, π] (the finishing wraps φ3).
+    let psi = g.atan2(sin_psi, cos_psi);
+    let psi = g.name(
+        psi,
+        &format!("j3_psi_{tag}"),
+        "ψ = atan2(sin ψ, cos ψ), shared by both bends",
+    );
+    let stretched = g.constant(k.stretched);
     let hv = num::cross(&k.h, &k.v);
     let (cf, sf) = (k.stretched.cos(), k.stretched.sin());
     let cf = g.constant(cf);
@@ -143,13 +151,17 @@ pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> 
             g.add(x, y)
         };
         let sin_phi = g.name(sin_phi, &format!("j3_sin_{tag2}"), "sin φ3 = sin(φ0 ± ψ)");
-        let phi = g.atan2(sin_phi, cos_phi);
-        let second = if k.sense > 0.0 { phi } else { g.neg(phi) };
-        let second = g.name(
-            second,
-            &format!("q3_{tag2}"),
-            format!("θ3 = {} atan2(sin φ3, cos φ3)", k.sense),
-        );
+        let (phi, equation) = if bend > 0.0 {
+            (g.add(stretched, psi), "φ0 + ψ")
+        } else {
+            (g.sub(stretched, psi), "φ0 − ψ")
+        };
+        let (second, equation) = if k.sense > 0.0 {
+            (phi, format!("θ3 = φ3 = {equation}"))
+        } else {
+            (g.neg(phi), format!("θ3 = −φ3 = −({equation}) (axis 3 opposite to axis 2)"))
+        };
+        let second = g.name(second, &format!("q3_{tag2}"), equation);
         // x⊥ = L + R(h, φ3) V.
         let x = {
             let a = vec3::scale_const(g, cos_phi, k.v);

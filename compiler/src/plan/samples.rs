@@ -410,26 +410,17 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
         "wrist-bend",
         "flange-roll",
     ];
+    let tool = Pose {
+        rotation: Pose::IDENTITY.rotation,
+        translation: [shoulder + 0.47, lateral, 0.925],
+    };
     let model = Model {
         name: "upright_elbow".to_string(),
         description: Some("invented upright elbow arm for armforge's own tests".to_string()),
-        units: Units::default(),
-        joints: joints
-            .iter()
-            .zip(names)
-            .map(|(joint, name)| ModelJoint {
-                joint: *joint,
-                name: name.to_string(),
-                location: Location::default(),
-            })
-            .collect(),
-        tool: Pose {
-            rotation: Pose::IDENTITY.rotation,
-            translation: [shoulder + 0.47, lateral, 0.925],
-        },
-        base: Pose::IDENTITY,
         source_path: "<upright elbow arm>".to_string(),
+        ..named_model(String::new(), &joints, tool, Pose::IDENTITY, String::new())
     };
+    let model = with_joint_names(model, names);
     let geometry = match classify(&model, &Tolerances::default()) {
         Ok(g) if g.family == Family::Elbow && num::norm(&num::sub(&g.wrist_center, &c)) < 1e-9 => g,
         other => panic!("the upright elbow arm must classify as an elbow arm: {other:?}"),
@@ -504,6 +495,14 @@ pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -
         base,
         format!("<sample three-parallel {seed}>"),
     )
+}
+
+/// `model` with its joints renamed.
+fn with_joint_names(mut model: Model, names: [&str; 6]) -> Model {
+    for (joint, name) in model.joints.iter_mut().zip(names) {
+        joint.name = name.to_string();
+    }
+    model
 }
 
 fn named_model(name: String, joints: &[Joint; 6], tool: Pose, base: Pose, path: String) -> Model {

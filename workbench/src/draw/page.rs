@@ -111,7 +111,7 @@ pub fn render(drawing: &Drawing) -> String {
 
 fn title(drawing: &Drawing, layout: &PageLayout) -> Group {
     let model = drawing.model;
-    let name = TSpan::new(model.name.as_str())
+    let name = TSpan::new(armforge_compiler::text::escape_line(&model.name))
         .set("font-weight", "bold")
         .set("font-size", num(style::TITLE));
     let subject =

@@ -1,6 +1,7 @@
 //! Small SVG building blocks with fixed-precision coordinates (so the same drawing gives the
 //! same bytes), built with the `svg` crate.
 
+use armforge_compiler::text::escape_line;
 use svg::node::element::{Circle, Group, Line, Polygon, Text};
 
 /// Length of an arrowhead, px.
@@ -46,9 +47,11 @@ pub fn circle(centre: [f64; 2], radius: f64) -> Circle {
         .set("r", num(radius))
 }
 
-/// Text anchored at `at` (`anchor`: `start`, `middle` or `end`).
+/// Text anchored at `at` (`anchor`: `start`, `middle` or `end`). Every text of a drawing
+/// passes here: non-printing characters (which XML 1.0 forbids or an editor shows as a line
+/// break) appear as `\u{…}`, and the `svg` crate escapes `<`, `>`, `&` and quotes.
 pub fn text(at: [f64; 2], content: &str, size: f64, anchor: &str) -> Text {
-    Text::new(content)
+    Text::new(escape_line(content))
         .set("x", num(at[0]))
         .set("y", num(at[1]))
         .set("font-size", num(size))

@@ -13,7 +13,7 @@ use armforge_compiler::model::Model;
 pub fn write(out: &mut String, model: &Model, s: &Show) {
     let _ = writeln!(out, "## 1. The arm as described\n");
     if let Some(d) = &model.description {
-        let _ = writeln!(out, "{}\n", d.trim());
+        let _ = writeln!(out, "{}\n", super::markdown::paragraph(d));
     }
     let _ = writeln!(
         out,
@@ -33,7 +33,7 @@ pub fn write(out: &mut String, model: &Model, s: &Show) {
             out,
             "| {} | {} | {} | {} | {} | {} | {} … {} |",
             i + 1,
-            cell(&j.name),
+            super::markdown::inline(&j.name),
             kind_name(joint.kind),
             s.dir(&joint.axis),
             match joint.kind {
@@ -60,10 +60,6 @@ pub fn write(out: &mut String, model: &Model, s: &Show) {
         s.rows(&model.tool.rotation)
     );
     measurable_positions(out, model, s);
-}
-
-fn cell(text: &str) -> String {
-    text.replace('|', "\\|").replace('\n', " ")
 }
 
 fn kind_name(kind: JointKind) -> &'static str {

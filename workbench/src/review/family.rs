@@ -5,7 +5,7 @@ use std::fmt::Write as _;
 
 use super::show::{self, Show};
 use super::Facts;
-use crate::report::{Item, Outcome, Report};
+use crate::report::{Outcome, Report};
 use armforge_compiler::classify::{Family, Geometry};
 
 /// Writes §2.
@@ -29,9 +29,9 @@ pub fn write(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
         let _ = writeln!(out, "- {line}");
     }
     let _ = writeln!(out, "\nEvidence for the family:\n");
-    items(out, &solvable.family_evidence);
+    show::items(out, "measured", &solvable.family_evidence);
     let _ = writeln!(out, "\nEvidence for the wrist:\n");
-    items(out, &solvable.wrist);
+    show::items(out, "measured", &solvable.wrist);
     let _ = writeln!(
         out,
         "\nSolutions to expect for one tool pose: up to {} ({} for joints 1–3 × {} for the \
@@ -39,18 +39,6 @@ pub fn write(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
          than a turn).\n",
         solvable.solutions.total, solvable.solutions.position, solvable.solutions.wrist
     );
-}
-
-fn items(out: &mut String, items: &[Item]) {
-    let _ = writeln!(out, "| measured | value |\n|---|---|");
-    for item in items {
-        let _ = writeln!(
-            out,
-            "| {} | {} |",
-            item.label.replace('|', "\\|"),
-            show::minus(&item.shown)
-        );
-    }
 }
 
 fn conditions(g: &Geometry, f: &Facts, s: &Show) -> Vec<String> {

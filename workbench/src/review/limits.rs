@@ -5,7 +5,7 @@ use std::fmt::Write as _;
 
 use super::facts::Facts;
 use super::show::{self, Show};
-use crate::report::{Item, Outcome, Report};
+use crate::report::{Outcome, Report};
 use crate::verify::Thresholds;
 use armforge_compiler::classify::{ArmEvidence, Geometry};
 use armforge_compiler::plan::vec3::num;
@@ -81,7 +81,7 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
 pub fn tolerances(out: &mut String, report: &Report, plan: &Plan, s: &Show) {
     let _ = writeln!(out, "## 8. Tolerances\n");
     let _ = writeln!(out, "Classification (`armforge inspect` uses the same):\n");
-    items(out, &report.tolerances);
+    show::items(out, "tolerance", &report.tolerances);
     let st = &plan.settings;
     let t = Thresholds::default();
     let _ = writeln!(out, "\nSolver (in the plan and the emitted module):\n");
@@ -137,16 +137,4 @@ pub fn tolerances(out: &mut String, report: &Report, plan: &Plan, s: &Show) {
         let _ = writeln!(out, "| {what} | {value:e} |");
     }
     let _ = writeln!(out);
-}
-
-fn items(out: &mut String, items: &[Item]) {
-    let _ = writeln!(out, "| tolerance | value |\n|---|---|");
-    for item in items {
-        let _ = writeln!(
-            out,
-            "| {} | {} |",
-            item.label.replace('|', "\\|"),
-            show::minus(&item.shown)
-        );
-    }
 }

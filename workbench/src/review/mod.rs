@@ -17,6 +17,7 @@ pub mod facts;
 pub mod family;
 pub mod limits;
 pub mod listing;
+pub mod markdown;
 pub mod show;
 pub mod singular;
 pub mod steps;
@@ -63,10 +64,10 @@ fn header(out: &mut String, model: &Model) {
     let _ = writeln!(out, "> {SAFETY}\n");
     let _ = writeln!(
         out,
-        "Written by armforge {} from `{}` (lengths in {}, angles in {}). The same file always \
+        "Written by armforge {} from {} (lengths in {}, angles in {}). The same file always \
          gives the same sheet.\n",
         env!("CARGO_PKG_VERSION"),
-        model.source_path,
+        markdown::code(&model.source_path),
         model.units.length.symbol(),
         model.units.angle.symbol()
     );

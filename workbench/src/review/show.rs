@@ -1,6 +1,10 @@
 //! Numbers as the sheet writes them: the file's units, six decimals at most, no `-0`.
 
+use std::fmt::Write as _;
+
 use armforge_runtime::{Joint, JointKind};
+
+use crate::report::Item;
 
 use armforge_compiler::units::{tidy, Units};
 
@@ -18,6 +22,19 @@ pub fn minus(text: &str) -> String {
         out.push(if sign { '−' } else { c });
     }
     out
+}
+
+/// Writes a two-column Markdown table of report items, `heading` naming the first column.
+pub fn items(out: &mut String, heading: &str, items: &[Item]) {
+    let _ = writeln!(out, "| {heading} | value |\n|---|---|");
+    for item in items {
+        let _ = writeln!(
+            out,
+            "| {} | {} |",
+            item.label.replace('|', "\\|"),
+            minus(&item.shown)
+        );
+    }
 }
 
 /// Writes numbers of one arm in its file's units.

@@ -2,7 +2,7 @@
 //! call a module stale because the user ran `cargo fmt` (rustfmt) on their crate.
 //!
 //! Two files are the same when their tokens are the same — doc comments included, a trailing
-//! comma before a closing bracket aside — and their own-line `//` comments (the emitter writes
+//! comma before a closing bracket or `>` aside — and their own-line `//` comments (the emitter writes
 //! every comment on its own line) have the same words in the same order. Layout, indentation,
 //! line breaks and trailing commas are what rustfmt changes; none of them changes the code.
 
@@ -21,7 +21,8 @@ pub fn same_module(a: &str, b: &str) -> bool {
     }
 }
 
-/// The file's tokens as text, with a comma right before a closing bracket dropped; `None`
+/// The file's tokens as text, with a comma right before a closing bracket or a closing `>`
+/// of generic arguments dropped; `None`
 /// when the file does not lex.
 fn tokens(text: &str) -> Option<Vec<String>> {
     let stream = TokenStream::from_str(text).ok()?;
@@ -47,7 +48,15 @@ fn flatten(stream: TokenStream, out: &mut Vec<String>) {
                 }
                 out.push(close.to_string());
             }
-            other => out.push(other.to_string()),
+            other => {
+                let token = other.to_string();
+                // A trailing comma in generic arguments (`collect::<N,>`), which rustfmt
+                // removes; a comma right before `>` occurs nowhere else in Rust.
+                if token == ">" && out.last().is_some_and(|t| t == ",") {
+                    out.pop();
+                }
+                out.push(token);
+            }
         }
     }
 }
@@ -70,6 +79,12 @@ mod tests {
         let a = "// note\nfn f(a: f64, b: f64,) -> [f64; 2] {\n    [a,\n     b]\n}\n";
         let b = "// note\nfn f(a: f64, b: f64) -> [f64; 2] {\n    [a, b]\n}\n";
         assert!(same_module(a, b));
+        // rustfmt removes the trailing comma of generic arguments.
+        assert!(same_module("fn f() { g::<N,>(a) }", "fn f() { g::<N>(a) }"));
+        assert!(same_module(
+            "fn f() -> X { x => y }",
+            "fn f() -> X { x => y }"
+        ));
     }
 
     #[test]

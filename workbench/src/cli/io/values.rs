@@ -2,7 +2,9 @@
 //!
 //! Everything is in the file's units; every number must be finite.
 
+use armforge_compiler::description::plausible::joint_value_problem;
 use armforge_compiler::model::Model;
+use armforge_compiler::text::shorten;
 use armforge_runtime::Pose;
 use serde_json::{Map, Value};
 
@@ -47,10 +49,11 @@ pub fn joints_line(model: &Model, line: &str) -> Result<Vec<f64>, String> {
         .iter()
         .enumerate()
         .map(|(i, item)| match item.as_f64() {
-            Some(v) if v.is_finite() => Ok(v),
-            _ => Err(format!(
-                "{} is not a finite number: {item}",
-                model.joint_label(i)
+            Some(v) => plausible(model, i, v).map_err(|e| format!("{}: {e}", model.joint_label(i))),
+            None => Err(format!(
+                "{} is not a finite number: {}",
+                model.joint_label(i),
+                shorten(&item.to_string(), SHOWN_CHARS)
             )),
         })
         .collect()
@@ -60,18 +63,34 @@ pub fn joints_line(model: &Model, line: &str) -> Result<Vec<f64>, String> {
 /// per joint.
 pub fn joints_option(model: &Model, option: &str, text: &str) -> Result<Vec<f64>, String> {
     let items: Vec<&str> = text.split(',').map(str::trim).collect();
-    count(model, items.len()).map_err(|e| format!("{option}: {e} in `{text}`"))?;
+    count(model, items.len())
+        .map_err(|e| format!("{option}: {e} in `{}`", shorten(text, SHOWN_CHARS)))?;
     items
         .iter()
         .enumerate()
         .map(|(i, item)| match item.parse::<f64>() {
-            Ok(v) if v.is_finite() => Ok(v),
-            _ => Err(format!(
-                "{option}: the value of {} is not a finite number: `{item}`",
-                model.joint_label(i)
+            Ok(v) => plausible(model, i, v)
+                .map_err(|e| format!("{option}: the value of {}: {e}", model.joint_label(i))),
+            Err(_) => Err(format!(
+                "{option}: the value of {} is not a number: `{}`",
+                model.joint_label(i),
+                shorten(item, SHOWN_CHARS)
             )),
         })
         .collect()
+}
+
+/// The most characters of a value a message repeats.
+const SHOWN_CHARS: usize = 60;
+
+/// `value` when it is a finite, plausible value of joint `index` (at most 1,000 turns or 10 km
+/// in size, in the file's units), else why not.
+fn plausible(model: &Model, index: usize, value: f64) -> Result<f64, String> {
+    let kind = model.joints[index].joint.kind;
+    match joint_value_problem(model.units, kind, value) {
+        Some(problem) => Err(problem),
+        None => Ok(value),
+    }
 }
 
 /// Checks the number of joint values against the arm.
@@ -109,7 +128,8 @@ fn array<'v>(object: &'v Map<String, Value>, key: &str, len: usize) -> Result<&'
             Err(format!("\"{key}\" needs {len} rows, found {}", items.len()))
         }
         Some(other) => Err(format!(
-            "\"{key}\" must be an array of {len} rows, not {other}"
+            "\"{key}\" must be an array of {len} rows, not {}",
+            shorten(&other.to_string(), SHOWN_CHARS)
         )),
         None => Err(format!("missing \"{key}\": [[...], [...], [...]]")),
     }
@@ -118,6 +138,7 @@ fn array<'v>(object: &'v Map<String, Value>, key: &str, len: usize) -> Result<&'
 /// Three finite numbers.
 fn numbers(value: &Value, what: &str) -> Result<[f64; 3], String> {
     let Value::Array(items) = value else {
+        let value = shorten(&value.to_string(), SHOWN_CHARS).into_owned();
         return Err(format!("{what} must be an array of 3 numbers, not {value}"));
     };
     if items.len() != 3 {
@@ -125,10 +146,10 @@ fn numbers(value: &Value, what: &str) -> Result<[f64; 3], String> {
     }
     let mut out = [0.0; 3];
     for (o, item) in out.iter_mut().zip(items) {
-        *o = item
-            .as_f64()
-            .filter(|v| v.is_finite())
-            .ok_or_else(|| format!("{what}: {item} is not a finite number"))?;
+        *o = item.as_f64().filter(|v| v.is_finite()).ok_or_else(|| {
+            let item = shorten(&item.to_string(), SHOWN_CHARS).into_owned();
+            format!("{what}: {item} is not a finite number")
+        })?;
     }
     Ok(out)
 }
