@@ -173,7 +173,11 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
             // e = 0: the second root is the first turned by half a turn (the finishing wraps).
             let half = g.constant(std::f64::consts::PI);
             let theta1 = g.add(angles[0], half);
-            g.name(theta1, &format!("q1_{tag}"), "θ1 = θ1(σ = +1) + π, as e = 0")
+            g.name(
+                theta1,
+                &format!("q1_{tag}"),
+                "θ1 = θ1(σ = +1) + π, as e = 0",
+            )
         } else {
             let theta1 = g.atan2(s1, c1);
             g.name(theta1, &format!("q1_{tag}"), "θ1 = atan2(sin θ1, cos θ1)")

@@ -159,7 +159,10 @@ pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> 
         let (second, equation) = if k.sense > 0.0 {
             (phi, format!("θ3 = φ3 = {equation}"))
         } else {
-            (g.neg(phi), format!("θ3 = −φ3 = −({equation}) (axis 3 opposite to axis 2)"))
+            (
+                g.neg(phi),
+                format!("θ3 = −φ3 = −({equation}) (axis 3 opposite to axis 2)"),
+            )
         };
         let second = g.name(second, &format!("q3_{tag2}"), equation);
         // x⊥ = L + R(h, φ3) V.
