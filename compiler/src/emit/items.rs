@@ -299,7 +299,10 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
                 target,
                 reference,
                 &mut all,
-                |moved: &[f64; 4], i: usize| candidates(target, moved).get(i).copied(),
+                |moved: &[f64; 4], i: usize| {
+                    let again = candidates(target, moved);
+                    again.get(i).copied()
+                },
             );
             all
         }
