@@ -1730,7 +1730,10 @@ fn free_candidates(
         target,
         reference,
         &mut all,
-        |moved: &[f64; 4], i: usize| candidates(target, moved).get(i).copied(),
+        |moved: &[f64; 4], i: usize| {
+            let again = candidates(target, moved);
+            again.get(i).copied()
+        },
     );
     all
 }
