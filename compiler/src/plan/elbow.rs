@@ -231,16 +231,8 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             out.push(ArmSolution {
                 angles: [one.angles[i], bend.first, bend.second],
                 undo: vec![
-                    Turn {
-                        axis: k.h1,
-                        cos: c1,
-                        sin: s1,
-                    },
-                    Turn {
-                        axis: k.h2,
-                        cos: bend.sum.0,
-                        sin: bend.sum.1,
-                    },
+                    Turn::about(k.h1, (c1, s1)),
+                    Turn::about(k.h2, (bend.sum.0, bend.sum.1)),
                 ],
                 shoulder,
                 elbow,

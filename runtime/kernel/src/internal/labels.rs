@@ -109,6 +109,18 @@ fn sign(x: f64) -> f64 {
     }
 }
 
+/// True when `joint` is revolute and its axis passes through `c` (to 1e-12 of the distance
+/// from the axis point, or 1e-12 m): turning the joint leaves `c` where it is.
+fn passes_through(joint: &Joint, c: &[f64; 3]) -> bool {
+    if joint.kind != crate::model::JointKind::Revolute {
+        return false;
+    }
+    let d = sub(c, &joint.point);
+    let off = cross(&joint.axis, &d);
+    let scale = dot(&d, &d).max(1.0);
+    dot(&off, &off) <= 1e-24 * scale
+}
+
 /// Rodrigues' rotation of `v` about unit `h` by `angle`.
 fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
     let (s, c) = sin_cos(angle);
@@ -133,10 +145,17 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
     }
     // The point joints 2–6 carry (a wrist center is fixed by joints 4–6; the meeting point of
     // axes 5 and 6 of a three-parallel arm is moved by joint 4).
+    // Trailing revolute joints whose axes pass through the point at zero leave it in place
+    // (the wrist joints of a spherical wrist): only the joints before them move it. Which
+    // joints those are depends on the arm alone, never on `q`.
     let moved_center = |c: &[f64; 3]| {
         let mut w = *c;
+        let mut fixed = true;
         for i in (1..JOINTS).rev() {
-            w = joint_motion(&joints[i], q[i]).transform_point(&w);
+            fixed = fixed && passes_through(&joints[i], c);
+            if !fixed {
+                w = joint_motion(&joints[i], q[i]).transform_point(&w);
+            }
         }
         w
     };
