@@ -282,6 +282,30 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
             #(#lets)*
             [#(#candidates),*]
         }
+
+        /// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
+        /// value puts joint 5 outside its limits (a rare path; see
+        /// `armforge_runtime::internal::free_joint_1`).
+        #[inline]
+        fn free_candidates(
+            target: &::armforge_runtime::Pose,
+            reference: &[f64; 4],
+        ) -> [::armforge_runtime::internal::Candidate; #n] {
+            let mut all = candidates(target, reference);
+            ::armforge_runtime::internal::free_joint_1(
+                &JOINT_TABLE,
+                [&BASE, &TOOL],
+                &SETTINGS,
+                target,
+                reference,
+                &mut all,
+                |moved: &[f64; 4], i: usize| {
+                    let again = candidates(target, moved);
+                    again.get(i).copied()
+                },
+            );
+            all
+        }
     };
     (body, notes)
 }
@@ -370,6 +394,14 @@ fn branch_api(plan: &Plan) -> TokenStream {
             current: &[f64; JOINTS],
         ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
             ::armforge_runtime::internal::check_pose(target)?;
+            // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
+            if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
+                if let ::core::result::Result::Err(reason) = solve_near(&far.target, current) {
+                    return ::core::result::Result::Err(
+                        ::armforge_runtime::internal::scale_reason(&JOINT_TABLE, reason, far.scale),
+                    );
+                }
+            }
             let anchor = ::armforge_runtime::internal::anchors_near(
                 &JOINT_TABLE,
                 current,
@@ -395,7 +427,7 @@ fn branch_api(plan: &Plan) -> TokenStream {
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &candidates(target, &reference),
+                &free_candidates(target, &reference),
                 current,
                 &anchor,
             )
@@ -409,12 +441,36 @@ fn branch_api(plan: &Plan) -> TokenStream {
             branch: ::armforge_runtime::Branch,
         ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
             ::armforge_runtime::internal::check_pose(target)?;
+            // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
+            if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
+                if let ::core::result::Result::Err(reason) = solve_branch(&far.target, branch) {
+                    return ::core::result::Result::Err(
+                        ::armforge_runtime::internal::scale_reason(&JOINT_TABLE, reason, far.scale),
+                    );
+                }
+            }
             let reference = ZERO_REFERENCE;
             let candidate = match branch {
                 #(#by_label)*
                 _ => return ::core::result::Result::Err(::armforge_runtime::Unreachable::NoSuchBranch),
             };
-            ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &CENTERS)
+            let mut one = [candidate];
+            ::armforge_runtime::internal::free_joint_1(
+                &JOINT_TABLE,
+                [&BASE, &TOOL],
+                &SETTINGS,
+                target,
+                &reference,
+                &mut one,
+                |moved: &[f64; 4], _: usize| {
+                    let reference = *moved;
+                    match branch {
+                        #(#own)*
+                        _ => ::core::option::Option::None,
+                    }
+                },
+            );
+            ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
         }
     }
 }
@@ -484,10 +540,18 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
             {
                 return ::armforge_runtime::SolutionSet::unreachable(reason);
             }
+            // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
+            if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
+                if let ::core::option::Option::Some(reason) = solve(&far.target).reason() {
+                    return ::armforge_runtime::SolutionSet::unreachable(
+                        ::armforge_runtime::internal::scale_reason(&JOINT_TABLE, reason, far.scale),
+                    );
+                }
+            }
             ::armforge_runtime::internal::collect::<CAPACITY>(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &candidates(target, &ZERO_REFERENCE),
+                &free_candidates(target, &ZERO_REFERENCE),
             )
         }
 
