@@ -128,7 +128,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     },
     elbow: ::armforge_runtime::internal::ElbowRule::Only,
     wrist: ::armforge_runtime::internal::WristRule {
-        normal: [-0.5917856509530054, 0.06565761653993642, 0.10348524244829747],
+        normal: [-0.591785650953, 0.06565761653993642, 0.10348524244829747],
         axis5: [0.008443901475437254, -0.8218117691663878, 0.569696512704339],
         axis6: [0.4834853743786345, -0.8714779141183223, -0.08226869371717187],
     },
@@ -505,7 +505,7 @@ pub fn solve_branch(
         } => branch_4(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -633,13 +633,13 @@ fn candidates(
     let t130 = 1.5007709975810246 * slide_root;
     let t131 = 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = t130 - t131;
+    let slide3_a = t130 - t131;
     let t137 = 1.4026694727397795 * (height - 0.11820820044027433);
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = t137 + 0.7768010686602598 * slide3_p;
-    let t143 = w0_x - 0.29088833522944446 * slide3_p;
-    let t144 = w0_y + 0.49707832103632676 * slide3_p;
-    let t145 = w0_z - 0.3350895823358808 * slide3_p;
+    let slide2_a = t137 + 0.7768010686602598 * slide3_a;
+    let t143 = w0_x - 0.29088833522944446 * slide3_a;
+    let t144 = w0_y + 0.49707832103632676 * slide3_a;
+    let t145 = w0_z - 0.3350895823358808 * slide3_a;
     let t150 = radial_z * t145 + (radial_x * t143 + radial_y * t144);
     let t164 = 0.5193670476948382 * (radial_z * t144 - radial_y * t145)
         - 0.24745573783013325 * (radial_x * t145 - radial_z * t143)
@@ -648,24 +648,24 @@ fn candidates(
     let t172 = 1.0 / ::armforge_runtime::math::sqrt(t167.max(1e-300));
     let t175 = t167 - 1e-300;
     // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         if t175 >= 0.0 { t150 * t172 } else { 1.0 }
     };
     // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         if t175 >= 0.0 { t164 * t172 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     let t181 = t130 + t131;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t181;
+    let slide3_b = -t181;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = t137 - 0.7768010686602598 * t181;
+    let slide2_b = t137 - 0.7768010686602598 * t181;
     let t188 = w0_x + 0.29088833522944446 * t181;
     let t189 = w0_y - 0.49707832103632676 * t181;
     let t190 = w0_z + 0.3350895823358808 * t181;
@@ -677,19 +677,19 @@ fn candidates(
     let t215 = 1.0 / ::armforge_runtime::math::sqrt(t212.max(1e-300));
     let t218 = t212 - 1e-300;
     // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         if t218 >= 0.0 { t195 * t215 } else { 1.0 }
     };
     // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         if t218 >= 0.0 { t209 * t215 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -732,11 +732,11 @@ fn candidates(
     let t308 = 0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z;
     let t311 = 0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t297 + (j1_cos_p * t300 - j1_sin_p * t305);
+    let v_b1_x = t297 + (j1_cos_a * t300 - j1_sin_a * t305);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * t301 + j1_sin_p * t308 - t298;
+    let v_b1_y = j1_cos_a * t301 + j1_sin_a * t308 - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * t302 - j1_sin_p * t311 - t299;
+    let v_b1_z = j1_cos_a * t302 - j1_sin_a * t311 - t299;
     let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
     let t329 = 0.5193670476948382 * t328;
@@ -749,11 +749,11 @@ fn candidates(
     let t340 = 0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z;
     let t343 = 0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t329 + (j1_cos_p * t332 - j1_sin_p * t337);
+    let xv_b1_x = t329 + (j1_cos_a * t332 - j1_sin_a * t337);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * t333 + j1_sin_p * t340 - t330;
+    let xv_b1_y = j1_cos_a * t333 + j1_sin_a * t340 - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * t334 - j1_sin_p * t343 - t331;
+    let xv_b1_z = j1_cos_a * t334 - j1_sin_a * t343 - t331;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
@@ -783,25 +783,25 @@ fn candidates(
     let t415 = 0.8672481684250324 * t366 - t406;
     let t416 = t407 - 2.572822887006619 * t366;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t414 - t411;
+    let z_b1a_x = t414 - t411;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t412 + t415;
+    let z_b1a_y = t412 + t415;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t413 + t416;
+    let z_b1a_z = t413 + t416;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.8297406473129645
-        * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
-            - 0.4659052429827611 * z_b1p_z);
+    let j5_cos_b1a = 1.8297406473129645
+        * (0.4777992078809706 * z_b1a_x - 0.318065659982822 * z_b1a_y
+            - 0.4659052429827611 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.8297406473129645
+    let j5_sin_b1a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1p_y + 0.8714779141183223 * z_b1p_x)
+            * (0.4834853743786345 * z_b1a_y + 0.8714779141183223 * z_b1a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1p_y - 0.8714779141183223 * z_b1p_z)
+                * (0.08226869371717187 * z_b1a_y - 0.8714779141183223 * z_b1a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
+                    * (0.08226869371717187 * z_b1a_x + 0.4834853743786345 * z_b1a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t449 = j5_alpha_b1 - j5_a_b1;
     let t453 = t404 - 0.12917776692663924 * t449;
     let t454 = 0.31674537350149495 * t449 - t406;
@@ -818,11 +818,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t480;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t477 * t484 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t477 * t484 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t495 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
     let t496 = 0.12917776692663924 * t495;
@@ -834,57 +834,57 @@ fn candidates(
     let t504 = 0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y;
     let t507 = 0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x;
     let t510 = 0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x;
-    let t520 = j4_cos_b1p * t499 - j4_sin_b1p * t504 - t496;
-    let t521 = t497 + (j4_cos_b1p * t500 - j4_sin_b1p * t507);
-    let t522 = j4_cos_b1p * t501 + j4_sin_b1p * t510 - t498;
+    let t520 = j4_cos_b1a * t499 - j4_sin_b1a * t504 - t496;
+    let t521 = t497 + (j4_cos_b1a * t500 - j4_sin_b1a * t507);
+    let t522 = j4_cos_b1a * t501 + j4_sin_b1a * t510 - t498;
     let t527 = 0.569696512704339 * t522
         + (0.008443901475437254 * t520 - 0.8218117691663878 * t521);
     let t528 = 0.008443901475437254 * t527;
     let t529 = 0.8218117691663878 * t527;
     let t530 = 0.569696512704339 * t527;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t528
-        + (j5_cos_b1p * (t520 - t528)
-            + j5_sin_b1p * (0.8218117691663878 * t522 + 0.569696512704339 * t521));
+    let y6_b1a_x = t528
+        + (j5_cos_b1a * (t520 - t528)
+            + j5_sin_b1a * (0.8218117691663878 * t522 + 0.569696512704339 * t521));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t521 + t529)
-        - j5_sin_b1p * (0.569696512704339 * t520 - 0.008443901475437254 * t522) - t529;
+    let y6_b1a_y = j5_cos_b1a * (t521 + t529)
+        - j5_sin_b1a * (0.569696512704339 * t520 - 0.008443901475437254 * t522) - t529;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t530
-        + (j5_cos_b1p * (t522 - t530)
-            - j5_sin_b1p * (0.008443901475437254 * t521 + 0.8218117691663878 * t520));
+    let y6_b1a_z = t530
+        + (j5_cos_b1a * (t522 - t530)
+            - j5_sin_b1a * (0.008443901475437254 * t521 + 0.8218117691663878 * t520));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1p_y + 0.07193921016870876 * y6_b1p_x)
+            * (0.039911001067778125 * y6_b1a_y + 0.07193921016870876 * y6_b1a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1p_z + 0.9966101855961891 * y6_b1p_y)
+                * (0.07193921016870876 * y6_b1a_z + 0.9966101855961891 * y6_b1a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1p_x
-                        - 0.039911001067778125 * y6_b1p_z))),
-        0.9966101855961891 * y6_b1p_z
-            + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
+                    * (0.9966101855961891 * y6_b1a_x
+                        - 0.039911001067778125 * y6_b1a_z))),
+        0.9966101855961891 * y6_b1a_z
+            + (0.039911001067778125 * y6_b1a_x - 0.07193921016870876 * y6_b1a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t411 + t414;
+    let z_b1b_x = t411 + t414;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t415 - t412;
+    let z_b1b_y = t415 - t412;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t416 - t413;
+    let z_b1b_z = t416 - t413;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.8297406473129645
-        * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
-            - 0.4659052429827611 * z_b1m_z);
+    let j5_cos_b1b = 1.8297406473129645
+        * (0.4777992078809706 * z_b1b_x - 0.318065659982822 * z_b1b_y
+            - 0.4659052429827611 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.8297406473129645
+    let j5_sin_b1b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1m_y + 0.8714779141183223 * z_b1m_x)
+            * (0.4834853743786345 * z_b1b_y + 0.8714779141183223 * z_b1b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1m_y - 0.8714779141183223 * z_b1m_z)
+                * (0.08226869371717187 * z_b1b_y - 0.8714779141183223 * z_b1b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
+                    * (0.08226869371717187 * z_b1b_x + 0.4834853743786345 * z_b1b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t604 = t411 + t453;
     let t605 = t454 - t412;
     let t606 = t455 - t413;
@@ -899,54 +899,54 @@ fn candidates(
     let t635 = -ref4_cos;
     let t636 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t635 } else { t611 * t631 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t635 } else { t611 * t631 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t636 } else { t625 * t631 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t636 } else { t625 * t631 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t649 = t499 * j4_cos_b1m - t504 * j4_sin_b1m - t496;
-    let t650 = t497 + (t500 * j4_cos_b1m - t507 * j4_sin_b1m);
-    let t651 = t501 * j4_cos_b1m + t510 * j4_sin_b1m - t498;
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t649 = t499 * j4_cos_b1b - t504 * j4_sin_b1b - t496;
+    let t650 = t497 + (t500 * j4_cos_b1b - t507 * j4_sin_b1b);
+    let t651 = t501 * j4_cos_b1b + t510 * j4_sin_b1b - t498;
     let t656 = 0.569696512704339 * t651
         + (0.008443901475437254 * t649 - 0.8218117691663878 * t650);
     let t657 = 0.008443901475437254 * t656;
     let t658 = 0.8218117691663878 * t656;
     let t659 = 0.569696512704339 * t656;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t657
-        + (j5_cos_b1m * (t649 - t657)
-            + j5_sin_b1m * (0.8218117691663878 * t651 + 0.569696512704339 * t650));
+    let y6_b1b_x = t657
+        + (j5_cos_b1b * (t649 - t657)
+            + j5_sin_b1b * (0.8218117691663878 * t651 + 0.569696512704339 * t650));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t650 + t658)
-        - j5_sin_b1m * (0.569696512704339 * t649 - 0.008443901475437254 * t651) - t658;
+    let y6_b1b_y = j5_cos_b1b * (t650 + t658)
+        - j5_sin_b1b * (0.569696512704339 * t649 - 0.008443901475437254 * t651) - t658;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t659
-        + (j5_cos_b1m * (t651 - t659)
-            - j5_sin_b1m * (0.008443901475437254 * t650 + 0.8218117691663878 * t649));
+    let y6_b1b_z = t659
+        + (j5_cos_b1b * (t651 - t659)
+            - j5_sin_b1b * (0.008443901475437254 * t650 + 0.8218117691663878 * t649));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1m_y + 0.07193921016870876 * y6_b1m_x)
+            * (0.039911001067778125 * y6_b1b_y + 0.07193921016870876 * y6_b1b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1m_z + 0.9966101855961891 * y6_b1m_y)
+                * (0.07193921016870876 * y6_b1b_z + 0.9966101855961891 * y6_b1b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1m_x
-                        - 0.039911001067778125 * y6_b1m_z))),
-        0.9966101855961891 * y6_b1m_z
-            + (0.039911001067778125 * y6_b1m_x - 0.07193921016870876 * y6_b1m_y),
+                    * (0.9966101855961891 * y6_b1b_x
+                        - 0.039911001067778125 * y6_b1b_z))),
+        0.9966101855961891 * y6_b1b_z
+            + (0.039911001067778125 * y6_b1b_x - 0.07193921016870876 * y6_b1b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t297 + (j1_cos_m * t300 - j1_sin_m * t305);
+    let v_b2_x = t297 + (j1_cos_b * t300 - j1_sin_b * t305);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * t301 + j1_sin_m * t308 - t298;
+    let v_b2_y = j1_cos_b * t301 + j1_sin_b * t308 - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * t302 - j1_sin_m * t311 - t299;
+    let v_b2_z = j1_cos_b * t302 - j1_sin_b * t311 - t299;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t329 + (j1_cos_m * t332 - j1_sin_m * t337);
+    let xv_b2_x = t329 + (j1_cos_b * t332 - j1_sin_b * t337);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * t333 + j1_sin_m * t340 - t330;
+    let xv_b2_y = j1_cos_b * t333 + j1_sin_b * t340 - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * t334 - j1_sin_m * t343 - t331;
+    let xv_b2_z = j1_cos_b * t334 - j1_sin_b * t343 - t331;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
@@ -976,25 +976,25 @@ fn candidates(
     let t770 = 0.8672481684250324 * t734 - t764;
     let t771 = t765 - 2.572822887006619 * t734;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t769 - t766;
+    let z_b2a_x = t769 - t766;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t767 + t770;
+    let z_b2a_y = t767 + t770;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t768 + t771;
+    let z_b2a_z = t768 + t771;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.8297406473129645
-        * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
-            - 0.4659052429827611 * z_b2p_z);
+    let j5_cos_b2a = 1.8297406473129645
+        * (0.4777992078809706 * z_b2a_x - 0.318065659982822 * z_b2a_y
+            - 0.4659052429827611 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.8297406473129645
+    let j5_sin_b2a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2p_y + 0.8714779141183223 * z_b2p_x)
+            * (0.4834853743786345 * z_b2a_y + 0.8714779141183223 * z_b2a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2p_y - 0.8714779141183223 * z_b2p_z)
+                * (0.08226869371717187 * z_b2a_y - 0.8714779141183223 * z_b2a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
+                    * (0.08226869371717187 * z_b2a_x + 0.4834853743786345 * z_b2a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t797 = j5_alpha_b2 - j5_a_b2;
     let t801 = t763 - 0.12917776692663924 * t797;
     let t802 = 0.31674537350149495 * t797 - t764;
@@ -1011,11 +1011,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t828;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t825 * t831 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t825 * t831 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t842 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
     let t843 = 0.12917776692663924 * t842;
@@ -1027,57 +1027,57 @@ fn candidates(
     let t851 = 0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y;
     let t854 = 0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x;
     let t857 = 0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x;
-    let t867 = j4_cos_b2p * t846 - j4_sin_b2p * t851 - t843;
-    let t868 = t844 + (j4_cos_b2p * t847 - j4_sin_b2p * t854);
-    let t869 = j4_cos_b2p * t848 + j4_sin_b2p * t857 - t845;
+    let t867 = j4_cos_b2a * t846 - j4_sin_b2a * t851 - t843;
+    let t868 = t844 + (j4_cos_b2a * t847 - j4_sin_b2a * t854);
+    let t869 = j4_cos_b2a * t848 + j4_sin_b2a * t857 - t845;
     let t874 = 0.569696512704339 * t869
         + (0.008443901475437254 * t867 - 0.8218117691663878 * t868);
     let t875 = 0.008443901475437254 * t874;
     let t876 = 0.8218117691663878 * t874;
     let t877 = 0.569696512704339 * t874;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t875
-        + (j5_cos_b2p * (t867 - t875)
-            + j5_sin_b2p * (0.8218117691663878 * t869 + 0.569696512704339 * t868));
+    let y6_b2a_x = t875
+        + (j5_cos_b2a * (t867 - t875)
+            + j5_sin_b2a * (0.8218117691663878 * t869 + 0.569696512704339 * t868));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t868 + t876)
-        - j5_sin_b2p * (0.569696512704339 * t867 - 0.008443901475437254 * t869) - t876;
+    let y6_b2a_y = j5_cos_b2a * (t868 + t876)
+        - j5_sin_b2a * (0.569696512704339 * t867 - 0.008443901475437254 * t869) - t876;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t877
-        + (j5_cos_b2p * (t869 - t877)
-            - j5_sin_b2p * (0.008443901475437254 * t868 + 0.8218117691663878 * t867));
+    let y6_b2a_z = t877
+        + (j5_cos_b2a * (t869 - t877)
+            - j5_sin_b2a * (0.008443901475437254 * t868 + 0.8218117691663878 * t867));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2p_y + 0.07193921016870876 * y6_b2p_x)
+            * (0.039911001067778125 * y6_b2a_y + 0.07193921016870876 * y6_b2a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2p_z + 0.9966101855961891 * y6_b2p_y)
+                * (0.07193921016870876 * y6_b2a_z + 0.9966101855961891 * y6_b2a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2p_x
-                        - 0.039911001067778125 * y6_b2p_z))),
-        0.9966101855961891 * y6_b2p_z
-            + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
+                    * (0.9966101855961891 * y6_b2a_x
+                        - 0.039911001067778125 * y6_b2a_z))),
+        0.9966101855961891 * y6_b2a_z
+            + (0.039911001067778125 * y6_b2a_x - 0.07193921016870876 * y6_b2a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t766 + t769;
+    let z_b2b_x = t766 + t769;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t770 - t767;
+    let z_b2b_y = t770 - t767;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t771 - t768;
+    let z_b2b_z = t771 - t768;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.8297406473129645
-        * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
-            - 0.4659052429827611 * z_b2m_z);
+    let j5_cos_b2b = 1.8297406473129645
+        * (0.4777992078809706 * z_b2b_x - 0.318065659982822 * z_b2b_y
+            - 0.4659052429827611 * z_b2b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.8297406473129645
+    let j5_sin_b2b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2m_y + 0.8714779141183223 * z_b2m_x)
+            * (0.4834853743786345 * z_b2b_y + 0.8714779141183223 * z_b2b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2m_y - 0.8714779141183223 * z_b2m_z)
+                * (0.08226869371717187 * z_b2b_y - 0.8714779141183223 * z_b2b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
+                    * (0.08226869371717187 * z_b2b_x + 0.4834853743786345 * z_b2b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t948 = t766 + t801;
     let t949 = t802 - t767;
     let t950 = t803 - t768;
@@ -1090,45 +1090,45 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t972;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t635 } else { t955 * t975 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t635 } else { t955 * t975 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t636 } else { t969 * t975 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t636 } else { t969 * t975 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t991 = t846 * j4_cos_b2m - t851 * j4_sin_b2m - t843;
-    let t992 = t844 + (t847 * j4_cos_b2m - t854 * j4_sin_b2m);
-    let t993 = t848 * j4_cos_b2m + t857 * j4_sin_b2m - t845;
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t991 = t846 * j4_cos_b2b - t851 * j4_sin_b2b - t843;
+    let t992 = t844 + (t847 * j4_cos_b2b - t854 * j4_sin_b2b);
+    let t993 = t848 * j4_cos_b2b + t857 * j4_sin_b2b - t845;
     let t998 = 0.569696512704339 * t993
         + (0.008443901475437254 * t991 - 0.8218117691663878 * t992);
     let t999 = 0.008443901475437254 * t998;
     let t1000 = 0.8218117691663878 * t998;
     let t1001 = 0.569696512704339 * t998;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t999
-        + (j5_cos_b2m * (t991 - t999)
-            + j5_sin_b2m * (0.8218117691663878 * t993 + 0.569696512704339 * t992));
+    let y6_b2b_x = t999
+        + (j5_cos_b2b * (t991 - t999)
+            + j5_sin_b2b * (0.8218117691663878 * t993 + 0.569696512704339 * t992));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t992 + t1000)
-        - j5_sin_b2m * (0.569696512704339 * t991 - 0.008443901475437254 * t993) - t1000;
+    let y6_b2b_y = j5_cos_b2b * (t992 + t1000)
+        - j5_sin_b2b * (0.569696512704339 * t991 - 0.008443901475437254 * t993) - t1000;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1001
-        + (j5_cos_b2m * (t993 - t1001)
-            - j5_sin_b2m * (0.008443901475437254 * t992 + 0.8218117691663878 * t991));
+    let y6_b2b_z = t1001
+        + (j5_cos_b2b * (t993 - t1001)
+            - j5_sin_b2b * (0.008443901475437254 * t992 + 0.8218117691663878 * t991));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2m_y + 0.07193921016870876 * y6_b2m_x)
+            * (0.039911001067778125 * y6_b2b_y + 0.07193921016870876 * y6_b2b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2m_z + 0.9966101855961891 * y6_b2m_y)
+                * (0.07193921016870876 * y6_b2b_z + 0.9966101855961891 * y6_b2b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2m_x
-                        - 0.039911001067778125 * y6_b2m_z))),
-        0.9966101855961891 * y6_b2m_z
-            + (0.039911001067778125 * y6_b2m_x - 0.07193921016870876 * y6_b2m_y),
+                    * (0.9966101855961891 * y6_b2b_x
+                        - 0.039911001067778125 * y6_b2b_z))),
+        0.9966101855961891 * y6_b2b_z
+            + (0.039911001067778125 * y6_b2b_x - 0.07193921016870876 * y6_b2b_y),
     );
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, slide2_p, slide3_p, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, slide2_a, slide3_a, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1152,7 +1152,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, slide2_p, slide3_p, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, slide2_a, slide3_a, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1176,7 +1176,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, slide2_m, slide3_m, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_b, slide2_b, slide3_b, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1200,7 +1200,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, slide2_m, slide3_m, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_b, slide2_b, slide3_b, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Only,
@@ -1329,13 +1329,13 @@ fn branch_1(
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
+    let slide3_a = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
-        + 0.7768010686602598 * slide3_p;
-    let t143 = w0_x - 0.29088833522944446 * slide3_p;
-    let t144 = w0_y + 0.49707832103632676 * slide3_p;
-    let t145 = w0_z - 0.3350895823358808 * slide3_p;
+    let slide2_a = 1.4026694727397795 * (height - 0.11820820044027433)
+        + 0.7768010686602598 * slide3_a;
+    let t143 = w0_x - 0.29088833522944446 * slide3_a;
+    let t144 = w0_y + 0.49707832103632676 * slide3_a;
+    let t145 = w0_z - 0.3350895823358808 * slide3_a;
     let t150 = radial_z * t145 + (radial_x * t143 + radial_y * t144);
     let t164 = 0.5193670476948382 * (radial_z * t144 - radial_y * t145)
         - 0.24745573783013325 * (radial_x * t145 - radial_z * t143)
@@ -1344,19 +1344,19 @@ fn branch_1(
     let t172 = 1.0 / ::armforge_runtime::math::sqrt(t167.max(1e-300));
     let t175 = t167 - 1e-300;
     // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         if t175 >= 0.0 { t150 * t172 } else { 1.0 }
     };
     // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         if t175 >= 0.0 { t164 * t172 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -1394,14 +1394,14 @@ fn branch_1(
     let t299 = 0.8179385842370391 * t296;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t297
-        + (j1_cos_p * (g6_x - t297)
-            - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_a * (g6_x - t297)
+            - j1_sin_a * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * (g6_y + t298)
-        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
+    let v_b1_y = j1_cos_a * (g6_y + t298)
+        + j1_sin_a * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * (g6_z + t299)
-        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
+    let v_b1_z = j1_cos_a * (g6_z + t299)
+        - j1_sin_a * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
     let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
     let t329 = 0.5193670476948382 * t328;
@@ -1409,14 +1409,14 @@ fn branch_1(
     let t331 = 0.8179385842370391 * t328;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t329
-        + (j1_cos_p * (gx_x - t329)
-            - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_a * (gx_x - t329)
+            - j1_sin_a * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * (gx_y + t330)
-        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
+    let xv_b1_y = j1_cos_a * (gx_y + t330)
+        + j1_sin_a * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * (gx_z + t331)
-        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
+    let xv_b1_z = j1_cos_a * (gx_z + t331)
+        - j1_sin_a * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
@@ -1443,25 +1443,25 @@ fn branch_1(
     let t412 = 0.06565761653993642 * j5_gamma_b1;
     let t413 = 0.10348524244829747 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t404 - 0.35368845495650103 * t366 - t411;
+    let z_b1a_x = t404 - 0.35368845495650103 * t366 - t411;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t412 + (0.8672481684250324 * t366 - t406);
+    let z_b1a_y = t412 + (0.8672481684250324 * t366 - t406);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t413 + (t407 - 2.572822887006619 * t366);
+    let z_b1a_z = t413 + (t407 - 2.572822887006619 * t366);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.8297406473129645
-        * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
-            - 0.4659052429827611 * z_b1p_z);
+    let j5_cos_b1a = 1.8297406473129645
+        * (0.4777992078809706 * z_b1a_x - 0.318065659982822 * z_b1a_y
+            - 0.4659052429827611 * z_b1a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.8297406473129645
+    let j5_sin_b1a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1p_y + 0.8714779141183223 * z_b1p_x)
+            * (0.4834853743786345 * z_b1a_y + 0.8714779141183223 * z_b1a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1p_y - 0.8714779141183223 * z_b1p_z)
+                * (0.08226869371717187 * z_b1a_y - 0.8714779141183223 * z_b1a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
+                    * (0.08226869371717187 * z_b1a_x + 0.4834853743786345 * z_b1a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t449 = j5_alpha_b1 - j5_a_b1;
     let t456 = t404 - 0.12917776692663924 * t449 - t411;
     let t457 = t412 + (0.31674537350149495 * t449 - t406);
@@ -1475,25 +1475,25 @@ fn branch_1(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t480;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t477 * t484 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t477 * t484 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t495 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
     let t496 = 0.12917776692663924 * t495;
     let t497 = 0.31674537350149495 * t495;
     let t498 = 0.9396730670277007 * t495;
-    let t520 = j4_cos_b1p * (xv_b1_x + t496)
-        - j4_sin_b1p * (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y)
+    let t520 = j4_cos_b1a * (xv_b1_x + t496)
+        - j4_sin_b1a * (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y)
         - t496;
     let t521 = t497
-        + (j4_cos_b1p * (xv_b1_y - t497)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t497)
+            - j4_sin_b1a
                 * (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x));
-    let t522 = j4_cos_b1p * (xv_b1_z + t498)
-        + j4_sin_b1p * (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x)
+    let t522 = j4_cos_b1a * (xv_b1_z + t498)
+        + j4_sin_b1a * (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x)
         - t498;
     let t527 = 0.569696512704339 * t522
         + (0.008443901475437254 * t520 - 0.8218117691663878 * t521);
@@ -1501,30 +1501,30 @@ fn branch_1(
     let t529 = 0.8218117691663878 * t527;
     let t530 = 0.569696512704339 * t527;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t528
-        + (j5_cos_b1p * (t520 - t528)
-            + j5_sin_b1p * (0.8218117691663878 * t522 + 0.569696512704339 * t521));
+    let y6_b1a_x = t528
+        + (j5_cos_b1a * (t520 - t528)
+            + j5_sin_b1a * (0.8218117691663878 * t522 + 0.569696512704339 * t521));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t521 + t529)
-        - j5_sin_b1p * (0.569696512704339 * t520 - 0.008443901475437254 * t522) - t529;
+    let y6_b1a_y = j5_cos_b1a * (t521 + t529)
+        - j5_sin_b1a * (0.569696512704339 * t520 - 0.008443901475437254 * t522) - t529;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t530
-        + (j5_cos_b1p * (t522 - t530)
-            - j5_sin_b1p * (0.008443901475437254 * t521 + 0.8218117691663878 * t520));
+    let y6_b1a_z = t530
+        + (j5_cos_b1a * (t522 - t530)
+            - j5_sin_b1a * (0.008443901475437254 * t521 + 0.8218117691663878 * t520));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1p_y + 0.07193921016870876 * y6_b1p_x)
+            * (0.039911001067778125 * y6_b1a_y + 0.07193921016870876 * y6_b1a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1p_z + 0.9966101855961891 * y6_b1p_y)
+                * (0.07193921016870876 * y6_b1a_z + 0.9966101855961891 * y6_b1a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1p_x
-                        - 0.039911001067778125 * y6_b1p_z))),
-        0.9966101855961891 * y6_b1p_z
-            + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
+                    * (0.9966101855961891 * y6_b1a_x
+                        - 0.039911001067778125 * y6_b1a_z))),
+        0.9966101855961891 * y6_b1a_z
+            + (0.039911001067778125 * y6_b1a_x - 0.07193921016870876 * y6_b1a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, slide2_p, slide3_p, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, slide2_a, slide3_a, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -1629,13 +1629,13 @@ fn branch_2(
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
+    let slide3_a = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
-        + 0.7768010686602598 * slide3_p;
-    let t143 = w0_x - 0.29088833522944446 * slide3_p;
-    let t144 = w0_y + 0.49707832103632676 * slide3_p;
-    let t145 = w0_z - 0.3350895823358808 * slide3_p;
+    let slide2_a = 1.4026694727397795 * (height - 0.11820820044027433)
+        + 0.7768010686602598 * slide3_a;
+    let t143 = w0_x - 0.29088833522944446 * slide3_a;
+    let t144 = w0_y + 0.49707832103632676 * slide3_a;
+    let t145 = w0_z - 0.3350895823358808 * slide3_a;
     let t150 = radial_z * t145 + (radial_x * t143 + radial_y * t144);
     let t164 = 0.5193670476948382 * (radial_z * t144 - radial_y * t145)
         - 0.24745573783013325 * (radial_x * t145 - radial_z * t143)
@@ -1644,19 +1644,19 @@ fn branch_2(
     let t172 = 1.0 / ::armforge_runtime::math::sqrt(t167.max(1e-300));
     let t175 = t167 - 1e-300;
     // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         if t175 >= 0.0 { t150 * t172 } else { 1.0 }
     };
     // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         if t175 >= 0.0 { t164 * t172 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -1694,14 +1694,14 @@ fn branch_2(
     let t299 = 0.8179385842370391 * t296;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b1_x = t297
-        + (j1_cos_p * (g6_x - t297)
-            - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_a * (g6_x - t297)
+            - j1_sin_a * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * (g6_y + t298)
-        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
+    let v_b1_y = j1_cos_a * (g6_y + t298)
+        + j1_sin_a * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * (g6_z + t299)
-        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
+    let v_b1_z = j1_cos_a * (g6_z + t299)
+        - j1_sin_a * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
     let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
     let t329 = 0.5193670476948382 * t328;
@@ -1709,14 +1709,14 @@ fn branch_2(
     let t331 = 0.8179385842370391 * t328;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b1_x = t329
-        + (j1_cos_p * (gx_x - t329)
-            - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_a * (gx_x - t329)
+            - j1_sin_a * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * (gx_y + t330)
-        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
+    let xv_b1_y = j1_cos_a * (gx_y + t330)
+        + j1_sin_a * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * (gx_z + t331)
-        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
+    let xv_b1_z = j1_cos_a * (gx_z + t331)
+        - j1_sin_a * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
@@ -1749,25 +1749,25 @@ fn branch_2(
     let t497 = 0.31674537350149495 * t495;
     let t498 = 0.9396730670277007 * t495;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t411 + (t404 - 0.35368845495650103 * t366);
+    let z_b1b_x = t411 + (t404 - 0.35368845495650103 * t366);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 0.8672481684250324 * t366 - t406 - t412;
+    let z_b1b_y = 0.8672481684250324 * t366 - t406 - t412;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t407 - 2.572822887006619 * t366 - t413;
+    let z_b1b_z = t407 - 2.572822887006619 * t366 - t413;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.8297406473129645
-        * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
-            - 0.4659052429827611 * z_b1m_z);
+    let j5_cos_b1b = 1.8297406473129645
+        * (0.4777992078809706 * z_b1b_x - 0.318065659982822 * z_b1b_y
+            - 0.4659052429827611 * z_b1b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.8297406473129645
+    let j5_sin_b1b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b1m_y + 0.8714779141183223 * z_b1m_x)
+            * (0.4834853743786345 * z_b1b_y + 0.8714779141183223 * z_b1b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b1m_y - 0.8714779141183223 * z_b1m_z)
+                * (0.08226869371717187 * z_b1b_y - 0.8714779141183223 * z_b1b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
+                    * (0.08226869371717187 * z_b1b_x + 0.4834853743786345 * z_b1b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t604 = t411 + (t404 - 0.12917776692663924 * t449);
     let t605 = 0.31674537350149495 * t449 - t406 - t412;
     let t606 = t407 - 0.9396730670277007 * t449 - t413;
@@ -1780,20 +1780,20 @@ fn branch_2(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t628;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t611 * t631 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t611 * t631 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t625 * t631 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t625 * t631 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t649 = (xv_b1_x + t496) * j4_cos_b1m
-        - (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y) * j4_sin_b1m
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t649 = (xv_b1_x + t496) * j4_cos_b1b
+        - (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y) * j4_sin_b1b
         - t496;
     let t650 = t497
-        + ((xv_b1_y - t497) * j4_cos_b1m
+        + ((xv_b1_y - t497) * j4_cos_b1b
             - (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x)
-                * j4_sin_b1m);
-    let t651 = (xv_b1_z + t498) * j4_cos_b1m
-        + (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x) * j4_sin_b1m
+                * j4_sin_b1b);
+    let t651 = (xv_b1_z + t498) * j4_cos_b1b
+        + (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x) * j4_sin_b1b
         - t498;
     let t656 = 0.569696512704339 * t651
         + (0.008443901475437254 * t649 - 0.8218117691663878 * t650);
@@ -1801,30 +1801,30 @@ fn branch_2(
     let t658 = 0.8218117691663878 * t656;
     let t659 = 0.569696512704339 * t656;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t657
-        + (j5_cos_b1m * (t649 - t657)
-            + j5_sin_b1m * (0.8218117691663878 * t651 + 0.569696512704339 * t650));
+    let y6_b1b_x = t657
+        + (j5_cos_b1b * (t649 - t657)
+            + j5_sin_b1b * (0.8218117691663878 * t651 + 0.569696512704339 * t650));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t650 + t658)
-        - j5_sin_b1m * (0.569696512704339 * t649 - 0.008443901475437254 * t651) - t658;
+    let y6_b1b_y = j5_cos_b1b * (t650 + t658)
+        - j5_sin_b1b * (0.569696512704339 * t649 - 0.008443901475437254 * t651) - t658;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t659
-        + (j5_cos_b1m * (t651 - t659)
-            - j5_sin_b1m * (0.008443901475437254 * t650 + 0.8218117691663878 * t649));
+    let y6_b1b_z = t659
+        + (j5_cos_b1b * (t651 - t659)
+            - j5_sin_b1b * (0.008443901475437254 * t650 + 0.8218117691663878 * t649));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b1m_y + 0.07193921016870876 * y6_b1m_x)
+            * (0.039911001067778125 * y6_b1b_y + 0.07193921016870876 * y6_b1b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b1m_z + 0.9966101855961891 * y6_b1m_y)
+                * (0.07193921016870876 * y6_b1b_z + 0.9966101855961891 * y6_b1b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b1m_x
-                        - 0.039911001067778125 * y6_b1m_z))),
-        0.9966101855961891 * y6_b1m_z
-            + (0.039911001067778125 * y6_b1m_x - 0.07193921016870876 * y6_b1m_y),
+                    * (0.9966101855961891 * y6_b1b_x
+                        - 0.039911001067778125 * y6_b1b_z))),
+        0.9966101855961891 * y6_b1b_z
+            + (0.039911001067778125 * y6_b1b_x - 0.07193921016870876 * y6_b1b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, slide2_p, slide3_p, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, slide2_a, slide3_a, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -1930,9 +1930,9 @@ fn branch_3(
     let j1_free = 3.7902730645198247e-19 - rho2;
     let t181 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t181;
+    let slide3_b = -t181;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
+    let slide2_b = 1.4026694727397795 * (height - 0.11820820044027433)
         - 0.7768010686602598 * t181;
     let t188 = w0_x + 0.29088833522944446 * t181;
     let t189 = w0_y - 0.49707832103632676 * t181;
@@ -1945,19 +1945,19 @@ fn branch_3(
     let t215 = 1.0 / ::armforge_runtime::math::sqrt(t212.max(1e-300));
     let t218 = t212 - 1e-300;
     // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         if t218 >= 0.0 { t195 * t215 } else { 1.0 }
     };
     // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         if t218 >= 0.0 { t209 * t215 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -2000,24 +2000,24 @@ fn branch_3(
     let t331 = 0.8179385842370391 * t328;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t297
-        + (j1_cos_m * (g6_x - t297)
-            - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_b * (g6_x - t297)
+            - j1_sin_b * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * (g6_y + t298)
-        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
+    let v_b2_y = j1_cos_b * (g6_y + t298)
+        + j1_sin_b * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * (g6_z + t299)
-        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
+    let v_b2_z = j1_cos_b * (g6_z + t299)
+        - j1_sin_b * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t329
-        + (j1_cos_m * (gx_x - t329)
-            - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_b * (gx_x - t329)
+            - j1_sin_b * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * (gx_y + t330)
-        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
+    let xv_b2_y = j1_cos_b * (gx_y + t330)
+        + j1_sin_b * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * (gx_z + t331)
-        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
+    let xv_b2_z = j1_cos_b * (gx_z + t331)
+        - j1_sin_b * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
@@ -2044,25 +2044,25 @@ fn branch_3(
     let t767 = 0.06565761653993642 * j5_gamma_b2;
     let t768 = 0.10348524244829747 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t763 - 0.35368845495650103 * t734 - t766;
+    let z_b2a_x = t763 - 0.35368845495650103 * t734 - t766;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t767 + (0.8672481684250324 * t734 - t764);
+    let z_b2a_y = t767 + (0.8672481684250324 * t734 - t764);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t768 + (t765 - 2.572822887006619 * t734);
+    let z_b2a_z = t768 + (t765 - 2.572822887006619 * t734);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.8297406473129645
-        * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
-            - 0.4659052429827611 * z_b2p_z);
+    let j5_cos_b2a = 1.8297406473129645
+        * (0.4777992078809706 * z_b2a_x - 0.318065659982822 * z_b2a_y
+            - 0.4659052429827611 * z_b2a_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.8297406473129645
+    let j5_sin_b2a = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2p_y + 0.8714779141183223 * z_b2p_x)
+            * (0.4834853743786345 * z_b2a_y + 0.8714779141183223 * z_b2a_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2p_y - 0.8714779141183223 * z_b2p_z)
+                * (0.08226869371717187 * z_b2a_y - 0.8714779141183223 * z_b2a_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
+                    * (0.08226869371717187 * z_b2a_x + 0.4834853743786345 * z_b2a_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t797 = j5_alpha_b2 - j5_a_b2;
     let t804 = t763 - 0.12917776692663924 * t797 - t766;
     let t805 = t767 + (0.31674537350149495 * t797 - t764);
@@ -2076,25 +2076,25 @@ fn branch_3(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t828;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t825 * t831 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t825 * t831 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t842 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
     let t843 = 0.12917776692663924 * t842;
     let t844 = 0.31674537350149495 * t842;
     let t845 = 0.9396730670277007 * t842;
-    let t867 = j4_cos_b2p * (xv_b2_x + t843)
-        - j4_sin_b2p * (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y)
+    let t867 = j4_cos_b2a * (xv_b2_x + t843)
+        - j4_sin_b2a * (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y)
         - t843;
     let t868 = t844
-        + (j4_cos_b2p * (xv_b2_y - t844)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t844)
+            - j4_sin_b2a
                 * (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x));
-    let t869 = j4_cos_b2p * (xv_b2_z + t845)
-        + j4_sin_b2p * (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x)
+    let t869 = j4_cos_b2a * (xv_b2_z + t845)
+        + j4_sin_b2a * (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x)
         - t845;
     let t874 = 0.569696512704339 * t869
         + (0.008443901475437254 * t867 - 0.8218117691663878 * t868);
@@ -2102,30 +2102,30 @@ fn branch_3(
     let t876 = 0.8218117691663878 * t874;
     let t877 = 0.569696512704339 * t874;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t875
-        + (j5_cos_b2p * (t867 - t875)
-            + j5_sin_b2p * (0.8218117691663878 * t869 + 0.569696512704339 * t868));
+    let y6_b2a_x = t875
+        + (j5_cos_b2a * (t867 - t875)
+            + j5_sin_b2a * (0.8218117691663878 * t869 + 0.569696512704339 * t868));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t868 + t876)
-        - j5_sin_b2p * (0.569696512704339 * t867 - 0.008443901475437254 * t869) - t876;
+    let y6_b2a_y = j5_cos_b2a * (t868 + t876)
+        - j5_sin_b2a * (0.569696512704339 * t867 - 0.008443901475437254 * t869) - t876;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t877
-        + (j5_cos_b2p * (t869 - t877)
-            - j5_sin_b2p * (0.008443901475437254 * t868 + 0.8218117691663878 * t867));
+    let y6_b2a_z = t877
+        + (j5_cos_b2a * (t869 - t877)
+            - j5_sin_b2a * (0.008443901475437254 * t868 + 0.8218117691663878 * t867));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2p_y + 0.07193921016870876 * y6_b2p_x)
+            * (0.039911001067778125 * y6_b2a_y + 0.07193921016870876 * y6_b2a_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2p_z + 0.9966101855961891 * y6_b2p_y)
+                * (0.07193921016870876 * y6_b2a_z + 0.9966101855961891 * y6_b2a_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2p_x
-                        - 0.039911001067778125 * y6_b2p_z))),
-        0.9966101855961891 * y6_b2p_z
-            + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
+                    * (0.9966101855961891 * y6_b2a_x
+                        - 0.039911001067778125 * y6_b2a_z))),
+        0.9966101855961891 * y6_b2a_z
+            + (0.039911001067778125 * y6_b2a_x - 0.07193921016870876 * y6_b2a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, slide2_m, slide3_m, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_b, slide2_b, slide3_b, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Only,
@@ -2231,9 +2231,9 @@ fn branch_4(
     let j1_free = 3.7902730645198247e-19 - rho2;
     let t181 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t181;
+    let slide3_b = -t181;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
+    let slide2_b = 1.4026694727397795 * (height - 0.11820820044027433)
         - 0.7768010686602598 * t181;
     let t188 = w0_x + 0.29088833522944446 * t181;
     let t189 = w0_y - 0.49707832103632676 * t181;
@@ -2246,19 +2246,19 @@ fn branch_4(
     let t215 = 1.0 / ::armforge_runtime::math::sqrt(t212.max(1e-300));
     let t218 = t212 - 1e-300;
     // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         if t218 >= 0.0 { t195 * t215 } else { 1.0 }
     };
     // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         if t218 >= 0.0 { t209 * t215 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
     let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
@@ -2301,24 +2301,24 @@ fn branch_4(
     let t331 = 0.8179385842370391 * t328;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t297
-        + (j1_cos_m * (g6_x - t297)
-            - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
+        + (j1_cos_b * (g6_x - t297)
+            - j1_sin_b * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * (g6_y + t298)
-        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
+    let v_b2_y = j1_cos_b * (g6_y + t298)
+        + j1_sin_b * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * (g6_z + t299)
-        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
+    let v_b2_z = j1_cos_b * (g6_z + t299)
+        - j1_sin_b * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
     let xv_b2_x = t329
-        + (j1_cos_m * (gx_x - t329)
-            - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
+        + (j1_cos_b * (gx_x - t329)
+            - j1_sin_b * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * (gx_y + t330)
-        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
+    let xv_b2_y = j1_cos_b * (gx_y + t330)
+        + j1_sin_b * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * (gx_z + t331)
-        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
+    let xv_b2_z = j1_cos_b * (gx_z + t331)
+        - j1_sin_b * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
@@ -2351,25 +2351,25 @@ fn branch_4(
     let t844 = 0.31674537350149495 * t842;
     let t845 = 0.9396730670277007 * t842;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t766 + (t763 - 0.35368845495650103 * t734);
+    let z_b2b_x = t766 + (t763 - 0.35368845495650103 * t734);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 0.8672481684250324 * t734 - t764 - t767;
+    let z_b2b_y = 0.8672481684250324 * t734 - t764 - t767;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t765 - 2.572822887006619 * t734 - t768;
+    let z_b2b_z = t765 - 2.572822887006619 * t734 - t768;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.8297406473129645
-        * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
-            - 0.4659052429827611 * z_b2m_z);
+    let j5_cos_b2b = 1.8297406473129645
+        * (0.4777992078809706 * z_b2b_x - 0.318065659982822 * z_b2b_y
+            - 0.4659052429827611 * z_b2b_z);
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.8297406473129645
+    let j5_sin_b2b = 1.8297406473129645
         * (0.569696512704339
-            * (0.4834853743786345 * z_b2m_y + 0.8714779141183223 * z_b2m_x)
+            * (0.4834853743786345 * z_b2b_y + 0.8714779141183223 * z_b2b_x)
             + (0.008443901475437254
-                * (0.08226869371717187 * z_b2m_y - 0.8714779141183223 * z_b2m_z)
+                * (0.08226869371717187 * z_b2b_y - 0.8714779141183223 * z_b2b_z)
                 + 0.8218117691663878
-                    * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
+                    * (0.08226869371717187 * z_b2b_x + 0.4834853743786345 * z_b2b_z)));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t948 = t766 + (t763 - 0.12917776692663924 * t797);
     let t949 = 0.31674537350149495 * t797 - t764 - t767;
     let t950 = t765 - 0.9396730670277007 * t797 - t768;
@@ -2382,20 +2382,20 @@ fn branch_4(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t972;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t955 * t975 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t955 * t975 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t969 * t975 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t969 * t975 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t991 = (xv_b2_x + t843) * j4_cos_b2m
-        - (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y) * j4_sin_b2m
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t991 = (xv_b2_x + t843) * j4_cos_b2b
+        - (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y) * j4_sin_b2b
         - t843;
     let t992 = t844
-        + ((xv_b2_y - t844) * j4_cos_b2m
+        + ((xv_b2_y - t844) * j4_cos_b2b
             - (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x)
-                * j4_sin_b2m);
-    let t993 = (xv_b2_z + t845) * j4_cos_b2m
-        + (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x) * j4_sin_b2m
+                * j4_sin_b2b);
+    let t993 = (xv_b2_z + t845) * j4_cos_b2b
+        + (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x) * j4_sin_b2b
         - t845;
     let t998 = 0.569696512704339 * t993
         + (0.008443901475437254 * t991 - 0.8218117691663878 * t992);
@@ -2403,30 +2403,30 @@ fn branch_4(
     let t1000 = 0.8218117691663878 * t998;
     let t1001 = 0.569696512704339 * t998;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t999
-        + (j5_cos_b2m * (t991 - t999)
-            + j5_sin_b2m * (0.8218117691663878 * t993 + 0.569696512704339 * t992));
+    let y6_b2b_x = t999
+        + (j5_cos_b2b * (t991 - t999)
+            + j5_sin_b2b * (0.8218117691663878 * t993 + 0.569696512704339 * t992));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t992 + t1000)
-        - j5_sin_b2m * (0.569696512704339 * t991 - 0.008443901475437254 * t993) - t1000;
+    let y6_b2b_y = j5_cos_b2b * (t992 + t1000)
+        - j5_sin_b2b * (0.569696512704339 * t991 - 0.008443901475437254 * t993) - t1000;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1001
-        + (j5_cos_b2m * (t993 - t1001)
-            - j5_sin_b2m * (0.008443901475437254 * t992 + 0.8218117691663878 * t991));
+    let y6_b2b_z = t1001
+        + (j5_cos_b2b * (t993 - t1001)
+            - j5_sin_b2b * (0.008443901475437254 * t992 + 0.8218117691663878 * t991));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
-            * (0.039911001067778125 * y6_b2m_y + 0.07193921016870876 * y6_b2m_x)
+            * (0.039911001067778125 * y6_b2b_y + 0.07193921016870876 * y6_b2b_x)
             + (0.4834853743786345
-                * (0.07193921016870876 * y6_b2m_z + 0.9966101855961891 * y6_b2m_y)
+                * (0.07193921016870876 * y6_b2b_z + 0.9966101855961891 * y6_b2b_y)
                 + 0.8714779141183223
-                    * (0.9966101855961891 * y6_b2m_x
-                        - 0.039911001067778125 * y6_b2m_z))),
-        0.9966101855961891 * y6_b2m_z
-            + (0.039911001067778125 * y6_b2m_x - 0.07193921016870876 * y6_b2m_y),
+                    * (0.9966101855961891 * y6_b2b_x
+                        - 0.039911001067778125 * y6_b2b_z))),
+        0.9966101855961891 * y6_b2b_z
+            + (0.039911001067778125 * y6_b2b_x - 0.07193921016870876 * y6_b2b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, slide2_m, slide3_m, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_b, slide2_b, slide3_b, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Only,

@@ -570,7 +570,7 @@ pub fn solve_branch(
         } => branch_8(target, &reference),
         _ => {
             return ::core::result::Result::Err(
-                ::armforge_runtime::Unreachable::BranchUnavailable,
+                ::armforge_runtime::Unreachable::NoSuchBranch,
             );
         }
     };
@@ -709,20 +709,20 @@ fn candidates(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
     let t117 = j1_a * j1_k;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
+    let j1_cos_a = if j1_free >= 0.0 { ref1_cos } else { j1_inv_r2 * (t114 - t116) };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
+    let j1_sin_a = if j1_free >= 0.0 { ref1_sin } else { j1_inv_r2 * (t115 + t117) };
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
+    let j1_cos_b = if j1_free >= 0.0 { -ref1_cos } else { j1_inv_r2 * (t114 + t116) };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
+    let j1_sin_b = if j1_free >= 0.0 { -ref1_sin } else { j1_inv_r2 * (t115 - t117) };
     let t132 = ::armforge_runtime::math::abs(j1_e);
     let t133 = 0.7957211704114873 * t96;
     let t134 = 0.553647671333485 * t96;
@@ -734,143 +734,143 @@ fn candidates(
     let t144 = 0.2455648081179022 * u_x - 0.7957211704114873 * u_z;
     let t147 = 0.7957211704114873 * u_y - 0.553647671333485 * u_x;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133 + (j1_cos_p * t136 - j1_sin_p * t141) - 0.1466357979102201;
+    let w_a_x = t133 + (j1_cos_a * t136 - j1_sin_a * t141) - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134 + (j1_cos_p * t137 - j1_sin_p * t144) - 0.1665554280716256;
+    let w_a_y = t134 + (j1_cos_a * t137 - j1_sin_a * t144) - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135 + (j1_cos_p * t138 - j1_sin_p * t147) - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let w_a_z = t135 + (j1_cos_a * t138 - j1_sin_a * t147) - 0.23593621703748283;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133 + (j1_cos_m * t136 - j1_sin_m * t141) - 0.1466357979102201;
+    let w_b_x = t133 + (j1_cos_b * t136 - j1_sin_b * t141) - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134 + (j1_cos_m * t137 - j1_sin_m * t144) - 0.1665554280716256;
+    let w_b_y = t134 + (j1_cos_b * t137 - j1_sin_b * t144) - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135 + (j1_cos_m * t138 - j1_sin_m * t147) - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let w_b_z = t135 + (j1_cos_b * t138 - j1_sin_b * t147) - 0.23593621703748283;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_p = 8.539556986014195e-20 - d2_p;
+    let pivot_a = 8.539556986014195e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.2750702190093362;
-    let t237 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t239 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t240 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t245 = w_p_z * t240 + (w_p_x * t237 - w_p_y * t239);
-    let t259 = 0.22438759210189282 * (w_p_x * t240 - w_p_z * t237)
-        - 0.919348671064388 * (w_p_z * t239 + w_p_y * t240)
-        - 0.32318451312347624 * (w_p_y * t237 + w_p_x * t239);
+    let q3_aa = j3_root_a - 0.2750702190093362;
+    let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t239 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t240 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t245 = w_a_z * t240 + (w_a_x * t237 - w_a_y * t239);
+    let t259 = 0.22438759210189282 * (w_a_x * t240 - w_a_z * t237)
+        - 0.919348671064388 * (w_a_z * t239 + w_a_y * t240)
+        - 0.32318451312347624 * (w_a_y * t237 + w_a_x * t239);
     let t262 = t245 * t245 + t259 * t259;
     let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
     let t269 = t262 - 1e-300;
-    let t272 = if pivot_p >= 0.0 {
+    let t272 = if pivot_a >= 0.0 {
         0.6095997719011829
     } else {
         if t269 >= 0.0 { t245 * t266 } else { 1.0 }
     };
-    let t273 = if pivot_p >= 0.0 {
+    let t273 = if pivot_a >= 0.0 {
         -0.7927093528513625
     } else {
         if t269 >= 0.0 { t259 * t266 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_pp = ::armforge_runtime::math::atan2(t273, t272);
+    let q2_aa = ::armforge_runtime::math::atan2(t273, t272);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t279 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t280 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t281 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t286 = w_p_z * t281 + (w_p_x * t279 - w_p_y * t280);
-    let t300 = 0.22438759210189282 * (w_p_x * t281 - w_p_z * t279)
-        - 0.919348671064388 * (w_p_z * t280 + w_p_y * t281)
-        - 0.32318451312347624 * (w_p_y * t279 + w_p_x * t280);
+    let q3_ab = -0.2750702190093362 - j3_root_a;
+    let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t280 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t281 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t286 = w_a_z * t281 + (w_a_x * t279 - w_a_y * t280);
+    let t300 = 0.22438759210189282 * (w_a_x * t281 - w_a_z * t279)
+        - 0.919348671064388 * (w_a_z * t280 + w_a_y * t281)
+        - 0.32318451312347624 * (w_a_y * t279 + w_a_x * t280);
     let t303 = t286 * t286 + t300 * t300;
     let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
     let t309 = t303 - 1e-300;
-    let t312 = if pivot_p >= 0.0 {
+    let t312 = if pivot_a >= 0.0 {
         0.6095997719011829
     } else {
         if t309 >= 0.0 { t286 * t306 } else { 1.0 }
     };
-    let t313 = if pivot_p >= 0.0 {
+    let t313 = if pivot_a >= 0.0 {
         -0.7927093528513625
     } else {
         if t309 >= 0.0 { t300 * t306 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_pm = ::armforge_runtime::math::atan2(t313, t312);
+    let q2_ab = ::armforge_runtime::math::atan2(t313, t312);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_m = 8.539556986014195e-20 - d2_m;
+    let pivot_b = 8.539556986014195e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.2750702190093362;
-    let t323 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t324 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t325 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t330 = w_m_z * t325 + (w_m_x * t323 - w_m_y * t324);
-    let t344 = 0.22438759210189282 * (w_m_x * t325 - w_m_z * t323)
-        - 0.919348671064388 * (w_m_z * t324 + w_m_y * t325)
-        - 0.32318451312347624 * (w_m_y * t323 + w_m_x * t324);
+    let q3_ba = j3_root_b - 0.2750702190093362;
+    let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t324 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t325 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t330 = w_b_z * t325 + (w_b_x * t323 - w_b_y * t324);
+    let t344 = 0.22438759210189282 * (w_b_x * t325 - w_b_z * t323)
+        - 0.919348671064388 * (w_b_z * t324 + w_b_y * t325)
+        - 0.32318451312347624 * (w_b_y * t323 + w_b_x * t324);
     let t347 = t330 * t330 + t344 * t344;
     let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
     let t353 = t347 - 1e-300;
-    let t356 = if pivot_m >= 0.0 {
+    let t356 = if pivot_b >= 0.0 {
         0.6095997719011829
     } else {
         if t353 >= 0.0 { t330 * t350 } else { 1.0 }
     };
-    let t357 = if pivot_m >= 0.0 {
+    let t357 = if pivot_b >= 0.0 {
         -0.7927093528513625
     } else {
         if t353 >= 0.0 { t344 * t350 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_mp = ::armforge_runtime::math::atan2(t357, t356);
+    let q2_ba = ::armforge_runtime::math::atan2(t357, t356);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t363 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t364 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t365 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t370 = w_m_z * t365 + (w_m_x * t363 - w_m_y * t364);
-    let t384 = 0.22438759210189282 * (w_m_x * t365 - w_m_z * t363)
-        - 0.919348671064388 * (w_m_z * t364 + w_m_y * t365)
-        - 0.32318451312347624 * (w_m_y * t363 + w_m_x * t364);
+    let q3_bb = -0.2750702190093362 - j3_root_b;
+    let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t364 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t365 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t370 = w_b_z * t365 + (w_b_x * t363 - w_b_y * t364);
+    let t384 = 0.22438759210189282 * (w_b_x * t365 - w_b_z * t363)
+        - 0.919348671064388 * (w_b_z * t364 + w_b_y * t365)
+        - 0.32318451312347624 * (w_b_y * t363 + w_b_x * t364);
     let t387 = t370 * t370 + t384 * t384;
     let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
     let t393 = t387 - 1e-300;
-    let t396 = if pivot_m >= 0.0 {
+    let t396 = if pivot_b >= 0.0 {
         0.6095997719011829
     } else {
         if t393 >= 0.0 { t370 * t390 } else { 1.0 }
     };
-    let t397 = if pivot_m >= 0.0 {
+    let t397 = if pivot_b >= 0.0 {
         -0.7927093528513625
     } else {
         if t393 >= 0.0 { t384 * t390 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_mm = ::armforge_runtime::math::atan2(t397, t396);
+    let q2_bb = ::armforge_runtime::math::atan2(t397, t396);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -912,9 +912,9 @@ fn candidates(
     let t478 = 0.553647671333485 * g6_z - 0.2455648081179022 * g6_y;
     let t481 = 0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z;
     let t484 = 0.7957211704114873 * g6_y - 0.553647671333485 * g6_x;
-    let t494 = t470 + (j1_cos_p * t473 - j1_sin_p * t478);
-    let t495 = t471 + (j1_cos_p * t474 - j1_sin_p * t481);
-    let t496 = t472 + (j1_cos_p * t475 - j1_sin_p * t484);
+    let t494 = t470 + (j1_cos_a * t473 - j1_sin_a * t478);
+    let t495 = t471 + (j1_cos_a * t474 - j1_sin_a * t481);
+    let t496 = t472 + (j1_cos_a * t475 - j1_sin_a * t484);
     let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t502 = 0.7957211704114873 * t501;
@@ -926,9 +926,9 @@ fn candidates(
     let t510 = 0.553647671333485 * gx_z - 0.2455648081179022 * gx_y;
     let t513 = 0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z;
     let t516 = 0.7957211704114873 * gx_y - 0.553647671333485 * gx_x;
-    let t526 = t502 + (j1_cos_p * t505 - j1_sin_p * t510);
-    let t527 = t503 + (j1_cos_p * t506 - j1_sin_p * t513);
-    let t528 = t504 + (j1_cos_p * t507 - j1_sin_p * t516);
+    let t526 = t502 + (j1_cos_a * t505 - j1_sin_a * t510);
+    let t527 = t503 + (j1_cos_a * t506 - j1_sin_a * t513);
+    let t528 = t504 + (j1_cos_a * t507 - j1_sin_a * t516);
     let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
         - 0.32318451312347624 * t496;
     let t534 = 0.919348671064388 * t533;
@@ -992,25 +992,25 @@ fn candidates(
     let t652 = 1.0379846701062043 * t603 + t643;
     let t653 = t644 - 0.2010269164374744 * t603;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t647 + t651;
+    let z_b1a_x = t647 + t651;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t648 + t652;
+    let z_b1a_y = t648 + t652;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t653 - t650;
+    let z_b1a_z = t653 - t650;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.2056566317887352
-        * (0.8840923826341479 * z_b1p_z
-            - (0.21377064521432798 * z_b1p_x + 0.04589463161448898 * z_b1p_y));
+    let j5_cos_b1a = 1.2056566317887352
+        * (0.8840923826341479 * z_b1a_z
+            - (0.21377064521432798 * z_b1a_x + 0.04589463161448898 * z_b1a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.2056566317887352
+    let j5_sin_b1a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1p_z - 0.935948806852255 * z_b1p_y)
+            * (0.34229941191058744 * z_b1a_z - 0.935948806852255 * z_b1a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1p_x + 0.08264952242757546 * z_b1p_z)
+                * (0.935948806852255 * z_b1a_x + 0.08264952242757546 * z_b1a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
+                * (0.08264952242757546 * z_b1a_y + 0.34229941191058744 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t686 = j5_alpha_b1 - j5_a_b1;
     let t690 = t642 - 0.620341126105259 * t686;
     let t691 = t643 + 0.7700239450467775 * t686;
@@ -1027,11 +1027,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t717;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
     let t733 = 0.620341126105259 * t732;
@@ -1043,57 +1043,57 @@ fn candidates(
     let t741 = 0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y;
     let t744 = 0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x;
     let t747 = 0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x;
-    let t757 = j4_cos_b1p * t736 - j4_sin_b1p * t741 - t733;
-    let t758 = t734 + (j4_cos_b1p * t737 - j4_sin_b1p * t744);
-    let t759 = j4_cos_b1p * t738 + j4_sin_b1p * t747 - t735;
+    let t757 = j4_cos_b1a * t736 - j4_sin_b1a * t741 - t733;
+    let t758 = t734 + (j4_cos_b1a * t737 - j4_sin_b1a * t744);
+    let t759 = j4_cos_b1a * t738 + j4_sin_b1a * t747 - t735;
     let t764 = 0.12555760611043656 * t759
         + (0.3174776227989252 * t757 + 0.9399166168175558 * t758);
     let t765 = 0.3174776227989252 * t764;
     let t766 = 0.9399166168175558 * t764;
     let t767 = 0.12555760611043656 * t764;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t765
-        + (j5_cos_b1p * (t757 - t765)
-            - j5_sin_b1p * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
+    let y6_b1a_x = t765
+        + (j5_cos_b1a * (t757 - t765)
+            - j5_sin_b1a * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t766
-        + (j5_cos_b1p * (t758 - t766)
-            - j5_sin_b1p * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
+    let y6_b1a_y = t766
+        + (j5_cos_b1a * (t758 - t766)
+            - j5_sin_b1a * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t767
-        + (j5_cos_b1p * (t759 - t767)
-            - j5_sin_b1p * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
+    let y6_b1a_z = t767
+        + (j5_cos_b1a * (t759 - t767)
+            - j5_sin_b1a * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1p_y - 0.028388007507509954 * y6_b1p_x)
+            * (0.9965786754905472 * y6_b1a_y - 0.028388007507509954 * y6_b1a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1p_x - 0.9965786754905472 * y6_b1p_z)
+                * (0.0776212895233 * y6_b1a_x - 0.9965786754905472 * y6_b1a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1p_z - 0.0776212895233 * y6_b1p_y)),
-        0.0776212895233 * y6_b1p_z
-            + (0.9965786754905472 * y6_b1p_x + 0.028388007507509954 * y6_b1p_y),
+                    * (0.028388007507509954 * y6_b1a_z - 0.0776212895233 * y6_b1a_y)),
+        0.0776212895233 * y6_b1a_z
+            + (0.9965786754905472 * y6_b1a_x + 0.028388007507509954 * y6_b1a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t651 - t647;
+    let z_b1b_x = t651 - t647;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t652 - t648;
+    let z_b1b_y = t652 - t648;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t650 + t653;
+    let z_b1b_z = t650 + t653;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.2056566317887352
-        * (0.8840923826341479 * z_b1m_z
-            - (0.21377064521432798 * z_b1m_x + 0.04589463161448898 * z_b1m_y));
+    let j5_cos_b1b = 1.2056566317887352
+        * (0.8840923826341479 * z_b1b_z
+            - (0.21377064521432798 * z_b1b_x + 0.04589463161448898 * z_b1b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.2056566317887352
+    let j5_sin_b1b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1m_z - 0.935948806852255 * z_b1m_y)
+            * (0.34229941191058744 * z_b1b_z - 0.935948806852255 * z_b1b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1m_x + 0.08264952242757546 * z_b1m_z)
+                * (0.935948806852255 * z_b1b_x + 0.08264952242757546 * z_b1b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
+                * (0.08264952242757546 * z_b1b_y + 0.34229941191058744 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t840 = t690 - t647;
     let t841 = t691 - t648;
     let t842 = t650 + t692;
@@ -1108,41 +1108,41 @@ fn candidates(
     let t871 = -ref4_cos;
     let t872 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t871 } else { t847 * t867 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t871 } else { t847 * t867 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t872 } else { t861 * t867 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t872 } else { t861 * t867 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t885 = t736 * j4_cos_b1m - t741 * j4_sin_b1m - t733;
-    let t886 = t734 + (t737 * j4_cos_b1m - t744 * j4_sin_b1m);
-    let t887 = t738 * j4_cos_b1m + t747 * j4_sin_b1m - t735;
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t885 = t736 * j4_cos_b1b - t741 * j4_sin_b1b - t733;
+    let t886 = t734 + (t737 * j4_cos_b1b - t744 * j4_sin_b1b);
+    let t887 = t738 * j4_cos_b1b + t747 * j4_sin_b1b - t735;
     let t892 = 0.12555760611043656 * t887
         + (0.3174776227989252 * t885 + 0.9399166168175558 * t886);
     let t893 = 0.3174776227989252 * t892;
     let t894 = 0.9399166168175558 * t892;
     let t895 = 0.12555760611043656 * t892;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t893
-        + (j5_cos_b1m * (t885 - t893)
-            - j5_sin_b1m * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
+    let y6_b1b_x = t893
+        + (j5_cos_b1b * (t885 - t893)
+            - j5_sin_b1b * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t894
-        + (j5_cos_b1m * (t886 - t894)
-            - j5_sin_b1m * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
+    let y6_b1b_y = t894
+        + (j5_cos_b1b * (t886 - t894)
+            - j5_sin_b1b * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t895
-        + (j5_cos_b1m * (t887 - t895)
-            - j5_sin_b1m * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
+    let y6_b1b_z = t895
+        + (j5_cos_b1b * (t887 - t895)
+            - j5_sin_b1b * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1m_y - 0.028388007507509954 * y6_b1m_x)
+            * (0.9965786754905472 * y6_b1b_y - 0.028388007507509954 * y6_b1b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1m_x - 0.9965786754905472 * y6_b1m_z)
+                * (0.0776212895233 * y6_b1b_x - 0.9965786754905472 * y6_b1b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1m_z - 0.0776212895233 * y6_b1m_y)),
-        0.0776212895233 * y6_b1m_z
-            + (0.9965786754905472 * y6_b1m_x + 0.028388007507509954 * y6_b1m_y),
+                    * (0.028388007507509954 * y6_b1b_z - 0.0776212895233 * y6_b1b_y)),
+        0.0776212895233 * y6_b1b_z
+            + (0.9965786754905472 * y6_b1b_x + 0.028388007507509954 * y6_b1b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b2_x = t534 + (t312 * t537 - t313 * t542);
@@ -1185,25 +1185,25 @@ fn candidates(
     let t1005 = 1.0379846701062043 * t969 + t999;
     let t1006 = t1000 - 0.2010269164374744 * t969;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t1001 + t1004;
+    let z_b2a_x = t1001 + t1004;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t1002 + t1005;
+    let z_b2a_y = t1002 + t1005;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t1006 - t1003;
+    let z_b2a_z = t1006 - t1003;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.2056566317887352
-        * (0.8840923826341479 * z_b2p_z
-            - (0.21377064521432798 * z_b2p_x + 0.04589463161448898 * z_b2p_y));
+    let j5_cos_b2a = 1.2056566317887352
+        * (0.8840923826341479 * z_b2a_z
+            - (0.21377064521432798 * z_b2a_x + 0.04589463161448898 * z_b2a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.2056566317887352
+    let j5_sin_b2a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2p_z - 0.935948806852255 * z_b2p_y)
+            * (0.34229941191058744 * z_b2a_z - 0.935948806852255 * z_b2a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2p_x + 0.08264952242757546 * z_b2p_z)
+                * (0.935948806852255 * z_b2a_x + 0.08264952242757546 * z_b2a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
+                * (0.08264952242757546 * z_b2a_y + 0.34229941191058744 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t1032 = j5_alpha_b2 - j5_a_b2;
     let t1036 = t998 - 0.620341126105259 * t1032;
     let t1037 = t999 + 0.7700239450467775 * t1032;
@@ -1220,11 +1220,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1063;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
     let t1078 = 0.620341126105259 * t1077;
@@ -1236,57 +1236,57 @@ fn candidates(
     let t1086 = 0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y;
     let t1089 = 0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x;
     let t1092 = 0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x;
-    let t1102 = j4_cos_b2p * t1081 - j4_sin_b2p * t1086 - t1078;
-    let t1103 = t1079 + (j4_cos_b2p * t1082 - j4_sin_b2p * t1089);
-    let t1104 = j4_cos_b2p * t1083 + j4_sin_b2p * t1092 - t1080;
+    let t1102 = j4_cos_b2a * t1081 - j4_sin_b2a * t1086 - t1078;
+    let t1103 = t1079 + (j4_cos_b2a * t1082 - j4_sin_b2a * t1089);
+    let t1104 = j4_cos_b2a * t1083 + j4_sin_b2a * t1092 - t1080;
     let t1109 = 0.12555760611043656 * t1104
         + (0.3174776227989252 * t1102 + 0.9399166168175558 * t1103);
     let t1110 = 0.3174776227989252 * t1109;
     let t1111 = 0.9399166168175558 * t1109;
     let t1112 = 0.12555760611043656 * t1109;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1110
-        + (j5_cos_b2p * (t1102 - t1110)
-            - j5_sin_b2p * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
+    let y6_b2a_x = t1110
+        + (j5_cos_b2a * (t1102 - t1110)
+            - j5_sin_b2a * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t1111
-        + (j5_cos_b2p * (t1103 - t1111)
-            - j5_sin_b2p * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
+    let y6_b2a_y = t1111
+        + (j5_cos_b2a * (t1103 - t1111)
+            - j5_sin_b2a * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t1112
-        + (j5_cos_b2p * (t1104 - t1112)
-            - j5_sin_b2p * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
+    let y6_b2a_z = t1112
+        + (j5_cos_b2a * (t1104 - t1112)
+            - j5_sin_b2a * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2p_y - 0.028388007507509954 * y6_b2p_x)
+            * (0.9965786754905472 * y6_b2a_y - 0.028388007507509954 * y6_b2a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2p_x - 0.9965786754905472 * y6_b2p_z)
+                * (0.0776212895233 * y6_b2a_x - 0.9965786754905472 * y6_b2a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2p_z - 0.0776212895233 * y6_b2p_y)),
-        0.0776212895233 * y6_b2p_z
-            + (0.9965786754905472 * y6_b2p_x + 0.028388007507509954 * y6_b2p_y),
+                    * (0.028388007507509954 * y6_b2a_z - 0.0776212895233 * y6_b2a_y)),
+        0.0776212895233 * y6_b2a_z
+            + (0.9965786754905472 * y6_b2a_x + 0.028388007507509954 * y6_b2a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t1004 - t1001;
+    let z_b2b_x = t1004 - t1001;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t1005 - t1002;
+    let z_b2b_y = t1005 - t1002;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t1003 + t1006;
+    let z_b2b_z = t1003 + t1006;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.2056566317887352
-        * (0.8840923826341479 * z_b2m_z
-            - (0.21377064521432798 * z_b2m_x + 0.04589463161448898 * z_b2m_y));
+    let j5_cos_b2b = 1.2056566317887352
+        * (0.8840923826341479 * z_b2b_z
+            - (0.21377064521432798 * z_b2b_x + 0.04589463161448898 * z_b2b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.2056566317887352
+    let j5_sin_b2b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2m_z - 0.935948806852255 * z_b2m_y)
+            * (0.34229941191058744 * z_b2b_z - 0.935948806852255 * z_b2b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2m_x + 0.08264952242757546 * z_b2m_z)
+                * (0.935948806852255 * z_b2b_x + 0.08264952242757546 * z_b2b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
+                * (0.08264952242757546 * z_b2b_y + 0.34229941191058744 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t1182 = t1036 - t1001;
     let t1183 = t1037 - t1002;
     let t1184 = t1003 + t1038;
@@ -1299,48 +1299,48 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1206;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t871 } else { t1189 * t1209 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t871 } else { t1189 * t1209 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t872 } else { t1203 * t1209 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t872 } else { t1203 * t1209 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1225 = t1081 * j4_cos_b2m - t1086 * j4_sin_b2m - t1078;
-    let t1226 = t1079 + (t1082 * j4_cos_b2m - t1089 * j4_sin_b2m);
-    let t1227 = t1083 * j4_cos_b2m + t1092 * j4_sin_b2m - t1080;
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t1225 = t1081 * j4_cos_b2b - t1086 * j4_sin_b2b - t1078;
+    let t1226 = t1079 + (t1082 * j4_cos_b2b - t1089 * j4_sin_b2b);
+    let t1227 = t1083 * j4_cos_b2b + t1092 * j4_sin_b2b - t1080;
     let t1232 = 0.12555760611043656 * t1227
         + (0.3174776227989252 * t1225 + 0.9399166168175558 * t1226);
     let t1233 = 0.3174776227989252 * t1232;
     let t1234 = 0.9399166168175558 * t1232;
     let t1235 = 0.12555760611043656 * t1232;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1233
-        + (j5_cos_b2m * (t1225 - t1233)
-            - j5_sin_b2m * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
+    let y6_b2b_x = t1233
+        + (j5_cos_b2b * (t1225 - t1233)
+            - j5_sin_b2b * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = t1234
-        + (j5_cos_b2m * (t1226 - t1234)
-            - j5_sin_b2m * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
+    let y6_b2b_y = t1234
+        + (j5_cos_b2b * (t1226 - t1234)
+            - j5_sin_b2b * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1235
-        + (j5_cos_b2m * (t1227 - t1235)
-            - j5_sin_b2m * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
+    let y6_b2b_z = t1235
+        + (j5_cos_b2b * (t1227 - t1235)
+            - j5_sin_b2b * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2m_y - 0.028388007507509954 * y6_b2m_x)
+            * (0.9965786754905472 * y6_b2b_y - 0.028388007507509954 * y6_b2b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2m_x - 0.9965786754905472 * y6_b2m_z)
+                * (0.0776212895233 * y6_b2b_x - 0.9965786754905472 * y6_b2b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2m_z - 0.0776212895233 * y6_b2m_y)),
-        0.0776212895233 * y6_b2m_z
-            + (0.9965786754905472 * y6_b2m_x + 0.028388007507509954 * y6_b2m_y),
+                    * (0.028388007507509954 * y6_b2b_z - 0.0776212895233 * y6_b2b_y)),
+        0.0776212895233 * y6_b2b_z
+            + (0.9965786754905472 * y6_b2b_x + 0.028388007507509954 * y6_b2b_y),
     );
-    let t1289 = t470 + (j1_cos_m * t473 - j1_sin_m * t478);
-    let t1290 = t471 + (j1_cos_m * t474 - j1_sin_m * t481);
-    let t1291 = t472 + (j1_cos_m * t475 - j1_sin_m * t484);
-    let t1301 = t502 + (j1_cos_m * t505 - j1_sin_m * t510);
-    let t1302 = t503 + (j1_cos_m * t506 - j1_sin_m * t513);
-    let t1303 = t504 + (j1_cos_m * t507 - j1_sin_m * t516);
+    let t1289 = t470 + (j1_cos_b * t473 - j1_sin_b * t478);
+    let t1290 = t471 + (j1_cos_b * t474 - j1_sin_b * t481);
+    let t1291 = t472 + (j1_cos_b * t475 - j1_sin_b * t484);
+    let t1301 = t502 + (j1_cos_b * t505 - j1_sin_b * t510);
+    let t1302 = t503 + (j1_cos_b * t506 - j1_sin_b * t513);
+    let t1303 = t504 + (j1_cos_b * t507 - j1_sin_b * t516);
     let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
         - 0.32318451312347624 * t1291;
     let t1309 = 0.919348671064388 * t1308;
@@ -1404,25 +1404,25 @@ fn candidates(
     let t1409 = 1.0379846701062043 * t1373 + t1403;
     let t1410 = t1404 - 0.2010269164374744 * t1373;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1405 + t1408;
+    let z_b3a_x = t1405 + t1408;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1406 + t1409;
+    let z_b3a_y = t1406 + t1409;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1410 - t1407;
+    let z_b3a_z = t1410 - t1407;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = 1.2056566317887352
-        * (0.8840923826341479 * z_b3p_z
-            - (0.21377064521432798 * z_b3p_x + 0.04589463161448898 * z_b3p_y));
+    let j5_cos_b3a = 1.2056566317887352
+        * (0.8840923826341479 * z_b3a_z
+            - (0.21377064521432798 * z_b3a_x + 0.04589463161448898 * z_b3a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 1.2056566317887352
+    let j5_sin_b3a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3p_z - 0.935948806852255 * z_b3p_y)
+            * (0.34229941191058744 * z_b3a_z - 0.935948806852255 * z_b3a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3p_x + 0.08264952242757546 * z_b3p_z)
+                * (0.935948806852255 * z_b3a_x + 0.08264952242757546 * z_b3a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
+                * (0.08264952242757546 * z_b3a_y + 0.34229941191058744 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1436 = j5_alpha_b3 - j5_a_b3;
     let t1440 = t1402 - 0.620341126105259 * t1436;
     let t1441 = t1403 + 0.7700239450467775 * t1436;
@@ -1439,11 +1439,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1467;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
     let t1482 = 0.620341126105259 * t1481;
@@ -1455,57 +1455,57 @@ fn candidates(
     let t1490 = 0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y;
     let t1493 = 0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x;
     let t1496 = 0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x;
-    let t1506 = j4_cos_b3p * t1485 - j4_sin_b3p * t1490 - t1482;
-    let t1507 = t1483 + (j4_cos_b3p * t1486 - j4_sin_b3p * t1493);
-    let t1508 = j4_cos_b3p * t1487 + j4_sin_b3p * t1496 - t1484;
+    let t1506 = j4_cos_b3a * t1485 - j4_sin_b3a * t1490 - t1482;
+    let t1507 = t1483 + (j4_cos_b3a * t1486 - j4_sin_b3a * t1493);
+    let t1508 = j4_cos_b3a * t1487 + j4_sin_b3a * t1496 - t1484;
     let t1513 = 0.12555760611043656 * t1508
         + (0.3174776227989252 * t1506 + 0.9399166168175558 * t1507);
     let t1514 = 0.3174776227989252 * t1513;
     let t1515 = 0.9399166168175558 * t1513;
     let t1516 = 0.12555760611043656 * t1513;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1514
-        + (j5_cos_b3p * (t1506 - t1514)
-            - j5_sin_b3p * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
+    let y6_b3a_x = t1514
+        + (j5_cos_b3a * (t1506 - t1514)
+            - j5_sin_b3a * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1515
-        + (j5_cos_b3p * (t1507 - t1515)
-            - j5_sin_b3p * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
+    let y6_b3a_y = t1515
+        + (j5_cos_b3a * (t1507 - t1515)
+            - j5_sin_b3a * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1516
-        + (j5_cos_b3p * (t1508 - t1516)
-            - j5_sin_b3p * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
+    let y6_b3a_z = t1516
+        + (j5_cos_b3a * (t1508 - t1516)
+            - j5_sin_b3a * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3p_y - 0.028388007507509954 * y6_b3p_x)
+            * (0.9965786754905472 * y6_b3a_y - 0.028388007507509954 * y6_b3a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3p_x - 0.9965786754905472 * y6_b3p_z)
+                * (0.0776212895233 * y6_b3a_x - 0.9965786754905472 * y6_b3a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3p_z - 0.0776212895233 * y6_b3p_y)),
-        0.0776212895233 * y6_b3p_z
-            + (0.9965786754905472 * y6_b3p_x + 0.028388007507509954 * y6_b3p_y),
+                    * (0.028388007507509954 * y6_b3a_z - 0.0776212895233 * y6_b3a_y)),
+        0.0776212895233 * y6_b3a_z
+            + (0.9965786754905472 * y6_b3a_x + 0.028388007507509954 * y6_b3a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1408 - t1405;
+    let z_b3b_x = t1408 - t1405;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = t1409 - t1406;
+    let z_b3b_y = t1409 - t1406;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1407 + t1410;
+    let z_b3b_z = t1407 + t1410;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3m = 1.2056566317887352
-        * (0.8840923826341479 * z_b3m_z
-            - (0.21377064521432798 * z_b3m_x + 0.04589463161448898 * z_b3m_y));
+    let j5_cos_b3b = 1.2056566317887352
+        * (0.8840923826341479 * z_b3b_z
+            - (0.21377064521432798 * z_b3b_x + 0.04589463161448898 * z_b3b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3m = 1.2056566317887352
+    let j5_sin_b3b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3m_z - 0.935948806852255 * z_b3m_y)
+            * (0.34229941191058744 * z_b3b_z - 0.935948806852255 * z_b3b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3m_x + 0.08264952242757546 * z_b3m_z)
+                * (0.935948806852255 * z_b3b_x + 0.08264952242757546 * z_b3b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
+                * (0.08264952242757546 * z_b3b_y + 0.34229941191058744 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
     let t1586 = t1440 - t1405;
     let t1587 = t1441 - t1406;
     let t1588 = t1407 + t1442;
@@ -1518,41 +1518,41 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1610;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t871 } else { t1593 * t1613 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t871 } else { t1593 * t1613 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t872 } else { t1607 * t1613 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { t872 } else { t1607 * t1613 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1629 = t1485 * j4_cos_b3m - t1490 * j4_sin_b3m - t1482;
-    let t1630 = t1483 + (t1486 * j4_cos_b3m - t1493 * j4_sin_b3m);
-    let t1631 = t1487 * j4_cos_b3m + t1496 * j4_sin_b3m - t1484;
+    let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
+    let t1629 = t1485 * j4_cos_b3b - t1490 * j4_sin_b3b - t1482;
+    let t1630 = t1483 + (t1486 * j4_cos_b3b - t1493 * j4_sin_b3b);
+    let t1631 = t1487 * j4_cos_b3b + t1496 * j4_sin_b3b - t1484;
     let t1636 = 0.12555760611043656 * t1631
         + (0.3174776227989252 * t1629 + 0.9399166168175558 * t1630);
     let t1637 = 0.3174776227989252 * t1636;
     let t1638 = 0.9399166168175558 * t1636;
     let t1639 = 0.12555760611043656 * t1636;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1637
-        + (j5_cos_b3m * (t1629 - t1637)
-            - j5_sin_b3m * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
+    let y6_b3b_x = t1637
+        + (j5_cos_b3b * (t1629 - t1637)
+            - j5_sin_b3b * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = t1638
-        + (j5_cos_b3m * (t1630 - t1638)
-            - j5_sin_b3m * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
+    let y6_b3b_y = t1638
+        + (j5_cos_b3b * (t1630 - t1638)
+            - j5_sin_b3b * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = t1639
-        + (j5_cos_b3m * (t1631 - t1639)
-            - j5_sin_b3m * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
+    let y6_b3b_z = t1639
+        + (j5_cos_b3b * (t1631 - t1639)
+            - j5_sin_b3b * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3m = ::armforge_runtime::math::atan2(
+    let q6_b3b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3m_y - 0.028388007507509954 * y6_b3m_x)
+            * (0.9965786754905472 * y6_b3b_y - 0.028388007507509954 * y6_b3b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3m_x - 0.9965786754905472 * y6_b3m_z)
+                * (0.0776212895233 * y6_b3b_x - 0.9965786754905472 * y6_b3b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3m_z - 0.0776212895233 * y6_b3m_y)),
-        0.0776212895233 * y6_b3m_z
-            + (0.9965786754905472 * y6_b3m_x + 0.028388007507509954 * y6_b3m_y),
+                    * (0.028388007507509954 * y6_b3b_z - 0.0776212895233 * y6_b3b_y)),
+        0.0776212895233 * y6_b3b_z
+            + (0.9965786754905472 * y6_b3b_x + 0.028388007507509954 * y6_b3b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
     let v_b4_x = t1309 + (t396 * t1312 - t397 * t1317);
@@ -1595,25 +1595,25 @@ fn candidates(
     let t1749 = 1.0379846701062043 * t1713 + t1743;
     let t1750 = t1744 - 0.2010269164374744 * t1713;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1745 + t1748;
+    let z_b4a_x = t1745 + t1748;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1746 + t1749;
+    let z_b4a_y = t1746 + t1749;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1750 - t1747;
+    let z_b4a_z = t1750 - t1747;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = 1.2056566317887352
-        * (0.8840923826341479 * z_b4p_z
-            - (0.21377064521432798 * z_b4p_x + 0.04589463161448898 * z_b4p_y));
+    let j5_cos_b4a = 1.2056566317887352
+        * (0.8840923826341479 * z_b4a_z
+            - (0.21377064521432798 * z_b4a_x + 0.04589463161448898 * z_b4a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 1.2056566317887352
+    let j5_sin_b4a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4p_z - 0.935948806852255 * z_b4p_y)
+            * (0.34229941191058744 * z_b4a_z - 0.935948806852255 * z_b4a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4p_x + 0.08264952242757546 * z_b4p_z)
+                * (0.935948806852255 * z_b4a_x + 0.08264952242757546 * z_b4a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
+                * (0.08264952242757546 * z_b4a_y + 0.34229941191058744 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1776 = j5_alpha_b4 - j5_a_b4;
     let t1780 = t1742 - 0.620341126105259 * t1776;
     let t1781 = t1743 + 0.7700239450467775 * t1776;
@@ -1630,11 +1630,11 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1807;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
     let t1822 = 0.620341126105259 * t1821;
@@ -1646,57 +1646,57 @@ fn candidates(
     let t1830 = 0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y;
     let t1833 = 0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x;
     let t1836 = 0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x;
-    let t1846 = j4_cos_b4p * t1825 - j4_sin_b4p * t1830 - t1822;
-    let t1847 = t1823 + (j4_cos_b4p * t1826 - j4_sin_b4p * t1833);
-    let t1848 = j4_cos_b4p * t1827 + j4_sin_b4p * t1836 - t1824;
+    let t1846 = j4_cos_b4a * t1825 - j4_sin_b4a * t1830 - t1822;
+    let t1847 = t1823 + (j4_cos_b4a * t1826 - j4_sin_b4a * t1833);
+    let t1848 = j4_cos_b4a * t1827 + j4_sin_b4a * t1836 - t1824;
     let t1853 = 0.12555760611043656 * t1848
         + (0.3174776227989252 * t1846 + 0.9399166168175558 * t1847);
     let t1854 = 0.3174776227989252 * t1853;
     let t1855 = 0.9399166168175558 * t1853;
     let t1856 = 0.12555760611043656 * t1853;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1854
-        + (j5_cos_b4p * (t1846 - t1854)
-            - j5_sin_b4p * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
+    let y6_b4a_x = t1854
+        + (j5_cos_b4a * (t1846 - t1854)
+            - j5_sin_b4a * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1855
-        + (j5_cos_b4p * (t1847 - t1855)
-            - j5_sin_b4p * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
+    let y6_b4a_y = t1855
+        + (j5_cos_b4a * (t1847 - t1855)
+            - j5_sin_b4a * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1856
-        + (j5_cos_b4p * (t1848 - t1856)
-            - j5_sin_b4p * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
+    let y6_b4a_z = t1856
+        + (j5_cos_b4a * (t1848 - t1856)
+            - j5_sin_b4a * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4p_y - 0.028388007507509954 * y6_b4p_x)
+            * (0.9965786754905472 * y6_b4a_y - 0.028388007507509954 * y6_b4a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4p_x - 0.9965786754905472 * y6_b4p_z)
+                * (0.0776212895233 * y6_b4a_x - 0.9965786754905472 * y6_b4a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4p_z - 0.0776212895233 * y6_b4p_y)),
-        0.0776212895233 * y6_b4p_z
-            + (0.9965786754905472 * y6_b4p_x + 0.028388007507509954 * y6_b4p_y),
+                    * (0.028388007507509954 * y6_b4a_z - 0.0776212895233 * y6_b4a_y)),
+        0.0776212895233 * y6_b4a_z
+            + (0.9965786754905472 * y6_b4a_x + 0.028388007507509954 * y6_b4a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1748 - t1745;
+    let z_b4b_x = t1748 - t1745;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = t1749 - t1746;
+    let z_b4b_y = t1749 - t1746;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1747 + t1750;
+    let z_b4b_z = t1747 + t1750;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4m = 1.2056566317887352
-        * (0.8840923826341479 * z_b4m_z
-            - (0.21377064521432798 * z_b4m_x + 0.04589463161448898 * z_b4m_y));
+    let j5_cos_b4b = 1.2056566317887352
+        * (0.8840923826341479 * z_b4b_z
+            - (0.21377064521432798 * z_b4b_x + 0.04589463161448898 * z_b4b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4m = 1.2056566317887352
+    let j5_sin_b4b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4m_z - 0.935948806852255 * z_b4m_y)
+            * (0.34229941191058744 * z_b4b_z - 0.935948806852255 * z_b4b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4m_x + 0.08264952242757546 * z_b4m_z)
+                * (0.935948806852255 * z_b4b_x + 0.08264952242757546 * z_b4b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
+                * (0.08264952242757546 * z_b4b_y + 0.34229941191058744 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
     let t1926 = t1780 - t1745;
     let t1927 = t1781 - t1746;
     let t1928 = t1747 + t1782;
@@ -1709,45 +1709,45 @@ fn candidates(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1950;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t871 } else { t1933 * t1953 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t871 } else { t1933 * t1953 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t872 } else { t1947 * t1953 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { t872 } else { t1947 * t1953 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t1969 = t1825 * j4_cos_b4m - t1830 * j4_sin_b4m - t1822;
-    let t1970 = t1823 + (t1826 * j4_cos_b4m - t1833 * j4_sin_b4m);
-    let t1971 = t1827 * j4_cos_b4m + t1836 * j4_sin_b4m - t1824;
+    let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
+    let t1969 = t1825 * j4_cos_b4b - t1830 * j4_sin_b4b - t1822;
+    let t1970 = t1823 + (t1826 * j4_cos_b4b - t1833 * j4_sin_b4b);
+    let t1971 = t1827 * j4_cos_b4b + t1836 * j4_sin_b4b - t1824;
     let t1976 = 0.12555760611043656 * t1971
         + (0.3174776227989252 * t1969 + 0.9399166168175558 * t1970);
     let t1977 = 0.3174776227989252 * t1976;
     let t1978 = 0.9399166168175558 * t1976;
     let t1979 = 0.12555760611043656 * t1976;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t1977
-        + (j5_cos_b4m * (t1969 - t1977)
-            - j5_sin_b4m * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
+    let y6_b4b_x = t1977
+        + (j5_cos_b4b * (t1969 - t1977)
+            - j5_sin_b4b * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = t1978
-        + (j5_cos_b4m * (t1970 - t1978)
-            - j5_sin_b4m * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
+    let y6_b4b_y = t1978
+        + (j5_cos_b4b * (t1970 - t1978)
+            - j5_sin_b4b * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = t1979
-        + (j5_cos_b4m * (t1971 - t1979)
-            - j5_sin_b4m * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
+    let y6_b4b_z = t1979
+        + (j5_cos_b4b * (t1971 - t1979)
+            - j5_sin_b4b * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4m = ::armforge_runtime::math::atan2(
+    let q6_b4b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4m_y - 0.028388007507509954 * y6_b4m_x)
+            * (0.9965786754905472 * y6_b4b_y - 0.028388007507509954 * y6_b4b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4m_x - 0.9965786754905472 * y6_b4m_z)
+                * (0.0776212895233 * y6_b4b_x - 0.9965786754905472 * y6_b4b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4m_z - 0.0776212895233 * y6_b4m_y)),
-        0.0776212895233 * y6_b4m_z
-            + (0.9965786754905472 * y6_b4m_x + 0.028388007507509954 * y6_b4m_y),
+                    * (0.028388007507509954 * y6_b4b_z - 0.0776212895233 * y6_b4b_y)),
+        0.0776212895233 * y6_b4b_z
+            + (0.9965786754905472 * y6_b4b_x + 0.028388007507509954 * y6_b4b_y),
     );
     [
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1761,7 +1761,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1775,7 +1775,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+            model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1789,7 +1789,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1803,7 +1803,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1817,7 +1817,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1831,7 +1831,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+            model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Facing,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1845,7 +1845,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_p,
+                    have_squared: d2_a,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1859,7 +1859,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1873,7 +1873,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1887,7 +1887,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+            model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Extended,
@@ -1901,7 +1901,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1915,7 +1915,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1929,7 +1929,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -1943,7 +1943,7 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
         ::armforge_runtime::internal::Candidate {
-            model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+            model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
             branch: ::armforge_runtime::Branch {
                 shoulder: ::armforge_runtime::Shoulder::Across,
                 elbow: ::armforge_runtime::Elbow::Retracted,
@@ -1957,7 +1957,7 @@ fn candidates(
                 },
                 ::armforge_runtime::internal::Check {
                     kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                    have_squared: d2_m,
+                    have_squared: d2_b,
                     limit: 0.23592042628732238,
                 },
                 ::armforge_runtime::internal::Check {
@@ -2070,16 +2070,16 @@ fn branch_1(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2088,59 +2088,59 @@ fn branch_1(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_p = 8.539556986014195e-20 - d2_p;
+    let pivot_a = 8.539556986014195e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.2750702190093362;
-    let t237 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t239 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t240 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t245 = w_p_z * t240 + (w_p_x * t237 - w_p_y * t239);
-    let t259 = 0.22438759210189282 * (w_p_x * t240 - w_p_z * t237)
-        - 0.919348671064388 * (w_p_z * t239 + w_p_y * t240)
-        - 0.32318451312347624 * (w_p_y * t237 + w_p_x * t239);
+    let q3_aa = j3_root_a - 0.2750702190093362;
+    let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t239 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t240 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t245 = w_a_z * t240 + (w_a_x * t237 - w_a_y * t239);
+    let t259 = 0.22438759210189282 * (w_a_x * t240 - w_a_z * t237)
+        - 0.919348671064388 * (w_a_z * t239 + w_a_y * t240)
+        - 0.32318451312347624 * (w_a_y * t237 + w_a_x * t239);
     let t262 = t245 * t245 + t259 * t259;
     let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
     let t269 = t262 - 1e-300;
-    let t272 = if pivot_p >= 0.0 {
+    let t272 = if pivot_a >= 0.0 {
         0.6095997719011829
     } else {
         if t269 >= 0.0 { t245 * t266 } else { 1.0 }
     };
-    let t273 = if pivot_p >= 0.0 {
+    let t273 = if pivot_a >= 0.0 {
         -0.7927093528513625
     } else {
         if t269 >= 0.0 { t259 * t266 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_pp = ::armforge_runtime::math::atan2(t273, t272);
+    let q2_aa = ::armforge_runtime::math::atan2(t273, t272);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -2177,28 +2177,28 @@ fn branch_1(
     let t471 = 0.553647671333485 * t469;
     let t472 = 0.2455648081179022 * t469;
     let t494 = t470
-        + (j1_cos_p * (g6_x - t470)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t470)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t495 = t471
-        + (j1_cos_p * (g6_y - t471)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t471)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t496 = t472
-        + (j1_cos_p * (g6_z - t472)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t472)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t502 = 0.7957211704114873 * t501;
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t526 = t502
-        + (j1_cos_p * (gx_x - t502)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t502)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t527 = t503
-        + (j1_cos_p * (gx_y - t503)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t503)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t528 = t504
-        + (j1_cos_p * (gx_z - t504)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t504)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
         - 0.32318451312347624 * t496;
     let t534 = 0.919348671064388 * t533;
@@ -2257,25 +2257,25 @@ fn branch_1(
     let t648 = 0.030542838068628286 * j5_gamma_b1;
     let t650 = 0.8275343040933489 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t647 + (t642 - 0.8362137090354541 * t603);
+    let z_b1a_x = t647 + (t642 - 0.8362137090354541 * t603);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t648 + (1.0379846701062043 * t603 + t643);
+    let z_b1a_y = t648 + (1.0379846701062043 * t603 + t643);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t644 - 0.2010269164374744 * t603 - t650;
+    let z_b1a_z = t644 - 0.2010269164374744 * t603 - t650;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1p = 1.2056566317887352
-        * (0.8840923826341479 * z_b1p_z
-            - (0.21377064521432798 * z_b1p_x + 0.04589463161448898 * z_b1p_y));
+    let j5_cos_b1a = 1.2056566317887352
+        * (0.8840923826341479 * z_b1a_z
+            - (0.21377064521432798 * z_b1a_x + 0.04589463161448898 * z_b1a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1p = 1.2056566317887352
+    let j5_sin_b1a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1p_z - 0.935948806852255 * z_b1p_y)
+            * (0.34229941191058744 * z_b1a_z - 0.935948806852255 * z_b1a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1p_x + 0.08264952242757546 * z_b1p_z)
+                * (0.935948806852255 * z_b1a_x + 0.08264952242757546 * z_b1a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
+                * (0.08264952242757546 * z_b1a_y + 0.34229941191058744 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
+    let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
     let t686 = j5_alpha_b1 - j5_a_b1;
     let t693 = t647 + (t642 - 0.620341126105259 * t686);
     let t694 = t648 + (t643 + 0.7700239450467775 * t686);
@@ -2289,25 +2289,25 @@ fn branch_1(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1 = 1.0000000000000001e-40 - t717;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
+    let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
     let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
     let t733 = 0.620341126105259 * t732;
     let t734 = 0.7700239450467775 * t732;
     let t735 = 0.14913085300184115 * t732;
-    let t757 = j4_cos_b1p * (xv_b1_x + t733)
-        - j4_sin_b1p * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
+    let t757 = j4_cos_b1a * (xv_b1_x + t733)
+        - j4_sin_b1a * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
         - t733;
     let t758 = t734
-        + (j4_cos_b1p * (xv_b1_y - t734)
-            - j4_sin_b1p
+        + (j4_cos_b1a * (xv_b1_y - t734)
+            - j4_sin_b1a
                 * (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x));
-    let t759 = j4_cos_b1p * (xv_b1_z + t735)
-        + j4_sin_b1p * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
+    let t759 = j4_cos_b1a * (xv_b1_z + t735)
+        + j4_sin_b1a * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
         - t735;
     let t764 = 0.12555760611043656 * t759
         + (0.3174776227989252 * t757 + 0.9399166168175558 * t758);
@@ -2315,30 +2315,30 @@ fn branch_1(
     let t766 = 0.9399166168175558 * t764;
     let t767 = 0.12555760611043656 * t764;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t765
-        + (j5_cos_b1p * (t757 - t765)
-            - j5_sin_b1p * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
+    let y6_b1a_x = t765
+        + (j5_cos_b1a * (t757 - t765)
+            - j5_sin_b1a * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t766
-        + (j5_cos_b1p * (t758 - t766)
-            - j5_sin_b1p * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
+    let y6_b1a_y = t766
+        + (j5_cos_b1a * (t758 - t766)
+            - j5_sin_b1a * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t767
-        + (j5_cos_b1p * (t759 - t767)
-            - j5_sin_b1p * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
+    let y6_b1a_z = t767
+        + (j5_cos_b1a * (t759 - t767)
+            - j5_sin_b1a * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1p = ::armforge_runtime::math::atan2(
+    let q6_b1a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1p_y - 0.028388007507509954 * y6_b1p_x)
+            * (0.9965786754905472 * y6_b1a_y - 0.028388007507509954 * y6_b1a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1p_x - 0.9965786754905472 * y6_b1p_z)
+                * (0.0776212895233 * y6_b1a_x - 0.9965786754905472 * y6_b1a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1p_z - 0.0776212895233 * y6_b1p_y)),
-        0.0776212895233 * y6_b1p_z
-            + (0.9965786754905472 * y6_b1p_x + 0.028388007507509954 * y6_b1p_y),
+                    * (0.028388007507509954 * y6_b1a_z - 0.0776212895233 * y6_b1a_y)),
+        0.0776212895233 * y6_b1a_z
+            + (0.9965786754905472 * y6_b1a_x + 0.028388007507509954 * y6_b1a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1p, q5_b1p, q6_b1p],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1a, q5_b1a, q6_b1a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -2352,7 +2352,7 @@ fn branch_1(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -2441,16 +2441,16 @@ fn branch_2(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2459,59 +2459,59 @@ fn branch_2(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_p = 8.539556986014195e-20 - d2_p;
+    let pivot_a = 8.539556986014195e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pp = j3_root_p - 0.2750702190093362;
-    let t237 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t239 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t240 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t245 = w_p_z * t240 + (w_p_x * t237 - w_p_y * t239);
-    let t259 = 0.22438759210189282 * (w_p_x * t240 - w_p_z * t237)
-        - 0.919348671064388 * (w_p_z * t239 + w_p_y * t240)
-        - 0.32318451312347624 * (w_p_y * t237 + w_p_x * t239);
+    let q3_aa = j3_root_a - 0.2750702190093362;
+    let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t239 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t240 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t245 = w_a_z * t240 + (w_a_x * t237 - w_a_y * t239);
+    let t259 = 0.22438759210189282 * (w_a_x * t240 - w_a_z * t237)
+        - 0.919348671064388 * (w_a_z * t239 + w_a_y * t240)
+        - 0.32318451312347624 * (w_a_y * t237 + w_a_x * t239);
     let t262 = t245 * t245 + t259 * t259;
     let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
     let t269 = t262 - 1e-300;
-    let t272 = if pivot_p >= 0.0 {
+    let t272 = if pivot_a >= 0.0 {
         0.6095997719011829
     } else {
         if t269 >= 0.0 { t245 * t266 } else { 1.0 }
     };
-    let t273 = if pivot_p >= 0.0 {
+    let t273 = if pivot_a >= 0.0 {
         -0.7927093528513625
     } else {
         if t269 >= 0.0 { t259 * t266 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_pp = ::armforge_runtime::math::atan2(t273, t272);
+    let q2_aa = ::armforge_runtime::math::atan2(t273, t272);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -2548,28 +2548,28 @@ fn branch_2(
     let t471 = 0.553647671333485 * t469;
     let t472 = 0.2455648081179022 * t469;
     let t494 = t470
-        + (j1_cos_p * (g6_x - t470)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t470)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t495 = t471
-        + (j1_cos_p * (g6_y - t471)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t471)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t496 = t472
-        + (j1_cos_p * (g6_z - t472)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t472)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t502 = 0.7957211704114873 * t501;
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t526 = t502
-        + (j1_cos_p * (gx_x - t502)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t502)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t527 = t503
-        + (j1_cos_p * (gx_y - t503)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t503)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t528 = t504
-        + (j1_cos_p * (gx_z - t504)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t504)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
         - 0.32318451312347624 * t496;
     let t534 = 0.919348671064388 * t533;
@@ -2634,25 +2634,25 @@ fn branch_2(
     let t734 = 0.7700239450467775 * t732;
     let t735 = 0.14913085300184115 * t732;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t642 - 0.8362137090354541 * t603 - t647;
+    let z_b1b_x = t642 - 0.8362137090354541 * t603 - t647;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 1.0379846701062043 * t603 + t643 - t648;
+    let z_b1b_y = 1.0379846701062043 * t603 + t643 - t648;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t650 + (t644 - 0.2010269164374744 * t603);
+    let z_b1b_z = t650 + (t644 - 0.2010269164374744 * t603);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b1m = 1.2056566317887352
-        * (0.8840923826341479 * z_b1m_z
-            - (0.21377064521432798 * z_b1m_x + 0.04589463161448898 * z_b1m_y));
+    let j5_cos_b1b = 1.2056566317887352
+        * (0.8840923826341479 * z_b1b_z
+            - (0.21377064521432798 * z_b1b_x + 0.04589463161448898 * z_b1b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b1m = 1.2056566317887352
+    let j5_sin_b1b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b1m_z - 0.935948806852255 * z_b1m_y)
+            * (0.34229941191058744 * z_b1b_z - 0.935948806852255 * z_b1b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b1m_x + 0.08264952242757546 * z_b1m_z)
+                * (0.935948806852255 * z_b1b_x + 0.08264952242757546 * z_b1b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
+                * (0.08264952242757546 * z_b1b_y + 0.34229941191058744 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
+    let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
     let t840 = t642 - 0.620341126105259 * t686 - t647;
     let t841 = t643 + 0.7700239450467775 * t686 - t648;
     let t842 = t650 + (t644 - 0.14913085300184115 * t686);
@@ -2665,20 +2665,20 @@ fn branch_2(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b1_2 = 1.0000000000000001e-40 - t864;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t847 * t867 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t847 * t867 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t861 * t867 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t861 * t867 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t885 = (xv_b1_x + t733) * j4_cos_b1m
-        - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1m
+    let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
+    let t885 = (xv_b1_x + t733) * j4_cos_b1b
+        - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1b
         - t733;
     let t886 = t734
-        + ((xv_b1_y - t734) * j4_cos_b1m
+        + ((xv_b1_y - t734) * j4_cos_b1b
             - (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x)
-                * j4_sin_b1m);
-    let t887 = (xv_b1_z + t735) * j4_cos_b1m
-        + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1m
+                * j4_sin_b1b);
+    let t887 = (xv_b1_z + t735) * j4_cos_b1b
+        + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1b
         - t735;
     let t892 = 0.12555760611043656 * t887
         + (0.3174776227989252 * t885 + 0.9399166168175558 * t886);
@@ -2686,30 +2686,30 @@ fn branch_2(
     let t894 = 0.9399166168175558 * t892;
     let t895 = 0.12555760611043656 * t892;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t893
-        + (j5_cos_b1m * (t885 - t893)
-            - j5_sin_b1m * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
+    let y6_b1b_x = t893
+        + (j5_cos_b1b * (t885 - t893)
+            - j5_sin_b1b * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t894
-        + (j5_cos_b1m * (t886 - t894)
-            - j5_sin_b1m * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
+    let y6_b1b_y = t894
+        + (j5_cos_b1b * (t886 - t894)
+            - j5_sin_b1b * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t895
-        + (j5_cos_b1m * (t887 - t895)
-            - j5_sin_b1m * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
+    let y6_b1b_z = t895
+        + (j5_cos_b1b * (t887 - t895)
+            - j5_sin_b1b * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b1m = ::armforge_runtime::math::atan2(
+    let q6_b1b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b1m_y - 0.028388007507509954 * y6_b1m_x)
+            * (0.9965786754905472 * y6_b1b_y - 0.028388007507509954 * y6_b1b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b1m_x - 0.9965786754905472 * y6_b1m_z)
+                * (0.0776212895233 * y6_b1b_x - 0.9965786754905472 * y6_b1b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b1m_z - 0.0776212895233 * y6_b1m_y)),
-        0.0776212895233 * y6_b1m_z
-            + (0.9965786754905472 * y6_b1m_x + 0.028388007507509954 * y6_b1m_y),
+                    * (0.028388007507509954 * y6_b1b_z - 0.0776212895233 * y6_b1b_y)),
+        0.0776212895233 * y6_b1b_z
+            + (0.9965786754905472 * y6_b1b_x + 0.028388007507509954 * y6_b1b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pp, q3_pp, q4_b1m, q5_b1m, q6_b1m],
+        model_values: [q1_a, q2_aa, q3_aa, q4_b1b, q5_b1b, q6_b1b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -2723,7 +2723,7 @@ fn branch_2(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -2812,16 +2812,16 @@ fn branch_3(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -2830,59 +2830,59 @@ fn branch_3(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_p = 8.539556986014195e-20 - d2_p;
+    let pivot_a = 8.539556986014195e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t279 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t280 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t281 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t286 = w_p_z * t281 + (w_p_x * t279 - w_p_y * t280);
-    let t300 = 0.22438759210189282 * (w_p_x * t281 - w_p_z * t279)
-        - 0.919348671064388 * (w_p_z * t280 + w_p_y * t281)
-        - 0.32318451312347624 * (w_p_y * t279 + w_p_x * t280);
+    let q3_ab = -0.2750702190093362 - j3_root_a;
+    let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t280 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t281 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t286 = w_a_z * t281 + (w_a_x * t279 - w_a_y * t280);
+    let t300 = 0.22438759210189282 * (w_a_x * t281 - w_a_z * t279)
+        - 0.919348671064388 * (w_a_z * t280 + w_a_y * t281)
+        - 0.32318451312347624 * (w_a_y * t279 + w_a_x * t280);
     let t303 = t286 * t286 + t300 * t300;
     let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
     let t309 = t303 - 1e-300;
-    let t312 = if pivot_p >= 0.0 {
+    let t312 = if pivot_a >= 0.0 {
         0.6095997719011829
     } else {
         if t309 >= 0.0 { t286 * t306 } else { 1.0 }
     };
-    let t313 = if pivot_p >= 0.0 {
+    let t313 = if pivot_a >= 0.0 {
         -0.7927093528513625
     } else {
         if t309 >= 0.0 { t300 * t306 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_pm = ::armforge_runtime::math::atan2(t313, t312);
+    let q2_ab = ::armforge_runtime::math::atan2(t313, t312);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -2919,28 +2919,28 @@ fn branch_3(
     let t471 = 0.553647671333485 * t469;
     let t472 = 0.2455648081179022 * t469;
     let t494 = t470
-        + (j1_cos_p * (g6_x - t470)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t470)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t495 = t471
-        + (j1_cos_p * (g6_y - t471)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t471)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t496 = t472
-        + (j1_cos_p * (g6_z - t472)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t472)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t502 = 0.7957211704114873 * t501;
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t526 = t502
-        + (j1_cos_p * (gx_x - t502)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t502)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t527 = t503
-        + (j1_cos_p * (gx_y - t503)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t503)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t528 = t504
-        + (j1_cos_p * (gx_z - t504)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t504)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
         - 0.32318451312347624 * t496;
     let t534 = 0.919348671064388 * t533;
@@ -2999,25 +2999,25 @@ fn branch_3(
     let t1002 = 0.030542838068628286 * j5_gamma_b2;
     let t1003 = 0.8275343040933489 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t1001 + (t998 - 0.8362137090354541 * t969);
+    let z_b2a_x = t1001 + (t998 - 0.8362137090354541 * t969);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t1002 + (1.0379846701062043 * t969 + t999);
+    let z_b2a_y = t1002 + (1.0379846701062043 * t969 + t999);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t1000 - 0.2010269164374744 * t969 - t1003;
+    let z_b2a_z = t1000 - 0.2010269164374744 * t969 - t1003;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2p = 1.2056566317887352
-        * (0.8840923826341479 * z_b2p_z
-            - (0.21377064521432798 * z_b2p_x + 0.04589463161448898 * z_b2p_y));
+    let j5_cos_b2a = 1.2056566317887352
+        * (0.8840923826341479 * z_b2a_z
+            - (0.21377064521432798 * z_b2a_x + 0.04589463161448898 * z_b2a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2p = 1.2056566317887352
+    let j5_sin_b2a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2p_z - 0.935948806852255 * z_b2p_y)
+            * (0.34229941191058744 * z_b2a_z - 0.935948806852255 * z_b2a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2p_x + 0.08264952242757546 * z_b2p_z)
+                * (0.935948806852255 * z_b2a_x + 0.08264952242757546 * z_b2a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
+                * (0.08264952242757546 * z_b2a_y + 0.34229941191058744 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
+    let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
     let t1032 = j5_alpha_b2 - j5_a_b2;
     let t1039 = t1001 + (t998 - 0.620341126105259 * t1032);
     let t1040 = t1002 + (t999 + 0.7700239450467775 * t1032);
@@ -3031,25 +3031,25 @@ fn branch_3(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2 = 1.0000000000000001e-40 - t1063;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
+    let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
     let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
     let t1078 = 0.620341126105259 * t1077;
     let t1079 = 0.7700239450467775 * t1077;
     let t1080 = 0.14913085300184115 * t1077;
-    let t1102 = j4_cos_b2p * (xv_b2_x + t1078)
-        - j4_sin_b2p * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
+    let t1102 = j4_cos_b2a * (xv_b2_x + t1078)
+        - j4_sin_b2a * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
         - t1078;
     let t1103 = t1079
-        + (j4_cos_b2p * (xv_b2_y - t1079)
-            - j4_sin_b2p
+        + (j4_cos_b2a * (xv_b2_y - t1079)
+            - j4_sin_b2a
                 * (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x));
-    let t1104 = j4_cos_b2p * (xv_b2_z + t1080)
-        + j4_sin_b2p * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
+    let t1104 = j4_cos_b2a * (xv_b2_z + t1080)
+        + j4_sin_b2a * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
         - t1080;
     let t1109 = 0.12555760611043656 * t1104
         + (0.3174776227989252 * t1102 + 0.9399166168175558 * t1103);
@@ -3057,30 +3057,30 @@ fn branch_3(
     let t1111 = 0.9399166168175558 * t1109;
     let t1112 = 0.12555760611043656 * t1109;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1110
-        + (j5_cos_b2p * (t1102 - t1110)
-            - j5_sin_b2p * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
+    let y6_b2a_x = t1110
+        + (j5_cos_b2a * (t1102 - t1110)
+            - j5_sin_b2a * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t1111
-        + (j5_cos_b2p * (t1103 - t1111)
-            - j5_sin_b2p * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
+    let y6_b2a_y = t1111
+        + (j5_cos_b2a * (t1103 - t1111)
+            - j5_sin_b2a * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t1112
-        + (j5_cos_b2p * (t1104 - t1112)
-            - j5_sin_b2p * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
+    let y6_b2a_z = t1112
+        + (j5_cos_b2a * (t1104 - t1112)
+            - j5_sin_b2a * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2p = ::armforge_runtime::math::atan2(
+    let q6_b2a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2p_y - 0.028388007507509954 * y6_b2p_x)
+            * (0.9965786754905472 * y6_b2a_y - 0.028388007507509954 * y6_b2a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2p_x - 0.9965786754905472 * y6_b2p_z)
+                * (0.0776212895233 * y6_b2a_x - 0.9965786754905472 * y6_b2a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2p_z - 0.0776212895233 * y6_b2p_y)),
-        0.0776212895233 * y6_b2p_z
-            + (0.9965786754905472 * y6_b2p_x + 0.028388007507509954 * y6_b2p_y),
+                    * (0.028388007507509954 * y6_b2a_z - 0.0776212895233 * y6_b2a_y)),
+        0.0776212895233 * y6_b2a_z
+            + (0.9965786754905472 * y6_b2a_x + 0.028388007507509954 * y6_b2a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2p, q5_b2p, q6_b2p],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2a, q5_b2a, q6_b2a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -3094,7 +3094,7 @@ fn branch_3(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -3183,16 +3183,16 @@ fn branch_4(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
-    let j1_cos_p = if j1_free >= 0.0 {
+    let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e - j1_b * j1_k)
     };
     // sin θ = (b e + a k) / r²  (σ = +1)
-    let j1_sin_p = if j1_free >= 0.0 {
+    let j1_sin_a = if j1_free >= 0.0 {
         ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e + j1_a * j1_k)
@@ -3201,59 +3201,59 @@ fn branch_4(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_p_x = t133
-        + (j1_cos_p * (u_x - t133)
-            - j1_sin_p * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_a_x = t133
+        + (j1_cos_a * (u_x - t133)
+            - j1_sin_a * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_p_y = t134
-        + (j1_cos_p * (u_y - t134)
-            - j1_sin_p * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_a_y = t134
+        + (j1_cos_a * (u_y - t134)
+            - j1_sin_a * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_p_z = t135
-        + (j1_cos_p * (u_z - t135)
-            - j1_sin_p * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_a_z = t135
+        + (j1_cos_a * (u_z - t135)
+            - j1_sin_a * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t173 = 0.919348671064388 * w_p_x + 0.22438759210189282 * w_p_y
-        - 0.32318451312347624 * w_p_z;
-    let t177 = w_p_x - 0.919348671064388 * t173;
-    let t178 = w_p_y - 0.22438759210189282 * t173;
-    let t179 = w_p_z + 0.32318451312347624 * t173;
+    let t173 = 0.919348671064388 * w_a_x + 0.22438759210189282 * w_a_y
+        - 0.32318451312347624 * w_a_z;
+    let t177 = w_a_x - 0.919348671064388 * t173;
+    let t178 = w_a_y - 0.22438759210189282 * t173;
+    let t179 = w_a_z + 0.32318451312347624 * t173;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_p = t179 * t179 + (t177 * t177 + t178 * t178);
+    let d2_a = t179 * t179 + (t177 * t177 + t178 * t178);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
+    let q1_a = ::armforge_runtime::math::atan2(j1_sin_a, j1_cos_a);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_p = ::armforge_runtime::math::sqrt(
-        (d2_p - 0.05565844753959191).max(0.0),
+    let j3_root_a = ::armforge_runtime::math::sqrt(
+        (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_p = 8.539556986014195e-20 - d2_p;
+    let pivot_a = 8.539556986014195e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t279 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t280 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t281 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t286 = w_p_z * t281 + (w_p_x * t279 - w_p_y * t280);
-    let t300 = 0.22438759210189282 * (w_p_x * t281 - w_p_z * t279)
-        - 0.919348671064388 * (w_p_z * t280 + w_p_y * t281)
-        - 0.32318451312347624 * (w_p_y * t279 + w_p_x * t280);
+    let q3_ab = -0.2750702190093362 - j3_root_a;
+    let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t280 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t281 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t286 = w_a_z * t281 + (w_a_x * t279 - w_a_y * t280);
+    let t300 = 0.22438759210189282 * (w_a_x * t281 - w_a_z * t279)
+        - 0.919348671064388 * (w_a_z * t280 + w_a_y * t281)
+        - 0.32318451312347624 * (w_a_y * t279 + w_a_x * t280);
     let t303 = t286 * t286 + t300 * t300;
     let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
     let t309 = t303 - 1e-300;
-    let t312 = if pivot_p >= 0.0 {
+    let t312 = if pivot_a >= 0.0 {
         0.6095997719011829
     } else {
         if t309 >= 0.0 { t286 * t306 } else { 1.0 }
     };
-    let t313 = if pivot_p >= 0.0 {
+    let t313 = if pivot_a >= 0.0 {
         -0.7927093528513625
     } else {
         if t309 >= 0.0 { t300 * t306 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_pm = ::armforge_runtime::math::atan2(t313, t312);
+    let q2_ab = ::armforge_runtime::math::atan2(t313, t312);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -3290,28 +3290,28 @@ fn branch_4(
     let t471 = 0.553647671333485 * t469;
     let t472 = 0.2455648081179022 * t469;
     let t494 = t470
-        + (j1_cos_p * (g6_x - t470)
-            - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_a * (g6_x - t470)
+            - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t495 = t471
-        + (j1_cos_p * (g6_y - t471)
-            - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_a * (g6_y - t471)
+            - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t496 = t472
-        + (j1_cos_p * (g6_z - t472)
-            - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_a * (g6_z - t472)
+            - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
     let t502 = 0.7957211704114873 * t501;
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t526 = t502
-        + (j1_cos_p * (gx_x - t502)
-            - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_a * (gx_x - t502)
+            - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t527 = t503
-        + (j1_cos_p * (gx_y - t503)
-            - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_a * (gx_y - t503)
+            - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t528 = t504
-        + (j1_cos_p * (gx_z - t504)
-            - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_a * (gx_z - t504)
+            - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
         - 0.32318451312347624 * t496;
     let t534 = 0.919348671064388 * t533;
@@ -3376,25 +3376,25 @@ fn branch_4(
     let t1079 = 0.7700239450467775 * t1077;
     let t1080 = 0.14913085300184115 * t1077;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t998 - 0.8362137090354541 * t969 - t1001;
+    let z_b2b_x = t998 - 0.8362137090354541 * t969 - t1001;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 1.0379846701062043 * t969 + t999 - t1002;
+    let z_b2b_y = 1.0379846701062043 * t969 + t999 - t1002;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t1003 + (t1000 - 0.2010269164374744 * t969);
+    let z_b2b_z = t1003 + (t1000 - 0.2010269164374744 * t969);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b2m = 1.2056566317887352
-        * (0.8840923826341479 * z_b2m_z
-            - (0.21377064521432798 * z_b2m_x + 0.04589463161448898 * z_b2m_y));
+    let j5_cos_b2b = 1.2056566317887352
+        * (0.8840923826341479 * z_b2b_z
+            - (0.21377064521432798 * z_b2b_x + 0.04589463161448898 * z_b2b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b2m = 1.2056566317887352
+    let j5_sin_b2b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b2m_z - 0.935948806852255 * z_b2m_y)
+            * (0.34229941191058744 * z_b2b_z - 0.935948806852255 * z_b2b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b2m_x + 0.08264952242757546 * z_b2m_z)
+                * (0.935948806852255 * z_b2b_x + 0.08264952242757546 * z_b2b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
+                * (0.08264952242757546 * z_b2b_y + 0.34229941191058744 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
+    let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
     let t1182 = t998 - 0.620341126105259 * t1032 - t1001;
     let t1183 = t999 + 0.7700239450467775 * t1032 - t1002;
     let t1184 = t1003 + (t1000 - 0.14913085300184115 * t1032);
@@ -3407,20 +3407,20 @@ fn branch_4(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b2_2 = 1.0000000000000001e-40 - t1206;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1189 * t1209 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1189 * t1209 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1203 * t1209 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1203 * t1209 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1225 = (xv_b2_x + t1078) * j4_cos_b2m
-        - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2m
+    let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
+    let t1225 = (xv_b2_x + t1078) * j4_cos_b2b
+        - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2b
         - t1078;
     let t1226 = t1079
-        + ((xv_b2_y - t1079) * j4_cos_b2m
+        + ((xv_b2_y - t1079) * j4_cos_b2b
             - (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x)
-                * j4_sin_b2m);
-    let t1227 = (xv_b2_z + t1080) * j4_cos_b2m
-        + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2m
+                * j4_sin_b2b);
+    let t1227 = (xv_b2_z + t1080) * j4_cos_b2b
+        + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2b
         - t1080;
     let t1232 = 0.12555760611043656 * t1227
         + (0.3174776227989252 * t1225 + 0.9399166168175558 * t1226);
@@ -3428,30 +3428,30 @@ fn branch_4(
     let t1234 = 0.9399166168175558 * t1232;
     let t1235 = 0.12555760611043656 * t1232;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1233
-        + (j5_cos_b2m * (t1225 - t1233)
-            - j5_sin_b2m * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
+    let y6_b2b_x = t1233
+        + (j5_cos_b2b * (t1225 - t1233)
+            - j5_sin_b2b * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = t1234
-        + (j5_cos_b2m * (t1226 - t1234)
-            - j5_sin_b2m * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
+    let y6_b2b_y = t1234
+        + (j5_cos_b2b * (t1226 - t1234)
+            - j5_sin_b2b * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1235
-        + (j5_cos_b2m * (t1227 - t1235)
-            - j5_sin_b2m * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
+    let y6_b2b_z = t1235
+        + (j5_cos_b2b * (t1227 - t1235)
+            - j5_sin_b2b * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b2m = ::armforge_runtime::math::atan2(
+    let q6_b2b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b2m_y - 0.028388007507509954 * y6_b2m_x)
+            * (0.9965786754905472 * y6_b2b_y - 0.028388007507509954 * y6_b2b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b2m_x - 0.9965786754905472 * y6_b2m_z)
+                * (0.0776212895233 * y6_b2b_x - 0.9965786754905472 * y6_b2b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b2m_z - 0.0776212895233 * y6_b2m_y)),
-        0.0776212895233 * y6_b2m_z
-            + (0.9965786754905472 * y6_b2m_x + 0.028388007507509954 * y6_b2m_y),
+                    * (0.028388007507509954 * y6_b2b_z - 0.0776212895233 * y6_b2b_y)),
+        0.0776212895233 * y6_b2b_z
+            + (0.9965786754905472 * y6_b2b_x + 0.028388007507509954 * y6_b2b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_p, q2_pm, q3_pm, q4_b2m, q5_b2m, q6_b2m],
+        model_values: [q1_a, q2_ab, q3_ab, q4_b2b, q5_b2b, q6_b2b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Facing,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -3465,7 +3465,7 @@ fn branch_4(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_p,
+                have_squared: d2_a,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -3554,16 +3554,16 @@ fn branch_5(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3572,59 +3572,59 @@ fn branch_5(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_m = 8.539556986014195e-20 - d2_m;
+    let pivot_b = 8.539556986014195e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.2750702190093362;
-    let t323 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t324 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t325 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t330 = w_m_z * t325 + (w_m_x * t323 - w_m_y * t324);
-    let t344 = 0.22438759210189282 * (w_m_x * t325 - w_m_z * t323)
-        - 0.919348671064388 * (w_m_z * t324 + w_m_y * t325)
-        - 0.32318451312347624 * (w_m_y * t323 + w_m_x * t324);
+    let q3_ba = j3_root_b - 0.2750702190093362;
+    let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t324 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t325 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t330 = w_b_z * t325 + (w_b_x * t323 - w_b_y * t324);
+    let t344 = 0.22438759210189282 * (w_b_x * t325 - w_b_z * t323)
+        - 0.919348671064388 * (w_b_z * t324 + w_b_y * t325)
+        - 0.32318451312347624 * (w_b_y * t323 + w_b_x * t324);
     let t347 = t330 * t330 + t344 * t344;
     let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
     let t353 = t347 - 1e-300;
-    let t356 = if pivot_m >= 0.0 {
+    let t356 = if pivot_b >= 0.0 {
         0.6095997719011829
     } else {
         if t353 >= 0.0 { t330 * t350 } else { 1.0 }
     };
-    let t357 = if pivot_m >= 0.0 {
+    let t357 = if pivot_b >= 0.0 {
         -0.7927093528513625
     } else {
         if t353 >= 0.0 { t344 * t350 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_mp = ::armforge_runtime::math::atan2(t357, t356);
+    let q2_ba = ::armforge_runtime::math::atan2(t357, t356);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -3666,23 +3666,23 @@ fn branch_5(
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t1289 = t470
-        + (j1_cos_m * (g6_x - t470)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t470)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1290 = t471
-        + (j1_cos_m * (g6_y - t471)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t471)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1291 = t472
-        + (j1_cos_m * (g6_z - t472)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t472)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1301 = t502
-        + (j1_cos_m * (gx_x - t502)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t502)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1302 = t503
-        + (j1_cos_m * (gx_y - t503)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t503)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1303 = t504
-        + (j1_cos_m * (gx_z - t504)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t504)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
         - 0.32318451312347624 * t1291;
     let t1309 = 0.919348671064388 * t1308;
@@ -3741,25 +3741,25 @@ fn branch_5(
     let t1406 = 0.030542838068628286 * j5_gamma_b3;
     let t1407 = 0.8275343040933489 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1405 + (t1402 - 0.8362137090354541 * t1373);
+    let z_b3a_x = t1405 + (t1402 - 0.8362137090354541 * t1373);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1406 + (1.0379846701062043 * t1373 + t1403);
+    let z_b3a_y = t1406 + (1.0379846701062043 * t1373 + t1403);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1404 - 0.2010269164374744 * t1373 - t1407;
+    let z_b3a_z = t1404 - 0.2010269164374744 * t1373 - t1407;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3p = 1.2056566317887352
-        * (0.8840923826341479 * z_b3p_z
-            - (0.21377064521432798 * z_b3p_x + 0.04589463161448898 * z_b3p_y));
+    let j5_cos_b3a = 1.2056566317887352
+        * (0.8840923826341479 * z_b3a_z
+            - (0.21377064521432798 * z_b3a_x + 0.04589463161448898 * z_b3a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3p = 1.2056566317887352
+    let j5_sin_b3a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3p_z - 0.935948806852255 * z_b3p_y)
+            * (0.34229941191058744 * z_b3a_z - 0.935948806852255 * z_b3a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3p_x + 0.08264952242757546 * z_b3p_z)
+                * (0.935948806852255 * z_b3a_x + 0.08264952242757546 * z_b3a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
+                * (0.08264952242757546 * z_b3a_y + 0.34229941191058744 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
+    let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
     let t1436 = j5_alpha_b3 - j5_a_b3;
     let t1443 = t1405 + (t1402 - 0.620341126105259 * t1436);
     let t1444 = t1406 + (t1403 + 0.7700239450467775 * t1436);
@@ -3773,25 +3773,25 @@ fn branch_5(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3 = 1.0000000000000001e-40 - t1467;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
+    let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
     let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
     let t1482 = 0.620341126105259 * t1481;
     let t1483 = 0.7700239450467775 * t1481;
     let t1484 = 0.14913085300184115 * t1481;
-    let t1506 = j4_cos_b3p * (xv_b3_x + t1482)
-        - j4_sin_b3p * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
+    let t1506 = j4_cos_b3a * (xv_b3_x + t1482)
+        - j4_sin_b3a * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
         - t1482;
     let t1507 = t1483
-        + (j4_cos_b3p * (xv_b3_y - t1483)
-            - j4_sin_b3p
+        + (j4_cos_b3a * (xv_b3_y - t1483)
+            - j4_sin_b3a
                 * (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x));
-    let t1508 = j4_cos_b3p * (xv_b3_z + t1484)
-        + j4_sin_b3p * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
+    let t1508 = j4_cos_b3a * (xv_b3_z + t1484)
+        + j4_sin_b3a * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
         - t1484;
     let t1513 = 0.12555760611043656 * t1508
         + (0.3174776227989252 * t1506 + 0.9399166168175558 * t1507);
@@ -3799,30 +3799,30 @@ fn branch_5(
     let t1515 = 0.9399166168175558 * t1513;
     let t1516 = 0.12555760611043656 * t1513;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1514
-        + (j5_cos_b3p * (t1506 - t1514)
-            - j5_sin_b3p * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
+    let y6_b3a_x = t1514
+        + (j5_cos_b3a * (t1506 - t1514)
+            - j5_sin_b3a * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1515
-        + (j5_cos_b3p * (t1507 - t1515)
-            - j5_sin_b3p * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
+    let y6_b3a_y = t1515
+        + (j5_cos_b3a * (t1507 - t1515)
+            - j5_sin_b3a * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1516
-        + (j5_cos_b3p * (t1508 - t1516)
-            - j5_sin_b3p * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
+    let y6_b3a_z = t1516
+        + (j5_cos_b3a * (t1508 - t1516)
+            - j5_sin_b3a * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3p = ::armforge_runtime::math::atan2(
+    let q6_b3a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3p_y - 0.028388007507509954 * y6_b3p_x)
+            * (0.9965786754905472 * y6_b3a_y - 0.028388007507509954 * y6_b3a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3p_x - 0.9965786754905472 * y6_b3p_z)
+                * (0.0776212895233 * y6_b3a_x - 0.9965786754905472 * y6_b3a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3p_z - 0.0776212895233 * y6_b3p_y)),
-        0.0776212895233 * y6_b3p_z
-            + (0.9965786754905472 * y6_b3p_x + 0.028388007507509954 * y6_b3p_y),
+                    * (0.028388007507509954 * y6_b3a_z - 0.0776212895233 * y6_b3a_y)),
+        0.0776212895233 * y6_b3a_z
+            + (0.9965786754905472 * y6_b3a_x + 0.028388007507509954 * y6_b3a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3p, q5_b3p, q6_b3p],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3a, q5_b3a, q6_b3a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -3836,7 +3836,7 @@ fn branch_5(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -3925,16 +3925,16 @@ fn branch_6(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -3943,59 +3943,59 @@ fn branch_6(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_m = 8.539556986014195e-20 - d2_m;
+    let pivot_b = 8.539556986014195e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mp = j3_root_m - 0.2750702190093362;
-    let t323 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t324 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t325 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t330 = w_m_z * t325 + (w_m_x * t323 - w_m_y * t324);
-    let t344 = 0.22438759210189282 * (w_m_x * t325 - w_m_z * t323)
-        - 0.919348671064388 * (w_m_z * t324 + w_m_y * t325)
-        - 0.32318451312347624 * (w_m_y * t323 + w_m_x * t324);
+    let q3_ba = j3_root_b - 0.2750702190093362;
+    let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t324 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t325 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t330 = w_b_z * t325 + (w_b_x * t323 - w_b_y * t324);
+    let t344 = 0.22438759210189282 * (w_b_x * t325 - w_b_z * t323)
+        - 0.919348671064388 * (w_b_z * t324 + w_b_y * t325)
+        - 0.32318451312347624 * (w_b_y * t323 + w_b_x * t324);
     let t347 = t330 * t330 + t344 * t344;
     let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
     let t353 = t347 - 1e-300;
-    let t356 = if pivot_m >= 0.0 {
+    let t356 = if pivot_b >= 0.0 {
         0.6095997719011829
     } else {
         if t353 >= 0.0 { t330 * t350 } else { 1.0 }
     };
-    let t357 = if pivot_m >= 0.0 {
+    let t357 = if pivot_b >= 0.0 {
         -0.7927093528513625
     } else {
         if t353 >= 0.0 { t344 * t350 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_mp = ::armforge_runtime::math::atan2(t357, t356);
+    let q2_ba = ::armforge_runtime::math::atan2(t357, t356);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -4037,23 +4037,23 @@ fn branch_6(
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t1289 = t470
-        + (j1_cos_m * (g6_x - t470)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t470)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1290 = t471
-        + (j1_cos_m * (g6_y - t471)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t471)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1291 = t472
-        + (j1_cos_m * (g6_z - t472)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t472)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1301 = t502
-        + (j1_cos_m * (gx_x - t502)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t502)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1302 = t503
-        + (j1_cos_m * (gx_y - t503)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t503)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1303 = t504
-        + (j1_cos_m * (gx_z - t504)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t504)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
         - 0.32318451312347624 * t1291;
     let t1309 = 0.919348671064388 * t1308;
@@ -4118,25 +4118,25 @@ fn branch_6(
     let t1483 = 0.7700239450467775 * t1481;
     let t1484 = 0.14913085300184115 * t1481;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1402 - 0.8362137090354541 * t1373 - t1405;
+    let z_b3b_x = t1402 - 0.8362137090354541 * t1373 - t1405;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = 1.0379846701062043 * t1373 + t1403 - t1406;
+    let z_b3b_y = 1.0379846701062043 * t1373 + t1403 - t1406;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1407 + (t1404 - 0.2010269164374744 * t1373);
+    let z_b3b_z = t1407 + (t1404 - 0.2010269164374744 * t1373);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b3m = 1.2056566317887352
-        * (0.8840923826341479 * z_b3m_z
-            - (0.21377064521432798 * z_b3m_x + 0.04589463161448898 * z_b3m_y));
+    let j5_cos_b3b = 1.2056566317887352
+        * (0.8840923826341479 * z_b3b_z
+            - (0.21377064521432798 * z_b3b_x + 0.04589463161448898 * z_b3b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b3m = 1.2056566317887352
+    let j5_sin_b3b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b3m_z - 0.935948806852255 * z_b3m_y)
+            * (0.34229941191058744 * z_b3b_z - 0.935948806852255 * z_b3b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b3m_x + 0.08264952242757546 * z_b3m_z)
+                * (0.935948806852255 * z_b3b_x + 0.08264952242757546 * z_b3b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
+                * (0.08264952242757546 * z_b3b_y + 0.34229941191058744 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
+    let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
     let t1586 = t1402 - 0.620341126105259 * t1436 - t1405;
     let t1587 = t1403 + 0.7700239450467775 * t1436 - t1406;
     let t1588 = t1407 + (t1404 - 0.14913085300184115 * t1436);
@@ -4149,20 +4149,20 @@ fn branch_6(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b3_2 = 1.0000000000000001e-40 - t1610;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1593 * t1613 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1593 * t1613 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1607 * t1613 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1607 * t1613 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1629 = (xv_b3_x + t1482) * j4_cos_b3m
-        - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3m
+    let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
+    let t1629 = (xv_b3_x + t1482) * j4_cos_b3b
+        - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3b
         - t1482;
     let t1630 = t1483
-        + ((xv_b3_y - t1483) * j4_cos_b3m
+        + ((xv_b3_y - t1483) * j4_cos_b3b
             - (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x)
-                * j4_sin_b3m);
-    let t1631 = (xv_b3_z + t1484) * j4_cos_b3m
-        + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3m
+                * j4_sin_b3b);
+    let t1631 = (xv_b3_z + t1484) * j4_cos_b3b
+        + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3b
         - t1484;
     let t1636 = 0.12555760611043656 * t1631
         + (0.3174776227989252 * t1629 + 0.9399166168175558 * t1630);
@@ -4170,30 +4170,30 @@ fn branch_6(
     let t1638 = 0.9399166168175558 * t1636;
     let t1639 = 0.12555760611043656 * t1636;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1637
-        + (j5_cos_b3m * (t1629 - t1637)
-            - j5_sin_b3m * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
+    let y6_b3b_x = t1637
+        + (j5_cos_b3b * (t1629 - t1637)
+            - j5_sin_b3b * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = t1638
-        + (j5_cos_b3m * (t1630 - t1638)
-            - j5_sin_b3m * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
+    let y6_b3b_y = t1638
+        + (j5_cos_b3b * (t1630 - t1638)
+            - j5_sin_b3b * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = t1639
-        + (j5_cos_b3m * (t1631 - t1639)
-            - j5_sin_b3m * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
+    let y6_b3b_z = t1639
+        + (j5_cos_b3b * (t1631 - t1639)
+            - j5_sin_b3b * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b3m = ::armforge_runtime::math::atan2(
+    let q6_b3b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b3m_y - 0.028388007507509954 * y6_b3m_x)
+            * (0.9965786754905472 * y6_b3b_y - 0.028388007507509954 * y6_b3b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b3m_x - 0.9965786754905472 * y6_b3m_z)
+                * (0.0776212895233 * y6_b3b_x - 0.9965786754905472 * y6_b3b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b3m_z - 0.0776212895233 * y6_b3m_y)),
-        0.0776212895233 * y6_b3m_z
-            + (0.9965786754905472 * y6_b3m_x + 0.028388007507509954 * y6_b3m_y),
+                    * (0.028388007507509954 * y6_b3b_z - 0.0776212895233 * y6_b3b_y)),
+        0.0776212895233 * y6_b3b_z
+            + (0.9965786754905472 * y6_b3b_x + 0.028388007507509954 * y6_b3b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mp, q3_mp, q4_b3m, q5_b3m, q6_b3m],
+        model_values: [q1_b, q2_ba, q3_ba, q4_b3b, q5_b3b, q6_b3b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Extended,
@@ -4207,7 +4207,7 @@ fn branch_6(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -4296,16 +4296,16 @@ fn branch_7(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4314,59 +4314,59 @@ fn branch_7(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_m = 8.539556986014195e-20 - d2_m;
+    let pivot_b = 8.539556986014195e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t363 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t364 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t365 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t370 = w_m_z * t365 + (w_m_x * t363 - w_m_y * t364);
-    let t384 = 0.22438759210189282 * (w_m_x * t365 - w_m_z * t363)
-        - 0.919348671064388 * (w_m_z * t364 + w_m_y * t365)
-        - 0.32318451312347624 * (w_m_y * t363 + w_m_x * t364);
+    let q3_bb = -0.2750702190093362 - j3_root_b;
+    let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t364 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t365 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t370 = w_b_z * t365 + (w_b_x * t363 - w_b_y * t364);
+    let t384 = 0.22438759210189282 * (w_b_x * t365 - w_b_z * t363)
+        - 0.919348671064388 * (w_b_z * t364 + w_b_y * t365)
+        - 0.32318451312347624 * (w_b_y * t363 + w_b_x * t364);
     let t387 = t370 * t370 + t384 * t384;
     let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
     let t393 = t387 - 1e-300;
-    let t396 = if pivot_m >= 0.0 {
+    let t396 = if pivot_b >= 0.0 {
         0.6095997719011829
     } else {
         if t393 >= 0.0 { t370 * t390 } else { 1.0 }
     };
-    let t397 = if pivot_m >= 0.0 {
+    let t397 = if pivot_b >= 0.0 {
         -0.7927093528513625
     } else {
         if t393 >= 0.0 { t384 * t390 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_mm = ::armforge_runtime::math::atan2(t397, t396);
+    let q2_bb = ::armforge_runtime::math::atan2(t397, t396);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -4408,23 +4408,23 @@ fn branch_7(
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t1289 = t470
-        + (j1_cos_m * (g6_x - t470)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t470)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1290 = t471
-        + (j1_cos_m * (g6_y - t471)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t471)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1291 = t472
-        + (j1_cos_m * (g6_z - t472)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t472)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1301 = t502
-        + (j1_cos_m * (gx_x - t502)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t502)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1302 = t503
-        + (j1_cos_m * (gx_y - t503)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t503)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1303 = t504
-        + (j1_cos_m * (gx_z - t504)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t504)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
         - 0.32318451312347624 * t1291;
     let t1309 = 0.919348671064388 * t1308;
@@ -4483,25 +4483,25 @@ fn branch_7(
     let t1746 = 0.030542838068628286 * j5_gamma_b4;
     let t1747 = 0.8275343040933489 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1745 + (t1742 - 0.8362137090354541 * t1713);
+    let z_b4a_x = t1745 + (t1742 - 0.8362137090354541 * t1713);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1746 + (1.0379846701062043 * t1713 + t1743);
+    let z_b4a_y = t1746 + (1.0379846701062043 * t1713 + t1743);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1744 - 0.2010269164374744 * t1713 - t1747;
+    let z_b4a_z = t1744 - 0.2010269164374744 * t1713 - t1747;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4p = 1.2056566317887352
-        * (0.8840923826341479 * z_b4p_z
-            - (0.21377064521432798 * z_b4p_x + 0.04589463161448898 * z_b4p_y));
+    let j5_cos_b4a = 1.2056566317887352
+        * (0.8840923826341479 * z_b4a_z
+            - (0.21377064521432798 * z_b4a_x + 0.04589463161448898 * z_b4a_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4p = 1.2056566317887352
+    let j5_sin_b4a = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4p_z - 0.935948806852255 * z_b4p_y)
+            * (0.34229941191058744 * z_b4a_z - 0.935948806852255 * z_b4a_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4p_x + 0.08264952242757546 * z_b4p_z)
+                * (0.935948806852255 * z_b4a_x + 0.08264952242757546 * z_b4a_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
+                * (0.08264952242757546 * z_b4a_y + 0.34229941191058744 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
+    let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
     let t1776 = j5_alpha_b4 - j5_a_b4;
     let t1783 = t1745 + (t1742 - 0.620341126105259 * t1776);
     let t1784 = t1746 + (t1743 + 0.7700239450467775 * t1776);
@@ -4515,25 +4515,25 @@ fn branch_7(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4 = 1.0000000000000001e-40 - t1807;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
+    let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
     let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
     let t1822 = 0.620341126105259 * t1821;
     let t1823 = 0.7700239450467775 * t1821;
     let t1824 = 0.14913085300184115 * t1821;
-    let t1846 = j4_cos_b4p * (xv_b4_x + t1822)
-        - j4_sin_b4p * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
+    let t1846 = j4_cos_b4a * (xv_b4_x + t1822)
+        - j4_sin_b4a * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
         - t1822;
     let t1847 = t1823
-        + (j4_cos_b4p * (xv_b4_y - t1823)
-            - j4_sin_b4p
+        + (j4_cos_b4a * (xv_b4_y - t1823)
+            - j4_sin_b4a
                 * (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x));
-    let t1848 = j4_cos_b4p * (xv_b4_z + t1824)
-        + j4_sin_b4p * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
+    let t1848 = j4_cos_b4a * (xv_b4_z + t1824)
+        + j4_sin_b4a * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
         - t1824;
     let t1853 = 0.12555760611043656 * t1848
         + (0.3174776227989252 * t1846 + 0.9399166168175558 * t1847);
@@ -4541,30 +4541,30 @@ fn branch_7(
     let t1855 = 0.9399166168175558 * t1853;
     let t1856 = 0.12555760611043656 * t1853;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1854
-        + (j5_cos_b4p * (t1846 - t1854)
-            - j5_sin_b4p * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
+    let y6_b4a_x = t1854
+        + (j5_cos_b4a * (t1846 - t1854)
+            - j5_sin_b4a * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1855
-        + (j5_cos_b4p * (t1847 - t1855)
-            - j5_sin_b4p * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
+    let y6_b4a_y = t1855
+        + (j5_cos_b4a * (t1847 - t1855)
+            - j5_sin_b4a * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1856
-        + (j5_cos_b4p * (t1848 - t1856)
-            - j5_sin_b4p * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
+    let y6_b4a_z = t1856
+        + (j5_cos_b4a * (t1848 - t1856)
+            - j5_sin_b4a * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4p = ::armforge_runtime::math::atan2(
+    let q6_b4a = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4p_y - 0.028388007507509954 * y6_b4p_x)
+            * (0.9965786754905472 * y6_b4a_y - 0.028388007507509954 * y6_b4a_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4p_x - 0.9965786754905472 * y6_b4p_z)
+                * (0.0776212895233 * y6_b4a_x - 0.9965786754905472 * y6_b4a_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4p_z - 0.0776212895233 * y6_b4p_y)),
-        0.0776212895233 * y6_b4p_z
-            + (0.9965786754905472 * y6_b4p_x + 0.028388007507509954 * y6_b4p_y),
+                    * (0.028388007507509954 * y6_b4a_z - 0.0776212895233 * y6_b4a_y)),
+        0.0776212895233 * y6_b4a_z
+            + (0.9965786754905472 * y6_b4a_x + 0.028388007507509954 * y6_b4a_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4p, q5_b4p, q6_b4p],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4a, q5_b4a, q6_b4a],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -4578,7 +4578,7 @@ fn branch_7(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
@@ -4667,16 +4667,16 @@ fn branch_8(
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
     let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
-    // ≥ 0 when r² < 8.539556986014195e-20: θ is free, the reference is used
+    // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
     let j1_free = 8.539556986014195e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
-    let j1_cos_m = if j1_free >= 0.0 {
+    let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
     } else {
         j1_inv_r2 * (j1_a * j1_e + j1_b * j1_k)
     };
     // sin θ = (b e − a k) / r²  (σ = -1)
-    let j1_sin_m = if j1_free >= 0.0 {
+    let j1_sin_b = if j1_free >= 0.0 {
         -ref1_sin
     } else {
         j1_inv_r2 * (j1_b * j1_e - j1_a * j1_k)
@@ -4685,59 +4685,59 @@ fn branch_8(
     let t134 = 0.553647671333485 * t96;
     let t135 = 0.2455648081179022 * t96;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (x)
-    let w_m_x = t133
-        + (j1_cos_m * (u_x - t133)
-            - j1_sin_m * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
+    let w_b_x = t133
+        + (j1_cos_b * (u_x - t133)
+            - j1_sin_b * (0.553647671333485 * u_z - 0.2455648081179022 * u_y))
         - 0.1466357979102201;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (y)
-    let w_m_y = t134
-        + (j1_cos_m * (u_y - t134)
-            - j1_sin_m * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
+    let w_b_y = t134
+        + (j1_cos_b * (u_y - t134)
+            - j1_sin_b * (0.2455648081179022 * u_x - 0.7957211704114873 * u_z))
         - 0.1665554280716256;
     // w − p2 = E1(−θ1) c_t − p2: the wrist center with joint 1 undone (z)
-    let w_m_z = t135
-        + (j1_cos_m * (u_z - t135)
-            - j1_sin_m * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
+    let w_b_z = t135
+        + (j1_cos_b * (u_z - t135)
+            - j1_sin_b * (0.7957211704114873 * u_y - 0.553647671333485 * u_x))
         - 0.23593621703748283;
-    let t205 = 0.919348671064388 * w_m_x + 0.22438759210189282 * w_m_y
-        - 0.32318451312347624 * w_m_z;
-    let t209 = w_m_x - 0.919348671064388 * t205;
-    let t210 = w_m_y - 0.22438759210189282 * t205;
-    let t211 = w_m_z + 0.32318451312347624 * t205;
+    let t205 = 0.919348671064388 * w_b_x + 0.22438759210189282 * w_b_y
+        - 0.32318451312347624 * w_b_z;
+    let t209 = w_b_x - 0.919348671064388 * t205;
+    let t210 = w_b_y - 0.22438759210189282 * t205;
+    let t211 = w_b_z + 0.32318451312347624 * t205;
     // d² = |(w − p2)⊥h2|²: squared distance from axis 2
-    let d2_m = t211 * t211 + (t209 * t209 + t210 * t210);
+    let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
-    let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
+    let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
-    let j3_root_m = ::armforge_runtime::math::sqrt(
-        (d2_m - 0.05565844753959191).max(0.0),
+    let j3_root_b = ::armforge_runtime::math::sqrt(
+        (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_m = 8.539556986014195e-20 - d2_m;
+    let pivot_b = 8.539556986014195e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
-    let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t363 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t364 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t365 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t370 = w_m_z * t365 + (w_m_x * t363 - w_m_y * t364);
-    let t384 = 0.22438759210189282 * (w_m_x * t365 - w_m_z * t363)
-        - 0.919348671064388 * (w_m_z * t364 + w_m_y * t365)
-        - 0.32318451312347624 * (w_m_y * t363 + w_m_x * t364);
+    let q3_bb = -0.2750702190093362 - j3_root_b;
+    let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t364 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t365 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t370 = w_b_z * t365 + (w_b_x * t363 - w_b_y * t364);
+    let t384 = 0.22438759210189282 * (w_b_x * t365 - w_b_z * t363)
+        - 0.919348671064388 * (w_b_z * t364 + w_b_y * t365)
+        - 0.32318451312347624 * (w_b_y * t363 + w_b_x * t364);
     let t387 = t370 * t370 + t384 * t384;
     let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
     let t393 = t387 - 1e-300;
-    let t396 = if pivot_m >= 0.0 {
+    let t396 = if pivot_b >= 0.0 {
         0.6095997719011829
     } else {
         if t393 >= 0.0 { t370 * t390 } else { 1.0 }
     };
-    let t397 = if pivot_m >= 0.0 {
+    let t397 = if pivot_b >= 0.0 {
         -0.7927093528513625
     } else {
         if t393 >= 0.0 { t384 * t390 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_mm = ::armforge_runtime::math::atan2(t397, t396);
+    let q2_bb = ::armforge_runtime::math::atan2(t397, t396);
     let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
     let t411 = 0.42112668389358265 * r12
@@ -4779,23 +4779,23 @@ fn branch_8(
     let t503 = 0.553647671333485 * t501;
     let t504 = 0.2455648081179022 * t501;
     let t1289 = t470
-        + (j1_cos_m * (g6_x - t470)
-            - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
+        + (j1_cos_b * (g6_x - t470)
+            - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
     let t1290 = t471
-        + (j1_cos_m * (g6_y - t471)
-            - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
+        + (j1_cos_b * (g6_y - t471)
+            - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
     let t1291 = t472
-        + (j1_cos_m * (g6_z - t472)
-            - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
+        + (j1_cos_b * (g6_z - t472)
+            - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
     let t1301 = t502
-        + (j1_cos_m * (gx_x - t502)
-            - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
+        + (j1_cos_b * (gx_x - t502)
+            - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
     let t1302 = t503
-        + (j1_cos_m * (gx_y - t503)
-            - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
+        + (j1_cos_b * (gx_y - t503)
+            - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
     let t1303 = t504
-        + (j1_cos_m * (gx_z - t504)
-            - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
+        + (j1_cos_b * (gx_z - t504)
+            - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
     let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
         - 0.32318451312347624 * t1291;
     let t1309 = 0.919348671064388 * t1308;
@@ -4860,25 +4860,25 @@ fn branch_8(
     let t1823 = 0.7700239450467775 * t1821;
     let t1824 = 0.14913085300184115 * t1821;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1742 - 0.8362137090354541 * t1713 - t1745;
+    let z_b4b_x = t1742 - 0.8362137090354541 * t1713 - t1745;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = 1.0379846701062043 * t1713 + t1743 - t1746;
+    let z_b4b_y = 1.0379846701062043 * t1713 + t1743 - t1746;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1747 + (t1744 - 0.2010269164374744 * t1713);
+    let z_b4b_z = t1747 + (t1744 - 0.2010269164374744 * t1713);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
-    let j5_cos_b4m = 1.2056566317887352
-        * (0.8840923826341479 * z_b4m_z
-            - (0.21377064521432798 * z_b4m_x + 0.04589463161448898 * z_b4m_y));
+    let j5_cos_b4b = 1.2056566317887352
+        * (0.8840923826341479 * z_b4b_z
+            - (0.21377064521432798 * z_b4b_x + 0.04589463161448898 * z_b4b_y));
     // sin θ5 = h5 · (h6 × z) / |h6⊥|²
-    let j5_sin_b4m = 1.2056566317887352
+    let j5_sin_b4b = 1.2056566317887352
         * (0.3174776227989252
-            * (0.34229941191058744 * z_b4m_z - 0.935948806852255 * z_b4m_y)
+            * (0.34229941191058744 * z_b4b_z - 0.935948806852255 * z_b4b_y)
             + 0.9399166168175558
-                * (0.935948806852255 * z_b4m_x + 0.08264952242757546 * z_b4m_z)
+                * (0.935948806852255 * z_b4b_x + 0.08264952242757546 * z_b4b_z)
             - 0.12555760611043656
-                * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
+                * (0.08264952242757546 * z_b4b_y + 0.34229941191058744 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
-    let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
+    let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
     let t1926 = t1742 - 0.620341126105259 * t1776 - t1745;
     let t1927 = t1743 + 0.7700239450467775 * t1776 - t1746;
     let t1928 = t1747 + (t1744 - 0.14913085300184115 * t1776);
@@ -4891,20 +4891,20 @@ fn branch_8(
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
     let aligned_b4_2 = 1.0000000000000001e-40 - t1950;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1933 * t1953 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1933 * t1953 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1947 * t1953 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1947 * t1953 };
     // θ4 = atan2(sin θ4, cos θ4)
-    let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t1969 = (xv_b4_x + t1822) * j4_cos_b4m
-        - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4m
+    let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
+    let t1969 = (xv_b4_x + t1822) * j4_cos_b4b
+        - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4b
         - t1822;
     let t1970 = t1823
-        + ((xv_b4_y - t1823) * j4_cos_b4m
+        + ((xv_b4_y - t1823) * j4_cos_b4b
             - (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x)
-                * j4_sin_b4m);
-    let t1971 = (xv_b4_z + t1824) * j4_cos_b4m
-        + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4m
+                * j4_sin_b4b);
+    let t1971 = (xv_b4_z + t1824) * j4_cos_b4b
+        + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4b
         - t1824;
     let t1976 = 0.12555760611043656 * t1971
         + (0.3174776227989252 * t1969 + 0.9399166168175558 * t1970);
@@ -4912,30 +4912,30 @@ fn branch_8(
     let t1978 = 0.9399166168175558 * t1976;
     let t1979 = 0.12555760611043656 * t1976;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t1977
-        + (j5_cos_b4m * (t1969 - t1977)
-            - j5_sin_b4m * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
+    let y6_b4b_x = t1977
+        + (j5_cos_b4b * (t1969 - t1977)
+            - j5_sin_b4b * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = t1978
-        + (j5_cos_b4m * (t1970 - t1978)
-            - j5_sin_b4m * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
+    let y6_b4b_y = t1978
+        + (j5_cos_b4b * (t1970 - t1978)
+            - j5_sin_b4b * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = t1979
-        + (j5_cos_b4m * (t1971 - t1979)
-            - j5_sin_b4m * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
+    let y6_b4b_z = t1979
+        + (j5_cos_b4b * (t1971 - t1979)
+            - j5_sin_b4b * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
-    let q6_b4m = ::armforge_runtime::math::atan2(
+    let q6_b4b = ::armforge_runtime::math::atan2(
         0.935948806852255
-            * (0.9965786754905472 * y6_b4m_y - 0.028388007507509954 * y6_b4m_x)
+            * (0.9965786754905472 * y6_b4b_y - 0.028388007507509954 * y6_b4b_x)
             + (0.34229941191058744
-                * (0.0776212895233 * y6_b4m_x - 0.9965786754905472 * y6_b4m_z)
+                * (0.0776212895233 * y6_b4b_x - 0.9965786754905472 * y6_b4b_z)
                 - 0.08264952242757546
-                    * (0.028388007507509954 * y6_b4m_z - 0.0776212895233 * y6_b4m_y)),
-        0.0776212895233 * y6_b4m_z
-            + (0.9965786754905472 * y6_b4m_x + 0.028388007507509954 * y6_b4m_y),
+                    * (0.028388007507509954 * y6_b4b_z - 0.0776212895233 * y6_b4b_y)),
+        0.0776212895233 * y6_b4b_z
+            + (0.9965786754905472 * y6_b4b_x + 0.028388007507509954 * y6_b4b_y),
     );
     ::armforge_runtime::internal::Candidate {
-        model_values: [q1_m, q2_mm, q3_mm, q4_b4m, q5_b4m, q6_b4m],
+        model_values: [q1_b, q2_bb, q3_bb, q4_b4b, q5_b4b, q6_b4b],
         branch: ::armforge_runtime::Branch {
             shoulder: ::armforge_runtime::Shoulder::Across,
             elbow: ::armforge_runtime::Elbow::Retracted,
@@ -4949,7 +4949,7 @@ fn branch_8(
             },
             ::armforge_runtime::internal::Check {
                 kind: ::armforge_runtime::internal::CheckKind::InsideHole,
-                have_squared: d2_m,
+                have_squared: d2_b,
                 limit: 0.23592042628732238,
             },
             ::armforge_runtime::internal::Check {
