@@ -410,9 +410,11 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     ) {
         return ::armforge_runtime::SolutionSet::unreachable(reason);
     }
-    ::armforge_runtime::internal::collect::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &candidates(target, &ZERO_REFERENCE))
+    ::armforge_runtime::internal::collect(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &candidates(target, &ZERO_REFERENCE),
+    )
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
 #[allow(
