@@ -7,6 +7,11 @@
 
 use armforge_runtime::{Branch, Joint, Pose, Scalar, Solution, Unreachable, JOINTS};
 
+/// One solution or why there is none, in the scalar `S`.
+pub type OneSolution<S> = Result<Solution<S>, Unreachable<S>>;
+/// Every solution or why there is none, in the scalar `S`.
+pub type AllSolutions<S> = Result<Vec<Solution<S>>, Unreachable<S>>;
+
 /// One emitted solver in the scalar `S`, behind function pointers (SI units).
 #[derive(Clone, Copy)]
 pub struct EmittedArm<S: Scalar = f64> {
@@ -15,15 +20,15 @@ pub struct EmittedArm<S: Scalar = f64> {
     /// The module's `CAPACITY`.
     pub capacity: usize,
     /// `solve`, as a list or the reason.
-    pub solve: fn(&Pose<S>) -> Result<Vec<Solution<S>>, Unreachable<S>>,
+    pub solve: fn(&Pose<S>) -> AllSolutions<S>,
     /// `solve`, counting the solutions (no heap: what a benchmark times).
     pub solve_count: fn(&Pose<S>) -> usize,
     /// The module's `JOINT_TABLE`.
     pub joints: &'static [Joint<S>; JOINTS],
     /// `solve_near`.
-    pub solve_near: fn(&Pose<S>, &[S; JOINTS]) -> Result<Solution<S>, Unreachable<S>>,
+    pub solve_near: fn(&Pose<S>, &[S; JOINTS]) -> OneSolution<S>,
     /// `solve_branch`.
-    pub solve_branch: fn(&Pose<S>, Branch) -> Result<Solution<S>, Unreachable<S>>,
+    pub solve_branch: fn(&Pose<S>, Branch) -> OneSolution<S>,
     /// `branch_of`.
     pub branch_of: fn(&[S; JOINTS]) -> Branch,
     /// `forward`.

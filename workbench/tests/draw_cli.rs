@@ -12,6 +12,14 @@ fn armforge(args: &[&str], dir: &Path) -> Output {
         .expect("armforge runs")
 }
 
+/// `armforge draw ARM --pose POSE -o OUT` in `dir`.
+fn draw_pose(dir: &Path, arm: &Path, pose: &str, out: &str) -> Output {
+    armforge(
+        &["draw", arm.to_str().unwrap(), "--pose", pose, "-o", out],
+        dir,
+    )
+}
+
 /// A fresh directory with the starting arm `lab.toml` in it.
 fn workspace(name: &str) -> PathBuf {
     let dir = std::env::temp_dir().join(format!("armforge-draw-cli-{name}-{}", std::process::id()));
@@ -307,17 +315,7 @@ fn a_pose_out_of_reach_or_malformed_is_reported() {
         r#"{"rotation": [[1, 0, 0], [0, 1, 0], [0, 0, 1]], "translation": [5000, 0, 500]}"#,
     )
     .unwrap();
-    let out = armforge(
-        &[
-            "draw",
-            arm.to_str().unwrap(),
-            "--pose",
-            "far.json",
-            "-o",
-            "f.svg",
-        ],
-        &dir,
-    );
+    let out = draw_pose(&dir, &arm, "far.json", "f.svg");
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("far.json: no solution for this pose"), "{err}");
@@ -332,17 +330,7 @@ fn a_pose_out_of_reach_or_malformed_is_reported() {
         r#"{"rotation": [[1, 0, 0], [0, 1, 0]]}"#,
     )
     .unwrap();
-    let out = armforge(
-        &[
-            "draw",
-            arm.to_str().unwrap(),
-            "--pose",
-            "half.json",
-            "-o",
-            "h.svg",
-        ],
-        &dir,
-    );
+    let out = draw_pose(&dir, &arm, "half.json", "h.svg");
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("\"rotation\" needs 3 rows, found 2"), "{err}");

@@ -213,3 +213,133 @@ fn the_review_sheet_shows_names_and_description_as_text() {
     let header = sheet.lines().find(|l| l.starts_with("| joint |")).unwrap();
     assert_eq!(cells(row), cells(header), "{row}");
 }
+
+/// `armforge inspect` on byte-level mutations of an example arm: exit 0 (still valid), 3
+/// (rejected geometry) or 4 (not a valid description), and a refusal names the file with a
+/// line and column. (The proptest harness in `tests/tests/properties.rs` runs many more
+/// mutations through the library.)
+#[test]
+fn mutated_files_get_their_exit_code_and_a_place() {
+    let dir = scratch("mutated");
+    let original = std::fs::read(workspace().join("arms/bench-elbow-dh.toml")).unwrap();
+    let mut state = 0x5eed_u64;
+    let mut next = || {
+        // SplitMix64 (Steele, Lea & Flood, OOPSLA 2014), a fixed sequence for the test.
+        state = state.wrapping_add(0x9e37_79b9_7f4a_7c15);
+        let mut z = state;
+        z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+        z ^ (z >> 31)
+    };
+    let mut codes = std::collections::BTreeSet::new();
+    for case in 0..24 {
+        let mut bytes = original.clone();
+        // Past the header comment, where the keys are.
+        let at = 900 + (next() as usize) % (bytes.len() - 900);
+        bytes[at] = b"[]=\"#.\n\xff0x"[(next() % 10) as usize];
+        let path = dir.join(format!("mutated-{case}.toml"));
+        std::fs::write(&path, &bytes).unwrap();
+        let shown = path.display().to_string();
+        let (code, _, err) = armforge(&["inspect", &shown], "");
+        codes.insert(code);
+        match code {
+            0 => {}
+            3 | 4 => {
+                let place = err.split(&format!("{shown}:")).nth(1).and_then(|rest| {
+                    rest.split(':')
+                        .take(2)
+                        .map(str::parse::<usize>)
+                        .collect::<Result<Vec<_>, _>>()
+                        .ok()
+                });
+                assert!(
+                    place.is_some_and(|p| p.len() == 2 && p[0] >= 1 && p[1] >= 1),
+                    "case {case} (byte {at}): {err}"
+                );
+            }
+            other => panic!("case {case}: exit {other}: {err}"),
+        }
+    }
+    assert!(
+        codes.contains(&4),
+        "some mutations break the file: {codes:?}"
+    );
+}
+
+/// Random byte lines into `solve` and `forward` (mutations of good lines, invalid UTF-8, deep
+/// nesting, huge numbers): every non-blank line gets exactly one JSON answer with its line
+/// number when it is an error, the stream goes on, and the exit code is 0 or 1 (never a panic).
+#[test]
+fn mutated_json_lines_get_one_answer_each_and_the_stream_goes_on() {
+    let elbow = workspace().join("arms/bench-elbow-dh.toml");
+    let good_joints = "{\"joints\": [10, 20, -30, 40, 50, 60]}";
+    let good_pose =
+        "{\"rotation\": [[0, 0, 1], [0, -1, 0], [1, 0, 0]], \"translation\": [710, 0, 925]}";
+    let mut state = 0x1dea_u64;
+    let mut next = move || {
+        // SplitMix64 (Steele, Lea & Flood, OOPSLA 2014).
+        state = state.wrapping_add(0x9e37_79b9_7f4a_7c15);
+        let mut z = state;
+        z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+        z ^ (z >> 31)
+    };
+    for (command, good) in [("forward", good_joints), ("solve", good_pose)] {
+        let mut input: Vec<u8> = Vec::new();
+        let mut lines = 0;
+        for case in 0..120 {
+            let mut line = good.as_bytes().to_vec();
+            match case % 6 {
+                0 => {}
+                1 => {
+                    let at = (next() as usize) % line.len();
+                    line[at] = b"[]{}\",:-e.9\xff\x00"[(next() % 13) as usize];
+                }
+                2 => line.truncate((next() as usize) % line.len()),
+                3 => line = format!("{}1{}", "[".repeat(5000), "]".repeat(5000)).into_bytes(),
+                4 => {
+                    line = good
+                        .replace("10", "1e999")
+                        .replace("710", "1e999")
+                        .into_bytes()
+                }
+                _ => line.splice(0..0, [0xc3u8, 0x28]).for_each(drop),
+            }
+            line.retain(|&b| b != b'\n');
+            if line.iter().all(u8::is_ascii_whitespace) {
+                continue;
+            }
+            input.extend_from_slice(&line);
+            input.push(b'\n');
+            lines += 1;
+        }
+        let output = Command::cargo_bin("armforge")
+            .unwrap()
+            .arg(command)
+            .arg(&elbow)
+            .write_stdin(input)
+            .output()
+            .unwrap();
+        let code = output.status.code();
+        let stderr = String::from_utf8_lossy(&output.stderr);
+        assert!(
+            matches!(code, Some(0 | 1)),
+            "{command}: exit {code:?}: {stderr}"
+        );
+        let answers: Vec<serde_json::Value> = String::from_utf8(output.stdout)
+            .unwrap()
+            .lines()
+            .map(|l| serde_json::from_str(l).expect("every answer is JSON"))
+            .collect();
+        assert_eq!(answers.len(), lines, "{command}: one answer per line");
+        for (i, answer) in answers.iter().enumerate() {
+            if answer.get("error").is_some() {
+                assert_eq!(answer["line"], i + 1, "{command}: {answer}");
+            }
+        }
+        assert!(
+            answers.iter().any(|a| a.get("error").is_none()),
+            "{command}: good lines answered"
+        );
+    }
+}

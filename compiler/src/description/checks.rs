@@ -5,10 +5,10 @@ use std::ops::Range;
 
 use armforge_runtime::JointKind;
 
-use super::reader::Quantity;
+use super::reader::{Quantity, Spanned};
 use super::schema::{report_missing, Convention, Description, FrameEntry, JointEntry};
 use super::source::Source;
-use crate::units::tidy;
+use crate::units::{tidy, AngleUnit};
 
 /// The most joints a file may have.
 pub const MAX_JOINTS: usize = 16;
@@ -157,7 +157,43 @@ fn limits(source: &mut Source, joint: &JointEntry, description: &Description, pa
             quantity.show(max)
         );
         source.report(&limits.span, &format!("{path}.limits"), message);
+    } else if joint.kind == Some(JointKind::Revolute) {
+        turns(source, limits, description.units.angle, path);
     }
+}
+
+/// The widest revolute range a description may give: 16 turns. Each whole turn inside a
+/// joint's range is one more equivalent value of that joint for every solution, so wider
+/// ranges only multiply the solution set.
+pub const MAX_RANGE_TURNS: f64 = 16.0;
+
+/// A revolute range wider than [`MAX_RANGE_TURNS`] is an error that says how many turns it
+/// spans; in a radian file, a hint that the numbers look like degrees.
+fn turns(source: &mut Source, limits: &Spanned<[f64; 2]>, unit: AngleUnit, path: &str) {
+    let [min, max] = limits.value;
+    let radians = match unit {
+        AngleUnit::Radian => max - min,
+        AngleUnit::Degree => (max - min).to_radians(),
+    };
+    let spanned = radians / std::f64::consts::TAU;
+    if spanned <= MAX_RANGE_TURNS {
+        return;
+    }
+    let quantity = Quantity::Angle(unit);
+    let mut message = format!(
+        "the range {} to {} spans {} turns; a revolute joint may span at most {} turns",
+        quantity.show(min),
+        quantity.show(max),
+        tidy((spanned * 10.0).round() / 10.0),
+        MAX_RANGE_TURNS
+    );
+    if unit == AngleUnit::Radian && (max - min).to_radians() <= 4.0 * std::f64::consts::TAU {
+        message.push_str(
+            "; these numbers look like degrees: the file's angle_unit is rad, write \
+             `angle_unit = \"deg\"` if they are",
+        );
+    }
+    source.report(&limits.span, &format!("{path}.limits"), message);
 }
 
 fn frame_orientation(source: &mut Source, frame: &FrameEntry) {

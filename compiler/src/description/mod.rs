@@ -24,7 +24,7 @@
 //! | `type` | `"revolute"` or `"prismatic"` | required | turns about its axis or slides along it |
 //! | `name` | string | `joint N` | a name for messages and generated code: not blank, printing characters only, at most 64 characters, unique among the joints (also against the `joint N` of a joint without a name) |
 //! | `direction` | `1` or `-1` | `1` | the sign between the joint value (what the controller reports) and the model value |
-//! | `limits` | `[min, max]` | revolute: one turn, (−180°, 180°]; prismatic: unlimited | allowed joint values, in the file's units; min < max. A revolute range wider than one turn allows several equivalent angles |
+//! | `limits` | `[min, max]` | revolute: one turn, (−180°, 180°]; prismatic: unlimited | allowed joint values, in the file's units; min < max. A revolute range wider than one turn allows several equivalent angles; at most 16 turns |
 //!
 //! ## `[[joint]]` with `convention = "dh"` or `"modified-dh"`
 //!

@@ -213,11 +213,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         angles[k.other] = s;
         out.push(ArmSolution {
             angles,
-            undo: vec![Turn {
-                axis: k.h1,
-                cos: c1,
-                sin: s1,
-            }],
+            undo: vec![Turn::about(k.h1, (c1, s1))],
             shoulder: if facing {
                 Shoulder::Facing
             } else {

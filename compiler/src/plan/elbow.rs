@@ -141,6 +141,7 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
             tidy(k.cos12)
         ),
     );
+    let no_offset = g.constant_value(e) == Some(0.0);
     let roots = rotate_into_plane(g, [a, b, e], t.reference1, tol * tol, "j1");
     let check = CheckLayout {
         kind: CheckKind::InsideHole,
@@ -168,8 +169,19 @@ pub(crate) fn joint_one(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> JointOn
             &format!("d2_{tag}"),
             "d² = |(w − p2)⊥h2|²: squared distance from axis 2",
         );
-        let theta1 = g.atan2(s1, c1);
-        angles[i] = g.name(theta1, &format!("q1_{tag}"), "θ1 = atan2(sin θ1, cos θ1)");
+        angles[i] = if i == 1 && no_offset {
+            // e = 0: the second root is the first turned by half a turn (the finishing wraps).
+            let half = g.constant(std::f64::consts::PI);
+            let theta1 = g.add(angles[0], half);
+            g.name(
+                theta1,
+                &format!("q1_{tag}"),
+                "θ1 = θ1(σ = +1) + π, as e = 0",
+            )
+        } else {
+            let theta1 = g.atan2(s1, c1);
+            g.name(theta1, &format!("q1_{tag}"), "θ1 = atan2(sin θ1, cos θ1)")
+        };
         // (h1 × h2) · (w − p1) = −σ k: the shoulder's side.
         shoulders[i] = if -sigma == facing {
             Shoulder::Facing
@@ -219,16 +231,8 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             out.push(ArmSolution {
                 angles: [one.angles[i], bend.first, bend.second],
                 undo: vec![
-                    Turn {
-                        axis: k.h1,
-                        cos: c1,
-                        sin: s1,
-                    },
-                    Turn {
-                        axis: k.h2,
-                        cos: bend.sum.0,
-                        sin: bend.sum.1,
-                    },
+                    Turn::about(k.h1, (c1, s1)),
+                    Turn::about(k.h2, (bend.sum.0, bend.sum.1)),
                 ],
                 shoulder,
                 elbow,

@@ -48,6 +48,13 @@ pub struct Turn {
     pub sin: Id,
 }
 
+impl Turn {
+    /// The turn about the constant unit `axis` whose cosine and sine are `(cos, sin)`.
+    pub fn about(axis: [f64; 3], (cos, sin): (Id, Id)) -> Turn {
+        Turn { axis, cos, sin }
+    }
+}
+
 /// One branch of joints 1–3.
 #[derive(Clone, Debug)]
 pub struct ArmSolution {

@@ -73,9 +73,43 @@ pub struct TwoLinkRoots {
     pub checks: [CheckLayout; 2],
 }
 
+/// What both bends share: `cos ψ`, `sin ψ ≥ 0`, `ψ` and `1 / |x⊥|²`.
+#[derive(Clone, Copy)]
+struct Shared {
+    cos_psi: Id,
+    sin_psi: Id,
+    psi: Id,
+    inv_n: Id,
+}
+
 /// Solves the two-link step for the point `w` (relative to the first axis) with squared
 /// distance `d2` from that axis. `tol` is the length below which a distance counts as zero.
 pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> TwoLinkRoots {
+    let (len_l, len_v) = k.lengths();
+    let shared = law_of_cosines(g, k, d2, tol, tag);
+    let bends = [1.0, -1.0].map(|bend| one_bend(g, k, w, &shared, bend, tag));
+    let reach_out = g.constant(len_l + len_v);
+    let reach_in = g.constant((len_l - len_v).abs());
+    TwoLinkRoots {
+        bends,
+        checks: [
+            CheckLayout {
+                kind: CheckKind::BeyondReach,
+                have_squared: d2,
+                limit: reach_out,
+            },
+            CheckLayout {
+                kind: CheckKind::InsideHole,
+                have_squared: d2,
+                limit: reach_in,
+            },
+        ],
+    }
+}
+
+/// `cos ψ` by the law of cosines, `sin ψ`, one `ψ = atan2(sin ψ, cos ψ)` for both bends, and
+/// `1 / |L + R(φ) V|²`.
+fn law_of_cosines(g: &mut Graph, k: &TwoLink, d2: Id, tol: f64, tag: &str) -> Shared {
     let (len_l, len_v) = k.lengths();
     let (ll, vv) = (len_l * len_l, len_v * len_v);
     let two_lv = (2.0 * len_l * len_v).max(1e-300);
@@ -115,92 +149,103 @@ pub fn solve(g: &mut Graph, k: &TwoLink, w: V3, d2: Id, tol: f64, tag: &str) -> 
         &format!("j2_inv_{tag}"),
         "1 / |L + R3 V|², the squared distance of the point from the first axis",
     );
-    let hv = num::cross(&k.h, &k.v);
-    let (cf, sf) = (k.stretched.cos(), k.stretched.sin());
-    let cf = g.constant(cf);
-    let sf = g.constant(sf);
-    let mut bends = Vec::with_capacity(2);
-    for bend in [1.0, -1.0] {
-        let btag = if bend > 0.0 { "p" } else { "m" };
-        let tag2 = format!("{tag}{btag}");
-        let sp = if bend > 0.0 { sin_psi } else { g.neg(sin_psi) };
-        let cos_phi = {
-            let x = g.mul(cf, cos_psi);
-            let y = g.mul(sf, sp);
-            g.sub(x, y)
-        };
-        let cos_phi = g.name(
-            cos_phi,
-            &format!("j3_cos_{tag2}"),
-            format!(
-                "cos φ3 = cos(φ0 ± ψ), φ0 = {} rad (stretched)",
-                tidy(k.stretched)
-            ),
-        );
-        let sin_phi = {
-            let x = g.mul(sf, cos_psi);
-            let y = g.mul(cf, sp);
-            g.add(x, y)
-        };
-        let sin_phi = g.name(sin_phi, &format!("j3_sin_{tag2}"), "sin φ3 = sin(φ0 ± ψ)");
-        let phi = g.atan2(sin_phi, cos_phi);
-        let second = if k.sense > 0.0 { phi } else { g.neg(phi) };
-        let second = g.name(
-            second,
-            &format!("q3_{tag2}"),
-            format!("θ3 = {} atan2(sin φ3, cos φ3)", k.sense),
-        );
-        // x⊥ = L + R(h, φ3) V.
-        let x = {
-            let a = vec3::scale_const(g, cos_phi, k.v);
-            let b = vec3::scale_const(g, sin_phi, hv);
-            let ab = vec3::add(g, a, b);
-            vec3::add_const(g, ab, k.l)
-        };
-        let (nc, ns) = rotate_onto(g, k.h, x, w);
-        let first = g.atan2(ns, nc);
-        let first = g.name(
-            first,
-            &format!("q2_{tag2}"),
-            "Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V",
-        );
-        let c2 = g.mul(nc, inv_n);
-        let s2 = g.mul(ns, inv_n);
-        let c23 = {
-            let x = g.mul(c2, cos_phi);
-            let y = g.mul(s2, sin_phi);
-            g.sub(x, y)
-        };
-        let c23 = g.name(c23, &format!("c23_{tag2}"), "cos(θ2 + φ3)");
-        let s23 = {
-            let x = g.mul(s2, cos_phi);
-            let y = g.mul(c2, sin_phi);
-            g.add(x, y)
-        };
-        let s23 = g.name(s23, &format!("s23_{tag2}"), "sin(θ2 + φ3)");
-        bends.push(Bend {
-            bend,
-            first,
-            second,
-            sum: (c23, s23),
-        });
+    // One atan2 for both bends: φ3 = φ0 ± ψ, with ψ ∈ [0, π] (the finishing wraps φ3).
+    let psi = g.atan2(sin_psi, cos_psi);
+    let psi = g.name(
+        psi,
+        &format!("j3_psi_{tag}"),
+        "ψ = atan2(sin ψ, cos ψ), shared by both bends",
+    );
+    Shared {
+        cos_psi,
+        sin_psi,
+        psi,
+        inv_n,
     }
-    let reach_out = g.constant(len_l + len_v);
-    let reach_in = g.constant((len_l - len_v).abs());
-    TwoLinkRoots {
-        bends: [bends[0], bends[1]],
-        checks: [
-            CheckLayout {
-                kind: CheckKind::BeyondReach,
-                have_squared: d2,
-                limit: reach_out,
-            },
-            CheckLayout {
-                kind: CheckKind::InsideHole,
-                have_squared: d2,
-                limit: reach_in,
-            },
-        ],
+}
+
+/// One bend (`+1`: φ3 = φ0 + ψ, `−1`: φ3 = φ0 − ψ): joint 3 from `ψ`, joint 2 by turning
+/// `x⊥ = L + R(h, φ3) V` onto `w` (Paden–Kahan subproblem 1), and the turn of both.
+fn one_bend(g: &mut Graph, k: &TwoLink, w: V3, shared: &Shared, bend: f64, tag: &str) -> Bend {
+    let Shared {
+        cos_psi,
+        sin_psi,
+        psi,
+        inv_n,
+    } = *shared;
+    let stretched = g.constant(k.stretched);
+    let hv = num::cross(&k.h, &k.v);
+    let cf = g.constant(k.stretched.cos());
+    let sf = g.constant(k.stretched.sin());
+    let btag = if bend > 0.0 { "p" } else { "m" };
+    let tag2 = format!("{tag}{btag}");
+    let sp = if bend > 0.0 { sin_psi } else { g.neg(sin_psi) };
+    let cos_phi = {
+        let x = g.mul(cf, cos_psi);
+        let y = g.mul(sf, sp);
+        g.sub(x, y)
+    };
+    let cos_phi = g.name(
+        cos_phi,
+        &format!("j3_cos_{tag2}"),
+        format!(
+            "cos φ3 = cos(φ0 ± ψ), φ0 = {} rad (stretched)",
+            tidy(k.stretched)
+        ),
+    );
+    let sin_phi = {
+        let x = g.mul(sf, cos_psi);
+        let y = g.mul(cf, sp);
+        g.add(x, y)
+    };
+    let sin_phi = g.name(sin_phi, &format!("j3_sin_{tag2}"), "sin φ3 = sin(φ0 ± ψ)");
+    let (phi, equation) = if bend > 0.0 {
+        (g.add(stretched, psi), "φ0 + ψ")
+    } else {
+        (g.sub(stretched, psi), "φ0 − ψ")
+    };
+    let (second, equation) = if k.sense > 0.0 {
+        (phi, format!("θ3 = φ3 = {equation}"))
+    } else {
+        (
+            g.neg(phi),
+            format!("θ3 = −φ3 = −({equation}) (axis 3 opposite to axis 2)"),
+        )
+    };
+    let second = g.name(second, &format!("q3_{tag2}"), equation);
+    // x⊥ = L + R(h, φ3) V.
+    let x = {
+        let a = vec3::scale_const(g, cos_phi, k.v);
+        let b = vec3::scale_const(g, sin_phi, hv);
+        let ab = vec3::add(g, a, b);
+        vec3::add_const(g, ab, k.l)
+    };
+    let (nc, ns) = rotate_onto(g, k.h, x, w);
+    let first = g.atan2(ns, nc);
+    let first = g.name(
+        first,
+        &format!("q2_{tag2}"),
+        "Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V",
+    );
+    let c2 = g.mul(nc, inv_n);
+    let s2 = g.mul(ns, inv_n);
+    let c23 = {
+        let x = g.mul(c2, cos_phi);
+        let y = g.mul(s2, sin_phi);
+        g.sub(x, y)
+    };
+    let c23 = g.name(c23, &format!("c23_{tag2}"), "cos(θ2 + φ3)");
+    let s23 = {
+        let x = g.mul(s2, cos_phi);
+        let y = g.mul(c2, sin_phi);
+        g.add(x, y)
+    };
+    let s23 = g.name(s23, &format!("s23_{tag2}"), "sin(θ2 + φ3)");
+    Bend {
+        bend,
+        first,
+        second,
+        sum: (c23, s23),
     }
 }
 

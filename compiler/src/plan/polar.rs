@@ -102,18 +102,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             let (c1, s1) = one.roots[i];
             out.push(ArmSolution {
                 angles: [one.angles[i], theta2, s],
-                undo: vec![
-                    Turn {
-                        axis: k.h1,
-                        cos: c1,
-                        sin: s1,
-                    },
-                    Turn {
-                        axis: k.h2,
-                        cos: c2,
-                        sin: s2,
-                    },
-                ],
+                undo: vec![Turn::about(k.h1, (c1, s1)), Turn::about(k.h2, (c2, s2))],
                 shoulder: one.shoulders[i],
                 elbow: if extended {
                     Elbow::Extended

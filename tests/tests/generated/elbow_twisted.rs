@@ -3,7 +3,7 @@
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 8 solutions.
-// Cost of one solve: 15 sqrt, 34 atan2, 11 divisions, no loops, no heap.
+// Cost of one solve: 15 sqrt, 32 atan2, 11 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 4 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
@@ -715,58 +715,56 @@ fn candidates(
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t236 = 0.3686182725083974 * j3_cos_psi_p;
-    let t238 = 0.9295808567160389 * j3_sin_psi_p;
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let t238 = 0.3686182725083974 * j3_cos_psi_p;
+    let t240 = 0.9295808567160389 * j3_sin_psi_p;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pp = t238 - t236;
-    let t240 = 0.9295808567160389 * j3_cos_psi_p;
-    let t241 = 0.3686182725083974 * j3_sin_psi_p;
-    let t242 = t240 + t241;
-    // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t242;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t262 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t242
+    let j3_cos_pp = t240 - t238;
+    let t242 = 0.9295808567160389 * j3_cos_psi_p;
+    let t243 = 0.3686182725083974 * j3_sin_psi_p;
+    let t244 = t242 + t243;
+    // θ3 = φ3 = φ0 + ψ
+    let q3_pp = j3_psi_p - 1.9483185102348586;
+    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t263 = 0.058488960821312025 * t242 - 0.24317412797069082 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t265 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t242
+    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
         + 0.12697460164967897;
-    let t270 = w_p_x * t262 + w_p_y * t263 - w_p_z * t265;
-    let t284 = 0.04652345630215346 * (w_p_x * t265 + w_p_z * t262)
-        - 0.28272467533220935 * (w_p_z * t263 + w_p_y * t265)
-        - 0.9580721924635943 * (w_p_y * t262 - w_p_x * t263);
+    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
+    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
+        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
+        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t284, t270);
-    let t286 = j2_inv_p * t270;
-    let t287 = j2_inv_p * t284;
+    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_p * t272;
+    let t289 = j2_inv_p * t286;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t286 + t242 * t287;
-    let t293 = t236 + t238;
-    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pm = -t293;
+    let c23_pp = j3_cos_pp * t288 + t244 * t289;
+    let t295 = t238 + t240;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pm = t241 - t240;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t306 = 0.38353760535766845
-        - (0.059363684915989756 * t293 + 0.23271273627618366 * j3_sin_pm);
-    let t307 = 0.24317412797069082 * t293 - 0.058488960821312025 * j3_sin_pm
+    let j3_sin_pm = t243 - t242;
+    // θ3 = φ3 = φ0 − ψ
+    let q3_pm = -1.9483185102348586 - j3_psi_p;
+    let t307 = 0.38353760535766845
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
+    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t308 = 0.005709671641624163 * t293 + 0.07151313018083055 * j3_sin_pm
+    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
-    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
-    let t327 = 0.9580721924635943 * (w_p_y * t306 - w_p_x * t307)
-        + (0.28272467533220935 * (w_p_z * t307 - w_p_y * t308)
-            + 0.04652345630215346 * (w_p_x * t308 - w_p_z * t306));
+    let t314 = w_p_z * t309 + (w_p_x * t307 + w_p_y * t308);
+    let t328 = 0.9580721924635943 * (w_p_y * t307 - w_p_x * t308)
+        + (0.28272467533220935 * (w_p_z * t308 - w_p_y * t309)
+            + 0.04652345630215346 * (w_p_x * t309 - w_p_z * t307));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t327, t313);
-    let t330 = j2_inv_p * t313;
-    let t331 = j2_inv_p * t327;
+    let q2_pm = ::armforge_runtime::math::atan2(-t328, t314);
+    let t331 = j2_inv_p * t314;
+    let t332 = j2_inv_p * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t331 - t293 * t330;
+    let c23_pm = j3_sin_pm * t332 - t295 * t331;
     // sin(θ2 + φ3)
-    let s23_pm = t293 * t331 + j3_sin_pm * t330;
+    let s23_pm = t295 * t332 + j3_sin_pm * t331;
     // law of cosines: cos ψ = (d² − |L|² − |V|²) / (2 |L| |V|), |L| = 0.493874 m, |V| = 0.25038 m
     let j3_cos_psi_m = ::armforge_runtime::math::clamp(
         4.043462934169572 * (d2_m - 0.30660204177019446),
@@ -781,45 +779,43 @@ fn candidates(
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t353 = 0.3686182725083974 * j3_cos_psi_m;
-    let t354 = 0.9295808567160389 * j3_sin_psi_m;
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let t355 = 0.3686182725083974 * j3_cos_psi_m;
+    let t356 = 0.9295808567160389 * j3_sin_psi_m;
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mp = t354 - t353;
-    let t356 = 0.9295808567160389 * j3_cos_psi_m;
-    let t357 = 0.3686182725083974 * j3_sin_psi_m;
-    let t358 = t356 + t357;
-    // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = -t358;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t370 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t358
+    let j3_cos_mp = t356 - t355;
+    let t358 = 0.9295808567160389 * j3_cos_psi_m;
+    let t359 = 0.3686182725083974 * j3_sin_psi_m;
+    let t360 = t358 + t359;
+    // θ3 = φ3 = φ0 + ψ
+    let q3_mp = j3_psi_m - 1.9483185102348586;
+    let t371 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t360
         + 0.38353760535766845;
-    let t371 = 0.058488960821312025 * t358 - 0.24317412797069082 * j3_cos_mp
+    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_mp
         + 0.28405649725228804;
-    let t372 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t358
+    let t373 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t360
         + 0.12697460164967897;
-    let t377 = w_m_x * t370 + w_m_y * t371 - w_m_z * t372;
-    let t391 = 0.04652345630215346 * (w_m_x * t372 + w_m_z * t370)
-        - 0.28272467533220935 * (w_m_z * t371 + w_m_y * t372)
-        - 0.9580721924635943 * (w_m_y * t370 - w_m_x * t371);
+    let t378 = w_m_x * t371 + w_m_y * t372 - w_m_z * t373;
+    let t392 = 0.04652345630215346 * (w_m_x * t373 + w_m_z * t371)
+        - 0.28272467533220935 * (w_m_z * t372 + w_m_y * t373)
+        - 0.9580721924635943 * (w_m_y * t371 - w_m_x * t372);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
-    let t393 = j2_inv_m * t377;
-    let t394 = j2_inv_m * t391;
+    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_m * t378;
+    let t395 = j2_inv_m * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t393 + t358 * t394;
-    let t400 = t353 + t354;
-    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mm = -t400;
+    let c23_mp = j3_cos_mp * t394 + t360 * t395;
+    let t401 = t355 + t356;
     // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mm = t357 - t356;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    let j3_sin_mm = t359 - t358;
+    // θ3 = φ3 = φ0 − ψ
+    let q3_mm = -1.9483185102348586 - j3_psi_m;
     let t413 = 0.38353760535766845
-        - (0.059363684915989756 * t400 + 0.23271273627618366 * j3_sin_mm);
-    let t414 = 0.24317412797069082 * t400 - 0.058488960821312025 * j3_sin_mm
+        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_mm);
+    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_mm
         + 0.28405649725228804;
-    let t415 = 0.005709671641624163 * t400 + 0.07151313018083055 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_mm
         - 0.12697460164967897;
     let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
     let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
@@ -830,9 +826,9 @@ fn candidates(
     let t437 = j2_inv_m * t420;
     let t438 = j2_inv_m * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_sin_mm * t438 - t400 * t437;
+    let c23_mm = j3_sin_mm * t438 - t401 * t437;
     // sin(θ2 + φ3)
-    let s23_mm = t400 * t438 + j3_sin_mm * t437;
+    let s23_mm = t401 * t438 + j3_sin_mm * t437;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -889,7 +885,7 @@ fn candidates(
     let t572 = j1_cos_p * t551 - j1_sin_p * t556 - t548;
     let t573 = j1_cos_p * t552 - j1_sin_p * t559 - t549;
     let t574 = j1_cos_p * t553 + j1_sin_p * t562 - t550;
-    let t575 = t242 * t286 - j3_cos_pp * t287;
+    let t575 = t244 * t288 - j3_cos_pp * t289;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -1294,7 +1290,7 @@ fn candidates(
     let t1348 = j1_cos_m * t551 - j1_sin_m * t556 - t548;
     let t1349 = j1_cos_m * t552 - j1_sin_m * t559 - t549;
     let t1350 = j1_cos_m * t553 + j1_sin_m * t562 - t550;
-    let t1351 = t358 * t393 - j3_cos_mp * t394;
+    let t1351 = t360 * t394 - j3_cos_mp * t395;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -2079,30 +2075,30 @@ fn branch_1(
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
         - 0.3686182725083974 * j3_cos_psi_p;
-    let t242 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
-    // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t242;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t262 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t242
+    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    // θ3 = φ3 = φ0 + ψ
+    let q3_pp = j3_psi_p - 1.9483185102348586;
+    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t263 = 0.058488960821312025 * t242 - 0.24317412797069082 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t265 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t242
+    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
         + 0.12697460164967897;
-    let t270 = w_p_x * t262 + w_p_y * t263 - w_p_z * t265;
-    let t284 = 0.04652345630215346 * (w_p_x * t265 + w_p_z * t262)
-        - 0.28272467533220935 * (w_p_z * t263 + w_p_y * t265)
-        - 0.9580721924635943 * (w_p_y * t262 - w_p_x * t263);
+    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
+    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
+        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
+        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t284, t270);
-    let t286 = j2_inv_p * t270;
-    let t287 = j2_inv_p * t284;
+    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_p * t272;
+    let t289 = j2_inv_p * t286;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t286 + t242 * t287;
+    let c23_pp = j3_cos_pp * t288 + t244 * t289;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2153,7 +2149,7 @@ fn branch_1(
         - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
     let t574 = j1_cos_p * (gx_z + t550)
         + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t575 = t242 * t286 - j3_cos_pp * t287;
+    let t575 = t244 * t288 - j3_cos_pp * t289;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2456,30 +2452,30 @@ fn branch_2(
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_pp = 0.9295808567160389 * j3_sin_psi_p
         - 0.3686182725083974 * j3_cos_psi_p;
-    let t242 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
-    // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_pp = -t242;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_pp = ::armforge_runtime::math::atan2(j3_sin_pp, j3_cos_pp);
-    let t262 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t242
+    let t244 = 0.9295808567160389 * j3_cos_psi_p + 0.3686182725083974 * j3_sin_psi_p;
+    // θ3 = φ3 = φ0 + ψ
+    let q3_pp = j3_psi_p - 1.9483185102348586;
+    let t264 = 0.059363684915989756 * j3_cos_pp + 0.23271273627618366 * t244
         + 0.38353760535766845;
-    let t263 = 0.058488960821312025 * t242 - 0.24317412797069082 * j3_cos_pp
+    let t265 = 0.058488960821312025 * t244 - 0.24317412797069082 * j3_cos_pp
         + 0.28405649725228804;
-    let t265 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t242
+    let t267 = 0.005709671641624163 * j3_cos_pp + 0.07151313018083055 * t244
         + 0.12697460164967897;
-    let t270 = w_p_x * t262 + w_p_y * t263 - w_p_z * t265;
-    let t284 = 0.04652345630215346 * (w_p_x * t265 + w_p_z * t262)
-        - 0.28272467533220935 * (w_p_z * t263 + w_p_y * t265)
-        - 0.9580721924635943 * (w_p_y * t262 - w_p_x * t263);
+    let t272 = w_p_x * t264 + w_p_y * t265 - w_p_z * t267;
+    let t286 = 0.04652345630215346 * (w_p_x * t267 + w_p_z * t264)
+        - 0.28272467533220935 * (w_p_z * t265 + w_p_y * t267)
+        - 0.9580721924635943 * (w_p_y * t264 - w_p_x * t265);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pp = ::armforge_runtime::math::atan2(t284, t270);
-    let t286 = j2_inv_p * t270;
-    let t287 = j2_inv_p * t284;
+    let q2_pp = ::armforge_runtime::math::atan2(t286, t272);
+    let t288 = j2_inv_p * t272;
+    let t289 = j2_inv_p * t286;
     // cos(θ2 + φ3)
-    let c23_pp = j3_cos_pp * t286 + t242 * t287;
+    let c23_pp = j3_cos_pp * t288 + t244 * t289;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -2530,7 +2526,7 @@ fn branch_2(
         - j1_sin_p * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
     let t574 = j1_cos_p * (gx_z + t550)
         + j1_sin_p * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t575 = t242 * t286 - j3_cos_pp * t287;
+    let t575 = t244 * t288 - j3_cos_pp * t289;
     let t580 = 0.9580721924635943 * t542
         + (0.28272467533220935 * t540 + 0.04652345630215346 * t541);
     let t581 = 0.28272467533220935 * t580;
@@ -2833,32 +2829,32 @@ fn branch_3(
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t293 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
-    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pm = -t293;
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
         - 0.9295808567160389 * j3_cos_psi_p;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t306 = 0.38353760535766845
-        - (0.059363684915989756 * t293 + 0.23271273627618366 * j3_sin_pm);
-    let t307 = 0.24317412797069082 * t293 - 0.058488960821312025 * j3_sin_pm
+    // θ3 = φ3 = φ0 − ψ
+    let q3_pm = -1.9483185102348586 - j3_psi_p;
+    let t307 = 0.38353760535766845
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
+    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t308 = 0.005709671641624163 * t293 + 0.07151313018083055 * j3_sin_pm
+    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
-    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
-    let t327 = 0.9580721924635943 * (w_p_y * t306 - w_p_x * t307)
-        + (0.28272467533220935 * (w_p_z * t307 - w_p_y * t308)
-            + 0.04652345630215346 * (w_p_x * t308 - w_p_z * t306));
+    let t314 = w_p_z * t309 + (w_p_x * t307 + w_p_y * t308);
+    let t328 = 0.9580721924635943 * (w_p_y * t307 - w_p_x * t308)
+        + (0.28272467533220935 * (w_p_z * t308 - w_p_y * t309)
+            + 0.04652345630215346 * (w_p_x * t309 - w_p_z * t307));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t327, t313);
-    let t330 = j2_inv_p * t313;
-    let t331 = j2_inv_p * t327;
+    let q2_pm = ::armforge_runtime::math::atan2(-t328, t314);
+    let t331 = j2_inv_p * t314;
+    let t332 = j2_inv_p * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t331 - t293 * t330;
+    let c23_pm = j3_sin_pm * t332 - t295 * t331;
     // sin(θ2 + φ3)
-    let s23_pm = t293 * t331 + j3_sin_pm * t330;
+    let s23_pm = t295 * t332 + j3_sin_pm * t331;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3211,32 +3207,32 @@ fn branch_4(
     let j2_inv_p = 1.0
         / (0.24731276538964378 * j3_cos_psi_p + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t293 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
-    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_pm = -t293;
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_p = ::armforge_runtime::math::atan2(j3_sin_psi_p, j3_cos_psi_p);
+    let t295 = 0.3686182725083974 * j3_cos_psi_p + 0.9295808567160389 * j3_sin_psi_p;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_pm = 0.3686182725083974 * j3_sin_psi_p
         - 0.9295808567160389 * j3_cos_psi_p;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_pm = ::armforge_runtime::math::atan2(j3_sin_pm, j3_cos_pm);
-    let t306 = 0.38353760535766845
-        - (0.059363684915989756 * t293 + 0.23271273627618366 * j3_sin_pm);
-    let t307 = 0.24317412797069082 * t293 - 0.058488960821312025 * j3_sin_pm
+    // θ3 = φ3 = φ0 − ψ
+    let q3_pm = -1.9483185102348586 - j3_psi_p;
+    let t307 = 0.38353760535766845
+        - (0.059363684915989756 * t295 + 0.23271273627618366 * j3_sin_pm);
+    let t308 = 0.24317412797069082 * t295 - 0.058488960821312025 * j3_sin_pm
         + 0.28405649725228804;
-    let t308 = 0.005709671641624163 * t293 + 0.07151313018083055 * j3_sin_pm
+    let t309 = 0.005709671641624163 * t295 + 0.07151313018083055 * j3_sin_pm
         - 0.12697460164967897;
-    let t313 = w_p_z * t308 + (w_p_x * t306 + w_p_y * t307);
-    let t327 = 0.9580721924635943 * (w_p_y * t306 - w_p_x * t307)
-        + (0.28272467533220935 * (w_p_z * t307 - w_p_y * t308)
-            + 0.04652345630215346 * (w_p_x * t308 - w_p_z * t306));
+    let t314 = w_p_z * t309 + (w_p_x * t307 + w_p_y * t308);
+    let t328 = 0.9580721924635943 * (w_p_y * t307 - w_p_x * t308)
+        + (0.28272467533220935 * (w_p_z * t308 - w_p_y * t309)
+            + 0.04652345630215346 * (w_p_x * t309 - w_p_z * t307));
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_pm = ::armforge_runtime::math::atan2(-t327, t313);
-    let t330 = j2_inv_p * t313;
-    let t331 = j2_inv_p * t327;
+    let q2_pm = ::armforge_runtime::math::atan2(-t328, t314);
+    let t331 = j2_inv_p * t314;
+    let t332 = j2_inv_p * t328;
     // cos(θ2 + φ3)
-    let c23_pm = j3_sin_pm * t331 - t293 * t330;
+    let c23_pm = j3_sin_pm * t332 - t295 * t331;
     // sin(θ2 + φ3)
-    let s23_pm = t293 * t331 + j3_sin_pm * t330;
+    let s23_pm = t295 * t332 + j3_sin_pm * t331;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3589,30 +3585,30 @@ fn branch_5(
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_mp = 0.9295808567160389 * j3_sin_psi_m
         - 0.3686182725083974 * j3_cos_psi_m;
-    let t358 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
-    // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = -t358;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t370 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t358
+    let t360 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
+    // θ3 = φ3 = φ0 + ψ
+    let q3_mp = j3_psi_m - 1.9483185102348586;
+    let t371 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t360
         + 0.38353760535766845;
-    let t371 = 0.058488960821312025 * t358 - 0.24317412797069082 * j3_cos_mp
+    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_mp
         + 0.28405649725228804;
-    let t372 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t358
+    let t373 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t360
         + 0.12697460164967897;
-    let t377 = w_m_x * t370 + w_m_y * t371 - w_m_z * t372;
-    let t391 = 0.04652345630215346 * (w_m_x * t372 + w_m_z * t370)
-        - 0.28272467533220935 * (w_m_z * t371 + w_m_y * t372)
-        - 0.9580721924635943 * (w_m_y * t370 - w_m_x * t371);
+    let t378 = w_m_x * t371 + w_m_y * t372 - w_m_z * t373;
+    let t392 = 0.04652345630215346 * (w_m_x * t373 + w_m_z * t371)
+        - 0.28272467533220935 * (w_m_z * t372 + w_m_y * t373)
+        - 0.9580721924635943 * (w_m_y * t371 - w_m_x * t372);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
-    let t393 = j2_inv_m * t377;
-    let t394 = j2_inv_m * t391;
+    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_m * t378;
+    let t395 = j2_inv_m * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t393 + t358 * t394;
+    let c23_mp = j3_cos_mp * t394 + t360 * t395;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -3663,7 +3659,7 @@ fn branch_5(
         - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
     let t1350 = j1_cos_m * (gx_z + t550)
         + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t1351 = t358 * t393 - j3_cos_mp * t394;
+    let t1351 = t360 * t394 - j3_cos_mp * t395;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -3966,30 +3962,30 @@ fn branch_6(
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
     let j3_cos_mp = 0.9295808567160389 * j3_sin_psi_m
         - 0.3686182725083974 * j3_cos_psi_m;
-    let t358 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
-    // sin φ3 = sin(φ0 ± ψ)
-    let j3_sin_mp = -t358;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_mp = ::armforge_runtime::math::atan2(j3_sin_mp, j3_cos_mp);
-    let t370 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t358
+    let t360 = 0.9295808567160389 * j3_cos_psi_m + 0.3686182725083974 * j3_sin_psi_m;
+    // θ3 = φ3 = φ0 + ψ
+    let q3_mp = j3_psi_m - 1.9483185102348586;
+    let t371 = 0.059363684915989756 * j3_cos_mp + 0.23271273627618366 * t360
         + 0.38353760535766845;
-    let t371 = 0.058488960821312025 * t358 - 0.24317412797069082 * j3_cos_mp
+    let t372 = 0.058488960821312025 * t360 - 0.24317412797069082 * j3_cos_mp
         + 0.28405649725228804;
-    let t372 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t358
+    let t373 = 0.005709671641624163 * j3_cos_mp + 0.07151313018083055 * t360
         + 0.12697460164967897;
-    let t377 = w_m_x * t370 + w_m_y * t371 - w_m_z * t372;
-    let t391 = 0.04652345630215346 * (w_m_x * t372 + w_m_z * t370)
-        - 0.28272467533220935 * (w_m_z * t371 + w_m_y * t372)
-        - 0.9580721924635943 * (w_m_y * t370 - w_m_x * t371);
+    let t378 = w_m_x * t371 + w_m_y * t372 - w_m_z * t373;
+    let t392 = 0.04652345630215346 * (w_m_x * t373 + w_m_z * t371)
+        - 0.28272467533220935 * (w_m_z * t372 + w_m_y * t373)
+        - 0.9580721924635943 * (w_m_y * t371 - w_m_x * t372);
     // Paden–Kahan 1: θ2 = atan2(h2 · (x⊥ × w), x⊥ · w), x⊥ = L + R3 V
-    let q2_mp = ::armforge_runtime::math::atan2(t391, t377);
-    let t393 = j2_inv_m * t377;
-    let t394 = j2_inv_m * t391;
+    let q2_mp = ::armforge_runtime::math::atan2(t392, t378);
+    let t394 = j2_inv_m * t378;
+    let t395 = j2_inv_m * t392;
     // cos(θ2 + φ3)
-    let c23_mp = j3_cos_mp * t393 + t358 * t394;
+    let c23_mp = j3_cos_mp * t394 + t360 * t395;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -4040,7 +4036,7 @@ fn branch_6(
         - j1_sin_m * (0.616255457921199 * t500 + 0.7796770767040355 * gx_z) - t549;
     let t1350 = j1_cos_m * (gx_z + t550)
         + j1_sin_m * (0.7796770767040355 * gx_y + 0.111053440489627 * t500) - t550;
-    let t1351 = t358 * t393 - j3_cos_mp * t394;
+    let t1351 = t360 * t394 - j3_cos_mp * t395;
     let t1356 = 0.9580721924635943 * t1338
         + (0.28272467533220935 * t1336 + 0.04652345630215346 * t1337);
     let t1357 = 0.28272467533220935 * t1356;
@@ -4343,19 +4339,19 @@ fn branch_7(
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t400 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
-    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mm = -t400;
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let t401 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_mm = 0.3686182725083974 * j3_sin_psi_m
         - 0.9295808567160389 * j3_cos_psi_m;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    // θ3 = φ3 = φ0 − ψ
+    let q3_mm = -1.9483185102348586 - j3_psi_m;
     let t413 = 0.38353760535766845
-        - (0.059363684915989756 * t400 + 0.23271273627618366 * j3_sin_mm);
-    let t414 = 0.24317412797069082 * t400 - 0.058488960821312025 * j3_sin_mm
+        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_mm);
+    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_mm
         + 0.28405649725228804;
-    let t415 = 0.005709671641624163 * t400 + 0.07151313018083055 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_mm
         - 0.12697460164967897;
     let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
     let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
@@ -4366,9 +4362,9 @@ fn branch_7(
     let t437 = j2_inv_m * t420;
     let t438 = j2_inv_m * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_sin_mm * t438 - t400 * t437;
+    let c23_mm = j3_sin_mm * t438 - t401 * t437;
     // sin(θ2 + φ3)
-    let s23_mm = t400 * t438 + j3_sin_mm * t437;
+    let s23_mm = t401 * t438 + j3_sin_mm * t437;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11
@@ -4721,19 +4717,19 @@ fn branch_8(
     let j2_inv_m = 1.0
         / (0.24731276538964378 * j3_cos_psi_m + 0.30660204177019446)
             .max(1.2297140543538239e-20);
-    let t400 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
-    // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
-    let j3_cos_mm = -t400;
+    // ψ = atan2(sin ψ, cos ψ), shared by both bends
+    let j3_psi_m = ::armforge_runtime::math::atan2(j3_sin_psi_m, j3_cos_psi_m);
+    let t401 = 0.3686182725083974 * j3_cos_psi_m + 0.9295808567160389 * j3_sin_psi_m;
     // sin φ3 = sin(φ0 ± ψ)
     let j3_sin_mm = 0.3686182725083974 * j3_sin_psi_m
         - 0.9295808567160389 * j3_cos_psi_m;
-    // θ3 = 1 atan2(sin φ3, cos φ3)
-    let q3_mm = ::armforge_runtime::math::atan2(j3_sin_mm, j3_cos_mm);
+    // θ3 = φ3 = φ0 − ψ
+    let q3_mm = -1.9483185102348586 - j3_psi_m;
     let t413 = 0.38353760535766845
-        - (0.059363684915989756 * t400 + 0.23271273627618366 * j3_sin_mm);
-    let t414 = 0.24317412797069082 * t400 - 0.058488960821312025 * j3_sin_mm
+        - (0.059363684915989756 * t401 + 0.23271273627618366 * j3_sin_mm);
+    let t414 = 0.24317412797069082 * t401 - 0.058488960821312025 * j3_sin_mm
         + 0.28405649725228804;
-    let t415 = 0.005709671641624163 * t400 + 0.07151313018083055 * j3_sin_mm
+    let t415 = 0.005709671641624163 * t401 + 0.07151313018083055 * j3_sin_mm
         - 0.12697460164967897;
     let t420 = w_m_z * t415 + (w_m_x * t413 + w_m_y * t414);
     let t434 = 0.9580721924635943 * (w_m_y * t413 - w_m_x * t414)
@@ -4744,9 +4740,9 @@ fn branch_8(
     let t437 = j2_inv_m * t420;
     let t438 = j2_inv_m * t434;
     // cos(θ2 + φ3)
-    let c23_mm = j3_sin_mm * t438 - t400 * t437;
+    let c23_mm = j3_sin_mm * t438 - t401 * t437;
     // sin(θ2 + φ3)
-    let s23_mm = t400 * t438 + j3_sin_mm * t437;
+    let s23_mm = t401 * t438 + j3_sin_mm * t437;
     let t452 = 0.24373339528963645 * r00 - 0.19122435663206516 * r01
         - 0.9508034904496505 * r02;
     let t457 = 0.24373339528963645 * r10 - 0.19122435663206516 * r11

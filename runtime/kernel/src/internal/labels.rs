@@ -3,7 +3,7 @@
 //! which every solver's `branch_of` applies and `solve`'s labels agree with.
 
 use crate::fk::joint_motion;
-use crate::math::{cross, dot, sin_cos, sub, Scalar};
+use crate::math::{cross, dot, sin_cos, sub, tolerance, Growth, Scalar};
 use crate::model::Joint;
 use crate::solution::{Branch, Elbow, Shoulder, Wrist, JOINTS};
 
@@ -112,6 +112,19 @@ fn sign<S: Scalar>(x: S) -> S {
     }
 }
 
+/// True when `joint` is revolute and its axis passes through `c` (to 1e-12 of the distance
+/// from the axis point, or 1e-12 m, for `f64`; carried to other scalars by the ratio of the
+/// epsilons): turning the joint leaves `c` where it is.
+fn passes_through<S: Scalar>(joint: &Joint<S>, c: &[S; 3]) -> bool {
+    if joint.kind != crate::model::JointKind::Revolute {
+        return false;
+    }
+    let d = sub(c, &joint.point);
+    let off = cross(&joint.axis, &d);
+    let scale = dot(&d, &d).max(S::ONE);
+    dot(&off, &off) <= tolerance::<S>(1e-24, Growth::Linear) * scale
+}
+
 /// Rodrigues' rotation of `v` about unit `h` by `angle`.
 fn rotate<S: Scalar>(h: &[S; 3], angle: S, v: &[S; 3]) -> [S; 3] {
     let (s, c) = sin_cos(angle);
@@ -147,10 +160,17 @@ fn branch_read_forward<S: Scalar>(
 ) -> Branch {
     // The point joints 2–6 carry (a wrist center is fixed by joints 4–6; the meeting point of
     // axes 5 and 6 of a three-parallel arm is moved by joint 4).
+    // Trailing revolute joints whose axes pass through the point at zero leave it in place
+    // (the wrist joints of a spherical wrist): only the joints before them move it. Which
+    // joints those are depends on the arm alone, never on `q`.
     let moved_center = |c: &[S; 3]| {
         let mut w = *c;
+        let mut fixed = true;
         for i in (1..JOINTS).rev() {
-            w = joint_motion(&joints[i], q[i]).transform_point(&w);
+            fixed = fixed && passes_through(&joints[i], c);
+            if !fixed {
+                w = joint_motion(&joints[i], q[i]).transform_point(&w);
+            }
         }
         w
     };
