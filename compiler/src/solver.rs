@@ -70,7 +70,8 @@ impl Solver {
         internal::branch_of(&self.plan.rule, &self.plan.arm.joints, joints)
     }
 
-    fn candidates(&self, target: &Pose, reference: &[f64; 4]) -> Vec<Candidate> {
+    /// The plan's candidates as evaluated, without the free joint 1 moved.
+    fn evaluated(&self, target: &Pose, reference: &[f64; 4]) -> Vec<Candidate> {
         let inputs = rplan::inputs(target, reference);
         let mut values = vec![0.0; self.ops.len()];
         rplan::evaluate(&self.ops, &inputs, &mut values);
@@ -79,6 +80,23 @@ impl Solver {
             .iter()
             .map(|layout| rplan::candidate(layout, &values))
             .collect()
+    }
+
+    /// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
+    /// value puts joint 5 outside its limits (`internal::free_joint_1`, as emitted modules do).
+    fn candidates(&self, target: &Pose, reference: &[f64; 4]) -> Vec<Candidate> {
+        let mut candidates = self.evaluated(target, reference);
+        let arm = &self.plan.arm;
+        internal::free_joint_1(
+            &arm.joints,
+            [&arm.base, &arm.tool],
+            &self.plan.settings,
+            target,
+            reference,
+            &mut candidates,
+            |r, i| self.evaluated(target, r).get(i).copied(),
+        );
+        candidates
     }
 
     fn finish(
@@ -104,7 +122,20 @@ impl Solver {
     /// Every solution within the limits, or why there is none. Free joints at singular poses
     /// are held at the plan's zero reference (joint 4 at zero; joint 1 nearest zero with both
     /// shoulder solutions within its limits).
+    ///
+    /// A target farther than [`internal::FAR`] is answered by the same target brought in to
+    /// that distance along its ray, with the reason's lengths scaled back (`internal::far`).
     pub fn solve(&self, target: &Pose) -> Result<Vec<Solution>, Unreachable> {
+        internal::check_pose(target)?;
+        if let Some(far) = internal::far_target(target) {
+            if let Err(reason) = self.solve(&far.target) {
+                return Err(internal::scale_reason(
+                    &self.plan.arm.joints,
+                    reason,
+                    far.scale,
+                ));
+            }
+        }
         self.finish(target, &self.plan.zero_reference, None)
     }
 
@@ -133,7 +164,7 @@ impl Solver {
                 j.limits = [center - half, center + half];
             }
         }
-        let candidates = self.candidates(target, &self.plan.zero_reference);
+        let candidates = self.evaluated(target, &self.plan.zero_reference);
         let mut out = vec![Solution::EMPTY; self.plan.capacity.max(1) * 2];
         let len = internal::finish(&open, &self.plan.settings, &candidates, None, &mut out)?;
         out.truncate(len);
@@ -169,6 +200,15 @@ impl Solver {
         current: &[f64; JOINTS],
     ) -> Result<Solution, Unreachable> {
         internal::check_pose(target)?;
+        if let Some(far) = internal::far_target(target) {
+            if let Err(reason) = self.solve_near(&far.target, current) {
+                return Err(internal::scale_reason(
+                    &self.plan.arm.joints,
+                    reason,
+                    far.scale,
+                ));
+            }
+        }
         let (joints, settings) = (&self.plan.arm.joints, &self.plan.settings);
         let anchor = internal::anchors_near(joints, current, settings.limit_tolerance);
         // Away from singular poses the reference is not used (as in the emitted solver).
@@ -190,6 +230,15 @@ impl Solver {
     /// equivalent angle nearest its range's center), or why there is none.
     pub fn solve_branch(&self, target: &Pose, branch: Branch) -> Result<Solution, Unreachable> {
         internal::check_pose(target)?;
+        if let Some(far) = internal::far_target(target) {
+            if let Err(reason) = self.solve_branch(&far.target, branch) {
+                return Err(internal::scale_reason(
+                    &self.plan.arm.joints,
+                    reason,
+                    far.scale,
+                ));
+            }
+        }
         let candidates = self.candidates(target, &self.plan.zero_reference);
         let Some(c) = candidates.iter().find(|c| c.branch == branch) else {
             return Err(Unreachable::BranchUnavailable);

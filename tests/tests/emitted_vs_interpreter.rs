@@ -166,3 +166,66 @@ fn emitted_modules_and_the_interpreter_agree_on_every_example_arm() {
         assert!(tally.solved >= poses / 2);
     }
 }
+
+#[test]
+fn far_targets_get_the_reason_of_their_direction_with_a_finite_amount() {
+    // Squares of translations beyond about 1e154 m overflow. A target D metres out misses by
+    // D / 1e100 times what the same direction misses by at 1e100 m (beyond reach, or a slide's
+    // limit): the arm's own lengths no longer matter there. Emitted modules and the
+    // interpreter give the same answer.
+    let directions = [[1.0, 0.3, 0.2], [-0.2, 1.0, 0.5], [0.1, -0.4, -1.0]];
+    for arm in EMITTED_ARMS.iter() {
+        let solver = interpreter(arm);
+        for (k, d) in directions.iter().enumerate() {
+            let at = |distance: f64| Pose {
+                rotation: Pose::IDENTITY.rotation,
+                translation: d.map(|x| x * distance),
+            };
+            let reference = solver.solve(&at(1e90)).expect_err("1e90 m is out of reach");
+            for distance in [1e100, 1e150, 1e155, 1e156, 1e200, 1e300, 1e307] {
+                let target = at(distance);
+                let reason = solver.solve(&target).expect_err("far out of reach");
+                assert_eq!(
+                    std::mem::discriminant(&reason),
+                    std::mem::discriminant(&reference),
+                    "{} direction {k} at {distance:e}: {reason:?} vs {reference:?}",
+                    arm.path
+                );
+                let (by, by_ref) = match (reason, reference) {
+                    (Unreachable::BeyondReach { by }, Unreachable::BeyondReach { by: r }) => {
+                        (by, r)
+                    }
+                    (
+                        Unreachable::OutsideLimits { joint, by },
+                        Unreachable::OutsideLimits { joint: j, by: r },
+                    ) => {
+                        assert_eq!(joint, j, "{} direction {k}", arm.path);
+                        (by, r)
+                    }
+                    other => panic!("{}: {other:?}", arm.path),
+                };
+                assert!(by.is_finite(), "{} at {distance:e}: {reason:?}", arm.path);
+                let ratio = (by / distance) / (by_ref / 1e90);
+                assert!(
+                    (ratio - 1.0).abs() < 1e-9,
+                    "{} at {distance:e}: {ratio}",
+                    arm.path
+                );
+                let emitted = (arm.solve)(&target);
+                match &emitted {
+                    Err(e) => assert!(same_reason(e, &reason), "{}: {e:?} vs {reason:?}", arm.path),
+                    Ok(s) => panic!("{}: emitted solutions {s:?}", arm.path),
+                }
+                let near = [0.0; JOINTS];
+                assert!(
+                    same_single(
+                        &(arm.solve_near)(&target, &near),
+                        &solver.solve_near(&target, &near)
+                    ),
+                    "{}: solve_near",
+                    arm.path
+                );
+            }
+        }
+    }
+}

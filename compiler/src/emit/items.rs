@@ -301,6 +301,30 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
             #(#lets)*
             [#(#candidates),*]
         }
+
+        /// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
+        /// value puts joint 5 outside its limits (a rare path; see
+        /// `armforge_runtime::internal::free_joint_1`).
+        #[inline]
+        fn free_candidates(
+            target: &::armforge_runtime::Pose #generic,
+            reference: &[#ty; 4],
+        ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
+            let mut all = candidates(target, reference);
+            ::armforge_runtime::internal::free_joint_1(
+                &JOINT_TABLE,
+                [&BASE, &TOOL],
+                &SETTINGS,
+                target,
+                reference,
+                &mut all,
+                |moved: &[#ty; 4], i: usize| {
+                    let again = candidates(target, moved);
+                    again.get(i).copied()
+                },
+            );
+            all
+        }
     };
     (body, notes)
 }
@@ -391,6 +415,14 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
             current: &[#ty; JOINTS],
         ) -> ::core::result::Result<::armforge_runtime::Solution #generic, ::armforge_runtime::Unreachable #generic> {
             ::armforge_runtime::internal::check_pose(target)?;
+            // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
+            if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
+                if let ::core::result::Result::Err(reason) = solve_near(&far.target, current) {
+                    return ::core::result::Result::Err(
+                        ::armforge_runtime::internal::scale_reason(&JOINT_TABLE, reason, far.scale),
+                    );
+                }
+            }
             let anchor = ::armforge_runtime::internal::anchors_near(
                 &JOINT_TABLE,
                 current,
@@ -416,7 +448,7 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &candidates(target, &reference),
+                &free_candidates(target, &reference),
                 current,
                 &anchor,
             )
@@ -430,12 +462,36 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
             branch: ::armforge_runtime::Branch,
         ) -> ::core::result::Result<::armforge_runtime::Solution #generic, ::armforge_runtime::Unreachable #generic> {
             ::armforge_runtime::internal::check_pose(target)?;
+            // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
+            if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
+                if let ::core::result::Result::Err(reason) = solve_branch(&far.target, branch) {
+                    return ::core::result::Result::Err(
+                        ::armforge_runtime::internal::scale_reason(&JOINT_TABLE, reason, far.scale),
+                    );
+                }
+            }
             let reference = ZERO_REFERENCE;
             let candidate = match branch {
                 #(#by_label)*
                 _ => return ::core::result::Result::Err(::armforge_runtime::Unreachable::BranchUnavailable),
             };
-            ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &CENTERS)
+            let mut one = [candidate];
+            ::armforge_runtime::internal::free_joint_1(
+                &JOINT_TABLE,
+                [&BASE, &TOOL],
+                &SETTINGS,
+                target,
+                &reference,
+                &mut one,
+                |moved: &[#ty; 4], _: usize| {
+                    let reference = *moved;
+                    match branch {
+                        #(#own)*
+                        _ => ::core::option::Option::None,
+                    }
+                },
+            );
+            ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
         }
     }
 }
@@ -512,10 +568,18 @@ pub fn module(
             {
                 return ::armforge_runtime::SolutionSet::unreachable(reason);
             }
+            // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
+            if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
+                if let ::core::option::Option::Some(reason) = solve(&far.target).reason() {
+                    return ::armforge_runtime::SolutionSet::unreachable(
+                        ::armforge_runtime::internal::scale_reason(&JOINT_TABLE, reason, far.scale),
+                    );
+                }
+            }
             ::armforge_runtime::internal::collect(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &candidates(target, &ZERO_REFERENCE),
+                &free_candidates(target, &ZERO_REFERENCE),
             )
         }
 

@@ -148,9 +148,6 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         "j1_free",
         "≥ 0 when the wrist center is on axis 1",
     );
-    let safe = g.max(rho2, floor);
-    let one = g.constant(1.0);
-    let inv = g.div(one, safe);
     let mut out = Vec::new();
     for (facing, tag) in [(true, "p"), (false, "m")] {
         // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|².
@@ -191,8 +188,9 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             vec3::add(g, a, w)
         };
         let (nc, ns) = rotate_onto(g, k.h1, x, y_perp);
-        let c1 = g.mul(nc, inv);
-        let s1 = g.mul(ns, inv);
+        // Scaled by |x| |radial| rather than ρ²: near axis 1 the two differ by rounding far
+        // beyond ρ², and the pair must stay a rotation.
+        let (c1, s1) = super::unit_pair(g, nc, ns);
         let (rc, rs) = if facing {
             t.reference1
         } else {
@@ -200,11 +198,15 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         };
         let c1 = g.select(singular, rc, c1);
         let s1 = g.select(singular, rs, s1);
-        let c1 = g.name(c1, &format!("j1_cos_{tag}"), "cos θ1 = (x · radial) / ρ²");
+        let c1 = g.name(
+            c1,
+            &format!("j1_cos_{tag}"),
+            "cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|",
+        );
         let s1 = g.name(
             s1,
             &format!("j1_sin_{tag}"),
-            "sin θ1 = h1 · (x × radial) / ρ²",
+            "sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|",
         );
         let theta1 = g.atan2(s1, c1);
         let theta1 = g.name(theta1, &format!("q1_{tag}"), "θ1 = atan2(sin θ1, cos θ1)");

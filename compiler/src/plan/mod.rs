@@ -259,6 +259,29 @@ pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLay
     (candidates, rule)
 }
 
+/// `(c, s)` scaled to a unit pair. Where a family divides by a squared distance that, near a
+/// singular configuration (a cylindrical arm's wrist center near axis 1, a polar arm's near
+/// the pivot), rounding makes differ from the product of the two lengths it stands for, the
+/// pair drifts off the unit circle, and the wrist would undo something that is not a rotation.
+/// `atan2` of the pair (the reported angle) is unchanged, so the wrist undoes exactly the
+/// rotation of that angle. A pair with no direction at all, `(0, 0)`, becomes `(1, 0)`, the
+/// angle `atan2(0, 0) = 0`.
+pub(crate) fn unit_pair(g: &mut Graph, c: Id, s: Id) -> (Id, Id) {
+    let cc = g.mul(c, c);
+    let ss = g.mul(s, s);
+    let r2 = g.add(cc, ss);
+    let tiny = g.exact(1e-300);
+    let safe = g.max(r2, tiny);
+    let r = g.sqrt(safe);
+    let one = g.constant(1.0);
+    let inv = g.div(one, r);
+    let unit_c = g.mul(c, inv);
+    let unit_s = g.mul(s, inv);
+    let some = g.sub(r2, tiny);
+    let zero = g.constant(0.0);
+    (g.select(some, unit_c, one), g.select(some, unit_s, zero))
+}
+
 /// The plan from a family's candidates: compacts the graph, sets the tolerances, the capacity
 /// and the reference values of the two joints that `solve` holds when they are free
 /// (`free`, 0-based; their cosines and sines are the plan's reference inputs).

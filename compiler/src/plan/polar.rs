@@ -57,6 +57,11 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let pp = num::dot(&k.p, &k.p);
     let nearest2 = (pp - k.m * k.m).max(0.0);
     let nearest = g.constant(nearest2.sqrt());
+    // Joint 2 held at the pivot: its zero, or the limit nearest it.
+    let j2 = arm.joints[1];
+    let hold = j2.model_value(0.0_f64.max(j2.limits[0]).min(j2.limits[1]));
+    let hold_c = g.constant(hold.cos());
+    let hold_s = g.constant(hold.sin());
     let mut out = Vec::new();
     for i in 0..2 {
         let tag = if i == 0 { "p" } else { "m" };
@@ -70,9 +75,12 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             format!("√(d² − (|P|² − m²)), |P|² − m² = {} m²", tidy(nearest2)),
         );
         let floor = g.exact(tol * tol);
-        let n = g.max(d2, floor);
-        let one_c = g.constant(1.0);
-        let inv_n = g.div(one_c, n);
+        let pivot = g.sub(floor, d2);
+        let pivot = g.name(
+            pivot,
+            &format!("pivot_{tag}"),
+            "≥ 0 when the wrist center is on axis 2: joint 2 is free",
+        );
         for (extended, rtag) in [(true, "p"), (false, "m")] {
             let tag2 = format!("{tag}{rtag}");
             let minus_m = g.constant(-k.m);
@@ -91,14 +99,18 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
                 vec3::add_const(g, a, k.p)
             };
             let (nc, ns) = rotate_onto(g, k.h2, x, one.w[i]);
-            let theta2 = g.atan2(ns, nc);
+            // Scaled by |x| |w| rather than d²: near the pivot (d → 0) the two differ by
+            // rounding far beyond d², and the pair must stay a rotation.
+            let (c2, s2) = super::unit_pair(g, nc, ns);
+            // At the pivot (the wrist center on axis 2) joint 2 is free: held at `hold`.
+            let c2 = g.select(pivot, hold_c, c2);
+            let s2 = g.select(pivot, hold_s, s2);
+            let theta2 = g.atan2(s2, c2);
             let theta2 = g.name(
                 theta2,
                 &format!("q2_{tag2}"),
-                "Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3",
+                "Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)",
             );
-            let c2 = g.mul(nc, inv_n);
-            let s2 = g.mul(ns, inv_n);
             let (c1, s1) = one.roots[i];
             out.push(ArmSolution {
                 angles: [one.angles[i], theta2, s],

@@ -3,8 +3,8 @@
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: cylindrical with a spherical wrist; 4 candidate branches, at most 4 solutions.
-// Cost of one solve: 8 sqrt, 14 atan2, 5 divisions, no loops, no heap.
-// Cost of one solve_branch: at most 4 sqrt, 4 atan2, 2 divisions (that branch alone).
+// Cost of one solve: 10 sqrt, 14 atan2, 6 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 5 sqrt, 4 atan2, 2 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -357,10 +357,23 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     ) {
         return ::armforge_runtime::SolutionSet::unreachable(reason);
     }
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::option::Option::Some(reason) = solve(&far.target).reason() {
+            return ::armforge_runtime::SolutionSet::unreachable(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     ::armforge_runtime::internal::collect(
         &JOINT_TABLE,
         &SETTINGS,
-        &candidates(target, &ZERO_REFERENCE),
+        &free_candidates(target, &ZERO_REFERENCE),
     )
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
@@ -383,6 +396,19 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::result::Result::Err(reason) = solve_near(&far.target, current) {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     let anchor = ::armforge_runtime::internal::anchors_near(
         &JOINT_TABLE,
         current,
@@ -428,7 +454,7 @@ pub fn solve_near(
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
         &SETTINGS,
-        &candidates(target, &reference),
+        &free_candidates(target, &reference),
         current,
         &anchor,
     )
@@ -444,6 +470,19 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::result::Result::Err(reason) = solve_branch(&far.target, branch) {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     let reference = ZERO_REFERENCE;
     let candidate = match branch {
         ::armforge_runtime::Branch {
@@ -472,12 +511,42 @@ pub fn solve_branch(
             );
         }
     };
-    ::armforge_runtime::internal::finish_one(
+    let mut one = [candidate];
+    ::armforge_runtime::internal::free_joint_1(
         &JOINT_TABLE,
+        [&BASE, &TOOL],
         &SETTINGS,
-        &candidate,
-        &CENTERS,
-    )
+        target,
+        &reference,
+        &mut one,
+        |moved: &[f64; 4], _: usize| {
+            let reference = *moved;
+            match branch {
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Only,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_1(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Only,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_2(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Only,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_3(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Only,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_4(target, &reference)),
+                _ => ::core::option::Option::None,
+            }
+        },
+    );
+    ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -563,157 +632,164 @@ fn candidates(
     let t126 = ::armforge_runtime::math::sqrt(closest2.max(0.0));
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
-    let t133 = 1.5007709975810246 * slide_root;
-    let t134 = 2.252313587180344 * dw;
+    let t130 = 1.5007709975810246 * slide_root;
+    let t131 = 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_p = t133 - t134;
-    let t140 = 1.4026694727397795 * (height - 0.11820820044027433);
+    let slide3_p = t130 - t131;
+    let t137 = 1.4026694727397795 * (height - 0.11820820044027433);
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_p = t140 + 0.7768010686602598 * slide3_p;
-    let t146 = w0_x - 0.29088833522944446 * slide3_p;
-    let t147 = w0_y + 0.49707832103632676 * slide3_p;
-    let t148 = w0_z - 0.3350895823358808 * slide3_p;
-    // cos θ1 = (x · radial) / ρ²
+    let slide2_p = t137 + 0.7768010686602598 * slide3_p;
+    let t143 = w0_x - 0.29088833522944446 * slide3_p;
+    let t144 = w0_y + 0.49707832103632676 * slide3_p;
+    let t145 = w0_z - 0.3350895823358808 * slide3_p;
+    let t150 = radial_z * t145 + (radial_x * t143 + radial_y * t144);
+    let t164 = 0.5193670476948382 * (radial_z * t144 - radial_y * t145)
+        - 0.24745573783013325 * (radial_x * t145 - radial_z * t143)
+        - 0.8179385842370391 * (radial_y * t143 - radial_x * t144);
+    let t167 = t150 * t150 + t164 * t164;
+    let t172 = 1.0 / ::armforge_runtime::math::sqrt(t167.max(1e-300));
+    let t175 = t167 - 1e-300;
+    // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
     let j1_cos_p = if j1_free >= 0.0 {
         ref1_cos
     } else {
-        t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
+        if t175 >= 0.0 { t150 * t172 } else { 1.0 }
     };
-    // sin θ1 = h1 · (x × radial) / ρ²
+    // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
     let j1_sin_p = if j1_free >= 0.0 {
         ref1_sin
     } else {
-        t131
-            * (0.5193670476948382 * (radial_z * t147 - radial_y * t148)
-                - 0.24745573783013325 * (radial_x * t148 - radial_z * t146)
-                - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
+        if t175 >= 0.0 { t164 * t172 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
-    let t173 = t133 + t134;
+    let t181 = t130 + t131;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t173;
+    let slide3_m = -t181;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
-    let slide2_m = t140 - 0.7768010686602598 * t173;
-    let t180 = w0_x + 0.29088833522944446 * t173;
-    let t181 = w0_y - 0.49707832103632676 * t173;
-    let t182 = w0_z + 0.3350895823358808 * t173;
-    // cos θ1 = (x · radial) / ρ²
+    let slide2_m = t137 - 0.7768010686602598 * t181;
+    let t188 = w0_x + 0.29088833522944446 * t181;
+    let t189 = w0_y - 0.49707832103632676 * t181;
+    let t190 = w0_z + 0.3350895823358808 * t181;
+    let t195 = radial_z * t190 + (radial_x * t188 + radial_y * t189);
+    let t209 = 0.5193670476948382 * (radial_z * t189 - radial_y * t190)
+        - 0.24745573783013325 * (radial_x * t190 - radial_z * t188)
+        - 0.8179385842370391 * (radial_y * t188 - radial_x * t189);
+    let t212 = t195 * t195 + t209 * t209;
+    let t215 = 1.0 / ::armforge_runtime::math::sqrt(t212.max(1e-300));
+    let t218 = t212 - 1e-300;
+    // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
     let j1_cos_m = if j1_free >= 0.0 {
         -ref1_cos
     } else {
-        t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
+        if t218 >= 0.0 { t195 * t215 } else { 1.0 }
     };
-    // sin θ1 = h1 · (x × radial) / ρ²
+    // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
     let j1_sin_m = if j1_free >= 0.0 {
         -ref1_sin
     } else {
-        t131
-            * (0.5193670476948382 * (radial_z * t181 - radial_y * t182)
-                - 0.24745573783013325 * (radial_x * t182 - radial_z * t180)
-                - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
+        if t218 >= 0.0 { t209 * t215 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
-    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+    let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
-    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+    let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
         - 0.16910369449503013 * r12;
-    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+    let t243 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
         - 0.16910369449503013 * r22;
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
-    let g6_x = 0.6263556831868291 * t226
-        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    let g6_x = 0.6263556831868291 * t243
+        + (0.7615120585877142 * t233 + 0.16666716162778683 * t238);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
-    let g6_y = 0.7699650798979213 * t226
-        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    let g6_y = 0.7699650798979213 * t243
+        + (0.02034657531518593 * t238 - 0.6377615483946422 * t233);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
-    let g6_z = 0.12178806951975465 * t226
-        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
-    let t249 = 0.9569213960465764 * r02
+    let g6_z = 0.12178806951975465 * t243
+        + (0.11558370133704315 * t233 - 0.9858032633887357 * t238);
+    let t266 = 0.9569213960465764 * r02
         - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
-    let t254 = 0.9569213960465764 * r12
+    let t271 = 0.9569213960465764 * r12
         - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
-    let t259 = 0.9569213960465764 * r22
+    let t276 = 0.9569213960465764 * r22
         - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
-    let gx_x = 0.6263556831868291 * t259
-        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    let gx_x = 0.6263556831868291 * t276
+        + (0.7615120585877142 * t266 + 0.16666716162778683 * t271);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
-    let gx_y = 0.7699650798979213 * t259
-        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    let gx_y = 0.7699650798979213 * t276
+        + (0.02034657531518593 * t271 - 0.6377615483946422 * t266);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
-    let gx_z = 0.12178806951975465 * t259
-        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
-    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+    let gx_z = 0.12178806951975465 * t276
+        + (0.11558370133704315 * t266 - 0.9858032633887357 * t271);
+    let t296 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
         - 0.8179385842370391 * g6_z;
-    let t280 = 0.5193670476948382 * t279;
-    let t281 = 0.24745573783013325 * t279;
-    let t282 = 0.8179385842370391 * t279;
-    let t283 = g6_x - t280;
-    let t284 = g6_y + t281;
-    let t285 = g6_z + t282;
-    let t288 = 0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z;
-    let t291 = 0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z;
-    let t294 = 0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x;
+    let t297 = 0.5193670476948382 * t296;
+    let t298 = 0.24745573783013325 * t296;
+    let t299 = 0.8179385842370391 * t296;
+    let t300 = g6_x - t297;
+    let t301 = g6_y + t298;
+    let t302 = g6_z + t299;
+    let t305 = 0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z;
+    let t308 = 0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z;
+    let t311 = 0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t280 + (j1_cos_p * t283 - j1_sin_p * t288);
+    let v_b1_x = t297 + (j1_cos_p * t300 - j1_sin_p * t305);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * t284 + j1_sin_p * t291 - t281;
+    let v_b1_y = j1_cos_p * t301 + j1_sin_p * t308 - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * t285 - j1_sin_p * t294 - t282;
-    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+    let v_b1_z = j1_cos_p * t302 - j1_sin_p * t311 - t299;
+    let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
-    let t312 = 0.5193670476948382 * t311;
-    let t313 = 0.24745573783013325 * t311;
-    let t314 = 0.8179385842370391 * t311;
-    let t315 = gx_x - t312;
-    let t316 = gx_y + t313;
-    let t317 = gx_z + t314;
-    let t320 = 0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z;
-    let t323 = 0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z;
-    let t326 = 0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x;
+    let t329 = 0.5193670476948382 * t328;
+    let t330 = 0.24745573783013325 * t328;
+    let t331 = 0.8179385842370391 * t328;
+    let t332 = gx_x - t329;
+    let t333 = gx_y + t330;
+    let t334 = gx_z + t331;
+    let t337 = 0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z;
+    let t340 = 0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z;
+    let t343 = 0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t312 + (j1_cos_p * t315 - j1_sin_p * t320);
+    let xv_b1_x = t329 + (j1_cos_p * t332 - j1_sin_p * t337);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * t316 + j1_sin_p * t323 - t313;
+    let xv_b1_y = j1_cos_p * t333 + j1_sin_p * t340 - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * t317 - j1_sin_p * t326 - t314;
+    let xv_b1_z = j1_cos_p * t334 - j1_sin_p * t343 - t331;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
-    let t349 = j5_a_b1 + 0.5365182302993144;
+    let t366 = j5_a_b1 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b1 = 2.7379979029778605 * t349;
+    let j5_alpha_b1 = 2.7379979029778605 * t366;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 2.1814294885999184 * j5_a_b1 + 1.8437818100880325;
-    let t357 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
-    let t360 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
-    let t363 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
-    let t372 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
+    let t374 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
+    let t377 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
+    let t380 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
+    let t389 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t363 * t363 + (t357 * t357 + t360 * t360)
-        - 2.7379979029778605 * (t372 * t372);
+    let j5_gap_b1 = t380 * t380 + (t374 * t374 + t377 * t377)
+        - 2.7379979029778605 * (t389 * t389);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b1).max(0.0),
     );
-    let t387 = 0.008443901475437254 * j5_beta_b1;
-    let t389 = 0.8218117691663878 * j5_beta_b1;
-    let t390 = 0.569696512704339 * j5_beta_b1;
-    let t394 = 0.591785650953 * j5_gamma_b1;
-    let t395 = 0.06565761653993642 * j5_gamma_b1;
-    let t396 = 0.10348524244829747 * j5_gamma_b1;
-    let t397 = t387 - 0.35368845495650103 * t349;
-    let t398 = 0.8672481684250324 * t349 - t389;
-    let t399 = t390 - 2.572822887006619 * t349;
+    let t404 = 0.008443901475437254 * j5_beta_b1;
+    let t406 = 0.8218117691663878 * j5_beta_b1;
+    let t407 = 0.569696512704339 * j5_beta_b1;
+    let t411 = 0.591785650953 * j5_gamma_b1;
+    let t412 = 0.06565761653993642 * j5_gamma_b1;
+    let t413 = 0.10348524244829747 * j5_gamma_b1;
+    let t414 = t404 - 0.35368845495650103 * t366;
+    let t415 = 0.8672481684250324 * t366 - t406;
+    let t416 = t407 - 2.572822887006619 * t366;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t397 - t394;
+    let z_b1p_x = t414 - t411;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t395 + t398;
+    let z_b1p_y = t412 + t415;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t396 + t399;
+    let z_b1p_z = t413 + t416;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1p = 1.8297406473129645
         * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
@@ -728,57 +804,57 @@ fn candidates(
                     * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
-    let t432 = j5_alpha_b1 - j5_a_b1;
-    let t436 = t387 - 0.12917776692663924 * t432;
-    let t437 = 0.31674537350149495 * t432 - t389;
-    let t438 = t390 - 0.9396730670277007 * t432;
-    let t439 = t436 - t394;
-    let t440 = t395 + t437;
-    let t441 = t396 + t438;
-    let t446 = v_b1_z * t441 + (v_b1_x * t439 + v_b1_y * t440);
-    let t460 = 0.31674537350149495 * (v_b1_x * t441 - v_b1_z * t439)
-        - 0.12917776692663924 * (v_b1_z * t440 - v_b1_y * t441)
-        - 0.9396730670277007 * (v_b1_y * t439 - v_b1_x * t440);
-    let t463 = t446 * t446 + t460 * t460;
-    let t467 = 1.0 / ::armforge_runtime::math::sqrt(t463.max(1.0000000000000001e-40));
+    let t449 = j5_alpha_b1 - j5_a_b1;
+    let t453 = t404 - 0.12917776692663924 * t449;
+    let t454 = 0.31674537350149495 * t449 - t406;
+    let t455 = t407 - 0.9396730670277007 * t449;
+    let t456 = t453 - t411;
+    let t457 = t412 + t454;
+    let t458 = t413 + t455;
+    let t463 = v_b1_z * t458 + (v_b1_x * t456 + v_b1_y * t457);
+    let t477 = 0.31674537350149495 * (v_b1_x * t458 - v_b1_z * t456)
+        - 0.12917776692663924 * (v_b1_z * t457 - v_b1_y * t458)
+        - 0.9396730670277007 * (v_b1_y * t456 - v_b1_x * t457);
+    let t480 = t463 * t463 + t477 * t477;
+    let t484 = 1.0 / ::armforge_runtime::math::sqrt(t480.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t463;
+    let aligned_b1 = 1.0000000000000001e-40 - t480;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t477 * t484 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
-    let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
+    let t495 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
-    let t479 = 0.12917776692663924 * t478;
-    let t480 = 0.31674537350149495 * t478;
-    let t481 = 0.9396730670277007 * t478;
-    let t482 = xv_b1_x + t479;
-    let t483 = xv_b1_y - t480;
-    let t484 = xv_b1_z + t481;
-    let t487 = 0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y;
-    let t490 = 0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x;
-    let t493 = 0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x;
-    let t503 = j4_cos_b1p * t482 - j4_sin_b1p * t487 - t479;
-    let t504 = t480 + (j4_cos_b1p * t483 - j4_sin_b1p * t490);
-    let t505 = j4_cos_b1p * t484 + j4_sin_b1p * t493 - t481;
-    let t510 = 0.569696512704339 * t505
-        + (0.008443901475437254 * t503 - 0.8218117691663878 * t504);
-    let t511 = 0.008443901475437254 * t510;
-    let t512 = 0.8218117691663878 * t510;
-    let t513 = 0.569696512704339 * t510;
+    let t496 = 0.12917776692663924 * t495;
+    let t497 = 0.31674537350149495 * t495;
+    let t498 = 0.9396730670277007 * t495;
+    let t499 = xv_b1_x + t496;
+    let t500 = xv_b1_y - t497;
+    let t501 = xv_b1_z + t498;
+    let t504 = 0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y;
+    let t507 = 0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x;
+    let t510 = 0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x;
+    let t520 = j4_cos_b1p * t499 - j4_sin_b1p * t504 - t496;
+    let t521 = t497 + (j4_cos_b1p * t500 - j4_sin_b1p * t507);
+    let t522 = j4_cos_b1p * t501 + j4_sin_b1p * t510 - t498;
+    let t527 = 0.569696512704339 * t522
+        + (0.008443901475437254 * t520 - 0.8218117691663878 * t521);
+    let t528 = 0.008443901475437254 * t527;
+    let t529 = 0.8218117691663878 * t527;
+    let t530 = 0.569696512704339 * t527;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t511
-        + (j5_cos_b1p * (t503 - t511)
-            + j5_sin_b1p * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
+    let y6_b1p_x = t528
+        + (j5_cos_b1p * (t520 - t528)
+            + j5_sin_b1p * (0.8218117691663878 * t522 + 0.569696512704339 * t521));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t504 + t512)
-        - j5_sin_b1p * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
+    let y6_b1p_y = j5_cos_b1p * (t521 + t529)
+        - j5_sin_b1p * (0.569696512704339 * t520 - 0.008443901475437254 * t522) - t529;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t513
-        + (j5_cos_b1p * (t505 - t513)
-            - j5_sin_b1p * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
+    let y6_b1p_z = t530
+        + (j5_cos_b1p * (t522 - t530)
+            - j5_sin_b1p * (0.008443901475437254 * t521 + 0.8218117691663878 * t520));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1p = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -792,11 +868,11 @@ fn candidates(
             + (0.039911001067778125 * y6_b1p_x - 0.07193921016870876 * y6_b1p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t394 + t397;
+    let z_b1m_x = t411 + t414;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t398 - t395;
+    let z_b1m_y = t415 - t412;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t399 - t396;
+    let z_b1m_z = t416 - t413;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1m = 1.8297406473129645
         * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
@@ -811,44 +887,44 @@ fn candidates(
                     * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
-    let t587 = t394 + t436;
-    let t588 = t437 - t395;
-    let t589 = t438 - t396;
-    let t594 = v_b1_z * t589 + (v_b1_x * t587 + v_b1_y * t588);
-    let t608 = 0.31674537350149495 * (v_b1_x * t589 - v_b1_z * t587)
-        - 0.12917776692663924 * (v_b1_z * t588 - v_b1_y * t589)
-        - 0.9396730670277007 * (v_b1_y * t587 - v_b1_x * t588);
-    let t611 = t594 * t594 + t608 * t608;
-    let t614 = 1.0 / ::armforge_runtime::math::sqrt(t611.max(1.0000000000000001e-40));
+    let t604 = t411 + t453;
+    let t605 = t454 - t412;
+    let t606 = t455 - t413;
+    let t611 = v_b1_z * t606 + (v_b1_x * t604 + v_b1_y * t605);
+    let t625 = 0.31674537350149495 * (v_b1_x * t606 - v_b1_z * t604)
+        - 0.12917776692663924 * (v_b1_z * t605 - v_b1_y * t606)
+        - 0.9396730670277007 * (v_b1_y * t604 - v_b1_x * t605);
+    let t628 = t611 * t611 + t625 * t625;
+    let t631 = 1.0 / ::armforge_runtime::math::sqrt(t628.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t611;
-    let t618 = -ref4_cos;
-    let t619 = -ref4_sin;
+    let aligned_b1_2 = 1.0000000000000001e-40 - t628;
+    let t635 = -ref4_cos;
+    let t636 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t618 } else { t594 * t614 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t635 } else { t611 * t631 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t619 } else { t608 * t614 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t636 } else { t625 * t631 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t632 = t482 * j4_cos_b1m - t487 * j4_sin_b1m - t479;
-    let t633 = t480 + (t483 * j4_cos_b1m - t490 * j4_sin_b1m);
-    let t634 = t484 * j4_cos_b1m + t493 * j4_sin_b1m - t481;
-    let t639 = 0.569696512704339 * t634
-        + (0.008443901475437254 * t632 - 0.8218117691663878 * t633);
-    let t640 = 0.008443901475437254 * t639;
-    let t641 = 0.8218117691663878 * t639;
-    let t642 = 0.569696512704339 * t639;
+    let t649 = t499 * j4_cos_b1m - t504 * j4_sin_b1m - t496;
+    let t650 = t497 + (t500 * j4_cos_b1m - t507 * j4_sin_b1m);
+    let t651 = t501 * j4_cos_b1m + t510 * j4_sin_b1m - t498;
+    let t656 = 0.569696512704339 * t651
+        + (0.008443901475437254 * t649 - 0.8218117691663878 * t650);
+    let t657 = 0.008443901475437254 * t656;
+    let t658 = 0.8218117691663878 * t656;
+    let t659 = 0.569696512704339 * t656;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t640
-        + (j5_cos_b1m * (t632 - t640)
-            + j5_sin_b1m * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
+    let y6_b1m_x = t657
+        + (j5_cos_b1m * (t649 - t657)
+            + j5_sin_b1m * (0.8218117691663878 * t651 + 0.569696512704339 * t650));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t633 + t641)
-        - j5_sin_b1m * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
+    let y6_b1m_y = j5_cos_b1m * (t650 + t658)
+        - j5_sin_b1m * (0.569696512704339 * t649 - 0.008443901475437254 * t651) - t658;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t642
-        + (j5_cos_b1m * (t634 - t642)
-            - j5_sin_b1m * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
+    let y6_b1m_z = t659
+        + (j5_cos_b1m * (t651 - t659)
+            - j5_sin_b1m * (0.008443901475437254 * t650 + 0.8218117691663878 * t649));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1m = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -862,51 +938,51 @@ fn candidates(
             + (0.039911001067778125 * y6_b1m_x - 0.07193921016870876 * y6_b1m_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t280 + (j1_cos_m * t283 - j1_sin_m * t288);
+    let v_b2_x = t297 + (j1_cos_m * t300 - j1_sin_m * t305);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * t284 + j1_sin_m * t291 - t281;
+    let v_b2_y = j1_cos_m * t301 + j1_sin_m * t308 - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * t285 - j1_sin_m * t294 - t282;
+    let v_b2_z = j1_cos_m * t302 - j1_sin_m * t311 - t299;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t312 + (j1_cos_m * t315 - j1_sin_m * t320);
+    let xv_b2_x = t329 + (j1_cos_m * t332 - j1_sin_m * t337);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * t316 + j1_sin_m * t323 - t313;
+    let xv_b2_y = j1_cos_m * t333 + j1_sin_m * t340 - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * t317 - j1_sin_m * t326 - t314;
+    let xv_b2_z = j1_cos_m * t334 - j1_sin_m * t343 - t331;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
-    let t717 = j5_a_b2 + 0.5365182302993144;
+    let t734 = j5_a_b2 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b2 = 2.7379979029778605 * t717;
+    let j5_alpha_b2 = 2.7379979029778605 * t734;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 2.1814294885999184 * j5_a_b2 + 1.8437818100880325;
-    let t723 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
-    let t726 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
-    let t729 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
-    let t736 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
+    let t740 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
+    let t743 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
+    let t746 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
+    let t753 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t729 * t729 + (t723 * t723 + t726 * t726)
-        - 2.7379979029778605 * (t736 * t736);
+    let j5_gap_b2 = t746 * t746 + (t740 * t740 + t743 * t743)
+        - 2.7379979029778605 * (t753 * t753);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b2).max(0.0),
     );
-    let t746 = 0.008443901475437254 * j5_beta_b2;
-    let t747 = 0.8218117691663878 * j5_beta_b2;
-    let t748 = 0.569696512704339 * j5_beta_b2;
-    let t749 = 0.591785650953 * j5_gamma_b2;
-    let t750 = 0.06565761653993642 * j5_gamma_b2;
-    let t751 = 0.10348524244829747 * j5_gamma_b2;
-    let t752 = t746 - 0.35368845495650103 * t717;
-    let t753 = 0.8672481684250324 * t717 - t747;
-    let t754 = t748 - 2.572822887006619 * t717;
+    let t763 = 0.008443901475437254 * j5_beta_b2;
+    let t764 = 0.8218117691663878 * j5_beta_b2;
+    let t765 = 0.569696512704339 * j5_beta_b2;
+    let t766 = 0.591785650953 * j5_gamma_b2;
+    let t767 = 0.06565761653993642 * j5_gamma_b2;
+    let t768 = 0.10348524244829747 * j5_gamma_b2;
+    let t769 = t763 - 0.35368845495650103 * t734;
+    let t770 = 0.8672481684250324 * t734 - t764;
+    let t771 = t765 - 2.572822887006619 * t734;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t752 - t749;
+    let z_b2p_x = t769 - t766;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t750 + t753;
+    let z_b2p_y = t767 + t770;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t751 + t754;
+    let z_b2p_z = t768 + t771;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2p = 1.8297406473129645
         * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
@@ -921,57 +997,57 @@ fn candidates(
                     * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
-    let t780 = j5_alpha_b2 - j5_a_b2;
-    let t784 = t746 - 0.12917776692663924 * t780;
-    let t785 = 0.31674537350149495 * t780 - t747;
-    let t786 = t748 - 0.9396730670277007 * t780;
-    let t787 = t784 - t749;
-    let t788 = t750 + t785;
-    let t789 = t751 + t786;
-    let t794 = v_b2_z * t789 + (v_b2_x * t787 + v_b2_y * t788);
-    let t808 = 0.31674537350149495 * (v_b2_x * t789 - v_b2_z * t787)
-        - 0.12917776692663924 * (v_b2_z * t788 - v_b2_y * t789)
-        - 0.9396730670277007 * (v_b2_y * t787 - v_b2_x * t788);
-    let t811 = t794 * t794 + t808 * t808;
-    let t814 = 1.0 / ::armforge_runtime::math::sqrt(t811.max(1.0000000000000001e-40));
+    let t797 = j5_alpha_b2 - j5_a_b2;
+    let t801 = t763 - 0.12917776692663924 * t797;
+    let t802 = 0.31674537350149495 * t797 - t764;
+    let t803 = t765 - 0.9396730670277007 * t797;
+    let t804 = t801 - t766;
+    let t805 = t767 + t802;
+    let t806 = t768 + t803;
+    let t811 = v_b2_z * t806 + (v_b2_x * t804 + v_b2_y * t805);
+    let t825 = 0.31674537350149495 * (v_b2_x * t806 - v_b2_z * t804)
+        - 0.12917776692663924 * (v_b2_z * t805 - v_b2_y * t806)
+        - 0.9396730670277007 * (v_b2_y * t804 - v_b2_x * t805);
+    let t828 = t811 * t811 + t825 * t825;
+    let t831 = 1.0 / ::armforge_runtime::math::sqrt(t828.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t811;
+    let aligned_b2 = 1.0000000000000001e-40 - t828;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t825 * t831 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
-    let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
+    let t842 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
-    let t826 = 0.12917776692663924 * t825;
-    let t827 = 0.31674537350149495 * t825;
-    let t828 = 0.9396730670277007 * t825;
-    let t829 = xv_b2_x + t826;
-    let t830 = xv_b2_y - t827;
-    let t831 = xv_b2_z + t828;
-    let t834 = 0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y;
-    let t837 = 0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x;
-    let t840 = 0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x;
-    let t850 = j4_cos_b2p * t829 - j4_sin_b2p * t834 - t826;
-    let t851 = t827 + (j4_cos_b2p * t830 - j4_sin_b2p * t837);
-    let t852 = j4_cos_b2p * t831 + j4_sin_b2p * t840 - t828;
-    let t857 = 0.569696512704339 * t852
-        + (0.008443901475437254 * t850 - 0.8218117691663878 * t851);
-    let t858 = 0.008443901475437254 * t857;
-    let t859 = 0.8218117691663878 * t857;
-    let t860 = 0.569696512704339 * t857;
+    let t843 = 0.12917776692663924 * t842;
+    let t844 = 0.31674537350149495 * t842;
+    let t845 = 0.9396730670277007 * t842;
+    let t846 = xv_b2_x + t843;
+    let t847 = xv_b2_y - t844;
+    let t848 = xv_b2_z + t845;
+    let t851 = 0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y;
+    let t854 = 0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x;
+    let t857 = 0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x;
+    let t867 = j4_cos_b2p * t846 - j4_sin_b2p * t851 - t843;
+    let t868 = t844 + (j4_cos_b2p * t847 - j4_sin_b2p * t854);
+    let t869 = j4_cos_b2p * t848 + j4_sin_b2p * t857 - t845;
+    let t874 = 0.569696512704339 * t869
+        + (0.008443901475437254 * t867 - 0.8218117691663878 * t868);
+    let t875 = 0.008443901475437254 * t874;
+    let t876 = 0.8218117691663878 * t874;
+    let t877 = 0.569696512704339 * t874;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t858
-        + (j5_cos_b2p * (t850 - t858)
-            + j5_sin_b2p * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
+    let y6_b2p_x = t875
+        + (j5_cos_b2p * (t867 - t875)
+            + j5_sin_b2p * (0.8218117691663878 * t869 + 0.569696512704339 * t868));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t851 + t859)
-        - j5_sin_b2p * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
+    let y6_b2p_y = j5_cos_b2p * (t868 + t876)
+        - j5_sin_b2p * (0.569696512704339 * t867 - 0.008443901475437254 * t869) - t876;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t860
-        + (j5_cos_b2p * (t852 - t860)
-            - j5_sin_b2p * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
+    let y6_b2p_z = t877
+        + (j5_cos_b2p * (t869 - t877)
+            - j5_sin_b2p * (0.008443901475437254 * t868 + 0.8218117691663878 * t867));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2p = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -985,11 +1061,11 @@ fn candidates(
             + (0.039911001067778125 * y6_b2p_x - 0.07193921016870876 * y6_b2p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t749 + t752;
+    let z_b2m_x = t766 + t769;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t753 - t750;
+    let z_b2m_y = t770 - t767;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t754 - t751;
+    let z_b2m_z = t771 - t768;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2m = 1.8297406473129645
         * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
@@ -1004,42 +1080,42 @@ fn candidates(
                     * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
-    let t931 = t749 + t784;
-    let t932 = t785 - t750;
-    let t933 = t786 - t751;
-    let t938 = v_b2_z * t933 + (v_b2_x * t931 + v_b2_y * t932);
-    let t952 = 0.31674537350149495 * (v_b2_x * t933 - v_b2_z * t931)
-        - 0.12917776692663924 * (v_b2_z * t932 - v_b2_y * t933)
-        - 0.9396730670277007 * (v_b2_y * t931 - v_b2_x * t932);
-    let t955 = t938 * t938 + t952 * t952;
-    let t958 = 1.0 / ::armforge_runtime::math::sqrt(t955.max(1.0000000000000001e-40));
+    let t948 = t766 + t801;
+    let t949 = t802 - t767;
+    let t950 = t803 - t768;
+    let t955 = v_b2_z * t950 + (v_b2_x * t948 + v_b2_y * t949);
+    let t969 = 0.31674537350149495 * (v_b2_x * t950 - v_b2_z * t948)
+        - 0.12917776692663924 * (v_b2_z * t949 - v_b2_y * t950)
+        - 0.9396730670277007 * (v_b2_y * t948 - v_b2_x * t949);
+    let t972 = t955 * t955 + t969 * t969;
+    let t975 = 1.0 / ::armforge_runtime::math::sqrt(t972.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t955;
+    let aligned_b2_2 = 1.0000000000000001e-40 - t972;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t618 } else { t938 * t958 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t635 } else { t955 * t975 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t619 } else { t952 * t958 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t636 } else { t969 * t975 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t974 = t829 * j4_cos_b2m - t834 * j4_sin_b2m - t826;
-    let t975 = t827 + (t830 * j4_cos_b2m - t837 * j4_sin_b2m);
-    let t976 = t831 * j4_cos_b2m + t840 * j4_sin_b2m - t828;
-    let t981 = 0.569696512704339 * t976
-        + (0.008443901475437254 * t974 - 0.8218117691663878 * t975);
-    let t982 = 0.008443901475437254 * t981;
-    let t983 = 0.8218117691663878 * t981;
-    let t984 = 0.569696512704339 * t981;
+    let t991 = t846 * j4_cos_b2m - t851 * j4_sin_b2m - t843;
+    let t992 = t844 + (t847 * j4_cos_b2m - t854 * j4_sin_b2m);
+    let t993 = t848 * j4_cos_b2m + t857 * j4_sin_b2m - t845;
+    let t998 = 0.569696512704339 * t993
+        + (0.008443901475437254 * t991 - 0.8218117691663878 * t992);
+    let t999 = 0.008443901475437254 * t998;
+    let t1000 = 0.8218117691663878 * t998;
+    let t1001 = 0.569696512704339 * t998;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t982
-        + (j5_cos_b2m * (t974 - t982)
-            + j5_sin_b2m * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
+    let y6_b2m_x = t999
+        + (j5_cos_b2m * (t991 - t999)
+            + j5_sin_b2m * (0.8218117691663878 * t993 + 0.569696512704339 * t992));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t975 + t983)
-        - j5_sin_b2m * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
+    let y6_b2m_y = j5_cos_b2m * (t992 + t1000)
+        - j5_sin_b2m * (0.569696512704339 * t991 - 0.008443901475437254 * t993) - t1000;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t984
-        + (j5_cos_b2m * (t976 - t984)
-            - j5_sin_b2m * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
+    let y6_b2m_z = t1001
+        + (j5_cos_b2m * (t993 - t1001)
+            - j5_sin_b2m * (0.008443901475437254 * t992 + 0.8218117691663878 * t991));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2m = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -1151,6 +1227,29 @@ fn candidates(
         },
     ]
 }
+/// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
+/// value puts joint 5 outside its limits (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`).
+#[inline]
+fn free_candidates(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> [::armforge_runtime::internal::Candidate; 4] {
+    let mut all = candidates(target, reference);
+    ::armforge_runtime::internal::free_joint_1(
+        &JOINT_TABLE,
+        [&BASE, &TOOL],
+        &SETTINGS,
+        target,
+        reference,
+        &mut all,
+        |moved: &[f64; 4], i: usize| {
+            let again = candidates(target, moved);
+            again.get(i).copied()
+        },
+    );
+    all
+}
 /// The closed-form steps of branch 1 alone (facing, only, leading).
 #[allow(
     clippy::approx_constant,
@@ -1231,123 +1330,126 @@ fn branch_1(
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
     let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
         + 0.7768010686602598 * slide3_p;
-    let t146 = w0_x - 0.29088833522944446 * slide3_p;
-    let t147 = w0_y + 0.49707832103632676 * slide3_p;
-    let t148 = w0_z - 0.3350895823358808 * slide3_p;
-    // cos θ1 = (x · radial) / ρ²
+    let t143 = w0_x - 0.29088833522944446 * slide3_p;
+    let t144 = w0_y + 0.49707832103632676 * slide3_p;
+    let t145 = w0_z - 0.3350895823358808 * slide3_p;
+    let t150 = radial_z * t145 + (radial_x * t143 + radial_y * t144);
+    let t164 = 0.5193670476948382 * (radial_z * t144 - radial_y * t145)
+        - 0.24745573783013325 * (radial_x * t145 - radial_z * t143)
+        - 0.8179385842370391 * (radial_y * t143 - radial_x * t144);
+    let t167 = t150 * t150 + t164 * t164;
+    let t172 = 1.0 / ::armforge_runtime::math::sqrt(t167.max(1e-300));
+    let t175 = t167 - 1e-300;
+    // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
     let j1_cos_p = if j1_free >= 0.0 {
         ref1_cos
     } else {
-        t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
+        if t175 >= 0.0 { t150 * t172 } else { 1.0 }
     };
-    // sin θ1 = h1 · (x × radial) / ρ²
+    // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
     let j1_sin_p = if j1_free >= 0.0 {
         ref1_sin
     } else {
-        t131
-            * (0.5193670476948382 * (radial_z * t147 - radial_y * t148)
-                - 0.24745573783013325 * (radial_x * t148 - radial_z * t146)
-                - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
+        if t175 >= 0.0 { t164 * t172 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
-    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+    let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
-    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+    let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
         - 0.16910369449503013 * r12;
-    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+    let t243 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
         - 0.16910369449503013 * r22;
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
-    let g6_x = 0.6263556831868291 * t226
-        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    let g6_x = 0.6263556831868291 * t243
+        + (0.7615120585877142 * t233 + 0.16666716162778683 * t238);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
-    let g6_y = 0.7699650798979213 * t226
-        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    let g6_y = 0.7699650798979213 * t243
+        + (0.02034657531518593 * t238 - 0.6377615483946422 * t233);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
-    let g6_z = 0.12178806951975465 * t226
-        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
-    let t249 = 0.9569213960465764 * r02
+    let g6_z = 0.12178806951975465 * t243
+        + (0.11558370133704315 * t233 - 0.9858032633887357 * t238);
+    let t266 = 0.9569213960465764 * r02
         - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
-    let t254 = 0.9569213960465764 * r12
+    let t271 = 0.9569213960465764 * r12
         - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
-    let t259 = 0.9569213960465764 * r22
+    let t276 = 0.9569213960465764 * r22
         - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
-    let gx_x = 0.6263556831868291 * t259
-        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    let gx_x = 0.6263556831868291 * t276
+        + (0.7615120585877142 * t266 + 0.16666716162778683 * t271);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
-    let gx_y = 0.7699650798979213 * t259
-        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    let gx_y = 0.7699650798979213 * t276
+        + (0.02034657531518593 * t271 - 0.6377615483946422 * t266);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
-    let gx_z = 0.12178806951975465 * t259
-        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
-    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+    let gx_z = 0.12178806951975465 * t276
+        + (0.11558370133704315 * t266 - 0.9858032633887357 * t271);
+    let t296 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
         - 0.8179385842370391 * g6_z;
-    let t280 = 0.5193670476948382 * t279;
-    let t281 = 0.24745573783013325 * t279;
-    let t282 = 0.8179385842370391 * t279;
+    let t297 = 0.5193670476948382 * t296;
+    let t298 = 0.24745573783013325 * t296;
+    let t299 = 0.8179385842370391 * t296;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t280
-        + (j1_cos_p * (g6_x - t280)
+    let v_b1_x = t297
+        + (j1_cos_p * (g6_x - t297)
             - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * (g6_y + t281)
-        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b1_y = j1_cos_p * (g6_y + t298)
+        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * (g6_z + t282)
-        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
-    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+    let v_b1_z = j1_cos_p * (g6_z + t299)
+        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
+    let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
-    let t312 = 0.5193670476948382 * t311;
-    let t313 = 0.24745573783013325 * t311;
-    let t314 = 0.8179385842370391 * t311;
+    let t329 = 0.5193670476948382 * t328;
+    let t330 = 0.24745573783013325 * t328;
+    let t331 = 0.8179385842370391 * t328;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t312
-        + (j1_cos_p * (gx_x - t312)
+    let xv_b1_x = t329
+        + (j1_cos_p * (gx_x - t329)
             - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * (gx_y + t313)
-        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b1_y = j1_cos_p * (gx_y + t330)
+        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * (gx_z + t314)
-        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b1_z = j1_cos_p * (gx_z + t331)
+        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
-    let t349 = j5_a_b1 + 0.5365182302993144;
+    let t366 = j5_a_b1 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b1 = 2.7379979029778605 * t349;
+    let j5_alpha_b1 = 2.7379979029778605 * t366;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 2.1814294885999184 * j5_a_b1 + 1.8437818100880325;
-    let t357 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
-    let t360 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
-    let t363 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
-    let t372 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
+    let t374 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
+    let t377 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
+    let t380 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
+    let t389 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t363 * t363 + (t357 * t357 + t360 * t360)
-        - 2.7379979029778605 * (t372 * t372);
+    let j5_gap_b1 = t380 * t380 + (t374 * t374 + t377 * t377)
+        - 2.7379979029778605 * (t389 * t389);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b1).max(0.0),
     );
-    let t387 = 0.008443901475437254 * j5_beta_b1;
-    let t389 = 0.8218117691663878 * j5_beta_b1;
-    let t390 = 0.569696512704339 * j5_beta_b1;
-    let t394 = 0.591785650953 * j5_gamma_b1;
-    let t395 = 0.06565761653993642 * j5_gamma_b1;
-    let t396 = 0.10348524244829747 * j5_gamma_b1;
+    let t404 = 0.008443901475437254 * j5_beta_b1;
+    let t406 = 0.8218117691663878 * j5_beta_b1;
+    let t407 = 0.569696512704339 * j5_beta_b1;
+    let t411 = 0.591785650953 * j5_gamma_b1;
+    let t412 = 0.06565761653993642 * j5_gamma_b1;
+    let t413 = 0.10348524244829747 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t387 - 0.35368845495650103 * t349 - t394;
+    let z_b1p_x = t404 - 0.35368845495650103 * t366 - t411;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t395 + (0.8672481684250324 * t349 - t389);
+    let z_b1p_y = t412 + (0.8672481684250324 * t366 - t406);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t396 + (t390 - 2.572822887006619 * t349);
+    let z_b1p_z = t413 + (t407 - 2.572822887006619 * t366);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1p = 1.8297406473129645
         * (0.4777992078809706 * z_b1p_x - 0.318065659982822 * z_b1p_y
@@ -1362,55 +1464,55 @@ fn branch_1(
                     * (0.08226869371717187 * z_b1p_x + 0.4834853743786345 * z_b1p_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
-    let t432 = j5_alpha_b1 - j5_a_b1;
-    let t439 = t387 - 0.12917776692663924 * t432 - t394;
-    let t440 = t395 + (0.31674537350149495 * t432 - t389);
-    let t441 = t396 + (t390 - 0.9396730670277007 * t432);
-    let t446 = v_b1_z * t441 + (v_b1_x * t439 + v_b1_y * t440);
-    let t460 = 0.31674537350149495 * (v_b1_x * t441 - v_b1_z * t439)
-        - 0.12917776692663924 * (v_b1_z * t440 - v_b1_y * t441)
-        - 0.9396730670277007 * (v_b1_y * t439 - v_b1_x * t440);
-    let t463 = t446 * t446 + t460 * t460;
-    let t467 = 1.0 / ::armforge_runtime::math::sqrt(t463.max(1.0000000000000001e-40));
+    let t449 = j5_alpha_b1 - j5_a_b1;
+    let t456 = t404 - 0.12917776692663924 * t449 - t411;
+    let t457 = t412 + (0.31674537350149495 * t449 - t406);
+    let t458 = t413 + (t407 - 0.9396730670277007 * t449);
+    let t463 = v_b1_z * t458 + (v_b1_x * t456 + v_b1_y * t457);
+    let t477 = 0.31674537350149495 * (v_b1_x * t458 - v_b1_z * t456)
+        - 0.12917776692663924 * (v_b1_z * t457 - v_b1_y * t458)
+        - 0.9396730670277007 * (v_b1_y * t456 - v_b1_x * t457);
+    let t480 = t463 * t463 + t477 * t477;
+    let t484 = 1.0 / ::armforge_runtime::math::sqrt(t480.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t463;
+    let aligned_b1 = 1.0000000000000001e-40 - t480;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t446 * t467 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t460 * t467 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t477 * t484 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
-    let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
+    let t495 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
-    let t479 = 0.12917776692663924 * t478;
-    let t480 = 0.31674537350149495 * t478;
-    let t481 = 0.9396730670277007 * t478;
-    let t503 = j4_cos_b1p * (xv_b1_x + t479)
+    let t496 = 0.12917776692663924 * t495;
+    let t497 = 0.31674537350149495 * t495;
+    let t498 = 0.9396730670277007 * t495;
+    let t520 = j4_cos_b1p * (xv_b1_x + t496)
         - j4_sin_b1p * (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y)
-        - t479;
-    let t504 = t480
-        + (j4_cos_b1p * (xv_b1_y - t480)
+        - t496;
+    let t521 = t497
+        + (j4_cos_b1p * (xv_b1_y - t497)
             - j4_sin_b1p
                 * (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x));
-    let t505 = j4_cos_b1p * (xv_b1_z + t481)
+    let t522 = j4_cos_b1p * (xv_b1_z + t498)
         + j4_sin_b1p * (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x)
-        - t481;
-    let t510 = 0.569696512704339 * t505
-        + (0.008443901475437254 * t503 - 0.8218117691663878 * t504);
-    let t511 = 0.008443901475437254 * t510;
-    let t512 = 0.8218117691663878 * t510;
-    let t513 = 0.569696512704339 * t510;
+        - t498;
+    let t527 = 0.569696512704339 * t522
+        + (0.008443901475437254 * t520 - 0.8218117691663878 * t521);
+    let t528 = 0.008443901475437254 * t527;
+    let t529 = 0.8218117691663878 * t527;
+    let t530 = 0.569696512704339 * t527;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t511
-        + (j5_cos_b1p * (t503 - t511)
-            + j5_sin_b1p * (0.8218117691663878 * t505 + 0.569696512704339 * t504));
+    let y6_b1p_x = t528
+        + (j5_cos_b1p * (t520 - t528)
+            + j5_sin_b1p * (0.8218117691663878 * t522 + 0.569696512704339 * t521));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = j5_cos_b1p * (t504 + t512)
-        - j5_sin_b1p * (0.569696512704339 * t503 - 0.008443901475437254 * t505) - t512;
+    let y6_b1p_y = j5_cos_b1p * (t521 + t529)
+        - j5_sin_b1p * (0.569696512704339 * t520 - 0.008443901475437254 * t522) - t529;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t513
-        + (j5_cos_b1p * (t505 - t513)
-            - j5_sin_b1p * (0.008443901475437254 * t504 + 0.8218117691663878 * t503));
+    let y6_b1p_z = t530
+        + (j5_cos_b1p * (t522 - t530)
+            - j5_sin_b1p * (0.008443901475437254 * t521 + 0.8218117691663878 * t520));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1p = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -1528,129 +1630,132 @@ fn branch_2(
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_p = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
     let slide2_p = 1.4026694727397795 * (height - 0.11820820044027433)
         + 0.7768010686602598 * slide3_p;
-    let t146 = w0_x - 0.29088833522944446 * slide3_p;
-    let t147 = w0_y + 0.49707832103632676 * slide3_p;
-    let t148 = w0_z - 0.3350895823358808 * slide3_p;
-    // cos θ1 = (x · radial) / ρ²
+    let t143 = w0_x - 0.29088833522944446 * slide3_p;
+    let t144 = w0_y + 0.49707832103632676 * slide3_p;
+    let t145 = w0_z - 0.3350895823358808 * slide3_p;
+    let t150 = radial_z * t145 + (radial_x * t143 + radial_y * t144);
+    let t164 = 0.5193670476948382 * (radial_z * t144 - radial_y * t145)
+        - 0.24745573783013325 * (radial_x * t145 - radial_z * t143)
+        - 0.8179385842370391 * (radial_y * t143 - radial_x * t144);
+    let t167 = t150 * t150 + t164 * t164;
+    let t172 = 1.0 / ::armforge_runtime::math::sqrt(t167.max(1e-300));
+    let t175 = t167 - 1e-300;
+    // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
     let j1_cos_p = if j1_free >= 0.0 {
         ref1_cos
     } else {
-        t131 * (radial_z * t148 + (radial_x * t146 + radial_y * t147))
+        if t175 >= 0.0 { t150 * t172 } else { 1.0 }
     };
-    // sin θ1 = h1 · (x × radial) / ρ²
+    // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
     let j1_sin_p = if j1_free >= 0.0 {
         ref1_sin
     } else {
-        t131
-            * (0.5193670476948382 * (radial_z * t147 - radial_y * t148)
-                - 0.24745573783013325 * (radial_x * t148 - radial_z * t146)
-                - 0.8179385842370391 * (radial_y * t146 - radial_x * t147))
+        if t175 >= 0.0 { t164 * t172 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_p = ::armforge_runtime::math::atan2(j1_sin_p, j1_cos_p);
-    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+    let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
-    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+    let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
         - 0.16910369449503013 * r12;
-    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+    let t243 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
         - 0.16910369449503013 * r22;
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
-    let g6_x = 0.6263556831868291 * t226
-        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    let g6_x = 0.6263556831868291 * t243
+        + (0.7615120585877142 * t233 + 0.16666716162778683 * t238);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
-    let g6_y = 0.7699650798979213 * t226
-        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    let g6_y = 0.7699650798979213 * t243
+        + (0.02034657531518593 * t238 - 0.6377615483946422 * t233);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
-    let g6_z = 0.12178806951975465 * t226
-        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
-    let t249 = 0.9569213960465764 * r02
+    let g6_z = 0.12178806951975465 * t243
+        + (0.11558370133704315 * t233 - 0.9858032633887357 * t238);
+    let t266 = 0.9569213960465764 * r02
         - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
-    let t254 = 0.9569213960465764 * r12
+    let t271 = 0.9569213960465764 * r12
         - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
-    let t259 = 0.9569213960465764 * r22
+    let t276 = 0.9569213960465764 * r22
         - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
-    let gx_x = 0.6263556831868291 * t259
-        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    let gx_x = 0.6263556831868291 * t276
+        + (0.7615120585877142 * t266 + 0.16666716162778683 * t271);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
-    let gx_y = 0.7699650798979213 * t259
-        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    let gx_y = 0.7699650798979213 * t276
+        + (0.02034657531518593 * t271 - 0.6377615483946422 * t266);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
-    let gx_z = 0.12178806951975465 * t259
-        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
-    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+    let gx_z = 0.12178806951975465 * t276
+        + (0.11558370133704315 * t266 - 0.9858032633887357 * t271);
+    let t296 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
         - 0.8179385842370391 * g6_z;
-    let t280 = 0.5193670476948382 * t279;
-    let t281 = 0.24745573783013325 * t279;
-    let t282 = 0.8179385842370391 * t279;
+    let t297 = 0.5193670476948382 * t296;
+    let t298 = 0.24745573783013325 * t296;
+    let t299 = 0.8179385842370391 * t296;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t280
-        + (j1_cos_p * (g6_x - t280)
+    let v_b1_x = t297
+        + (j1_cos_p * (g6_x - t297)
             - j1_sin_p * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = j1_cos_p * (g6_y + t281)
-        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b1_y = j1_cos_p * (g6_y + t298)
+        + j1_sin_p * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = j1_cos_p * (g6_z + t282)
-        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
-    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+    let v_b1_z = j1_cos_p * (g6_z + t299)
+        - j1_sin_p * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
+    let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
-    let t312 = 0.5193670476948382 * t311;
-    let t313 = 0.24745573783013325 * t311;
-    let t314 = 0.8179385842370391 * t311;
+    let t329 = 0.5193670476948382 * t328;
+    let t330 = 0.24745573783013325 * t328;
+    let t331 = 0.8179385842370391 * t328;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t312
-        + (j1_cos_p * (gx_x - t312)
+    let xv_b1_x = t329
+        + (j1_cos_p * (gx_x - t329)
             - j1_sin_p * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = j1_cos_p * (gx_y + t313)
-        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b1_y = j1_cos_p * (gx_y + t330)
+        + j1_sin_p * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = j1_cos_p * (gx_z + t314)
-        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b1_z = j1_cos_p * (gx_z + t331)
+        - j1_sin_p * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.31674537350149495 * v_b1_y - 0.12917776692663924 * v_b1_x
         - 0.9396730670277007 * v_b1_z;
-    let t349 = j5_a_b1 + 0.5365182302993144;
+    let t366 = j5_a_b1 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b1 = 2.7379979029778605 * t349;
+    let j5_alpha_b1 = 2.7379979029778605 * t366;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 2.1814294885999184 * j5_a_b1 + 1.8437818100880325;
-    let t357 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
-    let t360 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
-    let t363 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
-    let t372 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
+    let t374 = 0.31674537350149495 * v_b1_z + 0.9396730670277007 * v_b1_y;
+    let t377 = 0.12917776692663924 * v_b1_z - 0.9396730670277007 * v_b1_x;
+    let t380 = 0.12917776692663924 * v_b1_y + 0.31674537350149495 * v_b1_x;
+    let t389 = 0.7967243094771491 * j5_a_b1 + 0.6734051213416657;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t363 * t363 + (t357 * t357 + t360 * t360)
-        - 2.7379979029778605 * (t372 * t372);
+    let j5_gap_b1 = t380 * t380 + (t374 * t374 + t377 * t377)
+        - 2.7379979029778605 * (t389 * t389);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b1).max(0.0),
     );
-    let t387 = 0.008443901475437254 * j5_beta_b1;
-    let t389 = 0.8218117691663878 * j5_beta_b1;
-    let t390 = 0.569696512704339 * j5_beta_b1;
-    let t394 = 0.591785650953 * j5_gamma_b1;
-    let t395 = 0.06565761653993642 * j5_gamma_b1;
-    let t396 = 0.10348524244829747 * j5_gamma_b1;
-    let t432 = j5_alpha_b1 - j5_a_b1;
-    let t478 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
+    let t404 = 0.008443901475437254 * j5_beta_b1;
+    let t406 = 0.8218117691663878 * j5_beta_b1;
+    let t407 = 0.569696512704339 * j5_beta_b1;
+    let t411 = 0.591785650953 * j5_gamma_b1;
+    let t412 = 0.06565761653993642 * j5_gamma_b1;
+    let t413 = 0.10348524244829747 * j5_gamma_b1;
+    let t449 = j5_alpha_b1 - j5_a_b1;
+    let t495 = 0.31674537350149495 * xv_b1_y - 0.12917776692663924 * xv_b1_x
         - 0.9396730670277007 * xv_b1_z;
-    let t479 = 0.12917776692663924 * t478;
-    let t480 = 0.31674537350149495 * t478;
-    let t481 = 0.9396730670277007 * t478;
+    let t496 = 0.12917776692663924 * t495;
+    let t497 = 0.31674537350149495 * t495;
+    let t498 = 0.9396730670277007 * t495;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t394 + (t387 - 0.35368845495650103 * t349);
+    let z_b1m_x = t411 + (t404 - 0.35368845495650103 * t366);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 0.8672481684250324 * t349 - t389 - t395;
+    let z_b1m_y = 0.8672481684250324 * t366 - t406 - t412;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t390 - 2.572822887006619 * t349 - t396;
+    let z_b1m_z = t407 - 2.572822887006619 * t366 - t413;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1m = 1.8297406473129645
         * (0.4777992078809706 * z_b1m_x - 0.318065659982822 * z_b1m_y
@@ -1665,49 +1770,49 @@ fn branch_2(
                     * (0.08226869371717187 * z_b1m_x + 0.4834853743786345 * z_b1m_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
-    let t587 = t394 + (t387 - 0.12917776692663924 * t432);
-    let t588 = 0.31674537350149495 * t432 - t389 - t395;
-    let t589 = t390 - 0.9396730670277007 * t432 - t396;
-    let t594 = v_b1_z * t589 + (v_b1_x * t587 + v_b1_y * t588);
-    let t608 = 0.31674537350149495 * (v_b1_x * t589 - v_b1_z * t587)
-        - 0.12917776692663924 * (v_b1_z * t588 - v_b1_y * t589)
-        - 0.9396730670277007 * (v_b1_y * t587 - v_b1_x * t588);
-    let t611 = t594 * t594 + t608 * t608;
-    let t614 = 1.0 / ::armforge_runtime::math::sqrt(t611.max(1.0000000000000001e-40));
+    let t604 = t411 + (t404 - 0.12917776692663924 * t449);
+    let t605 = 0.31674537350149495 * t449 - t406 - t412;
+    let t606 = t407 - 0.9396730670277007 * t449 - t413;
+    let t611 = v_b1_z * t606 + (v_b1_x * t604 + v_b1_y * t605);
+    let t625 = 0.31674537350149495 * (v_b1_x * t606 - v_b1_z * t604)
+        - 0.12917776692663924 * (v_b1_z * t605 - v_b1_y * t606)
+        - 0.9396730670277007 * (v_b1_y * t604 - v_b1_x * t605);
+    let t628 = t611 * t611 + t625 * t625;
+    let t631 = 1.0 / ::armforge_runtime::math::sqrt(t628.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t611;
+    let aligned_b1_2 = 1.0000000000000001e-40 - t628;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t594 * t614 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t611 * t631 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t608 * t614 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t625 * t631 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t632 = (xv_b1_x + t479) * j4_cos_b1m
+    let t649 = (xv_b1_x + t496) * j4_cos_b1m
         - (0.31674537350149495 * xv_b1_z + 0.9396730670277007 * xv_b1_y) * j4_sin_b1m
-        - t479;
-    let t633 = t480
-        + ((xv_b1_y - t480) * j4_cos_b1m
+        - t496;
+    let t650 = t497
+        + ((xv_b1_y - t497) * j4_cos_b1m
             - (0.12917776692663924 * xv_b1_z - 0.9396730670277007 * xv_b1_x)
                 * j4_sin_b1m);
-    let t634 = (xv_b1_z + t481) * j4_cos_b1m
+    let t651 = (xv_b1_z + t498) * j4_cos_b1m
         + (0.12917776692663924 * xv_b1_y + 0.31674537350149495 * xv_b1_x) * j4_sin_b1m
-        - t481;
-    let t639 = 0.569696512704339 * t634
-        + (0.008443901475437254 * t632 - 0.8218117691663878 * t633);
-    let t640 = 0.008443901475437254 * t639;
-    let t641 = 0.8218117691663878 * t639;
-    let t642 = 0.569696512704339 * t639;
+        - t498;
+    let t656 = 0.569696512704339 * t651
+        + (0.008443901475437254 * t649 - 0.8218117691663878 * t650);
+    let t657 = 0.008443901475437254 * t656;
+    let t658 = 0.8218117691663878 * t656;
+    let t659 = 0.569696512704339 * t656;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t640
-        + (j5_cos_b1m * (t632 - t640)
-            + j5_sin_b1m * (0.8218117691663878 * t634 + 0.569696512704339 * t633));
+    let y6_b1m_x = t657
+        + (j5_cos_b1m * (t649 - t657)
+            + j5_sin_b1m * (0.8218117691663878 * t651 + 0.569696512704339 * t650));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = j5_cos_b1m * (t633 + t641)
-        - j5_sin_b1m * (0.569696512704339 * t632 - 0.008443901475437254 * t634) - t641;
+    let y6_b1m_y = j5_cos_b1m * (t650 + t658)
+        - j5_sin_b1m * (0.569696512704339 * t649 - 0.008443901475437254 * t651) - t658;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t642
-        + (j5_cos_b1m * (t634 - t642)
-            - j5_sin_b1m * (0.008443901475437254 * t633 + 0.8218117691663878 * t632));
+    let y6_b1m_z = t659
+        + (j5_cos_b1m * (t651 - t659)
+            - j5_sin_b1m * (0.008443901475437254 * t650 + 0.8218117691663878 * t649));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1m = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -1825,124 +1930,127 @@ fn branch_3(
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
-    let t173 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
+    let t181 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t173;
+    let slide3_m = -t181;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
     let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
-        - 0.7768010686602598 * t173;
-    let t180 = w0_x + 0.29088833522944446 * t173;
-    let t181 = w0_y - 0.49707832103632676 * t173;
-    let t182 = w0_z + 0.3350895823358808 * t173;
-    // cos θ1 = (x · radial) / ρ²
+        - 0.7768010686602598 * t181;
+    let t188 = w0_x + 0.29088833522944446 * t181;
+    let t189 = w0_y - 0.49707832103632676 * t181;
+    let t190 = w0_z + 0.3350895823358808 * t181;
+    let t195 = radial_z * t190 + (radial_x * t188 + radial_y * t189);
+    let t209 = 0.5193670476948382 * (radial_z * t189 - radial_y * t190)
+        - 0.24745573783013325 * (radial_x * t190 - radial_z * t188)
+        - 0.8179385842370391 * (radial_y * t188 - radial_x * t189);
+    let t212 = t195 * t195 + t209 * t209;
+    let t215 = 1.0 / ::armforge_runtime::math::sqrt(t212.max(1e-300));
+    let t218 = t212 - 1e-300;
+    // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
     let j1_cos_m = if j1_free >= 0.0 {
         -ref1_cos
     } else {
-        t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
+        if t218 >= 0.0 { t195 * t215 } else { 1.0 }
     };
-    // sin θ1 = h1 · (x × radial) / ρ²
+    // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
     let j1_sin_m = if j1_free >= 0.0 {
         -ref1_sin
     } else {
-        t131
-            * (0.5193670476948382 * (radial_z * t181 - radial_y * t182)
-                - 0.24745573783013325 * (radial_x * t182 - radial_z * t180)
-                - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
+        if t218 >= 0.0 { t209 * t215 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
-    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+    let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
-    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+    let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
         - 0.16910369449503013 * r12;
-    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+    let t243 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
         - 0.16910369449503013 * r22;
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
-    let g6_x = 0.6263556831868291 * t226
-        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    let g6_x = 0.6263556831868291 * t243
+        + (0.7615120585877142 * t233 + 0.16666716162778683 * t238);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
-    let g6_y = 0.7699650798979213 * t226
-        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    let g6_y = 0.7699650798979213 * t243
+        + (0.02034657531518593 * t238 - 0.6377615483946422 * t233);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
-    let g6_z = 0.12178806951975465 * t226
-        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
-    let t249 = 0.9569213960465764 * r02
+    let g6_z = 0.12178806951975465 * t243
+        + (0.11558370133704315 * t233 - 0.9858032633887357 * t238);
+    let t266 = 0.9569213960465764 * r02
         - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
-    let t254 = 0.9569213960465764 * r12
+    let t271 = 0.9569213960465764 * r12
         - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
-    let t259 = 0.9569213960465764 * r22
+    let t276 = 0.9569213960465764 * r22
         - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
-    let gx_x = 0.6263556831868291 * t259
-        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    let gx_x = 0.6263556831868291 * t276
+        + (0.7615120585877142 * t266 + 0.16666716162778683 * t271);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
-    let gx_y = 0.7699650798979213 * t259
-        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    let gx_y = 0.7699650798979213 * t276
+        + (0.02034657531518593 * t271 - 0.6377615483946422 * t266);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
-    let gx_z = 0.12178806951975465 * t259
-        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
-    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+    let gx_z = 0.12178806951975465 * t276
+        + (0.11558370133704315 * t266 - 0.9858032633887357 * t271);
+    let t296 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
         - 0.8179385842370391 * g6_z;
-    let t280 = 0.5193670476948382 * t279;
-    let t281 = 0.24745573783013325 * t279;
-    let t282 = 0.8179385842370391 * t279;
-    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+    let t297 = 0.5193670476948382 * t296;
+    let t298 = 0.24745573783013325 * t296;
+    let t299 = 0.8179385842370391 * t296;
+    let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
-    let t312 = 0.5193670476948382 * t311;
-    let t313 = 0.24745573783013325 * t311;
-    let t314 = 0.8179385842370391 * t311;
+    let t329 = 0.5193670476948382 * t328;
+    let t330 = 0.24745573783013325 * t328;
+    let t331 = 0.8179385842370391 * t328;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t280
-        + (j1_cos_m * (g6_x - t280)
+    let v_b2_x = t297
+        + (j1_cos_m * (g6_x - t297)
             - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * (g6_y + t281)
-        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b2_y = j1_cos_m * (g6_y + t298)
+        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * (g6_z + t282)
-        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let v_b2_z = j1_cos_m * (g6_z + t299)
+        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t312
-        + (j1_cos_m * (gx_x - t312)
+    let xv_b2_x = t329
+        + (j1_cos_m * (gx_x - t329)
             - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * (gx_y + t313)
-        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b2_y = j1_cos_m * (gx_y + t330)
+        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * (gx_z + t314)
-        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b2_z = j1_cos_m * (gx_z + t331)
+        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
-    let t717 = j5_a_b2 + 0.5365182302993144;
+    let t734 = j5_a_b2 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b2 = 2.7379979029778605 * t717;
+    let j5_alpha_b2 = 2.7379979029778605 * t734;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 2.1814294885999184 * j5_a_b2 + 1.8437818100880325;
-    let t723 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
-    let t726 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
-    let t729 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
-    let t736 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
+    let t740 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
+    let t743 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
+    let t746 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
+    let t753 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t729 * t729 + (t723 * t723 + t726 * t726)
-        - 2.7379979029778605 * (t736 * t736);
+    let j5_gap_b2 = t746 * t746 + (t740 * t740 + t743 * t743)
+        - 2.7379979029778605 * (t753 * t753);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b2).max(0.0),
     );
-    let t746 = 0.008443901475437254 * j5_beta_b2;
-    let t747 = 0.8218117691663878 * j5_beta_b2;
-    let t748 = 0.569696512704339 * j5_beta_b2;
-    let t749 = 0.591785650953 * j5_gamma_b2;
-    let t750 = 0.06565761653993642 * j5_gamma_b2;
-    let t751 = 0.10348524244829747 * j5_gamma_b2;
+    let t763 = 0.008443901475437254 * j5_beta_b2;
+    let t764 = 0.8218117691663878 * j5_beta_b2;
+    let t765 = 0.569696512704339 * j5_beta_b2;
+    let t766 = 0.591785650953 * j5_gamma_b2;
+    let t767 = 0.06565761653993642 * j5_gamma_b2;
+    let t768 = 0.10348524244829747 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t746 - 0.35368845495650103 * t717 - t749;
+    let z_b2p_x = t763 - 0.35368845495650103 * t734 - t766;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t750 + (0.8672481684250324 * t717 - t747);
+    let z_b2p_y = t767 + (0.8672481684250324 * t734 - t764);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t751 + (t748 - 2.572822887006619 * t717);
+    let z_b2p_z = t768 + (t765 - 2.572822887006619 * t734);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2p = 1.8297406473129645
         * (0.4777992078809706 * z_b2p_x - 0.318065659982822 * z_b2p_y
@@ -1957,55 +2065,55 @@ fn branch_3(
                     * (0.08226869371717187 * z_b2p_x + 0.4834853743786345 * z_b2p_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
-    let t780 = j5_alpha_b2 - j5_a_b2;
-    let t787 = t746 - 0.12917776692663924 * t780 - t749;
-    let t788 = t750 + (0.31674537350149495 * t780 - t747);
-    let t789 = t751 + (t748 - 0.9396730670277007 * t780);
-    let t794 = v_b2_z * t789 + (v_b2_x * t787 + v_b2_y * t788);
-    let t808 = 0.31674537350149495 * (v_b2_x * t789 - v_b2_z * t787)
-        - 0.12917776692663924 * (v_b2_z * t788 - v_b2_y * t789)
-        - 0.9396730670277007 * (v_b2_y * t787 - v_b2_x * t788);
-    let t811 = t794 * t794 + t808 * t808;
-    let t814 = 1.0 / ::armforge_runtime::math::sqrt(t811.max(1.0000000000000001e-40));
+    let t797 = j5_alpha_b2 - j5_a_b2;
+    let t804 = t763 - 0.12917776692663924 * t797 - t766;
+    let t805 = t767 + (0.31674537350149495 * t797 - t764);
+    let t806 = t768 + (t765 - 0.9396730670277007 * t797);
+    let t811 = v_b2_z * t806 + (v_b2_x * t804 + v_b2_y * t805);
+    let t825 = 0.31674537350149495 * (v_b2_x * t806 - v_b2_z * t804)
+        - 0.12917776692663924 * (v_b2_z * t805 - v_b2_y * t806)
+        - 0.9396730670277007 * (v_b2_y * t804 - v_b2_x * t805);
+    let t828 = t811 * t811 + t825 * t825;
+    let t831 = 1.0 / ::armforge_runtime::math::sqrt(t828.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t811;
+    let aligned_b2 = 1.0000000000000001e-40 - t828;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t794 * t814 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t808 * t814 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t825 * t831 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
-    let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
+    let t842 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
-    let t826 = 0.12917776692663924 * t825;
-    let t827 = 0.31674537350149495 * t825;
-    let t828 = 0.9396730670277007 * t825;
-    let t850 = j4_cos_b2p * (xv_b2_x + t826)
+    let t843 = 0.12917776692663924 * t842;
+    let t844 = 0.31674537350149495 * t842;
+    let t845 = 0.9396730670277007 * t842;
+    let t867 = j4_cos_b2p * (xv_b2_x + t843)
         - j4_sin_b2p * (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y)
-        - t826;
-    let t851 = t827
-        + (j4_cos_b2p * (xv_b2_y - t827)
+        - t843;
+    let t868 = t844
+        + (j4_cos_b2p * (xv_b2_y - t844)
             - j4_sin_b2p
                 * (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x));
-    let t852 = j4_cos_b2p * (xv_b2_z + t828)
+    let t869 = j4_cos_b2p * (xv_b2_z + t845)
         + j4_sin_b2p * (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x)
-        - t828;
-    let t857 = 0.569696512704339 * t852
-        + (0.008443901475437254 * t850 - 0.8218117691663878 * t851);
-    let t858 = 0.008443901475437254 * t857;
-    let t859 = 0.8218117691663878 * t857;
-    let t860 = 0.569696512704339 * t857;
+        - t845;
+    let t874 = 0.569696512704339 * t869
+        + (0.008443901475437254 * t867 - 0.8218117691663878 * t868);
+    let t875 = 0.008443901475437254 * t874;
+    let t876 = 0.8218117691663878 * t874;
+    let t877 = 0.569696512704339 * t874;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t858
-        + (j5_cos_b2p * (t850 - t858)
-            + j5_sin_b2p * (0.8218117691663878 * t852 + 0.569696512704339 * t851));
+    let y6_b2p_x = t875
+        + (j5_cos_b2p * (t867 - t875)
+            + j5_sin_b2p * (0.8218117691663878 * t869 + 0.569696512704339 * t868));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = j5_cos_b2p * (t851 + t859)
-        - j5_sin_b2p * (0.569696512704339 * t850 - 0.008443901475437254 * t852) - t859;
+    let y6_b2p_y = j5_cos_b2p * (t868 + t876)
+        - j5_sin_b2p * (0.569696512704339 * t867 - 0.008443901475437254 * t869) - t876;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t860
-        + (j5_cos_b2p * (t852 - t860)
-            - j5_sin_b2p * (0.008443901475437254 * t851 + 0.8218117691663878 * t850));
+    let y6_b2p_z = t877
+        + (j5_cos_b2p * (t869 - t877)
+            - j5_sin_b2p * (0.008443901475437254 * t868 + 0.8218117691663878 * t867));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2p = ::armforge_runtime::math::atan2(
         -(0.08226869371717187
@@ -2123,130 +2231,133 @@ fn branch_4(
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
     let j1_free = 3.7902730645198247e-19 - rho2;
-    let t131 = 1.0 / rho2.max(3.7902730645198247e-19);
-    let t173 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
+    let t181 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
-    let slide3_m = -t173;
+    let slide3_m = -t181;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
     let slide2_m = 1.4026694727397795 * (height - 0.11820820044027433)
-        - 0.7768010686602598 * t173;
-    let t180 = w0_x + 0.29088833522944446 * t173;
-    let t181 = w0_y - 0.49707832103632676 * t173;
-    let t182 = w0_z + 0.3350895823358808 * t173;
-    // cos θ1 = (x · radial) / ρ²
+        - 0.7768010686602598 * t181;
+    let t188 = w0_x + 0.29088833522944446 * t181;
+    let t189 = w0_y - 0.49707832103632676 * t181;
+    let t190 = w0_z + 0.3350895823358808 * t181;
+    let t195 = radial_z * t190 + (radial_x * t188 + radial_y * t189);
+    let t209 = 0.5193670476948382 * (radial_z * t189 - radial_y * t190)
+        - 0.24745573783013325 * (radial_x * t190 - radial_z * t188)
+        - 0.8179385842370391 * (radial_y * t188 - radial_x * t189);
+    let t212 = t195 * t195 + t209 * t209;
+    let t215 = 1.0 / ::armforge_runtime::math::sqrt(t212.max(1e-300));
+    let t218 = t212 - 1e-300;
+    // cos θ1 = (x · radial) / |x · radial, h1 · (x × radial)|
     let j1_cos_m = if j1_free >= 0.0 {
         -ref1_cos
     } else {
-        t131 * (radial_z * t182 + (radial_x * t180 + radial_y * t181))
+        if t218 >= 0.0 { t195 * t215 } else { 1.0 }
     };
-    // sin θ1 = h1 · (x × radial) / ρ²
+    // sin θ1 = h1 · (x × radial) / |x · radial, h1 · (x × radial)|
     let j1_sin_m = if j1_free >= 0.0 {
         -ref1_sin
     } else {
-        t131
-            * (0.5193670476948382 * (radial_z * t181 - radial_y * t182)
-                - 0.24745573783013325 * (radial_x * t182 - radial_z * t180)
-                - 0.8179385842370391 * (radial_y * t180 - radial_x * t181))
+        if t218 >= 0.0 { t209 * t215 } else { 0.0 }
     };
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_m = ::armforge_runtime::math::atan2(j1_sin_m, j1_cos_m);
-    let t216 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
+    let t233 = 0.635989471347794 * r00 - 0.7529417858260259 * r01
         - 0.16910369449503013 * r02;
-    let t221 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
+    let t238 = 0.635989471347794 * r10 - 0.7529417858260259 * r11
         - 0.16910369449503013 * r12;
-    let t226 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
+    let t243 = 0.635989471347794 * r20 - 0.7529417858260259 * r21
         - 0.16910369449503013 * r22;
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (x)
-    let g6_x = 0.6263556831868291 * t226
-        + (0.7615120585877142 * t216 + 0.16666716162778683 * t221);
+    let g6_x = 0.6263556831868291 * t243
+        + (0.7615120585877142 * t233 + 0.16666716162778683 * t238);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (y)
-    let g6_y = 0.7699650798979213 * t226
-        + (0.02034657531518593 * t221 - 0.6377615483946422 * t216);
+    let g6_y = 0.7699650798979213 * t243
+        + (0.02034657531518593 * t238 - 0.6377615483946422 * t233);
     // rot(B⁻¹ T M⁻¹) (0.483485, -0.871478, -0.082269) : where the target sends this wrist direction (z)
-    let g6_z = 0.12178806951975465 * t226
-        + (0.11558370133704315 * t216 - 0.9858032633887357 * t221);
-    let t249 = 0.9569213960465764 * r02
+    let g6_z = 0.12178806951975465 * t243
+        + (0.11558370133704315 * t233 - 0.9858032633887357 * t238);
+    let t266 = 0.9569213960465764 * r02
         - (0.07699586157373463 * r00 + 0.2799519228167393 * r01);
-    let t254 = 0.9569213960465764 * r12
+    let t271 = 0.9569213960465764 * r12
         - (0.07699586157373463 * r10 + 0.2799519228167393 * r11);
-    let t259 = 0.9569213960465764 * r22
+    let t276 = 0.9569213960465764 * r22
         - (0.07699586157373463 * r20 + 0.2799519228167393 * r21);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (x)
-    let gx_x = 0.6263556831868291 * t259
-        + (0.7615120585877142 * t249 + 0.16666716162778683 * t254);
+    let gx_x = 0.6263556831868291 * t276
+        + (0.7615120585877142 * t266 + 0.16666716162778683 * t271);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (y)
-    let gx_y = 0.7699650798979213 * t259
-        + (0.02034657531518593 * t254 - 0.6377615483946422 * t249);
+    let gx_y = 0.7699650798979213 * t276
+        + (0.02034657531518593 * t271 - 0.6377615483946422 * t266);
     // rot(B⁻¹ T M⁻¹) (0.039911, -0.071939, 0.99661) : where the target sends this wrist direction (z)
-    let gx_z = 0.12178806951975465 * t259
-        + (0.11558370133704315 * t249 - 0.9858032633887357 * t254);
-    let t279 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
+    let gx_z = 0.12178806951975465 * t276
+        + (0.11558370133704315 * t266 - 0.9858032633887357 * t271);
+    let t296 = 0.5193670476948382 * g6_x - 0.24745573783013325 * g6_y
         - 0.8179385842370391 * g6_z;
-    let t280 = 0.5193670476948382 * t279;
-    let t281 = 0.24745573783013325 * t279;
-    let t282 = 0.8179385842370391 * t279;
-    let t311 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
+    let t297 = 0.5193670476948382 * t296;
+    let t298 = 0.24745573783013325 * t296;
+    let t299 = 0.8179385842370391 * t296;
+    let t328 = 0.5193670476948382 * gx_x - 0.24745573783013325 * gx_y
         - 0.8179385842370391 * gx_z;
-    let t312 = 0.5193670476948382 * t311;
-    let t313 = 0.24745573783013325 * t311;
-    let t314 = 0.8179385842370391 * t311;
+    let t329 = 0.5193670476948382 * t328;
+    let t330 = 0.24745573783013325 * t328;
+    let t331 = 0.8179385842370391 * t328;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t280
-        + (j1_cos_m * (g6_x - t280)
+    let v_b2_x = t297
+        + (j1_cos_m * (g6_x - t297)
             - j1_sin_m * (0.8179385842370391 * g6_y - 0.24745573783013325 * g6_z));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = j1_cos_m * (g6_y + t281)
-        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t281;
+    let v_b2_y = j1_cos_m * (g6_y + t298)
+        + j1_sin_m * (0.8179385842370391 * g6_x + 0.5193670476948382 * g6_z) - t298;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = j1_cos_m * (g6_z + t282)
-        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t282;
+    let v_b2_z = j1_cos_m * (g6_z + t299)
+        - j1_sin_m * (0.5193670476948382 * g6_y + 0.24745573783013325 * g6_x) - t299;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t312
-        + (j1_cos_m * (gx_x - t312)
+    let xv_b2_x = t329
+        + (j1_cos_m * (gx_x - t329)
             - j1_sin_m * (0.8179385842370391 * gx_y - 0.24745573783013325 * gx_z));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = j1_cos_m * (gx_y + t313)
-        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t313;
+    let xv_b2_y = j1_cos_m * (gx_y + t330)
+        + j1_sin_m * (0.8179385842370391 * gx_x + 0.5193670476948382 * gx_z) - t330;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = j1_cos_m * (gx_z + t314)
-        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t314;
+    let xv_b2_z = j1_cos_m * (gx_z + t331)
+        - j1_sin_m * (0.5193670476948382 * gx_y + 0.24745573783013325 * gx_x) - t331;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.31674537350149495 * v_b2_y - 0.12917776692663924 * v_b2_x
         - 0.9396730670277007 * v_b2_z;
-    let t717 = j5_a_b2 + 0.5365182302993144;
+    let t734 = j5_a_b2 + 0.5365182302993144;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = -0.796724, h5·h6 = 0.673405
-    let j5_alpha_b2 = 2.7379979029778605 * t717;
+    let j5_alpha_b2 = 2.7379979029778605 * t734;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 2.1814294885999184 * j5_a_b2 + 1.8437818100880325;
-    let t723 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
-    let t726 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
-    let t729 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
-    let t736 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
+    let t740 = 0.31674537350149495 * v_b2_z + 0.9396730670277007 * v_b2_y;
+    let t743 = 0.12917776692663924 * v_b2_z - 0.9396730670277007 * v_b2_x;
+    let t746 = 0.12917776692663924 * v_b2_y + 0.31674537350149495 * v_b2_x;
+    let t753 = 0.7967243094771491 * j5_a_b2 + 0.6734051213416657;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t729 * t729 + (t723 * t723 + t726 * t726)
-        - 2.7379979029778605 * (t736 * t736);
+    let j5_gap_b2 = t746 * t746 + (t740 * t740 + t743 * t743)
+        - 2.7379979029778605 * (t753 * t753);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (2.7379979029778605 * j5_gap_b2).max(0.0),
     );
-    let t746 = 0.008443901475437254 * j5_beta_b2;
-    let t747 = 0.8218117691663878 * j5_beta_b2;
-    let t748 = 0.569696512704339 * j5_beta_b2;
-    let t749 = 0.591785650953 * j5_gamma_b2;
-    let t750 = 0.06565761653993642 * j5_gamma_b2;
-    let t751 = 0.10348524244829747 * j5_gamma_b2;
-    let t780 = j5_alpha_b2 - j5_a_b2;
-    let t825 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
+    let t763 = 0.008443901475437254 * j5_beta_b2;
+    let t764 = 0.8218117691663878 * j5_beta_b2;
+    let t765 = 0.569696512704339 * j5_beta_b2;
+    let t766 = 0.591785650953 * j5_gamma_b2;
+    let t767 = 0.06565761653993642 * j5_gamma_b2;
+    let t768 = 0.10348524244829747 * j5_gamma_b2;
+    let t797 = j5_alpha_b2 - j5_a_b2;
+    let t842 = 0.31674537350149495 * xv_b2_y - 0.12917776692663924 * xv_b2_x
         - 0.9396730670277007 * xv_b2_z;
-    let t826 = 0.12917776692663924 * t825;
-    let t827 = 0.31674537350149495 * t825;
-    let t828 = 0.9396730670277007 * t825;
+    let t843 = 0.12917776692663924 * t842;
+    let t844 = 0.31674537350149495 * t842;
+    let t845 = 0.9396730670277007 * t842;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t749 + (t746 - 0.35368845495650103 * t717);
+    let z_b2m_x = t766 + (t763 - 0.35368845495650103 * t734);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 0.8672481684250324 * t717 - t747 - t750;
+    let z_b2m_y = 0.8672481684250324 * t734 - t764 - t767;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t748 - 2.572822887006619 * t717 - t751;
+    let z_b2m_z = t765 - 2.572822887006619 * t734 - t768;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2m = 1.8297406473129645
         * (0.4777992078809706 * z_b2m_x - 0.318065659982822 * z_b2m_y
@@ -2261,49 +2372,49 @@ fn branch_4(
                     * (0.08226869371717187 * z_b2m_x + 0.4834853743786345 * z_b2m_z)));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
-    let t931 = t749 + (t746 - 0.12917776692663924 * t780);
-    let t932 = 0.31674537350149495 * t780 - t747 - t750;
-    let t933 = t748 - 0.9396730670277007 * t780 - t751;
-    let t938 = v_b2_z * t933 + (v_b2_x * t931 + v_b2_y * t932);
-    let t952 = 0.31674537350149495 * (v_b2_x * t933 - v_b2_z * t931)
-        - 0.12917776692663924 * (v_b2_z * t932 - v_b2_y * t933)
-        - 0.9396730670277007 * (v_b2_y * t931 - v_b2_x * t932);
-    let t955 = t938 * t938 + t952 * t952;
-    let t958 = 1.0 / ::armforge_runtime::math::sqrt(t955.max(1.0000000000000001e-40));
+    let t948 = t766 + (t763 - 0.12917776692663924 * t797);
+    let t949 = 0.31674537350149495 * t797 - t764 - t767;
+    let t950 = t765 - 0.9396730670277007 * t797 - t768;
+    let t955 = v_b2_z * t950 + (v_b2_x * t948 + v_b2_y * t949);
+    let t969 = 0.31674537350149495 * (v_b2_x * t950 - v_b2_z * t948)
+        - 0.12917776692663924 * (v_b2_z * t949 - v_b2_y * t950)
+        - 0.9396730670277007 * (v_b2_y * t948 - v_b2_x * t949);
+    let t972 = t955 * t955 + t969 * t969;
+    let t975 = 1.0 / ::armforge_runtime::math::sqrt(t972.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t955;
+    let aligned_b2_2 = 1.0000000000000001e-40 - t972;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t938 * t958 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t955 * t975 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t952 * t958 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t969 * t975 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t974 = (xv_b2_x + t826) * j4_cos_b2m
+    let t991 = (xv_b2_x + t843) * j4_cos_b2m
         - (0.31674537350149495 * xv_b2_z + 0.9396730670277007 * xv_b2_y) * j4_sin_b2m
-        - t826;
-    let t975 = t827
-        + ((xv_b2_y - t827) * j4_cos_b2m
+        - t843;
+    let t992 = t844
+        + ((xv_b2_y - t844) * j4_cos_b2m
             - (0.12917776692663924 * xv_b2_z - 0.9396730670277007 * xv_b2_x)
                 * j4_sin_b2m);
-    let t976 = (xv_b2_z + t828) * j4_cos_b2m
+    let t993 = (xv_b2_z + t845) * j4_cos_b2m
         + (0.12917776692663924 * xv_b2_y + 0.31674537350149495 * xv_b2_x) * j4_sin_b2m
-        - t828;
-    let t981 = 0.569696512704339 * t976
-        + (0.008443901475437254 * t974 - 0.8218117691663878 * t975);
-    let t982 = 0.008443901475437254 * t981;
-    let t983 = 0.8218117691663878 * t981;
-    let t984 = 0.569696512704339 * t981;
+        - t845;
+    let t998 = 0.569696512704339 * t993
+        + (0.008443901475437254 * t991 - 0.8218117691663878 * t992);
+    let t999 = 0.008443901475437254 * t998;
+    let t1000 = 0.8218117691663878 * t998;
+    let t1001 = 0.569696512704339 * t998;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t982
-        + (j5_cos_b2m * (t974 - t982)
-            + j5_sin_b2m * (0.8218117691663878 * t976 + 0.569696512704339 * t975));
+    let y6_b2m_x = t999
+        + (j5_cos_b2m * (t991 - t999)
+            + j5_sin_b2m * (0.8218117691663878 * t993 + 0.569696512704339 * t992));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = j5_cos_b2m * (t975 + t983)
-        - j5_sin_b2m * (0.569696512704339 * t974 - 0.008443901475437254 * t976) - t983;
+    let y6_b2m_y = j5_cos_b2m * (t992 + t1000)
+        - j5_sin_b2m * (0.569696512704339 * t991 - 0.008443901475437254 * t993) - t1000;
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t984
-        + (j5_cos_b2m * (t976 - t984)
-            - j5_sin_b2m * (0.008443901475437254 * t975 + 0.8218117691663878 * t974));
+    let y6_b2m_z = t1001
+        + (j5_cos_b2m * (t993 - t1001)
+            - j5_sin_b2m * (0.008443901475437254 * t992 + 0.8218117691663878 * t991));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2m = ::armforge_runtime::math::atan2(
         -(0.08226869371717187

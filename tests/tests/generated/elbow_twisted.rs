@@ -408,10 +408,23 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     ) {
         return ::armforge_runtime::SolutionSet::unreachable(reason);
     }
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::option::Option::Some(reason) = solve(&far.target).reason() {
+            return ::armforge_runtime::SolutionSet::unreachable(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     ::armforge_runtime::internal::collect(
         &JOINT_TABLE,
         &SETTINGS,
-        &candidates(target, &ZERO_REFERENCE),
+        &free_candidates(target, &ZERO_REFERENCE),
     )
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
@@ -434,6 +447,19 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::result::Result::Err(reason) = solve_near(&far.target, current) {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     let anchor = ::armforge_runtime::internal::anchors_near(
         &JOINT_TABLE,
         current,
@@ -499,7 +525,7 @@ pub fn solve_near(
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
         &SETTINGS,
-        &candidates(target, &reference),
+        &free_candidates(target, &reference),
         current,
         &anchor,
     )
@@ -515,6 +541,19 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::result::Result::Err(reason) = solve_branch(&far.target, branch) {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     let reference = ZERO_REFERENCE;
     let candidate = match branch {
         ::armforge_runtime::Branch {
@@ -563,12 +602,62 @@ pub fn solve_branch(
             );
         }
     };
-    ::armforge_runtime::internal::finish_one(
+    let mut one = [candidate];
+    ::armforge_runtime::internal::free_joint_1(
         &JOINT_TABLE,
+        [&BASE, &TOOL],
         &SETTINGS,
-        &candidate,
-        &CENTERS,
-    )
+        target,
+        &reference,
+        &mut one,
+        |moved: &[f64; 4], _: usize| {
+            let reference = *moved;
+            match branch {
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Up,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_1(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Up,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_2(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Down,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_3(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Down,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_4(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Down,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_5(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Down,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_6(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Up,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_7(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Up,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_8(target, &reference)),
+                _ => ::core::option::Option::None,
+            }
+        },
+    );
+    ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -1945,6 +2034,29 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
+/// value puts joint 5 outside its limits (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`).
+#[inline]
+fn free_candidates(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> [::armforge_runtime::internal::Candidate; 8] {
+    let mut all = candidates(target, reference);
+    ::armforge_runtime::internal::free_joint_1(
+        &JOINT_TABLE,
+        [&BASE, &TOOL],
+        &SETTINGS,
+        target,
+        reference,
+        &mut all,
+        |moved: &[f64; 4], i: usize| {
+            let again = candidates(target, moved);
+            again.get(i).copied()
+        },
+    );
+    all
 }
 /// The closed-form steps of branch 1 alone (facing, up, leading).
 #[allow(

@@ -3,8 +3,8 @@
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
 // Family: polar with a spherical wrist; 8 candidate branches, at most 8 solutions.
-// Cost of one solve: 15 sqrt, 30 atan2, 11 divisions, no loops, no heap.
-// Cost of one solve_branch: at most 4 sqrt, 5 atan2, 3 divisions (that branch alone).
+// Cost of one solve: 19 sqrt, 30 atan2, 13 divisions, no loops, no heap.
+// Cost of one solve_branch: at most 5 sqrt, 5 atan2, 3 divisions (that branch alone).
 //
 // Safety: a generated solver is not a safety function. Validate it on the real machine
 // at reduced speed in a safeguarded cell, and defer to local regulations, the applicable
@@ -382,10 +382,23 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     ) {
         return ::armforge_runtime::SolutionSet::unreachable(reason);
     }
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::option::Option::Some(reason) = solve(&far.target).reason() {
+            return ::armforge_runtime::SolutionSet::unreachable(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     ::armforge_runtime::internal::collect(
         &JOINT_TABLE,
         &SETTINGS,
-        &candidates(target, &ZERO_REFERENCE),
+        &free_candidates(target, &ZERO_REFERENCE),
     )
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
@@ -408,6 +421,19 @@ pub fn solve_near(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::result::Result::Err(reason) = solve_near(&far.target, current) {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     let anchor = ::armforge_runtime::internal::anchors_near(
         &JOINT_TABLE,
         current,
@@ -473,7 +499,7 @@ pub fn solve_near(
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
         &SETTINGS,
-        &candidates(target, &reference),
+        &free_candidates(target, &reference),
         current,
         &anchor,
     )
@@ -489,6 +515,19 @@ pub fn solve_branch(
     ::armforge_runtime::Unreachable,
 > {
     ::armforge_runtime::internal::check_pose(target)?;
+    if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(
+        target,
+    ) {
+        if let ::core::result::Result::Err(reason) = solve_branch(&far.target, branch) {
+            return ::core::result::Result::Err(
+                ::armforge_runtime::internal::scale_reason(
+                    &JOINT_TABLE,
+                    reason,
+                    far.scale,
+                ),
+            );
+        }
+    }
     let reference = ZERO_REFERENCE;
     let candidate = match branch {
         ::armforge_runtime::Branch {
@@ -537,12 +576,62 @@ pub fn solve_branch(
             );
         }
     };
-    ::armforge_runtime::internal::finish_one(
+    let mut one = [candidate];
+    ::armforge_runtime::internal::free_joint_1(
         &JOINT_TABLE,
+        [&BASE, &TOOL],
         &SETTINGS,
-        &candidate,
-        &CENTERS,
-    )
+        target,
+        &reference,
+        &mut one,
+        |moved: &[f64; 4], _: usize| {
+            let reference = *moved;
+            match branch {
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Extended,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_1(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Extended,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_2(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Retracted,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_3(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Facing,
+                    elbow: ::armforge_runtime::Elbow::Retracted,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_4(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Extended,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_5(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Extended,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_6(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Retracted,
+                    wrist: ::armforge_runtime::Wrist::Leading,
+                } => ::core::option::Option::Some(branch_7(target, &reference)),
+                ::armforge_runtime::Branch {
+                    shoulder: ::armforge_runtime::Shoulder::Across,
+                    elbow: ::armforge_runtime::Elbow::Retracted,
+                    wrist: ::armforge_runtime::Wrist::Trailing,
+                } => ::core::option::Option::Some(branch_8(target, &reference)),
+                _ => ::core::option::Option::None,
+            }
+        },
+    );
+    ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
 }
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
@@ -680,190 +769,236 @@ fn candidates(
     let j3_root_p = ::armforge_runtime::math::sqrt(
         (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_p = 8.539556986014195e-20 - d2_p;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_pp = j3_root_p - 0.2750702190093362;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
-    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
-        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
-        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
-    let t260 = t224 * t244;
-    let t261 = t224 * t258;
+    let t237 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
+    let t239 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
+    let t240 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
+    let t245 = w_p_z * t240 + (w_p_x * t237 - w_p_y * t239);
+    let t259 = 0.22438759210189282 * (w_p_x * t240 - w_p_z * t237)
+        - 0.919348671064388 * (w_p_z * t239 + w_p_y * t240)
+        - 0.32318451312347624 * (w_p_y * t237 + w_p_x * t239);
+    let t262 = t245 * t245 + t259 * t259;
+    let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
+    let t269 = t262 - 1e-300;
+    let t272 = if pivot_p >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t269 >= 0.0 { t245 * t266 } else { 1.0 }
+    };
+    let t273 = if pivot_p >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t269 >= 0.0 { t259 * t266 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_pp = ::armforge_runtime::math::atan2(t273, t272);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
-    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
-        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
-        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = t224 * t273;
-    let t290 = t224 * t287;
+    let t279 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
+    let t280 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
+    let t281 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
+    let t286 = w_p_z * t281 + (w_p_x * t279 - w_p_y * t280);
+    let t300 = 0.22438759210189282 * (w_p_x * t281 - w_p_z * t279)
+        - 0.919348671064388 * (w_p_z * t280 + w_p_y * t281)
+        - 0.32318451312347624 * (w_p_y * t279 + w_p_x * t280);
+    let t303 = t286 * t286 + t300 * t300;
+    let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
+    let t309 = t303 - 1e-300;
+    let t312 = if pivot_p >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t309 >= 0.0 { t286 * t306 } else { 1.0 }
+    };
+    let t313 = if pivot_p >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t309 >= 0.0 { t300 * t306 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_pm = ::armforge_runtime::math::atan2(t313, t312);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_m = ::armforge_runtime::math::sqrt(
         (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_m = 8.539556986014195e-20 - d2_m;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_mp = j3_root_m - 0.2750702190093362;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
-    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
-        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
-        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
-    let t323 = t295 * t307;
-    let t324 = t295 * t321;
+    let t323 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
+    let t324 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
+    let t325 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
+    let t330 = w_m_z * t325 + (w_m_x * t323 - w_m_y * t324);
+    let t344 = 0.22438759210189282 * (w_m_x * t325 - w_m_z * t323)
+        - 0.919348671064388 * (w_m_z * t324 + w_m_y * t325)
+        - 0.32318451312347624 * (w_m_y * t323 + w_m_x * t324);
+    let t347 = t330 * t330 + t344 * t344;
+    let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
+    let t353 = t347 - 1e-300;
+    let t356 = if pivot_m >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t353 >= 0.0 { t330 * t350 } else { 1.0 }
+    };
+    let t357 = if pivot_m >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t353 >= 0.0 { t344 * t350 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_mp = ::armforge_runtime::math::atan2(t357, t356);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
-    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
-        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
-        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
-    let t352 = t295 * t336;
-    let t353 = t295 * t350;
-    let t361 = 0.42112668389358265 * r02
+    let t363 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
+    let t364 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
+    let t365 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
+    let t370 = w_m_z * t365 + (w_m_x * t363 - w_m_y * t364);
+    let t384 = 0.22438759210189282 * (w_m_x * t365 - w_m_z * t363)
+        - 0.919348671064388 * (w_m_z * t364 + w_m_y * t365)
+        - 0.32318451312347624 * (w_m_y * t363 + w_m_x * t364);
+    let t387 = t370 * t370 + t384 * t384;
+    let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
+    let t393 = t387 - 1e-300;
+    let t396 = if pivot_m >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t393 >= 0.0 { t370 * t390 } else { 1.0 }
+    };
+    let t397 = if pivot_m >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t393 >= 0.0 { t384 * t390 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_mm = ::armforge_runtime::math::atan2(t397, t396);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t428 = g6_x - t425;
-    let t429 = g6_y - t426;
-    let t430 = g6_z - t427;
-    let t433 = 0.553647671333485 * g6_z - 0.2455648081179022 * g6_y;
-    let t436 = 0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z;
-    let t439 = 0.7957211704114873 * g6_y - 0.553647671333485 * g6_x;
-    let t449 = t425 + (j1_cos_p * t428 - j1_sin_p * t433);
-    let t450 = t426 + (j1_cos_p * t429 - j1_sin_p * t436);
-    let t451 = t427 + (j1_cos_p * t430 - j1_sin_p * t439);
-    let t456 = 0.2455648081179022 * gx_z
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t473 = g6_x - t470;
+    let t474 = g6_y - t471;
+    let t475 = g6_z - t472;
+    let t478 = 0.553647671333485 * g6_z - 0.2455648081179022 * g6_y;
+    let t481 = 0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z;
+    let t484 = 0.7957211704114873 * g6_y - 0.553647671333485 * g6_x;
+    let t494 = t470 + (j1_cos_p * t473 - j1_sin_p * t478);
+    let t495 = t471 + (j1_cos_p * t474 - j1_sin_p * t481);
+    let t496 = t472 + (j1_cos_p * t475 - j1_sin_p * t484);
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t460 = gx_x - t457;
-    let t461 = gx_y - t458;
-    let t462 = gx_z - t459;
-    let t465 = 0.553647671333485 * gx_z - 0.2455648081179022 * gx_y;
-    let t468 = 0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z;
-    let t471 = 0.7957211704114873 * gx_y - 0.553647671333485 * gx_x;
-    let t481 = t457 + (j1_cos_p * t460 - j1_sin_p * t465);
-    let t482 = t458 + (j1_cos_p * t461 - j1_sin_p * t468);
-    let t483 = t459 + (j1_cos_p * t462 - j1_sin_p * t471);
-    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
-        - 0.32318451312347624 * t451;
-    let t489 = 0.919348671064388 * t488;
-    let t490 = 0.22438759210189282 * t488;
-    let t491 = 0.32318451312347624 * t488;
-    let t492 = t449 - t489;
-    let t493 = t450 - t490;
-    let t494 = t451 + t491;
-    let t497 = 0.22438759210189282 * t451 + 0.32318451312347624 * t450;
-    let t500 = 0.32318451312347624 * t449 + 0.919348671064388 * t451;
-    let t503 = 0.919348671064388 * t450 - 0.22438759210189282 * t449;
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t505 = gx_x - t502;
+    let t506 = gx_y - t503;
+    let t507 = gx_z - t504;
+    let t510 = 0.553647671333485 * gx_z - 0.2455648081179022 * gx_y;
+    let t513 = 0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z;
+    let t516 = 0.7957211704114873 * gx_y - 0.553647671333485 * gx_x;
+    let t526 = t502 + (j1_cos_p * t505 - j1_sin_p * t510);
+    let t527 = t503 + (j1_cos_p * t506 - j1_sin_p * t513);
+    let t528 = t504 + (j1_cos_p * t507 - j1_sin_p * t516);
+    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
+        - 0.32318451312347624 * t496;
+    let t534 = 0.919348671064388 * t533;
+    let t535 = 0.22438759210189282 * t533;
+    let t536 = 0.32318451312347624 * t533;
+    let t537 = t494 - t534;
+    let t538 = t495 - t535;
+    let t539 = t496 + t536;
+    let t542 = 0.22438759210189282 * t496 + 0.32318451312347624 * t495;
+    let t545 = 0.32318451312347624 * t494 + 0.919348671064388 * t496;
+    let t548 = 0.919348671064388 * t495 - 0.22438759210189282 * t494;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t489 + (t260 * t492 - t261 * t497);
+    let v_b1_x = t534 + (t272 * t537 - t273 * t542);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t490 + (t260 * t493 + t261 * t500);
+    let v_b1_y = t535 + (t272 * t538 + t273 * t545);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t260 * t494 - t261 * t503 - t491;
-    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
-        - 0.32318451312347624 * t483;
-    let t521 = 0.919348671064388 * t520;
-    let t522 = 0.22438759210189282 * t520;
-    let t523 = 0.32318451312347624 * t520;
-    let t524 = t481 - t521;
-    let t525 = t482 - t522;
-    let t526 = t483 + t523;
-    let t529 = 0.22438759210189282 * t483 + 0.32318451312347624 * t482;
-    let t532 = 0.32318451312347624 * t481 + 0.919348671064388 * t483;
-    let t535 = 0.919348671064388 * t482 - 0.22438759210189282 * t481;
+    let v_b1_z = t272 * t539 - t273 * t548 - t536;
+    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
+        - 0.32318451312347624 * t528;
+    let t566 = 0.919348671064388 * t565;
+    let t567 = 0.22438759210189282 * t565;
+    let t568 = 0.32318451312347624 * t565;
+    let t569 = t526 - t566;
+    let t570 = t527 - t567;
+    let t571 = t528 + t568;
+    let t574 = 0.22438759210189282 * t528 + 0.32318451312347624 * t527;
+    let t577 = 0.32318451312347624 * t526 + 0.919348671064388 * t528;
+    let t580 = 0.919348671064388 * t527 - 0.22438759210189282 * t526;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t521 + (t260 * t524 - t261 * t529);
+    let xv_b1_x = t566 + (t272 * t569 - t273 * t574);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t522 + (t260 * t525 + t261 * t532);
+    let xv_b1_y = t567 + (t272 * t570 + t273 * t577);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t260 * t526 - t261 * t535 - t523;
+    let xv_b1_z = t272 * t571 - t273 * t580 - t568;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
         - 0.14913085300184115 * v_b1_z;
-    let t558 = j5_a_b1 - 0.20984549109584813;
+    let t603 = j5_a_b1 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b1 = 1.3479901200256164 * t558;
+    let j5_alpha_b1 = 1.3479901200256164 * t603;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
-    let t566 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
-    let t569 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
-    let t572 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
-    let t581 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    let t611 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t614 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t617 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t626 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t572 * t572 + (t566 * t566 + t569 * t569)
-        - 1.3479901200256164 * (t581 * t581);
+    let j5_gap_b1 = t617 * t617 + (t611 * t611 + t614 * t614)
+        - 1.3479901200256164 * (t626 * t626);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b1).max(0.0),
     );
-    let t597 = 0.3174776227989252 * j5_beta_b1;
-    let t598 = 0.9399166168175558 * j5_beta_b1;
-    let t599 = 0.12555760611043656 * j5_beta_b1;
-    let t602 = 0.2368529300043945 * j5_gamma_b1;
-    let t603 = 0.030542838068628286 * j5_gamma_b1;
-    let t605 = 0.8275343040933489 * j5_gamma_b1;
-    let t606 = t597 - 0.8362137090354541 * t558;
-    let t607 = 1.0379846701062043 * t558 + t598;
-    let t608 = t599 - 0.2010269164374744 * t558;
+    let t642 = 0.3174776227989252 * j5_beta_b1;
+    let t643 = 0.9399166168175558 * j5_beta_b1;
+    let t644 = 0.12555760611043656 * j5_beta_b1;
+    let t647 = 0.2368529300043945 * j5_gamma_b1;
+    let t648 = 0.030542838068628286 * j5_gamma_b1;
+    let t650 = 0.8275343040933489 * j5_gamma_b1;
+    let t651 = t642 - 0.8362137090354541 * t603;
+    let t652 = 1.0379846701062043 * t603 + t643;
+    let t653 = t644 - 0.2010269164374744 * t603;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t602 + t606;
+    let z_b1p_x = t647 + t651;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t603 + t607;
+    let z_b1p_y = t648 + t652;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t608 - t605;
+    let z_b1p_z = t653 - t650;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1p = 1.2056566317887352
         * (0.8840923826341479 * z_b1p_z
@@ -878,58 +1013,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
-    let t641 = j5_alpha_b1 - j5_a_b1;
-    let t645 = t597 - 0.620341126105259 * t641;
-    let t646 = t598 + 0.7700239450467775 * t641;
-    let t647 = t599 - 0.14913085300184115 * t641;
-    let t648 = t602 + t645;
-    let t649 = t603 + t646;
-    let t650 = t647 - t605;
-    let t655 = v_b1_z * t650 + (v_b1_x * t648 + v_b1_y * t649);
-    let t669 = 0.7700239450467775 * (v_b1_x * t650 - v_b1_z * t648)
-        - 0.620341126105259 * (v_b1_z * t649 - v_b1_y * t650)
-        - 0.14913085300184115 * (v_b1_y * t648 - v_b1_x * t649);
-    let t672 = t655 * t655 + t669 * t669;
-    let t676 = 1.0 / ::armforge_runtime::math::sqrt(t672.max(1.0000000000000001e-40));
+    let t686 = j5_alpha_b1 - j5_a_b1;
+    let t690 = t642 - 0.620341126105259 * t686;
+    let t691 = t643 + 0.7700239450467775 * t686;
+    let t692 = t644 - 0.14913085300184115 * t686;
+    let t693 = t647 + t690;
+    let t694 = t648 + t691;
+    let t695 = t692 - t650;
+    let t700 = v_b1_z * t695 + (v_b1_x * t693 + v_b1_y * t694);
+    let t714 = 0.7700239450467775 * (v_b1_x * t695 - v_b1_z * t693)
+        - 0.620341126105259 * (v_b1_z * t694 - v_b1_y * t695)
+        - 0.14913085300184115 * (v_b1_y * t693 - v_b1_x * t694);
+    let t717 = t700 * t700 + t714 * t714;
+    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t672;
+    let aligned_b1 = 1.0000000000000001e-40 - t717;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
-    let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+    let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
-    let t688 = 0.620341126105259 * t687;
-    let t689 = 0.7700239450467775 * t687;
-    let t690 = 0.14913085300184115 * t687;
-    let t691 = xv_b1_x + t688;
-    let t692 = xv_b1_y - t689;
-    let t693 = xv_b1_z + t690;
-    let t696 = 0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y;
-    let t699 = 0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x;
-    let t702 = 0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x;
-    let t712 = j4_cos_b1p * t691 - j4_sin_b1p * t696 - t688;
-    let t713 = t689 + (j4_cos_b1p * t692 - j4_sin_b1p * t699);
-    let t714 = j4_cos_b1p * t693 + j4_sin_b1p * t702 - t690;
-    let t719 = 0.12555760611043656 * t714
-        + (0.3174776227989252 * t712 + 0.9399166168175558 * t713);
-    let t720 = 0.3174776227989252 * t719;
-    let t721 = 0.9399166168175558 * t719;
-    let t722 = 0.12555760611043656 * t719;
+    let t733 = 0.620341126105259 * t732;
+    let t734 = 0.7700239450467775 * t732;
+    let t735 = 0.14913085300184115 * t732;
+    let t736 = xv_b1_x + t733;
+    let t737 = xv_b1_y - t734;
+    let t738 = xv_b1_z + t735;
+    let t741 = 0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y;
+    let t744 = 0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x;
+    let t747 = 0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x;
+    let t757 = j4_cos_b1p * t736 - j4_sin_b1p * t741 - t733;
+    let t758 = t734 + (j4_cos_b1p * t737 - j4_sin_b1p * t744);
+    let t759 = j4_cos_b1p * t738 + j4_sin_b1p * t747 - t735;
+    let t764 = 0.12555760611043656 * t759
+        + (0.3174776227989252 * t757 + 0.9399166168175558 * t758);
+    let t765 = 0.3174776227989252 * t764;
+    let t766 = 0.9399166168175558 * t764;
+    let t767 = 0.12555760611043656 * t764;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t720
-        + (j5_cos_b1p * (t712 - t720)
-            - j5_sin_b1p * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
+    let y6_b1p_x = t765
+        + (j5_cos_b1p * (t757 - t765)
+            - j5_sin_b1p * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t721
-        + (j5_cos_b1p * (t713 - t721)
-            - j5_sin_b1p * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
+    let y6_b1p_y = t766
+        + (j5_cos_b1p * (t758 - t766)
+            - j5_sin_b1p * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t722
-        + (j5_cos_b1p * (t714 - t722)
-            - j5_sin_b1p * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
+    let y6_b1p_z = t767
+        + (j5_cos_b1p * (t759 - t767)
+            - j5_sin_b1p * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -942,11 +1077,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b1p_x + 0.028388007507509954 * y6_b1p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t606 - t602;
+    let z_b1m_x = t651 - t647;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = t607 - t603;
+    let z_b1m_y = t652 - t648;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t605 + t608;
+    let z_b1m_z = t650 + t653;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1m = 1.2056566317887352
         * (0.8840923826341479 * z_b1m_z
@@ -961,45 +1096,45 @@ fn candidates(
                 * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
-    let t795 = t645 - t602;
-    let t796 = t646 - t603;
-    let t797 = t605 + t647;
-    let t802 = v_b1_z * t797 + (v_b1_x * t795 + v_b1_y * t796);
-    let t816 = 0.7700239450467775 * (v_b1_x * t797 - v_b1_z * t795)
-        - 0.620341126105259 * (v_b1_z * t796 - v_b1_y * t797)
-        - 0.14913085300184115 * (v_b1_y * t795 - v_b1_x * t796);
-    let t819 = t802 * t802 + t816 * t816;
-    let t822 = 1.0 / ::armforge_runtime::math::sqrt(t819.max(1.0000000000000001e-40));
+    let t840 = t690 - t647;
+    let t841 = t691 - t648;
+    let t842 = t650 + t692;
+    let t847 = v_b1_z * t842 + (v_b1_x * t840 + v_b1_y * t841);
+    let t861 = 0.7700239450467775 * (v_b1_x * t842 - v_b1_z * t840)
+        - 0.620341126105259 * (v_b1_z * t841 - v_b1_y * t842)
+        - 0.14913085300184115 * (v_b1_y * t840 - v_b1_x * t841);
+    let t864 = t847 * t847 + t861 * t861;
+    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t819;
-    let t826 = -ref4_cos;
-    let t827 = -ref4_sin;
+    let aligned_b1_2 = 1.0000000000000001e-40 - t864;
+    let t871 = -ref4_cos;
+    let t872 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t826 } else { t802 * t822 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { t871 } else { t847 * t867 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t827 } else { t816 * t822 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { t872 } else { t861 * t867 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t840 = t691 * j4_cos_b1m - t696 * j4_sin_b1m - t688;
-    let t841 = t689 + (t692 * j4_cos_b1m - t699 * j4_sin_b1m);
-    let t842 = t693 * j4_cos_b1m + t702 * j4_sin_b1m - t690;
-    let t847 = 0.12555760611043656 * t842
-        + (0.3174776227989252 * t840 + 0.9399166168175558 * t841);
-    let t848 = 0.3174776227989252 * t847;
-    let t849 = 0.9399166168175558 * t847;
-    let t850 = 0.12555760611043656 * t847;
+    let t885 = t736 * j4_cos_b1m - t741 * j4_sin_b1m - t733;
+    let t886 = t734 + (t737 * j4_cos_b1m - t744 * j4_sin_b1m);
+    let t887 = t738 * j4_cos_b1m + t747 * j4_sin_b1m - t735;
+    let t892 = 0.12555760611043656 * t887
+        + (0.3174776227989252 * t885 + 0.9399166168175558 * t886);
+    let t893 = 0.3174776227989252 * t892;
+    let t894 = 0.9399166168175558 * t892;
+    let t895 = 0.12555760611043656 * t892;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t848
-        + (j5_cos_b1m * (t840 - t848)
-            - j5_sin_b1m * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
+    let y6_b1m_x = t893
+        + (j5_cos_b1m * (t885 - t893)
+            - j5_sin_b1m * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t849
-        + (j5_cos_b1m * (t841 - t849)
-            - j5_sin_b1m * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
+    let y6_b1m_y = t894
+        + (j5_cos_b1m * (t886 - t894)
+            - j5_sin_b1m * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t850
-        + (j5_cos_b1m * (t842 - t850)
-            - j5_sin_b1m * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
+    let y6_b1m_z = t895
+        + (j5_cos_b1m * (t887 - t895)
+            - j5_sin_b1m * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1012,51 +1147,51 @@ fn candidates(
             + (0.9965786754905472 * y6_b1m_x + 0.028388007507509954 * y6_b1m_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t489 + (t289 * t492 - t290 * t497);
+    let v_b2_x = t534 + (t312 * t537 - t313 * t542);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t490 + (t289 * t493 + t290 * t500);
+    let v_b2_y = t535 + (t312 * t538 + t313 * t545);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t289 * t494 - t290 * t503 - t491;
+    let v_b2_z = t312 * t539 - t313 * t548 - t536;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t521 + (t289 * t524 - t290 * t529);
+    let xv_b2_x = t566 + (t312 * t569 - t313 * t574);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t522 + (t289 * t525 + t290 * t532);
+    let xv_b2_y = t567 + (t312 * t570 + t313 * t577);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t289 * t526 - t290 * t535 - t523;
+    let xv_b2_z = t312 * t571 - t313 * t580 - t568;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
         - 0.14913085300184115 * v_b2_z;
-    let t924 = j5_a_b2 - 0.20984549109584813;
+    let t969 = j5_a_b2 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b2 = 1.3479901200256164 * t924;
+    let j5_alpha_b2 = 1.3479901200256164 * t969;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
-    let t930 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
-    let t933 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
-    let t936 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
-    let t943 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    let t975 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t978 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t981 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t988 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t936 * t936 + (t930 * t930 + t933 * t933)
-        - 1.3479901200256164 * (t943 * t943);
+    let j5_gap_b2 = t981 * t981 + (t975 * t975 + t978 * t978)
+        - 1.3479901200256164 * (t988 * t988);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b2).max(0.0),
     );
-    let t953 = 0.3174776227989252 * j5_beta_b2;
-    let t954 = 0.9399166168175558 * j5_beta_b2;
-    let t955 = 0.12555760611043656 * j5_beta_b2;
-    let t956 = 0.2368529300043945 * j5_gamma_b2;
-    let t957 = 0.030542838068628286 * j5_gamma_b2;
-    let t958 = 0.8275343040933489 * j5_gamma_b2;
-    let t959 = t953 - 0.8362137090354541 * t924;
-    let t960 = 1.0379846701062043 * t924 + t954;
-    let t961 = t955 - 0.2010269164374744 * t924;
+    let t998 = 0.3174776227989252 * j5_beta_b2;
+    let t999 = 0.9399166168175558 * j5_beta_b2;
+    let t1000 = 0.12555760611043656 * j5_beta_b2;
+    let t1001 = 0.2368529300043945 * j5_gamma_b2;
+    let t1002 = 0.030542838068628286 * j5_gamma_b2;
+    let t1003 = 0.8275343040933489 * j5_gamma_b2;
+    let t1004 = t998 - 0.8362137090354541 * t969;
+    let t1005 = 1.0379846701062043 * t969 + t999;
+    let t1006 = t1000 - 0.2010269164374744 * t969;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t956 + t959;
+    let z_b2p_x = t1001 + t1004;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t957 + t960;
+    let z_b2p_y = t1002 + t1005;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t961 - t958;
+    let z_b2p_z = t1006 - t1003;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2p = 1.2056566317887352
         * (0.8840923826341479 * z_b2p_z
@@ -1071,58 +1206,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
-    let t987 = j5_alpha_b2 - j5_a_b2;
-    let t991 = t953 - 0.620341126105259 * t987;
-    let t992 = t954 + 0.7700239450467775 * t987;
-    let t993 = t955 - 0.14913085300184115 * t987;
-    let t994 = t956 + t991;
-    let t995 = t957 + t992;
-    let t996 = t993 - t958;
-    let t1001 = v_b2_z * t996 + (v_b2_x * t994 + v_b2_y * t995);
-    let t1015 = 0.7700239450467775 * (v_b2_x * t996 - v_b2_z * t994)
-        - 0.620341126105259 * (v_b2_z * t995 - v_b2_y * t996)
-        - 0.14913085300184115 * (v_b2_y * t994 - v_b2_x * t995);
-    let t1018 = t1001 * t1001 + t1015 * t1015;
-    let t1021 = 1.0 / ::armforge_runtime::math::sqrt(t1018.max(1.0000000000000001e-40));
+    let t1032 = j5_alpha_b2 - j5_a_b2;
+    let t1036 = t998 - 0.620341126105259 * t1032;
+    let t1037 = t999 + 0.7700239450467775 * t1032;
+    let t1038 = t1000 - 0.14913085300184115 * t1032;
+    let t1039 = t1001 + t1036;
+    let t1040 = t1002 + t1037;
+    let t1041 = t1038 - t1003;
+    let t1046 = v_b2_z * t1041 + (v_b2_x * t1039 + v_b2_y * t1040);
+    let t1060 = 0.7700239450467775 * (v_b2_x * t1041 - v_b2_z * t1039)
+        - 0.620341126105259 * (v_b2_z * t1040 - v_b2_y * t1041)
+        - 0.14913085300184115 * (v_b2_y * t1039 - v_b2_x * t1040);
+    let t1063 = t1046 * t1046 + t1060 * t1060;
+    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t1018;
+    let aligned_b2 = 1.0000000000000001e-40 - t1063;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
-    let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+    let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
-    let t1033 = 0.620341126105259 * t1032;
-    let t1034 = 0.7700239450467775 * t1032;
-    let t1035 = 0.14913085300184115 * t1032;
-    let t1036 = xv_b2_x + t1033;
-    let t1037 = xv_b2_y - t1034;
-    let t1038 = xv_b2_z + t1035;
-    let t1041 = 0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y;
-    let t1044 = 0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x;
-    let t1047 = 0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x;
-    let t1057 = j4_cos_b2p * t1036 - j4_sin_b2p * t1041 - t1033;
-    let t1058 = t1034 + (j4_cos_b2p * t1037 - j4_sin_b2p * t1044);
-    let t1059 = j4_cos_b2p * t1038 + j4_sin_b2p * t1047 - t1035;
-    let t1064 = 0.12555760611043656 * t1059
-        + (0.3174776227989252 * t1057 + 0.9399166168175558 * t1058);
-    let t1065 = 0.3174776227989252 * t1064;
-    let t1066 = 0.9399166168175558 * t1064;
-    let t1067 = 0.12555760611043656 * t1064;
+    let t1078 = 0.620341126105259 * t1077;
+    let t1079 = 0.7700239450467775 * t1077;
+    let t1080 = 0.14913085300184115 * t1077;
+    let t1081 = xv_b2_x + t1078;
+    let t1082 = xv_b2_y - t1079;
+    let t1083 = xv_b2_z + t1080;
+    let t1086 = 0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y;
+    let t1089 = 0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x;
+    let t1092 = 0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x;
+    let t1102 = j4_cos_b2p * t1081 - j4_sin_b2p * t1086 - t1078;
+    let t1103 = t1079 + (j4_cos_b2p * t1082 - j4_sin_b2p * t1089);
+    let t1104 = j4_cos_b2p * t1083 + j4_sin_b2p * t1092 - t1080;
+    let t1109 = 0.12555760611043656 * t1104
+        + (0.3174776227989252 * t1102 + 0.9399166168175558 * t1103);
+    let t1110 = 0.3174776227989252 * t1109;
+    let t1111 = 0.9399166168175558 * t1109;
+    let t1112 = 0.12555760611043656 * t1109;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1065
-        + (j5_cos_b2p * (t1057 - t1065)
-            - j5_sin_b2p * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
+    let y6_b2p_x = t1110
+        + (j5_cos_b2p * (t1102 - t1110)
+            - j5_sin_b2p * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t1066
-        + (j5_cos_b2p * (t1058 - t1066)
-            - j5_sin_b2p * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
+    let y6_b2p_y = t1111
+        + (j5_cos_b2p * (t1103 - t1111)
+            - j5_sin_b2p * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t1067
-        + (j5_cos_b2p * (t1059 - t1067)
-            - j5_sin_b2p * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
+    let y6_b2p_z = t1112
+        + (j5_cos_b2p * (t1104 - t1112)
+            - j5_sin_b2p * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1135,11 +1270,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b2p_x + 0.028388007507509954 * y6_b2p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t959 - t956;
+    let z_b2m_x = t1004 - t1001;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = t960 - t957;
+    let z_b2m_y = t1005 - t1002;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t958 + t961;
+    let z_b2m_z = t1003 + t1006;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2m = 1.2056566317887352
         * (0.8840923826341479 * z_b2m_z
@@ -1154,43 +1289,43 @@ fn candidates(
                 * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
-    let t1137 = t991 - t956;
-    let t1138 = t992 - t957;
-    let t1139 = t958 + t993;
-    let t1144 = v_b2_z * t1139 + (v_b2_x * t1137 + v_b2_y * t1138);
-    let t1158 = 0.7700239450467775 * (v_b2_x * t1139 - v_b2_z * t1137)
-        - 0.620341126105259 * (v_b2_z * t1138 - v_b2_y * t1139)
-        - 0.14913085300184115 * (v_b2_y * t1137 - v_b2_x * t1138);
-    let t1161 = t1144 * t1144 + t1158 * t1158;
-    let t1164 = 1.0 / ::armforge_runtime::math::sqrt(t1161.max(1.0000000000000001e-40));
+    let t1182 = t1036 - t1001;
+    let t1183 = t1037 - t1002;
+    let t1184 = t1003 + t1038;
+    let t1189 = v_b2_z * t1184 + (v_b2_x * t1182 + v_b2_y * t1183);
+    let t1203 = 0.7700239450467775 * (v_b2_x * t1184 - v_b2_z * t1182)
+        - 0.620341126105259 * (v_b2_z * t1183 - v_b2_y * t1184)
+        - 0.14913085300184115 * (v_b2_y * t1182 - v_b2_x * t1183);
+    let t1206 = t1189 * t1189 + t1203 * t1203;
+    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t1161;
+    let aligned_b2_2 = 1.0000000000000001e-40 - t1206;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t826 } else { t1144 * t1164 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { t871 } else { t1189 * t1209 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t827 } else { t1158 * t1164 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { t872 } else { t1203 * t1209 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1180 = t1036 * j4_cos_b2m - t1041 * j4_sin_b2m - t1033;
-    let t1181 = t1034 + (t1037 * j4_cos_b2m - t1044 * j4_sin_b2m);
-    let t1182 = t1038 * j4_cos_b2m + t1047 * j4_sin_b2m - t1035;
-    let t1187 = 0.12555760611043656 * t1182
-        + (0.3174776227989252 * t1180 + 0.9399166168175558 * t1181);
-    let t1188 = 0.3174776227989252 * t1187;
-    let t1189 = 0.9399166168175558 * t1187;
-    let t1190 = 0.12555760611043656 * t1187;
+    let t1225 = t1081 * j4_cos_b2m - t1086 * j4_sin_b2m - t1078;
+    let t1226 = t1079 + (t1082 * j4_cos_b2m - t1089 * j4_sin_b2m);
+    let t1227 = t1083 * j4_cos_b2m + t1092 * j4_sin_b2m - t1080;
+    let t1232 = 0.12555760611043656 * t1227
+        + (0.3174776227989252 * t1225 + 0.9399166168175558 * t1226);
+    let t1233 = 0.3174776227989252 * t1232;
+    let t1234 = 0.9399166168175558 * t1232;
+    let t1235 = 0.12555760611043656 * t1232;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1188
-        + (j5_cos_b2m * (t1180 - t1188)
-            - j5_sin_b2m * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
+    let y6_b2m_x = t1233
+        + (j5_cos_b2m * (t1225 - t1233)
+            - j5_sin_b2m * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = t1189
-        + (j5_cos_b2m * (t1181 - t1189)
-            - j5_sin_b2m * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
+    let y6_b2m_y = t1234
+        + (j5_cos_b2m * (t1226 - t1234)
+            - j5_sin_b2m * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1190
-        + (j5_cos_b2m * (t1182 - t1190)
-            - j5_sin_b2m * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
+    let y6_b2m_z = t1235
+        + (j5_cos_b2m * (t1227 - t1235)
+            - j5_sin_b2m * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1202,80 +1337,80 @@ fn candidates(
         0.0776212895233 * y6_b2m_z
             + (0.9965786754905472 * y6_b2m_x + 0.028388007507509954 * y6_b2m_y),
     );
-    let t1244 = t425 + (j1_cos_m * t428 - j1_sin_m * t433);
-    let t1245 = t426 + (j1_cos_m * t429 - j1_sin_m * t436);
-    let t1246 = t427 + (j1_cos_m * t430 - j1_sin_m * t439);
-    let t1256 = t457 + (j1_cos_m * t460 - j1_sin_m * t465);
-    let t1257 = t458 + (j1_cos_m * t461 - j1_sin_m * t468);
-    let t1258 = t459 + (j1_cos_m * t462 - j1_sin_m * t471);
-    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
-        - 0.32318451312347624 * t1246;
-    let t1264 = 0.919348671064388 * t1263;
-    let t1265 = 0.22438759210189282 * t1263;
-    let t1266 = 0.32318451312347624 * t1263;
-    let t1267 = t1244 - t1264;
-    let t1268 = t1245 - t1265;
-    let t1269 = t1246 + t1266;
-    let t1272 = 0.22438759210189282 * t1246 + 0.32318451312347624 * t1245;
-    let t1275 = 0.32318451312347624 * t1244 + 0.919348671064388 * t1246;
-    let t1278 = 0.919348671064388 * t1245 - 0.22438759210189282 * t1244;
+    let t1289 = t470 + (j1_cos_m * t473 - j1_sin_m * t478);
+    let t1290 = t471 + (j1_cos_m * t474 - j1_sin_m * t481);
+    let t1291 = t472 + (j1_cos_m * t475 - j1_sin_m * t484);
+    let t1301 = t502 + (j1_cos_m * t505 - j1_sin_m * t510);
+    let t1302 = t503 + (j1_cos_m * t506 - j1_sin_m * t513);
+    let t1303 = t504 + (j1_cos_m * t507 - j1_sin_m * t516);
+    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
+        - 0.32318451312347624 * t1291;
+    let t1309 = 0.919348671064388 * t1308;
+    let t1310 = 0.22438759210189282 * t1308;
+    let t1311 = 0.32318451312347624 * t1308;
+    let t1312 = t1289 - t1309;
+    let t1313 = t1290 - t1310;
+    let t1314 = t1291 + t1311;
+    let t1317 = 0.22438759210189282 * t1291 + 0.32318451312347624 * t1290;
+    let t1320 = 0.32318451312347624 * t1289 + 0.919348671064388 * t1291;
+    let t1323 = 0.919348671064388 * t1290 - 0.22438759210189282 * t1289;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1264 + (t323 * t1267 - t324 * t1272);
+    let v_b3_x = t1309 + (t356 * t1312 - t357 * t1317);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1265 + (t323 * t1268 + t324 * t1275);
+    let v_b3_y = t1310 + (t356 * t1313 + t357 * t1320);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t323 * t1269 - t324 * t1278 - t1266;
-    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
-        - 0.32318451312347624 * t1258;
-    let t1296 = 0.919348671064388 * t1295;
-    let t1297 = 0.22438759210189282 * t1295;
-    let t1298 = 0.32318451312347624 * t1295;
-    let t1299 = t1256 - t1296;
-    let t1300 = t1257 - t1297;
-    let t1301 = t1258 + t1298;
-    let t1304 = 0.22438759210189282 * t1258 + 0.32318451312347624 * t1257;
-    let t1307 = 0.32318451312347624 * t1256 + 0.919348671064388 * t1258;
-    let t1310 = 0.919348671064388 * t1257 - 0.22438759210189282 * t1256;
+    let v_b3_z = t356 * t1314 - t357 * t1323 - t1311;
+    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
+        - 0.32318451312347624 * t1303;
+    let t1341 = 0.919348671064388 * t1340;
+    let t1342 = 0.22438759210189282 * t1340;
+    let t1343 = 0.32318451312347624 * t1340;
+    let t1344 = t1301 - t1341;
+    let t1345 = t1302 - t1342;
+    let t1346 = t1303 + t1343;
+    let t1349 = 0.22438759210189282 * t1303 + 0.32318451312347624 * t1302;
+    let t1352 = 0.32318451312347624 * t1301 + 0.919348671064388 * t1303;
+    let t1355 = 0.919348671064388 * t1302 - 0.22438759210189282 * t1301;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1296 + (t323 * t1299 - t324 * t1304);
+    let xv_b3_x = t1341 + (t356 * t1344 - t357 * t1349);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1297 + (t323 * t1300 + t324 * t1307);
+    let xv_b3_y = t1342 + (t356 * t1345 + t357 * t1352);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t323 * t1301 - t324 * t1310 - t1298;
+    let xv_b3_z = t356 * t1346 - t357 * t1355 - t1343;
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
         - 0.14913085300184115 * v_b3_z;
-    let t1328 = j5_a_b3 - 0.20984549109584813;
+    let t1373 = j5_a_b3 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b3 = 1.3479901200256164 * t1328;
+    let j5_alpha_b3 = 1.3479901200256164 * t1373;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
-    let t1334 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
-    let t1337 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
-    let t1340 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
-    let t1347 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    let t1379 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1382 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1385 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1392 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b3 = t1340 * t1340 + (t1334 * t1334 + t1337 * t1337)
-        - 1.3479901200256164 * (t1347 * t1347);
+    let j5_gap_b3 = t1385 * t1385 + (t1379 * t1379 + t1382 * t1382)
+        - 1.3479901200256164 * (t1392 * t1392);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b3).max(0.0),
     );
-    let t1357 = 0.3174776227989252 * j5_beta_b3;
-    let t1358 = 0.9399166168175558 * j5_beta_b3;
-    let t1359 = 0.12555760611043656 * j5_beta_b3;
-    let t1360 = 0.2368529300043945 * j5_gamma_b3;
-    let t1361 = 0.030542838068628286 * j5_gamma_b3;
-    let t1362 = 0.8275343040933489 * j5_gamma_b3;
-    let t1363 = t1357 - 0.8362137090354541 * t1328;
-    let t1364 = 1.0379846701062043 * t1328 + t1358;
-    let t1365 = t1359 - 0.2010269164374744 * t1328;
+    let t1402 = 0.3174776227989252 * j5_beta_b3;
+    let t1403 = 0.9399166168175558 * j5_beta_b3;
+    let t1404 = 0.12555760611043656 * j5_beta_b3;
+    let t1405 = 0.2368529300043945 * j5_gamma_b3;
+    let t1406 = 0.030542838068628286 * j5_gamma_b3;
+    let t1407 = 0.8275343040933489 * j5_gamma_b3;
+    let t1408 = t1402 - 0.8362137090354541 * t1373;
+    let t1409 = 1.0379846701062043 * t1373 + t1403;
+    let t1410 = t1404 - 0.2010269164374744 * t1373;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1360 + t1363;
+    let z_b3p_x = t1405 + t1408;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1361 + t1364;
+    let z_b3p_y = t1406 + t1409;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1365 - t1362;
+    let z_b3p_z = t1410 - t1407;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3p = 1.2056566317887352
         * (0.8840923826341479 * z_b3p_z
@@ -1290,58 +1425,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
-    let t1391 = j5_alpha_b3 - j5_a_b3;
-    let t1395 = t1357 - 0.620341126105259 * t1391;
-    let t1396 = t1358 + 0.7700239450467775 * t1391;
-    let t1397 = t1359 - 0.14913085300184115 * t1391;
-    let t1398 = t1360 + t1395;
-    let t1399 = t1361 + t1396;
-    let t1400 = t1397 - t1362;
-    let t1405 = v_b3_z * t1400 + (v_b3_x * t1398 + v_b3_y * t1399);
-    let t1419 = 0.7700239450467775 * (v_b3_x * t1400 - v_b3_z * t1398)
-        - 0.620341126105259 * (v_b3_z * t1399 - v_b3_y * t1400)
-        - 0.14913085300184115 * (v_b3_y * t1398 - v_b3_x * t1399);
-    let t1422 = t1405 * t1405 + t1419 * t1419;
-    let t1425 = 1.0 / ::armforge_runtime::math::sqrt(t1422.max(1.0000000000000001e-40));
+    let t1436 = j5_alpha_b3 - j5_a_b3;
+    let t1440 = t1402 - 0.620341126105259 * t1436;
+    let t1441 = t1403 + 0.7700239450467775 * t1436;
+    let t1442 = t1404 - 0.14913085300184115 * t1436;
+    let t1443 = t1405 + t1440;
+    let t1444 = t1406 + t1441;
+    let t1445 = t1442 - t1407;
+    let t1450 = v_b3_z * t1445 + (v_b3_x * t1443 + v_b3_y * t1444);
+    let t1464 = 0.7700239450467775 * (v_b3_x * t1445 - v_b3_z * t1443)
+        - 0.620341126105259 * (v_b3_z * t1444 - v_b3_y * t1445)
+        - 0.14913085300184115 * (v_b3_y * t1443 - v_b3_x * t1444);
+    let t1467 = t1450 * t1450 + t1464 * t1464;
+    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-40 - t1422;
+    let aligned_b3 = 1.0000000000000001e-40 - t1467;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
+    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
+    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
-    let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+    let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
-    let t1437 = 0.620341126105259 * t1436;
-    let t1438 = 0.7700239450467775 * t1436;
-    let t1439 = 0.14913085300184115 * t1436;
-    let t1440 = xv_b3_x + t1437;
-    let t1441 = xv_b3_y - t1438;
-    let t1442 = xv_b3_z + t1439;
-    let t1445 = 0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y;
-    let t1448 = 0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x;
-    let t1451 = 0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x;
-    let t1461 = j4_cos_b3p * t1440 - j4_sin_b3p * t1445 - t1437;
-    let t1462 = t1438 + (j4_cos_b3p * t1441 - j4_sin_b3p * t1448);
-    let t1463 = j4_cos_b3p * t1442 + j4_sin_b3p * t1451 - t1439;
-    let t1468 = 0.12555760611043656 * t1463
-        + (0.3174776227989252 * t1461 + 0.9399166168175558 * t1462);
-    let t1469 = 0.3174776227989252 * t1468;
-    let t1470 = 0.9399166168175558 * t1468;
-    let t1471 = 0.12555760611043656 * t1468;
+    let t1482 = 0.620341126105259 * t1481;
+    let t1483 = 0.7700239450467775 * t1481;
+    let t1484 = 0.14913085300184115 * t1481;
+    let t1485 = xv_b3_x + t1482;
+    let t1486 = xv_b3_y - t1483;
+    let t1487 = xv_b3_z + t1484;
+    let t1490 = 0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y;
+    let t1493 = 0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x;
+    let t1496 = 0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x;
+    let t1506 = j4_cos_b3p * t1485 - j4_sin_b3p * t1490 - t1482;
+    let t1507 = t1483 + (j4_cos_b3p * t1486 - j4_sin_b3p * t1493);
+    let t1508 = j4_cos_b3p * t1487 + j4_sin_b3p * t1496 - t1484;
+    let t1513 = 0.12555760611043656 * t1508
+        + (0.3174776227989252 * t1506 + 0.9399166168175558 * t1507);
+    let t1514 = 0.3174776227989252 * t1513;
+    let t1515 = 0.9399166168175558 * t1513;
+    let t1516 = 0.12555760611043656 * t1513;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1469
-        + (j5_cos_b3p * (t1461 - t1469)
-            - j5_sin_b3p * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
+    let y6_b3p_x = t1514
+        + (j5_cos_b3p * (t1506 - t1514)
+            - j5_sin_b3p * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1470
-        + (j5_cos_b3p * (t1462 - t1470)
-            - j5_sin_b3p * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
+    let y6_b3p_y = t1515
+        + (j5_cos_b3p * (t1507 - t1515)
+            - j5_sin_b3p * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1471
-        + (j5_cos_b3p * (t1463 - t1471)
-            - j5_sin_b3p * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
+    let y6_b3p_z = t1516
+        + (j5_cos_b3p * (t1508 - t1516)
+            - j5_sin_b3p * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1354,11 +1489,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b3p_x + 0.028388007507509954 * y6_b3p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1363 - t1360;
+    let z_b3m_x = t1408 - t1405;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = t1364 - t1361;
+    let z_b3m_y = t1409 - t1406;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1362 + t1365;
+    let z_b3m_z = t1407 + t1410;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3m = 1.2056566317887352
         * (0.8840923826341479 * z_b3m_z
@@ -1373,43 +1508,43 @@ fn candidates(
                 * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
-    let t1541 = t1395 - t1360;
-    let t1542 = t1396 - t1361;
-    let t1543 = t1362 + t1397;
-    let t1548 = v_b3_z * t1543 + (v_b3_x * t1541 + v_b3_y * t1542);
-    let t1562 = 0.7700239450467775 * (v_b3_x * t1543 - v_b3_z * t1541)
-        - 0.620341126105259 * (v_b3_z * t1542 - v_b3_y * t1543)
-        - 0.14913085300184115 * (v_b3_y * t1541 - v_b3_x * t1542);
-    let t1565 = t1548 * t1548 + t1562 * t1562;
-    let t1568 = 1.0 / ::armforge_runtime::math::sqrt(t1565.max(1.0000000000000001e-40));
+    let t1586 = t1440 - t1405;
+    let t1587 = t1441 - t1406;
+    let t1588 = t1407 + t1442;
+    let t1593 = v_b3_z * t1588 + (v_b3_x * t1586 + v_b3_y * t1587);
+    let t1607 = 0.7700239450467775 * (v_b3_x * t1588 - v_b3_z * t1586)
+        - 0.620341126105259 * (v_b3_z * t1587 - v_b3_y * t1588)
+        - 0.14913085300184115 * (v_b3_y * t1586 - v_b3_x * t1587);
+    let t1610 = t1593 * t1593 + t1607 * t1607;
+    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1.0000000000000001e-40 - t1565;
+    let aligned_b3_2 = 1.0000000000000001e-40 - t1610;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t826 } else { t1548 * t1568 };
+    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { t871 } else { t1593 * t1613 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t827 } else { t1562 * t1568 };
+    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { t872 } else { t1607 * t1613 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1584 = t1440 * j4_cos_b3m - t1445 * j4_sin_b3m - t1437;
-    let t1585 = t1438 + (t1441 * j4_cos_b3m - t1448 * j4_sin_b3m);
-    let t1586 = t1442 * j4_cos_b3m + t1451 * j4_sin_b3m - t1439;
-    let t1591 = 0.12555760611043656 * t1586
-        + (0.3174776227989252 * t1584 + 0.9399166168175558 * t1585);
-    let t1592 = 0.3174776227989252 * t1591;
-    let t1593 = 0.9399166168175558 * t1591;
-    let t1594 = 0.12555760611043656 * t1591;
+    let t1629 = t1485 * j4_cos_b3m - t1490 * j4_sin_b3m - t1482;
+    let t1630 = t1483 + (t1486 * j4_cos_b3m - t1493 * j4_sin_b3m);
+    let t1631 = t1487 * j4_cos_b3m + t1496 * j4_sin_b3m - t1484;
+    let t1636 = 0.12555760611043656 * t1631
+        + (0.3174776227989252 * t1629 + 0.9399166168175558 * t1630);
+    let t1637 = 0.3174776227989252 * t1636;
+    let t1638 = 0.9399166168175558 * t1636;
+    let t1639 = 0.12555760611043656 * t1636;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1592
-        + (j5_cos_b3m * (t1584 - t1592)
-            - j5_sin_b3m * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
+    let y6_b3m_x = t1637
+        + (j5_cos_b3m * (t1629 - t1637)
+            - j5_sin_b3m * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = t1593
-        + (j5_cos_b3m * (t1585 - t1593)
-            - j5_sin_b3m * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
+    let y6_b3m_y = t1638
+        + (j5_cos_b3m * (t1630 - t1638)
+            - j5_sin_b3m * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = t1594
-        + (j5_cos_b3m * (t1586 - t1594)
-            - j5_sin_b3m * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
+    let y6_b3m_z = t1639
+        + (j5_cos_b3m * (t1631 - t1639)
+            - j5_sin_b3m * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1422,51 +1557,51 @@ fn candidates(
             + (0.9965786754905472 * y6_b3m_x + 0.028388007507509954 * y6_b3m_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1264 + (t352 * t1267 - t353 * t1272);
+    let v_b4_x = t1309 + (t396 * t1312 - t397 * t1317);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1265 + (t352 * t1268 + t353 * t1275);
+    let v_b4_y = t1310 + (t396 * t1313 + t397 * t1320);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t352 * t1269 - t353 * t1278 - t1266;
+    let v_b4_z = t396 * t1314 - t397 * t1323 - t1311;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1296 + (t352 * t1299 - t353 * t1304);
+    let xv_b4_x = t1341 + (t396 * t1344 - t397 * t1349);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1297 + (t352 * t1300 + t353 * t1307);
+    let xv_b4_y = t1342 + (t396 * t1345 + t397 * t1352);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t352 * t1301 - t353 * t1310 - t1298;
+    let xv_b4_z = t396 * t1346 - t397 * t1355 - t1343;
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
         - 0.14913085300184115 * v_b4_z;
-    let t1668 = j5_a_b4 - 0.20984549109584813;
+    let t1713 = j5_a_b4 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b4 = 1.3479901200256164 * t1668;
+    let j5_alpha_b4 = 1.3479901200256164 * t1713;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
-    let t1674 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
-    let t1677 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
-    let t1680 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
-    let t1687 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    let t1719 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1722 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1725 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1732 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b4 = t1680 * t1680 + (t1674 * t1674 + t1677 * t1677)
-        - 1.3479901200256164 * (t1687 * t1687);
+    let j5_gap_b4 = t1725 * t1725 + (t1719 * t1719 + t1722 * t1722)
+        - 1.3479901200256164 * (t1732 * t1732);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b4).max(0.0),
     );
-    let t1697 = 0.3174776227989252 * j5_beta_b4;
-    let t1698 = 0.9399166168175558 * j5_beta_b4;
-    let t1699 = 0.12555760611043656 * j5_beta_b4;
-    let t1700 = 0.2368529300043945 * j5_gamma_b4;
-    let t1701 = 0.030542838068628286 * j5_gamma_b4;
-    let t1702 = 0.8275343040933489 * j5_gamma_b4;
-    let t1703 = t1697 - 0.8362137090354541 * t1668;
-    let t1704 = 1.0379846701062043 * t1668 + t1698;
-    let t1705 = t1699 - 0.2010269164374744 * t1668;
+    let t1742 = 0.3174776227989252 * j5_beta_b4;
+    let t1743 = 0.9399166168175558 * j5_beta_b4;
+    let t1744 = 0.12555760611043656 * j5_beta_b4;
+    let t1745 = 0.2368529300043945 * j5_gamma_b4;
+    let t1746 = 0.030542838068628286 * j5_gamma_b4;
+    let t1747 = 0.8275343040933489 * j5_gamma_b4;
+    let t1748 = t1742 - 0.8362137090354541 * t1713;
+    let t1749 = 1.0379846701062043 * t1713 + t1743;
+    let t1750 = t1744 - 0.2010269164374744 * t1713;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1700 + t1703;
+    let z_b4p_x = t1745 + t1748;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1701 + t1704;
+    let z_b4p_y = t1746 + t1749;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1705 - t1702;
+    let z_b4p_z = t1750 - t1747;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4p = 1.2056566317887352
         * (0.8840923826341479 * z_b4p_z
@@ -1481,58 +1616,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
-    let t1731 = j5_alpha_b4 - j5_a_b4;
-    let t1735 = t1697 - 0.620341126105259 * t1731;
-    let t1736 = t1698 + 0.7700239450467775 * t1731;
-    let t1737 = t1699 - 0.14913085300184115 * t1731;
-    let t1738 = t1700 + t1735;
-    let t1739 = t1701 + t1736;
-    let t1740 = t1737 - t1702;
-    let t1745 = v_b4_z * t1740 + (v_b4_x * t1738 + v_b4_y * t1739);
-    let t1759 = 0.7700239450467775 * (v_b4_x * t1740 - v_b4_z * t1738)
-        - 0.620341126105259 * (v_b4_z * t1739 - v_b4_y * t1740)
-        - 0.14913085300184115 * (v_b4_y * t1738 - v_b4_x * t1739);
-    let t1762 = t1745 * t1745 + t1759 * t1759;
-    let t1765 = 1.0 / ::armforge_runtime::math::sqrt(t1762.max(1.0000000000000001e-40));
+    let t1776 = j5_alpha_b4 - j5_a_b4;
+    let t1780 = t1742 - 0.620341126105259 * t1776;
+    let t1781 = t1743 + 0.7700239450467775 * t1776;
+    let t1782 = t1744 - 0.14913085300184115 * t1776;
+    let t1783 = t1745 + t1780;
+    let t1784 = t1746 + t1781;
+    let t1785 = t1782 - t1747;
+    let t1790 = v_b4_z * t1785 + (v_b4_x * t1783 + v_b4_y * t1784);
+    let t1804 = 0.7700239450467775 * (v_b4_x * t1785 - v_b4_z * t1783)
+        - 0.620341126105259 * (v_b4_z * t1784 - v_b4_y * t1785)
+        - 0.14913085300184115 * (v_b4_y * t1783 - v_b4_x * t1784);
+    let t1807 = t1790 * t1790 + t1804 * t1804;
+    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-40 - t1762;
+    let aligned_b4 = 1.0000000000000001e-40 - t1807;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
+    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
+    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
-    let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+    let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
-    let t1777 = 0.620341126105259 * t1776;
-    let t1778 = 0.7700239450467775 * t1776;
-    let t1779 = 0.14913085300184115 * t1776;
-    let t1780 = xv_b4_x + t1777;
-    let t1781 = xv_b4_y - t1778;
-    let t1782 = xv_b4_z + t1779;
-    let t1785 = 0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y;
-    let t1788 = 0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x;
-    let t1791 = 0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x;
-    let t1801 = j4_cos_b4p * t1780 - j4_sin_b4p * t1785 - t1777;
-    let t1802 = t1778 + (j4_cos_b4p * t1781 - j4_sin_b4p * t1788);
-    let t1803 = j4_cos_b4p * t1782 + j4_sin_b4p * t1791 - t1779;
-    let t1808 = 0.12555760611043656 * t1803
-        + (0.3174776227989252 * t1801 + 0.9399166168175558 * t1802);
-    let t1809 = 0.3174776227989252 * t1808;
-    let t1810 = 0.9399166168175558 * t1808;
-    let t1811 = 0.12555760611043656 * t1808;
+    let t1822 = 0.620341126105259 * t1821;
+    let t1823 = 0.7700239450467775 * t1821;
+    let t1824 = 0.14913085300184115 * t1821;
+    let t1825 = xv_b4_x + t1822;
+    let t1826 = xv_b4_y - t1823;
+    let t1827 = xv_b4_z + t1824;
+    let t1830 = 0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y;
+    let t1833 = 0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x;
+    let t1836 = 0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x;
+    let t1846 = j4_cos_b4p * t1825 - j4_sin_b4p * t1830 - t1822;
+    let t1847 = t1823 + (j4_cos_b4p * t1826 - j4_sin_b4p * t1833);
+    let t1848 = j4_cos_b4p * t1827 + j4_sin_b4p * t1836 - t1824;
+    let t1853 = 0.12555760611043656 * t1848
+        + (0.3174776227989252 * t1846 + 0.9399166168175558 * t1847);
+    let t1854 = 0.3174776227989252 * t1853;
+    let t1855 = 0.9399166168175558 * t1853;
+    let t1856 = 0.12555760611043656 * t1853;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1809
-        + (j5_cos_b4p * (t1801 - t1809)
-            - j5_sin_b4p * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
+    let y6_b4p_x = t1854
+        + (j5_cos_b4p * (t1846 - t1854)
+            - j5_sin_b4p * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1810
-        + (j5_cos_b4p * (t1802 - t1810)
-            - j5_sin_b4p * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
+    let y6_b4p_y = t1855
+        + (j5_cos_b4p * (t1847 - t1855)
+            - j5_sin_b4p * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1811
-        + (j5_cos_b4p * (t1803 - t1811)
-            - j5_sin_b4p * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
+    let y6_b4p_z = t1856
+        + (j5_cos_b4p * (t1848 - t1856)
+            - j5_sin_b4p * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1545,11 +1680,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b4p_x + 0.028388007507509954 * y6_b4p_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1703 - t1700;
+    let z_b4m_x = t1748 - t1745;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = t1704 - t1701;
+    let z_b4m_y = t1749 - t1746;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1702 + t1705;
+    let z_b4m_z = t1747 + t1750;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4m = 1.2056566317887352
         * (0.8840923826341479 * z_b4m_z
@@ -1564,43 +1699,43 @@ fn candidates(
                 * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
-    let t1881 = t1735 - t1700;
-    let t1882 = t1736 - t1701;
-    let t1883 = t1702 + t1737;
-    let t1888 = v_b4_z * t1883 + (v_b4_x * t1881 + v_b4_y * t1882);
-    let t1902 = 0.7700239450467775 * (v_b4_x * t1883 - v_b4_z * t1881)
-        - 0.620341126105259 * (v_b4_z * t1882 - v_b4_y * t1883)
-        - 0.14913085300184115 * (v_b4_y * t1881 - v_b4_x * t1882);
-    let t1905 = t1888 * t1888 + t1902 * t1902;
-    let t1908 = 1.0 / ::armforge_runtime::math::sqrt(t1905.max(1.0000000000000001e-40));
+    let t1926 = t1780 - t1745;
+    let t1927 = t1781 - t1746;
+    let t1928 = t1747 + t1782;
+    let t1933 = v_b4_z * t1928 + (v_b4_x * t1926 + v_b4_y * t1927);
+    let t1947 = 0.7700239450467775 * (v_b4_x * t1928 - v_b4_z * t1926)
+        - 0.620341126105259 * (v_b4_z * t1927 - v_b4_y * t1928)
+        - 0.14913085300184115 * (v_b4_y * t1926 - v_b4_x * t1927);
+    let t1950 = t1933 * t1933 + t1947 * t1947;
+    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1.0000000000000001e-40 - t1905;
+    let aligned_b4_2 = 1.0000000000000001e-40 - t1950;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t826 } else { t1888 * t1908 };
+    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { t871 } else { t1933 * t1953 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t827 } else { t1902 * t1908 };
+    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { t872 } else { t1947 * t1953 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t1924 = t1780 * j4_cos_b4m - t1785 * j4_sin_b4m - t1777;
-    let t1925 = t1778 + (t1781 * j4_cos_b4m - t1788 * j4_sin_b4m);
-    let t1926 = t1782 * j4_cos_b4m + t1791 * j4_sin_b4m - t1779;
-    let t1931 = 0.12555760611043656 * t1926
-        + (0.3174776227989252 * t1924 + 0.9399166168175558 * t1925);
-    let t1932 = 0.3174776227989252 * t1931;
-    let t1933 = 0.9399166168175558 * t1931;
-    let t1934 = 0.12555760611043656 * t1931;
+    let t1969 = t1825 * j4_cos_b4m - t1830 * j4_sin_b4m - t1822;
+    let t1970 = t1823 + (t1826 * j4_cos_b4m - t1833 * j4_sin_b4m);
+    let t1971 = t1827 * j4_cos_b4m + t1836 * j4_sin_b4m - t1824;
+    let t1976 = 0.12555760611043656 * t1971
+        + (0.3174776227989252 * t1969 + 0.9399166168175558 * t1970);
+    let t1977 = 0.3174776227989252 * t1976;
+    let t1978 = 0.9399166168175558 * t1976;
+    let t1979 = 0.12555760611043656 * t1976;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t1932
-        + (j5_cos_b4m * (t1924 - t1932)
-            - j5_sin_b4m * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
+    let y6_b4m_x = t1977
+        + (j5_cos_b4m * (t1969 - t1977)
+            - j5_sin_b4m * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = t1933
-        + (j5_cos_b4m * (t1925 - t1933)
-            - j5_sin_b4m * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
+    let y6_b4m_y = t1978
+        + (j5_cos_b4m * (t1970 - t1978)
+            - j5_sin_b4m * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = t1934
-        + (j5_cos_b4m * (t1926 - t1934)
-            - j5_sin_b4m * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
+    let y6_b4m_z = t1979
+        + (j5_cos_b4m * (t1971 - t1979)
+            - j5_sin_b4m * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1839,6 +1974,29 @@ fn candidates(
         },
     ]
 }
+/// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
+/// value puts joint 5 outside its limits (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`).
+#[inline]
+fn free_candidates(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> [::armforge_runtime::internal::Candidate; 8] {
+    let mut all = candidates(target, reference);
+    ::armforge_runtime::internal::free_joint_1(
+        &JOINT_TABLE,
+        [&BASE, &TOOL],
+        &SETTINGS,
+        target,
+        reference,
+        &mut all,
+        |moved: &[f64; 4], i: usize| {
+            let again = candidates(target, moved);
+            again.get(i).copied()
+        },
+    );
+    all
+}
 /// The closed-form steps of branch 1 alone (facing, extended, leading).
 #[allow(
     clippy::approx_constant,
@@ -1959,141 +2117,153 @@ fn branch_1(
     let j3_root_p = ::armforge_runtime::math::sqrt(
         (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_p = 8.539556986014195e-20 - d2_p;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_pp = j3_root_p - 0.2750702190093362;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
-    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
-        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
-        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
-    let t260 = t224 * t244;
-    let t261 = t224 * t258;
-    let t361 = 0.42112668389358265 * r02
+    let t237 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
+    let t239 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
+    let t240 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
+    let t245 = w_p_z * t240 + (w_p_x * t237 - w_p_y * t239);
+    let t259 = 0.22438759210189282 * (w_p_x * t240 - w_p_z * t237)
+        - 0.919348671064388 * (w_p_z * t239 + w_p_y * t240)
+        - 0.32318451312347624 * (w_p_y * t237 + w_p_x * t239);
+    let t262 = t245 * t245 + t259 * t259;
+    let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
+    let t269 = t262 - 1e-300;
+    let t272 = if pivot_p >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t269 >= 0.0 { t245 * t266 } else { 1.0 }
+    };
+    let t273 = if pivot_p >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t269 >= 0.0 { t259 * t266 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_pp = ::armforge_runtime::math::atan2(t273, t272);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t494 = t470
+        + (j1_cos_p * (g6_x - t470)
             - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
+    let t495 = t471
+        + (j1_cos_p * (g6_y - t471)
             - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
+    let t496 = t472
+        + (j1_cos_p * (g6_z - t472)
             - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t456 = 0.2455648081179022 * gx_z
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t526 = t502
+        + (j1_cos_p * (gx_x - t502)
             - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
+    let t527 = t503
+        + (j1_cos_p * (gx_y - t503)
             - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
+    let t528 = t504
+        + (j1_cos_p * (gx_z - t504)
             - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
-        - 0.32318451312347624 * t451;
-    let t489 = 0.919348671064388 * t488;
-    let t490 = 0.22438759210189282 * t488;
-    let t491 = 0.32318451312347624 * t488;
+    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
+        - 0.32318451312347624 * t496;
+    let t534 = 0.919348671064388 * t533;
+    let t535 = 0.22438759210189282 * t533;
+    let t536 = 0.32318451312347624 * t533;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t489
-        + (t260 * (t449 - t489)
-            - t261 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    let v_b1_x = t534
+        + (t272 * (t494 - t534)
+            - t273 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t490
-        + (t260 * (t450 - t490)
-            + t261 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    let v_b1_y = t535
+        + (t272 * (t495 - t535)
+            + t273 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t260 * (t451 + t491)
-        - t261 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
-    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
-        - 0.32318451312347624 * t483;
-    let t521 = 0.919348671064388 * t520;
-    let t522 = 0.22438759210189282 * t520;
-    let t523 = 0.32318451312347624 * t520;
+    let v_b1_z = t272 * (t496 + t536)
+        - t273 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
+    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
+        - 0.32318451312347624 * t528;
+    let t566 = 0.919348671064388 * t565;
+    let t567 = 0.22438759210189282 * t565;
+    let t568 = 0.32318451312347624 * t565;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t521
-        + (t260 * (t481 - t521)
-            - t261 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    let xv_b1_x = t566
+        + (t272 * (t526 - t566)
+            - t273 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t522
-        + (t260 * (t482 - t522)
-            + t261 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    let xv_b1_y = t567
+        + (t272 * (t527 - t567)
+            + t273 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t260 * (t483 + t523)
-        - t261 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    let xv_b1_z = t272 * (t528 + t568)
+        - t273 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
         - 0.14913085300184115 * v_b1_z;
-    let t558 = j5_a_b1 - 0.20984549109584813;
+    let t603 = j5_a_b1 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b1 = 1.3479901200256164 * t558;
+    let j5_alpha_b1 = 1.3479901200256164 * t603;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
-    let t566 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
-    let t569 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
-    let t572 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
-    let t581 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    let t611 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t614 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t617 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t626 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t572 * t572 + (t566 * t566 + t569 * t569)
-        - 1.3479901200256164 * (t581 * t581);
+    let j5_gap_b1 = t617 * t617 + (t611 * t611 + t614 * t614)
+        - 1.3479901200256164 * (t626 * t626);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b1).max(0.0),
     );
-    let t597 = 0.3174776227989252 * j5_beta_b1;
-    let t598 = 0.9399166168175558 * j5_beta_b1;
-    let t599 = 0.12555760611043656 * j5_beta_b1;
-    let t602 = 0.2368529300043945 * j5_gamma_b1;
-    let t603 = 0.030542838068628286 * j5_gamma_b1;
-    let t605 = 0.8275343040933489 * j5_gamma_b1;
+    let t642 = 0.3174776227989252 * j5_beta_b1;
+    let t643 = 0.9399166168175558 * j5_beta_b1;
+    let t644 = 0.12555760611043656 * j5_beta_b1;
+    let t647 = 0.2368529300043945 * j5_gamma_b1;
+    let t648 = 0.030542838068628286 * j5_gamma_b1;
+    let t650 = 0.8275343040933489 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1p_x = t602 + (t597 - 0.8362137090354541 * t558);
+    let z_b1p_x = t647 + (t642 - 0.8362137090354541 * t603);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1p_y = t603 + (1.0379846701062043 * t558 + t598);
+    let z_b1p_y = t648 + (1.0379846701062043 * t603 + t643);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1p_z = t599 - 0.2010269164374744 * t558 - t605;
+    let z_b1p_z = t644 - 0.2010269164374744 * t603 - t650;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1p = 1.2056566317887352
         * (0.8840923826341479 * z_b1p_z
@@ -2108,56 +2278,56 @@ fn branch_1(
                 * (0.08264952242757546 * z_b1p_y + 0.34229941191058744 * z_b1p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1p = ::armforge_runtime::math::atan2(j5_sin_b1p, j5_cos_b1p);
-    let t641 = j5_alpha_b1 - j5_a_b1;
-    let t648 = t602 + (t597 - 0.620341126105259 * t641);
-    let t649 = t603 + (t598 + 0.7700239450467775 * t641);
-    let t650 = t599 - 0.14913085300184115 * t641 - t605;
-    let t655 = v_b1_z * t650 + (v_b1_x * t648 + v_b1_y * t649);
-    let t669 = 0.7700239450467775 * (v_b1_x * t650 - v_b1_z * t648)
-        - 0.620341126105259 * (v_b1_z * t649 - v_b1_y * t650)
-        - 0.14913085300184115 * (v_b1_y * t648 - v_b1_x * t649);
-    let t672 = t655 * t655 + t669 * t669;
-    let t676 = 1.0 / ::armforge_runtime::math::sqrt(t672.max(1.0000000000000001e-40));
+    let t686 = j5_alpha_b1 - j5_a_b1;
+    let t693 = t647 + (t642 - 0.620341126105259 * t686);
+    let t694 = t648 + (t643 + 0.7700239450467775 * t686);
+    let t695 = t644 - 0.14913085300184115 * t686 - t650;
+    let t700 = v_b1_z * t695 + (v_b1_x * t693 + v_b1_y * t694);
+    let t714 = 0.7700239450467775 * (v_b1_x * t695 - v_b1_z * t693)
+        - 0.620341126105259 * (v_b1_z * t694 - v_b1_y * t695)
+        - 0.14913085300184115 * (v_b1_y * t693 - v_b1_x * t694);
+    let t717 = t700 * t700 + t714 * t714;
+    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t672;
+    let aligned_b1 = 1.0000000000000001e-40 - t717;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t655 * t676 };
+    let j4_cos_b1p = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t669 * t676 };
+    let j4_sin_b1p = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1p = ::armforge_runtime::math::atan2(j4_sin_b1p, j4_cos_b1p);
-    let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+    let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
-    let t688 = 0.620341126105259 * t687;
-    let t689 = 0.7700239450467775 * t687;
-    let t690 = 0.14913085300184115 * t687;
-    let t712 = j4_cos_b1p * (xv_b1_x + t688)
+    let t733 = 0.620341126105259 * t732;
+    let t734 = 0.7700239450467775 * t732;
+    let t735 = 0.14913085300184115 * t732;
+    let t757 = j4_cos_b1p * (xv_b1_x + t733)
         - j4_sin_b1p * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
-        - t688;
-    let t713 = t689
-        + (j4_cos_b1p * (xv_b1_y - t689)
+        - t733;
+    let t758 = t734
+        + (j4_cos_b1p * (xv_b1_y - t734)
             - j4_sin_b1p
                 * (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x));
-    let t714 = j4_cos_b1p * (xv_b1_z + t690)
+    let t759 = j4_cos_b1p * (xv_b1_z + t735)
         + j4_sin_b1p * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
-        - t690;
-    let t719 = 0.12555760611043656 * t714
-        + (0.3174776227989252 * t712 + 0.9399166168175558 * t713);
-    let t720 = 0.3174776227989252 * t719;
-    let t721 = 0.9399166168175558 * t719;
-    let t722 = 0.12555760611043656 * t719;
+        - t735;
+    let t764 = 0.12555760611043656 * t759
+        + (0.3174776227989252 * t757 + 0.9399166168175558 * t758);
+    let t765 = 0.3174776227989252 * t764;
+    let t766 = 0.9399166168175558 * t764;
+    let t767 = 0.12555760611043656 * t764;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1p_x = t720
-        + (j5_cos_b1p * (t712 - t720)
-            - j5_sin_b1p * (0.9399166168175558 * t714 - 0.12555760611043656 * t713));
+    let y6_b1p_x = t765
+        + (j5_cos_b1p * (t757 - t765)
+            - j5_sin_b1p * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1p_y = t721
-        + (j5_cos_b1p * (t713 - t721)
-            - j5_sin_b1p * (0.12555760611043656 * t712 - 0.3174776227989252 * t714));
+    let y6_b1p_y = t766
+        + (j5_cos_b1p * (t758 - t766)
+            - j5_sin_b1p * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1p_z = t722
-        + (j5_cos_b1p * (t714 - t722)
-            - j5_sin_b1p * (0.3174776227989252 * t713 - 0.9399166168175558 * t712));
+    let y6_b1p_z = t767
+        + (j5_cos_b1p * (t759 - t767)
+            - j5_sin_b1p * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -2318,147 +2488,159 @@ fn branch_2(
     let j3_root_p = ::armforge_runtime::math::sqrt(
         (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_p = 8.539556986014195e-20 - d2_p;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_pp = j3_root_p - 0.2750702190093362;
-    let t236 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
-    let t238 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
-    let t239 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
-    let t244 = w_p_z * t239 + (w_p_x * t236 - w_p_y * t238);
-    let t258 = 0.22438759210189282 * (w_p_x * t239 - w_p_z * t236)
-        - 0.919348671064388 * (w_p_z * t238 + w_p_y * t239)
-        - 0.32318451312347624 * (w_p_y * t236 + w_p_x * t238);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pp = ::armforge_runtime::math::atan2(t258, t244);
-    let t260 = t224 * t244;
-    let t261 = t224 * t258;
-    let t361 = 0.42112668389358265 * r02
+    let t237 = 0.3779706556925576 * q3_pp + 0.12974347073127893;
+    let t239 = 0.7317961020620863 * q3_pp + 0.049474576298366504;
+    let t240 = 0.5671090269446208 * q3_pp + 0.33472521719783077;
+    let t245 = w_p_z * t240 + (w_p_x * t237 - w_p_y * t239);
+    let t259 = 0.22438759210189282 * (w_p_x * t240 - w_p_z * t237)
+        - 0.919348671064388 * (w_p_z * t239 + w_p_y * t240)
+        - 0.32318451312347624 * (w_p_y * t237 + w_p_x * t239);
+    let t262 = t245 * t245 + t259 * t259;
+    let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
+    let t269 = t262 - 1e-300;
+    let t272 = if pivot_p >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t269 >= 0.0 { t245 * t266 } else { 1.0 }
+    };
+    let t273 = if pivot_p >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t269 >= 0.0 { t259 * t266 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_pp = ::armforge_runtime::math::atan2(t273, t272);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t494 = t470
+        + (j1_cos_p * (g6_x - t470)
             - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
+    let t495 = t471
+        + (j1_cos_p * (g6_y - t471)
             - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
+    let t496 = t472
+        + (j1_cos_p * (g6_z - t472)
             - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t456 = 0.2455648081179022 * gx_z
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t526 = t502
+        + (j1_cos_p * (gx_x - t502)
             - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
+    let t527 = t503
+        + (j1_cos_p * (gx_y - t503)
             - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
+    let t528 = t504
+        + (j1_cos_p * (gx_z - t504)
             - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
-        - 0.32318451312347624 * t451;
-    let t489 = 0.919348671064388 * t488;
-    let t490 = 0.22438759210189282 * t488;
-    let t491 = 0.32318451312347624 * t488;
+    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
+        - 0.32318451312347624 * t496;
+    let t534 = 0.919348671064388 * t533;
+    let t535 = 0.22438759210189282 * t533;
+    let t536 = 0.32318451312347624 * t533;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t489
-        + (t260 * (t449 - t489)
-            - t261 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    let v_b1_x = t534
+        + (t272 * (t494 - t534)
+            - t273 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t490
-        + (t260 * (t450 - t490)
-            + t261 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    let v_b1_y = t535
+        + (t272 * (t495 - t535)
+            + t273 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t260 * (t451 + t491)
-        - t261 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
-    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
-        - 0.32318451312347624 * t483;
-    let t521 = 0.919348671064388 * t520;
-    let t522 = 0.22438759210189282 * t520;
-    let t523 = 0.32318451312347624 * t520;
+    let v_b1_z = t272 * (t496 + t536)
+        - t273 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
+    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
+        - 0.32318451312347624 * t528;
+    let t566 = 0.919348671064388 * t565;
+    let t567 = 0.22438759210189282 * t565;
+    let t568 = 0.32318451312347624 * t565;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t521
-        + (t260 * (t481 - t521)
-            - t261 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    let xv_b1_x = t566
+        + (t272 * (t526 - t566)
+            - t273 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t522
-        + (t260 * (t482 - t522)
-            + t261 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    let xv_b1_y = t567
+        + (t272 * (t527 - t567)
+            + t273 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t260 * (t483 + t523)
-        - t261 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    let xv_b1_z = t272 * (t528 + t568)
+        - t273 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
         - 0.14913085300184115 * v_b1_z;
-    let t558 = j5_a_b1 - 0.20984549109584813;
+    let t603 = j5_a_b1 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b1 = 1.3479901200256164 * t558;
+    let j5_alpha_b1 = 1.3479901200256164 * t603;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
-    let t566 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
-    let t569 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
-    let t572 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
-    let t581 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    let t611 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t614 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t617 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t626 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t572 * t572 + (t566 * t566 + t569 * t569)
-        - 1.3479901200256164 * (t581 * t581);
+    let j5_gap_b1 = t617 * t617 + (t611 * t611 + t614 * t614)
+        - 1.3479901200256164 * (t626 * t626);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b1).max(0.0),
     );
-    let t597 = 0.3174776227989252 * j5_beta_b1;
-    let t598 = 0.9399166168175558 * j5_beta_b1;
-    let t599 = 0.12555760611043656 * j5_beta_b1;
-    let t602 = 0.2368529300043945 * j5_gamma_b1;
-    let t603 = 0.030542838068628286 * j5_gamma_b1;
-    let t605 = 0.8275343040933489 * j5_gamma_b1;
-    let t641 = j5_alpha_b1 - j5_a_b1;
-    let t687 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+    let t642 = 0.3174776227989252 * j5_beta_b1;
+    let t643 = 0.9399166168175558 * j5_beta_b1;
+    let t644 = 0.12555760611043656 * j5_beta_b1;
+    let t647 = 0.2368529300043945 * j5_gamma_b1;
+    let t648 = 0.030542838068628286 * j5_gamma_b1;
+    let t650 = 0.8275343040933489 * j5_gamma_b1;
+    let t686 = j5_alpha_b1 - j5_a_b1;
+    let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
-    let t688 = 0.620341126105259 * t687;
-    let t689 = 0.7700239450467775 * t687;
-    let t690 = 0.14913085300184115 * t687;
+    let t733 = 0.620341126105259 * t732;
+    let t734 = 0.7700239450467775 * t732;
+    let t735 = 0.14913085300184115 * t732;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1m_x = t597 - 0.8362137090354541 * t558 - t602;
+    let z_b1m_x = t642 - 0.8362137090354541 * t603 - t647;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1m_y = 1.0379846701062043 * t558 + t598 - t603;
+    let z_b1m_y = 1.0379846701062043 * t603 + t643 - t648;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1m_z = t605 + (t599 - 0.2010269164374744 * t558);
+    let z_b1m_z = t650 + (t644 - 0.2010269164374744 * t603);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1m = 1.2056566317887352
         * (0.8840923826341479 * z_b1m_z
@@ -2473,50 +2655,50 @@ fn branch_2(
                 * (0.08264952242757546 * z_b1m_y + 0.34229941191058744 * z_b1m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1m = ::armforge_runtime::math::atan2(j5_sin_b1m, j5_cos_b1m);
-    let t795 = t597 - 0.620341126105259 * t641 - t602;
-    let t796 = t598 + 0.7700239450467775 * t641 - t603;
-    let t797 = t605 + (t599 - 0.14913085300184115 * t641);
-    let t802 = v_b1_z * t797 + (v_b1_x * t795 + v_b1_y * t796);
-    let t816 = 0.7700239450467775 * (v_b1_x * t797 - v_b1_z * t795)
-        - 0.620341126105259 * (v_b1_z * t796 - v_b1_y * t797)
-        - 0.14913085300184115 * (v_b1_y * t795 - v_b1_x * t796);
-    let t819 = t802 * t802 + t816 * t816;
-    let t822 = 1.0 / ::armforge_runtime::math::sqrt(t819.max(1.0000000000000001e-40));
+    let t840 = t642 - 0.620341126105259 * t686 - t647;
+    let t841 = t643 + 0.7700239450467775 * t686 - t648;
+    let t842 = t650 + (t644 - 0.14913085300184115 * t686);
+    let t847 = v_b1_z * t842 + (v_b1_x * t840 + v_b1_y * t841);
+    let t861 = 0.7700239450467775 * (v_b1_x * t842 - v_b1_z * t840)
+        - 0.620341126105259 * (v_b1_z * t841 - v_b1_y * t842)
+        - 0.14913085300184115 * (v_b1_y * t840 - v_b1_x * t841);
+    let t864 = t847 * t847 + t861 * t861;
+    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t819;
+    let aligned_b1_2 = 1.0000000000000001e-40 - t864;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t802 * t822 };
+    let j4_cos_b1m = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t847 * t867 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t816 * t822 };
+    let j4_sin_b1m = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t861 * t867 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1m = ::armforge_runtime::math::atan2(j4_sin_b1m, j4_cos_b1m);
-    let t840 = (xv_b1_x + t688) * j4_cos_b1m
+    let t885 = (xv_b1_x + t733) * j4_cos_b1m
         - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1m
-        - t688;
-    let t841 = t689
-        + ((xv_b1_y - t689) * j4_cos_b1m
+        - t733;
+    let t886 = t734
+        + ((xv_b1_y - t734) * j4_cos_b1m
             - (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x)
                 * j4_sin_b1m);
-    let t842 = (xv_b1_z + t690) * j4_cos_b1m
+    let t887 = (xv_b1_z + t735) * j4_cos_b1m
         + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1m
-        - t690;
-    let t847 = 0.12555760611043656 * t842
-        + (0.3174776227989252 * t840 + 0.9399166168175558 * t841);
-    let t848 = 0.3174776227989252 * t847;
-    let t849 = 0.9399166168175558 * t847;
-    let t850 = 0.12555760611043656 * t847;
+        - t735;
+    let t892 = 0.12555760611043656 * t887
+        + (0.3174776227989252 * t885 + 0.9399166168175558 * t886);
+    let t893 = 0.3174776227989252 * t892;
+    let t894 = 0.9399166168175558 * t892;
+    let t895 = 0.12555760611043656 * t892;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1m_x = t848
-        + (j5_cos_b1m * (t840 - t848)
-            - j5_sin_b1m * (0.9399166168175558 * t842 - 0.12555760611043656 * t841));
+    let y6_b1m_x = t893
+        + (j5_cos_b1m * (t885 - t893)
+            - j5_sin_b1m * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1m_y = t849
-        + (j5_cos_b1m * (t841 - t849)
-            - j5_sin_b1m * (0.12555760611043656 * t840 - 0.3174776227989252 * t842));
+    let y6_b1m_y = t894
+        + (j5_cos_b1m * (t886 - t894)
+            - j5_sin_b1m * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1m_z = t850
-        + (j5_cos_b1m * (t842 - t850)
-            - j5_sin_b1m * (0.3174776227989252 * t841 - 0.9399166168175558 * t840));
+    let y6_b1m_z = t895
+        + (j5_cos_b1m * (t887 - t895)
+            - j5_sin_b1m * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -2677,141 +2859,153 @@ fn branch_3(
     let j3_root_p = ::armforge_runtime::math::sqrt(
         (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_p = 8.539556986014195e-20 - d2_p;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
-    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
-        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
-        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = t224 * t273;
-    let t290 = t224 * t287;
-    let t361 = 0.42112668389358265 * r02
+    let t279 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
+    let t280 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
+    let t281 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
+    let t286 = w_p_z * t281 + (w_p_x * t279 - w_p_y * t280);
+    let t300 = 0.22438759210189282 * (w_p_x * t281 - w_p_z * t279)
+        - 0.919348671064388 * (w_p_z * t280 + w_p_y * t281)
+        - 0.32318451312347624 * (w_p_y * t279 + w_p_x * t280);
+    let t303 = t286 * t286 + t300 * t300;
+    let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
+    let t309 = t303 - 1e-300;
+    let t312 = if pivot_p >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t309 >= 0.0 { t286 * t306 } else { 1.0 }
+    };
+    let t313 = if pivot_p >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t309 >= 0.0 { t300 * t306 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_pm = ::armforge_runtime::math::atan2(t313, t312);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t494 = t470
+        + (j1_cos_p * (g6_x - t470)
             - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
+    let t495 = t471
+        + (j1_cos_p * (g6_y - t471)
             - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
+    let t496 = t472
+        + (j1_cos_p * (g6_z - t472)
             - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t456 = 0.2455648081179022 * gx_z
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t526 = t502
+        + (j1_cos_p * (gx_x - t502)
             - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
+    let t527 = t503
+        + (j1_cos_p * (gx_y - t503)
             - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
+    let t528 = t504
+        + (j1_cos_p * (gx_z - t504)
             - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
-        - 0.32318451312347624 * t451;
-    let t489 = 0.919348671064388 * t488;
-    let t490 = 0.22438759210189282 * t488;
-    let t491 = 0.32318451312347624 * t488;
-    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
-        - 0.32318451312347624 * t483;
-    let t521 = 0.919348671064388 * t520;
-    let t522 = 0.22438759210189282 * t520;
-    let t523 = 0.32318451312347624 * t520;
+    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
+        - 0.32318451312347624 * t496;
+    let t534 = 0.919348671064388 * t533;
+    let t535 = 0.22438759210189282 * t533;
+    let t536 = 0.32318451312347624 * t533;
+    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
+        - 0.32318451312347624 * t528;
+    let t566 = 0.919348671064388 * t565;
+    let t567 = 0.22438759210189282 * t565;
+    let t568 = 0.32318451312347624 * t565;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t489
-        + (t289 * (t449 - t489)
-            - t290 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    let v_b2_x = t534
+        + (t312 * (t494 - t534)
+            - t313 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t490
-        + (t289 * (t450 - t490)
-            + t290 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    let v_b2_y = t535
+        + (t312 * (t495 - t535)
+            + t313 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t289 * (t451 + t491)
-        - t290 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
+    let v_b2_z = t312 * (t496 + t536)
+        - t313 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t521
-        + (t289 * (t481 - t521)
-            - t290 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    let xv_b2_x = t566
+        + (t312 * (t526 - t566)
+            - t313 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t522
-        + (t289 * (t482 - t522)
-            + t290 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    let xv_b2_y = t567
+        + (t312 * (t527 - t567)
+            + t313 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t289 * (t483 + t523)
-        - t290 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    let xv_b2_z = t312 * (t528 + t568)
+        - t313 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
         - 0.14913085300184115 * v_b2_z;
-    let t924 = j5_a_b2 - 0.20984549109584813;
+    let t969 = j5_a_b2 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b2 = 1.3479901200256164 * t924;
+    let j5_alpha_b2 = 1.3479901200256164 * t969;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
-    let t930 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
-    let t933 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
-    let t936 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
-    let t943 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    let t975 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t978 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t981 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t988 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t936 * t936 + (t930 * t930 + t933 * t933)
-        - 1.3479901200256164 * (t943 * t943);
+    let j5_gap_b2 = t981 * t981 + (t975 * t975 + t978 * t978)
+        - 1.3479901200256164 * (t988 * t988);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b2).max(0.0),
     );
-    let t953 = 0.3174776227989252 * j5_beta_b2;
-    let t954 = 0.9399166168175558 * j5_beta_b2;
-    let t955 = 0.12555760611043656 * j5_beta_b2;
-    let t956 = 0.2368529300043945 * j5_gamma_b2;
-    let t957 = 0.030542838068628286 * j5_gamma_b2;
-    let t958 = 0.8275343040933489 * j5_gamma_b2;
+    let t998 = 0.3174776227989252 * j5_beta_b2;
+    let t999 = 0.9399166168175558 * j5_beta_b2;
+    let t1000 = 0.12555760611043656 * j5_beta_b2;
+    let t1001 = 0.2368529300043945 * j5_gamma_b2;
+    let t1002 = 0.030542838068628286 * j5_gamma_b2;
+    let t1003 = 0.8275343040933489 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2p_x = t956 + (t953 - 0.8362137090354541 * t924);
+    let z_b2p_x = t1001 + (t998 - 0.8362137090354541 * t969);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2p_y = t957 + (1.0379846701062043 * t924 + t954);
+    let z_b2p_y = t1002 + (1.0379846701062043 * t969 + t999);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2p_z = t955 - 0.2010269164374744 * t924 - t958;
+    let z_b2p_z = t1000 - 0.2010269164374744 * t969 - t1003;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2p = 1.2056566317887352
         * (0.8840923826341479 * z_b2p_z
@@ -2826,56 +3020,56 @@ fn branch_3(
                 * (0.08264952242757546 * z_b2p_y + 0.34229941191058744 * z_b2p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2p = ::armforge_runtime::math::atan2(j5_sin_b2p, j5_cos_b2p);
-    let t987 = j5_alpha_b2 - j5_a_b2;
-    let t994 = t956 + (t953 - 0.620341126105259 * t987);
-    let t995 = t957 + (t954 + 0.7700239450467775 * t987);
-    let t996 = t955 - 0.14913085300184115 * t987 - t958;
-    let t1001 = v_b2_z * t996 + (v_b2_x * t994 + v_b2_y * t995);
-    let t1015 = 0.7700239450467775 * (v_b2_x * t996 - v_b2_z * t994)
-        - 0.620341126105259 * (v_b2_z * t995 - v_b2_y * t996)
-        - 0.14913085300184115 * (v_b2_y * t994 - v_b2_x * t995);
-    let t1018 = t1001 * t1001 + t1015 * t1015;
-    let t1021 = 1.0 / ::armforge_runtime::math::sqrt(t1018.max(1.0000000000000001e-40));
+    let t1032 = j5_alpha_b2 - j5_a_b2;
+    let t1039 = t1001 + (t998 - 0.620341126105259 * t1032);
+    let t1040 = t1002 + (t999 + 0.7700239450467775 * t1032);
+    let t1041 = t1000 - 0.14913085300184115 * t1032 - t1003;
+    let t1046 = v_b2_z * t1041 + (v_b2_x * t1039 + v_b2_y * t1040);
+    let t1060 = 0.7700239450467775 * (v_b2_x * t1041 - v_b2_z * t1039)
+        - 0.620341126105259 * (v_b2_z * t1040 - v_b2_y * t1041)
+        - 0.14913085300184115 * (v_b2_y * t1039 - v_b2_x * t1040);
+    let t1063 = t1046 * t1046 + t1060 * t1060;
+    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t1018;
+    let aligned_b2 = 1.0000000000000001e-40 - t1063;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1001 * t1021 };
+    let j4_cos_b2p = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1015 * t1021 };
+    let j4_sin_b2p = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2p = ::armforge_runtime::math::atan2(j4_sin_b2p, j4_cos_b2p);
-    let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+    let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
-    let t1033 = 0.620341126105259 * t1032;
-    let t1034 = 0.7700239450467775 * t1032;
-    let t1035 = 0.14913085300184115 * t1032;
-    let t1057 = j4_cos_b2p * (xv_b2_x + t1033)
+    let t1078 = 0.620341126105259 * t1077;
+    let t1079 = 0.7700239450467775 * t1077;
+    let t1080 = 0.14913085300184115 * t1077;
+    let t1102 = j4_cos_b2p * (xv_b2_x + t1078)
         - j4_sin_b2p * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
-        - t1033;
-    let t1058 = t1034
-        + (j4_cos_b2p * (xv_b2_y - t1034)
+        - t1078;
+    let t1103 = t1079
+        + (j4_cos_b2p * (xv_b2_y - t1079)
             - j4_sin_b2p
                 * (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x));
-    let t1059 = j4_cos_b2p * (xv_b2_z + t1035)
+    let t1104 = j4_cos_b2p * (xv_b2_z + t1080)
         + j4_sin_b2p * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
-        - t1035;
-    let t1064 = 0.12555760611043656 * t1059
-        + (0.3174776227989252 * t1057 + 0.9399166168175558 * t1058);
-    let t1065 = 0.3174776227989252 * t1064;
-    let t1066 = 0.9399166168175558 * t1064;
-    let t1067 = 0.12555760611043656 * t1064;
+        - t1080;
+    let t1109 = 0.12555760611043656 * t1104
+        + (0.3174776227989252 * t1102 + 0.9399166168175558 * t1103);
+    let t1110 = 0.3174776227989252 * t1109;
+    let t1111 = 0.9399166168175558 * t1109;
+    let t1112 = 0.12555760611043656 * t1109;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2p_x = t1065
-        + (j5_cos_b2p * (t1057 - t1065)
-            - j5_sin_b2p * (0.9399166168175558 * t1059 - 0.12555760611043656 * t1058));
+    let y6_b2p_x = t1110
+        + (j5_cos_b2p * (t1102 - t1110)
+            - j5_sin_b2p * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2p_y = t1066
-        + (j5_cos_b2p * (t1058 - t1066)
-            - j5_sin_b2p * (0.12555760611043656 * t1057 - 0.3174776227989252 * t1059));
+    let y6_b2p_y = t1111
+        + (j5_cos_b2p * (t1103 - t1111)
+            - j5_sin_b2p * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2p_z = t1067
-        + (j5_cos_b2p * (t1059 - t1067)
-            - j5_sin_b2p * (0.3174776227989252 * t1058 - 0.9399166168175558 * t1057));
+    let y6_b2p_z = t1112
+        + (j5_cos_b2p * (t1104 - t1112)
+            - j5_sin_b2p * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -3036,147 +3230,159 @@ fn branch_4(
     let j3_root_p = ::armforge_runtime::math::sqrt(
         (d2_p - 0.05565844753959191).max(0.0),
     );
-    let t224 = 1.0 / d2_p.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_p = 8.539556986014195e-20 - d2_p;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_pm = -0.2750702190093362 - j3_root_p;
-    let t266 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
-    let t267 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
-    let t268 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
-    let t273 = w_p_z * t268 + (w_p_x * t266 - w_p_y * t267);
-    let t287 = 0.22438759210189282 * (w_p_x * t268 - w_p_z * t266)
-        - 0.919348671064388 * (w_p_z * t267 + w_p_y * t268)
-        - 0.32318451312347624 * (w_p_y * t266 + w_p_x * t267);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_pm = ::armforge_runtime::math::atan2(t287, t273);
-    let t289 = t224 * t273;
-    let t290 = t224 * t287;
-    let t361 = 0.42112668389358265 * r02
+    let t279 = 0.3779706556925576 * q3_pm + 0.12974347073127893;
+    let t280 = 0.7317961020620863 * q3_pm + 0.049474576298366504;
+    let t281 = 0.5671090269446208 * q3_pm + 0.33472521719783077;
+    let t286 = w_p_z * t281 + (w_p_x * t279 - w_p_y * t280);
+    let t300 = 0.22438759210189282 * (w_p_x * t281 - w_p_z * t279)
+        - 0.919348671064388 * (w_p_z * t280 + w_p_y * t281)
+        - 0.32318451312347624 * (w_p_y * t279 + w_p_x * t280);
+    let t303 = t286 * t286 + t300 * t300;
+    let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
+    let t309 = t303 - 1e-300;
+    let t312 = if pivot_p >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t309 >= 0.0 { t286 * t306 } else { 1.0 }
+    };
+    let t313 = if pivot_p >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t309 >= 0.0 { t300 * t306 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_pm = ::armforge_runtime::math::atan2(t313, t312);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t449 = t425
-        + (j1_cos_p * (g6_x - t425)
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t494 = t470
+        + (j1_cos_p * (g6_x - t470)
             - j1_sin_p * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t450 = t426
-        + (j1_cos_p * (g6_y - t426)
+    let t495 = t471
+        + (j1_cos_p * (g6_y - t471)
             - j1_sin_p * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t451 = t427
-        + (j1_cos_p * (g6_z - t427)
+    let t496 = t472
+        + (j1_cos_p * (g6_z - t472)
             - j1_sin_p * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t456 = 0.2455648081179022 * gx_z
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t481 = t457
-        + (j1_cos_p * (gx_x - t457)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t526 = t502
+        + (j1_cos_p * (gx_x - t502)
             - j1_sin_p * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t482 = t458
-        + (j1_cos_p * (gx_y - t458)
+    let t527 = t503
+        + (j1_cos_p * (gx_y - t503)
             - j1_sin_p * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t483 = t459
-        + (j1_cos_p * (gx_z - t459)
+    let t528 = t504
+        + (j1_cos_p * (gx_z - t504)
             - j1_sin_p * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t488 = 0.919348671064388 * t449 + 0.22438759210189282 * t450
-        - 0.32318451312347624 * t451;
-    let t489 = 0.919348671064388 * t488;
-    let t490 = 0.22438759210189282 * t488;
-    let t491 = 0.32318451312347624 * t488;
-    let t520 = 0.919348671064388 * t481 + 0.22438759210189282 * t482
-        - 0.32318451312347624 * t483;
-    let t521 = 0.919348671064388 * t520;
-    let t522 = 0.22438759210189282 * t520;
-    let t523 = 0.32318451312347624 * t520;
+    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
+        - 0.32318451312347624 * t496;
+    let t534 = 0.919348671064388 * t533;
+    let t535 = 0.22438759210189282 * t533;
+    let t536 = 0.32318451312347624 * t533;
+    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
+        - 0.32318451312347624 * t528;
+    let t566 = 0.919348671064388 * t565;
+    let t567 = 0.22438759210189282 * t565;
+    let t568 = 0.32318451312347624 * t565;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t489
-        + (t289 * (t449 - t489)
-            - t290 * (0.22438759210189282 * t451 + 0.32318451312347624 * t450));
+    let v_b2_x = t534
+        + (t312 * (t494 - t534)
+            - t313 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t490
-        + (t289 * (t450 - t490)
-            + t290 * (0.32318451312347624 * t449 + 0.919348671064388 * t451));
+    let v_b2_y = t535
+        + (t312 * (t495 - t535)
+            + t313 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t289 * (t451 + t491)
-        - t290 * (0.919348671064388 * t450 - 0.22438759210189282 * t449) - t491;
+    let v_b2_z = t312 * (t496 + t536)
+        - t313 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t521
-        + (t289 * (t481 - t521)
-            - t290 * (0.22438759210189282 * t483 + 0.32318451312347624 * t482));
+    let xv_b2_x = t566
+        + (t312 * (t526 - t566)
+            - t313 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t522
-        + (t289 * (t482 - t522)
-            + t290 * (0.32318451312347624 * t481 + 0.919348671064388 * t483));
+    let xv_b2_y = t567
+        + (t312 * (t527 - t567)
+            + t313 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t289 * (t483 + t523)
-        - t290 * (0.919348671064388 * t482 - 0.22438759210189282 * t481) - t523;
+    let xv_b2_z = t312 * (t528 + t568)
+        - t313 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
         - 0.14913085300184115 * v_b2_z;
-    let t924 = j5_a_b2 - 0.20984549109584813;
+    let t969 = j5_a_b2 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b2 = 1.3479901200256164 * t924;
+    let j5_alpha_b2 = 1.3479901200256164 * t969;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
-    let t930 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
-    let t933 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
-    let t936 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
-    let t943 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    let t975 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t978 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t981 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t988 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t936 * t936 + (t930 * t930 + t933 * t933)
-        - 1.3479901200256164 * (t943 * t943);
+    let j5_gap_b2 = t981 * t981 + (t975 * t975 + t978 * t978)
+        - 1.3479901200256164 * (t988 * t988);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b2).max(0.0),
     );
-    let t953 = 0.3174776227989252 * j5_beta_b2;
-    let t954 = 0.9399166168175558 * j5_beta_b2;
-    let t955 = 0.12555760611043656 * j5_beta_b2;
-    let t956 = 0.2368529300043945 * j5_gamma_b2;
-    let t957 = 0.030542838068628286 * j5_gamma_b2;
-    let t958 = 0.8275343040933489 * j5_gamma_b2;
-    let t987 = j5_alpha_b2 - j5_a_b2;
-    let t1032 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+    let t998 = 0.3174776227989252 * j5_beta_b2;
+    let t999 = 0.9399166168175558 * j5_beta_b2;
+    let t1000 = 0.12555760611043656 * j5_beta_b2;
+    let t1001 = 0.2368529300043945 * j5_gamma_b2;
+    let t1002 = 0.030542838068628286 * j5_gamma_b2;
+    let t1003 = 0.8275343040933489 * j5_gamma_b2;
+    let t1032 = j5_alpha_b2 - j5_a_b2;
+    let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
-    let t1033 = 0.620341126105259 * t1032;
-    let t1034 = 0.7700239450467775 * t1032;
-    let t1035 = 0.14913085300184115 * t1032;
+    let t1078 = 0.620341126105259 * t1077;
+    let t1079 = 0.7700239450467775 * t1077;
+    let t1080 = 0.14913085300184115 * t1077;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2m_x = t953 - 0.8362137090354541 * t924 - t956;
+    let z_b2m_x = t998 - 0.8362137090354541 * t969 - t1001;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2m_y = 1.0379846701062043 * t924 + t954 - t957;
+    let z_b2m_y = 1.0379846701062043 * t969 + t999 - t1002;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2m_z = t958 + (t955 - 0.2010269164374744 * t924);
+    let z_b2m_z = t1003 + (t1000 - 0.2010269164374744 * t969);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2m = 1.2056566317887352
         * (0.8840923826341479 * z_b2m_z
@@ -3191,50 +3397,50 @@ fn branch_4(
                 * (0.08264952242757546 * z_b2m_y + 0.34229941191058744 * z_b2m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2m = ::armforge_runtime::math::atan2(j5_sin_b2m, j5_cos_b2m);
-    let t1137 = t953 - 0.620341126105259 * t987 - t956;
-    let t1138 = t954 + 0.7700239450467775 * t987 - t957;
-    let t1139 = t958 + (t955 - 0.14913085300184115 * t987);
-    let t1144 = v_b2_z * t1139 + (v_b2_x * t1137 + v_b2_y * t1138);
-    let t1158 = 0.7700239450467775 * (v_b2_x * t1139 - v_b2_z * t1137)
-        - 0.620341126105259 * (v_b2_z * t1138 - v_b2_y * t1139)
-        - 0.14913085300184115 * (v_b2_y * t1137 - v_b2_x * t1138);
-    let t1161 = t1144 * t1144 + t1158 * t1158;
-    let t1164 = 1.0 / ::armforge_runtime::math::sqrt(t1161.max(1.0000000000000001e-40));
+    let t1182 = t998 - 0.620341126105259 * t1032 - t1001;
+    let t1183 = t999 + 0.7700239450467775 * t1032 - t1002;
+    let t1184 = t1003 + (t1000 - 0.14913085300184115 * t1032);
+    let t1189 = v_b2_z * t1184 + (v_b2_x * t1182 + v_b2_y * t1183);
+    let t1203 = 0.7700239450467775 * (v_b2_x * t1184 - v_b2_z * t1182)
+        - 0.620341126105259 * (v_b2_z * t1183 - v_b2_y * t1184)
+        - 0.14913085300184115 * (v_b2_y * t1182 - v_b2_x * t1183);
+    let t1206 = t1189 * t1189 + t1203 * t1203;
+    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t1161;
+    let aligned_b2_2 = 1.0000000000000001e-40 - t1206;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1144 * t1164 };
+    let j4_cos_b2m = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1189 * t1209 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1158 * t1164 };
+    let j4_sin_b2m = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1203 * t1209 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2m = ::armforge_runtime::math::atan2(j4_sin_b2m, j4_cos_b2m);
-    let t1180 = (xv_b2_x + t1033) * j4_cos_b2m
+    let t1225 = (xv_b2_x + t1078) * j4_cos_b2m
         - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2m
-        - t1033;
-    let t1181 = t1034
-        + ((xv_b2_y - t1034) * j4_cos_b2m
+        - t1078;
+    let t1226 = t1079
+        + ((xv_b2_y - t1079) * j4_cos_b2m
             - (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x)
                 * j4_sin_b2m);
-    let t1182 = (xv_b2_z + t1035) * j4_cos_b2m
+    let t1227 = (xv_b2_z + t1080) * j4_cos_b2m
         + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2m
-        - t1035;
-    let t1187 = 0.12555760611043656 * t1182
-        + (0.3174776227989252 * t1180 + 0.9399166168175558 * t1181);
-    let t1188 = 0.3174776227989252 * t1187;
-    let t1189 = 0.9399166168175558 * t1187;
-    let t1190 = 0.12555760611043656 * t1187;
+        - t1080;
+    let t1232 = 0.12555760611043656 * t1227
+        + (0.3174776227989252 * t1225 + 0.9399166168175558 * t1226);
+    let t1233 = 0.3174776227989252 * t1232;
+    let t1234 = 0.9399166168175558 * t1232;
+    let t1235 = 0.12555760611043656 * t1232;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2m_x = t1188
-        + (j5_cos_b2m * (t1180 - t1188)
-            - j5_sin_b2m * (0.9399166168175558 * t1182 - 0.12555760611043656 * t1181));
+    let y6_b2m_x = t1233
+        + (j5_cos_b2m * (t1225 - t1233)
+            - j5_sin_b2m * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2m_y = t1189
-        + (j5_cos_b2m * (t1181 - t1189)
-            - j5_sin_b2m * (0.12555760611043656 * t1180 - 0.3174776227989252 * t1182));
+    let y6_b2m_y = t1234
+        + (j5_cos_b2m * (t1226 - t1234)
+            - j5_sin_b2m * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2m_z = t1190
-        + (j5_cos_b2m * (t1182 - t1190)
-            - j5_sin_b2m * (0.3174776227989252 * t1181 - 0.9399166168175558 * t1180));
+    let y6_b2m_z = t1235
+        + (j5_cos_b2m * (t1227 - t1235)
+            - j5_sin_b2m * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -3395,141 +3601,153 @@ fn branch_5(
     let j3_root_m = ::armforge_runtime::math::sqrt(
         (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_m = 8.539556986014195e-20 - d2_m;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_mp = j3_root_m - 0.2750702190093362;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
-    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
-        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
-        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
-    let t323 = t295 * t307;
-    let t324 = t295 * t321;
-    let t361 = 0.42112668389358265 * r02
+    let t323 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
+    let t324 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
+    let t325 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
+    let t330 = w_m_z * t325 + (w_m_x * t323 - w_m_y * t324);
+    let t344 = 0.22438759210189282 * (w_m_x * t325 - w_m_z * t323)
+        - 0.919348671064388 * (w_m_z * t324 + w_m_y * t325)
+        - 0.32318451312347624 * (w_m_y * t323 + w_m_x * t324);
+    let t347 = t330 * t330 + t344 * t344;
+    let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
+    let t353 = t347 - 1e-300;
+    let t356 = if pivot_m >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t353 >= 0.0 { t330 * t350 } else { 1.0 }
+    };
+    let t357 = if pivot_m >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t353 >= 0.0 { t344 * t350 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_mp = ::armforge_runtime::math::atan2(t357, t356);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t456 = 0.2455648081179022 * gx_z
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t1289 = t470
+        + (j1_cos_m * (g6_x - t470)
             - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
+    let t1290 = t471
+        + (j1_cos_m * (g6_y - t471)
             - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
+    let t1291 = t472
+        + (j1_cos_m * (g6_z - t472)
             - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
+    let t1301 = t502
+        + (j1_cos_m * (gx_x - t502)
             - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
+    let t1302 = t503
+        + (j1_cos_m * (gx_y - t503)
             - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
+    let t1303 = t504
+        + (j1_cos_m * (gx_z - t504)
             - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
-        - 0.32318451312347624 * t1246;
-    let t1264 = 0.919348671064388 * t1263;
-    let t1265 = 0.22438759210189282 * t1263;
-    let t1266 = 0.32318451312347624 * t1263;
+    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
+        - 0.32318451312347624 * t1291;
+    let t1309 = 0.919348671064388 * t1308;
+    let t1310 = 0.22438759210189282 * t1308;
+    let t1311 = 0.32318451312347624 * t1308;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1264
-        + (t323 * (t1244 - t1264)
-            - t324 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    let v_b3_x = t1309
+        + (t356 * (t1289 - t1309)
+            - t357 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1265
-        + (t323 * (t1245 - t1265)
-            + t324 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    let v_b3_y = t1310
+        + (t356 * (t1290 - t1310)
+            + t357 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t323 * (t1246 + t1266)
-        - t324 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
-    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
-        - 0.32318451312347624 * t1258;
-    let t1296 = 0.919348671064388 * t1295;
-    let t1297 = 0.22438759210189282 * t1295;
-    let t1298 = 0.32318451312347624 * t1295;
+    let v_b3_z = t356 * (t1291 + t1311)
+        - t357 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
+    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
+        - 0.32318451312347624 * t1303;
+    let t1341 = 0.919348671064388 * t1340;
+    let t1342 = 0.22438759210189282 * t1340;
+    let t1343 = 0.32318451312347624 * t1340;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1296
-        + (t323 * (t1256 - t1296)
-            - t324 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    let xv_b3_x = t1341
+        + (t356 * (t1301 - t1341)
+            - t357 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1297
-        + (t323 * (t1257 - t1297)
-            + t324 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    let xv_b3_y = t1342
+        + (t356 * (t1302 - t1342)
+            + t357 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t323 * (t1258 + t1298)
-        - t324 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    let xv_b3_z = t356 * (t1303 + t1343)
+        - t357 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
         - 0.14913085300184115 * v_b3_z;
-    let t1328 = j5_a_b3 - 0.20984549109584813;
+    let t1373 = j5_a_b3 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b3 = 1.3479901200256164 * t1328;
+    let j5_alpha_b3 = 1.3479901200256164 * t1373;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
-    let t1334 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
-    let t1337 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
-    let t1340 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
-    let t1347 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    let t1379 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1382 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1385 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1392 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b3 = t1340 * t1340 + (t1334 * t1334 + t1337 * t1337)
-        - 1.3479901200256164 * (t1347 * t1347);
+    let j5_gap_b3 = t1385 * t1385 + (t1379 * t1379 + t1382 * t1382)
+        - 1.3479901200256164 * (t1392 * t1392);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b3).max(0.0),
     );
-    let t1357 = 0.3174776227989252 * j5_beta_b3;
-    let t1358 = 0.9399166168175558 * j5_beta_b3;
-    let t1359 = 0.12555760611043656 * j5_beta_b3;
-    let t1360 = 0.2368529300043945 * j5_gamma_b3;
-    let t1361 = 0.030542838068628286 * j5_gamma_b3;
-    let t1362 = 0.8275343040933489 * j5_gamma_b3;
+    let t1402 = 0.3174776227989252 * j5_beta_b3;
+    let t1403 = 0.9399166168175558 * j5_beta_b3;
+    let t1404 = 0.12555760611043656 * j5_beta_b3;
+    let t1405 = 0.2368529300043945 * j5_gamma_b3;
+    let t1406 = 0.030542838068628286 * j5_gamma_b3;
+    let t1407 = 0.8275343040933489 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3p_x = t1360 + (t1357 - 0.8362137090354541 * t1328);
+    let z_b3p_x = t1405 + (t1402 - 0.8362137090354541 * t1373);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3p_y = t1361 + (1.0379846701062043 * t1328 + t1358);
+    let z_b3p_y = t1406 + (1.0379846701062043 * t1373 + t1403);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3p_z = t1359 - 0.2010269164374744 * t1328 - t1362;
+    let z_b3p_z = t1404 - 0.2010269164374744 * t1373 - t1407;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3p = 1.2056566317887352
         * (0.8840923826341479 * z_b3p_z
@@ -3544,56 +3762,56 @@ fn branch_5(
                 * (0.08264952242757546 * z_b3p_y + 0.34229941191058744 * z_b3p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3p = ::armforge_runtime::math::atan2(j5_sin_b3p, j5_cos_b3p);
-    let t1391 = j5_alpha_b3 - j5_a_b3;
-    let t1398 = t1360 + (t1357 - 0.620341126105259 * t1391);
-    let t1399 = t1361 + (t1358 + 0.7700239450467775 * t1391);
-    let t1400 = t1359 - 0.14913085300184115 * t1391 - t1362;
-    let t1405 = v_b3_z * t1400 + (v_b3_x * t1398 + v_b3_y * t1399);
-    let t1419 = 0.7700239450467775 * (v_b3_x * t1400 - v_b3_z * t1398)
-        - 0.620341126105259 * (v_b3_z * t1399 - v_b3_y * t1400)
-        - 0.14913085300184115 * (v_b3_y * t1398 - v_b3_x * t1399);
-    let t1422 = t1405 * t1405 + t1419 * t1419;
-    let t1425 = 1.0 / ::armforge_runtime::math::sqrt(t1422.max(1.0000000000000001e-40));
+    let t1436 = j5_alpha_b3 - j5_a_b3;
+    let t1443 = t1405 + (t1402 - 0.620341126105259 * t1436);
+    let t1444 = t1406 + (t1403 + 0.7700239450467775 * t1436);
+    let t1445 = t1404 - 0.14913085300184115 * t1436 - t1407;
+    let t1450 = v_b3_z * t1445 + (v_b3_x * t1443 + v_b3_y * t1444);
+    let t1464 = 0.7700239450467775 * (v_b3_x * t1445 - v_b3_z * t1443)
+        - 0.620341126105259 * (v_b3_z * t1444 - v_b3_y * t1445)
+        - 0.14913085300184115 * (v_b3_y * t1443 - v_b3_x * t1444);
+    let t1467 = t1450 * t1450 + t1464 * t1464;
+    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-40 - t1422;
+    let aligned_b3 = 1.0000000000000001e-40 - t1467;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1405 * t1425 };
+    let j4_cos_b3p = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1419 * t1425 };
+    let j4_sin_b3p = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3p = ::armforge_runtime::math::atan2(j4_sin_b3p, j4_cos_b3p);
-    let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+    let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
-    let t1437 = 0.620341126105259 * t1436;
-    let t1438 = 0.7700239450467775 * t1436;
-    let t1439 = 0.14913085300184115 * t1436;
-    let t1461 = j4_cos_b3p * (xv_b3_x + t1437)
+    let t1482 = 0.620341126105259 * t1481;
+    let t1483 = 0.7700239450467775 * t1481;
+    let t1484 = 0.14913085300184115 * t1481;
+    let t1506 = j4_cos_b3p * (xv_b3_x + t1482)
         - j4_sin_b3p * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
-        - t1437;
-    let t1462 = t1438
-        + (j4_cos_b3p * (xv_b3_y - t1438)
+        - t1482;
+    let t1507 = t1483
+        + (j4_cos_b3p * (xv_b3_y - t1483)
             - j4_sin_b3p
                 * (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x));
-    let t1463 = j4_cos_b3p * (xv_b3_z + t1439)
+    let t1508 = j4_cos_b3p * (xv_b3_z + t1484)
         + j4_sin_b3p * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
-        - t1439;
-    let t1468 = 0.12555760611043656 * t1463
-        + (0.3174776227989252 * t1461 + 0.9399166168175558 * t1462);
-    let t1469 = 0.3174776227989252 * t1468;
-    let t1470 = 0.9399166168175558 * t1468;
-    let t1471 = 0.12555760611043656 * t1468;
+        - t1484;
+    let t1513 = 0.12555760611043656 * t1508
+        + (0.3174776227989252 * t1506 + 0.9399166168175558 * t1507);
+    let t1514 = 0.3174776227989252 * t1513;
+    let t1515 = 0.9399166168175558 * t1513;
+    let t1516 = 0.12555760611043656 * t1513;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3p_x = t1469
-        + (j5_cos_b3p * (t1461 - t1469)
-            - j5_sin_b3p * (0.9399166168175558 * t1463 - 0.12555760611043656 * t1462));
+    let y6_b3p_x = t1514
+        + (j5_cos_b3p * (t1506 - t1514)
+            - j5_sin_b3p * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3p_y = t1470
-        + (j5_cos_b3p * (t1462 - t1470)
-            - j5_sin_b3p * (0.12555760611043656 * t1461 - 0.3174776227989252 * t1463));
+    let y6_b3p_y = t1515
+        + (j5_cos_b3p * (t1507 - t1515)
+            - j5_sin_b3p * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3p_z = t1471
-        + (j5_cos_b3p * (t1463 - t1471)
-            - j5_sin_b3p * (0.3174776227989252 * t1462 - 0.9399166168175558 * t1461));
+    let y6_b3p_z = t1516
+        + (j5_cos_b3p * (t1508 - t1516)
+            - j5_sin_b3p * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -3754,147 +3972,159 @@ fn branch_6(
     let j3_root_m = ::armforge_runtime::math::sqrt(
         (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_m = 8.539556986014195e-20 - d2_m;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_mp = j3_root_m - 0.2750702190093362;
-    let t300 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
-    let t301 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
-    let t302 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
-    let t307 = w_m_z * t302 + (w_m_x * t300 - w_m_y * t301);
-    let t321 = 0.22438759210189282 * (w_m_x * t302 - w_m_z * t300)
-        - 0.919348671064388 * (w_m_z * t301 + w_m_y * t302)
-        - 0.32318451312347624 * (w_m_y * t300 + w_m_x * t301);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mp = ::armforge_runtime::math::atan2(t321, t307);
-    let t323 = t295 * t307;
-    let t324 = t295 * t321;
-    let t361 = 0.42112668389358265 * r02
+    let t323 = 0.3779706556925576 * q3_mp + 0.12974347073127893;
+    let t324 = 0.7317961020620863 * q3_mp + 0.049474576298366504;
+    let t325 = 0.5671090269446208 * q3_mp + 0.33472521719783077;
+    let t330 = w_m_z * t325 + (w_m_x * t323 - w_m_y * t324);
+    let t344 = 0.22438759210189282 * (w_m_x * t325 - w_m_z * t323)
+        - 0.919348671064388 * (w_m_z * t324 + w_m_y * t325)
+        - 0.32318451312347624 * (w_m_y * t323 + w_m_x * t324);
+    let t347 = t330 * t330 + t344 * t344;
+    let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
+    let t353 = t347 - 1e-300;
+    let t356 = if pivot_m >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t353 >= 0.0 { t330 * t350 } else { 1.0 }
+    };
+    let t357 = if pivot_m >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t353 >= 0.0 { t344 * t350 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_mp = ::armforge_runtime::math::atan2(t357, t356);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t456 = 0.2455648081179022 * gx_z
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t1289 = t470
+        + (j1_cos_m * (g6_x - t470)
             - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
+    let t1290 = t471
+        + (j1_cos_m * (g6_y - t471)
             - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
+    let t1291 = t472
+        + (j1_cos_m * (g6_z - t472)
             - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
+    let t1301 = t502
+        + (j1_cos_m * (gx_x - t502)
             - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
+    let t1302 = t503
+        + (j1_cos_m * (gx_y - t503)
             - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
+    let t1303 = t504
+        + (j1_cos_m * (gx_z - t504)
             - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
-        - 0.32318451312347624 * t1246;
-    let t1264 = 0.919348671064388 * t1263;
-    let t1265 = 0.22438759210189282 * t1263;
-    let t1266 = 0.32318451312347624 * t1263;
+    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
+        - 0.32318451312347624 * t1291;
+    let t1309 = 0.919348671064388 * t1308;
+    let t1310 = 0.22438759210189282 * t1308;
+    let t1311 = 0.32318451312347624 * t1308;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1264
-        + (t323 * (t1244 - t1264)
-            - t324 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    let v_b3_x = t1309
+        + (t356 * (t1289 - t1309)
+            - t357 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1265
-        + (t323 * (t1245 - t1265)
-            + t324 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    let v_b3_y = t1310
+        + (t356 * (t1290 - t1310)
+            + t357 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t323 * (t1246 + t1266)
-        - t324 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
-    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
-        - 0.32318451312347624 * t1258;
-    let t1296 = 0.919348671064388 * t1295;
-    let t1297 = 0.22438759210189282 * t1295;
-    let t1298 = 0.32318451312347624 * t1295;
+    let v_b3_z = t356 * (t1291 + t1311)
+        - t357 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
+    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
+        - 0.32318451312347624 * t1303;
+    let t1341 = 0.919348671064388 * t1340;
+    let t1342 = 0.22438759210189282 * t1340;
+    let t1343 = 0.32318451312347624 * t1340;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1296
-        + (t323 * (t1256 - t1296)
-            - t324 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    let xv_b3_x = t1341
+        + (t356 * (t1301 - t1341)
+            - t357 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1297
-        + (t323 * (t1257 - t1297)
-            + t324 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    let xv_b3_y = t1342
+        + (t356 * (t1302 - t1342)
+            + t357 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t323 * (t1258 + t1298)
-        - t324 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    let xv_b3_z = t356 * (t1303 + t1343)
+        - t357 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
         - 0.14913085300184115 * v_b3_z;
-    let t1328 = j5_a_b3 - 0.20984549109584813;
+    let t1373 = j5_a_b3 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b3 = 1.3479901200256164 * t1328;
+    let j5_alpha_b3 = 1.3479901200256164 * t1373;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
-    let t1334 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
-    let t1337 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
-    let t1340 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
-    let t1347 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    let t1379 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1382 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1385 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1392 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b3 = t1340 * t1340 + (t1334 * t1334 + t1337 * t1337)
-        - 1.3479901200256164 * (t1347 * t1347);
+    let j5_gap_b3 = t1385 * t1385 + (t1379 * t1379 + t1382 * t1382)
+        - 1.3479901200256164 * (t1392 * t1392);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b3).max(0.0),
     );
-    let t1357 = 0.3174776227989252 * j5_beta_b3;
-    let t1358 = 0.9399166168175558 * j5_beta_b3;
-    let t1359 = 0.12555760611043656 * j5_beta_b3;
-    let t1360 = 0.2368529300043945 * j5_gamma_b3;
-    let t1361 = 0.030542838068628286 * j5_gamma_b3;
-    let t1362 = 0.8275343040933489 * j5_gamma_b3;
-    let t1391 = j5_alpha_b3 - j5_a_b3;
-    let t1436 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+    let t1402 = 0.3174776227989252 * j5_beta_b3;
+    let t1403 = 0.9399166168175558 * j5_beta_b3;
+    let t1404 = 0.12555760611043656 * j5_beta_b3;
+    let t1405 = 0.2368529300043945 * j5_gamma_b3;
+    let t1406 = 0.030542838068628286 * j5_gamma_b3;
+    let t1407 = 0.8275343040933489 * j5_gamma_b3;
+    let t1436 = j5_alpha_b3 - j5_a_b3;
+    let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
-    let t1437 = 0.620341126105259 * t1436;
-    let t1438 = 0.7700239450467775 * t1436;
-    let t1439 = 0.14913085300184115 * t1436;
+    let t1482 = 0.620341126105259 * t1481;
+    let t1483 = 0.7700239450467775 * t1481;
+    let t1484 = 0.14913085300184115 * t1481;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3m_x = t1357 - 0.8362137090354541 * t1328 - t1360;
+    let z_b3m_x = t1402 - 0.8362137090354541 * t1373 - t1405;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3m_y = 1.0379846701062043 * t1328 + t1358 - t1361;
+    let z_b3m_y = 1.0379846701062043 * t1373 + t1403 - t1406;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3m_z = t1362 + (t1359 - 0.2010269164374744 * t1328);
+    let z_b3m_z = t1407 + (t1404 - 0.2010269164374744 * t1373);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3m = 1.2056566317887352
         * (0.8840923826341479 * z_b3m_z
@@ -3909,50 +4139,50 @@ fn branch_6(
                 * (0.08264952242757546 * z_b3m_y + 0.34229941191058744 * z_b3m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3m = ::armforge_runtime::math::atan2(j5_sin_b3m, j5_cos_b3m);
-    let t1541 = t1357 - 0.620341126105259 * t1391 - t1360;
-    let t1542 = t1358 + 0.7700239450467775 * t1391 - t1361;
-    let t1543 = t1362 + (t1359 - 0.14913085300184115 * t1391);
-    let t1548 = v_b3_z * t1543 + (v_b3_x * t1541 + v_b3_y * t1542);
-    let t1562 = 0.7700239450467775 * (v_b3_x * t1543 - v_b3_z * t1541)
-        - 0.620341126105259 * (v_b3_z * t1542 - v_b3_y * t1543)
-        - 0.14913085300184115 * (v_b3_y * t1541 - v_b3_x * t1542);
-    let t1565 = t1548 * t1548 + t1562 * t1562;
-    let t1568 = 1.0 / ::armforge_runtime::math::sqrt(t1565.max(1.0000000000000001e-40));
+    let t1586 = t1402 - 0.620341126105259 * t1436 - t1405;
+    let t1587 = t1403 + 0.7700239450467775 * t1436 - t1406;
+    let t1588 = t1407 + (t1404 - 0.14913085300184115 * t1436);
+    let t1593 = v_b3_z * t1588 + (v_b3_x * t1586 + v_b3_y * t1587);
+    let t1607 = 0.7700239450467775 * (v_b3_x * t1588 - v_b3_z * t1586)
+        - 0.620341126105259 * (v_b3_z * t1587 - v_b3_y * t1588)
+        - 0.14913085300184115 * (v_b3_y * t1586 - v_b3_x * t1587);
+    let t1610 = t1593 * t1593 + t1607 * t1607;
+    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1.0000000000000001e-40 - t1565;
+    let aligned_b3_2 = 1.0000000000000001e-40 - t1610;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1548 * t1568 };
+    let j4_cos_b3m = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1593 * t1613 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1562 * t1568 };
+    let j4_sin_b3m = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1607 * t1613 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3m = ::armforge_runtime::math::atan2(j4_sin_b3m, j4_cos_b3m);
-    let t1584 = (xv_b3_x + t1437) * j4_cos_b3m
+    let t1629 = (xv_b3_x + t1482) * j4_cos_b3m
         - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3m
-        - t1437;
-    let t1585 = t1438
-        + ((xv_b3_y - t1438) * j4_cos_b3m
+        - t1482;
+    let t1630 = t1483
+        + ((xv_b3_y - t1483) * j4_cos_b3m
             - (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x)
                 * j4_sin_b3m);
-    let t1586 = (xv_b3_z + t1439) * j4_cos_b3m
+    let t1631 = (xv_b3_z + t1484) * j4_cos_b3m
         + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3m
-        - t1439;
-    let t1591 = 0.12555760611043656 * t1586
-        + (0.3174776227989252 * t1584 + 0.9399166168175558 * t1585);
-    let t1592 = 0.3174776227989252 * t1591;
-    let t1593 = 0.9399166168175558 * t1591;
-    let t1594 = 0.12555760611043656 * t1591;
+        - t1484;
+    let t1636 = 0.12555760611043656 * t1631
+        + (0.3174776227989252 * t1629 + 0.9399166168175558 * t1630);
+    let t1637 = 0.3174776227989252 * t1636;
+    let t1638 = 0.9399166168175558 * t1636;
+    let t1639 = 0.12555760611043656 * t1636;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3m_x = t1592
-        + (j5_cos_b3m * (t1584 - t1592)
-            - j5_sin_b3m * (0.9399166168175558 * t1586 - 0.12555760611043656 * t1585));
+    let y6_b3m_x = t1637
+        + (j5_cos_b3m * (t1629 - t1637)
+            - j5_sin_b3m * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3m_y = t1593
-        + (j5_cos_b3m * (t1585 - t1593)
-            - j5_sin_b3m * (0.12555760611043656 * t1584 - 0.3174776227989252 * t1586));
+    let y6_b3m_y = t1638
+        + (j5_cos_b3m * (t1630 - t1638)
+            - j5_sin_b3m * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3m_z = t1594
-        + (j5_cos_b3m * (t1586 - t1594)
-            - j5_sin_b3m * (0.3174776227989252 * t1585 - 0.9399166168175558 * t1584));
+    let y6_b3m_z = t1639
+        + (j5_cos_b3m * (t1631 - t1639)
+            - j5_sin_b3m * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3m = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -4113,141 +4343,153 @@ fn branch_7(
     let j3_root_m = ::armforge_runtime::math::sqrt(
         (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_m = 8.539556986014195e-20 - d2_m;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
-    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
-        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
-        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
-    let t352 = t295 * t336;
-    let t353 = t295 * t350;
-    let t361 = 0.42112668389358265 * r02
+    let t363 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
+    let t364 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
+    let t365 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
+    let t370 = w_m_z * t365 + (w_m_x * t363 - w_m_y * t364);
+    let t384 = 0.22438759210189282 * (w_m_x * t365 - w_m_z * t363)
+        - 0.919348671064388 * (w_m_z * t364 + w_m_y * t365)
+        - 0.32318451312347624 * (w_m_y * t363 + w_m_x * t364);
+    let t387 = t370 * t370 + t384 * t384;
+    let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
+    let t393 = t387 - 1e-300;
+    let t396 = if pivot_m >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t393 >= 0.0 { t370 * t390 } else { 1.0 }
+    };
+    let t397 = if pivot_m >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t393 >= 0.0 { t384 * t390 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_mm = ::armforge_runtime::math::atan2(t397, t396);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t456 = 0.2455648081179022 * gx_z
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t1289 = t470
+        + (j1_cos_m * (g6_x - t470)
             - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
+    let t1290 = t471
+        + (j1_cos_m * (g6_y - t471)
             - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
+    let t1291 = t472
+        + (j1_cos_m * (g6_z - t472)
             - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
+    let t1301 = t502
+        + (j1_cos_m * (gx_x - t502)
             - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
+    let t1302 = t503
+        + (j1_cos_m * (gx_y - t503)
             - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
+    let t1303 = t504
+        + (j1_cos_m * (gx_z - t504)
             - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
-        - 0.32318451312347624 * t1246;
-    let t1264 = 0.919348671064388 * t1263;
-    let t1265 = 0.22438759210189282 * t1263;
-    let t1266 = 0.32318451312347624 * t1263;
-    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
-        - 0.32318451312347624 * t1258;
-    let t1296 = 0.919348671064388 * t1295;
-    let t1297 = 0.22438759210189282 * t1295;
-    let t1298 = 0.32318451312347624 * t1295;
+    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
+        - 0.32318451312347624 * t1291;
+    let t1309 = 0.919348671064388 * t1308;
+    let t1310 = 0.22438759210189282 * t1308;
+    let t1311 = 0.32318451312347624 * t1308;
+    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
+        - 0.32318451312347624 * t1303;
+    let t1341 = 0.919348671064388 * t1340;
+    let t1342 = 0.22438759210189282 * t1340;
+    let t1343 = 0.32318451312347624 * t1340;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1264
-        + (t352 * (t1244 - t1264)
-            - t353 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    let v_b4_x = t1309
+        + (t396 * (t1289 - t1309)
+            - t397 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1265
-        + (t352 * (t1245 - t1265)
-            + t353 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    let v_b4_y = t1310
+        + (t396 * (t1290 - t1310)
+            + t397 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t352 * (t1246 + t1266)
-        - t353 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
+    let v_b4_z = t396 * (t1291 + t1311)
+        - t397 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1296
-        + (t352 * (t1256 - t1296)
-            - t353 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    let xv_b4_x = t1341
+        + (t396 * (t1301 - t1341)
+            - t397 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1297
-        + (t352 * (t1257 - t1297)
-            + t353 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    let xv_b4_y = t1342
+        + (t396 * (t1302 - t1342)
+            + t397 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t352 * (t1258 + t1298)
-        - t353 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    let xv_b4_z = t396 * (t1303 + t1343)
+        - t397 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
         - 0.14913085300184115 * v_b4_z;
-    let t1668 = j5_a_b4 - 0.20984549109584813;
+    let t1713 = j5_a_b4 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b4 = 1.3479901200256164 * t1668;
+    let j5_alpha_b4 = 1.3479901200256164 * t1713;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
-    let t1674 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
-    let t1677 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
-    let t1680 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
-    let t1687 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    let t1719 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1722 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1725 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1732 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b4 = t1680 * t1680 + (t1674 * t1674 + t1677 * t1677)
-        - 1.3479901200256164 * (t1687 * t1687);
+    let j5_gap_b4 = t1725 * t1725 + (t1719 * t1719 + t1722 * t1722)
+        - 1.3479901200256164 * (t1732 * t1732);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b4).max(0.0),
     );
-    let t1697 = 0.3174776227989252 * j5_beta_b4;
-    let t1698 = 0.9399166168175558 * j5_beta_b4;
-    let t1699 = 0.12555760611043656 * j5_beta_b4;
-    let t1700 = 0.2368529300043945 * j5_gamma_b4;
-    let t1701 = 0.030542838068628286 * j5_gamma_b4;
-    let t1702 = 0.8275343040933489 * j5_gamma_b4;
+    let t1742 = 0.3174776227989252 * j5_beta_b4;
+    let t1743 = 0.9399166168175558 * j5_beta_b4;
+    let t1744 = 0.12555760611043656 * j5_beta_b4;
+    let t1745 = 0.2368529300043945 * j5_gamma_b4;
+    let t1746 = 0.030542838068628286 * j5_gamma_b4;
+    let t1747 = 0.8275343040933489 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4p_x = t1700 + (t1697 - 0.8362137090354541 * t1668);
+    let z_b4p_x = t1745 + (t1742 - 0.8362137090354541 * t1713);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4p_y = t1701 + (1.0379846701062043 * t1668 + t1698);
+    let z_b4p_y = t1746 + (1.0379846701062043 * t1713 + t1743);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4p_z = t1699 - 0.2010269164374744 * t1668 - t1702;
+    let z_b4p_z = t1744 - 0.2010269164374744 * t1713 - t1747;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4p = 1.2056566317887352
         * (0.8840923826341479 * z_b4p_z
@@ -4262,56 +4504,56 @@ fn branch_7(
                 * (0.08264952242757546 * z_b4p_y + 0.34229941191058744 * z_b4p_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4p = ::armforge_runtime::math::atan2(j5_sin_b4p, j5_cos_b4p);
-    let t1731 = j5_alpha_b4 - j5_a_b4;
-    let t1738 = t1700 + (t1697 - 0.620341126105259 * t1731);
-    let t1739 = t1701 + (t1698 + 0.7700239450467775 * t1731);
-    let t1740 = t1699 - 0.14913085300184115 * t1731 - t1702;
-    let t1745 = v_b4_z * t1740 + (v_b4_x * t1738 + v_b4_y * t1739);
-    let t1759 = 0.7700239450467775 * (v_b4_x * t1740 - v_b4_z * t1738)
-        - 0.620341126105259 * (v_b4_z * t1739 - v_b4_y * t1740)
-        - 0.14913085300184115 * (v_b4_y * t1738 - v_b4_x * t1739);
-    let t1762 = t1745 * t1745 + t1759 * t1759;
-    let t1765 = 1.0 / ::armforge_runtime::math::sqrt(t1762.max(1.0000000000000001e-40));
+    let t1776 = j5_alpha_b4 - j5_a_b4;
+    let t1783 = t1745 + (t1742 - 0.620341126105259 * t1776);
+    let t1784 = t1746 + (t1743 + 0.7700239450467775 * t1776);
+    let t1785 = t1744 - 0.14913085300184115 * t1776 - t1747;
+    let t1790 = v_b4_z * t1785 + (v_b4_x * t1783 + v_b4_y * t1784);
+    let t1804 = 0.7700239450467775 * (v_b4_x * t1785 - v_b4_z * t1783)
+        - 0.620341126105259 * (v_b4_z * t1784 - v_b4_y * t1785)
+        - 0.14913085300184115 * (v_b4_y * t1783 - v_b4_x * t1784);
+    let t1807 = t1790 * t1790 + t1804 * t1804;
+    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-40 - t1762;
+    let aligned_b4 = 1.0000000000000001e-40 - t1807;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1745 * t1765 };
+    let j4_cos_b4p = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1759 * t1765 };
+    let j4_sin_b4p = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4p = ::armforge_runtime::math::atan2(j4_sin_b4p, j4_cos_b4p);
-    let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+    let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
-    let t1777 = 0.620341126105259 * t1776;
-    let t1778 = 0.7700239450467775 * t1776;
-    let t1779 = 0.14913085300184115 * t1776;
-    let t1801 = j4_cos_b4p * (xv_b4_x + t1777)
+    let t1822 = 0.620341126105259 * t1821;
+    let t1823 = 0.7700239450467775 * t1821;
+    let t1824 = 0.14913085300184115 * t1821;
+    let t1846 = j4_cos_b4p * (xv_b4_x + t1822)
         - j4_sin_b4p * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
-        - t1777;
-    let t1802 = t1778
-        + (j4_cos_b4p * (xv_b4_y - t1778)
+        - t1822;
+    let t1847 = t1823
+        + (j4_cos_b4p * (xv_b4_y - t1823)
             - j4_sin_b4p
                 * (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x));
-    let t1803 = j4_cos_b4p * (xv_b4_z + t1779)
+    let t1848 = j4_cos_b4p * (xv_b4_z + t1824)
         + j4_sin_b4p * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
-        - t1779;
-    let t1808 = 0.12555760611043656 * t1803
-        + (0.3174776227989252 * t1801 + 0.9399166168175558 * t1802);
-    let t1809 = 0.3174776227989252 * t1808;
-    let t1810 = 0.9399166168175558 * t1808;
-    let t1811 = 0.12555760611043656 * t1808;
+        - t1824;
+    let t1853 = 0.12555760611043656 * t1848
+        + (0.3174776227989252 * t1846 + 0.9399166168175558 * t1847);
+    let t1854 = 0.3174776227989252 * t1853;
+    let t1855 = 0.9399166168175558 * t1853;
+    let t1856 = 0.12555760611043656 * t1853;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4p_x = t1809
-        + (j5_cos_b4p * (t1801 - t1809)
-            - j5_sin_b4p * (0.9399166168175558 * t1803 - 0.12555760611043656 * t1802));
+    let y6_b4p_x = t1854
+        + (j5_cos_b4p * (t1846 - t1854)
+            - j5_sin_b4p * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4p_y = t1810
-        + (j5_cos_b4p * (t1802 - t1810)
-            - j5_sin_b4p * (0.12555760611043656 * t1801 - 0.3174776227989252 * t1803));
+    let y6_b4p_y = t1855
+        + (j5_cos_b4p * (t1847 - t1855)
+            - j5_sin_b4p * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4p_z = t1811
-        + (j5_cos_b4p * (t1803 - t1811)
-            - j5_sin_b4p * (0.3174776227989252 * t1802 - 0.9399166168175558 * t1801));
+    let y6_b4p_z = t1856
+        + (j5_cos_b4p * (t1848 - t1856)
+            - j5_sin_b4p * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4p = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -4472,147 +4714,159 @@ fn branch_8(
     let j3_root_m = ::armforge_runtime::math::sqrt(
         (d2_m - 0.05565844753959191).max(0.0),
     );
-    let t295 = 1.0 / d2_m.max(8.539556986014195e-20);
+    // ≥ 0 when the wrist center is on axis 2: joint 2 is free
+    let pivot_m = 8.539556986014195e-20 - d2_m;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_mm = -0.2750702190093362 - j3_root_m;
-    let t329 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
-    let t330 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
-    let t331 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
-    let t336 = w_m_z * t331 + (w_m_x * t329 - w_m_y * t330);
-    let t350 = 0.22438759210189282 * (w_m_x * t331 - w_m_z * t329)
-        - 0.919348671064388 * (w_m_z * t330 + w_m_y * t331)
-        - 0.32318451312347624 * (w_m_y * t329 + w_m_x * t330);
-    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3
-    let q2_mm = ::armforge_runtime::math::atan2(t350, t336);
-    let t352 = t295 * t336;
-    let t353 = t295 * t350;
-    let t361 = 0.42112668389358265 * r02
+    let t363 = 0.3779706556925576 * q3_mm + 0.12974347073127893;
+    let t364 = 0.7317961020620863 * q3_mm + 0.049474576298366504;
+    let t365 = 0.5671090269446208 * q3_mm + 0.33472521719783077;
+    let t370 = w_m_z * t365 + (w_m_x * t363 - w_m_y * t364);
+    let t384 = 0.22438759210189282 * (w_m_x * t365 - w_m_z * t363)
+        - 0.919348671064388 * (w_m_z * t364 + w_m_y * t365)
+        - 0.32318451312347624 * (w_m_y * t363 + w_m_x * t364);
+    let t387 = t370 * t370 + t384 * t384;
+    let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
+    let t393 = t387 - 1e-300;
+    let t396 = if pivot_m >= 0.0 {
+        0.6095997719011829
+    } else {
+        if t393 >= 0.0 { t370 * t390 } else { 1.0 }
+    };
+    let t397 = if pivot_m >= 0.0 {
+        -0.7927093528513625
+    } else {
+        if t393 >= 0.0 { t384 * t390 } else { 0.0 }
+    };
+    // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
+    let q2_mm = ::armforge_runtime::math::atan2(t397, t396);
+    let t406 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t366 = 0.42112668389358265 * r12
+    let t411 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t371 = 0.42112668389358265 * r22
+    let t416 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t371
-        + (0.5366051090545466 * t361 - 0.46756648665800565 * t366);
+    let g6_x = 0.7024503808034039 * t416
+        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t371
-        + (0.33722370156285647 * t361 + 0.8819112023028204 * t366);
+    let g6_y = 0.3294128205717553 * t416
+        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t371
-        + (0.06011831507188942 * t366 - 0.7735212550672437 * t361);
-    let t394 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t416
+        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
+    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t399 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t404 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t404
-        + (0.5366051090545466 * t394 - 0.46756648665800565 * t399);
+    let gx_x = 0.7024503808034039 * t449
+        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t404
-        + (0.33722370156285647 * t394 + 0.8819112023028204 * t399);
+    let gx_y = 0.3294128205717553 * t449
+        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t404
-        + (0.06011831507188942 * t399 - 0.7735212550672437 * t394);
-    let t424 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t449
+        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
+    let t469 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t425 = 0.7957211704114873 * t424;
-    let t426 = 0.553647671333485 * t424;
-    let t427 = 0.2455648081179022 * t424;
-    let t456 = 0.2455648081179022 * gx_z
+    let t470 = 0.7957211704114873 * t469;
+    let t471 = 0.553647671333485 * t469;
+    let t472 = 0.2455648081179022 * t469;
+    let t501 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t457 = 0.7957211704114873 * t456;
-    let t458 = 0.553647671333485 * t456;
-    let t459 = 0.2455648081179022 * t456;
-    let t1244 = t425
-        + (j1_cos_m * (g6_x - t425)
+    let t502 = 0.7957211704114873 * t501;
+    let t503 = 0.553647671333485 * t501;
+    let t504 = 0.2455648081179022 * t501;
+    let t1289 = t470
+        + (j1_cos_m * (g6_x - t470)
             - j1_sin_m * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1245 = t426
-        + (j1_cos_m * (g6_y - t426)
+    let t1290 = t471
+        + (j1_cos_m * (g6_y - t471)
             - j1_sin_m * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1246 = t427
-        + (j1_cos_m * (g6_z - t427)
+    let t1291 = t472
+        + (j1_cos_m * (g6_z - t472)
             - j1_sin_m * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1256 = t457
-        + (j1_cos_m * (gx_x - t457)
+    let t1301 = t502
+        + (j1_cos_m * (gx_x - t502)
             - j1_sin_m * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1257 = t458
-        + (j1_cos_m * (gx_y - t458)
+    let t1302 = t503
+        + (j1_cos_m * (gx_y - t503)
             - j1_sin_m * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1258 = t459
-        + (j1_cos_m * (gx_z - t459)
+    let t1303 = t504
+        + (j1_cos_m * (gx_z - t504)
             - j1_sin_m * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1263 = 0.919348671064388 * t1244 + 0.22438759210189282 * t1245
-        - 0.32318451312347624 * t1246;
-    let t1264 = 0.919348671064388 * t1263;
-    let t1265 = 0.22438759210189282 * t1263;
-    let t1266 = 0.32318451312347624 * t1263;
-    let t1295 = 0.919348671064388 * t1256 + 0.22438759210189282 * t1257
-        - 0.32318451312347624 * t1258;
-    let t1296 = 0.919348671064388 * t1295;
-    let t1297 = 0.22438759210189282 * t1295;
-    let t1298 = 0.32318451312347624 * t1295;
+    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
+        - 0.32318451312347624 * t1291;
+    let t1309 = 0.919348671064388 * t1308;
+    let t1310 = 0.22438759210189282 * t1308;
+    let t1311 = 0.32318451312347624 * t1308;
+    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
+        - 0.32318451312347624 * t1303;
+    let t1341 = 0.919348671064388 * t1340;
+    let t1342 = 0.22438759210189282 * t1340;
+    let t1343 = 0.32318451312347624 * t1340;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1264
-        + (t352 * (t1244 - t1264)
-            - t353 * (0.22438759210189282 * t1246 + 0.32318451312347624 * t1245));
+    let v_b4_x = t1309
+        + (t396 * (t1289 - t1309)
+            - t397 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1265
-        + (t352 * (t1245 - t1265)
-            + t353 * (0.32318451312347624 * t1244 + 0.919348671064388 * t1246));
+    let v_b4_y = t1310
+        + (t396 * (t1290 - t1310)
+            + t397 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t352 * (t1246 + t1266)
-        - t353 * (0.919348671064388 * t1245 - 0.22438759210189282 * t1244) - t1266;
+    let v_b4_z = t396 * (t1291 + t1311)
+        - t397 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1296
-        + (t352 * (t1256 - t1296)
-            - t353 * (0.22438759210189282 * t1258 + 0.32318451312347624 * t1257));
+    let xv_b4_x = t1341
+        + (t396 * (t1301 - t1341)
+            - t397 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1297
-        + (t352 * (t1257 - t1297)
-            + t353 * (0.32318451312347624 * t1256 + 0.919348671064388 * t1258));
+    let xv_b4_y = t1342
+        + (t396 * (t1302 - t1342)
+            + t397 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t352 * (t1258 + t1298)
-        - t353 * (0.919348671064388 * t1257 - 0.22438759210189282 * t1256) - t1298;
+    let xv_b4_z = t396 * (t1303 + t1343)
+        - t397 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
         - 0.14913085300184115 * v_b4_z;
-    let t1668 = j5_a_b4 - 0.20984549109584813;
+    let t1713 = j5_a_b4 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b4 = 1.3479901200256164 * t1668;
+    let j5_alpha_b4 = 1.3479901200256164 * t1713;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
-    let t1674 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
-    let t1677 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
-    let t1680 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
-    let t1687 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    let t1719 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1722 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1725 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1732 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b4 = t1680 * t1680 + (t1674 * t1674 + t1677 * t1677)
-        - 1.3479901200256164 * (t1687 * t1687);
+    let j5_gap_b4 = t1725 * t1725 + (t1719 * t1719 + t1722 * t1722)
+        - 1.3479901200256164 * (t1732 * t1732);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b4).max(0.0),
     );
-    let t1697 = 0.3174776227989252 * j5_beta_b4;
-    let t1698 = 0.9399166168175558 * j5_beta_b4;
-    let t1699 = 0.12555760611043656 * j5_beta_b4;
-    let t1700 = 0.2368529300043945 * j5_gamma_b4;
-    let t1701 = 0.030542838068628286 * j5_gamma_b4;
-    let t1702 = 0.8275343040933489 * j5_gamma_b4;
-    let t1731 = j5_alpha_b4 - j5_a_b4;
-    let t1776 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+    let t1742 = 0.3174776227989252 * j5_beta_b4;
+    let t1743 = 0.9399166168175558 * j5_beta_b4;
+    let t1744 = 0.12555760611043656 * j5_beta_b4;
+    let t1745 = 0.2368529300043945 * j5_gamma_b4;
+    let t1746 = 0.030542838068628286 * j5_gamma_b4;
+    let t1747 = 0.8275343040933489 * j5_gamma_b4;
+    let t1776 = j5_alpha_b4 - j5_a_b4;
+    let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
-    let t1777 = 0.620341126105259 * t1776;
-    let t1778 = 0.7700239450467775 * t1776;
-    let t1779 = 0.14913085300184115 * t1776;
+    let t1822 = 0.620341126105259 * t1821;
+    let t1823 = 0.7700239450467775 * t1821;
+    let t1824 = 0.14913085300184115 * t1821;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4m_x = t1697 - 0.8362137090354541 * t1668 - t1700;
+    let z_b4m_x = t1742 - 0.8362137090354541 * t1713 - t1745;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4m_y = 1.0379846701062043 * t1668 + t1698 - t1701;
+    let z_b4m_y = 1.0379846701062043 * t1713 + t1743 - t1746;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4m_z = t1702 + (t1699 - 0.2010269164374744 * t1668);
+    let z_b4m_z = t1747 + (t1744 - 0.2010269164374744 * t1713);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4m = 1.2056566317887352
         * (0.8840923826341479 * z_b4m_z
@@ -4627,50 +4881,50 @@ fn branch_8(
                 * (0.08264952242757546 * z_b4m_y + 0.34229941191058744 * z_b4m_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4m = ::armforge_runtime::math::atan2(j5_sin_b4m, j5_cos_b4m);
-    let t1881 = t1697 - 0.620341126105259 * t1731 - t1700;
-    let t1882 = t1698 + 0.7700239450467775 * t1731 - t1701;
-    let t1883 = t1702 + (t1699 - 0.14913085300184115 * t1731);
-    let t1888 = v_b4_z * t1883 + (v_b4_x * t1881 + v_b4_y * t1882);
-    let t1902 = 0.7700239450467775 * (v_b4_x * t1883 - v_b4_z * t1881)
-        - 0.620341126105259 * (v_b4_z * t1882 - v_b4_y * t1883)
-        - 0.14913085300184115 * (v_b4_y * t1881 - v_b4_x * t1882);
-    let t1905 = t1888 * t1888 + t1902 * t1902;
-    let t1908 = 1.0 / ::armforge_runtime::math::sqrt(t1905.max(1.0000000000000001e-40));
+    let t1926 = t1742 - 0.620341126105259 * t1776 - t1745;
+    let t1927 = t1743 + 0.7700239450467775 * t1776 - t1746;
+    let t1928 = t1747 + (t1744 - 0.14913085300184115 * t1776);
+    let t1933 = v_b4_z * t1928 + (v_b4_x * t1926 + v_b4_y * t1927);
+    let t1947 = 0.7700239450467775 * (v_b4_x * t1928 - v_b4_z * t1926)
+        - 0.620341126105259 * (v_b4_z * t1927 - v_b4_y * t1928)
+        - 0.14913085300184115 * (v_b4_y * t1926 - v_b4_x * t1927);
+    let t1950 = t1933 * t1933 + t1947 * t1947;
+    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1.0000000000000001e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1.0000000000000001e-40 - t1905;
+    let aligned_b4_2 = 1.0000000000000001e-40 - t1950;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1888 * t1908 };
+    let j4_cos_b4m = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1933 * t1953 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1902 * t1908 };
+    let j4_sin_b4m = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1947 * t1953 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4m = ::armforge_runtime::math::atan2(j4_sin_b4m, j4_cos_b4m);
-    let t1924 = (xv_b4_x + t1777) * j4_cos_b4m
+    let t1969 = (xv_b4_x + t1822) * j4_cos_b4m
         - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4m
-        - t1777;
-    let t1925 = t1778
-        + ((xv_b4_y - t1778) * j4_cos_b4m
+        - t1822;
+    let t1970 = t1823
+        + ((xv_b4_y - t1823) * j4_cos_b4m
             - (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x)
                 * j4_sin_b4m);
-    let t1926 = (xv_b4_z + t1779) * j4_cos_b4m
+    let t1971 = (xv_b4_z + t1824) * j4_cos_b4m
         + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4m
-        - t1779;
-    let t1931 = 0.12555760611043656 * t1926
-        + (0.3174776227989252 * t1924 + 0.9399166168175558 * t1925);
-    let t1932 = 0.3174776227989252 * t1931;
-    let t1933 = 0.9399166168175558 * t1931;
-    let t1934 = 0.12555760611043656 * t1931;
+        - t1824;
+    let t1976 = 0.12555760611043656 * t1971
+        + (0.3174776227989252 * t1969 + 0.9399166168175558 * t1970);
+    let t1977 = 0.3174776227989252 * t1976;
+    let t1978 = 0.9399166168175558 * t1976;
+    let t1979 = 0.12555760611043656 * t1976;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4m_x = t1932
-        + (j5_cos_b4m * (t1924 - t1932)
-            - j5_sin_b4m * (0.9399166168175558 * t1926 - 0.12555760611043656 * t1925));
+    let y6_b4m_x = t1977
+        + (j5_cos_b4m * (t1969 - t1977)
+            - j5_sin_b4m * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4m_y = t1933
-        + (j5_cos_b4m * (t1925 - t1933)
-            - j5_sin_b4m * (0.12555760611043656 * t1924 - 0.3174776227989252 * t1926));
+    let y6_b4m_y = t1978
+        + (j5_cos_b4m * (t1970 - t1978)
+            - j5_sin_b4m * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4m_z = t1934
-        + (j5_cos_b4m * (t1926 - t1934)
-            - j5_sin_b4m * (0.3174776227989252 * t1925 - 0.9399166168175558 * t1924));
+    let y6_b4m_z = t1979
+        + (j5_cos_b4m * (t1971 - t1979)
+            - j5_sin_b4m * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4m = ::armforge_runtime::math::atan2(
         0.935948806852255

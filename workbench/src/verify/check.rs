@@ -7,6 +7,7 @@ use std::f64::consts::TAU;
 use armforge_runtime::{forward, Joint, JointKind, Pose, Unreachable, JOINTS};
 use serde::Serialize;
 
+use super::judge::{Judge, Judgement};
 use super::sampler::{Kind, Sample};
 use armforge_compiler::solver::Solver;
 
@@ -26,10 +27,12 @@ pub struct Thresholds {
     /// of the difference of the rotation matrices) of any solution, for samples away from
     /// singular configurations.
     pub pose: f64,
-    /// The same near singular configurations and reach boundaries.
+    /// The same near singular configurations and reach boundaries (judged by the sample's
+    /// geometry, [`super::judge`]).
     pub pose_near_singular: f64,
     /// Largest difference (radians, or fraction of the arm's size for slides) between the
-    /// original configuration and the solution that recovers it.
+    /// original configuration and the solution that recovers it, away from singular
+    /// configurations; near them it is scaled by the conditioning ([`super::judge`]).
     pub joint: f64,
     /// The same for samples at a reach boundary: there two solutions merge, and a pose within
     /// `δ` of the boundary moves them by about `√(2δ)`; the solver returns the merged one when
@@ -48,38 +51,21 @@ impl Default for Thresholds {
     }
 }
 
-impl Thresholds {
-    /// The pose threshold of a sample kind.
-    pub fn pose_for(&self, kind: Kind) -> f64 {
-        if kind.is_near_singular() {
-            self.pose_near_singular
-        } else {
-            self.pose
-        }
-    }
-
-    /// The joint threshold of a sample kind.
-    pub fn joint_for(&self, kind: Kind) -> f64 {
-        if kind == Kind::ReachBoundary {
-            self.joint_at_boundary
-        } else {
-            self.joint
-        }
-    }
-}
-
 /// How a round trip ended.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum Status {
     /// One solution is the original configuration (in the compared joints).
     Recovered,
     /// No solution is; the nearest misses in `joint` (0-based) by `by` (radians, or fraction
-    /// of the arm's size).
+    /// of the arm's size) where `allowed` is allowed.
     NotRecovered {
-        /// The joint of the largest difference in the nearest solution.
+        /// The joint that misses by the most (relative to its allowance) in the nearest
+        /// solution.
         joint: usize,
-        /// That difference.
+        /// Its difference.
         by: f64,
+        /// Its allowed difference.
+        allowed: f64,
     },
     /// The solver found no solution.
     Unreachable(Unreachable),
@@ -105,6 +91,11 @@ pub struct Outcome {
     pub singular: bool,
     /// Recovery.
     pub status: Status,
+    /// The allowed pose error (by the sample's geometry).
+    pub pose_limit: f64,
+    /// True when the sample lies near a singular configuration or a reach boundary (judged
+    /// by its geometry, whichever sampler made it).
+    pub judged_singular: bool,
     /// True when `solve` found no solution.
     pub unreachable: bool,
     /// Recovered only by `solve_near` with the original configuration as the current one
@@ -115,12 +106,12 @@ pub struct Outcome {
 }
 
 impl Outcome {
-    /// True when the sample fails the thresholds.
-    pub fn fails(&self, thresholds: &Thresholds) -> bool {
-        let limit = thresholds.pose_for(self.kind);
+    /// True when the sample fails: the configuration is not recovered (`solve` finding nothing
+    /// for a pose that `forward` made included), or a solution misses the pose.
+    pub fn fails(&self) -> bool {
         self.status != Status::Recovered
-            || !within(self.position_error, limit)
-            || !within(self.rotation_error, limit)
+            || !within(self.position_error, self.pose_limit)
+            || !within(self.rotation_error, self.pose_limit)
     }
 }
 
@@ -132,19 +123,19 @@ pub struct Checker<'a> {
     tool: Pose,
     size: f64,
     solver: &'a Solver,
-    thresholds: Thresholds,
+    judge: Judge,
 }
 
 impl<'a> Checker<'a> {
     /// A checker: `joints`, `base` and `tool` are the reference model's (the poses come from
-    /// them), `size` the arm's size in metres.
+    /// them), `size` the arm's size in metres; `judge` says how closely each sample is held.
     pub fn new(
         joints: [Joint; JOINTS],
         base: Pose,
         tool: Pose,
         size: f64,
         solver: &'a Solver,
-        thresholds: Thresholds,
+        judge: Judge,
     ) -> Self {
         Checker {
             joints,
@@ -152,7 +143,7 @@ impl<'a> Checker<'a> {
             tool,
             size,
             solver,
-            thresholds,
+            judge,
         }
     }
 
@@ -196,6 +187,7 @@ impl<'a> Checker<'a> {
     /// The round trip of one sample.
     pub fn check(&self, sample: &Sample) -> Outcome {
         let target = self.pose(&sample.joints);
+        let judgement = self.judge.judge(&sample.joints);
         let mut outcome = Outcome {
             index: sample.index,
             kind: sample.kind,
@@ -207,7 +199,10 @@ impl<'a> Checker<'a> {
             status: Status::NotRecovered {
                 joint: 0,
                 by: f64::INFINITY,
+                allowed: judgement.joint[0],
             },
+            pose_limit: judgement.pose,
+            judged_singular: judgement.near_singular,
             unreachable: false,
             recovered_near: false,
             failing: None,
@@ -219,7 +214,7 @@ impl<'a> Checker<'a> {
             }
             Ok(solutions) => {
                 outcome.solutions = solutions.len();
-                let mut nearest = (0, f64::INFINITY);
+                let mut nearest = Miss::NONE;
                 let mut checked: Vec<[f64; JOINTS]> = Vec::with_capacity(solutions.len());
                 for s in &solutions {
                     // The same configuration a whole turn away in a joint with a wider range:
@@ -234,59 +229,108 @@ impl<'a> Checker<'a> {
                     outcome.position_error = outcome.position_error.max(p);
                     outcome.rotation_error = outcome.rotation_error.max(r);
                     outcome.singular |= s.flags.is_singular();
-                    let miss = self.miss(sample, &s.joints);
-                    if miss.1 < nearest.1 {
+                    let miss = self.miss(sample, &s.joints, &judgement);
+                    if miss.ratio < nearest.ratio {
                         nearest = miss;
                     }
                 }
                 outcome.distinct = checked.len();
-                outcome.status = if nearest.1 <= self.thresholds.joint_for(sample.kind) {
-                    Status::Recovered
-                } else {
-                    Status::NotRecovered {
-                        joint: nearest.0,
-                        by: nearest.1,
-                    }
-                };
+                outcome.status = nearest.status();
             }
         }
-        if sample.kind.is_near_singular() && outcome.status != Status::Recovered {
-            self.recover_near(sample, &target, &mut outcome);
+        // `solve` answered, but none of its solutions is the configuration: a controller at a
+        // singular pose asks `solve_near` with its current configuration instead.
+        if judgement.near_singular && !outcome.unreachable && outcome.status != Status::Recovered {
+            self.recover_near(sample, &target, &judgement, &mut outcome);
         }
-        if outcome.fails(&self.thresholds) {
+        if outcome.fails() {
             outcome.failing = Some(Box::new(*sample));
         }
         outcome
     }
 
     /// At a singular pose `solve` holds the free joint (joint 1 on axis 1, joint 4 at the
-    /// aligned wrist) at zero, and both representatives may be beyond the limits; a
-    /// controller calls `solve_near` with its current configuration instead. The original
-    /// configuration is recovered when that solution is it and reproduces the pose.
-    fn recover_near(&self, sample: &Sample, target: &Pose, outcome: &mut Outcome) {
+    /// aligned wrist) at a reference; a controller calls `solve_near` with its current
+    /// configuration instead. The original configuration is recovered when that solution is it
+    /// and reproduces the pose.
+    fn recover_near(
+        &self,
+        sample: &Sample,
+        target: &Pose,
+        judgement: &Judgement,
+        outcome: &mut Outcome,
+    ) {
         let Ok(s) = self.solver.solve_near(target, &sample.joints) else {
             return;
         };
         let (p, r) = self.pose_error(&self.pose(&s.joints), target);
-        let limit = self.thresholds.pose_for(sample.kind);
-        let miss = self.miss(sample, &s.joints);
-        if within(p, limit) && within(r, limit) && miss.1 <= self.thresholds.joint_for(sample.kind)
-        {
+        let miss = self.miss(sample, &s.joints, judgement);
+        if within(p, judgement.pose) && within(r, judgement.pose) && miss.ratio <= 1.0 {
             outcome.status = Status::Recovered;
             outcome.recovered_near = true;
         }
     }
 
-    /// The joint of the largest difference between a solution and the sample, over the
-    /// joints its kind compares, and that difference.
-    fn miss(&self, sample: &Sample, q: &[f64; JOINTS]) -> (usize, f64) {
-        let mut worst = (0, 0.0);
-        for &i in sample.kind.compared_joints() {
-            let d = self.joint_difference(i, q[i], sample.joints[i]);
-            if d > worst.1 || d.is_nan() {
-                worst = (i, d);
+    /// The joint that misses by the most relative to its allowance (free joints are not
+    /// compared), between a solution and the sample.
+    fn miss(&self, sample: &Sample, q: &[f64; JOINTS], judgement: &Judgement) -> Miss {
+        let mut worst = Miss {
+            joint: 0,
+            by: 0.0,
+            allowed: judgement.joint[0],
+            ratio: 0.0,
+        };
+        for (i, (&allowed, (&a, &b))) in judgement
+            .joint
+            .iter()
+            .zip(q.iter().zip(sample.joints.iter()))
+            .enumerate()
+        {
+            if allowed == f64::INFINITY {
+                continue;
+            }
+            let by = self.joint_difference(i, a, b);
+            let ratio = by / allowed;
+            if ratio > worst.ratio || ratio.is_nan() {
+                worst = Miss {
+                    joint: i,
+                    by,
+                    allowed,
+                    ratio: if ratio.is_nan() { f64::INFINITY } else { ratio },
+                };
             }
         }
         worst
+    }
+}
+
+/// The largest difference of one solution from the sample, relative to its allowance.
+#[derive(Clone, Copy, Debug)]
+struct Miss {
+    joint: usize,
+    by: f64,
+    allowed: f64,
+    /// `by / allowed`: at most 1 when recovered.
+    ratio: f64,
+}
+
+impl Miss {
+    const NONE: Miss = Miss {
+        joint: 0,
+        by: f64::INFINITY,
+        allowed: 0.0,
+        ratio: f64::INFINITY,
+    };
+
+    fn status(&self) -> Status {
+        if self.ratio <= 1.0 {
+            Status::Recovered
+        } else {
+            Status::NotRecovered {
+                joint: self.joint,
+                by: self.by,
+                allowed: self.allowed,
+            }
+        }
     }
 }

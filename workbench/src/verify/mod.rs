@@ -11,6 +11,7 @@
 //! findings do not depend on the number of threads.
 
 pub mod check;
+pub mod judge;
 pub mod place;
 pub mod sampler;
 pub mod summary;
@@ -22,6 +23,7 @@ use armforge_runtime::{Joint, JOINTS};
 use rayon::prelude::*;
 
 pub use check::{Checker, Outcome, Status, Thresholds};
+pub use judge::{Judge, Judgement};
 pub use sampler::{Kind, Sample, Sampler};
 pub use summary::{Failure, KindSummary, Summary};
 
@@ -108,14 +110,15 @@ pub fn verify(
     let started = Instant::now();
     let size = geometry.resolved.arm_size;
     let sampler = Sampler::new(joints, geometry, options.seed);
-    let checker = Checker::new(
+    let judge = Judge::new(
         joints,
-        reference.base,
-        reference.tool,
         size,
-        solver,
+        geometry.wrist_center,
+        geometry.wrist.aligned_at.clone(),
+        sampler.reach_boundaries(),
         options.thresholds,
     );
+    let checker = Checker::new(joints, reference.base, reference.tool, size, solver, judge);
     let plan = plan_samples(&sampler, options.samples);
     let total: u64 = plan.iter().map(|(_, n)| n).sum();
     let chunks: Vec<(u64, u64)> = (0..total.div_ceil(CHUNK))
@@ -201,11 +204,11 @@ fn summarise(
             *distinct.entry(*n).or_insert(0) += c;
         }
     }
-    let failing: Vec<&Outcome> = outcomes.iter().filter(|o| o.fails(t)).collect();
+    let failing: Vec<&Outcome> = outcomes.iter().filter(|o| o.fails()).collect();
     let failures = failing
         .iter()
         .take(summary::LISTED_FAILURES)
-        .map(|o| summary::failure(model, o, t))
+        .map(|o| summary::failure(model, o))
         .collect();
     Summary {
         arm: model.name.clone(),

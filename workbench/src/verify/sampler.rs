@@ -12,6 +12,7 @@ use rand::{Rng, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 use serde::Serialize;
 
+use super::judge::{distance_from_line, ReachBoundary};
 use super::place::solve_one;
 use armforge_compiler::classify::{ArmEvidence, Geometry, Singularity};
 
@@ -53,27 +54,13 @@ impl Kind {
         }
     }
 
-    /// True for kinds placed near a singular configuration or a reach boundary (their error
-    /// threshold is the near-singular one).
+    /// True for kinds placed near a singular configuration or a reach boundary (how a sample
+    /// is judged depends on its geometry only, [`super::judge`]).
     pub fn is_near_singular(self) -> bool {
         matches!(
             self,
             Kind::WristNearAligned | Kind::NearAxis1 | Kind::ReachBoundary
         )
-    }
-
-    /// The joints (0-based) that must match the original configuration for it to count as
-    /// recovered. Near the wrist singularity only the sum (or difference) of joints 4 and 6
-    /// is well defined; near axis 1 joint 1 is (and the wrist follows it).
-    pub fn compared_joints(self) -> &'static [usize] {
-        match self {
-            // At a reach boundary the merged roots of joints 2 and 3 are off by up to about
-            // √(2δ); the wrist absorbs that rotation, amplified in joints 4 and 6 when it is
-            // near aligned too. The pose check still covers every joint.
-            Kind::WristNearAligned | Kind::ReachBoundary => &[0, 1, 2, 4],
-            Kind::NearAxis1 => &[1, 2],
-            _ => &[0, 1, 2, 3, 4, 5],
-        }
     }
 }
 
@@ -145,22 +132,6 @@ pub fn sample_range(joint: &Joint, size: f64) -> [f64; 2] {
         (false, true) => [hi - span, hi],
         (false, false) => [-0.5 * span, 0.5 * span],
     }
-}
-
-fn distance_from_line(point: &[f64; 3], joint: &Joint) -> f64 {
-    let d = [
-        point[0] - joint.point[0],
-        point[1] - joint.point[1],
-        point[2] - joint.point[2],
-    ];
-    let h = &joint.axis;
-    let along = d[0] * h[0] + d[1] * h[1] + d[2] * h[2];
-    let perp = [
-        d[0] - along * h[0],
-        d[1] - along * h[1],
-        d[2] - along * h[2],
-    ];
-    (perp[0] * perp[0] + perp[1] * perp[1] + perp[2] * perp[2]).sqrt()
 }
 
 impl Sampler {
@@ -275,6 +246,18 @@ impl Sampler {
                 .iter()
                 .any(|j| j.limits.iter().any(|l| l.is_finite())),
         }
+    }
+
+    /// The reach boundaries the samples can be placed at (the wrist center's distance from
+    /// axis 1 or 2 at which two solutions of joints 1–3 merge).
+    pub fn reach_boundaries(&self) -> Vec<ReachBoundary> {
+        self.boundaries
+            .iter()
+            .map(|b| {
+                let Measure::FromAxis(axis) = b.measure;
+                ReachBoundary { axis, at: b.at }
+            })
+            .collect()
     }
 
     /// The sample ranges of the joints (SI).

@@ -31,6 +31,10 @@ pub struct KindSummary {
     pub unreachable: u64,
     /// Samples with a solution flagged singular.
     pub singular: u64,
+    /// Samples judged near a singular configuration or a reach boundary by their geometry
+    /// (whichever sampler made them), held to the looser pose limit and to joint allowances
+    /// scaled by the conditioning.
+    pub judged_singular: u64,
     /// Samples recovered only by `solve_near` from the original configuration (singular
     /// poses: the free joint held at the reference).
     pub recovered_near: u64,
@@ -44,9 +48,10 @@ pub struct KindSummary {
     pub max_rotation_error: f64,
     /// 99.9th percentile of the rotation errors.
     pub p999_rotation_error: f64,
-    /// The pose-error threshold of this kind.
+    /// The largest pose-error limit applied to a sample of this kind.
     pub pose_threshold: f64,
-    /// The joint threshold for recovery.
+    /// The joint threshold for recovery away from singular configurations (scaled by the
+    /// conditioning near them).
     pub joint_threshold: f64,
     /// Number of poses by number of solutions.
     pub solutions_per_pose: BTreeMap<usize, u64>,
@@ -142,34 +147,39 @@ pub fn kind_summary(
         recovered: count(&|o| o.status == Status::Recovered),
         unreachable: count(&|o| o.unreachable),
         singular: count(&|o| o.singular),
+        judged_singular: count(&|o| o.judged_singular),
         recovered_near: count(&|o| o.recovered_near),
-        failed: count(&|o| o.fails(thresholds)),
+        failed: count(&|o| o.fails()),
         max_position_error: max(&positions),
         p999_position_error: p999(&mut positions),
         max_rotation_error: max(&rotations),
         p999_rotation_error: p999(&mut rotations),
-        pose_threshold: thresholds.pose_for(kind),
-        joint_threshold: thresholds.joint_for(kind),
+        pose_threshold: outcomes
+            .iter()
+            .map(|o| o.pose_limit)
+            .fold(thresholds.pose, f64::max),
+        joint_threshold: thresholds.joint,
         solutions_per_pose: histogram,
         distinct_per_pose: distinct,
     }
 }
 
 /// What went wrong with a failing outcome, in words.
-pub fn problem_text(o: &Outcome, thresholds: &Thresholds) -> String {
+pub fn problem_text(o: &Outcome) -> String {
     let mut parts = Vec::new();
     match o.status {
         Status::Recovered => {}
-        Status::NotRecovered { joint, by } => parts.push(format!(
+        Status::NotRecovered { joint, by, allowed } => parts.push(format!(
             "the original configuration is not among the {} solutions (the nearest differs in \
-             joint {} by {by:.3e}, allowed {:e})",
+             joint {} by {by:.3e}, allowed {allowed:.3e})",
             o.solutions,
             joint + 1,
-            thresholds.joint_for(o.kind)
         )),
-        Status::Unreachable(reason) => parts.push(format!("no solution: {reason}")),
+        Status::Unreachable(reason) => parts.push(format!(
+            "no solution for a pose that forward kinematics made: {reason}"
+        )),
     }
-    let limit = thresholds.pose_for(o.kind);
+    let limit = o.pose_limit;
     if !within(o.position_error, limit) {
         parts.push(format!(
             "a solution misses the position by {:.3e} of the arm's size (allowed {limit:e})",
@@ -186,7 +196,7 @@ pub fn problem_text(o: &Outcome, thresholds: &Thresholds) -> String {
 }
 
 /// A failing outcome, named, with its joints in the file's units.
-pub fn failure(model: &Model, o: &Outcome, thresholds: &Thresholds) -> Failure {
+pub fn failure(model: &Model, o: &Outcome) -> Failure {
     let joints = o
         .failing
         .as_deref()
@@ -203,7 +213,7 @@ pub fn failure(model: &Model, o: &Outcome, thresholds: &Thresholds) -> Failure {
         kind: o.kind,
         joints,
         offset: o.failing.as_deref().map_or(0.0, |s| s.offset),
-        problem: problem_text(o, thresholds),
+        problem: problem_text(o),
     }
 }
 
@@ -242,8 +252,13 @@ impl Summary {
             out,
             "position error: fraction of the arm's size ({}); rotation error: Frobenius norm of \
              R_solution − R_target; joints: radians, slides as a fraction of the arm's size;\n\
-             unreachable: `solve` found nothing; near: recovered only by `solve_near` from the \
-             original configuration (a singular pose's free joint held at the reference)\n",
+             unreachable: `solve` found nothing (always a failure); near: recovered only by \
+             `solve_near` from the original configuration (a singular pose's free joint held at \
+             the reference);\njudged singular: near a singular configuration or reach \
+             boundary by the sample's geometry, whichever sampler made it; there joint \
+             allowances scale with the conditioning (1e-6 / ρ for joint 1 with the wrist center \
+             ρ from axis 1, divided again by joint 5's distance from an aligned position for \
+             joints 4 and 6) and a joint whose allowance reaches half a turn is free\n",
             model.units.show_length(self.arm_size)
         );
         let header = [
@@ -251,6 +266,7 @@ impl Summary {
             "tried",
             "recovered",
             "singular",
+            "judged singular",
             "unreachable",
             "near",
             "failed",
@@ -259,7 +275,6 @@ impl Summary {
             "rotation max",
             "rotation 99.9%",
             "pose limit",
-            "joint limit",
         ];
         let mut rows = vec![header.iter().map(|s| s.to_string()).collect::<Vec<_>>()];
         for k in &self.kinds {
@@ -276,6 +291,7 @@ impl Summary {
                 k.tried.to_string(),
                 k.recovered.to_string(),
                 k.singular.to_string(),
+                k.judged_singular.to_string(),
                 k.unreachable.to_string(),
                 k.recovered_near.to_string(),
                 k.failed.to_string(),
@@ -284,7 +300,6 @@ impl Summary {
                 e(k.max_rotation_error),
                 e(k.p999_rotation_error),
                 format!("{:e}", k.pose_threshold),
-                format!("{:e}", k.joint_threshold),
             ]);
         }
         out.push_str(&table(&rows));

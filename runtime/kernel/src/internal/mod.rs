@@ -13,10 +13,14 @@
 //! [`finish`] turns candidates into solutions (limits, equivalent angles, duplicates, flags,
 //! the reason when nothing is left); [`labels`] reads a branch label back from joint values.
 
+mod far;
 mod finish;
+mod free;
 mod labels;
 
+pub use far::*;
 pub use finish::*;
+pub use free::*;
 pub use labels::*;
 
 use core::f64::consts::PI;

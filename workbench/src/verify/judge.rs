@@ -1,0 +1,220 @@
+//! How closely a round trip is judged: by the geometry of the sample's configuration, not by
+//! the sampler that made it. A uniform sample or one placed at a joint limit that happens to
+//! lie near a singular configuration is judged exactly like one placed there on purpose.
+//!
+//! # The rule
+//!
+//! Three measures of the sample's configuration, each relative and dimensionless:
+//!
+//! * `w`: how far joint 5 is from the nearest position at which axes 4 and 6 line up (either
+//!   one: joint 5 at 0 and, for a wrist that can fold back, at ±180°), radians, capped at 1;
+//! * `ρ1`, `ρ2`: the wrist center's distance from axis 1 and from axis 2 (revolute joints
+//!   only), fractions of the arm's size, capped at 1;
+//! * `δ`: the wrist center's distance from the nearest reach boundary where two solutions of
+//!   joints 1–3 merge, fraction of the arm's size.
+//!
+//! With `t` the joint threshold (1e-6) and `b` the boundary threshold (1e-4) when `δ < 1e-6`,
+//! `t` otherwise, the solution that recovers the sample may differ from it by at most
+//!
+//! | joint | allowed difference |
+//! |---|---|
+//! | 1 | `max(b, t / ρ1)` |
+//! | 2 | `max(b, t / ρ2)` |
+//! | 3 | `b` |
+//! | 5 | `e = max(tolerance of joint 1, tolerance of joint 2)` |
+//! | 4, 6 | `e / w` |
+//!
+//! (radians; slides as a fraction of the arm's size). A rounding error `ε` in the wrist
+//! center moves joint 1 by about `ε / ρ1`: the joint's conditioning. The wrist's orientation
+//! follows joints 1 and 2, and joints 4 and 6 split a rotation about the aligned axes in the
+//! ratio `1 / w`. A joint whose allowance reaches half a turn (or the arm's size) is free: only
+//! the coupled sum or difference of joints 4 and 6 at an aligned wrist, and joint 1's part of
+//! the orientation on axis 1, are fixed, and the pose check, which holds for every joint, covers
+//! them. The solver's own singular bands (sine 1e-10 at the wrist, 1e-10 of the arm's size on
+//! axis 1) give allowances of 1e4, so whatever a free joint is held at is accepted.
+//!
+//! A sample is near singular, and judged by the looser pose threshold, when `w`, `ρ1` or `ρ2`
+//! is below 1e-3 or `δ` below 1e-6 (the bands the sampler places samples in).
+
+use std::f64::consts::{PI, TAU};
+
+use armforge_runtime::{joint_motion, Joint, JointKind, JOINTS};
+
+use super::check::Thresholds;
+
+/// Measures below this (`w`, `ρ1`, `ρ2`) make a sample near singular.
+pub const SINGULAR_BAND: f64 = 1e-3;
+/// Distances from a reach boundary below this (fraction of the arm's size) make a sample near
+/// singular, with the boundary threshold for its joints.
+pub const BOUNDARY_BAND: f64 = 1e-6;
+
+/// A reach boundary: the wrist center's distance from the line of axis `axis` (0-based) equals
+/// `at` metres there.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct ReachBoundary {
+    /// The axis measured from.
+    pub axis: usize,
+    /// The boundary's distance, metres.
+    pub at: f64,
+}
+
+/// The measures of one configuration (see the module documentation).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Measures {
+    /// Joint 5's distance from the nearest aligned position, radians, at most 1.
+    pub wrist: f64,
+    /// The wrist center's distance from axes 1 and 2, fractions of the arm's size, at most 1
+    /// (1 for a slide).
+    pub axis: [f64; 2],
+    /// The distance from the nearest reach boundary, fraction of the arm's size (infinite
+    /// when there is none).
+    pub boundary: f64,
+}
+
+/// How one sample is judged.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Judgement {
+    /// The measures it is judged by.
+    pub measures: Measures,
+    /// The allowed difference per joint (radians, or fraction of the arm's size); infinite
+    /// for a free joint.
+    pub joint: [f64; JOINTS],
+    /// The allowed pose error.
+    pub pose: f64,
+    /// True when the sample is near a singular configuration or a reach boundary.
+    pub near_singular: bool,
+}
+
+/// Judges the samples of one arm.
+#[derive(Clone, Debug)]
+pub struct Judge {
+    joints: [Joint; JOINTS],
+    size: f64,
+    center: [f64; 3],
+    /// Joint-5 model values at which the wrist is aligned.
+    aligned_at: Vec<f64>,
+    /// The revolute joints among 1 and 2 whose axes the wrist center can approach.
+    axes: [bool; 2],
+    boundaries: Vec<ReachBoundary>,
+    thresholds: Thresholds,
+}
+
+impl Judge {
+    /// A judge: the model's joints, the arm's size (metres), the wrist center at zero (base
+    /// frame), the joint-5 model values of the aligned wrist, the reach boundaries.
+    pub fn new(
+        joints: [Joint; JOINTS],
+        size: f64,
+        center: [f64; 3],
+        aligned_at: Vec<f64>,
+        boundaries: Vec<ReachBoundary>,
+        thresholds: Thresholds,
+    ) -> Judge {
+        let revolute = |i: usize| joints[i].kind == JointKind::Revolute;
+        Judge {
+            joints,
+            size,
+            center,
+            aligned_at,
+            axes: [revolute(0), revolute(1)],
+            boundaries,
+            thresholds,
+        }
+    }
+
+    /// The distance (metres) of the wrist center from axis `axis` (0 or 1, at zero): joints 3
+    /// and 2 move the wrist center; joint 1 turns it about axis 1 and changes neither distance
+    /// (nor does joint 2 its distance from axis 2).
+    fn distance_to_axis(&self, q: &[f64; JOINTS], axis: usize) -> f64 {
+        let p = joint_motion(&self.joints[2], q[2]).transform_point(&self.center);
+        let w = joint_motion(&self.joints[1], q[1]).transform_point(&p);
+        distance_from_line(&w, &self.joints[axis])
+    }
+
+    /// The measures of a configuration.
+    pub fn measures(&self, q: &[f64; JOINTS]) -> Measures {
+        let m5 = self.joints[4].model_value(q[4]);
+        let wrist = self
+            .aligned_at
+            .iter()
+            .map(|&a| {
+                let d = m5 - a;
+                (d - TAU * (d / TAU).round()).abs()
+            })
+            .fold(1.0, f64::min);
+        let mut axis = [1.0; 2];
+        for (i, a) in axis.iter_mut().enumerate() {
+            if self.axes[i] {
+                *a = (self.distance_to_axis(q, i) / self.size).min(1.0);
+            }
+        }
+        let boundary = self
+            .boundaries
+            .iter()
+            .map(|b| (self.distance_to_axis(q, b.axis) - b.at).abs() / self.size)
+            .fold(f64::INFINITY, f64::min);
+        Measures {
+            wrist,
+            axis,
+            boundary,
+        }
+    }
+
+    /// How the sample with joint values `q` is judged (the rule of the module documentation).
+    pub fn judge(&self, q: &[f64; JOINTS]) -> Judgement {
+        let m = self.measures(q);
+        let t = self.thresholds.joint;
+        let at_boundary = m.boundary < BOUNDARY_BAND;
+        let b = if at_boundary {
+            self.thresholds.joint_at_boundary
+        } else {
+            t
+        };
+        let conditioned = |rho: f64| b.max(t / rho);
+        let j1 = conditioned(m.axis[0]);
+        let j2 = conditioned(m.axis[1]);
+        let e = j1.max(j2);
+        let wrist = e / m.wrist;
+        let mut joint = [j1, j2, b, wrist, e, wrist];
+        for (i, x) in joint.iter_mut().enumerate() {
+            let free = match self.joints[i].kind {
+                JointKind::Revolute => PI,
+                JointKind::Prismatic => 1.0,
+            };
+            if *x >= free || x.is_nan() {
+                *x = f64::INFINITY;
+            }
+        }
+        let near_singular = at_boundary
+            || m.wrist < SINGULAR_BAND
+            || m.axis[0] < SINGULAR_BAND
+            || m.axis[1] < SINGULAR_BAND;
+        Judgement {
+            measures: m,
+            joint,
+            pose: if near_singular {
+                self.thresholds.pose_near_singular
+            } else {
+                self.thresholds.pose
+            },
+            near_singular,
+        }
+    }
+}
+
+/// The distance of `point` from the line of `joint`'s axis.
+pub fn distance_from_line(point: &[f64; 3], joint: &Joint) -> f64 {
+    let d = [
+        point[0] - joint.point[0],
+        point[1] - joint.point[1],
+        point[2] - joint.point[2],
+    ];
+    let h = &joint.axis;
+    let along = d[0] * h[0] + d[1] * h[1] + d[2] * h[2];
+    let perp = [
+        d[0] - along * h[0],
+        d[1] - along * h[1],
+        d[2] - along * h[2],
+    ];
+    (perp[0] * perp[0] + perp[1] * perp[1] + perp[2] * perp[2]).sqrt()
+}
