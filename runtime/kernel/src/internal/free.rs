@@ -309,6 +309,6 @@ mod tests {
         assert!((deg(tries[0]) - 50.0).abs() < 1e-6, "{}", deg(tries[0]));
         assert!((deg(tries[1]) - 50.0).abs() < 1e-6, "{}", deg(tries[1]));
         assert!((deg(tries[2]) + 70.0).abs() < 1e-6, "{}", deg(tries[2]));
-        assert!((wrap(tries[0] - tries[1], 0.0).abs() - 2.0 * INSIDE).abs() < 1e-12);
+        assert!((wrap(tries[0] - tries[1], 0.0).abs() - 2.0 * inside::<f64>()).abs() < 1e-12);
     }
 }
