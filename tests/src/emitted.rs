@@ -109,3 +109,17 @@ emitted_arms! {
     rack_loader_f32 = "../arms/rack-loader-mdh.toml";
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
 }
+
+/// The bench arm (`arms/bench-elbow-dh.toml`) through the compiler: its plan and module, as
+/// the benchmarks compare them.
+pub fn bench_arm_generated() -> armforge_compiler::pipeline::Generated {
+    let file = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../arms/bench-elbow-dh.toml");
+    match armforge_compiler::pipeline::generate_module(
+        &file,
+        "../arms/bench-elbow-dh.toml",
+        &armforge_compiler::classify::Tolerances::default(),
+    ) {
+        Ok(generated) => generated,
+        Err(e) => panic!("the bench arm must generate: {e}"),
+    }
+}
