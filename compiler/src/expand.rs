@@ -1,8 +1,9 @@
 //! The expansion of the `solver!` proc macro (crate `armforge-macros`), as a library function
 //! so that it can be tested without a compiler and the macro crate stays a few lines.
 //!
-//! Input: `[attributes] [pub] mod NAME = "path/to/arm.toml";` with the path relative to the
-//! calling crate's manifest directory. Output: `mod NAME { … }` holding exactly the items that
+//! Input: `[attributes] [pub] mod NAME = "path/to/arm.toml" [, scalar = f32];` with the path
+//! relative to the calling crate's manifest directory; the solver computes in `f64` unless
+//! `scalar = f32` says otherwise. Output: `mod NAME { … }` holding exactly the items that
 //! [`crate::pipeline::generate_module`] emits for `armforge emit` (the `//` equation comments
 //! are not tokens and so are not kept; doc comments are), plus an `include_bytes!` of the
 //! description so that Cargo rebuilds when it changes. Every problem, including a bad file and
@@ -17,9 +18,10 @@ use syn::parse::{Parse, ParseStream};
 use syn::{Attribute, Ident, LitStr, Token, Visibility};
 
 use crate::classify::Tolerances;
-use crate::pipeline::{display_path, generate_module};
+use crate::emit::ScalarType;
+use crate::pipeline::{display_path, generate_module_in};
 
-/// What the macro call says: `[attributes] [pub] mod NAME = "path";`.
+/// What the macro call says: `[attributes] [pub] mod NAME = "path" [, scalar = f32];`.
 pub struct MacroInput {
     /// Outer attributes and doc comments, put on the generated module.
     pub attrs: Vec<Attribute>,
@@ -29,6 +31,31 @@ pub struct MacroInput {
     pub name: Ident,
     /// The description's path, relative to the calling crate's manifest directory.
     pub path: LitStr,
+    /// The scalar the solver computes in (`f64` unless `scalar = f32`).
+    pub scalar: ScalarType,
+}
+
+/// `, scalar = f32` (or `f64`) after the path, if present.
+fn parse_scalar(input: ParseStream) -> syn::Result<ScalarType> {
+    if !input.peek(Token![,]) {
+        return Ok(ScalarType::F64);
+    }
+    input.parse::<Token![,]>()?;
+    let key: Ident = input.parse()?;
+    if key != "scalar" {
+        return Err(syn::Error::new(
+            key.span(),
+            format!("unknown option `{key}`; the one option is `scalar = f64` or `scalar = f32`"),
+        ));
+    }
+    input.parse::<Token![=]>()?;
+    let word: Ident = input.parse()?;
+    ScalarType::from_name(&word.to_string()).ok_or_else(|| {
+        syn::Error::new(
+            word.span(),
+            format!("expected `f64` or `f32` as the scalar, found `{word}`"),
+        )
+    })
 }
 
 impl Parse for MacroInput {
@@ -45,13 +72,14 @@ impl Parse for MacroInput {
                  `mod tray_arm = \"arms/tray-arm.toml\";`",
             )
         })?;
+        let scalar = parse_scalar(input)?;
         if input.peek(Token![;]) {
             input.parse::<Token![;]>()?;
         }
         if !input.is_empty() {
             return Err(input.error(
                 "unexpected tokens after the path; the macro takes one \
-                 `mod NAME = \"path\";`",
+                 `mod NAME = \"path\";` or `mod NAME = \"path\", scalar = f32;`",
             ));
         }
         Ok(MacroInput {
@@ -59,6 +87,7 @@ impl Parse for MacroInput {
             vis,
             name,
             path,
+            scalar,
         })
     }
 }
@@ -88,8 +117,13 @@ pub fn expand(input: &MacroInput, manifest_dir: Option<&Path>) -> syn::Result<To
     };
     let written = input.path.value();
     let full = dir.join(&written);
-    let generated = generate_module(&full, &display_path(&written), &Tolerances::default())
-        .map_err(|e| at_path(e.message_without_prefix()))?;
+    let generated = generate_module_in(
+        &full,
+        &display_path(&written),
+        &Tolerances::default(),
+        input.scalar,
+    )
+    .map_err(|e| at_path(e.message_without_prefix()))?;
     let file = syn::parse_file(&generated.source).map_err(|e| {
         at_path(format!(
             "armforge emitted a module that does not parse (a generator bug): {e}"

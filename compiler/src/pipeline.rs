@@ -11,7 +11,7 @@ use std::path::Path;
 use crate::classify::{self, Geometry, Rejection, Tolerances};
 use crate::description;
 use crate::diagnostics::{Diagnostic, Diagnostics, Location};
-use crate::emit::{emit_module, EmitOptions};
+use crate::emit::{emit_module, EmitOptions, ScalarType};
 use crate::model::Model;
 use crate::plan::{build_plan, Plan};
 
@@ -86,8 +86,19 @@ pub fn generate_module(
     shown_path: &str,
     tolerances: &Tolerances,
 ) -> Result<Generated, PipelineError> {
+    generate_module_in(path, shown_path, tolerances, ScalarType::F64)
+}
+
+/// [`generate_module`] with a solver in the scalar `scalar` (`armforge emit --scalar`,
+/// `solver!(…, scalar = f32)`).
+pub fn generate_module_in(
+    path: &Path,
+    shown_path: &str,
+    tolerances: &Tolerances,
+    scalar: ScalarType,
+) -> Result<Generated, PipelineError> {
     let text = read_description(path, shown_path)?;
-    generate_from_str(&text, shown_path, tolerances)
+    generate_from_str_in(&text, shown_path, tolerances, scalar)
 }
 
 /// [`generate_module`] for description text already in memory.
@@ -96,10 +107,21 @@ pub fn generate_from_str(
     shown_path: &str,
     tolerances: &Tolerances,
 ) -> Result<Generated, PipelineError> {
+    generate_from_str_in(text, shown_path, tolerances, ScalarType::F64)
+}
+
+/// [`generate_module_in`] for description text already in memory.
+pub fn generate_from_str_in(
+    text: &str,
+    shown_path: &str,
+    tolerances: &Tolerances,
+    scalar: ScalarType,
+) -> Result<Generated, PipelineError> {
     let (model, geometry) = classify_text(text, shown_path, tolerances)?;
     let plan = build_plan(&model, &geometry);
     let options = EmitOptions {
         source_path: shown_path.to_string(),
+        scalar,
         ..EmitOptions::default()
     };
     let source = emit_module(&model, &plan, &options);

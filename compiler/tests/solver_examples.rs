@@ -116,6 +116,7 @@ fn example_arm_plans_and_modules() {
         let options = EmitOptions {
             source_path: display_path(&path),
             without_test: false,
+            ..EmitOptions::default()
         };
         insta::assert_snapshot!(
             format!("module_{name}"),

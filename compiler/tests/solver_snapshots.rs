@@ -34,6 +34,7 @@ fn emitted_module_of_the_upright_elbow_arm() {
     let options = EmitOptions {
         source_path: "arms/upright-elbow.toml".to_string(),
         without_test: false,
+        ..EmitOptions::default()
     };
     insta::assert_snapshot!(emit_module(&model, &plan, &options));
 }

@@ -14,10 +14,7 @@
 mod reference;
 
 use std::hint::black_box;
-use std::path::PathBuf;
 
-use armforge_compiler::classify::Tolerances;
-use armforge_compiler::pipeline::generate_module;
 use armforge_compiler::plan::OpCounts;
 use armforge_compiler::solver::Solver;
 use armforge_runtime::math::{atan2, sqrt};
@@ -71,15 +68,7 @@ fn arm_name(path: &str) -> &str {
 
 /// The bench arm's plan: its op counts and the interpreter.
 fn plan() -> (OpCounts, OpCounts, Solver) {
-    let root = PathBuf::from(env!("CARGO_MANIFEST_DIR"));
-    let generated = match generate_module(
-        &root.join("../arms/bench-elbow-dh.toml"),
-        "../arms/bench-elbow-dh.toml",
-        &Tolerances::default(),
-    ) {
-        Ok(generated) => generated,
-        Err(e) => panic!("the bench arm must generate: {e}"),
-    };
+    let generated = armforge_tests::emitted::bench_arm_generated();
     (
         generated.plan.op_counts(),
         generated.plan.branch_op_counts(),

@@ -27,8 +27,6 @@ use std::hint::black_box;
 use std::path::PathBuf;
 use std::time::Duration;
 
-use armforge_compiler::classify::Tolerances;
-use armforge_compiler::pipeline::generate_module;
 use armforge_compiler::solver::Solver;
 use armforge_runtime::math::{atan2, sqrt};
 use armforge_runtime::{Pose, JOINTS};
@@ -60,15 +58,7 @@ fn transcendental_floor(pose: &Pose, sqrts: usize, atan2s: usize) -> f64 {
 }
 
 fn main() {
-    let root = PathBuf::from(env!("CARGO_MANIFEST_DIR"));
-    let generated = match generate_module(
-        &root.join("../arms/bench-elbow-dh.toml"),
-        "../arms/bench-elbow-dh.toml",
-        &Tolerances::default(),
-    ) {
-        Ok(generated) => generated,
-        Err(e) => panic!("the bench arm must generate: {e}"),
-    };
+    let generated = armforge_tests::emitted::bench_arm_generated();
     let counts = generated.plan.op_counts();
     let interpreter = Solver::from_plan(generated.plan.clone());
     let samples = reference::samples();

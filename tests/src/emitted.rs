@@ -5,29 +5,41 @@
 //! and benchmarks can loop over the arms. The modules' own `#[cfg(test)]` round trips run
 //! with this crate's unit tests.
 
-use armforge_runtime::{Branch, Joint, Pose, Solution, Unreachable, JOINTS};
+use armforge_runtime::{Branch, Joint, Pose, Scalar, Solution, Unreachable, JOINTS};
 
-/// One emitted solver, behind function pointers (SI units).
+/// One solution or why there is none, in the scalar `S`.
+pub type OneSolution<S> = Result<Solution<S>, Unreachable<S>>;
+/// Every solution or why there is none, in the scalar `S`.
+pub type AllSolutions<S> = Result<Vec<Solution<S>>, Unreachable<S>>;
+
+/// One emitted solver in the scalar `S`, behind function pointers (SI units).
 #[derive(Clone, Copy)]
-pub struct EmittedArm {
+pub struct EmittedArm<S: Scalar = f64> {
     /// The description's path as written in the macro call (relative to `tests/`).
     pub path: &'static str,
     /// The module's `CAPACITY`.
     pub capacity: usize,
     /// `solve`, as a list or the reason.
-    pub solve: fn(&Pose) -> Result<Vec<Solution>, Unreachable>,
+    pub solve: fn(&Pose<S>) -> AllSolutions<S>,
     /// `solve`, counting the solutions (no heap: what a benchmark times).
-    pub solve_count: fn(&Pose) -> usize,
+    pub solve_count: fn(&Pose<S>) -> usize,
     /// The module's `JOINT_TABLE`.
-    pub joints: &'static [Joint; JOINTS],
+    pub joints: &'static [Joint<S>; JOINTS],
     /// `solve_near`.
-    pub solve_near: fn(&Pose, &[f64; JOINTS]) -> Result<Solution, Unreachable>,
+    pub solve_near: fn(&Pose<S>, &[S; JOINTS]) -> OneSolution<S>,
     /// `solve_branch`.
-    pub solve_branch: fn(&Pose, Branch) -> Result<Solution, Unreachable>,
+    pub solve_branch: fn(&Pose<S>, Branch) -> OneSolution<S>,
     /// `branch_of`.
-    pub branch_of: fn(&[f64; JOINTS]) -> Branch,
+    pub branch_of: fn(&[S; JOINTS]) -> Branch,
     /// `forward`.
-    pub forward: fn(&[f64; JOINTS]) -> Pose,
+    pub forward: fn(&[S; JOINTS]) -> Pose<S>,
+}
+
+impl<S: Scalar> EmittedArm<S> {
+    /// The description file (absolute).
+    pub fn file(&self) -> std::path::PathBuf {
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(self.path)
+    }
 }
 
 impl EmittedArm {
@@ -47,28 +59,23 @@ impl EmittedArm {
             })
             .collect()
     }
-
-    /// The description file (absolute).
-    pub fn file(&self) -> std::path::PathBuf {
-        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(self.path)
-    }
 }
 
 macro_rules! emitted_arms {
-    ($($name:ident = $path:tt;)*) => {
+    ($(#[$doc:meta])* $list:ident: $scalar:ident; $($name:ident = $path:tt;)*) => {
         $(
             armforge_runtime::solver!(
                 #[allow(missing_docs)]
-                pub mod $name = $path;
+                pub mod $name = $path, scalar = $scalar;
             );
         )*
 
-        /// Every example arm's emitted solver, in file-name order.
-        pub const EMITTED_ARMS: &[EmittedArm] = &[$(
+        $(#[$doc])*
+        pub const $list: &[EmittedArm<$scalar>] = &[$(
             EmittedArm {
                 path: $path,
                 capacity: $name::CAPACITY,
-                solve: |target| $name::solve(target).status().map(<[Solution]>::to_vec),
+                solve: |target| $name::solve(target).status().map(<[Solution<$scalar>]>::to_vec),
                 solve_count: |target| $name::solve(target).len(),
                 joints: &$name::JOINT_TABLE,
                 solve_near: $name::solve_near,
@@ -81,10 +88,38 @@ macro_rules! emitted_arms {
 }
 
 emitted_arms! {
+    /// Every example arm's emitted solver, in file-name order.
+    EMITTED_ARMS: f64;
     bench_elbow = "../arms/bench-elbow-dh.toml";
     ceiling_transfer = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader = "../arms/centrifuge-loader-dh.toml";
     hotel_loader = "../arms/hotel-loader-axes.toml";
     rack_loader = "../arms/rack-loader-mdh.toml";
     tray_gantry = "../arms/tray-gantry-axes.toml";
+}
+
+emitted_arms! {
+    /// Every example arm's emitted solver in single precision (`scalar = f32`), in file-name
+    /// order.
+    EMITTED_ARMS_F32: f32;
+    bench_elbow_f32 = "../arms/bench-elbow-dh.toml";
+    ceiling_transfer_f32 = "../arms/ceiling-transfer-axes.toml";
+    centrifuge_loader_f32 = "../arms/centrifuge-loader-dh.toml";
+    hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
+    rack_loader_f32 = "../arms/rack-loader-mdh.toml";
+    tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
+}
+
+/// The bench arm (`arms/bench-elbow-dh.toml`) through the compiler: its plan and module, as
+/// the benchmarks compare them.
+pub fn bench_arm_generated() -> armforge_compiler::pipeline::Generated {
+    let file = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../arms/bench-elbow-dh.toml");
+    match armforge_compiler::pipeline::generate_module(
+        &file,
+        "../arms/bench-elbow-dh.toml",
+        &armforge_compiler::classify::Tolerances::default(),
+    ) {
+        Ok(generated) => generated,
+        Err(e) => panic!("the bench arm must generate: {e}"),
+    }
 }

@@ -6,6 +6,7 @@ use armforge_runtime::plan::Op;
 use proc_macro2::TokenStream;
 use quote::{format_ident, quote};
 
+use super::ScalarType;
 use crate::plan::graph::{operands, Graph, Id};
 
 /// Binding strength of an expression (higher binds tighter).
@@ -23,19 +24,21 @@ pub enum Prec {
     Atom,
 }
 
-/// A float literal (absolute paths for π and infinities), with its precedence.
-pub fn literal(x: f64) -> (TokenStream, Prec) {
+/// A float literal of the module's scalar (unsuffixed, so its type is the one the context
+/// needs; absolute paths for π and infinities), with its precedence.
+pub fn literal(x: f64, scalar: ScalarType) -> (TokenStream, Prec) {
+    let float = scalar.core_module();
     if x == std::f64::consts::PI {
-        return (quote!(::core::f64::consts::PI), Prec::Atom);
+        return (quote!(#float::consts::PI), Prec::Atom);
     }
     if x == -std::f64::consts::PI {
-        return (quote!(-::core::f64::consts::PI), Prec::Unary);
+        return (quote!(-#float::consts::PI), Prec::Unary);
     }
     if x == f64::INFINITY {
-        return (quote!(::core::f64::INFINITY), Prec::Atom);
+        return (quote!(#float::INFINITY), Prec::Atom);
     }
     if x == f64::NEG_INFINITY {
-        return (quote!(::core::f64::NEG_INFINITY), Prec::Atom);
+        return (quote!(#float::NEG_INFINITY), Prec::Atom);
     }
     let text = format!("{:?}", x.abs());
     let lit: TokenStream = text.parse().unwrap_or_else(|_| quote!(0.0));
@@ -61,17 +64,19 @@ pub fn index(i: usize) -> proc_macro2::Literal {
 /// Which nodes get a `let` and what they are called.
 pub struct Bindings {
     names: BTreeMap<Id, String>,
+    /// The scalar the module computes in (how constants are printed).
+    pub scalar: ScalarType,
 }
 
 impl Bindings {
     /// Named nodes and nodes used more than once get a `let` (constants never do).
-    pub fn new(g: &Graph, extra_uses: &[Id]) -> Bindings {
-        Bindings::within(g, extra_uses, &vec![true; g.nodes().len()])
+    pub fn new(g: &Graph, extra_uses: &[Id], scalar: ScalarType) -> Bindings {
+        Bindings::within(g, extra_uses, &vec![true; g.nodes().len()], scalar)
     }
 
     /// [`Bindings::new`] for the part of the graph marked `live` (what one branch needs):
     /// uses are counted within that part only.
-    pub fn within(g: &Graph, extra_uses: &[Id], live: &[bool]) -> Bindings {
+    pub fn within(g: &Graph, extra_uses: &[Id], live: &[bool], scalar: ScalarType) -> Bindings {
         let mut uses = vec![0usize; g.nodes().len()];
         for (node, _) in g.nodes().iter().zip(live).filter(|(_, &l)| l) {
             for o in operands(&node.op) {
@@ -92,7 +97,7 @@ impl Bindings {
                 names.insert(i as Id, format!("t{i}"));
             }
         }
-        Bindings { names }
+        Bindings { names, scalar }
     }
 
     /// The `let` name of a node, if it has one.
@@ -152,7 +157,7 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
                 (quote!(reference[#k]), Prec::Atom)
             }
         }
-        Op::Const(c) => literal(c),
+        Op::Const(c) => literal(c, b.scalar),
         Op::Add(x, y) => {
             let (x, y) = (wrap(r(x), Prec::Sum), wrap(r(y), Prec::Product));
             (quote!(#x + #y), Prec::Sum)

@@ -10,6 +10,7 @@ use quote::{format_ident, quote};
 
 use super::expr::{literal, math_call, reference, Bindings};
 use super::items::{lets, lint_allowances};
+use super::ScalarType;
 use crate::plan::graph::{Graph, Id};
 
 /// A rigid motion as graph nodes: rotation rows and translation.
@@ -110,7 +111,7 @@ fn joint_motion(g: &mut Graph, joint: &Joint, i: usize) -> Motion {
 }
 
 /// `direction · joints[i] + offset`, folded.
-fn model_value(joint: &Joint, i: usize) -> TokenStream {
+fn model_value(joint: &Joint, i: usize, scalar: ScalarType) -> TokenStream {
     let k = super::expr::index(i);
     let q = quote!(joints[#k]);
     let scaled = if joint.direction == 1.0 {
@@ -118,13 +119,13 @@ fn model_value(joint: &Joint, i: usize) -> TokenStream {
     } else if joint.direction == -1.0 {
         quote!(-#q)
     } else {
-        let d = literal(joint.direction).0;
+        let d = literal(joint.direction, scalar).0;
         quote!(#d * #q)
     };
     if joint.offset == 0.0 {
         scaled
     } else {
-        let (off, _) = literal(joint.offset.abs());
+        let (off, _) = literal(joint.offset.abs(), scalar);
         if joint.offset < 0.0 {
             quote!(#scaled - #off)
         } else {
@@ -134,7 +135,12 @@ fn model_value(joint: &Joint, i: usize) -> TokenStream {
 }
 
 /// The emitted `forward` function.
-pub fn function(joints: &[Joint; JOINTS], base: &Pose, tool: &Pose) -> TokenStream {
+pub fn function(
+    joints: &[Joint; JOINTS],
+    base: &Pose,
+    tool: &Pose,
+    scalar: ScalarType,
+) -> TokenStream {
     let mut g = Graph::new();
     let mut t = Motion::constant(&mut g, base);
     for (i, joint) in joints.iter().enumerate() {
@@ -153,9 +159,9 @@ pub fn function(joints: &[Joint; JOINTS], base: &Pose, tool: &Pose) -> TokenStre
     let (g, map) = g.compact(&roots);
     let m = |id: Id| map[id as usize].unwrap_or(0);
     let roots: Vec<Id> = roots.into_iter().map(m).collect();
-    let b = Bindings::new(&g, &roots);
+    let b = Bindings::new(&g, &roots, scalar);
     let inputs = joints.iter().enumerate().map(|(i, joint)| {
-        let value = model_value(joint, i);
+        let value = model_value(joint, i, scalar);
         let n = i + 1;
         if joint.kind == JointKind::Prismatic {
             let d = format_ident!("d{n}");
@@ -184,13 +190,14 @@ pub fn function(joints: &[Joint; JOINTS], base: &Pose, tool: &Pose) -> TokenStre
     let row = |k: usize| names[3 * k..3 * k + 3].to_vec();
     let (r0, r1, r2, p) = (row(0), row(1), row(2), row(3));
     let lints = lint_allowances();
+    let (ty, generic) = (scalar.ty(), scalar.generic());
     quote! {
         /// Forward kinematics: the tool pose in the world for joint values (SI units). The
         /// product of exponentials with this arm's axes, base and tool folded in: one
         /// `sin_cos` per revolute joint.
         #lints
         #[allow(unused_variables)]
-        pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
+        pub fn forward(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Pose #generic {
             #(#inputs)*
             #(#steps)*
             #(#entries)*

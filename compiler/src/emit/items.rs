@@ -8,20 +8,30 @@ use armforge_runtime::{Branch, Elbow, Joint, JointKind, Pose, Shoulder, Wrist};
 use proc_macro2::TokenStream;
 use quote::{format_ident, quote};
 
+use armforge_runtime::math::Growth;
+
 use super::expr::{definition, literal, reference, Bindings};
+use super::ScalarType;
 use crate::plan::graph::{Graph, Id};
 use crate::plan::{candidate_roots, Plan};
 
-fn lit(x: f64) -> TokenStream {
-    literal(x).0
+/// Prints constants in the module's scalar.
+#[derive(Clone, Copy)]
+struct Literals(ScalarType);
+
+impl Literals {
+    fn lit(self, x: f64) -> TokenStream {
+        literal(x, self.0).0
+    }
+
+    fn lit3(self, v: &[f64; 3]) -> TokenStream {
+        let [a, b, c] = [self.lit(v[0]), self.lit(v[1]), self.lit(v[2])];
+        quote!([#a, #b, #c])
+    }
 }
 
-fn lit3(v: &[f64; 3]) -> TokenStream {
-    let [a, b, c] = [lit(v[0]), lit(v[1]), lit(v[2])];
-    quote!([#a, #b, #c])
-}
-
-fn joint(j: &Joint) -> TokenStream {
+fn joint(j: &Joint, l: Literals) -> TokenStream {
+    let (lit, lit3) = (|x| l.lit(x), |v: &[f64; 3]| l.lit3(v));
     let kind = match j.kind {
         JointKind::Revolute => quote!(::armforge_runtime::JointKind::Revolute),
         JointKind::Prismatic => quote!(::armforge_runtime::JointKind::Prismatic),
@@ -41,9 +51,9 @@ fn joint(j: &Joint) -> TokenStream {
     }
 }
 
-fn pose(p: &Pose) -> TokenStream {
-    let rows: Vec<TokenStream> = p.rotation.iter().map(lit3).collect();
-    let t = lit3(&p.translation);
+fn pose(p: &Pose, l: Literals) -> TokenStream {
+    let rows: Vec<TokenStream> = p.rotation.iter().map(|r| l.lit3(r)).collect();
+    let t = l.lit3(&p.translation);
     quote! {
         ::armforge_runtime::Pose {
             rotation: [#(#rows),*],
@@ -52,14 +62,21 @@ fn pose(p: &Pose) -> TokenStream {
     }
 }
 
-fn settings(s: &Settings) -> TokenStream {
+/// The plan's tolerances (written for `f64`) carried to the module's scalar: a length at a
+/// reach boundary and the distance between two roots that should be one grow with the square
+/// root of the epsilon (see [`Growth`]), a squared sine and a slack at a limit with it.
+fn settings(s: &Settings, l: Literals) -> TokenStream {
+    let scalar = l.0;
     let (a, b, c, d) = (
-        lit(s.length_tolerance),
-        lit(s.angle_tolerance),
-        lit(s.limit_tolerance),
-        lit(s.duplicate_tolerance),
+        l.lit(scalar.tolerance(s.length_tolerance, Growth::SquareRoot)),
+        l.lit(scalar.tolerance(s.angle_tolerance, Growth::Linear)),
+        l.lit(scalar.tolerance(s.limit_tolerance, Growth::Linear)),
+        l.lit(scalar.tolerance(s.duplicate_tolerance, Growth::SquareRoot)),
     );
-    let (w45, w56) = (lit(s.wrist_twist_cosines[0]), lit(s.wrist_twist_cosines[1]));
+    let (w45, w56) = (
+        l.lit(s.wrist_twist_cosines[0]),
+        l.lit(s.wrist_twist_cosines[1]),
+    );
     quote! {
         ::armforge_runtime::internal::Settings {
             length_tolerance: #a,
@@ -71,7 +88,8 @@ fn settings(s: &Settings) -> TokenStream {
     }
 }
 
-fn rule(r: &BranchRule) -> TokenStream {
+fn rule(r: &BranchRule, l: Literals) -> TokenStream {
+    let (lit, lit3) = (|x| l.lit(x), |v: &[f64; 3]| l.lit3(v));
     let shoulder = match r.shoulder {
         ShoulderRule::Plane {
             normal,
@@ -260,9 +278,10 @@ pub(super) fn lint_allowances() -> TokenStream {
 }
 
 /// The straight-line body of every branch and the notes of its named steps.
-fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
+fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String, String>) {
     let g = &plan.graph;
-    let b = Bindings::new(g, &candidate_uses(&plan.candidates));
+    let b = Bindings::new(g, &candidate_uses(&plan.candidates), scalar);
+    let (ty, generic) = (scalar.ty(), scalar.generic());
     let (lets, notes) = lets(g, &b, true);
     let candidates: Vec<TokenStream> = plan
         .candidates
@@ -276,9 +295,9 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
         #lints
         #[inline]
         fn candidates(
-            target: &::armforge_runtime::Pose,
-            reference: &[f64; 4],
-        ) -> [::armforge_runtime::internal::Candidate; #n] {
+            target: &::armforge_runtime::Pose #generic,
+            reference: &[#ty; 4],
+        ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
             #(#lets)*
             [#(#candidates),*]
         }
@@ -288,9 +307,9 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
         /// `armforge_runtime::internal::free_joint_1`).
         #[inline]
         fn free_candidates(
-            target: &::armforge_runtime::Pose,
-            reference: &[f64; 4],
-        ) -> [::armforge_runtime::internal::Candidate; #n] {
+            target: &::armforge_runtime::Pose #generic,
+            reference: &[#ty; 4],
+        ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
             let mut all = candidates(target, reference);
             ::armforge_runtime::internal::free_joint_1(
                 &JOINT_TABLE,
@@ -299,7 +318,7 @@ fn solver_body(plan: &Plan) -> (TokenStream, BTreeMap<String, String>) {
                 target,
                 reference,
                 &mut all,
-                |moved: &[f64; 4], i: usize| {
+                |moved: &[#ty; 4], i: usize| {
                     let again = candidates(target, moved);
                     again.get(i).copied()
                 },
@@ -317,12 +336,13 @@ fn branch_fn_name(k: usize) -> proc_macro2::Ident {
 
 /// One function per branch: only the steps that branch's candidate needs (one joint-1 root,
 /// one elbow root, one wrist root).
-fn branch_bodies(plan: &Plan) -> TokenStream {
+fn branch_bodies(plan: &Plan, scalar: ScalarType) -> TokenStream {
     let g = &plan.graph;
+    let (ty, generic) = (scalar.ty(), scalar.generic());
     let lints = lint_allowances();
     let fns = plan.candidates.iter().enumerate().map(|(k, c)| {
         let uses = candidate_uses(std::slice::from_ref(c));
-        let b = Bindings::within(g, &uses, &g.needed(&uses));
+        let b = Bindings::within(g, &uses, &g.needed(&uses), scalar);
         let (lets, _) = lets(g, &b, true);
         let value = candidate(plan, &b, c);
         let name = branch_fn_name(k);
@@ -337,9 +357,9 @@ fn branch_bodies(plan: &Plan) -> TokenStream {
             #[allow(unused_variables)]
             #[inline]
             fn #name(
-                target: &::armforge_runtime::Pose,
-                reference: &[f64; 4],
-            ) -> ::armforge_runtime::internal::Candidate {
+                target: &::armforge_runtime::Pose #generic,
+                reference: &[#ty; 4],
+            ) -> ::armforge_runtime::internal::Candidate #generic {
                 #(#lets)*
                 #value
             }
@@ -363,7 +383,8 @@ fn branch_arms(plan: &Plan, wrap: impl Fn(TokenStream) -> TokenStream) -> Vec<To
 }
 
 /// `solve_branch` and `solve_near`: one branch's steps, finished with the arm's constants.
-fn branch_api(plan: &Plan) -> TokenStream {
+fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
+    let (ty, generic) = (l.0.ty(), l.0.generic());
     let reference_call = if plan.free_joints == [0, 3] {
         quote!(::armforge_runtime::internal::reference(
             &JOINT_TABLE,
@@ -375,14 +396,14 @@ fn branch_api(plan: &Plan) -> TokenStream {
     };
     let centers: Vec<TokenStream> = armforge_runtime::internal::centers(&plan.arm.joints)
         .iter()
-        .map(|&x| lit(x))
+        .map(|&x| l.lit(x))
         .collect();
     let by_label = branch_arms(plan, |call| call);
     let own = branch_arms(plan, |call| quote!(::core::option::Option::Some(#call)));
     quote! {
         /// The value each joint is wrapped toward by `solve_branch`: its range's center.
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        const CENTERS: [f64; JOINTS] = [#(#centers),*];
+        const CENTERS: [#ty; JOINTS] = [#(#centers),*];
 
         /// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
         /// when it has one away from singular poses, otherwise the nearest of every branch
@@ -390,9 +411,9 @@ fn branch_api(plan: &Plan) -> TokenStream {
         /// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
         /// current value (joint 1 likewise on axis 1).
         pub fn solve_near(
-            target: &::armforge_runtime::Pose,
-            current: &[f64; JOINTS],
-        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
+            target: &::armforge_runtime::Pose #generic,
+            current: &[#ty; JOINTS],
+        ) -> ::core::result::Result<::armforge_runtime::Solution #generic, ::armforge_runtime::Unreachable #generic> {
             ::armforge_runtime::internal::check_pose(target)?;
             // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
             if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
@@ -437,9 +458,9 @@ fn branch_api(plan: &Plan) -> TokenStream {
         /// equivalent angle nearest its range's center), or why there is none. Computes that
         /// branch alone.
         pub fn solve_branch(
-            target: &::armforge_runtime::Pose,
+            target: &::armforge_runtime::Pose #generic,
             branch: ::armforge_runtime::Branch,
-        ) -> ::core::result::Result<::armforge_runtime::Solution, ::armforge_runtime::Unreachable> {
+        ) -> ::core::result::Result<::armforge_runtime::Solution #generic, ::armforge_runtime::Unreachable #generic> {
             ::armforge_runtime::internal::check_pose(target)?;
             // A target beyond 1e100 m: answered at 1e100 m along its ray, lengths scaled back.
             if let ::core::option::Option::Some(far) = ::armforge_runtime::internal::far_target(target) {
@@ -462,7 +483,7 @@ fn branch_api(plan: &Plan) -> TokenStream {
                 target,
                 &reference,
                 &mut one,
-                |moved: &[f64; 4], _: usize| {
+                |moved: &[#ty; 4], _: usize| {
                     let reference = *moved;
                     match branch {
                         #(#own)*
@@ -476,20 +497,27 @@ fn branch_api(plan: &Plan) -> TokenStream {
 }
 
 /// The whole module as tokens, and the notes for the step comments.
-pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, String>) {
-    let joints: Vec<TokenStream> = plan.arm.joints.iter().map(joint).collect();
-    let base = pose(&plan.arm.base);
-    let tool = pose(&plan.arm.tool);
-    let settings = settings(&plan.settings);
-    let labels = rule(&plan.rule);
-    let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| lit(x)).collect();
+pub fn module(
+    plan: &Plan,
+    with_test: bool,
+    scalar: ScalarType,
+) -> (TokenStream, BTreeMap<String, String>) {
+    let l = Literals(scalar);
+    let (ty, generic, trailing) = (scalar.ty(), scalar.generic(), scalar.trailing());
+    let joints: Vec<TokenStream> = plan.arm.joints.iter().map(|j| joint(j, l)).collect();
+    let base = pose(&plan.arm.base, l);
+    let tool = pose(&plan.arm.tool, l);
+    let settings = settings(&plan.settings, l);
+    let labels = rule(&plan.rule, l);
+    let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| l.lit(x)).collect();
     let capacity = super::expr::index(plan.capacity);
-    let (body, notes) = solver_body(plan);
-    let branches = branch_bodies(plan);
-    let branch_api = branch_api(plan);
-    let forward = super::forward::function(&plan.arm.joints, &plan.arm.base, &plan.arm.tool);
+    let (body, notes) = solver_body(plan, scalar);
+    let branches = branch_bodies(plan, scalar);
+    let branch_api = branch_api(plan, l);
+    let forward =
+        super::forward::function(&plan.arm.joints, &plan.arm.base, &plan.arm.tool, scalar);
     let test = if with_test {
-        super::selftest::module(plan.arm.scale)
+        super::selftest::module(plan.arm.scale, scalar)
     } else {
         quote!()
     };
@@ -501,31 +529,31 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         pub const CAPACITY: usize = #capacity;
 
         /// The solutions of one target.
-        pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
+        pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY #trailing>;
 
         /// The joints in the base frame with every model value at zero (SI units).
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        pub const JOINT_TABLE: [::armforge_runtime::Joint; JOINTS] = [#(#joints),*];
+        pub const JOINT_TABLE: [::armforge_runtime::Joint #generic; JOINTS] = [#(#joints),*];
 
         /// The base frame in the world (folded into `forward`; kept for callers).
         #[allow(dead_code, clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        pub const BASE: ::armforge_runtime::Pose = #base;
+        pub const BASE: ::armforge_runtime::Pose #generic = #base;
 
         /// The tool frame in the base frame with every model value at zero (folded into
         /// `forward`; kept for callers).
         #[allow(dead_code, clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        pub const TOOL: ::armforge_runtime::Pose = #tool;
+        pub const TOOL: ::armforge_runtime::Pose #generic = #tool;
 
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        const SETTINGS: ::armforge_runtime::internal::Settings = #settings;
+        const SETTINGS: ::armforge_runtime::internal::Settings #generic = #settings;
 
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        const LABELS: ::armforge_runtime::internal::BranchRule = #labels;
+        const LABELS: ::armforge_runtime::internal::BranchRule #generic = #labels;
 
         /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
         /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        const ZERO_REFERENCE: [f64; 4] = [#(#zero),*];
+        const ZERO_REFERENCE: [#ty; 4] = [#(#zero),*];
 
         #forward
 
@@ -534,7 +562,7 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         /// branch label and flags; or none, with the reason. At a singular pose the free
         /// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
         /// value nearest zero that keeps both shoulder solutions within its limits.
-        pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
+        pub fn solve(target: &::armforge_runtime::Pose #generic) -> Solutions {
             if let ::core::result::Result::Err(reason) =
                 ::armforge_runtime::internal::check_pose(target)
             {
@@ -548,7 +576,7 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
                     );
                 }
             }
-            ::armforge_runtime::internal::collect::<CAPACITY>(
+            ::armforge_runtime::internal::collect(
                 &JOINT_TABLE,
                 &SETTINGS,
                 &free_candidates(target, &ZERO_REFERENCE),
@@ -558,7 +586,7 @@ pub fn module(plan: &Plan, with_test: bool) -> (TokenStream, BTreeMap<String, St
         #branch_api
 
         /// The branch label of any configuration; agrees with the labels `solve` reports.
-        pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
+        pub fn branch_of(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Branch {
             ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
         }
 

@@ -1,4 +1,4 @@
-//! A `#![no_std]` crate without `alloc` that holds an emitted solver next to decoy items named
+//! A `#![no_std]` crate without `alloc` that holds emitted solvers (`f64` and `f32`) next to decoy items named
 //! like the ones the module uses (`Pose`, `Result`, `Option`, `core`, `f64` helpers), all under
 //! `#![deny(warnings)]`: the emitted code must use absolute paths and compile cleanly.
 //!
@@ -35,6 +35,16 @@ armforge_macros::solver!(
     pub mod centrifuge_loader = "../../arms/centrifuge-loader-dh.toml";
 );
 
+armforge_macros::solver!(
+    /// The bench elbow arm's solver in single precision, for a single-precision FPU.
+    pub mod bench_elbow_f32 = "../../arms/bench-elbow-dh.toml", scalar = f32;
+);
+
+armforge_macros::solver!(
+    /// The hotel loader's solver in single precision.
+    pub mod hotel_loader_f32 = "../../arms/hotel-loader-axes.toml", scalar = f32;
+);
+
 /// The panic handler of a firmware image: only a build without `std` may define one.
 #[cfg(feature = "standalone")]
 #[panic_handler]
@@ -46,4 +56,14 @@ fn halt(_: &::core::panic::PanicInfo) -> ! {
 pub fn solutions_at_zero() -> usize {
     let target = bench_elbow::forward(&[0.0; bench_elbow::JOINTS]);
     bench_elbow::solve(&target).len() + centrifuge_loader::solve(&target).len()
+}
+
+/// The same in single precision: the number of solutions of the f32 solvers at zero.
+pub fn solutions_at_zero_f32() -> usize {
+    let target = bench_elbow_f32::forward(&[0.0; bench_elbow_f32::JOINTS]);
+    let near = bench_elbow_f32::solve_near(&target, &[0.0; bench_elbow_f32::JOINTS]);
+    let hotel = hotel_loader_f32::forward(&[0.0; hotel_loader_f32::JOINTS]);
+    bench_elbow_f32::solve(&target).len()
+        + hotel_loader_f32::solve(&hotel).len()
+        + usize::from(near.is_ok())
 }

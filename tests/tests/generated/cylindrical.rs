@@ -370,9 +370,11 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
             );
         }
     }
-    ::armforge_runtime::internal::collect::<
-        CAPACITY,
-    >(&JOINT_TABLE, &SETTINGS, &free_candidates(target, &ZERO_REFERENCE))
+    ::armforge_runtime::internal::collect(
+        &JOINT_TABLE,
+        &SETTINGS,
+        &free_candidates(target, &ZERO_REFERENCE),
+    )
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
 #[allow(

@@ -10,7 +10,8 @@
 use std::path::{Path, PathBuf};
 
 use armforge_compiler::classify::Tolerances;
-use armforge_compiler::pipeline::generate_module;
+use armforge_compiler::emit::ScalarType;
+use armforge_compiler::pipeline::generate_module_in;
 use armforge_workbench::review::review_sheet;
 
 use super::io::files::{self, Replace};
@@ -33,6 +34,15 @@ pub struct Args {
     /// Also write the Markdown review sheet (as `armforge explain` does) to FILE.md.
     #[arg(long, value_name = "FILE.md")]
     pub sheet: Option<PathBuf>,
+    /// The scalar the solver computes in: f64, or f32 for a controller with a
+    /// single-precision FPU.
+    #[arg(long, value_name = "f64|f32", default_value = "f64", value_parser = parse_scalar)]
+    pub scalar: ScalarType,
+}
+
+/// `f64` or `f32`.
+fn parse_scalar(word: &str) -> Result<ScalarType, String> {
+    ScalarType::from_name(word).ok_or_else(|| format!("expected f64 or f32, found `{word}`"))
 }
 
 /// Runs `armforge emit`.
@@ -46,7 +56,7 @@ pub fn run(args: Args) -> Outcome {
         inputs.pop();
     }
     let shown = files::shown(&args.arm);
-    let generated = generate_module(&args.arm, &shown, &Tolerances::default())
+    let generated = generate_module_in(&args.arm, &shown, &Tolerances::default(), args.scalar)
         .map_err(|e| files::report_at(&e, &args.arm))?;
     let sheet = args.sheet.as_ref().map(|path| {
         let text = review_sheet(&generated.model, &generated.geometry, &generated.plan);

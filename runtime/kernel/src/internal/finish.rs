@@ -3,10 +3,8 @@
 //! the reach and wrist checks and the limits are applied, double roots at a boundary are
 //! returned once, flags are set, and the reason is worked out when nothing is left.
 
-use core::f64::consts::{PI, TAU};
-
-use super::{round_fast, wrap, Candidate, Check, CheckKind, Settings, INV_TAU};
-use crate::math::{abs, sqrt};
+use super::{inv_tau, round_fast, wrap, Candidate, Check, CheckKind, Settings};
+use crate::math::{abs, sqrt, tolerance, Growth, Scalar};
 use crate::model::{Joint, JointKind};
 use crate::solution::{Branch, Flags, Solution, SolutionSet, Unreachable, JOINTS};
 
@@ -16,20 +14,22 @@ pub const MAX_EQUIVALENTS: usize = 8;
 
 /// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
 #[inline(always)]
-pub fn lists_equivalents(joint: &Joint, tolerance: f64) -> bool {
+pub fn lists_equivalents<S: Scalar>(joint: &Joint<S>, tolerance: S) -> bool {
+    let [lo, hi] = joint.limits;
     joint.kind == JointKind::Revolute
-        && joint.limits[0].is_finite()
-        && joint.limits[1].is_finite()
-        && joint.limits[1] - joint.limits[0] > TAU + tolerance
+        && lo.is_finite()
+        && hi.is_finite()
+        && hi - lo > S::TAU + tolerance
 }
 
 /// How many equivalent values of one joint can be within its limits (1 unless the joint is
 /// revolute with a range wider than one turn). Generators use this for the set's capacity.
-pub fn equivalent_count(joint: &Joint, tolerance: f64) -> usize {
+pub fn equivalent_count<S: Scalar>(joint: &Joint<S>, tolerance: S) -> usize {
     if !lists_equivalents(joint, tolerance) {
         return 1;
     }
-    let turns = (joint.limits[1] - joint.limits[0] + 2.0 * tolerance) / TAU;
+    let [lo, hi] = joint.limits;
+    let turns = ((hi - lo + S::of(2.0) * tolerance) / S::TAU).to_f64();
     let mut n = 1;
     while n < MAX_EQUIVALENTS && (n as f64) <= turns {
         n += 1;
@@ -39,36 +39,36 @@ pub fn equivalent_count(joint: &Joint, tolerance: f64) -> usize {
 
 /// How one joint's values are finished, worked out once per solve.
 #[derive(Clone, Copy)]
-struct Finishing {
+struct Finishing<S: Scalar> {
     /// Revolute with more than one turn of range: list equivalent angles from `lo`.
     lists: bool,
     /// Revolute with at most one turn: wrap around `center`.
     wraps: bool,
-    center: f64,
-    lo: f64,
-    hi: f64,
+    center: S,
+    lo: S,
+    hi: S,
 }
 
-impl Finishing {
-    const NONE: Finishing = Finishing {
+impl<S: Scalar> Finishing<S> {
+    const NONE: Finishing<S> = Finishing {
         lists: false,
         wraps: false,
-        center: 0.0,
-        lo: 0.0,
-        hi: 0.0,
+        center: S::ZERO,
+        lo: S::ZERO,
+        hi: S::ZERO,
     };
 
     #[inline(always)]
-    fn of(joint: &Joint, tol: f64) -> Finishing {
+    fn of(joint: &Joint<S>, tol: S) -> Finishing<S> {
         let [lo, hi] = joint.limits;
         let lists = lists_equivalents(joint, tol);
         Finishing {
             lists,
             wraps: joint.kind == JointKind::Revolute && !lists,
             center: if lo.is_finite() && hi.is_finite() {
-                0.5 * (lo + hi)
+                S::of(0.5) * (lo + hi)
             } else {
-                0.0
+                S::ZERO
             },
             lo,
             hi,
@@ -77,38 +77,38 @@ impl Finishing {
 }
 
 /// The per-joint constants of the conversion, worked out once per solve.
-struct Table {
-    finishing: [Finishing; JOINTS],
-    offset: [f64; JOINTS],
-    direction: [f64; JOINTS],
-    center: [f64; JOINTS],
+struct Table<S: Scalar> {
+    finishing: [Finishing<S>; JOINTS],
+    offset: [S; JOINTS],
+    direction: [S; JOINTS],
+    center: [S; JOINTS],
     /// `1.0` for joints that wrap, `0.0` otherwise.
-    wraps: [f64; JOINTS],
-    low: [f64; JOINTS],
-    high: [f64; JOINTS],
+    wraps: [S; JOINTS],
+    low: [S; JOINTS],
+    high: [S; JOINTS],
 }
 
-impl Table {
+impl<S: Scalar> Table<S> {
     #[inline(always)]
-    fn of(joints: &[Joint; JOINTS], tol: f64) -> Table {
+    fn of(joints: &[Joint<S>; JOINTS], tol: S) -> Table<S> {
         let mut finishing = [Finishing::NONE; JOINTS];
         for (f, j) in finishing.iter_mut().zip(joints.iter()) {
             *f = Finishing::of(j, tol);
         }
         let mut t = Table {
             finishing,
-            offset: [0.0; JOINTS],
-            direction: [0.0; JOINTS],
-            center: [0.0; JOINTS],
-            wraps: [0.0; JOINTS],
-            low: [0.0; JOINTS],
-            high: [0.0; JOINTS],
+            offset: [S::ZERO; JOINTS],
+            direction: [S::ZERO; JOINTS],
+            center: [S::ZERO; JOINTS],
+            wraps: [S::ZERO; JOINTS],
+            low: [S::ZERO; JOINTS],
+            high: [S::ZERO; JOINTS],
         };
         for i in 0..JOINTS {
             t.offset[i] = joints[i].offset;
             t.direction[i] = joints[i].direction;
             t.center[i] = finishing[i].center;
-            t.wraps[i] = if finishing[i].wraps { 1.0 } else { 0.0 };
+            t.wraps[i] = if finishing[i].wraps { S::ONE } else { S::ZERO };
             t.low[i] = finishing[i].lo - tol;
             t.high[i] = finishing[i].hi + tol;
         }
@@ -120,8 +120,8 @@ impl Table {
     /// every joint has a value within its limits. The same arithmetic as
     /// [`Joint::joint_value`], [`wrap`] and [`equivalents`].
     #[inline(always)]
-    fn convert(&self, model: &[f64; JOINTS], tol: f64) -> ([f64; JOINTS], [usize; JOINTS], bool) {
-        let mut values = [0.0; JOINTS];
+    fn convert(&self, model: &[S; JOINTS], tol: S) -> ([S; JOINTS], [usize; JOINTS], bool) {
+        let mut values = [S::ZERO; JOINTS];
         let mut counts = [1usize; JOINTS];
         let mut inside = true;
         // Written out per joint (constant indices) so that, inlined into an emitted solver,
@@ -134,8 +134,8 @@ impl Table {
                 counts[i] = n;
                 inside &= n > 0;
             } else {
-                let turns = round_fast((q - self.center[i]) * INV_TAU) * self.wraps[i];
-                let v = q - TAU * turns;
+                let turns = round_fast((q - self.center[i]) * inv_tau()) * self.wraps[i];
+                let v = q - S::TAU * turns;
                 values[i] = v;
                 inside &= (v >= self.low[i]) & (v <= self.high[i]);
             }
@@ -154,11 +154,11 @@ impl Table {
 /// are (`lowest + k·2π`, `k < count`), and by how much the nearest one misses the limits when
 /// there are none.
 #[inline(always)]
-fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
+fn equivalents<S: Scalar>(f: &Finishing<S>, q: S, tol: S) -> (S, usize, S) {
     let (lo, hi) = (f.lo, f.hi);
     if f.lists {
-        let lowest = q - TAU * floor((q - lo + tol) * INV_TAU);
-        let above = floor((hi + tol - lowest) * INV_TAU);
+        let lowest = q - S::TAU * floor((q - lo + tol) * inv_tau());
+        let above = floor((hi + tol - lowest) * inv_tau()).to_f64();
         let count = if above < 0.0 {
             0
         } else if above >= (MAX_EQUIVALENTS - 1) as f64 {
@@ -166,7 +166,7 @@ fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
         } else {
             above as usize + 1
         };
-        let miss = if count == 0 { lowest - hi } else { 0.0 };
+        let miss = if count == 0 { lowest - hi } else { S::ZERO };
         return (lowest, count, miss);
     }
     let v = if f.wraps { wrap(q, f.center) } else { q };
@@ -174,40 +174,43 @@ fn equivalents(f: &Finishing, q: f64, tol: f64) -> (f64, usize, f64) {
     if miss > tol {
         (v, 0, miss)
     } else {
-        (v, 1, 0.0)
+        (v, 1, S::ZERO)
     }
 }
 
 /// The largest whole number not above `x` (through rounding, so it works without `std`).
 #[inline(always)]
-fn floor(x: f64) -> f64 {
+fn floor<S: Scalar>(x: S) -> S {
     let r = round_fast(x);
     if r > x {
-        r - 1.0
+        r - S::ONE
     } else {
         r
     }
 }
 
 /// `acos` through `atan2` (works without `std`), argument clamped to `[−1, 1]`.
-fn acos(x: f64) -> f64 {
-    let x = crate::math::clamp(x, -1.0, 1.0);
-    crate::math::atan2(sqrt((1.0 - x) * (1.0 + x)), x)
+fn acos<S: Scalar>(x: S) -> S {
+    let x = crate::math::clamp(x, -S::ONE, S::ONE);
+    crate::math::atan2(sqrt((S::ONE - x) * (S::ONE + x)), x)
 }
 
 /// By how much (radians) the angle between axis 4 and the requested axis-6 direction misses
 /// the band the wrist reaches: `z = R5 h6` keeps the angle `φ56` to `h5`, which keeps `φ45` to
 /// `h4`, so the angle to `h4` lies in `[|φ45 − φ56|, min(φ45 + φ56, 2π − φ45 − φ56)]`.
-fn wrist_miss(cos_angle: f64, [c45, c56]: [f64; 2]) -> f64 {
+fn wrist_miss<S: Scalar>(cos_angle: S, [c45, c56]: [S; 2]) -> S {
     let angle = acos(cos_angle);
     let (p45, p56) = (acos(c45), acos(c56));
     let lo = abs(p45 - p56);
-    let hi = (p45 + p56).min(TAU - p45 - p56);
-    (lo - angle).max(angle - hi).max(0.0)
+    let hi = (p45 + p56).min(S::TAU - p45 - p56);
+    (lo - angle).max(angle - hi).max(S::ZERO)
 }
 
 /// The first failing check of a candidate, with by how much it misses (`None` when all pass).
-fn verdict(checks: &[Check; 4], settings: &Settings) -> Option<(Unreachable, f64)> {
+fn verdict<S: Scalar>(
+    checks: &[Check<S>; 4],
+    settings: &Settings<S>,
+) -> Option<(Unreachable<S>, S)> {
     let tol = settings.length_tolerance;
     for c in checks {
         match c.kind {
@@ -220,9 +223,9 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Option<(Unreachable, f64
                 }
             }
             CheckKind::InsideHole => {
-                let inner = (c.limit - tol).max(0.0);
+                let inner = (c.limit - tol).max(S::ZERO);
                 if c.have_squared < inner * inner {
-                    let by = c.limit - sqrt(c.have_squared.max(0.0));
+                    let by = c.limit - sqrt(c.have_squared.max(S::ZERO));
                     return Some((Unreachable::InsideHole { by }, by));
                 }
             }
@@ -241,7 +244,7 @@ fn verdict(checks: &[Check; 4], settings: &Settings) -> Option<(Unreachable, f64
 /// `None` otherwise: the same comparisons as [`verdict`], without working out by how much a
 /// failing check misses (that is done only when no candidate is left).
 #[inline(always)]
-fn passes(checks: &[Check; 4], settings: &Settings) -> Option<bool> {
+fn passes<S: Scalar>(checks: &[Check<S>; 4], settings: &Settings<S>) -> Option<bool> {
     let tol = settings.length_tolerance;
     let mut at_limit = false;
     let mut fails = false;
@@ -250,12 +253,12 @@ fn passes(checks: &[Check; 4], settings: &Settings) -> Option<bool> {
             CheckKind::None => {}
             CheckKind::BeyondReach => {
                 let outer = c.limit + tol;
-                let inner = (c.limit - tol).max(0.0);
+                let inner = (c.limit - tol).max(S::ZERO);
                 fails |= c.have_squared > outer * outer;
                 at_limit |= c.have_squared >= inner * inner;
             }
             CheckKind::InsideHole => {
-                let inner = (c.limit - tol).max(0.0);
+                let inner = (c.limit - tol).max(S::ZERO);
                 let outer = c.limit + tol;
                 fails |= c.have_squared < inner * inner;
                 at_limit |= (c.limit > tol) & (c.have_squared <= outer * outer);
@@ -276,10 +279,10 @@ fn passes(checks: &[Check; 4], settings: &Settings) -> Option<bool> {
 /// Distance between two values of one joint: wrap-aware for revolute joints with at most one
 /// turn of range, plain otherwise.
 #[inline]
-fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
+fn joint_distance<S: Scalar>(joint: &Joint<S>, a: S, b: S, tol: S) -> S {
     let d = a - b;
     if joint.kind == JointKind::Revolute && !lists_equivalents(joint, tol) {
-        abs(wrap(d, 0.0))
+        abs(wrap(d, S::ZERO))
     } else {
         abs(d)
     }
@@ -287,15 +290,16 @@ fn joint_distance(joint: &Joint, a: f64, b: f64, tol: f64) -> f64 {
 
 /// Two roots of one boundary closer than this (radians or metres) are one double root: at a
 /// reach boundary a rounding error ε in the cosine moves the roots by about √(2ε) ≈ 1.5e-8.
+/// For `f64`; other scalars scale it with the square root of their epsilon.
 pub const BOUNDARY_DUPLICATE_TOLERANCE: f64 = 1e-7;
 
 #[inline]
-fn is_duplicate(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    q: &[f64; JOINTS],
+fn is_duplicate<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    q: &[S; JOINTS],
     flags: Flags,
-    found: &[Solution],
+    found: &[Solution<S>],
 ) -> bool {
     // Branches give distinct configurations except where two roots meet at a boundary (the
     // candidates are then flagged), so only flagged candidates are compared.
@@ -304,7 +308,7 @@ fn is_duplicate(
     }
     found.iter().any(|s| {
         let tolerance = if s.flags.contains(Flags::AT_REACH_LIMIT) {
-            BOUNDARY_DUPLICATE_TOLERANCE
+            tolerance(BOUNDARY_DUPLICATE_TOLERANCE, Growth::SquareRoot)
         } else {
             settings.duplicate_tolerance
         };
@@ -318,7 +322,7 @@ fn is_duplicate(
 /// How far through the steps a failed candidate got: a candidate whose position was
 /// reachable but whose wrist was not says more than one whose position was out of reach.
 #[inline]
-fn stage(reason: &Unreachable) -> u8 {
+fn stage<S: Scalar>(reason: &Unreachable<S>) -> u8 {
     match reason {
         Unreachable::WristOrientation { .. } => 1,
         _ => 0,
@@ -327,7 +331,11 @@ fn stage(reason: &Unreachable) -> u8 {
 
 /// Keeps the more telling of two failure reasons: the later stage, then the smaller miss.
 #[inline]
-fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amount: f64) {
+fn keep_smaller<S: Scalar>(
+    best: &mut Option<(Unreachable<S>, S)>,
+    reason: Unreachable<S>,
+    amount: S,
+) {
     match best {
         Some((r, a)) if (stage(r), -*a) >= (stage(&reason), -amount) => {}
         _ => *best = Some((reason, amount)),
@@ -338,13 +346,13 @@ fn keep_smaller(best: &mut Option<(Unreachable, f64)>, reason: Unreachable, amou
 /// limits, duplicates, flags. Writes into `out` and returns how many were written, or the
 /// reason when there are none. With `only`, candidates of other branches are skipped.
 #[inline(always)]
-pub fn finish(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    candidates: &[Candidate],
+pub fn finish<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    candidates: &[Candidate<S>],
     only: Option<Branch>,
-    out: &mut [Solution],
-) -> Result<usize, Unreachable> {
+    out: &mut [Solution<S>],
+) -> Result<usize, Unreachable<S>> {
     let tol = settings.limit_tolerance;
     let table = Table::of(joints, tol);
     let mut len = 0;
@@ -379,15 +387,15 @@ pub fn finish(
 /// check, the later stage, then the smaller miss.
 #[cold]
 #[inline(never)]
-fn failure(
-    table: &Table,
-    settings: &Settings,
-    candidates: &[Candidate],
+fn failure<S: Scalar>(
+    table: &Table<S>,
+    settings: &Settings<S>,
+    candidates: &[Candidate<S>],
     only: Option<Branch>,
-) -> Unreachable {
+) -> Unreachable<S> {
     let tol = settings.limit_tolerance;
-    let mut failure: Option<(Unreachable, f64)> = None;
-    let mut limit_failure: Option<(Unreachable, f64)> = None;
+    let mut failure: Option<(Unreachable<S>, S)> = None;
+    let mut limit_failure: Option<(Unreachable<S>, S)> = None;
     for c in candidates {
         if only.is_some_and(|b| b != c.branch) {
             continue;
@@ -396,7 +404,7 @@ fn failure(
             keep_smaller(&mut failure, reason, amount);
             continue;
         }
-        let mut worst: Option<(usize, f64)> = None;
+        let mut worst: Option<(usize, S)> = None;
         for i in 0..JOINTS {
             let q = (c.model_values[i] - table.offset[i]) * table.direction[i];
             let (_, n, miss) = equivalents(&table.finishing[i], q, tol);
@@ -422,14 +430,14 @@ fn failure(
 /// joint turns fastest).
 #[allow(clippy::too_many_arguments)]
 #[inline(always)]
-fn push_combinations(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    lowest: &[f64; JOINTS],
+fn push_combinations<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    lowest: &[S; JOINTS],
     counts: &[usize; JOINTS],
     branch: Branch,
     flags: Flags,
-    out: &mut [Solution],
+    out: &mut [Solution<S>],
     mut len: usize,
 ) -> usize {
     let total: usize = counts.iter().product();
@@ -453,7 +461,7 @@ fn push_combinations(
         let mut q = *lowest;
         for ((v, k), n) in q.iter_mut().zip(turns.iter()).zip(counts.iter()) {
             if *n > 1 {
-                *v += TAU * *k as f64;
+                *v += S::TAU * S::of(*k as f64);
             }
         }
         let found = out.get(..len).unwrap_or(&[]);
@@ -480,11 +488,11 @@ fn push_combinations(
 
 /// [`finish`] into a fixed-capacity set.
 #[inline]
-pub fn collect<const CAP: usize>(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    candidates: &[Candidate],
-) -> SolutionSet<CAP> {
+pub fn collect<const CAP: usize, S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    candidates: &[Candidate<S>],
+) -> SolutionSet<CAP, S> {
     let mut set = SolutionSet::empty();
     let outcome = finish(joints, settings, candidates, None, set.storage_mut());
     set.record(outcome);
@@ -494,13 +502,13 @@ pub fn collect<const CAP: usize>(
 /// Sum of squared joint distances (wrap-aware for revolute joints with at most one turn of
 /// range).
 #[inline]
-fn distance(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    a: &[f64; JOINTS],
-    b: &[f64; JOINTS],
-) -> f64 {
-    let mut d = 0.0;
+fn distance<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    a: &[S; JOINTS],
+    b: &[S; JOINTS],
+) -> S {
+    let mut d = S::ZERO;
     for i in 0..JOINTS {
         let e = joint_distance(&joints[i], a[i], b[i], settings.limit_tolerance);
         d += e * e;
@@ -510,13 +518,13 @@ fn distance(
 
 /// The solution nearest to `current` (see [`distance`]).
 #[inline]
-pub fn nearest(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    solutions: &[Solution],
-    current: &[f64; JOINTS],
-) -> Option<Solution> {
-    let mut best: Option<(f64, Solution)> = None;
+pub fn nearest<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    solutions: &[Solution<S>],
+    current: &[S; JOINTS],
+) -> Option<Solution<S>> {
+    let mut best: Option<(S, Solution<S>)> = None;
     for s in solutions {
         let d = distance(joints, settings, &s.joints, current);
         if best.map_or(true, |(b, _)| d < b) {
@@ -530,10 +538,10 @@ pub fn nearest(
 /// ranges (zero for an unlimited joint). Among equivalent angles of a joint whose range
 /// exceeds a turn, the one nearest the center is the one within half a turn of it.
 #[inline(always)]
-pub fn centers(joints: &[Joint; JOINTS]) -> [f64; JOINTS] {
-    let mut out = [0.0; JOINTS];
+pub fn centers<S: Scalar>(joints: &[Joint<S>; JOINTS]) -> [S; JOINTS] {
+    let mut out = [S::ZERO; JOINTS];
     for (c, j) in out.iter_mut().zip(joints.iter()) {
-        *c = Finishing::of(j, 0.0).center;
+        *c = Finishing::of(j, S::ZERO).center;
     }
     out
 }
@@ -543,12 +551,16 @@ pub fn centers(joints: &[Joint; JOINTS]) -> [f64; JOINTS] {
 /// turn of it is the in-range one nearest `current`); otherwise the range's center. A
 /// non-finite `current` counts as the center.
 #[inline(always)]
-pub fn anchors_near(joints: &[Joint; JOINTS], current: &[f64; JOINTS], tol: f64) -> [f64; JOINTS] {
-    let mut out = [0.0; JOINTS];
+pub fn anchors_near<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    current: &[S; JOINTS],
+    tol: S,
+) -> [S; JOINTS] {
+    let mut out = [S::ZERO; JOINTS];
     for ((a, j), q) in out.iter_mut().zip(joints.iter()).zip(current.iter()) {
         let f = Finishing::of(j, tol);
         *a = if f.lists && q.is_finite() {
-            crate::math::clamp(*q, f.lo + PI, f.hi - PI)
+            crate::math::clamp(*q, f.lo + S::PI, f.hi - S::PI)
         } else {
             f.center
         };
@@ -563,17 +575,17 @@ pub fn anchors_near(joints: &[Joint; JOINTS], current: &[f64; JOINTS], tol: f64)
 /// `SETTINGS`, every offset, direction, center and limit folds into the code, the per-joint
 /// loop unrolls and the revolute/prismatic choice disappears.
 #[inline(always)]
-pub fn finish_one(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    c: &Candidate,
-    anchor: &[f64; JOINTS],
-) -> Result<Solution, Unreachable> {
+pub fn finish_one<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    c: &Candidate<S>,
+    anchor: &[S; JOINTS],
+) -> Result<Solution<S>, Unreachable<S>> {
     let Some(at_limit) = passes(&c.checks, settings) else {
         return Err(failure_of_one(joints, settings, c));
     };
     let tol = settings.limit_tolerance;
-    let mut values = [0.0; JOINTS];
+    let mut values = [S::ZERO; JOINTS];
     let mut inside = true;
     for i in 0..JOINTS {
         let j = &joints[i];
@@ -598,7 +610,7 @@ pub fn finish_one(
 
 /// The flags of a candidate that passed its checks.
 #[inline(always)]
-fn flags_of(c: &Candidate, at_limit: bool) -> Flags {
+fn flags_of<S: Scalar>(c: &Candidate<S>, at_limit: bool) -> Flags {
     let mut flags = Flags::NONE;
     if c.wrist_aligned {
         flags = flags.union(Flags::WRIST_ALIGNED);
@@ -615,7 +627,11 @@ fn flags_of(c: &Candidate, at_limit: bool) -> Flags {
 /// Why one candidate is not a solution (worked out only then).
 #[cold]
 #[inline(never)]
-fn failure_of_one(joints: &[Joint; JOINTS], settings: &Settings, c: &Candidate) -> Unreachable {
+fn failure_of_one<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    c: &Candidate<S>,
+) -> Unreachable<S> {
     let table = Table::of(joints, settings.limit_tolerance);
     failure(&table, settings, core::slice::from_ref(c), None)
 }
@@ -623,14 +639,14 @@ fn failure_of_one(joints: &[Joint; JOINTS], settings: &Settings, c: &Candidate) 
 /// Of every candidate, the solution nearest `current` (sum of squared joint distances,
 /// wrap-aware for revolute joints with at most one turn of range), each finished toward
 /// `anchor` (see [`anchors_near`]); or why there is none.
-pub fn nearest_candidate(
-    joints: &[Joint; JOINTS],
-    settings: &Settings,
-    candidates: &[Candidate],
-    current: &[f64; JOINTS],
-    anchor: &[f64; JOINTS],
-) -> Result<Solution, Unreachable> {
-    let mut best: Option<(f64, Solution)> = None;
+pub fn nearest_candidate<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    candidates: &[Candidate<S>],
+    current: &[S; JOINTS],
+    anchor: &[S; JOINTS],
+) -> Result<Solution<S>, Unreachable<S>> {
+    let mut best: Option<(S, Solution<S>)> = None;
     for c in candidates {
         let Ok(s) = finish_one(joints, settings, c, anchor) else {
             continue;
@@ -655,6 +671,7 @@ pub fn nearest_candidate(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use core::f64::consts::{PI, TAU};
 
     fn revolute(limits: [f64; 2]) -> Joint {
         Joint {

@@ -20,30 +20,32 @@
 //! nothing more away from axis 1. The interpreter and every emitted module call this one
 //! function.
 
-use core::f64::consts::{PI, TAU};
-
 use super::{wrap, Candidate, Settings};
 use crate::fk::joint_motion;
-use crate::math::{abs, atan2, clamp, cos, cross, dot, sin, sqrt};
+use crate::math::{abs, atan2, clamp, cos, cross, dot, sin, sqrt, Scalar};
 use crate::model::{Joint, JointKind};
 use crate::pose::Pose;
 use crate::solution::JOINTS;
 
 /// Arc ends are moved this far (radians) inside the arcs, so that joint 5 lands within its
-/// limits despite rounding.
-const INSIDE: f64 = 1e-9;
+/// limits despite rounding: 1e-9 for `S`, 64 epsilons for `f32` (about 7.6e-6).
+#[inline(always)]
+fn inside<S: Scalar>() -> S {
+    S::of(1e-9).max(S::of(64.0) * S::EPSILON)
+}
 
 /// `acos` through `atan2`, argument clamped to `[−1, 1]`.
-fn acos(x: f64) -> f64 {
-    let x = clamp(x, -1.0, 1.0);
-    atan2(sqrt((1.0 - x) * (1.0 + x)), x)
+fn acos<S: Scalar>(x: S) -> S {
+    let x = clamp(x, -S::ONE, S::ONE);
+    atan2(sqrt((S::ONE - x) * (S::ONE + x)), x)
 }
 
 /// A revolute joint's limits as model values `[lo, hi]`, or `None` when it turns a whole turn
 /// or more (or is a slide).
-fn model_range(joint: &Joint) -> Option<[f64; 2]> {
+fn model_range<S: Scalar>(joint: &Joint<S>) -> Option<[S; 2]> {
     let [lo, hi] = joint.limits;
-    if joint.kind != JointKind::Revolute || !(lo.is_finite() && hi.is_finite()) || hi - lo >= TAU {
+    if joint.kind != JointKind::Revolute || !(lo.is_finite() && hi.is_finite()) || hi - lo >= S::TAU
+    {
         return None;
     }
     let (a, b) = (joint.model_value(lo), joint.model_value(hi));
@@ -51,27 +53,27 @@ fn model_range(joint: &Joint) -> Option<[f64; 2]> {
 }
 
 /// True when the model value `m` is within `range` (by whole turns).
-fn within(m: f64, [lo, hi]: [f64; 2], tol: f64) -> bool {
-    let v = wrap(m, 0.5 * (lo + hi));
+fn within<S: Scalar>(m: S, [lo, hi]: [S; 2], tol: S) -> bool {
+    let v = wrap(m, S::of(0.5) * (lo + hi));
     v >= lo - tol && v <= hi + tol
 }
 
 /// The interval of `k = h4 · R5(θ5) h6` over joint 5's limits, or `None` when joint 5 turns a
 /// whole turn or more (every `k` the wrist makes is within its limits).
-pub fn joint_5_interval(joints: &[Joint; JOINTS]) -> Option<[f64; 2]> {
+pub fn joint_5_interval<S: Scalar>(joints: &[Joint<S>; JOINTS]) -> Option<[S; 2]> {
     let [mlo, mhi] = model_range(&joints[4])?;
     let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
     let p = dot(h4, h5) * dot(h6, h5);
     let q = dot(h4, h6) - p;
     let r = dot(h4, &cross(h5, h6));
-    let k = |m: f64| p + q * cos(m) + r * sin(m);
+    let k = |m: S| p + q * cos(m) + r * sin(m);
     let (rho, mu) = (sqrt(q * q + r * r), atan2(r, q));
     let mut low = k(mlo).min(k(mhi));
     let mut high = k(mlo).max(k(mhi));
-    if within(mu, [mlo, mhi], 0.0) {
+    if within(mu, [mlo, mhi], S::ZERO) {
         high = p + rho;
     }
-    if within(mu + PI, [mlo, mhi], 0.0) {
+    if within(mu + S::PI, [mlo, mhi], S::ZERO) {
         low = p - rho;
     }
     Some([low, high])
@@ -82,13 +84,13 @@ pub fn joint_5_interval(joints: &[Joint; JOINTS]) -> Option<[f64; 2]> {
 pub const TRIES: usize = 3 * 2 * 2 * 2 + 2;
 
 /// `A + B cos m + C sin m = e`: the roots `m = μ ± acos((e − A) / ρ)` (none when out of range).
-fn roots([a, b, c]: [f64; 3], e: f64) -> Option<[f64; 2]> {
+fn roots<S: Scalar>([a, b, c]: [S; 3], e: S) -> Option<[S; 2]> {
     let rho = sqrt(b * b + c * c);
-    if rho <= 1e-12 || rho.is_nan() {
+    if rho <= S::of(1e-12).max(S::of(64.0) * S::EPSILON) || !rho.is_finite() {
         return None;
     }
     let x = (e - a) / rho;
-    if !(-1.0..=1.0).contains(&x) {
+    if !(x >= -S::ONE && x <= S::ONE) {
         return None;
     }
     let mu = atan2(c, b);
@@ -99,7 +101,7 @@ fn roots([a, b, c]: [f64; 3], e: f64) -> Option<[f64; 2]> {
 /// The coefficients of `x · v(m) = A + B cos m + C sin m`, where `v(m) = (R1(m) R2 R3)ᵀ y` for
 /// a base-frame direction `y`, `u = R2 R3 x` and `h1` axis 1 (Rodrigues):
 /// `A = (u·h1)(y·h1)`, `B = u·y − A`, `C = −h1·(y × u)`.
-fn coefficients(h1: &[f64; 3], u: &[f64; 3], y: &[f64; 3]) -> [f64; 3] {
+fn coefficients<S: Scalar>(h1: &[S; 3], u: &[S; 3], y: &[S; 3]) -> [S; 3] {
     let a = dot(u, h1) * dot(y, h1);
     [a, dot(u, y) - a, -dot(h1, &cross(y, u))]
 }
@@ -115,32 +117,32 @@ fn coefficients(h1: &[f64; 3], u: &[f64; 3], y: &[f64; 3]) -> [f64; 3] {
 /// joint 6 at `L` puts `R456ᵀ h4` on the cone about `R6(L)ᵀ h5`, i.e.
 /// `u · R1(m)ᵀ (G R6(L)ᵀ h5) = h4 · h5` with `u = R2 R3 h4`. Each is
 /// `A + B cos m + C sin m = e`, with up to two roots.
-fn joint_1_tries(
-    joints: &[Joint; JOINTS],
-    to_base: &dyn Fn(&[f64; 3]) -> [f64; 3],
-    m2: f64,
-    m3: f64,
-    held: f64,
-) -> ([f64; TRIES], usize) {
+fn joint_1_tries<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    to_base: &dyn Fn(&[S; 3]) -> [S; 3],
+    m2: S,
+    m3: S,
+    held: S,
+) -> ([S; TRIES], usize) {
     let e2 = joint_motion(&joints[1], joints[1].joint_value(m2));
     let e3 = joint_motion(&joints[2], joints[2].joint_value(m3));
-    let forward = |x: &[f64; 3]| e2.rotate(&e3.rotate(x));
+    let forward = |x: &[S; 3]| e2.rotate(&e3.rotate(x));
     let h1 = &joints[0].axis;
     let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
     let u4 = forward(h4);
     let g6 = to_base(h6);
-    let mut tries = [f64::NAN; TRIES];
+    let mut tries = [S::NAN; TRIES];
     let mut n = 0;
-    let mut push = |m: f64, tries: &mut [f64; TRIES]| {
+    let mut push = |m: S, tries: &mut [S; TRIES]| {
         if let Some(slot) = tries.get_mut(n) {
             *slot = m;
             n += 1;
         }
     };
-    let mut both_sides = |r: Option<[f64; 2]>, tries: &mut [f64; TRIES]| {
+    let mut both_sides = |r: Option<[S; 2]>, tries: &mut [S; TRIES]| {
         for m in r.into_iter().flatten() {
-            push(m + INSIDE, tries);
-            push(m - INSIDE, tries);
+            push(m + inside(), tries);
+            push(m - inside(), tries);
         }
     };
     if let Some([k_lo, k_hi]) = joint_5_interval(joints) {
@@ -163,11 +165,11 @@ fn joint_1_tries(
         }
     }
     if let Some([lo, hi]) = model_range(&joints[0]) {
-        push(lo + INSIDE, &mut tries);
-        push(hi - INSIDE, &mut tries);
+        push(lo + inside(), &mut tries);
+        push(hi - inside(), &mut tries);
     }
     // Nearest `held` first (insertion sort of at most TRIES values).
-    let distance = |m: f64| abs(wrap(m - held, 0.0));
+    let distance = |m: S| abs(wrap(m - held, S::ZERO));
     for i in 1..n {
         let mut j = i;
         while j > 0 && distance(tries[j]) < distance(tries[j - 1]) {
@@ -179,7 +181,11 @@ fn joint_1_tries(
 }
 
 /// True when a candidate passes its checks but some joint is outside its limits.
-fn outside_limits(joints: &[Joint; JOINTS], settings: &Settings, c: &Candidate) -> bool {
+fn outside_limits<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    c: &Candidate<S>,
+) -> bool {
     super::finish_one(joints, settings, c, &super::centers(joints)).is_err()
 }
 
@@ -190,21 +196,21 @@ fn outside_limits(joints: &[Joint; JOINTS], settings: &Settings, c: &Candidate) 
 ///
 /// A rare path: it does nothing unless a candidate is on axis 1 and outside the limits.
 #[inline(never)]
-pub fn free_joint_1(
-    joints: &[Joint; JOINTS],
-    frames: [&Pose; 2],
-    settings: &Settings,
-    target: &Pose,
-    reference: &[f64; 4],
-    candidates: &mut [Candidate],
-    mut rerun: impl FnMut(&[f64; 4], usize) -> Option<Candidate>,
+pub fn free_joint_1<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    frames: [&Pose<S>; 2],
+    settings: &Settings<S>,
+    target: &Pose<S>,
+    reference: &[S; 4],
+    candidates: &mut [Candidate<S>],
+    mut rerun: impl FnMut(&[S; 4], usize) -> Option<Candidate<S>>,
 ) {
     if joints[0].kind != JointKind::Revolute {
         return;
     }
     let [base, tool] = frames;
     // rot(B⁻¹ T M⁻¹): where the target sends a direction of the arm at zero, base frame.
-    let to_base = |x: &[f64; 3]| base.rotate_back(&target.rotate(&tool.rotate_back(x)));
+    let to_base = |x: &[S; 3]| base.rotate_back(&target.rotate(&tool.rotate_back(x)));
     let held_reference = atan2(reference[1], reference[0]);
     for (i, c) in candidates.iter_mut().enumerate() {
         if !c.on_axis_1 || !outside_limits(joints, settings, c) {
@@ -214,7 +220,7 @@ pub fn free_joint_1(
         let (tries, n) =
             joint_1_tries(joints, &to_base, c.model_values[1], c.model_values[2], held);
         for &m1 in tries.iter().take(n) {
-            if !model_range(&joints[0]).map_or(true, |r| within(m1, r, 0.0)) {
+            if !model_range(&joints[0]).map_or(true, |r| within(m1, r, S::ZERO)) {
                 continue;
             }
             // The candidate's joint 1 is the reference or a fixed turn from it (half a turn
@@ -303,6 +309,6 @@ mod tests {
         assert!((deg(tries[0]) - 50.0).abs() < 1e-6, "{}", deg(tries[0]));
         assert!((deg(tries[1]) - 50.0).abs() < 1e-6, "{}", deg(tries[1]));
         assert!((deg(tries[2]) + 70.0).abs() < 1e-6, "{}", deg(tries[2]));
-        assert!((wrap(tries[0] - tries[1], 0.0).abs() - 2.0 * INSIDE).abs() < 1e-12);
+        assert!((wrap(tries[0] - tries[1], 0.0).abs() - 2.0 * inside::<f64>()).abs() < 1e-12);
     }
 }

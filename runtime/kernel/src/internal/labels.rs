@@ -3,33 +3,33 @@
 //! which every solver's `branch_of` applies and `solve`'s labels agree with.
 
 use crate::fk::joint_motion;
-use crate::math::{cross, dot, sin_cos, sub};
+use crate::math::{cross, dot, sin_cos, sub, tolerance, Growth, Scalar};
 use crate::model::Joint;
 use crate::solution::{Branch, Elbow, Shoulder, Wrist, JOINTS};
 
 /// How the shoulder label is read from joint values.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub enum ShoulderRule {
+pub enum ShoulderRule<S: Scalar = f64> {
     /// Elbow and polar arms: the sign of `normal · (E2 E3 c − point)`; `Facing` when it
     /// equals `facing` (`±1`; zero counts as positive).
     Plane {
         /// `h1 × h2`.
-        normal: [f64; 3],
+        normal: [S; 3],
         /// A point on axis 1.
-        point: [f64; 3],
+        point: [S; 3],
         /// The wrist center at zero.
-        wrist_center: [f64; 3],
+        wrist_center: [S; 3],
         /// The sign that means `Facing`.
-        facing: f64,
+        facing: S,
     },
     /// Cylindrical arms: the sign of `direction · (E2 E3 c − point)`; `Facing` when `≥ 0`.
     Radial {
         /// The radial direction of the solved slide, ⟂ axis 1.
-        direction: [f64; 3],
+        direction: [S; 3],
         /// The point of the slide's line nearest axis 1 at zero, shifted by the slides.
-        point: [f64; 3],
+        point: [S; 3],
         /// The wrist center at zero.
-        wrist_center: [f64; 3],
+        wrist_center: [S; 3],
     },
     /// No shoulder choice.
     Only,
@@ -37,22 +37,22 @@ pub enum ShoulderRule {
 
 /// How the elbow label is read from joint values.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub enum ElbowRule {
+pub enum ElbowRule<S: Scalar = f64> {
     /// Elbow arms: bend `= sign sin(sense · θ3 − stretched)` (θ3 the model value); `Up` when
     /// bend × (+1 facing, −1 across) equals `up`.
     Bend {
         /// `±1`: axis 3's direction relative to axis 2.
-        sense: f64,
+        sense: S,
         /// The angle of the stretched configuration about axis 2.
-        stretched: f64,
+        stretched: S,
         /// The sign that means `Up` with the shoulder `Facing`.
-        up: f64,
+        up: S,
     },
     /// Polar arms: `Extended` when the slide's model value is at least `nearest` (the value at
     /// the nearest approach to axis 2).
     Slide {
         /// The slide value of the nearest approach.
-        nearest: f64,
+        nearest: S,
     },
     /// No elbow choice.
     Only,
@@ -60,24 +60,24 @@ pub enum ElbowRule {
 
 /// How the wrist label is read from joint values.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct WristRule {
+pub struct WristRule<S: Scalar = f64> {
     /// `h4 × h5` at zero.
-    pub normal: [f64; 3],
+    pub normal: [S; 3],
     /// `h5` at zero.
-    pub axis5: [f64; 3],
+    pub axis5: [S; 3],
     /// `h6` at zero.
-    pub axis6: [f64; 3],
+    pub axis6: [S; 3],
 }
 
 /// The rules that read a branch label from joint values.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct BranchRule {
+pub struct BranchRule<S: Scalar = f64> {
     /// Shoulder rule.
-    pub shoulder: ShoulderRule,
+    pub shoulder: ShoulderRule<S>,
     /// Elbow rule.
-    pub elbow: ElbowRule,
+    pub elbow: ElbowRule<S>,
     /// Wrist rule.
-    pub wrist: WristRule,
+    pub wrist: WristRule<S>,
     /// The rules read the arm backwards: for an arm whose axes 1–3 meet (the wrist at the
     /// base), they are the rules of the mirrored arm, whose joint `i` is joint `7 − i` turning
     /// about the reversed axis (same joint values).
@@ -87,7 +87,10 @@ pub struct BranchRule {
 /// The mirrored arm of [`BranchRule::mirrored`]: joints in reverse order, axes reversed, and
 /// the joint values in reverse order. `E(−h, θ) = E(h, −θ)`, so the mirrored arm's forward
 /// kinematics with the reversed values is the inverse of the arm's joint motions.
-pub fn mirror(joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> ([Joint; JOINTS], [f64; JOINTS]) {
+pub fn mirror<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    q: &[S; JOINTS],
+) -> ([Joint<S>; JOINTS], [S; JOINTS]) {
     let mut mj = *joints;
     let mut mq = *q;
     for i in 0..JOINTS {
@@ -101,30 +104,31 @@ pub fn mirror(joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> ([Joint; JOINTS], 
     (mj, mq)
 }
 
-fn sign(x: f64) -> f64 {
-    if x >= 0.0 {
-        1.0
+fn sign<S: Scalar>(x: S) -> S {
+    if x >= S::ZERO {
+        S::ONE
     } else {
-        -1.0
+        -S::ONE
     }
 }
 
 /// True when `joint` is revolute and its axis passes through `c` (to 1e-12 of the distance
-/// from the axis point, or 1e-12 m): turning the joint leaves `c` where it is.
-fn passes_through(joint: &Joint, c: &[f64; 3]) -> bool {
+/// from the axis point, or 1e-12 m, for `f64`; carried to other scalars by the ratio of the
+/// epsilons): turning the joint leaves `c` where it is.
+fn passes_through<S: Scalar>(joint: &Joint<S>, c: &[S; 3]) -> bool {
     if joint.kind != crate::model::JointKind::Revolute {
         return false;
     }
     let d = sub(c, &joint.point);
     let off = cross(&joint.axis, &d);
-    let scale = dot(&d, &d).max(1.0);
-    dot(&off, &off) <= 1e-24 * scale
+    let scale = dot(&d, &d).max(S::ONE);
+    dot(&off, &off) <= tolerance::<S>(1e-24, Growth::Linear) * scale
 }
 
 /// Rodrigues' rotation of `v` about unit `h` by `angle`.
-fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
+fn rotate<S: Scalar>(h: &[S; 3], angle: S, v: &[S; 3]) -> [S; 3] {
     let (s, c) = sin_cos(angle);
-    let k = dot(h, v) * (1.0 - c);
+    let k = dot(h, v) * (S::ONE - c);
     let hv = cross(h, v);
     [
         c * v[0] + s * hv[0] + k * h[0],
@@ -134,21 +138,32 @@ fn rotate(h: &[f64; 3], angle: f64, v: &[f64; 3]) -> [f64; 3] {
 }
 
 /// The branch label of a configuration, read by the arm's rules.
-pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS]) -> Branch {
+pub fn branch_of<S: Scalar>(
+    rule: &BranchRule<S>,
+    joints: &[Joint<S>; JOINTS],
+    q: &[S; JOINTS],
+) -> Branch {
     if rule.mirrored {
         let (mj, mq) = mirror(joints, q);
-        let forward = BranchRule {
-            mirrored: false,
-            ..*rule
-        };
-        return branch_of(&forward, &mj, &mq);
+        branch_read_forward(rule, &mj, &mq)
+    } else {
+        branch_read_forward(rule, joints, q)
     }
+}
+
+/// [`branch_of`] with the rules read forwards (no recursion: the mirrored arm is worked out
+/// by the caller).
+fn branch_read_forward<S: Scalar>(
+    rule: &BranchRule<S>,
+    joints: &[Joint<S>; JOINTS],
+    q: &[S; JOINTS],
+) -> Branch {
     // The point joints 2–6 carry (a wrist center is fixed by joints 4–6; the meeting point of
     // axes 5 and 6 of a three-parallel arm is moved by joint 4).
     // Trailing revolute joints whose axes pass through the point at zero leave it in place
     // (the wrist joints of a spherical wrist): only the joints before them move it. Which
     // joints those are depends on the arm alone, never on `q`.
-    let moved_center = |c: &[f64; 3]| {
+    let moved_center = |c: &[S; 3]| {
         let mut w = *c;
         let mut fixed = true;
         for i in (1..JOINTS).rev() {
@@ -179,7 +194,7 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
             wrist_center,
         } => {
             let w = moved_center(&wrist_center);
-            if dot(&direction, &sub(&w, &point)) >= 0.0 {
+            if dot(&direction, &sub(&w, &point)) >= S::ZERO {
                 Shoulder::Facing
             } else {
                 Shoulder::Across
@@ -196,9 +211,9 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
             let theta3 = joints[2].model_value(q[2]);
             let bend = sign(crate::math::sin(sense * theta3 - stretched));
             let side = if shoulder == Shoulder::Across {
-                -1.0
+                -S::ONE
             } else {
-                1.0
+                S::ONE
             };
             if bend * side == up {
                 Elbow::Up
@@ -218,7 +233,7 @@ pub fn branch_of(rule: &BranchRule, joints: &[Joint; JOINTS], q: &[f64; JOINTS])
     let theta5 = joints[4].model_value(q[4]);
     let w = &rule.wrist;
     let turned = rotate(&w.axis5, theta5, &w.axis6);
-    let wrist = if dot(&w.normal, &turned) >= 0.0 {
+    let wrist = if dot(&w.normal, &turned) >= S::ZERO {
         Wrist::Leading
     } else {
         Wrist::Trailing

@@ -23,7 +23,7 @@ pub use finish::*;
 pub use free::*;
 pub use labels::*;
 
-use core::f64::consts::{PI, TAU};
+use core::f64::consts::PI;
 
 use crate::math::{abs, cross, dot, rotation_tolerance, round, sin_cos, Scalar};
 use crate::model::Joint;
@@ -47,33 +47,33 @@ pub enum CheckKind {
 
 /// A condition for a candidate to be a real solution.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Check {
+pub struct Check<S: Scalar = f64> {
     /// What is checked.
     pub kind: CheckKind,
     /// The squared quantity (see [`CheckKind`]).
-    pub have_squared: f64,
+    pub have_squared: S,
     /// Its limit (metres, not squared).
-    pub limit: f64,
+    pub limit: S,
 }
 
-impl Check {
+impl<S: Scalar> Check<S> {
     /// An unused check.
-    pub const NONE: Check = Check {
+    pub const NONE: Check<S> = Check {
         kind: CheckKind::None,
-        have_squared: 0.0,
-        limit: 0.0,
+        have_squared: S::ZERO,
+        limit: S::ZERO,
     };
 }
 
 /// One candidate solution straight out of the closed-form steps, in model values.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Candidate {
+pub struct Candidate<S: Scalar = f64> {
     /// Model values (radians or metres) of the six joints.
-    pub model_values: [f64; JOINTS],
+    pub model_values: [S; JOINTS],
     /// The branch the candidate belongs to.
     pub branch: Branch,
     /// Conditions for the candidate to be real.
-    pub checks: [Check; 4],
+    pub checks: [Check<S>; 4],
     /// Joint 5 at the aligned position (joint 4 taken from the reference).
     pub wrist_aligned: bool,
     /// The wrist center on axis 1 (joint 1 taken from the reference).
@@ -82,18 +82,18 @@ pub struct Candidate {
 
 /// Tolerances of one arm's solver.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Settings {
+pub struct Settings<S: Scalar = f64> {
     /// A target this close to a reach boundary (metres) counts as on it.
-    pub length_tolerance: f64,
+    pub length_tolerance: S,
     /// A wrist cone gap this small (radians, squared sine) counts as closed.
-    pub angle_tolerance: f64,
+    pub angle_tolerance: S,
     /// Joint values this far beyond a limit (radians or metres) still count as within it.
-    pub limit_tolerance: f64,
+    pub limit_tolerance: S,
     /// Two solutions closer than this in every joint are one.
-    pub duplicate_tolerance: f64,
+    pub duplicate_tolerance: S,
     /// `h4 · h5` and `h5 · h6`: the wrist's twist cosines, to say by how much an orientation
     /// misses what the wrist reaches.
-    pub wrist_twist_cosines: [f64; 2],
+    pub wrist_twist_cosines: [S; 2],
 }
 
 /// Checks that a target pose is finite with a proper orthonormal rotation (within
@@ -126,40 +126,45 @@ pub fn check_pose<S: Scalar>(target: &Pose<S>) -> Result<(), Unreachable<S>> {
 
 /// The plan's reference inputs for the current joint values: cosine and sine of the model
 /// values of joints 1 and 4 (a non-finite value counts as zero).
-pub fn reference(joints: &[Joint; JOINTS], current: &[f64; JOINTS]) -> [f64; 4] {
+pub fn reference<S: Scalar>(joints: &[Joint<S>; JOINTS], current: &[S; JOINTS]) -> [S; 4] {
     reference_of(joints, current, [0, 3])
 }
 
 /// The plan's reference inputs for the current joint values when the free joints are `free`
 /// (0-based): joints 1 and 4 for an arm that decouples at its wrist, others for families that
 /// hold other joints at their singularities (a non-finite value counts as zero).
-pub fn reference_of(
-    joints: &[Joint; JOINTS],
-    current: &[f64; JOINTS],
+pub fn reference_of<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    current: &[S; JOINTS],
     free: [usize; 2],
-) -> [f64; 4] {
+) -> [S; 4] {
     let model = |i: usize| {
         let i = i.min(JOINTS - 1);
-        let q = current[i];
-        joints[i].model_value(if q.is_finite() { q } else { 0.0 })
+        match (current.get(i), joints.get(i)) {
+            (Some(&q), Some(joint)) => joint.model_value(if q.is_finite() { q } else { S::ZERO }),
+            _ => S::ZERO,
+        }
     };
     let (s1, c1) = sin_cos(model(free[0]));
     let (s4, c4) = sin_cos(model(free[1]));
     [c1, s1, c4, s4]
 }
 
-/// `1 / 2π`.
-pub(crate) const INV_TAU: f64 = 1.0 / TAU;
-
-/// `1.5 · 2^52`: adding and subtracting it rounds a double of magnitude below `2^51` to the
-/// nearest whole number (ties to even) with two additions, no call and no branch.
-const ROUNDER: f64 = 6_755_399_441_055_744.0;
-
-/// `x` rounded to a whole number, branch-free (falls back to `round` beyond `2^51`).
+/// `1 / 2π` in the scalar `S`.
 #[inline(always)]
-pub(crate) fn round_fast(x: f64) -> f64 {
-    if abs(x) < 2_251_799_813_685_248.0 {
-        (x + ROUNDER) - ROUNDER
+pub(crate) fn inv_tau<S: Scalar>() -> S {
+    S::of(1.0 / core::f64::consts::TAU)
+}
+
+/// `x` rounded to a whole number, branch-free: adding and subtracting `1.5 / ε` (`1.5 · 2^52`
+/// for `f64`, `1.5 · 2^23` for `f32`) rounds a value of magnitude below `0.5 / ε` to the
+/// nearest whole number (ties to even) with two additions, no call and no branch; larger
+/// values fall back to `round`.
+#[inline(always)]
+pub(crate) fn round_fast<S: Scalar>(x: S) -> S {
+    let rounder = S::of(1.5) / S::EPSILON;
+    if abs(x) < S::of(0.5) / S::EPSILON {
+        (x + rounder) - rounder
     } else {
         round(x)
     }
@@ -167,8 +172,8 @@ pub(crate) fn round_fast(x: f64) -> f64 {
 
 /// `x` wrapped by whole turns into `[center − π, center + π]`, without data-dependent branches.
 #[inline]
-pub fn wrap(x: f64, center: f64) -> f64 {
-    x - TAU * round_fast((x - center) * INV_TAU)
+pub fn wrap<S: Scalar>(x: S, center: S) -> S {
+    x - S::TAU * round_fast((x - center) * inv_tau())
 }
 
 /// Half a turn, for emitted code that adds it to a model value.
@@ -180,11 +185,14 @@ mod tests {
 
     #[test]
     fn wrap_lands_within_half_a_turn_of_the_center() {
+        use core::f64::consts::TAU;
         for k in -5..=5 {
             let x = 0.3 + TAU * k as f64;
             assert!((wrap(x, 0.0) - 0.3).abs() < 1e-12);
         }
         assert!((wrap(3.0 * PI / 2.0, 0.0) + PI / 2.0).abs() < 1e-12);
+        let x = 0.3f32 + 3.0 * core::f32::consts::TAU;
+        assert!((wrap(x, 0.0f32) - 0.3).abs() < 1e-5);
     }
 
     #[test]

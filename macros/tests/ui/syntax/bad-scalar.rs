@@ -1,0 +1,3 @@
+armforge_macros::solver!(mod a = "fixtures/a.toml", scalar = f16;);
+
+fn main() {}

@@ -1,0 +1,207 @@
+//! Round trip of the single-precision solvers (`solver!(…, scalar = f32)`) of every example
+//! arm: random configurations within the limits → forward kinematics in `f64` by the
+//! independent reference (`armforge_tests::ReferenceArm`: the description read with the `toml`
+//! crate, forward kinematics from the textbook definitions with `nalgebra`; Spong, Hutchinson &
+//! Vidyasagar 2006, eq. 3.10; Craig 2005, eq. 3.6) → the pose rounded to `f32` → `solve`.
+//!
+//! Checks per configuration: every solution reproduces the pose (checked in `f64` by the
+//! reference) within [`POSITION_BOUND`] of the arm's size and [`ROTATION_BOUND`] (Frobenius
+//! norm of the rotation difference), and the original configuration is among the solutions
+//! within [`JOINT_BOUND`] (modulo full turns where the range is at most one turn). The
+//! measured errors are printed per arm (README, "Single precision").
+//!
+//! Samples per arm: 10,000 in release builds and 1,000 in debug builds, times
+//! `ARMFORGE_SCALE`.
+
+use std::f64::consts::TAU;
+
+use armforge_compiler::classify::Tolerances;
+use armforge_compiler::pipeline::generate_module;
+use armforge_runtime::{JointKind, Pose, JOINTS};
+use armforge_tests::emitted::{EmittedArm, EMITTED_ARMS_F32};
+use armforge_tests::{sample_count, ReferenceArm};
+use nalgebra::Isometry3;
+use rand::rngs::StdRng;
+use rand::SeedableRng;
+
+/// Largest position error of an `f32` solution, relative to the arm's size. `f32` carries
+/// 24 significant bits (ε ≈ 1.2e-7, IEEE 754); a solve is some twenty dependent operations, so
+/// errors of a few hundred ε are expected away from singular poses.
+const POSITION_BOUND: f64 = 1e-5;
+/// Largest rotation error (Frobenius norm of the difference) of an `f32` solution.
+const ROTATION_BOUND: f64 = 1e-4;
+/// Largest joint error (radians or metres) of the recovered original configuration.
+const JOINT_BOUND: f64 = 2e-2;
+
+fn samples() -> usize {
+    sample_count(if cfg!(debug_assertions) {
+        1_000
+    } else {
+        10_000
+    })
+}
+
+fn joint_gap(joint: &armforge_runtime::Joint, a: f64, b: f64) -> f64 {
+    let d = a - b;
+    let [lo, hi] = joint.limits;
+    if joint.kind == JointKind::Revolute && hi - lo <= TAU + 1e-9 {
+        (d - TAU * (d / TAU).round()).abs()
+    } else {
+        d.abs()
+    }
+}
+
+/// Sine of the angle between two unit vectors.
+fn sine(a: &[f64; 3], b: &[f64; 3]) -> f64 {
+    let c = armforge_runtime::math::cross(a, b);
+    armforge_runtime::math::norm(&c)
+}
+
+/// True when `q` is within [`NEAR_SINGULAR`] of a wrist alignment (axes 4 and 6 parallel, or
+/// axes 1 and 3 for an arm whose wrist is at the base) or its wrist center (where axes 4 and
+/// 5 meet, or 2 and 3) within [`NEAR_SINGULAR`] × size of axis 1 (or 6): there one joint of a
+/// pair is free to trade with the other, so the original is recovered only up to that trade
+/// (the pose is still checked).
+fn near_singular(table: &[armforge_runtime::Joint; JOINTS], q: &[f64], size: f64) -> bool {
+    let mut frames = [Pose::IDENTITY; JOINTS];
+    let mut m = Pose::IDENTITY;
+    for i in 0..JOINTS {
+        frames[i] = m;
+        m = m.compose(&armforge_runtime::joint_motion(&table[i], q[i]));
+    }
+    let axis = |i: usize| frames[i].rotate(&table[i].axis);
+    let point = |i: usize| frames[i].transform_point(&table[i].point);
+    let off_line = |p: [f64; 3], i: usize| {
+        let d = armforge_runtime::math::sub(&p, &point(i));
+        sine(&axis(i), &d) * armforge_runtime::math::norm(&d)
+    };
+    sine(&axis(3), &axis(5)) < NEAR_SINGULAR
+        || sine(&axis(0), &axis(2)) < NEAR_SINGULAR
+        || off_line(point(4), 0) < NEAR_SINGULAR * size
+        || off_line(point(1), 5) < NEAR_SINGULAR * size
+}
+
+/// How close to a singular configuration (sine of an angle, or relative distance) the
+/// original's recovery is not asserted.
+const NEAR_SINGULAR: f64 = 1e-3;
+
+fn pose_f32(iso: &Isometry3<f64>) -> Pose<f32> {
+    let r = iso.rotation.to_rotation_matrix();
+    let mut rotation = [[0.0f32; 3]; 3];
+    for (i, row) in rotation.iter_mut().enumerate() {
+        for (j, x) in row.iter_mut().enumerate() {
+            *x = r[(i, j)] as f32;
+        }
+    }
+    let t = iso.translation.vector;
+    Pose {
+        rotation,
+        translation: [t.x as f32, t.y as f32, t.z as f32],
+    }
+}
+
+/// Errors of one arm: every solution's (position ÷ size, rotation), sorted by position.
+#[derive(Default)]
+struct Errors {
+    position: Vec<f64>,
+    rotation: Vec<f64>,
+    joint: Vec<f64>,
+    /// The worst position error among solutions flagged singular or at a boundary.
+    flagged_position: f64,
+    /// Configurations near a singularity (recovery not asserted) and their worst joint error.
+    near_singular: usize,
+    near_singular_joint: f64,
+}
+
+fn quantile(values: &mut [f64], q: f64) -> f64 {
+    values.sort_by(f64::total_cmp);
+    let i = ((values.len() as f64 - 1.0) * q).round() as usize;
+    values.get(i).copied().unwrap_or(0.0)
+}
+
+fn round_trip(arm: &EmittedArm<f32>, count: usize, seed: u64) -> Errors {
+    let generated = generate_module(&arm.file(), arm.path, &Tolerances::default())
+        .unwrap_or_else(|e| panic!("{e}"));
+    let mut table = [generated.plan.arm.joints[0]; JOINTS];
+    table.copy_from_slice(&generated.plan.arm.joints);
+    let size = generated.plan.arm.scale;
+    let reference = ReferenceArm::load(&arm.file());
+    let mut rng = StdRng::seed_from_u64(seed);
+    let mut errors = Errors::default();
+    for _ in 0..count {
+        let q = reference.random_within(&table, &mut rng);
+        let target_iso = reference.forward(&q);
+        let target = pose_f32(&target_iso);
+        let solutions = (arm.solve)(&target)
+            .unwrap_or_else(|reason| panic!("{}: no solution for {q:?}: {reason}", arm.path));
+        let mut nearest = f64::INFINITY;
+        for s in &solutions {
+            let joints = s.joints.map(f64::from);
+            let got = reference.forward(&joints);
+            let dp = (got.translation.vector - target_iso.translation.vector).norm() / size;
+            let dr = (got.rotation.to_rotation_matrix().matrix()
+                - target_iso.rotation.to_rotation_matrix().matrix())
+            .norm();
+            assert!(
+                dp < POSITION_BOUND && dr < ROTATION_BOUND,
+                "{}: solution {s:?} of {q:?} misses the pose by {dp:e} (position ÷ size), \
+                 {dr:e} (rotation)",
+                arm.path
+            );
+            errors.position.push(dp);
+            errors.rotation.push(dr);
+            if s.flags.is_singular() {
+                errors.flagged_position = errors.flagged_position.max(dp);
+            }
+            let gap = (0..JOINTS)
+                .map(|i| joint_gap(&table[i], joints[i], q[i]))
+                .fold(0.0, f64::max);
+            nearest = nearest.min(gap);
+        }
+        if near_singular(&table, &q, size) {
+            errors.near_singular += 1;
+            errors.near_singular_joint = errors.near_singular_joint.max(nearest);
+            continue;
+        }
+        assert!(
+            nearest < JOINT_BOUND,
+            "{}: the original {q:?} is not among {solutions:#?} (nearest by {nearest:e})",
+            arm.path
+        );
+        errors.joint.push(nearest);
+    }
+    errors
+}
+
+#[test]
+fn every_example_arm_round_trips_in_single_precision() {
+    let count = samples();
+    assert_eq!(
+        EMITTED_ARMS_F32.len(),
+        armforge_tests::example_arm_paths().len()
+    );
+    for (k, arm) in EMITTED_ARMS_F32.iter().enumerate() {
+        let mut e = round_trip(arm, count, 0xf32 + k as u64);
+        assert_eq!(e.joint.len() + e.near_singular, count);
+        println!(
+            "{}: {} poses, {} solutions; position ÷ size median {:.1e}, 99.9% {:.1e}, worst \
+             {:.1e} (flagged {:.1e}); rotation median {:.1e}, 99.9% {:.1e}, worst {:.1e}; \
+             original recovered to median {:.1e}, worst {:.1e}; {} near a singularity \
+             (joint error up to {:.1e})",
+            arm.path,
+            count,
+            e.position.len(),
+            quantile(&mut e.position, 0.5),
+            quantile(&mut e.position, 0.999),
+            quantile(&mut e.position, 1.0),
+            e.flagged_position,
+            quantile(&mut e.rotation, 0.5),
+            quantile(&mut e.rotation, 0.999),
+            quantile(&mut e.rotation, 1.0),
+            quantile(&mut e.joint, 0.5),
+            quantile(&mut e.joint, 1.0),
+            e.near_singular,
+            e.near_singular_joint,
+        );
+    }
+}
