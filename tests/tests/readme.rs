@@ -48,6 +48,27 @@ fn the_readme_macro_example_is_the_compiled_one() {
 }
 
 #[test]
+fn every_arm_file_the_readme_names_exists() {
+    let readme = readme();
+    let mut named = 0;
+    for (i, _) in readme.match_indices("arms/") {
+        let rest = &readme[i..];
+        let end = rest.find(".toml").map(|e| e + ".toml".len());
+        let Some(end) = end.filter(|&e| !rest[..e].contains(char::is_whitespace)) else {
+            continue;
+        };
+        let path = workspace_root().join(&rest[..end]);
+        assert!(
+            path.is_file(),
+            "README.md names {}, which does not exist",
+            &rest[..end]
+        );
+        named += 1;
+    }
+    assert!(named >= 3, "README.md names the example arms");
+}
+
+#[test]
 fn the_readme_command_table_lists_the_options_people_reach_for() {
     let readme = readme();
     for option in [
