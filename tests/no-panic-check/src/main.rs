@@ -6,14 +6,11 @@
 //! every path to a panic from a wrapped function, linking this binary fails with an error
 //! naming it. The proof holds for release builds, where the solvers run in firmware.
 //!
-//! **Status: does not link yet, so CI does not build it.** Build it alone:
-//! `cargo rustc --release --manifest-path tests/no-panic-check/Cargo.toml -- -C
-//! codegen-units=1`. `forward` and `branch_of` pass (f64 and f32). `solve`, `solve_branch` and
-//! `solve_near` are still reported: no call to a panic function remains in the generated code
-//! (the bounds check in `free_joint_1`'s sort was removed), but the wrappers keep a landing
-//! pad, so some callee is not inferred `nounwind` (suspects: the recursive `solve` of far
-//! targets, the `rerun` closure of `free_joint_1`). With 16 codegen units `forward` and
-//! `branch_of` fail too (calls across units are assumed to unwind).
+//! CI runs `cargo run --release -p armforge-no-panic-check`; the workspace builds this crate
+//! in one codegen unit (`[profile.release.package.armforge-no-panic-check]`), since across
+//! units the optimizer must assume a call can unwind. What made the solve paths fail before:
+//! a bounds check in `free_joint_1`'s sort (now fixed loop bounds) and its `&dyn Fn`
+//! argument (an indirect call may unwind; now a generic `impl Fn`).
 
 use armforge_runtime::{Branch, Pose, Solution, Unreachable};
 use no_panic::no_panic;

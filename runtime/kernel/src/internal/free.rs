@@ -119,7 +119,7 @@ fn coefficients<S: Scalar>(h1: &[S; 3], u: &[S; 3], y: &[S; 3]) -> [S; 3] {
 /// `A + B cos m + C sin m = e`, with up to two roots.
 fn joint_1_tries<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
-    to_base: &dyn Fn(&[S; 3]) -> [S; 3],
+    to_base: &impl Fn(&[S; 3]) -> [S; 3],
     m2: S,
     m3: S,
     held: S,
