@@ -137,4 +137,30 @@ fn main() {
     ];
     let _ = b;
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");
+    // The footprint README reports: bytes of a solution set and of one solution.
+    use core::mem::size_of;
+    for (name, set, one) in [
+        (
+            "bench f64",
+            size_of::<bench::Solutions>(),
+            size_of::<Solution<f64>>(),
+        ),
+        (
+            "bench f32",
+            size_of::<bench_f32::Solutions>(),
+            size_of::<Solution<f32>>(),
+        ),
+        (
+            "hotel f64",
+            size_of::<hotel::Solutions>(),
+            size_of::<Solution<f64>>(),
+        ),
+        (
+            "hotel f32",
+            size_of::<hotel_f32::Solutions>(),
+            size_of::<Solution<f32>>(),
+        ),
+    ] {
+        println!("{name}: solution set {set} bytes, one solution {one} bytes");
+    }
 }
