@@ -119,7 +119,7 @@ fn coefficients<S: Scalar>(h1: &[S; 3], u: &[S; 3], y: &[S; 3]) -> [S; 3] {
 /// `A + B cos m + C sin m = e`, with up to two roots.
 fn joint_1_tries<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
-    to_base: &dyn Fn(&[S; 3]) -> [S; 3],
+    to_base: &impl Fn(&[S; 3]) -> [S; 3],
     m2: S,
     m3: S,
     held: S,
@@ -168,13 +168,19 @@ fn joint_1_tries<S: Scalar>(
         push(lo + inside(), &mut tries);
         push(hi - inside(), &mut tries);
     }
-    // Nearest `held` first (insertion sort of at most TRIES values).
-    let distance = |m: S| abs(wrap(m - held, S::ZERO));
-    for i in 1..n {
-        let mut j = i;
-        while j > 0 && distance(tries[j]) < distance(tries[j - 1]) {
-            tries.swap(j, j - 1);
-            j -= 1;
+    // Nearest `held` first: a bubble sort over all TRIES slots with fixed loop bounds (no
+    // data-dependent loop, every index provably in range, so no panic path). Unused slots
+    // are NaN at the end; a comparison with NaN is false, so they never move forward.
+    let mut distance = [S::NAN; TRIES];
+    for (d, m) in distance.iter_mut().zip(tries.iter()) {
+        *d = abs(wrap(*m - held, S::ZERO));
+    }
+    for pass in 0..TRIES {
+        for j in (pass + 1..TRIES).rev() {
+            if distance[j] < distance[j - 1] {
+                distance.swap(j, j - 1);
+                tries.swap(j, j - 1);
+            }
         }
     }
     (tries, n)
