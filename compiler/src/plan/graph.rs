@@ -143,9 +143,17 @@ impl Graph {
         self.intern(Op::Const(x))
     }
 
-    /// A constant taken exactly as given (thresholds and floors, never snapped).
+    /// A threshold or floor (never snapped to the description's numbers), rounded to three
+    /// significant digits so that a reviewer reads `1e-20`, not `1.0000000000000001e-20`: a
+    /// threshold moved by less than 0.5 % decides the same cases for every practical input.
     pub fn exact(&mut self, x: f64) -> Id {
-        let x = if x == 0.0 { 0.0 } else { x };
+        let x = if x == 0.0 {
+            0.0
+        } else if x.is_finite() {
+            format!("{x:.2e}").parse().unwrap_or(x)
+        } else {
+            x
+        };
         self.intern(Op::Const(x))
     }
 

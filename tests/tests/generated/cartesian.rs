@@ -640,9 +640,9 @@ fn candidates(
         + (0.06865561389509453 * (g6_x * t264 - g6_z * t262)
             - 0.2648443649420179 * (g6_z * t263 - g6_y * t264));
     let t286 = t269 * t269 + t283 * t283;
-    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1.0000000000000001e-40));
+    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t286;
+    let aligned_b1 = 1e-40 - t286;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -718,9 +718,9 @@ fn candidates(
         + (0.06865561389509453 * (g6_x * t412 - g6_z * t410)
             - 0.2648443649420179 * (g6_z * t411 - g6_y * t412));
     let t434 = t417 * t417 + t431 * t431;
-    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1.0000000000000001e-40));
+    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t434;
+    let aligned_b1_2 = 1e-40 - t434;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -973,9 +973,9 @@ fn branch_1(
         + (0.06865561389509453 * (g6_x * t264 - g6_z * t262)
             - 0.2648443649420179 * (g6_z * t263 - g6_y * t264));
     let t286 = t269 * t269 + t283 * t283;
-    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1.0000000000000001e-40));
+    let t291 = 1.0 / ::armforge_runtime::math::sqrt(t286.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t286;
+    let aligned_b1 = 1e-40 - t286;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t269 * t291 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1198,9 +1198,9 @@ fn branch_2(
         + (0.06865561389509453 * (g6_x * t412 - g6_z * t410)
             - 0.2648443649420179 * (g6_z * t411 - g6_y * t412));
     let t434 = t417 * t417 + t431 * t431;
-    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1.0000000000000001e-40));
+    let t437 = 1.0 / ::armforge_runtime::math::sqrt(t434.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t434;
+    let aligned_b1_2 = 1e-40 - t434;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t417 * t437 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)

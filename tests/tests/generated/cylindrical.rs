@@ -631,7 +631,7 @@ fn candidates(
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     let t126 = ::armforge_runtime::math::sqrt(closest2.max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
+    let j1_free = 3.79e-19 - rho2;
     let t130 = 1.5007709975810246 * slide_root;
     let t131 = 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
@@ -816,9 +816,9 @@ fn candidates(
         - 0.12917776692663924 * (v_b1_z * t457 - v_b1_y * t458)
         - 0.9396730670277007 * (v_b1_y * t456 - v_b1_x * t457);
     let t480 = t463 * t463 + t477 * t477;
-    let t484 = 1.0 / ::armforge_runtime::math::sqrt(t480.max(1.0000000000000001e-40));
+    let t484 = 1.0 / ::armforge_runtime::math::sqrt(t480.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t480;
+    let aligned_b1 = 1e-40 - t480;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -895,9 +895,9 @@ fn candidates(
         - 0.12917776692663924 * (v_b1_z * t605 - v_b1_y * t606)
         - 0.9396730670277007 * (v_b1_y * t604 - v_b1_x * t605);
     let t628 = t611 * t611 + t625 * t625;
-    let t631 = 1.0 / ::armforge_runtime::math::sqrt(t628.max(1.0000000000000001e-40));
+    let t631 = 1.0 / ::armforge_runtime::math::sqrt(t628.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t628;
+    let aligned_b1_2 = 1e-40 - t628;
     let t635 = -ref4_cos;
     let t636 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
@@ -1009,9 +1009,9 @@ fn candidates(
         - 0.12917776692663924 * (v_b2_z * t805 - v_b2_y * t806)
         - 0.9396730670277007 * (v_b2_y * t804 - v_b2_x * t805);
     let t828 = t811 * t811 + t825 * t825;
-    let t831 = 1.0 / ::armforge_runtime::math::sqrt(t828.max(1.0000000000000001e-40));
+    let t831 = 1.0 / ::armforge_runtime::math::sqrt(t828.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t828;
+    let aligned_b2 = 1e-40 - t828;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1088,9 +1088,9 @@ fn candidates(
         - 0.12917776692663924 * (v_b2_z * t949 - v_b2_y * t950)
         - 0.9396730670277007 * (v_b2_y * t948 - v_b2_x * t949);
     let t972 = t955 * t955 + t969 * t969;
-    let t975 = 1.0 / ::armforge_runtime::math::sqrt(t972.max(1.0000000000000001e-40));
+    let t975 = 1.0 / ::armforge_runtime::math::sqrt(t972.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t972;
+    let aligned_b2_2 = 1e-40 - t972;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t635 } else { t955 * t975 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1329,7 +1329,7 @@ fn branch_1(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
+    let j1_free = 3.79e-19 - rho2;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_a = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
@@ -1473,9 +1473,9 @@ fn branch_1(
         - 0.12917776692663924 * (v_b1_z * t457 - v_b1_y * t458)
         - 0.9396730670277007 * (v_b1_y * t456 - v_b1_x * t457);
     let t480 = t463 * t463 + t477 * t477;
-    let t484 = 1.0 / ::armforge_runtime::math::sqrt(t480.max(1.0000000000000001e-40));
+    let t484 = 1.0 / ::armforge_runtime::math::sqrt(t480.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t480;
+    let aligned_b1 = 1e-40 - t480;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t463 * t484 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1629,7 +1629,7 @@ fn branch_2(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
+    let j1_free = 3.79e-19 - rho2;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_a = 1.5007709975810246 * slide_root - 2.252313587180344 * dw;
     // (h1·(c_t − c) − -0.553802 s) / 0.712926 (the height equation)
@@ -1778,9 +1778,9 @@ fn branch_2(
         - 0.12917776692663924 * (v_b1_z * t605 - v_b1_y * t606)
         - 0.9396730670277007 * (v_b1_y * t604 - v_b1_x * t605);
     let t628 = t611 * t611 + t625 * t625;
-    let t631 = 1.0 / ::armforge_runtime::math::sqrt(t628.max(1.0000000000000001e-40));
+    let t631 = 1.0 / ::armforge_runtime::math::sqrt(t628.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t628;
+    let aligned_b1_2 = 1e-40 - t628;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t611 * t631 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1929,7 +1929,7 @@ fn branch_3(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
+    let j1_free = 3.79e-19 - rho2;
     let t181 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_b = -t181;
@@ -2074,9 +2074,9 @@ fn branch_3(
         - 0.12917776692663924 * (v_b2_z * t805 - v_b2_y * t806)
         - 0.9396730670277007 * (v_b2_y * t804 - v_b2_x * t805);
     let t828 = t811 * t811 + t825 * t825;
-    let t831 = 1.0 / ::armforge_runtime::math::sqrt(t828.max(1.0000000000000001e-40));
+    let t831 = 1.0 / ::armforge_runtime::math::sqrt(t828.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t828;
+    let aligned_b2 = 1e-40 - t828;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t811 * t831 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2230,7 +2230,7 @@ fn branch_4(
     // √(ρ² − |W⊥D|²) / |D|, |D|² = 0.443988
     let slide_root = ::armforge_runtime::math::sqrt((rho2 - closest2).max(0.0));
     // ≥ 0 when the wrist center is on axis 1
-    let j1_free = 3.7902730645198247e-19 - rho2;
+    let j1_free = 3.79e-19 - rho2;
     let t181 = 1.5007709975810246 * slide_root + 2.252313587180344 * dw;
     // s = (−D·W ± |D| √(ρ² − |W⊥D|²)) / |D|²
     let slide3_b = -t181;
@@ -2380,9 +2380,9 @@ fn branch_4(
         - 0.12917776692663924 * (v_b2_z * t949 - v_b2_y * t950)
         - 0.9396730670277007 * (v_b2_y * t948 - v_b2_x * t949);
     let t972 = t955 * t955 + t969 * t969;
-    let t975 = 1.0 / ::armforge_runtime::math::sqrt(t972.max(1.0000000000000001e-40));
+    let t975 = 1.0 / ::armforge_runtime::math::sqrt(t972.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t972;
+    let aligned_b2_2 = 1e-40 - t972;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t955 * t975 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)

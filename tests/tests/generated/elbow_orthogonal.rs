@@ -731,9 +731,9 @@ fn candidates(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -798,8 +798,7 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t237 = 0.9901136168642846 * j3_cos_psi_a;
@@ -859,8 +858,7 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t352 = 0.9901136168642846 * j3_cos_psi_b;
@@ -1033,9 +1031,9 @@ fn candidates(
                 * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t720 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    let t720 = 1.0 / j5_gap_b1.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    let aligned_b1 = 1e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
@@ -1145,9 +1143,9 @@ fn candidates(
                 * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t916 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    let t916 = 1.0 / j5_gap_b2.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    let aligned_b2 = 1e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
@@ -1285,9 +1283,9 @@ fn candidates(
                 * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1171 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    let t1171 = 1.0 / j5_gap_b3.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    let aligned_b3 = 1e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
@@ -1397,9 +1395,9 @@ fn candidates(
                 * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1362 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    let t1362 = 1.0 / j5_gap_b4.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    let aligned_b4 = 1e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
@@ -1785,9 +1783,9 @@ fn branch_1(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -1838,8 +1836,7 @@ fn branch_1(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -1987,9 +1984,9 @@ fn branch_1(
                 * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t720 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    let t720 = 1.0 / j5_gap_b1.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    let aligned_b1 = 1e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
@@ -2148,9 +2145,9 @@ fn branch_2(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2201,8 +2198,7 @@ fn branch_2(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -2350,9 +2346,9 @@ fn branch_2(
                 * (0.6486710312075331 * z_b1a_z - 0.1830954655425997 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t720 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    let t720 = 1.0 / j5_gap_b1.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    let aligned_b1 = 1e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
@@ -2517,9 +2513,9 @@ fn branch_3(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2570,8 +2566,7 @@ fn branch_3(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t294 = 0.9901136168642846 * j3_cos_psi_a + 0.14026769300136338 * j3_sin_psi_a;
@@ -2718,9 +2713,9 @@ fn branch_3(
                 * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t916 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    let t916 = 1.0 / j5_gap_b2.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    let aligned_b2 = 1e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
@@ -2879,9 +2874,9 @@ fn branch_4(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2932,8 +2927,7 @@ fn branch_4(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_a + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t294 = 0.9901136168642846 * j3_cos_psi_a + 0.14026769300136338 * j3_sin_psi_a;
@@ -3080,9 +3074,9 @@ fn branch_4(
                 * (0.6486710312075331 * z_b2a_z - 0.1830954655425997 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t916 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    let t916 = 1.0 / j5_gap_b2.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    let aligned_b2 = 1e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
@@ -3247,9 +3241,9 @@ fn branch_5(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3300,8 +3294,7 @@ fn branch_5(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -3449,9 +3442,9 @@ fn branch_5(
                 * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1171 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    let t1171 = 1.0 / j5_gap_b3.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    let aligned_b3 = 1e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
@@ -3610,9 +3603,9 @@ fn branch_6(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3663,8 +3656,7 @@ fn branch_6(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -3.000861 rad (stretched)
@@ -3812,9 +3804,9 @@ fn branch_6(
                 * (0.6486710312075331 * z_b3a_z - 0.1830954655425997 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1171 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    let t1171 = 1.0 / j5_gap_b3.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    let aligned_b3 = 1e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
@@ -3979,9 +3971,9 @@ fn branch_7(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4032,8 +4024,7 @@ fn branch_7(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t398 = 0.9901136168642846 * j3_cos_psi_b + 0.14026769300136338 * j3_sin_psi_b;
@@ -4180,9 +4171,9 @@ fn branch_7(
                 * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1362 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    let t1362 = 1.0 / j5_gap_b4.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    let aligned_b4 = 1e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
@@ -4341,9 +4332,9 @@ fn branch_8(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.9858518512535248e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.99e-20);
     // ≥ 0 when r < 1.41e-10 m: θ is free, the reference is used
-    let j1_free = 1.9858518512535248e-20 - j1_r2;
+    let j1_free = 1.99e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4394,8 +4385,7 @@ fn branch_8(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182)
-            .max(1.9858518512535248e-20);
+        / (0.38982214227500456 * j3_cos_psi_b + 0.6700752485449182).max(1.99e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t398 = 0.9901136168642846 * j3_cos_psi_b + 0.14026769300136338 * j3_sin_psi_b;
@@ -4542,9 +4532,9 @@ fn branch_8(
                 * (0.6486710312075331 * z_b4a_z - 0.1830954655425997 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1362 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    let t1362 = 1.0 / j5_gap_b4.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    let aligned_b4 = 1e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos

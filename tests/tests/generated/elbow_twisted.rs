@@ -735,9 +735,9 @@ fn candidates(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -802,8 +802,7 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t238 = 0.3686182725083974 * j3_cos_psi_a;
@@ -866,8 +865,7 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t355 = 0.3686182725083974 * j3_cos_psi_b;
@@ -1069,9 +1067,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b1_z * t741 - v_b1_y * t742)
             + 0.12638968500295295 * (v_b1_x * t742 - v_b1_z * t740));
     let t764 = t747 * t747 + t761 * t761;
-    let t768 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1.0000000000000001e-40));
+    let t768 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t764;
+    let aligned_b1 = 1e-40 - t764;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1146,9 +1144,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b1_z * t888 - v_b1_y * t889)
             + 0.12638968500295295 * (v_b1_x * t889 - v_b1_z * t887));
     let t911 = t894 * t894 + t908 * t908;
-    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1.0000000000000001e-40));
+    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t911;
+    let aligned_b1_2 = 1e-40 - t911;
     let t918 = -ref4_cos;
     let t919 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
@@ -1258,9 +1256,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b2_z * t1087 - v_b2_y * t1088)
             + 0.12638968500295295 * (v_b2_x * t1088 - v_b2_z * t1086));
     let t1110 = t1093 * t1093 + t1107 * t1107;
-    let t1113 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1.0000000000000001e-40));
+    let t1113 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t1110;
+    let aligned_b2 = 1e-40 - t1110;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1335,9 +1333,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b2_z * t1230 - v_b2_y * t1231)
             + 0.12638968500295295 * (v_b2_x * t1231 - v_b2_z * t1229));
     let t1253 = t1236 * t1236 + t1250 * t1250;
-    let t1256 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1.0000000000000001e-40));
+    let t1256 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t1253;
+    let aligned_b2_2 = 1e-40 - t1253;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t918 } else { t1236 * t1256 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1474,9 +1472,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b3_z * t1492 - v_b3_y * t1493)
             + 0.12638968500295295 * (v_b3_x * t1493 - v_b3_z * t1491));
     let t1515 = t1498 * t1498 + t1512 * t1512;
-    let t1518 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1.0000000000000001e-40));
+    let t1518 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-40 - t1515;
+    let aligned_b3 = 1e-40 - t1515;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1551,9 +1549,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b3_z * t1635 - v_b3_y * t1636)
             + 0.12638968500295295 * (v_b3_x * t1636 - v_b3_z * t1634));
     let t1658 = t1641 * t1641 + t1655 * t1655;
-    let t1661 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1.0000000000000001e-40));
+    let t1661 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1.0000000000000001e-40 - t1658;
+    let aligned_b3_2 = 1e-40 - t1658;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t918 } else { t1641 * t1661 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1661,9 +1659,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b4_z * t1832 - v_b4_y * t1833)
             + 0.12638968500295295 * (v_b4_x * t1833 - v_b4_z * t1831));
     let t1855 = t1838 * t1838 + t1852 * t1852;
-    let t1858 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1.0000000000000001e-40));
+    let t1858 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-40 - t1855;
+    let aligned_b4 = 1e-40 - t1855;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1738,9 +1736,9 @@ fn candidates(
         + (0.6804730991015498 * (v_b4_z * t1975 - v_b4_y * t1976)
             + 0.12638968500295295 * (v_b4_x * t1976 - v_b4_z * t1974));
     let t1998 = t1981 * t1981 + t1995 * t1995;
-    let t2001 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1.0000000000000001e-40));
+    let t2001 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1.0000000000000001e-40 - t1998;
+    let aligned_b4_2 = 1e-40 - t1998;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t918 } else { t1981 * t2001 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2131,9 +2129,9 @@ fn branch_1(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2185,8 +2183,7 @@ fn branch_1(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
@@ -2350,9 +2347,9 @@ fn branch_1(
         + (0.6804730991015498 * (v_b1_z * t741 - v_b1_y * t742)
             + 0.12638968500295295 * (v_b1_x * t742 - v_b1_z * t740));
     let t764 = t747 * t747 + t761 * t761;
-    let t768 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1.0000000000000001e-40));
+    let t768 = 1.0 / ::armforge_runtime::math::sqrt(t764.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t764;
+    let aligned_b1 = 1e-40 - t764;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t747 * t768 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2508,9 +2505,9 @@ fn branch_2(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2562,8 +2559,7 @@ fn branch_2(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
@@ -2732,9 +2728,9 @@ fn branch_2(
         + (0.6804730991015498 * (v_b1_z * t888 - v_b1_y * t889)
             + 0.12638968500295295 * (v_b1_x * t889 - v_b1_z * t887));
     let t911 = t894 * t894 + t908 * t908;
-    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1.0000000000000001e-40));
+    let t914 = 1.0 / ::armforge_runtime::math::sqrt(t911.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t911;
+    let aligned_b1_2 = 1e-40 - t911;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t894 * t914 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2885,9 +2881,9 @@ fn branch_3(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2939,8 +2935,7 @@ fn branch_3(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t295 = 0.3686182725083974 * j3_cos_psi_a + 0.9295808567160389 * j3_sin_psi_a;
@@ -3105,9 +3100,9 @@ fn branch_3(
         + (0.6804730991015498 * (v_b2_z * t1087 - v_b2_y * t1088)
             + 0.12638968500295295 * (v_b2_x * t1088 - v_b2_z * t1086));
     let t1110 = t1093 * t1093 + t1107 * t1107;
-    let t1113 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1.0000000000000001e-40));
+    let t1113 = 1.0 / ::armforge_runtime::math::sqrt(t1110.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t1110;
+    let aligned_b2 = 1e-40 - t1110;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1093 * t1113 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -3263,9 +3258,9 @@ fn branch_4(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -3317,8 +3312,7 @@ fn branch_4(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_a + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t295 = 0.3686182725083974 * j3_cos_psi_a + 0.9295808567160389 * j3_sin_psi_a;
@@ -3488,9 +3482,9 @@ fn branch_4(
         + (0.6804730991015498 * (v_b2_z * t1230 - v_b2_y * t1231)
             + 0.12638968500295295 * (v_b2_x * t1231 - v_b2_z * t1229));
     let t1253 = t1236 * t1236 + t1250 * t1250;
-    let t1256 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1.0000000000000001e-40));
+    let t1256 = 1.0 / ::armforge_runtime::math::sqrt(t1253.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t1253;
+    let aligned_b2_2 = 1e-40 - t1253;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1236 * t1256 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -3641,9 +3635,9 @@ fn branch_5(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3695,8 +3689,7 @@ fn branch_5(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
@@ -3860,9 +3853,9 @@ fn branch_5(
         + (0.6804730991015498 * (v_b3_z * t1492 - v_b3_y * t1493)
             + 0.12638968500295295 * (v_b3_x * t1493 - v_b3_z * t1491));
     let t1515 = t1498 * t1498 + t1512 * t1512;
-    let t1518 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1.0000000000000001e-40));
+    let t1518 = 1.0 / ::armforge_runtime::math::sqrt(t1515.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-40 - t1515;
+    let aligned_b3 = 1e-40 - t1515;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1498 * t1518 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -4018,9 +4011,9 @@ fn branch_6(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4072,8 +4065,7 @@ fn branch_6(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = -1.948319 rad (stretched)
@@ -4242,9 +4234,9 @@ fn branch_6(
         + (0.6804730991015498 * (v_b3_z * t1635 - v_b3_y * t1636)
             + 0.12638968500295295 * (v_b3_x * t1636 - v_b3_z * t1634));
     let t1658 = t1641 * t1641 + t1655 * t1655;
-    let t1661 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1.0000000000000001e-40));
+    let t1661 = 1.0 / ::armforge_runtime::math::sqrt(t1658.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1.0000000000000001e-40 - t1658;
+    let aligned_b3_2 = 1e-40 - t1658;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1641 * t1661 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -4395,9 +4387,9 @@ fn branch_7(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4449,8 +4441,7 @@ fn branch_7(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t401 = 0.3686182725083974 * j3_cos_psi_b + 0.9295808567160389 * j3_sin_psi_b;
@@ -4615,9 +4606,9 @@ fn branch_7(
         + (0.6804730991015498 * (v_b4_z * t1832 - v_b4_y * t1833)
             + 0.12638968500295295 * (v_b4_x * t1833 - v_b4_z * t1831));
     let t1855 = t1838 * t1838 + t1852 * t1852;
-    let t1858 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1.0000000000000001e-40));
+    let t1858 = 1.0 / ::armforge_runtime::math::sqrt(t1855.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-40 - t1855;
+    let aligned_b4 = 1e-40 - t1855;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1838 * t1858 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -4773,9 +4764,9 @@ fn branch_8(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(1.2297140543538239e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(1.23e-20);
     // ≥ 0 when r < 1.11e-10 m: θ is free, the reference is used
-    let j1_free = 1.2297140543538239e-20 - j1_r2;
+    let j1_free = 1.23e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4827,8 +4818,7 @@ fn branch_8(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446)
-            .max(1.2297140543538239e-20);
+        / (0.24731276538964378 * j3_cos_psi_b + 0.30660204177019446).max(1.23e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t401 = 0.3686182725083974 * j3_cos_psi_b + 0.9295808567160389 * j3_sin_psi_b;
@@ -4998,9 +4988,9 @@ fn branch_8(
         + (0.6804730991015498 * (v_b4_z * t1975 - v_b4_y * t1976)
             + 0.12638968500295295 * (v_b4_x * t1976 - v_b4_z * t1974));
     let t1998 = t1981 * t1981 + t1995 * t1995;
-    let t2001 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1.0000000000000001e-40));
+    let t2001 = 1.0 / ::armforge_runtime::math::sqrt(t1998.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1.0000000000000001e-40 - t1998;
+    let aligned_b4_2 = 1e-40 - t1998;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1981 * t2001 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)

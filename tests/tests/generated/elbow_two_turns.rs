@@ -738,9 +738,9 @@ fn candidates(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -805,8 +805,7 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     let t239 = 0.4071777476800675 * j3_cos_psi_a;
@@ -873,8 +872,7 @@ fn candidates(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     let t354 = 0.4071777476800675 * j3_cos_psi_b;
@@ -1054,9 +1052,9 @@ fn candidates(
     let j5_sin_b1a = t701 - t700;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    let t725 = 1.0 / j5_gap_b1.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    let aligned_b1 = 1e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
@@ -1167,9 +1165,9 @@ fn candidates(
     let j5_sin_b2a = t898 - t897;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    let t921 = 1.0 / j5_gap_b2.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    let aligned_b2 = 1e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
@@ -1308,9 +1306,9 @@ fn candidates(
     let j5_sin_b3a = t1153 - t1152;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    let t1176 = 1.0 / j5_gap_b3.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    let aligned_b3 = 1e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
@@ -1421,9 +1419,9 @@ fn candidates(
     let j5_sin_b4a = t1344 - t1343;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    let t1367 = 1.0 / j5_gap_b4.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    let aligned_b4 = 1e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
@@ -1813,9 +1811,9 @@ fn branch_1(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -1866,8 +1864,7 @@ fn branch_1(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -2019,9 +2016,9 @@ fn branch_1(
     let j5_sin_b1a = t701 - t700;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    let t725 = 1.0 / j5_gap_b1.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    let aligned_b1 = 1e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
@@ -2184,9 +2181,9 @@ fn branch_2(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2237,8 +2234,7 @@ fn branch_2(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -2390,9 +2386,9 @@ fn branch_2(
     let j5_sin_b1a = t701 - t700;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t725 = 1.0 / j5_gap_b1.max(1.0000000000000001e-20);
+    let t725 = 1.0 / j5_gap_b1.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-20 - j5_gap_b1;
+    let aligned_b1 = 1e-20 - j5_gap_b1;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 {
         ref4_cos
@@ -2561,9 +2557,9 @@ fn branch_3(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2614,8 +2610,7 @@ fn branch_3(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -2767,9 +2762,9 @@ fn branch_3(
     let j5_sin_b2a = t898 - t897;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    let t921 = 1.0 / j5_gap_b2.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    let aligned_b2 = 1e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
@@ -2932,9 +2927,9 @@ fn branch_4(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2985,8 +2980,7 @@ fn branch_4(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_a = 1.0
-        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_a + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_a = ::armforge_runtime::math::atan2(j3_sin_psi_a, j3_cos_psi_a);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -3138,9 +3132,9 @@ fn branch_4(
     let j5_sin_b2a = t898 - t897;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t921 = 1.0 / j5_gap_b2.max(1.0000000000000001e-20);
+    let t921 = 1.0 / j5_gap_b2.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-20 - j5_gap_b2;
+    let aligned_b2 = 1e-20 - j5_gap_b2;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 {
         ref4_cos
@@ -3309,9 +3303,9 @@ fn branch_5(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3362,8 +3356,7 @@ fn branch_5(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -3515,9 +3508,9 @@ fn branch_5(
     let j5_sin_b3a = t1153 - t1152;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    let t1176 = 1.0 / j5_gap_b3.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    let aligned_b3 = 1e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
@@ -3680,9 +3673,9 @@ fn branch_6(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3733,8 +3726,7 @@ fn branch_6(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -3886,9 +3878,9 @@ fn branch_6(
     let j5_sin_b3a = t1153 - t1152;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1176 = 1.0 / j5_gap_b3.max(1.0000000000000001e-20);
+    let t1176 = 1.0 / j5_gap_b3.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-20 - j5_gap_b3;
+    let aligned_b3 = 1e-20 - j5_gap_b3;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 {
         ref4_cos
@@ -4057,9 +4049,9 @@ fn branch_7(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4110,8 +4102,7 @@ fn branch_7(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -4263,9 +4254,9 @@ fn branch_7(
     let j5_sin_b4a = t1344 - t1343;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    let t1367 = 1.0 / j5_gap_b4.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    let aligned_b4 = 1e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos
@@ -4428,9 +4419,9 @@ fn branch_8(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(2.5830917772457932e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(2.58e-20);
     // ≥ 0 when r < 1.61e-10 m: θ is free, the reference is used
-    let j1_free = 2.5830917772457932e-20 - j1_r2;
+    let j1_free = 2.58e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4481,8 +4472,7 @@ fn branch_8(
     );
     // 1 / |L + R3 V|², the squared distance of the point from the first axis
     let j2_inv_b = 1.0
-        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766)
-            .max(2.5830917772457932e-20);
+        / (0.6270580856078369 * j3_cos_psi_b + 0.6411670638136766).max(2.58e-20);
     // ψ = atan2(sin ψ, cos ψ), shared by both bends
     let j3_psi_b = ::armforge_runtime::math::atan2(j3_sin_psi_b, j3_cos_psi_b);
     // cos φ3 = cos(φ0 ± ψ), φ0 = 1.151434 rad (stretched)
@@ -4634,9 +4624,9 @@ fn branch_8(
     let j5_sin_b4a = t1344 - t1343;
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1367 = 1.0 / j5_gap_b4.max(1.0000000000000001e-20);
+    let t1367 = 1.0 / j5_gap_b4.max(1e-20);
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-20 - j5_gap_b4;
+    let aligned_b4 = 1e-20 - j5_gap_b4;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 {
         ref4_cos

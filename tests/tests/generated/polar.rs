@@ -710,9 +710,9 @@ fn candidates(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     let t114 = j1_a * j1_e;
     let t115 = j1_b * j1_e;
     let t116 = j1_b * j1_k;
@@ -770,7 +770,7 @@ fn candidates(
         (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_a = 8.539556986014195e-20 - d2_a;
+    let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_aa = j3_root_a - 0.2750702190093362;
     let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
@@ -824,7 +824,7 @@ fn candidates(
         (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_b = 8.539556986014195e-20 - d2_b;
+    let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ba = j3_root_b - 0.2750702190093362;
     let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
@@ -1025,9 +1025,9 @@ fn candidates(
         - 0.620341126105259 * (v_b1_z * t694 - v_b1_y * t695)
         - 0.14913085300184115 * (v_b1_y * t693 - v_b1_x * t694);
     let t717 = t700 * t700 + t714 * t714;
-    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1.0000000000000001e-40));
+    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t717;
+    let aligned_b1 = 1e-40 - t717;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1104,9 +1104,9 @@ fn candidates(
         - 0.620341126105259 * (v_b1_z * t841 - v_b1_y * t842)
         - 0.14913085300184115 * (v_b1_y * t840 - v_b1_x * t841);
     let t864 = t847 * t847 + t861 * t861;
-    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1.0000000000000001e-40));
+    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t864;
+    let aligned_b1_2 = 1e-40 - t864;
     let t871 = -ref4_cos;
     let t872 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
@@ -1218,9 +1218,9 @@ fn candidates(
         - 0.620341126105259 * (v_b2_z * t1040 - v_b2_y * t1041)
         - 0.14913085300184115 * (v_b2_y * t1039 - v_b2_x * t1040);
     let t1063 = t1046 * t1046 + t1060 * t1060;
-    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1.0000000000000001e-40));
+    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t1063;
+    let aligned_b2 = 1e-40 - t1063;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1297,9 +1297,9 @@ fn candidates(
         - 0.620341126105259 * (v_b2_z * t1183 - v_b2_y * t1184)
         - 0.14913085300184115 * (v_b2_y * t1182 - v_b2_x * t1183);
     let t1206 = t1189 * t1189 + t1203 * t1203;
-    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1.0000000000000001e-40));
+    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t1206;
+    let aligned_b2_2 = 1e-40 - t1206;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t871 } else { t1189 * t1209 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1437,9 +1437,9 @@ fn candidates(
         - 0.620341126105259 * (v_b3_z * t1444 - v_b3_y * t1445)
         - 0.14913085300184115 * (v_b3_y * t1443 - v_b3_x * t1444);
     let t1467 = t1450 * t1450 + t1464 * t1464;
-    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1.0000000000000001e-40));
+    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-40 - t1467;
+    let aligned_b3 = 1e-40 - t1467;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1516,9 +1516,9 @@ fn candidates(
         - 0.620341126105259 * (v_b3_z * t1587 - v_b3_y * t1588)
         - 0.14913085300184115 * (v_b3_y * t1586 - v_b3_x * t1587);
     let t1610 = t1593 * t1593 + t1607 * t1607;
-    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1.0000000000000001e-40));
+    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1.0000000000000001e-40 - t1610;
+    let aligned_b3_2 = 1e-40 - t1610;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t871 } else { t1593 * t1613 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1628,9 +1628,9 @@ fn candidates(
         - 0.620341126105259 * (v_b4_z * t1784 - v_b4_y * t1785)
         - 0.14913085300184115 * (v_b4_y * t1783 - v_b4_x * t1784);
     let t1807 = t1790 * t1790 + t1804 * t1804;
-    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1.0000000000000001e-40));
+    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-40 - t1807;
+    let aligned_b4 = 1e-40 - t1807;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -1707,9 +1707,9 @@ fn candidates(
         - 0.620341126105259 * (v_b4_z * t1927 - v_b4_y * t1928)
         - 0.14913085300184115 * (v_b4_y * t1926 - v_b4_x * t1927);
     let t1950 = t1933 * t1933 + t1947 * t1947;
-    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1.0000000000000001e-40));
+    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1.0000000000000001e-40 - t1950;
+    let aligned_b4_2 = 1e-40 - t1950;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t871 } else { t1933 * t1953 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2071,9 +2071,9 @@ fn branch_1(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2118,7 +2118,7 @@ fn branch_1(
         (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_a = 8.539556986014195e-20 - d2_a;
+    let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_aa = j3_root_a - 0.2750702190093362;
     let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
@@ -2287,9 +2287,9 @@ fn branch_1(
         - 0.620341126105259 * (v_b1_z * t694 - v_b1_y * t695)
         - 0.14913085300184115 * (v_b1_y * t693 - v_b1_x * t694);
     let t717 = t700 * t700 + t714 * t714;
-    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1.0000000000000001e-40));
+    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1.0000000000000001e-40 - t717;
+    let aligned_b1 = 1e-40 - t717;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2442,9 +2442,9 @@ fn branch_2(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2489,7 +2489,7 @@ fn branch_2(
         (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_a = 8.539556986014195e-20 - d2_a;
+    let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_aa = j3_root_a - 0.2750702190093362;
     let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
@@ -2663,9 +2663,9 @@ fn branch_2(
         - 0.620341126105259 * (v_b1_z * t841 - v_b1_y * t842)
         - 0.14913085300184115 * (v_b1_y * t840 - v_b1_x * t841);
     let t864 = t847 * t847 + t861 * t861;
-    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1.0000000000000001e-40));
+    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1.0000000000000001e-40 - t864;
+    let aligned_b1_2 = 1e-40 - t864;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t847 * t867 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -2813,9 +2813,9 @@ fn branch_3(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -2860,7 +2860,7 @@ fn branch_3(
         (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_a = 8.539556986014195e-20 - d2_a;
+    let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ab = -0.2750702190093362 - j3_root_a;
     let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
@@ -3029,9 +3029,9 @@ fn branch_3(
         - 0.620341126105259 * (v_b2_z * t1040 - v_b2_y * t1041)
         - 0.14913085300184115 * (v_b2_y * t1039 - v_b2_x * t1040);
     let t1063 = t1046 * t1046 + t1060 * t1060;
-    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1.0000000000000001e-40));
+    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1.0000000000000001e-40 - t1063;
+    let aligned_b2 = 1e-40 - t1063;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -3184,9 +3184,9 @@ fn branch_4(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e − b k) / r²  (σ = +1)
     let j1_cos_a = if j1_free >= 0.0 {
         ref1_cos
@@ -3231,7 +3231,7 @@ fn branch_4(
         (d2_a - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_a = 8.539556986014195e-20 - d2_a;
+    let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ab = -0.2750702190093362 - j3_root_a;
     let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
@@ -3405,9 +3405,9 @@ fn branch_4(
         - 0.620341126105259 * (v_b2_z * t1183 - v_b2_y * t1184)
         - 0.14913085300184115 * (v_b2_y * t1182 - v_b2_x * t1183);
     let t1206 = t1189 * t1189 + t1203 * t1203;
-    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1.0000000000000001e-40));
+    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1.0000000000000001e-40 - t1206;
+    let aligned_b2_2 = 1e-40 - t1206;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1189 * t1209 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -3555,9 +3555,9 @@ fn branch_5(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3602,7 +3602,7 @@ fn branch_5(
         (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_b = 8.539556986014195e-20 - d2_b;
+    let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ba = j3_root_b - 0.2750702190093362;
     let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
@@ -3771,9 +3771,9 @@ fn branch_5(
         - 0.620341126105259 * (v_b3_z * t1444 - v_b3_y * t1445)
         - 0.14913085300184115 * (v_b3_y * t1443 - v_b3_x * t1444);
     let t1467 = t1450 * t1450 + t1464 * t1464;
-    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1.0000000000000001e-40));
+    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1.0000000000000001e-40 - t1467;
+    let aligned_b3 = 1e-40 - t1467;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -3926,9 +3926,9 @@ fn branch_6(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -3973,7 +3973,7 @@ fn branch_6(
         (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_b = 8.539556986014195e-20 - d2_b;
+    let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ba = j3_root_b - 0.2750702190093362;
     let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
@@ -4147,9 +4147,9 @@ fn branch_6(
         - 0.620341126105259 * (v_b3_z * t1587 - v_b3_y * t1588)
         - 0.14913085300184115 * (v_b3_y * t1586 - v_b3_x * t1587);
     let t1610 = t1593 * t1593 + t1607 * t1607;
-    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1.0000000000000001e-40));
+    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1.0000000000000001e-40 - t1610;
+    let aligned_b3_2 = 1e-40 - t1610;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1593 * t1613 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -4297,9 +4297,9 @@ fn branch_7(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4344,7 +4344,7 @@ fn branch_7(
         (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_b = 8.539556986014195e-20 - d2_b;
+    let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_bb = -0.2750702190093362 - j3_root_b;
     let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
@@ -4513,9 +4513,9 @@ fn branch_7(
         - 0.620341126105259 * (v_b4_z * t1784 - v_b4_y * t1785)
         - 0.14913085300184115 * (v_b4_y * t1783 - v_b4_x * t1784);
     let t1807 = t1790 * t1790 + t1804 * t1804;
-    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1.0000000000000001e-40));
+    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1.0000000000000001e-40 - t1807;
+    let aligned_b4 = 1e-40 - t1807;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
@@ -4668,9 +4668,9 @@ fn branch_8(
     // k = √max(r² − e², 0)
     let j1_k = ::armforge_runtime::math::sqrt((j1_r2 - j1_e * j1_e).max(0.0));
     // 1 / max(r², threshold²)
-    let j1_inv_r2 = 1.0 / j1_r2.max(8.539556986014195e-20);
+    let j1_inv_r2 = 1.0 / j1_r2.max(8.54e-20);
     // ≥ 0 when r < 2.92e-10 m: θ is free, the reference is used
-    let j1_free = 8.539556986014195e-20 - j1_r2;
+    let j1_free = 8.54e-20 - j1_r2;
     // cos θ = (a e + b k) / r²  (σ = -1)
     let j1_cos_b = if j1_free >= 0.0 {
         -ref1_cos
@@ -4715,7 +4715,7 @@ fn branch_8(
         (d2_b - 0.05565844753959191).max(0.0),
     );
     // ≥ 0 when the wrist center is on axis 2: joint 2 is free
-    let pivot_b = 8.539556986014195e-20 - d2_b;
+    let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_bb = -0.2750702190093362 - j3_root_b;
     let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
@@ -4889,9 +4889,9 @@ fn branch_8(
         - 0.620341126105259 * (v_b4_z * t1927 - v_b4_y * t1928)
         - 0.14913085300184115 * (v_b4_y * t1926 - v_b4_x * t1927);
     let t1950 = t1933 * t1933 + t1947 * t1947;
-    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1.0000000000000001e-40));
+    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1.0000000000000001e-40 - t1950;
+    let aligned_b4_2 = 1e-40 - t1950;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
     let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1933 * t1953 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
