@@ -58,7 +58,7 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
                 s.num(num::dot(&k.d, &k.d))
             );
         }
-        ArmEvidence::Cartesian(_) => {}
+        _ => {}
     }
     if let ArmEvidence::Elbow(e) = &geometry.arm {
         if !e.shoulder.axes_1_2_meet {
