@@ -145,6 +145,16 @@ pub trait FamilyModule: Sync {
     fn solution_parts(&self) -> [&'static str; 2] {
         ["joints 1–3", "the wrist"]
     }
+    /// The review sheet's words for the point the labels follow: its symbol once moved, what
+    /// that is, and the symbol of the wrist label's normal (`E2 E3 c`, `the wrist center moved
+    /// by joints 2 and 3 (joint 1 undone)`, `h4 × h5`).
+    fn label_words(&self) -> [&'static str; 3] {
+        [
+            "E2 E3 c",
+            "the wrist center moved by joints 2 and 3 (joint 1 undone)",
+            "h4 × h5",
+        ]
+    }
     /// One sentence on how the arm decouples, for the review sheet.
     fn decoupling(&self) -> &'static str {
         "Wrist: **spherical** (axes 4, 5 and 6 meet in one point, the wrist center)."

@@ -434,6 +434,15 @@ impl FamilyModule for ThreeParallel {
         "meeting point of axes 5 and 6"
     }
 
+    fn label_words(&self) -> [&'static str; 3] {
+        [
+            "E2 E3 E4 q",
+            "the meeting point of axes 5 and 6 moved by joints 2–4 (joint 1 undone); the elbow \
+             label reads the bend of joints 2–3 placing axis 4",
+            "h5 × h2",
+        ]
+    }
+
     fn summary(&self) -> &'static str {
         "no spherical wrist: axes 2, 3, 4 parallel, axes 5 and 6 meet in one point"
     }

@@ -257,7 +257,12 @@ fn hand(
             vec3::rotate_back(g, h5, c5, s5, hk)
         };
         let y = vec3::name(g, y, &format!("y6_{name}"), "R5ᵀ h");
-        let (nc, ns) = rotate_onto(g, h6, w_perp, y);
+        // Both parts ⟂ h6: near the alignment `w⊥ · y` would otherwise carry the rounding of
+        // `w⊥ · h6` times `y · h6 ≈ 1`, as large as the product it is after.
+        let y_along = vec3::dot_const(g, h6, y);
+        let y_back = vec3::scale_const(g, y_along, h6);
+        let y_perp = vec3::sub(g, y, y_back);
+        let (nc, ns) = rotate_onto(g, h6, w_perp, y_perp);
         // Normalised by the root of nc² + ns² rather than by |h6 × w|²: near the alignment the
         // two differ by rounding, and (cos θ6, sin θ6) must stay a unit pair to undo joint 6.
         let q = g.mul_add2(nc, nc, ns, ns);
