@@ -38,9 +38,8 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     );
     let _ = writeln!(
         h,
-        "// Family: {} with a spherical wrist; {} candidate branches, at most {} solutions.",
+        "// Family: {} with a spherical wrist; {} branches, at most one solution each.",
         plan.arm.family.name(),
-        plan.candidates.len(),
         plan.capacity
     );
     let _ = writeln!(

@@ -2,7 +2,7 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
-// Family: cylindrical with a spherical wrist; 4 candidate branches, at most 4 solutions.
+// Family: cylindrical with a spherical wrist; 4 branches, at most one solution each.
 // Cost of one solve: 10 sqrt, 14 atan2, 6 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 5 sqrt, 4 atan2, 2 divisions (that branch alone).
 //
@@ -12,7 +12,9 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
 pub const CAPACITY: usize = 4;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
@@ -347,8 +349,9 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
 /// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
 /// value nearest zero that keeps both shoulder solutions within its limits.
 pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {

@@ -2,7 +2,7 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
-// Family: elbow with a spherical wrist; 8 candidate branches, at most 5832 solutions.
+// Family: elbow with a spherical wrist; 8 branches, at most one solution each.
 // Cost of one solve: 7 sqrt, 20 atan2, 7 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
@@ -12,8 +12,10 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
-pub const CAPACITY: usize = 5832;
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
+pub const CAPACITY: usize = 8;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
 /// The joints in the base frame with every model value at zero (SI units).
@@ -400,8 +402,9 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
 /// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
 /// value nearest zero that keeps both shoulder solutions within its limits.
 pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
