@@ -170,10 +170,12 @@ impl Flags {
     pub const NONE: Flags = Flags(0);
     /// Joint 5 at the aligned position: joints 4 and 6 turn about one line, only their sum (or
     /// difference) is fixed by the pose. Joint 4 was kept at the reference value (or the
-    /// reference plus a half turn for the second representative).
+    /// reference plus a half turn for the second representative), unless that put joint 4 or
+    /// 6 outside its limits: then at the nearest value that keeps both within them.
     pub const WRIST_ALIGNED: Flags = Flags(1);
     /// The wrist center on axis 1: joint 1 is free; it was kept at the reference value (or the
-    /// reference plus a half turn).
+    /// reference plus a half turn), unless that put a joint outside its limits: then at the
+    /// nearest value that keeps every joint within them.
     pub const ON_AXIS_1: Flags = Flags(2);
     /// The target is on a reach boundary (within the solver's tolerance) — of the arm's reach,
     /// of an inner hole, or of the cone of orientations a wrist with twists other than 90°
