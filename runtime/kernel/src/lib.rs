@@ -44,6 +44,7 @@
 #![cfg_attr(not(feature = "std"), no_std)]
 #![deny(missing_docs)]
 
+pub mod compact;
 pub mod fk;
 #[doc(hidden)]
 pub mod internal;

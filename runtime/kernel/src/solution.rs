@@ -5,6 +5,7 @@
 
 use core::fmt;
 
+use crate::compact::Compact;
 use crate::math::{rotation_tolerance, Scalar};
 
 /// Number of joints of every arm armforge solves.
@@ -290,27 +291,31 @@ impl<S: Scalar> fmt::Display for Unreachable<S> {
             }
             Unreachable::InvalidPose(PoseProblem::NotOrthonormal { error }) => write!(
                 f,
-                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {error:e}, allowed {:e})",
-                rotation_tolerance::<S>()
+                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {}, allowed {})",
+                Compact(error.to_f64()),
+                Compact(rotation_tolerance::<S>().to_f64())
             ),
             Unreachable::InvalidPose(PoseProblem::Reflection) => {
                 write!(f, "invalid pose: the rotation is a reflection (determinant −1)")
             }
             Unreachable::BeyondReach { by } => {
-                write!(f, "the wrist center is beyond reach by {by:e} m")
+                write!(f, "the wrist center is beyond reach by {} m", Compact(by.to_f64()))
             }
             Unreachable::InsideHole { by } => write!(
                 f,
-                "the wrist center is inside the unreachable region near the shoulder by {by:e} m"
+                "the wrist center is inside the unreachable region near the shoulder by {} m",
+                Compact(by.to_f64())
             ),
             Unreachable::WristOrientation { by } => write!(
                 f,
-                "the wrist cannot reach this orientation: axis 6 misses its reachable cone by {by:e} rad"
+                "the wrist cannot reach this orientation: axis 6 misses its reachable cone by {} rad",
+                Compact(by.to_f64())
             ),
             Unreachable::OutsideLimits { joint, by } => write!(
                 f,
-                "every solution is outside the joint limits; the closest violates joint {} by {by:e}",
-                joint + 1
+                "every solution is outside the joint limits; the closest violates joint {} by {} (radians; metres for a slide)",
+                joint + 1,
+                Compact(by.to_f64())
             ),
             Unreachable::BranchUnavailable => {
                 write!(f, "the target is reachable, but not in the requested branch")

@@ -2,6 +2,13 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: prismatic, limits -3 m to 3 m, model value = joint value + 0.021996612143654865 m
+//   2 j2: prismatic, limits -3 m to 3 m, model value = joint value + 0.14193889192483788 m
+//   3 j3: prismatic, limits -3 m to 3 m, model value = joint value - 0.12474439304819077 m
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.48503301131555476 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.9397847731753595 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.8123383109623468 rad
 // Family: cartesian with a spherical wrist; 2 candidate branches, at most 2 solutions.
 // Cost of one solve: 3 sqrt, 6 atan2, 2 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 2 sqrt, 3 atan2, 1 division (that branch alone).

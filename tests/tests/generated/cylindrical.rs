@@ -2,6 +2,13 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.11980144913548951 rad
+//   2 j2: prismatic, limits -3 m to 3 m, model value = joint value + 0.14854805989554104 m
+//   3 j3: prismatic, limits -3 m to 3 m, model value = joint value - 0.08901238947355364 m
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.847833435327 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.2325557918797898 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.5790216055144732 rad
 // Family: cylindrical with a spherical wrist; 4 candidate branches, at most 4 solutions.
 // Cost of one solve: 10 sqrt, 14 atan2, 6 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 5 sqrt, 4 atan2, 2 divisions (that branch alone).

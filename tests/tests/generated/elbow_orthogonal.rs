@@ -2,6 +2,13 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.766074612132726 rad
+//   2 j2: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.0971926687438256 rad
+//   3 j3: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.127401684673772 rad
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.42909296055040724 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.264986797588622 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.9774699368182167 rad
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 8 solutions.
 // Cost of one solve: 7 sqrt, 20 atan2, 7 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).

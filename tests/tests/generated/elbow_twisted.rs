@@ -2,6 +2,13 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.5435209984320624 rad
+//   2 j2: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.341069712071717 rad
+//   3 j3: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value - 0.5758574670486944 rad
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value - 0.3137078432317959 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.8440224776937961 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.7838836486880414 rad
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 8 solutions.
 // Cost of one solve: 15 sqrt, 32 atan2, 11 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 4 sqrt, 6 atan2, 3 divisions (that branch alone).

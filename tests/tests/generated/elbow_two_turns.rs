@@ -2,6 +2,13 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = -joint value + 0.5090838424897437 rad
+//   2 j2: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = -joint value - 0.7192418683142581 rad
+//   3 j3: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = -joint value - 0.46223359926807284 rad
+//   4 j4: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value + 0.8608731389442748 rad
+//   5 j5: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value - 0.6567296829855225 rad
+//   6 j6: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value + 0.22640096837107704 rad
 // Family: elbow with a spherical wrist; 8 candidate branches, at most 5832 solutions.
 // Cost of one solve: 7 sqrt, 20 atan2, 7 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).

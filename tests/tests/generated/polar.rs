@@ -2,6 +2,13 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.9689750312557981 rad
+//   2 j2: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value - 0.9152407202519195 rad
+//   3 j3: prismatic, limits -2 m to 2 m, model value = -joint value + 0.02348083669101908 m
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.9233922181705687 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.8372665027925441 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.49417602456623433 rad
 // Family: polar with a spherical wrist; 8 candidate branches, at most 8 solutions.
 // Cost of one solve: 19 sqrt, 30 atan2, 13 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 5 sqrt, 5 atan2, 3 divisions (that branch alone).
