@@ -45,6 +45,7 @@
 #![cfg_attr(not(feature = "std"), no_std)]
 #![deny(missing_docs)]
 
+pub mod compact;
 pub mod equivalents;
 pub mod fk;
 #[doc(hidden)]
