@@ -302,8 +302,8 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
             [#(#candidates),*]
         }
 
-        /// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
-        /// value puts joint 5 outside its limits (a rare path; see
+        /// The candidates, with the free joint moved where a singular pose leaves one free and
+        /// its held value puts a joint outside its limits (a rare path; see
         /// `armforge_runtime::internal::free_joint_1`).
         #[inline]
         fn free_candidates(
@@ -525,7 +525,9 @@ pub fn module(
         /// Number of joints.
         pub const JOINTS: usize = 6;
 
-        /// The most solutions one target can have (branches × equivalent angles).
+        /// The most solutions one target can have: one per branch, whatever the joint ranges
+        /// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+        /// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
         pub const CAPACITY: usize = #capacity;
 
         /// The solutions of one target.
@@ -550,7 +552,7 @@ pub fn module(
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const LABELS: ::armforge_runtime::internal::BranchRule #generic = #labels;
 
-        /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+        /// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
         /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const ZERO_REFERENCE: [#ty; 4] = [#(#zero),*];
@@ -558,10 +560,14 @@ pub fn module(
         #forward
 
 
-        /// Every solution within the joint limits (equivalent angles included), each with its
-        /// branch label and flags; or none, with the reason. At a singular pose the free
-        /// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
-        /// value nearest zero that keeps both shoulder solutions within its limits.
+        /// Every solution within the joint limits, one per branch (a joint whose range exceeds
+        /// a turn at the equivalent angle nearest its range's center), each with its branch
+        /// label and flags; or none, with the reason. At a singular pose the free
+        /// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
+        /// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
+        /// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that
+        /// leaves a joint outside its limits, the free joint moves to the nearest value that
+        /// keeps every joint within them (`armforge_runtime::internal::free_joint_1`).
         pub fn solve(target: &::armforge_runtime::Pose #generic) -> Solutions {
             if let ::core::result::Result::Err(reason) =
                 ::armforge_runtime::internal::check_pose(target)
