@@ -71,21 +71,30 @@ fn example_arms_round_trip_through_the_interpreter() {
                 if s.flags.is_empty() {
                     assert_eq!(solver.branch_of(&s.joints), s.branch);
                 }
+                // Revolute joints modulo whole turns; a joint whose range exceeds a turn holds
+                // one value and lists the others (`Solution::equivalents`): the original's
+                // value is the held one or listed.
+                let equivalents: Vec<_> = s.equivalents(&solver.plan().arm.joints).collect();
                 found |= s
                     .joints
                     .iter()
                     .zip(q.iter())
                     .zip(&model.joints)
-                    .all(|((a, b), j)| {
+                    .enumerate()
+                    .all(|(i, ((a, b), j))| {
                         let d = a - b;
                         match j.joint.kind {
-                            JointKind::Revolute
-                                if j.joint.limits[1] - j.joint.limits[0]
-                                    <= std::f64::consts::TAU =>
-                            {
+                            JointKind::Revolute => {
+                                let listed = d.abs() < 1e-6
+                                    || equivalents
+                                        .iter()
+                                        .any(|e| e.joint == i && (e.value - b).abs() < 1e-6);
+                                let one_turn =
+                                    j.joint.limits[1] - j.joint.limits[0] <= std::f64::consts::TAU;
                                 (d - std::f64::consts::TAU * (d / std::f64::consts::TAU).round())
                                     .abs()
                                     < 1e-6
+                                    && (one_turn || listed)
                             }
                             _ => d.abs() < 1e-6,
                         }

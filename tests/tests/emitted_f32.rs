@@ -43,8 +43,7 @@ fn samples() -> usize {
 
 fn joint_gap(joint: &armforge_runtime::Joint, a: f64, b: f64) -> f64 {
     let d = a - b;
-    let [lo, hi] = joint.limits;
-    if joint.kind == JointKind::Revolute && hi - lo <= TAU + 1e-9 {
+    if joint.kind == JointKind::Revolute {
         (d - TAU * (d / TAU).round()).abs()
     } else {
         d.abs()

@@ -41,9 +41,8 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     h.push_str(&joints_as_written(model));
     let _ = writeln!(
         h,
-        "// Family: {} with a spherical wrist; {} candidate branches, at most {} solutions.",
+        "// Family: {} with a spherical wrist; {} branches, at most one solution each.",
         plan.arm.family.name(),
-        plan.candidates.len(),
         plan.capacity
     );
     let _ = writeln!(

@@ -525,7 +525,9 @@ pub fn module(
         /// Number of joints.
         pub const JOINTS: usize = 6;
 
-        /// The most solutions one target can have (branches × equivalent angles).
+        /// The most solutions one target can have: one per branch, whatever the joint ranges
+        /// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+        /// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
         pub const CAPACITY: usize = #capacity;
 
         /// The solutions of one target.
@@ -558,8 +560,9 @@ pub fn module(
         #forward
 
 
-        /// Every solution within the joint limits (equivalent angles included), each with its
-        /// branch label and flags; or none, with the reason. At a singular pose the free
+        /// Every solution within the joint limits, one per branch (a joint whose range exceeds
+        /// a turn at the equivalent angle nearest its range's center), each with its branch
+        /// label and flags; or none, with the reason. At a singular pose the free
         /// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
         /// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
         /// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that

@@ -9,7 +9,7 @@
 //   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.847833435327 rad
 //   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.2325557918797898 rad
 //   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.5790216055144732 rad
-// Family: cylindrical with a spherical wrist; 4 candidate branches, at most 4 solutions.
+// Family: cylindrical with a spherical wrist; 4 branches, at most one solution each.
 // Cost of one solve: 10 sqrt, 14 atan2, 6 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 5 sqrt, 4 atan2, 2 divisions (that branch alone).
 //
@@ -19,7 +19,9 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
 pub const CAPACITY: usize = 4;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
@@ -354,8 +356,9 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
 /// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
 /// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
 /// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that

@@ -9,7 +9,7 @@
 //   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.42909296055040724 rad
 //   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.264986797588622 rad
 //   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.9774699368182167 rad
-// Family: elbow with a spherical wrist; 8 candidate branches, at most 8 solutions.
+// Family: elbow with a spherical wrist; 8 branches, at most one solution each.
 // Cost of one solve: 7 sqrt, 20 atan2, 7 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
@@ -19,7 +19,9 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
 pub const CAPACITY: usize = 8;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
@@ -403,8 +405,9 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
 /// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
 /// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
 /// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that

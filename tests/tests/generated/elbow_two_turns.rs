@@ -9,7 +9,7 @@
 //   4 j4: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value + 0.8608731389442748 rad
 //   5 j5: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value - 0.6567296829855225 rad
 //   6 j6: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value + 0.22640096837107704 rad
-// Family: elbow with a spherical wrist; 8 candidate branches, at most 5832 solutions.
+// Family: elbow with a spherical wrist; 8 branches, at most one solution each.
 // Cost of one solve: 7 sqrt, 20 atan2, 7 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
@@ -19,8 +19,10 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
-pub const CAPACITY: usize = 5832;
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
+pub const CAPACITY: usize = 8;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
 /// The joints in the base frame with every model value at zero (SI units).
@@ -407,8 +409,9 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
 /// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
 /// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
 /// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that

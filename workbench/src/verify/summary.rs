@@ -349,7 +349,7 @@ impl Summary {
         }
         let _ = writeln!(
             out,
-            "solutions per pose, every equivalent angle within the limits listed: {}",
+            "solutions per pose (one per branch, equivalent angles not counted): {}",
             histogram_text(&self.solutions_per_pose)
         );
         if !self.failures.is_empty() {
