@@ -266,7 +266,7 @@ fn hand(
         // Normalised by the root of nc² + ns² rather than by |h6 × w|²: near the alignment the
         // two differ by rounding, and (cos θ6, sin θ6) must stay a unit pair to undo joint 6.
         let q = g.mul_add2(nc, nc, ns, ns);
-        let floor4 = g.exact(ALIGNED_SINE.powi(4));
+        let floor4 = g.exact_fourth(ALIGNED_SINE.powi(4));
         let inv = {
             let safe = g.max(q, floor4);
             let root = g.sqrt(safe);
