@@ -20,6 +20,7 @@ pub mod parallel;
 pub mod planar;
 pub mod polar;
 pub mod pose;
+pub mod quartic;
 pub mod render;
 pub mod samples;
 pub mod subproblems;
@@ -115,6 +116,10 @@ pub struct OpCounts {
     pub sqrt: usize,
     /// Arc tangents.
     pub atan2: usize,
+    /// Cube roots (Ferrari's resolvent cubic).
+    pub cbrt: usize,
+    /// Cosines (the trigonometric form of the resolvent cubic's roots).
+    pub cos: usize,
     /// Divisions.
     pub div: usize,
     /// Multiplications.
@@ -153,6 +158,21 @@ impl Plan {
     }
 }
 
+impl OpCounts {
+    /// The rarer transcendental operations, for cost lines: empty when there are none,
+    /// otherwise `", 1 cbrt, 1 cos"` (only what the plan has).
+    pub fn rare(&self) -> String {
+        let mut out = String::new();
+        if self.cbrt > 0 {
+            out += &format!(", {} cbrt", self.cbrt);
+        }
+        if self.cos > 0 {
+            out += &format!(", {} cos", self.cos);
+        }
+        out
+    }
+}
+
 /// Counts the operations of some nodes.
 fn count_ops<'a>(nodes: impl Iterator<Item = &'a graph::Node>) -> OpCounts {
     let mut c = OpCounts::default();
@@ -160,6 +180,8 @@ fn count_ops<'a>(nodes: impl Iterator<Item = &'a graph::Node>) -> OpCounts {
         match n.op {
             Op::Sqrt(_) => c.sqrt += 1,
             Op::Atan2(..) => c.atan2 += 1,
+            Op::Cbrt(_) => c.cbrt += 1,
+            Op::Cos(_) => c.cos += 1,
             Op::Div(..) => c.div += 1,
             Op::Mul(..) => c.mul += 1,
             Op::Add(..) | Op::Sub(..) | Op::Neg(_) => c.add += 1,
