@@ -134,6 +134,10 @@ fn rule(r: &BranchRule, l: Literals) -> TokenStream {
             let n = lit(nearest);
             quote!(::armforge_runtime::internal::ElbowRule::Slide { nearest: #n })
         }
+        ElbowRule::Aspect { up } => {
+            let u = lit(up);
+            quote!(::armforge_runtime::internal::ElbowRule::Aspect { up: #u })
+        }
         ElbowRule::Only => quote!(::armforge_runtime::internal::ElbowRule::Only),
     };
     let (n, a5, a6) = (
@@ -184,6 +188,7 @@ fn check_kind(k: CheckKind) -> TokenStream {
         CheckKind::BeyondReach => quote!(BeyondReach),
         CheckKind::InsideHole => quote!(InsideHole),
         CheckKind::WristOrientation => quote!(WristOrientation),
+        CheckKind::Residual => quote!(Residual),
     }
 }
 

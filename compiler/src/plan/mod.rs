@@ -14,6 +14,7 @@ pub mod cartesian;
 pub mod cylindrical;
 pub mod decouple;
 pub mod elbow;
+pub mod general;
 pub mod graph;
 pub mod mirror;
 pub mod parallel;
@@ -325,6 +326,7 @@ fn snapped_rule(rule: BranchRule, scale: f64) -> BranchRule {
         ElbowRule::Slide { nearest } => ElbowRule::Slide {
             nearest: snap(nearest, scale),
         },
+        ElbowRule::Aspect { up } => ElbowRule::Aspect { up },
         ElbowRule::Only => ElbowRule::Only,
     };
     BranchRule {

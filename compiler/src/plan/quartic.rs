@@ -85,7 +85,7 @@ fn times(g: &mut Graph, k: f64, x: Id) -> Id {
 
 /// `x` pushed away from zero to at least `TINY` in magnitude, keeping its sign (zero counts
 /// as positive).
-fn away_from_zero(g: &mut Graph, x: Id) -> Id {
+pub(crate) fn away_from_zero(g: &mut Graph, x: Id) -> Id {
     let tiny = g.exact(TINY);
     let minus_tiny = g.exact(-TINY);
     let up = g.max(x, tiny);
