@@ -16,6 +16,7 @@ pub mod description;
 pub mod diagnostics;
 pub mod emit;
 pub mod expand;
+pub mod family;
 pub mod model;
 pub mod pipeline;
 pub mod plan;

@@ -30,7 +30,12 @@ fn round_trip(family: Family, most: usize) -> usize {
         let inner = classify(&mirror::mirrored_model(&model), &Tolerances::default())
             .unwrap_or_else(|r| panic!("arm {seed}: mirrored arm rejected: {r}"));
         assert_eq!(inner.family, family);
-        let solver = Solver::from_plan(mirror::build(&model, &inner, family));
+        let solver = Solver::from_plan(mirror::build(
+            &model,
+            &inner,
+            family,
+            family.module().position_step().expect("decoupled"),
+        ));
         let mut rng = SampleRng::new(9000 + seed);
         for _ in 0..10 {
             let q = sample_configuration(&model, &mut rng);

@@ -8,9 +8,10 @@ use armforge_runtime::JointKind;
 use serde::Serialize;
 use serde_json::{json, Value};
 
-use armforge_compiler::classify::evidence::{ArmEvidence, ReachOrigin, Shoulder, Singularity};
+use armforge_compiler::classify::evidence::{ReachOrigin, Singularity};
 use armforge_compiler::classify::reject::{Quantity, Rejection};
 use armforge_compiler::classify::{Geometry, SolutionCount};
+use armforge_compiler::family::{Judged, Value as FamilyValue};
 use armforge_compiler::model::Model;
 use armforge_compiler::units::{snap, tidy, Units};
 
@@ -314,138 +315,38 @@ fn rejected(u: &Units, r: &Rejection) -> Rejected {
     }
 }
 
-fn shoulder_items(u: &Units, s: &Shoulder) -> Vec<Item> {
-    vec![
-        flag_item("axes_1_2_meet", "axes 1 and 2 meet", s.axes_1_2_meet),
-        length_item(
-            u,
-            "shoulder_offset",
-            "shoulder offset (length of the common normal of axes 1 and 2)",
-            s.offset,
-        ),
-        angle_item(u, "angle_1_2", "angle between axes 1 and 2", s.angle_1_2),
-        point_item(
-            u,
-            "shoulder_point",
-            "shoulder point (foot of that common normal on axis 2)",
-            &s.point,
-        ),
-        length_item(
-            u,
-            "sideways_offset",
-            "sideways offset (distance of the wrist center from the plane through the shoulder \
-             point perpendicular to axis 2)",
-            s.sideways_offset,
-        ),
-    ]
+/// The `inspect` items of the family's evidence, as its module lists them
+/// ([`armforge_compiler::family::FamilyModule::evidence`]).
+fn family_items(u: &Units, g: &Geometry) -> Vec<Item> {
+    g.family
+        .module()
+        .evidence(&g.arm)
+        .into_iter()
+        .map(|j| judged_item(u, &j))
+        .collect()
 }
 
-fn family_items(u: &Units, arm: &ArmEvidence) -> Vec<Item> {
-    match arm {
-        ArmEvidence::Elbow(e) => {
-            let mut items = shoulder_items(u, &e.shoulder);
-            items.push(length_item(
-                u,
-                "upper_arm",
-                "upper arm (distance between axes 2 and 3)",
-                e.upper_arm,
-            ));
-            items.push(length_item(
-                u,
-                "forearm",
-                "forearm (distance of the wrist center from axis 3)",
-                e.forearm,
-            ));
-            items
-        }
-        ArmEvidence::Polar(p) => {
-            let mut items = shoulder_items(u, &p.shoulder);
-            items.push(direction_item(
-                "slide_direction",
-                "slide of joint 3 (direction at zero)",
-                &p.slide_direction,
-            ));
-            items.push(angle_item(
-                u,
-                "slide_angle_to_axis_2",
-                "angle between the slide and axis 2",
-                p.slide_angle_to_axis_2,
-            ));
-            items.push(length_item(
-                u,
-                "closest_to_axis_2",
-                "closest approach of the wrist center's line of travel to axis 2",
-                p.closest_to_axis_2,
-            ));
-            items
-        }
-        ArmEvidence::Cylindrical(c) => vec![
-            direction_item(
-                "slide_2_direction",
-                "slide of joint 2 (direction at zero)",
-                &c.slide_directions[0],
-            ),
-            direction_item(
-                "slide_3_direction",
-                "slide of joint 3 (direction at zero)",
-                &c.slide_directions[1],
-            ),
-            angle_item(
-                u,
-                "slide_2_angle_to_axis_1",
-                "angle between slide 2 and axis 1",
-                c.slide_angles_to_axis_1[0],
-            ),
-            angle_item(
-                u,
-                "slide_3_angle_to_axis_1",
-                "angle between slide 3 and axis 1",
-                c.slide_angles_to_axis_1[1],
-            ),
-            angle_item(
-                u,
-                "angle_between_slides",
-                "angle between slides 2 and 3",
-                c.angle_between_slides,
-            ),
-            length_item(
-                u,
-                "distance_from_axis_1",
-                "distance of the wrist center from axis 1 at zero",
-                c.distance_from_axis_1,
-            ),
-        ],
-        ArmEvidence::Cartesian(c) => vec![
-            direction_item(
-                "slide_1_direction",
-                "slide of joint 1",
-                &c.slide_directions[0],
-            ),
-            direction_item(
-                "slide_2_direction",
-                "slide of joint 2",
-                &c.slide_directions[1],
-            ),
-            direction_item(
-                "slide_3_direction",
-                "slide of joint 3",
-                &c.slide_directions[2],
-            ),
-            angle_item(u, "angle_1_2", "angle between slides 1 and 2", c.angles[0]),
-            angle_item(u, "angle_1_3", "angle between slides 1 and 3", c.angles[1]),
-            angle_item(u, "angle_2_3", "angle between slides 2 and 3", c.angles[2]),
-            angle_item(
-                u,
-                "slide_3_out_of_plane",
-                "angle of slide 3 out of the plane of slides 1 and 2",
-                c.slide_3_out_of_plane,
-            ),
-        ],
+/// One family evidence item in the file's units.
+fn judged_item(u: &Units, j: &Judged) -> Item {
+    match j.value {
+        FamilyValue::Flag(yes) => flag_item(j.key, j.label, yes),
+        FamilyValue::Length(m) => length_item(u, j.key, j.label, m),
+        FamilyValue::Angle(a) => angle_item(u, j.key, j.label, a),
+        FamilyValue::Direction(d) => direction_item(j.key, j.label, &d),
+        FamilyValue::Point(p) => point_item(u, j.key, j.label, &p),
+        FamilyValue::Number(x) => Item {
+            key: j.key,
+            label: j.label.to_string(),
+            value: number(x),
+            shown: tidy(x),
+        },
     }
 }
 
 fn wrist_items(u: &Units, g: &Geometry) -> Vec<Item> {
-    let w = &g.wrist;
+    let Some(w) = &g.wrist else {
+        return Vec::new();
+    };
     vec![
         point_item(
             u,
@@ -621,7 +522,7 @@ fn solvable(model: &Model, g: &Geometry) -> Solvable {
     Solvable {
         family: g.family.name(),
         pattern: g.family.pattern(),
-        family_evidence: family_items(u, &g.arm),
+        family_evidence: family_items(u, g),
         wrist: wrist_items(u, g),
         solutions: g.solutions,
         reach: reach_item(u, g),

@@ -62,9 +62,22 @@ fn plain_elbow_evidence() {
     close(reach.min, 0.05, "reach min");
     close(reach.max, 0.75, "reach max");
     // Roll–pitch–roll wrist at 90° twists: every orientation; aligned at joint 5 = 0 and π.
-    close(g.wrist.angle_4_5, FRAC_PI_2, "angle 4–5");
-    close(g.wrist.angle_5_6, FRAC_PI_2, "angle 5–6");
-    assert!(g.wrist.reaches_every_orientation);
+    close(
+        g.wrist.as_ref().expect("spherical wrist").angle_4_5,
+        FRAC_PI_2,
+        "angle 4–5",
+    );
+    close(
+        g.wrist.as_ref().expect("spherical wrist").angle_5_6,
+        FRAC_PI_2,
+        "angle 5–6",
+    );
+    assert!(
+        g.wrist
+            .as_ref()
+            .expect("spherical wrist")
+            .reaches_every_orientation
+    );
     let Singularity::WristAligned { joint_5_at } = &g.singularities[0] else {
         panic!("wrist aligned expected: {:?}", g.singularities)
     };
@@ -153,11 +166,38 @@ fn oblique_wrist() {
     // h6 at 45° from h5 in the plane of h5 and z.
     let b = std::f64::consts::FRAC_PI_4;
     let g = ok(&oblique_wrist_elbow());
-    close(g.wrist.angle_4_5, FRAC_PI_3, "angle 4–5");
-    close(g.wrist.angle_5_6, b, "angle 5–6");
-    close(g.wrist.axis_4_6_angle_range[0], PI / 12.0, "range min");
-    close(g.wrist.axis_4_6_angle_range[1], FRAC_PI_2, "range max");
-    assert!(!g.wrist.reaches_every_orientation);
+    close(
+        g.wrist.as_ref().expect("spherical wrist").angle_4_5,
+        FRAC_PI_3,
+        "angle 4–5",
+    );
+    close(
+        g.wrist.as_ref().expect("spherical wrist").angle_5_6,
+        b,
+        "angle 5–6",
+    );
+    close(
+        g.wrist
+            .as_ref()
+            .expect("spherical wrist")
+            .axis_4_6_angle_range[0],
+        PI / 12.0,
+        "range min",
+    );
+    close(
+        g.wrist
+            .as_ref()
+            .expect("spherical wrist")
+            .axis_4_6_angle_range[1],
+        FRAC_PI_2,
+        "range max",
+    );
+    assert!(
+        !g.wrist
+            .as_ref()
+            .expect("spherical wrist")
+            .reaches_every_orientation
+    );
     assert_eq!(g.singularities[0], Singularity::WristNeverAligned);
 }
 

@@ -249,12 +249,12 @@ fn tolerance_boundary() {
     };
     let unit = 1e-6;
     let g = classify(&arms::offset_wrist(unit), &loose).expect("loose tolerance accepts");
-    let miss_per_metre = g.wrist.miss / unit;
+    let miss_per_metre = g.wrist.as_ref().expect("spherical wrist").miss / unit;
     let limit = tol.distance * g.resolved.arm_size;
     let under = classify(&arms::offset_wrist(0.99 * limit / miss_per_metre), &tol)
         .expect("just under the tolerance is accepted");
-    assert!(under.wrist.miss <= under.resolved.distance);
-    assert!(under.wrist.miss > 0.98 * under.resolved.distance);
+    assert!(under.wrist.as_ref().expect("spherical wrist").miss <= under.resolved.distance);
+    assert!(under.wrist.as_ref().expect("spherical wrist").miss > 0.98 * under.resolved.distance);
     let over = classify(&arms::offset_wrist(1.01 * limit / miss_per_metre), &tol)
         .expect_err("just over the tolerance is rejected");
     let Reason::WristAxesMiss { miss, .. } = over.reason else {

@@ -57,9 +57,7 @@ fn judge_of(model: &Model, geometry: &Geometry) -> Judge {
     Judge::new(
         joints,
         geometry.resolved.arm_size,
-        geometry.wrist_center,
-        geometry.wrist.aligned_at.clone(),
-        sampler.reach_boundaries(),
+        sampler.hints().clone(),
         Thresholds::default(),
     )
 }

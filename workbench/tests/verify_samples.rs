@@ -87,6 +87,8 @@ fn wrist_samples_are_near_the_aligned_position() {
         let theta5 = j[4].model_value(s.joints[4]);
         let off = geometry
             .wrist
+            .as_ref()
+            .expect("spherical wrist")
             .aligned_at
             .iter()
             .map(|a| {

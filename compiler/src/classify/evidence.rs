@@ -6,10 +6,8 @@ use std::f64::consts::{FRAC_PI_2, PI};
 use nalgebra::{Point3, Vector3};
 
 use super::context::Context;
-use super::family::{slide_3_out_of_plane, slide_independence};
-use super::lines::{closest_points, signed_angle_about};
-use super::reach::{line_norm_range, model_range, plane_norm_range};
-use super::Family;
+use super::lines::closest_points;
+use crate::family::{Judged, Value};
 
 /// Joints 1 and 2 when both turn (elbow and polar).
 #[derive(Clone, Debug, PartialEq)]
@@ -180,11 +178,13 @@ pub enum Singularity {
     },
 }
 
-fn arr(v: &Vector3<f64>) -> [f64; 3] {
+/// The coordinates of `v`.
+pub fn arr(v: &Vector3<f64>) -> [f64; 3] {
     [v.x, v.y, v.z]
 }
 
-fn wrap(angle: f64) -> f64 {
+/// `angle` wrapped into `(−π, π]`.
+pub fn wrap(angle: f64) -> f64 {
     let a = angle.rem_euclid(2.0 * PI);
     if a > PI {
         a - 2.0 * PI
@@ -194,7 +194,7 @@ fn wrap(angle: f64) -> f64 {
 }
 
 /// Measures joints 1 and 2 (both revolute) and the sideways offset.
-fn shoulder(ctx: &Context, center: &Point3<f64>) -> Shoulder {
+pub fn shoulder(ctx: &Context, center: &Point3<f64>) -> Shoulder {
     let cp = closest_points(ctx.line(1), ctx.line(2), ctx.tol.angle);
     let h2 = ctx.line(2).direction.into_inner();
     Shoulder {
@@ -217,17 +217,9 @@ pub struct Measured {
     pub singularities: Vec<Singularity>,
 }
 
-/// Measures the evidence of `family` for `ctx`'s arm with wrist center `center`.
-pub fn measure(ctx: &Context, family: Family, center: &Point3<f64>) -> Measured {
-    match family {
-        Family::Elbow => elbow(ctx, center),
-        Family::Polar => polar(ctx, center),
-        Family::Cylindrical => cylindrical(ctx, center),
-        Family::Cartesian => cartesian(ctx),
-    }
-}
-
-fn shoulder_singularity(ctx: &Context, s: &Shoulder, center: &Point3<f64>) -> Singularity {
+/// The shoulder's singular configuration: where joint 1's two solutions merge, or the wrist
+/// center on axis 1.
+pub fn shoulder_singularity(ctx: &Context, s: &Shoulder, center: &Point3<f64>) -> Singularity {
     let h1 = ctx.line(1).direction.into_inner();
     let h2 = ctx.line(2).direction.into_inner();
     let p1 = Point3::from(s.point_on_axis_1);
@@ -245,42 +237,8 @@ fn shoulder_singularity(ctx: &Context, s: &Shoulder, center: &Point3<f64>) -> Si
     }
 }
 
-fn elbow(ctx: &Context, center: &Point3<f64>) -> Measured {
-    let s = shoulder(ctx, center);
-    let axis3 = ctx.line(3);
-    let on_3 = axis3.project(center);
-    let upper_arm = ctx.gap(2, 3);
-    let forearm = (center - on_3).norm();
-    let upper = on_3 - ctx.line(2).project(&on_3);
-    let fore = center - on_3;
-    let stretched_at =
-        signed_angle_about(&axis3.direction, &fore, &upper, ctx.tol.distance).unwrap_or(0.0);
-    let rho = [(upper_arm - forearm).abs(), upper_arm + forearm];
-    let reach = reach_from_shoulder(rho, s.sideways_offset);
-    let singularities = vec![
-        shoulder_singularity(ctx, &s, center),
-        Singularity::Stretched {
-            joint_3_at: stretched_at,
-        },
-        Singularity::Folded {
-            joint_3_at: wrap(stretched_at + PI),
-        },
-    ];
-    Measured {
-        arm: ArmEvidence::Elbow(ElbowEvidence {
-            shoulder: s,
-            upper_arm,
-            forearm,
-            stretched_at,
-            folded_at: wrap(stretched_at + PI),
-            reach_from_axis_2: rho,
-        }),
-        reach: Some(reach),
-        singularities,
-    }
-}
-
-fn reach_from_shoulder(rho: [f64; 2], sideways: f64) -> Reach {
+/// The reach from the shoulder point for distances `rho` from axis 2 and a sideways offset.
+pub fn reach_from_shoulder(rho: [f64; 2], sideways: f64) -> Reach {
     Reach {
         from: ReachOrigin::ShoulderPoint,
         min: rho[0].hypot(sideways),
@@ -288,75 +246,34 @@ fn reach_from_shoulder(rho: [f64; 2], sideways: f64) -> Reach {
     }
 }
 
-fn polar(ctx: &Context, center: &Point3<f64>) -> Measured {
-    let s = shoulder(ctx, center);
-    let axis2 = ctx.line(2);
-    let slide = ctx.line(3).direction.into_inner();
-    let w = center - axis2.project(center);
-    let closest_at = -w.dot(&slide);
-    let closest = (w + slide * closest_at).norm();
-    let range = model_range(&ctx.model.joints[2].joint);
-    let rho = line_norm_range(&w, &slide, range);
-    let singularities = vec![
-        shoulder_singularity(ctx, &s, center),
-        Singularity::SlideClosestToAxis2 {
-            joint_3_at: closest_at,
-        },
-    ];
-    let reach = reach_from_shoulder(rho, s.sideways_offset);
-    Measured {
-        arm: ArmEvidence::Polar(PolarEvidence {
-            shoulder: s,
-            slide_direction: arr(&slide),
-            slide_angle_to_axis_2: ctx.angle(2, 3),
-            closest_to_axis_2: closest,
-            closest_at,
-            reach_from_axis_2: rho,
-        }),
-        reach: Some(reach),
-        singularities,
-    }
-}
-
-fn cylindrical(ctx: &Context, center: &Point3<f64>) -> Measured {
-    let axis1 = ctx.line(1);
-    let projector = axis1.perpendicular_projector();
-    let s2 = ctx.line(2).direction.into_inner();
-    let s3 = ctx.line(3).direction.into_inner();
-    let w = center - axis1.project(center);
-    let ranges = [
-        model_range(&ctx.model.joints[1].joint),
-        model_range(&ctx.model.joints[2].joint),
-    ];
-    let r = plane_norm_range(&w, [&(projector * s2), &(projector * s3)], ranges);
-    Measured {
-        arm: ArmEvidence::Cylindrical(CylindricalEvidence {
-            slide_directions: [arr(&s2), arr(&s3)],
-            slide_angles_to_axis_1: [ctx.angle(1, 2), ctx.angle(1, 3)],
-            angle_between_slides: ctx.angle(2, 3),
-            distance_from_axis_1: w.norm(),
-        }),
-        reach: Some(Reach {
-            from: ReachOrigin::Axis1,
-            min: r[0],
-            max: r[1],
-        }),
-        singularities: vec![Singularity::WristCenterOnAxis1 {
-            reachable: Some(r[0] <= ctx.tol.distance),
-        }],
-    }
-}
-
-fn cartesian(ctx: &Context) -> Measured {
-    let d = |n: usize| arr(&ctx.line(n).direction.into_inner());
-    Measured {
-        arm: ArmEvidence::Cartesian(CartesianEvidence {
-            slide_directions: [d(1), d(2), d(3)],
-            angles: [ctx.angle(1, 2), ctx.angle(1, 3), ctx.angle(2, 3)],
-            slide_3_out_of_plane: slide_3_out_of_plane(ctx),
-            independence: slide_independence(ctx),
-        }),
-        reach: None,
-        singularities: Vec::new(),
-    }
+/// The `inspect` items of joints 1 and 2 (elbow and polar).
+pub fn shoulder_items(s: &Shoulder) -> Vec<Judged> {
+    vec![
+        Judged::new(
+            "axes_1_2_meet",
+            "axes 1 and 2 meet",
+            Value::Flag(s.axes_1_2_meet),
+        ),
+        Judged::new(
+            "shoulder_offset",
+            "shoulder offset (length of the common normal of axes 1 and 2)",
+            Value::Length(s.offset),
+        ),
+        Judged::new(
+            "angle_1_2",
+            "angle between axes 1 and 2",
+            Value::Angle(s.angle_1_2),
+        ),
+        Judged::new(
+            "shoulder_point",
+            "shoulder point (foot of that common normal on axis 2)",
+            Value::Point(s.point),
+        ),
+        Judged::new(
+            "sideways_offset",
+            "sideways offset (distance of the wrist center from the plane through the shoulder \
+             point perpendicular to axis 2)",
+            Value::Length(s.sideways_offset),
+        ),
+    ]
 }

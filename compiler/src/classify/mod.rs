@@ -14,7 +14,8 @@
 // its size costs nothing, and keeping it unboxed keeps the pinned `Result<Geometry, Rejection>`.
 #![allow(clippy::result_large_err)]
 
-mod context;
+pub mod context;
+pub mod decoupled;
 pub mod evidence;
 pub mod family;
 pub mod lines;
@@ -28,55 +29,10 @@ pub use reject::{Note, Reason, Rejection};
 pub use tolerances::{Resolved, Tolerances};
 pub use wrist::WristEvidence;
 
+use crate::family::{Recognition, REGISTRY};
 use crate::model::Model;
 
-/// The family of the first three joints. The names are armforge's own.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
-#[cfg_attr(feature = "serde", serde(rename_all = "snake_case"))]
-pub enum Family {
-    /// R R R with axis 2 ∥ axis 3 and axis 1 ∦ axis 2.
-    Elbow,
-    /// R R P with the slide ⟂ axis 2 and axis 1 ∦ axis 2.
-    Polar,
-    /// R P P with the slides not parallel and not both ⟂ axis 1.
-    Cylindrical,
-    /// P P P with independent slides.
-    Cartesian,
-}
-
-impl Family {
-    /// The family's name as armforge writes it.
-    pub fn name(self) -> &'static str {
-        match self {
-            Family::Elbow => "elbow",
-            Family::Polar => "polar",
-            Family::Cylindrical => "cylindrical",
-            Family::Cartesian => "cartesian",
-        }
-    }
-
-    /// The kinds of joints 1–3.
-    pub fn pattern(self) -> &'static str {
-        match self {
-            Family::Elbow => "R R R",
-            Family::Polar => "R R P",
-            Family::Cylindrical => "R P P",
-            Family::Cartesian => "P P P",
-        }
-    }
-
-    /// The most solutions joints 1–3 can have for one wrist-center target (distinct modulo
-    /// full turns): two roots of joint 1 × two of joint 3 for elbow and polar, the two roots of
-    /// one quadratic for cylindrical, one linear solve for cartesian.
-    pub fn position_solutions(self) -> u32 {
-        match self {
-            Family::Elbow | Family::Polar => 4,
-            Family::Cylindrical => 2,
-            Family::Cartesian => 1,
-        }
-    }
-}
+pub use crate::family::Family;
 
 /// The most solutions a spherical wrist has for one orientation: joint 5 and its mirror.
 pub const WRIST_SOLUTIONS: u32 = 2;
@@ -106,8 +62,8 @@ pub struct Geometry {
     pub tolerances: Tolerances,
     /// The tolerances resolved for this arm (its size, metres and radians).
     pub resolved: Resolved,
-    /// The spherical wrist.
-    pub wrist: WristEvidence,
+    /// The spherical wrist, when the arm has one.
+    pub wrist: Option<WristEvidence>,
     /// The family's evidence.
     pub arm: ArmEvidence,
     /// The most solutions to expect for one tool pose.
@@ -118,39 +74,41 @@ pub struct Geometry {
     pub singularities: Vec<Singularity>,
 }
 
-/// Classifies `model`: the wrist must be spherical and joints 1–3 one of the four families.
+/// Classifies `model`: the first family of the registry ([`crate::family::REGISTRY`]) that
+/// recognises it, or the first family's reason why not.
 ///
 /// Depends only on the joint lines, kinds and limits (for a slide's reach) and the tool point,
 /// never on the base pose or the file's frames. A rejection names the failing property, the
 /// joints and the numbers in the file's units, and points at the offending joint's table.
 pub fn classify(model: &Model, tolerances: &Tolerances) -> Result<Geometry, Rejection> {
     let ctx = context::Context::new(model, tolerances)?;
-    let wrist = wrist::analyse(&ctx)?;
-    let center = nalgebra::Point3::from(wrist.center);
-    let family = family::decide(&ctx, &center)?;
-    let measured = evidence::measure(&ctx, family, &center);
-    let mut singularities = vec![if wrist.aligned_at.is_empty() {
-        Singularity::WristNeverAligned
-    } else {
-        Singularity::WristAligned {
-            joint_5_at: wrist.aligned_at.clone(),
+    let mut first_reason = None;
+    for module in REGISTRY {
+        match module.recognise(&ctx) {
+            Recognition::Mine(found) => {
+                let [position, wrist] = found.solutions;
+                return Ok(Geometry {
+                    family: module.family(),
+                    wrist_center: found.center,
+                    tolerances: ctx.tolerances,
+                    resolved: ctx.tol,
+                    wrist: found.wrist,
+                    arm: found.arm,
+                    solutions: SolutionCount {
+                        position,
+                        wrist,
+                        total: position * wrist,
+                    },
+                    reach: found.reach,
+                    singularities: found.singularities,
+                });
+            }
+            Recognition::NotMine(reason) => {
+                if first_reason.is_none() {
+                    first_reason = reason;
+                }
+            }
         }
-    }];
-    singularities.extend(measured.singularities);
-    let position = family.position_solutions();
-    Ok(Geometry {
-        family,
-        wrist_center: wrist.center,
-        tolerances: ctx.tolerances,
-        resolved: ctx.tol,
-        wrist,
-        arm: measured.arm,
-        solutions: SolutionCount {
-            position,
-            wrist: WRIST_SOLUTIONS,
-            total: position * WRIST_SOLUTIONS,
-        },
-        reach: measured.reach,
-        singularities,
-    })
+    }
+    Err(first_reason.unwrap_or_else(|| family::unrecognised(&ctx)))
 }

@@ -20,7 +20,7 @@ use super::decouple::{self, Target};
 use super::graph::Graph;
 use super::pose;
 use super::vec3::num;
-use super::Plan;
+use super::{Plan, PositionStep};
 use crate::classify::{Family, Geometry};
 use crate::model::{Model, ModelJoint};
 
@@ -49,8 +49,9 @@ pub fn mirrored_model(model: &Model) -> Model {
 }
 
 /// The plan of an arm with its wrist at the base, given the classification of its mirrored
-/// arm (`inner`: the family of the arm's joints 6, 5, 4 and the meeting point of axes 1–3).
-pub fn build(model: &Model, inner: &Geometry, family: Family) -> Plan {
+/// arm (`inner`: the family of the arm's joints 6, 5, 4 and the meeting point of axes 1–3) and
+/// that family's position step.
+pub fn build(model: &Model, inner: &Geometry, family: Family, step: PositionStep) -> Plan {
     let mirrored = mirrored_model(model);
     let inner_arm = Arm::new(&mirrored, inner);
     let arm = Arm::with_center(model, family, inner.wrist_center);
@@ -70,7 +71,7 @@ pub fn build(model: &Model, inner: &Geometry, family: Family) -> Plan {
         reference1: t.reference1,
         reference4: t.reference4,
     };
-    let (candidates, mut rule) = super::decoupled(&mut g, &inner_arm, &mirrored_target);
+    let (candidates, mut rule) = super::decoupled(&mut g, &inner_arm, &mirrored_target, step);
     rule.mirrored = true;
     let candidates: Vec<CandidateLayout> = candidates
         .into_iter()

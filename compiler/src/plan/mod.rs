@@ -10,16 +10,11 @@
 //! [`crate::solver::Solver`]) and the emitter ([`crate::emit`]).
 
 pub mod arm;
-pub mod cartesian;
-pub mod cylindrical;
 pub mod decouple;
-pub mod elbow;
-pub mod general;
 pub mod graph;
 pub mod mirror;
 pub mod parallel;
 pub mod planar;
-pub mod polar;
 pub mod pose;
 pub mod quartic;
 pub mod render;
@@ -34,11 +29,15 @@ use armforge_runtime::internal::{
 use armforge_runtime::plan::{CandidateLayout, CheckLayout, Op};
 use armforge_runtime::{Branch, Elbow, Shoulder};
 
+pub use crate::family::cartesian::plan as cartesian;
+pub use crate::family::cylindrical::plan as cylindrical;
+pub use crate::family::elbow::plan as elbow;
+pub use crate::family::polar::plan as polar;
 pub use arm::Arm;
 pub use decouple::Target;
 use graph::{Graph, Id};
 
-use crate::classify::{Family, Geometry};
+use crate::classify::Geometry;
 use crate::model::Model;
 
 /// A rotation that joints 1–3 apply, undone (in order) to find the wrist's rotation.
@@ -193,39 +192,50 @@ fn count_ops<'a>(nodes: impl Iterator<Item = &'a graph::Node>) -> OpCounts {
     c
 }
 
-/// Builds the plan of a classified arm.
+/// Builds the plan of a classified arm (by its family's module, [`crate::family`]).
 pub fn build_plan(model: &Model, geometry: &Geometry) -> Plan {
+    geometry.family.module().build_plan(model, geometry)
+}
+
+/// What a position step found: a branch per solution and the label rules of joints 1–3.
+pub struct Position {
+    /// One branch of joints 1–3 per solution.
+    pub solutions: Vec<ArmSolution>,
+    /// How the shoulder label is read back.
+    pub shoulder: ShoulderRule,
+    /// How the elbow label is read back.
+    pub elbow: ElbowRule,
+}
+
+/// The position step of a family whose joints 1–3 place a spherical wrist's center: the
+/// branches of joints 1–3 for the wrist-center target `ct` of the target `target`.
+pub type PositionStep = fn(&mut Graph, &Arm, &Target, vec3::V3) -> Position;
+
+/// The plan of an arm that decouples at a spherical wrist, with `step` for joints 1–3.
+pub fn decoupled_plan(model: &Model, geometry: &Geometry, step: PositionStep) -> Plan {
     let arm = Arm::new(model, geometry);
     let mut g = Graph::new();
     let target = decouple::target(&mut g);
-    let (candidates, rule) = decoupled(&mut g, &arm, &target);
+    let (candidates, rule) = decoupled(&mut g, &arm, &target, step);
     let w = wrist::WristAxes::of(&arm);
     let twist = [vec3::num::dot(&w.h4, &w.h5), vec3::num::dot(&w.h5, &w.h6)];
     assemble(arm, &g, &candidates, rule, twist, [0, 3])
 }
 
-/// The candidates of an arm that decouples at a spherical wrist (joints 1–3 of its family, then
+/// The candidates of an arm that decouples at a spherical wrist (joints 1–3 by `step`, then
 /// the wrist), for the target `target`, and its label rules.
-pub fn decoupled(g: &mut Graph, arm: &Arm, target: &Target) -> (Vec<CandidateLayout>, BranchRule) {
+pub fn decoupled(
+    g: &mut Graph,
+    arm: &Arm,
+    target: &Target,
+    step: PositionStep,
+) -> (Vec<CandidateLayout>, BranchRule) {
     let ct = decouple::wrist_center_target(g, arm, target);
-    let (arm_solutions, shoulder_rule, elbow_rule) = match arm.family {
-        Family::Elbow => {
-            let (s, e) = elbow::rules(arm);
-            (elbow::solve(g, arm, target, ct), s, e)
-        }
-        Family::Polar => {
-            let (s, e) = polar::rules(arm);
-            (polar::solve(g, arm, target, ct), s, e)
-        }
-        Family::Cylindrical => {
-            let (s, e) = cylindrical::rules(arm);
-            (cylindrical::solve(g, arm, target, ct), s, e)
-        }
-        Family::Cartesian => {
-            let (s, e) = cartesian::rules(arm);
-            (cartesian::solve(g, arm, ct), s, e)
-        }
-    };
+    let Position {
+        solutions: arm_solutions,
+        shoulder: shoulder_rule,
+        elbow: elbow_rule,
+    } = step(g, arm, target, ct);
     let axes = wrist::WristAxes::of(arm);
     let g6 = decouple::target_direction(g, arm, target, axes.h6, "g6");
     let gx = decouple::target_direction(g, arm, target, axes.x6, "gx");

@@ -4,28 +4,29 @@
 use std::fmt::Write as _;
 
 use super::show::{self, Show};
-use super::Facts;
 use crate::report::{Outcome, Report};
-use armforge_compiler::classify::{Family, Geometry};
+use armforge_compiler::classify::Geometry;
+use armforge_compiler::family::{Part, Value};
+use armforge_compiler::plan::Plan;
 
 /// Writes §2.
-pub fn write(out: &mut String, report: &Report, geometry: &Geometry, facts: &Facts, s: &Show) {
+pub fn write(out: &mut String, report: &Report, geometry: &Geometry, plan: &Plan, s: &Show) {
     let _ = writeln!(out, "## 2. Classification\n");
     let Outcome::Solvable(solvable) = &report.outcome else {
         return;
     };
     let _ = writeln!(
         out,
-        "Family of joints 1–3: **{}** ({}). Wrist: **spherical** (axes 4, 5 and 6 meet in \
-         one point, the wrist center). Lines count as meeting within {} and as parallel or \
-         perpendicular within {} (§8).\n",
+        "Family of joints 1–3: **{}** ({}). {} Lines count as meeting within {} and as \
+         parallel or perpendicular within {} (§8).\n",
         solvable.family,
         solvable.pattern,
+        geometry.family.module().decoupling(),
         s.len(geometry.resolved.distance),
         s.angle(geometry.resolved.angle)
     );
     let _ = writeln!(out, "What the solve needs, as measured:\n");
-    for line in conditions(geometry, facts, s) {
+    for line in conditions(plan, geometry, s) {
         let _ = writeln!(out, "- {line}");
     }
     let _ = writeln!(out, "\nEvidence for the family:\n");
@@ -41,54 +42,28 @@ pub fn write(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
     );
 }
 
-fn conditions(g: &Geometry, f: &Facts, s: &Show) -> Vec<String> {
-    let a = |i: usize, j: usize| s.angle(f.line_angle(i, j));
-    let mut lines = vec![
-        format!(
-            "axes 4, 5, 6 meet: the wrist center is {} from the farthest of them",
-            s.len(g.wrist.miss)
-        ),
-        format!(
-            "axis 4 ∦ axis 5 and axis 5 ∦ axis 6: angles {} and {}",
-            a(4, 5),
-            a(5, 6)
-        ),
-    ];
-    match g.family {
-        Family::Elbow => {
-            lines.push(format!("axis 1 ∦ axis 2: angle {}", a(1, 2)));
-            lines.push(format!("axis 2 ∥ axis 3: angle {}", a(2, 3)));
-            lines.push(format!(
-                "an upper arm and a forearm: axes 2 and 3 are {} apart, the wrist center {} \
-                 from axis 3",
-                s.len(f.gap(2, 3)),
-                s.len(f.distance_from_axis(3, &g.wrist_center))
-            ));
-        }
-        Family::Polar => {
-            lines.push(format!("axis 1 ∦ axis 2: angle {}", a(1, 2)));
-            lines.push(format!("slide 3 ⟂ axis 2: angle {}", a(2, 3)));
-        }
-        Family::Cylindrical => {
-            lines.push(format!("slide 2 ∦ slide 3: angle {}", a(2, 3)));
-            lines.push(format!(
-                "not both slides ⟂ axis 1: angles {} and {}",
-                a(1, 2),
-                a(1, 3)
-            ));
-        }
-        Family::Cartesian => {
-            lines.push(format!(
-                "slides pairwise not parallel: angles {} (1–2), {} (1–3), {} (2–3)",
-                a(1, 2),
-                a(1, 3),
-                a(2, 3)
-            ));
-            lines.push(format!(
-                "slides independent: |det [u1 u2 u3]| = {}",
-                s.num(f.slide_determinant())
-            ));
-        }
+/// The family's conditions ([`armforge_compiler::family::FamilyModule::conditions`]), each a
+/// line of words and numbers shown in the file's units.
+fn conditions(plan: &Plan, g: &Geometry, s: &Show) -> Vec<String> {
+    g.family
+        .module()
+        .conditions(plan, g)
+        .iter()
+        .map(|parts| parts.iter().map(|p| part(p, s)).collect())
+        .collect()
+}
+
+/// One part of a line in the file's units.
+pub fn part(p: &Part, s: &Show) -> String {
+    match p {
+        Part::Text(t) => t.clone(),
+        Part::Value(v) => match *v {
+            Value::Flag(yes) => if yes { "yes" } else { "no" }.to_string(),
+            Value::Length(m) => s.len(m),
+            Value::Angle(a) => s.angle(a),
+            Value::Direction(d) => s.dir(&d),
+            Value::Point(x) => s.point(&x),
+            Value::Number(x) => s.num(x),
+        },
     }
-    lines
 }

@@ -45,7 +45,7 @@ pub fn review_sheet(model: &Model, geometry: &Geometry, plan: &Plan) -> String {
     let mut out = String::new();
     header(&mut out, model);
     arm::write(&mut out, model, &s);
-    family::write(&mut out, &report, geometry, &facts, &s);
+    family::write(&mut out, &report, geometry, plan, &s);
     steps::write(&mut out, plan, &facts, &s);
     branches::write(&mut out, plan, &s);
     let texts = match &report.outcome {

@@ -38,25 +38,17 @@
 
 use std::f64::consts::{PI, TAU};
 
-use armforge_runtime::{joint_motion, Joint, JointKind, JOINTS};
+use armforge_runtime::{Joint, JointKind, JOINTS};
 
 use super::check::Thresholds;
+use super::sampler::distance_of;
+use armforge_compiler::family::{Role, VerifyHints};
 
 /// Measures below this (`w`, `ρ1`, `ρ2`) make a sample near singular.
 pub const SINGULAR_BAND: f64 = 1e-3;
 /// Distances from a reach boundary below this (fraction of the arm's size) make a sample near
 /// singular, with the boundary threshold for its joints.
 pub const BOUNDARY_BAND: f64 = 1e-6;
-
-/// A reach boundary: the wrist center's distance from the line of axis `axis` (0-based) equals
-/// `at` metres there.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct ReachBoundary {
-    /// The axis measured from.
-    pub axis: usize,
-    /// The boundary's distance, metres.
-    pub at: f64,
-}
 
 /// The measures of one configuration (see the module documentation).
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -90,51 +82,36 @@ pub struct Judgement {
 pub struct Judge {
     joints: [Joint; JOINTS],
     size: f64,
-    center: [f64; 3],
-    /// Joint-5 model values at which the wrist is aligned.
-    aligned_at: Vec<f64>,
-    /// The revolute joints among 1 and 2 whose axes the wrist center can approach.
-    axes: [bool; 2],
-    boundaries: Vec<ReachBoundary>,
+    /// The family's hints: the aligning joint and its aligned positions, the two axis distances,
+    /// the reach boundaries and what conditions each joint.
+    hints: VerifyHints,
     thresholds: Thresholds,
 }
 
 impl Judge {
-    /// A judge: the model's joints, the arm's size (metres), the wrist center at zero (base
-    /// frame), the joint-5 model values of the aligned wrist, the reach boundaries.
+    /// A judge: the model's joints, the arm's size (metres), the family's hints
+    /// ([`armforge_compiler::family::FamilyModule::verify_hints`], with the boundaries the
+    /// sampler can place) and the thresholds.
     pub fn new(
         joints: [Joint; JOINTS],
         size: f64,
-        center: [f64; 3],
-        aligned_at: Vec<f64>,
-        boundaries: Vec<ReachBoundary>,
+        hints: VerifyHints,
         thresholds: Thresholds,
     ) -> Judge {
-        let revolute = |i: usize| joints[i].kind == JointKind::Revolute;
         Judge {
             joints,
             size,
-            center,
-            aligned_at,
-            axes: [revolute(0), revolute(1)],
-            boundaries,
+            hints,
             thresholds,
         }
     }
 
-    /// The distance (metres) of the wrist center from axis `axis` (0 or 1, at zero): joints 3
-    /// and 2 move the wrist center; joint 1 turns it about axis 1 and changes neither distance
-    /// (nor does joint 2 its distance from axis 2).
-    fn distance_to_axis(&self, q: &[f64; JOINTS], axis: usize) -> f64 {
-        let p = joint_motion(&self.joints[2], q[2]).transform_point(&self.center);
-        let w = joint_motion(&self.joints[1], q[1]).transform_point(&p);
-        distance_from_line(&w, &self.joints[axis])
-    }
-
     /// The measures of a configuration.
     pub fn measures(&self, q: &[f64; JOINTS]) -> Measures {
-        let m5 = self.joints[4].model_value(q[4]);
+        let a = self.hints.aligned_joint;
+        let m5 = self.joints[a].model_value(q[a]);
         let wrist = self
+            .hints
             .aligned_at
             .iter()
             .map(|&a| {
@@ -143,15 +120,16 @@ impl Judge {
             })
             .fold(1.0, f64::min);
         let mut axis = [1.0; 2];
-        for (i, a) in axis.iter_mut().enumerate() {
-            if self.axes[i] {
-                *a = (self.distance_to_axis(q, i) / self.size).min(1.0);
+        for (a, d) in axis.iter_mut().zip(&self.hints.axes) {
+            if let Some(d) = d {
+                *a = (distance_of(&self.joints, d, q) / self.size).min(1.0);
             }
         }
         let boundary = self
+            .hints
             .boundaries
             .iter()
-            .map(|b| (self.distance_to_axis(q, b.axis) - b.at).abs() / self.size)
+            .map(|b| (distance_of(&self.joints, &b.distance, q) - b.at).abs() / self.size)
             .fold(f64::INFINITY, f64::min);
         Measures {
             wrist,
@@ -175,7 +153,13 @@ impl Judge {
         let j2 = conditioned(m.axis[1]);
         let e = j1.max(j2);
         let wrist = e / m.wrist;
-        let mut joint = [j1, j2, b, wrist, e, wrist];
+        let mut joint = self.hints.roles.map(|r| match r {
+            Role::Axis(0) => j1,
+            Role::Axis(_) => j2,
+            Role::Bend => b,
+            Role::WristMiddle => e,
+            Role::WristSplit => wrist,
+        });
         for (i, x) in joint.iter_mut().enumerate() {
             let free = match self.joints[i].kind {
                 JointKind::Revolute => PI,

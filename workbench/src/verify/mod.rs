@@ -110,14 +110,7 @@ pub fn verify(
     let started = Instant::now();
     let size = geometry.resolved.arm_size;
     let sampler = Sampler::new(joints, geometry, options.seed);
-    let judge = Judge::new(
-        joints,
-        size,
-        geometry.wrist_center,
-        geometry.wrist.aligned_at.clone(),
-        sampler.reach_boundaries(),
-        options.thresholds,
-    );
+    let judge = Judge::new(joints, size, sampler.hints().clone(), options.thresholds);
     let checker = Checker::new(joints, reference.base, reference.tool, size, solver, judge);
     let plan = plan_samples(&sampler, options.samples);
     let total: u64 = plan.iter().map(|(_, n)| n).sum();

@@ -12,9 +12,10 @@ use rand::{Rng, SeedableRng};
 use rand_chacha::ChaCha8Rng;
 use serde::Serialize;
 
-use super::judge::{distance_from_line, ReachBoundary};
+use super::judge::distance_from_line;
 use super::place::solve_one;
-use armforge_compiler::classify::{ArmEvidence, Geometry, Singularity};
+use armforge_compiler::classify::Geometry;
+use armforge_compiler::family::{Distance, SamplerBoundary, VerifyHints};
 
 /// What a sample is placed near.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
@@ -79,26 +80,6 @@ pub struct Sample {
     pub offset: f64,
 }
 
-/// A measure of the arm that one joint changes, and the value to put it at.
-#[derive(Clone, Copy, Debug)]
-struct Boundary {
-    /// The joint that moves (0-based).
-    joint: usize,
-    /// What is measured.
-    measure: Measure,
-    /// The boundary value, metres.
-    at: f64,
-    /// `+1` to place the sample above the boundary, `−1` below.
-    side: f64,
-}
-
-/// A distance of the wrist center (moved by joints 2 and 3 only; joint 1 turns about axis 1
-/// and changes neither distance) from the line of axis 1 or axis 2 at zero.
-#[derive(Clone, Copy, Debug)]
-enum Measure {
-    FromAxis(usize),
-}
-
 /// Configurations tried when deciding whether a boundary can be reached within the limits.
 const SCREENING: usize = 32;
 
@@ -108,13 +89,11 @@ pub struct Sampler {
     joints: [Joint; JOINTS],
     ranges: [[f64; 2]; JOINTS],
     size: f64,
-    center: [f64; 3],
-    /// Joint-5 joint values at which the wrist is aligned, within the limits.
+    /// Joint values of the wrist's aligning joint at which the wrist is aligned, within the
+    /// limits.
     aligned: Vec<f64>,
-    /// Joint to move and the axis-1 distance measure, when the wrist center can reach axis 1.
-    axis_1: Option<Boundary>,
-    /// Reach boundaries at which solutions merge.
-    boundaries: Vec<Boundary>,
+    /// The family's hints, with only the boundaries the limits let the arm reach.
+    hints: VerifyHints,
     seed: u64,
 }
 
@@ -140,82 +119,35 @@ impl Sampler {
     pub fn new(joints: [Joint; JOINTS], geometry: &Geometry, seed: u64) -> Sampler {
         let size = geometry.resolved.arm_size;
         let ranges = joints.map(|j| sample_range(&j, size));
-        let j5 = joints[4];
+        let hints = geometry.family.module().verify_hints(&joints, geometry);
+        let a = hints.aligned_joint;
         let mut aligned = Vec::new();
-        for &m in &geometry.wrist.aligned_at {
+        for &m in &hints.aligned_at {
             for turns in -3..=3 {
-                let q = j5.joint_value(m + TAU * f64::from(turns));
-                if q >= ranges[4][0] && q <= ranges[4][1] {
+                let q = joints[a].joint_value(m + TAU * f64::from(turns));
+                if q >= ranges[a][0] && q <= ranges[a][1] {
                     aligned.push(q);
                 }
             }
         }
         aligned.sort_by(f64::total_cmp);
-        let revolute = |i: usize| joints[i].kind == JointKind::Revolute;
-        let mut axis_1 = None;
-        let mut boundaries = Vec::new();
-        for s in &geometry.singularities {
-            match s {
-                Singularity::WristCenterOnAxis1 { reachable } if *reachable != Some(false) => {
-                    // Joint 2 moves the wrist center toward axis 1 (elbow, polar); for a
-                    // cylindrical arm the slide with more sideways travel does.
-                    let joint = if revolute(1) { 1 } else { 2 };
-                    axis_1 = Some(Boundary {
-                        joint,
-                        measure: Measure::FromAxis(0),
-                        at: 0.0,
-                        side: 1.0,
-                    });
-                }
-                Singularity::Shoulder {
-                    perpendicular: true,
-                    offset,
-                    ..
-                } if revolute(1) => boundaries.push(Boundary {
-                    joint: 1,
-                    measure: Measure::FromAxis(0),
-                    at: *offset,
-                    side: 1.0,
-                }),
-                _ => {}
-            }
-        }
-        match &geometry.arm {
-            ArmEvidence::Elbow(e) => {
-                for (at, side) in [
-                    (e.reach_from_axis_2[1], -1.0),
-                    (e.reach_from_axis_2[0], 1.0),
-                ] {
-                    boundaries.push(Boundary {
-                        joint: 2,
-                        measure: Measure::FromAxis(1),
-                        at,
-                        side,
-                    });
-                }
-            }
-            ArmEvidence::Polar(p) => boundaries.push(Boundary {
-                joint: 2,
-                measure: Measure::FromAxis(1),
-                at: p.closest_to_axis_2,
-                side: 1.0,
-            }),
-            ArmEvidence::Cylindrical(_) | ArmEvidence::Cartesian(_) => {}
-        }
         let mut sampler = Sampler {
             joints,
             ranges,
             size,
-            center: geometry.wrist_center,
             aligned,
-            axis_1: None,
-            boundaries: Vec::new(),
+            hints: VerifyHints {
+                on_axis: None,
+                boundaries: Vec::new(),
+                ..hints.clone()
+            },
             seed,
         };
         // Keep only what the limits let the arm reach (a slide whose limits stop short of the
         // nearest approach, say), so no sample is spent on the impossible.
-        sampler.axis_1 = axis_1.filter(|b| sampler.can_place(b));
-        sampler.boundaries = boundaries
+        sampler.hints.on_axis = hints.on_axis.filter(|b| sampler.can_place(b));
+        sampler.hints.boundaries = hints
+            .boundaries
             .into_iter()
             .filter(|b| sampler.can_place(b))
             .collect();
@@ -224,7 +156,7 @@ impl Sampler {
 
     /// True when the boundary can be placed from one of a few configurations (a stream of
     /// its own, apart from the samples').
-    fn can_place(&self, b: &Boundary) -> bool {
+    fn can_place(&self, b: &SamplerBoundary) -> bool {
         let mut rng = ChaCha8Rng::seed_from_u64(self.seed);
         rng.set_stream(u64::MAX);
         (0..SCREENING).any(|_| {
@@ -239,8 +171,8 @@ impl Sampler {
         match kind {
             Kind::WithinLimits => true,
             Kind::WristNearAligned => !self.aligned.is_empty(),
-            Kind::NearAxis1 => self.axis_1.is_some(),
-            Kind::ReachBoundary => !self.boundaries.is_empty(),
+            Kind::NearAxis1 => self.hints.on_axis.is_some(),
+            Kind::ReachBoundary => !self.hints.boundaries.is_empty(),
             Kind::AtLimit => self
                 .joints
                 .iter()
@@ -248,16 +180,10 @@ impl Sampler {
         }
     }
 
-    /// The reach boundaries the samples can be placed at (the wrist center's distance from
-    /// axis 1 or 2 at which two solutions of joints 1–3 merge).
-    pub fn reach_boundaries(&self) -> Vec<ReachBoundary> {
-        self.boundaries
-            .iter()
-            .map(|b| {
-                let Measure::FromAxis(axis) = b.measure;
-                ReachBoundary { axis, at: b.at }
-            })
-            .collect()
+    /// The family's hints with the boundaries the samples can be placed at (where two
+    /// solutions of the position step merge), for the judge.
+    pub fn hints(&self) -> &VerifyHints {
+        &self.hints
     }
 
     /// The sample ranges of the joints (SI).
@@ -275,14 +201,15 @@ impl Sampler {
             let offset = match kind {
                 Kind::WithinLimits => Some(0.0),
                 Kind::WristNearAligned => self.near_aligned(&mut q, &mut rng),
-                Kind::NearAxis1 => self.axis_1.and_then(|b| {
+                Kind::NearAxis1 => self.hints.on_axis.as_ref().and_then(|b| {
                     let delta = log_uniform(&mut rng, 1e-12, 1e-3);
-                    self.place(&mut q, &b, delta, &mut rng)
+                    self.place(&mut q, b, delta, &mut rng)
                 }),
                 Kind::ReachBoundary => {
-                    let i = rng.random_range(0..self.boundaries.len().max(1));
+                    let i = rng.random_range(0..self.hints.boundaries.len().max(1));
                     let delta = log_uniform(&mut rng, 1e-12, 1e-6);
-                    self.boundaries
+                    self.hints
+                        .boundaries
                         .get(i)
                         .and_then(|b| self.place(&mut q, b, delta, &mut rng))
                 }
@@ -314,12 +241,13 @@ impl Sampler {
             .get(rng.random_range(0..self.aligned.len().max(1)))?;
         let delta = log_uniform(rng, 1e-12, 1e-3);
         let side = if rng.random::<bool>() { 1.0 } else { -1.0 };
-        let [lo, hi] = self.ranges[4];
-        let step = delta / self.joints[4].direction.abs().max(f64::MIN_POSITIVE);
+        let a = self.hints.aligned_joint;
+        let [lo, hi] = self.ranges[a];
+        let step = delta / self.joints[a].direction.abs().max(f64::MIN_POSITIVE);
         let value = [at + side * step, at - side * step]
             .into_iter()
             .find(|v| *v >= lo && *v <= hi)?;
-        q[4] = value;
+        q[a] = value;
         Some(delta)
     }
 
@@ -339,12 +267,12 @@ impl Sampler {
         Some(delta)
     }
 
-    /// Moves the boundary's joint so that its measure lies `delta × size` on the boundary's
+    /// Moves the boundary's joint so that its distance lies `delta × size` on the boundary's
     /// side of it. Returns `delta` as placed (relative), or `None`.
     fn place(
         &self,
         q: &mut [f64; JOINTS],
-        b: &Boundary,
+        b: &SamplerBoundary,
         delta: f64,
         rng: &mut ChaCha8Rng,
     ) -> Option<f64> {
@@ -352,37 +280,33 @@ impl Sampler {
         if target < 0.0 {
             return None;
         }
-        let Measure::FromAxis(axis) = b.measure;
-        let line = &self.joints[axis];
-        // Only the boundary's joint moves: the other motion is computed once.
-        let x = if b.joint == 2 {
-            let e2 = joint_motion(&self.joints[1], q[1]);
-            let measure = |x: f64| {
-                let p = joint_motion(&self.joints[2], x).transform_point(&self.center);
-                distance_from_line(&e2.transform_point(&p), line)
-            };
-            solve_one(measure, self.ranges[2], target, rng.random::<f64>())?
-        } else {
-            let p = joint_motion(&self.joints[2], q[2]).transform_point(&self.center);
-            let measure = |x: f64| {
-                let w = joint_motion(&self.joints[b.joint], x).transform_point(&p);
-                distance_from_line(&w, line)
-            };
-            solve_one(measure, self.ranges[b.joint], target, rng.random::<f64>())?
+        let start = *q;
+        let measure = |x: f64| {
+            let mut moved = start;
+            moved[b.joint] = x;
+            distance_of(&self.joints, &b.distance, &moved)
         };
+        let x = solve_one(measure, self.ranges[b.joint], target, rng.random::<f64>())?;
         q[b.joint] = x;
-        let placed = (self.measure(&b.measure, q) - b.at) * b.side / self.size;
+        let placed = (distance_of(&self.joints, &b.distance, q) - b.at) * b.side / self.size;
         // Accept only what is really that close (bisection reaches the last bits of `x`).
         (placed > 0.25 * delta && placed < 4.0 * delta).then_some(placed)
     }
+}
 
-    fn measure(&self, m: &Measure, q: &[f64; JOINTS]) -> f64 {
-        let Measure::FromAxis(axis) = *m;
-        let e3 = joint_motion(&self.joints[2], q[2]);
-        let e2 = joint_motion(&self.joints[1], q[1]);
-        let w = e2.transform_point(&e3.transform_point(&self.center));
-        distance_from_line(&w, &self.joints[axis])
+/// The distance a family's hint names, for joint values `q`: its point moved by its joints
+/// (in its order; a mirrored joint's motion undone), from its axis line at zero.
+pub fn distance_of(joints: &[Joint; JOINTS], d: &Distance, q: &[f64; JOINTS]) -> f64 {
+    let mut p = d.point;
+    for &(j, undo) in &d.moved_by {
+        let m = joint_motion(&joints[j], q[j]);
+        p = if undo {
+            m.inverse().transform_point(&p)
+        } else {
+            m.transform_point(&p)
+        };
     }
+    distance_from_line(&p, &joints[d.axis])
 }
 
 /// `10^u` for `u` uniform between the exponents of `lo` and `hi`.

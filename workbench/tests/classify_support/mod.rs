@@ -208,14 +208,42 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
     let mut out: Vec<(String, f64)> = Vec::new();
     let mut put = |k: &str, v: f64| out.push((k.to_string(), v));
     put("arm_size", g.resolved.arm_size);
-    put("wrist.miss", g.wrist.miss);
-    for (i, x) in g.wrist.gaps.iter().enumerate() {
+    put(
+        "wrist.miss",
+        g.wrist.as_ref().expect("spherical wrist").miss,
+    );
+    for (i, x) in g
+        .wrist
+        .as_ref()
+        .expect("spherical wrist")
+        .gaps
+        .iter()
+        .enumerate()
+    {
         put(&format!("wrist.gap{i}"), *x);
     }
-    put("wrist.angle_4_5", g.wrist.angle_4_5);
-    put("wrist.angle_5_6", g.wrist.angle_5_6);
-    put("wrist.range0", g.wrist.axis_4_6_angle_range[0]);
-    put("wrist.range1", g.wrist.axis_4_6_angle_range[1]);
+    put(
+        "wrist.angle_4_5",
+        g.wrist.as_ref().expect("spherical wrist").angle_4_5,
+    );
+    put(
+        "wrist.angle_5_6",
+        g.wrist.as_ref().expect("spherical wrist").angle_5_6,
+    );
+    put(
+        "wrist.range0",
+        g.wrist
+            .as_ref()
+            .expect("spherical wrist")
+            .axis_4_6_angle_range[0],
+    );
+    put(
+        "wrist.range1",
+        g.wrist
+            .as_ref()
+            .expect("spherical wrist")
+            .axis_4_6_angle_range[1],
+    );
     put("solutions", f64::from(g.solutions.total));
     if let Some(r) = g.reach {
         put("reach.min", r.min);

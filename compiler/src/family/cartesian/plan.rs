@@ -5,10 +5,10 @@
 use armforge_runtime::internal::{ElbowRule, ShoulderRule};
 use armforge_runtime::{Elbow, Shoulder};
 
-use super::arm::Arm;
-use super::graph::Graph;
-use super::vec3::{self, num, V3};
-use super::ArmSolution;
+use crate::plan::arm::Arm;
+use crate::plan::graph::Graph;
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::ArmSolution;
 
 /// The label rules of a cartesian arm: no choices.
 pub fn rules(_arm: &Arm) -> (ShoulderRule, ElbowRule) {
@@ -28,7 +28,7 @@ fn inverse(u: [[f64; 3]; 3]) -> [[f64; 3]; 3] {
 }
 
 /// Builds joints 1–3 of a cartesian arm (one branch).
-pub fn solve(g: &mut Graph, arm: &Arm, ct: V3) -> Vec<ArmSolution> {
+pub fn solve(g: &mut Graph, arm: &Arm, _t: &crate::plan::Target, ct: V3) -> Vec<ArmSolution> {
     let inv = inverse([arm.axis(0), arm.axis(1), arm.axis(2)]);
     let delta = vec3::add_const(g, ct, num::scale(&arm.wrist_center, -1.0));
     let delta = vec3::name(

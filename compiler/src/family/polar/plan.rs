@@ -11,12 +11,12 @@ use armforge_runtime::internal::{CheckKind, ElbowRule, ShoulderRule};
 use armforge_runtime::plan::CheckLayout;
 use armforge_runtime::Elbow;
 
-use super::arm::Arm;
-use super::elbow::{self, joint_one};
-use super::graph::Graph;
-use super::subproblems::rotate_onto;
-use super::vec3::{self, num, V3};
-use super::{ArmSolution, Target, Turn};
+use crate::family::elbow::plan::{self as elbow, joint_one};
+use crate::plan::arm::Arm;
+use crate::plan::graph::Graph;
+use crate::plan::subproblems::rotate_onto;
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::{ArmSolution, Target, Turn};
 use crate::units::tidy;
 
 struct Constants {
@@ -101,7 +101,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
             let (nc, ns) = rotate_onto(g, k.h2, x, one.w[i]);
             // Scaled by |x| |w| rather than d²: near the pivot (d → 0) the two differ by
             // rounding far beyond d², and the pair must stay a rotation.
-            let (c2, s2) = super::unit_pair(g, nc, ns);
+            let (c2, s2) = crate::plan::unit_pair(g, nc, ns);
             // At the pivot (the wrist center on axis 2) joint 2 is free: held at `hold`.
             let c2 = g.select(pivot, hold_c, c2);
             let s2 = g.select(pivot, hold_s, s2);

@@ -12,12 +12,12 @@ use armforge_runtime::internal::CheckKind;
 use armforge_runtime::plan::CheckLayout;
 use armforge_runtime::{Elbow, Shoulder};
 
-use super::arm::Arm;
-use super::graph::Graph;
-use super::planar::{self, TwoLink};
-use super::subproblems::rotate_into_plane;
-use super::vec3::{self, num, V3};
-use super::{sign, ArmSolution, Target, Turn};
+use crate::plan::arm::Arm;
+use crate::plan::graph::Graph;
+use crate::plan::planar::{self, TwoLink};
+use crate::plan::subproblems::rotate_into_plane;
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::{sign, ArmSolution, Target, Turn};
 use crate::units::tidy;
 use armforge_runtime::internal::{ElbowRule, ShoulderRule};
 
@@ -101,19 +101,19 @@ pub fn rules(arm: &Arm) -> (ShoulderRule, ElbowRule) {
 /// from axis 2 once joint 1 is undone.
 pub(crate) struct JointOne {
     /// `(cos θ1, sin θ1)` for `σ = +1, −1`.
-    pub roots: [(super::graph::Id, super::graph::Id); 2],
+    pub roots: [(crate::plan::graph::Id, crate::plan::graph::Id); 2],
     /// `θ1` for `σ = +1, −1`.
-    pub angles: [super::graph::Id; 2],
+    pub angles: [crate::plan::graph::Id; 2],
     /// `w − p2 = E1(−θ1) c_t − p2` for `σ = +1, −1`.
     pub w: [V3; 2],
     /// `d²`: squared distance of `w` from axis 2, for `σ = +1, −1`.
-    pub d2: [super::graph::Id; 2],
+    pub d2: [crate::plan::graph::Id; 2],
     /// Shoulder labels for `σ = +1, −1`.
     pub shoulders: [Shoulder; 2],
     /// The shoulder's reality check (the wrist center outside the offset cylinder).
     pub check: CheckLayout,
     /// `≥ 0` when the wrist center is on axis 1.
-    pub singular: super::graph::Id,
+    pub singular: crate::plan::graph::Id,
 }
 
 /// Builds joint 1 of an elbow or polar arm.

@@ -10,11 +10,11 @@ use armforge_runtime::internal::{CheckKind, ElbowRule, ShoulderRule};
 use armforge_runtime::plan::CheckLayout;
 use armforge_runtime::{Elbow, Shoulder};
 
-use super::arm::Arm;
-use super::graph::Graph;
-use super::subproblems::rotate_onto;
-use super::vec3::{self, num, V3};
-use super::{ArmSolution, Target, Turn};
+use crate::plan::arm::Arm;
+use crate::plan::graph::Graph;
+use crate::plan::subproblems::rotate_onto;
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::{ArmSolution, Target, Turn};
 use crate::units::tidy;
 
 struct Constants {
@@ -190,7 +190,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
         let (nc, ns) = rotate_onto(g, k.h1, x, y_perp);
         // Scaled by |x| |radial| rather than ρ²: near axis 1 the two differ by rounding far
         // beyond ρ², and the pair must stay a rotation.
-        let (c1, s1) = super::unit_pair(g, nc, ns);
+        let (c1, s1) = crate::plan::unit_pair(g, nc, ns);
         let (rc, rs) = if facing {
             t.reference1
         } else {

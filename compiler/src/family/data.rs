@@ -1,0 +1,121 @@
+//! What a family hands to the workbench: numbers with their kind (the workbench renders them in
+//! the file's units), sampler and judge hints as plain data.
+
+/// A measured value, SI.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Value {
+    /// Yes or no.
+    Flag(bool),
+    /// Metres.
+    Length(f64),
+    /// Radians.
+    Angle(f64),
+    /// A unit direction.
+    Direction([f64; 3]),
+    /// A point, metres.
+    Point([f64; 3]),
+    /// A plain number.
+    Number(f64),
+}
+
+/// One evidence item of `inspect`: a key for JSON, a label for people and the value.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Judged {
+    /// JSON key.
+    pub key: &'static str,
+    /// What it is, for people.
+    pub label: &'static str,
+    /// The value.
+    pub value: Value,
+}
+
+impl Judged {
+    /// An item.
+    pub fn new(key: &'static str, label: &'static str, value: Value) -> Judged {
+        Judged { key, label, value }
+    }
+}
+
+/// A piece of a line of text: words, or a number the workbench shows in the file's units.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Part {
+    /// Words as they are.
+    Text(String),
+    /// A value.
+    Value(Value),
+}
+
+impl Part {
+    /// Words.
+    pub fn text(s: impl Into<String>) -> Part {
+        Part::Text(s.into())
+    }
+    /// A length, metres.
+    pub fn length(x: f64) -> Part {
+        Part::Value(Value::Length(x))
+    }
+    /// An angle, radians.
+    pub fn angle(x: f64) -> Part {
+        Part::Value(Value::Angle(x))
+    }
+    /// A plain number.
+    pub fn number(x: f64) -> Part {
+        Part::Value(Value::Number(x))
+    }
+}
+
+/// The distance of a point, carried by some joints, from a joint's axis line at zero.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Distance {
+    /// The point, base frame with every joint at zero, metres.
+    pub point: [f64; 3],
+    /// The joints (0-based) that move it, applied in this order (the one nearest the point
+    /// first); `true` applies the joint's motion undone (a mirrored arm's joint).
+    pub moved_by: Vec<(usize, bool)>,
+    /// The joint (0-based) whose axis line at zero it is measured from.
+    pub axis: usize,
+}
+
+/// A reach boundary or singular distance the sampler places samples near.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SamplerBoundary {
+    /// What is measured.
+    pub distance: Distance,
+    /// The joint (0-based) the sampler moves to place it (one of `distance.moved_by`, or
+    /// another joint the distance depends on).
+    pub joint: usize,
+    /// The boundary value, metres.
+    pub at: f64,
+    /// `+1` to place samples above it, `−1` below.
+    pub side: f64,
+}
+
+/// What conditions a joint's value, for `verify`'s judge.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Role {
+    /// Conditioned by the first (0) or second (1) tracked axis distance.
+    Axis(usize),
+    /// Set where two solutions merge at a reach boundary (the bend).
+    Bend,
+    /// The middle joint of the wrist.
+    WristMiddle,
+    /// A joint that splits a rotation with another when the wrist lines up.
+    WristSplit,
+}
+
+/// How `verify` samples and judges an arm of a family.
+#[derive(Clone, Debug, PartialEq)]
+pub struct VerifyHints {
+    /// The joint (0-based) whose value lines the wrist up.
+    pub aligned_joint: usize,
+    /// Its model values at which the wrist lines up (radians).
+    pub aligned_at: Vec<f64>,
+    /// The two axis distances that condition the position step (`None` when the joint slides).
+    pub axes: [Option<Distance>; 2],
+    /// Where a position joint is free (the placed point on its axis), if anywhere.
+    pub on_axis: Option<SamplerBoundary>,
+    /// Reach boundaries where two solutions merge.
+    pub boundaries: Vec<SamplerBoundary>,
+    /// What conditions each joint.
+    pub roles: [Role; 6],
+}

@@ -1,0 +1,141 @@
+//! The geometry families and their registry.
+//!
+//! A family is one folder here. It owns everything armforge knows about one shape of arm:
+//! its recognition and evidence ([`FamilyModule::recognise`]), its plan
+//! ([`FamilyModule::build_plan`]), the items `inspect` reports ([`FamilyModule::evidence`]),
+//! the conditions the review sheet lists ([`FamilyModule::conditions`]), the hints `verify`
+//! samples and judges by ([`FamilyModule::verify_hints`]) and its branch-label rule (in its
+//! plan). Classification, planning, the review sheet and `verify` iterate over [`REGISTRY`];
+//! what the workbench needs from a family is data (numbers with their kind), never code, so
+//! this crate stays free of the workbench's dependencies.
+//!
+//! Adding a family: a folder, a variant of [`Family`] and of
+//! [`crate::classify::ArmEvidence`], and one line in [`REGISTRY`].
+
+// A rejection is made once per classification; keeping it unboxed keeps the pinned
+// `Result<Geometry, Rejection>` (as in `classify`).
+#![allow(clippy::result_large_err)]
+
+pub mod cartesian;
+pub mod cylindrical;
+pub mod data;
+pub mod elbow;
+pub mod polar;
+
+pub use data::{Distance, Judged, Part, Role, SamplerBoundary, Value, VerifyHints};
+
+use armforge_runtime::Joint;
+
+use crate::classify::context::Context;
+use crate::classify::{ArmEvidence, Geometry, Reach, Rejection, Singularity, WristEvidence};
+use crate::model::Model;
+use crate::plan::Plan;
+
+/// The family of an arm: the shape armforge solves it by. The names are armforge's own.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(feature = "serde", serde(rename_all = "snake_case"))]
+pub enum Family {
+    /// R R R with axis 2 ∥ axis 3 and axis 1 ∦ axis 2, spherical wrist.
+    Elbow,
+    /// R R P with the slide ⟂ axis 2 and axis 1 ∦ axis 2, spherical wrist.
+    Polar,
+    /// R P P with the slides not parallel and not both ⟂ axis 1, spherical wrist.
+    Cylindrical,
+    /// P P P with independent slides, spherical wrist.
+    Cartesian,
+}
+
+impl Family {
+    /// The family's module in the registry.
+    pub fn module(self) -> &'static dyn FamilyModule {
+        REGISTRY
+            .iter()
+            .copied()
+            .find(|m| m.family() == self)
+            .unwrap_or(REGISTRY[0])
+    }
+
+    /// The family's name as armforge writes it.
+    pub fn name(self) -> &'static str {
+        self.module().name()
+    }
+
+    /// The kinds of the joints the family's position step solves.
+    pub fn pattern(self) -> &'static str {
+        self.module().pattern()
+    }
+
+    /// The most solutions the position step has for one target (distinct modulo full turns).
+    pub fn position_solutions(self) -> u32 {
+        self.module().position_solutions()
+    }
+}
+
+/// Every family, in the order classification tries them: the first that recognises an arm
+/// solves it; when none does, the first rejection in this order is the reason given.
+pub static REGISTRY: &[&dyn FamilyModule] = &[
+    &elbow::ELBOW,
+    &polar::POLAR,
+    &cylindrical::CYLINDRICAL,
+    &cartesian::CARTESIAN,
+];
+
+/// What a family found on an arm it recognises.
+#[derive(Clone, Debug)]
+pub struct Found {
+    /// The point its position step places, base frame at zero, metres (the wrist center).
+    pub center: [f64; 3],
+    /// The spherical wrist, when the arm has one.
+    pub wrist: Option<WristEvidence>,
+    /// The family's evidence.
+    pub arm: ArmEvidence,
+    /// The reach of the placed point, when it has a natural origin.
+    pub reach: Option<Reach>,
+    /// Every singular configuration, the wrist's first.
+    pub singularities: Vec<Singularity>,
+    /// Solutions of the position step and, for each, of the orientation step.
+    pub solutions: [u32; 2],
+}
+
+/// A family's verdict on an arm.
+#[derive(Clone, Debug)]
+#[allow(clippy::large_enum_variant)]
+pub enum Recognition {
+    /// The arm is of this family.
+    Mine(Found),
+    /// Not this family; with the reason when the arm has the family's shape but fails one of
+    /// its conditions (reported when no family recognises the arm).
+    NotMine(Option<Rejection>),
+}
+
+/// One geometry family: everything armforge knows about one shape of arm.
+pub trait FamilyModule: Sync {
+    /// The family.
+    fn family(&self) -> Family;
+    /// Its name as armforge writes it.
+    fn name(&self) -> &'static str;
+    /// The kinds of the joints its position step solves (`R R R`, …).
+    fn pattern(&self) -> &'static str;
+    /// The most solutions its position step has for one target.
+    fn position_solutions(&self) -> u32;
+    /// Recognises the arm of `ctx`, measuring its evidence, or says why not.
+    fn recognise(&self, ctx: &Context) -> Recognition;
+    /// The plan of a recognised arm.
+    fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan;
+    /// The items `inspect` reports for the family's evidence.
+    fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged>;
+    /// One sentence on how the arm decouples, for the review sheet.
+    fn decoupling(&self) -> &'static str {
+        "Wrist: **spherical** (axes 4, 5 and 6 meet in one point, the wrist center)."
+    }
+    /// What the solve needs, as measured on the plan's arm: one line of parts each.
+    fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>>;
+    /// Where `verify` places samples and how it judges them, for the arm's joints (SI).
+    fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints;
+    /// The position step of a family whose joints 1–3 place a spherical wrist's center (the
+    /// wrist-at-base family reuses it on the mirrored arm); `None` for the others.
+    fn position_step(&self) -> Option<crate::plan::PositionStep> {
+        None
+    }
+}

@@ -1,0 +1,165 @@
+//! The polar family: R R P with the slide ⟂ axis 2 and axis 1 ∦ axis 2, a spherical wrist.
+//! Recognition and evidence here, the plan in [`plan`].
+
+pub mod plan;
+
+use armforge_runtime::Joint;
+use nalgebra::Point3;
+
+use super::data::{Judged, Part, SamplerBoundary, Value, VerifyHints};
+use super::{Family, FamilyModule, Recognition};
+use crate::classify::context::Context;
+use crate::classify::evidence::{
+    reach_from_shoulder, shoulder, shoulder_items, shoulder_singularity, Measured,
+};
+use crate::classify::family::check_axis_1_not_parallel_to_2;
+use crate::classify::reach::{line_norm_range, model_range};
+use crate::classify::reject::{Reason, Rejection};
+use crate::classify::Singularity;
+use crate::classify::{decoupled, ArmEvidence, Geometry};
+use crate::model::Model;
+use crate::plan::Plan;
+
+pub use crate::classify::evidence::PolarEvidence;
+
+/// The polar family.
+pub struct Polar;
+
+/// The registry's entry.
+pub static POLAR: Polar = Polar;
+
+/// Polar: axis 1 ∦ axis 2 and the slide ⟂ axis 2, so the wrist center's component along
+/// axis 2 stays fixed while joints 2 and 3 move.
+fn check(ctx: &Context, _center: &Point3<f64>) -> Result<(), Rejection> {
+    check_axis_1_not_parallel_to_2(ctx)?;
+    let angle = ctx.angle(2, 3);
+    if angle < std::f64::consts::FRAC_PI_2 - ctx.tol.angle {
+        return Err(ctx.reject(Reason::PolarSlideNotPerpendicular { angle }, 3, Vec::new()));
+    }
+    Ok(())
+}
+
+fn measure(ctx: &Context, center: &Point3<f64>) -> Measured {
+    let s = shoulder(ctx, center);
+    let axis2 = ctx.line(2);
+    let slide = ctx.line(3).direction.into_inner();
+    let w = center - axis2.project(center);
+    let closest_at = -w.dot(&slide);
+    let closest = (w + slide * closest_at).norm();
+    let range = model_range(&ctx.model.joints[2].joint);
+    let rho = line_norm_range(&w, &slide, range);
+    let singularities = vec![
+        shoulder_singularity(ctx, &s, center),
+        Singularity::SlideClosestToAxis2 {
+            joint_3_at: closest_at,
+        },
+    ];
+    let reach = reach_from_shoulder(rho, s.sideways_offset);
+    Measured {
+        arm: ArmEvidence::Polar(PolarEvidence {
+            shoulder: s,
+            slide_direction: [slide.x, slide.y, slide.z],
+            slide_angle_to_axis_2: ctx.angle(2, 3),
+            closest_to_axis_2: closest,
+            closest_at,
+            reach_from_axis_2: rho,
+        }),
+        reach: Some(reach),
+        singularities,
+    }
+}
+
+fn position(
+    g: &mut crate::plan::graph::Graph,
+    arm: &crate::plan::Arm,
+    t: &crate::plan::Target,
+    ct: crate::plan::vec3::V3,
+) -> crate::plan::Position {
+    let (shoulder, elbow) = plan::rules(arm);
+    crate::plan::Position {
+        solutions: plan::solve(g, arm, t, ct),
+        shoulder,
+        elbow,
+    }
+}
+
+impl FamilyModule for Polar {
+    fn family(&self) -> Family {
+        Family::Polar
+    }
+
+    fn name(&self) -> &'static str {
+        "polar"
+    }
+
+    fn pattern(&self) -> &'static str {
+        "R R P"
+    }
+
+    /// Two roots of joint 1 × two of the slide.
+    fn position_solutions(&self) -> u32 {
+        4
+    }
+
+    fn recognise(&self, ctx: &Context) -> Recognition {
+        decoupled::recognise(ctx, self, check, measure)
+    }
+
+    fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
+        crate::plan::decoupled_plan(model, geometry, position)
+    }
+
+    fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged> {
+        let ArmEvidence::Polar(p) = arm else {
+            return Vec::new();
+        };
+        let mut items = shoulder_items(&p.shoulder);
+        items.push(Judged::new(
+            "slide_direction",
+            "slide of joint 3 (direction at zero)",
+            Value::Direction(p.slide_direction),
+        ));
+        items.push(Judged::new(
+            "slide_angle_to_axis_2",
+            "angle between the slide and axis 2",
+            Value::Angle(p.slide_angle_to_axis_2),
+        ));
+        items.push(Judged::new(
+            "closest_to_axis_2",
+            "closest approach of the wrist center's line of travel to axis 2",
+            Value::Length(p.closest_to_axis_2),
+        ));
+        items
+    }
+
+    fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>> {
+        let arm = &plan.arm;
+        let mut lines = decoupled::wrist_conditions(geometry);
+        lines.push(vec![
+            Part::text("axis 1 ∦ axis 2: angle "),
+            Part::angle(decoupled::line_angle(arm, 1, 2)),
+        ]);
+        lines.push(vec![
+            Part::text("slide 3 ⟂ axis 2: angle "),
+            Part::angle(decoupled::line_angle(arm, 2, 3)),
+        ]);
+        lines
+    }
+
+    fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {
+        let mut hints = decoupled::verify_hints(joints, geometry);
+        if let ArmEvidence::Polar(p) = &geometry.arm {
+            hints.boundaries.push(SamplerBoundary {
+                distance: decoupled::center_distance(geometry, 1),
+                joint: 2,
+                at: p.closest_to_axis_2,
+                side: 1.0,
+            });
+        }
+        hints
+    }
+
+    fn position_step(&self) -> Option<crate::plan::PositionStep> {
+        Some(position)
+    }
+}
