@@ -59,6 +59,13 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
             );
         }
         ArmEvidence::Cartesian(_) => {}
+        ArmEvidence::General(_) => {
+            let _ = writeln!(
+                out,
+                "- the reach of a general arm has no simple closed form: where two roots of the \
+                 quartic merge, two solutions meet (the position Jacobian is singular there)"
+            );
+        }
     }
     if let ArmEvidence::Elbow(e) = &geometry.arm {
         if !e.shoulder.axes_1_2_meet {

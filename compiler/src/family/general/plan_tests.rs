@@ -9,7 +9,7 @@ use armforge_runtime::plan::{evaluate, Op};
 use armforge_runtime::{Joint, JointKind, Pose};
 
 use super::*;
-use crate::classify::Family;
+use crate::family::Family;
 use crate::plan::decouple;
 use crate::plan::samples::{sample_count, SampleRng};
 
@@ -72,7 +72,7 @@ struct Position {
 }
 
 fn position_plan(arm: &Arm) -> Position {
-    let k = constants(arm, 1e-6, 1e-9).expect("a general arm");
+    let k = constants(arm);
     let mut g = Graph::new();
     let t = decouple::target(&mut g);
     let sols = solve(&mut g, arm, &k, &t, t.translation);

@@ -27,7 +27,7 @@
 //!
 //! a trigonometric polynomial of degree 2 (`X`, `Y`, `Z` and `|r|²` are each
 //! `k0 + k1 cos θ3 + k2 sin θ3`), i.e. a quartic in a half-angle tangent:
-//! [`super::quartic::trig_roots`] solves it by Ferrari's method (at most 4 roots: Pieper 1968).
+//! [`crate::plan::quartic::trig_roots`] solves it by Ferrari's method (at most 4 roots: Pieper 1968).
 //!
 //! # Back substitution
 //!
@@ -49,12 +49,12 @@ use armforge_runtime::internal::{CheckKind, ElbowRule, ShoulderRule};
 use armforge_runtime::plan::CheckLayout;
 use armforge_runtime::{Elbow, Shoulder};
 
-use super::arm::Arm;
-use super::graph::{Graph, Id};
-use super::quartic::trig_roots;
-use super::subproblems::rotate_onto;
-use super::vec3::{self, num, V3};
-use super::{sign, unit_pair, ArmSolution, Target, Turn};
+use crate::plan::arm::Arm;
+use crate::plan::graph::{Graph, Id};
+use crate::plan::quartic::{away_from_zero, trig_roots};
+use crate::plan::subproblems::rotate_onto;
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::{sign, unit_pair, ArmSolution, Target, Turn};
 use crate::units::tidy;
 
 /// Added to a root's residual in the slots of the labels it does not have: such a candidate
@@ -64,40 +64,40 @@ const MISMATCH: f64 = 1e30;
 /// The constants of a general arm's position step.
 #[derive(Clone, Copy, Debug)]
 pub struct Constants {
-    h1: [f64; 3],
-    h2: [f64; 3],
-    h3: [f64; 3],
+    /// Axis 1.
+    pub h1: [f64; 3],
+    /// Axis 2.
+    pub h2: [f64; 3],
+    /// Axis 3.
+    pub h3: [f64; 3],
     /// Foot of the common normal on axis 1.
-    f1: [f64; 3],
+    pub f1: [f64; 3],
     /// Length of the common normal of axes 1 and 2.
-    a: f64,
+    pub a: f64,
     /// Unit common normal, from axis 1 toward axis 2.
-    n: [f64; 3],
+    pub n: [f64; 3],
     /// `h2 × n`.
-    ell: [f64; 3],
-    cos_a: f64,
-    sin_a: f64,
+    pub ell: [f64; 3],
+    /// `cos α = h1 · h2`.
+    pub cos_a: f64,
+    /// `sin α = |h1 × h2|`.
+    pub sin_a: f64,
     /// `m · ℓ = ±1`.
-    mu: f64,
+    pub mu: f64,
     /// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`.
-    r0: [f64; 3],
-    rc: [f64; 3],
-    rs: [f64; 3],
+    pub r0: [f64; 3],
+    /// See `r0`.
+    pub rc: [f64; 3],
+    /// See `r0`.
+    pub rs: [f64; 3],
     /// `h3 × rc`, `h3 × rs`: `h3 × R3 (c − p3)` for the Jacobian.
-    jc: [f64; 3],
-    js: [f64; 3],
-    /// The labels at zero: the shoulder side and the aspect sign.
-    facing: f64,
-    up: f64,
-}
-
-/// Why joints 1–3 do not suit the general reduction (and which numbers say so).
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub enum Unsuited {
-    /// Axes 1 and 2 parallel: `sin α` this small.
-    ParallelAxes12(f64),
-    /// Axes 1 and 2 meet: the common normal this short (m).
-    AxesMeet12(f64),
+    pub jc: [f64; 3],
+    /// See `jc`.
+    pub js: [f64; 3],
+    /// The shoulder side that means `Facing` (the side at zero).
+    pub facing: f64,
+    /// The Jacobian sign that means `Up` (the sign at zero).
+    pub up: f64,
 }
 
 /// The common normal of two lines `p + s h`: its feet on each line.
@@ -115,23 +115,17 @@ fn common_normal(p1: &[f64; 3], h1: &[f64; 3], p2: &[f64; 3], h2: &[f64; 3]) -> 
     ]
 }
 
-/// The constants of `arm`, or why the reduction does not apply: it divides by `sin α` and by
-/// `a`, which must stay clear of zero (`min_sin`, and `min_length` metres).
-pub fn constants(arm: &Arm, min_sin: f64, min_length: f64) -> Result<Constants, Unsuited> {
+/// The constants of `arm` (the classifier has made sure that `sin α` and `a` are clear of
+/// zero; they are kept above 1e-300 here all the same).
+pub fn constants(arm: &Arm) -> Constants {
     let c = arm.wrist_center;
     let (h1, p1) = (arm.axis(0), arm.point(0));
     let (h2, p2) = (arm.axis(1), arm.point(1));
     let (h3, p3) = (arm.axis(2), arm.point(2));
     let cos_a = num::dot(&h1, &h2);
-    let sin_a = num::norm(&num::cross(&h1, &h2));
-    if sin_a < min_sin {
-        return Err(Unsuited::ParallelAxes12(sin_a));
-    }
+    let sin_a = num::norm(&num::cross(&h1, &h2)).max(1e-300);
     let [f1, f2] = common_normal(&p1, &h1, &p2, &h2);
-    let a = num::norm(&num::sub(&f2, &f1));
-    if a < min_length {
-        return Err(Unsuited::AxesMeet12(a));
-    }
+    let a = num::norm(&num::sub(&f2, &f1)).max(1e-300);
     let n = num::scale(&num::sub(&f2, &f1), 1.0 / a);
     let ell = num::cross(&h2, &n);
     let m = num::scale(&num::sub(&h1, &num::scale(&h2, cos_a)), 1.0 / sin_a);
@@ -147,7 +141,7 @@ pub fn constants(arm: &Arm, min_sin: f64, min_length: f64) -> Result<Constants, 
     let d2 = num::cross(&h2, &num::sub(&c, &p2));
     let d3 = num::cross(&h3, &v);
     let up = sign(num::dot(&d1, &num::cross(&d2, &d3)));
-    Ok(Constants {
+    Constants {
         h1,
         h2,
         h3,
@@ -165,7 +159,7 @@ pub fn constants(arm: &Arm, min_sin: f64, min_length: f64) -> Result<Constants, 
         js: num::cross(&h3, &rs),
         facing,
         up,
-    })
+    }
 }
 
 /// The label rules of a general arm.
@@ -468,7 +462,7 @@ fn carry(
         let p = g.mul(j11, j22);
         let q = g.mul(j12, j21);
         let d = g.sub(p, q);
-        super::quartic::away_from_zero(g, d)
+        away_from_zero(g, d)
     };
     // (δ2, δ3) = −J⁻¹ (G1, G2).
     let delta2 = {
@@ -713,4 +707,5 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id) -> Vec<ArmSo
 }
 
 #[cfg(test)]
+#[path = "plan_tests.rs"]
 mod tests;
