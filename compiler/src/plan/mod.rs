@@ -98,6 +98,10 @@ pub struct Plan {
     /// held when the position step leaves it free (joint 1 of a decoupled arm) and the one held
     /// when the orientation step does (joint 4 of a spherical wrist).
     pub free_joints: [usize; 2],
+    /// Labels are read by solving: `branch_of(q)` is the label of the solution at
+    /// `forward(q)` nearest `q` (the general family, whose labels of two roots can coincide
+    /// and then take a free slot); otherwise, and as the fallback, by [`Plan::rule`].
+    pub labels_by_solving: bool,
 }
 
 /// `+1` for non-negative, `−1` for negative.
@@ -415,6 +419,7 @@ pub fn assemble(
         settings,
         zero_reference,
         free_joints: free,
+        labels_by_solving: false,
     }
 }
 

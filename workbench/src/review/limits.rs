@@ -20,12 +20,13 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
             Some(item) => {
                 let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
             }
-            None => {
+            None if solvable.pattern == "P P P" => {
                 let _ = writeln!(
                     out,
                     "- the wrist center moves in the box the three slides span (their limits in §1)"
                 );
             }
+            None => {}
         }
     }
     match &geometry.arm {

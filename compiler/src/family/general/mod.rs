@@ -99,7 +99,9 @@ impl FamilyModule for General {
     }
 
     fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
-        crate::plan::decoupled_plan(model, geometry, position)
+        let mut plan = crate::plan::decoupled_plan(model, geometry, position);
+        plan.labels_by_solving = true;
+        plan
     }
 
     fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged> {

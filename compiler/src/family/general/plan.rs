@@ -218,6 +218,8 @@ struct Root {
     angles: [Id; 3],
     turns: [(Id, Id); 3],
     residual: Id,
+    /// `det² / scale⁵` (metres): at most the length tolerance where two roots merge.
+    merge: Id,
     /// `≥ 0` for `Facing`.
     facing: Id,
     /// `≥ 0` for `Up`.
@@ -322,9 +324,22 @@ pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec
         .roots
         .iter()
         .enumerate()
-        .map(|(i, &cs3)| carry(g, k, t, (u, rho, zeta), x, y, z, cs3, on_axis, i + 1))
+        .map(|(i, &cs3)| {
+            carry(
+                g,
+                k,
+                t,
+                (u, rho, zeta),
+                x,
+                y,
+                z,
+                cs3,
+                on_axis,
+                (i + 1, arm.scale),
+            )
+        })
         .collect();
-    route(g, k, &carried, on_axis)
+    route(g, k, &carried, on_axis, tol)
 }
 
 /// The wrist center with joint 1 undone for joint pairs `(c2, s2)`, `(c3, s3)`:
@@ -426,7 +441,7 @@ fn carry(
     z: Linear,
     (c3, s3): (Id, Id),
     on_axis: Id,
-    n: usize,
+    (n, scale): (usize, f64),
 ) -> Root {
     let rn = along(g, k, k.n);
     let rl = along(g, k, k.ell);
@@ -481,11 +496,19 @@ fn carry(
     let (c3n, s3n) = turn_by(g, (c3, s3), delta3);
     let after = placed(g, k, z, (c2n, s2n), (c3n, s3n));
     let (_, _, miss1) = misses(g, k, after.w, rho, zeta, four_rho);
-    let better = g.sub(miss0, miss1);
+    let lowers = g.sub(miss0, miss1);
+    // A short step only (|δ| ≤ 1e-6 rad): the step polishes a root; it must not carry the real
+    // part of a complex pair onto a neighbouring real root (a duplicate with another label).
+    let d22 = g.mul(delta2, delta2);
+    let d33 = g.mul(delta3, delta3);
+    let step2 = g.add(d22, d33);
+    let bound = g.exact(1e-12);
+    let short = g.sub(bound, step2);
+    let better = g.min(lowers, short);
     let better = g.name(
         better,
         &format!("refine_{n}"),
-        "≥ 0 when the Newton step on the two equations lowers the miss",
+        "≥ 0 when the Newton step on the two equations is short and lowers the miss",
     );
     let c2 = g.select(better, c2n, c2);
     let s2 = g.select(better, s2n, s2);
@@ -539,10 +562,19 @@ fn carry(
     let det = vec3::dot(g, d1, d23);
     let up_sign = g.constant(k.up);
     let up = g.mul(up_sign, det);
+    let det2 = g.mul(det, det);
+    let per_scale5 = g.constant(1.0 / scale.powi(5));
+    let merge = g.mul(det2, per_scale5);
+    let merge = g.name(
+        merge,
+        &format!("merge_{n}"),
+        "det² / scale⁵: at most the length tolerance where two roots merge (a reach boundary)",
+    );
     Root {
         angles: [theta1, theta2, theta3],
         turns: [(c1, s1), (c2, s2), (c3, s3)],
         residual,
+        merge,
         facing: g.name(side, &format!("side_{n}"), "≥ 0: shoulder facing"),
         up: g.name(up, &format!("aspect_{n}"), "≥ 0: elbow up (Jacobian sign)"),
     }
@@ -554,6 +586,7 @@ struct Bundle {
     angles: [Id; 3],
     turns: [(Id, Id); 3],
     residual: Id,
+    merge: Id,
     /// Indicators (1 or 0) of which root this is.
     which: [Id; 4],
 }
@@ -567,6 +600,7 @@ impl Bundle {
             out.turns[j].1 = g.select(c, a.turns[j].1, b.turns[j].1);
         }
         out.residual = g.select(c, a.residual, b.residual);
+        out.merge = g.select(c, a.merge, b.merge);
         for i in 0..4 {
             out.which[i] = g.select(c, a.which[i], b.which[i]);
         }
@@ -574,24 +608,28 @@ impl Bundle {
     }
 }
 
-/// The bundle with the smallest score, and that score.
-fn smallest(g: &mut Graph, bundles: &[Bundle], scores: &[Id]) -> (Bundle, Id) {
+/// The bundle with the smallest rank, and its check value (`checks[i]` for bundle `i`).
+fn smallest(g: &mut Graph, bundles: &[Bundle], ranks: &[Id], checks: &[Id]) -> (Bundle, Id) {
     let mut best = bundles[0];
-    let mut score = scores[0];
-    for (b, &s) in bundles.iter().zip(scores).skip(1) {
-        let c = g.sub(score, s);
-        best = Bundle::pick(g, c, b, &best);
-        score = g.select(c, s, score);
+    let mut rank = ranks[0];
+    let mut check = checks[0];
+    for ((b, &r), &c) in bundles.iter().zip(ranks).zip(checks).skip(1) {
+        let lower = g.sub(rank, r);
+        best = Bundle::pick(g, lower, b, &best);
+        rank = g.select(lower, r, rank);
+        check = g.select(lower, c, check);
     }
-    (best, score)
+    (best, check)
 }
 
 /// Routes each root to the slot of its label: slot `(shoulder, elbow)` takes, among the
-/// roots with that label, the one with the smallest residual. A slot that no root belongs to
-/// then takes the best root no slot took (two real roots with one label: the second would
-/// otherwise be lost; it keeps its joint values under this slot's label), else fails its
-/// check ([`MISMATCH`] added to its residual).
-fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id) -> Vec<ArmSolution> {
+/// roots with that label, a real one (residual within `tol`) before a complex one, and among
+/// those the one farthest from the shoulder plane (a rank that rounding cannot swap, so that
+/// solving again at the same pose routes alike). A slot that no root belongs to then takes
+/// the best root no slot took (two real roots with one label: the second would otherwise be
+/// lost; it keeps its joint values under this slot's label), else fails its check
+/// ([`MISMATCH`] added to its residual).
+fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) -> Vec<ArmSolution> {
     let big = g.exact(MISMATCH);
     let zero = g.constant(0.0);
     let one = g.constant(1.0);
@@ -601,20 +639,55 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id) -> Vec<ArmSo
         (Shoulder::Across, Elbow::Up),
         (Shoulder::Across, Elbow::Down),
     ];
+    // A root that lands on an earlier one (joints 2 and 3 within about 1e-7 rad: a double
+    // root, or a complex pair's real part polished onto a real root) is that root again: it
+    // fails its check.
+    let near = g.exact(1e-14);
+    let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
+    for j in 1..roots.len() {
+        for i in 0..j {
+            let mut d = zero;
+            for joint in 1..3 {
+                let (a, b) = (roots[i].turns[joint], roots[j].turns[joint]);
+                let dc = g.sub(a.0, b.0);
+                let ds = g.sub(a.1, b.1);
+                let dd = g.mul_add2(dc, dc, ds, ds);
+                d = g.add(d, dd);
+            }
+            let same = g.sub(near, d);
+            let penalty = g.select(same, big, zero);
+            residuals[j] = g.add(residuals[j], penalty);
+        }
+    }
     let bundles: Vec<Bundle> = roots
         .iter()
+        .zip(&residuals)
         .enumerate()
-        .map(|(i, r)| Bundle {
+        .map(|(i, (r, &residual))| Bundle {
             angles: r.angles,
             turns: r.turns,
-            residual: r.residual,
+            residual,
+            merge: r.merge,
             which: [0, 1, 2, 3].map(|j| if j == i { one } else { zero }),
+        })
+        .collect();
+    // Rank: unreal roots last, then nearest the shoulder plane last.
+    let unreal = g.exact(MISMATCH * 1e-10);
+    let floor = g.exact(tol * tol);
+    let base_rank: Vec<Id> = roots
+        .iter()
+        .zip(&residuals)
+        .map(|(r, &residual)| {
+            let over = g.sub(residual, floor);
+            let u = g.select(over, unreal, zero);
+            let side = g.abs(r.facing);
+            g.sub(u, side)
         })
         .collect();
     // Pass 1: each slot's own roots.
     let mut first = Vec::new();
     for &(shoulder, elbow) in &slots {
-        let scores: Vec<Id> = roots
+        let penalties: Vec<Id> = roots
             .iter()
             .map(|r| {
                 let side = if shoulder == Shoulder::Facing {
@@ -629,11 +702,20 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id) -> Vec<ArmSo
                 };
                 let p1 = g.select(side, zero, big);
                 let p2 = g.select(aspect, zero, big);
-                let p = g.add(p1, p2);
-                g.add(r.residual, p)
+                g.add(p1, p2)
             })
             .collect();
-        first.push(smallest(g, &bundles, &scores));
+        let ranks: Vec<Id> = penalties
+            .iter()
+            .zip(&base_rank)
+            .map(|(&p, &r)| g.add(p, r))
+            .collect();
+        let checks: Vec<Id> = penalties
+            .iter()
+            .zip(&residuals)
+            .map(|(&p, &r)| g.add(r, p))
+            .collect();
+        first.push(smallest(g, &bundles, &ranks, &checks));
     }
     // Which roots pass 1 placed (a slot "has" its root when its score is below MISMATCH).
     let half_big = g.exact(MISMATCH / 2.0);
@@ -659,15 +741,18 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id) -> Vec<ArmSo
             },
             if elbow == Elbow::Up { "u" } else { "d" }
         );
-        let scores: Vec<Id> = bundles
+        let penalties: Vec<Id> = taken.iter().map(|&t| g.mul(big, t)).collect();
+        let ranks: Vec<Id> = penalties
             .iter()
-            .enumerate()
-            .map(|(i, b)| {
-                let penalty = g.mul(big, taken[i]);
-                g.add(b.residual, penalty)
-            })
+            .zip(&base_rank)
+            .map(|(&p, &r)| g.add(p, r))
             .collect();
-        let (spare, spare_score) = smallest(g, &bundles, &scores);
+        let checks: Vec<Id> = penalties
+            .iter()
+            .zip(&bundles)
+            .map(|(&p, b)| g.add(b.residual, p))
+            .collect();
+        let (spare, spare_score) = smallest(g, &bundles, &ranks, &checks);
         let (own, own_score) = first[s];
         let bundle = Bundle::pick(g, has[s], &own, &spare);
         let score = g.select(has[s], own_score, spare_score);
@@ -698,7 +783,7 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id) -> Vec<ArmSo
             checks: vec![CheckLayout {
                 kind: CheckKind::Residual,
                 have_squared: score,
-                limit: zero,
+                limit: bundle.merge,
             }],
             on_axis_1: Some(on_axis),
         });

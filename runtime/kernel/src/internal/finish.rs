@@ -272,6 +272,7 @@ fn passes<S: Scalar>(checks: &[Check<S>; 4], settings: &Settings<S>) -> Option<b
             CheckKind::Residual => {
                 // A NaN residual fails too.
                 fails |= !c.have_squared.is_finite() | (c.have_squared > tol * tol);
+                at_limit |= c.limit <= tol;
             }
             CheckKind::WristOrientation => {
                 fails |= c.have_squared < -settings.angle_tolerance;
