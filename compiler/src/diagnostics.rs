@@ -42,11 +42,36 @@ pub const MAX_SHOWN: usize = 50;
 /// line is shown as a window around the caret).
 const MAX_LINE_CHARS: usize = 120;
 
-impl fmt::Display for Diagnostics {
-    /// The first [`MAX_SHOWN`] problems with their place and caret, then how many more there
-    /// are. Text from the file (path, key, source line) is shown through [`escape_line`], so it
-    /// cannot change how the message reads, and cut to a readable length.
+/// Likely slips in a description file that do not stop it from loading (a radian file whose
+/// limits look like degrees), shown like problems but as `warning:`.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Warnings(pub Diagnostics);
+
+impl Warnings {
+    /// True when there is nothing to warn about.
+    pub fn is_empty(&self) -> bool {
+        self.0.items.is_empty()
+    }
+}
+
+impl fmt::Display for Warnings {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        self.0.write_all(f, "warning")
+    }
+}
+
+impl fmt::Display for Diagnostics {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        self.write_all(f, "error")
+    }
+}
+
+impl Diagnostics {
+    /// The first [`MAX_SHOWN`] items with their place and caret, each after `level:`, then how
+    /// many more there are. Text from the file (path, key, source line) is shown through
+    /// [`escape_line`], so it cannot change how the message reads, and cut to a readable
+    /// length.
+    fn write_all(&self, f: &mut fmt::Formatter<'_>, level: &str) -> fmt::Result {
         let path = escape_line(&shorten(&self.path, MAX_LINE_CHARS)).into_owned();
         for (i, d) in self.items.iter().take(MAX_SHOWN).enumerate() {
             if i > 0 {
@@ -60,12 +85,12 @@ impl fmt::Display for Diagnostics {
             let message = escape_line(&shorten(&d.message, 4 * MAX_LINE_CHARS)).into_owned();
             if d.location.line == 0 {
                 // No place in the file (e.g. the file could not be read).
-                writeln!(f, "error: {path}: {key}{message}")?;
+                writeln!(f, "{level}: {path}: {key}{message}")?;
                 continue;
             }
             writeln!(
                 f,
-                "error: {path}:{}:{}: {key}{message}",
+                "{level}: {path}:{}:{}: {key}{message}",
                 d.location.line, d.location.column
             )?;
             let (shown_line, caret_column) = caret_window(&d.source_line, d.location.column);
@@ -78,7 +103,7 @@ impl fmt::Display for Diagnostics {
         if self.items.len() > MAX_SHOWN {
             writeln!(
                 f,
-                "\nerror: {path}: {} more problems not shown ({} in all)",
+                "\n{level}: {path}: {} more problems not shown ({} in all)",
                 self.items.len() - MAX_SHOWN,
                 self.items.len()
             )?;

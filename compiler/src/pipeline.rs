@@ -10,7 +10,7 @@ use std::path::Path;
 
 use crate::classify::{self, Geometry, Rejection, Tolerances};
 use crate::description;
-use crate::diagnostics::{Diagnostic, Diagnostics, Location};
+use crate::diagnostics::{Diagnostic, Diagnostics, Location, Warnings};
 use crate::emit::{emit_module, EmitOptions, ScalarType};
 use crate::model::Model;
 use crate::plan::{build_plan, Plan};
@@ -26,6 +26,8 @@ pub struct Generated {
     pub plan: Plan,
     /// The emitted Rust module, formatted (a file body).
     pub source: String,
+    /// Likely slips in the description that did not stop it (shown by the tools on stderr).
+    pub warnings: Warnings,
 }
 
 /// Why the pipeline made no module.
@@ -117,7 +119,10 @@ pub fn generate_from_str_in(
     tolerances: &Tolerances,
     scalar: ScalarType,
 ) -> Result<Generated, PipelineError> {
-    let (model, geometry) = classify_text(text, shown_path, tolerances)?;
+    let (model, warnings) = description::load_str_with_warnings(text, shown_path)
+        .map_err(PipelineError::Description)?;
+    let geometry =
+        classify::classify(&model, tolerances).map_err(|r| PipelineError::Rejected(Box::new(r)))?;
     let plan = build_plan(&model, &geometry);
     let options = EmitOptions {
         source_path: shown_path.to_string(),
@@ -130,6 +135,7 @@ pub fn generate_from_str_in(
         geometry,
         plan,
         source,
+        warnings,
     })
 }
 

@@ -71,21 +71,30 @@ fn example_arms_round_trip_through_the_interpreter() {
                 if s.flags.is_empty() {
                     assert_eq!(solver.branch_of(&s.joints), s.branch);
                 }
+                // Revolute joints modulo whole turns; a joint whose range exceeds a turn holds
+                // one value and lists the others (`Solution::equivalents`): the original's
+                // value is the held one or listed.
+                let equivalents: Vec<_> = s.equivalents(&solver.plan().arm.joints).collect();
                 found |= s
                     .joints
                     .iter()
                     .zip(q.iter())
                     .zip(&model.joints)
-                    .all(|((a, b), j)| {
+                    .enumerate()
+                    .all(|(i, ((a, b), j))| {
                         let d = a - b;
                         match j.joint.kind {
-                            JointKind::Revolute
-                                if j.joint.limits[1] - j.joint.limits[0]
-                                    <= std::f64::consts::TAU =>
-                            {
+                            JointKind::Revolute => {
+                                let listed = d.abs() < 1e-6
+                                    || equivalents
+                                        .iter()
+                                        .any(|e| e.joint == i && (e.value - b).abs() < 1e-6);
+                                let one_turn =
+                                    j.joint.limits[1] - j.joint.limits[0] <= std::f64::consts::TAU;
                                 (d - std::f64::consts::TAU * (d / std::f64::consts::TAU).round())
                                     .abs()
                                     < 1e-6
+                                    && (one_turn || listed)
                             }
                             _ => d.abs() < 1e-6,
                         }
@@ -186,6 +195,65 @@ fn emitted_tables_and_forward_at_zero_carry_no_rounding_noise() {
                 stem(&path)
             );
             assert!(!(x == 0.0 && x.is_sign_negative()), "{}: -0", stem(&path));
+        }
+    }
+}
+
+/// The `limits` of each `[[joint]]` table as the file's own text says, read with `toml_edit`
+/// (independent of armforge's reader).
+fn limits_in_file(path: &Path) -> Vec<Option<[f64; 2]>> {
+    let text = std::fs::read_to_string(path).unwrap();
+    let doc: toml_edit::DocumentMut = text.parse().unwrap();
+    let joints = doc["joint"].as_array_of_tables().expect("[[joint]] tables");
+    joints
+        .iter()
+        .map(|j| {
+            let limits = j.get("limits")?.as_array()?;
+            let number = |i: usize| {
+                let v = limits.get(i).unwrap();
+                v.as_float()
+                    .or_else(|| v.as_integer().map(|n| n as f64))
+                    .unwrap()
+            };
+            Some([number(0), number(1)])
+        })
+        .collect()
+}
+
+#[test]
+fn emitted_header_shows_each_limit_as_the_file_wrote_it() {
+    // JOINT_TABLE holds SI values (radians: -2.9670597283903604 for -170°); the header lists
+    // the file's own numbers next to it, so a reviewer can compare without converting.
+    for path in arms() {
+        let model = load_model(&path, "arm").unwrap_or_else(|d| panic!("{d}"));
+        let geometry = classify(&model, &Tolerances::default()).unwrap();
+        let plan = build_plan(&model, &geometry);
+        let module = emit_module(&model, &plan, &EmitOptions::default());
+        let header: Vec<&str> = module
+            .lines()
+            .skip_while(|l| !l.starts_with("// Joints as the description wrote them"))
+            .skip(1)
+            .take(model.joints.len())
+            .collect();
+        assert_eq!(header.len(), 6, "{}: joint lines", stem(&path));
+        for (i, (line, written)) in header.iter().zip(limits_in_file(&path)).enumerate() {
+            let Some([lo, hi]) = written else { continue };
+            let expected_start = format!("//   {} {}:", i + 1, model.joints[i].name);
+            assert!(line.starts_with(&expected_start), "{}: {line}", stem(&path));
+            let shown: Vec<f64> = line
+                .split("limits ")
+                .nth(1)
+                .unwrap_or_else(|| panic!("{}: no limits in {line}", stem(&path)))
+                .split(',')
+                .next()
+                .unwrap()
+                .split(" to ")
+                .map(|w| {
+                    let number = w.trim_end_matches(|c: char| !c.is_ascii_digit());
+                    number.parse::<f64>().unwrap()
+                })
+                .collect();
+            assert_eq!(shown, [lo, hi], "{}: {line}", stem(&path));
         }
     }
 }

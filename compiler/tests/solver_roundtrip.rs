@@ -196,22 +196,43 @@ fn cartesian_arms_round_trip() {
 }
 
 #[test]
-fn two_turn_limits_list_equivalent_angles() {
+fn two_turn_limits_give_one_solution_per_branch_and_list_the_other_turns() {
     let options = SampleOptions {
         revolute_range: TAU,
         ..SampleOptions::default()
     };
     let (model, geometry) = sample_arm(Family::Elbow, 3, &options);
     let solver = Solver::new(&model, &geometry);
+    let joints = &solver.plan().arm.joints;
     let mut rng = SampleRng::new(77);
     let q = sample_configuration(&model, &mut rng);
     let solutions = solver.solve(&model.forward(&q)).unwrap();
-    // Each of the 8 branches has 2 equivalent values for each of the 6 joints.
-    assert_eq!(solutions.len(), 8 * 64);
-    assert!(solutions.iter().any(|s| s
-        .joints
-        .iter()
-        .zip(q.iter())
-        .all(|(a, b)| (a - b).abs() < 1e-6)));
-    let _ = PI;
+    // One solution per branch, each joint at the value nearest its range's center (zero).
+    assert_eq!(solutions.len(), 8);
+    assert_eq!(solver.capacity(), 8);
+    for s in &solutions {
+        assert!(s.joints.iter().all(|v| v.abs() <= PI + 1e-12), "{s:?}");
+        // Over [−2π, 2π] a value within half a turn of zero has exactly one other: ±2π.
+        assert_eq!(s.equivalents(joints).per_joint(), [1; 6]);
+    }
+    // The original is one of the solutions with some joints a whole turn away: listed by
+    // the equivalents.
+    let reached = solutions.iter().any(|s| {
+        let others: Vec<_> = s.equivalents(joints).collect();
+        (0..6).all(|i| {
+            (s.joints[i] - q[i]).abs() < 1e-6
+                || others
+                    .iter()
+                    .any(|e| e.joint == i && (e.value - q[i]).abs() < 1e-6)
+        })
+    });
+    assert!(
+        reached,
+        "{q:?} not among {solutions:?} and their equivalents"
+    );
+    // `solve_near` gives the original itself, not only modulo whole turns.
+    let near = solver.solve_near(&model.forward(&q), &q).unwrap();
+    for i in 0..6 {
+        assert!((near.joints[i] - q[i]).abs() < 1e-6, "{near:?} vs {q:?}");
+    }
 }

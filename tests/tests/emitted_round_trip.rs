@@ -75,12 +75,11 @@ fn pose_of(iso: &Isometry3<f64>) -> Pose {
     }
 }
 
-/// Distance between two values of one joint: modulo full turns when the range is at most one
-/// turn (then equivalent angles are one solution), plain otherwise.
+/// Distance between two values of one joint: revolute values modulo full turns (a solver
+/// holds one value per joint and lists the other turns with `Solution::equivalents`).
 fn joint_gap(joint: &armforge_runtime::Joint, a: f64, b: f64) -> f64 {
     let d = a - b;
-    let [lo, hi] = joint.limits;
-    if joint.kind == JointKind::Revolute && hi - lo <= TAU + 1e-9 {
+    if joint.kind == JointKind::Revolute {
         (d - TAU * (d / TAU).round()).abs()
     } else {
         d.abs()
@@ -148,13 +147,28 @@ fn round_trip(arm: &EmittedArm, count: usize, seed: u64) -> Tally {
                 );
             }
         }
-        assert!(
-            solutions
-                .iter()
-                .any(|s| same(&facts.joints, &s.joints, &q, 1e-6)),
-            "{}: the original {q:?} is not among {solutions:#?}",
-            arm.path
-        );
+        let original = solutions
+            .iter()
+            .find(|s| same(&facts.joints, &s.joints, &q, 1e-6))
+            .unwrap_or_else(|| {
+                panic!(
+                    "{}: the original {q:?} is not among {solutions:#?}",
+                    arm.path
+                )
+            });
+        // Each of its joint values is the one held or one of the listed equivalents.
+        let listed: Vec<_> = original.equivalents(arm.joints).collect();
+        for i in 0..JOINTS {
+            assert!(
+                (original.joints[i] - q[i]).abs() < 1e-6
+                    || listed
+                        .iter()
+                        .any(|e| e.joint == i && (e.value - q[i]).abs() < 1e-6),
+                "{}: joint {} of {q:?}: neither {original:?} nor {listed:?}",
+                arm.path,
+                i + 1
+            );
+        }
         // The solution nearest to the original is the original itself (not only modulo
         // whole turns, also for joints whose range spans several turns).
         let near = (arm.solve_near)(&target, &q)

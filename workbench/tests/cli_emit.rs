@@ -244,3 +244,44 @@ fn sheet_beside_the_module_is_the_explain_sheet() {
     assert!(!emit(true), "an edited sheet fails --check");
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn limits_in_a_radian_file_that_look_like_degrees_get_a_warning() {
+    // The bench arm in metres and radians with joint 1's limits written as ±45: whole numbers
+    // beyond a turn, likely degrees. The file still loads; inspect, emit and verify warn.
+    let dir = scratch("degree-slip");
+    let text =
+        std::fs::read_to_string(tests_dir().join("../tests/fixtures/units/bench-elbow-m-rad.toml"))
+            .expect("fixture");
+    let slipped = text.replacen(
+        "limits = [-2.9670597283903604, 2.9670597283903604]",
+        "limits = [-45, 45]",
+        1,
+    );
+    assert_ne!(
+        slipped, text,
+        "the fixture's joint 1 limits are where the test expects"
+    );
+    let file = dir.join("slip.toml");
+    std::fs::write(&file, &slipped).expect("write");
+    let path = file.to_string_lossy().into_owned();
+    for args in [
+        vec!["inspect", path.as_str()],
+        vec!["emit", path.as_str(), "-o", "-"],
+        vec!["verify", path.as_str(), "--samples", "10"],
+    ] {
+        let (code, stderr) = run(&args);
+        assert_eq!(code, Some(0), "{args:?}: {stderr}");
+        assert!(
+            stderr.contains("warning:")
+                && stderr.contains("slip.toml:11:")
+                && stderr.contains("angle_unit = \"deg\"")
+                && stderr.contains("14.3 turns"),
+            "{args:?}: {stderr}"
+        );
+    }
+    // The arm as written (radians below a turn) gets none.
+    let (code, stderr) = run(&["inspect", "../tests/fixtures/units/bench-elbow-m-rad.toml"]);
+    assert_eq!(code, Some(0));
+    assert!(!stderr.contains("warning"), "{stderr}");
+}

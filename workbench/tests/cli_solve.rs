@@ -102,6 +102,40 @@ fn flatten(v: &Value) -> Vec<f64> {
 }
 
 #[test]
+fn joints_with_more_than_a_turn_list_their_other_values() {
+    // Joint 6 of the bench arm turns ±270°: 200° is held as −160° (nearest the range's
+    // center), and 200° is listed as its equivalent.
+    let q = [10.0, 20.0, -30.0, 40.0, 50.0, 200.0];
+    let (code, lines, stderr) = run(&["solve", ARM], &pose_line(ARM, &q));
+    assert_eq!(code, Some(0), "{stderr}");
+    let solutions = lines[0]["solutions"].as_array().expect("solutions");
+    assert!(
+        solutions.len() <= 8,
+        "one solution per branch: {}",
+        lines[0]
+    );
+    let held = [10.0, 20.0, -30.0, 40.0, 50.0, -160.0];
+    let original = solutions
+        .iter()
+        .find(|s| close_to(&joints_of(s), &held, 1e-9))
+        .expect("the original, joint 6 nearest the range's center");
+    assert_eq!(original["equivalent_count"], 1, "{original}");
+    let listed = &original["equivalents"][0];
+    assert_eq!(listed[0], 6);
+    assert!(
+        (listed[1].as_f64().expect("value") - 200.0).abs() < 1e-9,
+        "{listed}"
+    );
+    // With `--near` the original comes back itself.
+    let (code, lines, _) = run(
+        &["solve", ARM, "--near", "10,20,-30,40,50,199"],
+        &pose_line(ARM, &q),
+    );
+    assert_eq!(code, Some(0));
+    assert!(close_to(&joints_of(&lines[0]["solutions"][0]), &q, 1e-9));
+}
+
+#[test]
 fn near_and_branch_give_one_solution() {
     let q = [10.0, 20.0, -30.0, 40.0, 50.0, 60.0];
     let line = pose_line(ARM, &q);

@@ -138,6 +138,19 @@ fn a_solver_of_a_changed_description_fails_and_names_the_samples() {
         "{text}"
     );
     assert!(text.contains("FAILED"));
+    // A degree file reads degrees: thresholds and joint differences in °, never radians.
+    assert!(
+        !text.contains("radians,") && !text.contains("joints: radians"),
+        "{text}"
+    );
+    assert!(text.contains("joints recovered within 5.73e-5°"), "{text}");
+    for f in summary
+        .failures
+        .iter()
+        .filter(|f| f.problem.contains("not among"))
+    {
+        assert!(f.problem.contains("°, allowed "), "{}", f.problem);
+    }
 }
 
 #[test]

@@ -162,9 +162,9 @@ fn limits(source: &mut Source, joint: &JointEntry, description: &Description, pa
     }
 }
 
-/// The widest revolute range a description may give: 16 turns. Each whole turn inside a
-/// joint's range is one more equivalent value of that joint for every solution, so wider
-/// ranges only multiply the solution set.
+/// The widest revolute range a description may give: 16 turns. A solver holds one value per
+/// joint and lists the others lazily, so the limit guards against slips (a range in degrees
+/// read as radians), not against the size of the solution set.
 pub const MAX_RANGE_TURNS: f64 = 16.0;
 
 /// A revolute range wider than [`MAX_RANGE_TURNS`] is an error that says how many turns it
@@ -177,6 +177,7 @@ fn turns(source: &mut Source, limits: &Spanned<[f64; 2]>, unit: AngleUnit, path:
     };
     let spanned = radians / std::f64::consts::TAU;
     if spanned <= MAX_RANGE_TURNS {
+        degrees_in_radians(source, limits, unit, path);
         return;
     }
     let quantity = Quantity::Angle(unit);
@@ -194,6 +195,33 @@ fn turns(source: &mut Source, limits: &Spanned<[f64; 2]>, unit: AngleUnit, path:
         );
     }
     source.report(&limits.span, &format!("{path}.limits"), message);
+}
+
+/// A warning for revolute limits in a radian file that look like degrees: beyond a turn
+/// (2π) and whole numbers, as `[-170, 170]` would be. Two turns written as `±12.566` does not
+/// trip it.
+fn degrees_in_radians(
+    source: &mut Source,
+    limits: &Spanned<[f64; 2]>,
+    unit: AngleUnit,
+    path: &str,
+) {
+    let [min, max] = limits.value;
+    let whole = |x: f64| x == x.round();
+    let beyond_a_turn = min.abs().max(max.abs()) > std::f64::consts::TAU;
+    if unit != AngleUnit::Radian || !beyond_a_turn || !(whole(min) && whole(max)) {
+        return;
+    }
+    let quantity = Quantity::Angle(unit);
+    let turns = (max - min) / std::f64::consts::TAU;
+    let message = format!(
+        "the range {} to {} spans {} turns; whole numbers beyond 2π look like degrees: the \
+         file's angle_unit is rad, write `angle_unit = \"deg\"` if they are",
+        quantity.show(min),
+        quantity.show(max),
+        tidy((turns * 10.0).round() / 10.0),
+    );
+    source.warn(&limits.span, &format!("{path}.limits"), message);
 }
 
 fn frame_orientation(source: &mut Source, frame: &FrameEntry) {

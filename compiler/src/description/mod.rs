@@ -105,7 +105,7 @@ mod reader;
 mod schema;
 mod source;
 
-use crate::diagnostics::Diagnostics;
+use crate::diagnostics::{Diagnostics, Warnings};
 use crate::model::Model;
 
 pub use checks::{MAX_JOINTS, ROTATION_TOLERANCE};
@@ -113,6 +113,12 @@ pub use schema::{arm_name_problem, Convention, MAX_JOINT_NAME_CHARS};
 
 /// Reads description text into a [`Model`]; `path` names the text in messages.
 pub fn load_str(text: &str, path: &str) -> Result<Model, Diagnostics> {
+    load_str_with_warnings(text, path).map(|(model, _)| model)
+}
+
+/// [`load_str`] with the likely slips that do not stop the load (a radian file whose limits
+/// look like degrees), for the tools to show on stderr.
+pub fn load_str_with_warnings(text: &str, path: &str) -> Result<(Model, Warnings), Diagnostics> {
     let mut source = source::Source::new(text, path);
     let document = match toml_edit::Document::parse(text) {
         Ok(document) => document,
@@ -136,7 +142,10 @@ pub fn load_str(text: &str, path: &str) -> Result<Model, Diagnostics> {
     let description = schema::read(&mut source, document.as_table());
     checks::check(&mut source, &description);
     if source.is_clean() {
-        Ok(convert::to_model(&source, &description, path))
+        Ok((
+            convert::to_model(&source, &description, path),
+            source.warnings(),
+        ))
     } else {
         Err(source.into_diagnostics())
     }

@@ -2,7 +2,7 @@
 
 use std::ops::Range;
 
-use crate::diagnostics::{Diagnostic, Diagnostics, Location};
+use crate::diagnostics::{Diagnostic, Diagnostics, Location, Warnings};
 
 /// A description file's text with the problems collected while reading it.
 pub(crate) struct Source<'a> {
@@ -12,6 +12,8 @@ pub(crate) struct Source<'a> {
     /// a scan of the file (a file with 20,000 problems is located in linear time).
     line_starts: Vec<usize>,
     found: Vec<(usize, Diagnostic)>,
+    /// Likely slips that do not stop the load (see [`Source::warn`]).
+    warned: Vec<(usize, Diagnostic)>,
 }
 
 impl<'a> Source<'a> {
@@ -25,6 +27,7 @@ impl<'a> Source<'a> {
             path,
             line_starts,
             found: Vec::new(),
+            warned: Vec::new(),
         }
     }
 
@@ -53,14 +56,35 @@ impl<'a> Source<'a> {
 
     /// Records a problem at the start of `span`, about `key`.
     pub(crate) fn report(&mut self, span: &Range<usize>, key: &str, message: impl Into<String>) {
+        let diagnostic = self.diagnostic(span, key, message.into());
+        self.found.push((span.start, diagnostic));
+    }
+
+    /// Records a likely slip at the start of `span`, about `key`: the file loads, and the
+    /// tools show the warning on stderr.
+    pub(crate) fn warn(&mut self, span: &Range<usize>, key: &str, message: impl Into<String>) {
+        let diagnostic = self.diagnostic(span, key, message.into());
+        self.warned.push((span.start, diagnostic));
+    }
+
+    fn diagnostic(&self, span: &Range<usize>, key: &str, message: String) -> Diagnostic {
         let location = self.location(span.start);
-        let diagnostic = Diagnostic {
+        Diagnostic {
             location,
             key: key.to_string(),
-            message: message.into(),
+            message,
             source_line: self.line_text(location.line),
-        };
-        self.found.push((span.start, diagnostic));
+        }
+    }
+
+    /// Every warning, in file order.
+    pub(crate) fn warnings(&self) -> Warnings {
+        let mut warned = self.warned.clone();
+        warned.sort_by_key(|(offset, _)| *offset);
+        Warnings(Diagnostics {
+            path: self.path.to_string(),
+            items: warned.into_iter().map(|(_, d)| d).collect(),
+        })
     }
 
     /// True when nothing has been reported.

@@ -5,6 +5,8 @@ use std::collections::BTreeMap;
 use std::fmt::Write;
 
 use super::GENERATOR_VERSION;
+use armforge_runtime::JointKind;
+
 use crate::model::Model;
 use crate::plan::render::counted;
 use crate::plan::Plan;
@@ -36,11 +38,11 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
         h,
         "// Units: SI throughout (metres, radians), whatever units the description uses."
     );
+    h.push_str(&joints_as_written(model));
     let _ = writeln!(
         h,
-        "// Family: {} with a spherical wrist; {} candidate branches, at most {} solutions.",
+        "// Family: {} with a spherical wrist; {} branches, at most one solution each.",
         plan.arm.family.name(),
-        plan.candidates.len(),
         plan.capacity
     );
     let _ = writeln!(
@@ -75,6 +77,64 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     );
     h.push('\n');
     h
+}
+
+/// The joints in `JOINT_TABLE`'s order with their limits and zero offsets as the description
+/// wrote them (its units), so a reviewer can check the SI table against the file:
+/// `//   1 waist: revolute, limits -170° to 170°`.
+fn joints_as_written(model: &Model) -> String {
+    let mut text = format!(
+        "// Joints as the description wrote them ({}, {}); JOINT_TABLE holds the same in SI:\n",
+        model.units.length.symbol(),
+        model.units.angle.symbol()
+    );
+    let column = |f: fn(&armforge_runtime::Joint) -> f64| {
+        let si: Vec<f64> = model.joints.iter().map(|j| f(&j.joint)).collect();
+        model.tidy_joint_values(&model.joint_values_from_si(&si))
+    };
+    let (lows, highs) = (column(|j| j.limits[0]), column(|j| j.limits[1]));
+    let offsets = column(|j| j.offset);
+    for (i, j) in model.joints.iter().enumerate() {
+        let kind = j.joint.kind;
+        // `display_symbol` carries its own space (`°`, ` rad`).
+        let unit = match kind {
+            JointKind::Revolute => model.units.angle.display_symbol().to_string(),
+            JointKind::Prismatic => format!(" {}", model.units.length.symbol()),
+        };
+        let show = |x: f64| format!("{x}{unit}");
+        let limits = if lows[i].is_finite() && highs[i].is_finite() {
+            format!("limits {} to {}", show(lows[i]), show(highs[i]))
+        } else {
+            "no limits".to_string()
+        };
+        let kind_word = match kind {
+            JointKind::Revolute => "revolute",
+            JointKind::Prismatic => "prismatic",
+        };
+        let offset = model_value_rule(j.joint.direction, offsets[i], show);
+        let _ = writeln!(
+            text,
+            "//   {} {}: {kind_word}, {limits}{offset}",
+            i + 1,
+            sanitize(&j.name)
+        );
+    }
+    text
+}
+
+/// `, model value = -joint value + 90°` when the file turned or shifted the joint's zero or
+/// sense; nothing for the plain `model value = joint value`.
+fn model_value_rule(direction: f64, offset: f64, show: impl Fn(f64) -> String) -> String {
+    if direction > 0.0 && offset == 0.0 {
+        return String::new();
+    }
+    let sign = if direction < 0.0 { "-" } else { "" };
+    let shift = match offset {
+        o if o > 0.0 => format!(" + {}", show(o)),
+        o if o < 0.0 => format!(" - {}", show(-o)),
+        _ => String::new(),
+    };
+    format!(", model value = {sign}joint value{shift}")
 }
 
 /// Inserts `// note` before each `let name = …` whose name has a note.

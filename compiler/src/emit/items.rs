@@ -295,6 +295,11 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
         .collect();
     let n = super::expr::index(plan.candidates.len());
     let lints = lint_allowances();
+    // A moved candidate is evaluated again by its own branch's function, not every branch.
+    let reruns = (0..plan.candidates.len()).map(|k| {
+        let (index, name) = (super::expr::index(k), branch_fn_name(k));
+        quote!(#index => ::core::option::Option::Some(#name(target, moved)),)
+    });
     let body = quote! {
         /// The closed-form steps: every branch's candidate, in model values.
         #lints
@@ -307,9 +312,10 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
             [#(#candidates),*]
         }
 
-        /// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
-        /// value puts joint 5 outside its limits (a rare path; see
-        /// `armforge_runtime::internal::free_joint_1`).
+        /// The candidates, with the free joint moved where a singular pose leaves one free and
+        /// its held value puts a joint outside its limits (a rare path; see
+        /// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+        /// its branch's own function).
         #[inline]
         fn free_candidates(
             target: &::armforge_runtime::Pose #generic,
@@ -323,9 +329,9 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
                 target,
                 reference,
                 &mut all,
-                |moved: &[#ty; 4], i: usize| {
-                    let again = candidates(target, moved);
-                    again.get(i).copied()
+                |moved: &[#ty; 4], i: usize| match i {
+                    #(#reruns)*
+                    _ => ::core::option::Option::None,
                 },
             );
             all
@@ -573,7 +579,9 @@ pub fn module(
         /// Number of joints.
         pub const JOINTS: usize = 6;
 
-        /// The most solutions one target can have (branches × equivalent angles).
+        /// The most solutions one target can have: one per branch, whatever the joint ranges
+        /// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+        /// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
         pub const CAPACITY: usize = #capacity;
 
         /// The solutions of one target.
@@ -598,7 +606,7 @@ pub fn module(
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const LABELS: ::armforge_runtime::internal::BranchRule #generic = #labels;
 
-        /// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+        /// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
         /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const ZERO_REFERENCE: [#ty; 4] = [#(#zero),*];
@@ -606,10 +614,14 @@ pub fn module(
         #forward
 
 
-        /// Every solution within the joint limits (equivalent angles included), each with its
-        /// branch label and flags; or none, with the reason. At a singular pose the free
-        /// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
-        /// value nearest zero that keeps both shoulder solutions within its limits.
+        /// Every solution within the joint limits, one per branch (a joint whose range exceeds
+        /// a turn at the equivalent angle nearest its range's center), each with its branch
+        /// label and flags; or none, with the reason. At a singular pose the free
+        /// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
+        /// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
+        /// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that
+        /// leaves a joint outside its limits, the free joint moves to the nearest value that
+        /// keeps every joint within them (`armforge_runtime::internal::free_joint_1`).
         pub fn solve(target: &::armforge_runtime::Pose #generic) -> Solutions {
             if let ::core::result::Result::Err(reason) =
                 ::armforge_runtime::internal::check_pose(target)

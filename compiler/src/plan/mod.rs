@@ -23,9 +23,7 @@ pub mod subproblems;
 pub mod vec3;
 pub mod wrist;
 
-use armforge_runtime::internal::{
-    equivalent_count, BranchRule, ElbowRule, Settings, ShoulderRule, WristRule,
-};
+use armforge_runtime::internal::{BranchRule, ElbowRule, Settings, ShoulderRule, WristRule};
 use armforge_runtime::plan::{CandidateLayout, CheckLayout, Op};
 use armforge_runtime::{Branch, Elbow, Shoulder};
 
@@ -89,7 +87,8 @@ pub struct Plan {
     pub rule: BranchRule,
     /// Tolerances.
     pub settings: Settings,
-    /// Capacity a solution set needs: branches × equivalent angles.
+    /// Capacity a solution set needs: one solution per branch, whatever the joint ranges
+    /// (equivalent angles are listed by `Solution::equivalents`, not stored).
     pub capacity: usize,
     /// The reference inputs of `solve` (cos, sin of the model values of joints 1 and 4): joint 4
     /// at zero, joint 1 at [`free_joint_1_value`].
@@ -394,15 +393,10 @@ pub fn assemble(
     let settings = Settings {
         length_tolerance: 1e-10 * arm.scale,
         angle_tolerance: 1e-18,
-        limit_tolerance: 1e-12,
+        limit_tolerance: armforge_runtime::equivalents::LIMIT_TOLERANCE,
         duplicate_tolerance: 1e-10,
         wrist_twist_cosines,
     };
-    let multiplicity: usize = arm
-        .joints
-        .iter()
-        .map(|j| equivalent_count(j, settings.limit_tolerance))
-        .product();
     let zero_reference = {
         let m1 = arm.joints[free[0]].model_value(free_joint_1_value(&arm.joints[free[0]]));
         let m4 = arm.joints[free[1]].model_value(0.0);
@@ -412,7 +406,7 @@ pub fn assemble(
     };
     Plan {
         rule,
-        capacity: candidates.len() * multiplicity,
+        capacity: candidates.len(),
         arm,
         graph,
         candidates,

@@ -20,9 +20,10 @@
 //! Every emitted solver module (and the compiler's interpreter, `armforge_compiler::solver`)
 //! answers with the types of [`solution`]:
 //!
-//! * `solve(&target)` → [`SolutionSet`]: every configuration within the joint limits (with
-//!   equivalent angles for joints whose range exceeds one turn), each a [`Solution`] with its
-//!   joint values, its [`Branch`] label and its [`Flags`]; or none, with the
+//! * `solve(&target)` → [`SolutionSet`]: one configuration per branch within the joint limits
+//!   (a joint whose range exceeds one turn at the equivalent angle nearest its range's center;
+//!   [`Solution::equivalents`] lists its other values), each a [`Solution`] with its joint
+//!   values, its [`Branch`] label and its [`Flags`]; or none, with the
 //!   [`Unreachable`] reason (beyond reach by how much, inside a hole, an orientation the wrist
 //!   cannot take, every solution outside the limits, an invalid pose).
 //! * `solve_near(&target, &current)` → the solution nearest to `current`; at a singularity the
@@ -44,6 +45,8 @@
 #![cfg_attr(not(feature = "std"), no_std)]
 #![deny(missing_docs)]
 
+pub mod compact;
+pub mod equivalents;
 pub mod fk;
 #[doc(hidden)]
 pub mod internal;
@@ -53,6 +56,7 @@ pub mod plan;
 pub mod pose;
 pub mod solution;
 
+pub use equivalents::{Equivalent, Equivalents};
 pub use fk::{forward, joint_motion};
 pub use math::Scalar;
 pub use model::{Joint, JointKind};

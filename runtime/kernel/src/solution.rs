@@ -5,6 +5,7 @@
 
 use core::fmt;
 
+use crate::compact::Compact;
 use crate::math::{rotation_tolerance, Scalar};
 
 /// Number of joints of every arm armforge solves.
@@ -170,10 +171,12 @@ impl Flags {
     pub const NONE: Flags = Flags(0);
     /// Joint 5 at the aligned position: joints 4 and 6 turn about one line, only their sum (or
     /// difference) is fixed by the pose. Joint 4 was kept at the reference value (or the
-    /// reference plus a half turn for the second representative).
+    /// reference plus a half turn for the second representative), unless that put joint 4 or
+    /// 6 outside its limits: then at the nearest value that keeps both within them.
     pub const WRIST_ALIGNED: Flags = Flags(1);
     /// The wrist center on axis 1: joint 1 is free; it was kept at the reference value (or the
-    /// reference plus a half turn).
+    /// reference plus a half turn), unless that put a joint outside its limits: then at the
+    /// nearest value that keeps every joint within them.
     pub const ON_AXIS_1: Flags = Flags(2);
     /// The target is on a reach boundary (within the solver's tolerance) — of the arm's reach,
     /// of an inner hole, or of the cone of orientations a wrist with twists other than 90°
@@ -288,27 +291,31 @@ impl<S: Scalar> fmt::Display for Unreachable<S> {
             }
             Unreachable::InvalidPose(PoseProblem::NotOrthonormal { error }) => write!(
                 f,
-                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {error:e}, allowed {:e})",
-                rotation_tolerance::<S>()
+                "invalid pose: the rotation is not orthonormal (RᵀR − I up to {}, allowed {})",
+                Compact(error.to_f64()),
+                Compact(rotation_tolerance::<S>().to_f64())
             ),
             Unreachable::InvalidPose(PoseProblem::Reflection) => {
                 write!(f, "invalid pose: the rotation is a reflection (determinant −1)")
             }
             Unreachable::BeyondReach { by } => {
-                write!(f, "the wrist center is beyond reach by {by:e} m")
+                write!(f, "the wrist center is beyond reach by {} m", Compact(by.to_f64()))
             }
             Unreachable::InsideHole { by } => write!(
                 f,
-                "the wrist center is inside the unreachable region near the shoulder by {by:e} m"
+                "the wrist center is inside the unreachable region near the shoulder by {} m",
+                Compact(by.to_f64())
             ),
             Unreachable::WristOrientation { by } => write!(
                 f,
-                "the wrist cannot reach this orientation: axis 6 misses its reachable cone by {by:e} rad"
+                "the wrist cannot reach this orientation: axis 6 misses its reachable cone by {} rad",
+                Compact(by.to_f64())
             ),
             Unreachable::OutsideLimits { joint, by } => write!(
                 f,
-                "every solution is outside the joint limits; the closest violates joint {} by {by:e}",
-                joint + 1
+                "every solution is outside the joint limits; the closest violates joint {} by {} (radians; metres for a slide)",
+                joint + 1,
+                Compact(by.to_f64())
             ),
             Unreachable::BranchUnavailable => {
                 write!(f, "the target is reachable, but not in the requested branch")

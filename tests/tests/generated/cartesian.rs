@@ -2,7 +2,14 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
-// Family: cartesian with a spherical wrist; 2 candidate branches, at most 2 solutions.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: prismatic, limits -3 m to 3 m, model value = joint value + 0.021996612143654865 m
+//   2 j2: prismatic, limits -3 m to 3 m, model value = joint value + 0.14193889192483788 m
+//   3 j3: prismatic, limits -3 m to 3 m, model value = joint value - 0.12474439304819077 m
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.48503301131555476 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.9397847731753595 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.8123383109623468 rad
+// Family: cartesian with a spherical wrist; 2 branches, at most one solution each.
 // Cost of one solve: 3 sqrt, 6 atan2, 2 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 2 sqrt, 3 atan2, 1 division (that branch alone).
 //
@@ -12,7 +19,9 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
 pub const CAPACITY: usize = 2;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
@@ -130,7 +139,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     },
     mirrored: false,
 };
-/// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+/// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
     clippy::approx_constant,
@@ -310,10 +319,14 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
-/// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
-/// value nearest zero that keeps both shoulder solutions within its limits.
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
+/// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
+/// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
+/// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that
+/// leaves a joint outside its limits, the free joint moves to the nearest value that
+/// keeps every joint within them (`armforge_runtime::internal::free_joint_1`).
 pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     if let ::core::result::Result::Err(reason) = ::armforge_runtime::internal::check_pose(
         target,
@@ -800,9 +813,10 @@ fn candidates(
         },
     ]
 }
-/// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
-/// value puts joint 5 outside its limits (a rare path; see
-/// `armforge_runtime::internal::free_joint_1`).
+/// The candidates, with the free joint moved where a singular pose leaves one free and
+/// its held value puts a joint outside its limits (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+/// its branch's own function).
 #[inline]
 fn free_candidates(
     target: &::armforge_runtime::Pose,
@@ -816,9 +830,10 @@ fn free_candidates(
         target,
         reference,
         &mut all,
-        |moved: &[f64; 4], i: usize| {
-            let again = candidates(target, moved);
-            again.get(i).copied()
+        |moved: &[f64; 4], i: usize| match i {
+            0 => ::core::option::Option::Some(branch_1(target, moved)),
+            1 => ::core::option::Option::Some(branch_2(target, moved)),
+            _ => ::core::option::Option::None,
         },
     );
     all

@@ -2,7 +2,14 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
-// Family: elbow with a spherical wrist; 8 candidate branches, at most 5832 solutions.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = -joint value + 0.5090838424897437 rad
+//   2 j2: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = -joint value - 0.7192418683142581 rad
+//   3 j3: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = -joint value - 0.46223359926807284 rad
+//   4 j4: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value + 0.8608731389442748 rad
+//   5 j5: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value - 0.6567296829855225 rad
+//   6 j6: revolute, limits -6.283185307179586 rad to 6.283185307179586 rad, model value = joint value + 0.22640096837107704 rad
+// Family: elbow with a spherical wrist; 8 branches, at most one solution each.
 // Cost of one solve: 7 sqrt, 20 atan2, 7 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 3 sqrt, 6 atan2, 3 divisions (that branch alone).
 //
@@ -12,8 +19,10 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
-pub const CAPACITY: usize = 5832;
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
+pub const CAPACITY: usize = 8;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
 /// The joints in the base frame with every model value at zero (SI units).
@@ -139,7 +148,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     },
     mirrored: false,
 };
-/// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+/// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
     clippy::approx_constant,
@@ -400,10 +409,14 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
-/// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
-/// value nearest zero that keeps both shoulder solutions within its limits.
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
+/// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
+/// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
+/// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that
+/// leaves a joint outside its limits, the free joint moves to the nearest value that
+/// keeps every joint within them (`armforge_runtime::internal::free_joint_1`).
 pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     if let ::core::result::Result::Err(reason) = ::armforge_runtime::internal::check_pose(
         target,
@@ -1714,9 +1727,10 @@ fn candidates(
         },
     ]
 }
-/// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
-/// value puts joint 5 outside its limits (a rare path; see
-/// `armforge_runtime::internal::free_joint_1`).
+/// The candidates, with the free joint moved where a singular pose leaves one free and
+/// its held value puts a joint outside its limits (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+/// its branch's own function).
 #[inline]
 fn free_candidates(
     target: &::armforge_runtime::Pose,
@@ -1730,9 +1744,16 @@ fn free_candidates(
         target,
         reference,
         &mut all,
-        |moved: &[f64; 4], i: usize| {
-            let again = candidates(target, moved);
-            again.get(i).copied()
+        |moved: &[f64; 4], i: usize| match i {
+            0 => ::core::option::Option::Some(branch_1(target, moved)),
+            1 => ::core::option::Option::Some(branch_2(target, moved)),
+            2 => ::core::option::Option::Some(branch_3(target, moved)),
+            3 => ::core::option::Option::Some(branch_4(target, moved)),
+            4 => ::core::option::Option::Some(branch_5(target, moved)),
+            5 => ::core::option::Option::Some(branch_6(target, moved)),
+            6 => ::core::option::Option::Some(branch_7(target, moved)),
+            7 => ::core::option::Option::Some(branch_8(target, moved)),
+            _ => ::core::option::Option::None,
         },
     );
     all

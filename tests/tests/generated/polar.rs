@@ -2,7 +2,14 @@
 // Do not edit: regenerate from the description instead.
 //
 // Units: SI throughout (metres, radians), whatever units the description uses.
-// Family: polar with a spherical wrist; 8 candidate branches, at most 8 solutions.
+// Joints as the description wrote them (m, rad); JOINT_TABLE holds the same in SI:
+//   1 j1: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.9689750312557981 rad
+//   2 j2: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value - 0.9152407202519195 rad
+//   3 j3: prismatic, limits -2 m to 2 m, model value = -joint value + 0.02348083669101908 m
+//   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.9233922181705687 rad
+//   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.8372665027925441 rad
+//   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.49417602456623433 rad
+// Family: polar with a spherical wrist; 8 branches, at most one solution each.
 // Cost of one solve: 19 sqrt, 30 atan2, 13 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 5 sqrt, 5 atan2, 3 divisions (that branch alone).
 //
@@ -12,7 +19,9 @@
 
 /// Number of joints.
 pub const JOINTS: usize = 6;
-/// The most solutions one target can have (branches × equivalent angles).
+/// The most solutions one target can have: one per branch, whatever the joint ranges
+/// (a joint whose range exceeds a turn holds the equivalent angle nearest its range's
+/// center; `Solution::equivalents(&JOINT_TABLE)` lists its other values).
 pub const CAPACITY: usize = 8;
 /// The solutions of one target.
 pub type Solutions = ::armforge_runtime::SolutionSet<CAPACITY>;
@@ -137,7 +146,7 @@ const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::int
     },
     mirrored: false,
 };
-/// Cosine and sine of the model values the free joints are held at by `solve`: joint 4 at
+/// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
     clippy::approx_constant,
@@ -372,10 +381,14 @@ pub fn forward(joints: &[f64; JOINTS]) -> ::armforge_runtime::Pose {
         translation: [px, py, pz],
     }
 }
-/// Every solution within the joint limits (equivalent angles included), each with its
-/// branch label and flags; or none, with the reason. At a singular pose the free
-/// joint is held at a reference: joint 4 at zero, joint 1 (wrist center on axis 1) at the
-/// value nearest zero that keeps both shoulder solutions within its limits.
+/// Every solution within the joint limits, one per branch (a joint whose range exceeds
+/// a turn at the equivalent angle nearest its range's center), each with its branch
+/// label and flags; or none, with the reason. At a singular pose the free
+/// joint starts at a reference: joint 4 (wrist aligned) at zero, joint 1 (wrist center
+/// on axis 1) at the value nearest zero that keeps both shoulder solutions within its
+/// limits, joint 2 at a polar arm's pivot at zero or its limit nearest zero. Where that
+/// leaves a joint outside its limits, the free joint moves to the nearest value that
+/// keeps every joint within them (`armforge_runtime::internal::free_joint_1`).
 pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     if let ::core::result::Result::Err(reason) = ::armforge_runtime::internal::check_pose(
         target,
@@ -765,6 +778,8 @@ fn candidates(
     let d2_b = t211 * t211 + (t209 * t209 + t210 * t210);
     // θ1 = atan2(sin θ1, cos θ1)
     let q1_b = ::armforge_runtime::math::atan2(j1_sin_b, j1_cos_b);
+    let t225 = 0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos;
+    let t227 = -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_a = ::armforge_runtime::math::sqrt(
         (d2_a - 0.05565844753959191).max(0.0),
@@ -773,52 +788,52 @@ fn candidates(
     let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_aa = j3_root_a - 0.2750702190093362;
-    let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
-    let t239 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
-    let t240 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
-    let t245 = w_a_z * t240 + (w_a_x * t237 - w_a_y * t239);
-    let t259 = 0.22438759210189282 * (w_a_x * t240 - w_a_z * t237)
-        - 0.919348671064388 * (w_a_z * t239 + w_a_y * t240)
-        - 0.32318451312347624 * (w_a_y * t237 + w_a_x * t239);
-    let t262 = t245 * t245 + t259 * t259;
-    let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
-    let t269 = t262 - 1e-300;
-    let t272 = if pivot_a >= 0.0 {
-        0.6095997719011829
+    let t244 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t246 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t247 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t252 = w_a_z * t247 + (w_a_x * t244 - w_a_y * t246);
+    let t266 = 0.22438759210189282 * (w_a_x * t247 - w_a_z * t244)
+        - 0.919348671064388 * (w_a_z * t246 + w_a_y * t247)
+        - 0.32318451312347624 * (w_a_y * t244 + w_a_x * t246);
+    let t269 = t252 * t252 + t266 * t266;
+    let t273 = 1.0 / ::armforge_runtime::math::sqrt(t269.max(1e-300));
+    let t276 = t269 - 1e-300;
+    let t279 = if pivot_a >= 0.0 {
+        t225
     } else {
-        if t269 >= 0.0 { t245 * t266 } else { 1.0 }
+        if t276 >= 0.0 { t252 * t273 } else { 1.0 }
     };
-    let t273 = if pivot_a >= 0.0 {
-        -0.7927093528513625
+    let t280 = if pivot_a >= 0.0 {
+        t227
     } else {
-        if t269 >= 0.0 { t259 * t266 } else { 0.0 }
+        if t276 >= 0.0 { t266 * t273 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_aa = ::armforge_runtime::math::atan2(t273, t272);
+    let q2_aa = ::armforge_runtime::math::atan2(t280, t279);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ab = -0.2750702190093362 - j3_root_a;
-    let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
-    let t280 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
-    let t281 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
-    let t286 = w_a_z * t281 + (w_a_x * t279 - w_a_y * t280);
-    let t300 = 0.22438759210189282 * (w_a_x * t281 - w_a_z * t279)
-        - 0.919348671064388 * (w_a_z * t280 + w_a_y * t281)
-        - 0.32318451312347624 * (w_a_y * t279 + w_a_x * t280);
-    let t303 = t286 * t286 + t300 * t300;
-    let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
-    let t309 = t303 - 1e-300;
-    let t312 = if pivot_a >= 0.0 {
-        0.6095997719011829
+    let t286 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t287 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t288 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t293 = w_a_z * t288 + (w_a_x * t286 - w_a_y * t287);
+    let t307 = 0.22438759210189282 * (w_a_x * t288 - w_a_z * t286)
+        - 0.919348671064388 * (w_a_z * t287 + w_a_y * t288)
+        - 0.32318451312347624 * (w_a_y * t286 + w_a_x * t287);
+    let t310 = t293 * t293 + t307 * t307;
+    let t313 = 1.0 / ::armforge_runtime::math::sqrt(t310.max(1e-300));
+    let t316 = t310 - 1e-300;
+    let t319 = if pivot_a >= 0.0 {
+        t225
     } else {
-        if t309 >= 0.0 { t286 * t306 } else { 1.0 }
+        if t316 >= 0.0 { t293 * t313 } else { 1.0 }
     };
-    let t313 = if pivot_a >= 0.0 {
-        -0.7927093528513625
+    let t320 = if pivot_a >= 0.0 {
+        t227
     } else {
-        if t309 >= 0.0 { t300 * t306 } else { 0.0 }
+        if t316 >= 0.0 { t307 * t313 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_ab = ::armforge_runtime::math::atan2(t313, t312);
+    let q2_ab = ::armforge_runtime::math::atan2(t320, t319);
     // √(d² − (|P|² − m²)), |P|² − m² = 0.055658 m²
     let j3_root_b = ::armforge_runtime::math::sqrt(
         (d2_b - 0.05565844753959191).max(0.0),
@@ -827,178 +842,178 @@ fn candidates(
     let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ba = j3_root_b - 0.2750702190093362;
-    let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
-    let t324 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
-    let t325 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
-    let t330 = w_b_z * t325 + (w_b_x * t323 - w_b_y * t324);
-    let t344 = 0.22438759210189282 * (w_b_x * t325 - w_b_z * t323)
-        - 0.919348671064388 * (w_b_z * t324 + w_b_y * t325)
-        - 0.32318451312347624 * (w_b_y * t323 + w_b_x * t324);
-    let t347 = t330 * t330 + t344 * t344;
-    let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
-    let t353 = t347 - 1e-300;
-    let t356 = if pivot_b >= 0.0 {
-        0.6095997719011829
+    let t330 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t331 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t332 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t337 = w_b_z * t332 + (w_b_x * t330 - w_b_y * t331);
+    let t351 = 0.22438759210189282 * (w_b_x * t332 - w_b_z * t330)
+        - 0.919348671064388 * (w_b_z * t331 + w_b_y * t332)
+        - 0.32318451312347624 * (w_b_y * t330 + w_b_x * t331);
+    let t354 = t337 * t337 + t351 * t351;
+    let t357 = 1.0 / ::armforge_runtime::math::sqrt(t354.max(1e-300));
+    let t360 = t354 - 1e-300;
+    let t363 = if pivot_b >= 0.0 {
+        t225
     } else {
-        if t353 >= 0.0 { t330 * t350 } else { 1.0 }
+        if t360 >= 0.0 { t337 * t357 } else { 1.0 }
     };
-    let t357 = if pivot_b >= 0.0 {
-        -0.7927093528513625
+    let t364 = if pivot_b >= 0.0 {
+        t227
     } else {
-        if t353 >= 0.0 { t344 * t350 } else { 0.0 }
+        if t360 >= 0.0 { t351 * t357 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_ba = ::armforge_runtime::math::atan2(t357, t356);
+    let q2_ba = ::armforge_runtime::math::atan2(t364, t363);
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_bb = -0.2750702190093362 - j3_root_b;
-    let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
-    let t364 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
-    let t365 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
-    let t370 = w_b_z * t365 + (w_b_x * t363 - w_b_y * t364);
-    let t384 = 0.22438759210189282 * (w_b_x * t365 - w_b_z * t363)
-        - 0.919348671064388 * (w_b_z * t364 + w_b_y * t365)
-        - 0.32318451312347624 * (w_b_y * t363 + w_b_x * t364);
-    let t387 = t370 * t370 + t384 * t384;
-    let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
-    let t393 = t387 - 1e-300;
-    let t396 = if pivot_b >= 0.0 {
-        0.6095997719011829
+    let t370 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t371 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t372 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t377 = w_b_z * t372 + (w_b_x * t370 - w_b_y * t371);
+    let t391 = 0.22438759210189282 * (w_b_x * t372 - w_b_z * t370)
+        - 0.919348671064388 * (w_b_z * t371 + w_b_y * t372)
+        - 0.32318451312347624 * (w_b_y * t370 + w_b_x * t371);
+    let t394 = t377 * t377 + t391 * t391;
+    let t397 = 1.0 / ::armforge_runtime::math::sqrt(t394.max(1e-300));
+    let t400 = t394 - 1e-300;
+    let t403 = if pivot_b >= 0.0 {
+        t225
     } else {
-        if t393 >= 0.0 { t370 * t390 } else { 1.0 }
+        if t400 >= 0.0 { t377 * t397 } else { 1.0 }
     };
-    let t397 = if pivot_b >= 0.0 {
-        -0.7927093528513625
+    let t404 = if pivot_b >= 0.0 {
+        t227
     } else {
-        if t393 >= 0.0 { t384 * t390 } else { 0.0 }
+        if t400 >= 0.0 { t391 * t397 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_bb = ::armforge_runtime::math::atan2(t397, t396);
-    let t406 = 0.42112668389358265 * r02
+    let q2_bb = ::armforge_runtime::math::atan2(t404, t403);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t473 = g6_x - t470;
-    let t474 = g6_y - t471;
-    let t475 = g6_z - t472;
-    let t478 = 0.553647671333485 * g6_z - 0.2455648081179022 * g6_y;
-    let t481 = 0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z;
-    let t484 = 0.7957211704114873 * g6_y - 0.553647671333485 * g6_x;
-    let t494 = t470 + (j1_cos_a * t473 - j1_sin_a * t478);
-    let t495 = t471 + (j1_cos_a * t474 - j1_sin_a * t481);
-    let t496 = t472 + (j1_cos_a * t475 - j1_sin_a * t484);
-    let t501 = 0.2455648081179022 * gx_z
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t480 = g6_x - t477;
+    let t481 = g6_y - t478;
+    let t482 = g6_z - t479;
+    let t485 = 0.553647671333485 * g6_z - 0.2455648081179022 * g6_y;
+    let t488 = 0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z;
+    let t491 = 0.7957211704114873 * g6_y - 0.553647671333485 * g6_x;
+    let t501 = t477 + (j1_cos_a * t480 - j1_sin_a * t485);
+    let t502 = t478 + (j1_cos_a * t481 - j1_sin_a * t488);
+    let t503 = t479 + (j1_cos_a * t482 - j1_sin_a * t491);
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t505 = gx_x - t502;
-    let t506 = gx_y - t503;
-    let t507 = gx_z - t504;
-    let t510 = 0.553647671333485 * gx_z - 0.2455648081179022 * gx_y;
-    let t513 = 0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z;
-    let t516 = 0.7957211704114873 * gx_y - 0.553647671333485 * gx_x;
-    let t526 = t502 + (j1_cos_a * t505 - j1_sin_a * t510);
-    let t527 = t503 + (j1_cos_a * t506 - j1_sin_a * t513);
-    let t528 = t504 + (j1_cos_a * t507 - j1_sin_a * t516);
-    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
-        - 0.32318451312347624 * t496;
-    let t534 = 0.919348671064388 * t533;
-    let t535 = 0.22438759210189282 * t533;
-    let t536 = 0.32318451312347624 * t533;
-    let t537 = t494 - t534;
-    let t538 = t495 - t535;
-    let t539 = t496 + t536;
-    let t542 = 0.22438759210189282 * t496 + 0.32318451312347624 * t495;
-    let t545 = 0.32318451312347624 * t494 + 0.919348671064388 * t496;
-    let t548 = 0.919348671064388 * t495 - 0.22438759210189282 * t494;
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t512 = gx_x - t509;
+    let t513 = gx_y - t510;
+    let t514 = gx_z - t511;
+    let t517 = 0.553647671333485 * gx_z - 0.2455648081179022 * gx_y;
+    let t520 = 0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z;
+    let t523 = 0.7957211704114873 * gx_y - 0.553647671333485 * gx_x;
+    let t533 = t509 + (j1_cos_a * t512 - j1_sin_a * t517);
+    let t534 = t510 + (j1_cos_a * t513 - j1_sin_a * t520);
+    let t535 = t511 + (j1_cos_a * t514 - j1_sin_a * t523);
+    let t540 = 0.919348671064388 * t501 + 0.22438759210189282 * t502
+        - 0.32318451312347624 * t503;
+    let t541 = 0.919348671064388 * t540;
+    let t542 = 0.22438759210189282 * t540;
+    let t543 = 0.32318451312347624 * t540;
+    let t544 = t501 - t541;
+    let t545 = t502 - t542;
+    let t546 = t503 + t543;
+    let t549 = 0.22438759210189282 * t503 + 0.32318451312347624 * t502;
+    let t552 = 0.32318451312347624 * t501 + 0.919348671064388 * t503;
+    let t555 = 0.919348671064388 * t502 - 0.22438759210189282 * t501;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t534 + (t272 * t537 - t273 * t542);
+    let v_b1_x = t541 + (t279 * t544 - t280 * t549);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t535 + (t272 * t538 + t273 * t545);
+    let v_b1_y = t542 + (t279 * t545 + t280 * t552);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t272 * t539 - t273 * t548 - t536;
-    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
-        - 0.32318451312347624 * t528;
-    let t566 = 0.919348671064388 * t565;
-    let t567 = 0.22438759210189282 * t565;
-    let t568 = 0.32318451312347624 * t565;
-    let t569 = t526 - t566;
-    let t570 = t527 - t567;
-    let t571 = t528 + t568;
-    let t574 = 0.22438759210189282 * t528 + 0.32318451312347624 * t527;
-    let t577 = 0.32318451312347624 * t526 + 0.919348671064388 * t528;
-    let t580 = 0.919348671064388 * t527 - 0.22438759210189282 * t526;
+    let v_b1_z = t279 * t546 - t280 * t555 - t543;
+    let t572 = 0.919348671064388 * t533 + 0.22438759210189282 * t534
+        - 0.32318451312347624 * t535;
+    let t573 = 0.919348671064388 * t572;
+    let t574 = 0.22438759210189282 * t572;
+    let t575 = 0.32318451312347624 * t572;
+    let t576 = t533 - t573;
+    let t577 = t534 - t574;
+    let t578 = t535 + t575;
+    let t581 = 0.22438759210189282 * t535 + 0.32318451312347624 * t534;
+    let t584 = 0.32318451312347624 * t533 + 0.919348671064388 * t535;
+    let t587 = 0.919348671064388 * t534 - 0.22438759210189282 * t533;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t566 + (t272 * t569 - t273 * t574);
+    let xv_b1_x = t573 + (t279 * t576 - t280 * t581);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t567 + (t272 * t570 + t273 * t577);
+    let xv_b1_y = t574 + (t279 * t577 + t280 * t584);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t272 * t571 - t273 * t580 - t568;
+    let xv_b1_z = t279 * t578 - t280 * t587 - t575;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
         - 0.14913085300184115 * v_b1_z;
-    let t603 = j5_a_b1 - 0.20984549109584813;
+    let t610 = j5_a_b1 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b1 = 1.3479901200256164 * t603;
+    let j5_alpha_b1 = 1.3479901200256164 * t610;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
-    let t611 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
-    let t614 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
-    let t617 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
-    let t626 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    let t618 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t621 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t624 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t633 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t617 * t617 + (t611 * t611 + t614 * t614)
-        - 1.3479901200256164 * (t626 * t626);
+    let j5_gap_b1 = t624 * t624 + (t618 * t618 + t621 * t621)
+        - 1.3479901200256164 * (t633 * t633);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b1).max(0.0),
     );
-    let t642 = 0.3174776227989252 * j5_beta_b1;
-    let t643 = 0.9399166168175558 * j5_beta_b1;
-    let t644 = 0.12555760611043656 * j5_beta_b1;
-    let t647 = 0.2368529300043945 * j5_gamma_b1;
-    let t648 = 0.030542838068628286 * j5_gamma_b1;
-    let t650 = 0.8275343040933489 * j5_gamma_b1;
-    let t651 = t642 - 0.8362137090354541 * t603;
-    let t652 = 1.0379846701062043 * t603 + t643;
-    let t653 = t644 - 0.2010269164374744 * t603;
+    let t649 = 0.3174776227989252 * j5_beta_b1;
+    let t650 = 0.9399166168175558 * j5_beta_b1;
+    let t651 = 0.12555760611043656 * j5_beta_b1;
+    let t654 = 0.2368529300043945 * j5_gamma_b1;
+    let t655 = 0.030542838068628286 * j5_gamma_b1;
+    let t657 = 0.8275343040933489 * j5_gamma_b1;
+    let t658 = t649 - 0.8362137090354541 * t610;
+    let t659 = 1.0379846701062043 * t610 + t650;
+    let t660 = t651 - 0.2010269164374744 * t610;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1a_x = t647 + t651;
+    let z_b1a_x = t654 + t658;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1a_y = t648 + t652;
+    let z_b1a_y = t655 + t659;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1a_z = t653 - t650;
+    let z_b1a_z = t660 - t657;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1a = 1.2056566317887352
         * (0.8840923826341479 * z_b1a_z
@@ -1013,58 +1028,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b1a_y + 0.34229941191058744 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t686 = j5_alpha_b1 - j5_a_b1;
-    let t690 = t642 - 0.620341126105259 * t686;
-    let t691 = t643 + 0.7700239450467775 * t686;
-    let t692 = t644 - 0.14913085300184115 * t686;
-    let t693 = t647 + t690;
-    let t694 = t648 + t691;
-    let t695 = t692 - t650;
-    let t700 = v_b1_z * t695 + (v_b1_x * t693 + v_b1_y * t694);
-    let t714 = 0.7700239450467775 * (v_b1_x * t695 - v_b1_z * t693)
-        - 0.620341126105259 * (v_b1_z * t694 - v_b1_y * t695)
-        - 0.14913085300184115 * (v_b1_y * t693 - v_b1_x * t694);
-    let t717 = t700 * t700 + t714 * t714;
-    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1e-40));
+    let t693 = j5_alpha_b1 - j5_a_b1;
+    let t697 = t649 - 0.620341126105259 * t693;
+    let t698 = t650 + 0.7700239450467775 * t693;
+    let t699 = t651 - 0.14913085300184115 * t693;
+    let t700 = t654 + t697;
+    let t701 = t655 + t698;
+    let t702 = t699 - t657;
+    let t707 = v_b1_z * t702 + (v_b1_x * t700 + v_b1_y * t701);
+    let t721 = 0.7700239450467775 * (v_b1_x * t702 - v_b1_z * t700)
+        - 0.620341126105259 * (v_b1_z * t701 - v_b1_y * t702)
+        - 0.14913085300184115 * (v_b1_y * t700 - v_b1_x * t701);
+    let t724 = t707 * t707 + t721 * t721;
+    let t728 = 1.0 / ::armforge_runtime::math::sqrt(t724.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1e-40 - t717;
+    let aligned_b1 = 1e-40 - t724;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t707 * t728 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t721 * t728 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
-    let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+    let t739 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
-    let t733 = 0.620341126105259 * t732;
-    let t734 = 0.7700239450467775 * t732;
-    let t735 = 0.14913085300184115 * t732;
-    let t736 = xv_b1_x + t733;
-    let t737 = xv_b1_y - t734;
-    let t738 = xv_b1_z + t735;
-    let t741 = 0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y;
-    let t744 = 0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x;
-    let t747 = 0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x;
-    let t757 = j4_cos_b1a * t736 - j4_sin_b1a * t741 - t733;
-    let t758 = t734 + (j4_cos_b1a * t737 - j4_sin_b1a * t744);
-    let t759 = j4_cos_b1a * t738 + j4_sin_b1a * t747 - t735;
-    let t764 = 0.12555760611043656 * t759
-        + (0.3174776227989252 * t757 + 0.9399166168175558 * t758);
-    let t765 = 0.3174776227989252 * t764;
-    let t766 = 0.9399166168175558 * t764;
-    let t767 = 0.12555760611043656 * t764;
+    let t740 = 0.620341126105259 * t739;
+    let t741 = 0.7700239450467775 * t739;
+    let t742 = 0.14913085300184115 * t739;
+    let t743 = xv_b1_x + t740;
+    let t744 = xv_b1_y - t741;
+    let t745 = xv_b1_z + t742;
+    let t748 = 0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y;
+    let t751 = 0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x;
+    let t754 = 0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x;
+    let t764 = j4_cos_b1a * t743 - j4_sin_b1a * t748 - t740;
+    let t765 = t741 + (j4_cos_b1a * t744 - j4_sin_b1a * t751);
+    let t766 = j4_cos_b1a * t745 + j4_sin_b1a * t754 - t742;
+    let t771 = 0.12555760611043656 * t766
+        + (0.3174776227989252 * t764 + 0.9399166168175558 * t765);
+    let t772 = 0.3174776227989252 * t771;
+    let t773 = 0.9399166168175558 * t771;
+    let t774 = 0.12555760611043656 * t771;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1a_x = t765
-        + (j5_cos_b1a * (t757 - t765)
-            - j5_sin_b1a * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
+    let y6_b1a_x = t772
+        + (j5_cos_b1a * (t764 - t772)
+            - j5_sin_b1a * (0.9399166168175558 * t766 - 0.12555760611043656 * t765));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1a_y = t766
-        + (j5_cos_b1a * (t758 - t766)
-            - j5_sin_b1a * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
+    let y6_b1a_y = t773
+        + (j5_cos_b1a * (t765 - t773)
+            - j5_sin_b1a * (0.12555760611043656 * t764 - 0.3174776227989252 * t766));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1a_z = t767
-        + (j5_cos_b1a * (t759 - t767)
-            - j5_sin_b1a * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
+    let y6_b1a_z = t774
+        + (j5_cos_b1a * (t766 - t774)
+            - j5_sin_b1a * (0.3174776227989252 * t765 - 0.9399166168175558 * t764));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1077,11 +1092,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b1a_x + 0.028388007507509954 * y6_b1a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1b_x = t651 - t647;
+    let z_b1b_x = t658 - t654;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1b_y = t652 - t648;
+    let z_b1b_y = t659 - t655;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1b_z = t650 + t653;
+    let z_b1b_z = t657 + t660;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1b = 1.2056566317887352
         * (0.8840923826341479 * z_b1b_z
@@ -1096,45 +1111,45 @@ fn candidates(
                 * (0.08264952242757546 * z_b1b_y + 0.34229941191058744 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
-    let t840 = t690 - t647;
-    let t841 = t691 - t648;
-    let t842 = t650 + t692;
-    let t847 = v_b1_z * t842 + (v_b1_x * t840 + v_b1_y * t841);
-    let t861 = 0.7700239450467775 * (v_b1_x * t842 - v_b1_z * t840)
-        - 0.620341126105259 * (v_b1_z * t841 - v_b1_y * t842)
-        - 0.14913085300184115 * (v_b1_y * t840 - v_b1_x * t841);
-    let t864 = t847 * t847 + t861 * t861;
-    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1e-40));
+    let t847 = t697 - t654;
+    let t848 = t698 - t655;
+    let t849 = t657 + t699;
+    let t854 = v_b1_z * t849 + (v_b1_x * t847 + v_b1_y * t848);
+    let t868 = 0.7700239450467775 * (v_b1_x * t849 - v_b1_z * t847)
+        - 0.620341126105259 * (v_b1_z * t848 - v_b1_y * t849)
+        - 0.14913085300184115 * (v_b1_y * t847 - v_b1_x * t848);
+    let t871 = t854 * t854 + t868 * t868;
+    let t874 = 1.0 / ::armforge_runtime::math::sqrt(t871.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1e-40 - t864;
-    let t871 = -ref4_cos;
-    let t872 = -ref4_sin;
+    let aligned_b1_2 = 1e-40 - t871;
+    let t878 = -ref4_cos;
+    let t879 = -ref4_sin;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t871 } else { t847 * t867 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { t878 } else { t854 * t874 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t872 } else { t861 * t867 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { t879 } else { t868 * t874 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
-    let t885 = t736 * j4_cos_b1b - t741 * j4_sin_b1b - t733;
-    let t886 = t734 + (t737 * j4_cos_b1b - t744 * j4_sin_b1b);
-    let t887 = t738 * j4_cos_b1b + t747 * j4_sin_b1b - t735;
-    let t892 = 0.12555760611043656 * t887
-        + (0.3174776227989252 * t885 + 0.9399166168175558 * t886);
-    let t893 = 0.3174776227989252 * t892;
-    let t894 = 0.9399166168175558 * t892;
-    let t895 = 0.12555760611043656 * t892;
+    let t892 = t743 * j4_cos_b1b - t748 * j4_sin_b1b - t740;
+    let t893 = t741 + (t744 * j4_cos_b1b - t751 * j4_sin_b1b);
+    let t894 = t745 * j4_cos_b1b + t754 * j4_sin_b1b - t742;
+    let t899 = 0.12555760611043656 * t894
+        + (0.3174776227989252 * t892 + 0.9399166168175558 * t893);
+    let t900 = 0.3174776227989252 * t899;
+    let t901 = 0.9399166168175558 * t899;
+    let t902 = 0.12555760611043656 * t899;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1b_x = t893
-        + (j5_cos_b1b * (t885 - t893)
-            - j5_sin_b1b * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
+    let y6_b1b_x = t900
+        + (j5_cos_b1b * (t892 - t900)
+            - j5_sin_b1b * (0.9399166168175558 * t894 - 0.12555760611043656 * t893));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1b_y = t894
-        + (j5_cos_b1b * (t886 - t894)
-            - j5_sin_b1b * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
+    let y6_b1b_y = t901
+        + (j5_cos_b1b * (t893 - t901)
+            - j5_sin_b1b * (0.12555760611043656 * t892 - 0.3174776227989252 * t894));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1b_z = t895
-        + (j5_cos_b1b * (t887 - t895)
-            - j5_sin_b1b * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
+    let y6_b1b_z = t902
+        + (j5_cos_b1b * (t894 - t902)
+            - j5_sin_b1b * (0.3174776227989252 * t893 - 0.9399166168175558 * t892));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1147,51 +1162,51 @@ fn candidates(
             + (0.9965786754905472 * y6_b1b_x + 0.028388007507509954 * y6_b1b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t534 + (t312 * t537 - t313 * t542);
+    let v_b2_x = t541 + (t319 * t544 - t320 * t549);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t535 + (t312 * t538 + t313 * t545);
+    let v_b2_y = t542 + (t319 * t545 + t320 * t552);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t312 * t539 - t313 * t548 - t536;
+    let v_b2_z = t319 * t546 - t320 * t555 - t543;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t566 + (t312 * t569 - t313 * t574);
+    let xv_b2_x = t573 + (t319 * t576 - t320 * t581);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t567 + (t312 * t570 + t313 * t577);
+    let xv_b2_y = t574 + (t319 * t577 + t320 * t584);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t312 * t571 - t313 * t580 - t568;
+    let xv_b2_z = t319 * t578 - t320 * t587 - t575;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
         - 0.14913085300184115 * v_b2_z;
-    let t969 = j5_a_b2 - 0.20984549109584813;
+    let t976 = j5_a_b2 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b2 = 1.3479901200256164 * t969;
+    let j5_alpha_b2 = 1.3479901200256164 * t976;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
-    let t975 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
-    let t978 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
-    let t981 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
-    let t988 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    let t982 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t985 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t988 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t995 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t981 * t981 + (t975 * t975 + t978 * t978)
-        - 1.3479901200256164 * (t988 * t988);
+    let j5_gap_b2 = t988 * t988 + (t982 * t982 + t985 * t985)
+        - 1.3479901200256164 * (t995 * t995);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b2).max(0.0),
     );
-    let t998 = 0.3174776227989252 * j5_beta_b2;
-    let t999 = 0.9399166168175558 * j5_beta_b2;
-    let t1000 = 0.12555760611043656 * j5_beta_b2;
-    let t1001 = 0.2368529300043945 * j5_gamma_b2;
-    let t1002 = 0.030542838068628286 * j5_gamma_b2;
-    let t1003 = 0.8275343040933489 * j5_gamma_b2;
-    let t1004 = t998 - 0.8362137090354541 * t969;
-    let t1005 = 1.0379846701062043 * t969 + t999;
-    let t1006 = t1000 - 0.2010269164374744 * t969;
+    let t1005 = 0.3174776227989252 * j5_beta_b2;
+    let t1006 = 0.9399166168175558 * j5_beta_b2;
+    let t1007 = 0.12555760611043656 * j5_beta_b2;
+    let t1008 = 0.2368529300043945 * j5_gamma_b2;
+    let t1009 = 0.030542838068628286 * j5_gamma_b2;
+    let t1010 = 0.8275343040933489 * j5_gamma_b2;
+    let t1011 = t1005 - 0.8362137090354541 * t976;
+    let t1012 = 1.0379846701062043 * t976 + t1006;
+    let t1013 = t1007 - 0.2010269164374744 * t976;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2a_x = t1001 + t1004;
+    let z_b2a_x = t1008 + t1011;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2a_y = t1002 + t1005;
+    let z_b2a_y = t1009 + t1012;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2a_z = t1006 - t1003;
+    let z_b2a_z = t1013 - t1010;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2a = 1.2056566317887352
         * (0.8840923826341479 * z_b2a_z
@@ -1206,58 +1221,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b2a_y + 0.34229941191058744 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t1032 = j5_alpha_b2 - j5_a_b2;
-    let t1036 = t998 - 0.620341126105259 * t1032;
-    let t1037 = t999 + 0.7700239450467775 * t1032;
-    let t1038 = t1000 - 0.14913085300184115 * t1032;
-    let t1039 = t1001 + t1036;
-    let t1040 = t1002 + t1037;
-    let t1041 = t1038 - t1003;
-    let t1046 = v_b2_z * t1041 + (v_b2_x * t1039 + v_b2_y * t1040);
-    let t1060 = 0.7700239450467775 * (v_b2_x * t1041 - v_b2_z * t1039)
-        - 0.620341126105259 * (v_b2_z * t1040 - v_b2_y * t1041)
-        - 0.14913085300184115 * (v_b2_y * t1039 - v_b2_x * t1040);
-    let t1063 = t1046 * t1046 + t1060 * t1060;
-    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1e-40));
+    let t1039 = j5_alpha_b2 - j5_a_b2;
+    let t1043 = t1005 - 0.620341126105259 * t1039;
+    let t1044 = t1006 + 0.7700239450467775 * t1039;
+    let t1045 = t1007 - 0.14913085300184115 * t1039;
+    let t1046 = t1008 + t1043;
+    let t1047 = t1009 + t1044;
+    let t1048 = t1045 - t1010;
+    let t1053 = v_b2_z * t1048 + (v_b2_x * t1046 + v_b2_y * t1047);
+    let t1067 = 0.7700239450467775 * (v_b2_x * t1048 - v_b2_z * t1046)
+        - 0.620341126105259 * (v_b2_z * t1047 - v_b2_y * t1048)
+        - 0.14913085300184115 * (v_b2_y * t1046 - v_b2_x * t1047);
+    let t1070 = t1053 * t1053 + t1067 * t1067;
+    let t1073 = 1.0 / ::armforge_runtime::math::sqrt(t1070.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1e-40 - t1063;
+    let aligned_b2 = 1e-40 - t1070;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1053 * t1073 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1067 * t1073 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
-    let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+    let t1084 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
-    let t1078 = 0.620341126105259 * t1077;
-    let t1079 = 0.7700239450467775 * t1077;
-    let t1080 = 0.14913085300184115 * t1077;
-    let t1081 = xv_b2_x + t1078;
-    let t1082 = xv_b2_y - t1079;
-    let t1083 = xv_b2_z + t1080;
-    let t1086 = 0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y;
-    let t1089 = 0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x;
-    let t1092 = 0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x;
-    let t1102 = j4_cos_b2a * t1081 - j4_sin_b2a * t1086 - t1078;
-    let t1103 = t1079 + (j4_cos_b2a * t1082 - j4_sin_b2a * t1089);
-    let t1104 = j4_cos_b2a * t1083 + j4_sin_b2a * t1092 - t1080;
-    let t1109 = 0.12555760611043656 * t1104
-        + (0.3174776227989252 * t1102 + 0.9399166168175558 * t1103);
-    let t1110 = 0.3174776227989252 * t1109;
-    let t1111 = 0.9399166168175558 * t1109;
-    let t1112 = 0.12555760611043656 * t1109;
+    let t1085 = 0.620341126105259 * t1084;
+    let t1086 = 0.7700239450467775 * t1084;
+    let t1087 = 0.14913085300184115 * t1084;
+    let t1088 = xv_b2_x + t1085;
+    let t1089 = xv_b2_y - t1086;
+    let t1090 = xv_b2_z + t1087;
+    let t1093 = 0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y;
+    let t1096 = 0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x;
+    let t1099 = 0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x;
+    let t1109 = j4_cos_b2a * t1088 - j4_sin_b2a * t1093 - t1085;
+    let t1110 = t1086 + (j4_cos_b2a * t1089 - j4_sin_b2a * t1096);
+    let t1111 = j4_cos_b2a * t1090 + j4_sin_b2a * t1099 - t1087;
+    let t1116 = 0.12555760611043656 * t1111
+        + (0.3174776227989252 * t1109 + 0.9399166168175558 * t1110);
+    let t1117 = 0.3174776227989252 * t1116;
+    let t1118 = 0.9399166168175558 * t1116;
+    let t1119 = 0.12555760611043656 * t1116;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2a_x = t1110
-        + (j5_cos_b2a * (t1102 - t1110)
-            - j5_sin_b2a * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
+    let y6_b2a_x = t1117
+        + (j5_cos_b2a * (t1109 - t1117)
+            - j5_sin_b2a * (0.9399166168175558 * t1111 - 0.12555760611043656 * t1110));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2a_y = t1111
-        + (j5_cos_b2a * (t1103 - t1111)
-            - j5_sin_b2a * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
+    let y6_b2a_y = t1118
+        + (j5_cos_b2a * (t1110 - t1118)
+            - j5_sin_b2a * (0.12555760611043656 * t1109 - 0.3174776227989252 * t1111));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2a_z = t1112
-        + (j5_cos_b2a * (t1104 - t1112)
-            - j5_sin_b2a * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
+    let y6_b2a_z = t1119
+        + (j5_cos_b2a * (t1111 - t1119)
+            - j5_sin_b2a * (0.3174776227989252 * t1110 - 0.9399166168175558 * t1109));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1270,11 +1285,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b2a_x + 0.028388007507509954 * y6_b2a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2b_x = t1004 - t1001;
+    let z_b2b_x = t1011 - t1008;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2b_y = t1005 - t1002;
+    let z_b2b_y = t1012 - t1009;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2b_z = t1003 + t1006;
+    let z_b2b_z = t1010 + t1013;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2b = 1.2056566317887352
         * (0.8840923826341479 * z_b2b_z
@@ -1289,43 +1304,43 @@ fn candidates(
                 * (0.08264952242757546 * z_b2b_y + 0.34229941191058744 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
-    let t1182 = t1036 - t1001;
-    let t1183 = t1037 - t1002;
-    let t1184 = t1003 + t1038;
-    let t1189 = v_b2_z * t1184 + (v_b2_x * t1182 + v_b2_y * t1183);
-    let t1203 = 0.7700239450467775 * (v_b2_x * t1184 - v_b2_z * t1182)
-        - 0.620341126105259 * (v_b2_z * t1183 - v_b2_y * t1184)
-        - 0.14913085300184115 * (v_b2_y * t1182 - v_b2_x * t1183);
-    let t1206 = t1189 * t1189 + t1203 * t1203;
-    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1e-40));
+    let t1189 = t1043 - t1008;
+    let t1190 = t1044 - t1009;
+    let t1191 = t1010 + t1045;
+    let t1196 = v_b2_z * t1191 + (v_b2_x * t1189 + v_b2_y * t1190);
+    let t1210 = 0.7700239450467775 * (v_b2_x * t1191 - v_b2_z * t1189)
+        - 0.620341126105259 * (v_b2_z * t1190 - v_b2_y * t1191)
+        - 0.14913085300184115 * (v_b2_y * t1189 - v_b2_x * t1190);
+    let t1213 = t1196 * t1196 + t1210 * t1210;
+    let t1216 = 1.0 / ::armforge_runtime::math::sqrt(t1213.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1e-40 - t1206;
+    let aligned_b2_2 = 1e-40 - t1213;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t871 } else { t1189 * t1209 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { t878 } else { t1196 * t1216 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t872 } else { t1203 * t1209 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { t879 } else { t1210 * t1216 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
-    let t1225 = t1081 * j4_cos_b2b - t1086 * j4_sin_b2b - t1078;
-    let t1226 = t1079 + (t1082 * j4_cos_b2b - t1089 * j4_sin_b2b);
-    let t1227 = t1083 * j4_cos_b2b + t1092 * j4_sin_b2b - t1080;
-    let t1232 = 0.12555760611043656 * t1227
-        + (0.3174776227989252 * t1225 + 0.9399166168175558 * t1226);
-    let t1233 = 0.3174776227989252 * t1232;
-    let t1234 = 0.9399166168175558 * t1232;
-    let t1235 = 0.12555760611043656 * t1232;
+    let t1232 = t1088 * j4_cos_b2b - t1093 * j4_sin_b2b - t1085;
+    let t1233 = t1086 + (t1089 * j4_cos_b2b - t1096 * j4_sin_b2b);
+    let t1234 = t1090 * j4_cos_b2b + t1099 * j4_sin_b2b - t1087;
+    let t1239 = 0.12555760611043656 * t1234
+        + (0.3174776227989252 * t1232 + 0.9399166168175558 * t1233);
+    let t1240 = 0.3174776227989252 * t1239;
+    let t1241 = 0.9399166168175558 * t1239;
+    let t1242 = 0.12555760611043656 * t1239;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2b_x = t1233
-        + (j5_cos_b2b * (t1225 - t1233)
-            - j5_sin_b2b * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
+    let y6_b2b_x = t1240
+        + (j5_cos_b2b * (t1232 - t1240)
+            - j5_sin_b2b * (0.9399166168175558 * t1234 - 0.12555760611043656 * t1233));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2b_y = t1234
-        + (j5_cos_b2b * (t1226 - t1234)
-            - j5_sin_b2b * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
+    let y6_b2b_y = t1241
+        + (j5_cos_b2b * (t1233 - t1241)
+            - j5_sin_b2b * (0.12555760611043656 * t1232 - 0.3174776227989252 * t1234));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2b_z = t1235
-        + (j5_cos_b2b * (t1227 - t1235)
-            - j5_sin_b2b * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
+    let y6_b2b_z = t1242
+        + (j5_cos_b2b * (t1234 - t1242)
+            - j5_sin_b2b * (0.3174776227989252 * t1233 - 0.9399166168175558 * t1232));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1337,80 +1352,80 @@ fn candidates(
         0.0776212895233 * y6_b2b_z
             + (0.9965786754905472 * y6_b2b_x + 0.028388007507509954 * y6_b2b_y),
     );
-    let t1289 = t470 + (j1_cos_b * t473 - j1_sin_b * t478);
-    let t1290 = t471 + (j1_cos_b * t474 - j1_sin_b * t481);
-    let t1291 = t472 + (j1_cos_b * t475 - j1_sin_b * t484);
-    let t1301 = t502 + (j1_cos_b * t505 - j1_sin_b * t510);
-    let t1302 = t503 + (j1_cos_b * t506 - j1_sin_b * t513);
-    let t1303 = t504 + (j1_cos_b * t507 - j1_sin_b * t516);
-    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
-        - 0.32318451312347624 * t1291;
-    let t1309 = 0.919348671064388 * t1308;
-    let t1310 = 0.22438759210189282 * t1308;
-    let t1311 = 0.32318451312347624 * t1308;
-    let t1312 = t1289 - t1309;
-    let t1313 = t1290 - t1310;
-    let t1314 = t1291 + t1311;
-    let t1317 = 0.22438759210189282 * t1291 + 0.32318451312347624 * t1290;
-    let t1320 = 0.32318451312347624 * t1289 + 0.919348671064388 * t1291;
-    let t1323 = 0.919348671064388 * t1290 - 0.22438759210189282 * t1289;
+    let t1296 = t477 + (j1_cos_b * t480 - j1_sin_b * t485);
+    let t1297 = t478 + (j1_cos_b * t481 - j1_sin_b * t488);
+    let t1298 = t479 + (j1_cos_b * t482 - j1_sin_b * t491);
+    let t1308 = t509 + (j1_cos_b * t512 - j1_sin_b * t517);
+    let t1309 = t510 + (j1_cos_b * t513 - j1_sin_b * t520);
+    let t1310 = t511 + (j1_cos_b * t514 - j1_sin_b * t523);
+    let t1315 = 0.919348671064388 * t1296 + 0.22438759210189282 * t1297
+        - 0.32318451312347624 * t1298;
+    let t1316 = 0.919348671064388 * t1315;
+    let t1317 = 0.22438759210189282 * t1315;
+    let t1318 = 0.32318451312347624 * t1315;
+    let t1319 = t1296 - t1316;
+    let t1320 = t1297 - t1317;
+    let t1321 = t1298 + t1318;
+    let t1324 = 0.22438759210189282 * t1298 + 0.32318451312347624 * t1297;
+    let t1327 = 0.32318451312347624 * t1296 + 0.919348671064388 * t1298;
+    let t1330 = 0.919348671064388 * t1297 - 0.22438759210189282 * t1296;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1309 + (t356 * t1312 - t357 * t1317);
+    let v_b3_x = t1316 + (t363 * t1319 - t364 * t1324);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1310 + (t356 * t1313 + t357 * t1320);
+    let v_b3_y = t1317 + (t363 * t1320 + t364 * t1327);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t356 * t1314 - t357 * t1323 - t1311;
-    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
-        - 0.32318451312347624 * t1303;
-    let t1341 = 0.919348671064388 * t1340;
-    let t1342 = 0.22438759210189282 * t1340;
-    let t1343 = 0.32318451312347624 * t1340;
-    let t1344 = t1301 - t1341;
-    let t1345 = t1302 - t1342;
-    let t1346 = t1303 + t1343;
-    let t1349 = 0.22438759210189282 * t1303 + 0.32318451312347624 * t1302;
-    let t1352 = 0.32318451312347624 * t1301 + 0.919348671064388 * t1303;
-    let t1355 = 0.919348671064388 * t1302 - 0.22438759210189282 * t1301;
+    let v_b3_z = t363 * t1321 - t364 * t1330 - t1318;
+    let t1347 = 0.919348671064388 * t1308 + 0.22438759210189282 * t1309
+        - 0.32318451312347624 * t1310;
+    let t1348 = 0.919348671064388 * t1347;
+    let t1349 = 0.22438759210189282 * t1347;
+    let t1350 = 0.32318451312347624 * t1347;
+    let t1351 = t1308 - t1348;
+    let t1352 = t1309 - t1349;
+    let t1353 = t1310 + t1350;
+    let t1356 = 0.22438759210189282 * t1310 + 0.32318451312347624 * t1309;
+    let t1359 = 0.32318451312347624 * t1308 + 0.919348671064388 * t1310;
+    let t1362 = 0.919348671064388 * t1309 - 0.22438759210189282 * t1308;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1341 + (t356 * t1344 - t357 * t1349);
+    let xv_b3_x = t1348 + (t363 * t1351 - t364 * t1356);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1342 + (t356 * t1345 + t357 * t1352);
+    let xv_b3_y = t1349 + (t363 * t1352 + t364 * t1359);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t356 * t1346 - t357 * t1355 - t1343;
+    let xv_b3_z = t363 * t1353 - t364 * t1362 - t1350;
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
         - 0.14913085300184115 * v_b3_z;
-    let t1373 = j5_a_b3 - 0.20984549109584813;
+    let t1380 = j5_a_b3 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b3 = 1.3479901200256164 * t1373;
+    let j5_alpha_b3 = 1.3479901200256164 * t1380;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
-    let t1379 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
-    let t1382 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
-    let t1385 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
-    let t1392 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    let t1386 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1389 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1392 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1399 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b3 = t1385 * t1385 + (t1379 * t1379 + t1382 * t1382)
-        - 1.3479901200256164 * (t1392 * t1392);
+    let j5_gap_b3 = t1392 * t1392 + (t1386 * t1386 + t1389 * t1389)
+        - 1.3479901200256164 * (t1399 * t1399);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b3).max(0.0),
     );
-    let t1402 = 0.3174776227989252 * j5_beta_b3;
-    let t1403 = 0.9399166168175558 * j5_beta_b3;
-    let t1404 = 0.12555760611043656 * j5_beta_b3;
-    let t1405 = 0.2368529300043945 * j5_gamma_b3;
-    let t1406 = 0.030542838068628286 * j5_gamma_b3;
-    let t1407 = 0.8275343040933489 * j5_gamma_b3;
-    let t1408 = t1402 - 0.8362137090354541 * t1373;
-    let t1409 = 1.0379846701062043 * t1373 + t1403;
-    let t1410 = t1404 - 0.2010269164374744 * t1373;
+    let t1409 = 0.3174776227989252 * j5_beta_b3;
+    let t1410 = 0.9399166168175558 * j5_beta_b3;
+    let t1411 = 0.12555760611043656 * j5_beta_b3;
+    let t1412 = 0.2368529300043945 * j5_gamma_b3;
+    let t1413 = 0.030542838068628286 * j5_gamma_b3;
+    let t1414 = 0.8275343040933489 * j5_gamma_b3;
+    let t1415 = t1409 - 0.8362137090354541 * t1380;
+    let t1416 = 1.0379846701062043 * t1380 + t1410;
+    let t1417 = t1411 - 0.2010269164374744 * t1380;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3a_x = t1405 + t1408;
+    let z_b3a_x = t1412 + t1415;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3a_y = t1406 + t1409;
+    let z_b3a_y = t1413 + t1416;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3a_z = t1410 - t1407;
+    let z_b3a_z = t1417 - t1414;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3a = 1.2056566317887352
         * (0.8840923826341479 * z_b3a_z
@@ -1425,58 +1440,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b3a_y + 0.34229941191058744 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1436 = j5_alpha_b3 - j5_a_b3;
-    let t1440 = t1402 - 0.620341126105259 * t1436;
-    let t1441 = t1403 + 0.7700239450467775 * t1436;
-    let t1442 = t1404 - 0.14913085300184115 * t1436;
-    let t1443 = t1405 + t1440;
-    let t1444 = t1406 + t1441;
-    let t1445 = t1442 - t1407;
-    let t1450 = v_b3_z * t1445 + (v_b3_x * t1443 + v_b3_y * t1444);
-    let t1464 = 0.7700239450467775 * (v_b3_x * t1445 - v_b3_z * t1443)
-        - 0.620341126105259 * (v_b3_z * t1444 - v_b3_y * t1445)
-        - 0.14913085300184115 * (v_b3_y * t1443 - v_b3_x * t1444);
-    let t1467 = t1450 * t1450 + t1464 * t1464;
-    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1e-40));
+    let t1443 = j5_alpha_b3 - j5_a_b3;
+    let t1447 = t1409 - 0.620341126105259 * t1443;
+    let t1448 = t1410 + 0.7700239450467775 * t1443;
+    let t1449 = t1411 - 0.14913085300184115 * t1443;
+    let t1450 = t1412 + t1447;
+    let t1451 = t1413 + t1448;
+    let t1452 = t1449 - t1414;
+    let t1457 = v_b3_z * t1452 + (v_b3_x * t1450 + v_b3_y * t1451);
+    let t1471 = 0.7700239450467775 * (v_b3_x * t1452 - v_b3_z * t1450)
+        - 0.620341126105259 * (v_b3_z * t1451 - v_b3_y * t1452)
+        - 0.14913085300184115 * (v_b3_y * t1450 - v_b3_x * t1451);
+    let t1474 = t1457 * t1457 + t1471 * t1471;
+    let t1477 = 1.0 / ::armforge_runtime::math::sqrt(t1474.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1e-40 - t1467;
+    let aligned_b3 = 1e-40 - t1474;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1457 * t1477 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1471 * t1477 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
-    let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+    let t1488 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
-    let t1482 = 0.620341126105259 * t1481;
-    let t1483 = 0.7700239450467775 * t1481;
-    let t1484 = 0.14913085300184115 * t1481;
-    let t1485 = xv_b3_x + t1482;
-    let t1486 = xv_b3_y - t1483;
-    let t1487 = xv_b3_z + t1484;
-    let t1490 = 0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y;
-    let t1493 = 0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x;
-    let t1496 = 0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x;
-    let t1506 = j4_cos_b3a * t1485 - j4_sin_b3a * t1490 - t1482;
-    let t1507 = t1483 + (j4_cos_b3a * t1486 - j4_sin_b3a * t1493);
-    let t1508 = j4_cos_b3a * t1487 + j4_sin_b3a * t1496 - t1484;
-    let t1513 = 0.12555760611043656 * t1508
-        + (0.3174776227989252 * t1506 + 0.9399166168175558 * t1507);
-    let t1514 = 0.3174776227989252 * t1513;
-    let t1515 = 0.9399166168175558 * t1513;
-    let t1516 = 0.12555760611043656 * t1513;
+    let t1489 = 0.620341126105259 * t1488;
+    let t1490 = 0.7700239450467775 * t1488;
+    let t1491 = 0.14913085300184115 * t1488;
+    let t1492 = xv_b3_x + t1489;
+    let t1493 = xv_b3_y - t1490;
+    let t1494 = xv_b3_z + t1491;
+    let t1497 = 0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y;
+    let t1500 = 0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x;
+    let t1503 = 0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x;
+    let t1513 = j4_cos_b3a * t1492 - j4_sin_b3a * t1497 - t1489;
+    let t1514 = t1490 + (j4_cos_b3a * t1493 - j4_sin_b3a * t1500);
+    let t1515 = j4_cos_b3a * t1494 + j4_sin_b3a * t1503 - t1491;
+    let t1520 = 0.12555760611043656 * t1515
+        + (0.3174776227989252 * t1513 + 0.9399166168175558 * t1514);
+    let t1521 = 0.3174776227989252 * t1520;
+    let t1522 = 0.9399166168175558 * t1520;
+    let t1523 = 0.12555760611043656 * t1520;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3a_x = t1514
-        + (j5_cos_b3a * (t1506 - t1514)
-            - j5_sin_b3a * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
+    let y6_b3a_x = t1521
+        + (j5_cos_b3a * (t1513 - t1521)
+            - j5_sin_b3a * (0.9399166168175558 * t1515 - 0.12555760611043656 * t1514));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3a_y = t1515
-        + (j5_cos_b3a * (t1507 - t1515)
-            - j5_sin_b3a * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
+    let y6_b3a_y = t1522
+        + (j5_cos_b3a * (t1514 - t1522)
+            - j5_sin_b3a * (0.12555760611043656 * t1513 - 0.3174776227989252 * t1515));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3a_z = t1516
-        + (j5_cos_b3a * (t1508 - t1516)
-            - j5_sin_b3a * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
+    let y6_b3a_z = t1523
+        + (j5_cos_b3a * (t1515 - t1523)
+            - j5_sin_b3a * (0.3174776227989252 * t1514 - 0.9399166168175558 * t1513));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1489,11 +1504,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b3a_x + 0.028388007507509954 * y6_b3a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3b_x = t1408 - t1405;
+    let z_b3b_x = t1415 - t1412;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3b_y = t1409 - t1406;
+    let z_b3b_y = t1416 - t1413;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3b_z = t1407 + t1410;
+    let z_b3b_z = t1414 + t1417;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3b = 1.2056566317887352
         * (0.8840923826341479 * z_b3b_z
@@ -1508,43 +1523,43 @@ fn candidates(
                 * (0.08264952242757546 * z_b3b_y + 0.34229941191058744 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
-    let t1586 = t1440 - t1405;
-    let t1587 = t1441 - t1406;
-    let t1588 = t1407 + t1442;
-    let t1593 = v_b3_z * t1588 + (v_b3_x * t1586 + v_b3_y * t1587);
-    let t1607 = 0.7700239450467775 * (v_b3_x * t1588 - v_b3_z * t1586)
-        - 0.620341126105259 * (v_b3_z * t1587 - v_b3_y * t1588)
-        - 0.14913085300184115 * (v_b3_y * t1586 - v_b3_x * t1587);
-    let t1610 = t1593 * t1593 + t1607 * t1607;
-    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1e-40));
+    let t1593 = t1447 - t1412;
+    let t1594 = t1448 - t1413;
+    let t1595 = t1414 + t1449;
+    let t1600 = v_b3_z * t1595 + (v_b3_x * t1593 + v_b3_y * t1594);
+    let t1614 = 0.7700239450467775 * (v_b3_x * t1595 - v_b3_z * t1593)
+        - 0.620341126105259 * (v_b3_z * t1594 - v_b3_y * t1595)
+        - 0.14913085300184115 * (v_b3_y * t1593 - v_b3_x * t1594);
+    let t1617 = t1600 * t1600 + t1614 * t1614;
+    let t1620 = 1.0 / ::armforge_runtime::math::sqrt(t1617.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1e-40 - t1610;
+    let aligned_b3_2 = 1e-40 - t1617;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t871 } else { t1593 * t1613 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { t878 } else { t1600 * t1620 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { t872 } else { t1607 * t1613 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { t879 } else { t1614 * t1620 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
-    let t1629 = t1485 * j4_cos_b3b - t1490 * j4_sin_b3b - t1482;
-    let t1630 = t1483 + (t1486 * j4_cos_b3b - t1493 * j4_sin_b3b);
-    let t1631 = t1487 * j4_cos_b3b + t1496 * j4_sin_b3b - t1484;
-    let t1636 = 0.12555760611043656 * t1631
-        + (0.3174776227989252 * t1629 + 0.9399166168175558 * t1630);
-    let t1637 = 0.3174776227989252 * t1636;
-    let t1638 = 0.9399166168175558 * t1636;
-    let t1639 = 0.12555760611043656 * t1636;
+    let t1636 = t1492 * j4_cos_b3b - t1497 * j4_sin_b3b - t1489;
+    let t1637 = t1490 + (t1493 * j4_cos_b3b - t1500 * j4_sin_b3b);
+    let t1638 = t1494 * j4_cos_b3b + t1503 * j4_sin_b3b - t1491;
+    let t1643 = 0.12555760611043656 * t1638
+        + (0.3174776227989252 * t1636 + 0.9399166168175558 * t1637);
+    let t1644 = 0.3174776227989252 * t1643;
+    let t1645 = 0.9399166168175558 * t1643;
+    let t1646 = 0.12555760611043656 * t1643;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3b_x = t1637
-        + (j5_cos_b3b * (t1629 - t1637)
-            - j5_sin_b3b * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
+    let y6_b3b_x = t1644
+        + (j5_cos_b3b * (t1636 - t1644)
+            - j5_sin_b3b * (0.9399166168175558 * t1638 - 0.12555760611043656 * t1637));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3b_y = t1638
-        + (j5_cos_b3b * (t1630 - t1638)
-            - j5_sin_b3b * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
+    let y6_b3b_y = t1645
+        + (j5_cos_b3b * (t1637 - t1645)
+            - j5_sin_b3b * (0.12555760611043656 * t1636 - 0.3174776227989252 * t1638));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3b_z = t1639
-        + (j5_cos_b3b * (t1631 - t1639)
-            - j5_sin_b3b * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
+    let y6_b3b_z = t1646
+        + (j5_cos_b3b * (t1638 - t1646)
+            - j5_sin_b3b * (0.3174776227989252 * t1637 - 0.9399166168175558 * t1636));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1557,51 +1572,51 @@ fn candidates(
             + (0.9965786754905472 * y6_b3b_x + 0.028388007507509954 * y6_b3b_y),
     );
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1309 + (t396 * t1312 - t397 * t1317);
+    let v_b4_x = t1316 + (t403 * t1319 - t404 * t1324);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1310 + (t396 * t1313 + t397 * t1320);
+    let v_b4_y = t1317 + (t403 * t1320 + t404 * t1327);
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t396 * t1314 - t397 * t1323 - t1311;
+    let v_b4_z = t403 * t1321 - t404 * t1330 - t1318;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1341 + (t396 * t1344 - t397 * t1349);
+    let xv_b4_x = t1348 + (t403 * t1351 - t404 * t1356);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1342 + (t396 * t1345 + t397 * t1352);
+    let xv_b4_y = t1349 + (t403 * t1352 + t404 * t1359);
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t396 * t1346 - t397 * t1355 - t1343;
+    let xv_b4_z = t403 * t1353 - t404 * t1362 - t1350;
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
         - 0.14913085300184115 * v_b4_z;
-    let t1713 = j5_a_b4 - 0.20984549109584813;
+    let t1720 = j5_a_b4 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b4 = 1.3479901200256164 * t1713;
+    let j5_alpha_b4 = 1.3479901200256164 * t1720;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
-    let t1719 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
-    let t1722 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
-    let t1725 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
-    let t1732 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    let t1726 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1729 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1732 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1739 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b4 = t1725 * t1725 + (t1719 * t1719 + t1722 * t1722)
-        - 1.3479901200256164 * (t1732 * t1732);
+    let j5_gap_b4 = t1732 * t1732 + (t1726 * t1726 + t1729 * t1729)
+        - 1.3479901200256164 * (t1739 * t1739);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b4).max(0.0),
     );
-    let t1742 = 0.3174776227989252 * j5_beta_b4;
-    let t1743 = 0.9399166168175558 * j5_beta_b4;
-    let t1744 = 0.12555760611043656 * j5_beta_b4;
-    let t1745 = 0.2368529300043945 * j5_gamma_b4;
-    let t1746 = 0.030542838068628286 * j5_gamma_b4;
-    let t1747 = 0.8275343040933489 * j5_gamma_b4;
-    let t1748 = t1742 - 0.8362137090354541 * t1713;
-    let t1749 = 1.0379846701062043 * t1713 + t1743;
-    let t1750 = t1744 - 0.2010269164374744 * t1713;
+    let t1749 = 0.3174776227989252 * j5_beta_b4;
+    let t1750 = 0.9399166168175558 * j5_beta_b4;
+    let t1751 = 0.12555760611043656 * j5_beta_b4;
+    let t1752 = 0.2368529300043945 * j5_gamma_b4;
+    let t1753 = 0.030542838068628286 * j5_gamma_b4;
+    let t1754 = 0.8275343040933489 * j5_gamma_b4;
+    let t1755 = t1749 - 0.8362137090354541 * t1720;
+    let t1756 = 1.0379846701062043 * t1720 + t1750;
+    let t1757 = t1751 - 0.2010269164374744 * t1720;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4a_x = t1745 + t1748;
+    let z_b4a_x = t1752 + t1755;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4a_y = t1746 + t1749;
+    let z_b4a_y = t1753 + t1756;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4a_z = t1750 - t1747;
+    let z_b4a_z = t1757 - t1754;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4a = 1.2056566317887352
         * (0.8840923826341479 * z_b4a_z
@@ -1616,58 +1631,58 @@ fn candidates(
                 * (0.08264952242757546 * z_b4a_y + 0.34229941191058744 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1776 = j5_alpha_b4 - j5_a_b4;
-    let t1780 = t1742 - 0.620341126105259 * t1776;
-    let t1781 = t1743 + 0.7700239450467775 * t1776;
-    let t1782 = t1744 - 0.14913085300184115 * t1776;
-    let t1783 = t1745 + t1780;
-    let t1784 = t1746 + t1781;
-    let t1785 = t1782 - t1747;
-    let t1790 = v_b4_z * t1785 + (v_b4_x * t1783 + v_b4_y * t1784);
-    let t1804 = 0.7700239450467775 * (v_b4_x * t1785 - v_b4_z * t1783)
-        - 0.620341126105259 * (v_b4_z * t1784 - v_b4_y * t1785)
-        - 0.14913085300184115 * (v_b4_y * t1783 - v_b4_x * t1784);
-    let t1807 = t1790 * t1790 + t1804 * t1804;
-    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1e-40));
+    let t1783 = j5_alpha_b4 - j5_a_b4;
+    let t1787 = t1749 - 0.620341126105259 * t1783;
+    let t1788 = t1750 + 0.7700239450467775 * t1783;
+    let t1789 = t1751 - 0.14913085300184115 * t1783;
+    let t1790 = t1752 + t1787;
+    let t1791 = t1753 + t1788;
+    let t1792 = t1789 - t1754;
+    let t1797 = v_b4_z * t1792 + (v_b4_x * t1790 + v_b4_y * t1791);
+    let t1811 = 0.7700239450467775 * (v_b4_x * t1792 - v_b4_z * t1790)
+        - 0.620341126105259 * (v_b4_z * t1791 - v_b4_y * t1792)
+        - 0.14913085300184115 * (v_b4_y * t1790 - v_b4_x * t1791);
+    let t1814 = t1797 * t1797 + t1811 * t1811;
+    let t1817 = 1.0 / ::armforge_runtime::math::sqrt(t1814.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1e-40 - t1807;
+    let aligned_b4 = 1e-40 - t1814;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1797 * t1817 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1811 * t1817 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
-    let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+    let t1828 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
-    let t1822 = 0.620341126105259 * t1821;
-    let t1823 = 0.7700239450467775 * t1821;
-    let t1824 = 0.14913085300184115 * t1821;
-    let t1825 = xv_b4_x + t1822;
-    let t1826 = xv_b4_y - t1823;
-    let t1827 = xv_b4_z + t1824;
-    let t1830 = 0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y;
-    let t1833 = 0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x;
-    let t1836 = 0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x;
-    let t1846 = j4_cos_b4a * t1825 - j4_sin_b4a * t1830 - t1822;
-    let t1847 = t1823 + (j4_cos_b4a * t1826 - j4_sin_b4a * t1833);
-    let t1848 = j4_cos_b4a * t1827 + j4_sin_b4a * t1836 - t1824;
-    let t1853 = 0.12555760611043656 * t1848
-        + (0.3174776227989252 * t1846 + 0.9399166168175558 * t1847);
-    let t1854 = 0.3174776227989252 * t1853;
-    let t1855 = 0.9399166168175558 * t1853;
-    let t1856 = 0.12555760611043656 * t1853;
+    let t1829 = 0.620341126105259 * t1828;
+    let t1830 = 0.7700239450467775 * t1828;
+    let t1831 = 0.14913085300184115 * t1828;
+    let t1832 = xv_b4_x + t1829;
+    let t1833 = xv_b4_y - t1830;
+    let t1834 = xv_b4_z + t1831;
+    let t1837 = 0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y;
+    let t1840 = 0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x;
+    let t1843 = 0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x;
+    let t1853 = j4_cos_b4a * t1832 - j4_sin_b4a * t1837 - t1829;
+    let t1854 = t1830 + (j4_cos_b4a * t1833 - j4_sin_b4a * t1840);
+    let t1855 = j4_cos_b4a * t1834 + j4_sin_b4a * t1843 - t1831;
+    let t1860 = 0.12555760611043656 * t1855
+        + (0.3174776227989252 * t1853 + 0.9399166168175558 * t1854);
+    let t1861 = 0.3174776227989252 * t1860;
+    let t1862 = 0.9399166168175558 * t1860;
+    let t1863 = 0.12555760611043656 * t1860;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4a_x = t1854
-        + (j5_cos_b4a * (t1846 - t1854)
-            - j5_sin_b4a * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
+    let y6_b4a_x = t1861
+        + (j5_cos_b4a * (t1853 - t1861)
+            - j5_sin_b4a * (0.9399166168175558 * t1855 - 0.12555760611043656 * t1854));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4a_y = t1855
-        + (j5_cos_b4a * (t1847 - t1855)
-            - j5_sin_b4a * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
+    let y6_b4a_y = t1862
+        + (j5_cos_b4a * (t1854 - t1862)
+            - j5_sin_b4a * (0.12555760611043656 * t1853 - 0.3174776227989252 * t1855));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4a_z = t1856
-        + (j5_cos_b4a * (t1848 - t1856)
-            - j5_sin_b4a * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
+    let y6_b4a_z = t1863
+        + (j5_cos_b4a * (t1855 - t1863)
+            - j5_sin_b4a * (0.3174776227989252 * t1854 - 0.9399166168175558 * t1853));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1680,11 +1695,11 @@ fn candidates(
             + (0.9965786754905472 * y6_b4a_x + 0.028388007507509954 * y6_b4a_y),
     );
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4b_x = t1748 - t1745;
+    let z_b4b_x = t1755 - t1752;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4b_y = t1749 - t1746;
+    let z_b4b_y = t1756 - t1753;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4b_z = t1747 + t1750;
+    let z_b4b_z = t1754 + t1757;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4b = 1.2056566317887352
         * (0.8840923826341479 * z_b4b_z
@@ -1699,43 +1714,43 @@ fn candidates(
                 * (0.08264952242757546 * z_b4b_y + 0.34229941191058744 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
-    let t1926 = t1780 - t1745;
-    let t1927 = t1781 - t1746;
-    let t1928 = t1747 + t1782;
-    let t1933 = v_b4_z * t1928 + (v_b4_x * t1926 + v_b4_y * t1927);
-    let t1947 = 0.7700239450467775 * (v_b4_x * t1928 - v_b4_z * t1926)
-        - 0.620341126105259 * (v_b4_z * t1927 - v_b4_y * t1928)
-        - 0.14913085300184115 * (v_b4_y * t1926 - v_b4_x * t1927);
-    let t1950 = t1933 * t1933 + t1947 * t1947;
-    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1e-40));
+    let t1933 = t1787 - t1752;
+    let t1934 = t1788 - t1753;
+    let t1935 = t1754 + t1789;
+    let t1940 = v_b4_z * t1935 + (v_b4_x * t1933 + v_b4_y * t1934);
+    let t1954 = 0.7700239450467775 * (v_b4_x * t1935 - v_b4_z * t1933)
+        - 0.620341126105259 * (v_b4_z * t1934 - v_b4_y * t1935)
+        - 0.14913085300184115 * (v_b4_y * t1933 - v_b4_x * t1934);
+    let t1957 = t1940 * t1940 + t1954 * t1954;
+    let t1960 = 1.0 / ::armforge_runtime::math::sqrt(t1957.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1e-40 - t1950;
+    let aligned_b4_2 = 1e-40 - t1957;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t871 } else { t1933 * t1953 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { t878 } else { t1940 * t1960 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { t872 } else { t1947 * t1953 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { t879 } else { t1954 * t1960 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
-    let t1969 = t1825 * j4_cos_b4b - t1830 * j4_sin_b4b - t1822;
-    let t1970 = t1823 + (t1826 * j4_cos_b4b - t1833 * j4_sin_b4b);
-    let t1971 = t1827 * j4_cos_b4b + t1836 * j4_sin_b4b - t1824;
-    let t1976 = 0.12555760611043656 * t1971
-        + (0.3174776227989252 * t1969 + 0.9399166168175558 * t1970);
-    let t1977 = 0.3174776227989252 * t1976;
-    let t1978 = 0.9399166168175558 * t1976;
-    let t1979 = 0.12555760611043656 * t1976;
+    let t1976 = t1832 * j4_cos_b4b - t1837 * j4_sin_b4b - t1829;
+    let t1977 = t1830 + (t1833 * j4_cos_b4b - t1840 * j4_sin_b4b);
+    let t1978 = t1834 * j4_cos_b4b + t1843 * j4_sin_b4b - t1831;
+    let t1983 = 0.12555760611043656 * t1978
+        + (0.3174776227989252 * t1976 + 0.9399166168175558 * t1977);
+    let t1984 = 0.3174776227989252 * t1983;
+    let t1985 = 0.9399166168175558 * t1983;
+    let t1986 = 0.12555760611043656 * t1983;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4b_x = t1977
-        + (j5_cos_b4b * (t1969 - t1977)
-            - j5_sin_b4b * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
+    let y6_b4b_x = t1984
+        + (j5_cos_b4b * (t1976 - t1984)
+            - j5_sin_b4b * (0.9399166168175558 * t1978 - 0.12555760611043656 * t1977));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4b_y = t1978
-        + (j5_cos_b4b * (t1970 - t1978)
-            - j5_sin_b4b * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
+    let y6_b4b_y = t1985
+        + (j5_cos_b4b * (t1977 - t1985)
+            - j5_sin_b4b * (0.12555760611043656 * t1976 - 0.3174776227989252 * t1978));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4b_z = t1979
-        + (j5_cos_b4b * (t1971 - t1979)
-            - j5_sin_b4b * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
+    let y6_b4b_z = t1986
+        + (j5_cos_b4b * (t1978 - t1986)
+            - j5_sin_b4b * (0.3174776227989252 * t1977 - 0.9399166168175558 * t1976));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -1974,9 +1989,10 @@ fn candidates(
         },
     ]
 }
-/// The candidates, with joint 1 moved where the wrist center is on axis 1 and the held
-/// value puts joint 5 outside its limits (a rare path; see
-/// `armforge_runtime::internal::free_joint_1`).
+/// The candidates, with the free joint moved where a singular pose leaves one free and
+/// its held value puts a joint outside its limits (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+/// its branch's own function).
 #[inline]
 fn free_candidates(
     target: &::armforge_runtime::Pose,
@@ -1990,9 +2006,16 @@ fn free_candidates(
         target,
         reference,
         &mut all,
-        |moved: &[f64; 4], i: usize| {
-            let again = candidates(target, moved);
-            again.get(i).copied()
+        |moved: &[f64; 4], i: usize| match i {
+            0 => ::core::option::Option::Some(branch_1(target, moved)),
+            1 => ::core::option::Option::Some(branch_2(target, moved)),
+            2 => ::core::option::Option::Some(branch_3(target, moved)),
+            3 => ::core::option::Option::Some(branch_4(target, moved)),
+            4 => ::core::option::Option::Some(branch_5(target, moved)),
+            5 => ::core::option::Option::Some(branch_6(target, moved)),
+            6 => ::core::option::Option::Some(branch_7(target, moved)),
+            7 => ::core::option::Option::Some(branch_8(target, moved)),
+            _ => ::core::option::Option::None,
         },
     );
     all
@@ -2121,149 +2144,149 @@ fn branch_1(
     let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_aa = j3_root_a - 0.2750702190093362;
-    let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
-    let t239 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
-    let t240 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
-    let t245 = w_a_z * t240 + (w_a_x * t237 - w_a_y * t239);
-    let t259 = 0.22438759210189282 * (w_a_x * t240 - w_a_z * t237)
-        - 0.919348671064388 * (w_a_z * t239 + w_a_y * t240)
-        - 0.32318451312347624 * (w_a_y * t237 + w_a_x * t239);
-    let t262 = t245 * t245 + t259 * t259;
-    let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
-    let t269 = t262 - 1e-300;
-    let t272 = if pivot_a >= 0.0 {
-        0.6095997719011829
+    let t244 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t246 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t247 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t252 = w_a_z * t247 + (w_a_x * t244 - w_a_y * t246);
+    let t266 = 0.22438759210189282 * (w_a_x * t247 - w_a_z * t244)
+        - 0.919348671064388 * (w_a_z * t246 + w_a_y * t247)
+        - 0.32318451312347624 * (w_a_y * t244 + w_a_x * t246);
+    let t269 = t252 * t252 + t266 * t266;
+    let t273 = 1.0 / ::armforge_runtime::math::sqrt(t269.max(1e-300));
+    let t276 = t269 - 1e-300;
+    let t279 = if pivot_a >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t269 >= 0.0 { t245 * t266 } else { 1.0 }
+        if t276 >= 0.0 { t252 * t273 } else { 1.0 }
     };
-    let t273 = if pivot_a >= 0.0 {
-        -0.7927093528513625
+    let t280 = if pivot_a >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t269 >= 0.0 { t259 * t266 } else { 0.0 }
+        if t276 >= 0.0 { t266 * t273 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_aa = ::armforge_runtime::math::atan2(t273, t272);
-    let t406 = 0.42112668389358265 * r02
+    let q2_aa = ::armforge_runtime::math::atan2(t280, t279);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t494 = t470
-        + (j1_cos_a * (g6_x - t470)
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t501 = t477
+        + (j1_cos_a * (g6_x - t477)
             - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t495 = t471
-        + (j1_cos_a * (g6_y - t471)
+    let t502 = t478
+        + (j1_cos_a * (g6_y - t478)
             - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t496 = t472
-        + (j1_cos_a * (g6_z - t472)
+    let t503 = t479
+        + (j1_cos_a * (g6_z - t479)
             - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t501 = 0.2455648081179022 * gx_z
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t526 = t502
-        + (j1_cos_a * (gx_x - t502)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t533 = t509
+        + (j1_cos_a * (gx_x - t509)
             - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t527 = t503
-        + (j1_cos_a * (gx_y - t503)
+    let t534 = t510
+        + (j1_cos_a * (gx_y - t510)
             - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t528 = t504
-        + (j1_cos_a * (gx_z - t504)
+    let t535 = t511
+        + (j1_cos_a * (gx_z - t511)
             - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
-        - 0.32318451312347624 * t496;
-    let t534 = 0.919348671064388 * t533;
-    let t535 = 0.22438759210189282 * t533;
-    let t536 = 0.32318451312347624 * t533;
+    let t540 = 0.919348671064388 * t501 + 0.22438759210189282 * t502
+        - 0.32318451312347624 * t503;
+    let t541 = 0.919348671064388 * t540;
+    let t542 = 0.22438759210189282 * t540;
+    let t543 = 0.32318451312347624 * t540;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t534
-        + (t272 * (t494 - t534)
-            - t273 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
+    let v_b1_x = t541
+        + (t279 * (t501 - t541)
+            - t280 * (0.22438759210189282 * t503 + 0.32318451312347624 * t502));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t535
-        + (t272 * (t495 - t535)
-            + t273 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
+    let v_b1_y = t542
+        + (t279 * (t502 - t542)
+            + t280 * (0.32318451312347624 * t501 + 0.919348671064388 * t503));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t272 * (t496 + t536)
-        - t273 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
-    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
-        - 0.32318451312347624 * t528;
-    let t566 = 0.919348671064388 * t565;
-    let t567 = 0.22438759210189282 * t565;
-    let t568 = 0.32318451312347624 * t565;
+    let v_b1_z = t279 * (t503 + t543)
+        - t280 * (0.919348671064388 * t502 - 0.22438759210189282 * t501) - t543;
+    let t572 = 0.919348671064388 * t533 + 0.22438759210189282 * t534
+        - 0.32318451312347624 * t535;
+    let t573 = 0.919348671064388 * t572;
+    let t574 = 0.22438759210189282 * t572;
+    let t575 = 0.32318451312347624 * t572;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t566
-        + (t272 * (t526 - t566)
-            - t273 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
+    let xv_b1_x = t573
+        + (t279 * (t533 - t573)
+            - t280 * (0.22438759210189282 * t535 + 0.32318451312347624 * t534));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t567
-        + (t272 * (t527 - t567)
-            + t273 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
+    let xv_b1_y = t574
+        + (t279 * (t534 - t574)
+            + t280 * (0.32318451312347624 * t533 + 0.919348671064388 * t535));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t272 * (t528 + t568)
-        - t273 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
+    let xv_b1_z = t279 * (t535 + t575)
+        - t280 * (0.919348671064388 * t534 - 0.22438759210189282 * t533) - t575;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
         - 0.14913085300184115 * v_b1_z;
-    let t603 = j5_a_b1 - 0.20984549109584813;
+    let t610 = j5_a_b1 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b1 = 1.3479901200256164 * t603;
+    let j5_alpha_b1 = 1.3479901200256164 * t610;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
-    let t611 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
-    let t614 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
-    let t617 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
-    let t626 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    let t618 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t621 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t624 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t633 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t617 * t617 + (t611 * t611 + t614 * t614)
-        - 1.3479901200256164 * (t626 * t626);
+    let j5_gap_b1 = t624 * t624 + (t618 * t618 + t621 * t621)
+        - 1.3479901200256164 * (t633 * t633);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b1).max(0.0),
     );
-    let t642 = 0.3174776227989252 * j5_beta_b1;
-    let t643 = 0.9399166168175558 * j5_beta_b1;
-    let t644 = 0.12555760611043656 * j5_beta_b1;
-    let t647 = 0.2368529300043945 * j5_gamma_b1;
-    let t648 = 0.030542838068628286 * j5_gamma_b1;
-    let t650 = 0.8275343040933489 * j5_gamma_b1;
+    let t649 = 0.3174776227989252 * j5_beta_b1;
+    let t650 = 0.9399166168175558 * j5_beta_b1;
+    let t651 = 0.12555760611043656 * j5_beta_b1;
+    let t654 = 0.2368529300043945 * j5_gamma_b1;
+    let t655 = 0.030542838068628286 * j5_gamma_b1;
+    let t657 = 0.8275343040933489 * j5_gamma_b1;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1a_x = t647 + (t642 - 0.8362137090354541 * t603);
+    let z_b1a_x = t654 + (t649 - 0.8362137090354541 * t610);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1a_y = t648 + (1.0379846701062043 * t603 + t643);
+    let z_b1a_y = t655 + (1.0379846701062043 * t610 + t650);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1a_z = t644 - 0.2010269164374744 * t603 - t650;
+    let z_b1a_z = t651 - 0.2010269164374744 * t610 - t657;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1a = 1.2056566317887352
         * (0.8840923826341479 * z_b1a_z
@@ -2278,56 +2301,56 @@ fn branch_1(
                 * (0.08264952242757546 * z_b1a_y + 0.34229941191058744 * z_b1a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1a = ::armforge_runtime::math::atan2(j5_sin_b1a, j5_cos_b1a);
-    let t686 = j5_alpha_b1 - j5_a_b1;
-    let t693 = t647 + (t642 - 0.620341126105259 * t686);
-    let t694 = t648 + (t643 + 0.7700239450467775 * t686);
-    let t695 = t644 - 0.14913085300184115 * t686 - t650;
-    let t700 = v_b1_z * t695 + (v_b1_x * t693 + v_b1_y * t694);
-    let t714 = 0.7700239450467775 * (v_b1_x * t695 - v_b1_z * t693)
-        - 0.620341126105259 * (v_b1_z * t694 - v_b1_y * t695)
-        - 0.14913085300184115 * (v_b1_y * t693 - v_b1_x * t694);
-    let t717 = t700 * t700 + t714 * t714;
-    let t721 = 1.0 / ::armforge_runtime::math::sqrt(t717.max(1e-40));
+    let t693 = j5_alpha_b1 - j5_a_b1;
+    let t700 = t654 + (t649 - 0.620341126105259 * t693);
+    let t701 = t655 + (t650 + 0.7700239450467775 * t693);
+    let t702 = t651 - 0.14913085300184115 * t693 - t657;
+    let t707 = v_b1_z * t702 + (v_b1_x * t700 + v_b1_y * t701);
+    let t721 = 0.7700239450467775 * (v_b1_x * t702 - v_b1_z * t700)
+        - 0.620341126105259 * (v_b1_z * t701 - v_b1_y * t702)
+        - 0.14913085300184115 * (v_b1_y * t700 - v_b1_x * t701);
+    let t724 = t707 * t707 + t721 * t721;
+    let t728 = 1.0 / ::armforge_runtime::math::sqrt(t724.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1 = 1e-40 - t717;
+    let aligned_b1 = 1e-40 - t724;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t700 * t721 };
+    let j4_cos_b1a = if aligned_b1 >= 0.0 { ref4_cos } else { t707 * t728 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t714 * t721 };
+    let j4_sin_b1a = if aligned_b1 >= 0.0 { ref4_sin } else { t721 * t728 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1a = ::armforge_runtime::math::atan2(j4_sin_b1a, j4_cos_b1a);
-    let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+    let t739 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
-    let t733 = 0.620341126105259 * t732;
-    let t734 = 0.7700239450467775 * t732;
-    let t735 = 0.14913085300184115 * t732;
-    let t757 = j4_cos_b1a * (xv_b1_x + t733)
+    let t740 = 0.620341126105259 * t739;
+    let t741 = 0.7700239450467775 * t739;
+    let t742 = 0.14913085300184115 * t739;
+    let t764 = j4_cos_b1a * (xv_b1_x + t740)
         - j4_sin_b1a * (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y)
-        - t733;
-    let t758 = t734
-        + (j4_cos_b1a * (xv_b1_y - t734)
+        - t740;
+    let t765 = t741
+        + (j4_cos_b1a * (xv_b1_y - t741)
             - j4_sin_b1a
                 * (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x));
-    let t759 = j4_cos_b1a * (xv_b1_z + t735)
+    let t766 = j4_cos_b1a * (xv_b1_z + t742)
         + j4_sin_b1a * (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x)
-        - t735;
-    let t764 = 0.12555760611043656 * t759
-        + (0.3174776227989252 * t757 + 0.9399166168175558 * t758);
-    let t765 = 0.3174776227989252 * t764;
-    let t766 = 0.9399166168175558 * t764;
-    let t767 = 0.12555760611043656 * t764;
+        - t742;
+    let t771 = 0.12555760611043656 * t766
+        + (0.3174776227989252 * t764 + 0.9399166168175558 * t765);
+    let t772 = 0.3174776227989252 * t771;
+    let t773 = 0.9399166168175558 * t771;
+    let t774 = 0.12555760611043656 * t771;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1a_x = t765
-        + (j5_cos_b1a * (t757 - t765)
-            - j5_sin_b1a * (0.9399166168175558 * t759 - 0.12555760611043656 * t758));
+    let y6_b1a_x = t772
+        + (j5_cos_b1a * (t764 - t772)
+            - j5_sin_b1a * (0.9399166168175558 * t766 - 0.12555760611043656 * t765));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1a_y = t766
-        + (j5_cos_b1a * (t758 - t766)
-            - j5_sin_b1a * (0.12555760611043656 * t757 - 0.3174776227989252 * t759));
+    let y6_b1a_y = t773
+        + (j5_cos_b1a * (t765 - t773)
+            - j5_sin_b1a * (0.12555760611043656 * t764 - 0.3174776227989252 * t766));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1a_z = t767
-        + (j5_cos_b1a * (t759 - t767)
-            - j5_sin_b1a * (0.3174776227989252 * t758 - 0.9399166168175558 * t757));
+    let y6_b1a_z = t774
+        + (j5_cos_b1a * (t766 - t774)
+            - j5_sin_b1a * (0.3174776227989252 * t765 - 0.9399166168175558 * t764));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -2492,155 +2515,155 @@ fn branch_2(
     let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_aa = j3_root_a - 0.2750702190093362;
-    let t237 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
-    let t239 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
-    let t240 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
-    let t245 = w_a_z * t240 + (w_a_x * t237 - w_a_y * t239);
-    let t259 = 0.22438759210189282 * (w_a_x * t240 - w_a_z * t237)
-        - 0.919348671064388 * (w_a_z * t239 + w_a_y * t240)
-        - 0.32318451312347624 * (w_a_y * t237 + w_a_x * t239);
-    let t262 = t245 * t245 + t259 * t259;
-    let t266 = 1.0 / ::armforge_runtime::math::sqrt(t262.max(1e-300));
-    let t269 = t262 - 1e-300;
-    let t272 = if pivot_a >= 0.0 {
-        0.6095997719011829
+    let t244 = 0.3779706556925576 * q3_aa + 0.12974347073127893;
+    let t246 = 0.7317961020620863 * q3_aa + 0.049474576298366504;
+    let t247 = 0.5671090269446208 * q3_aa + 0.33472521719783077;
+    let t252 = w_a_z * t247 + (w_a_x * t244 - w_a_y * t246);
+    let t266 = 0.22438759210189282 * (w_a_x * t247 - w_a_z * t244)
+        - 0.919348671064388 * (w_a_z * t246 + w_a_y * t247)
+        - 0.32318451312347624 * (w_a_y * t244 + w_a_x * t246);
+    let t269 = t252 * t252 + t266 * t266;
+    let t273 = 1.0 / ::armforge_runtime::math::sqrt(t269.max(1e-300));
+    let t276 = t269 - 1e-300;
+    let t279 = if pivot_a >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t269 >= 0.0 { t245 * t266 } else { 1.0 }
+        if t276 >= 0.0 { t252 * t273 } else { 1.0 }
     };
-    let t273 = if pivot_a >= 0.0 {
-        -0.7927093528513625
+    let t280 = if pivot_a >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t269 >= 0.0 { t259 * t266 } else { 0.0 }
+        if t276 >= 0.0 { t266 * t273 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_aa = ::armforge_runtime::math::atan2(t273, t272);
-    let t406 = 0.42112668389358265 * r02
+    let q2_aa = ::armforge_runtime::math::atan2(t280, t279);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t494 = t470
-        + (j1_cos_a * (g6_x - t470)
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t501 = t477
+        + (j1_cos_a * (g6_x - t477)
             - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t495 = t471
-        + (j1_cos_a * (g6_y - t471)
+    let t502 = t478
+        + (j1_cos_a * (g6_y - t478)
             - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t496 = t472
-        + (j1_cos_a * (g6_z - t472)
+    let t503 = t479
+        + (j1_cos_a * (g6_z - t479)
             - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t501 = 0.2455648081179022 * gx_z
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t526 = t502
-        + (j1_cos_a * (gx_x - t502)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t533 = t509
+        + (j1_cos_a * (gx_x - t509)
             - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t527 = t503
-        + (j1_cos_a * (gx_y - t503)
+    let t534 = t510
+        + (j1_cos_a * (gx_y - t510)
             - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t528 = t504
-        + (j1_cos_a * (gx_z - t504)
+    let t535 = t511
+        + (j1_cos_a * (gx_z - t511)
             - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
-        - 0.32318451312347624 * t496;
-    let t534 = 0.919348671064388 * t533;
-    let t535 = 0.22438759210189282 * t533;
-    let t536 = 0.32318451312347624 * t533;
+    let t540 = 0.919348671064388 * t501 + 0.22438759210189282 * t502
+        - 0.32318451312347624 * t503;
+    let t541 = 0.919348671064388 * t540;
+    let t542 = 0.22438759210189282 * t540;
+    let t543 = 0.32318451312347624 * t540;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b1_x = t534
-        + (t272 * (t494 - t534)
-            - t273 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
+    let v_b1_x = t541
+        + (t279 * (t501 - t541)
+            - t280 * (0.22438759210189282 * t503 + 0.32318451312347624 * t502));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b1_y = t535
-        + (t272 * (t495 - t535)
-            + t273 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
+    let v_b1_y = t542
+        + (t279 * (t502 - t542)
+            + t280 * (0.32318451312347624 * t501 + 0.919348671064388 * t503));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b1_z = t272 * (t496 + t536)
-        - t273 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
-    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
-        - 0.32318451312347624 * t528;
-    let t566 = 0.919348671064388 * t565;
-    let t567 = 0.22438759210189282 * t565;
-    let t568 = 0.32318451312347624 * t565;
+    let v_b1_z = t279 * (t503 + t543)
+        - t280 * (0.919348671064388 * t502 - 0.22438759210189282 * t501) - t543;
+    let t572 = 0.919348671064388 * t533 + 0.22438759210189282 * t534
+        - 0.32318451312347624 * t535;
+    let t573 = 0.919348671064388 * t572;
+    let t574 = 0.22438759210189282 * t572;
+    let t575 = 0.32318451312347624 * t572;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b1_x = t566
-        + (t272 * (t526 - t566)
-            - t273 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
+    let xv_b1_x = t573
+        + (t279 * (t533 - t573)
+            - t280 * (0.22438759210189282 * t535 + 0.32318451312347624 * t534));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b1_y = t567
-        + (t272 * (t527 - t567)
-            + t273 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
+    let xv_b1_y = t574
+        + (t279 * (t534 - t574)
+            + t280 * (0.32318451312347624 * t533 + 0.919348671064388 * t535));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b1_z = t272 * (t528 + t568)
-        - t273 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
+    let xv_b1_z = t279 * (t535 + t575)
+        - t280 * (0.919348671064388 * t534 - 0.22438759210189282 * t533) - t575;
     // a = h4 · v = h4 · z
     let j5_a_b1 = 0.7700239450467775 * v_b1_y - 0.620341126105259 * v_b1_x
         - 0.14913085300184115 * v_b1_z;
-    let t603 = j5_a_b1 - 0.20984549109584813;
+    let t610 = j5_a_b1 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b1 = 1.3479901200256164 * t603;
+    let j5_alpha_b1 = 1.3479901200256164 * t610;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b1 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b1;
-    let t611 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
-    let t614 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
-    let t617 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
-    let t626 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
+    let t618 = 0.7700239450467775 * v_b1_z + 0.14913085300184115 * v_b1_y;
+    let t621 = 0.620341126105259 * v_b1_z - 0.14913085300184115 * v_b1_x;
+    let t624 = 0.620341126105259 * v_b1_y + 0.7700239450467775 * v_b1_x;
+    let t633 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b1;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b1 = t617 * t617 + (t611 * t611 + t614 * t614)
-        - 1.3479901200256164 * (t626 * t626);
+    let j5_gap_b1 = t624 * t624 + (t618 * t618 + t621 * t621)
+        - 1.3479901200256164 * (t633 * t633);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b1 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b1).max(0.0),
     );
-    let t642 = 0.3174776227989252 * j5_beta_b1;
-    let t643 = 0.9399166168175558 * j5_beta_b1;
-    let t644 = 0.12555760611043656 * j5_beta_b1;
-    let t647 = 0.2368529300043945 * j5_gamma_b1;
-    let t648 = 0.030542838068628286 * j5_gamma_b1;
-    let t650 = 0.8275343040933489 * j5_gamma_b1;
-    let t686 = j5_alpha_b1 - j5_a_b1;
-    let t732 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
+    let t649 = 0.3174776227989252 * j5_beta_b1;
+    let t650 = 0.9399166168175558 * j5_beta_b1;
+    let t651 = 0.12555760611043656 * j5_beta_b1;
+    let t654 = 0.2368529300043945 * j5_gamma_b1;
+    let t655 = 0.030542838068628286 * j5_gamma_b1;
+    let t657 = 0.8275343040933489 * j5_gamma_b1;
+    let t693 = j5_alpha_b1 - j5_a_b1;
+    let t739 = 0.7700239450467775 * xv_b1_y - 0.620341126105259 * xv_b1_x
         - 0.14913085300184115 * xv_b1_z;
-    let t733 = 0.620341126105259 * t732;
-    let t734 = 0.7700239450467775 * t732;
-    let t735 = 0.14913085300184115 * t732;
+    let t740 = 0.620341126105259 * t739;
+    let t741 = 0.7700239450467775 * t739;
+    let t742 = 0.14913085300184115 * t739;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b1b_x = t642 - 0.8362137090354541 * t603 - t647;
+    let z_b1b_x = t649 - 0.8362137090354541 * t610 - t654;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b1b_y = 1.0379846701062043 * t603 + t643 - t648;
+    let z_b1b_y = 1.0379846701062043 * t610 + t650 - t655;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b1b_z = t650 + (t644 - 0.2010269164374744 * t603);
+    let z_b1b_z = t657 + (t651 - 0.2010269164374744 * t610);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b1b = 1.2056566317887352
         * (0.8840923826341479 * z_b1b_z
@@ -2655,50 +2678,50 @@ fn branch_2(
                 * (0.08264952242757546 * z_b1b_y + 0.34229941191058744 * z_b1b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b1b = ::armforge_runtime::math::atan2(j5_sin_b1b, j5_cos_b1b);
-    let t840 = t642 - 0.620341126105259 * t686 - t647;
-    let t841 = t643 + 0.7700239450467775 * t686 - t648;
-    let t842 = t650 + (t644 - 0.14913085300184115 * t686);
-    let t847 = v_b1_z * t842 + (v_b1_x * t840 + v_b1_y * t841);
-    let t861 = 0.7700239450467775 * (v_b1_x * t842 - v_b1_z * t840)
-        - 0.620341126105259 * (v_b1_z * t841 - v_b1_y * t842)
-        - 0.14913085300184115 * (v_b1_y * t840 - v_b1_x * t841);
-    let t864 = t847 * t847 + t861 * t861;
-    let t867 = 1.0 / ::armforge_runtime::math::sqrt(t864.max(1e-40));
+    let t847 = t649 - 0.620341126105259 * t693 - t654;
+    let t848 = t650 + 0.7700239450467775 * t693 - t655;
+    let t849 = t657 + (t651 - 0.14913085300184115 * t693);
+    let t854 = v_b1_z * t849 + (v_b1_x * t847 + v_b1_y * t848);
+    let t868 = 0.7700239450467775 * (v_b1_x * t849 - v_b1_z * t847)
+        - 0.620341126105259 * (v_b1_z * t848 - v_b1_y * t849)
+        - 0.14913085300184115 * (v_b1_y * t847 - v_b1_x * t848);
+    let t871 = t854 * t854 + t868 * t868;
+    let t874 = 1.0 / ::armforge_runtime::math::sqrt(t871.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b1_2 = 1e-40 - t864;
+    let aligned_b1_2 = 1e-40 - t871;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t847 * t867 };
+    let j4_cos_b1b = if aligned_b1_2 >= 0.0 { -ref4_cos } else { t854 * t874 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t861 * t867 };
+    let j4_sin_b1b = if aligned_b1_2 >= 0.0 { -ref4_sin } else { t868 * t874 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b1b = ::armforge_runtime::math::atan2(j4_sin_b1b, j4_cos_b1b);
-    let t885 = (xv_b1_x + t733) * j4_cos_b1b
+    let t892 = (xv_b1_x + t740) * j4_cos_b1b
         - (0.7700239450467775 * xv_b1_z + 0.14913085300184115 * xv_b1_y) * j4_sin_b1b
-        - t733;
-    let t886 = t734
-        + ((xv_b1_y - t734) * j4_cos_b1b
+        - t740;
+    let t893 = t741
+        + ((xv_b1_y - t741) * j4_cos_b1b
             - (0.620341126105259 * xv_b1_z - 0.14913085300184115 * xv_b1_x)
                 * j4_sin_b1b);
-    let t887 = (xv_b1_z + t735) * j4_cos_b1b
+    let t894 = (xv_b1_z + t742) * j4_cos_b1b
         + (0.620341126105259 * xv_b1_y + 0.7700239450467775 * xv_b1_x) * j4_sin_b1b
-        - t735;
-    let t892 = 0.12555760611043656 * t887
-        + (0.3174776227989252 * t885 + 0.9399166168175558 * t886);
-    let t893 = 0.3174776227989252 * t892;
-    let t894 = 0.9399166168175558 * t892;
-    let t895 = 0.12555760611043656 * t892;
+        - t742;
+    let t899 = 0.12555760611043656 * t894
+        + (0.3174776227989252 * t892 + 0.9399166168175558 * t893);
+    let t900 = 0.3174776227989252 * t899;
+    let t901 = 0.9399166168175558 * t899;
+    let t902 = 0.12555760611043656 * t899;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b1b_x = t893
-        + (j5_cos_b1b * (t885 - t893)
-            - j5_sin_b1b * (0.9399166168175558 * t887 - 0.12555760611043656 * t886));
+    let y6_b1b_x = t900
+        + (j5_cos_b1b * (t892 - t900)
+            - j5_sin_b1b * (0.9399166168175558 * t894 - 0.12555760611043656 * t893));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b1b_y = t894
-        + (j5_cos_b1b * (t886 - t894)
-            - j5_sin_b1b * (0.12555760611043656 * t885 - 0.3174776227989252 * t887));
+    let y6_b1b_y = t901
+        + (j5_cos_b1b * (t893 - t901)
+            - j5_sin_b1b * (0.12555760611043656 * t892 - 0.3174776227989252 * t894));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b1b_z = t895
-        + (j5_cos_b1b * (t887 - t895)
-            - j5_sin_b1b * (0.3174776227989252 * t886 - 0.9399166168175558 * t885));
+    let y6_b1b_z = t902
+        + (j5_cos_b1b * (t894 - t902)
+            - j5_sin_b1b * (0.3174776227989252 * t893 - 0.9399166168175558 * t892));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b1b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -2863,149 +2886,149 @@ fn branch_3(
     let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ab = -0.2750702190093362 - j3_root_a;
-    let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
-    let t280 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
-    let t281 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
-    let t286 = w_a_z * t281 + (w_a_x * t279 - w_a_y * t280);
-    let t300 = 0.22438759210189282 * (w_a_x * t281 - w_a_z * t279)
-        - 0.919348671064388 * (w_a_z * t280 + w_a_y * t281)
-        - 0.32318451312347624 * (w_a_y * t279 + w_a_x * t280);
-    let t303 = t286 * t286 + t300 * t300;
-    let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
-    let t309 = t303 - 1e-300;
-    let t312 = if pivot_a >= 0.0 {
-        0.6095997719011829
+    let t286 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t287 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t288 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t293 = w_a_z * t288 + (w_a_x * t286 - w_a_y * t287);
+    let t307 = 0.22438759210189282 * (w_a_x * t288 - w_a_z * t286)
+        - 0.919348671064388 * (w_a_z * t287 + w_a_y * t288)
+        - 0.32318451312347624 * (w_a_y * t286 + w_a_x * t287);
+    let t310 = t293 * t293 + t307 * t307;
+    let t313 = 1.0 / ::armforge_runtime::math::sqrt(t310.max(1e-300));
+    let t316 = t310 - 1e-300;
+    let t319 = if pivot_a >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t309 >= 0.0 { t286 * t306 } else { 1.0 }
+        if t316 >= 0.0 { t293 * t313 } else { 1.0 }
     };
-    let t313 = if pivot_a >= 0.0 {
-        -0.7927093528513625
+    let t320 = if pivot_a >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t309 >= 0.0 { t300 * t306 } else { 0.0 }
+        if t316 >= 0.0 { t307 * t313 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_ab = ::armforge_runtime::math::atan2(t313, t312);
-    let t406 = 0.42112668389358265 * r02
+    let q2_ab = ::armforge_runtime::math::atan2(t320, t319);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t494 = t470
-        + (j1_cos_a * (g6_x - t470)
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t501 = t477
+        + (j1_cos_a * (g6_x - t477)
             - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t495 = t471
-        + (j1_cos_a * (g6_y - t471)
+    let t502 = t478
+        + (j1_cos_a * (g6_y - t478)
             - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t496 = t472
-        + (j1_cos_a * (g6_z - t472)
+    let t503 = t479
+        + (j1_cos_a * (g6_z - t479)
             - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t501 = 0.2455648081179022 * gx_z
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t526 = t502
-        + (j1_cos_a * (gx_x - t502)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t533 = t509
+        + (j1_cos_a * (gx_x - t509)
             - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t527 = t503
-        + (j1_cos_a * (gx_y - t503)
+    let t534 = t510
+        + (j1_cos_a * (gx_y - t510)
             - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t528 = t504
-        + (j1_cos_a * (gx_z - t504)
+    let t535 = t511
+        + (j1_cos_a * (gx_z - t511)
             - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
-        - 0.32318451312347624 * t496;
-    let t534 = 0.919348671064388 * t533;
-    let t535 = 0.22438759210189282 * t533;
-    let t536 = 0.32318451312347624 * t533;
-    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
-        - 0.32318451312347624 * t528;
-    let t566 = 0.919348671064388 * t565;
-    let t567 = 0.22438759210189282 * t565;
-    let t568 = 0.32318451312347624 * t565;
+    let t540 = 0.919348671064388 * t501 + 0.22438759210189282 * t502
+        - 0.32318451312347624 * t503;
+    let t541 = 0.919348671064388 * t540;
+    let t542 = 0.22438759210189282 * t540;
+    let t543 = 0.32318451312347624 * t540;
+    let t572 = 0.919348671064388 * t533 + 0.22438759210189282 * t534
+        - 0.32318451312347624 * t535;
+    let t573 = 0.919348671064388 * t572;
+    let t574 = 0.22438759210189282 * t572;
+    let t575 = 0.32318451312347624 * t572;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t534
-        + (t312 * (t494 - t534)
-            - t313 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
+    let v_b2_x = t541
+        + (t319 * (t501 - t541)
+            - t320 * (0.22438759210189282 * t503 + 0.32318451312347624 * t502));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t535
-        + (t312 * (t495 - t535)
-            + t313 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
+    let v_b2_y = t542
+        + (t319 * (t502 - t542)
+            + t320 * (0.32318451312347624 * t501 + 0.919348671064388 * t503));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t312 * (t496 + t536)
-        - t313 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
+    let v_b2_z = t319 * (t503 + t543)
+        - t320 * (0.919348671064388 * t502 - 0.22438759210189282 * t501) - t543;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t566
-        + (t312 * (t526 - t566)
-            - t313 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
+    let xv_b2_x = t573
+        + (t319 * (t533 - t573)
+            - t320 * (0.22438759210189282 * t535 + 0.32318451312347624 * t534));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t567
-        + (t312 * (t527 - t567)
-            + t313 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
+    let xv_b2_y = t574
+        + (t319 * (t534 - t574)
+            + t320 * (0.32318451312347624 * t533 + 0.919348671064388 * t535));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t312 * (t528 + t568)
-        - t313 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
+    let xv_b2_z = t319 * (t535 + t575)
+        - t320 * (0.919348671064388 * t534 - 0.22438759210189282 * t533) - t575;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
         - 0.14913085300184115 * v_b2_z;
-    let t969 = j5_a_b2 - 0.20984549109584813;
+    let t976 = j5_a_b2 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b2 = 1.3479901200256164 * t969;
+    let j5_alpha_b2 = 1.3479901200256164 * t976;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
-    let t975 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
-    let t978 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
-    let t981 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
-    let t988 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    let t982 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t985 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t988 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t995 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t981 * t981 + (t975 * t975 + t978 * t978)
-        - 1.3479901200256164 * (t988 * t988);
+    let j5_gap_b2 = t988 * t988 + (t982 * t982 + t985 * t985)
+        - 1.3479901200256164 * (t995 * t995);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b2).max(0.0),
     );
-    let t998 = 0.3174776227989252 * j5_beta_b2;
-    let t999 = 0.9399166168175558 * j5_beta_b2;
-    let t1000 = 0.12555760611043656 * j5_beta_b2;
-    let t1001 = 0.2368529300043945 * j5_gamma_b2;
-    let t1002 = 0.030542838068628286 * j5_gamma_b2;
-    let t1003 = 0.8275343040933489 * j5_gamma_b2;
+    let t1005 = 0.3174776227989252 * j5_beta_b2;
+    let t1006 = 0.9399166168175558 * j5_beta_b2;
+    let t1007 = 0.12555760611043656 * j5_beta_b2;
+    let t1008 = 0.2368529300043945 * j5_gamma_b2;
+    let t1009 = 0.030542838068628286 * j5_gamma_b2;
+    let t1010 = 0.8275343040933489 * j5_gamma_b2;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2a_x = t1001 + (t998 - 0.8362137090354541 * t969);
+    let z_b2a_x = t1008 + (t1005 - 0.8362137090354541 * t976);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2a_y = t1002 + (1.0379846701062043 * t969 + t999);
+    let z_b2a_y = t1009 + (1.0379846701062043 * t976 + t1006);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2a_z = t1000 - 0.2010269164374744 * t969 - t1003;
+    let z_b2a_z = t1007 - 0.2010269164374744 * t976 - t1010;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2a = 1.2056566317887352
         * (0.8840923826341479 * z_b2a_z
@@ -3020,56 +3043,56 @@ fn branch_3(
                 * (0.08264952242757546 * z_b2a_y + 0.34229941191058744 * z_b2a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2a = ::armforge_runtime::math::atan2(j5_sin_b2a, j5_cos_b2a);
-    let t1032 = j5_alpha_b2 - j5_a_b2;
-    let t1039 = t1001 + (t998 - 0.620341126105259 * t1032);
-    let t1040 = t1002 + (t999 + 0.7700239450467775 * t1032);
-    let t1041 = t1000 - 0.14913085300184115 * t1032 - t1003;
-    let t1046 = v_b2_z * t1041 + (v_b2_x * t1039 + v_b2_y * t1040);
-    let t1060 = 0.7700239450467775 * (v_b2_x * t1041 - v_b2_z * t1039)
-        - 0.620341126105259 * (v_b2_z * t1040 - v_b2_y * t1041)
-        - 0.14913085300184115 * (v_b2_y * t1039 - v_b2_x * t1040);
-    let t1063 = t1046 * t1046 + t1060 * t1060;
-    let t1066 = 1.0 / ::armforge_runtime::math::sqrt(t1063.max(1e-40));
+    let t1039 = j5_alpha_b2 - j5_a_b2;
+    let t1046 = t1008 + (t1005 - 0.620341126105259 * t1039);
+    let t1047 = t1009 + (t1006 + 0.7700239450467775 * t1039);
+    let t1048 = t1007 - 0.14913085300184115 * t1039 - t1010;
+    let t1053 = v_b2_z * t1048 + (v_b2_x * t1046 + v_b2_y * t1047);
+    let t1067 = 0.7700239450467775 * (v_b2_x * t1048 - v_b2_z * t1046)
+        - 0.620341126105259 * (v_b2_z * t1047 - v_b2_y * t1048)
+        - 0.14913085300184115 * (v_b2_y * t1046 - v_b2_x * t1047);
+    let t1070 = t1053 * t1053 + t1067 * t1067;
+    let t1073 = 1.0 / ::armforge_runtime::math::sqrt(t1070.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2 = 1e-40 - t1063;
+    let aligned_b2 = 1e-40 - t1070;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1046 * t1066 };
+    let j4_cos_b2a = if aligned_b2 >= 0.0 { ref4_cos } else { t1053 * t1073 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1060 * t1066 };
+    let j4_sin_b2a = if aligned_b2 >= 0.0 { ref4_sin } else { t1067 * t1073 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2a = ::armforge_runtime::math::atan2(j4_sin_b2a, j4_cos_b2a);
-    let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+    let t1084 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
-    let t1078 = 0.620341126105259 * t1077;
-    let t1079 = 0.7700239450467775 * t1077;
-    let t1080 = 0.14913085300184115 * t1077;
-    let t1102 = j4_cos_b2a * (xv_b2_x + t1078)
+    let t1085 = 0.620341126105259 * t1084;
+    let t1086 = 0.7700239450467775 * t1084;
+    let t1087 = 0.14913085300184115 * t1084;
+    let t1109 = j4_cos_b2a * (xv_b2_x + t1085)
         - j4_sin_b2a * (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y)
-        - t1078;
-    let t1103 = t1079
-        + (j4_cos_b2a * (xv_b2_y - t1079)
+        - t1085;
+    let t1110 = t1086
+        + (j4_cos_b2a * (xv_b2_y - t1086)
             - j4_sin_b2a
                 * (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x));
-    let t1104 = j4_cos_b2a * (xv_b2_z + t1080)
+    let t1111 = j4_cos_b2a * (xv_b2_z + t1087)
         + j4_sin_b2a * (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x)
-        - t1080;
-    let t1109 = 0.12555760611043656 * t1104
-        + (0.3174776227989252 * t1102 + 0.9399166168175558 * t1103);
-    let t1110 = 0.3174776227989252 * t1109;
-    let t1111 = 0.9399166168175558 * t1109;
-    let t1112 = 0.12555760611043656 * t1109;
+        - t1087;
+    let t1116 = 0.12555760611043656 * t1111
+        + (0.3174776227989252 * t1109 + 0.9399166168175558 * t1110);
+    let t1117 = 0.3174776227989252 * t1116;
+    let t1118 = 0.9399166168175558 * t1116;
+    let t1119 = 0.12555760611043656 * t1116;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2a_x = t1110
-        + (j5_cos_b2a * (t1102 - t1110)
-            - j5_sin_b2a * (0.9399166168175558 * t1104 - 0.12555760611043656 * t1103));
+    let y6_b2a_x = t1117
+        + (j5_cos_b2a * (t1109 - t1117)
+            - j5_sin_b2a * (0.9399166168175558 * t1111 - 0.12555760611043656 * t1110));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2a_y = t1111
-        + (j5_cos_b2a * (t1103 - t1111)
-            - j5_sin_b2a * (0.12555760611043656 * t1102 - 0.3174776227989252 * t1104));
+    let y6_b2a_y = t1118
+        + (j5_cos_b2a * (t1110 - t1118)
+            - j5_sin_b2a * (0.12555760611043656 * t1109 - 0.3174776227989252 * t1111));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2a_z = t1112
-        + (j5_cos_b2a * (t1104 - t1112)
-            - j5_sin_b2a * (0.3174776227989252 * t1103 - 0.9399166168175558 * t1102));
+    let y6_b2a_z = t1119
+        + (j5_cos_b2a * (t1111 - t1119)
+            - j5_sin_b2a * (0.3174776227989252 * t1110 - 0.9399166168175558 * t1109));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -3234,155 +3257,155 @@ fn branch_4(
     let pivot_a = 8.54e-20 - d2_a;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ab = -0.2750702190093362 - j3_root_a;
-    let t279 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
-    let t280 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
-    let t281 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
-    let t286 = w_a_z * t281 + (w_a_x * t279 - w_a_y * t280);
-    let t300 = 0.22438759210189282 * (w_a_x * t281 - w_a_z * t279)
-        - 0.919348671064388 * (w_a_z * t280 + w_a_y * t281)
-        - 0.32318451312347624 * (w_a_y * t279 + w_a_x * t280);
-    let t303 = t286 * t286 + t300 * t300;
-    let t306 = 1.0 / ::armforge_runtime::math::sqrt(t303.max(1e-300));
-    let t309 = t303 - 1e-300;
-    let t312 = if pivot_a >= 0.0 {
-        0.6095997719011829
+    let t286 = 0.3779706556925576 * q3_ab + 0.12974347073127893;
+    let t287 = 0.7317961020620863 * q3_ab + 0.049474576298366504;
+    let t288 = 0.5671090269446208 * q3_ab + 0.33472521719783077;
+    let t293 = w_a_z * t288 + (w_a_x * t286 - w_a_y * t287);
+    let t307 = 0.22438759210189282 * (w_a_x * t288 - w_a_z * t286)
+        - 0.919348671064388 * (w_a_z * t287 + w_a_y * t288)
+        - 0.32318451312347624 * (w_a_y * t286 + w_a_x * t287);
+    let t310 = t293 * t293 + t307 * t307;
+    let t313 = 1.0 / ::armforge_runtime::math::sqrt(t310.max(1e-300));
+    let t316 = t310 - 1e-300;
+    let t319 = if pivot_a >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t309 >= 0.0 { t286 * t306 } else { 1.0 }
+        if t316 >= 0.0 { t293 * t313 } else { 1.0 }
     };
-    let t313 = if pivot_a >= 0.0 {
-        -0.7927093528513625
+    let t320 = if pivot_a >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t309 >= 0.0 { t300 * t306 } else { 0.0 }
+        if t316 >= 0.0 { t307 * t313 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_ab = ::armforge_runtime::math::atan2(t313, t312);
-    let t406 = 0.42112668389358265 * r02
+    let q2_ab = ::armforge_runtime::math::atan2(t320, t319);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t494 = t470
-        + (j1_cos_a * (g6_x - t470)
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t501 = t477
+        + (j1_cos_a * (g6_x - t477)
             - j1_sin_a * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t495 = t471
-        + (j1_cos_a * (g6_y - t471)
+    let t502 = t478
+        + (j1_cos_a * (g6_y - t478)
             - j1_sin_a * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t496 = t472
-        + (j1_cos_a * (g6_z - t472)
+    let t503 = t479
+        + (j1_cos_a * (g6_z - t479)
             - j1_sin_a * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t501 = 0.2455648081179022 * gx_z
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t526 = t502
-        + (j1_cos_a * (gx_x - t502)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t533 = t509
+        + (j1_cos_a * (gx_x - t509)
             - j1_sin_a * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t527 = t503
-        + (j1_cos_a * (gx_y - t503)
+    let t534 = t510
+        + (j1_cos_a * (gx_y - t510)
             - j1_sin_a * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t528 = t504
-        + (j1_cos_a * (gx_z - t504)
+    let t535 = t511
+        + (j1_cos_a * (gx_z - t511)
             - j1_sin_a * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t533 = 0.919348671064388 * t494 + 0.22438759210189282 * t495
-        - 0.32318451312347624 * t496;
-    let t534 = 0.919348671064388 * t533;
-    let t535 = 0.22438759210189282 * t533;
-    let t536 = 0.32318451312347624 * t533;
-    let t565 = 0.919348671064388 * t526 + 0.22438759210189282 * t527
-        - 0.32318451312347624 * t528;
-    let t566 = 0.919348671064388 * t565;
-    let t567 = 0.22438759210189282 * t565;
-    let t568 = 0.32318451312347624 * t565;
+    let t540 = 0.919348671064388 * t501 + 0.22438759210189282 * t502
+        - 0.32318451312347624 * t503;
+    let t541 = 0.919348671064388 * t540;
+    let t542 = 0.22438759210189282 * t540;
+    let t543 = 0.32318451312347624 * t540;
+    let t572 = 0.919348671064388 * t533 + 0.22438759210189282 * t534
+        - 0.32318451312347624 * t535;
+    let t573 = 0.919348671064388 * t572;
+    let t574 = 0.22438759210189282 * t572;
+    let t575 = 0.32318451312347624 * t572;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b2_x = t534
-        + (t312 * (t494 - t534)
-            - t313 * (0.22438759210189282 * t496 + 0.32318451312347624 * t495));
+    let v_b2_x = t541
+        + (t319 * (t501 - t541)
+            - t320 * (0.22438759210189282 * t503 + 0.32318451312347624 * t502));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b2_y = t535
-        + (t312 * (t495 - t535)
-            + t313 * (0.32318451312347624 * t494 + 0.919348671064388 * t496));
+    let v_b2_y = t542
+        + (t319 * (t502 - t542)
+            + t320 * (0.32318451312347624 * t501 + 0.919348671064388 * t503));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b2_z = t312 * (t496 + t536)
-        - t313 * (0.919348671064388 * t495 - 0.22438759210189282 * t494) - t536;
+    let v_b2_z = t319 * (t503 + t543)
+        - t320 * (0.919348671064388 * t502 - 0.22438759210189282 * t501) - t543;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b2_x = t566
-        + (t312 * (t526 - t566)
-            - t313 * (0.22438759210189282 * t528 + 0.32318451312347624 * t527));
+    let xv_b2_x = t573
+        + (t319 * (t533 - t573)
+            - t320 * (0.22438759210189282 * t535 + 0.32318451312347624 * t534));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b2_y = t567
-        + (t312 * (t527 - t567)
-            + t313 * (0.32318451312347624 * t526 + 0.919348671064388 * t528));
+    let xv_b2_y = t574
+        + (t319 * (t534 - t574)
+            + t320 * (0.32318451312347624 * t533 + 0.919348671064388 * t535));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b2_z = t312 * (t528 + t568)
-        - t313 * (0.919348671064388 * t527 - 0.22438759210189282 * t526) - t568;
+    let xv_b2_z = t319 * (t535 + t575)
+        - t320 * (0.919348671064388 * t534 - 0.22438759210189282 * t533) - t575;
     // a = h4 · v = h4 · z
     let j5_a_b2 = 0.7700239450467775 * v_b2_y - 0.620341126105259 * v_b2_x
         - 0.14913085300184115 * v_b2_z;
-    let t969 = j5_a_b2 - 0.20984549109584813;
+    let t976 = j5_a_b2 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b2 = 1.3479901200256164 * t969;
+    let j5_alpha_b2 = 1.3479901200256164 * t976;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b2 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b2;
-    let t975 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
-    let t978 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
-    let t981 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
-    let t988 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
+    let t982 = 0.7700239450467775 * v_b2_z + 0.14913085300184115 * v_b2_y;
+    let t985 = 0.620341126105259 * v_b2_z - 0.14913085300184115 * v_b2_x;
+    let t988 = 0.620341126105259 * v_b2_y + 0.7700239450467775 * v_b2_x;
+    let t995 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b2;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b2 = t981 * t981 + (t975 * t975 + t978 * t978)
-        - 1.3479901200256164 * (t988 * t988);
+    let j5_gap_b2 = t988 * t988 + (t982 * t982 + t985 * t985)
+        - 1.3479901200256164 * (t995 * t995);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b2 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b2).max(0.0),
     );
-    let t998 = 0.3174776227989252 * j5_beta_b2;
-    let t999 = 0.9399166168175558 * j5_beta_b2;
-    let t1000 = 0.12555760611043656 * j5_beta_b2;
-    let t1001 = 0.2368529300043945 * j5_gamma_b2;
-    let t1002 = 0.030542838068628286 * j5_gamma_b2;
-    let t1003 = 0.8275343040933489 * j5_gamma_b2;
-    let t1032 = j5_alpha_b2 - j5_a_b2;
-    let t1077 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
+    let t1005 = 0.3174776227989252 * j5_beta_b2;
+    let t1006 = 0.9399166168175558 * j5_beta_b2;
+    let t1007 = 0.12555760611043656 * j5_beta_b2;
+    let t1008 = 0.2368529300043945 * j5_gamma_b2;
+    let t1009 = 0.030542838068628286 * j5_gamma_b2;
+    let t1010 = 0.8275343040933489 * j5_gamma_b2;
+    let t1039 = j5_alpha_b2 - j5_a_b2;
+    let t1084 = 0.7700239450467775 * xv_b2_y - 0.620341126105259 * xv_b2_x
         - 0.14913085300184115 * xv_b2_z;
-    let t1078 = 0.620341126105259 * t1077;
-    let t1079 = 0.7700239450467775 * t1077;
-    let t1080 = 0.14913085300184115 * t1077;
+    let t1085 = 0.620341126105259 * t1084;
+    let t1086 = 0.7700239450467775 * t1084;
+    let t1087 = 0.14913085300184115 * t1084;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b2b_x = t998 - 0.8362137090354541 * t969 - t1001;
+    let z_b2b_x = t1005 - 0.8362137090354541 * t976 - t1008;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b2b_y = 1.0379846701062043 * t969 + t999 - t1002;
+    let z_b2b_y = 1.0379846701062043 * t976 + t1006 - t1009;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b2b_z = t1003 + (t1000 - 0.2010269164374744 * t969);
+    let z_b2b_z = t1010 + (t1007 - 0.2010269164374744 * t976);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b2b = 1.2056566317887352
         * (0.8840923826341479 * z_b2b_z
@@ -3397,50 +3420,50 @@ fn branch_4(
                 * (0.08264952242757546 * z_b2b_y + 0.34229941191058744 * z_b2b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b2b = ::armforge_runtime::math::atan2(j5_sin_b2b, j5_cos_b2b);
-    let t1182 = t998 - 0.620341126105259 * t1032 - t1001;
-    let t1183 = t999 + 0.7700239450467775 * t1032 - t1002;
-    let t1184 = t1003 + (t1000 - 0.14913085300184115 * t1032);
-    let t1189 = v_b2_z * t1184 + (v_b2_x * t1182 + v_b2_y * t1183);
-    let t1203 = 0.7700239450467775 * (v_b2_x * t1184 - v_b2_z * t1182)
-        - 0.620341126105259 * (v_b2_z * t1183 - v_b2_y * t1184)
-        - 0.14913085300184115 * (v_b2_y * t1182 - v_b2_x * t1183);
-    let t1206 = t1189 * t1189 + t1203 * t1203;
-    let t1209 = 1.0 / ::armforge_runtime::math::sqrt(t1206.max(1e-40));
+    let t1189 = t1005 - 0.620341126105259 * t1039 - t1008;
+    let t1190 = t1006 + 0.7700239450467775 * t1039 - t1009;
+    let t1191 = t1010 + (t1007 - 0.14913085300184115 * t1039);
+    let t1196 = v_b2_z * t1191 + (v_b2_x * t1189 + v_b2_y * t1190);
+    let t1210 = 0.7700239450467775 * (v_b2_x * t1191 - v_b2_z * t1189)
+        - 0.620341126105259 * (v_b2_z * t1190 - v_b2_y * t1191)
+        - 0.14913085300184115 * (v_b2_y * t1189 - v_b2_x * t1190);
+    let t1213 = t1196 * t1196 + t1210 * t1210;
+    let t1216 = 1.0 / ::armforge_runtime::math::sqrt(t1213.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b2_2 = 1e-40 - t1206;
+    let aligned_b2_2 = 1e-40 - t1213;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1189 * t1209 };
+    let j4_cos_b2b = if aligned_b2_2 >= 0.0 { -ref4_cos } else { t1196 * t1216 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1203 * t1209 };
+    let j4_sin_b2b = if aligned_b2_2 >= 0.0 { -ref4_sin } else { t1210 * t1216 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b2b = ::armforge_runtime::math::atan2(j4_sin_b2b, j4_cos_b2b);
-    let t1225 = (xv_b2_x + t1078) * j4_cos_b2b
+    let t1232 = (xv_b2_x + t1085) * j4_cos_b2b
         - (0.7700239450467775 * xv_b2_z + 0.14913085300184115 * xv_b2_y) * j4_sin_b2b
-        - t1078;
-    let t1226 = t1079
-        + ((xv_b2_y - t1079) * j4_cos_b2b
+        - t1085;
+    let t1233 = t1086
+        + ((xv_b2_y - t1086) * j4_cos_b2b
             - (0.620341126105259 * xv_b2_z - 0.14913085300184115 * xv_b2_x)
                 * j4_sin_b2b);
-    let t1227 = (xv_b2_z + t1080) * j4_cos_b2b
+    let t1234 = (xv_b2_z + t1087) * j4_cos_b2b
         + (0.620341126105259 * xv_b2_y + 0.7700239450467775 * xv_b2_x) * j4_sin_b2b
-        - t1080;
-    let t1232 = 0.12555760611043656 * t1227
-        + (0.3174776227989252 * t1225 + 0.9399166168175558 * t1226);
-    let t1233 = 0.3174776227989252 * t1232;
-    let t1234 = 0.9399166168175558 * t1232;
-    let t1235 = 0.12555760611043656 * t1232;
+        - t1087;
+    let t1239 = 0.12555760611043656 * t1234
+        + (0.3174776227989252 * t1232 + 0.9399166168175558 * t1233);
+    let t1240 = 0.3174776227989252 * t1239;
+    let t1241 = 0.9399166168175558 * t1239;
+    let t1242 = 0.12555760611043656 * t1239;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b2b_x = t1233
-        + (j5_cos_b2b * (t1225 - t1233)
-            - j5_sin_b2b * (0.9399166168175558 * t1227 - 0.12555760611043656 * t1226));
+    let y6_b2b_x = t1240
+        + (j5_cos_b2b * (t1232 - t1240)
+            - j5_sin_b2b * (0.9399166168175558 * t1234 - 0.12555760611043656 * t1233));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b2b_y = t1234
-        + (j5_cos_b2b * (t1226 - t1234)
-            - j5_sin_b2b * (0.12555760611043656 * t1225 - 0.3174776227989252 * t1227));
+    let y6_b2b_y = t1241
+        + (j5_cos_b2b * (t1233 - t1241)
+            - j5_sin_b2b * (0.12555760611043656 * t1232 - 0.3174776227989252 * t1234));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b2b_z = t1235
-        + (j5_cos_b2b * (t1227 - t1235)
-            - j5_sin_b2b * (0.3174776227989252 * t1226 - 0.9399166168175558 * t1225));
+    let y6_b2b_z = t1242
+        + (j5_cos_b2b * (t1234 - t1242)
+            - j5_sin_b2b * (0.3174776227989252 * t1233 - 0.9399166168175558 * t1232));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b2b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -3605,149 +3628,149 @@ fn branch_5(
     let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ba = j3_root_b - 0.2750702190093362;
-    let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
-    let t324 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
-    let t325 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
-    let t330 = w_b_z * t325 + (w_b_x * t323 - w_b_y * t324);
-    let t344 = 0.22438759210189282 * (w_b_x * t325 - w_b_z * t323)
-        - 0.919348671064388 * (w_b_z * t324 + w_b_y * t325)
-        - 0.32318451312347624 * (w_b_y * t323 + w_b_x * t324);
-    let t347 = t330 * t330 + t344 * t344;
-    let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
-    let t353 = t347 - 1e-300;
-    let t356 = if pivot_b >= 0.0 {
-        0.6095997719011829
+    let t330 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t331 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t332 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t337 = w_b_z * t332 + (w_b_x * t330 - w_b_y * t331);
+    let t351 = 0.22438759210189282 * (w_b_x * t332 - w_b_z * t330)
+        - 0.919348671064388 * (w_b_z * t331 + w_b_y * t332)
+        - 0.32318451312347624 * (w_b_y * t330 + w_b_x * t331);
+    let t354 = t337 * t337 + t351 * t351;
+    let t357 = 1.0 / ::armforge_runtime::math::sqrt(t354.max(1e-300));
+    let t360 = t354 - 1e-300;
+    let t363 = if pivot_b >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t353 >= 0.0 { t330 * t350 } else { 1.0 }
+        if t360 >= 0.0 { t337 * t357 } else { 1.0 }
     };
-    let t357 = if pivot_b >= 0.0 {
-        -0.7927093528513625
+    let t364 = if pivot_b >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t353 >= 0.0 { t344 * t350 } else { 0.0 }
+        if t360 >= 0.0 { t351 * t357 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_ba = ::armforge_runtime::math::atan2(t357, t356);
-    let t406 = 0.42112668389358265 * r02
+    let q2_ba = ::armforge_runtime::math::atan2(t364, t363);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t501 = 0.2455648081179022 * gx_z
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t1289 = t470
-        + (j1_cos_b * (g6_x - t470)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t1296 = t477
+        + (j1_cos_b * (g6_x - t477)
             - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1290 = t471
-        + (j1_cos_b * (g6_y - t471)
+    let t1297 = t478
+        + (j1_cos_b * (g6_y - t478)
             - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1291 = t472
-        + (j1_cos_b * (g6_z - t472)
+    let t1298 = t479
+        + (j1_cos_b * (g6_z - t479)
             - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1301 = t502
-        + (j1_cos_b * (gx_x - t502)
+    let t1308 = t509
+        + (j1_cos_b * (gx_x - t509)
             - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1302 = t503
-        + (j1_cos_b * (gx_y - t503)
+    let t1309 = t510
+        + (j1_cos_b * (gx_y - t510)
             - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1303 = t504
-        + (j1_cos_b * (gx_z - t504)
+    let t1310 = t511
+        + (j1_cos_b * (gx_z - t511)
             - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
-        - 0.32318451312347624 * t1291;
-    let t1309 = 0.919348671064388 * t1308;
-    let t1310 = 0.22438759210189282 * t1308;
-    let t1311 = 0.32318451312347624 * t1308;
+    let t1315 = 0.919348671064388 * t1296 + 0.22438759210189282 * t1297
+        - 0.32318451312347624 * t1298;
+    let t1316 = 0.919348671064388 * t1315;
+    let t1317 = 0.22438759210189282 * t1315;
+    let t1318 = 0.32318451312347624 * t1315;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1309
-        + (t356 * (t1289 - t1309)
-            - t357 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
+    let v_b3_x = t1316
+        + (t363 * (t1296 - t1316)
+            - t364 * (0.22438759210189282 * t1298 + 0.32318451312347624 * t1297));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1310
-        + (t356 * (t1290 - t1310)
-            + t357 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
+    let v_b3_y = t1317
+        + (t363 * (t1297 - t1317)
+            + t364 * (0.32318451312347624 * t1296 + 0.919348671064388 * t1298));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t356 * (t1291 + t1311)
-        - t357 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
-    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
-        - 0.32318451312347624 * t1303;
-    let t1341 = 0.919348671064388 * t1340;
-    let t1342 = 0.22438759210189282 * t1340;
-    let t1343 = 0.32318451312347624 * t1340;
+    let v_b3_z = t363 * (t1298 + t1318)
+        - t364 * (0.919348671064388 * t1297 - 0.22438759210189282 * t1296) - t1318;
+    let t1347 = 0.919348671064388 * t1308 + 0.22438759210189282 * t1309
+        - 0.32318451312347624 * t1310;
+    let t1348 = 0.919348671064388 * t1347;
+    let t1349 = 0.22438759210189282 * t1347;
+    let t1350 = 0.32318451312347624 * t1347;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1341
-        + (t356 * (t1301 - t1341)
-            - t357 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
+    let xv_b3_x = t1348
+        + (t363 * (t1308 - t1348)
+            - t364 * (0.22438759210189282 * t1310 + 0.32318451312347624 * t1309));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1342
-        + (t356 * (t1302 - t1342)
-            + t357 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
+    let xv_b3_y = t1349
+        + (t363 * (t1309 - t1349)
+            + t364 * (0.32318451312347624 * t1308 + 0.919348671064388 * t1310));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t356 * (t1303 + t1343)
-        - t357 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
+    let xv_b3_z = t363 * (t1310 + t1350)
+        - t364 * (0.919348671064388 * t1309 - 0.22438759210189282 * t1308) - t1350;
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
         - 0.14913085300184115 * v_b3_z;
-    let t1373 = j5_a_b3 - 0.20984549109584813;
+    let t1380 = j5_a_b3 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b3 = 1.3479901200256164 * t1373;
+    let j5_alpha_b3 = 1.3479901200256164 * t1380;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
-    let t1379 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
-    let t1382 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
-    let t1385 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
-    let t1392 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    let t1386 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1389 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1392 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1399 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b3 = t1385 * t1385 + (t1379 * t1379 + t1382 * t1382)
-        - 1.3479901200256164 * (t1392 * t1392);
+    let j5_gap_b3 = t1392 * t1392 + (t1386 * t1386 + t1389 * t1389)
+        - 1.3479901200256164 * (t1399 * t1399);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b3).max(0.0),
     );
-    let t1402 = 0.3174776227989252 * j5_beta_b3;
-    let t1403 = 0.9399166168175558 * j5_beta_b3;
-    let t1404 = 0.12555760611043656 * j5_beta_b3;
-    let t1405 = 0.2368529300043945 * j5_gamma_b3;
-    let t1406 = 0.030542838068628286 * j5_gamma_b3;
-    let t1407 = 0.8275343040933489 * j5_gamma_b3;
+    let t1409 = 0.3174776227989252 * j5_beta_b3;
+    let t1410 = 0.9399166168175558 * j5_beta_b3;
+    let t1411 = 0.12555760611043656 * j5_beta_b3;
+    let t1412 = 0.2368529300043945 * j5_gamma_b3;
+    let t1413 = 0.030542838068628286 * j5_gamma_b3;
+    let t1414 = 0.8275343040933489 * j5_gamma_b3;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3a_x = t1405 + (t1402 - 0.8362137090354541 * t1373);
+    let z_b3a_x = t1412 + (t1409 - 0.8362137090354541 * t1380);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3a_y = t1406 + (1.0379846701062043 * t1373 + t1403);
+    let z_b3a_y = t1413 + (1.0379846701062043 * t1380 + t1410);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3a_z = t1404 - 0.2010269164374744 * t1373 - t1407;
+    let z_b3a_z = t1411 - 0.2010269164374744 * t1380 - t1414;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3a = 1.2056566317887352
         * (0.8840923826341479 * z_b3a_z
@@ -3762,56 +3785,56 @@ fn branch_5(
                 * (0.08264952242757546 * z_b3a_y + 0.34229941191058744 * z_b3a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3a = ::armforge_runtime::math::atan2(j5_sin_b3a, j5_cos_b3a);
-    let t1436 = j5_alpha_b3 - j5_a_b3;
-    let t1443 = t1405 + (t1402 - 0.620341126105259 * t1436);
-    let t1444 = t1406 + (t1403 + 0.7700239450467775 * t1436);
-    let t1445 = t1404 - 0.14913085300184115 * t1436 - t1407;
-    let t1450 = v_b3_z * t1445 + (v_b3_x * t1443 + v_b3_y * t1444);
-    let t1464 = 0.7700239450467775 * (v_b3_x * t1445 - v_b3_z * t1443)
-        - 0.620341126105259 * (v_b3_z * t1444 - v_b3_y * t1445)
-        - 0.14913085300184115 * (v_b3_y * t1443 - v_b3_x * t1444);
-    let t1467 = t1450 * t1450 + t1464 * t1464;
-    let t1470 = 1.0 / ::armforge_runtime::math::sqrt(t1467.max(1e-40));
+    let t1443 = j5_alpha_b3 - j5_a_b3;
+    let t1450 = t1412 + (t1409 - 0.620341126105259 * t1443);
+    let t1451 = t1413 + (t1410 + 0.7700239450467775 * t1443);
+    let t1452 = t1411 - 0.14913085300184115 * t1443 - t1414;
+    let t1457 = v_b3_z * t1452 + (v_b3_x * t1450 + v_b3_y * t1451);
+    let t1471 = 0.7700239450467775 * (v_b3_x * t1452 - v_b3_z * t1450)
+        - 0.620341126105259 * (v_b3_z * t1451 - v_b3_y * t1452)
+        - 0.14913085300184115 * (v_b3_y * t1450 - v_b3_x * t1451);
+    let t1474 = t1457 * t1457 + t1471 * t1471;
+    let t1477 = 1.0 / ::armforge_runtime::math::sqrt(t1474.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3 = 1e-40 - t1467;
+    let aligned_b3 = 1e-40 - t1474;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1450 * t1470 };
+    let j4_cos_b3a = if aligned_b3 >= 0.0 { ref4_cos } else { t1457 * t1477 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1464 * t1470 };
+    let j4_sin_b3a = if aligned_b3 >= 0.0 { ref4_sin } else { t1471 * t1477 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3a = ::armforge_runtime::math::atan2(j4_sin_b3a, j4_cos_b3a);
-    let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+    let t1488 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
-    let t1482 = 0.620341126105259 * t1481;
-    let t1483 = 0.7700239450467775 * t1481;
-    let t1484 = 0.14913085300184115 * t1481;
-    let t1506 = j4_cos_b3a * (xv_b3_x + t1482)
+    let t1489 = 0.620341126105259 * t1488;
+    let t1490 = 0.7700239450467775 * t1488;
+    let t1491 = 0.14913085300184115 * t1488;
+    let t1513 = j4_cos_b3a * (xv_b3_x + t1489)
         - j4_sin_b3a * (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y)
-        - t1482;
-    let t1507 = t1483
-        + (j4_cos_b3a * (xv_b3_y - t1483)
+        - t1489;
+    let t1514 = t1490
+        + (j4_cos_b3a * (xv_b3_y - t1490)
             - j4_sin_b3a
                 * (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x));
-    let t1508 = j4_cos_b3a * (xv_b3_z + t1484)
+    let t1515 = j4_cos_b3a * (xv_b3_z + t1491)
         + j4_sin_b3a * (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x)
-        - t1484;
-    let t1513 = 0.12555760611043656 * t1508
-        + (0.3174776227989252 * t1506 + 0.9399166168175558 * t1507);
-    let t1514 = 0.3174776227989252 * t1513;
-    let t1515 = 0.9399166168175558 * t1513;
-    let t1516 = 0.12555760611043656 * t1513;
+        - t1491;
+    let t1520 = 0.12555760611043656 * t1515
+        + (0.3174776227989252 * t1513 + 0.9399166168175558 * t1514);
+    let t1521 = 0.3174776227989252 * t1520;
+    let t1522 = 0.9399166168175558 * t1520;
+    let t1523 = 0.12555760611043656 * t1520;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3a_x = t1514
-        + (j5_cos_b3a * (t1506 - t1514)
-            - j5_sin_b3a * (0.9399166168175558 * t1508 - 0.12555760611043656 * t1507));
+    let y6_b3a_x = t1521
+        + (j5_cos_b3a * (t1513 - t1521)
+            - j5_sin_b3a * (0.9399166168175558 * t1515 - 0.12555760611043656 * t1514));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3a_y = t1515
-        + (j5_cos_b3a * (t1507 - t1515)
-            - j5_sin_b3a * (0.12555760611043656 * t1506 - 0.3174776227989252 * t1508));
+    let y6_b3a_y = t1522
+        + (j5_cos_b3a * (t1514 - t1522)
+            - j5_sin_b3a * (0.12555760611043656 * t1513 - 0.3174776227989252 * t1515));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3a_z = t1516
-        + (j5_cos_b3a * (t1508 - t1516)
-            - j5_sin_b3a * (0.3174776227989252 * t1507 - 0.9399166168175558 * t1506));
+    let y6_b3a_z = t1523
+        + (j5_cos_b3a * (t1515 - t1523)
+            - j5_sin_b3a * (0.3174776227989252 * t1514 - 0.9399166168175558 * t1513));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -3976,155 +3999,155 @@ fn branch_6(
     let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_ba = j3_root_b - 0.2750702190093362;
-    let t323 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
-    let t324 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
-    let t325 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
-    let t330 = w_b_z * t325 + (w_b_x * t323 - w_b_y * t324);
-    let t344 = 0.22438759210189282 * (w_b_x * t325 - w_b_z * t323)
-        - 0.919348671064388 * (w_b_z * t324 + w_b_y * t325)
-        - 0.32318451312347624 * (w_b_y * t323 + w_b_x * t324);
-    let t347 = t330 * t330 + t344 * t344;
-    let t350 = 1.0 / ::armforge_runtime::math::sqrt(t347.max(1e-300));
-    let t353 = t347 - 1e-300;
-    let t356 = if pivot_b >= 0.0 {
-        0.6095997719011829
+    let t330 = 0.3779706556925576 * q3_ba + 0.12974347073127893;
+    let t331 = 0.7317961020620863 * q3_ba + 0.049474576298366504;
+    let t332 = 0.5671090269446208 * q3_ba + 0.33472521719783077;
+    let t337 = w_b_z * t332 + (w_b_x * t330 - w_b_y * t331);
+    let t351 = 0.22438759210189282 * (w_b_x * t332 - w_b_z * t330)
+        - 0.919348671064388 * (w_b_z * t331 + w_b_y * t332)
+        - 0.32318451312347624 * (w_b_y * t330 + w_b_x * t331);
+    let t354 = t337 * t337 + t351 * t351;
+    let t357 = 1.0 / ::armforge_runtime::math::sqrt(t354.max(1e-300));
+    let t360 = t354 - 1e-300;
+    let t363 = if pivot_b >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t353 >= 0.0 { t330 * t350 } else { 1.0 }
+        if t360 >= 0.0 { t337 * t357 } else { 1.0 }
     };
-    let t357 = if pivot_b >= 0.0 {
-        -0.7927093528513625
+    let t364 = if pivot_b >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t353 >= 0.0 { t344 * t350 } else { 0.0 }
+        if t360 >= 0.0 { t351 * t357 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_ba = ::armforge_runtime::math::atan2(t357, t356);
-    let t406 = 0.42112668389358265 * r02
+    let q2_ba = ::armforge_runtime::math::atan2(t364, t363);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t501 = 0.2455648081179022 * gx_z
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t1289 = t470
-        + (j1_cos_b * (g6_x - t470)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t1296 = t477
+        + (j1_cos_b * (g6_x - t477)
             - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1290 = t471
-        + (j1_cos_b * (g6_y - t471)
+    let t1297 = t478
+        + (j1_cos_b * (g6_y - t478)
             - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1291 = t472
-        + (j1_cos_b * (g6_z - t472)
+    let t1298 = t479
+        + (j1_cos_b * (g6_z - t479)
             - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1301 = t502
-        + (j1_cos_b * (gx_x - t502)
+    let t1308 = t509
+        + (j1_cos_b * (gx_x - t509)
             - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1302 = t503
-        + (j1_cos_b * (gx_y - t503)
+    let t1309 = t510
+        + (j1_cos_b * (gx_y - t510)
             - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1303 = t504
-        + (j1_cos_b * (gx_z - t504)
+    let t1310 = t511
+        + (j1_cos_b * (gx_z - t511)
             - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
-        - 0.32318451312347624 * t1291;
-    let t1309 = 0.919348671064388 * t1308;
-    let t1310 = 0.22438759210189282 * t1308;
-    let t1311 = 0.32318451312347624 * t1308;
+    let t1315 = 0.919348671064388 * t1296 + 0.22438759210189282 * t1297
+        - 0.32318451312347624 * t1298;
+    let t1316 = 0.919348671064388 * t1315;
+    let t1317 = 0.22438759210189282 * t1315;
+    let t1318 = 0.32318451312347624 * t1315;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b3_x = t1309
-        + (t356 * (t1289 - t1309)
-            - t357 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
+    let v_b3_x = t1316
+        + (t363 * (t1296 - t1316)
+            - t364 * (0.22438759210189282 * t1298 + 0.32318451312347624 * t1297));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b3_y = t1310
-        + (t356 * (t1290 - t1310)
-            + t357 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
+    let v_b3_y = t1317
+        + (t363 * (t1297 - t1317)
+            + t364 * (0.32318451312347624 * t1296 + 0.919348671064388 * t1298));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b3_z = t356 * (t1291 + t1311)
-        - t357 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
-    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
-        - 0.32318451312347624 * t1303;
-    let t1341 = 0.919348671064388 * t1340;
-    let t1342 = 0.22438759210189282 * t1340;
-    let t1343 = 0.32318451312347624 * t1340;
+    let v_b3_z = t363 * (t1298 + t1318)
+        - t364 * (0.919348671064388 * t1297 - 0.22438759210189282 * t1296) - t1318;
+    let t1347 = 0.919348671064388 * t1308 + 0.22438759210189282 * t1309
+        - 0.32318451312347624 * t1310;
+    let t1348 = 0.919348671064388 * t1347;
+    let t1349 = 0.22438759210189282 * t1347;
+    let t1350 = 0.32318451312347624 * t1347;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b3_x = t1341
-        + (t356 * (t1301 - t1341)
-            - t357 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
+    let xv_b3_x = t1348
+        + (t363 * (t1308 - t1348)
+            - t364 * (0.22438759210189282 * t1310 + 0.32318451312347624 * t1309));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b3_y = t1342
-        + (t356 * (t1302 - t1342)
-            + t357 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
+    let xv_b3_y = t1349
+        + (t363 * (t1309 - t1349)
+            + t364 * (0.32318451312347624 * t1308 + 0.919348671064388 * t1310));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b3_z = t356 * (t1303 + t1343)
-        - t357 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
+    let xv_b3_z = t363 * (t1310 + t1350)
+        - t364 * (0.919348671064388 * t1309 - 0.22438759210189282 * t1308) - t1350;
     // a = h4 · v = h4 · z
     let j5_a_b3 = 0.7700239450467775 * v_b3_y - 0.620341126105259 * v_b3_x
         - 0.14913085300184115 * v_b3_z;
-    let t1373 = j5_a_b3 - 0.20984549109584813;
+    let t1380 = j5_a_b3 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b3 = 1.3479901200256164 * t1373;
+    let j5_alpha_b3 = 1.3479901200256164 * t1380;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b3 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b3;
-    let t1379 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
-    let t1382 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
-    let t1385 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
-    let t1392 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
+    let t1386 = 0.7700239450467775 * v_b3_z + 0.14913085300184115 * v_b3_y;
+    let t1389 = 0.620341126105259 * v_b3_z - 0.14913085300184115 * v_b3_x;
+    let t1392 = 0.620341126105259 * v_b3_y + 0.7700239450467775 * v_b3_x;
+    let t1399 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b3;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b3 = t1385 * t1385 + (t1379 * t1379 + t1382 * t1382)
-        - 1.3479901200256164 * (t1392 * t1392);
+    let j5_gap_b3 = t1392 * t1392 + (t1386 * t1386 + t1389 * t1389)
+        - 1.3479901200256164 * (t1399 * t1399);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b3 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b3).max(0.0),
     );
-    let t1402 = 0.3174776227989252 * j5_beta_b3;
-    let t1403 = 0.9399166168175558 * j5_beta_b3;
-    let t1404 = 0.12555760611043656 * j5_beta_b3;
-    let t1405 = 0.2368529300043945 * j5_gamma_b3;
-    let t1406 = 0.030542838068628286 * j5_gamma_b3;
-    let t1407 = 0.8275343040933489 * j5_gamma_b3;
-    let t1436 = j5_alpha_b3 - j5_a_b3;
-    let t1481 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
+    let t1409 = 0.3174776227989252 * j5_beta_b3;
+    let t1410 = 0.9399166168175558 * j5_beta_b3;
+    let t1411 = 0.12555760611043656 * j5_beta_b3;
+    let t1412 = 0.2368529300043945 * j5_gamma_b3;
+    let t1413 = 0.030542838068628286 * j5_gamma_b3;
+    let t1414 = 0.8275343040933489 * j5_gamma_b3;
+    let t1443 = j5_alpha_b3 - j5_a_b3;
+    let t1488 = 0.7700239450467775 * xv_b3_y - 0.620341126105259 * xv_b3_x
         - 0.14913085300184115 * xv_b3_z;
-    let t1482 = 0.620341126105259 * t1481;
-    let t1483 = 0.7700239450467775 * t1481;
-    let t1484 = 0.14913085300184115 * t1481;
+    let t1489 = 0.620341126105259 * t1488;
+    let t1490 = 0.7700239450467775 * t1488;
+    let t1491 = 0.14913085300184115 * t1488;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b3b_x = t1402 - 0.8362137090354541 * t1373 - t1405;
+    let z_b3b_x = t1409 - 0.8362137090354541 * t1380 - t1412;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b3b_y = 1.0379846701062043 * t1373 + t1403 - t1406;
+    let z_b3b_y = 1.0379846701062043 * t1380 + t1410 - t1413;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b3b_z = t1407 + (t1404 - 0.2010269164374744 * t1373);
+    let z_b3b_z = t1414 + (t1411 - 0.2010269164374744 * t1380);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b3b = 1.2056566317887352
         * (0.8840923826341479 * z_b3b_z
@@ -4139,50 +4162,50 @@ fn branch_6(
                 * (0.08264952242757546 * z_b3b_y + 0.34229941191058744 * z_b3b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b3b = ::armforge_runtime::math::atan2(j5_sin_b3b, j5_cos_b3b);
-    let t1586 = t1402 - 0.620341126105259 * t1436 - t1405;
-    let t1587 = t1403 + 0.7700239450467775 * t1436 - t1406;
-    let t1588 = t1407 + (t1404 - 0.14913085300184115 * t1436);
-    let t1593 = v_b3_z * t1588 + (v_b3_x * t1586 + v_b3_y * t1587);
-    let t1607 = 0.7700239450467775 * (v_b3_x * t1588 - v_b3_z * t1586)
-        - 0.620341126105259 * (v_b3_z * t1587 - v_b3_y * t1588)
-        - 0.14913085300184115 * (v_b3_y * t1586 - v_b3_x * t1587);
-    let t1610 = t1593 * t1593 + t1607 * t1607;
-    let t1613 = 1.0 / ::armforge_runtime::math::sqrt(t1610.max(1e-40));
+    let t1593 = t1409 - 0.620341126105259 * t1443 - t1412;
+    let t1594 = t1410 + 0.7700239450467775 * t1443 - t1413;
+    let t1595 = t1414 + (t1411 - 0.14913085300184115 * t1443);
+    let t1600 = v_b3_z * t1595 + (v_b3_x * t1593 + v_b3_y * t1594);
+    let t1614 = 0.7700239450467775 * (v_b3_x * t1595 - v_b3_z * t1593)
+        - 0.620341126105259 * (v_b3_z * t1594 - v_b3_y * t1595)
+        - 0.14913085300184115 * (v_b3_y * t1593 - v_b3_x * t1594);
+    let t1617 = t1600 * t1600 + t1614 * t1614;
+    let t1620 = 1.0 / ::armforge_runtime::math::sqrt(t1617.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b3_2 = 1e-40 - t1610;
+    let aligned_b3_2 = 1e-40 - t1617;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1593 * t1613 };
+    let j4_cos_b3b = if aligned_b3_2 >= 0.0 { -ref4_cos } else { t1600 * t1620 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1607 * t1613 };
+    let j4_sin_b3b = if aligned_b3_2 >= 0.0 { -ref4_sin } else { t1614 * t1620 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b3b = ::armforge_runtime::math::atan2(j4_sin_b3b, j4_cos_b3b);
-    let t1629 = (xv_b3_x + t1482) * j4_cos_b3b
+    let t1636 = (xv_b3_x + t1489) * j4_cos_b3b
         - (0.7700239450467775 * xv_b3_z + 0.14913085300184115 * xv_b3_y) * j4_sin_b3b
-        - t1482;
-    let t1630 = t1483
-        + ((xv_b3_y - t1483) * j4_cos_b3b
+        - t1489;
+    let t1637 = t1490
+        + ((xv_b3_y - t1490) * j4_cos_b3b
             - (0.620341126105259 * xv_b3_z - 0.14913085300184115 * xv_b3_x)
                 * j4_sin_b3b);
-    let t1631 = (xv_b3_z + t1484) * j4_cos_b3b
+    let t1638 = (xv_b3_z + t1491) * j4_cos_b3b
         + (0.620341126105259 * xv_b3_y + 0.7700239450467775 * xv_b3_x) * j4_sin_b3b
-        - t1484;
-    let t1636 = 0.12555760611043656 * t1631
-        + (0.3174776227989252 * t1629 + 0.9399166168175558 * t1630);
-    let t1637 = 0.3174776227989252 * t1636;
-    let t1638 = 0.9399166168175558 * t1636;
-    let t1639 = 0.12555760611043656 * t1636;
+        - t1491;
+    let t1643 = 0.12555760611043656 * t1638
+        + (0.3174776227989252 * t1636 + 0.9399166168175558 * t1637);
+    let t1644 = 0.3174776227989252 * t1643;
+    let t1645 = 0.9399166168175558 * t1643;
+    let t1646 = 0.12555760611043656 * t1643;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b3b_x = t1637
-        + (j5_cos_b3b * (t1629 - t1637)
-            - j5_sin_b3b * (0.9399166168175558 * t1631 - 0.12555760611043656 * t1630));
+    let y6_b3b_x = t1644
+        + (j5_cos_b3b * (t1636 - t1644)
+            - j5_sin_b3b * (0.9399166168175558 * t1638 - 0.12555760611043656 * t1637));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b3b_y = t1638
-        + (j5_cos_b3b * (t1630 - t1638)
-            - j5_sin_b3b * (0.12555760611043656 * t1629 - 0.3174776227989252 * t1631));
+    let y6_b3b_y = t1645
+        + (j5_cos_b3b * (t1637 - t1645)
+            - j5_sin_b3b * (0.12555760611043656 * t1636 - 0.3174776227989252 * t1638));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b3b_z = t1639
-        + (j5_cos_b3b * (t1631 - t1639)
-            - j5_sin_b3b * (0.3174776227989252 * t1630 - 0.9399166168175558 * t1629));
+    let y6_b3b_z = t1646
+        + (j5_cos_b3b * (t1638 - t1646)
+            - j5_sin_b3b * (0.3174776227989252 * t1637 - 0.9399166168175558 * t1636));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b3b = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -4347,149 +4370,149 @@ fn branch_7(
     let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_bb = -0.2750702190093362 - j3_root_b;
-    let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
-    let t364 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
-    let t365 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
-    let t370 = w_b_z * t365 + (w_b_x * t363 - w_b_y * t364);
-    let t384 = 0.22438759210189282 * (w_b_x * t365 - w_b_z * t363)
-        - 0.919348671064388 * (w_b_z * t364 + w_b_y * t365)
-        - 0.32318451312347624 * (w_b_y * t363 + w_b_x * t364);
-    let t387 = t370 * t370 + t384 * t384;
-    let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
-    let t393 = t387 - 1e-300;
-    let t396 = if pivot_b >= 0.0 {
-        0.6095997719011829
+    let t370 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t371 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t372 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t377 = w_b_z * t372 + (w_b_x * t370 - w_b_y * t371);
+    let t391 = 0.22438759210189282 * (w_b_x * t372 - w_b_z * t370)
+        - 0.919348671064388 * (w_b_z * t371 + w_b_y * t372)
+        - 0.32318451312347624 * (w_b_y * t370 + w_b_x * t371);
+    let t394 = t377 * t377 + t391 * t391;
+    let t397 = 1.0 / ::armforge_runtime::math::sqrt(t394.max(1e-300));
+    let t400 = t394 - 1e-300;
+    let t403 = if pivot_b >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t393 >= 0.0 { t370 * t390 } else { 1.0 }
+        if t400 >= 0.0 { t377 * t397 } else { 1.0 }
     };
-    let t397 = if pivot_b >= 0.0 {
-        -0.7927093528513625
+    let t404 = if pivot_b >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t393 >= 0.0 { t384 * t390 } else { 0.0 }
+        if t400 >= 0.0 { t391 * t397 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_bb = ::armforge_runtime::math::atan2(t397, t396);
-    let t406 = 0.42112668389358265 * r02
+    let q2_bb = ::armforge_runtime::math::atan2(t404, t403);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t501 = 0.2455648081179022 * gx_z
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t1289 = t470
-        + (j1_cos_b * (g6_x - t470)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t1296 = t477
+        + (j1_cos_b * (g6_x - t477)
             - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1290 = t471
-        + (j1_cos_b * (g6_y - t471)
+    let t1297 = t478
+        + (j1_cos_b * (g6_y - t478)
             - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1291 = t472
-        + (j1_cos_b * (g6_z - t472)
+    let t1298 = t479
+        + (j1_cos_b * (g6_z - t479)
             - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1301 = t502
-        + (j1_cos_b * (gx_x - t502)
+    let t1308 = t509
+        + (j1_cos_b * (gx_x - t509)
             - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1302 = t503
-        + (j1_cos_b * (gx_y - t503)
+    let t1309 = t510
+        + (j1_cos_b * (gx_y - t510)
             - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1303 = t504
-        + (j1_cos_b * (gx_z - t504)
+    let t1310 = t511
+        + (j1_cos_b * (gx_z - t511)
             - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
-        - 0.32318451312347624 * t1291;
-    let t1309 = 0.919348671064388 * t1308;
-    let t1310 = 0.22438759210189282 * t1308;
-    let t1311 = 0.32318451312347624 * t1308;
-    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
-        - 0.32318451312347624 * t1303;
-    let t1341 = 0.919348671064388 * t1340;
-    let t1342 = 0.22438759210189282 * t1340;
-    let t1343 = 0.32318451312347624 * t1340;
+    let t1315 = 0.919348671064388 * t1296 + 0.22438759210189282 * t1297
+        - 0.32318451312347624 * t1298;
+    let t1316 = 0.919348671064388 * t1315;
+    let t1317 = 0.22438759210189282 * t1315;
+    let t1318 = 0.32318451312347624 * t1315;
+    let t1347 = 0.919348671064388 * t1308 + 0.22438759210189282 * t1309
+        - 0.32318451312347624 * t1310;
+    let t1348 = 0.919348671064388 * t1347;
+    let t1349 = 0.22438759210189282 * t1347;
+    let t1350 = 0.32318451312347624 * t1347;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1309
-        + (t396 * (t1289 - t1309)
-            - t397 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
+    let v_b4_x = t1316
+        + (t403 * (t1296 - t1316)
+            - t404 * (0.22438759210189282 * t1298 + 0.32318451312347624 * t1297));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1310
-        + (t396 * (t1290 - t1310)
-            + t397 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
+    let v_b4_y = t1317
+        + (t403 * (t1297 - t1317)
+            + t404 * (0.32318451312347624 * t1296 + 0.919348671064388 * t1298));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t396 * (t1291 + t1311)
-        - t397 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
+    let v_b4_z = t403 * (t1298 + t1318)
+        - t404 * (0.919348671064388 * t1297 - 0.22438759210189282 * t1296) - t1318;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1341
-        + (t396 * (t1301 - t1341)
-            - t397 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
+    let xv_b4_x = t1348
+        + (t403 * (t1308 - t1348)
+            - t404 * (0.22438759210189282 * t1310 + 0.32318451312347624 * t1309));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1342
-        + (t396 * (t1302 - t1342)
-            + t397 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
+    let xv_b4_y = t1349
+        + (t403 * (t1309 - t1349)
+            + t404 * (0.32318451312347624 * t1308 + 0.919348671064388 * t1310));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t396 * (t1303 + t1343)
-        - t397 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
+    let xv_b4_z = t403 * (t1310 + t1350)
+        - t404 * (0.919348671064388 * t1309 - 0.22438759210189282 * t1308) - t1350;
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
         - 0.14913085300184115 * v_b4_z;
-    let t1713 = j5_a_b4 - 0.20984549109584813;
+    let t1720 = j5_a_b4 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b4 = 1.3479901200256164 * t1713;
+    let j5_alpha_b4 = 1.3479901200256164 * t1720;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
-    let t1719 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
-    let t1722 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
-    let t1725 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
-    let t1732 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    let t1726 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1729 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1732 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1739 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b4 = t1725 * t1725 + (t1719 * t1719 + t1722 * t1722)
-        - 1.3479901200256164 * (t1732 * t1732);
+    let j5_gap_b4 = t1732 * t1732 + (t1726 * t1726 + t1729 * t1729)
+        - 1.3479901200256164 * (t1739 * t1739);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b4).max(0.0),
     );
-    let t1742 = 0.3174776227989252 * j5_beta_b4;
-    let t1743 = 0.9399166168175558 * j5_beta_b4;
-    let t1744 = 0.12555760611043656 * j5_beta_b4;
-    let t1745 = 0.2368529300043945 * j5_gamma_b4;
-    let t1746 = 0.030542838068628286 * j5_gamma_b4;
-    let t1747 = 0.8275343040933489 * j5_gamma_b4;
+    let t1749 = 0.3174776227989252 * j5_beta_b4;
+    let t1750 = 0.9399166168175558 * j5_beta_b4;
+    let t1751 = 0.12555760611043656 * j5_beta_b4;
+    let t1752 = 0.2368529300043945 * j5_gamma_b4;
+    let t1753 = 0.030542838068628286 * j5_gamma_b4;
+    let t1754 = 0.8275343040933489 * j5_gamma_b4;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4a_x = t1745 + (t1742 - 0.8362137090354541 * t1713);
+    let z_b4a_x = t1752 + (t1749 - 0.8362137090354541 * t1720);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4a_y = t1746 + (1.0379846701062043 * t1713 + t1743);
+    let z_b4a_y = t1753 + (1.0379846701062043 * t1720 + t1750);
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4a_z = t1744 - 0.2010269164374744 * t1713 - t1747;
+    let z_b4a_z = t1751 - 0.2010269164374744 * t1720 - t1754;
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4a = 1.2056566317887352
         * (0.8840923826341479 * z_b4a_z
@@ -4504,56 +4527,56 @@ fn branch_7(
                 * (0.08264952242757546 * z_b4a_y + 0.34229941191058744 * z_b4a_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4a = ::armforge_runtime::math::atan2(j5_sin_b4a, j5_cos_b4a);
-    let t1776 = j5_alpha_b4 - j5_a_b4;
-    let t1783 = t1745 + (t1742 - 0.620341126105259 * t1776);
-    let t1784 = t1746 + (t1743 + 0.7700239450467775 * t1776);
-    let t1785 = t1744 - 0.14913085300184115 * t1776 - t1747;
-    let t1790 = v_b4_z * t1785 + (v_b4_x * t1783 + v_b4_y * t1784);
-    let t1804 = 0.7700239450467775 * (v_b4_x * t1785 - v_b4_z * t1783)
-        - 0.620341126105259 * (v_b4_z * t1784 - v_b4_y * t1785)
-        - 0.14913085300184115 * (v_b4_y * t1783 - v_b4_x * t1784);
-    let t1807 = t1790 * t1790 + t1804 * t1804;
-    let t1810 = 1.0 / ::armforge_runtime::math::sqrt(t1807.max(1e-40));
+    let t1783 = j5_alpha_b4 - j5_a_b4;
+    let t1790 = t1752 + (t1749 - 0.620341126105259 * t1783);
+    let t1791 = t1753 + (t1750 + 0.7700239450467775 * t1783);
+    let t1792 = t1751 - 0.14913085300184115 * t1783 - t1754;
+    let t1797 = v_b4_z * t1792 + (v_b4_x * t1790 + v_b4_y * t1791);
+    let t1811 = 0.7700239450467775 * (v_b4_x * t1792 - v_b4_z * t1790)
+        - 0.620341126105259 * (v_b4_z * t1791 - v_b4_y * t1792)
+        - 0.14913085300184115 * (v_b4_y * t1790 - v_b4_x * t1791);
+    let t1814 = t1797 * t1797 + t1811 * t1811;
+    let t1817 = 1.0 / ::armforge_runtime::math::sqrt(t1814.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4 = 1e-40 - t1807;
+    let aligned_b4 = 1e-40 - t1814;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1790 * t1810 };
+    let j4_cos_b4a = if aligned_b4 >= 0.0 { ref4_cos } else { t1797 * t1817 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1804 * t1810 };
+    let j4_sin_b4a = if aligned_b4 >= 0.0 { ref4_sin } else { t1811 * t1817 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4a = ::armforge_runtime::math::atan2(j4_sin_b4a, j4_cos_b4a);
-    let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+    let t1828 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
-    let t1822 = 0.620341126105259 * t1821;
-    let t1823 = 0.7700239450467775 * t1821;
-    let t1824 = 0.14913085300184115 * t1821;
-    let t1846 = j4_cos_b4a * (xv_b4_x + t1822)
+    let t1829 = 0.620341126105259 * t1828;
+    let t1830 = 0.7700239450467775 * t1828;
+    let t1831 = 0.14913085300184115 * t1828;
+    let t1853 = j4_cos_b4a * (xv_b4_x + t1829)
         - j4_sin_b4a * (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y)
-        - t1822;
-    let t1847 = t1823
-        + (j4_cos_b4a * (xv_b4_y - t1823)
+        - t1829;
+    let t1854 = t1830
+        + (j4_cos_b4a * (xv_b4_y - t1830)
             - j4_sin_b4a
                 * (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x));
-    let t1848 = j4_cos_b4a * (xv_b4_z + t1824)
+    let t1855 = j4_cos_b4a * (xv_b4_z + t1831)
         + j4_sin_b4a * (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x)
-        - t1824;
-    let t1853 = 0.12555760611043656 * t1848
-        + (0.3174776227989252 * t1846 + 0.9399166168175558 * t1847);
-    let t1854 = 0.3174776227989252 * t1853;
-    let t1855 = 0.9399166168175558 * t1853;
-    let t1856 = 0.12555760611043656 * t1853;
+        - t1831;
+    let t1860 = 0.12555760611043656 * t1855
+        + (0.3174776227989252 * t1853 + 0.9399166168175558 * t1854);
+    let t1861 = 0.3174776227989252 * t1860;
+    let t1862 = 0.9399166168175558 * t1860;
+    let t1863 = 0.12555760611043656 * t1860;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4a_x = t1854
-        + (j5_cos_b4a * (t1846 - t1854)
-            - j5_sin_b4a * (0.9399166168175558 * t1848 - 0.12555760611043656 * t1847));
+    let y6_b4a_x = t1861
+        + (j5_cos_b4a * (t1853 - t1861)
+            - j5_sin_b4a * (0.9399166168175558 * t1855 - 0.12555760611043656 * t1854));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4a_y = t1855
-        + (j5_cos_b4a * (t1847 - t1855)
-            - j5_sin_b4a * (0.12555760611043656 * t1846 - 0.3174776227989252 * t1848));
+    let y6_b4a_y = t1862
+        + (j5_cos_b4a * (t1854 - t1862)
+            - j5_sin_b4a * (0.12555760611043656 * t1853 - 0.3174776227989252 * t1855));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4a_z = t1856
-        + (j5_cos_b4a * (t1848 - t1856)
-            - j5_sin_b4a * (0.3174776227989252 * t1847 - 0.9399166168175558 * t1846));
+    let y6_b4a_z = t1863
+        + (j5_cos_b4a * (t1855 - t1863)
+            - j5_sin_b4a * (0.3174776227989252 * t1854 - 0.9399166168175558 * t1853));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4a = ::armforge_runtime::math::atan2(
         0.935948806852255
@@ -4718,155 +4741,155 @@ fn branch_8(
     let pivot_b = 8.54e-20 - d2_b;
     // s = −m ± √(d² − |P|² + m²), m = 0.27507 m
     let q3_bb = -0.2750702190093362 - j3_root_b;
-    let t363 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
-    let t364 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
-    let t365 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
-    let t370 = w_b_z * t365 + (w_b_x * t363 - w_b_y * t364);
-    let t384 = 0.22438759210189282 * (w_b_x * t365 - w_b_z * t363)
-        - 0.919348671064388 * (w_b_z * t364 + w_b_y * t365)
-        - 0.32318451312347624 * (w_b_y * t363 + w_b_x * t364);
-    let t387 = t370 * t370 + t384 * t384;
-    let t390 = 1.0 / ::armforge_runtime::math::sqrt(t387.max(1e-300));
-    let t393 = t387 - 1e-300;
-    let t396 = if pivot_b >= 0.0 {
-        0.6095997719011829
+    let t370 = 0.3779706556925576 * q3_bb + 0.12974347073127893;
+    let t371 = 0.7317961020620863 * q3_bb + 0.049474576298366504;
+    let t372 = 0.5671090269446208 * q3_bb + 0.33472521719783077;
+    let t377 = w_b_z * t372 + (w_b_x * t370 - w_b_y * t371);
+    let t391 = 0.22438759210189282 * (w_b_x * t372 - w_b_z * t370)
+        - 0.919348671064388 * (w_b_z * t371 + w_b_y * t372)
+        - 0.32318451312347624 * (w_b_y * t370 + w_b_x * t371);
+    let t394 = t377 * t377 + t391 * t391;
+    let t397 = 1.0 / ::armforge_runtime::math::sqrt(t394.max(1e-300));
+    let t400 = t394 - 1e-300;
+    let t403 = if pivot_b >= 0.0 {
+        0.9512848793199651 * ref1_sin - 0.30831327959917554 * ref1_cos
     } else {
-        if t393 >= 0.0 { t370 * t390 } else { 1.0 }
+        if t400 >= 0.0 { t377 * t397 } else { 1.0 }
     };
-    let t397 = if pivot_b >= 0.0 {
-        -0.7927093528513625
+    let t404 = if pivot_b >= 0.0 {
+        -(0.30831327959917554 * ref1_sin + 0.9512848793199651 * ref1_cos)
     } else {
-        if t393 >= 0.0 { t384 * t390 } else { 0.0 }
+        if t400 >= 0.0 { t391 * t397 } else { 0.0 }
     };
     // Paden–Kahan 1: θ2 = atan2(h2 · (x × w), x · w), x = P + s u3 (held at the pivot)
-    let q2_bb = ::armforge_runtime::math::atan2(t397, t396);
-    let t406 = 0.42112668389358265 * r02
+    let q2_bb = ::armforge_runtime::math::atan2(t404, t403);
+    let t413 = 0.42112668389358265 * r02
         + (0.9070007115038525 * r00 + 0.0014231810494854669 * r01);
-    let t411 = 0.42112668389358265 * r12
+    let t418 = 0.42112668389358265 * r12
         + (0.9070007115038525 * r10 + 0.0014231810494854669 * r11);
-    let t416 = 0.42112668389358265 * r22
+    let t423 = 0.42112668389358265 * r22
         + (0.9070007115038525 * r20 + 0.0014231810494854669 * r21);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (x)
-    let g6_x = 0.7024503808034039 * t416
-        + (0.5366051090545466 * t406 - 0.46756648665800565 * t411);
+    let g6_x = 0.7024503808034039 * t423
+        + (0.5366051090545466 * t413 - 0.46756648665800565 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (y)
-    let g6_y = 0.3294128205717553 * t416
-        + (0.33722370156285647 * t406 + 0.8819112023028204 * t411);
+    let g6_y = 0.3294128205717553 * t423
+        + (0.33722370156285647 * t413 + 0.8819112023028204 * t418);
     // rot(B⁻¹ T M⁻¹) (-0.08265, 0.342299, 0.935949) : where the target sends this wrist direction (z)
-    let g6_z = 0.6309125582456838 * t416
-        + (0.06011831507188942 * t411 - 0.7735212550672437 * t406);
-    let t439 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
+    let g6_z = 0.6309125582456838 * t423
+        + (0.06011831507188942 * t418 - 0.7735212550672437 * t413);
+    let t446 = 0.40735396018191605 * r00 - 0.2566365378237967 * r01
         - 0.8764704436419545 * r02;
-    let t444 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
+    let t451 = 0.40735396018191605 * r10 - 0.2566365378237967 * r11
         - 0.8764704436419545 * r12;
-    let t449 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
+    let t456 = 0.40735396018191605 * r20 - 0.2566365378237967 * r21
         - 0.8764704436419545 * r22;
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (x)
-    let gx_x = 0.7024503808034039 * t449
-        + (0.5366051090545466 * t439 - 0.46756648665800565 * t444);
+    let gx_x = 0.7024503808034039 * t456
+        + (0.5366051090545466 * t446 - 0.46756648665800565 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (y)
-    let gx_y = 0.3294128205717553 * t449
-        + (0.33722370156285647 * t439 + 0.8819112023028204 * t444);
+    let gx_y = 0.3294128205717553 * t456
+        + (0.33722370156285647 * t446 + 0.8819112023028204 * t451);
     // rot(B⁻¹ T M⁻¹) (0.996579, 0.028388, 0.077621) : where the target sends this wrist direction (z)
-    let gx_z = 0.6309125582456838 * t449
-        + (0.06011831507188942 * t444 - 0.7735212550672437 * t439);
-    let t469 = 0.2455648081179022 * g6_z
+    let gx_z = 0.6309125582456838 * t456
+        + (0.06011831507188942 * t451 - 0.7735212550672437 * t446);
+    let t476 = 0.2455648081179022 * g6_z
         + (0.7957211704114873 * g6_x + 0.553647671333485 * g6_y);
-    let t470 = 0.7957211704114873 * t469;
-    let t471 = 0.553647671333485 * t469;
-    let t472 = 0.2455648081179022 * t469;
-    let t501 = 0.2455648081179022 * gx_z
+    let t477 = 0.7957211704114873 * t476;
+    let t478 = 0.553647671333485 * t476;
+    let t479 = 0.2455648081179022 * t476;
+    let t508 = 0.2455648081179022 * gx_z
         + (0.7957211704114873 * gx_x + 0.553647671333485 * gx_y);
-    let t502 = 0.7957211704114873 * t501;
-    let t503 = 0.553647671333485 * t501;
-    let t504 = 0.2455648081179022 * t501;
-    let t1289 = t470
-        + (j1_cos_b * (g6_x - t470)
+    let t509 = 0.7957211704114873 * t508;
+    let t510 = 0.553647671333485 * t508;
+    let t511 = 0.2455648081179022 * t508;
+    let t1296 = t477
+        + (j1_cos_b * (g6_x - t477)
             - j1_sin_b * (0.553647671333485 * g6_z - 0.2455648081179022 * g6_y));
-    let t1290 = t471
-        + (j1_cos_b * (g6_y - t471)
+    let t1297 = t478
+        + (j1_cos_b * (g6_y - t478)
             - j1_sin_b * (0.2455648081179022 * g6_x - 0.7957211704114873 * g6_z));
-    let t1291 = t472
-        + (j1_cos_b * (g6_z - t472)
+    let t1298 = t479
+        + (j1_cos_b * (g6_z - t479)
             - j1_sin_b * (0.7957211704114873 * g6_y - 0.553647671333485 * g6_x));
-    let t1301 = t502
-        + (j1_cos_b * (gx_x - t502)
+    let t1308 = t509
+        + (j1_cos_b * (gx_x - t509)
             - j1_sin_b * (0.553647671333485 * gx_z - 0.2455648081179022 * gx_y));
-    let t1302 = t503
-        + (j1_cos_b * (gx_y - t503)
+    let t1309 = t510
+        + (j1_cos_b * (gx_y - t510)
             - j1_sin_b * (0.2455648081179022 * gx_x - 0.7957211704114873 * gx_z));
-    let t1303 = t504
-        + (j1_cos_b * (gx_z - t504)
+    let t1310 = t511
+        + (j1_cos_b * (gx_z - t511)
             - j1_sin_b * (0.7957211704114873 * gx_y - 0.553647671333485 * gx_x));
-    let t1308 = 0.919348671064388 * t1289 + 0.22438759210189282 * t1290
-        - 0.32318451312347624 * t1291;
-    let t1309 = 0.919348671064388 * t1308;
-    let t1310 = 0.22438759210189282 * t1308;
-    let t1311 = 0.32318451312347624 * t1308;
-    let t1340 = 0.919348671064388 * t1301 + 0.22438759210189282 * t1302
-        - 0.32318451312347624 * t1303;
-    let t1341 = 0.919348671064388 * t1340;
-    let t1342 = 0.22438759210189282 * t1340;
-    let t1343 = 0.32318451312347624 * t1340;
+    let t1315 = 0.919348671064388 * t1296 + 0.22438759210189282 * t1297
+        - 0.32318451312347624 * t1298;
+    let t1316 = 0.919348671064388 * t1315;
+    let t1317 = 0.22438759210189282 * t1315;
+    let t1318 = 0.32318451312347624 * t1315;
+    let t1347 = 0.919348671064388 * t1308 + 0.22438759210189282 * t1309
+        - 0.32318451312347624 * t1310;
+    let t1348 = 0.919348671064388 * t1347;
+    let t1349 = 0.22438759210189282 * t1347;
+    let t1350 = 0.32318451312347624 * t1347;
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (x)
-    let v_b4_x = t1309
-        + (t396 * (t1289 - t1309)
-            - t397 * (0.22438759210189282 * t1291 + 0.32318451312347624 * t1290));
+    let v_b4_x = t1316
+        + (t403 * (t1296 - t1316)
+            - t404 * (0.22438759210189282 * t1298 + 0.32318451312347624 * t1297));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (y)
-    let v_b4_y = t1310
-        + (t396 * (t1290 - t1310)
-            + t397 * (0.32318451312347624 * t1289 + 0.919348671064388 * t1291));
+    let v_b4_y = t1317
+        + (t403 * (t1297 - t1317)
+            + t404 * (0.32318451312347624 * t1296 + 0.919348671064388 * t1298));
     // v = R456 h6 = (R1 R2 R3)ᵀ rot(G) h6 (z)
-    let v_b4_z = t396 * (t1291 + t1311)
-        - t397 * (0.919348671064388 * t1290 - 0.22438759210189282 * t1289) - t1311;
+    let v_b4_z = t403 * (t1298 + t1318)
+        - t404 * (0.919348671064388 * t1297 - 0.22438759210189282 * t1296) - t1318;
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (x)
-    let xv_b4_x = t1341
-        + (t396 * (t1301 - t1341)
-            - t397 * (0.22438759210189282 * t1303 + 0.32318451312347624 * t1302));
+    let xv_b4_x = t1348
+        + (t403 * (t1308 - t1348)
+            - t404 * (0.22438759210189282 * t1310 + 0.32318451312347624 * t1309));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (y)
-    let xv_b4_y = t1342
-        + (t396 * (t1302 - t1342)
-            + t397 * (0.32318451312347624 * t1301 + 0.919348671064388 * t1303));
+    let xv_b4_y = t1349
+        + (t403 * (t1309 - t1349)
+            + t404 * (0.32318451312347624 * t1308 + 0.919348671064388 * t1310));
     // R456 x6 = (R1 R2 R3)ᵀ rot(G) x6 (z)
-    let xv_b4_z = t396 * (t1303 + t1343)
-        - t397 * (0.919348671064388 * t1302 - 0.22438759210189282 * t1301) - t1343;
+    let xv_b4_z = t403 * (t1310 + t1350)
+        - t404 * (0.919348671064388 * t1309 - 0.22438759210189282 * t1308) - t1350;
     // a = h4 · v = h4 · z
     let j5_a_b4 = 0.7700239450467775 * v_b4_y - 0.620341126105259 * v_b4_x
         - 0.14913085300184115 * v_b4_z;
-    let t1713 = j5_a_b4 - 0.20984549109584813;
+    let t1720 = j5_a_b4 - 0.20984549109584813;
     // α = (a − (h4·h5)(h5·h6)) / (1 − (h4·h5)²), h4·h5 = 0.508089, h5·h6 = 0.413009
-    let j5_alpha_b4 = 1.3479901200256164 * t1713;
+    let j5_alpha_b4 = 1.3479901200256164 * t1720;
     // β = ((h5·h6) − (h4·h5) a) / (1 − (h4·h5)²)
     let j5_beta_b4 = 0.5567320823589287 - 0.6848994405466101 * j5_a_b4;
-    let t1719 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
-    let t1722 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
-    let t1725 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
-    let t1732 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
+    let t1726 = 0.7700239450467775 * v_b4_z + 0.14913085300184115 * v_b4_y;
+    let t1729 = 0.620341126105259 * v_b4_z - 0.14913085300184115 * v_b4_x;
+    let t1732 = 0.620341126105259 * v_b4_y + 0.7700239450467775 * v_b4_x;
+    let t1739 = 0.4130090229061537 - 0.5080893623564501 * j5_a_b4;
     // γ² (1 − (h4·h5)²) = |h4 × v|² − ((h5·h6) − (h4·h5) a)² / (1 − (h4·h5)²)
-    let j5_gap_b4 = t1725 * t1725 + (t1719 * t1719 + t1722 * t1722)
-        - 1.3479901200256164 * (t1732 * t1732);
+    let j5_gap_b4 = t1732 * t1732 + (t1726 * t1726 + t1729 * t1729)
+        - 1.3479901200256164 * (t1739 * t1739);
     // γ = √(γ²) ≥ 0
     let j5_gamma_b4 = ::armforge_runtime::math::sqrt(
         (1.3479901200256164 * j5_gap_b4).max(0.0),
     );
-    let t1742 = 0.3174776227989252 * j5_beta_b4;
-    let t1743 = 0.9399166168175558 * j5_beta_b4;
-    let t1744 = 0.12555760611043656 * j5_beta_b4;
-    let t1745 = 0.2368529300043945 * j5_gamma_b4;
-    let t1746 = 0.030542838068628286 * j5_gamma_b4;
-    let t1747 = 0.8275343040933489 * j5_gamma_b4;
-    let t1776 = j5_alpha_b4 - j5_a_b4;
-    let t1821 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
+    let t1749 = 0.3174776227989252 * j5_beta_b4;
+    let t1750 = 0.9399166168175558 * j5_beta_b4;
+    let t1751 = 0.12555760611043656 * j5_beta_b4;
+    let t1752 = 0.2368529300043945 * j5_gamma_b4;
+    let t1753 = 0.030542838068628286 * j5_gamma_b4;
+    let t1754 = 0.8275343040933489 * j5_gamma_b4;
+    let t1783 = j5_alpha_b4 - j5_a_b4;
+    let t1828 = 0.7700239450467775 * xv_b4_y - 0.620341126105259 * xv_b4_x
         - 0.14913085300184115 * xv_b4_z;
-    let t1822 = 0.620341126105259 * t1821;
-    let t1823 = 0.7700239450467775 * t1821;
-    let t1824 = 0.14913085300184115 * t1821;
+    let t1829 = 0.620341126105259 * t1828;
+    let t1830 = 0.7700239450467775 * t1828;
+    let t1831 = 0.14913085300184115 * t1828;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (x)
-    let z_b4b_x = t1742 - 0.8362137090354541 * t1713 - t1745;
+    let z_b4b_x = t1749 - 0.8362137090354541 * t1720 - t1752;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (y)
-    let z_b4b_y = 1.0379846701062043 * t1713 + t1743 - t1746;
+    let z_b4b_y = 1.0379846701062043 * t1720 + t1750 - t1753;
     // z = R5 h6 = α h4 + β h5 ± γ (h4 × h5) (z)
-    let z_b4b_z = t1747 + (t1744 - 0.2010269164374744 * t1713);
+    let z_b4b_z = t1754 + (t1751 - 0.2010269164374744 * t1720);
     // cos θ5 = (h6⊥ · z) / |h6⊥|²
     let j5_cos_b4b = 1.2056566317887352
         * (0.8840923826341479 * z_b4b_z
@@ -4881,50 +4904,50 @@ fn branch_8(
                 * (0.08264952242757546 * z_b4b_y + 0.34229941191058744 * z_b4b_x));
     // θ5 = atan2(sin θ5, cos θ5)
     let q5_b4b = ::armforge_runtime::math::atan2(j5_sin_b4b, j5_cos_b4b);
-    let t1926 = t1742 - 0.620341126105259 * t1776 - t1745;
-    let t1927 = t1743 + 0.7700239450467775 * t1776 - t1746;
-    let t1928 = t1747 + (t1744 - 0.14913085300184115 * t1776);
-    let t1933 = v_b4_z * t1928 + (v_b4_x * t1926 + v_b4_y * t1927);
-    let t1947 = 0.7700239450467775 * (v_b4_x * t1928 - v_b4_z * t1926)
-        - 0.620341126105259 * (v_b4_z * t1927 - v_b4_y * t1928)
-        - 0.14913085300184115 * (v_b4_y * t1926 - v_b4_x * t1927);
-    let t1950 = t1933 * t1933 + t1947 * t1947;
-    let t1953 = 1.0 / ::armforge_runtime::math::sqrt(t1950.max(1e-40));
+    let t1933 = t1749 - 0.620341126105259 * t1783 - t1752;
+    let t1934 = t1750 + 0.7700239450467775 * t1783 - t1753;
+    let t1935 = t1754 + (t1751 - 0.14913085300184115 * t1783);
+    let t1940 = v_b4_z * t1935 + (v_b4_x * t1933 + v_b4_y * t1934);
+    let t1954 = 0.7700239450467775 * (v_b4_x * t1935 - v_b4_z * t1933)
+        - 0.620341126105259 * (v_b4_z * t1934 - v_b4_y * t1935)
+        - 0.14913085300184115 * (v_b4_y * t1933 - v_b4_x * t1934);
+    let t1957 = t1940 * t1940 + t1954 * t1954;
+    let t1960 = 1.0 / ::armforge_runtime::math::sqrt(t1957.max(1e-40));
     // ≥ 0 when joint 5 is within 1e-10 of the aligned position
-    let aligned_b4_2 = 1e-40 - t1950;
+    let aligned_b4_2 = 1e-40 - t1957;
     // cos θ4 = z⊥ · v / |z⊥|² (reference when aligned)
-    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1933 * t1953 };
+    let j4_cos_b4b = if aligned_b4_2 >= 0.0 { -ref4_cos } else { t1940 * t1960 };
     // sin θ4 = h4 · (z × v) / |z⊥|² (reference when aligned)
-    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1947 * t1953 };
+    let j4_sin_b4b = if aligned_b4_2 >= 0.0 { -ref4_sin } else { t1954 * t1960 };
     // θ4 = atan2(sin θ4, cos θ4)
     let q4_b4b = ::armforge_runtime::math::atan2(j4_sin_b4b, j4_cos_b4b);
-    let t1969 = (xv_b4_x + t1822) * j4_cos_b4b
+    let t1976 = (xv_b4_x + t1829) * j4_cos_b4b
         - (0.7700239450467775 * xv_b4_z + 0.14913085300184115 * xv_b4_y) * j4_sin_b4b
-        - t1822;
-    let t1970 = t1823
-        + ((xv_b4_y - t1823) * j4_cos_b4b
+        - t1829;
+    let t1977 = t1830
+        + ((xv_b4_y - t1830) * j4_cos_b4b
             - (0.620341126105259 * xv_b4_z - 0.14913085300184115 * xv_b4_x)
                 * j4_sin_b4b);
-    let t1971 = (xv_b4_z + t1824) * j4_cos_b4b
+    let t1978 = (xv_b4_z + t1831) * j4_cos_b4b
         + (0.620341126105259 * xv_b4_y + 0.7700239450467775 * xv_b4_x) * j4_sin_b4b
-        - t1824;
-    let t1976 = 0.12555760611043656 * t1971
-        + (0.3174776227989252 * t1969 + 0.9399166168175558 * t1970);
-    let t1977 = 0.3174776227989252 * t1976;
-    let t1978 = 0.9399166168175558 * t1976;
-    let t1979 = 0.12555760611043656 * t1976;
+        - t1831;
+    let t1983 = 0.12555760611043656 * t1978
+        + (0.3174776227989252 * t1976 + 0.9399166168175558 * t1977);
+    let t1984 = 0.3174776227989252 * t1983;
+    let t1985 = 0.9399166168175558 * t1983;
+    let t1986 = 0.12555760611043656 * t1983;
     // R5ᵀ R4ᵀ R456 x6 (x)
-    let y6_b4b_x = t1977
-        + (j5_cos_b4b * (t1969 - t1977)
-            - j5_sin_b4b * (0.9399166168175558 * t1971 - 0.12555760611043656 * t1970));
+    let y6_b4b_x = t1984
+        + (j5_cos_b4b * (t1976 - t1984)
+            - j5_sin_b4b * (0.9399166168175558 * t1978 - 0.12555760611043656 * t1977));
     // R5ᵀ R4ᵀ R456 x6 (y)
-    let y6_b4b_y = t1978
-        + (j5_cos_b4b * (t1970 - t1978)
-            - j5_sin_b4b * (0.12555760611043656 * t1969 - 0.3174776227989252 * t1971));
+    let y6_b4b_y = t1985
+        + (j5_cos_b4b * (t1977 - t1985)
+            - j5_sin_b4b * (0.12555760611043656 * t1976 - 0.3174776227989252 * t1978));
     // R5ᵀ R4ᵀ R456 x6 (z)
-    let y6_b4b_z = t1979
-        + (j5_cos_b4b * (t1971 - t1979)
-            - j5_sin_b4b * (0.3174776227989252 * t1970 - 0.9399166168175558 * t1969));
+    let y6_b4b_z = t1986
+        + (j5_cos_b4b * (t1978 - t1986)
+            - j5_sin_b4b * (0.3174776227989252 * t1977 - 0.9399166168175558 * t1976));
     // Paden–Kahan 1: θ6 = atan2(h6 · (x6 × y), x6 · y)
     let q6_b4b = ::armforge_runtime::math::atan2(
         0.935948806852255

@@ -58,6 +58,7 @@ pub fn run(args: Args) -> Outcome {
     let shown = files::shown(&args.arm);
     let generated = generate_module_in(&args.arm, &shown, &Tolerances::default(), args.scalar)
         .map_err(|e| files::report_at(&e, &args.arm))?;
+    files::warn(&generated.warnings);
     let sheet = args.sheet.as_ref().map(|path| {
         let text = review_sheet(&generated.model, &generated.geometry, &generated.plan);
         (path, text)

@@ -11,7 +11,14 @@
 //! {"status": "beyond_reach", "reason": "...", "by": 12.5, "unit": "mm", "count": 0, "solutions": []}
 //! ```
 //!
-//! Joint values are in the file's units. Statuses other than `ok`: `invalid_pose`,
+//! Joint values are in the file's units. There is one solution per branch: a joint whose range
+//! exceeds a turn is at the equivalent angle nearest its range's center (with `--near`, nearest
+//! the given value). Its other values within the limits follow the solution's flags as
+//! `"equivalents": [[joint, value], ...]` (1-based joint, file units; at most
+//! [`MAX_EQUIVALENTS_LISTED`] of them) with `"equivalent_count"`, how many there are in all;
+//! both keys are left out when there are none. Any combination of them reaches the same pose.
+//!
+//! Statuses other than `ok`: `invalid_pose`,
 //! `beyond_reach`, `inside_hole`, `wrist_orientation`, `outside_limits` (with the 1-based
 //! `joint`), `branch_unavailable`, `no_such_branch` (a branch this arm never has); each with
 //! a sentence in `reason` and, where there is one, the amount `by` in the file's `unit`. A malformed line gets `{"error": "...", "line": N}` and
@@ -21,7 +28,7 @@
 use armforge_compiler::model::Model;
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{
-    Branch, Elbow, Flags, Pose, Shoulder, Solution, Unreachable, Wrist, JOINTS,
+    Branch, Elbow, Flags, Joint, Pose, Shoulder, Solution, Unreachable, Wrist, JOINTS,
 };
 use serde_json::{json, Value};
 
@@ -132,7 +139,10 @@ fn answer(model: &Model, solver: &Solver, mode: &Mode, target: &Pose) -> Line {
     };
     match result {
         Ok(solutions) => {
-            let objects: Vec<Line> = solutions.iter().map(|s| solution_json(model, s)).collect();
+            let objects: Vec<Line> = solutions
+                .iter()
+                .map(|s| solution_json(model, &solver.plan().arm.joints, s))
+                .collect();
             Line::new()
                 .with("status", json!("ok"))
                 .with("count", json!(solutions.len()))
@@ -180,8 +190,11 @@ impl std::fmt::Display for Line {
     }
 }
 
-fn solution_json(model: &Model, s: &Solution) -> Line {
-    Line::new()
+/// The most equivalent values listed per solution (`equivalent_count` gives them all).
+pub const MAX_EQUIVALENTS_LISTED: usize = 16;
+
+fn solution_json(model: &Model, joints: &[Joint; JOINTS], s: &Solution) -> Line {
+    let line = Line::new()
         .with(
             "joints",
             json!(model.tidy_joint_values(&model.joint_values_from_si(&s.joints))),
@@ -195,7 +208,23 @@ fn solution_json(model: &Model, s: &Solution) -> Line {
         .with(
             "at_reach_limit",
             json!(s.flags.contains(Flags::AT_REACH_LIMIT)),
-        )
+        );
+    let equivalents = s.equivalents(joints);
+    let count = equivalents.len();
+    if count == 0 {
+        return line;
+    }
+    let listed: Vec<Value> = equivalents
+        .take(MAX_EQUIVALENTS_LISTED)
+        .map(|e| {
+            let mut q = s.joints;
+            q[e.joint] = e.value;
+            let shown = model.tidy_joint_values(&model.joint_values_from_si(&q));
+            json!([e.joint + 1, shown[e.joint]])
+        })
+        .collect();
+    line.with("equivalents", Value::Array(listed))
+        .with("equivalent_count", json!(count))
 }
 
 /// A branch label as JSON words (the words `--branch` reads).

@@ -1,12 +1,13 @@
 //! The panels of a solutions drawing: one per distinct configuration, labelled with its branch.
 //!
-//! Solutions that differ only by whole turns of revolute joints (a joint whose range is wider
-//! than one turn lists every equivalent angle) put the arm in the same place; they share one
-//! panel, which names the other joint values.
+//! Solutions that differ only by whole turns of revolute joints put the arm in the same place;
+//! they share one panel, which names the other joint values: those of other solutions in the
+//! same place and the equivalent angles of joints whose range is wider than one turn
+//! (`Solution::equivalents`).
 
 use std::f64::consts::{PI, TAU};
 
-use armforge_runtime::{Flags, JointKind, Solution};
+use armforge_runtime::{Flags, Joint, JointKind, Solution, JOINTS};
 
 use super::Panel;
 use armforge_compiler::model::Model;
@@ -37,17 +38,35 @@ pub fn solution_panels(model: &Model, solutions: &[Solution]) -> Vec<Panel> {
                 .copied()
                 .min_by(|a, b| size(&a.joints).total_cmp(&size(&b.joints)))
                 .unwrap_or(group[0]);
+            let mut alternatives: Vec<Vec<f64>> = group
+                .iter()
+                .filter(|s| !std::ptr::eq(**s, shown))
+                .map(|s| s.joints.to_vec())
+                .collect();
+            if let Some(table) = joint_table(model) {
+                for e in shown.equivalents(&table) {
+                    let mut q = shown.joints.to_vec();
+                    q[e.joint] = e.value;
+                    let same =
+                        |a: &Vec<f64>| a.iter().zip(&q).all(|(x, y)| (x - y).abs() < SAME_VALUE);
+                    if !alternatives.iter().any(same) {
+                        alternatives.push(q);
+                    }
+                }
+            }
             Panel {
                 caption: caption(k, count, shown),
                 joint_values: shown.joints.to_vec(),
-                alternatives: group
-                    .iter()
-                    .filter(|s| !std::ptr::eq(**s, shown))
-                    .map(|s| s.joints.to_vec())
-                    .collect(),
+                alternatives,
             }
         })
         .collect()
+}
+
+/// The model's joints as a solver's joint table (`None` unless it has six).
+fn joint_table(model: &Model) -> Option<[Joint; JOINTS]> {
+    let joints: Vec<Joint> = model.joints.iter().map(|j| j.joint).collect();
+    joints.try_into().ok()
 }
 
 /// True when the two sets of joint values differ only by whole turns of revolute joints.
@@ -153,10 +172,13 @@ mod tests {
         );
         assert_eq!(panels.len(), 2);
         assert_eq!(panels[0].joint_values, q.to_vec());
-        assert_eq!(panels[0].alternatives, vec![turned.to_vec()]);
+        // The other solution in the same place first, then the equivalent angles the limits
+        // (±720°) allow: three more values per joint, the turned joint 6 listed once.
+        assert_eq!(panels[0].alternatives[0], turned.to_vec());
+        assert_eq!(panels[0].alternatives.len(), 18);
         assert_eq!(panels[0].caption, "1 of 2: facing, up, leading");
         assert_eq!(panels[1].caption, "2 of 2: facing, up, trailing");
-        assert!(panels[1].alternatives.is_empty());
+        assert_eq!(panels[1].alternatives.len(), 18);
     }
 
     #[test]

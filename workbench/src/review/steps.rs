@@ -505,8 +505,9 @@ fn finishing(out: &mut String, plan: &Plan, s: &Show) {
     let _ = writeln!(
         out,
         "Each candidate's model values become joint values `q_i = (θ_i − offset_i) · \
-         direction_i` (§1). A revolute value is wrapped into the joint's range; where the \
-         range is wider than one turn every equivalent value inside it is listed. Candidates \
+         direction_i` (§1). A revolute value is wrapped by whole turns to within half a \
+         turn of the range's center (where the range is wider than one turn, the other \
+         values inside it are listed on request, not stored: one solution per branch). Candidates \
          with a joint beyond its limits by more than {} are dropped; two solutions closer \
          than {} in every joint are returned once. With nothing left the solver says why: \
          beyond reach, inside the unreachable region near the shoulder, wrist orientation out \

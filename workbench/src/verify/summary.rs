@@ -10,6 +10,7 @@ use serde::Serialize;
 use super::check::{within, Outcome, Status, Thresholds};
 use super::sampler::Kind;
 use armforge_compiler::model::Model;
+use armforge_runtime::compact::Compact;
 
 /// At most this many failing samples are listed (all are counted).
 pub const LISTED_FAILURES: usize = 20;
@@ -166,15 +167,17 @@ pub fn kind_summary(
 }
 
 /// What went wrong with a failing outcome, in words.
-pub fn problem_text(o: &Outcome) -> String {
+pub fn problem_text(model: &Model, o: &Outcome) -> String {
     let mut parts = Vec::new();
     match o.status {
         Status::Recovered => {}
         Status::NotRecovered { joint, by, allowed } => parts.push(format!(
             "the original configuration is not among the {} solutions (the nearest differs in \
-             joint {} by {by:.3e}, allowed {allowed:.3e})",
+             joint {} by {}, allowed {})",
             o.solutions,
             joint + 1,
+            joint_difference(model, joint, by),
+            joint_difference(model, joint, allowed),
         )),
         Status::Unreachable(reason) => parts.push(format!(
             "no solution for a pose that forward kinematics made: {reason}"
@@ -196,6 +199,24 @@ pub fn problem_text(o: &Outcome) -> String {
     parts.join("; ")
 }
 
+/// A joint difference as judged (radians, or a fraction of the arm's size for a slide) in the
+/// file's units: `0.000057°`, `2.5e-7 rad`, `3e-9 of the arm's size`.
+fn joint_difference(model: &Model, joint: usize, value: f64) -> String {
+    let prismatic = model
+        .joints
+        .get(joint)
+        .is_some_and(|j| j.joint.kind == armforge_runtime::JointKind::Prismatic);
+    if prismatic {
+        format!("{} of the arm's size", Compact(value))
+    } else {
+        format!(
+            "{}{}",
+            Compact(model.units.angle_from_si(value)),
+            model.units.angle.display_symbol()
+        )
+    }
+}
+
 /// A failing outcome, named, with its joints in the file's units.
 pub fn failure(model: &Model, o: &Outcome) -> Failure {
     let joints = o
@@ -214,7 +235,7 @@ pub fn failure(model: &Model, o: &Outcome) -> Failure {
         kind: o.kind,
         joints,
         offset: o.failing.as_deref().map_or(0.0, |s| s.offset),
-        problem: problem_text(o),
+        problem: problem_text(model, o),
     }
 }
 
@@ -243,6 +264,11 @@ impl Summary {
     /// The findings as a plain-text table.
     pub fn to_text(&self, model: &Model) -> String {
         let mut out = String::new();
+        let joint_threshold = format!(
+            "{}{}",
+            Compact(model.units.angle_from_si(self.thresholds.joint)),
+            model.units.angle.display_symbol()
+        );
         let _ = writeln!(
             out,
             "verify {} ({}): seed {}, {} samples within limits plus samples near singular \
@@ -252,15 +278,19 @@ impl Summary {
         let _ = writeln!(
             out,
             "position error: fraction of the arm's size ({}); rotation error: Frobenius norm of \
-             R_solution − R_target; joints: radians, slides as a fraction of the arm's size;\n\
+             R_solution − R_target; joints recovered within {} (slides: {} of the arm's size);\n\
              unreachable: `solve` found nothing (always a failure); near: recovered only by \
              `solve_near` from the original configuration (a singular pose's free joint held at \
              the reference);\njudged singular: near a singular configuration or reach \
              boundary by the sample's geometry, whichever sampler made it; there joint \
-             allowances scale with the conditioning (1e-6 / ρ for joint 1 with the wrist center \
-             ρ from axis 1, divided again by joint 5's distance from an aligned position for \
-             joints 4 and 6) and a joint whose allowance reaches half a turn is free\n",
-            model.units.show_length(self.arm_size)
+             allowances scale with the conditioning ({} / ρ for joint 1 with the wrist center \
+             ρ from axis 1 as a fraction of the arm's size, divided again by joint 5's distance \
+             from an aligned position in radians for joints 4 and 6) and a joint whose \
+             allowance reaches half a turn is free\n",
+            model.units.show_length(self.arm_size),
+            joint_threshold,
+            Compact(self.thresholds.joint),
+            joint_threshold,
         );
         let header = [
             "samples",
@@ -319,7 +349,7 @@ impl Summary {
         }
         let _ = writeln!(
             out,
-            "solutions per pose, every equivalent angle within the limits listed: {}",
+            "solutions per pose (one per branch, equivalent angles not counted): {}",
             histogram_text(&self.solutions_per_pose)
         );
         if !self.failures.is_empty() {

@@ -13,7 +13,7 @@ use armforge_runtime::Elbow;
 
 use crate::family::elbow::plan::{self as elbow, joint_one};
 use crate::plan::arm::Arm;
-use crate::plan::graph::Graph;
+use crate::plan::graph::{Graph, Id};
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::vec3::{self, num, V3};
 use crate::plan::{ArmSolution, Target, Turn};
@@ -49,6 +49,14 @@ pub fn rules(arm: &Arm) -> (ShoulderRule, ElbowRule) {
     (shoulder, ElbowRule::Slide { nearest: -k.m })
 }
 
+/// `(cos(φ + δ), sin(φ + δ))` from `(cos φ, sin φ)` and a constant `δ` (radians).
+fn turned(g: &mut Graph, (c, s): (Id, Id), delta: f64) -> (Id, Id) {
+    let (cd, sd) = (g.constant(delta.cos()), g.constant(delta.sin()));
+    let (cc, ss) = (g.mul(c, cd), g.mul(s, sd));
+    let (sc, cs) = (g.mul(s, cd), g.mul(c, sd));
+    (g.sub(cc, ss), g.add(sc, cs))
+}
+
 /// Builds joints 1–3 of a polar arm for every branch (σ × slide root).
 pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let k = constants(arm);
@@ -57,11 +65,13 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target, ct: V3) -> Vec<ArmSolution> {
     let pp = num::dot(&k.p, &k.p);
     let nearest2 = (pp - k.m * k.m).max(0.0);
     let nearest = g.constant(nearest2.sqrt());
-    // Joint 2 held at the pivot: its zero, or the limit nearest it.
+    // Joint 2 held at the pivot: with the zero reference at its zero, or the limit nearest it.
+    // It follows joint 1's reference input turned by the difference, so that the runtime can
+    // move it within the limits (`armforge_runtime::internal::free_joint_1`).
     let j2 = arm.joints[1];
     let hold = j2.model_value(0.0_f64.max(j2.limits[0]).min(j2.limits[1]));
-    let hold_c = g.constant(hold.cos());
-    let hold_s = g.constant(hold.sin());
+    let reference = arm.joints[0].model_value(crate::plan::free_joint_1_value(&arm.joints[0]));
+    let (hold_c, hold_s) = turned(g, t.reference1, hold - reference);
     let mut out = Vec::new();
     for i in 0..2 {
         let tag = if i == 0 { "a" } else { "b" };

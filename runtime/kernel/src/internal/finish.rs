@@ -1,20 +1,22 @@
 //! Finishing: candidates straight out of the closed-form steps become solutions. Model values
-//! become joint values (wrapped by whole turns toward an anchor, or listed as equivalents),
-//! the reach and wrist checks and the limits are applied, double roots at a boundary are
-//! returned once, flags are set, and the reason is worked out when nothing is left.
+//! become joint values (each revolute value wrapped by whole turns toward an anchor: the
+//! range's center for `solve` and `solve_branch`, near `current` for `solve_near`), the reach
+//! and wrist checks and the limits are applied, double roots at a boundary are returned once,
+//! flags are set, and the reason is worked out when nothing is left.
+//!
+//! One value per joint and branch: a joint whose range exceeds a turn holds the equivalent
+//! angle nearest its range's center (within half a turn of it, so always inside the range);
+//! the other in-range values are listed lazily by [`crate::Solution::equivalents`].
 
-use super::{inv_tau, round_fast, wrap, Candidate, Check, CheckKind, Settings};
+use super::{wrap, Candidate, Check, CheckKind, Settings};
 use crate::math::{abs, sqrt, tolerance, Growth, Scalar};
 use crate::model::{Joint, JointKind};
 use crate::solution::{Branch, Flags, Solution, SolutionSet, Unreachable, JOINTS};
 
-/// At most this many equivalent angles are listed for one revolute joint (a range of up to
-/// seven turns); wider ranges list the first ones from the lower limit.
-pub const MAX_EQUIVALENTS: usize = 8;
-
-/// True when a revolute joint's range is wider than one turn (equivalent angles are listed).
+/// True when a revolute joint's range is wider than one turn (it has equivalent angles
+/// within its limits).
 #[inline(always)]
-pub fn lists_equivalents<S: Scalar>(joint: &Joint<S>, tolerance: S) -> bool {
+pub fn exceeds_a_turn<S: Scalar>(joint: &Joint<S>, tolerance: S) -> bool {
     let [lo, hi] = joint.limits;
     joint.kind == JointKind::Revolute
         && lo.is_finite()
@@ -22,171 +24,47 @@ pub fn lists_equivalents<S: Scalar>(joint: &Joint<S>, tolerance: S) -> bool {
         && hi - lo > S::TAU + tolerance
 }
 
-/// How many equivalent values of one joint can be within its limits (1 unless the joint is
-/// revolute with a range wider than one turn). Generators use this for the set's capacity.
-pub fn equivalent_count<S: Scalar>(joint: &Joint<S>, tolerance: S) -> usize {
-    if !lists_equivalents(joint, tolerance) {
-        return 1;
-    }
+/// The center of a joint's range (zero for an unlimited joint).
+#[inline(always)]
+fn center_of<S: Scalar>(joint: &Joint<S>) -> S {
     let [lo, hi] = joint.limits;
-    let turns = ((hi - lo + S::of(2.0) * tolerance) / S::TAU).to_f64();
-    let mut n = 1;
-    while n < MAX_EQUIVALENTS && (n as f64) <= turns {
-        n += 1;
-    }
-    n
-}
-
-/// How one joint's values are finished, worked out once per solve.
-#[derive(Clone, Copy)]
-struct Finishing<S: Scalar> {
-    /// Revolute with more than one turn of range: list equivalent angles from `lo`.
-    lists: bool,
-    /// Revolute with at most one turn: wrap around `center`.
-    wraps: bool,
-    center: S,
-    lo: S,
-    hi: S,
-}
-
-impl<S: Scalar> Finishing<S> {
-    const NONE: Finishing<S> = Finishing {
-        lists: false,
-        wraps: false,
-        center: S::ZERO,
-        lo: S::ZERO,
-        hi: S::ZERO,
-    };
-
-    #[inline(always)]
-    fn of(joint: &Joint<S>, tol: S) -> Finishing<S> {
-        let [lo, hi] = joint.limits;
-        let lists = lists_equivalents(joint, tol);
-        Finishing {
-            lists,
-            wraps: joint.kind == JointKind::Revolute && !lists,
-            center: if lo.is_finite() && hi.is_finite() {
-                S::of(0.5) * (lo + hi)
-            } else {
-                S::ZERO
-            },
-            lo,
-            hi,
-        }
-    }
-}
-
-/// The per-joint constants of the conversion, worked out once per solve.
-struct Table<S: Scalar> {
-    finishing: [Finishing<S>; JOINTS],
-    offset: [S; JOINTS],
-    direction: [S; JOINTS],
-    center: [S; JOINTS],
-    /// `1.0` for joints that wrap, `0.0` otherwise.
-    wraps: [S; JOINTS],
-    low: [S; JOINTS],
-    high: [S; JOINTS],
-}
-
-impl<S: Scalar> Table<S> {
-    #[inline(always)]
-    fn of(joints: &[Joint<S>; JOINTS], tol: S) -> Table<S> {
-        let mut finishing = [Finishing::NONE; JOINTS];
-        for (f, j) in finishing.iter_mut().zip(joints.iter()) {
-            *f = Finishing::of(j, tol);
-        }
-        let mut t = Table {
-            finishing,
-            offset: [S::ZERO; JOINTS],
-            direction: [S::ZERO; JOINTS],
-            center: [S::ZERO; JOINTS],
-            wraps: [S::ZERO; JOINTS],
-            low: [S::ZERO; JOINTS],
-            high: [S::ZERO; JOINTS],
-        };
-        for i in 0..JOINTS {
-            t.offset[i] = joints[i].offset;
-            t.direction[i] = joints[i].direction;
-            t.center[i] = finishing[i].center;
-            t.wraps[i] = if finishing[i].wraps { S::ONE } else { S::ZERO };
-            t.low[i] = finishing[i].lo - tol;
-            t.high[i] = finishing[i].hi + tol;
-        }
-        t
-    }
-
-    /// Joint values of model values: the lowest equivalent within the limits for joints that
-    /// list equivalents (with how many there are), the wrapped value otherwise; and whether
-    /// every joint has a value within its limits. The same arithmetic as
-    /// [`Joint::joint_value`], [`wrap`] and [`equivalents`].
-    #[inline(always)]
-    fn convert(&self, model: &[S; JOINTS], tol: S) -> ([S; JOINTS], [usize; JOINTS], bool) {
-        let mut values = [S::ZERO; JOINTS];
-        let mut counts = [1usize; JOINTS];
-        let mut inside = true;
-        // Written out per joint (constant indices) so that, inlined into an emitted solver,
-        // the table's constants fold into the code.
-        let mut joint = |i: usize| {
-            let q = (model[i] - self.offset[i]) * self.direction[i];
-            if self.finishing[i].lists {
-                let (v, n, _) = equivalents(&self.finishing[i], q, tol);
-                values[i] = v;
-                counts[i] = n;
-                inside &= n > 0;
-            } else {
-                let turns = round_fast((q - self.center[i]) * inv_tau()) * self.wraps[i];
-                let v = q - S::TAU * turns;
-                values[i] = v;
-                inside &= (v >= self.low[i]) & (v <= self.high[i]);
-            }
-        };
-        joint(0);
-        joint(1);
-        joint(2);
-        joint(3);
-        joint(4);
-        joint(5);
-        (values, counts, inside)
-    }
-}
-
-/// The joint values equivalent to `q` within the limits, as the lowest one and how many there
-/// are (`lowest + k·2π`, `k < count`), and by how much the nearest one misses the limits when
-/// there are none.
-#[inline(always)]
-fn equivalents<S: Scalar>(f: &Finishing<S>, q: S, tol: S) -> (S, usize, S) {
-    let (lo, hi) = (f.lo, f.hi);
-    if f.lists {
-        let lowest = q - S::TAU * floor((q - lo + tol) * inv_tau());
-        let above = floor((hi + tol - lowest) * inv_tau()).to_f64();
-        let count = if above < 0.0 {
-            0
-        } else if above >= (MAX_EQUIVALENTS - 1) as f64 {
-            MAX_EQUIVALENTS
-        } else {
-            above as usize + 1
-        };
-        let miss = if count == 0 { lowest - hi } else { S::ZERO };
-        return (lowest, count, miss);
-    }
-    let v = if f.wraps { wrap(q, f.center) } else { q };
-    let miss = (lo - v).max(v - hi);
-    if miss > tol {
-        (v, 0, miss)
+    if lo.is_finite() && hi.is_finite() {
+        S::of(0.5) * (lo + hi)
     } else {
-        (v, 1, S::ZERO)
+        S::ZERO
     }
 }
 
-/// The largest whole number not above `x` (through rounding, so it works without `std`).
+/// The joint value of a model value: `(m − offset) · direction`, for a revolute joint wrapped
+/// by whole turns into `[anchor − π, anchor + π]`.
 #[inline(always)]
-fn floor<S: Scalar>(x: S) -> S {
-    let r = round_fast(x);
-    if r > x {
-        r - S::ONE
+fn joint_value<S: Scalar>(joint: &Joint<S>, model: S, anchor: S) -> S {
+    let q = (model - joint.offset) * joint.direction;
+    if joint.kind == JointKind::Revolute {
+        wrap(q, anchor)
     } else {
-        r
+        q
     }
+}
+
+/// Joint values of model values (each revolute value toward its anchor), and whether every
+/// joint is within its limits.
+#[inline(always)]
+fn convert<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    model: &[S; JOINTS],
+    anchor: &[S; JOINTS],
+    tol: S,
+) -> ([S; JOINTS], bool) {
+    let mut values = [S::ZERO; JOINTS];
+    let mut inside = true;
+    for i in 0..JOINTS {
+        let j = &joints[i];
+        let v = joint_value(j, model[i], anchor[i]);
+        values[i] = v;
+        inside &= (v >= j.limits[0] - tol) & (v <= j.limits[1] + tol);
+    }
+    (values, inside)
 }
 
 /// `acos` through `atan2` (works without `std`), argument clamped to `[−1, 1]`.
@@ -288,11 +166,12 @@ fn passes<S: Scalar>(checks: &[Check<S>; 4], settings: &Settings<S>) -> Option<b
 }
 
 /// Distance between two values of one joint: wrap-aware for revolute joints with at most one
-/// turn of range, plain otherwise.
+/// turn of range, plain otherwise (values whole turns apart are different positions of a
+/// joint whose range exceeds a turn).
 #[inline]
 fn joint_distance<S: Scalar>(joint: &Joint<S>, a: S, b: S, tol: S) -> S {
     let d = a - b;
-    if joint.kind == JointKind::Revolute && !lists_equivalents(joint, tol) {
+    if joint.kind == JointKind::Revolute && !exceeds_a_turn(joint, tol) {
         abs(wrap(d, S::ZERO))
     } else {
         abs(d)
@@ -353,9 +232,10 @@ fn keep_smaller<S: Scalar>(
     }
 }
 
-/// Turns candidates into solutions: checks, joint values, wrapping and equivalent angles,
-/// limits, duplicates, flags. Writes into `out` and returns how many were written, or the
-/// reason when there are none. With `only`, candidates of other branches are skipped.
+/// Turns candidates into solutions: checks, joint values (each revolute joint at the value
+/// nearest its range's center), limits, duplicates, flags. Writes into `out` and returns how
+/// many were written, or the reason when there are none. With `only`, candidates of other
+/// branches are skipped.
 #[inline(always)]
 pub fn finish<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
@@ -365,7 +245,7 @@ pub fn finish<S: Scalar>(
     out: &mut [Solution<S>],
 ) -> Result<usize, Unreachable<S>> {
     let tol = settings.limit_tolerance;
-    let table = Table::of(joints, tol);
+    let anchor = centers(joints);
     let mut len = 0;
     let mut matched = false;
     for c in candidates {
@@ -376,14 +256,23 @@ pub fn finish<S: Scalar>(
         let Some(at_limit) = passes(&c.checks, settings) else {
             continue;
         };
-        let (values, counts, inside) = table.convert(&c.model_values, tol);
+        let (values, inside) = convert(joints, &c.model_values, &anchor, tol);
         if !inside {
             continue;
         }
         let flags = flags_of(c, at_limit);
-        len = push_combinations(
-            joints, settings, &values, &counts, c.branch, flags, out, len,
-        );
+        let found = out.get(..len).unwrap_or(&[]);
+        if is_duplicate(joints, settings, &values, flags, found) {
+            continue;
+        }
+        if let Some(slot) = out.get_mut(len) {
+            *slot = Solution {
+                joints: values,
+                branch: c.branch,
+                flags,
+            };
+            len += 1;
+        }
     }
     if len > 0 {
         return Ok(len);
@@ -391,20 +280,21 @@ pub fn finish<S: Scalar>(
     if !matched {
         return Err(Unreachable::BranchUnavailable);
     }
-    Err(failure(&table, settings, candidates, only))
+    Err(failure(joints, settings, candidates, only))
 }
 
 /// Why no candidate became a solution (worked out only then): a joint limit before a failed
 /// check, the later stage, then the smaller miss.
 #[cold]
 #[inline(never)]
-fn failure<S: Scalar>(
-    table: &Table<S>,
+pub fn failure<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
     settings: &Settings<S>,
     candidates: &[Candidate<S>],
     only: Option<Branch>,
 ) -> Unreachable<S> {
     let tol = settings.limit_tolerance;
+    let anchor = centers(joints);
     let mut failure: Option<(Unreachable<S>, S)> = None;
     let mut limit_failure: Option<(Unreachable<S>, S)> = None;
     for c in candidates {
@@ -417,9 +307,10 @@ fn failure<S: Scalar>(
         }
         let mut worst: Option<(usize, S)> = None;
         for i in 0..JOINTS {
-            let q = (c.model_values[i] - table.offset[i]) * table.direction[i];
-            let (_, n, miss) = equivalents(&table.finishing[i], q, tol);
-            if n == 0 && worst.map_or(true, |(_, m)| miss > m) {
+            let j = &joints[i];
+            let v = joint_value(j, c.model_values[i], anchor[i]);
+            let miss = (j.limits[0] - v).max(v - j.limits[1]);
+            if miss > tol && worst.map_or(true, |(_, m)| miss > m) {
                 worst = Some((i, miss));
             }
         }
@@ -435,66 +326,6 @@ fn failure<S: Scalar>(
         Some((reason, _)) => reason,
         None => Unreachable::BranchUnavailable,
     }
-}
-
-/// Writes every combination of equivalent values (an odometer over the joints: the first
-/// joint turns fastest).
-#[allow(clippy::too_many_arguments)]
-#[inline(always)]
-fn push_combinations<S: Scalar>(
-    joints: &[Joint<S>; JOINTS],
-    settings: &Settings<S>,
-    lowest: &[S; JOINTS],
-    counts: &[usize; JOINTS],
-    branch: Branch,
-    flags: Flags,
-    out: &mut [Solution<S>],
-    mut len: usize,
-) -> usize {
-    let total: usize = counts.iter().product();
-    if total == 1 {
-        // One value per joint (the common case): no odometer.
-        let found = out.get(..len).unwrap_or(&[]);
-        if !is_duplicate(joints, settings, lowest, flags, found) {
-            if let Some(slot) = out.get_mut(len) {
-                *slot = Solution {
-                    joints: *lowest,
-                    branch,
-                    flags,
-                };
-                len += 1;
-            }
-        }
-        return len;
-    }
-    let mut turns = [0usize; JOINTS];
-    for _ in 0..total {
-        let mut q = *lowest;
-        for ((v, k), n) in q.iter_mut().zip(turns.iter()).zip(counts.iter()) {
-            if *n > 1 {
-                *v += S::TAU * S::of(*k as f64);
-            }
-        }
-        let found = out.get(..len).unwrap_or(&[]);
-        if !is_duplicate(joints, settings, &q, flags, found) {
-            if let Some(slot) = out.get_mut(len) {
-                *slot = Solution {
-                    joints: q,
-                    branch,
-                    flags,
-                };
-                len += 1;
-            }
-        }
-        for (k, n) in turns.iter_mut().zip(counts.iter()) {
-            *k += 1;
-            if *k < *n {
-                break;
-            }
-            *k = 0;
-        }
-    }
-    len
 }
 
 /// [`finish`] into a fixed-capacity set.
@@ -545,22 +376,23 @@ pub fn nearest<S: Scalar>(
     best.map(|(_, s)| s)
 }
 
-/// The values each joint is wrapped toward by `solve_branch` and `solve`: the centers of the
-/// ranges (zero for an unlimited joint). Among equivalent angles of a joint whose range
-/// exceeds a turn, the one nearest the center is the one within half a turn of it.
+/// The values each joint is wrapped toward by `solve` and `solve_branch`: the centers of the
+/// ranges (zero for an unlimited joint). Of the equivalent angles of a joint whose range
+/// exceeds a turn, the one nearest the center is the one within half a turn of it, and it is
+/// always inside the range.
 #[inline(always)]
 pub fn centers<S: Scalar>(joints: &[Joint<S>; JOINTS]) -> [S; JOINTS] {
     let mut out = [S::ZERO; JOINTS];
     for (c, j) in out.iter_mut().zip(joints.iter()) {
-        *c = Finishing::of(j, S::ZERO).center;
+        *c = center_of(j);
     }
     out
 }
 
 /// The values each joint is wrapped toward by `solve_near`: for a revolute joint whose range
 /// exceeds a turn, `current` clamped to `[lo + π, hi − π]` (so the equivalent within half a
-/// turn of it is the in-range one nearest `current`); otherwise the range's center. A
-/// non-finite `current` counts as the center.
+/// turn of it is the in-range one nearest `current`, and `current` itself when it is in
+/// range); otherwise the range's center. A non-finite `current` counts as the center.
 #[inline(always)]
 pub fn anchors_near<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
@@ -569,11 +401,11 @@ pub fn anchors_near<S: Scalar>(
 ) -> [S; JOINTS] {
     let mut out = [S::ZERO; JOINTS];
     for ((a, j), q) in out.iter_mut().zip(joints.iter()).zip(current.iter()) {
-        let f = Finishing::of(j, tol);
-        *a = if f.lists && q.is_finite() {
-            crate::math::clamp(*q, f.lo + S::PI, f.hi - S::PI)
+        let [lo, hi] = j.limits;
+        *a = if exceeds_a_turn(j, tol) && q.is_finite() {
+            crate::math::clamp(*q, lo + S::PI, hi - S::PI)
         } else {
-            f.center
+            center_of(j)
         };
     }
     out
@@ -595,20 +427,7 @@ pub fn finish_one<S: Scalar>(
     let Some(at_limit) = passes(&c.checks, settings) else {
         return Err(failure_of_one(joints, settings, c));
     };
-    let tol = settings.limit_tolerance;
-    let mut values = [S::ZERO; JOINTS];
-    let mut inside = true;
-    for i in 0..JOINTS {
-        let j = &joints[i];
-        let q = (c.model_values[i] - j.offset) * j.direction;
-        let v = if j.kind == JointKind::Revolute {
-            wrap(q, anchor[i])
-        } else {
-            q
-        };
-        values[i] = v;
-        inside &= (v >= j.limits[0] - tol) & (v <= j.limits[1] + tol);
-    }
+    let (values, inside) = convert(joints, &c.model_values, anchor, settings.limit_tolerance);
     if !inside {
         return Err(failure_of_one(joints, settings, c));
     }
@@ -643,8 +462,7 @@ fn failure_of_one<S: Scalar>(
     settings: &Settings<S>,
     c: &Candidate<S>,
 ) -> Unreachable<S> {
-    let table = Table::of(joints, settings.limit_tolerance);
-    failure(&table, settings, core::slice::from_ref(c), None)
+    failure(joints, settings, core::slice::from_ref(c), None)
 }
 
 /// Of every candidate, the solution nearest `current` (sum of squared joint distances,
@@ -670,12 +488,7 @@ pub fn nearest_candidate<S: Scalar>(
     match best {
         Some((_, s)) => Ok(s),
         None if candidates.is_empty() => Err(Unreachable::BranchUnavailable),
-        None => Err(failure(
-            &Table::of(joints, settings.limit_tolerance),
-            settings,
-            candidates,
-            None,
-        )),
+        None => Err(failure(joints, settings, candidates, None)),
     }
 }
 
@@ -696,24 +509,39 @@ mod tests {
     }
 
     #[test]
-    fn two_turn_range_lists_two_equivalents() {
-        let j = revolute([-TAU, TAU]);
-        assert_eq!(equivalent_count(&j, 1e-12), 3);
-        let (lowest, n, _) = equivalents(&Finishing::of(&j, 1e-12), 0.5, 1e-12);
-        assert_eq!(n, 2);
-        assert!((lowest - (0.5 - TAU)).abs() < 1e-12);
+    fn a_range_over_a_turn_holds_the_value_nearest_its_center() {
+        let j = revolute([-TAU, 3.0 * TAU]);
+        assert!(exceeds_a_turn(&j, 1e-12));
+        // The center is at one turn: 0.5 is held as 0.5 + 2π.
+        assert!((joint_value(&j, 0.5, center_of(&j)) - (0.5 + TAU)).abs() < 1e-12);
         let one_turn = revolute([-PI, PI]);
-        assert_eq!(equivalent_count(&one_turn, 1e-12), 1);
-        let (v, n, _) = equivalents(&Finishing::of(&one_turn, 1e-12), PI + 0.25, 1e-12);
-        assert_eq!(n, 1);
-        assert!((v - (0.25 - PI)).abs() < 1e-12);
+        assert!(!exceeds_a_turn(&one_turn, 1e-12));
+        assert!((joint_value(&one_turn, PI + 0.25, 0.0) - (0.25 - PI)).abs() < 1e-12);
     }
 
     #[test]
     fn outside_limits_reports_the_miss() {
-        let j = revolute([-1.0, 1.0]);
-        let (_, n, miss) = equivalents(&Finishing::of(&j, 1e-12), 1.5, 1e-12);
-        assert_eq!(n, 0);
-        assert!((miss - 0.5).abs() < 1e-12);
+        let mut joints = [revolute([-PI, PI]); JOINTS];
+        joints[2] = revolute([-1.0, 1.0]);
+        let settings = Settings {
+            length_tolerance: 1e-10,
+            angle_tolerance: 1e-18,
+            limit_tolerance: 1e-12,
+            duplicate_tolerance: 1e-10,
+            wrist_twist_cosines: [0.0, 0.0],
+        };
+        let mut model_values = [0.0; JOINTS];
+        model_values[2] = 1.5;
+        let c = Candidate {
+            model_values,
+            branch: Solution::<f64>::EMPTY.branch,
+            checks: [Check::NONE; 4],
+            wrist_aligned: false,
+            on_axis_1: false,
+        };
+        match finish_one(&joints, &settings, &c, &centers(&joints)) {
+            Err(Unreachable::OutsideLimits { joint: 2, by }) => assert!((by - 0.5).abs() < 1e-12),
+            other => panic!("expected joint 3 outside its limits, got {other:?}"),
+        }
     }
 }

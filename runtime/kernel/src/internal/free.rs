@@ -1,34 +1,49 @@
-//! The free joint 1 on axis 1, chosen so that joint 5 fits its limits.
+//! The free joints, chosen within their limits so that the other joints fit theirs.
 //!
-//! With the wrist center on axis 1, joint 1 does not move it, and the plan holds joint 1 at a
-//! reference. Joint 1 still turns the orientation the wrist must make, so at the reference
-//! joint 5 can fall outside its limits although another value of joint 1 keeps it inside.
-//! Choosing that value is a one-dimensional interval problem with a closed form:
+//! At three singular configurations the pose leaves one joint free and the plan holds it at a
+//! reference (its reference input):
 //!
-//! * With `R456 = (R1(m) R2 R3)ᵀ G` the wrist's rotation for joint 1's model value `m`, each
-//!   wrist joint reaching one of its limits is one condition `A + B cos m + C sin m = e`
-//!   (Rodrigues), with at most two roots `m = μ ± acos((e − A) / ρ)`, `ρ = √(B² + C²)`
-//!   ([`joint_1_tries`] lists the conditions). Between consecutive roots no wrist joint crosses
-//!   a limit, so the values of joint 1 that keep the wrist inside form arcs whose ends are
-//!   among those roots and joint 1's own limits.
-//! * The ends, each moved 1e-9 rad to either side, are tried nearest the held value first: the
-//!   plan is evaluated again with that value as joint 1's reference, and the first one whose
-//!   candidate is within every limit is taken. At most [`TRIES`] evaluations, in the rare
-//!   path only.
+//! * **joint 1**, when the wrist center is on axis 1 (flag `on_axis_1`);
+//! * **joint 2**, when the wrist center is on axis 2 and joint 3 slides (the pivot of a polar
+//!   arm): joint 2 turns about a line through the wrist center;
+//! * **joint 4**, when the wrist is aligned (joint 5 at either aligned position, flag
+//!   `wrist_aligned`): only θ4 + θ6 (or θ4 − θ6 at the second aligned position) is fixed.
 //!
-//! Only candidates that are on axis 1 and outside the limits are moved, so `solve` costs
-//! nothing more away from axis 1. The interpreter and every emitted module call this one
+//! At the held value another joint can fall outside its limits although a value of the free
+//! joint keeps every joint inside. Choosing that value is a one-dimensional interval problem,
+//! solved here in closed form with fixed bounds (no data-dependent loop), then the plan is
+//! evaluated once more with the chosen value as the reference:
+//!
+//! * **Joint 4 at an aligned wrist**: θ6 = θ6ʰ + σ (θ4 − θ4ʰ) with σ = −1 when axis 6 lines up
+//!   with axis 4 and +1 when it lines up against it, so θ4 must lie in joint 4's arc and in
+//!   joint 6's arc carried over, `θ4ʰ + σ ([lo6, hi6] − θ6ʰ)`. The point of that intersection
+//!   nearest the held value is among the held value and the four arc ends ([`aligned_joint_4`]).
+//! * **Joint 1 or 2 (turning about a line through the wrist center)**: with `m` its model value
+//!   the wrist must make `R456(m) = Qᵀ R_f(m)ᵀ Pᵀ G` (`P`, `Q` the turns of the joints before
+//!   and after it up to joint 3, `G = rot(B⁻¹ T M⁻¹)`). Each wrist joint reaching one of its
+//!   limits is one condition `A + B cos m + C sin m = e` (Rodrigues), with at most two roots
+//!   `m = μ ± acos((e − A) / ρ)`, `ρ = √(B² + C²)`. A root is a real crossing for this
+//!   candidate's wrist branch only when the branch's own θ5 goes with it (the other branch
+//!   reaches the same limit at the other roots), which a sign says ([`Crossing`]). Walking
+//!   around the circle from the held value, each real crossing flips one joint between inside
+//!   and outside its limits, and joint `f`'s own limits flip it: the arcs where everything is
+//!   inside follow in one pass over at most [`ENDS`] sorted ends ([`free_arm_joint`]).
+//!
+//! Only candidates at one of these configurations and outside the limits are looked at, so
+//! `solve` costs nothing more elsewhere. The interpreter and every emitted module call this one
 //! function.
 
 use super::{wrap, Candidate, Settings};
 use crate::fk::joint_motion;
-use crate::math::{abs, atan2, clamp, cos, cross, dot, sin, sqrt, Scalar};
+use crate::math::{
+    abs, add, atan2, clamp, cos, cross, dot, scale, sin, sin_cos, sqrt, sub, Scalar,
+};
 use crate::model::{Joint, JointKind};
 use crate::pose::Pose;
 use crate::solution::JOINTS;
 
-/// Arc ends are moved this far (radians) inside the arcs, so that joint 5 lands within its
-/// limits despite rounding: 1e-9 for `S`, 64 epsilons for `f32` (about 7.6e-6).
+/// Arc ends are moved this far (radians) inside the arcs, so that the joints land within
+/// their limits despite rounding: 1e-9 for `f64`, 64 epsilons for `f32` (about 7.6e-6).
 #[inline(always)]
 fn inside<S: Scalar>() -> S {
     S::of(1e-9).max(S::of(64.0) * S::EPSILON)
@@ -52,36 +67,25 @@ fn model_range<S: Scalar>(joint: &Joint<S>) -> Option<[S; 2]> {
     Some([a.min(b), a.max(b)])
 }
 
-/// True when the model value `m` is within `range` (by whole turns).
-fn within<S: Scalar>(m: S, [lo, hi]: [S; 2], tol: S) -> bool {
-    let v = wrap(m, S::of(0.5) * (lo + hi));
-    v >= lo - tol && v <= hi + tol
+/// True when the model value `m` is within `range` (by whole turns); `None` is every value.
+fn within<S: Scalar>(m: S, range: Option<[S; 2]>, tol: S) -> bool {
+    match range {
+        Some([lo, hi]) => {
+            let v = wrap(m, S::of(0.5) * (lo + hi));
+            v >= lo - tol && v <= hi + tol
+        }
+        None => true,
+    }
 }
 
-/// The interval of `k = h4 · R5(θ5) h6` over joint 5's limits, or `None` when joint 5 turns a
-/// whole turn or more (every `k` the wrist makes is within its limits).
-pub fn joint_5_interval<S: Scalar>(joints: &[Joint<S>; JOINTS]) -> Option<[S; 2]> {
-    let [mlo, mhi] = model_range(&joints[4])?;
-    let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
-    let p = dot(h4, h5) * dot(h6, h5);
-    let q = dot(h4, h6) - p;
-    let r = dot(h4, &cross(h5, h6));
-    let k = |m: S| p + q * cos(m) + r * sin(m);
-    let (rho, mu) = (sqrt(q * q + r * r), atan2(r, q));
-    let mut low = k(mlo).min(k(mhi));
-    let mut high = k(mlo).max(k(mhi));
-    if within(mu, [mlo, mhi], S::ZERO) {
-        high = p + rho;
-    }
-    if within(mu + S::PI, [mlo, mhi], S::ZERO) {
-        low = p - rho;
-    }
-    Some([low, high])
+/// A joint's motion at model value `m`.
+fn turn<S: Scalar>(joint: &Joint<S>, m: S) -> Pose<S> {
+    joint_motion(joint, joint.joint_value(m))
 }
 
-/// The most values of joint 1 tried for one candidate: for each of joints 4, 5 and 6, two
-/// limits, two roots each, one on either side of each root; and joint 1's own two limits.
-pub const TRIES: usize = 3 * 2 * 2 * 2 + 2;
+/// The most ends [`free_arm_joint`] sorts: for each of joints 4, 5 and 6, two limits with two
+/// roots each; and the free joint's own two limits.
+pub const ENDS: usize = 3 * 2 * 2 + 2;
 
 /// `A + B cos m + C sin m = e`: the roots `m = μ ± acos((e − A) / ρ)` (none when out of range).
 fn roots<S: Scalar>([a, b, c]: [S; 3], e: S) -> Option<[S; 2]> {
@@ -98,92 +102,252 @@ fn roots<S: Scalar>([a, b, c]: [S; 3], e: S) -> Option<[S; 2]> {
     Some([mu + alpha, mu - alpha])
 }
 
-/// The coefficients of `x · v(m) = A + B cos m + C sin m`, where `v(m) = (R1(m) R2 R3)ᵀ y` for
-/// a base-frame direction `y`, `u = R2 R3 x` and `h1` axis 1 (Rodrigues):
-/// `A = (u·h1)(y·h1)`, `B = u·y − A`, `C = −h1·(y × u)`.
-fn coefficients<S: Scalar>(h1: &[S; 3], u: &[S; 3], y: &[S; 3]) -> [S; 3] {
-    let a = dot(u, h1) * dot(y, h1);
-    [a, dot(u, y) - a, -dot(h1, &cross(y, u))]
+/// The coefficients of `u · R_f(m)ᵀ y = A + B cos m + C sin m` for a rotation `R_f(m)` about the
+/// unit axis `h` (Rodrigues): `A = (u·h)(y·h)`, `B = u·y − A`, `C = −h·(y × u)`.
+fn coefficients<S: Scalar>(h: &[S; 3], u: &[S; 3], y: &[S; 3]) -> [S; 3] {
+    let a = dot(u, h) * dot(y, h);
+    [a, dot(u, y) - a, -dot(h, &cross(y, u))]
 }
 
-/// The values of joint 1 (model values) at which one of joints 4, 5 and 6 reaches one of its
-/// limits, each moved 1e-9 rad to either side, and joint 1's own limits moved inside: every
-/// end of the arcs on which the wrist fits its limits. Sorted by their distance from `held`;
-/// returns how many there are.
-///
-/// With `R456 = (R1(m) R2 R3)ᵀ G`, `G = rot(B⁻¹ T M⁻¹)`, each limit is one linear condition:
-/// joint 5 at a limit fixes `h4 · R456 h6 = k` (the ends of [`joint_5_interval`]); joint 4
-/// at `L` puts `R456 h6` on the cone about `R4(L) h5` with `R4(L) h5 · R456 h6 = h5 · h6`;
-/// joint 6 at `L` puts `R456ᵀ h4` on the cone about `R6(L)ᵀ h5`, i.e.
-/// `u · R1(m)ᵀ (G R6(L)ᵀ h5) = h4 · h5` with `u = R2 R3 h4`. Each is
-/// `A + B cos m + C sin m = e`, with up to two roots.
-fn joint_1_tries<S: Scalar>(
+/// `A + B cos m + C sin m` at `m`.
+fn value_at<S: Scalar>([a, b, c]: [S; 3], m: S) -> S {
+    let (s, co) = sin_cos(m);
+    a + b * co + c * s
+}
+
+/// The wrist center with every model value at zero (where axes 4 and 5 meet), or `None` when
+/// the axes of joints 4, 5 and 6 do not meet in one point within `tol` metres.
+fn wrist_center<S: Scalar>(joints: &[Joint<S>; JOINTS], tol: S) -> Option<[S; 3]> {
+    let (j4, j5, j6) = (&joints[3], &joints[4], &joints[5]);
+    let c45 = dot(&j4.axis, &j5.axis);
+    let det = S::ONE - c45 * c45;
+    if !det.is_finite() || det <= S::of(1e-6) {
+        return None;
+    }
+    // Closest point of line 4 to line 5: p4 + t h4, t = (p5 − p4)·(h4 − (h4·h5) h5) / (1 − (h4·h5)²).
+    let d = sub(&j5.point, &j4.point);
+    let t = (dot(&d, &j4.axis) - c45 * dot(&d, &j5.axis)) / det;
+    let c = add(&j4.point, &scale(&j4.axis, t));
+    let off = |j: &Joint<S>| {
+        let v = sub(&c, &j.point);
+        let along = dot(&v, &j.axis);
+        dot(&v, &v) - along * along
+    };
+    let tol2 = tol * tol;
+    (off(j5) <= tol2 && off(j6) <= tol2).then_some(c)
+}
+
+/// True when joint 3 slides and the candidate's slide puts the wrist center on axis 2 (the
+/// pivot of a polar arm), within `tol` metres.
+fn at_pivot<S: Scalar>(joints: &[Joint<S>; JOINTS], c: &Candidate<S>, tol: S) -> bool {
+    let (j2, j3) = (&joints[1], &joints[2]);
+    if j2.kind != JointKind::Revolute || j3.kind != JointKind::Prismatic {
+        return false;
+    }
+    let Some(center) = wrist_center(joints, tol) else {
+        return false;
+    };
+    let p = turn(j3, c.model_values[2]).transform_point(&center);
+    let v = sub(&p, &j2.point);
+    let along = dot(&v, &j2.axis);
+    dot(&v, &v) - along * along <= tol * tol
+}
+
+/// The nearest model value to `held` within both arcs (`None` is the whole circle): the
+/// nearest of `held` and the four arc ends moved inside that lies in both.
+fn nearest_in_both<S: Scalar>(held: S, a: Option<[S; 2]>, b: Option<[S; 2]>) -> Option<S> {
+    let ends = |r: Option<[S; 2]>| r.map_or([S::NAN; 2], |[lo, hi]| [lo + inside(), hi - inside()]);
+    let [a0, a1] = ends(a);
+    let [b0, b1] = ends(b);
+    let mut best: Option<(S, S)> = None;
+    for m in [held, a0, a1, b0, b1] {
+        if !m.is_finite() || !within(m, a, S::ZERO) || !within(m, b, S::ZERO) {
+            continue;
+        }
+        let distance = abs(wrap(m - held, S::ZERO));
+        if best.map_or(true, |(d, _)| distance < d) {
+            best = Some((distance, m));
+        }
+    }
+    best.map(|(_, m)| m)
+}
+
+/// Joint 4 of a candidate at an aligned wrist, moved so that joints 4 and 6 both fit their
+/// limits (see the module documentation), or `None` when they already do or cannot.
+pub fn aligned_joint_4<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    c: &Candidate<S>,
+    tol: S,
+) -> Option<S> {
+    let m = &c.model_values;
+    let (r4, r6) = (model_range(&joints[3]), model_range(&joints[5]));
+    if within(m[3], r4, tol) && within(m[5], r6, tol) {
+        return None;
+    }
+    // σ = −1 when R5 h6 = h4 (θ4 + θ6 fixed), +1 when R5 h6 = −h4 (θ4 − θ6 fixed).
+    let z = turn(&joints[4], m[4]).rotate(&joints[5].axis);
+    let sigma = if dot(&joints[3].axis, &z) > S::ZERO {
+        -S::ONE
+    } else {
+        S::ONE
+    };
+    let carried = r6.map(|[lo, hi]| {
+        let (a, b) = (m[3] + sigma * (lo - m[5]), m[3] + sigma * (hi - m[5]));
+        [a.min(b), a.max(b)]
+    });
+    nearest_in_both(m[3], r4, carried)
+}
+
+/// The bits of [`free_arm_joint`]'s state: which joint is outside its limits.
+const FREE_BIT: u8 = 1;
+const BITS: [u8; 3] = [2, 4, 8];
+
+/// Joint `f` (0 or 1, turning about a line through the wrist center) of a candidate, moved to
+/// the value nearest its held one at which joints 4, 5, 6 and `f` itself fit their limits (see
+/// the module documentation), or `None` when they already do, none does, or the wrist is
+/// aligned (no wrist branch to follow).
+pub fn free_arm_joint<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
     to_base: &impl Fn(&[S; 3]) -> [S; 3],
-    m2: S,
-    m3: S,
-    held: S,
-) -> ([S; TRIES], usize) {
-    let e2 = joint_motion(&joints[1], joints[1].joint_value(m2));
-    let e3 = joint_motion(&joints[2], joints[2].joint_value(m3));
-    let forward = |x: &[S; 3]| e2.rotate(&e3.rotate(x));
-    let h1 = &joints[0].axis;
+    c: &Candidate<S>,
+    f: usize,
+    tol: S,
+) -> Option<S> {
+    let m = &c.model_values;
+    let joint_f = joints.get(f)?;
+    let held = *m.get(f)?;
     let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
-    let u4 = forward(h4);
-    let g6 = to_base(h6);
-    let mut tries = [S::NAN; TRIES];
-    let mut n = 0;
-    let mut push = |m: S, tries: &mut [S; TRIES]| {
-        if let Some(slot) = tries.get_mut(n) {
-            *slot = m;
-            n += 1;
+    let ranges = [3, 4, 5].map(|j| model_range(&joints[j]));
+    let range_f = model_range(joint_f);
+    // Outside bits at the held value.
+    let mut start = if within(held, range_f, tol) {
+        0
+    } else {
+        FREE_BIT
+    };
+    for ((bit, range), value) in BITS.iter().zip(ranges).zip([m[3], m[4], m[5]]) {
+        if !within(value, range, tol) {
+            start |= bit;
+        }
+    }
+    if start == 0 {
+        return None;
+    }
+    // The wrist branch: the side of the plane of h4 and h5 that z = R5 h6 is on.
+    let n = cross(h4, h5);
+    let n6 = cross(h5, h6);
+    let side = dot(&n, &turn(&joints[4], m[4]).rotate(h6));
+    if !side.is_finite() || abs(side) <= S::of(1e-9).max(S::of(64.0) * S::EPSILON) {
+        return None;
+    }
+    let ours = side > S::ZERO;
+    // Q x (turns after joint f up to joint 3) and Pᵀ G y (turns before it, undone).
+    let (e1, e2, e3) = (
+        turn(&joints[0], m[0]),
+        turn(&joints[1], m[1]),
+        turn(&joints[2], m[2]),
+    );
+    let q = |x: &[S; 3]| {
+        let x = e3.rotate(x);
+        if f == 0 {
+            e2.rotate(&x)
+        } else {
+            x
         }
     };
-    let mut both_sides = |r: Option<[S; 2]>, tries: &mut [S; TRIES]| {
-        for m in r.into_iter().flatten() {
-            push(m + inside(), tries);
-            push(m - inside(), tries);
+    let pg = |y: &[S; 3]| {
+        let g = to_base(y);
+        if f == 0 {
+            g
+        } else {
+            e1.rotate_back(&g)
         }
     };
-    if let Some([k_lo, k_hi]) = joint_5_interval(joints) {
-        let k = coefficients(h1, &u4, &g6);
-        both_sides(roots(k, k_lo), &mut tries);
-        both_sides(roots(k, k_hi), &mut tries);
-    }
-    if let Some(range) = model_range(&joints[3]) {
-        for limit in range {
-            let axis = joint_motion(&joints[3], joints[3].joint_value(limit)).rotate(h5);
-            let k = coefficients(h1, &forward(&axis), &g6);
-            both_sides(roots(k, dot(h5, h6)), &mut tries);
+    let hf = &joint_f.axis;
+    let (u4, y6) = (q(h4), pg(h6));
+    // Every end: (distance counterclockwise from `held` in [0, 2π], bit); unused ends at ∞.
+    let mut ends = [(S::of(f64::INFINITY), 0u8); ENDS];
+    let mut n_ends = 0;
+    let mut push = |root: S, bit: u8| {
+        if let Some(slot) = ends.get_mut(n_ends) {
+            *slot = (wrap(root - held, S::PI), bit);
+            n_ends += 1;
         }
-    }
-    if let Some(range) = model_range(&joints[5]) {
+    };
+    // Joint 5 at a limit L: h4 · R456 h6 = h4 · R5(L) h6, real for the limit on our side.
+    if let Some(range) = ranges[1] {
+        let k = coefficients(hf, &u4, &y6);
         for limit in range {
-            let axis = joint_motion(&joints[5], joints[5].joint_value(limit)).rotate_back(h5);
-            let k = coefficients(h1, &u4, &to_base(&axis));
-            both_sides(roots(k, dot(h4, h5)), &mut tries);
-        }
-    }
-    if let Some([lo, hi]) = model_range(&joints[0]) {
-        push(lo + inside(), &mut tries);
-        push(hi - inside(), &mut tries);
-    }
-    // Nearest `held` first: a bubble sort over all TRIES slots with fixed loop bounds (no
-    // data-dependent loop, every index provably in range, so no panic path). Unused slots
-    // are NaN at the end; a comparison with NaN is false, so they never move forward.
-    let mut distance = [S::NAN; TRIES];
-    for (d, m) in distance.iter_mut().zip(tries.iter()) {
-        *d = abs(wrap(*m - held, S::ZERO));
-    }
-    for pass in 0..TRIES {
-        for j in (pass + 1..TRIES).rev() {
-            if distance[j] < distance[j - 1] {
-                distance.swap(j, j - 1);
-                tries.swap(j, j - 1);
+            let z = turn(&joints[4], limit).rotate(h6);
+            if (dot(&n, &z) > S::ZERO) == ours {
+                for root in roots(k, dot(h4, &z)).into_iter().flatten() {
+                    push(root, BITS[1]);
+                }
             }
         }
     }
-    (tries, n)
+    // Joint 4 at L: R4(L) h5 · R456 h6 = h5 · h6; ours when n · R4(L)ᵀ R456 h6 has our sign.
+    if let Some(range) = ranges[0] {
+        for limit in range {
+            let t4 = turn(&joints[3], limit);
+            let k = coefficients(hf, &q(&t4.rotate(h5)), &y6);
+            let test = coefficients(hf, &q(&t4.rotate(&n)), &y6);
+            for root in roots(k, dot(h5, h6)).into_iter().flatten() {
+                if (value_at(test, root) > S::ZERO) == ours {
+                    push(root, BITS[0]);
+                }
+            }
+        }
+    }
+    // Joint 6 at L: h4 · R456 R6(L)ᵀ h5 = h4 · h5; ours when (h5 × h6) · R6(L) R456ᵀ h4 has
+    // our sign (n · R5 h6 = (h5 × h6) · R5ᵀ h4).
+    if let Some(range) = ranges[2] {
+        for limit in range {
+            let t6 = turn(&joints[5], limit);
+            let k = coefficients(hf, &u4, &pg(&t6.rotate_back(h5)));
+            let test = coefficients(hf, &u4, &pg(&t6.rotate_back(&n6)));
+            for root in roots(k, dot(h4, h5)).into_iter().flatten() {
+                if (value_at(test, root) > S::ZERO) == ours {
+                    push(root, BITS[2]);
+                }
+            }
+        }
+    }
+    if let Some([lo, hi]) = range_f {
+        push(lo, FREE_BIT);
+        push(hi, FREE_BIT);
+    }
+    // Sorted counterclockwise: a bubble sort with fixed loop bounds (no data-dependent loop,
+    // every index provably in range, so no panic path); the unused ends (∞) stay last.
+    for pass in 0..ENDS {
+        for j in (pass + 1..ENDS).rev() {
+            if ends[j].0 < ends[j - 1].0 {
+                ends.swap(j, j - 1);
+            }
+        }
+    }
+    // Walk around the circle: past each end one joint flips between inside and outside. The
+    // stretch after end i reaches to end i + 1 (or back to `held`, 2π on); where nothing is
+    // outside, its nearer end (moved inside) is a candidate value.
+    let mut state = start;
+    let mut best: Option<(S, S)> = None;
+    for (i, &(d, bit)) in ends.iter().enumerate() {
+        state ^= bit;
+        let next = ends.get(i + 1).map_or(S::TAU, |e| e.0.min(S::TAU));
+        if state != 0 || !d.is_finite() {
+            continue;
+        }
+        let (a, b) = (d + inside(), next - inside());
+        if a > b {
+            continue;
+        }
+        for (offset, distance) in [(a, a), (b, S::TAU - b)] {
+            if best.map_or(true, |(bd, _)| distance < bd) {
+                best = Some((distance, offset));
+            }
+        }
+    }
+    best.map(|(_, offset)| held + offset)
 }
 
 /// True when a candidate passes its checks but some joint is outside its limits.
@@ -195,12 +359,32 @@ fn outside_limits<S: Scalar>(
     super::finish_one(joints, settings, c, &super::centers(joints)).is_err()
 }
 
-/// Moves joint 1 of every candidate that is on axis 1 and outside the limits to the value
-/// nearest its held one for which joint 5 fits its limits (see the module documentation).
-/// `rerun(reference, i)` evaluates the plan again with other reference inputs and returns
-/// candidate `i`; `reference` is the one `candidates` were evaluated with.
+/// Which joint (0-based) a candidate leaves free: 3 at an aligned wrist, 0 with the wrist
+/// center on axis 1, 1 at the pivot of a polar arm; `None` elsewhere.
+fn free_joint_of<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    c: &Candidate<S>,
+) -> Option<usize> {
+    if c.wrist_aligned {
+        return Some(3);
+    }
+    if c.on_axis_1 {
+        return (joints[0].kind == JointKind::Revolute).then_some(0);
+    }
+    at_pivot(joints, c, S::of(4.0) * settings.length_tolerance).then_some(1)
+}
+
+/// Moves the free joint of every candidate that is at a singular configuration and outside
+/// the limits (joint 1 on axis 1, joint 2 at a polar arm's pivot, joint 4 at an aligned wrist)
+/// to the value nearest its held one at which every joint fits its limits (see the module
+/// documentation). `rerun(reference, i)` evaluates the plan again with other reference inputs
+/// and returns candidate `i`; `reference` is the one `candidates` were evaluated with. The
+/// moved candidate is kept only when it is at the same singular configuration and within
+/// every limit.
 ///
-/// A rare path: it does nothing unless a candidate is on axis 1 and outside the limits.
+/// A rare path: it does nothing unless a candidate is singular and outside the limits; then
+/// one closed form and one evaluation of the plan per such candidate.
 #[inline(never)]
 pub fn free_joint_1<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
@@ -211,35 +395,46 @@ pub fn free_joint_1<S: Scalar>(
     candidates: &mut [Candidate<S>],
     mut rerun: impl FnMut(&[S; 4], usize) -> Option<Candidate<S>>,
 ) {
-    if joints[0].kind != JointKind::Revolute {
-        return;
-    }
     let [base, tool] = frames;
     // rot(B⁻¹ T M⁻¹): where the target sends a direction of the arm at zero, base frame.
     let to_base = |x: &[S; 3]| base.rotate_back(&target.rotate(&tool.rotate_back(x)));
-    let held_reference = atan2(reference[1], reference[0]);
+    let tol = settings.limit_tolerance;
     for (i, c) in candidates.iter_mut().enumerate() {
-        if !c.on_axis_1 || !outside_limits(joints, settings, c) {
+        let Some(f) = free_joint_of(joints, settings, c) else {
+            continue;
+        };
+        if !outside_limits(joints, settings, c)
+            || wrist_center(joints, S::of(4.0) * settings.length_tolerance).is_none()
+        {
             continue;
         }
-        let held = c.model_values[0];
-        let (tries, n) =
-            joint_1_tries(joints, &to_base, c.model_values[1], c.model_values[2], held);
-        for &m1 in tries.iter().take(n) {
-            if !model_range(&joints[0]).map_or(true, |r| within(m1, r, S::ZERO)) {
-                continue;
-            }
-            // The candidate's joint 1 is the reference or a fixed turn from it (half a turn
-            // for the other shoulder solution): keep that turn.
-            let angle = m1 - (held - held_reference);
-            let mut moved = *reference;
+        let chosen = if f == 3 {
+            aligned_joint_4(joints, c, tol)
+        } else {
+            free_arm_joint(joints, &to_base, c, f, tol)
+        };
+        let (Some(value), Some(&held)) = (chosen, c.model_values.get(f)) else {
+            continue;
+        };
+        // The reference slots of the free joint: joint 4's are 2 and 3, joints 1 and 2 share
+        // 0 and 1 (a polar arm holds joint 2 at its pivot relative to joint 1's reference).
+        // The candidate's value is the reference or a fixed turn from it (half a turn for
+        // another branch): keep that turn.
+        let [c1, s1, c4, s4] = *reference;
+        let mut moved = *reference;
+        if f == 3 {
+            let angle = value - (held - atan2(s4, c4));
+            moved[2] = cos(angle);
+            moved[3] = sin(angle);
+        } else {
+            let angle = value - (held - atan2(s1, c1));
             moved[0] = cos(angle);
             moved[1] = sin(angle);
-            if let Some(again) = rerun(&moved, i) {
-                if again.on_axis_1 && !outside_limits(joints, settings, &again) {
-                    *c = again;
-                    break;
-                }
+        }
+        if let Some(again) = rerun(&moved, i) {
+            let same = again.wrist_aligned == c.wrist_aligned && again.on_axis_1 == c.on_axis_1;
+            if same && !outside_limits(joints, settings, &again) {
+                *c = again;
             }
         }
     }
@@ -249,72 +444,37 @@ pub fn free_joint_1<S: Scalar>(
 mod tests {
     use super::*;
 
-    fn revolute(axis: [f64; 3], limits_deg: [f64; 2]) -> Joint {
-        Joint {
-            kind: JointKind::Revolute,
-            axis,
-            point: [0.0; 3],
-            direction: 1.0,
-            offset: 0.0,
-            limits: limits_deg.map(f64::to_radians),
-        }
-    }
-
-    fn wrist(limits_5: [f64; 2]) -> [Joint; JOINTS] {
-        // A wrist with axes 4 and 6 along z and axis 5 along y at zero: turning joint 5 by θ
-        // turns z into z cos θ + x sin θ, so h4 · R5 h6 = cos θ (Rodrigues' formula).
-        let z = [0.0, 0.0, 1.0];
-        [
-            revolute(z, [-180.0, 180.0]),
-            revolute([0.0, 1.0, 0.0], [-180.0, 180.0]),
-            revolute([0.0, 1.0, 0.0], [-180.0, 180.0]),
-            revolute(z, [-180.0, 180.0]),
-            revolute([0.0, 1.0, 0.0], limits_5),
-            revolute(z, [-180.0, 180.0]),
-        ]
+    #[test]
+    fn nearest_in_both_arcs_is_an_end_or_the_held_value() {
+        let deg = |x: f64| x.to_radians();
+        let arc = |a: f64, b: f64| Some([deg(a), deg(b)]);
+        // [30°, 150°] ∩ [45°, 225°] = [45°, 150°]: nearest 0° is 45° (moved inside).
+        let m = nearest_in_both(0.0, arc(30.0, 150.0), arc(45.0, 225.0)).unwrap_or(f64::NAN);
+        assert!((m - deg(45.0) - inside::<f64>()).abs() < 1e-15, "{m}");
+        // Held inside both: stays.
+        assert_eq!(nearest_in_both(1.0, arc(30.0, 150.0), None), Some(1.0));
+        // Across the wrap: [170°, 200°] ∩ [−175°, 10°] = [185°, 200°], nearest 0° is 200°
+        // (−160°, 160° away) rather than 185° (175° away).
+        let m = nearest_in_both(0.0, arc(170.0, 200.0), arc(-175.0, 10.0)).unwrap_or(f64::NAN);
+        assert!(
+            (wrap(m, 0.0) - deg(-160.0) + inside::<f64>()).abs() < 1e-12,
+            "{m}"
+        );
+        // Disjoint arcs: nothing.
+        assert_eq!(nearest_in_both(0.0, arc(10.0, 20.0), arc(30.0, 40.0)), None);
     }
 
     #[test]
-    fn joint_5_interval_is_the_range_of_the_cosine() {
-        let close =
-            |a: [f64; 2], b: [f64; 2]| (a[0] - b[0]).abs() < 1e-12 && (a[1] - b[1]).abs() < 1e-12;
-        // ±120°: cos covers [cos 120°, 1] = [−0.5, 1] (the maximum at 0 is inside).
-        let k = joint_5_interval(&wrist([-120.0, 120.0])).unwrap_or([f64::NAN; 2]);
-        assert!(close(k, [-0.5, 1.0]), "{k:?}");
-        // 30° to 60°: cos is monotone there, [cos 60°, cos 30°].
-        let k = joint_5_interval(&wrist([30.0, 60.0])).unwrap_or([f64::NAN; 2]);
-        assert!(close(k, [0.5, 0.75_f64.sqrt()]), "{k:?}");
-        // 150° to 200°: the minimum −1 at 180° is inside.
-        let k = joint_5_interval(&wrist([150.0, 200.0])).unwrap_or([f64::NAN; 2]);
-        assert!(close(k, [-1.0, -(0.75_f64.sqrt())]), "{k:?}");
-        // A whole turn: joint 5 reaches every k.
-        assert!(joint_5_interval(&wrist([-180.0, 180.0])).is_none());
-    }
-
-    #[test]
-    fn the_ends_where_joint_5_reaches_a_limit_are_tried_nearest_first() {
-        // Axis 1 along z; joint 2 (about y) at 90° turns axis 4 (z) into x, so
-        // h4 · v(m) = x · R1(m)ᵀ g = cos(m − μ) for a horizontal g at angle μ (joint 6 and
-        // joint 4 turn whole turns: no conditions from them). With μ = 170° and joint 5 within
-        // ±120° (k ≥ cos 120° = −0.5), the ends are m = 170° ± 120°: 50° and 290°, each 1e-9
-        // rad to either side; nearest the held 0 first: 50° and the wrapped 290° = −70°.
-        let joints = wrist([-120.0, 120.0]);
-        let mu = 170_f64.to_radians();
-        let g = [mu.cos(), mu.sin(), 0.0];
-        let to_base = |x: &[f64; 3]| {
-            // The target sends h6 (z) to g; only h6 matters for joint 5.
-            if x[2] > 0.5 {
-                g
-            } else {
-                *x
-            }
-        };
-        let (tries, n) = joint_1_tries(&joints, &to_base, core::f64::consts::FRAC_PI_2, 0.0, 0.0);
-        assert_eq!(n, 4, "{tries:?}");
-        let deg = |m: f64| wrap(m, 0.0).to_degrees();
-        assert!((deg(tries[0]) - 50.0).abs() < 1e-6, "{}", deg(tries[0]));
-        assert!((deg(tries[1]) - 50.0).abs() < 1e-6, "{}", deg(tries[1]));
-        assert!((deg(tries[2]) + 70.0).abs() < 1e-6, "{}", deg(tries[2]));
-        assert!((wrap(tries[0] - tries[1], 0.0).abs() - 2.0 * inside::<f64>()).abs() < 1e-12);
+    fn roots_of_a_cosine_condition() {
+        // cos m = 0.5 (A = 0, B = 1, C = 0): m = ±60° (any trigonometry table).
+        let r = roots([0.0, 1.0, 0.0], 0.5).unwrap_or([f64::NAN; 2]);
+        assert!(
+            (r[0].to_degrees() - 60.0).abs() < 1e-12 && (r[1].to_degrees() + 60.0).abs() < 1e-12
+        );
+        // 2 + cos m = 0 has no root.
+        assert!(roots([2.0, 1.0, 0.0], 0.0).is_none());
+        // Rodrigues: u · R(m)ᵀ y about z with u = x, y = x is cos m.
+        let k = coefficients(&[0.0, 0.0, 1.0], &[1.0, 0.0, 0.0], &[1.0, 0.0, 0.0]);
+        assert!((value_at(k, 0.3) - 0.3f64.cos()).abs() < 1e-15);
     }
 }

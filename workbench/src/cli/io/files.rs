@@ -11,12 +11,11 @@ use std::fs::File;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 
-use armforge_compiler::classify::{Geometry, Tolerances};
+use armforge_compiler::classify::{classify, Geometry, Tolerances};
 use armforge_compiler::description;
+use armforge_compiler::diagnostics::Warnings;
 use armforge_compiler::model::Model;
-use armforge_compiler::pipeline::{
-    display_path, load_and_classify, read_description, PipelineError,
-};
+use armforge_compiler::pipeline::{display_path, read_description, PipelineError};
 
 use super::exit;
 use super::terminal::{fail, out, say, Stopped};
@@ -38,16 +37,27 @@ pub fn shown(path: &Path) -> String {
 pub fn load(path: &Path) -> Result<Loaded, Stopped> {
     let shown = shown(path);
     let text = read_description(path, &shown).map_err(|e| report(&e))?;
-    let model =
-        description::load_str(&text, &shown).map_err(|d| report(&PipelineError::Description(d)))?;
+    let (model, warnings) = description::load_str_with_warnings(&text, &shown)
+        .map_err(|d| report(&PipelineError::Description(d)))?;
+    warn(&warnings);
     // (`pipeline::load_model` is the same without the text, which `inspect` quotes.)
     Ok(Loaded { text, model })
 }
 
 /// Loads and classifies the arm at `path` with the default tolerances; on failure says why and
-/// gives the exit code.
+/// gives the exit code. Warnings about the description go to stderr.
 pub fn load_classified(path: &Path) -> Result<(Model, Geometry), Stopped> {
-    load_and_classify(path, &shown(path), &Tolerances::default()).map_err(|e| report_at(&e, path))
+    let Loaded { model, .. } = load(path)?;
+    let geometry = classify(&model, &Tolerances::default())
+        .map_err(|r| report_at(&PipelineError::Rejected(Box::new(r)), path))?;
+    Ok((model, geometry))
+}
+
+/// Shows the description's warnings on stderr (nothing when there are none).
+pub fn warn(warnings: &Warnings) {
+    if !warnings.is_empty() {
+        say(&warnings.to_string());
+    }
 }
 
 /// [`report`] for the description at `path`: a rejection also shows the offending line of the
