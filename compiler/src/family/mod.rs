@@ -20,6 +20,7 @@ pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
 pub mod elbow;
+pub mod general;
 pub mod polar;
 pub mod three_parallel;
 
@@ -45,6 +46,8 @@ pub enum Family {
     Cylindrical,
     /// P P P with independent slides, spherical wrist.
     Cartesian,
+    /// R R R of no named family (axis 2 ∦ axis 3), spherical wrist: a quartic.
+    General,
     /// Six revolute joints, axes 2–4 parallel, axes 5 and 6 meeting.
     ThreeParallel,
 }
@@ -82,6 +85,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &polar::POLAR,
     &cylindrical::CYLINDRICAL,
     &cartesian::CARTESIAN,
+    &general::GENERAL,
     &three_parallel::THREE_PARALLEL,
 ];
 

@@ -20,12 +20,13 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
             Some(item) => {
                 let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
             }
-            None => {
+            None if solvable.pattern == "P P P" => {
                 let _ = writeln!(
                     out,
                     "- the wrist center moves in the box the three slides span (their limits in §1)"
                 );
             }
+            None => {}
         }
     }
     match &geometry.arm {
@@ -56,6 +57,14 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
                 "- the slide's two roots merge where `ρ² = |W⊥D|²` (`|D|²` = {}); nearer axis 1 \
                  than `|W⊥D|` the target is out of reach",
                 s.num(num::dot(&k.d, &k.d))
+            );
+        }
+        ArmEvidence::Cartesian(_) => {}
+        ArmEvidence::General(_) => {
+            let _ = writeln!(
+                out,
+                "- the reach of a general arm has no simple closed form: where two roots of the \
+                 quartic merge, two solutions meet (the position Jacobian is singular there)"
             );
         }
         _ => {}

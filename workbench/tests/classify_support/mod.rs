@@ -264,6 +264,13 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("angle_5_6", e.angle_5_6);
             put("stretched", joint_value(model, 2, e.stretched_at));
         }
+        ArmEvidence::General(e) => {
+            put("common_normal_1_2", e.common_normal_1_2);
+            put("angle_1_2", e.angle_1_2);
+            put("common_normal_2_3", e.common_normal_2_3);
+            put("angle_2_3", e.angle_2_3);
+            put("wrist_center_from_axis_3", e.wrist_center_from_axis_3);
+        }
     }
     for s in &g.singularities {
         match s {
