@@ -90,3 +90,25 @@ fn elbow_arms_through_the_general_path_agree_with_their_own_plan() {
     eprintln!("elbow arms through the general path: {compared} of {poses} poses compared");
     assert!(compared > poses / 2);
 }
+
+#[test]
+fn the_reagent_rack_reacher_reaches_four_positions() {
+    // An invented arm of our lab (tests/fixtures/general/): axes 2 and 3 make 25°.
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("../tests/fixtures/general/reagent-rack-reacher-axes.toml");
+    let model = armforge_compiler::pipeline::load_model(&path, "reagent-rack-reacher")
+        .unwrap_or_else(|e| panic!("{e}"));
+    let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));
+    assert_eq!(solver.plan().arm.family, Family::General);
+    let mut rng = SampleRng::new(17);
+    let (mut eight, poses) = (0, sample_count(300));
+    for _ in 0..poses {
+        let q = sample_configuration(&model, &mut rng);
+        if check_round_trip(&solver, &model, &q, 8, "reagent-rack-reacher") == 8 {
+            eight += 1;
+        }
+    }
+    eprintln!("reagent-rack-reacher: {eight} of {poses} poses with 8 solutions");
+    // Pieper 1968: up to 4 positions; this arm reaches them.
+    assert!(eight > 0);
+}

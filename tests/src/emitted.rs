@@ -100,6 +100,13 @@ emitted_arms! {
 }
 
 emitted_arms! {
+    /// The invented arms of the general family (a quartic for joints 1–3) that are test
+    /// fixtures, not yet example arms.
+    GENERAL_ARMS: f64;
+    reagent_rack_reacher = "fixtures/general/reagent-rack-reacher-axes.toml";
+}
+
+emitted_arms! {
     /// Every example arm's emitted solver in single precision (`scalar = f32`), in file-name
     /// order.
     EMITTED_ARMS_F32: f32;

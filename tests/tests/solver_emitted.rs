@@ -33,6 +33,7 @@ emitted!(elbow_two_turns, "generated/elbow_two_turns.rs");
 emitted!(polar, "generated/polar.rs");
 emitted!(cylindrical, "generated/cylindrical.rs");
 emitted!(cartesian, "generated/cartesian.rs");
+emitted!(general, "generated/general.rs");
 emitted!(three_parallel_layout, "generated/three_parallel_layout.rs");
 emitted!(
     three_parallel_general,
@@ -130,6 +131,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(polar), "polar"),
         compare(api!(cylindrical), "cylindrical"),
         compare(api!(cartesian), "cartesian"),
+        compare(api!(general), "general"),
         compare(api!(three_parallel_layout), "three_parallel_layout"),
         compare(api!(three_parallel_general), "three_parallel_general"),
     ];

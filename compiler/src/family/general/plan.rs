@@ -339,7 +339,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec
             )
         })
         .collect();
-    route(g, k, &carried, on_axis, tol)
+    route(g, k, &carried, on_axis, (tol, arm.scale))
 }
 
 /// The wrist center with joint 1 undone for joint pairs `(c2, s2)`, `(c3, s3)`:
@@ -624,12 +624,18 @@ fn smallest(g: &mut Graph, bundles: &[Bundle], ranks: &[Id], checks: &[Id]) -> (
 
 /// Routes each root to the slot of its label: slot `(shoulder, elbow)` takes, among the
 /// roots with that label, a real one (residual within `tol`) before a complex one, and among
-/// those the one farthest from the shoulder plane (a rank that rounding cannot swap, so that
-/// solving again at the same pose routes alike). A slot that no root belongs to then takes
+/// those the one farthest from the shoulder plane, ties broken by `θ3` (a rank that rounding
+/// cannot swap, so that solving again at the same pose routes alike). A slot that no root belongs to then takes
 /// the best root no slot took (two real roots with one label: the second would otherwise be
 /// lost; it keeps its joint values under this slot's label), else fails its check
 /// ([`MISMATCH`] added to its residual).
-fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) -> Vec<ArmSolution> {
+fn route(
+    g: &mut Graph,
+    k: &Constants,
+    roots: &[Root],
+    on_axis: Id,
+    (tol, scale): (f64, f64),
+) -> Vec<ArmSolution> {
     let big = g.exact(MISMATCH);
     let zero = g.constant(0.0);
     let one = g.constant(1.0);
@@ -639,10 +645,11 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) ->
         (Shoulder::Across, Elbow::Up),
         (Shoulder::Across, Elbow::Down),
     ];
-    // A root that lands on an earlier one (joints 2 and 3 within about 1e-7 rad: a double
-    // root, or a complex pair's real part polished onto a real root) is that root again: it
-    // fails its check.
-    let near = g.exact(1e-14);
+    // A root that lands on an earlier real one (joints 2 and 3 within about 1e-5 rad: a
+    // double root, or a complex pair's real part polished onto a real root) is that root
+    // again: it fails its check.
+    let near = g.exact(1e-10);
+    let tol2 = g.exact(tol * tol);
     let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
     for j in 1..roots.len() {
         for i in 0..j {
@@ -655,6 +662,9 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) ->
                 d = g.add(d, dd);
             }
             let same = g.sub(near, d);
+            // Only a real earlier root makes this one a copy.
+            let real = g.sub(tol2, roots[i].residual);
+            let same = g.min(same, real);
             let penalty = g.select(same, big, zero);
             residuals[j] = g.add(residuals[j], penalty);
         }
@@ -674,6 +684,7 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) ->
     // Rank: unreal roots last, then nearest the shoulder plane last.
     let unreal = g.exact(MISMATCH * 1e-10);
     let floor = g.exact(tol * tol);
+    let tie_weight = g.exact(1e-6 * scale);
     let base_rank: Vec<Id> = roots
         .iter()
         .zip(&residuals)
@@ -681,6 +692,9 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) ->
             let over = g.sub(residual, floor);
             let u = g.select(over, unreal, zero);
             let side = g.abs(r.facing);
+            // θ3 breaks ties (symmetric arms put two roots equally far from the plane).
+            let tie = g.mul(tie_weight, r.angles[2]);
+            let u = g.add(u, tie);
             g.sub(u, side)
         })
         .collect();
@@ -725,7 +739,7 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) ->
         let h = g.sub(half_big, *score);
         for (slot, &which) in taken.iter_mut().zip(&b.which) {
             let t = g.select(h, which, zero);
-            *slot = g.max(*slot, t);
+            *slot = g.add(*slot, t);
         }
         has.push(h);
     }
@@ -760,7 +774,7 @@ fn route(g: &mut Graph, k: &Constants, roots: &[Root], on_axis: Id, tol: f64) ->
         let empty = g.neg(has[s]);
         for (slot, &which) in taken.iter_mut().zip(&spare.which) {
             let t = g.select(empty, which, zero);
-            *slot = g.max(*slot, t);
+            *slot = g.add(*slot, t);
         }
         let score = g.name(
             score,
