@@ -96,6 +96,7 @@ emitted_arms! {
     hotel_loader = "../arms/hotel-loader-axes.toml";
     lid_lifter = "../arms/lid-lifter-axes.toml";
     rack_loader = "../arms/rack-loader-mdh.toml";
+    shelf_reacher = "../arms/shelf-reacher-axes.toml";
     tray_gantry = "../arms/tray-gantry-axes.toml";
 }
 
@@ -116,6 +117,7 @@ emitted_arms! {
     hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
     lid_lifter_f32 = "../arms/lid-lifter-axes.toml";
     rack_loader_f32 = "../arms/rack-loader-mdh.toml";
+    shelf_reacher_f32 = "../arms/shelf-reacher-axes.toml";
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
 }
 

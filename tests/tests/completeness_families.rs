@@ -187,6 +187,15 @@ fn check_family(family: Family) -> (usize, usize) {
 }
 
 #[test]
+fn wrist_at_base_arms_miss_no_numerical_solution() {
+    let (found, listed) = check_family(Family::BaseWrist);
+    println!(
+        "wrist at the base: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
 fn three_parallel_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::ThreeParallel);
     println!("three-parallel: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}");

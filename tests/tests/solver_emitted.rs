@@ -39,6 +39,8 @@ emitted!(
     three_parallel_general,
     "generated/three_parallel_general.rs"
 );
+emitted!(base_wrist_elbow, "generated/base_wrist_elbow.rs");
+emitted!(base_wrist_polar, "generated/base_wrist_polar.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -134,6 +136,8 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(general), "general"),
         compare(api!(three_parallel_layout), "three_parallel_layout"),
         compare(api!(three_parallel_general), "three_parallel_general"),
+        compare(api!(base_wrist_elbow), "base_wrist_elbow"),
+        compare(api!(base_wrist_polar), "base_wrist_polar"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
     assert_eq!(

@@ -335,14 +335,14 @@ fn family_items(u: &Units, g: &Geometry) -> Vec<Item> {
 /// One family evidence item in the file's units.
 fn judged_item(u: &Units, j: &Judged) -> Item {
     match j.value {
-        FamilyValue::Flag(yes) => flag_item(j.key, j.label, yes),
-        FamilyValue::Length(m) => length_item(u, j.key, j.label, m),
-        FamilyValue::Angle(a) => angle_item(u, j.key, j.label, a),
-        FamilyValue::Direction(d) => direction_item(j.key, j.label, &d),
-        FamilyValue::Point(p) => point_item(u, j.key, j.label, &p),
+        FamilyValue::Flag(yes) => flag_item(j.key, &j.label, yes),
+        FamilyValue::Length(m) => length_item(u, j.key, &j.label, m),
+        FamilyValue::Angle(a) => angle_item(u, j.key, &j.label, a),
+        FamilyValue::Direction(d) => direction_item(j.key, &j.label, &d),
+        FamilyValue::Point(p) => point_item(u, j.key, &j.label, &p),
         FamilyValue::Number(x) => Item {
             key: j.key,
-            label: j.label.to_string(),
+            label: j.label.clone(),
             value: number(x),
             shown: tidy(x),
         },

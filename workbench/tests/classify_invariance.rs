@@ -85,7 +85,6 @@ fn rejections_do_not_move_either() {
             arms::three_parallel_skew(),
         ),
         ("degenerate wrist", arms::degenerate_wrist()),
-        ("first three meet", arms::first_three_meet()),
         ("tilted axis 3", arms::tilted_axis_3(0.2)),
         ("general 6R", arms::general_six_revolute()),
     ];

@@ -85,10 +85,18 @@ fn degenerate_wrist() {
 }
 
 #[test]
-fn first_three_meet() {
-    let e = reject(&arms::first_three_meet());
-    assert!(e.notes.contains(&Note::FirstThreeMeet), "{e}");
-    assert!(e.to_string().contains("meet in one point instead of"));
+fn first_three_meet_with_a_hand_of_no_family() {
+    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P R R: no family of joints 1–3.
+    let mut m = arms::first_three_meet();
+    m.joints[5].joint.kind = armforge_runtime::JointKind::Prismatic;
+    let e = reject(&m);
+    assert_eq!(e.reason.kind(), "base_wrist_hand_unsolved", "{e}");
+    assert!(
+        e.to_string()
+            .contains("meet in one point (a wrist at the base)"),
+        "{e}"
+    );
+    assert!(e.to_string().contains("joint 7 − i"), "{e}");
 }
 
 #[test]

@@ -127,6 +127,8 @@ pub enum ArmEvidence {
     General(GeneralEvidence),
     /// Three parallel axes 2–4, axes 5 and 6 meeting.
     ThreeParallel(crate::family::three_parallel::ThreeParallelEvidence),
+    /// Axes 1–3 meet: the wrist at the base.
+    BaseWrist(crate::family::base_wrist::BaseWristEvidence),
 }
 
 /// What a reach is measured from.

@@ -390,7 +390,8 @@ fn describe_note(model: &Model, note: &Note) -> String {
         ),
         Note::FirstThreeMeet => "the axes of joints 1, 2 and 3 meet in one point instead of \
              those of joints 4, 5 and 6: such an arm decouples at its base (Pieper's \
-             criterion, Pieper 1968), which armforge does not build"
+             criterion, Pieper 1968); armforge's wrist-at-base family builds it when joints 6, \
+             5 and 4, read from the tool, are one of its families of joints 1–3"
             .to_string(),
         Note::PieperQuartic => "the wrist is spherical, so Pieper's criterion holds and a \
              closed form exists (Pieper 1968): the general family solves joints 1–3 of no named \

@@ -24,15 +24,19 @@ pub struct Judged {
     /// JSON key.
     pub key: &'static str,
     /// What it is, for people.
-    pub label: &'static str,
+    pub label: String,
     /// The value.
     pub value: Value,
 }
 
 impl Judged {
     /// An item.
-    pub fn new(key: &'static str, label: &'static str, value: Value) -> Judged {
-        Judged { key, label, value }
+    pub fn new(key: &'static str, label: impl Into<String>, value: Value) -> Judged {
+        Judged {
+            key,
+            label: label.into(),
+            value,
+        }
     }
 }
 

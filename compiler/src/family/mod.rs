@@ -16,6 +16,7 @@
 // `Result<Geometry, Rejection>` (as in `classify`).
 #![allow(clippy::result_large_err)]
 
+pub mod base_wrist;
 pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
@@ -50,6 +51,9 @@ pub enum Family {
     General,
     /// Six revolute joints, axes 2–4 parallel, axes 5 and 6 meeting.
     ThreeParallel,
+    /// Axes 1–3 meet (a wrist at the base), joints 6, 5, 4 read from the tool of a family
+    /// above.
+    BaseWrist,
 }
 
 impl Family {
@@ -87,6 +91,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &cartesian::CARTESIAN,
     &general::GENERAL,
     &three_parallel::THREE_PARALLEL,
+    &base_wrist::BASE_WRIST,
 ];
 
 /// What a family found on an arm it recognises.

@@ -12,7 +12,6 @@
 pub mod arm;
 pub mod decouple;
 pub mod graph;
-pub mod mirror;
 pub mod planar;
 pub mod pose;
 pub mod quartic;
@@ -26,6 +25,7 @@ use armforge_runtime::internal::{BranchRule, ElbowRule, Settings, ShoulderRule, 
 use armforge_runtime::plan::{CandidateLayout, CheckLayout, Op};
 use armforge_runtime::{Branch, Elbow, Shoulder};
 
+pub use crate::family::base_wrist::plan as mirror;
 pub use crate::family::cartesian::plan as cartesian;
 pub use crate::family::cylindrical::plan as cylindrical;
 pub use crate::family::elbow::plan as elbow;

@@ -156,7 +156,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 9] {
+pub fn fixtures() -> [Fixture; 11] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -184,6 +184,8 @@ pub fn fixtures() -> [Fixture; 9] {
         fixture("general", Family::General, 17, plain),
         fixture("three_parallel_layout", Family::ThreeParallel, 18, plain),
         fixture("three_parallel_general", Family::ThreeParallel, 19, plain),
+        fixture("base_wrist_elbow", Family::BaseWrist, 20, plain),
+        fixture("base_wrist_polar", Family::BaseWrist, 21, plain),
     ]
 }
 
@@ -215,6 +217,9 @@ fn prismatic(axis: [f64; 3], limits: [f64; 2]) -> Joint {
 ///
 /// If the classifier disagrees with how the sample was built (a bug in one of them).
 pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model, Geometry) {
+    if family == Family::BaseWrist {
+        return sample_base_wrist(seed, options);
+    }
     if family == Family::ThreeParallel {
         // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
         // seeds: every angle.
@@ -306,7 +311,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
-        Family::ThreeParallel => unreachable!("built above"),
+        Family::ThreeParallel | Family::BaseWrist => unreachable!("built above"),
         Family::Cartesian => {
             let u1 = rng.direction();
             let u2 = rng.direction_away_from(&u1, 0.8);
@@ -535,6 +540,30 @@ pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -
         base,
         format!("<sample three-parallel {seed}>"),
     )
+}
+
+/// A random arm with its wrist at the base: the mirror of a random arm of a decoupled family
+/// (by `seed`: elbow, polar, cylindrical, cartesian), with a random base and tool.
+fn sample_base_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
+    let hands = [
+        Family::Elbow,
+        Family::Polar,
+        Family::Cylindrical,
+        Family::Cartesian,
+    ];
+    let hand = hands[(seed % 4) as usize];
+    let (inner, _) = sample_arm(hand, seed, options);
+    let mut model = crate::plan::mirror::mirrored_model(&inner);
+    let mut rng = SampleRng::new(seed.wrapping_mul(7933).wrapping_add(77));
+    model.tool = rng.pose(0.5);
+    model.base = rng.pose(1.0);
+    model.name = format!("sample_base_wrist_{seed}");
+    model.source_path = format!("<sample wrist-at-base {seed}>");
+    let geometry = match classify(&model, &Tolerances::default()) {
+        Ok(g) if g.family == Family::BaseWrist => g,
+        other => panic!("sample wrist-at-base arm {seed}: classified as {other:?}"),
+    };
+    (model, geometry)
 }
 
 /// `model` with its joints renamed.

@@ -84,7 +84,8 @@ fn measure(ctx: &Context, center: &Point3<f64>) -> Measured {
     }
 }
 
-fn position(
+/// The elbow family's position step.
+pub fn position(
     g: &mut crate::plan::graph::Graph,
     arm: &crate::plan::Arm,
     t: &crate::plan::Target,

@@ -15,14 +15,14 @@
 use armforge_runtime::plan::CandidateLayout;
 use armforge_runtime::{Joint, Pose};
 
-use super::arm::Arm;
-use super::decouple::{self, Target};
-use super::graph::Graph;
-use super::pose;
-use super::vec3::num;
-use super::{Plan, PositionStep};
 use crate::classify::{Family, Geometry};
 use crate::model::{Model, ModelJoint};
+use crate::plan::arm::Arm;
+use crate::plan::decouple::{self, Target};
+use crate::plan::graph::Graph;
+use crate::plan::pose;
+use crate::plan::vec3::num;
+use crate::plan::{Plan, PositionStep};
 
 /// The mirrored arm: joints in reverse order with reversed axes, base and tool at the identity
 /// (its forward kinematics with the joint values reversed is `G⁻¹`). Names and locations go
@@ -71,7 +71,7 @@ pub fn build(model: &Model, inner: &Geometry, family: Family, step: PositionStep
         reference1: t.reference1,
         reference4: t.reference4,
     };
-    let (candidates, mut rule) = super::decoupled(&mut g, &inner_arm, &mirrored_target, step);
+    let (candidates, mut rule) = crate::plan::decoupled(&mut g, &inner_arm, &mirrored_target, step);
     rule.mirrored = true;
     let candidates: Vec<CandidateLayout> = candidates
         .into_iter()
@@ -80,9 +80,9 @@ pub fn build(model: &Model, inner: &Geometry, family: Family, step: PositionStep
             c
         })
         .collect();
-    let w = super::wrist::WristAxes::of(&inner_arm);
+    let w = crate::plan::wrist::WristAxes::of(&inner_arm);
     let twist = [num::dot(&w.h4, &w.h5), num::dot(&w.h5, &w.h6)];
     // The mirrored arm holds its joint 1 (the arm's joint 6) and its joint 4 (the arm's
     // joint 3) when they are free.
-    super::assemble(arm, &g, &candidates, rule, twist, [5, 2])
+    crate::plan::assemble(arm, &g, &candidates, rule, twist, [5, 2])
 }
