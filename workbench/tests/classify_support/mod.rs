@@ -271,6 +271,11 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("angle_2_3", e.angle_2_3);
             put("wrist_center_from_axis_3", e.wrist_center_from_axis_3);
         }
+        ArmEvidence::BaseWrist(e) => {
+            put("base_wrist.miss", e.wrist.miss);
+            put("base_wrist.angle_1_2", e.wrist.angle_5_6);
+            put("base_wrist.angle_2_3", e.wrist.angle_4_5);
+        }
     }
     for s in &g.singularities {
         match s {
