@@ -244,6 +244,10 @@ fn exactly_aligned_wrists_are_flagged_in_single_precision() {
     for arm in EMITTED_ARMS_F32 {
         let generated = generate_module(&arm.file(), arm.path, &Tolerances::default())
             .unwrap_or_else(|e| panic!("{e}"));
+        if generated.plan.arm.family == armforge_compiler::classify::Family::BaseWrist {
+            // Its wrist is joints 1–3 (aligned by joint 2), not the joint-5 alignment below.
+            continue;
+        }
         let mut table = [generated.plan.arm.joints[0]; JOINTS];
         table.copy_from_slice(&generated.plan.arm.joints);
         let reference = ReferenceArm::load(&arm.file());

@@ -50,7 +50,7 @@ fn every_example_arm_classifies() {
 #[test]
 fn every_rejected_arm_is_rejected_with_a_located_numeric_reason() {
     let files = arm_files("rejected");
-    assert!(files.len() >= 5, "the rejected examples are there");
+    assert!(files.len() >= 4, "the rejected examples are there");
     for (path, text) in files {
         let model = load(&path, &text);
         let result = classify(&model, &Tolerances::default());
