@@ -138,6 +138,7 @@ fn rotate<S: Scalar>(h: &[S; 3], angle: S, v: &[S; 3]) -> [S; 3] {
 }
 
 /// The branch label of a configuration, read by the arm's rules.
+#[inline(always)]
 pub fn branch_of<S: Scalar>(
     rule: &BranchRule<S>,
     joints: &[Joint<S>; JOINTS],
@@ -152,7 +153,9 @@ pub fn branch_of<S: Scalar>(
 }
 
 /// [`branch_of`] with the rules read forwards (no recursion: the mirrored arm is worked out
-/// by the caller).
+/// by the caller). Inlined so that, with an emitted module's constant rule and joint table,
+/// which joints move the wrist center is settled at compile time.
+#[inline(always)]
 fn branch_read_forward<S: Scalar>(
     rule: &BranchRule<S>,
     joints: &[Joint<S>; JOINTS],
