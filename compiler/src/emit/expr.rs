@@ -157,7 +157,7 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
                 (quote!(reference[#k]), Prec::Atom)
             }
         }
-        Op::Const(c) => literal(c, b.scalar),
+        Op::Const(c) => literal(b.scalar.constant(c, g.scaling(id)), b.scalar),
         Op::Add(x, y) => {
             let (x, y) = (wrap(r(x), Prec::Sum), wrap(r(y), Prec::Product));
             (quote!(#x + #y), Prec::Sum)

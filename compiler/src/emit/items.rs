@@ -291,6 +291,11 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
     let n = super::expr::index(plan.candidates.len());
     let lints = lint_allowances();
     let (guard, pivot_doc) = free_guard(plan);
+    // A moved candidate is evaluated again by its own branch's function, not every branch.
+    let reruns = (0..plan.candidates.len()).map(|k| {
+        let (index, name) = (super::expr::index(k), branch_fn_name(k));
+        quote!(#index => ::core::option::Option::Some(#name(target, moved)),)
+    });
     let body = quote! {
         /// The closed-form steps: every branch's candidate, in model values.
         #lints
@@ -304,8 +309,9 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
         }
 
         /// Moves the free joint where a singular pose leaves one free and its held value puts a
-        /// joint outside its limits (a rare path; see
-        /// `armforge_runtime::internal::free_joint_1`), in place.
+        /// joint outside its limits, in place (a rare path; see
+        /// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+        /// its branch's own function).
         #[inline]
         fn free_joints(
             target: &::armforge_runtime::Pose #generic,
@@ -322,9 +328,9 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
                 target,
                 reference,
                 all,
-                |moved: &[#ty; 4], i: usize| {
-                    let again = candidates(target, moved);
-                    again.get(i).copied()
+                |moved: &[#ty; 4], i: usize| match i {
+                    #(#reruns)*
+                    _ => ::core::option::Option::None,
                 },
             );
         }

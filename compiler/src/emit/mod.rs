@@ -106,6 +106,23 @@ impl ScalarType {
             }
         }
     }
+
+    /// A plan constant in this scalar: thresholds follow its epsilon (a squared tolerance of
+    /// `f64` times 2^29 for `f32`, a fourth power times 2^58), floors become its own.
+    pub fn constant(self, f64_value: f64, scaling: crate::plan::graph::Scaling) -> f64 {
+        use crate::plan::graph::Scaling;
+        use armforge_runtime::math::Growth;
+        match (self, scaling) {
+            (ScalarType::F64, _) | (_, Scaling::Fixed) => f64_value,
+            (ScalarType::F32, Scaling::Floor) => 1e-30,
+            (ScalarType::F32, Scaling::Tolerance(n)) => {
+                // n factors of √(ε₃₂ / ε₆₄), applied in f64 (2^14.5 each).
+                let factor = self.tolerance(1.0, Growth::SquareRoot);
+                let scaled = (0..n).fold(f64_value, |x, _| x * factor);
+                format!("{scaled:.2e}").parse().unwrap_or(scaled)
+            }
+        }
+    }
 }
 
 /// Options of the emitted module.

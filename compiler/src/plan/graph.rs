@@ -22,6 +22,24 @@ pub struct Node {
     pub name: Option<String>,
     /// The equation with this arm's numbers, for comments.
     pub note: Option<String>,
+    /// How a constant follows the scalar of an emitted module.
+    pub scaling: Scaling,
+}
+
+/// How a constant follows the scalar an emitted module computes in. Plans are written for
+/// `f64`; a tolerance grows with the scalar's epsilon, a number of the arm does not.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Hash)]
+pub enum Scaling {
+    /// A number of the arm or of the math: the same in every scalar.
+    #[default]
+    Fixed,
+    /// A tolerance that is the product of `n` tolerances each growing with the square root
+    /// of the scalar's epsilon (`Growth::SquareRoot`): a squared length or sine tolerance has
+    /// `n = 2` (so it grows with the epsilon itself, ×2^29 for `f32`), a fourth power `n = 4`.
+    Tolerance(u8),
+    /// A floor that only keeps a value off zero (`1e-300` in `f64`): the scalar's own
+    /// (`1e-30` in `f32`, whose smallest normal number is about 1.2e-38).
+    Floor,
 }
 
 /// `x`, or the number with at most 12 significant digits within 1e-14 relative of it
@@ -59,6 +77,15 @@ fn key(op: &Op) -> Key {
     }
 }
 
+/// The identity of a constant that follows the scalar differs from a fixed one's.
+fn scaled_key(op: &Op, scaling: Scaling) -> Key {
+    match (scaling, op) {
+        (Scaling::Tolerance(n), Op::Const(c)) => Key(13, c.to_bits(), u32::from(n), 0),
+        (Scaling::Floor, Op::Const(c)) => Key(14, c.to_bits(), 0, 0),
+        _ => key(op),
+    }
+}
+
 /// The graph under construction (and, after [`Graph::compact`], the finished plan body).
 #[derive(Clone, Debug, Default)]
 pub struct Graph {
@@ -91,8 +118,17 @@ impl Graph {
         }
     }
 
+    /// How the constant `id` follows the scalar (`Fixed` for every other node).
+    pub fn scaling(&self, id: Id) -> Scaling {
+        self.nodes[id as usize].scaling
+    }
+
     fn intern(&mut self, op: Op) -> Id {
-        let k = key(&op);
+        self.intern_scaled(op, Scaling::Fixed)
+    }
+
+    fn intern_scaled(&mut self, op: Op, scaling: Scaling) -> Id {
+        let k = scaled_key(&op, scaling);
         if let Some(&id) = self.index.get(&k) {
             return id;
         }
@@ -101,6 +137,7 @@ impl Graph {
             op,
             name: None,
             note: None,
+            scaling,
         });
         self.index.insert(k, id);
         id
@@ -143,10 +180,27 @@ impl Graph {
         self.intern(Op::Const(x))
     }
 
-    /// A threshold or floor (never snapped to the description's numbers), rounded to three
-    /// significant digits so that a reviewer reads `1e-20`, not `1.0000000000000001e-20`: a
-    /// threshold moved by less than 0.5 % decides the same cases for every practical input.
+    /// A threshold on a squared quantity (a squared length or sine tolerance, scaled for
+    /// `f32` as [`Scaling::Tolerance`]`(2)`), or below 1e-200 a floor that only keeps a value
+    /// off zero ([`Scaling::Floor`]); never snapped to the description's numbers, rounded to
+    /// three significant digits so that a reviewer reads `1e-20`, not
+    /// `1.0000000000000001e-20`: a threshold moved by less than 0.5 % decides the same cases
+    /// for every practical input.
     pub fn exact(&mut self, x: f64) -> Id {
+        let scaling = if x.abs() < 1e-200 {
+            Scaling::Floor
+        } else {
+            Scaling::Tolerance(2)
+        };
+        self.threshold(x, scaling)
+    }
+
+    /// A threshold on a fourth power of a tolerance (scaled as [`Scaling::Tolerance`]`(4)`).
+    pub fn exact_fourth(&mut self, x: f64) -> Id {
+        self.threshold(x, Scaling::Tolerance(4))
+    }
+
+    fn threshold(&mut self, x: f64, scaling: Scaling) -> Id {
         let x = if x == 0.0 {
             0.0
         } else if x.is_finite() {
@@ -154,7 +208,7 @@ impl Graph {
         } else {
             x
         };
-        self.intern(Op::Const(x))
+        self.intern_scaled(Op::Const(x), scaling)
     }
 
     fn is(&self, id: Id, value: f64) -> bool {
@@ -401,8 +455,9 @@ impl Graph {
                 op,
                 name: node.name.clone(),
                 note: node.note.clone(),
+                scaling: node.scaling,
             });
-            out.index.insert(key(&op), id);
+            out.index.insert(scaled_key(&op, node.scaling), id);
             if let Some(n) = &node.name {
                 out.names.insert(n.clone());
             }

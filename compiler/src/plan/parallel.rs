@@ -214,7 +214,7 @@ fn hand(
         // two differ by rounding, and (cos θ6, sin θ6) must stay a unit pair to undo joint 6.
         let inv = {
             let q = g.mul_add2(nc, nc, ns, ns);
-            let floor4 = g.exact(ALIGNED_SINE.powi(4));
+            let floor4 = g.exact_fourth(ALIGNED_SINE.powi(4));
             let safe = g.max(q, floor4);
             let root = g.sqrt(safe);
             let one = g.constant(1.0);

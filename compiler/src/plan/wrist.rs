@@ -227,7 +227,7 @@ fn joint4(
         (cone.gap, floor, g.div(one, safe))
     } else {
         let q = g.mul_add2(nc, nc, ns, ns);
-        let floor = g.exact(ALIGNED_SINE.powi(4));
+        let floor = g.exact_fourth(ALIGNED_SINE.powi(4));
         let safe = g.max(q, floor);
         let root = g.sqrt(safe);
         let one = g.constant(1.0);

@@ -1,7 +1,7 @@
 //! Link-time proof that the emitted solve paths cannot panic.
 //!
-//! Each public function of two example arms' emitted solvers (an elbow arm and an arm whose
-//! wrist sits at the base, read backwards), in `f64` and in `f32`, is wrapped in a function
+//! Each public function of every example arm's emitted solver, in `f64` and in `f32`, is
+//! wrapped in a function
 //! carrying the `no-panic` crate's `#[no_panic]` attribute: if the optimizer cannot remove
 //! every path to a panic from a wrapped function, linking this binary fails with an error
 //! naming it. The proof holds for release builds, where the solvers run in firmware.
@@ -15,152 +15,122 @@
 use armforge_runtime::{Branch, Pose, Solution, Unreachable};
 use no_panic::no_panic;
 
-armforge_runtime::solver!(
-    /// The bench elbow arm in `f64`.
-    mod bench = "../../arms/bench-elbow-dh.toml";
-);
-armforge_runtime::solver!(
-    /// The bench elbow arm in `f32`.
-    mod bench_f32 = "../../arms/bench-elbow-dh.toml", scalar = f32;
-);
-armforge_runtime::solver!(
-    /// The hotel loader (wrist at the base) in `f64`.
-    mod hotel = "../../arms/hotel-loader-axes.toml";
-);
-armforge_runtime::solver!(
-    /// The hotel loader in `f32`.
-    mod hotel_f32 = "../../arms/hotel-loader-axes.toml", scalar = f32;
-);
+/// For one example arm in one scalar: its emitted module and the `#[no_panic]` wrappers of
+/// its public functions (named `forward`, `solve`, `solve_branch`, `solve_near`, `branch_of`
+/// inside a module of the wrappers, so that the symbol table names them
+/// `armforge_no_panic_check::ARM::checked::solve` and so on), plus `run`, which calls each once
+/// and returns how many solutions and answers it got, and `sizes`, the bytes of a solution
+/// set and of one solution.
+macro_rules! checked_arm {
+    ($module:ident = $path:literal, $scalar:ident) => {
+        pub mod $module {
+            use super::*;
 
-/// The `#[no_panic]` wrappers of one emitted module, in its scalar.
-macro_rules! wrappers {
-    ($module:ident, $scalar:ty, $forward:ident, $solve:ident, $branch:ident, $near:ident, $label:ident) => {
-        #[no_panic]
-        #[inline(never)]
-        fn $forward(joints: &[$scalar; 6]) -> Pose<$scalar> {
-            $module::forward(joints)
-        }
+            armforge_runtime::solver!(
+                #[allow(dead_code)]
+                pub mod arm = $path, scalar = $scalar;
+            );
 
-        #[no_panic]
-        #[inline(never)]
-        fn $solve(target: &Pose<$scalar>) -> usize {
-            $module::solve(target).len()
-        }
+            /// The `#[no_panic]` wrappers.
+            pub mod checked {
+                use super::*;
 
-        #[no_panic]
-        #[inline(never)]
-        fn $branch(
-            target: &Pose<$scalar>,
-            branch: Branch,
-        ) -> Result<Solution<$scalar>, Unreachable<$scalar>> {
-            $module::solve_branch(target, branch)
-        }
+                #[no_panic]
+                #[inline(never)]
+                pub fn forward(joints: &[$scalar; 6]) -> Pose<$scalar> {
+                    arm::forward(joints)
+                }
 
-        #[no_panic]
-        #[inline(never)]
-        fn $near(
-            target: &Pose<$scalar>,
-            current: &[$scalar; 6],
-        ) -> Result<Solution<$scalar>, Unreachable<$scalar>> {
-            $module::solve_near(target, current)
-        }
+                #[no_panic]
+                #[inline(never)]
+                pub fn solve(target: &Pose<$scalar>) -> usize {
+                    arm::solve(target).len()
+                }
 
-        #[no_panic]
-        #[inline(never)]
-        fn $label(joints: &[$scalar; 6]) -> Branch {
-            $module::branch_of(joints)
+                #[no_panic]
+                #[inline(never)]
+                pub fn solve_branch(
+                    target: &Pose<$scalar>,
+                    branch: Branch,
+                ) -> Result<Solution<$scalar>, Unreachable<$scalar>> {
+                    arm::solve_branch(target, branch)
+                }
+
+                #[no_panic]
+                #[inline(never)]
+                pub fn solve_near(
+                    target: &Pose<$scalar>,
+                    current: &[$scalar; 6],
+                ) -> Result<Solution<$scalar>, Unreachable<$scalar>> {
+                    arm::solve_near(target, current)
+                }
+
+                #[no_panic]
+                #[inline(never)]
+                pub fn branch_of(joints: &[$scalar; 6]) -> Branch {
+                    arm::branch_of(joints)
+                }
+            }
+
+            /// Calls every wrapper once; solutions + branch + near found.
+            pub fn run(q: [f64; 6]) -> usize {
+                let q = std::hint::black_box(q.map(|x| x as $scalar));
+                let pose = checked::forward(&q);
+                checked::solve(&pose)
+                    + usize::from(checked::solve_branch(&pose, checked::branch_of(&q)).is_ok())
+                    + usize::from(checked::solve_near(&pose, &q).is_ok())
+            }
+
+            /// Bytes of a solution set and of one solution.
+            pub fn sizes() -> (usize, usize) {
+                (
+                    core::mem::size_of::<arm::Solutions>(),
+                    core::mem::size_of::<Solution<$scalar>>(),
+                )
+            }
         }
     };
 }
 
-wrappers!(
-    bench,
-    f64,
-    forward_bench,
-    solve_bench,
-    branch_bench,
-    near_bench,
-    label_bench
-);
-wrappers!(
-    bench_f32,
-    f32,
-    forward_bench_f32,
-    solve_bench_f32,
-    branch_bench_f32,
-    near_bench_f32,
-    label_bench_f32
-);
-wrappers!(
-    hotel,
-    f64,
-    forward_hotel,
-    solve_hotel,
-    branch_hotel,
-    near_hotel,
-    label_hotel
-);
-wrappers!(
-    hotel_f32,
-    f32,
-    forward_hotel_f32,
-    solve_hotel_f32,
-    branch_hotel_f32,
-    near_hotel_f32,
-    label_hotel_f32
-);
+checked_arm!(bench_f64 = "../../arms/bench-elbow-dh.toml", f64);
+checked_arm!(bench_f32 = "../../arms/bench-elbow-dh.toml", f32);
+checked_arm!(ceiling_f64 = "../../arms/ceiling-transfer-axes.toml", f64);
+checked_arm!(ceiling_f32 = "../../arms/ceiling-transfer-axes.toml", f32);
+checked_arm!(centrifuge_f64 = "../../arms/centrifuge-loader-dh.toml", f64);
+checked_arm!(centrifuge_f32 = "../../arms/centrifuge-loader-dh.toml", f32);
+checked_arm!(hotel_f64 = "../../arms/hotel-loader-axes.toml", f64);
+checked_arm!(hotel_f32 = "../../arms/hotel-loader-axes.toml", f32);
+checked_arm!(rack_f64 = "../../arms/rack-loader-mdh.toml", f64);
+checked_arm!(rack_f32 = "../../arms/rack-loader-mdh.toml", f32);
+checked_arm!(gantry_f64 = "../../arms/tray-gantry-axes.toml", f64);
+checked_arm!(gantry_f32 = "../../arms/tray-gantry-axes.toml", f32);
+
+/// One checked arm: its name, `run` and `sizes`.
+type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
 
 /// Calls every wrapper once (inputs through `black_box`, so nothing is folded away) and prints
-/// how many solutions each solver found for the pose of a configuration of its own.
+/// how many solutions each solver found for the pose of a configuration of its own, then the
+/// footprint README reports: bytes of a solution set and of one solution.
 fn main() {
-    use std::hint::black_box;
-    let q = black_box([0.1, -0.4, 0.7, 0.2, 0.5, -0.3]);
-    let q32 = q.map(|x| x as f32);
-    let b = bench_f32::branch_of(&q32);
-    let counts = [
-        solve_bench(&forward_bench(&q))
-            + usize::from(branch_bench(&forward_bench(&q), label_bench(&q)).is_ok())
-            + usize::from(near_bench(&forward_bench(&q), &q).is_ok()),
-        solve_bench_f32(&forward_bench_f32(&q32))
-            + usize::from(
-                branch_bench_f32(&forward_bench_f32(&q32), label_bench_f32(&q32)).is_ok(),
-            )
-            + usize::from(near_bench_f32(&forward_bench_f32(&q32), &q32).is_ok()),
-        solve_hotel(&forward_hotel(&q))
-            + usize::from(branch_hotel(&forward_hotel(&q), label_hotel(&q)).is_ok())
-            + usize::from(near_hotel(&forward_hotel(&q), &q).is_ok()),
-        solve_hotel_f32(&forward_hotel_f32(&q32))
-            + usize::from(
-                branch_hotel_f32(&forward_hotel_f32(&q32), label_hotel_f32(&q32)).is_ok(),
-            )
-            + usize::from(near_hotel_f32(&forward_hotel_f32(&q32), &q32).is_ok()),
+    let q = [0.1, -0.4, 0.7, 0.2, 0.5, -0.3];
+    let arms: [Checked; 12] = [
+        ("bench f64", bench_f64::run, bench_f64::sizes),
+        ("bench f32", bench_f32::run, bench_f32::sizes),
+        ("ceiling f64", ceiling_f64::run, ceiling_f64::sizes),
+        ("ceiling f32", ceiling_f32::run, ceiling_f32::sizes),
+        ("centrifuge f64", centrifuge_f64::run, centrifuge_f64::sizes),
+        ("centrifuge f32", centrifuge_f32::run, centrifuge_f32::sizes),
+        ("hotel f64", hotel_f64::run, hotel_f64::sizes),
+        ("hotel f32", hotel_f32::run, hotel_f32::sizes),
+        ("rack f64", rack_f64::run, rack_f64::sizes),
+        ("rack f32", rack_f32::run, rack_f32::sizes),
+        ("gantry f64", gantry_f64::run, gantry_f64::sizes),
+        ("gantry f32", gantry_f32::run, gantry_f32::sizes),
     ];
-    let _ = b;
+    let counts: Vec<usize> = arms.iter().map(|(_, run, _)| run(q)).collect();
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");
-    // The footprint README reports: bytes of a solution set and of one solution.
-    use core::mem::size_of;
-    for (name, set, one) in [
-        (
-            "bench f64",
-            size_of::<bench::Solutions>(),
-            size_of::<Solution<f64>>(),
-        ),
-        (
-            "bench f32",
-            size_of::<bench_f32::Solutions>(),
-            size_of::<Solution<f32>>(),
-        ),
-        (
-            "hotel f64",
-            size_of::<hotel::Solutions>(),
-            size_of::<Solution<f64>>(),
-        ),
-        (
-            "hotel f32",
-            size_of::<hotel_f32::Solutions>(),
-            size_of::<Solution<f32>>(),
-        ),
-    ] {
+    for (name, _, sizes) in arms {
+        let (set, one) = sizes();
         println!("{name}: solution set {set} bytes, one solution {one} bytes");
     }
 }

@@ -828,8 +828,9 @@ fn candidates(
     ]
 }
 /// Moves the free joint where a singular pose leaves one free and its held value puts a
-/// joint outside its limits (a rare path; see
-/// `armforge_runtime::internal::free_joint_1`), in place.
+/// joint outside its limits, in place (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+/// its branch's own function).
 #[inline]
 fn free_joints(
     target: &::armforge_runtime::Pose,
@@ -846,9 +847,10 @@ fn free_joints(
         target,
         reference,
         all,
-        |moved: &[f64; 4], i: usize| {
-            let again = candidates(target, moved);
-            again.get(i).copied()
+        |moved: &[f64; 4], i: usize| match i {
+            0 => ::core::option::Option::Some(branch_1(target, moved)),
+            1 => ::core::option::Option::Some(branch_2(target, moved)),
+            _ => ::core::option::Option::None,
         },
     );
 }

@@ -2002,8 +2002,9 @@ fn candidates(
     ]
 }
 /// Moves the free joint where a singular pose leaves one free and its held value puts a
-/// joint outside its limits (a rare path; see
-/// `armforge_runtime::internal::free_joint_1`), in place.
+/// joint outside its limits, in place (a rare path; see
+/// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
+/// its branch's own function).
 #[inline]
 fn free_joints(
     target: &::armforge_runtime::Pose,
@@ -2020,9 +2021,16 @@ fn free_joints(
         target,
         reference,
         all,
-        |moved: &[f64; 4], i: usize| {
-            let again = candidates(target, moved);
-            again.get(i).copied()
+        |moved: &[f64; 4], i: usize| match i {
+            0 => ::core::option::Option::Some(branch_1(target, moved)),
+            1 => ::core::option::Option::Some(branch_2(target, moved)),
+            2 => ::core::option::Option::Some(branch_3(target, moved)),
+            3 => ::core::option::Option::Some(branch_4(target, moved)),
+            4 => ::core::option::Option::Some(branch_5(target, moved)),
+            5 => ::core::option::Option::Some(branch_6(target, moved)),
+            6 => ::core::option::Option::Some(branch_7(target, moved)),
+            7 => ::core::option::Option::Some(branch_8(target, moved)),
+            _ => ::core::option::Option::None,
         },
     );
 }

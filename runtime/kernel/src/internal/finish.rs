@@ -122,7 +122,7 @@ fn verdict<S: Scalar>(
 /// `None` otherwise: the same comparisons as [`verdict`], without working out by how much a
 /// failing check misses (that is done only when no candidate is left).
 #[inline(always)]
-fn passes<S: Scalar>(checks: &[Check<S>; 4], settings: &Settings<S>) -> Option<bool> {
+pub(crate) fn passes<S: Scalar>(checks: &[Check<S>; 4], settings: &Settings<S>) -> Option<bool> {
     let tol = settings.length_tolerance;
     let mut at_limit = false;
     let mut fails = false;

@@ -350,13 +350,40 @@ pub fn free_arm_joint<S: Scalar>(
     best.map(|(_, offset)| held + offset)
 }
 
-/// True when a candidate passes its checks but some joint is outside its limits.
+/// True when every joint of a candidate is within its limits: the comparisons of `finish_one`
+/// (each revolute value wrapped toward its range's center), without working out a reason.
+fn within_limits<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    c: &Candidate<S>,
+) -> bool {
+    let tol = settings.limit_tolerance;
+    let centers = super::centers(joints);
+    let mut inside = true;
+    for ((j, &m), &center) in joints.iter().zip(c.model_values.iter()).zip(centers.iter()) {
+        let q = (m - j.offset) * j.direction;
+        let v = if j.kind == JointKind::Revolute {
+            wrap(q, center)
+        } else {
+            q
+        };
+        inside &= v >= j.limits[0] - tol && v <= j.limits[1] + tol;
+    }
+    inside
+}
+
+/// True when a candidate passes its checks (is real) but some joint is outside its limits.
 fn outside_limits<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
     settings: &Settings<S>,
     c: &Candidate<S>,
 ) -> bool {
-    super::finish_one(joints, settings, c, &super::centers(joints)).is_err()
+    super::finish::passes(&c.checks, settings).is_some() && !within_limits(joints, settings, c)
+}
+
+/// True when a candidate passes its checks and every joint is within its limits.
+fn fits<S: Scalar>(joints: &[Joint<S>; JOINTS], settings: &Settings<S>, c: &Candidate<S>) -> bool {
+    super::finish::passes(&c.checks, settings).is_some() && within_limits(joints, settings, c)
 }
 
 /// Which joint (0-based) a candidate leaves free: 3 at an aligned wrist, 0 with the wrist
@@ -433,7 +460,7 @@ pub fn free_joint_1<S: Scalar>(
         }
         if let Some(again) = rerun(&moved, i) {
             let same = again.wrist_aligned == c.wrist_aligned && again.on_axis_1 == c.on_axis_1;
-            if same && !outside_limits(joints, settings, &again) {
+            if same && fits(joints, settings, &again) {
                 *c = again;
             }
         }
