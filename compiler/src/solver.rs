@@ -67,7 +67,20 @@ impl Solver {
 
     /// The branch label of a configuration.
     pub fn branch_of(&self, joints: &[f64; JOINTS]) -> Branch {
-        internal::branch_of(&self.plan.rule, &self.plan.arm.joints, joints)
+        let (table, settings) = (&self.plan.arm.joints, &self.plan.settings);
+        if self.plan.labels_by_solving {
+            // The label of the solution at forward(q) nearest q (as the emitted module does).
+            let target = self.forward(joints);
+            let reference = internal::reference_of(table, joints, self.plan.free_joints);
+            let anchor = internal::anchors_near(table, joints, settings.limit_tolerance);
+            let candidates = self.candidates(&target, &reference);
+            if let Ok(s) =
+                internal::nearest_candidate(table, settings, &candidates, joints, &anchor)
+            {
+                return s.branch;
+            }
+        }
+        internal::branch_of(&self.plan.rule, table, joints)
     }
 
     /// The plan's candidates as evaluated, without the free joint 1 moved.

@@ -644,10 +644,15 @@ fn solvable_text(out: &mut String, s: &Solvable) {
     );
     if let Some(r) = &s.reach {
         let _ = writeln!(out, "reach: {}: {}", r.label, r.shown);
-    } else {
+    } else if s.pattern == "P P P" {
         let _ = writeln!(
             out,
             "reach: the box the three slides span (their limits in the table)"
+        );
+    } else {
+        let _ = writeln!(
+            out,
+            "reach: no simple closed form; the solver reports how far a target misses"
         );
     }
     let _ = writeln!(out, "singular configurations:");

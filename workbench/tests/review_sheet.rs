@@ -163,6 +163,64 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
                 out.push(q);
             }
         }
+        Family::General => {
+            // §4.2–4.3: F(θ3) = X² + Y² + Z² − |r|² with the sheet's constants; its roots by
+            // sign changes on a fine grid and bisection (independent of Ferrari's method).
+            let k = armforge_compiler::family::general::plan::constants(&f.arm);
+            let u = num::sub(&ct, &k.f1);
+            let (rho, zeta) = (num::dot(&u, &u), num::dot(&k.h1, &u));
+            let r = |t: f64| {
+                num::add(
+                    &k.r0,
+                    &num::add(&num::scale(&k.rc, t.cos()), &num::scale(&k.rs, t.sin())),
+                )
+            };
+            let xyz = |t: f64| {
+                let r = r(t);
+                let rr = num::dot(&r, &r);
+                let z = num::dot(&k.h2, &r);
+                let x = (rho - k.a * k.a - rr) / (2.0 * k.a);
+                let y = (zeta - k.cos_a * z) / k.sin_a;
+                (r, rr, x, y, z)
+            };
+            let big_f = |t: f64| {
+                let (_, rr, x, y, z) = xyz(t);
+                x * x + y * y + z * z - rr
+            };
+            let n = 20000;
+            let pi = std::f64::consts::PI;
+            for i in 0..n {
+                let (mut lo, mut hi) = (
+                    -pi + 2.0 * pi * i as f64 / n as f64,
+                    -pi + 2.0 * pi * (i + 1) as f64 / n as f64,
+                );
+                if big_f(lo).signum() == big_f(hi).signum() {
+                    continue;
+                }
+                for _ in 0..80 {
+                    let mid = 0.5 * (lo + hi);
+                    if big_f(mid).signum() == big_f(lo).signum() {
+                        lo = mid;
+                    } else {
+                        hi = mid;
+                    }
+                }
+                let t3 = 0.5 * (lo + hi);
+                let (r, _, x, y, z) = xyz(t3);
+                let (rn, rl, my) = (num::dot(&k.n, &r), num::dot(&k.ell, &r), k.mu * y);
+                let t2 = (rn * my - rl * x).atan2(rn * x + rl * my);
+                let w = num::add(
+                    &num::add(
+                        &num::scale(&k.n, k.a + t2.cos() * rn - t2.sin() * rl),
+                        &num::scale(&k.ell, t2.sin() * rn + t2.cos() * rl),
+                    ),
+                    &num::scale(&k.h2, z),
+                );
+                let wp = num::sub(&w, &num::scale(&k.h1, num::dot(&k.h1, &w)));
+                let t1 = num::dot(&k.h1, &num::cross(&wp, &u)).atan2(num::dot(&wp, &u));
+                out.push([t1, t2, t3]);
+            }
+        }
         Family::Cartesian => {
             let inv = f.cartesian_inverse();
             let shift = num::sub(&ct, &f.c());

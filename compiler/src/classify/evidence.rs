@@ -94,6 +94,22 @@ pub struct CartesianEvidence {
     pub independence: f64,
 }
 
+/// Evidence of a general arm (R R R with axes of no named family).
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct GeneralEvidence {
+    /// The length of the common normal of axes 1 and 2 (`a`), metres.
+    pub common_normal_1_2: f64,
+    /// The angle between the lines of axes 1 and 2 (`α`), `[0, π/2]`.
+    pub angle_1_2: f64,
+    /// The length of the common normal of axes 2 and 3, metres.
+    pub common_normal_2_3: f64,
+    /// The angle between the lines of axes 2 and 3, `(0, π/2]`.
+    pub angle_2_3: f64,
+    /// The distance of the wrist center from axis 3, metres.
+    pub wrist_center_from_axis_3: f64,
+}
+
 /// The family's own evidence.
 #[derive(Clone, Debug, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize))]
@@ -107,6 +123,8 @@ pub enum ArmEvidence {
     Cylindrical(CylindricalEvidence),
     /// P P P.
     Cartesian(CartesianEvidence),
+    /// R R R of no named family.
+    General(GeneralEvidence),
 }
 
 /// What a reach is measured from.

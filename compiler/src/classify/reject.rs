@@ -79,6 +79,19 @@ pub enum Reason {
         /// The distance of the wrist center from axis 3, metres.
         distance: f64,
     },
+    /// General R R R whose axes 1 and 2 meet: the quartic's reduction divides by the length of
+    /// their common normal.
+    #[cfg_attr(feature = "serde", serde(rename = "general_axes_1_and_2_meet"))]
+    GeneralAxes1And2Meet {
+        /// The length of the common normal, metres.
+        distance: f64,
+    },
+    /// General R R R whose wrist center lies on axis 3: joint 3 cannot move it.
+    #[cfg_attr(feature = "serde", serde(rename = "general_wrist_center_on_axis_3"))]
+    GeneralWristCenterOnAxis3 {
+        /// The distance of the wrist center from axis 3, metres.
+        distance: f64,
+    },
     /// R R P whose slide is not perpendicular to axis 2.
     PolarSlideNotPerpendicular {
         /// The angle between the slide and axis 2, radians.
@@ -290,6 +303,21 @@ fn describe(model: &Model, reason: &Reason) -> String {
             label(model, 3),
             u.show_length(*distance)
         ),
+        Reason::GeneralAxes1And2Meet { distance } => format!(
+            "axes of {} and {} meet (common normal {}) and joints 1–3 are of no named family; \
+             the general family's quartic divides by that length. Such an arm has a simpler \
+             closed form (the distance from the meeting point fixes joint 3 by a quadratic; \
+             Pieper 1968), which armforge does not build yet",
+            label(model, 1),
+            label(model, 2),
+            u.show_length(*distance)
+        ),
+        Reason::GeneralWristCenterOnAxis3 { distance } => format!(
+            "the wrist center lies on the axis of {} ({} away), so joint 3 cannot move it: \
+             joints 1–3 cannot place the wrist center in space",
+            label(model, 3),
+            u.show_length(*distance)
+        ),
         Reason::PolarSlideNotPerpendicular { angle } => format!(
             "the slide of {} makes {} with the axis of {}; the polar family (R R P) needs the \
              slide perpendicular to axis 2",
@@ -354,8 +382,9 @@ fn describe_note(model: &Model, note: &Note) -> String {
              criterion, Pieper 1968), which armforge does not build"
             .to_string(),
         Note::PieperQuartic => "the wrist is spherical, so Pieper's criterion holds and a \
-             closed form exists (Pieper 1968), but for these joints 1–3 it needs a quartic, \
-             which armforge does not build yet"
+             closed form exists (Pieper 1968): the general family solves joints 1–3 of no named \
+             family through a quartic when axes 1 and 2 neither meet nor are parallel; the \
+             simpler sub-cases where they do are not built yet"
             .to_string(),
         Note::GeneralSixRevolute => "six revolute joints with no three consecutive axes meeting \
              in a point and no three consecutive parallel axes: armforge knows no closed form \
@@ -390,6 +419,8 @@ impl Reason {
             Reason::ElbowAxes2And3NotParallel { .. } => "elbow_axes_2_and_3_not_parallel",
             Reason::ElbowAxes2And3Coincide { .. } => "elbow_axes_2_and_3_coincide",
             Reason::WristCenterOnAxis3 { .. } => "wrist_center_on_axis_3",
+            Reason::GeneralAxes1And2Meet { .. } => "general_axes_1_and_2_meet",
+            Reason::GeneralWristCenterOnAxis3 { .. } => "general_wrist_center_on_axis_3",
             Reason::PolarSlideNotPerpendicular { .. } => "polar_slide_not_perpendicular",
             Reason::CylindricalSlidesParallel { .. } => "cylindrical_slides_parallel",
             Reason::CylindricalSlidesPerpendicularToAxis1 { .. } => {
@@ -421,7 +452,9 @@ impl Reason {
             | Reason::CylindricalSlidesParallel { angle }
             | Reason::CartesianSlidesDependent { angle, .. } => vec![("angle", Angle(*angle))],
             Reason::ElbowAxes2And3Coincide { distance }
-            | Reason::WristCenterOnAxis3 { distance } => {
+            | Reason::WristCenterOnAxis3 { distance }
+            | Reason::GeneralAxes1And2Meet { distance }
+            | Reason::GeneralWristCenterOnAxis3 { distance } => {
                 vec![("distance", Length(*distance))]
             }
             Reason::CylindricalSlidesPerpendicularToAxis1 { angles } => vec![

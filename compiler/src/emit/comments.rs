@@ -47,17 +47,19 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
     );
     let _ = writeln!(
         h,
-        "// Cost of one solve: {} sqrt, {} atan2, {}, no loops, no heap.",
+        "// Cost of one solve: {} sqrt, {} atan2{}, {}, no loops, no heap.",
         counts.sqrt,
         counts.atan2,
+        counts.rare(),
         counted(counts.div, "division", "divisions")
     );
     let one = plan.branch_op_counts();
     let _ = writeln!(
         h,
-        "// Cost of one solve_branch: at most {} sqrt, {} atan2, {} (that branch alone).",
+        "// Cost of one solve_branch: at most {} sqrt, {} atan2{}, {} (that branch alone).",
         one.sqrt,
         one.atan2,
+        one.rare(),
         counted(one.div, "division", "divisions")
     );
     let _ = writeln!(h, "//");

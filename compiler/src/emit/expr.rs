@@ -180,6 +180,8 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
         }
         Op::Abs(x) => (math_call("abs", &[r(x).0]), Prec::Atom),
         Op::Sqrt(x) => (math_call("sqrt", &[r(x).0]), Prec::Atom),
+        Op::Cbrt(x) => (math_call("cbrt", &[r(x).0]), Prec::Atom),
+        Op::Cos(x) => (math_call("cos", &[r(x).0]), Prec::Atom),
         Op::Atan2(y, x) => (math_call("atan2", &[r(y).0, r(x).0]), Prec::Atom),
         Op::Min(m, hi) if clamp_parts(g, b, m, hi).is_some() => {
             let (x, lo) = clamp_parts(g, b, m, hi).unwrap_or((m, hi));

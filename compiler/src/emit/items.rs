@@ -134,6 +134,10 @@ fn rule(r: &BranchRule, l: Literals) -> TokenStream {
             let n = lit(nearest);
             quote!(::armforge_runtime::internal::ElbowRule::Slide { nearest: #n })
         }
+        ElbowRule::Aspect { up } => {
+            let u = lit(up);
+            quote!(::armforge_runtime::internal::ElbowRule::Aspect { up: #u })
+        }
         ElbowRule::Only => quote!(::armforge_runtime::internal::ElbowRule::Only),
     };
     let (n, a5, a6) = (
@@ -184,6 +188,7 @@ fn check_kind(k: CheckKind) -> TokenStream {
         CheckKind::BeyondReach => quote!(BeyondReach),
         CheckKind::InsideHole => quote!(InsideHole),
         CheckKind::WristOrientation => quote!(WristOrientation),
+        CheckKind::Residual => quote!(Residual),
     }
 }
 
@@ -418,6 +423,48 @@ fn branch_arms(plan: &Plan, wrap: impl Fn(TokenStream) -> TokenStream) -> Vec<To
         .collect()
 }
 
+/// `branch_of`: by the label rules, or (plans whose labels are read by solving) the label of
+/// the solution at `forward(q)` nearest `q`, the rules only when there is none.
+fn branch_of_fn(plan: &Plan, l: Literals) -> TokenStream {
+    let (ty, generic) = (l.0.ty(), l.0.generic());
+    if !plan.labels_by_solving {
+        return quote! {
+            /// The branch label of any configuration; agrees with the labels `solve` reports.
+            pub fn branch_of(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Branch {
+                ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
+            }
+        };
+    }
+    let [a, b] = plan.free_joints.map(super::expr::index);
+    quote! {
+        /// The branch label of any configuration; agrees with the labels `solve` reports: the
+        /// label of the solution at `forward(joints)` nearest `joints` (two roots of this arm's
+        /// quartic can share a geometric label, and the second then takes a free one), the
+        /// geometric rule when there is no solution within the limits.
+        pub fn branch_of(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Branch {
+            let target: ::armforge_runtime::Pose #generic = forward(joints);
+            let reference = ::armforge_runtime::internal::reference_of(&JOINT_TABLE, joints, [#a, #b]);
+            let anchor = ::armforge_runtime::internal::anchors_near(
+                &JOINT_TABLE,
+                joints,
+                SETTINGS.limit_tolerance,
+            );
+            match ::armforge_runtime::internal::nearest_candidate(
+                &JOINT_TABLE,
+                &SETTINGS,
+                &free_candidates(&target, &reference),
+                joints,
+                &anchor,
+            ) {
+                ::core::result::Result::Ok(solution) => solution.branch,
+                ::core::result::Result::Err(_) => {
+                    ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
+                }
+            }
+        }
+    }
+}
+
 /// `solve_branch` and `solve_near`: one branch's steps, finished with the arm's constants.
 fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
     let (ty, generic) = (l.0.ty(), l.0.generic());
@@ -566,6 +613,7 @@ pub fn module(
         (0..plan.candidates.len()).map(super::expr::index).collect();
     let branches = branch_bodies(plan, scalar);
     let branch_api = branch_api(plan, l);
+    let branch_of = branch_of_fn(plan, l);
     let forward =
         super::forward::function(&plan.arm.joints, &plan.arm.base, &plan.arm.tool, scalar);
     let test = if with_test {
@@ -649,10 +697,7 @@ pub fn module(
 
         #branch_api
 
-        /// The branch label of any configuration; agrees with the labels `solve` reports.
-        pub fn branch_of(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Branch {
-            ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
-        }
+        #branch_of
 
         #body
 

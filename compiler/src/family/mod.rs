@@ -20,6 +20,7 @@ pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
 pub mod elbow;
+pub mod general;
 pub mod polar;
 
 pub use data::{Distance, Judged, Part, Role, SamplerBoundary, Value, VerifyHints};
@@ -44,6 +45,8 @@ pub enum Family {
     Cylindrical,
     /// P P P with independent slides, spherical wrist.
     Cartesian,
+    /// R R R of no named family (axis 2 ∦ axis 3), spherical wrist: a quartic.
+    General,
 }
 
 impl Family {
@@ -79,6 +82,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &polar::POLAR,
     &cylindrical::CYLINDRICAL,
     &cartesian::CARTESIAN,
+    &general::GENERAL,
 ];
 
 /// What a family found on an arm it recognises.

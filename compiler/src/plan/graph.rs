@@ -74,6 +74,8 @@ fn key(op: &Op) -> Key {
         Op::Min(a, b) => Key(10, a as u64, b, 0),
         Op::Max(a, b) => Key(11, a as u64, b, 0),
         Op::Select(c, a, b) => Key(12, ((c as u64) << 32) | a as u64, b, 0),
+        Op::Cbrt(a) => Key(13, a as u64, 0, 0),
+        Op::Cos(a) => Key(14, a as u64, 0, 0),
     }
 }
 
@@ -366,6 +368,22 @@ impl Graph {
         self.sqrt(m)
     }
 
+    /// `∛a`, the real cube root.
+    pub fn cbrt(&mut self, a: Id) -> Id {
+        match self.op(a) {
+            Op::Const(x) => self.constant(x.cbrt()),
+            _ => self.intern(Op::Cbrt(a)),
+        }
+    }
+
+    /// `cos a`.
+    pub fn cos(&mut self, a: Id) -> Id {
+        match self.op(a) {
+            Op::Const(x) => self.constant(x.cos()),
+            _ => self.intern(Op::Cos(a)),
+        }
+    }
+
     /// `atan2(y, x)`.
     pub fn atan2(&mut self, y: Id, x: Id) -> Id {
         match (self.constant_value(y), self.constant_value(x)) {
@@ -471,7 +489,7 @@ impl Graph {
 pub fn operands(op: &Op) -> Vec<Id> {
     match *op {
         Op::Input(_) | Op::Const(_) => vec![],
-        Op::Neg(a) | Op::Abs(a) | Op::Sqrt(a) => vec![a],
+        Op::Neg(a) | Op::Abs(a) | Op::Sqrt(a) | Op::Cbrt(a) | Op::Cos(a) => vec![a],
         Op::Add(a, b)
         | Op::Sub(a, b)
         | Op::Mul(a, b)
@@ -494,6 +512,8 @@ fn remap(op: &Op, m: impl Fn(Id) -> Id) -> Op {
         Op::Neg(a) => Op::Neg(m(a)),
         Op::Abs(a) => Op::Abs(m(a)),
         Op::Sqrt(a) => Op::Sqrt(m(a)),
+        Op::Cbrt(a) => Op::Cbrt(m(a)),
+        Op::Cos(a) => Op::Cos(m(a)),
         Op::Atan2(a, b) => Op::Atan2(m(a), m(b)),
         Op::Min(a, b) => Op::Min(m(a), m(b)),
         Op::Max(a, b) => Op::Max(m(a), m(b)),

@@ -16,6 +16,7 @@ pub mod mirror;
 pub mod parallel;
 pub mod planar;
 pub mod pose;
+pub mod quartic;
 pub mod render;
 pub mod samples;
 pub mod subproblems;
@@ -96,6 +97,10 @@ pub struct Plan {
     /// held when the position step leaves it free (joint 1 of a decoupled arm) and the one held
     /// when the orientation step does (joint 4 of a spherical wrist).
     pub free_joints: [usize; 2],
+    /// Labels are read by solving: `branch_of(q)` is the label of the solution at
+    /// `forward(q)` nearest `q` (the general family, whose labels of two roots can coincide
+    /// and then take a free slot); otherwise, and as the fallback, by [`Plan::rule`].
+    pub labels_by_solving: bool,
 }
 
 /// `+1` for non-negative, `−1` for negative.
@@ -114,6 +119,10 @@ pub struct OpCounts {
     pub sqrt: usize,
     /// Arc tangents.
     pub atan2: usize,
+    /// Cube roots (Ferrari's resolvent cubic).
+    pub cbrt: usize,
+    /// Cosines (the trigonometric form of the resolvent cubic's roots).
+    pub cos: usize,
     /// Divisions.
     pub div: usize,
     /// Multiplications.
@@ -152,6 +161,21 @@ impl Plan {
     }
 }
 
+impl OpCounts {
+    /// The rarer transcendental operations, for cost lines: empty when there are none,
+    /// otherwise `", 1 cbrt, 1 cos"` (only what the plan has).
+    pub fn rare(&self) -> String {
+        let mut out = String::new();
+        if self.cbrt > 0 {
+            out += &format!(", {} cbrt", self.cbrt);
+        }
+        if self.cos > 0 {
+            out += &format!(", {} cos", self.cos);
+        }
+        out
+    }
+}
+
 /// Counts the operations of some nodes.
 fn count_ops<'a>(nodes: impl Iterator<Item = &'a graph::Node>) -> OpCounts {
     let mut c = OpCounts::default();
@@ -159,6 +183,8 @@ fn count_ops<'a>(nodes: impl Iterator<Item = &'a graph::Node>) -> OpCounts {
         match n.op {
             Op::Sqrt(_) => c.sqrt += 1,
             Op::Atan2(..) => c.atan2 += 1,
+            Op::Cbrt(_) => c.cbrt += 1,
+            Op::Cos(_) => c.cos += 1,
             Op::Div(..) => c.div += 1,
             Op::Mul(..) => c.mul += 1,
             Op::Add(..) | Op::Sub(..) | Op::Neg(_) => c.add += 1,
@@ -313,6 +339,7 @@ fn snapped_rule(rule: BranchRule, scale: f64) -> BranchRule {
         ElbowRule::Slide { nearest } => ElbowRule::Slide {
             nearest: snap(nearest, scale),
         },
+        ElbowRule::Aspect { up } => ElbowRule::Aspect { up },
         ElbowRule::Only => ElbowRule::Only,
     };
     BranchRule {
@@ -386,6 +413,7 @@ pub fn assemble(
         settings,
         zero_reference,
         free_joints: free,
+        labels_by_solving: false,
     }
 }
 

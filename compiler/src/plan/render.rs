@@ -39,6 +39,8 @@ fn expression(g: &Graph, op: &Op) -> String {
         Op::Neg(a) => format!("-{}", r(a)),
         Op::Abs(a) => format!("abs({})", r(a)),
         Op::Sqrt(a) => format!("sqrt({})", r(a)),
+        Op::Cbrt(a) => format!("cbrt({})", r(a)),
+        Op::Cos(a) => format!("cos({})", r(a)),
         Op::Atan2(y, x) => format!("atan2({}, {})", r(y), r(x)),
         Op::Min(a, b) => format!("min({}, {})", r(a), r(b)),
         Op::Max(a, b) => format!("max({}, {})", r(a), r(b)),
@@ -58,8 +60,14 @@ impl fmt::Display for Plan {
         )?;
         writeln!(
             f,
-            "cost per solve: {} sqrt, {} atan2, {} div, {} mul, {} add/sub/neg, {} select/min/max/abs",
-            counts.sqrt, counts.atan2, counts.div, counts.mul, counts.add, counts.select
+            "cost per solve: {} sqrt, {} atan2{}, {} div, {} mul, {} add/sub/neg, {} select/min/max/abs",
+            counts.sqrt,
+            counts.atan2,
+            counts.rare(),
+            counts.div,
+            counts.mul,
+            counts.add,
+            counts.select
         )?;
         writeln!(f, "steps:")?;
         let g = &self.graph;

@@ -267,6 +267,32 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
+        Family::General => {
+            // Axes 1 and 2 apart along their common normal and not parallel, axis 3 not
+            // parallel to axis 2, the wrist center off axis 3: no named family.
+            let h2 = rng.direction_away_from(&h1, 0.9);
+            let normal = num::unit(&num::cross(&h1, &h2));
+            let p2 = num::add(
+                &num::add(&p1, &num::scale(&normal, rng.range(0.05, 0.4) * rng.sign())),
+                &num::add(
+                    &num::scale(&h1, rng.range(-0.3, 0.3)),
+                    &num::scale(&h2, rng.range(-0.3, 0.3)),
+                ),
+            );
+            let h3 = rng.direction_away_from(&h2, 0.9);
+            let p3 = num::add(&p2, &rng.point(0.6));
+            let fore = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));
+            let c = num::add(
+                &num::add(&p3, &fore),
+                &num::scale(&h3, rng.range(-0.2, 0.2)),
+            );
+            (
+                revolute(h1, p1, range),
+                revolute(h2, p2, range),
+                revolute(h3, p3, range),
+                c,
+            )
+        }
         Family::Cartesian => {
             let u1 = rng.direction();
             let u2 = rng.direction_away_from(&u1, 0.8);

@@ -115,7 +115,12 @@ pub fn rotate_back(g: &mut Graph, h: [f64; 3], c: Id, s: Id, v: V3) -> V3 {
     rotate(g, h, c, ns, v)
 }
 
-/// Names the three components of a vector `name_x`, `name_y`, `name_z`.
+/// `if c ≥ 0 { a } else { b }`, component by component.
+pub fn select(g: &mut Graph, c: Id, a: V3, b: V3) -> V3 {
+    [0, 1, 2].map(|i| g.select(c, a[i], b[i]))
+}
+
+/// Names the components of a vector (`name_x`, `name_y`, `name_z`).
 pub fn name(g: &mut Graph, v: V3, name: &str, note: &str) -> V3 {
     let axes = ["x", "y", "z"];
     let mut out = v;

@@ -59,6 +59,8 @@ pub trait Scalar:
     fn to_f64(self) -> f64;
     /// Square root.
     fn sqrt(self) -> Self;
+    /// Real cube root (negative for negative `self`).
+    fn cbrt(self) -> Self;
     /// Four-quadrant arc tangent of `self / x`.
     fn atan2(self, x: Self) -> Self;
     /// Sine and cosine, as `(sin, cos)`.
@@ -77,7 +79,16 @@ pub trait Scalar:
 
 /// Implements [`Scalar`] for one float type with its `libm` functions.
 macro_rules! scalar {
-    ($t:ident, $bits:ty, $name:literal, $sqrt:ident, $atan2:ident, $sincos:ident, $round:ident) => {
+    (
+        $t:ident,
+        $bits:ty,
+        $name:literal,
+        $sqrt:ident,
+        $cbrt:ident,
+        $atan2:ident,
+        $sincos:ident,
+        $round:ident
+    ) => {
         impl Scalar for $t {
             const ZERO: Self = 0.0;
             const ONE: Self = 1.0;
@@ -104,6 +115,17 @@ macro_rules! scalar {
                 #[cfg(not(feature = "std"))]
                 {
                     libm::$sqrt(self)
+                }
+            }
+            #[inline(always)]
+            fn cbrt(self) -> Self {
+                #[cfg(feature = "std")]
+                {
+                    $t::cbrt(self)
+                }
+                #[cfg(not(feature = "std"))]
+                {
+                    libm::$cbrt(self)
                 }
             }
             #[inline(always)]
@@ -160,8 +182,8 @@ macro_rules! scalar {
     };
 }
 
-scalar!(f64, u64, "f64", sqrt, atan2, sincos, round);
-scalar!(f32, u32, "f32", sqrtf, atan2f, sincosf, roundf);
+scalar!(f64, u64, "f64", sqrt, cbrt, atan2, sincos, round);
+scalar!(f32, u32, "f32", sqrtf, cbrtf, atan2f, sincosf, roundf);
 
 /// How a tolerance grows with the scalar's rounding error (see [`tolerance`]).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -202,6 +224,12 @@ pub fn rotation_tolerance<S: Scalar>() -> S {
 #[inline(always)]
 pub fn sqrt<S: Scalar>(x: S) -> S {
     x.sqrt()
+}
+
+/// Real cube root (`cbrt(−8) = −2`).
+#[inline(always)]
+pub fn cbrt<S: Scalar>(x: S) -> S {
+    x.cbrt()
 }
 
 /// Four-quadrant arc tangent of `y / x`.

@@ -8,7 +8,7 @@
 //! build the same candidates from the same plan as straight-line Rust.
 
 use crate::internal::{Candidate, Check, CheckKind};
-use crate::math::{abs, atan2, sqrt};
+use crate::math::{abs, atan2, cbrt, cos, sqrt};
 use crate::solution::{Branch, JOINTS};
 
 /// Index of a value in a plan.
@@ -37,6 +37,10 @@ pub enum Op {
     Sqrt(ValueId),
     /// `atan2(y, x)`.
     Atan2(ValueId, ValueId),
+    /// Real cube root `∛a` (the resolvent cubic of Ferrari's method).
+    Cbrt(ValueId),
+    /// `cos a` (the trigonometric form of a cubic's roots).
+    Cos(ValueId),
     /// The smaller of `a` and `b`.
     Min(ValueId, ValueId),
     /// The larger of `a` and `b`.
@@ -97,6 +101,8 @@ pub fn evaluate(ops: &[Op], inputs: &[f64], values: &mut [f64]) -> bool {
             Op::Abs(a) => abs(v(a)),
             Op::Sqrt(a) => sqrt(v(a)),
             Op::Atan2(y, x) => atan2(v(y), v(x)),
+            Op::Cbrt(a) => cbrt(v(a)),
+            Op::Cos(a) => cos(v(a)),
             Op::Min(a, b) => v(a).min(v(b)),
             Op::Max(a, b) => v(a).max(v(b)),
             Op::Select(c, a, b) => {
@@ -187,6 +193,23 @@ mod tests {
         assert_eq!(values[3], 6.0);
         assert_eq!(values[5], 6.0);
         assert!((values[6] - core::f64::consts::FRAC_PI_4).abs() < 1e-15);
+    }
+
+    #[test]
+    fn cube_roots_and_cosines() {
+        let ops = [
+            Op::Input(0),
+            Op::Cbrt(0),
+            Op::Cos(0),
+            Op::Neg(0),
+            Op::Cbrt(3),
+        ];
+        let mut values = [0.0; 5];
+        assert!(evaluate(&ops, &[-27.0], &mut values));
+        assert_eq!(values[1], -3.0);
+        assert_eq!(values[4], 3.0);
+        // cos(−27) = cos(27 − 8π) = cos(1.86726…) ≈ −0.29214.
+        assert!((values[2] + 0.29214).abs() < 1e-5);
     }
 
     #[test]

@@ -86,6 +86,16 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
                 s.len(nearest)
             );
         }
+        ElbowRule::Aspect { up } => {
+            let _ = writeln!(
+                out,
+                "| elbow | up / down | the sign of the position Jacobian's determinant \
+                 `det[h1 × (w − p1), h2 × (w − p2), h3 × (w − p3)]` (axes and wrist center `w` \
+                 at the configuration, joint 1 undone): which side of the singular surfaces of \
+                 joints 1–3 the configuration is on | up when {} |",
+                sign_word(up)
+            );
+        }
         ElbowRule::Only => {
             let _ = writeln!(
                 out,

@@ -20,12 +20,13 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
             Some(item) => {
                 let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
             }
-            None => {
+            None if solvable.pattern == "P P P" => {
                 let _ = writeln!(
                     out,
                     "- the wrist center moves in the box the three slides span (their limits in §1)"
                 );
             }
+            None => {}
         }
     }
     match &geometry.arm {
@@ -59,6 +60,13 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
             );
         }
         ArmEvidence::Cartesian(_) => {}
+        ArmEvidence::General(_) => {
+            let _ = writeln!(
+                out,
+                "- the reach of a general arm has no simple closed form: where two roots of the \
+                 quartic merge, two solutions meet (the position Jacobian is singular there)"
+            );
+        }
     }
     if let ArmEvidence::Elbow(e) = &geometry.arm {
         if !e.shoulder.axes_1_2_meet {

@@ -36,6 +36,7 @@ pub fn write(out: &mut String, plan: &Plan, facts: &Facts, s: &Show) {
         }
         Family::Cylindrical => cylindrical(out, facts, s),
         Family::Cartesian => cartesian(out, facts, s),
+        Family::General => general(out, plan, s),
     }
     wrist(out, plan.arm.family, facts, s);
     finishing(out, plan, s);
@@ -72,6 +73,14 @@ fn method(out: &mut String, family: Family) {
         Family::Cartesian => {
             "- **Joints 1–3 (cartesian family)**: a 3×3 linear system, inverted once by \
              Cramer's rule when the solver is generated."
+        }
+        Family::General => {
+            "- **Joints 1–3 (general family)**: joint 1 keeps the wrist center's distance from \
+             a point of axis 1 and its height along axis 1; eliminating joint 2 from those two \
+             equations leaves a **quartic** in the half-angle tangent of joint 3 (Pieper 1968), \
+             solved by **Ferrari's method** with two Newton steps per root (0–4 roots); joints \
+             2 and 1 by **Paden–Kahan subproblem 1** (Paden 1986; Murray, Li & Sastry 1994, \
+             §3.3)."
         }
     };
     let _ = writeln!(out, "{first}");
@@ -350,9 +359,88 @@ fn cartesian(out: &mut String, f: &Facts, s: &Show) {
     );
 }
 
+fn general(out: &mut String, plan: &Plan, s: &Show) {
+    let k = armforge_compiler::family::general::plan::constants(&plan.arm);
+    let _ = writeln!(out, "### 4.2 Joint 3: a quartic\n");
+    let _ = writeln!(
+        out,
+        "`f1` is the foot on axis 1 of the common normal of axes 1 and 2, `a` its length, `n` \
+         its direction, `ℓ = h2 × n`, `α` the angle between the axes; joint 3 moves the wrist \
+         center to `r(θ3) = E3(θ3) c − f2 = r0 + cos θ3 rc + sin θ3 rs` (from the normal's \
+         foot `f2` on axis 2). Joint 1 keeps `ρ = |c_t − f1|²` and `ζ = h1 · (c_t − f1)`; \
+         joint 2 keeps `Z = h2 · r` and `|r|`.\n"
+    );
+    block(
+        out,
+        &[
+            "u = c_t − f1,  ρ = |u|²,  ζ = h1 · u".into(),
+            "X = (ρ − a² − |r|²) / (2a)         (= n · R2 r)".into(),
+            "Y = (ζ − cos α Z) / sin α          (= m · R2 r,  m = (h1 − cos α h2)/sin α = μ ℓ)"
+                .into(),
+            "F(θ3) = X² + Y² + Z² − |r|² = k0 + k1 cos θ3 + k2 sin θ3 + k3 cos 2θ3 + k4 sin 2θ3 = 0"
+                .into(),
+            "t = tan((θ3 − γ)/2):  (1 + t²)² F = a4 t⁴ + a3 t³ + a2 t² + a1 t + a0,  a4 = F(γ + π)"
+                .into(),
+            "γ ∈ {−π, −2π/3, …, 2π/3}: the one with the largest |F(γ + π)|".into(),
+            "roots: Ferrari (resolvent cubic U³ + 2pU² + (p² − 4r)U − q² = 0, its largest root),"
+                .into(),
+            "       then two Newton steps t ← t − P(t)/P′(t), each kept when it lowers |P|".into(),
+        ],
+    );
+    let _ = writeln!(out, "This arm:\n");
+    block(
+        out,
+        &[
+            format!(
+                "f1 = {},  n = {},  ℓ = {}",
+                s.point(&k.f1),
+                s.dir(&k.n),
+                s.dir(&k.ell)
+            ),
+            format!(
+                "a  = {},  cos α = {},  sin α = {},  μ = {}",
+                s.len(k.a),
+                s.num(k.cos_a),
+                s.num(k.sin_a),
+                s.num(k.mu)
+            ),
+            format!(
+                "r0 = {},  rc = {},  rs = {}",
+                s.point(&k.r0),
+                s.point(&k.rc),
+                s.point(&k.rs)
+            ),
+        ],
+    );
+    let _ = writeln!(out, "### 4.3 Joints 2 and 1: Paden–Kahan subproblem 1\n");
+    block(
+        out,
+        &[
+            "θ2 = atan2((n·r) μY − (ℓ·r) X, (n·r) X + (ℓ·r) μY)      (r⊥h2 onto (X, μY))".into(),
+            "then one Newton step on (|w − f1|² − ρ, h1·(w − f1) − ζ) in (θ2, θ3), kept when it \
+             lowers the miss"
+                .into(),
+            "w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2".into(),
+            "θ1 = atan2(h1 · ((w − f1)⊥h1 × u), (w − f1)⊥h1 · u)     (the reference on axis 1)"
+                .into(),
+        ],
+    );
+    let _ = writeln!(out, "### 4.4 Which roots are real\n");
+    let _ = writeln!(
+        out,
+        "A complex pair of roots gives its real part; every candidate is checked by its miss \
+         `|E1 E2 E3 c − c_t|`, zero for a real root (at most {} of the length tolerance). \
+         Labels: the shoulder is the side of the plane through axis 1 ⟂ `n` the wrist center \
+         (joint 1 undone) is on, the elbow the sign of the position Jacobian; each root goes \
+         to the candidate of its label (two roots with one label: the second to a label no \
+         root has).\n",
+        s.num(1.0)
+    );
+}
+
 fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
     let n = match family {
-        Family::Elbow | Family::Polar => 5,
+        Family::Elbow | Family::Polar | Family::General => 5,
         Family::Cylindrical => 4,
         Family::Cartesian => 3,
     };

@@ -280,6 +280,13 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("out_of_plane", e.slide_3_out_of_plane);
             put("independence", e.independence);
         }
+        ArmEvidence::General(e) => {
+            put("common_normal_1_2", e.common_normal_1_2);
+            put("angle_1_2", e.angle_1_2);
+            put("common_normal_2_3", e.common_normal_2_3);
+            put("angle_2_3", e.angle_2_3);
+            put("wrist_center_from_axis_3", e.wrist_center_from_axis_3);
+        }
     }
     for s in &g.singularities {
         match s {

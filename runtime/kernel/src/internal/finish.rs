@@ -107,6 +107,12 @@ fn verdict<S: Scalar>(
                     return Some((Unreachable::InsideHole { by }, by));
                 }
             }
+            CheckKind::Residual => {
+                if c.have_squared > tol * tol {
+                    let by = sqrt(c.have_squared);
+                    return Some((Unreachable::BeyondReach { by }, by));
+                }
+            }
             CheckKind::WristOrientation => {
                 if c.have_squared < -settings.angle_tolerance {
                     let by = wrist_miss(c.limit, settings.wrist_twist_cosines);
@@ -140,6 +146,11 @@ pub(crate) fn passes<S: Scalar>(checks: &[Check<S>; 4], settings: &Settings<S>) 
                 let outer = c.limit + tol;
                 fails |= c.have_squared < inner * inner;
                 at_limit |= (c.limit > tol) & (c.have_squared <= outer * outer);
+            }
+            CheckKind::Residual => {
+                // A NaN residual fails too.
+                fails |= !c.have_squared.is_finite() | (c.have_squared > tol * tol);
+                at_limit |= c.limit <= tol;
             }
             CheckKind::WristOrientation => {
                 fails |= c.have_squared < -settings.angle_tolerance;

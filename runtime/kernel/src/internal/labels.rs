@@ -54,6 +54,14 @@ pub enum ElbowRule<S: Scalar = f64> {
         /// The slide value of the nearest approach.
         nearest: S,
     },
+    /// General arms (joints 1–3 of no named family): the sign of the position Jacobian's
+    /// determinant `det[h1 × (w − p1), h2 × (w − p2), h3 × (w − p3)]` with the axes and the
+    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone);
+    /// `Up` when it equals `up` (zero counts as positive).
+    Aspect {
+        /// The sign that means `Up`.
+        up: S,
+    },
     /// No elbow choice.
     Only,
 }
@@ -135,6 +143,16 @@ fn rotate<S: Scalar>(h: &[S; 3], angle: S, v: &[S; 3]) -> [S; 3] {
         c * v[1] + s * hv[1] + k * h[1],
         c * v[2] + s * hv[2] + k * h[2],
     ]
+}
+
+/// The wrist center at zero a shoulder rule carries (the origin for [`ShoulderRule::Only`]).
+fn wrist_center_of<S: Scalar>(rule: &ShoulderRule<S>) -> [S; 3] {
+    match *rule {
+        ShoulderRule::Plane { wrist_center, .. } | ShoulderRule::Radial { wrist_center, .. } => {
+            wrist_center
+        }
+        ShoulderRule::Only => [S::ZERO; 3],
+    }
 }
 
 /// The branch label of a configuration, read by the arm's rules.
@@ -229,6 +247,21 @@ fn branch_read_forward<S: Scalar>(
                 Elbow::Extended
             } else {
                 Elbow::Retracted
+            }
+        }
+        ElbowRule::Aspect { up } => {
+            // Joint 1 undone: w = E2 E3 c, axis 3 carried by joint 2.
+            let w = moved_center(&wrist_center_of(&rule.shoulder));
+            let e2 = joint_motion(&joints[1], q[1]);
+            let h3 = e2.rotate(&joints[2].axis);
+            let p3 = e2.transform_point(&joints[2].point);
+            let d1 = cross(&joints[0].axis, &sub(&w, &joints[0].point));
+            let d2 = cross(&joints[1].axis, &sub(&w, &joints[1].point));
+            let d3 = cross(&h3, &sub(&w, &p3));
+            if sign(dot(&d1, &cross(&d2, &d3))) == up {
+                Elbow::Up
+            } else {
+                Elbow::Down
             }
         }
         ElbowRule::Only => Elbow::Only,

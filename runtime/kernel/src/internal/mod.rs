@@ -43,6 +43,11 @@ pub enum CheckKind {
     /// when the two cones miss each other); `limit` is `h4 · v`, the cosine of the angle
     /// between axis 4 and the requested direction of axis 6 after joints 1–3.
     WristOrientation,
+    /// Real when `have_squared ≤ tolerance²`: `have_squared` is the squared distance (m²) by
+    /// which the candidate's joints 1–3 miss the wrist-center target (a general arm's quartic
+    /// roots: a complex pair yields its real part, which misses); otherwise beyond reach by
+    /// `√have` metres. `limit` is unused (zero). Never flags a reach boundary.
+    Residual,
 }
 
 /// A condition for a candidate to be a real solution.

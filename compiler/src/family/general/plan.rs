@@ -1,0 +1,810 @@
+//! Joints 1–3 of a general arm: R R R with any axes (no named family), solved through a
+//! quartic (Pieper 1968; Craig, Introduction to Robotics, 3rd ed., 2005, §4.6, presents the
+//! same reduction, from memory).
+//!
+//! # The reduction
+//!
+//! Let `f1`, `f2` be the feet of the common normal of axes 1 and 2, `a = |f2 − f1| > 0` its
+//! length, `n = (f2 − f1)/a`, `ℓ = h2 × n`, `cos α = h1 · h2`, `sin α = |h1 × h2| > 0`, and
+//! `m = (h1 − cos α h2)/sin α = μ ℓ` (`μ = ±1`): `(n, ℓ, h2)` is an orthonormal frame and
+//! `h1 = cos α h2 + sin α m`. Joint 3 moves the wrist center to
+//! `r(θ3) = E3(θ3) c − f2 = r0 + cos θ3 rc + sin θ3 rs` (from `f2`). Joint 1 turns about
+//! axis 1, so it keeps the distance from `f1` and the height along `h1` of the point joints
+//! 2 and 3 place: with `u = c_t − f1` (the wrist-center target from `f1`),
+//! `ρ = |u|²` and `ζ = h1 · u`,
+//!
+//! ```text
+//! |R2 r + a n|² = ρ        ⇒  n · R2 r = X := (ρ − a² − |r|²) / (2a)
+//! h1 · (R2 r + a n) = ζ    ⇒  m · R2 r = Y := (ζ − cos α Z) / sin α,   Z := h2 · r
+//! ```
+//!
+//! and joint 2 turns `r` about `h2`, keeping `Z` and the length `|r⊥|² = |r|² − Z²` of its part
+//! ⟂ `h2`. So `θ3` solves
+//!
+//! ```text
+//! F(θ3) = X² + Y² + Z² − |r|² = 0,
+//! ```
+//!
+//! a trigonometric polynomial of degree 2 (`X`, `Y`, `Z` and `|r|²` are each
+//! `k0 + k1 cos θ3 + k2 sin θ3`), i.e. a quartic in a half-angle tangent:
+//! [`crate::plan::quartic::trig_roots`] solves it by Ferrari's method (at most 4 roots: Pieper 1968).
+//!
+//! # Back substitution
+//!
+//! * Joint 2, Paden–Kahan subproblem 1 in the plane ⟂ `h2`: turn `r⊥ = (n·r, ℓ·r)` onto
+//!   `(X, μY)`: `cos θ2 ∝ (n·r) X + (ℓ·r) μY`, `sin θ2 ∝ (n·r) μY − (ℓ·r) X`.
+//! * Joint 1, Paden–Kahan subproblem 1 about `h1`: turn `w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ
+//!   + Z h2` onto `u`; the reference value when the target is on axis 1.
+//! * A complex pair of roots gives its real part; the candidate's check is its residual
+//!   `|E1 E2 E3 c − c_t|²`, which such a candidate misses by.
+//!
+//! # Labels
+//!
+//! The shoulder label is the side of the plane through axis 1 ⟂ `n` the wrist center is on
+//! (the elbow family's rule), the elbow label the sign of the position Jacobian's determinant
+//! (the aspect). Each root is routed to the slot of its own label (the one with the smallest
+//! residual when two share a label, so a complex root never displaces a real one).
+
+use armforge_runtime::internal::{CheckKind, ElbowRule, ShoulderRule};
+use armforge_runtime::plan::CheckLayout;
+use armforge_runtime::{Elbow, Shoulder};
+
+use crate::plan::arm::Arm;
+use crate::plan::graph::{Graph, Id};
+use crate::plan::quartic::{away_from_zero, trig_roots};
+use crate::plan::subproblems::rotate_onto;
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::{sign, unit_pair, ArmSolution, Target, Turn};
+use crate::units::tidy;
+
+/// Added to a root's residual in the slots of the labels it does not have: such a candidate
+/// always fails its check (m²).
+const MISMATCH: f64 = 1e30;
+
+/// The constants of a general arm's position step.
+#[derive(Clone, Copy, Debug)]
+pub struct Constants {
+    /// Axis 1.
+    pub h1: [f64; 3],
+    /// Axis 2.
+    pub h2: [f64; 3],
+    /// Axis 3.
+    pub h3: [f64; 3],
+    /// Foot of the common normal on axis 1.
+    pub f1: [f64; 3],
+    /// Length of the common normal of axes 1 and 2.
+    pub a: f64,
+    /// Unit common normal, from axis 1 toward axis 2.
+    pub n: [f64; 3],
+    /// `h2 × n`.
+    pub ell: [f64; 3],
+    /// `cos α = h1 · h2`.
+    pub cos_a: f64,
+    /// `sin α = |h1 × h2|`.
+    pub sin_a: f64,
+    /// `m · ℓ = ±1`.
+    pub mu: f64,
+    /// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`.
+    pub r0: [f64; 3],
+    /// See `r0`.
+    pub rc: [f64; 3],
+    /// See `r0`.
+    pub rs: [f64; 3],
+    /// `h3 × rc`, `h3 × rs`: `h3 × R3 (c − p3)` for the Jacobian.
+    pub jc: [f64; 3],
+    /// See `jc`.
+    pub js: [f64; 3],
+    /// The shoulder side that means `Facing` (the side at zero).
+    pub facing: f64,
+    /// The Jacobian sign that means `Up` (the sign at zero).
+    pub up: f64,
+}
+
+/// The common normal of two lines `p + s h`: its feet on each line.
+fn common_normal(p1: &[f64; 3], h1: &[f64; 3], p2: &[f64; 3], h2: &[f64; 3]) -> [[f64; 3]; 2] {
+    let w0 = num::sub(p1, p2);
+    let b = num::dot(h1, h2);
+    let d = num::dot(h1, &w0);
+    let e = num::dot(h2, &w0);
+    let denom = (1.0 - b * b).max(1e-300);
+    let s = (b * e - d) / denom;
+    let t = (e - b * d) / denom;
+    [
+        num::add(p1, &num::scale(h1, s)),
+        num::add(p2, &num::scale(h2, t)),
+    ]
+}
+
+/// The constants of `arm` (the classifier has made sure that `sin α` and `a` are clear of
+/// zero; they are kept above 1e-300 here all the same).
+pub fn constants(arm: &Arm) -> Constants {
+    let c = arm.wrist_center;
+    let (h1, p1) = (arm.axis(0), arm.point(0));
+    let (h2, p2) = (arm.axis(1), arm.point(1));
+    let (h3, p3) = (arm.axis(2), arm.point(2));
+    let cos_a = num::dot(&h1, &h2);
+    let sin_a = num::norm(&num::cross(&h1, &h2)).max(1e-300);
+    let [f1, f2] = common_normal(&p1, &h1, &p2, &h2);
+    let a = num::norm(&num::sub(&f2, &f1)).max(1e-300);
+    let n = num::scale(&num::sub(&f2, &f1), 1.0 / a);
+    let ell = num::cross(&h2, &n);
+    let m = num::scale(&num::sub(&h1, &num::scale(&h2, cos_a)), 1.0 / sin_a);
+    let mu = sign(num::dot(&m, &ell));
+    let v = num::sub(&c, &p3);
+    let along = num::dot(&h3, &v);
+    let r0 = num::add(&num::sub(&p3, &f2), &num::scale(&h3, along));
+    let rc = num::sub(&v, &num::scale(&h3, along));
+    let rs = num::cross(&h3, &v);
+    // The labels at zero: the wrist center's side of the plane, the Jacobian's sign.
+    let facing = sign(num::dot(&n, &num::sub(&c, &f1)));
+    let d1 = num::cross(&h1, &num::sub(&c, &p1));
+    let d2 = num::cross(&h2, &num::sub(&c, &p2));
+    let d3 = num::cross(&h3, &v);
+    let up = sign(num::dot(&d1, &num::cross(&d2, &d3)));
+    Constants {
+        h1,
+        h2,
+        h3,
+        f1,
+        a,
+        n,
+        ell,
+        cos_a,
+        sin_a,
+        mu,
+        r0,
+        rc,
+        rs,
+        jc: num::cross(&h3, &rc),
+        js: num::cross(&h3, &rs),
+        facing,
+        up,
+    }
+}
+
+/// The label rules of a general arm.
+pub fn rules(arm: &Arm, k: &Constants) -> (ShoulderRule, ElbowRule) {
+    (
+        ShoulderRule::Plane {
+            normal: k.n,
+            point: k.f1,
+            wrist_center: arm.wrist_center,
+            facing: k.facing,
+        },
+        ElbowRule::Aspect { up: k.up },
+    )
+}
+
+/// `k0 + k1 cos θ + k2 sin θ` with constant `k1`, `k2` and the graph value `k0`.
+type Linear = [Id; 3];
+
+/// `L²` as a degree-2 trigonometric polynomial `[k0, k1, k2, k3, k4]` (coefficients of
+/// `1, cos θ, sin θ, cos 2θ, sin 2θ`).
+fn squared(g: &mut Graph, [l0, l1, l2]: Linear) -> [Id; 5] {
+    let half = g.constant(0.5);
+    let two = g.constant(2.0);
+    let l00 = g.mul(l0, l0);
+    let l11 = g.mul(l1, l1);
+    let l22 = g.mul(l2, l2);
+    let sum = g.add(l11, l22);
+    let diff = g.sub(l11, l22);
+    let k0 = g.mul(half, sum);
+    let k0 = g.add(l00, k0);
+    let l01 = g.mul(l0, l1);
+    let l02 = g.mul(l0, l2);
+    let l12 = g.mul(l1, l2);
+    [k0, g.mul(two, l01), g.mul(two, l02), g.mul(half, diff), l12]
+}
+
+/// `k · (const, cos θ, sin θ)` pieces of `k · r(θ3)` for a constant direction `k`.
+fn along(g: &mut Graph, k: &Constants, d: [f64; 3]) -> Linear {
+    [
+        g.constant(num::dot(&d, &k.r0)),
+        g.constant(num::dot(&d, &k.rc)),
+        g.constant(num::dot(&d, &k.rs)),
+    ]
+}
+
+/// `l0 + l1 c + l2 s`.
+fn at(g: &mut Graph, [l0, l1, l2]: Linear, (c, s): (Id, Id)) -> Id {
+    let x = g.mul(l1, c);
+    let y = g.mul(l2, s);
+    let xy = g.add(x, y);
+    g.add(l0, xy)
+}
+
+/// One root carried through joints 2 and 1, before routing to a labelled slot.
+struct Root {
+    angles: [Id; 3],
+    turns: [(Id, Id); 3],
+    residual: Id,
+    /// `det² / scale⁵` (metres): at most the length tolerance where two roots merge.
+    merge: Id,
+    /// `≥ 0` for `Facing`.
+    facing: Id,
+    /// `≥ 0` for `Up`.
+    up: Id,
+}
+
+/// Builds joints 1–3 of a general arm: four labelled slots, each holding the root of its
+/// label (a failing candidate when no root has it).
+pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec<ArmSolution> {
+    let tol = 1e-10 * arm.scale;
+    let u = vec3::add_const(g, ct, num::scale(&k.f1, -1.0));
+    let u = vec3::name(
+        g,
+        u,
+        "u",
+        "u = c_t − f1: the target from the foot of the common normal",
+    );
+    let rho = vec3::dot(g, u, u);
+    let rho = g.name(rho, "rho", "ρ = |u|²");
+    let zeta = vec3::dot_const(g, k.h1, u);
+    let zeta = g.name(zeta, "zeta", "ζ = h1 · u");
+    // |r|² = K0 + K1 c3 + K2 s3 (rc ⟂ rs, |rc| = |rs|).
+    let kk = [
+        num::dot(&k.r0, &k.r0) + num::dot(&k.rc, &k.rc),
+        2.0 * num::dot(&k.r0, &k.rc),
+        2.0 * num::dot(&k.r0, &k.rs),
+    ];
+    let z = along(g, k, k.h2);
+    let inv_2a = 1.0 / (2.0 * k.a);
+    let x0 = {
+        let shift = g.constant(k.a * k.a + kk[0]);
+        let d = g.sub(rho, shift);
+        let s = g.constant(inv_2a);
+        let x0 = g.mul(s, d);
+        g.name(
+            x0,
+            "x0",
+            format!(
+                "X = (ρ − a² − |r|²)/(2a): constant part, a = {} m",
+                tidy(k.a)
+            ),
+        )
+    };
+    let x = [x0, g.constant(-kk[1] * inv_2a), g.constant(-kk[2] * inv_2a)];
+    let cot = k.cos_a / k.sin_a;
+    let y0 = {
+        let zc = g.constant_value(z[0]).unwrap_or(0.0);
+        let shift = g.constant(k.cos_a * zc);
+        let d = g.sub(zeta, shift);
+        let s = g.constant(1.0 / k.sin_a);
+        let y0 = g.mul(s, d);
+        g.name(
+            y0,
+            "y0",
+            format!(
+                "Y = (ζ − cos α Z)/sin α: constant part, cos α = {}, sin α = {}",
+                tidy(k.cos_a),
+                tidy(k.sin_a)
+            ),
+        )
+    };
+    let zv = [z[1], z[2]].map(|id| g.constant_value(id).unwrap_or(0.0));
+    let y = [y0, g.constant(-cot * zv[0]), g.constant(-cot * zv[1])];
+    let (fx, fy, fz) = (squared(g, x), squared(g, y), squared(g, z));
+    let mut f = [0; 5];
+    for i in 0..5 {
+        let s = g.add(fx[i], fy[i]);
+        let s = g.add(s, fz[i]);
+        f[i] = if i < 3 {
+            let r = g.constant(kk[i]);
+            g.sub(s, r)
+        } else {
+            s
+        };
+    }
+    let notes = [
+        "k0",
+        "k1 (cos θ3)",
+        "k2 (sin θ3)",
+        "k3 (cos 2θ3)",
+        "k4 (sin 2θ3)",
+    ];
+    for (fi, note) in f.iter_mut().zip(notes) {
+        *fi = g.name(
+            *fi,
+            &format!("j3_{}", note.split(' ').next().unwrap_or("k")),
+            format!("F(θ3) = X² + Y² + Z² − |r|²: {note}"),
+        );
+    }
+    let roots = trig_roots(g, f, "j3");
+    // The target on axis 1: joint 1 is free (the reference is used).
+    let zz = g.mul(zeta, zeta);
+    let radial2 = g.sub(rho, zz);
+    let floor = g.exact(tol * tol);
+    let on_axis = g.sub(floor, radial2);
+    let on_axis = g.name(
+        on_axis,
+        "j1_free",
+        "≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)",
+    );
+    let carried: Vec<Root> = roots
+        .roots
+        .iter()
+        .enumerate()
+        .map(|(i, &cs3)| {
+            carry(
+                g,
+                k,
+                t,
+                (u, rho, zeta),
+                x,
+                y,
+                z,
+                cs3,
+                on_axis,
+                (i + 1, arm.scale),
+            )
+        })
+        .collect();
+    route(g, k, &carried, on_axis, (tol, arm.scale))
+}
+
+/// The wrist center with joint 1 undone for joint pairs `(c2, s2)`, `(c3, s3)`:
+/// `w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2`, with `n · (w − f1)` and `∂w/∂θ3`.
+struct Placed {
+    w: V3,
+    along_n: Id,
+    /// `∂w/∂θ3 = R2 (h3 × R3 (c − p3))`.
+    d3: V3,
+}
+
+fn placed(
+    g: &mut Graph,
+    k: &Constants,
+    z: Linear,
+    (c2, s2): (Id, Id),
+    (c3, s3): (Id, Id),
+) -> Placed {
+    let rn = along(g, k, k.n);
+    let rl = along(g, k, k.ell);
+    let rn = at(g, rn, (c3, s3));
+    let rl = at(g, rl, (c3, s3));
+    let zv = at(g, z, (c3, s3));
+    let along_n = {
+        let p = g.mul(c2, rn);
+        let q = g.mul(s2, rl);
+        let d = g.sub(p, q);
+        let a = g.constant(k.a);
+        g.add(a, d)
+    };
+    let along_l = g.mul_add2(s2, rn, c2, rl);
+    let w = {
+        let wn = vec3::scale_const(g, along_n, k.n);
+        let wl = vec3::scale_const(g, along_l, k.ell);
+        let wh = vec3::scale_const(g, zv, k.h2);
+        let s = vec3::add(g, wn, wl);
+        vec3::add(g, s, wh)
+    };
+    let d3 = {
+        let p = vec3::scale_const(g, c3, k.jc);
+        let q = vec3::scale_const(g, s3, k.js);
+        let s = vec3::add(g, p, q);
+        vec3::rotate(g, k.h2, c2, s2, s)
+    };
+    Placed { w, along_n, d3 }
+}
+
+/// `∂w/∂θ2 = h2 × (w − f2)` (axis 2 through `f2 = f1 + a n`).
+fn d_theta2(g: &mut Graph, k: &Constants, w: V3) -> V3 {
+    let h2 = vec3::constant(g, k.h2);
+    let w2 = vec3::add_const(g, w, num::scale(&k.n, -k.a));
+    vec3::cross(g, h2, w2)
+}
+
+/// The misses of the two equations joint 1 leaves, `|w − f1|² − ρ` and `h1 · (w − f1) − ζ`,
+/// and a squared length that weighs them alike, `G1² / (4 max(ρ, tol²)) + G2²`.
+fn misses(g: &mut Graph, k: &Constants, w: V3, rho: Id, zeta: Id, four_rho: Id) -> (Id, Id, Id) {
+    let ww = vec3::dot(g, w, w);
+    let g1 = g.sub(ww, rho);
+    let hw = vec3::dot_const(g, k.h1, w);
+    let g2 = g.sub(hw, zeta);
+    let g11 = g.mul(g1, g1);
+    let a = g.div(g11, four_rho);
+    let g22 = g.mul(g2, g2);
+    (g1, g2, g.add(a, g22))
+}
+
+/// `(c, s)` turned by the small angle `δ` (`cos δ ≈ 1 − δ²/2`, `sin δ ≈ δ`), made a unit
+/// pair again.
+fn turn_by(g: &mut Graph, (c, s): (Id, Id), delta: Id) -> (Id, Id) {
+    let dd = g.mul(delta, delta);
+    let half = g.constant(0.5);
+    let hdd = g.mul(half, dd);
+    let one = g.constant(1.0);
+    let cd = g.sub(one, hdd);
+    let nc = {
+        let x = g.mul(c, cd);
+        let y = g.mul(s, delta);
+        g.sub(x, y)
+    };
+    let ns = g.mul_add2(s, cd, c, delta);
+    unit_pair(g, nc, ns)
+}
+
+/// Joints 2 and 1 for one root of joint 3, its residual and its labels.
+///
+/// After the quartic, one guarded Newton step on the two equations joint 1 leaves
+/// (`|w − f1|² = ρ`, `h1 · (w − f1) = ζ`) in `(θ2, θ3)`: the quartic squares the equations
+/// when it eliminates `θ2`, and loses about `ε / a` when axes 1 and 2 nearly meet; the step
+/// on the equations themselves gives the digits back wherever the Jacobian is regular.
+#[allow(clippy::too_many_arguments)]
+fn carry(
+    g: &mut Graph,
+    k: &Constants,
+    t: &Target,
+    (u, rho, zeta): (V3, Id, Id),
+    x: Linear,
+    y: Linear,
+    z: Linear,
+    (c3, s3): (Id, Id),
+    on_axis: Id,
+    (n, scale): (usize, f64),
+) -> Root {
+    let rn = along(g, k, k.n);
+    let rl = along(g, k, k.ell);
+    let rn = at(g, rn, (c3, s3));
+    let rl = at(g, rl, (c3, s3));
+    let xv = at(g, x, (c3, s3));
+    let yv = at(g, y, (c3, s3));
+    let my = if k.mu > 0.0 { yv } else { g.neg(yv) };
+    // Paden–Kahan 1 in the plane ⟂ h2: (n·r, ℓ·r) onto (X, μY).
+    let nc = g.mul_add2(rn, xv, rl, my);
+    let a = g.mul(rn, my);
+    let b = g.mul(rl, xv);
+    let ns = g.sub(a, b);
+    let (c2, s2) = unit_pair(g, nc, ns);
+    // One Newton step on (G1, G2) in (θ2, θ3), kept when it lowers the miss.
+    let tol = g.exact(1e-20);
+    let four_rho = {
+        let four = g.constant(4.0);
+        let r = g.max(rho, tol);
+        g.mul(four, r)
+    };
+    let before = placed(g, k, z, (c2, s2), (c3, s3));
+    let (g1, g2, miss0) = misses(g, k, before.w, rho, zeta, four_rho);
+    let d2 = d_theta2(g, k, before.w);
+    let two = g.constant(2.0);
+    let j11 = vec3::dot(g, before.w, d2);
+    let j11 = g.mul(two, j11);
+    let j12 = vec3::dot(g, before.w, before.d3);
+    let j12 = g.mul(two, j12);
+    let j21 = vec3::dot_const(g, k.h1, d2);
+    let j22 = vec3::dot_const(g, k.h1, before.d3);
+    let det = {
+        let p = g.mul(j11, j22);
+        let q = g.mul(j12, j21);
+        let d = g.sub(p, q);
+        away_from_zero(g, d)
+    };
+    // (δ2, δ3) = −J⁻¹ (G1, G2).
+    let delta2 = {
+        let p = g.mul(j22, g1);
+        let q = g.mul(j12, g2);
+        let d = g.sub(q, p);
+        g.div(d, det)
+    };
+    let delta3 = {
+        let p = g.mul(j21, g1);
+        let q = g.mul(j11, g2);
+        let d = g.sub(p, q);
+        g.div(d, det)
+    };
+    let (c2n, s2n) = turn_by(g, (c2, s2), delta2);
+    let (c3n, s3n) = turn_by(g, (c3, s3), delta3);
+    let after = placed(g, k, z, (c2n, s2n), (c3n, s3n));
+    let (_, _, miss1) = misses(g, k, after.w, rho, zeta, four_rho);
+    let lowers = g.sub(miss0, miss1);
+    // A short step only (|δ| ≤ 1e-6 rad): the step polishes a root; it must not carry the real
+    // part of a complex pair onto a neighbouring real root (a duplicate with another label).
+    let d22 = g.mul(delta2, delta2);
+    let d33 = g.mul(delta3, delta3);
+    let step2 = g.add(d22, d33);
+    let bound = g.exact(1e-12);
+    let short = g.sub(bound, step2);
+    let better = g.min(lowers, short);
+    let better = g.name(
+        better,
+        &format!("refine_{n}"),
+        "≥ 0 when the Newton step on the two equations is short and lowers the miss",
+    );
+    let c2 = g.select(better, c2n, c2);
+    let s2 = g.select(better, s2n, s2);
+    let c3 = g.select(better, c3n, c3);
+    let s3 = g.select(better, s3n, s3);
+    let w = vec3::select(g, better, after.w, before.w);
+    let along_n = g.select(better, after.along_n, before.along_n);
+    let d3 = vec3::select(g, better, after.d3, before.d3);
+    let theta3 = g.atan2(s3, c3);
+    let theta3 = g.name(theta3, &format!("q3_{n}"), "θ3 = atan2(sin θ3, cos θ3)");
+    let theta2 = g.atan2(s2, c2);
+    let theta2 = g.name(
+        theta2,
+        &format!("q2_{n}"),
+        "Paden–Kahan 1: θ2 = atan2((n·r) μY − (ℓ·r) X, (n·r) X + (ℓ·r) μY), refined",
+    );
+    let w = vec3::name(
+        g,
+        w,
+        &format!("w_{n}"),
+        "w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone",
+    );
+    let height = vec3::dot_const(g, k.h1, w);
+    let axial = vec3::scale_const(g, height, k.h1);
+    let w_perp = vec3::sub(g, w, axial);
+    let (nc1, ns1) = rotate_onto(g, k.h1, w_perp, u);
+    let (c1, s1) = unit_pair(g, nc1, ns1);
+    let c1 = g.select(on_axis, t.reference1.0, c1);
+    let s1 = g.select(on_axis, t.reference1.1, s1);
+    let theta1 = g.atan2(s1, c1);
+    let theta1 = g.name(
+        theta1,
+        &format!("q1_{n}"),
+        "Paden–Kahan 1: θ1 turns w onto u about axis 1 (the reference on axis 1)",
+    );
+    let turned = vec3::rotate(g, k.h1, c1, s1, w);
+    let miss = vec3::sub(g, turned, u);
+    let residual = vec3::dot(g, miss, miss);
+    let residual = g.name(
+        residual,
+        &format!("miss_{n}"),
+        "|E1 E2 E3 c − c_t|²: zero for a real root",
+    );
+    // Labels: the side n · (w − f1), and det[h1 × (w − f1), h2 × (w − f2), R2 (h3 × R3 v)].
+    let facing = g.constant(k.facing);
+    let side = g.mul(facing, along_n);
+    let h1 = vec3::constant(g, k.h1);
+    let d1 = vec3::cross(g, h1, w);
+    let d2 = d_theta2(g, k, w);
+    let d23 = vec3::cross(g, d2, d3);
+    let det = vec3::dot(g, d1, d23);
+    let up_sign = g.constant(k.up);
+    let up = g.mul(up_sign, det);
+    let det2 = g.mul(det, det);
+    let per_scale5 = g.constant(1.0 / scale.powi(5));
+    let merge = g.mul(det2, per_scale5);
+    let merge = g.name(
+        merge,
+        &format!("merge_{n}"),
+        "det² / scale⁵: at most the length tolerance where two roots merge (a reach boundary)",
+    );
+    Root {
+        angles: [theta1, theta2, theta3],
+        turns: [(c1, s1), (c2, s2), (c3, s3)],
+        residual,
+        merge,
+        facing: g.name(side, &format!("side_{n}"), "≥ 0: shoulder facing"),
+        up: g.name(up, &format!("aspect_{n}"), "≥ 0: elbow up (Jacobian sign)"),
+    }
+}
+
+/// The values of one root that a slot carries.
+#[derive(Clone, Copy)]
+struct Bundle {
+    angles: [Id; 3],
+    turns: [(Id, Id); 3],
+    residual: Id,
+    merge: Id,
+    /// Indicators (1 or 0) of which root this is.
+    which: [Id; 4],
+}
+
+impl Bundle {
+    fn pick(g: &mut Graph, c: Id, a: &Bundle, b: &Bundle) -> Bundle {
+        let mut out = *b;
+        for j in 0..3 {
+            out.angles[j] = g.select(c, a.angles[j], b.angles[j]);
+            out.turns[j].0 = g.select(c, a.turns[j].0, b.turns[j].0);
+            out.turns[j].1 = g.select(c, a.turns[j].1, b.turns[j].1);
+        }
+        out.residual = g.select(c, a.residual, b.residual);
+        out.merge = g.select(c, a.merge, b.merge);
+        for i in 0..4 {
+            out.which[i] = g.select(c, a.which[i], b.which[i]);
+        }
+        out
+    }
+}
+
+/// The bundle with the smallest rank, and its check value (`checks[i]` for bundle `i`).
+fn smallest(g: &mut Graph, bundles: &[Bundle], ranks: &[Id], checks: &[Id]) -> (Bundle, Id) {
+    let mut best = bundles[0];
+    let mut rank = ranks[0];
+    let mut check = checks[0];
+    for ((b, &r), &c) in bundles.iter().zip(ranks).zip(checks).skip(1) {
+        let lower = g.sub(rank, r);
+        best = Bundle::pick(g, lower, b, &best);
+        rank = g.select(lower, r, rank);
+        check = g.select(lower, c, check);
+    }
+    (best, check)
+}
+
+/// Routes each root to the slot of its label: slot `(shoulder, elbow)` takes, among the
+/// roots with that label, a real one (residual within `tol`) before a complex one, and among
+/// those the one farthest from the shoulder plane, ties broken by `θ3` (a rank that rounding
+/// cannot swap, so that solving again at the same pose routes alike). A slot that no root belongs to then takes
+/// the best root no slot took (two real roots with one label: the second would otherwise be
+/// lost; it keeps its joint values under this slot's label), else fails its check
+/// ([`MISMATCH`] added to its residual).
+fn route(
+    g: &mut Graph,
+    k: &Constants,
+    roots: &[Root],
+    on_axis: Id,
+    (tol, scale): (f64, f64),
+) -> Vec<ArmSolution> {
+    let big = g.exact(MISMATCH);
+    let zero = g.constant(0.0);
+    let one = g.constant(1.0);
+    let slots = [
+        (Shoulder::Facing, Elbow::Up),
+        (Shoulder::Facing, Elbow::Down),
+        (Shoulder::Across, Elbow::Up),
+        (Shoulder::Across, Elbow::Down),
+    ];
+    // A root that lands on an earlier real one (joints 2 and 3 within about 1e-5 rad: a
+    // double root, or a complex pair's real part polished onto a real root) is that root
+    // again: it fails its check.
+    let near = g.exact(1e-10);
+    let tol2 = g.exact(tol * tol);
+    let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
+    for j in 1..roots.len() {
+        for i in 0..j {
+            let mut d = zero;
+            for joint in 1..3 {
+                let (a, b) = (roots[i].turns[joint], roots[j].turns[joint]);
+                let dc = g.sub(a.0, b.0);
+                let ds = g.sub(a.1, b.1);
+                let dd = g.mul_add2(dc, dc, ds, ds);
+                d = g.add(d, dd);
+            }
+            let same = g.sub(near, d);
+            // Only a real earlier root makes this one a copy.
+            let real = g.sub(tol2, roots[i].residual);
+            let same = g.min(same, real);
+            let penalty = g.select(same, big, zero);
+            residuals[j] = g.add(residuals[j], penalty);
+        }
+    }
+    let bundles: Vec<Bundle> = roots
+        .iter()
+        .zip(&residuals)
+        .enumerate()
+        .map(|(i, (r, &residual))| Bundle {
+            angles: r.angles,
+            turns: r.turns,
+            residual,
+            merge: r.merge,
+            which: [0, 1, 2, 3].map(|j| if j == i { one } else { zero }),
+        })
+        .collect();
+    // Rank: unreal roots last, then nearest the shoulder plane last.
+    let unreal = g.exact(MISMATCH * 1e-10);
+    let floor = g.exact(tol * tol);
+    let tie_weight = g.exact(1e-6 * scale);
+    let base_rank: Vec<Id> = roots
+        .iter()
+        .zip(&residuals)
+        .map(|(r, &residual)| {
+            let over = g.sub(residual, floor);
+            let u = g.select(over, unreal, zero);
+            let side = g.abs(r.facing);
+            // θ3 breaks ties (symmetric arms put two roots equally far from the plane).
+            let tie = g.mul(tie_weight, r.angles[2]);
+            let u = g.add(u, tie);
+            g.sub(u, side)
+        })
+        .collect();
+    // Pass 1: each slot's own roots.
+    let mut first = Vec::new();
+    for &(shoulder, elbow) in &slots {
+        let penalties: Vec<Id> = roots
+            .iter()
+            .map(|r| {
+                let side = if shoulder == Shoulder::Facing {
+                    r.facing
+                } else {
+                    g.neg(r.facing)
+                };
+                let aspect = if elbow == Elbow::Up {
+                    r.up
+                } else {
+                    g.neg(r.up)
+                };
+                let p1 = g.select(side, zero, big);
+                let p2 = g.select(aspect, zero, big);
+                g.add(p1, p2)
+            })
+            .collect();
+        let ranks: Vec<Id> = penalties
+            .iter()
+            .zip(&base_rank)
+            .map(|(&p, &r)| g.add(p, r))
+            .collect();
+        let checks: Vec<Id> = penalties
+            .iter()
+            .zip(&residuals)
+            .map(|(&p, &r)| g.add(r, p))
+            .collect();
+        first.push(smallest(g, &bundles, &ranks, &checks));
+    }
+    // Which roots pass 1 placed (a slot "has" its root when its score is below MISMATCH).
+    let half_big = g.exact(MISMATCH / 2.0);
+    let mut taken = [zero; 4];
+    let mut has = Vec::new();
+    for (b, score) in &first {
+        let h = g.sub(half_big, *score);
+        for (slot, &which) in taken.iter_mut().zip(&b.which) {
+            let t = g.select(h, which, zero);
+            *slot = g.max(*slot, t);
+        }
+        has.push(h);
+    }
+    // Pass 2: an empty slot takes the best root not yet taken.
+    let mut out = Vec::new();
+    for (s, &(shoulder, elbow)) in slots.iter().enumerate() {
+        let tag = format!(
+            "{}{}",
+            if shoulder == Shoulder::Facing {
+                "f"
+            } else {
+                "a"
+            },
+            if elbow == Elbow::Up { "u" } else { "d" }
+        );
+        let penalties: Vec<Id> = taken.iter().map(|&t| g.mul(big, t)).collect();
+        let ranks: Vec<Id> = penalties
+            .iter()
+            .zip(&base_rank)
+            .map(|(&p, &r)| g.add(p, r))
+            .collect();
+        let checks: Vec<Id> = penalties
+            .iter()
+            .zip(&bundles)
+            .map(|(&p, b)| g.add(b.residual, p))
+            .collect();
+        let (spare, spare_score) = smallest(g, &bundles, &ranks, &checks);
+        let (own, own_score) = first[s];
+        let bundle = Bundle::pick(g, has[s], &own, &spare);
+        let score = g.select(has[s], own_score, spare_score);
+        // The spare root is taken now (only when this slot used it).
+        let empty = g.neg(has[s]);
+        for (slot, &which) in taken.iter_mut().zip(&spare.which) {
+            let t = g.select(empty, which, zero);
+            *slot = g.max(*slot, t);
+        }
+        let score = g.name(
+            score,
+            &format!("miss_{tag}"),
+            "the residual of this label's root (or of a spare root, when none has the label)",
+        );
+        let mut angles = bundle.angles;
+        for (j, a) in angles.iter_mut().enumerate() {
+            *a = g.name(*a, &format!("q{}_{tag}", j + 1), "this label's root");
+        }
+        out.push(ArmSolution {
+            angles,
+            undo: vec![
+                Turn::about(k.h1, bundle.turns[0]),
+                Turn::about(k.h2, bundle.turns[1]),
+                Turn::about(k.h3, bundle.turns[2]),
+            ],
+            shoulder,
+            elbow,
+            checks: vec![CheckLayout {
+                kind: CheckKind::Residual,
+                have_squared: score,
+                limit: bundle.merge,
+            }],
+            on_axis_1: Some(on_axis),
+        });
+    }
+    out
+}
+
+#[cfg(test)]
+#[path = "plan_tests.rs"]
+mod tests;
