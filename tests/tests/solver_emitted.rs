@@ -33,6 +33,7 @@ emitted!(elbow_two_turns, "generated/elbow_two_turns.rs");
 emitted!(polar, "generated/polar.rs");
 emitted!(cylindrical, "generated/cylindrical.rs");
 emitted!(cartesian, "generated/cartesian.rs");
+emitted!(general, "generated/general.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -125,6 +126,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(polar), "polar"),
         compare(api!(cylindrical), "cylindrical"),
         compare(api!(cartesian), "cartesian"),
+        compare(api!(general), "general"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
     assert_eq!(

@@ -156,7 +156,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 6] {
+pub fn fixtures() -> [Fixture; 7] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -181,6 +181,7 @@ pub fn fixtures() -> [Fixture; 6] {
         fixture("polar", Family::Polar, 14, plain),
         fixture("cylindrical", Family::Cylindrical, 15, plain),
         fixture("cartesian", Family::Cartesian, 16, plain),
+        fixture("general", Family::General, 17, plain),
     ]
 }
 

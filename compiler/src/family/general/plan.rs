@@ -739,7 +739,7 @@ fn route(
         let h = g.sub(half_big, *score);
         for (slot, &which) in taken.iter_mut().zip(&b.which) {
             let t = g.select(h, which, zero);
-            *slot = g.max(*slot, t);
+            *slot = g.add(*slot, t);
         }
         has.push(h);
     }
@@ -774,7 +774,7 @@ fn route(
         let empty = g.neg(has[s]);
         for (slot, &which) in taken.iter_mut().zip(&spare.which) {
             let t = g.select(empty, which, zero);
-            *slot = g.max(*slot, t);
+            *slot = g.add(*slot, t);
         }
         let score = g.name(
             score,
