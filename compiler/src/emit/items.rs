@@ -449,10 +449,12 @@ fn branch_of_fn(plan: &Plan, l: Literals) -> TokenStream {
                 joints,
                 SETTINGS.limit_tolerance,
             );
+            let mut all = candidates(&target, &reference);
+            free_joints(&target, &reference, &mut all);
             match ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &free_candidates(&target, &reference),
+                &all,
                 joints,
                 &anchor,
             ) {
