@@ -94,8 +94,16 @@ emitted_arms! {
     ceiling_transfer = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader = "../arms/centrifuge-loader-dh.toml";
     hotel_loader = "../arms/hotel-loader-axes.toml";
+    lid_lifter = "../arms/lid-lifter-axes.toml";
     rack_loader = "../arms/rack-loader-mdh.toml";
     tray_gantry = "../arms/tray-gantry-axes.toml";
+}
+
+emitted_arms! {
+    /// The invented arms of the general family (a quartic for joints 1–3) that are test
+    /// fixtures, not yet example arms.
+    GENERAL_ARMS: f64;
+    reagent_rack_reacher = "fixtures/general/reagent-rack-reacher-axes.toml";
 }
 
 emitted_arms! {
@@ -106,6 +114,7 @@ emitted_arms! {
     ceiling_transfer_f32 = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader_f32 = "../arms/centrifuge-loader-dh.toml";
     hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
+    lid_lifter_f32 = "../arms/lid-lifter-axes.toml";
     rack_loader_f32 = "../arms/rack-loader-mdh.toml";
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
 }

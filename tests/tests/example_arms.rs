@@ -1,7 +1,8 @@
-//! The example arms in `arms/` are what later stages rely on: every one has a spherical wrist
-//! (axes 4, 5 and 6 meet in one point, axis 4 ∦ axis 5, axis 5 ∦ axis 6) and its first three
-//! joints form one of the solvable families (elbow, polar, cylindrical, cartesian). Checked
-//! here from the model's lines directly, independent of the classifier.
+//! The example arms in `arms/` are what later stages rely on: every one meets Pieper's
+//! criterion (a spherical wrist, a wrist at the base, or three parallel axes with axes 5 and
+//! 6 meeting), and the first three joints of those with a spherical wrist form one of the
+//! solvable families (elbow, polar, cylindrical, cartesian). Checked here from the model's
+//! lines directly, independent of the classifier.
 
 use std::collections::BTreeSet;
 
@@ -52,40 +53,75 @@ fn meeting_point(model: &Model, i: usize, k: usize) -> [f64; 3] {
     ]
 }
 
+/// Where the axes of joints `first..first + 3` (0-based) meet, when they turn, no two
+/// consecutive ones are parallel and one point lies on all three lines.
+fn meeting_of(model: &Model, first: usize) -> Option<[f64; 3]> {
+    let joints = first..first + 3;
+    if joints
+        .clone()
+        .any(|i| model.joints[i].joint.kind != JointKind::Revolute)
+    {
+        return None;
+    }
+    for i in first..first + 2 {
+        if norm(&cross(&axis(model, i), &axis(model, i + 1))) <= NOT_PARALLEL {
+            return None;
+        }
+    }
+    let center = meeting_point(model, first, first + 1);
+    joints
+        .clone()
+        .all(|i| distance_from_line(model, i, &center) < ON_LINE)
+        .then_some(center)
+}
+
+/// True when joints `first..first + 3` (0-based) turn about parallel axes.
+fn parallel_from(model: &Model, first: usize) -> bool {
+    (first..first + 3).all(|i| model.joints[i].joint.kind == JointKind::Revolute)
+        && (first..first + 2).all(|i| norm(&cross(&axis(model, i), &axis(model, i + 1))) < ON_LINE)
+}
+
+/// Pieper: the motions of three joints whose axes meet leave the meeting point where it is.
+fn holds_still(model: &Model, first: usize, center: &[f64; 3], path: &str) {
+    let moved = [0.7, -1.2, 2.9];
+    let mut c = *center;
+    for (i, q) in (first..first + 3).zip(moved).rev() {
+        c = joint_motion(&model.joints[i].joint, q).transform_point(&c);
+    }
+    assert!(
+        norm(&sub(&c, center)) < 1e-12,
+        "{path}: {c:?} vs {center:?}"
+    );
+}
+
 #[test]
-fn every_example_arm_has_a_spherical_wrist_that_holds_its_center_still() {
+fn every_example_arm_meets_pieper_s_criterion() {
+    // Pieper 1968: a closed form when three consecutive axes meet in a point or are parallel.
+    // The example arms use three shapes: a spherical wrist (axes 4–6 meet), a wrist at the
+    // base (axes 1–3 meet), and three parallel axes 2–4 with axes 5 and 6 meeting.
     for (path, model) in arms() {
         assert_eq!(model.joints.len(), 6, "{path}");
-        assert!(
-            (3..6).all(|i| model.joints[i].joint.kind == JointKind::Revolute),
-            "{path}"
-        );
-        assert!(
-            norm(&cross(&axis(&model, 3), &axis(&model, 4))) > NOT_PARALLEL,
-            "{path}"
-        );
-        assert!(
-            norm(&cross(&axis(&model, 4), &axis(&model, 5))) > NOT_PARALLEL,
-            "{path}"
-        );
-        let center = meeting_point(&model, 3, 4);
-        for i in 3..6 {
+        if let Some(center) = meeting_of(&model, 3) {
+            holds_still(&model, 3, &center, &path);
+        } else if let Some(center) = meeting_of(&model, 0) {
+            holds_still(&model, 0, &center, &path);
+        } else if parallel_from(&model, 1) {
+            // Joints 2–4 keep every point's component along their common direction.
+            let h = axis(&model, 1);
+            let p = [0.3, -0.2, 0.5];
+            let mut c = p;
+            for (i, q) in (1..4).zip([0.7, -1.2, 2.9]).rev() {
+                c = joint_motion(&model.joints[i].joint, q).transform_point(&c);
+            }
+            assert!((dot(&h, &c) - dot(&h, &p)).abs() < 1e-12, "{path}");
+            let q = meeting_point(&model, 4, 5);
             assert!(
-                distance_from_line(&model, i, &center) < ON_LINE,
-                "{path}: joint {}",
-                i + 1
+                distance_from_line(&model, 5, &q) < ON_LINE,
+                "{path}: axes 5, 6 meet"
             );
+        } else {
+            panic!("{path}: no three consecutive axes meet or are parallel");
         }
-        // Pieper: E4·E5·E6 leaves the wrist center where it is, for any joint values.
-        let moved = [0.7, -1.2, 2.9];
-        let mut c = center;
-        for (i, q) in (3..6).zip(moved).rev() {
-            c = joint_motion(&model.joints[i].joint, q).transform_point(&c);
-        }
-        assert!(
-            norm(&sub(&c, &center)) < 1e-12,
-            "{path}: {c:?} vs {center:?}"
-        );
     }
 }
 
@@ -93,6 +129,10 @@ fn every_example_arm_has_a_spherical_wrist_that_holds_its_center_still() {
 fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
     let mut families = BTreeSet::new();
     for (path, model) in arms() {
+        if meeting_of(&model, 3).is_none() {
+            // Not a spherical wrist at joints 4–6 (checked above).
+            continue;
+        }
         let kinds: Vec<JointKind> = (0..3).map(|i| model.joints[i].joint.kind).collect();
         let (h1, h2, h3) = (axis(&model, 0), axis(&model, 1), axis(&model, 2));
         use JointKind::{Prismatic as P, Revolute as R};

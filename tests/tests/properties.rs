@@ -26,12 +26,13 @@ use armforge_tests::{example_arm_paths, pose_difference_of};
 use proptest::prelude::*;
 use proptest::test_runner::{Config, RngAlgorithm, TestRng, TestRunner};
 
-const FAMILIES: [Family; 4] = [
-    Family::Elbow,
-    Family::Polar,
-    Family::Cylindrical,
-    Family::Cartesian,
-];
+/// Every family of the registry.
+fn families() -> Vec<Family> {
+    armforge_compiler::family::REGISTRY
+        .iter()
+        .map(|m| m.family())
+        .collect()
+}
 
 /// A deterministic runner with `default_cases × ARMFORGE_SCALE` cases.
 fn runner(default_cases: usize) -> TestRunner {
@@ -127,8 +128,9 @@ fn sample_options() -> impl Strategy<Value = SampleOptions> {
 }
 
 fn random_arm() -> impl Strategy<Value = (Family, u64, SampleOptions)> {
-    (0..FAMILIES.len(), any::<u64>(), sample_options())
-        .prop_map(|(f, seed, options)| (FAMILIES[f], seed, options))
+    let families = families();
+    (0..families.len(), any::<u64>(), sample_options())
+        .prop_map(move |(f, seed, options)| (families[f], seed, options))
 }
 
 /// The sample arm through the pipeline from its description text.

@@ -34,6 +34,11 @@ emitted!(polar, "generated/polar.rs");
 emitted!(cylindrical, "generated/cylindrical.rs");
 emitted!(cartesian, "generated/cartesian.rs");
 emitted!(general, "generated/general.rs");
+emitted!(three_parallel_layout, "generated/three_parallel_layout.rs");
+emitted!(
+    three_parallel_general,
+    "generated/three_parallel_general.rs"
+);
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -127,6 +132,8 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(cylindrical), "cylindrical"),
         compare(api!(cartesian), "cartesian"),
         compare(api!(general), "general"),
+        compare(api!(three_parallel_layout), "three_parallel_layout"),
+        compare(api!(three_parallel_general), "three_parallel_general"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
     assert_eq!(

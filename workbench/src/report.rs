@@ -63,6 +63,12 @@ pub struct Solvable {
     pub reach: Option<Item>,
     /// The singular configurations, in words.
     pub singularities: Vec<String>,
+    /// How the arm decouples, one line (text report).
+    #[serde(skip)]
+    pub summary: &'static str,
+    /// What the two factors of the solution count solve (text report).
+    #[serde(skip)]
+    pub solution_parts: [&'static str; 2],
 }
 
 /// Why the arm was rejected, located.
@@ -493,6 +499,7 @@ fn singularity_text(model: &Model, s: &Singularity) -> String {
              solutions merge",
             joint_values(model, 2, &[*joint_3_at])
         ),
+        Singularity::Described { text, .. } => text.clone(),
     }
 }
 
@@ -510,7 +517,8 @@ fn reach_item(u: &Units, g: &Geometry) -> Option<Item> {
     Some(Item {
         key: "reach",
         label: format!(
-            "distance of the wrist center {from} (revolute limits ignored, slide limits kept)"
+            "distance of the {} {from} (revolute limits ignored, slide limits kept)",
+            g.family.module().placed_point()
         ),
         value: json!({ "min": number(u.length_from_si(r.min)), "max": number(u.length_from_si(r.max)) }),
         shown: format!("{} to {}", u.show_length(r.min), max),
@@ -531,6 +539,8 @@ fn solvable(model: &Model, g: &Geometry) -> Solvable {
             .iter()
             .map(|s| singularity_text(model, s))
             .collect(),
+        summary: g.family.module().summary(),
+        solution_parts: g.family.module().solution_parts(),
     }
 }
 
@@ -634,13 +644,17 @@ impl Report {
 fn solvable_text(out: &mut String, s: &Solvable) {
     let _ = writeln!(out, "family: {} ({})", s.family, s.pattern);
     items_text(out, &s.family_evidence);
-    let _ = writeln!(out, "\nwrist: spherical (axes 4, 5, 6 meet in one point)");
+    let _ = writeln!(out, "\n{}", s.summary);
     items_text(out, &s.wrist);
     let _ = writeln!(
         out,
-        "\nsolutions to expect: up to {} ({} for joints 1–3 × {} for the wrist; revolute values \
-         counted once per turn)",
-        s.solutions.total, s.solutions.position, s.solutions.wrist
+        "\nsolutions to expect: up to {} ({} for {} × {} for {}; revolute values counted once \
+         per turn)",
+        s.solutions.total,
+        s.solutions.position,
+        s.solution_parts[0],
+        s.solutions.wrist,
+        s.solution_parts[1]
     );
     if let Some(r) = &s.reach {
         let _ = writeln!(out, "reach: {}: {}", r.label, r.shown);

@@ -80,7 +80,10 @@ fn rejections_do_not_move_either() {
     let mut rng = rng(0x5eed_0003);
     let rejected = [
         ("offset wrist", arms::offset_wrist(0.02)),
-        ("three parallel", arms::three_parallel()),
+        (
+            "three parallel, axes 5 and 6 apart",
+            arms::three_parallel_skew(),
+        ),
         ("degenerate wrist", arms::degenerate_wrist()),
         ("first three meet", arms::first_three_meet()),
         ("tilted axis 3", arms::tilted_axis_3(0.2)),

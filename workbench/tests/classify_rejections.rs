@@ -52,19 +52,13 @@ fn offset_wrist_names_the_pair_and_the_gap_in_file_units() {
 }
 
 #[test]
-fn three_parallel_axes_say_so() {
-    let e = reject(&arms::three_parallel());
-    assert!(
-        e.notes.contains(&Note::ThreeParallelAxes { first: 2 }),
-        "{e}"
-    );
-    assert!(
-        e.to_string().contains("joints 2, 3 and 4 are parallel"),
-        "{e}"
-    );
-    assert!(e
-        .to_string()
-        .contains("closed form, but not by decoupling at the wrist"));
+fn three_parallel_axes_with_axes_5_and_6_apart_say_so() {
+    let e = reject(&in_mm_deg(arms::three_parallel_skew()));
+    assert_eq!(e.reason.kind(), "axes_5_and_6_miss", "{e}");
+    assert_eq!(e.joint, Some(6));
+    // The gap: axis 6 moved 50 mm along x, across axis 5 (vertical) and itself (along y).
+    assert!(e.to_string().contains("pass 50 mm apart"), "{e}");
+    assert!(e.to_string().contains("Pieper's criterion"), "{e}");
 }
 
 #[test]

@@ -1,10 +1,10 @@
-//! `armforge verify` passes random arms of every family (the generators of
+//! `armforge verify` passes random arms of every family of the registry (the generators of
 //! `armforge_compiler::plan::samples`) at the default one-turn revolute limits, joint 5's
 //! second aligned position (±180°) included, with random and right-angled wrists.
 //!
 //! `ARMFORGE_SCALE=K` (release builds) runs K times the arms per family.
 
-use armforge_compiler::classify::Family;
+use armforge_compiler::family::REGISTRY;
 use armforge_compiler::plan::samples::{sample_arm, sample_count, SampleOptions};
 use armforge_compiler::solver::Solver;
 use armforge_workbench::verify::{verify, Options};
@@ -12,12 +12,7 @@ use armforge_workbench::verify::{verify, Options};
 #[test]
 fn random_arms_of_every_family_pass_at_the_default_limits() {
     let arms = sample_count(5) as u64;
-    for family in [
-        Family::Elbow,
-        Family::Polar,
-        Family::Cylindrical,
-        Family::Cartesian,
-    ] {
+    for family in REGISTRY.iter().map(|m| m.family()) {
         for orthogonal_wrist in [false, true] {
             let options = SampleOptions {
                 orthogonal_wrist,

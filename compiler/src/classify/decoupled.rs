@@ -59,7 +59,7 @@ pub fn recognise(
     };
     let center = Point3::from(wrist.center);
     if let Err(r) = check(ctx, &center) {
-        return Recognition::NotMine(Some(r));
+        return Recognition::Degenerate(r);
     }
     let measured = measure(ctx, &center);
     let mut singularities = vec![wrist_singularity(&wrist.aligned_at)];

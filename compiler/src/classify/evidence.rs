@@ -125,6 +125,8 @@ pub enum ArmEvidence {
     Cartesian(CartesianEvidence),
     /// R R R of no named family.
     General(GeneralEvidence),
+    /// Three parallel axes 2–4, axes 5 and 6 meeting.
+    ThreeParallel(crate::family::three_parallel::ThreeParallelEvidence),
 }
 
 /// What a reach is measured from.
@@ -193,6 +195,15 @@ pub enum Singularity {
     SlideClosestToAxis2 {
         /// Joint-3 model value, metres.
         joint_3_at: f64,
+    },
+    /// A singular configuration a family describes in its own words (in the file's units).
+    Described {
+        /// A short name (as in JSON).
+        name: &'static str,
+        /// What and where, for people.
+        text: String,
+        /// The equation that defines it in the plan's terms and what the solver does there.
+        equation: String,
     },
 }
 

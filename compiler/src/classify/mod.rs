@@ -29,7 +29,7 @@ pub use reject::{Note, Reason, Rejection};
 pub use tolerances::{Resolved, Tolerances};
 pub use wrist::WristEvidence;
 
-use crate::family::{Recognition, REGISTRY};
+use crate::family::{Found, Recognition, REGISTRY};
 use crate::model::Model;
 
 pub use crate::family::Family;
@@ -82,26 +82,13 @@ pub struct Geometry {
 /// joints and the numbers in the file's units, and points at the offending joint's table.
 pub fn classify(model: &Model, tolerances: &Tolerances) -> Result<Geometry, Rejection> {
     let ctx = context::Context::new(model, tolerances)?;
+    let mut degenerate = None;
     let mut first_reason = None;
     for module in REGISTRY {
         match module.recognise(&ctx) {
-            Recognition::Mine(found) => {
-                let [position, wrist] = found.solutions;
-                return Ok(Geometry {
-                    family: module.family(),
-                    wrist_center: found.center,
-                    tolerances: ctx.tolerances,
-                    resolved: ctx.tol,
-                    wrist: found.wrist,
-                    arm: found.arm,
-                    solutions: SolutionCount {
-                        position,
-                        wrist,
-                        total: position * wrist,
-                    },
-                    reach: found.reach,
-                    singularities: found.singularities,
-                });
+            Recognition::Mine(found) => return Ok(geometry_of(&ctx, module.family(), found)),
+            Recognition::Degenerate(reason) => {
+                degenerate.get_or_insert(reason);
             }
             Recognition::NotMine(reason) => {
                 if first_reason.is_none() {
@@ -110,5 +97,27 @@ pub fn classify(model: &Model, tolerances: &Tolerances) -> Result<Geometry, Reje
             }
         }
     }
-    Err(first_reason.unwrap_or_else(|| family::unrecognised(&ctx)))
+    Err(degenerate
+        .or(first_reason)
+        .unwrap_or_else(|| family::unrecognised(&ctx)))
+}
+
+/// The geometry of an arm `family` recognised, with what it found.
+pub fn geometry_of(ctx: &context::Context, family: Family, found: Found) -> Geometry {
+    let [position, wrist] = found.solutions;
+    Geometry {
+        family,
+        wrist_center: found.center,
+        tolerances: ctx.tolerances,
+        resolved: ctx.tol,
+        wrist: found.wrist,
+        arm: found.arm,
+        solutions: SolutionCount {
+            position,
+            wrist,
+            total: position * wrist,
+        },
+        reach: found.reach,
+        singularities: found.singularities,
+    }
 }

@@ -124,6 +124,15 @@ pub enum Reason {
         /// The kinds of joints 1, 2, 3 (`R`/`P`).
         pattern: String,
     },
+    /// A family's own reason, in its own words (its folder in [`crate::family`]).
+    Family {
+        /// A short name (as in JSON `kind`).
+        name: &'static str,
+        /// The message, with numbers in the file's units.
+        message: String,
+        /// The measured numbers behind it.
+        measures: Vec<(&'static str, Quantity)>,
+    },
 }
 
 /// Another family the arm belongs to, said in general terms.
@@ -363,6 +372,7 @@ fn describe(model: &Model, reason: &Reason) -> String {
             "joints 1–3 are {pattern}; armforge's families of joints 1–3 are elbow (R R R), \
              polar (R R P), cylindrical (R P P) and cartesian (P P P)"
         ),
+        Reason::Family { message, .. } => message.clone(),
     }
 }
 
@@ -371,8 +381,9 @@ fn describe_note(model: &Model, note: &Note) -> String {
     match note {
         Note::ThreeParallelAxes { first } => format!(
             "the axes of joints {}, {} and {} are parallel: an arm with three consecutive \
-             parallel axes has a closed form, but not by decoupling at the wrist, and armforge \
-             does not build it",
+             parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
+             armforge's three-parallel family builds it for parallel axes 2, 3 and 4 with axes \
+             5 and 6 meeting",
             first,
             first + 1,
             first + 2
@@ -396,6 +407,11 @@ fn describe_note(model: &Model, note: &Note) -> String {
 
 /// A measured number of a rejection, for reports in the file's units.
 #[derive(Clone, Copy, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+#[cfg_attr(
+    feature = "serde",
+    serde(tag = "unit", content = "value", rename_all = "snake_case")
+)]
 pub enum Quantity {
     /// A length in metres.
     Length(f64),
@@ -428,6 +444,7 @@ impl Reason {
             }
             Reason::CartesianSlidesDependent { .. } => "cartesian_slides_dependent",
             Reason::UnsupportedPattern { .. } => "unsupported_pattern",
+            Reason::Family { name, .. } => name,
         }
     }
 
@@ -461,6 +478,7 @@ impl Reason {
                 ("angle_2_to_axis_1", Angle(angles[0])),
                 ("angle_3_to_axis_1", Angle(angles[1])),
             ],
+            Reason::Family { measures, .. } => measures.clone(),
         }
     }
 }

@@ -101,6 +101,11 @@ pub enum Role {
     WristMiddle,
     /// A joint that splits a rotation with another when the wrist lines up.
     WristSplit,
+    /// Conditioned by a tracked axis distance (0 or 1), and also split when the wrist lines
+    /// up (a joint of a planar chain that a lined-up joint joins).
+    AxisAndSplit(usize),
+    /// Set at a reach boundary, and also split when the wrist lines up.
+    BendAndSplit,
 }
 
 /// How `verify` samples and judges an arm of a family.
@@ -118,4 +123,27 @@ pub struct VerifyHints {
     pub boundaries: Vec<SamplerBoundary>,
     /// What conditions each joint.
     pub roles: [Role; 6],
+}
+
+/// One step of the review sheet's §4: what it does, its equations in symbols, then the
+/// numbers of this arm.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Step {
+    /// The heading.
+    pub title: String,
+    /// What the step does and why (Markdown).
+    pub text: String,
+    /// The equations in symbols.
+    pub equations: Vec<String>,
+    /// This arm's numbers, one line each.
+    pub numbers: Vec<Vec<Part>>,
+}
+
+/// A family's §3 (method, one bullet each) and §4 (the steps).
+#[derive(Clone, Debug, PartialEq)]
+pub struct Steps {
+    /// The method's bullets (Markdown).
+    pub method: Vec<String>,
+    /// The steps, in order.
+    pub steps: Vec<Step>,
 }

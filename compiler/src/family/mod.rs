@@ -22,8 +22,9 @@ pub mod data;
 pub mod elbow;
 pub mod general;
 pub mod polar;
+pub mod three_parallel;
 
-pub use data::{Distance, Judged, Part, Role, SamplerBoundary, Value, VerifyHints};
+pub use data::{Distance, Judged, Part, Role, SamplerBoundary, Step, Steps, Value, VerifyHints};
 
 use armforge_runtime::Joint;
 
@@ -47,6 +48,8 @@ pub enum Family {
     Cartesian,
     /// R R R of no named family (axis 2 ∦ axis 3), spherical wrist: a quartic.
     General,
+    /// Six revolute joints, axes 2–4 parallel, axes 5 and 6 meeting.
+    ThreeParallel,
 }
 
 impl Family {
@@ -83,6 +86,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &cylindrical::CYLINDRICAL,
     &cartesian::CARTESIAN,
     &general::GENERAL,
+    &three_parallel::THREE_PARALLEL,
 ];
 
 /// What a family found on an arm it recognises.
@@ -108,9 +112,13 @@ pub struct Found {
 pub enum Recognition {
     /// The arm is of this family.
     Mine(Found),
-    /// Not this family; with the reason when the arm has the family's shape but fails one of
-    /// its conditions (reported when no family recognises the arm).
+    /// Not this family; with the reason when the arm nearly has the family's shape (a
+    /// spherical family's wrist is not spherical, say), reported when no family recognises the
+    /// arm and none finds it degenerate.
     NotMine(Option<Rejection>),
+    /// The arm has the family's shape but fails one of its conditions: the reason, which
+    /// takes precedence over every `NotMine` reason.
+    Degenerate(Rejection),
 }
 
 /// One geometry family: everything armforge knows about one shape of arm.
@@ -129,12 +137,39 @@ pub trait FamilyModule: Sync {
     fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan;
     /// The items `inspect` reports for the family's evidence.
     fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged>;
+    /// The point the position step places, in words (`wrist center`).
+    fn placed_point(&self) -> &'static str {
+        "wrist center"
+    }
+    /// One line on how the arm decouples, for `inspect`.
+    fn summary(&self) -> &'static str {
+        "wrist: spherical (axes 4, 5, 6 meet in one point)"
+    }
+    /// What the two factors of the solution count solve (`joints 1–3`, `the wrist`).
+    fn solution_parts(&self) -> [&'static str; 2] {
+        ["joints 1–3", "the wrist"]
+    }
+    /// The review sheet's words for the point the labels follow: its symbol once moved, what
+    /// that is, and the symbol of the wrist label's normal (`E2 E3 c`, `the wrist center moved
+    /// by joints 2 and 3 (joint 1 undone)`, `h4 × h5`).
+    fn label_words(&self) -> [&'static str; 3] {
+        [
+            "E2 E3 c",
+            "the wrist center moved by joints 2 and 3 (joint 1 undone)",
+            "h4 × h5",
+        ]
+    }
     /// One sentence on how the arm decouples, for the review sheet.
     fn decoupling(&self) -> &'static str {
         "Wrist: **spherical** (axes 4, 5 and 6 meet in one point, the wrist center)."
     }
     /// What the solve needs, as measured on the plan's arm: one line of parts each.
     fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>>;
+    /// The review sheet's method and steps with this arm's numbers, for a family that gives
+    /// them as data (`None`: the sheet's own pages for the four decoupled families).
+    fn steps(&self, _plan: &Plan) -> Option<Steps> {
+        None
+    }
     /// Where `verify` places samples and how it judges them, for the arm's joints (SI).
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints;
     /// The position step of a family whose joints 1–3 place a spherical wrist's center (the

@@ -13,7 +13,6 @@ pub mod arm;
 pub mod decouple;
 pub mod graph;
 pub mod mirror;
-pub mod parallel;
 pub mod planar;
 pub mod pose;
 pub mod quartic;

@@ -156,7 +156,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 7] {
+pub fn fixtures() -> [Fixture; 9] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -182,6 +182,8 @@ pub fn fixtures() -> [Fixture; 7] {
         fixture("cylindrical", Family::Cylindrical, 15, plain),
         fixture("cartesian", Family::Cartesian, 16, plain),
         fixture("general", Family::General, 17, plain),
+        fixture("three_parallel_layout", Family::ThreeParallel, 18, plain),
+        fixture("three_parallel_general", Family::ThreeParallel, 19, plain),
     ]
 }
 
@@ -213,6 +215,16 @@ fn prismatic(axis: [f64; 3], limits: [f64; 2]) -> Joint {
 ///
 /// If the classifier disagrees with how the sample was built (a bug in one of them).
 pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model, Geometry) {
+    if family == Family::ThreeParallel {
+        // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
+        // seeds: every angle.
+        let model = sample_three_parallel(seed, options, seed % 2 == 0);
+        let geometry = match classify(&model, &Tolerances::default()) {
+            Ok(g) if g.family == family => g,
+            other => panic!("sample three-parallel arm {seed}: classified as {other:?}"),
+        };
+        return (model, geometry);
+    }
     let mut rng = SampleRng::new(seed.wrapping_mul(7919).wrapping_add(family as u64));
     let range = options.revolute_range;
     let h1 = rng.direction();
@@ -294,6 +306,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
+        Family::ThreeParallel => unreachable!("built above"),
         Family::Cartesian => {
             let u1 = rng.direction();
             let u2 = rng.direction_away_from(&u1, 0.8);

@@ -26,7 +26,22 @@ pub struct PlaneRoots {
 /// Solves `a cos θ + b sin θ = e` (rotate a point into a plane).
 pub fn rotate_into_plane(
     g: &mut Graph,
+    abe: [Id; 3],
+    reference: (Id, Id),
+    threshold_squared: f64,
+    unit: &str,
+    label: &str,
+) -> PlaneRoots {
+    rotate_into_plane_given(g, abe, None, reference, threshold_squared, unit, label)
+}
+
+/// [`rotate_into_plane`] with `r² − e²` given (`disc`) when the caller has a form of it that
+/// keeps its digits where the two roots merge (a product of two differences instead of the
+/// difference of two squares near 1).
+pub fn rotate_into_plane_given(
+    g: &mut Graph,
     [a, b, e]: [Id; 3],
+    disc: Option<Id>,
     reference: (Id, Id),
     threshold_squared: f64,
     unit: &str,
@@ -36,8 +51,13 @@ pub fn rotate_into_plane(
     let bb = g.mul(b, b);
     let r2 = g.add(aa, bb);
     let r2 = g.name(r2, &format!("{label}_r2"), "r² = a² + b²");
-    let ee = g.mul(e, e);
-    let disc = g.sub(r2, ee);
+    let disc = match disc {
+        Some(d) => d,
+        None => {
+            let ee = g.mul(e, e);
+            g.sub(r2, ee)
+        }
+    };
     let k = g.sqrt0(disc);
     let k = g.name(k, &format!("{label}_k"), "k = √max(r² − e², 0)");
     let floor = g.exact(threshold_squared);

@@ -11,13 +11,14 @@ use armforge_compiler::plan::Plan;
 
 /// Writes §5.
 pub fn write(out: &mut String, plan: &Plan, s: &Show) {
+    let [moved, meaning, wrist_normal] = plan.arm.family.module().label_words();
     let _ = writeln!(out, "## 5. Branches\n");
     let _ = writeln!(
         out,
         "A pose has up to one solution per branch (per turn of a joint whose range is wider \
          than a turn). Every label is a function of the joint values alone (`branch_of`), \
-         agrees with what `solve` reports, and splits the solutions without overlap. `E2 E3 c` \
-         is the wrist center moved by joints 2 and 3 (joint 1 undone).\n"
+         agrees with what `solve` reports, and splits the solutions without overlap. `{moved}` \
+         is {meaning}.\n"
     );
     let _ = writeln!(
         out,
@@ -34,7 +35,7 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
             let _ = writeln!(
                 out,
                 "| shoulder | facing / across | the side of the plane through axis 1 spanned by \
-                 axes 1 and 2 on which the wrist center lies: the sign of `(h1 × h2) · (E2 E3 c \
+                 axes 1 and 2 on which the wrist center lies: the sign of `(h1 × h2) · ({moved} \
                  − p1)`; facing is the side it has with every joint at zero, across the other \
                  side | `h1 × h2` = {}, `p1` = {}, facing when the sign is {} |",
                 s.dir(&normal),
@@ -48,7 +49,7 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
             let _ = writeln!(
                 out,
                 "| shoulder | facing / across | the sign of the radial slide's reach along its \
-                 own direction from the point of its line nearest axis 1: `D · (E2 E3 c − p1)` \
+                 own direction from the point of its line nearest axis 1: `D · ({moved} − p1)` \
                  ≥ 0 is facing (reaching out), < 0 across (through the other side of axis 1) | \
                  `D` = {}, `p1` = {} |",
                 s.dir(&direction),
@@ -108,8 +109,8 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
     let _ = writeln!(
         out,
         "| wrist | leading / trailing | the side of the aligned position joint 5 is turned to: \
-         leading when axis 6 leans toward `h4 × h5`, `(h4 × h5) · R(h5, θ5) h6 ≥ 0` (vectors at \
-         zero), trailing otherwise | `h4 × h5` = {}, `h5` = {}, \
+         leading when axis 6 leans toward `{wrist_normal}`, `({wrist_normal}) · R(h5, θ5) h6 ≥ 0` (vectors \
+         at zero), trailing otherwise | `{wrist_normal}` = {}, `h5` = {}, \
          `h6` = {} |\n",
         s.dir(&w.normal),
         s.dir(&w.axis5),

@@ -15,10 +15,16 @@ pub fn write(out: &mut String, report: &Report, geometry: &Geometry, plan: &Plan
     let Outcome::Solvable(solvable) = &report.outcome else {
         return;
     };
+    // "of joints 1–3" where a spherical wrist takes the other three.
+    let of = if geometry.wrist.is_some() {
+        " of joints 1–3"
+    } else {
+        ""
+    };
     let _ = writeln!(
         out,
-        "Family of joints 1–3: **{}** ({}). {} Lines count as meeting within {} and as \
-         parallel or perpendicular within {} (§8).\n",
+        "Family{of}: **{}** ({}). {} Lines count as meeting within {} and as parallel or \
+         perpendicular within {} (§8).\n",
         solvable.family,
         solvable.pattern,
         geometry.family.module().decoupling(),
@@ -31,13 +37,16 @@ pub fn write(out: &mut String, report: &Report, geometry: &Geometry, plan: &Plan
     }
     let _ = writeln!(out, "\nEvidence for the family:\n");
     show::items(out, "measured", &solvable.family_evidence);
-    let _ = writeln!(out, "\nEvidence for the wrist:\n");
-    show::items(out, "measured", &solvable.wrist);
+    if !solvable.wrist.is_empty() {
+        let _ = writeln!(out, "\nEvidence for the wrist:\n");
+        show::items(out, "measured", &solvable.wrist);
+    }
+    let [first, second] = solvable.solution_parts;
     let _ = writeln!(
         out,
-        "\nSolutions to expect for one tool pose: up to {} ({} for joints 1–3 × {} for the \
-         wrist; revolute values counted once per turn, more where a joint's range is wider \
-         than a turn).\n",
+        "\nSolutions to expect for one tool pose: up to {} ({} for {first} × {} for {second}; \
+         revolute values counted once per turn, more where a joint's range is wider than a \
+         turn).\n",
         solvable.solutions.total, solvable.solutions.position, solvable.solutions.wrist
     );
 }

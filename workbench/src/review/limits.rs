@@ -67,6 +67,7 @@ pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Fac
                  quartic merge, two solutions meet (the position Jacobian is singular there)"
             );
         }
+        _ => {}
     }
     if let ArmEvidence::Elbow(e) = &geometry.arm {
         if !e.shoulder.axes_1_2_meet {

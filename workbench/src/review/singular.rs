@@ -103,6 +103,7 @@ fn equation(model: &Model, sing: &Singularity, plan: &Plan, f: &Facts, s: &Show)
                 joint(model, 2, *joint_3_at, s)
             )
         }
+        Singularity::Described { equation, .. } => equation.clone(),
         Singularity::SlideClosestToAxis2 { joint_3_at } => {
             let k = f.polar();
             let nearest = (num::dot(&k.p, &k.p) - k.m * k.m).max(0.0).sqrt();

@@ -7,11 +7,17 @@ use std::fmt::Write as _;
 use super::facts::Facts;
 use super::show::Show;
 use armforge_compiler::classify::Family;
+use armforge_compiler::family::Steps;
 use armforge_compiler::plan::vec3::num;
 use armforge_compiler::plan::Plan;
 
 /// Writes §3 (the method) and §4 (the steps).
 pub fn write(out: &mut String, plan: &Plan, facts: &Facts, s: &Show) {
+    if let Some(steps) = plan.arm.family.module().steps(plan) {
+        given(out, &steps, s);
+        finishing(out, plan, s);
+        return;
+    }
     method(out, plan.arm.family);
     let _ = writeln!(out, "## 4. The solve, step by step\n");
     let _ = writeln!(
@@ -37,6 +43,7 @@ pub fn write(out: &mut String, plan: &Plan, facts: &Facts, s: &Show) {
         Family::Cylindrical => cylindrical(out, facts, s),
         Family::Cartesian => cartesian(out, facts, s),
         Family::General => general(out, plan, s),
+        _ => {}
     }
     wrist(out, plan.arm.family, facts, s);
     finishing(out, plan, s);
@@ -82,6 +89,7 @@ fn method(out: &mut String, family: Family) {
              2 and 1 by **Paden–Kahan subproblem 1** (Paden 1986; Murray, Li & Sastry 1994, \
              §3.3)."
         }
+        _ => "",
     };
     let _ = writeln!(out, "{first}");
     let _ = writeln!(
@@ -90,6 +98,36 @@ fn method(out: &mut String, family: Family) {
          (two rotations taking axis 6 onto its target direction, 0–2 solutions), joint 6 by \
          subproblem 1.\n- No step iterates: the operation count is fixed (§9).\n"
     );
+}
+
+/// §3 and §4 as a family gives them ([`armforge_compiler::family::FamilyModule::steps`]).
+fn given(out: &mut String, steps: &Steps, s: &Show) {
+    let _ = writeln!(out, "## 3. The method\n");
+    for m in &steps.method {
+        let _ = writeln!(out, "- {m}");
+    }
+    let _ = writeln!(out, "\n## 4. The solve, step by step\n");
+    let _ = writeln!(
+        out,
+        "Inputs: the target pose `T` (world frame) and two reference angles (the current \
+         values of the joints `solve_near` holds where they are free, zero otherwise). \
+         Symbols: `h_i` axis of joint i, `p_i` its point nearest the base origin, `θ_i` its \
+         model value (§1), `E_i(θ)` the motion of joint i, `R_i` its rotation, `x⊥h` the part \
+         of `x` perpendicular to `h`. Lengths below are in {}.\n",
+        s.units.length.symbol()
+    );
+    for (i, step) in steps.steps.iter().enumerate() {
+        let _ = writeln!(out, "### 4.{} {}\n", i + 1, step.title);
+        let _ = writeln!(out, "{}\n", step.text);
+        block(out, &step.equations);
+        let _ = writeln!(out, "This arm:\n");
+        let numbers: Vec<String> = step
+            .numbers
+            .iter()
+            .map(|line| line.iter().map(|p| super::family::part(p, s)).collect())
+            .collect();
+        block(out, &numbers);
+    }
 }
 
 fn block(out: &mut String, lines: &[String]) {
@@ -443,6 +481,7 @@ fn wrist(out: &mut String, family: Family, f: &Facts, s: &Show) {
         Family::Elbow | Family::Polar | Family::General => 5,
         Family::Cylindrical => 4,
         Family::Cartesian => 3,
+        _ => 5,
     };
     let (h4, h5, h6) = (f.h(4), f.h(5), f.h(6));
     let c45 = num::dot(&h4, &h5);

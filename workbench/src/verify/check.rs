@@ -240,7 +240,10 @@ impl<'a> Checker<'a> {
         }
         // `solve` answered, but none of its solutions is the configuration: a controller at a
         // singular pose asks `solve_near` with its current configuration instead.
-        if judgement.near_singular && !outcome.unreachable && outcome.status != Status::Recovered {
+        // Where the free joint moves the rest (joint 6 of a three-parallel arm joins the planar
+        // chain of joints 2–4), the reference `solve` holds it at may even leave the pose out
+        // of reach: `solve_near` is asked then too.
+        if judgement.near_singular && outcome.status != Status::Recovered {
             self.recover_near(sample, &target, &judgement, &mut outcome);
         }
         if outcome.fails() {
@@ -268,6 +271,7 @@ impl<'a> Checker<'a> {
         if within(p, judgement.pose) && within(r, judgement.pose) && miss.ratio <= 1.0 {
             outcome.status = Status::Recovered;
             outcome.recovered_near = true;
+            outcome.unreachable = false;
         }
     }
 

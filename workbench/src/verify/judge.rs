@@ -159,6 +159,9 @@ impl Judge {
             Role::Bend => b,
             Role::WristMiddle => e,
             Role::WristSplit => wrist,
+            Role::AxisAndSplit(0) => j1.max(wrist),
+            Role::AxisAndSplit(_) => j2.max(wrist),
+            Role::BendAndSplit => b.max(wrist),
         });
         for (i, x) in joint.iter_mut().enumerate() {
             let free = match self.joints[i].kind {

@@ -117,6 +117,7 @@ pub fn solvable() -> Vec<(&'static str, Model)> {
             "oblique cartesian",
             cartesian_arm([[1.0, 0.0, 0.0], [1.0, 1.0, 0.0], [0.0, 1.0, 1.0]]),
         ),
+        ("three-parallel", three_parallel()),
     ]
 }
 
@@ -141,8 +142,8 @@ pub fn offset_wrist(offset: f64) -> Model {
     m
 }
 
-/// Axes 2, 3 and 4 parallel, axis 5 vertical, axis 6 parallel to 4 again but apart: a wrist
-/// that does not meet (like arms built for a closed form by three parallel axes).
+/// Axes 2, 3 and 4 parallel, axis 5 vertical, axis 6 parallel to 4 again (at zero) and
+/// meeting axis 5: no spherical wrist, the three-parallel family.
 pub fn three_parallel() -> Model {
     arm(
         &[
@@ -155,6 +156,14 @@ pub fn three_parallel() -> Model {
         ],
         [0.75, 0.3, 0.05],
     )
+}
+
+/// [`three_parallel`] with axis 6 moved 0.05 m along x, off axis 5: axes 5 and 6 pass apart,
+/// which the three-parallel family does not cover.
+pub fn three_parallel_skew() -> Model {
+    let mut m = three_parallel();
+    m.joints[5].joint.point = [0.8, 0.2, 0.05];
+    m
 }
 
 /// The plain elbow with axis 5 turned parallel to axis 4, 0.1 m below it, and axis 6 across

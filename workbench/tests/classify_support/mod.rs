@@ -208,42 +208,16 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
     let mut out: Vec<(String, f64)> = Vec::new();
     let mut put = |k: &str, v: f64| out.push((k.to_string(), v));
     put("arm_size", g.resolved.arm_size);
-    put(
-        "wrist.miss",
-        g.wrist.as_ref().expect("spherical wrist").miss,
-    );
-    for (i, x) in g
-        .wrist
-        .as_ref()
-        .expect("spherical wrist")
-        .gaps
-        .iter()
-        .enumerate()
-    {
-        put(&format!("wrist.gap{i}"), *x);
+    if let Some(w) = &g.wrist {
+        put("wrist.miss", w.miss);
+        for (i, x) in w.gaps.iter().enumerate() {
+            put(&format!("wrist.gap{i}"), *x);
+        }
+        put("wrist.angle_4_5", w.angle_4_5);
+        put("wrist.angle_5_6", w.angle_5_6);
+        put("wrist.range0", w.axis_4_6_angle_range[0]);
+        put("wrist.range1", w.axis_4_6_angle_range[1]);
     }
-    put(
-        "wrist.angle_4_5",
-        g.wrist.as_ref().expect("spherical wrist").angle_4_5,
-    );
-    put(
-        "wrist.angle_5_6",
-        g.wrist.as_ref().expect("spherical wrist").angle_5_6,
-    );
-    put(
-        "wrist.range0",
-        g.wrist
-            .as_ref()
-            .expect("spherical wrist")
-            .axis_4_6_angle_range[0],
-    );
-    put(
-        "wrist.range1",
-        g.wrist
-            .as_ref()
-            .expect("spherical wrist")
-            .axis_4_6_angle_range[1],
-    );
     put("solutions", f64::from(g.solutions.total));
     if let Some(r) = g.reach {
         put("reach.min", r.min);
@@ -279,6 +253,16 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             }
             put("out_of_plane", e.slide_3_out_of_plane);
             put("independence", e.independence);
+        }
+        ArmEvidence::ThreeParallel(e) => {
+            put("shoulder.offset", e.shoulder.offset);
+            put("shoulder.angle", e.shoulder.angle_1_2);
+            put("sideways_offset", e.shoulder.sideways_offset);
+            put("upper_arm", e.upper_arm);
+            put("forearm", e.forearm);
+            put("angle_5", e.angle_5_to_parallel);
+            put("angle_5_6", e.angle_5_6);
+            put("stretched", joint_value(model, 2, e.stretched_at));
         }
         ArmEvidence::General(e) => {
             put("common_normal_1_2", e.common_normal_1_2);

@@ -22,18 +22,18 @@ use armforge_runtime::internal::{BranchRule, CheckKind, ElbowRule, WristRule};
 use armforge_runtime::plan::{CandidateLayout, CheckLayout};
 use armforge_runtime::{Branch, Elbow, Shoulder, Wrist};
 
-use super::arm::Arm;
-use super::decouple::{self, Target};
-use super::elbow;
-use super::graph::{Graph, Id};
-use super::planar::{self, TwoLink};
-use super::pose::{self, Motion};
-use super::subproblems::{rotate_into_plane, rotate_onto};
-use super::vec3::{self, num, V3};
-use super::wrist::ALIGNED_SINE;
-use super::Plan;
 use crate::classify::Family;
+use crate::family::elbow::plan as elbow;
 use crate::model::Model;
+use crate::plan::arm::Arm;
+use crate::plan::decouple::{self, Target};
+use crate::plan::graph::{Graph, Id};
+use crate::plan::planar::{self, TwoLink};
+use crate::plan::pose::{self, Motion};
+use crate::plan::subproblems::{rotate_into_plane_given, rotate_onto};
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::wrist::ALIGNED_SINE;
+use crate::plan::Plan;
 use crate::units::tidy;
 
 /// Cosines below this count as perpendicular (the wrist check is then never needed).
@@ -63,7 +63,7 @@ impl Layout {
         let on_axis_4 = arm.point(3);
         Layout {
             h,
-            sense4: super::sign(num::dot(&arm.axis(3), &h)),
+            sense4: crate::plan::sign(num::dot(&arm.axis(3), &h)),
             meeting: meeting_point(arm.point(4), arm.axis(4), arm.point(5), arm.axis(5)),
             on_axis_4,
             across: num::any_perpendicular(&h),
@@ -129,6 +129,49 @@ pub fn rules(arm: &Arm) -> BranchRule {
     }
 }
 
+/// `r² − e²` of joint 5's equation as `(r − e)(r + e)`, `r − e = (r + s) − h6·w` and
+/// `r + e = (r − s) + h6·w` (`s = (h5·h6)(h5·h)`). Where axis 6 can line up with the parallel
+/// axes (`r + s = 1` or `r − s = 1`), the two roots of joint 5 merge there, and the factor that
+/// vanishes is taken from `1 ∓ h6·w = |h6 × w|² / (1 ± h6·w)` (`w` is a unit vector), which
+/// keeps its digits: joint 5 then loses none near the alignment.
+fn discriminant(g: &mut Graph, arm: &Arm, k: &Layout, along: Id, perp2: Id, tag: &str) -> Id {
+    let (h5, h6) = (arm.axis(4), arm.axis(5));
+    let c56 = num::dot(&h5, &h6);
+    let h6_perp = num::sub(&h6, &num::scale(&h5, c56));
+    let r = num::norm(&h6_perp) * num::norm(&num::sub(&k.h, &num::scale(&h5, num::dot(&h5, &k.h))));
+    let s = c56 * num::dot(&h5, &k.h);
+    let one = g.constant(1.0);
+    let factor = |g: &mut Graph, constant: f64, sign: f64| -> Id {
+        let c = g.constant(constant);
+        let plain = if sign > 0.0 {
+            g.add(c, along)
+        } else {
+            g.sub(c, along)
+        };
+        if (constant - 1.0).abs() > 1e-12 {
+            return plain;
+        }
+        // 1 ∓ h6·w: on the side where it is small, |h6 × w|² / (1 ± h6·w) with 1 ± h6·w ≥ 1.
+        let other = if sign > 0.0 {
+            g.sub(one, along)
+        } else {
+            g.add(one, along)
+        };
+        let safe = g.max(other, one);
+        let quotient = g.div(perp2, safe);
+        let toward = if sign > 0.0 { g.neg(along) } else { along };
+        g.select(toward, quotient, plain)
+    };
+    let below = factor(g, r + s, -1.0);
+    let above = factor(g, r - s, 1.0);
+    let disc = g.mul(below, above);
+    g.name(
+        disc,
+        &format!("j5_disc_{tag}"),
+        "r² − e² = (r − e)(r + e), each factor from |h6 × w|² where it vanishes",
+    )
+}
+
 /// Joints 5 and 6 for one root of joint 1.
 struct Hand {
     /// Model values of joints 5 and 6.
@@ -168,16 +211,6 @@ fn hand(
             tidy(c56 * num::dot(&h5, &k.h))
         ),
     );
-    let roots = rotate_into_plane(g, [a, b, e], reference, 1e-20, "", &format!("j5_{tag}"));
-    let check = (!k.wrist_reaches_all(arm)).then(|| {
-        let ee = g.mul(e, e);
-        let gap = g.sub(roots.radius_squared, ee);
-        CheckLayout {
-            kind: CheckKind::WristOrientation,
-            have_squared: gap,
-            limit: along,
-        }
-    });
     // Joint 6 turns w onto R5ᵀ h; both have the same component along h6, so the parts ⟂ h6
     // have the same length |h6 × w|.
     let h6k = vec3::constant(g, h6);
@@ -188,6 +221,21 @@ fn hand(
         &format!("j6_perp2_{tag}"),
         "|h6 × w|²: zero when axis 6 lines up with the parallel axes",
     );
+    let disc = discriminant(g, arm, k, along, perp2, tag);
+    let roots = rotate_into_plane_given(
+        g,
+        [a, b, e],
+        Some(disc),
+        reference,
+        1e-20,
+        "",
+        &format!("j5_{tag}"),
+    );
+    let check = (!k.wrist_reaches_all(arm)).then_some(CheckLayout {
+        kind: CheckKind::WristOrientation,
+        have_squared: disc,
+        limit: along,
+    });
     let floor = g.exact(ALIGNED_SINE * ALIGNED_SINE);
     let aligned = g.sub(floor, perp2);
     let aligned = g.name(
@@ -209,12 +257,17 @@ fn hand(
             vec3::rotate_back(g, h5, c5, s5, hk)
         };
         let y = vec3::name(g, y, &format!("y6_{name}"), "R5ᵀ h");
-        let (nc, ns) = rotate_onto(g, h6, w_perp, y);
+        // Both parts ⟂ h6: near the alignment `w⊥ · y` would otherwise carry the rounding of
+        // `w⊥ · h6` times `y · h6 ≈ 1`, as large as the product it is after.
+        let y_along = vec3::dot_const(g, h6, y);
+        let y_back = vec3::scale_const(g, y_along, h6);
+        let y_perp = vec3::sub(g, y, y_back);
+        let (nc, ns) = rotate_onto(g, h6, w_perp, y_perp);
         // Normalised by the root of nc² + ns² rather than by |h6 × w|²: near the alignment the
         // two differ by rounding, and (cos θ6, sin θ6) must stay a unit pair to undo joint 6.
+        let q = g.mul_add2(nc, nc, ns, ns);
+        let floor4 = g.exact_fourth(ALIGNED_SINE.powi(4));
         let inv = {
-            let q = g.mul_add2(nc, nc, ns, ns);
-            let floor4 = g.exact_fourth(ALIGNED_SINE.powi(4));
             let safe = g.max(q, floor4);
             let root = g.sqrt(safe);
             let one = g.constant(1.0);
@@ -225,7 +278,11 @@ fn hand(
         } else {
             (g.neg(reference.0), g.neg(reference.1))
         };
+        // Where R5ᵀ h itself lines up with h6 (joint 5 at the merged root), the pair has no
+        // direction: the reference too.
+        let lost = g.sub(floor4, q);
         let c6 = g.mul(nc, inv);
+        let c6 = g.select(lost, rc, c6);
         let c6 = g.select(aligned, rc, c6);
         let c6 = g.name(
             c6,
@@ -233,6 +290,7 @@ fn hand(
             "cos θ6 = w⊥ · R5ᵀh / √(nc² + ns²) (reference when aligned)",
         );
         let s6 = g.mul(ns, inv);
+        let s6 = g.select(lost, rs, s6);
         let s6 = g.select(aligned, rs, s6);
         let s6 = g.name(
             s6,
@@ -413,5 +471,5 @@ pub fn build(model: &Model, family: Family) -> Plan {
     let candidates = solve(&mut g, &arm, &t);
     let rule = rules(&arm);
     let twist = k.twist_cosines(&arm);
-    super::assemble(arm, &g, &candidates, rule, twist, [0, 5])
+    crate::plan::assemble(arm, &g, &candidates, rule, twist, [0, 5])
 }
