@@ -295,6 +295,7 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
         .collect();
     let n = super::expr::index(plan.candidates.len());
     let lints = lint_allowances();
+    let (guard, pivot_doc) = free_guard(plan);
     // A moved candidate is evaluated again by its own branch's function, not every branch.
     let reruns = (0..plan.candidates.len()).map(|k| {
         let (index, name) = (super::expr::index(k), branch_fn_name(k));
@@ -312,32 +313,61 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
             [#(#candidates),*]
         }
 
-        /// The candidates, with the free joint moved where a singular pose leaves one free and
-        /// its held value puts a joint outside its limits (a rare path; see
+        /// Moves the free joint where a singular pose leaves one free and its held value puts a
+        /// joint outside its limits, in place (a rare path; see
         /// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
         /// its branch's own function).
         #[inline]
-        fn free_candidates(
+        fn free_joints(
             target: &::armforge_runtime::Pose #generic,
             reference: &[#ty; 4],
-        ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
-            let mut all = candidates(target, reference);
+            all: &mut [::armforge_runtime::internal::Candidate #generic; #n],
+        ) {
+            if !may_free(all) {
+                return;
+            }
             ::armforge_runtime::internal::free_joint_1(
                 &JOINT_TABLE,
                 [&BASE, &TOOL],
                 &SETTINGS,
                 target,
                 reference,
-                &mut all,
+                all,
                 |moved: &[#ty; 4], i: usize| match i {
                     #(#reruns)*
                     _ => ::core::option::Option::None,
                 },
             );
-            all
+        }
+
+        /// True when a candidate may leave a joint free.
+        #pivot_doc
+        #[inline(always)]
+        fn may_free(all: &[::armforge_runtime::internal::Candidate #generic; #n]) -> bool {
+            #guard
         }
     };
     (body, notes)
+}
+
+/// The early return of `free_joints` when no candidate is singular: a free joint comes only
+/// with a flag (wrist aligned, wrist center on axis 1), except at the pivot of an arm whose
+/// joint 2 turns and joint 3 slides (no flag: always checked). Fixed by the arm's joint kinds.
+fn free_guard(plan: &Plan) -> (TokenStream, TokenStream) {
+    let [_, j2, j3, ..] = &plan.arm.joints;
+    if j2.kind == JointKind::Revolute && j3.kind == JointKind::Prismatic {
+        let doc = " Always, for this arm: at the pivot of joint 2 no flag is set.";
+        return (quote!(let _ = all; true), quote!(#[doc = ""] #[doc = #doc]));
+    }
+    let guard = quote! {
+        // Only a flagged candidate has a free joint (every candidate is visited).
+        let mut any = false;
+        for c in all {
+            any |= c.wrist_aligned | c.on_axis_1;
+        }
+        any
+    };
+    (guard, quote!())
 }
 
 /// The name of the function that computes only candidate `k` (0-based).
@@ -419,10 +449,12 @@ fn branch_of_fn(plan: &Plan, l: Literals) -> TokenStream {
                 joints,
                 SETTINGS.limit_tolerance,
             );
+            let mut all = candidates(&target, &reference);
+            free_joints(&target, &reference, &mut all);
             match ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &free_candidates(&target, &reference),
+                &all,
                 joints,
                 &anchor,
             ) {
@@ -438,6 +470,17 @@ fn branch_of_fn(plan: &Plan, l: Literals) -> TokenStream {
 /// `solve_branch` and `solve_near`: one branch's steps, finished with the arm's constants.
 fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
     let (ty, generic) = (l.0.ty(), l.0.generic());
+    let pivot = !free_guard(plan).1.is_empty();
+    let branch_guard = if pivot {
+        quote!()
+    } else {
+        quote! {
+            // Only a flagged candidate has a free joint.
+            if !(one[0].wrist_aligned | one[0].on_axis_1) {
+                return ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS);
+            }
+        }
+    };
     let reference_call = if plan.free_joints == [0, 3] {
         quote!(::armforge_runtime::internal::reference(
             &JOINT_TABLE,
@@ -498,10 +541,12 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
                 }
             }
             let reference = #reference_call;
+            let mut all = candidates(target, &reference);
+            free_joints(target, &reference, &mut all);
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
                 &SETTINGS,
-                &free_candidates(target, &reference),
+                &all,
                 current,
                 &anchor,
             )
@@ -529,6 +574,7 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
                 _ => return ::core::result::Result::Err(::armforge_runtime::Unreachable::NoSuchBranch),
             };
             let mut one = [candidate];
+            #branch_guard
             ::armforge_runtime::internal::free_joint_1(
                 &JOINT_TABLE,
                 [&BASE, &TOOL],
@@ -565,6 +611,8 @@ pub fn module(
     let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| l.lit(x)).collect();
     let capacity = super::expr::index(plan.capacity);
     let (body, notes) = solver_body(plan, scalar);
+    let each: Vec<proc_macro2::Literal> =
+        (0..plan.candidates.len()).map(super::expr::index).collect();
     let branches = branch_bodies(plan, scalar);
     let branch_api = branch_api(plan, l);
     let branch_of = branch_of_fn(plan, l);
@@ -636,11 +684,17 @@ pub fn module(
                     );
                 }
             }
-            ::armforge_runtime::internal::collect(
-                &JOINT_TABLE,
-                &SETTINGS,
-                &free_candidates(target, &ZERO_REFERENCE),
-            )
+            let mut all = candidates(target, &ZERO_REFERENCE);
+            if may_free(&all) {
+                // The rare path: a free joint may move (the candidates change behind a call).
+                free_joints(target, &ZERO_REFERENCE, &mut all);
+                return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &all);
+            }
+            // The common path: the candidates as the closed form made them, finished one by
+            // one, so the check kinds and flags it fixed fold into the finishing.
+            let mut out = ::armforge_runtime::internal::Collector::new();
+            #(out.add(&JOINT_TABLE, &SETTINGS, &all[#each]);)*
+            out.finish(&JOINT_TABLE, &SETTINGS, &all)
         }
 
         #branch_api

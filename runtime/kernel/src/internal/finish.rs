@@ -328,6 +328,79 @@ pub fn failure<S: Scalar>(
     }
 }
 
+/// A solution set filled one candidate at a time, for emitted solvers: each
+/// [`Collector::add`] is written out with a constant candidate index, so that, inlined with
+/// the module's joint table and settings, the candidate's check kinds, joint offsets,
+/// directions, centers and limits fold into straight-line code (no loop over candidates).
+pub struct Collector<const CAP: usize, S: Scalar> {
+    set: SolutionSet<CAP, S>,
+    len: usize,
+}
+
+impl<const CAP: usize, S: Scalar> Collector<CAP, S> {
+    /// An empty collector.
+    #[inline(always)]
+    pub fn new() -> Self {
+        Collector {
+            set: SolutionSet::empty(),
+            len: 0,
+        }
+    }
+
+    /// Finishes one candidate (as [`finish`] does: checks, joint values nearest the range
+    /// centers, limits, duplicates, flags) and keeps it when it is a solution.
+    #[inline(always)]
+    pub fn add(&mut self, joints: &[Joint<S>; JOINTS], settings: &Settings<S>, c: &Candidate<S>) {
+        let Some(at_limit) = passes(&c.checks, settings) else {
+            return;
+        };
+        let anchor = centers(joints);
+        let (values, inside) = convert(joints, &c.model_values, &anchor, settings.limit_tolerance);
+        if !inside {
+            return;
+        }
+        let flags = flags_of(c, at_limit);
+        let storage = self.set.storage_mut();
+        let found = storage.get(..self.len).unwrap_or(&[]);
+        if is_duplicate(joints, settings, &values, flags, found) {
+            return;
+        }
+        if let Some(slot) = storage.get_mut(self.len) {
+            *slot = Solution {
+                joints: values,
+                branch: c.branch,
+                flags,
+            };
+            self.len += 1;
+        }
+    }
+
+    /// The set; when nothing was kept, the reason worked out from every candidate.
+    #[inline(always)]
+    pub fn finish(
+        mut self,
+        joints: &[Joint<S>; JOINTS],
+        settings: &Settings<S>,
+        candidates: &[Candidate<S>],
+    ) -> SolutionSet<CAP, S> {
+        let outcome = if self.len > 0 {
+            Ok(self.len)
+        } else if candidates.is_empty() {
+            Err(Unreachable::BranchUnavailable)
+        } else {
+            Err(failure(joints, settings, candidates, None))
+        };
+        self.set.record(outcome);
+        self.set
+    }
+}
+
+impl<const CAP: usize, S: Scalar> Default for Collector<CAP, S> {
+    fn default() -> Self {
+        Self::new()
+    }
+}
+
 /// [`finish`] into a fixed-capacity set.
 #[inline]
 pub fn collect<const CAP: usize, S: Scalar>(

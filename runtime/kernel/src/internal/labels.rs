@@ -156,6 +156,7 @@ fn wrist_center_of<S: Scalar>(rule: &ShoulderRule<S>) -> [S; 3] {
 }
 
 /// The branch label of a configuration, read by the arm's rules.
+#[inline(always)]
 pub fn branch_of<S: Scalar>(
     rule: &BranchRule<S>,
     joints: &[Joint<S>; JOINTS],
@@ -170,7 +171,9 @@ pub fn branch_of<S: Scalar>(
 }
 
 /// [`branch_of`] with the rules read forwards (no recursion: the mirrored arm is worked out
-/// by the caller).
+/// by the caller). Inlined so that, with an emitted module's constant rule and joint table,
+/// which joints move the wrist center is settled at compile time.
+#[inline(always)]
 fn branch_read_forward<S: Scalar>(
     rule: &BranchRule<S>,
     joints: &[Joint<S>; JOINTS],

@@ -109,14 +109,14 @@ pub fn check_pose<S: Scalar>(target: &Pose<S>) -> Result<(), Unreachable<S>> {
         return Err(Unreachable::InvalidPose(PoseProblem::NotFinite));
     }
     let r = &target.rotation;
-    let mut error = S::ZERO;
-    for i in 0..3 {
-        for j in 0..3 {
-            let g = r[0][i] * r[0][j] + r[1][i] * r[1][j] + r[2][i] * r[2][j];
-            let want = if i == j { S::ONE } else { S::ZERO };
-            error = error.max(abs(g - want));
-        }
-    }
+    // Entry (i, j) of RᵀR, symmetric: the six on and above the diagonal.
+    let g = |i: usize, j: usize| r[0][i] * r[0][j] + r[1][i] * r[1][j] + r[2][i] * r[2][j];
+    let error = abs(g(0, 0) - S::ONE)
+        .max(abs(g(1, 1) - S::ONE))
+        .max(abs(g(2, 2) - S::ONE))
+        .max(abs(g(0, 1)))
+        .max(abs(g(0, 2)))
+        .max(abs(g(1, 2)));
     if error > rotation_tolerance() {
         return Err(Unreachable::InvalidPose(PoseProblem::NotOrthonormal {
             error,
