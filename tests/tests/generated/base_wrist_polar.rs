@@ -411,11 +411,21 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
             );
         }
     }
-    ::armforge_runtime::internal::collect(
-        &JOINT_TABLE,
-        &SETTINGS,
-        &free_candidates(target, &ZERO_REFERENCE),
-    )
+    let mut all = candidates(target, &ZERO_REFERENCE);
+    if may_free(&all) {
+        free_joints(target, &ZERO_REFERENCE, &mut all);
+        return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &all);
+    }
+    let mut out = ::armforge_runtime::internal::Collector::new();
+    out.add(&JOINT_TABLE, &SETTINGS, &all[0]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[1]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[2]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[3]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[4]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[5]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[6]);
+    out.add(&JOINT_TABLE, &SETTINGS, &all[7]);
+    out.finish(&JOINT_TABLE, &SETTINGS, &all)
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
 #[allow(
@@ -516,10 +526,12 @@ pub fn solve_near(
         current,
         [5, 2],
     );
+    let mut all = candidates(target, &reference);
+    free_joints(target, &reference, &mut all);
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
         &SETTINGS,
-        &free_candidates(target, &reference),
+        &all,
         current,
         &anchor,
     )
@@ -597,6 +609,14 @@ pub fn solve_branch(
         }
     };
     let mut one = [candidate];
+    if !(one[0].wrist_aligned | one[0].on_axis_1) {
+        return ::armforge_runtime::internal::finish_one(
+            &JOINT_TABLE,
+            &SETTINGS,
+            &one[0],
+            &CENTERS,
+        );
+    }
     ::armforge_runtime::internal::free_joint_1(
         &JOINT_TABLE,
         [&BASE, &TOOL],
@@ -2032,23 +2052,26 @@ fn candidates(
         },
     ]
 }
-/// The candidates, with the free joint moved where a singular pose leaves one free and
-/// its held value puts a joint outside its limits (a rare path; see
+/// Moves the free joint where a singular pose leaves one free and its held value puts a
+/// joint outside its limits, in place (a rare path; see
 /// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
 /// its branch's own function).
 #[inline]
-fn free_candidates(
+fn free_joints(
     target: &::armforge_runtime::Pose,
     reference: &[f64; 4],
-) -> [::armforge_runtime::internal::Candidate; 8] {
-    let mut all = candidates(target, reference);
+    all: &mut [::armforge_runtime::internal::Candidate; 8],
+) {
+    if !may_free(all) {
+        return;
+    }
     ::armforge_runtime::internal::free_joint_1(
         &JOINT_TABLE,
         [&BASE, &TOOL],
         &SETTINGS,
         target,
         reference,
-        &mut all,
+        all,
         |moved: &[f64; 4], i: usize| match i {
             0 => ::core::option::Option::Some(branch_1(target, moved)),
             1 => ::core::option::Option::Some(branch_2(target, moved)),
@@ -2061,7 +2084,15 @@ fn free_candidates(
             _ => ::core::option::Option::None,
         },
     );
-    all
+}
+/// True when a candidate may leave a joint free.
+#[inline(always)]
+fn may_free(all: &[::armforge_runtime::internal::Candidate; 8]) -> bool {
+    let mut any = false;
+    for c in all {
+        any |= c.wrist_aligned | c.on_axis_1;
+    }
+    any
 }
 /// The closed-form steps of branch 1 alone (facing, extended, leading).
 #[allow(
