@@ -17,7 +17,7 @@ const FIXTURES: [(&str, &str); 2] = [
         "../tests/fixtures/bad/malformed-toml.toml",
         "malformed-toml.toml",
     ),
-    ("../arms/rejected/tilted-elbow.toml", "tilted-elbow.toml"),
+    ("../arms/rejected/offset-wrist.toml", "offset-wrist.toml"),
 ];
 
 fn trybuild_project_dir() -> PathBuf {

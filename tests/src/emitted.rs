@@ -93,18 +93,13 @@ emitted_arms! {
     bench_elbow = "../arms/bench-elbow-dh.toml";
     ceiling_transfer = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader = "../arms/centrifuge-loader-dh.toml";
+    hood_corner = "../arms/hood-corner-axes.toml";
     hotel_loader = "../arms/hotel-loader-axes.toml";
     lid_lifter = "../arms/lid-lifter-axes.toml";
     rack_loader = "../arms/rack-loader-mdh.toml";
+    reagent_rack_reacher = "../arms/reagent-rack-reacher-axes.toml";
     shelf_reacher = "../arms/shelf-reacher-axes.toml";
     tray_gantry = "../arms/tray-gantry-axes.toml";
-}
-
-emitted_arms! {
-    /// The invented arms of the general family (a quartic for joints 1–3) that are test
-    /// fixtures, not yet example arms.
-    GENERAL_ARMS: f64;
-    reagent_rack_reacher = "fixtures/general/reagent-rack-reacher-axes.toml";
 }
 
 emitted_arms! {
@@ -114,9 +109,11 @@ emitted_arms! {
     bench_elbow_f32 = "../arms/bench-elbow-dh.toml";
     ceiling_transfer_f32 = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader_f32 = "../arms/centrifuge-loader-dh.toml";
+    hood_corner_f32 = "../arms/hood-corner-axes.toml";
     hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
     lid_lifter_f32 = "../arms/lid-lifter-axes.toml";
     rack_loader_f32 = "../arms/rack-loader-mdh.toml";
+    reagent_rack_reacher_f32 = "../arms/reagent-rack-reacher-axes.toml";
     shelf_reacher_f32 = "../arms/shelf-reacher-axes.toml";
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
 }

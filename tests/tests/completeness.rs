@@ -202,22 +202,3 @@ fn every_numerical_solution_is_among_armforges() {
         );
     }
 }
-
-#[test]
-fn every_numerical_solution_of_a_general_arm_is_among_armforges() {
-    // The general family (Pieper 1968: a quartic): the same check on its invented arm.
-    let poses = poses_per_arm();
-    for (k, arm) in armforge_tests::emitted::GENERAL_ARMS.iter().enumerate() {
-        let (found, armforge) = check_arm(arm, poses, 0x9e4e + k as u64);
-        println!(
-            "{}: {poses} poses × {STARTS} starts: Levenberg–Marquardt found {found} distinct \
-             solutions within the limits, armforge lists {armforge} (modulo whole turns)",
-            arm.path
-        );
-        assert!(
-            found > 0,
-            "{}: the numerical method found nothing",
-            arm.path
-        );
-    }
-}

@@ -133,9 +133,15 @@ fn pose_of(iso: &Isometry3<f64>) -> Pose {
 
 /// (distinct LM solutions, distinct interpreter solutions) over the random arms of `family`.
 fn check_family(family: Family) -> (usize, usize) {
+    check_arms(family, SampleOptions::default())
+}
+
+/// [`check_family`] for the random arms of `family` built with `options` (a full turn each
+/// way on every revolute joint).
+fn check_arms(family: Family, options: SampleOptions) -> (usize, usize) {
     let options = SampleOptions {
         revolute_range: TAU,
-        ..SampleOptions::default()
+        ..options
     };
     let (mut found_total, mut listed_total) = (0, 0);
     for seed in 0..sample_count(200) as u64 {
@@ -208,5 +214,42 @@ fn wrist_at_base_arms_miss_no_numerical_solution() {
 fn three_parallel_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::ThreeParallel);
     println!("three-parallel: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}");
+    assert!(found > 0);
+}
+
+#[test]
+fn general_arms_miss_no_numerical_solution() {
+    let (found, listed) = check_family(Family::General);
+    println!(
+        "general: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn general_arms_with_meeting_shoulder_axes_miss_no_numerical_solution() {
+    let options = SampleOptions {
+        shoulder_axes_meet: true,
+        ..SampleOptions::default()
+    };
+    let (found, listed) = check_arms(Family::General, options);
+    println!(
+        "general, axes 1 and 2 meeting: Levenberg–Marquardt found {found} distinct solutions, \
+         armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn general_arms_with_parallel_shoulder_axes_miss_no_numerical_solution() {
+    let options = SampleOptions {
+        shoulder_axes_parallel: true,
+        ..SampleOptions::default()
+    };
+    let (found, listed) = check_arms(Family::General, options);
+    println!(
+        "general, axes 1 and 2 parallel: Levenberg–Marquardt found {found} distinct solutions, \
+         armforge lists {listed}"
+    );
     assert!(found > 0);
 }

@@ -123,6 +123,7 @@ fn sample_options() -> impl Strategy<Value = SampleOptions> {
             orthogonal_wrist,
             random_zero,
             shoulder_axes_meet,
+            shoulder_axes_parallel: false,
         },
     )
 }

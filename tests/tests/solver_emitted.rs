@@ -34,6 +34,8 @@ emitted!(polar, "generated/polar.rs");
 emitted!(cylindrical, "generated/cylindrical.rs");
 emitted!(cartesian, "generated/cartesian.rs");
 emitted!(general, "generated/general.rs");
+emitted!(general_meeting, "generated/general_meeting.rs");
+emitted!(general_parallel, "generated/general_parallel.rs");
 emitted!(three_parallel_layout, "generated/three_parallel_layout.rs");
 emitted!(
     three_parallel_general,
@@ -134,6 +136,8 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(cylindrical), "cylindrical"),
         compare(api!(cartesian), "cartesian"),
         compare(api!(general), "general"),
+        compare(api!(general_meeting), "general_meeting"),
+        compare(api!(general_parallel), "general_parallel"),
         compare(api!(three_parallel_layout), "three_parallel_layout"),
         compare(api!(three_parallel_general), "three_parallel_general"),
         compare(api!(base_wrist_elbow), "base_wrist_elbow"),

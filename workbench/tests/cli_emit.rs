@@ -156,7 +156,7 @@ fn emit_exit_codes_match_inspect() {
             5,
             "cannot read the file",
         ),
-        ("arms/rejected/tilted-elbow.toml", 3, "tilted-elbow.toml:"),
+        ("arms/rejected/offset-wrist.toml", 3, "offset-wrist.toml:"),
     ] {
         let path = format!("{root}/{file}");
         let out = armforge().args(["emit", &path]).output().expect("runs");
@@ -185,7 +185,7 @@ fn the_macro_reports_problems_at_the_path_with_the_cli_message() {
             "../tests/fixtures/bad/does-not-exist.toml",
             "cannot read the file",
         ),
-        ("../arms/rejected/tilted-elbow.toml", "tilted-elbow.toml:"),
+        ("../arms/rejected/offset-wrist.toml", "offset-wrist.toml:"),
     ] {
         let expanded = solver_macro(quote!(mod m = #file;), Some(&tests_dir())).to_string();
         assert!(expanded.contains("compile_error"), "{file}: {expanded}");

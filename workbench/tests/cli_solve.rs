@@ -271,7 +271,7 @@ fn file_problems_exit_like_inspect() {
     assert_eq!(code, Some(4));
     assert!(lines.is_empty());
     assert!(stderr.contains("malformed-toml.toml:"), "{stderr}");
-    let (code, _, stderr) = run(&["solve", "../arms/rejected/tilted-elbow.toml"], "");
+    let (code, _, stderr) = run(&["solve", "../arms/rejected/offset-wrist.toml"], "");
     assert_eq!(code, Some(3));
-    assert!(stderr.contains("tilted-elbow.toml:"), "{stderr}");
+    assert!(stderr.contains("offset-wrist.toml:"), "{stderr}");
 }

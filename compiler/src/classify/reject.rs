@@ -79,11 +79,17 @@ pub enum Reason {
         /// The distance of the wrist center from axis 3, metres.
         distance: f64,
     },
-    /// General R R R whose axes 1 and 2 meet: the quartic's reduction divides by the length of
-    /// their common normal.
-    #[cfg_attr(feature = "serde", serde(rename = "general_axes_1_and_2_meet"))]
-    GeneralAxes1And2Meet {
-        /// The length of the common normal, metres.
+    /// General R R R whose axes 1 and 2 are one line: joints 1 and 2 turn about it alike.
+    #[cfg_attr(feature = "serde", serde(rename = "general_axes_1_and_2_one_line"))]
+    GeneralAxes1And2OneLine {
+        /// The distance between the axes, metres.
+        distance: f64,
+    },
+    /// General R R R whose axes 1, 2 and 3 meet in one point, with a spherical wrist: no joint
+    /// changes the wrist center's distance from that point.
+    #[cfg_attr(feature = "serde", serde(rename = "general_axes_1_to_3_meet"))]
+    GeneralAxes1To3Meet {
+        /// The distance of axis 3 from the point where axes 1 and 2 meet, metres.
         distance: f64,
     },
     /// General R R R whose wrist center lies on axis 3: joint 3 cannot move it.
@@ -312,13 +318,20 @@ fn describe(model: &Model, reason: &Reason) -> String {
             label(model, 3),
             u.show_length(*distance)
         ),
-        Reason::GeneralAxes1And2Meet { distance } => format!(
-            "axes of {} and {} meet (common normal {}) and joints 1–3 are of no named family; \
-             the general family's quartic divides by that length. Such an arm has a simpler \
-             closed form (the distance from the meeting point fixes joint 3 by a quadratic; \
-             Pieper 1968), which armforge does not build yet",
+        Reason::GeneralAxes1And2OneLine { distance } => format!(
+            "axes of {} and {} are one line ({} apart): the two joints turn the arm alike, so \
+             joints 1–3 cannot place the wrist center in space",
             label(model, 1),
             label(model, 2),
+            u.show_length(*distance)
+        ),
+        Reason::GeneralAxes1To3Meet { distance } => format!(
+            "axes of {}, {} and {} meet in one point (axis 3 passes {} from where axes 1 and 2 \
+             meet) and the wrist is spherical: no joint changes the wrist center's distance \
+             from that point, so the arm cannot reach a volume",
+            label(model, 1),
+            label(model, 2),
+            label(model, 3),
             u.show_length(*distance)
         ),
         Reason::GeneralWristCenterOnAxis3 { distance } => format!(
@@ -395,8 +408,8 @@ fn describe_note(model: &Model, note: &Note) -> String {
             .to_string(),
         Note::PieperQuartic => "the wrist is spherical, so Pieper's criterion holds and a \
              closed form exists (Pieper 1968): the general family solves joints 1–3 of no named \
-             family through a quartic when axes 1 and 2 neither meet nor are parallel; the \
-             simpler sub-cases where they do are not built yet"
+             family through a quartic, or through quadratics when axes 1 and 2 meet or are \
+             parallel"
             .to_string(),
         Note::GeneralSixRevolute => "six revolute joints with no three consecutive axes meeting \
              in a point and no three consecutive parallel axes: armforge knows no closed form \
@@ -436,7 +449,8 @@ impl Reason {
             Reason::ElbowAxes2And3NotParallel { .. } => "elbow_axes_2_and_3_not_parallel",
             Reason::ElbowAxes2And3Coincide { .. } => "elbow_axes_2_and_3_coincide",
             Reason::WristCenterOnAxis3 { .. } => "wrist_center_on_axis_3",
-            Reason::GeneralAxes1And2Meet { .. } => "general_axes_1_and_2_meet",
+            Reason::GeneralAxes1And2OneLine { .. } => "general_axes_1_and_2_one_line",
+            Reason::GeneralAxes1To3Meet { .. } => "general_axes_1_to_3_meet",
             Reason::GeneralWristCenterOnAxis3 { .. } => "general_wrist_center_on_axis_3",
             Reason::PolarSlideNotPerpendicular { .. } => "polar_slide_not_perpendicular",
             Reason::CylindricalSlidesParallel { .. } => "cylindrical_slides_parallel",
@@ -471,7 +485,8 @@ impl Reason {
             | Reason::CartesianSlidesDependent { angle, .. } => vec![("angle", Angle(*angle))],
             Reason::ElbowAxes2And3Coincide { distance }
             | Reason::WristCenterOnAxis3 { distance }
-            | Reason::GeneralAxes1And2Meet { distance }
+            | Reason::GeneralAxes1And2OneLine { distance }
+            | Reason::GeneralAxes1To3Meet { distance }
             | Reason::GeneralWristCenterOnAxis3 { distance } => {
                 vec![("distance", Length(*distance))]
             }

@@ -120,6 +120,9 @@ pub struct SampleOptions {
     /// forearm stay): the facing and across postures then reach the same distances, so generic
     /// reachable poses have all 8 solutions.
     pub shoulder_axes_meet: bool,
+    /// Axis 2 parallel to axis 1, apart (general family only): one of the general family's
+    /// two sub-cases with quadratics; `shoulder_axes_meet` gives the other.
+    pub shoulder_axes_parallel: bool,
 }
 
 impl Default for SampleOptions {
@@ -129,6 +132,7 @@ impl Default for SampleOptions {
             orthogonal_wrist: false,
             random_zero: true,
             shoulder_axes_meet: false,
+            shoulder_axes_parallel: false,
         }
     }
 }
@@ -156,7 +160,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 11] {
+pub fn fixtures() -> [Fixture; 13] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -166,6 +170,14 @@ pub fn fixtures() -> [Fixture; 11] {
     let two_turns = SampleOptions {
         revolute_range: std::f64::consts::TAU,
         orthogonal_wrist: true,
+        ..plain
+    };
+    let meeting = SampleOptions {
+        shoulder_axes_meet: true,
+        ..plain
+    };
+    let parallel = SampleOptions {
+        shoulder_axes_parallel: true,
         ..plain
     };
     let fixture = |name, family, seed, options| Fixture {
@@ -182,6 +194,8 @@ pub fn fixtures() -> [Fixture; 11] {
         fixture("cylindrical", Family::Cylindrical, 15, plain),
         fixture("cartesian", Family::Cartesian, 16, plain),
         fixture("general", Family::General, 17, plain),
+        fixture("general_meeting", Family::General, 22, meeting),
+        fixture("general_parallel", Family::General, 23, parallel),
         fixture("three_parallel_layout", Family::ThreeParallel, 18, plain),
         fixture("three_parallel_general", Family::ThreeParallel, 19, plain),
         fixture("base_wrist_elbow", Family::BaseWrist, 20, plain),
@@ -286,17 +300,32 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
             )
         }
         Family::General => {
-            // Axes 1 and 2 apart along their common normal and not parallel, axis 3 not
-            // parallel to axis 2, the wrist center off axis 3: no named family.
-            let h2 = rng.direction_away_from(&h1, 0.9);
-            let normal = num::unit(&num::cross(&h1, &h2));
-            let p2 = num::add(
-                &num::add(&p1, &num::scale(&normal, rng.range(0.05, 0.4) * rng.sign())),
-                &num::add(
+            // Axes 1 and 2 apart along their common normal and not parallel (or, with the
+            // options, meeting or parallel), axis 3 not parallel to axis 2, the wrist center
+            // off axis 3: no named family.
+            let (h2, p2) = if options.shoulder_axes_parallel {
+                let h2 = num::scale(&h1, rng.sign());
+                let across = num::scale(&rng.perpendicular(&h1), rng.range(0.1, 0.5));
+                let p2 = num::add(
+                    &num::add(&p1, &across),
                     &num::scale(&h1, rng.range(-0.3, 0.3)),
-                    &num::scale(&h2, rng.range(-0.3, 0.3)),
-                ),
-            );
+                );
+                (h2, p2)
+            } else if options.shoulder_axes_meet {
+                let h2 = rng.direction_away_from(&h1, 0.9);
+                (h2, num::add(&p1, &num::scale(&h1, rng.range(-0.3, 0.3))))
+            } else {
+                let h2 = rng.direction_away_from(&h1, 0.9);
+                let normal = num::unit(&num::cross(&h1, &h2));
+                let p2 = num::add(
+                    &num::add(&p1, &num::scale(&normal, rng.range(0.05, 0.4) * rng.sign())),
+                    &num::add(
+                        &num::scale(&h1, rng.range(-0.3, 0.3)),
+                        &num::scale(&h2, rng.range(-0.3, 0.3)),
+                    ),
+                );
+                (h2, p2)
+            };
             let h3 = rng.direction_away_from(&h2, 0.9);
             let p3 = num::add(&p2, &rng.point(0.6));
             let fore = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));

@@ -1,8 +1,10 @@
 //! The general family: R R R whose axes fit no named family (axes 2 and 3 not parallel), a
-//! spherical wrist. Joints 1–3 are solved through a quartic (Pieper 1968), see [`plan`].
+//! spherical wrist. Joints 1–3 are solved through a quartic (Pieper 1968), see [`plan`], or,
+//! when axes 1 and 2 meet or are parallel, through quadratics, see [`axes_1_2`].
 //! It comes last in the registry: a named family's plan has simpler equations and better
 //! numbers, so an arm that one of them recognises never reaches this one.
 
+pub mod axes_1_2;
 pub mod plan;
 
 use armforge_runtime::Joint;
@@ -12,7 +14,6 @@ use super::data::{Judged, Part, Value, VerifyHints};
 use super::{Family, FamilyModule, Recognition};
 use crate::classify::context::Context;
 use crate::classify::evidence::{GeneralEvidence, Measured};
-use crate::classify::family::check_axis_1_not_parallel_to_2;
 use crate::classify::reject::{Reason, Rejection};
 use crate::classify::{decoupled, ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
@@ -24,13 +25,21 @@ pub struct General;
 /// The registry's entry.
 pub static GENERAL: General = General;
 
-/// General: axis 1 ∦ axis 2 and axes 1 and 2 apart (the reduction divides by `sin α` and by
-/// the common normal `a`), and the wrist center off axis 3 (joint 3 moves it).
+/// General: axes 1 and 2 not one line; when they meet, axis 3 away from their meeting point
+/// (joint 3 must change the wrist center's distance from it); the wrist center off axis 3
+/// (joint 3 moves it).
 fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
-    check_axis_1_not_parallel_to_2(ctx)?;
     let distance = ctx.gap(1, 2);
     if distance <= ctx.tol.distance {
-        return Err(ctx.reject(Reason::GeneralAxes1And2Meet { distance }, 2, Vec::new()));
+        if ctx.parallel(1, 2) {
+            return Err(ctx.reject(Reason::GeneralAxes1And2OneLine { distance }, 2, Vec::new()));
+        }
+        if let Some(meeting) = ctx.meeting(&[1, 2]) {
+            let distance = ctx.line(3).distance_to(&meeting.point);
+            if distance <= ctx.tol.distance {
+                return Err(ctx.reject(Reason::GeneralAxes1To3Meet { distance }, 3, Vec::new()));
+            }
+        }
     }
     let distance = ctx.line(3).distance_to(center);
     if distance <= ctx.tol.distance {

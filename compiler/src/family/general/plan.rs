@@ -61,9 +61,31 @@ use crate::units::tidy;
 /// always fails its check (m²).
 const MISMATCH: f64 = 1e30;
 
+/// How axes 1 and 2 lie. The quartic needs them apart and not parallel; when they meet or
+/// are parallel, one equation in joint 3 alone is left (see [`super::axes_1_2`]).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Layout {
+    /// Apart and not parallel: the quartic.
+    Skew,
+    /// Meeting in one point (`a = 0`, `f1 = f2`).
+    Meet,
+    /// Parallel and apart (`sin α = 0`).
+    Parallel,
+}
+
+/// Axes 1 and 2 count as parallel when their sines is at most this (the classifier's default
+/// angle tolerance, radians).
+const PARALLEL: f64 = 1e-6;
+
+/// Axes 1 and 2 count as meeting when their common normal is at most this × the arm's size
+/// (the classifier's default distance tolerance).
+const MEET: f64 = 1e-6;
+
 /// The constants of a general arm's position step.
 #[derive(Clone, Copy, Debug)]
 pub struct Constants {
+    /// How axes 1 and 2 lie.
+    pub layout: Layout,
     /// Axis 1.
     pub h1: [f64; 3],
     /// Axis 2.
@@ -78,6 +100,9 @@ pub struct Constants {
     pub n: [f64; 3],
     /// `h2 × n`.
     pub ell: [f64; 3],
+    /// The normal of the shoulder label's plane through axis 1: `n`, or `ℓ` when axes 1 and 2
+    /// are parallel (the plane through both axes).
+    pub side: [f64; 3],
     /// `cos α = h1 · h2`.
     pub cos_a: f64,
     /// `sin α = |h1 × h2|`.
@@ -115,8 +140,36 @@ fn common_normal(p1: &[f64; 3], h1: &[f64; 3], p2: &[f64; 3], h2: &[f64; 3]) -> 
     ]
 }
 
-/// The constants of `arm` (the classifier has made sure that `sin α` and `a` are clear of
-/// zero; they are kept above 1e-300 here all the same).
+/// Axes 1 and 2: their layout, the feet `f1`, `f2` of their common normal, its length `a` and
+/// direction `n` (for meeting axes `f1 = f2` is the meeting point and `n = h1 × h2 / sin α`;
+/// for parallel ones `f1` is the foot of `p2` on axis 1).
+fn axes_1_2(arm: &Arm) -> (Layout, [[f64; 3]; 2], f64, [f64; 3]) {
+    let (h1, p1) = (arm.axis(0), arm.point(0));
+    let (h2, p2) = (arm.axis(1), arm.point(1));
+    let cross = num::cross(&h1, &h2);
+    let sin_a = num::norm(&cross);
+    if sin_a <= PARALLEL {
+        let f1 = num::add(&p1, &num::scale(&h1, num::dot(&h1, &num::sub(&p2, &p1))));
+        let a = num::norm(&num::sub(&p2, &f1)).max(1e-300);
+        let n = num::scale(&num::sub(&p2, &f1), 1.0 / a);
+        return (Layout::Parallel, [f1, p2], a, n);
+    }
+    let [f1, f2] = common_normal(&p1, &h1, &p2, &h2);
+    let a = num::norm(&num::sub(&f2, &f1));
+    if a <= MEET * arm.scale {
+        let o = num::scale(&num::add(&f1, &f2), 0.5);
+        return (Layout::Meet, [o, o], 0.0, num::scale(&cross, 1.0 / sin_a));
+    }
+    (
+        Layout::Skew,
+        [f1, f2],
+        a,
+        num::scale(&num::sub(&f2, &f1), 1.0 / a),
+    )
+}
+
+/// The constants of `arm` (the classifier has made sure that axes 1 and 2 are not one line
+/// and that, when they meet, axis 3 misses the meeting point; `sin α` is kept above 1e-300).
 pub fn constants(arm: &Arm) -> Constants {
     let c = arm.wrist_center;
     let (h1, p1) = (arm.axis(0), arm.point(0));
@@ -124,24 +177,28 @@ pub fn constants(arm: &Arm) -> Constants {
     let (h3, p3) = (arm.axis(2), arm.point(2));
     let cos_a = num::dot(&h1, &h2);
     let sin_a = num::norm(&num::cross(&h1, &h2)).max(1e-300);
-    let [f1, f2] = common_normal(&p1, &h1, &p2, &h2);
-    let a = num::norm(&num::sub(&f2, &f1)).max(1e-300);
-    let n = num::scale(&num::sub(&f2, &f1), 1.0 / a);
+    let (layout, [f1, f2], a, n) = axes_1_2(arm);
     let ell = num::cross(&h2, &n);
+    let side = if layout == Layout::Parallel { ell } else { n };
     let m = num::scale(&num::sub(&h1, &num::scale(&h2, cos_a)), 1.0 / sin_a);
-    let mu = sign(num::dot(&m, &ell));
+    let mu = if layout == Layout::Parallel {
+        1.0
+    } else {
+        sign(num::dot(&m, &ell))
+    };
     let v = num::sub(&c, &p3);
     let along = num::dot(&h3, &v);
     let r0 = num::add(&num::sub(&p3, &f2), &num::scale(&h3, along));
     let rc = num::sub(&v, &num::scale(&h3, along));
     let rs = num::cross(&h3, &v);
     // The labels at zero: the wrist center's side of the plane, the Jacobian's sign.
-    let facing = sign(num::dot(&n, &num::sub(&c, &f1)));
+    let facing = sign(num::dot(&side, &num::sub(&c, &f1)));
     let d1 = num::cross(&h1, &num::sub(&c, &p1));
     let d2 = num::cross(&h2, &num::sub(&c, &p2));
     let d3 = num::cross(&h3, &v);
     let up = sign(num::dot(&d1, &num::cross(&d2, &d3)));
     Constants {
+        layout,
         h1,
         h2,
         h3,
@@ -149,6 +206,7 @@ pub fn constants(arm: &Arm) -> Constants {
         a,
         n,
         ell,
+        side,
         cos_a,
         sin_a,
         mu,
@@ -166,7 +224,7 @@ pub fn constants(arm: &Arm) -> Constants {
 pub fn rules(arm: &Arm, k: &Constants) -> (ShoulderRule, ElbowRule) {
     (
         ShoulderRule::Plane {
-            normal: k.n,
+            normal: k.side,
             point: k.f1,
             wrist_center: arm.wrist_center,
             facing: k.facing,
@@ -176,7 +234,7 @@ pub fn rules(arm: &Arm, k: &Constants) -> (ShoulderRule, ElbowRule) {
 }
 
 /// `k0 + k1 cos θ + k2 sin θ` with constant `k1`, `k2` and the graph value `k0`.
-type Linear = [Id; 3];
+pub(super) type Linear = [Id; 3];
 
 /// `L²` as a degree-2 trigonometric polynomial `[k0, k1, k2, k3, k4]` (coefficients of
 /// `1, cos θ, sin θ, cos 2θ, sin 2θ`).
@@ -197,7 +255,7 @@ fn squared(g: &mut Graph, [l0, l1, l2]: Linear) -> [Id; 5] {
 }
 
 /// `k · (const, cos θ, sin θ)` pieces of `k · r(θ3)` for a constant direction `k`.
-fn along(g: &mut Graph, k: &Constants, d: [f64; 3]) -> Linear {
+pub(super) fn along(g: &mut Graph, k: &Constants, d: [f64; 3]) -> Linear {
     [
         g.constant(num::dot(&d, &k.r0)),
         g.constant(num::dot(&d, &k.rc)),
@@ -206,7 +264,7 @@ fn along(g: &mut Graph, k: &Constants, d: [f64; 3]) -> Linear {
 }
 
 /// `l0 + l1 c + l2 s`.
-fn at(g: &mut Graph, [l0, l1, l2]: Linear, (c, s): (Id, Id)) -> Id {
+pub(super) fn at(g: &mut Graph, [l0, l1, l2]: Linear, (c, s): (Id, Id)) -> Id {
     let x = g.mul(l1, c);
     let y = g.mul(l2, s);
     let xy = g.add(x, y);
@@ -214,7 +272,7 @@ fn at(g: &mut Graph, [l0, l1, l2]: Linear, (c, s): (Id, Id)) -> Id {
 }
 
 /// One root carried through joints 2 and 1, before routing to a labelled slot.
-struct Root {
+pub(super) struct Root {
     angles: [Id; 3],
     turns: [(Id, Id); 3],
     residual: Id,
@@ -229,7 +287,22 @@ struct Root {
 /// Builds joints 1–3 of a general arm: four labelled slots, each holding the root of its
 /// label (a failing candidate when no root has it).
 pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec<ArmSolution> {
-    let tol = 1e-10 * arm.scale;
+    match k.layout {
+        Layout::Skew => solve_skew(g, arm, k, t, ct),
+        Layout::Meet => super::axes_1_2::solve_meeting(g, arm, k, t, ct),
+        Layout::Parallel => super::axes_1_2::solve_parallel(g, arm, k, t, ct),
+    }
+}
+
+/// The wrist-center target seen from `f1`: `u = c_t − f1`, `ρ = |u|²`, `ζ = h1 · u`.
+#[derive(Clone, Copy)]
+pub(super) struct Aim {
+    pub u: V3,
+    pub rho: Id,
+    pub zeta: Id,
+}
+
+pub(super) fn aim(g: &mut Graph, k: &Constants, ct: V3) -> Aim {
     let u = vec3::add_const(g, ct, num::scale(&k.f1, -1.0));
     let u = vec3::name(
         g,
@@ -241,12 +314,37 @@ pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec
     let rho = g.name(rho, "rho", "ρ = |u|²");
     let zeta = vec3::dot_const(g, k.h1, u);
     let zeta = g.name(zeta, "zeta", "ζ = h1 · u");
-    // |r|² = K0 + K1 c3 + K2 s3 (rc ⟂ rs, |rc| = |rs|).
-    let kk = [
+    Aim { u, rho, zeta }
+}
+
+/// `|r|² = K0 + K1 cos θ3 + K2 sin θ3` (`rc ⟂ rs`, `|rc| = |rs|`).
+pub(super) fn radius_terms(k: &Constants) -> [f64; 3] {
+    [
         num::dot(&k.r0, &k.r0) + num::dot(&k.rc, &k.rc),
         2.0 * num::dot(&k.r0, &k.rc),
         2.0 * num::dot(&k.r0, &k.rs),
-    ];
+    ]
+}
+
+/// `≥ 0` when the target is on axis 1 (joint 1 is free: the reference is used).
+pub(super) fn on_axis_1(g: &mut Graph, aim: &Aim, tol: f64) -> Id {
+    let zz = g.mul(aim.zeta, aim.zeta);
+    let radial2 = g.sub(aim.rho, zz);
+    let floor = g.exact(tol * tol);
+    let on_axis = g.sub(floor, radial2);
+    g.name(
+        on_axis,
+        "j1_free",
+        "≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)",
+    )
+}
+
+/// Axes 1 and 2 apart and not parallel: the quartic in joint 3.
+fn solve_skew(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec<ArmSolution> {
+    let tol = 1e-10 * arm.scale;
+    let target = aim(g, k, ct);
+    let Aim { u, rho, zeta } = target;
+    let kk = radius_terms(k);
     let z = along(g, k, k.h2);
     let inv_2a = 1.0 / (2.0 * k.a);
     let x0 = {
@@ -310,16 +408,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec
         );
     }
     let roots = trig_roots(g, f, "j3");
-    // The target on axis 1: joint 1 is free (the reference is used).
-    let zz = g.mul(zeta, zeta);
-    let radial2 = g.sub(rho, zz);
-    let floor = g.exact(tol * tol);
-    let on_axis = g.sub(floor, radial2);
-    let on_axis = g.name(
-        on_axis,
-        "j1_free",
-        "≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)",
-    );
+    let on_axis = on_axis_1(g, &target, tol);
     let carried: Vec<Root> = roots
         .roots
         .iter()
@@ -344,14 +433,16 @@ pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec
 
 /// The wrist center with joint 1 undone for joint pairs `(c2, s2)`, `(c3, s3)`:
 /// `w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2`, with `n · (w − f1)` and `∂w/∂θ3`.
-struct Placed {
+pub(super) struct Placed {
     w: V3,
-    along_n: Id,
+    /// The shoulder label's side: `side · (w − f1)` (`n · (w − f1)` unless axes 1 and 2 are
+    /// parallel).
+    side: Id,
     /// `∂w/∂θ3 = R2 (h3 × R3 (c − p3))`.
     d3: V3,
 }
 
-fn placed(
+pub(super) fn placed(
     g: &mut Graph,
     k: &Constants,
     z: Linear,
@@ -384,7 +475,12 @@ fn placed(
         let s = vec3::add(g, p, q);
         vec3::rotate(g, k.h2, c2, s2, s)
     };
-    Placed { w, along_n, d3 }
+    let side = if k.layout == Layout::Parallel {
+        along_l
+    } else {
+        along_n
+    };
+    Placed { w, side, d3 }
 }
 
 /// `∂w/∂θ2 = h2 × (w − f2)` (axis 2 through `f2 = f1 + a n`).
@@ -514,17 +610,38 @@ fn carry(
     let s2 = g.select(better, s2n, s2);
     let c3 = g.select(better, c3n, c3);
     let s3 = g.select(better, s3n, s3);
-    let w = vec3::select(g, better, after.w, before.w);
-    let along_n = g.select(better, after.along_n, before.along_n);
-    let d3 = vec3::select(g, better, after.d3, before.d3);
+    let placed = Placed {
+        w: vec3::select(g, better, after.w, before.w),
+        side: g.select(better, after.side, before.side),
+        d3: vec3::select(g, better, after.d3, before.d3),
+    };
+    let note2 = "Paden–Kahan 1: θ2 = atan2((n·r) μY − (ℓ·r) X, (n·r) X + (ℓ·r) μY), refined";
+    finish(
+        g,
+        k,
+        t,
+        (u, on_axis),
+        [(c2, s2), (c3, s3)],
+        placed,
+        (n, note2, scale),
+    )
+}
+
+/// Joint 1 for one root of joints 2 and 3 (Paden–Kahan subproblem 1 about axis 1, the
+/// reference on axis 1), the root's residual `|E1 E2 E3 c − c_t|²` and its labels.
+pub(super) fn finish(
+    g: &mut Graph,
+    k: &Constants,
+    t: &Target,
+    (u, on_axis): (V3, Id),
+    [(c2, s2), (c3, s3)]: [(Id, Id); 2],
+    Placed { w, side, d3 }: Placed,
+    (n, note2, scale): (usize, &str, f64),
+) -> Root {
     let theta3 = g.atan2(s3, c3);
     let theta3 = g.name(theta3, &format!("q3_{n}"), "θ3 = atan2(sin θ3, cos θ3)");
     let theta2 = g.atan2(s2, c2);
-    let theta2 = g.name(
-        theta2,
-        &format!("q2_{n}"),
-        "Paden–Kahan 1: θ2 = atan2((n·r) μY − (ℓ·r) X, (n·r) X + (ℓ·r) μY), refined",
-    );
+    let theta2 = g.name(theta2, &format!("q2_{n}"), note2);
     let w = vec3::name(
         g,
         w,
@@ -552,9 +669,9 @@ fn carry(
         &format!("miss_{n}"),
         "|E1 E2 E3 c − c_t|²: zero for a real root",
     );
-    // Labels: the side n · (w − f1), and det[h1 × (w − f1), h2 × (w − f2), R2 (h3 × R3 v)].
+    // Labels: the side (w − f1) · side, and det[h1 × (w − f1), h2 × (w − f2), R2 (h3 × R3 v)].
     let facing = g.constant(k.facing);
-    let side = g.mul(facing, along_n);
+    let side = g.mul(facing, side);
     let h1 = vec3::constant(g, k.h1);
     let d1 = vec3::cross(g, h1, w);
     let d2 = d_theta2(g, k, w);
@@ -629,7 +746,7 @@ fn smallest(g: &mut Graph, bundles: &[Bundle], ranks: &[Id], checks: &[Id]) -> (
 /// the best root no slot took (two real roots with one label: the second would otherwise be
 /// lost; it keeps its joint values under this slot's label), else fails its check
 /// ([`MISMATCH`] added to its residual).
-fn route(
+pub(super) fn route(
     g: &mut Graph,
     k: &Constants,
     roots: &[Root],

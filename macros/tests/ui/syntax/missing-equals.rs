@@ -1,3 +1,3 @@
-armforge_macros::solver!(mod arm "fixtures/tilted-elbow.toml");
+armforge_macros::solver!(mod arm "fixtures/offset-wrist.toml");
 
 fn main() {}

@@ -1,3 +1,3 @@
-armforge_macros::solver!(struct Arm = "fixtures/tilted-elbow.toml");
+armforge_macros::solver!(struct Arm = "fixtures/offset-wrist.toml");
 
 fn main() {}

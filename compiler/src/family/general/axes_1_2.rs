@@ -1,0 +1,248 @@
+//! Joints 1–3 of a general arm whose axes 1 and 2 meet or are parallel: the quartic's two
+//! equations fall apart, one of them holds joint 3 alone, and every step is a quadratic
+//! (Pieper 1968; Craig, Introduction to Robotics, 3rd ed., 2005, §4.6, from memory: the
+//! "a1 = 0" and "sin α1 = 0" cases). The frame `(n, ℓ, h2)`, `r(θ3)`, `u`, `ρ`, `ζ` and `Z`
+//! are those of [`super::plan`].
+//!
+//! # Axes 1 and 2 meet (at `O = f1 = f2`)
+//!
+//! Joints 1 and 2 turn about lines through `O`, so they keep the distance from `O`:
+//!
+//! ```text
+//! |r(θ3)|² = ρ   ⇔   K1 cos θ3 + K2 sin θ3 = ρ − K0
+//! ```
+//!
+//! (Paden–Kahan subproblem 3 in product-of-exponentials form; `|r|² = K0 + K1 cos θ3 +
+//! K2 sin θ3`), up to 2 roots. Joints 2 then 1 turn `r` onto `u` about two axes through one
+//! point, Paden–Kahan subproblem 2 (Murray, Li & Sastry, A Mathematical Introduction to
+//! Robotic Manipulation, 1994, §3.3): the point between the two turns is
+//! `z = α h1 + β h2 ± γ (h1 × h2)` with
+//!
+//! ```text
+//! α = (cos α12 Z − ζ) / (cos² α12 − 1),   β = (cos α12 ζ − Z) / (cos² α12 − 1),
+//! γ² = (|r|² − α² − β² − 2 α β cos α12) / sin² α12,
+//! ```
+//!
+//! joint 2 turns `r` onto `z`, joint 1 turns `z` onto `u` (subproblem 1 each): up to 2 × 2 = 4.
+//!
+//! # Axes 1 and 2 parallel (`h1 = ±h2`, `a` apart)
+//!
+//! Joints 1 and 2 keep the height along the axes:
+//!
+//! ```text
+//! Z(θ3) = ±ζ   ⇔   (h2 · rc) cos θ3 + (h2 · rs) sin θ3 = ±ζ − h2 · r0,
+//! ```
+//!
+//! up to 2 roots. In the plane ⟂ the axes joint 1 keeps the distance from axis 1 (the law
+//! of cosines): `n · R2 r = X := (ρ − ζ² − a² − |r⊥|²) / (2a)` and
+//! `ℓ · R2 r = ±√(|r⊥|² − X²)`; joint 2 turns `r⊥` onto that (subproblem 1), joint 1 turns the
+//! result onto `u`: up to 2 × 2 = 4.
+//!
+//! Each candidate's check is its residual `|E1 E2 E3 c − c_t|²`, which a candidate beyond
+//! reach misses by; the labels and their routing are the quartic's ([`super::plan::route`]).
+
+use crate::plan::graph::{Graph, Id};
+use crate::plan::subproblems::{rotate_into_plane, rotate_onto};
+use crate::plan::vec3::{self, num, V3};
+use crate::plan::{unit_pair, ArmSolution, Target};
+
+use super::plan::{
+    aim, along, at, finish, on_axis_1, placed, radius_terms, route, Aim, Constants, Root,
+};
+
+/// The two roots of joint 3 from `k1 cos θ3 + k2 sin θ3 = e` (the classifier has made sure
+/// that `k1² + k2²` is clear of zero, so the reference is never used).
+fn joint_3_roots(
+    g: &mut Graph,
+    [k1, k2]: [f64; 2],
+    e: Id,
+    (threshold, unit): (f64, &str),
+) -> [(Id, Id); 2] {
+    let a = g.constant(k1);
+    let b = g.constant(k2);
+    let one = g.constant(1.0);
+    let zero = g.constant(0.0);
+    rotate_into_plane(g, [a, b, e], (one, zero), threshold, unit, "j3").roots
+}
+
+/// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`, from `f2`.
+fn radius(g: &mut Graph, k: &Constants, (c3, s3): (Id, Id)) -> V3 {
+    let p = vec3::scale_const(g, c3, k.rc);
+    let q = vec3::scale_const(g, s3, k.rs);
+    let s = vec3::add(g, p, q);
+    vec3::add_const(g, s, k.r0)
+}
+
+/// Joints 1–3 when axes 1 and 2 meet.
+pub fn solve_meeting(
+    g: &mut Graph,
+    arm: &crate::plan::Arm,
+    k: &Constants,
+    t: &Target,
+    ct: V3,
+) -> Vec<ArmSolution> {
+    let tol = 1e-10 * arm.scale;
+    let target = aim(g, k, ct);
+    let Aim { u, rho, zeta } = target;
+    let kk = radius_terms(k);
+    let e = {
+        let k0 = g.constant(kk[0]);
+        let e = g.sub(rho, k0);
+        g.name(e, "j3_e", "ρ − K0: |r(θ3)|² = ρ keeps the distance from O")
+    };
+    let roots3 = joint_3_roots(g, [kk[1], kk[2]], e, ((tol * arm.scale).powi(2), " m²"));
+    let on_axis = on_axis_1(g, &target, tol);
+    let z = along(g, k, k.h2);
+    let radius2 = [kk[0], kk[1], kk[2]].map(|x| g.constant(x));
+    let h12 = num::cross(&k.h1, &k.h2);
+    let inv = 1.0 / (k.cos_a * k.cos_a - 1.0);
+    let mut roots: Vec<Root> = Vec::new();
+    for (i, &cs3) in roots3.iter().enumerate() {
+        let zv = at(g, z, cs3);
+        let rr = at(g, radius2, cs3);
+        let inv = g.constant(inv);
+        let cos_a = g.constant(k.cos_a);
+        let alpha = {
+            let p = g.mul(cos_a, zv);
+            let d = g.sub(p, zeta);
+            g.mul(inv, d)
+        };
+        let beta = {
+            let p = g.mul(cos_a, zeta);
+            let d = g.sub(p, zv);
+            g.mul(inv, d)
+        };
+        let gamma = {
+            let aa = g.mul(alpha, alpha);
+            let bb = g.mul(beta, beta);
+            let ab = g.mul(alpha, beta);
+            let two_cos = g.constant(2.0 * k.cos_a);
+            let cross = g.mul(two_cos, ab);
+            let d = g.sub(rr, aa);
+            let d = g.sub(d, bb);
+            let d = g.sub(d, cross);
+            let per = g.constant(1.0 / (k.sin_a * k.sin_a));
+            let gg = g.mul(per, d);
+            let gamma = g.sqrt0(gg);
+            g.name(
+                gamma,
+                &format!("gamma_{}", i + 1),
+                "γ = √max((|r|² − α² − β² − 2αβ cos α12) / sin² α12, 0): Paden–Kahan 2",
+            )
+        };
+        let r = radius(g, k, cs3);
+        let axial = vec3::scale_const(g, zv, k.h2);
+        let r_perp = vec3::sub(g, r, axial);
+        for (j, sigma) in [1.0, -1.0].into_iter().enumerate() {
+            let n = 2 * i + j + 1;
+            let sg = if sigma > 0.0 { gamma } else { g.neg(gamma) };
+            let zp = {
+                let a = vec3::scale_const(g, alpha, k.h1);
+                let b = vec3::scale_const(g, beta, k.h2);
+                let c = vec3::scale_const(g, sg, h12);
+                let ab = vec3::add(g, a, b);
+                vec3::add(g, ab, c)
+            };
+            let (nc, ns) = rotate_onto(g, k.h2, r_perp, zp);
+            let cs2 = unit_pair(g, nc, ns);
+            let place = placed(g, k, z, cs2, cs3);
+            let note = "Paden–Kahan 2: θ2 turns r onto z = α h1 + β h2 ± γ (h1 × h2) about axis 2";
+            roots.push(finish(
+                g,
+                k,
+                t,
+                (u, on_axis),
+                [cs2, cs3],
+                place,
+                (n, note, arm.scale),
+            ));
+        }
+    }
+    route(g, k, &roots, on_axis, (tol, arm.scale))
+}
+
+/// Joints 1–3 when axes 1 and 2 are parallel.
+pub fn solve_parallel(
+    g: &mut Graph,
+    arm: &crate::plan::Arm,
+    k: &Constants,
+    t: &Target,
+    ct: V3,
+) -> Vec<ArmSolution> {
+    let tol = 1e-10 * arm.scale;
+    let target = aim(g, k, ct);
+    let Aim { u, rho, zeta } = target;
+    let z = along(g, k, k.h2);
+    let [z0, z1, z2] = [k.r0, k.rc, k.rs].map(|v| num::dot(&k.h2, &v));
+    // h1 = ±h2: the height along h2 the target asks for.
+    let e = {
+        let s = g.constant(k.cos_a.signum());
+        let height = g.mul(s, zeta);
+        let z0 = g.constant(z0);
+        let e = g.sub(height, z0);
+        g.name(
+            e,
+            "j3_e",
+            "±ζ − h2 · r0: joints 1 and 2 keep the height along the axes",
+        )
+    };
+    let roots3 = joint_3_roots(g, [z1, z2], e, (tol * tol, " m"));
+    let on_axis = on_axis_1(g, &target, tol);
+    // |u⊥|² − a², the planar distance from axis 1 the two planar links must span.
+    let planar = {
+        let zz = g.mul(zeta, zeta);
+        let d = g.sub(rho, zz);
+        let aa = g.constant(k.a * k.a);
+        g.sub(d, aa)
+    };
+    let inv_2a = g.constant(1.0 / (2.0 * k.a));
+    let rn = along(g, k, k.n);
+    let rl = along(g, k, k.ell);
+    let mut roots: Vec<Root> = Vec::new();
+    for (i, &cs3) in roots3.iter().enumerate() {
+        let rn = at(g, rn, cs3);
+        let rl = at(g, rl, cs3);
+        let perp2 = g.mul_add2(rn, rn, rl, rl);
+        let x = {
+            let d = g.sub(planar, perp2);
+            let x = g.mul(inv_2a, d);
+            g.name(
+                x,
+                &format!("x_{}", i + 1),
+                "X = (ρ − ζ² − a² − |r⊥|²) / (2a): n · R2 r, the law of cosines",
+            )
+        };
+        let y = {
+            let xx = g.mul(x, x);
+            let d = g.sub(perp2, xx);
+            let y = g.sqrt0(d);
+            g.name(
+                y,
+                &format!("y_{}", i + 1),
+                "Y = √max(|r⊥|² − X², 0): ±ℓ · R2 r",
+            )
+        };
+        for (j, sigma) in [1.0, -1.0].into_iter().enumerate() {
+            let n = 2 * i + j + 1;
+            let my = if sigma > 0.0 { y } else { g.neg(y) };
+            // Paden–Kahan 1 in the plane ⟂ h2: (n·r, ℓ·r) onto (X, ±Y).
+            let nc = g.mul_add2(rn, x, rl, my);
+            let a = g.mul(rn, my);
+            let b = g.mul(rl, x);
+            let ns = g.sub(a, b);
+            let cs2 = unit_pair(g, nc, ns);
+            let place = placed(g, k, z, cs2, cs3);
+            let note = "Paden–Kahan 1: θ2 = atan2((n·r) (±Y) − (ℓ·r) X, (n·r) X + (ℓ·r) (±Y))";
+            roots.push(finish(
+                g,
+                k,
+                t,
+                (u, on_axis),
+                [cs2, cs3],
+                place,
+                (n, note, arm.scale),
+            ));
+        }
+    }
+    route(g, k, &roots, on_axis, (tol, arm.scale))
+}
