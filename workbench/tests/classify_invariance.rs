@@ -85,7 +85,7 @@ fn rejections_do_not_move_either() {
             arms::three_parallel_skew(),
         ),
         ("degenerate wrist", arms::degenerate_wrist()),
-        ("tilted axis 3", arms::tilted_axis_3(0.2)),
+        ("slide first", arms::slide_first()),
         ("general 6R", arms::general_six_revolute()),
     ];
     for (name, model) in rejected {

@@ -117,15 +117,42 @@ fn joint_count() {
 }
 
 #[test]
-fn rrr_without_parallel_axes_2_and_3_points_to_pieper() {
-    let e = reject(&in_mm_deg(arms::tilted_axis_3(10f64.to_radians())));
-    assert!(matches!(e.reason, Reason::ElbowAxes2And3NotParallel { .. }));
-    assert_eq!(e.notes, vec![Note::PieperQuartic]);
-    let text = e.to_string();
-    assert!(text.contains("make 10°"), "{text}");
-    // Pieper's criterion: three consecutive revolute axes meeting in a point give a closed
-    // form (Pieper, 1968, PhD thesis, Stanford University).
-    assert!(text.contains("Pieper's criterion holds"), "{text}");
+fn rrr_without_parallel_axes_2_and_3_meeting_at_the_shoulder_is_general() {
+    // Axes 1 and 2 meet, axis 3 tilted 10°: Pieper's criterion (Pieper, 1968, PhD thesis,
+    // Stanford University) holds through the spherical wrist, and the distance from the
+    // meeting point fixes joint 3 (the general family's meeting sub-case).
+    let g = classify(
+        &in_mm_deg(arms::tilted_axis_3(10f64.to_radians())),
+        &Tolerances::default(),
+    )
+    .expect("solvable");
+    assert_eq!(g.family, armforge_compiler::classify::Family::General);
+}
+
+#[test]
+fn rrr_with_axes_1_to_3_meeting_and_a_spherical_wrist_is_degenerate() {
+    // Axis 3 through the point where axes 1 and 2 meet: no joint changes the wrist center's
+    // distance from it.
+    let mut m = arms::tilted_axis_3(10f64.to_radians());
+    m.joints[2].joint.point = [0.0, 0.0, 0.4];
+    let e = reject(&in_mm_deg(m));
+    assert!(
+        matches!(e.reason, Reason::GeneralAxes1To3Meet { distance } if distance < 1e-9),
+        "{e}"
+    );
+    assert!(e.to_string().contains("cannot reach a volume"), "{e}");
+}
+
+#[test]
+fn rrr_with_axes_1_and_2_on_one_line_is_degenerate() {
+    let mut m = arms::tilted_axis_3(10f64.to_radians());
+    m.joints[1].joint.axis = [0.0, 0.0, 1.0];
+    m.joints[1].joint.point = [0.0, 0.0, 0.4];
+    let e = reject(&in_mm_deg(m));
+    assert!(
+        matches!(e.reason, Reason::GeneralAxes1And2OneLine { .. }),
+        "{e}"
+    );
 }
 
 #[test]

@@ -164,9 +164,13 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
             }
         }
         Family::General => {
+            use armforge_compiler::family::general::plan::Layout;
+            let k = armforge_compiler::family::general::plan::constants(&f.arm);
+            if k.layout != Layout::Skew {
+                return general_quadratic_solutions(&k, ct);
+            }
             // §4.2–4.3: F(θ3) = X² + Y² + Z² − |r|² with the sheet's constants; its roots by
             // sign changes on a fine grid and bisection (independent of Ferrari's method).
-            let k = armforge_compiler::family::general::plan::constants(&f.arm);
             let u = num::sub(&ct, &k.f1);
             let (rho, zeta) = (num::dot(&u, &u), num::dot(&k.h1, &u));
             let r = |t: f64| {
@@ -231,6 +235,70 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
             ]);
         }
         _ => {}
+    }
+    out
+}
+
+/// Joints 1–3 (model values) from the general page's equations when axes 1 and 2 meet or are
+/// parallel (§4.2–4.3): joint 3 from its one equation, then joints 2 and 1.
+fn general_quadratic_solutions(
+    k: &armforge_compiler::family::general::plan::Constants,
+    ct: [f64; 3],
+) -> Vec<[f64; 3]> {
+    use armforge_compiler::family::general::plan::Layout;
+    let u = num::sub(&ct, &k.f1);
+    let (rho, zeta) = (num::dot(&u, &u), num::dot(&k.h1, &u));
+    let meet = k.layout == Layout::Meet;
+    // K1 cos θ3 + K2 sin θ3 = e (meeting), (h2·rc) cos θ3 + (h2·rs) sin θ3 = e (parallel).
+    let (a, b, e) = if meet {
+        let k0 = num::dot(&k.r0, &k.r0) + num::dot(&k.rc, &k.rc);
+        (
+            2.0 * num::dot(&k.r0, &k.rc),
+            2.0 * num::dot(&k.r0, &k.rs),
+            rho - k0,
+        )
+    } else {
+        (
+            num::dot(&k.h2, &k.rc),
+            num::dot(&k.h2, &k.rs),
+            k.cos_a * zeta - num::dot(&k.h2, &k.r0),
+        )
+    };
+    let r2 = a * a + b * b;
+    let kk = (r2 - e * e).max(0.0).sqrt();
+    let mut out = Vec::new();
+    for sign3 in [1.0, -1.0] {
+        let t3 = (b * e + sign3 * a * kk).atan2(a * e - sign3 * b * kk);
+        let r = num::add(
+            &k.r0,
+            &num::add(&num::scale(&k.rc, t3.cos()), &num::scale(&k.rs, t3.sin())),
+        );
+        let z = num::dot(&k.h2, &r);
+        let r_perp = num::sub(&r, &num::scale(&k.h2, z));
+        for sign in [1.0, -1.0] {
+            let t2 = if meet {
+                let d = k.cos_a * k.cos_a - 1.0;
+                let (al, be) = ((k.cos_a * z - zeta) / d, (k.cos_a * zeta - z) / d);
+                let g2 = (num::dot(&r, &r) - al * al - be * be - 2.0 * al * be * k.cos_a)
+                    / (k.sin_a * k.sin_a);
+                let zp = num::add(
+                    &num::add(&num::scale(&k.h1, al), &num::scale(&k.h2, be)),
+                    &num::scale(&num::cross(&k.h1, &k.h2), sign * g2.max(0.0).sqrt()),
+                );
+                num::dot(&k.h2, &num::cross(&r_perp, &zp)).atan2(num::dot(&r_perp, &zp))
+            } else {
+                let (rn, rl) = (num::dot(&k.n, &r), num::dot(&k.ell, &r));
+                let perp2 = rn * rn + rl * rl;
+                let x = (rho - zeta * zeta - k.a * k.a - perp2) / (2.0 * k.a);
+                let y = sign * (perp2 - x * x).max(0.0).sqrt();
+                (rn * y - rl * x).atan2(rn * x + rl * y)
+            };
+            // w − f1 = a n + R2 r (R2 about h2 through f2 = f1 + a n).
+            let w = num::add(&num::scale(&k.n, k.a), &num::rotate(&k.h2, t2, &r));
+            let wp = num::sub(&w, &num::scale(&k.h1, num::dot(&k.h1, &w)));
+            let t1 = num::dot(&k.h1, &num::cross(&wp, &u)).atan2(num::dot(&wp, &u));
+            out.push([t1, t2, t3]);
+        }
     }
     out
 }

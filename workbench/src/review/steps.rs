@@ -7,6 +7,7 @@ use std::fmt::Write as _;
 use super::facts::Facts;
 use super::show::Show;
 use armforge_compiler::classify::Family;
+use armforge_compiler::family::general::plan::Constants as GeneralConstants;
 use armforge_compiler::family::Steps;
 use armforge_compiler::plan::vec3::num;
 use armforge_compiler::plan::Plan;
@@ -398,7 +399,154 @@ fn cartesian(out: &mut String, f: &Facts, s: &Show) {
 }
 
 fn general(out: &mut String, plan: &Plan, s: &Show) {
+    use armforge_compiler::family::general::plan::Layout;
     let k = armforge_compiler::family::general::plan::constants(&plan.arm);
+    match k.layout {
+        Layout::Skew => general_quartic(out, &k, s),
+        Layout::Meet => general_meeting(out, &k, s),
+        Layout::Parallel => general_parallel(out, &k, s),
+    }
+    let _ = writeln!(out, "### 4.4 Which roots are real\n");
+    let _ = writeln!(
+        out,
+        "A complex pair of roots gives its real part (a root beyond reach, the nearest \
+         value); every candidate is checked by its miss `|E1 E2 E3 c − c_t|`, zero for a real \
+         root (at most {} of the length tolerance). Labels: the shoulder is the side of the \
+         plane through axis 1 ⟂ `{}` the wrist center (joint 1 undone) is on, the elbow the \
+         sign of the position Jacobian; each root goes to the candidate of its label (two \
+         roots with one label: the second to a label no root has).\n",
+        s.num(1.0),
+        if k.layout == Layout::Parallel {
+            "ℓ"
+        } else {
+            "n"
+        }
+    );
+}
+
+/// The constants every general page lists.
+fn general_constants(out: &mut String, k: &GeneralConstants, s: &Show) {
+    let _ = writeln!(out, "This arm:\n");
+    block(
+        out,
+        &[
+            format!(
+                "f1 = {},  n = {},  ℓ = {}",
+                s.point(&k.f1),
+                s.dir(&k.n),
+                s.dir(&k.ell)
+            ),
+            format!(
+                "a  = {},  cos α = {},  sin α = {},  μ = {}",
+                s.len(k.a),
+                s.num(k.cos_a),
+                s.num(k.sin_a),
+                s.num(k.mu)
+            ),
+            format!(
+                "r0 = {},  rc = {},  rs = {}",
+                s.point(&k.r0),
+                s.point(&k.rc),
+                s.point(&k.rs)
+            ),
+        ],
+    );
+}
+
+/// Joint 1 by subproblem 1, the same line for every general page.
+const JOINT_1_LINE: &str =
+    "θ1 = atan2(h1 · ((w − f1)⊥h1 × u), (w − f1)⊥h1 · u)     (the reference on axis 1)";
+
+fn general_meeting(out: &mut String, k: &GeneralConstants, s: &Show) {
+    let _ = writeln!(out, "### 4.2 Joint 3: axes 1 and 2 meet\n");
+    let _ = writeln!(
+        out,
+        "Axes 1 and 2 meet at `f1`; `n = h1 × h2 / sin α`, `ℓ = h2 × n`. Joint 3 moves the \
+         wrist center to `r(θ3) = E3(θ3) c − f1 = r0 + cos θ3 rc + sin θ3 rs`. Joints 1 and 2 \
+         turn about lines through `f1`, so they keep the distance from it (Paden–Kahan \
+         subproblem 3): one equation in joint 3 alone, 0–2 roots.\n"
+    );
+    block(
+        out,
+        &[
+            "u = c_t − f1,  ρ = |u|²,  ζ = h1 · u".into(),
+            "|r(θ3)|² = K0 + K1 cos θ3 + K2 sin θ3 = ρ,  K0 = |r0|² + |rc|²,  K1 = 2 r0·rc,  \
+             K2 = 2 r0·rs"
+                .into(),
+            "K1 cos θ3 + K2 sin θ3 = e := ρ − K0:  cos θ3 = (K1 e ∓ K2 k)/R²,  \
+             sin θ3 = (K2 e ± K1 k)/R²,  R² = K1² + K2²,  k = √max(R² − e², 0)"
+                .into(),
+        ],
+    );
+    general_constants(out, k, s);
+    let kk = [
+        num::dot(&k.r0, &k.r0) + num::dot(&k.rc, &k.rc),
+        2.0 * num::dot(&k.r0, &k.rc),
+        2.0 * num::dot(&k.r0, &k.rs),
+    ];
+    block(
+        out,
+        &[format!(
+            "K0 = {},  K1 = {},  K2 = {}",
+            s.area(kk[0]),
+            s.area(kk[1]),
+            s.area(kk[2])
+        )],
+    );
+    let _ = writeln!(
+        out,
+        "### 4.3 Joints 2 and 1: Paden–Kahan subproblems 2 and 1\n"
+    );
+    block(
+        out,
+        &[
+            "Z = h2 · r,  α' = (cos α Z − ζ)/(cos² α − 1),  β' = (cos α ζ − Z)/(cos² α − 1)".into(),
+            "γ' = ±√max((|r|² − α'² − β'² − 2 α'β' cos α) / sin² α, 0)".into(),
+            "z = α' h1 + β' h2 + γ' (h1 × h2)      (the wrist center between the two turns)".into(),
+            "θ2 = atan2(h2 · (r⊥h2 × z), r⊥h2 · z)     (turns r onto z about axis 2)".into(),
+            "w − f1 = R2 r".into(),
+            JOINT_1_LINE.into(),
+        ],
+    );
+}
+
+fn general_parallel(out: &mut String, k: &GeneralConstants, s: &Show) {
+    let _ = writeln!(out, "### 4.2 Joint 3: axes 1 and 2 parallel\n");
+    let _ = writeln!(
+        out,
+        "Axes 1 and 2 are parallel, `a` apart along `n` (from `f1` on axis 1 to `f2` on axis \
+         2), `ℓ = h2 × n`. Joint 3 moves the wrist center to `r(θ3) = E3(θ3) c − f2 = r0 + \
+         cos θ3 rc + sin θ3 rs`. Joints 1 and 2 keep its height along the axes: one equation \
+         in joint 3 alone, 0–2 roots.\n"
+    );
+    block(
+        out,
+        &[
+            "u = c_t − f1,  ρ = |u|²,  ζ = h1 · u,  h1 = ±h2 (cos α = ±1)".into(),
+            "h2 · r(θ3) = cos α ζ:  (h2·rc) cos θ3 + (h2·rs) sin θ3 = e := cos α ζ − h2·r0".into(),
+            "cos θ3 = (A e ∓ B k)/R²,  sin θ3 = (B e ± A k)/R²,  A = h2·rc,  B = h2·rs,  \
+             R² = A² + B²,  k = √max(R² − e², 0)"
+                .into(),
+        ],
+    );
+    general_constants(out, k, s);
+    let _ = writeln!(
+        out,
+        "### 4.3 Joints 2 and 1: the law of cosines, Paden–Kahan subproblem 1\n"
+    );
+    block(
+        out,
+        &[
+            "X = (ρ − ζ² − a² − |r⊥h2|²) / (2a)     (= n · R2 r)".into(),
+            "Y = ±√max(|r⊥h2|² − X², 0)           (= ℓ · R2 r)".into(),
+            "θ2 = atan2((n·r) Y − (ℓ·r) X, (n·r) X + (ℓ·r) Y)".into(),
+            "w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2".into(),
+            JOINT_1_LINE.into(),
+        ],
+    );
+}
+
+fn general_quartic(out: &mut String, k: &GeneralConstants, s: &Show) {
     let _ = writeln!(out, "### 4.2 Joint 3: a quartic\n");
     let _ = writeln!(
         out,
@@ -425,31 +573,7 @@ fn general(out: &mut String, plan: &Plan, s: &Show) {
             "       then two Newton steps t ← t − P(t)/P′(t), each kept when it lowers |P|".into(),
         ],
     );
-    let _ = writeln!(out, "This arm:\n");
-    block(
-        out,
-        &[
-            format!(
-                "f1 = {},  n = {},  ℓ = {}",
-                s.point(&k.f1),
-                s.dir(&k.n),
-                s.dir(&k.ell)
-            ),
-            format!(
-                "a  = {},  cos α = {},  sin α = {},  μ = {}",
-                s.len(k.a),
-                s.num(k.cos_a),
-                s.num(k.sin_a),
-                s.num(k.mu)
-            ),
-            format!(
-                "r0 = {},  rc = {},  rs = {}",
-                s.point(&k.r0),
-                s.point(&k.rc),
-                s.point(&k.rs)
-            ),
-        ],
-    );
+    general_constants(out, k, s);
     let _ = writeln!(out, "### 4.3 Joints 2 and 1: Paden–Kahan subproblem 1\n");
     block(
         out,
@@ -459,20 +583,8 @@ fn general(out: &mut String, plan: &Plan, s: &Show) {
              lowers the miss"
                 .into(),
             "w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2".into(),
-            "θ1 = atan2(h1 · ((w − f1)⊥h1 × u), (w − f1)⊥h1 · u)     (the reference on axis 1)"
-                .into(),
+            JOINT_1_LINE.into(),
         ],
-    );
-    let _ = writeln!(out, "### 4.4 Which roots are real\n");
-    let _ = writeln!(
-        out,
-        "A complex pair of roots gives its real part; every candidate is checked by its miss \
-         `|E1 E2 E3 c − c_t|`, zero for a real root (at most {} of the length tolerance). \
-         Labels: the shoulder is the side of the plane through axis 1 ⟂ `n` the wrist center \
-         (joint 1 undone) is on, the elbow the sign of the position Jacobian; each root goes \
-         to the candidate of its label (two roots with one label: the second to a label no \
-         root has).\n",
-        s.num(1.0)
     );
 }
 

@@ -118,7 +118,12 @@ impl FamilyModule for Elbow {
     }
 
     fn recognise(&self, ctx: &Context) -> Recognition {
-        decoupled::recognise(ctx, self, check, measure)
+        match decoupled::recognise(ctx, self, check, measure) {
+            // With axes 2 and 3 not parallel the arm is no elbow arm, degenerate or not: the
+            // general family solves it, or says why it is degenerate.
+            Recognition::Degenerate(r) if !ctx.parallel(2, 3) => Recognition::NotMine(Some(r)),
+            other => other,
+        }
     }
 
     fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
