@@ -197,6 +197,13 @@ impl Graph {
         self.threshold(x, scaling)
     }
 
+    /// A threshold that is itself one tolerance of the square-root kind (scaled as
+    /// [`Scaling::Tolerance`]`(1)`): a squared angle between two roots that, near a double root,
+    /// rounding separates by about the square root of the epsilon.
+    pub fn exact_once(&mut self, x: f64) -> Id {
+        self.threshold(x, Scaling::Tolerance(1))
+    }
+
     /// A threshold on a fourth power of a tolerance (scaled as [`Scaling::Tolerance`]`(4)`).
     pub fn exact_fourth(&mut self, x: f64) -> Id {
         self.threshold(x, Scaling::Tolerance(4))

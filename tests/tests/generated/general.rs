@@ -1976,14 +1976,14 @@ fn candidates(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -5444,14 +5444,14 @@ fn branch_1(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -7317,14 +7317,14 @@ fn branch_2(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -9190,14 +9190,14 @@ fn branch_3(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -11099,14 +11099,14 @@ fn branch_4(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -13008,14 +13008,14 @@ fn branch_5(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -14953,14 +14953,14 @@ fn branch_6(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -16898,14 +16898,14 @@ fn branch_7(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;
@@ -18879,14 +18879,14 @@ fn branch_8(
         } else {
             0.0
         });
-    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_1
-        - ::armforge_runtime::math::abs(side_1);
-    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_2
-        - ::armforge_runtime::math::abs(side_2);
-    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_3
-        - ::armforge_runtime::math::abs(side_3);
-    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 }) + 1.79e-6 * q3_4
-        - ::armforge_runtime::math::abs(side_4);
+    let t2486 = (if miss_1 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_1 - ::armforge_runtime::math::abs(side_1);
+    let t2492 = (if t2401 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_2 - ::armforge_runtime::math::abs(side_2);
+    let t2498 = (if t2432 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_3 - ::armforge_runtime::math::abs(side_3);
+    let t2504 = (if t2478 - 3.2e-20 >= 0.0 { 1e20 } else { 0.0 })
+        + 1.7888377116803102e-6 * q3_4 - ::armforge_runtime::math::abs(side_4);
     let t2505 = if side_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2506 = if aspect_1 >= 0.0 { 0.0 } else { 1e30 };
     let t2507 = t2505 + t2506;

@@ -1241,12 +1241,12 @@ fn candidates(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -3943,12 +3943,12 @@ fn branch_1(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -5074,12 +5074,12 @@ fn branch_2(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -6205,12 +6205,12 @@ fn branch_3(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -7372,12 +7372,12 @@ fn branch_4(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -8539,12 +8539,12 @@ fn branch_5(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -9742,12 +9742,12 @@ fn branch_6(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -10945,12 +10945,12 @@ fn branch_7(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -12184,12 +12184,12 @@ fn branch_8(
         } else {
             0.0
         });
-    let t1070 = 1.68e-6 * q3_1;
+    let t1070 = 1.679704389221156e-6 * q3_1;
     let t1072 = (if miss_1 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1070
         - ::armforge_runtime::math::abs(side_1);
     let t1077 = t1070 + (if t1008 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t1081 = 1.68e-6 * q3_3;
+    let t1081 = 1.679704389221156e-6 * q3_3;
     let t1083 = (if t1034 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 }) + t1081
         - ::armforge_runtime::math::abs(side_3);
     let t1088 = t1081 + (if t1064 - 2.82e-20 >= 0.0 { 1e20 } else { 0.0 })

@@ -1190,12 +1190,12 @@ fn candidates(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -3856,12 +3856,12 @@ fn branch_1(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -4937,12 +4937,12 @@ fn branch_2(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -6020,12 +6020,12 @@ fn branch_3(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -7137,12 +7137,12 @@ fn branch_4(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -8256,12 +8256,12 @@ fn branch_5(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -9409,12 +9409,12 @@ fn branch_6(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -10564,12 +10564,12 @@ fn branch_7(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
@@ -11753,12 +11753,12 @@ fn branch_8(
         } else {
             0.0
         });
-    let t919 = 1.39e-6 * q3_1;
+    let t919 = 1.3905901900599594e-6 * q3_1;
     let t921 = (if miss_1 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t919
         - ::armforge_runtime::math::abs(side_1);
     let t926 = t919 + (if t857 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })
         - ::armforge_runtime::math::abs(side_2);
-    let t930 = 1.39e-6 * q3_3;
+    let t930 = 1.3905901900599594e-6 * q3_3;
     let t932 = (if t883 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 }) + t930
         - ::armforge_runtime::math::abs(side_3);
     let t937 = t930 + (if t913 - 1.93e-20 >= 0.0 { 1e20 } else { 0.0 })

@@ -58,7 +58,8 @@ use crate::plan::{sign, unit_pair, ArmSolution, Target, Turn};
 use crate::units::tidy;
 
 /// Added to a root's residual in the slots of the labels it does not have: such a candidate
-/// always fails its check (m²).
+/// always fails its check (m²). A number of the routing, not a tolerance: the same in `f32`
+/// (where a tolerance's scaling would take it past the largest `f32`).
 const MISMATCH: f64 = 1e30;
 
 /// How axes 1 and 2 lie. The quartic needs them apart and not parallel; when they meet or
@@ -753,7 +754,7 @@ pub(super) fn route(
     on_axis: Id,
     (tol, scale): (f64, f64),
 ) -> Vec<ArmSolution> {
-    let big = g.exact(MISMATCH);
+    let big = g.constant(MISMATCH);
     let zero = g.constant(0.0);
     let one = g.constant(1.0);
     let slots = [
@@ -765,7 +766,9 @@ pub(super) fn route(
     // A root that lands on an earlier real one (joints 2 and 3 within about 1e-5 rad: a
     // double root, or a complex pair's real part polished onto a real root) is that root
     // again: it fails its check.
-    let near = g.exact(1e-10);
+    // In f32 the threshold grows ×2^14.5 (about 1.5e-3 rad): a squared distance of two roots
+    // is no squared tolerance; ×2^29 would merge distinct roots 0.2 rad apart.
+    let near = g.exact_once(1e-10);
     let tol2 = g.exact(tol * tol);
     let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
     for j in 1..roots.len() {
@@ -799,9 +802,9 @@ pub(super) fn route(
         })
         .collect();
     // Rank: unreal roots last, then nearest the shoulder plane last.
-    let unreal = g.exact(MISMATCH * 1e-10);
+    let unreal = g.constant(MISMATCH * 1e-10);
     let floor = g.exact(tol * tol);
-    let tie_weight = g.exact(1e-6 * scale);
+    let tie_weight = g.constant(1e-6 * scale);
     let base_rank: Vec<Id> = roots
         .iter()
         .zip(&residuals)
@@ -849,7 +852,7 @@ pub(super) fn route(
         first.push(smallest(g, &bundles, &ranks, &checks));
     }
     // Which roots pass 1 placed (a slot "has" its root when its score is below MISMATCH).
-    let half_big = g.exact(MISMATCH / 2.0);
+    let half_big = g.constant(MISMATCH / 2.0);
     let mut taken = [zero; 4];
     let mut has = Vec::new();
     for (b, score) in &first {
