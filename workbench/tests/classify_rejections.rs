@@ -62,6 +62,19 @@ fn three_parallel_axes_with_axes_5_and_6_apart_say_so() {
 }
 
 #[test]
+fn three_axes_meeting_in_the_middle_say_that_a_closed_form_exists() {
+    // Pieper's criterion (Pieper 1968) covers any three consecutive axes meeting in a point.
+    let e = reject(&in_mm_deg(arms::middle_three_meet()));
+    assert!(e.notes.contains(&Note::MiddleThreeMeet { first: 2 }), "{e}");
+    let text = e.to_string();
+    assert!(
+        text.contains("joints 2, 3 and 4 meet in one point"),
+        "{text}"
+    );
+    assert!(text.contains("not this arm yet"), "{text}");
+}
+
+#[test]
 fn degenerate_wrist() {
     let e = reject(&in_mm_deg(arms::degenerate_wrist()));
     assert!(

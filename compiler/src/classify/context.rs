@@ -138,6 +138,11 @@ impl<'a> Context<'a> {
         if self.three_meet(1) {
             notes.push(Note::FirstThreeMeet);
         }
+        notes.extend(
+            (2..=3)
+                .filter(|&first| self.three_meet(first))
+                .map(|first| Note::MiddleThreeMeet { first }),
+        );
         let all_revolute = (1..=JOINTS).all(|n| self.revolute(n));
         let any_meet = (1..=JOINTS - 2).any(|first| self.three_meet(first));
         if general && notes.is_empty() && all_revolute && !any_meet {

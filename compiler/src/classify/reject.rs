@@ -153,6 +153,11 @@ pub enum Note {
     },
     /// The axes of joints 1, 2, 3 meet in one point (instead of 4, 5, 6).
     FirstThreeMeet,
+    /// The axes of three consecutive joints in the middle (2–4 or 3–5) meet in one point.
+    MiddleThreeMeet {
+        /// The first of the three joints.
+        first: usize,
+    },
     /// A spherical wrist, but joints 1–3 are no family of ours: Pieper's quartic.
     PieperQuartic,
     /// Six revolute joints and no decoupling: the general 6R problem.
@@ -406,6 +411,28 @@ fn describe_note(model: &Model, note: &Note) -> String {
              criterion, Pieper 1968); armforge's wrist-at-base family builds it when joints 6, \
              5 and 4, read from the tool, are one of its families of joints 1–3"
             .to_string(),
+        Note::MiddleThreeMeet { first } => format!(
+            "the axes of joints {}, {} and {} meet in one point: Pieper's criterion holds and \
+             a closed form exists (Pieper 1968): the point is fixed in link {} and in link {}, \
+             so it is placed by {} from the base and by {} from the tool, a three-joint position \
+             problem like joints 1–3 of the general family; armforge builds decoupling only \
+             where the meeting axes are those of joints 1–3 or 4–6, not this arm yet",
+            first,
+            first + 1,
+            first + 2,
+            first - 1,
+            first + 2,
+            if *first == 2 {
+                "joint 1"
+            } else {
+                "joints 1 and 2"
+            },
+            if *first == 2 {
+                "joints 6 and 5"
+            } else {
+                "joint 6"
+            },
+        ),
         Note::PieperQuartic => "the wrist is spherical, so Pieper's criterion holds and a \
              closed form exists (Pieper 1968): the general family solves joints 1–3 of no named \
              family through a quartic, or through quadratics when axes 1 and 2 meet or are \

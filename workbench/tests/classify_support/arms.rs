@@ -176,6 +176,22 @@ pub fn degenerate_wrist() -> Model {
     m
 }
 
+/// Axes 2, 3, 4 meet at (0, 0, 0.5); axes 5 and 6 are an offset chain: no decoupling at
+/// either end.
+pub fn middle_three_meet() -> Model {
+    arm(
+        &[
+            r([0.0, 0.0, 1.0], [0.0, 0.1, 0.0]),
+            r([1.0, 0.0, 0.0], [0.0, 0.0, 0.5]),
+            r([0.0, 1.0, 0.0], [0.0, 0.0, 0.5]),
+            r([1.0, 1.0, 0.0], [0.0, 0.0, 0.5]),
+            r([0.0, 0.0, 1.0], [0.5, 0.2, 0.5]),
+            r([1.0, 0.0, 0.0], [0.7, 0.2, 0.6]),
+        ],
+        [0.8, 0.2, 0.6],
+    )
+}
+
 /// Axes 1, 2, 3 meet at the origin; the last three are an offset chain.
 pub fn first_three_meet() -> Model {
     arm(
