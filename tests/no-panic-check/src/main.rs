@@ -104,6 +104,20 @@ checked_arm!(rack_f64 = "../../arms/rack-loader-mdh.toml", f64);
 checked_arm!(rack_f32 = "../../arms/rack-loader-mdh.toml", f32);
 checked_arm!(gantry_f64 = "../../arms/tray-gantry-axes.toml", f64);
 checked_arm!(gantry_f32 = "../../arms/tray-gantry-axes.toml", f32);
+checked_arm!(lid_f64 = "../../arms/lid-lifter-axes.toml", f64);
+checked_arm!(lid_f32 = "../../arms/lid-lifter-axes.toml", f32);
+checked_arm!(shelf_f64 = "../../arms/shelf-reacher-axes.toml", f64);
+checked_arm!(shelf_f32 = "../../arms/shelf-reacher-axes.toml", f32);
+checked_arm!(hood_f64 = "../../arms/hood-corner-axes.toml", f64);
+checked_arm!(hood_f32 = "../../arms/hood-corner-axes.toml", f32);
+checked_arm!(
+    reagent_f64 = "../../arms/reagent-rack-reacher-axes.toml",
+    f64
+);
+checked_arm!(
+    reagent_f32 = "../../arms/reagent-rack-reacher-axes.toml",
+    f32
+);
 
 /// One checked arm: its name, `run` and `sizes`.
 type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
@@ -113,7 +127,7 @@ type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
 /// footprint README reports: bytes of a solution set and of one solution.
 fn main() {
     let q = [0.1, -0.4, 0.7, 0.2, 0.5, -0.3];
-    let arms: [Checked; 12] = [
+    let arms: [Checked; 20] = [
         ("bench f64", bench_f64::run, bench_f64::sizes),
         ("bench f32", bench_f32::run, bench_f32::sizes),
         ("ceiling f64", ceiling_f64::run, ceiling_f64::sizes),
@@ -126,6 +140,14 @@ fn main() {
         ("rack f32", rack_f32::run, rack_f32::sizes),
         ("gantry f64", gantry_f64::run, gantry_f64::sizes),
         ("gantry f32", gantry_f32::run, gantry_f32::sizes),
+        ("lid f64", lid_f64::run, lid_f64::sizes),
+        ("lid f32", lid_f32::run, lid_f32::sizes),
+        ("shelf f64", shelf_f64::run, shelf_f64::sizes),
+        ("shelf f32", shelf_f32::run, shelf_f32::sizes),
+        ("hood f64", hood_f64::run, hood_f64::sizes),
+        ("hood f32", hood_f32::run, hood_f32::sizes),
+        ("reagent f64", reagent_f64::run, reagent_f64::sizes),
+        ("reagent f32", reagent_f32::run, reagent_f32::sizes),
     ];
     let counts: Vec<usize> = arms.iter().map(|(_, run, _)| run(q)).collect();
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");

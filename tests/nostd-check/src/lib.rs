@@ -45,6 +45,21 @@ armforge_macros::solver!(
     pub mod hotel_loader_f32 = "../../arms/hotel-loader-axes.toml", scalar = f32;
 );
 
+armforge_macros::solver!(
+    /// The hood corner's solver (general family, axes 1 and 2 meeting) in single precision.
+    pub mod hood_corner_f32 = "../../arms/hood-corner-axes.toml", scalar = f32;
+);
+
+armforge_macros::solver!(
+    /// The lid lifter's solver (three parallel axes).
+    pub mod lid_lifter = "../../arms/lid-lifter-axes.toml";
+);
+
+armforge_macros::solver!(
+    /// The shelf reacher's solver (a wrist at the base) in single precision.
+    pub mod shelf_reacher_f32 = "../../arms/shelf-reacher-axes.toml", scalar = f32;
+);
+
 /// The panic handler of a firmware image: only a build without `std` may define one.
 #[cfg(feature = "standalone")]
 #[panic_handler]
@@ -55,7 +70,10 @@ fn halt(_: &::core::panic::PanicInfo) -> ! {
 /// Uses the emitted module without `std`: the number of solutions of the zero pose.
 pub fn solutions_at_zero() -> usize {
     let target = bench_elbow::forward(&[0.0; bench_elbow::JOINTS]);
-    bench_elbow::solve(&target).len() + centrifuge_loader::solve(&target).len()
+    let lid = lid_lifter::forward(&[0.0; lid_lifter::JOINTS]);
+    bench_elbow::solve(&target).len()
+        + centrifuge_loader::solve(&target).len()
+        + lid_lifter::solve(&lid).len()
 }
 
 /// The same in single precision: the number of solutions of the f32 solvers at zero.
@@ -63,7 +81,11 @@ pub fn solutions_at_zero_f32() -> usize {
     let target = bench_elbow_f32::forward(&[0.0; bench_elbow_f32::JOINTS]);
     let near = bench_elbow_f32::solve_near(&target, &[0.0; bench_elbow_f32::JOINTS]);
     let hotel = hotel_loader_f32::forward(&[0.0; hotel_loader_f32::JOINTS]);
+    let hood = hood_corner_f32::forward(&[0.0; hood_corner_f32::JOINTS]);
+    let shelf = shelf_reacher_f32::forward(&[0.0; shelf_reacher_f32::JOINTS]);
     bench_elbow_f32::solve(&target).len()
         + hotel_loader_f32::solve(&hotel).len()
+        + hood_corner_f32::solve(&hood).len()
+        + shelf_reacher_f32::solve(&shelf).len()
         + usize::from(near.is_ok())
 }
