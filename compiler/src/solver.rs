@@ -224,13 +224,16 @@ impl Solver {
         }
         let (joints, settings) = (&self.plan.arm.joints, &self.plan.settings);
         let anchor = internal::anchors_near(joints, current, settings.limit_tolerance);
-        // Away from singular poses the reference is not used (as in the emitted solver).
-        let candidates = self.candidates(target, &self.plan.zero_reference);
-        let own = self.branch_of(current);
-        if let Some(c) = candidates.iter().find(|c| c.branch == own) {
-            if let Ok(s) = internal::finish_one(joints, settings, c, &anchor) {
-                if !s.flags.is_singular() {
-                    return Ok(s);
+        // Away from singular poses the reference is not used (as in the emitted solver). An
+        // arm whose labels are read by solving takes the nearest of every branch directly.
+        if !self.plan.labels_by_solving {
+            let candidates = self.candidates(target, &self.plan.zero_reference);
+            let own = self.branch_of(current);
+            if let Some(c) = candidates.iter().find(|c| c.branch == own) {
+                if let Ok(s) = internal::finish_one(joints, settings, c, &anchor) {
+                    if !s.flags.is_singular() {
+                        return Ok(s);
+                    }
                 }
             }
         }

@@ -496,6 +496,32 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
         .collect();
     let by_label = branch_arms(plan, |call| call);
     let own = branch_arms(plan, |call| quote!(::core::option::Option::Some(#call)));
+    // An arm whose labels are read by solving would solve everything twice (once in
+    // `branch_of`): its nearest solution is worked out from every branch directly.
+    let own_shortcut = if plan.labels_by_solving {
+        quote! {
+            // This arm's labels are read by solving: every branch once, the nearest taken.
+        }
+    } else {
+        quote! {
+            // Away from singular poses the free joints' reference is not used: try the own
+            // branch with the zero reference, and work out `current`'s only when needed.
+            let reference = ZERO_REFERENCE;
+            let own = match branch_of(current) {
+                #(#own)*
+                _ => ::core::option::Option::None,
+            };
+            if let ::core::option::Option::Some(candidate) = own {
+                if let ::core::result::Result::Ok(solution) =
+                    ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &anchor)
+                {
+                    if !solution.flags.is_singular() {
+                        return ::core::result::Result::Ok(solution);
+                    }
+                }
+            }
+        }
+    };
     quote! {
         /// The value each joint is wrapped toward by `solve_branch`: its range's center.
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
@@ -503,7 +529,7 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
 
         /// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
         /// when it has one away from singular poses, otherwise the nearest of every branch
-        /// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+        /// (wrap-aware joint distance; directly, for an arm whose labels are read by solving). Each joint whose range exceeds a turn takes the
         /// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
         /// current value (joint 1 likewise on axis 1).
         pub fn solve_near(
@@ -524,22 +550,7 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
                 current,
                 SETTINGS.limit_tolerance,
             );
-            // Away from singular poses the free joints' reference is not used: try the own
-            // branch with the zero reference, and work out `current`'s only when needed.
-            let reference = ZERO_REFERENCE;
-            let own = match branch_of(current) {
-                #(#own)*
-                _ => ::core::option::Option::None,
-            };
-            if let ::core::option::Option::Some(candidate) = own {
-                if let ::core::result::Result::Ok(solution) =
-                    ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &candidate, &anchor)
-                {
-                    if !solution.flags.is_singular() {
-                        return ::core::result::Result::Ok(solution);
-                    }
-                }
-            }
+            #own_shortcut
             let reference = #reference_call;
             let mut all = candidates(target, &reference);
             free_joints(target, &reference, &mut all);

@@ -457,7 +457,7 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
 const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
 /// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
 /// when it has one away from singular poses, otherwise the nearest of every branch
-/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// (wrap-aware joint distance; directly, for an arm whose labels are read by solving). Each joint whose range exceeds a turn takes the
 /// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
 /// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
@@ -486,62 +486,6 @@ pub fn solve_near(
         current,
         SETTINGS.limit_tolerance,
     );
-    let reference = ZERO_REFERENCE;
-    let own = match branch_of(current) {
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Facing,
-            elbow: ::armforge_runtime::Elbow::Up,
-            wrist: ::armforge_runtime::Wrist::Leading,
-        } => ::core::option::Option::Some(branch_1(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Facing,
-            elbow: ::armforge_runtime::Elbow::Up,
-            wrist: ::armforge_runtime::Wrist::Trailing,
-        } => ::core::option::Option::Some(branch_2(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Facing,
-            elbow: ::armforge_runtime::Elbow::Down,
-            wrist: ::armforge_runtime::Wrist::Leading,
-        } => ::core::option::Option::Some(branch_3(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Facing,
-            elbow: ::armforge_runtime::Elbow::Down,
-            wrist: ::armforge_runtime::Wrist::Trailing,
-        } => ::core::option::Option::Some(branch_4(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Across,
-            elbow: ::armforge_runtime::Elbow::Up,
-            wrist: ::armforge_runtime::Wrist::Leading,
-        } => ::core::option::Option::Some(branch_5(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Across,
-            elbow: ::armforge_runtime::Elbow::Up,
-            wrist: ::armforge_runtime::Wrist::Trailing,
-        } => ::core::option::Option::Some(branch_6(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Across,
-            elbow: ::armforge_runtime::Elbow::Down,
-            wrist: ::armforge_runtime::Wrist::Leading,
-        } => ::core::option::Option::Some(branch_7(target, &reference)),
-        ::armforge_runtime::Branch {
-            shoulder: ::armforge_runtime::Shoulder::Across,
-            elbow: ::armforge_runtime::Elbow::Down,
-            wrist: ::armforge_runtime::Wrist::Trailing,
-        } => ::core::option::Option::Some(branch_8(target, &reference)),
-        _ => ::core::option::Option::None,
-    };
-    if let ::core::option::Option::Some(candidate) = own {
-        if let ::core::result::Result::Ok(solution) = ::armforge_runtime::internal::finish_one(
-            &JOINT_TABLE,
-            &SETTINGS,
-            &candidate,
-            &anchor,
-        ) {
-            if !solution.flags.is_singular() {
-                return ::core::result::Result::Ok(solution);
-            }
-        }
-    }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
     let mut all = candidates(target, &reference);
     free_joints(target, &reference, &mut all);

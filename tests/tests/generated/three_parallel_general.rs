@@ -456,7 +456,7 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
 const CENTERS: [f64; JOINTS] = [0.0, 0.0, 0.0, 0.0, 0.0, 0.0];
 /// The solution nearest to `current`: `current`'s own branch (read by `branch_of`)
 /// when it has one away from singular poses, otherwise the nearest of every branch
-/// (wrap-aware joint distance). Each joint whose range exceeds a turn takes the
+/// (wrap-aware joint distance; directly, for an arm whose labels are read by solving). Each joint whose range exceeds a turn takes the
 /// equivalent angle nearest `current`. At the wrist singularity joint 4 stays at its
 /// current value (joint 1 likewise on axis 1).
 pub fn solve_near(
