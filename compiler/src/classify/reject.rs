@@ -270,9 +270,10 @@ fn describe(model: &Model, reason: &Reason) -> String {
             angle,
             distance,
         } => format!(
-            "axes of {} and {} are parallel (angle {}, {} apart); a wrist needs axis {first} \
-             not parallel to axis {second}, otherwise it is degenerate and cannot reach every \
-             orientation",
+            "axes of {} and {} are parallel (angle {}, {} apart), so axes 4, 5 and 6 never meet \
+             in one point and the last three joints cannot orient the tool by themselves: \
+             kinematic decoupling at the wrist needs axis {first} not parallel to axis \
+             {second}",
             label(model, *first),
             label(model, *second),
             u.show_angle(*angle),

@@ -176,6 +176,21 @@ pub fn degenerate_wrist() -> Model {
     m
 }
 
+/// An elbow-like first three joints and axes 4, 5, 6 parallel (along x), apart.
+pub fn last_three_parallel() -> Model {
+    arm(
+        &[
+            r([0.0, 0.0, 1.0], [0.0, 0.0, 0.0]),
+            r([0.0, 1.0, 0.0], [0.0, 0.0, 0.4]),
+            r([0.0, 1.0, 0.0], [0.3, 0.0, 0.4]),
+            r([1.0, 0.0, 0.0], [0.6, 0.0, 0.4]),
+            r([1.0, 0.0, 0.0], [0.6, 0.2, 0.4]),
+            r([1.0, 0.0, 0.0], [0.6, 0.2, 0.6]),
+        ],
+        [0.8, 0.2, 0.6],
+    )
+}
+
 /// Axes 2, 3, 4 meet at (0, 0, 0.5); axes 5 and 6 are an offset chain: no decoupling at
 /// either end.
 pub fn middle_three_meet() -> Model {
