@@ -2,7 +2,9 @@
 
 use std::collections::BTreeMap;
 
-use armforge_runtime::internal::{BranchRule, CheckKind, ElbowRule, Settings, ShoulderRule};
+use armforge_runtime::internal::{
+    BranchRule, CheckKind, ElbowRule, FoldedRule, Settings, ShoulderRule,
+};
 use armforge_runtime::plan::CandidateLayout;
 use armforge_runtime::{Branch, Elbow, Joint, JointKind, Pose, Shoulder, Wrist};
 use proc_macro2::TokenStream;
@@ -428,6 +430,9 @@ fn branch_arms(plan: &Plan, wrap: impl Fn(TokenStream) -> TokenStream) -> Vec<To
 fn branch_of_fn(plan: &Plan, l: Literals) -> TokenStream {
     let (ty, generic) = (l.0.ty(), l.0.generic());
     if !plan.labels_by_solving {
+        if let Some(folded) = armforge_runtime::internal::fold_rule(&plan.rule, &plan.arm.joints) {
+            return folded_branch_of(&folded, plan.arm.scale, l);
+        }
         return quote! {
             /// The branch label of any configuration; agrees with the labels `solve` reports.
             pub fn branch_of(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Branch {
@@ -463,6 +468,46 @@ fn branch_of_fn(plan: &Plan, l: Literals) -> TokenStream {
                     ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
                 }
             }
+        }
+    }
+}
+
+/// `branch_of` of an elbow arm: the rule folded with this arm's constants (two `sin_cos`
+/// calls, no forward kinematics), the table printed as a constant the compiler folds.
+/// Rounding noise is taken out of the shoulder values (lengths up to the arm's scale squared).
+fn folded_branch_of(f: &FoldedRule, scale: f64, l: Literals) -> TokenStream {
+    let (ty, generic) = (l.0.ty(), l.0.generic());
+    let shoulder: Vec<TokenStream> = f
+        .shoulder
+        .iter()
+        .map(|&x| l.lit(crate::units::snap(x, scale.max(scale * scale))))
+        .collect();
+    let (facing, up) = (l.lit(f.facing), l.lit(f.up));
+    let [bs, bc] = f.bend.map(|x| l.lit(x));
+    let (phase, width) = (l.lit(f.wrist_phase), l.lit(f.wrist_half_width));
+    quote! {
+        /// The label rules with this arm's constants folded in (θi the model values,
+        /// ci = cos θi, si = sin θi):
+        /// - shoulder: v = k0 + k1·c3 + k2·s3 + c2·(k3 + k4·c3 + k5·s3) + s2·(k6 + k7·c3 + k8·s3),
+        ///   the signed distance of the wrist center from the shoulder plane; facing when
+        ///   sign v = `facing`;
+        /// - elbow: sin(sense·θ3 − stretched) = e_s·s3 + e_c·c3; up when its sign times the
+        ///   shoulder side is `up`;
+        /// - wrist: leading when |θ5 − φ| (wrapped into [−π, π]) ≤ τ.
+        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+        const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule #generic =
+            ::armforge_runtime::internal::FoldedRule {
+                shoulder: [#(#shoulder),*],
+                facing: #facing,
+                bend: [#bs, #bc],
+                up: #up,
+                wrist_phase: #phase,
+                wrist_half_width: #width,
+            };
+
+        /// The branch label of any configuration; agrees with the labels `solve` reports.
+        pub fn branch_of(joints: &[#ty; JOINTS]) -> ::armforge_runtime::Branch {
+            ::armforge_runtime::internal::branch_of_folded(&FOLDED_LABELS, &JOINT_TABLE, joints)
         }
     }
 }
@@ -619,6 +664,17 @@ pub fn module(
     let tool = pose(&plan.arm.tool, l);
     let settings = settings(&plan.settings, l);
     let labels = rule(&plan.rule, l);
+    // The geometric rule is printed only when `branch_of` (or its fallback) reads it.
+    let folded = !plan.labels_by_solving
+        && armforge_runtime::internal::fold_rule(&plan.rule, &plan.arm.joints).is_some();
+    let labels_const = if folded {
+        quote!()
+    } else {
+        quote! {
+            #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
+            const LABELS: ::armforge_runtime::internal::BranchRule #generic = #labels;
+        }
+    };
     let zero: Vec<TokenStream> = plan.zero_reference.iter().map(|&x| l.lit(x)).collect();
     let capacity = super::expr::index(plan.capacity);
     let (body, notes) = solver_body(plan, scalar);
@@ -662,8 +718,7 @@ pub fn module(
         #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
         const SETTINGS: ::armforge_runtime::internal::Settings #generic = #settings;
 
-        #[allow(clippy::approx_constant, clippy::excessive_precision, clippy::unreadable_literal)]
-        const LABELS: ::armforge_runtime::internal::BranchRule #generic = #labels;
+        #labels_const
 
         /// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
         /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.

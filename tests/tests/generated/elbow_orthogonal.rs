@@ -124,30 +124,6 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
     duplicate_tolerance: 1e-10,
     wrist_twist_cosines: [0.0, 5.551115123125783e-17],
 };
-#[allow(
-    clippy::approx_constant,
-    clippy::excessive_precision,
-    clippy::unreadable_literal
-)]
-const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
-    shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
-        normal: [0.25138098356734706, 0.29998222105922023, -0.783405601408612],
-        point: [-0.12610473873370642, -0.14855515348839365, 0.09120285126503383],
-        wrist_center: [-0.7369762517508439, 0.29055493040836866, 0.3059935384078808],
-        facing: -1.0,
-    },
-    elbow: ::armforge_runtime::internal::ElbowRule::Bend {
-        sense: -1.0,
-        stretched: -3.000860878111602,
-        up: 1.0,
-    },
-    wrist: ::armforge_runtime::internal::WristRule {
-        normal: [0.7629582057348024, 0.5479704330528009, -0.3429623606197284],
-        axis5: [0.6461820612405205, -0.6616771312044819, 0.38030529548240455],
-        axis6: [-0.6486710312075331, -0.7387164163397849, -0.1830954655425997],
-    },
-    mirrored: false,
-};
 /// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
@@ -690,9 +666,40 @@ pub fn solve_branch(
     );
     ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
 }
+/// The label rules with this arm's constants folded in (θi the model values,
+/// ci = cos θi, si = sin θi):
+/// - shoulder: v = k0 + k1·c3 + k2·s3 + c2·(k3 + k4·c3 + k5·s3) + s2·(k6 + k7·c3 + k8·s3),
+///   the signed distance of the wrist center from the shoulder plane; facing when
+///   sign v = `facing`;
+/// - elbow: sin(sense·θ3 − stretched) = e_s·s3 + e_c·c3; up when its sign times the
+///   shoulder side is `up`;
+/// - wrist: leading when |θ5 − φ| (wrapped into [−π, π]) ≤ τ.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule = ::armforge_runtime::internal::FoldedRule {
+    shoulder: [
+        0.0,
+        0.0,
+        0.0,
+        -0.23637022033954957,
+        0.04626572938276833,
+        -0.21404404268428726,
+        -0.6403581210946176,
+        0.21404404268428728,
+        0.046265729382768336,
+    ],
+    facing: -1.0,
+    bend: [0.9901136168642846, 0.14026769300136338],
+    up: 1.0,
+    wrist_phase: 2.562407244323658,
+    wrist_half_width: 1.5707963267948966,
+};
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
-    ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
+    ::armforge_runtime::internal::branch_of_folded(&FOLDED_LABELS, &JOINT_TABLE, joints)
 }
 /// The closed-form steps: every branch's candidate, in model values.
 #[allow(

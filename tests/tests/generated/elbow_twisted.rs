@@ -124,30 +124,6 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
     duplicate_tolerance: 1e-10,
     wrist_twist_cosines: [0.03474484252501078, 0.3889492219673151],
 };
-#[allow(
-    clippy::approx_constant,
-    clippy::excessive_precision,
-    clippy::unreadable_literal
-)]
-const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
-    shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
-        normal: [0.07772687934296175, -0.5727563020289683, 0.0048757245008763175],
-        point: [-0.05414621230012627, 0.0007842334702639602, 0.06836364393080274],
-        wrist_center: [0.4773750824304897, 0.2365542490704434, -0.12338449690051963],
-        facing: -1.0,
-    },
-    elbow: ::armforge_runtime::internal::ElbowRule::Bend {
-        sense: 1.0,
-        stretched: -1.9483185102348586,
-        up: 1.0,
-    },
-    wrist: ::armforge_runtime::internal::WristRule {
-        normal: [0.5401795159570935, 0.5781770768749814, -0.6104999215680328],
-        axis5: [0.5181267383208565, -0.8009340075892076, -0.300082319579281],
-        axis6: [0.38734722705858016, 0.10799533335772074, -0.9155867701441429],
-    },
-    mirrored: false,
-};
 /// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
@@ -692,9 +668,40 @@ pub fn solve_branch(
     );
     ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
 }
+/// The label rules with this arm's constants folded in (θi the model values,
+/// ci = cos θi, si = sin θi):
+/// - shoulder: v = k0 + k1·c3 + k2·s3 + c2·(k3 + k4·c3 + k5·s3) + s2·(k6 + k7·c3 + k8·s3),
+///   the signed distance of the wrist center from the shoulder plane; facing when
+///   sign v = `facing`;
+/// - elbow: sin(sense·θ3 − stretched) = e_s·s3 + e_c·c3; up when its sign times the
+///   shoulder side is `up`;
+/// - wrist: leading when |θ5 − φ| (wrapped into [−π, π]) ≤ τ.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule = ::armforge_runtime::internal::FoldedRule {
+    shoulder: [
+        -0.10502295036884333,
+        0.0,
+        0.0,
+        -0.13350306093465067,
+        0.1438658294745157,
+        0.01576056445637951,
+        0.2523321389806471,
+        0.015760564456379512,
+        -0.14386582947451573,
+    ],
+    facing: -1.0,
+    bend: [-0.3686182725083974, 0.9295808567160389],
+    up: 1.0,
+    wrist_phase: 0.4459910611694241,
+    wrist_half_width: 1.5707963267948966,
+};
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
-    ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
+    ::armforge_runtime::internal::branch_of_folded(&FOLDED_LABELS, &JOINT_TABLE, joints)
 }
 /// The closed-form steps: every branch's candidate, in model values.
 #[allow(

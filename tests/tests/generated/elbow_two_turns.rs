@@ -124,30 +124,6 @@ const SETTINGS: ::armforge_runtime::internal::Settings = ::armforge_runtime::int
     duplicate_tolerance: 1e-10,
     wrist_twist_cosines: [1.3877787807814457e-16, -9.43689570931383e-16],
 };
-#[allow(
-    clippy::approx_constant,
-    clippy::excessive_precision,
-    clippy::unreadable_literal
-)]
-const LABELS: ::armforge_runtime::internal::BranchRule = ::armforge_runtime::internal::BranchRule {
-    shoulder: ::armforge_runtime::internal::ShoulderRule::Plane {
-        normal: [0.34053123949945474, 0.5665013041999709, -0.6810061803766807],
-        point: [0.05174928778435288, 0.10106495215777812, -0.16109142656675932],
-        wrist_center: [-0.8342317670431972, 0.37936098520415545, 0.38476990157572766],
-        facing: -1.0,
-    },
-    elbow: ::armforge_runtime::internal::ElbowRule::Bend {
-        sense: 1.0,
-        stretched: 1.151434405282846,
-        up: 1.0,
-    },
-    wrist: ::armforge_runtime::internal::WristRule {
-        normal: [-0.5597405258783723, 0.13945989068616807, 0.816848506504851],
-        axis5: [-0.4724329302842692, 0.7561442803457222, -0.45282773069178184],
-        axis6: [-0.15407632110095185, -0.5767220392357884, -0.8022793632742339],
-    },
-    mirrored: false,
-};
 /// Cosine and sine of the model values the free joints start at in `solve`: joint 4 at
 /// zero; joint 1 nearest zero such that both shoulder solutions fit its limits.
 #[allow(
@@ -694,9 +670,40 @@ pub fn solve_branch(
     );
     ::armforge_runtime::internal::finish_one(&JOINT_TABLE, &SETTINGS, &one[0], &CENTERS)
 }
+/// The label rules with this arm's constants folded in (θi the model values,
+/// ci = cos θi, si = sin θi):
+/// - shoulder: v = k0 + k1·c3 + k2·s3 + c2·(k3 + k4·c3 + k5·s3) + s2·(k6 + k7·c3 + k8·s3),
+///   the signed distance of the wrist center from the shoulder plane; facing when
+///   sign v = `facing`;
+/// - elbow: sin(sense·θ3 − stretched) = e_s·s3 + e_c·c3; up when its sign times the
+///   shoulder side is `up`;
+/// - wrist: leading when |θ5 − φ| (wrapped into [−π, π]) ≤ τ.
+#[allow(
+    clippy::approx_constant,
+    clippy::excessive_precision,
+    clippy::unreadable_literal
+)]
+const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule = ::armforge_runtime::internal::FoldedRule {
+    shoulder: [
+        -0.1825710890818472,
+        0.0,
+        0.0,
+        -0.40830843404706724,
+        0.07509542393624835,
+        -0.5859473095813608,
+        -0.2485573594656052,
+        -0.5859473095813608,
+        -0.07509542393624843,
+    ],
+    facing: -1.0,
+    bend: [0.4071777476800675, -0.9133489375885797],
+    up: 1.0,
+    wrist_phase: 2.277759205460275,
+    wrist_half_width: 1.5707963267948966,
+};
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
-    ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
+    ::armforge_runtime::internal::branch_of_folded(&FOLDED_LABELS, &JOINT_TABLE, joints)
 }
 /// The closed-form steps: every branch's candidate, in model values.
 #[allow(

@@ -280,3 +280,147 @@ fn branch_read_forward<S: Scalar>(
         wrist,
     }
 }
+
+/// The rules of an elbow arm (shoulder [`ShoulderRule::Plane`], elbow [`ElbowRule::Bend`],
+/// read forwards) with the joint table folded in, so that a label costs two `sin_cos` calls
+/// and a few products instead of the forward kinematics of joints 2 and 3.
+///
+/// With `θi` the model values, `ci = cos θi`, `si = sin θi`:
+/// - shoulder: `v = k₀ + k₁c₃ + k₂s₃ + c₂(g₀ + g₁c₃ + g₂s₃) + s₂(m₀ + m₁c₃ + m₂s₃)` is
+///   `n · (E₂E₃c − p)` of [`ShoulderRule::Plane`] (Rodrigues' formula for each joint motion,
+///   expanded); `Facing` when `sign v = facing`;
+/// - elbow: `sin(sense·θ₃ − stretched) = e_s·s₃ + e_c·c₃` with `e_s = sense·cos(stretched)`,
+///   `e_c = −sin(stretched)`;
+/// - wrist: `n · R(h₅, θ₅) h₆ = w₀ + R cos(θ₅ − φ)`, which is `≥ 0` exactly when
+///   `|θ₅ − φ|` wrapped into `[−π, π]` is at most `τ = acos(−w₀ / R)`: no call at all.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct FoldedRule<S: Scalar = f64> {
+    /// `[k₀, k₁, k₂, g₀, g₁, g₂, m₀, m₁, m₂]` of the shoulder value.
+    pub shoulder: [S; 9],
+    /// The sign of the shoulder value that means `Facing`.
+    pub facing: S,
+    /// `[e_s, e_c]` of the elbow bend.
+    pub bend: [S; 2],
+    /// The bend sign (times +1 facing, −1 across) that means `Up`.
+    pub up: S,
+    /// `φ` of the wrist rule (radians).
+    pub wrist_phase: S,
+    /// `τ` of the wrist rule (radians, in `[0, π]`).
+    pub wrist_half_width: S,
+}
+
+/// The [`FoldedRule`] of `rule` for `joints`, when the rule is an elbow arm's (plane shoulder,
+/// bend elbow, not mirrored) and exactly joints 2 and 3, both revolute, move the wrist center;
+/// otherwise `None` (the generic [`branch_of`] applies).
+pub fn fold_rule(rule: &BranchRule<f64>, joints: &[Joint<f64>; JOINTS]) -> Option<FoldedRule> {
+    use crate::math::{atan2, scale, sqrt};
+    use crate::model::JointKind;
+    let ShoulderRule::Plane {
+        normal: n,
+        point,
+        wrist_center: c,
+        facing,
+    } = rule.shoulder
+    else {
+        return None;
+    };
+    let ElbowRule::Bend {
+        sense,
+        stretched,
+        up,
+    } = rule.elbow
+    else {
+        return None;
+    };
+    let wrist_fixed = (3..JOINTS).all(|i| passes_through(&joints[i], &c));
+    let (j2, j3) = (&joints[1], &joints[2]);
+    let revolute = j2.kind == JointKind::Revolute && j3.kind == JointKind::Revolute;
+    if rule.mirrored || !wrist_fixed || !revolute || passes_through(j3, &c) {
+        return None;
+    }
+    // E₃c = p₃ + R(h₃, θ₃)(c − p₃) = a + c₃·b + s₃·e, then u = E₃c − p₂.
+    let (h3, d) = (j3.axis, sub(&c, &j3.point));
+    let along = scale(&h3, dot(&h3, &d));
+    let a = crate::math::add(&j3.point, &along);
+    let b = sub(&d, &along);
+    let e = cross(&h3, &d);
+    let u0 = sub(&a, &j2.point);
+    // n · (p₂ + R(h₂, θ₂)u − p) = n·(p₂ − p) + k·u + c₂ g·u + s₂ m·u.
+    let h2 = j2.axis;
+    let k = scale(&h2, dot(&n, &h2));
+    let g = sub(&n, &k);
+    let m = cross(&n, &h2);
+    let base = dot(&n, &sub(&j2.point, &point));
+    let shoulder = [
+        base + dot(&k, &u0),
+        dot(&k, &b),
+        dot(&k, &e),
+        dot(&g, &u0),
+        dot(&g, &b),
+        dot(&g, &e),
+        dot(&m, &u0),
+        dot(&m, &b),
+        dot(&m, &e),
+    ];
+    let (st_sin, st_cos) = sin_cos(stretched);
+    let w = &rule.wrist;
+    let w0 = dot(&w.axis5, &w.axis6) * dot(&w.normal, &w.axis5);
+    let wc = dot(&w.normal, &w.axis6) - w0;
+    let ws = dot(&w.normal, &cross(&w.axis5, &w.axis6));
+    let r = sqrt(wc * wc + ws * ws);
+    let x = if r > 0.0 {
+        (-w0 / r).clamp(-1.0, 1.0)
+    } else if w0 >= 0.0 {
+        -1.0
+    } else {
+        1.0
+    };
+    Some(FoldedRule {
+        shoulder,
+        facing,
+        bend: [sense * st_cos, -st_sin],
+        up,
+        wrist_phase: atan2(ws, wc),
+        wrist_half_width: atan2(sqrt(1.0 - x * x), x),
+    })
+}
+
+/// The branch label of a configuration by a [`FoldedRule`]; agrees with [`branch_of`] for the
+/// rule it was folded from (up to rounding at the label boundaries).
+#[inline(always)]
+pub fn branch_of_folded<S: Scalar>(
+    rule: &FoldedRule<S>,
+    joints: &[Joint<S>; JOINTS],
+    q: &[S; JOINTS],
+) -> Branch {
+    let (s2, c2) = sin_cos(joints[1].model_value(q[1]));
+    let (s3, c3) = sin_cos(joints[2].model_value(q[2]));
+    let k = &rule.shoulder;
+    let v = k[0]
+        + k[1] * c3
+        + k[2] * s3
+        + c2 * (k[3] + k[4] * c3 + k[5] * s3)
+        + s2 * (k[6] + k[7] * c3 + k[8] * s3);
+    let (shoulder, side) = if sign(v) == rule.facing {
+        (Shoulder::Facing, S::ONE)
+    } else {
+        (Shoulder::Across, -S::ONE)
+    };
+    let bend = sign(rule.bend[0] * s3 + rule.bend[1] * c3);
+    let elbow = if bend * side == rule.up {
+        Elbow::Up
+    } else {
+        Elbow::Down
+    };
+    let off = super::wrap(joints[4].model_value(q[4]) - rule.wrist_phase, S::ZERO);
+    let wrist = if crate::math::abs(off) <= rule.wrist_half_width {
+        Wrist::Leading
+    } else {
+        Wrist::Trailing
+    };
+    Branch {
+        shoulder,
+        elbow,
+        wrist,
+    }
+}
