@@ -17,7 +17,12 @@ use armforge_compiler::solver::Solver;
 
 /// A random arm with its wrist at the base whose joints 6, 5, 4 have the shape of `family`.
 fn base_wrist_arm(family: Family, seed: u64) -> Model {
-    let (inner, _) = sample_arm(family, seed, &SampleOptions::default());
+    base_wrist_arm_with(family, seed, SampleOptions::default())
+}
+
+/// [`base_wrist_arm`] with the hand built with `options`.
+fn base_wrist_arm_with(family: Family, seed: u64, options: SampleOptions) -> Model {
+    let (inner, _) = sample_arm(family, seed, &options);
     let mut arm = mirror::mirrored_model(&inner);
     let mut rng = SampleRng::new(77 + seed);
     arm.tool = rng.pose(0.5);
@@ -27,9 +32,14 @@ fn base_wrist_arm(family: Family, seed: u64) -> Model {
 
 /// Poses with `most` solutions over the random arms whose hand is `family`.
 fn round_trip(family: Family, most: usize) -> usize {
+    round_trip_with(family, most, SampleOptions::default())
+}
+
+/// [`round_trip`] with the hands built with `options`.
+fn round_trip_with(family: Family, most: usize, options: SampleOptions) -> usize {
     let mut full = 0;
     for seed in 0..arms() {
-        let model = base_wrist_arm(family, seed);
+        let model = base_wrist_arm_with(family, seed, options);
         let geometry = classify(&model, &Tolerances::default())
             .unwrap_or_else(|r| panic!("{family:?} arm {seed}: rejected: {r}"));
         assert_eq!(geometry.family, Family::BaseWrist, "{family:?} arm {seed}");
@@ -71,6 +81,29 @@ fn cylindrical_hand_round_trip() {
 #[test]
 fn cartesian_hand_round_trip() {
     round_trip(Family::Cartesian, 2);
+}
+
+#[test]
+fn general_hands_round_trip() {
+    // The general family read from the tool: the quartic and its two sub-cases with
+    // quadratics (Pieper 1968: up to 4 positions of the meeting point, 8 with the wrist).
+    let meeting = SampleOptions {
+        shoulder_axes_meet: true,
+        ..SampleOptions::default()
+    };
+    let parallel = SampleOptions {
+        shoulder_axes_parallel: true,
+        ..SampleOptions::default()
+    };
+    for (what, options) in [
+        ("quartic", SampleOptions::default()),
+        ("axes meeting", meeting),
+        ("axes parallel", parallel),
+    ] {
+        let full = round_trip_with(Family::General, 8, options);
+        eprintln!("general hand, {what}: {full} poses with 8");
+        assert!(full > 0, "{what}");
+    }
 }
 
 /// Axes 1–3 meet but joints 6, 5, 4 are no family: rejected, saying so.

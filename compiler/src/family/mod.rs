@@ -177,6 +177,12 @@ pub trait FamilyModule: Sync {
     }
     /// Where `verify` places samples and how it judges them, for the arm's joints (SI).
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints;
+    /// Whether the family's labels are read by solving (the label of the solution nearest a
+    /// configuration) rather than by its geometric rule alone: two of its roots can share a
+    /// geometric label, and the second then takes a free one.
+    fn labels_by_solving(&self) -> bool {
+        false
+    }
     /// The position step of a family whose joints 1–3 place a spherical wrist's center (the
     /// wrist-at-base family reuses it on the mirrored arm); `None` for the others.
     fn position_step(&self) -> Option<crate::plan::PositionStep> {

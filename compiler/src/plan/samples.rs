@@ -579,8 +579,9 @@ fn sample_base_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
         Family::Polar,
         Family::Cylindrical,
         Family::Cartesian,
+        Family::General,
     ];
-    let hand = hands[(seed % 4) as usize];
+    let hand = hands[(seed % 5) as usize];
     let (inner, _) = sample_arm(hand, seed, options);
     let mut model = crate::plan::mirror::mirrored_model(&inner);
     let mut rng = SampleRng::new(seed.wrapping_mul(7933).wrapping_add(77));

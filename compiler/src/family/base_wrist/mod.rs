@@ -254,8 +254,12 @@ impl FamilyModule for BaseWrist {
             return crate::plan::decoupled_plan(model, geometry, fallback);
         };
         let inner = &e.mirrored;
-        let step = inner.family.module().position_step().unwrap_or(fallback);
-        plan::build(model, inner, Family::BaseWrist, step)
+        let hand = inner.family.module();
+        let step = hand.position_step().unwrap_or(fallback);
+        let mut plan = plan::build(model, inner, Family::BaseWrist, step);
+        // The hand's labels are the plan's: read by solving when the hand's are.
+        plan.labels_by_solving = hand.labels_by_solving();
+        plan
     }
 
     fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged> {

@@ -109,8 +109,12 @@ impl FamilyModule for General {
 
     fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
         let mut plan = crate::plan::decoupled_plan(model, geometry, position);
-        plan.labels_by_solving = true;
+        plan.labels_by_solving = self.labels_by_solving();
         plan
+    }
+
+    fn labels_by_solving(&self) -> bool {
+        true
     }
 
     fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged> {
