@@ -304,9 +304,11 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
         quote!(#index => ::core::option::Option::Some(#name(target, moved)),)
     });
     let body = quote! {
-        /// The closed-form steps: every branch's candidate, in model values.
+        /// The closed-form steps: every branch's candidate, in model values. Inlined, so that
+        /// in `solve` the candidates stay in registers and their check kinds fold into the
+        /// finishing.
         #lints
-        #[inline]
+        #[inline(always)]
         fn candidates(
             target: &::armforge_runtime::Pose #generic,
             reference: &[#ty; 4],
@@ -750,17 +752,23 @@ pub fn module(
                     );
                 }
             }
-            let mut all = candidates(target, &ZERO_REFERENCE);
+            let all = candidates(target, &ZERO_REFERENCE);
             if may_free(&all) {
-                // The rare path: a free joint may move (the candidates change behind a call).
-                free_joints(target, &ZERO_REFERENCE, &mut all);
-                return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &all);
+                // The rare path: a free joint may move (a copy changes behind a call).
+                let mut moved = all;
+                free_joints(target, &ZERO_REFERENCE, &mut moved);
+                return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &moved);
             }
             // The common path: the candidates as the closed form made them, finished one by
             // one, so the check kinds and flags it fixed fold into the finishing.
             let mut out = ::armforge_runtime::internal::Collector::new();
             #(out.add(&JOINT_TABLE, &SETTINGS, &all[#each]);)*
-            out.finish(&JOINT_TABLE, &SETTINGS, &all)
+            if out.is_empty() {
+                // No solution: the reason is worked out from a copy (a rare path).
+                let failed = all;
+                return out.finish(&JOINT_TABLE, &SETTINGS, &failed);
+            }
+            out.finish(&JOINT_TABLE, &SETTINGS, &[])
         }
 
         #branch_api
