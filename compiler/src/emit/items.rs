@@ -317,6 +317,16 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
             [#(#candidates),*]
         }
 
+        /// [`candidates`] as a call of its own, for `solve_near`'s rare fallback: the steps
+        /// are inlined once, into `solve`, not a second time.
+        #[inline(never)]
+        fn candidates_apart(
+            target: &::armforge_runtime::Pose #generic,
+            reference: &[#ty; 4],
+        ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
+            candidates(target, reference)
+        }
+
         /// Moves the free joint where a singular pose leaves one free and its held value puts a
         /// joint outside its limits, in place (a rare path; see
         /// `armforge_runtime::internal::free_joint_1`; a moved candidate is evaluated again by
@@ -599,7 +609,7 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
             );
             #own_shortcut
             let reference = #reference_call;
-            let mut all = candidates(target, &reference);
+            let mut all = candidates_apart(target, &reference);
             free_joints(target, &reference, &mut all);
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,

@@ -551,7 +551,7 @@ pub fn solve_near(
         current,
         [0, 5],
     );
-    let mut all = candidates(target, &reference);
+    let mut all = candidates_apart(target, &reference);
     free_joints(target, &reference, &mut all);
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
@@ -1979,6 +1979,15 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// [`candidates`] as a call of its own, for `solve_near`'s rare fallback: the steps
+/// are inlined once, into `solve`, not a second time.
+#[inline(never)]
+fn candidates_apart(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> [::armforge_runtime::internal::Candidate; 8] {
+    candidates(target, reference)
 }
 /// Moves the free joint where a singular pose leaves one free and its held value puts a
 /// joint outside its limits, in place (a rare path; see
