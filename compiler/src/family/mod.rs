@@ -20,6 +20,7 @@ pub mod base_wrist;
 pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
+pub mod decoupled_steps;
 pub mod elbow;
 pub mod general;
 pub mod polar;
@@ -170,11 +171,9 @@ pub trait FamilyModule: Sync {
     }
     /// What the solve needs, as measured on the plan's arm: one line of parts each.
     fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>>;
-    /// The review sheet's method and steps with this arm's numbers, for a family that gives
-    /// them as data (`None`: the sheet's own pages for the four decoupled families).
-    fn steps(&self, _plan: &Plan) -> Option<Steps> {
-        None
-    }
+    /// The review sheet's method (§3) and steps (§4) with this arm's numbers, read from the
+    /// constants the family's plan is built from.
+    fn steps(&self, plan: &Plan) -> Steps;
     /// Where `verify` places samples and how it judges them, for the arm's joints (SI).
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints;
     /// Whether the family's labels are read by solving (the label of the solution nearest a

@@ -46,7 +46,7 @@ pub fn review_sheet(model: &Model, geometry: &Geometry, plan: &Plan) -> String {
     header(&mut out, model);
     arm::write(&mut out, model, &s);
     family::write(&mut out, &report, geometry, plan, &s);
-    steps::write(&mut out, plan, &facts, &s);
+    steps::write(&mut out, plan, &s);
     branches::write(&mut out, plan, &s);
     let texts = match &report.outcome {
         Outcome::Solvable(solvable) => solvable.singularities.clone(),

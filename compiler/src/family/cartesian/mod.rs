@@ -2,6 +2,7 @@
 //! evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::{Matrix3, Point3};
@@ -186,6 +187,10 @@ impl FamilyModule for Cartesian {
             Part::number(det),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

@@ -2,6 +2,7 @@
 //! spherical wrist. Recognition and evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::Point3;
@@ -168,6 +169,10 @@ impl FamilyModule for Cylindrical {
             Part::angle(decoupled::line_angle(arm, 1, 3)),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

@@ -2,6 +2,7 @@
 //! Recognition and evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use std::f64::consts::PI;
 
@@ -171,6 +172,10 @@ impl FamilyModule for Elbow {
             Part::text(" from axis 3"),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

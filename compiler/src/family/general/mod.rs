@@ -6,6 +6,7 @@
 
 pub mod axes_1_2;
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::Point3;
@@ -180,6 +181,10 @@ impl FamilyModule for General {
             )),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

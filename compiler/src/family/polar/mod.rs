@@ -2,6 +2,7 @@
 //! Recognition and evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::Point3;
@@ -144,6 +145,10 @@ impl FamilyModule for Polar {
             Part::angle(decoupled::line_angle(arm, 2, 3)),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {
