@@ -193,6 +193,12 @@ impl FamilyModule for Cartesian {
         steps::steps(plan)
     }
 
+    fn reach_lines(&self, _plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        vec![vec![Part::text(
+            "the wrist center moves in the box the three slides span (their limits in §1)",
+        )]]
+    }
+
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {
         decoupled::verify_hints(joints, geometry)
     }

@@ -175,6 +175,19 @@ impl FamilyModule for Cylindrical {
         steps::steps(plan)
     }
 
+    fn reach_lines(&self, plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        let d = plan::constants(&plan.arm).d;
+        vec![vec![
+            Part::text("the slide's two roots merge where `ρ² = |W⊥D|²` (`|D|²` = "),
+            Part::number(crate::plan::vec3::num::dot(&d, &d)),
+            Part::text("); nearer axis 1 than `|W⊥D|` the target is out of reach"),
+        ]]
+    }
+
+    fn on_axis_1_quantity(&self) -> &'static str {
+        "`ρ² = 0`"
+    }
+
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {
         decoupled::verify_hints(joints, geometry)
     }

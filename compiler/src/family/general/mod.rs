@@ -187,6 +187,13 @@ impl FamilyModule for General {
         steps::steps(plan)
     }
 
+    fn reach_lines(&self, _plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        vec![vec![Part::text(
+            "the reach of a general arm has no simple closed form: where two roots of the \
+             quartic merge, two solutions meet (the position Jacobian is singular there)",
+        )]]
+    }
+
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {
         decoupled::verify_hints(joints, geometry)
     }
