@@ -368,8 +368,10 @@ fn ends_of<S: Scalar>(
     let used = (4 * limited + if range_f.is_some() { 2 } else { 0 }).min(ENDS);
     for pass in 0..used {
         for j in (pass + 1..used).rev() {
-            if ends[j].at < ends[j - 1].at {
-                ends.swap(j, j - 1);
+            if let Some([a, b]) = ends.get_mut(j - 1..=j) {
+                if b.at < a.at {
+                    core::mem::swap(a, b);
+                }
             }
         }
     }
