@@ -1,16 +1,17 @@
 #!/bin/sh
 # Footprint of every example arm's emitted solver, f64 and f32: the bytes of a solution set
 # and of one solution (printed by the no-panic check) and the code size of the emitted
-# functions in that release binary (x86-64, one codegen unit), from its symbol table.
+# functions in that binary (x86-64, the `no-panic` profile: release, one codegen unit, fat
+# LTO, runtime without `std`), from its symbol table.
 #
 #   sh tests/benches/footprint.sh
 #
-# `solve` calls the shared `candidates` (every branch's steps); `solve_branch` and `solve_near`
-# call one of the per-branch functions `branch_1` … `branch_N` (sizes given as their range).
+# `solve` and `solve_near` inline the shared `candidates` (every branch's steps); `solve_branch`
+# and `solve_near` call one of the per-branch functions `branch_1` … `branch_N` (sizes given as their range).
 set -eu
 cd "$(dirname "$0")/../.."
-cargo run --release -q -p armforge-no-panic-check
-bin=target/release/armforge-no-panic-check
+cargo run --profile no-panic -q -p armforge-no-panic-check
+bin=target/no-panic/armforge-no-panic-check
 # Sizes in decimal: "SIZE NAME" per symbol.
 syms=$(nm --size-sort -C "$bin" | grep 'armforge_no_panic_check::' \
     | while read -r hex _ name; do echo "$((0x$hex)) $name"; done)

@@ -22,7 +22,8 @@ use armforge_runtime::JOINTS;
 use armforge_tests::emitted::{bench_elbow, EMITTED_ARMS};
 use rand::rngs::StdRng;
 use rand::SeedableRng;
-use reference::{hand, numeric, Sample};
+use reference::hand::{self, LibmCrate, Math, Platform};
+use reference::{numeric, Sample};
 
 /// Calls per measurement of the closed forms.
 const CALLS: usize = 256;
@@ -44,6 +45,9 @@ fn names() -> Vec<String> {
         "hand/solve_all",
         "hand/solve_one",
         "hand/forward",
+        "hand-libm/solve_all",
+        "hand-libm/solve_one",
+        "hand-libm/forward",
         "numeric/dls_nearby",
         "numeric/dls_random",
         "numeric/starts_32",
@@ -82,6 +86,39 @@ fn measure(calls: usize, mut f: impl FnMut(usize)) {
     for i in 0..calls {
         f(black_box(i));
     }
+}
+
+/// `CALLS` hand-written all-solution solves with the math library `M`.
+fn hand_all<M: Math>(out: &mut [[f64; JOINTS]; 8]) -> usize {
+    let samples = reference::samples();
+    measure(CALLS, |i| {
+        black_box(hand::solve_all::<M>(&samples[i % samples.len()].pose, out));
+    });
+    CALLS
+}
+
+/// `CALLS` hand-written one-branch solves (each sample's own branch) with `M`.
+fn hand_one<M: Math>(branches: &[(bool, f64, f64)]) -> usize {
+    let samples = reference::samples();
+    measure(CALLS, |i| {
+        let (back, e, w) = branches[i % samples.len()];
+        black_box(hand::solve_one::<M>(
+            &samples[i % samples.len()].pose,
+            back,
+            e,
+            w,
+        ));
+    });
+    CALLS
+}
+
+/// `CALLS` hand-written DH forwards with `M`.
+fn hand_forward<M: Math>() -> usize {
+    let samples = reference::samples();
+    measure(CALLS, |i| {
+        black_box(hand::forward::<M>(&samples[i % samples.len()].joints));
+    });
+    CALLS
 }
 
 fn run(name: &str) -> Option<usize> {
@@ -130,25 +167,12 @@ fn run(name: &str) -> Option<usize> {
             });
             CALLS
         }
-        Some("hand/solve_all") => {
-            measure(CALLS, |i| {
-                black_box(hand::solve_all(&s(i).pose, &mut out));
-            });
-            CALLS
-        }
-        Some("hand/solve_one") => {
-            measure(CALLS, |i| {
-                let (back, e, w) = hand_branches[i % samples.len()];
-                black_box(hand::solve_one(&s(i).pose, back, e, w));
-            });
-            CALLS
-        }
-        Some("hand/forward") => {
-            measure(CALLS, |i| {
-                black_box(hand::forward(&s(i).joints));
-            });
-            CALLS
-        }
+        Some("hand/solve_all") => hand_all::<Platform>(&mut out),
+        Some("hand/solve_one") => hand_one::<Platform>(&hand_branches),
+        Some("hand/forward") => hand_forward::<Platform>(),
+        Some("hand-libm/solve_all") => hand_all::<LibmCrate>(&mut out),
+        Some("hand-libm/solve_one") => hand_one::<LibmCrate>(&hand_branches),
+        Some("hand-libm/forward") => hand_forward::<LibmCrate>(),
         Some("numeric/dls_nearby") => {
             measure(NUMERIC_CALLS, |i| {
                 let seed = reference::nearby_seed(&s(i).joints);
@@ -236,10 +260,10 @@ fn check() {
     let mut emitted_total = 0;
     for x in &samples {
         let mut out = [[0.0; JOINTS]; 8];
-        let n = hand::solve_all(&x.pose, &mut out);
+        let n = hand::solve_all::<Platform>(&x.pose, &mut out);
         for q in &out[..n] {
             let p = bench_elbow::forward(q);
-            let h = hand::forward(q);
+            let h = hand::forward::<Platform>(q);
             for r in 0..3 {
                 worst = worst.max((p.translation[r] - x.pose.translation[r]).abs());
                 worst = worst.max((h.translation[r] - p.translation[r]).abs());
@@ -324,6 +348,11 @@ fn report(file: &str) {
             "≤ 1.0× (stretch 0.85×)",
         ),
         (
+            "emitted solve / hand-written all solutions, libm crate",
+            ratio(b("emitted/solve"), b("hand-libm/solve_all")),
+            "",
+        ),
+        (
             "emitted solve_branch / hand-written one branch",
             ratio(b("emitted/solve_branch"), b("hand/solve_one")),
             "≤ 1.2×",
@@ -334,9 +363,24 @@ fn report(file: &str) {
             "≤ 1.5×",
         ),
         (
+            "emitted solve_branch / hand-written one branch, libm crate",
+            ratio(b("emitted/solve_branch"), b("hand-libm/solve_one")),
+            "",
+        ),
+        (
+            "emitted solve_near / hand-written one branch, libm crate",
+            ratio(b("emitted/solve_near"), b("hand-libm/solve_one")),
+            "",
+        ),
+        (
             "emitted forward / hand-written DH forward",
             ratio(b("emitted/forward"), b("hand/forward")),
             "≤ 1.0×",
+        ),
+        (
+            "emitted forward / hand-written DH forward, libm crate",
+            ratio(b("emitted/forward"), b("hand-libm/forward")),
+            "",
         ),
         (
             "interpreter solve / emitted solve",

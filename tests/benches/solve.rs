@@ -102,17 +102,20 @@ fn main() {
         b.iter(|| interpreter.solve(black_box(&samples[next()].pose)))
     });
     group.bench_function("hand/solve_all", |b| {
-        b.iter(|| hand::solve_all(black_box(&samples[next()].pose), &mut out))
+        b.iter(|| hand::solve_all::<hand::Platform>(black_box(&samples[next()].pose), &mut out))
+    });
+    group.bench_function("hand-libm/solve_all", |b| {
+        b.iter(|| hand::solve_all::<hand::LibmCrate>(black_box(&samples[next()].pose), &mut out))
     });
     group.bench_function("hand/solve_one", |b| {
         b.iter(|| {
             let k = next();
             let (back, e, w) = hand_branches[k];
-            hand::solve_one(black_box(&samples[k].pose), back, e, w)
+            hand::solve_one::<hand::Platform>(black_box(&samples[k].pose), back, e, w)
         })
     });
     group.bench_function("hand/forward", |b| {
-        b.iter(|| hand::forward(black_box(&samples[next()].joints)))
+        b.iter(|| hand::forward::<hand::Platform>(black_box(&samples[next()].joints)))
     });
     group.bench_function("floor/transcendentals", |b| {
         b.iter(|| transcendental_floor(black_box(&samples[next()].pose), counts.sqrt, counts.atan2))

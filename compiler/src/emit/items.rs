@@ -304,15 +304,27 @@ fn solver_body(plan: &Plan, scalar: ScalarType) -> (TokenStream, BTreeMap<String
         quote!(#index => ::core::option::Option::Some(#name(target, moved)),)
     });
     let body = quote! {
-        /// The closed-form steps: every branch's candidate, in model values.
+        /// The closed-form steps: every branch's candidate, in model values. Inlined, so that
+        /// in `solve` the candidates stay in registers and their check kinds fold into the
+        /// finishing.
         #lints
-        #[inline]
+        #[inline(always)]
         fn candidates(
             target: &::armforge_runtime::Pose #generic,
             reference: &[#ty; 4],
         ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
             #(#lets)*
             [#(#candidates),*]
+        }
+
+        /// [`candidates`] as a call of its own, for `solve_near`'s rare fallback: the steps
+        /// are inlined once, into `solve`, not a second time.
+        #[inline(never)]
+        fn candidates_apart(
+            target: &::armforge_runtime::Pose #generic,
+            reference: &[#ty; 4],
+        ) -> [::armforge_runtime::internal::Candidate #generic; #n] {
+            candidates(target, reference)
         }
 
         /// Moves the free joint where a singular pose leaves one free and its held value puts a
@@ -597,7 +609,7 @@ fn branch_api(plan: &Plan, l: Literals) -> TokenStream {
             );
             #own_shortcut
             let reference = #reference_call;
-            let mut all = candidates(target, &reference);
+            let mut all = candidates_apart(target, &reference);
             free_joints(target, &reference, &mut all);
             ::armforge_runtime::internal::nearest_candidate(
                 &JOINT_TABLE,
@@ -750,17 +762,23 @@ pub fn module(
                     );
                 }
             }
-            let mut all = candidates(target, &ZERO_REFERENCE);
+            let all = candidates(target, &ZERO_REFERENCE);
             if may_free(&all) {
-                // The rare path: a free joint may move (the candidates change behind a call).
-                free_joints(target, &ZERO_REFERENCE, &mut all);
-                return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &all);
+                // The rare path: a free joint may move (a copy changes behind a call).
+                let mut moved = all;
+                free_joints(target, &ZERO_REFERENCE, &mut moved);
+                return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &moved);
             }
             // The common path: the candidates as the closed form made them, finished one by
             // one, so the check kinds and flags it fixed fold into the finishing.
             let mut out = ::armforge_runtime::internal::Collector::new();
             #(out.add(&JOINT_TABLE, &SETTINGS, &all[#each]);)*
-            out.finish(&JOINT_TABLE, &SETTINGS, &all)
+            if out.is_empty() {
+                // No solution: the reason is worked out from a copy (a rare path).
+                let failed = all;
+                return out.finish(&JOINT_TABLE, &SETTINGS, &failed);
+            }
+            out.finish(&JOINT_TABLE, &SETTINGS, &[])
         }
 
         #branch_api

@@ -77,7 +77,7 @@ pub fn hand_branch(sample: &Sample) -> Option<(bool, f64, f64)> {
         .flat_map(|back| [1.0, -1.0].map(|e| (back, e)))
         .flat_map(|(back, e)| [1.0, -1.0].map(|w| (back, e, w)));
     for (back, e, w) in choices {
-        if let Some(q) = hand::solve_one(&sample.pose, back, e, w) {
+        if let Some(q) = hand::solve_one::<hand::Platform>(&sample.pose, back, e, w) {
             if bench_elbow::branch_of(&q) == sample.branch {
                 return Some((back, e, w));
             }

@@ -6,8 +6,9 @@
 //! every path to a panic from a wrapped function, linking this binary fails with an error
 //! naming it. The proof holds for release builds, where the solvers run in firmware.
 //!
-//! CI runs `cargo run --release -p armforge-no-panic-check`; the workspace builds this crate
-//! in one codegen unit (`[profile.release.package.armforge-no-panic-check]`), since across
+//! The runtime is used without `std`, as firmware uses it: its math goes through the `libm`
+//! crate. CI runs `cargo run --profile no-panic -p armforge-no-panic-check`; that profile links
+//! in one codegen unit with fat LTO (root `Cargo.toml`), since across
 //! units the optimizer must assume a call can unwind. What made the solve paths fail before:
 //! a bounds check in `free_joint_1`'s sort (now fixed loop bounds) and its `&dyn Fn`
 //! argument (an indirect call may unwind; now a generic `impl Fn`).

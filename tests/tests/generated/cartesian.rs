@@ -346,15 +346,20 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
             );
         }
     }
-    let mut all = candidates(target, &ZERO_REFERENCE);
+    let all = candidates(target, &ZERO_REFERENCE);
     if may_free(&all) {
-        free_joints(target, &ZERO_REFERENCE, &mut all);
-        return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &all);
+        let mut moved = all;
+        free_joints(target, &ZERO_REFERENCE, &mut moved);
+        return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &moved);
     }
     let mut out = ::armforge_runtime::internal::Collector::new();
     out.add(&JOINT_TABLE, &SETTINGS, &all[0]);
     out.add(&JOINT_TABLE, &SETTINGS, &all[1]);
-    out.finish(&JOINT_TABLE, &SETTINGS, &all)
+    if out.is_empty() {
+        let failed = all;
+        return out.finish(&JOINT_TABLE, &SETTINGS, &failed);
+    }
+    out.finish(&JOINT_TABLE, &SETTINGS, &[])
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
 #[allow(
@@ -421,7 +426,7 @@ pub fn solve_near(
         }
     }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    let mut all = candidates(target, &reference);
+    let mut all = candidates_apart(target, &reference);
     free_joints(target, &reference, &mut all);
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
@@ -512,7 +517,9 @@ pub fn solve_branch(
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
     ::armforge_runtime::internal::branch_of(&LABELS, &JOINT_TABLE, joints)
 }
-/// The closed-form steps: every branch's candidate, in model values.
+/// The closed-form steps: every branch's candidate, in model values. Inlined, so that
+/// in `solve` the candidates stay in registers and their check kinds fold into the
+/// finishing.
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -522,7 +529,7 @@ pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
     clippy::unreadable_literal,
     clippy::suboptimal_flops
 )]
-#[inline]
+#[inline(always)]
 fn candidates(
     target: &::armforge_runtime::Pose,
     reference: &[f64; 4],
@@ -826,6 +833,15 @@ fn candidates(
             on_axis_1: false,
         },
     ]
+}
+/// [`candidates`] as a call of its own, for `solve_near`'s rare fallback: the steps
+/// are inlined once, into `solve`, not a second time.
+#[inline(never)]
+fn candidates_apart(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> [::armforge_runtime::internal::Candidate; 2] {
+    candidates(target, reference)
 }
 /// Moves the free joint where a singular pose leaves one free and its held value puts a
 /// joint outside its limits, in place (a rare path; see

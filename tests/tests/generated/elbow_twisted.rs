@@ -410,10 +410,11 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
             );
         }
     }
-    let mut all = candidates(target, &ZERO_REFERENCE);
+    let all = candidates(target, &ZERO_REFERENCE);
     if may_free(&all) {
-        free_joints(target, &ZERO_REFERENCE, &mut all);
-        return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &all);
+        let mut moved = all;
+        free_joints(target, &ZERO_REFERENCE, &mut moved);
+        return ::armforge_runtime::internal::collect(&JOINT_TABLE, &SETTINGS, &moved);
     }
     let mut out = ::armforge_runtime::internal::Collector::new();
     out.add(&JOINT_TABLE, &SETTINGS, &all[0]);
@@ -424,7 +425,11 @@ pub fn solve(target: &::armforge_runtime::Pose) -> Solutions {
     out.add(&JOINT_TABLE, &SETTINGS, &all[5]);
     out.add(&JOINT_TABLE, &SETTINGS, &all[6]);
     out.add(&JOINT_TABLE, &SETTINGS, &all[7]);
-    out.finish(&JOINT_TABLE, &SETTINGS, &all)
+    if out.is_empty() {
+        let failed = all;
+        return out.finish(&JOINT_TABLE, &SETTINGS, &failed);
+    }
+    out.finish(&JOINT_TABLE, &SETTINGS, &[])
 }
 /// The value each joint is wrapped toward by `solve_branch`: its range's center.
 #[allow(
@@ -521,7 +526,7 @@ pub fn solve_near(
         }
     }
     let reference = ::armforge_runtime::internal::reference(&JOINT_TABLE, current);
-    let mut all = candidates(target, &reference);
+    let mut all = candidates_apart(target, &reference);
     free_joints(target, &reference, &mut all);
     ::armforge_runtime::internal::nearest_candidate(
         &JOINT_TABLE,
@@ -694,16 +699,18 @@ const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule = ::armforge_runti
         -0.14386582947451573,
     ],
     facing: -1.0,
-    bend: [-0.3686182725083974, 0.9295808567160389],
+    bend: [-0.3686182725083974, 0.929580856716039],
     up: 1.0,
     wrist_phase: 0.4459910611694241,
-    wrist_half_width: 1.5707963267948966,
+    wrist_half_width: 1.5707963267948968,
 };
 /// The branch label of any configuration; agrees with the labels `solve` reports.
 pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
     ::armforge_runtime::internal::branch_of_folded(&FOLDED_LABELS, &JOINT_TABLE, joints)
 }
-/// The closed-form steps: every branch's candidate, in model values.
+/// The closed-form steps: every branch's candidate, in model values. Inlined, so that
+/// in `solve` the candidates stay in registers and their check kinds fold into the
+/// finishing.
 #[allow(
     clippy::approx_constant,
     clippy::excessive_precision,
@@ -713,7 +720,7 @@ pub fn branch_of(joints: &[f64; JOINTS]) -> ::armforge_runtime::Branch {
     clippy::unreadable_literal,
     clippy::suboptimal_flops
 )]
-#[inline]
+#[inline(always)]
 fn candidates(
     target: &::armforge_runtime::Pose,
     reference: &[f64; 4],
@@ -2072,6 +2079,15 @@ fn candidates(
             on_axis_1: j1_free >= 0.0,
         },
     ]
+}
+/// [`candidates`] as a call of its own, for `solve_near`'s rare fallback: the steps
+/// are inlined once, into `solve`, not a second time.
+#[inline(never)]
+fn candidates_apart(
+    target: &::armforge_runtime::Pose,
+    reference: &[f64; 4],
+) -> [::armforge_runtime::internal::Candidate; 8] {
+    candidates(target, reference)
 }
 /// Moves the free joint where a singular pose leaves one free and its held value puts a
 /// joint outside its limits, in place (a rare path; see

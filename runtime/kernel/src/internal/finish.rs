@@ -375,6 +375,12 @@ impl<const CAP: usize, S: Scalar> Collector<CAP, S> {
         }
     }
 
+    /// True while no candidate has been kept.
+    #[inline(always)]
+    pub fn is_empty(&self) -> bool {
+        self.len == 0
+    }
+
     /// The set; when nothing was kept, the reason worked out from every candidate.
     #[inline(always)]
     pub fn finish(
