@@ -459,40 +459,56 @@ fn free_arm_joint<S: Scalar>(
     walk(ends, start, side > S::ZERO).map(|offset| held + offset)
 }
 
-/// True when every joint of a candidate is within its limits: the comparisons of `finish_one`
-/// (each revolute value wrapped toward its range's center), without working out a reason.
-fn within_limits<S: Scalar>(
-    joints: &[Joint<S>; JOINTS],
-    settings: &Settings<S>,
-    c: &Candidate<S>,
-) -> bool {
-    let tol = settings.limit_tolerance;
-    let centers = super::centers(joints);
-    let mut inside = true;
-    for ((j, &m), &center) in joints.iter().zip(c.model_values.iter()).zip(centers.iter()) {
-        let q = (m - j.offset) * j.direction;
-        let v = if j.kind == JointKind::Revolute {
-            wrap(q, center)
-        } else {
-            q
-        };
-        inside &= v >= j.limits[0] - tol && v <= j.limits[1] + tol;
+/// The joint limits as [`LimitTable::within`] compares them, worked out once per call: each
+/// joint's range center (a revolute value is wrapped toward it) and its limits widened by the
+/// limit tolerance.
+struct LimitTable<S: Scalar> {
+    centers: [S; JOINTS],
+    lo: [S; JOINTS],
+    hi: [S; JOINTS],
+}
+
+impl<S: Scalar> LimitTable<S> {
+    fn new(joints: &[Joint<S>; JOINTS], settings: &Settings<S>) -> Self {
+        let tol = settings.limit_tolerance;
+        LimitTable {
+            centers: super::centers(joints),
+            lo: joints.each_ref().map(|j| j.limits[0] - tol),
+            hi: joints.each_ref().map(|j| j.limits[1] + tol),
+        }
     }
-    inside
-}
 
-/// True when a candidate passes its checks (is real) but some joint is outside its limits.
-fn outside_limits<S: Scalar>(
-    joints: &[Joint<S>; JOINTS],
-    settings: &Settings<S>,
-    c: &Candidate<S>,
-) -> bool {
-    super::finish::passes(&c.checks, settings).is_some() && !within_limits(joints, settings, c)
-}
+    /// True when every joint of a candidate is within its limits: the comparisons of
+    /// `finish_one` (each revolute value wrapped toward its range's center), without working
+    /// out a reason.
+    fn within(&self, joints: &[Joint<S>; JOINTS], c: &Candidate<S>) -> bool {
+        let mut inside = true;
+        for (i, (j, &m)) in joints.iter().zip(c.model_values.iter()).enumerate() {
+            let q = (m - j.offset) * j.direction;
+            let v = match (j.kind, self.centers.get(i)) {
+                (JointKind::Revolute, Some(&center)) => wrap(q, center),
+                _ => q,
+            };
+            let (lo, hi) = (self.lo.get(i), self.hi.get(i));
+            inside &= lo.is_some_and(|&lo| v >= lo) & hi.is_some_and(|&hi| v <= hi);
+        }
+        inside
+    }
 
-/// True when a candidate passes its checks and every joint is within its limits.
-fn fits<S: Scalar>(joints: &[Joint<S>; JOINTS], settings: &Settings<S>, c: &Candidate<S>) -> bool {
-    super::finish::passes(&c.checks, settings).is_some() && within_limits(joints, settings, c)
+    /// True when a candidate passes its checks (is real) but some joint is outside its limits.
+    fn outside(
+        &self,
+        joints: &[Joint<S>; JOINTS],
+        settings: &Settings<S>,
+        c: &Candidate<S>,
+    ) -> bool {
+        super::finish::passes(&c.checks, settings).is_some() && !self.within(joints, c)
+    }
+
+    /// True when a candidate passes its checks and every joint is within its limits.
+    fn fits(&self, joints: &[Joint<S>; JOINTS], settings: &Settings<S>, c: &Candidate<S>) -> bool {
+        super::finish::passes(&c.checks, settings).is_some() && self.within(joints, c)
+    }
 }
 
 /// Which joint (0-based) a candidate leaves free: 3 at an aligned wrist, 0 with the wrist
@@ -537,6 +553,7 @@ pub fn free_joint_1<S: Scalar>(
     let tol = settings.limit_tolerance;
     // Worked out once, for the first candidate that needs them: whether the wrist axes meet
     // (an arm constant), the wrist data, and the last position's ends.
+    let limits = LimitTable::new(joints, settings);
     let mut wrist_meets: Option<bool> = None;
     let mut data: Option<WristData<S>> = None;
     let mut shared: Option<SharedEnds<S>> = None;
@@ -544,7 +561,7 @@ pub fn free_joint_1<S: Scalar>(
         let Some(f) = free_joint_of(joints, settings, c) else {
             continue;
         };
-        if !outside_limits(joints, settings, c)
+        if !limits.outside(joints, settings, c)
             || !*wrist_meets.get_or_insert_with(|| {
                 wrist_center(joints, S::of(4.0) * settings.length_tolerance).is_some()
             })
@@ -577,7 +594,7 @@ pub fn free_joint_1<S: Scalar>(
         }
         if let Some(again) = rerun(&moved, i) {
             let same = again.wrist_aligned == c.wrist_aligned && again.on_axis_1 == c.on_axis_1;
-            if same && fits(joints, settings, &again) {
+            if same && limits.fits(joints, settings, &again) {
                 *c = again;
             }
         }
