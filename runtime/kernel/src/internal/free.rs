@@ -242,19 +242,24 @@ impl<S: Scalar> WristData<S> {
         let ranges = [3, 4, 5].map(|j| model_range(&joints[j]));
         let n = cross(h4, h5);
         let n6 = cross(h5, h6);
-        let limits = |r: Option<[S; 2]>| r.unwrap_or([S::ZERO; 2]);
+        // Only a limited joint's limits are turned (a joint of a whole turn or more has none).
+        let zero = [[S::ZERO; 3]; 2];
         WristData {
             ranges,
             n,
-            z5: limits(ranges[1]).map(|l| turn(&joints[4], l).rotate(h6)),
-            r4: limits(ranges[0]).map(|l| {
-                let t4 = turn(&joints[3], l);
-                [t4.rotate(h5), t4.rotate(&n)]
+            z5: ranges[1].map_or(zero, |r| r.map(|l| turn(&joints[4], l).rotate(h6))),
+            r4: ranges[0].map_or([zero; 2], |r| {
+                r.map(|l| {
+                    let t4 = turn(&joints[3], l);
+                    [t4.rotate(h5), t4.rotate(&n)]
+                })
             }),
             g6: to_base(h6),
-            g_r6: limits(ranges[2]).map(|l| {
-                let t6 = turn(&joints[5], l);
-                [to_base(&t6.rotate_back(h5)), to_base(&t6.rotate_back(&n6))]
+            g_r6: ranges[2].map_or([zero; 2], |r| {
+                r.map(|l| {
+                    let t6 = turn(&joints[5], l);
+                    [to_base(&t6.rotate_back(h5)), to_base(&t6.rotate_back(&n6))]
+                })
             }),
         }
     }
