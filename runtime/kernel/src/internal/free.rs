@@ -281,13 +281,15 @@ struct End<S: Scalar> {
 type SharedEnds<S> = ([S; 4], [End<S>; ENDS]);
 
 /// Every end at the model values `m` for free joint `f` (see the module documentation),
-/// tagged with the wrist branch it is real for, sorted counterclockwise from `m[f]`.
+/// tagged with the wrist branch it is real for, sorted counterclockwise from `m[f]`; only
+/// those of wrist branch `only` when it is not zero.
 fn ends_of<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
     data: &WristData<S>,
     m: &[S; JOINTS],
     f: usize,
     range_f: Option<[S; 2]>,
+    only: i8,
 ) -> [End<S>; ENDS] {
     let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
     let held = m[f.min(1)];
@@ -321,6 +323,9 @@ fn ends_of<S: Scalar>(
     }; ENDS];
     let mut n_ends = 0;
     let mut push = |root: S, bit: u8, side: i8| {
+        if only != 0 && side != 0 && side != only {
+            return;
+        }
         if let Some(slot) = ends.get_mut(n_ends) {
             *slot = End {
                 at: wrap(root - held, S::PI),
@@ -335,6 +340,9 @@ fn ends_of<S: Scalar>(
         let k = coefficients(hf, &u4, &y6);
         for z in &data.z5 {
             let side = side_of(dot(&data.n, z) > S::ZERO);
+            if only != 0 && side != only {
+                continue;
+            }
             for root in roots(k, dot(h4, z)).into_iter().flatten() {
                 push(root.at, BITS[1], side);
             }
@@ -423,12 +431,13 @@ fn walk<S: Scalar>(ends: &[End<S>; ENDS], start: u8, ours: bool) -> Option<S> {
 /// Joint `f` (0 or 1, turning about a line through the wrist center) of a candidate, moved to
 /// the value nearest its held one at which joints 4, 5, 6 and `f` itself fit their limits (see
 /// the module documentation), or `None` when they already do, none does, or the wrist is
-/// aligned (no wrist branch to follow). `shared` keeps the last position's ends for the other
-/// wrist branch of the same position.
+/// aligned (no wrist branch to follow). `shared` keeps the last position's ends (both wrist
+/// branches) for the other wrist branch of the same position; without it (a single
+/// candidate) only this branch's ends are worked out.
 fn free_arm_joint<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
     data: &WristData<S>,
-    shared: &mut Option<SharedEnds<S>>,
+    shared: Option<&mut Option<SharedEnds<S>>>,
     c: &Candidate<S>,
     f: usize,
     tol: S,
@@ -456,12 +465,18 @@ fn free_arm_joint<S: Scalar>(
     if !side.is_finite() || abs(side) <= S::of(1e-9).max(S::of(64.0) * S::EPSILON) {
         return None;
     }
+    let ours = side > S::ZERO;
+    let Some(shared) = shared else {
+        let only = if ours { 1 } else { -1 };
+        let ends = ends_of(joints, data, m, f, range_f, only);
+        return walk(&ends, start, ours).map(|offset| held + offset);
+    };
     let key = [S::of(f as f64), m[0], m[1], m[2]];
     if shared.as_ref().map_or(true, |(k, _)| *k != key) {
-        *shared = Some((key, ends_of(joints, data, m, f, range_f)));
+        *shared = Some((key, ends_of(joints, data, m, f, range_f, 0)));
     }
     let (_, ends) = shared.as_ref()?;
-    walk(ends, start, side > S::ZERO).map(|offset| held + offset)
+    walk(ends, start, ours).map(|offset| held + offset)
 }
 
 /// The joint limits as [`LimitTable::within`] compares them, worked out once per call: each
@@ -561,7 +576,9 @@ pub fn free_joint_1<S: Scalar>(
     let limits = LimitTable::new(joints, settings);
     let mut wrist_meets: Option<bool> = None;
     let mut data: Option<WristData<S>> = None;
-    let mut shared: Option<SharedEnds<S>> = None;
+    // Shared between the two wrist branches of one position: only with more than one
+    // candidate (`solve`, not `solve_branch`).
+    let mut shared: Option<Option<SharedEnds<S>>> = (candidates.len() > 1).then_some(None);
     for (i, c) in candidates.iter_mut().enumerate() {
         let Some(f) = free_joint_of(joints, settings, c) else {
             continue;
@@ -577,7 +594,7 @@ pub fn free_joint_1<S: Scalar>(
             aligned_joint_4(joints, c, tol)
         } else {
             let data = data.get_or_insert_with(|| WristData::new(joints, &to_base));
-            free_arm_joint(joints, data, &mut shared, c, f, tol)
+            free_arm_joint(joints, data, shared.as_mut(), c, f, tol)
         };
         let (Some(value), Some(&held)) = (chosen, c.model_values.get(f)) else {
             continue;
