@@ -224,7 +224,7 @@ pub fn sin_cos_f64(x: f64) -> (f64, f64) {
     const P3: f64 = 2.022_266_248_795_950_6e-21;
     const FRAC_2_PI: f64 = core::f64::consts::FRAC_2_PI;
     const LIMIT: f64 = 1.6e6;
-    if !(abs(x) <= LIMIT) {
+    if x.is_nan() || abs(x) > LIMIT {
         return libm::sincos(x);
     }
     // Adding and subtracting 1.5 · 2^52 rounds to the nearest whole number.
