@@ -377,8 +377,7 @@ fn ends_of<S: Scalar>(
     // can fill (four per limited wrist joint, two for the free joint's own limits): loop
     // bounds fixed by the arm, not the pose, every index provably in range (no panic path);
     // the unused ends (∞) stay last.
-    let limited = data.ranges.iter().filter(|r| r.is_some()).count();
-    let used = (4 * limited + if range_f.is_some() { 2 } else { 0 }).min(ENDS);
+    let used = slots(data, range_f);
     for pass in 0..used {
         for j in (pass + 1..used).rev() {
             if let Some([a, b]) = ends.get_mut(j - 1..=j) {
@@ -391,15 +390,23 @@ fn ends_of<S: Scalar>(
     ends
 }
 
+/// How many ends this arm's limits can give (an arm constant, at most [`ENDS`]): four per
+/// limited wrist joint (two limits, two roots each), two for the free joint's own limits.
+fn slots<S: Scalar>(data: &WristData<S>, range_f: Option<[S; 2]>) -> usize {
+    let limited = data.ranges.iter().filter(|r| r.is_some()).count();
+    (4 * limited + if range_f.is_some() { 2 } else { 0 }).min(ENDS)
+}
+
 /// Walks around the circle over the sorted ends real for one wrist branch: past each end one
 /// joint flips between inside and outside. The stretch after an end reaches to the next (or
 /// back to the held value, 2π on); where nothing is outside, its nearer end (moved inside) is
-/// a candidate. Returns the offset from the held value of the nearest one.
-fn walk<S: Scalar>(ends: &[End<S>; ENDS], start: u8, ours: bool) -> Option<S> {
-    // This branch's ends, in order; the rest at ∞.
+/// a candidate. Returns the offset from the held value of the nearest one. Only the first
+/// `used` slots can hold an end (see [`slots`]); the loops stop there.
+fn walk<S: Scalar>(ends: &[End<S>; ENDS], used: usize, start: u8, ours: bool) -> Option<S> {
+    // This branch's ends, in order; the rest (and every slot past `used`) at ∞.
     let mut mine = [(S::of(f64::INFINITY), 0u8); ENDS];
     let mut k = 0;
-    for e in ends {
+    for e in ends.iter().take(used) {
         if e.side == 0 || (e.side > 0) == ours {
             if let Some(slot) = mine.get_mut(k) {
                 *slot = (e.at, e.bit);
@@ -409,7 +416,7 @@ fn walk<S: Scalar>(ends: &[End<S>; ENDS], start: u8, ours: bool) -> Option<S> {
     }
     let mut state = start;
     let mut best: Option<(S, S)> = None;
-    for (i, &(d, bit)) in mine.iter().enumerate() {
+    for (i, &(d, bit)) in mine.iter().enumerate().take(used) {
         state ^= bit;
         let next = mine.get(i + 1).map_or(S::TAU, |e| e.0.min(S::TAU));
         if state != 0 || !d.is_finite() {
@@ -466,17 +473,18 @@ fn free_arm_joint<S: Scalar>(
         return None;
     }
     let ours = side > S::ZERO;
+    let used = slots(data, range_f);
     let Some(shared) = shared else {
         let only = if ours { 1 } else { -1 };
         let ends = ends_of(joints, data, m, f, range_f, only);
-        return walk(&ends, start, ours).map(|offset| held + offset);
+        return walk(&ends, used, start, ours).map(|offset| held + offset);
     };
     let key = [S::of(f as f64), m[0], m[1], m[2]];
     if shared.as_ref().map_or(true, |(k, _)| *k != key) {
         *shared = Some((key, ends_of(joints, data, m, f, range_f, 0)));
     }
     let (_, ends) = shared.as_ref()?;
-    walk(ends, start, ours).map(|offset| held + offset)
+    walk(ends, used, start, ours).map(|offset| held + offset)
 }
 
 /// The joint limits as [`LimitTable::within`] compares them, worked out once per call: each
