@@ -6,6 +6,9 @@
 //!
 //! - `bounded --list`: one line per measured call, in call order (`SCALAR ARM CALL CLASS`);
 //! - `bounded --run`: makes every call once, in that order;
+//! - `bounded --run-one N`: makes only the `N`-th call (1-based, the line of `--list`), to see
+//!   where one call's instructions go (`valgrind --tool=callgrind` and `callgrind_annotate`);
+//! - `bounded --dump`: every call's result, to compare two builds;
 //! - `bounded --stack`: the deepest stack each call reached, per arm, call and scalar, by
 //!   stack painting (see [`stack_depth`]);
 //! - `bounded --report FILE`: reads `SCALAR ARM CALL CLASS INSTRUCTIONS` lines and prints the
@@ -190,6 +193,40 @@ fn each_call<S: armforge_runtime::Scalar>(
     }
 }
 
+/// Every call's result (`Debug`), one line each: to check that a change to the solve paths
+/// keeps their answers (compare the output of two builds).
+fn dump_all() {
+    fn one<S: armforge_runtime::Scalar>(scalar: &str, arms: &[EmittedArm<S>]) {
+        for (arm, arm64) in arms.iter().zip(EMITTED_ARMS) {
+            for c in &cases(arm64) {
+                let pose = pose_of(arm.forward, c);
+                let q = c.joints.map(S::of);
+                let branch = (arm.branch_of)(&q);
+                println!(
+                    "{scalar} {} {} solve {:?}",
+                    arm.path,
+                    c.class,
+                    (arm.solve)(&pose)
+                );
+                println!(
+                    "{scalar} {} {} branch {:?}",
+                    arm.path,
+                    c.class,
+                    (arm.solve_branch)(&pose, branch)
+                );
+                println!(
+                    "{scalar} {} {} near {:?}",
+                    arm.path,
+                    c.class,
+                    (arm.solve_near)(&pose, &q)
+                );
+            }
+        }
+    }
+    one("f64", EMITTED_ARMS);
+    one("f32", EMITTED_ARMS_F32);
+}
+
 fn all_calls(mut visit: impl FnMut(String, &dyn Fn())) {
     each_call("f64", EMITTED_ARMS, &mut visit);
     each_call("f32", EMITTED_ARMS_F32, &mut visit);
@@ -336,6 +373,17 @@ fn main() {
     match args.first().map(String::as_str) {
         Some("--list") => all_calls(|label, _| println!("{label}")),
         Some("--run") => all_calls(|_, f| measure_one(f)),
+        Some("--dump") => dump_all(),
+        Some("--run-one") => {
+            let wanted: usize = args.get(1).and_then(|n| n.parse().ok()).unwrap_or(0);
+            let mut n = 0;
+            all_calls(|_, f| {
+                n += 1;
+                if n == wanted {
+                    measure_one(f);
+                }
+            });
+        }
         Some("--stack") => stack(),
         Some("--report") => report(args.get(1).map(String::as_str).unwrap_or("")),
         // `cargo bench` passes `--bench`: list how many calls there are, measure nothing.

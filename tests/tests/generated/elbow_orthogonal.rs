@@ -697,7 +697,7 @@ const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule = ::armforge_runti
         0.046265729382768336,
     ],
     facing: -1.0,
-    bend: [0.9901136168642846, 0.14026769300136338],
+    bend: [0.9901136168642846, 0.14026769300136335],
     up: 1.0,
     wrist_phase: 2.562407244323658,
     wrist_half_width: 1.5707963267948966,

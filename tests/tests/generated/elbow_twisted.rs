@@ -699,7 +699,7 @@ const FOLDED_LABELS: ::armforge_runtime::internal::FoldedRule = ::armforge_runti
         -0.14386582947451573,
     ],
     facing: -1.0,
-    bend: [-0.3686182725083974, 0.929580856716039],
+    bend: [-0.36861827250839746, 0.9295808567160389],
     up: 1.0,
     wrist_phase: 0.4459910611694241,
     wrist_half_width: 1.5707963267948968,

@@ -503,14 +503,20 @@ pub fn finish_one<S: Scalar>(
     c: &Candidate<S>,
     anchor: &[S; JOINTS],
 ) -> Result<Solution<S>, Unreachable<S>> {
-    let Some(at_limit) = passes(&c.checks, settings) else {
-        return Err(failure_of_one(joints, settings, c));
-    };
+    solution_of(joints, settings, c, anchor).ok_or_else(|| failure_of_one(joints, settings, c))
+}
+
+/// [`finish_one`] without the reason: `None` when the candidate is not a solution.
+#[inline(always)]
+fn solution_of<S: Scalar>(
+    joints: &[Joint<S>; JOINTS],
+    settings: &Settings<S>,
+    c: &Candidate<S>,
+    anchor: &[S; JOINTS],
+) -> Option<Solution<S>> {
+    let at_limit = passes(&c.checks, settings)?;
     let (values, inside) = convert(joints, &c.model_values, anchor, settings.limit_tolerance);
-    if !inside {
-        return Err(failure_of_one(joints, settings, c));
-    }
-    Ok(Solution {
+    inside.then(|| Solution {
         joints: values,
         branch: c.branch,
         flags: flags_of(c, at_limit),
@@ -556,7 +562,8 @@ pub fn nearest_candidate<S: Scalar>(
 ) -> Result<Solution<S>, Unreachable<S>> {
     let mut best: Option<(S, Solution<S>)> = None;
     for c in candidates {
-        let Ok(s) = finish_one(joints, settings, c, anchor) else {
+        // The reason is worked out once, from every candidate, only when none is left.
+        let Some(s) = solution_of(joints, settings, c, anchor) else {
             continue;
         };
         let d = distance(joints, settings, &s.joints, current);
