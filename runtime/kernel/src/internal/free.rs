@@ -242,19 +242,24 @@ impl<S: Scalar> WristData<S> {
         let ranges = [3, 4, 5].map(|j| model_range(&joints[j]));
         let n = cross(h4, h5);
         let n6 = cross(h5, h6);
-        let limits = |r: Option<[S; 2]>| r.unwrap_or([S::ZERO; 2]);
+        // Only a limited joint's limits are turned (a joint of a whole turn or more has none).
+        let zero = [[S::ZERO; 3]; 2];
         WristData {
             ranges,
             n,
-            z5: limits(ranges[1]).map(|l| turn(&joints[4], l).rotate(h6)),
-            r4: limits(ranges[0]).map(|l| {
-                let t4 = turn(&joints[3], l);
-                [t4.rotate(h5), t4.rotate(&n)]
+            z5: ranges[1].map_or(zero, |r| r.map(|l| turn(&joints[4], l).rotate(h6))),
+            r4: ranges[0].map_or([zero; 2], |r| {
+                r.map(|l| {
+                    let t4 = turn(&joints[3], l);
+                    [t4.rotate(h5), t4.rotate(&n)]
+                })
             }),
             g6: to_base(h6),
-            g_r6: limits(ranges[2]).map(|l| {
-                let t6 = turn(&joints[5], l);
-                [to_base(&t6.rotate_back(h5)), to_base(&t6.rotate_back(&n6))]
+            g_r6: ranges[2].map_or([zero; 2], |r| {
+                r.map(|l| {
+                    let t6 = turn(&joints[5], l);
+                    [to_base(&t6.rotate_back(h5)), to_base(&t6.rotate_back(&n6))]
+                })
             }),
         }
     }
@@ -276,13 +281,15 @@ struct End<S: Scalar> {
 type SharedEnds<S> = ([S; 4], [End<S>; ENDS]);
 
 /// Every end at the model values `m` for free joint `f` (see the module documentation),
-/// tagged with the wrist branch it is real for, sorted counterclockwise from `m[f]`.
+/// tagged with the wrist branch it is real for, sorted counterclockwise from `m[f]`; only
+/// those of wrist branch `only` when it is not zero.
 fn ends_of<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
     data: &WristData<S>,
     m: &[S; JOINTS],
     f: usize,
     range_f: Option<[S; 2]>,
+    only: i8,
 ) -> [End<S>; ENDS] {
     let (h4, h5, h6) = (&joints[3].axis, &joints[4].axis, &joints[5].axis);
     let held = m[f.min(1)];
@@ -316,6 +323,9 @@ fn ends_of<S: Scalar>(
     }; ENDS];
     let mut n_ends = 0;
     let mut push = |root: S, bit: u8, side: i8| {
+        if only != 0 && side != 0 && side != only {
+            return;
+        }
         if let Some(slot) = ends.get_mut(n_ends) {
             *slot = End {
                 at: wrap(root - held, S::PI),
@@ -330,6 +340,9 @@ fn ends_of<S: Scalar>(
         let k = coefficients(hf, &u4, &y6);
         for z in &data.z5 {
             let side = side_of(dot(&data.n, z) > S::ZERO);
+            if only != 0 && side != only {
+                continue;
+            }
             for root in roots(k, dot(h4, z)).into_iter().flatten() {
                 push(root.at, BITS[1], side);
             }
@@ -364,8 +377,7 @@ fn ends_of<S: Scalar>(
     // can fill (four per limited wrist joint, two for the free joint's own limits): loop
     // bounds fixed by the arm, not the pose, every index provably in range (no panic path);
     // the unused ends (∞) stay last.
-    let limited = data.ranges.iter().filter(|r| r.is_some()).count();
-    let used = (4 * limited + if range_f.is_some() { 2 } else { 0 }).min(ENDS);
+    let used = slots(data, range_f);
     for pass in 0..used {
         for j in (pass + 1..used).rev() {
             if let Some([a, b]) = ends.get_mut(j - 1..=j) {
@@ -378,15 +390,23 @@ fn ends_of<S: Scalar>(
     ends
 }
 
+/// How many ends this arm's limits can give (an arm constant, at most [`ENDS`]): four per
+/// limited wrist joint (two limits, two roots each), two for the free joint's own limits.
+fn slots<S: Scalar>(data: &WristData<S>, range_f: Option<[S; 2]>) -> usize {
+    let limited = data.ranges.iter().filter(|r| r.is_some()).count();
+    (4 * limited + if range_f.is_some() { 2 } else { 0 }).min(ENDS)
+}
+
 /// Walks around the circle over the sorted ends real for one wrist branch: past each end one
 /// joint flips between inside and outside. The stretch after an end reaches to the next (or
 /// back to the held value, 2π on); where nothing is outside, its nearer end (moved inside) is
-/// a candidate. Returns the offset from the held value of the nearest one.
-fn walk<S: Scalar>(ends: &[End<S>; ENDS], start: u8, ours: bool) -> Option<S> {
-    // This branch's ends, in order; the rest at ∞.
+/// a candidate. Returns the offset from the held value of the nearest one. Only the first
+/// `used` slots can hold an end (see [`slots`]); the loops stop there.
+fn walk<S: Scalar>(ends: &[End<S>; ENDS], used: usize, start: u8, ours: bool) -> Option<S> {
+    // This branch's ends, in order; the rest (and every slot past `used`) at ∞.
     let mut mine = [(S::of(f64::INFINITY), 0u8); ENDS];
     let mut k = 0;
-    for e in ends {
+    for e in ends.iter().take(used) {
         if e.side == 0 || (e.side > 0) == ours {
             if let Some(slot) = mine.get_mut(k) {
                 *slot = (e.at, e.bit);
@@ -396,7 +416,7 @@ fn walk<S: Scalar>(ends: &[End<S>; ENDS], start: u8, ours: bool) -> Option<S> {
     }
     let mut state = start;
     let mut best: Option<(S, S)> = None;
-    for (i, &(d, bit)) in mine.iter().enumerate() {
+    for (i, &(d, bit)) in mine.iter().enumerate().take(used) {
         state ^= bit;
         let next = mine.get(i + 1).map_or(S::TAU, |e| e.0.min(S::TAU));
         if state != 0 || !d.is_finite() {
@@ -418,12 +438,13 @@ fn walk<S: Scalar>(ends: &[End<S>; ENDS], start: u8, ours: bool) -> Option<S> {
 /// Joint `f` (0 or 1, turning about a line through the wrist center) of a candidate, moved to
 /// the value nearest its held one at which joints 4, 5, 6 and `f` itself fit their limits (see
 /// the module documentation), or `None` when they already do, none does, or the wrist is
-/// aligned (no wrist branch to follow). `shared` keeps the last position's ends for the other
-/// wrist branch of the same position.
+/// aligned (no wrist branch to follow). `shared` keeps the last position's ends (both wrist
+/// branches) for the other wrist branch of the same position; without it (a single
+/// candidate) only this branch's ends are worked out.
 fn free_arm_joint<S: Scalar>(
     joints: &[Joint<S>; JOINTS],
     data: &WristData<S>,
-    shared: &mut Option<SharedEnds<S>>,
+    shared: Option<&mut Option<SharedEnds<S>>>,
     c: &Candidate<S>,
     f: usize,
     tol: S,
@@ -451,48 +472,71 @@ fn free_arm_joint<S: Scalar>(
     if !side.is_finite() || abs(side) <= S::of(1e-9).max(S::of(64.0) * S::EPSILON) {
         return None;
     }
+    let ours = side > S::ZERO;
+    let used = slots(data, range_f);
+    let Some(shared) = shared else {
+        let only = if ours { 1 } else { -1 };
+        let ends = ends_of(joints, data, m, f, range_f, only);
+        return walk(&ends, used, start, ours).map(|offset| held + offset);
+    };
     let key = [S::of(f as f64), m[0], m[1], m[2]];
     if shared.as_ref().map_or(true, |(k, _)| *k != key) {
-        *shared = Some((key, ends_of(joints, data, m, f, range_f)));
+        *shared = Some((key, ends_of(joints, data, m, f, range_f, 0)));
     }
     let (_, ends) = shared.as_ref()?;
-    walk(ends, start, side > S::ZERO).map(|offset| held + offset)
+    walk(ends, used, start, ours).map(|offset| held + offset)
 }
 
-/// True when every joint of a candidate is within its limits: the comparisons of `finish_one`
-/// (each revolute value wrapped toward its range's center), without working out a reason.
-fn within_limits<S: Scalar>(
-    joints: &[Joint<S>; JOINTS],
-    settings: &Settings<S>,
-    c: &Candidate<S>,
-) -> bool {
-    let tol = settings.limit_tolerance;
-    let centers = super::centers(joints);
-    let mut inside = true;
-    for ((j, &m), &center) in joints.iter().zip(c.model_values.iter()).zip(centers.iter()) {
-        let q = (m - j.offset) * j.direction;
-        let v = if j.kind == JointKind::Revolute {
-            wrap(q, center)
-        } else {
-            q
-        };
-        inside &= v >= j.limits[0] - tol && v <= j.limits[1] + tol;
+/// The joint limits as [`LimitTable::within`] compares them, worked out once per call: each
+/// joint's range center (a revolute value is wrapped toward it) and its limits widened by the
+/// limit tolerance.
+struct LimitTable<S: Scalar> {
+    centers: [S; JOINTS],
+    lo: [S; JOINTS],
+    hi: [S; JOINTS],
+}
+
+impl<S: Scalar> LimitTable<S> {
+    fn new(joints: &[Joint<S>; JOINTS], settings: &Settings<S>) -> Self {
+        let tol = settings.limit_tolerance;
+        LimitTable {
+            centers: super::centers(joints),
+            lo: joints.each_ref().map(|j| j.limits[0] - tol),
+            hi: joints.each_ref().map(|j| j.limits[1] + tol),
+        }
     }
-    inside
-}
 
-/// True when a candidate passes its checks (is real) but some joint is outside its limits.
-fn outside_limits<S: Scalar>(
-    joints: &[Joint<S>; JOINTS],
-    settings: &Settings<S>,
-    c: &Candidate<S>,
-) -> bool {
-    super::finish::passes(&c.checks, settings).is_some() && !within_limits(joints, settings, c)
-}
+    /// True when every joint of a candidate is within its limits: the comparisons of
+    /// `finish_one` (each revolute value wrapped toward its range's center), without working
+    /// out a reason.
+    fn within(&self, joints: &[Joint<S>; JOINTS], c: &Candidate<S>) -> bool {
+        let mut inside = true;
+        for (i, (j, &m)) in joints.iter().zip(c.model_values.iter()).enumerate() {
+            let q = (m - j.offset) * j.direction;
+            let v = match (j.kind, self.centers.get(i)) {
+                (JointKind::Revolute, Some(&center)) => wrap(q, center),
+                _ => q,
+            };
+            let (lo, hi) = (self.lo.get(i), self.hi.get(i));
+            inside &= lo.is_some_and(|&lo| v >= lo) & hi.is_some_and(|&hi| v <= hi);
+        }
+        inside
+    }
 
-/// True when a candidate passes its checks and every joint is within its limits.
-fn fits<S: Scalar>(joints: &[Joint<S>; JOINTS], settings: &Settings<S>, c: &Candidate<S>) -> bool {
-    super::finish::passes(&c.checks, settings).is_some() && within_limits(joints, settings, c)
+    /// True when a candidate passes its checks (is real) but some joint is outside its limits.
+    fn outside(
+        &self,
+        joints: &[Joint<S>; JOINTS],
+        settings: &Settings<S>,
+        c: &Candidate<S>,
+    ) -> bool {
+        super::finish::passes(&c.checks, settings).is_some() && !self.within(joints, c)
+    }
+
+    /// True when a candidate passes its checks and every joint is within its limits.
+    fn fits(&self, joints: &[Joint<S>; JOINTS], settings: &Settings<S>, c: &Candidate<S>) -> bool {
+        super::finish::passes(&c.checks, settings).is_some() && self.within(joints, c)
+    }
 }
 
 /// Which joint (0-based) a candidate leaves free: 3 at an aligned wrist, 0 with the wrist
@@ -537,14 +581,17 @@ pub fn free_joint_1<S: Scalar>(
     let tol = settings.limit_tolerance;
     // Worked out once, for the first candidate that needs them: whether the wrist axes meet
     // (an arm constant), the wrist data, and the last position's ends.
+    let limits = LimitTable::new(joints, settings);
     let mut wrist_meets: Option<bool> = None;
     let mut data: Option<WristData<S>> = None;
-    let mut shared: Option<SharedEnds<S>> = None;
+    // Shared between the two wrist branches of one position: only with more than one
+    // candidate (`solve`, not `solve_branch`).
+    let mut shared: Option<Option<SharedEnds<S>>> = (candidates.len() > 1).then_some(None);
     for (i, c) in candidates.iter_mut().enumerate() {
         let Some(f) = free_joint_of(joints, settings, c) else {
             continue;
         };
-        if !outside_limits(joints, settings, c)
+        if !limits.outside(joints, settings, c)
             || !*wrist_meets.get_or_insert_with(|| {
                 wrist_center(joints, S::of(4.0) * settings.length_tolerance).is_some()
             })
@@ -555,7 +602,7 @@ pub fn free_joint_1<S: Scalar>(
             aligned_joint_4(joints, c, tol)
         } else {
             let data = data.get_or_insert_with(|| WristData::new(joints, &to_base));
-            free_arm_joint(joints, data, &mut shared, c, f, tol)
+            free_arm_joint(joints, data, shared.as_mut(), c, f, tol)
         };
         let (Some(value), Some(&held)) = (chosen, c.model_values.get(f)) else {
             continue;
@@ -577,7 +624,7 @@ pub fn free_joint_1<S: Scalar>(
         }
         if let Some(again) = rerun(&moved, i) {
             let same = again.wrist_aligned == c.wrist_aligned && again.on_axis_1 == c.on_axis_1;
-            if same && fits(joints, settings, &again) {
+            if same && limits.fits(joints, settings, &again) {
                 *c = again;
             }
         }
