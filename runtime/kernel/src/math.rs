@@ -232,32 +232,51 @@ pub fn sin_cos_f64(x: f64) -> (f64, f64) {
     let k = (x * FRAC_2_PI + ROUNDER) - ROUNDER;
     let r = ((x - k * P1) - k * P2) - k * P3;
     let z = r * r;
-    // 1/n! for odd n (sine) and even n (cosine), alternating in sign.
+    // 1/n! for odd n (sine) and even n (cosine), alternating in sign, each polynomial in
+    // z = r² evaluated by Estrin's scheme (pairs, then z², then z⁴: a short dependency chain).
+    let (z2, z4) = (z * z, (z * z) * (z * z));
+    let estrin = |c: [f64; 8]| {
+        let p01 = c[0] + c[1] * z;
+        let p23 = c[2] + c[3] * z;
+        let p45 = c[4] + c[5] * z;
+        let p67 = c[6] + c[7] * z;
+        (p01 + p23 * z2) + (p45 + p67 * z2) * z4
+    };
     let sine = r + r
         * z
-        * (-1.666_666_666_666_666_6e-1
-            + z * (8.333_333_333_333_333e-3
-                + z * (-1.984_126_984_126_984e-4
-                    + z * (2.755_731_922_398_589_3e-6
-                        + z * (-2.505_210_838_544_172e-8
-                            + z * (1.605_904_383_682_161_3e-10
-                                + z * (-7.647_163_731_819_816e-13
-                                    + z * 2.811_457_254_345_520_6e-15)))))));
+        * estrin([
+            -1.666_666_666_666_666_6e-1,
+            8.333_333_333_333_333e-3,
+            -1.984_126_984_126_984e-4,
+            2.755_731_922_398_589_3e-6,
+            -2.505_210_838_544_172e-8,
+            1.605_904_383_682_161_3e-10,
+            -7.647_163_731_819_816e-13,
+            2.811_457_254_345_520_6e-15,
+        ]);
     let cosine = 1.0
-        + z * (-0.5
-            + z * (4.166_666_666_666_666_4e-2
-                + z * (-1.388_888_888_888_889e-3
-                    + z * (2.480_158_730_158_73e-5
-                        + z * (-2.755_731_922_398_589e-7
-                            + z * (2.087_675_698_786_81e-9
-                                + z * (-1.147_074_559_772_972_5e-11
-                                    + z * 4.779_477_332_387_385e-14)))))));
-    match (k as i64) & 3 {
-        0 => (sine, cosine),
-        1 => (cosine, -sine),
-        2 => (-sine, -cosine),
-        _ => (-cosine, sine),
-    }
+        + z * estrin([
+            -0.5,
+            4.166_666_666_666_666_4e-2,
+            -1.388_888_888_888_889e-3,
+            2.480_158_730_158_73e-5,
+            -2.755_731_922_398_589e-7,
+            2.087_675_698_786_81e-9,
+            -1.147_074_559_772_972_5e-11,
+            4.779_477_332_387_385e-14,
+        ]);
+    // The quadrant `q = k mod 4` picks (sin, cos) = (s, c), (c, −s), (−s, −c) or (−c, s),
+    // through the bits (no branch for a predictor to miss on angles of any quadrant): an odd
+    // quadrant swaps the two, quadrants 2–3 negate the sine, quadrants 1–2 the cosine.
+    let q = (k as i64) as u64;
+    let swap = 0u64.wrapping_sub(q & 1);
+    let (s, c) = (sine.to_bits(), cosine.to_bits());
+    let sine_bits = (c & swap) | (s & !swap);
+    let cosine_bits = (s & swap) | (c & !swap);
+    (
+        f64::from_bits(sine_bits ^ ((q & 2) << 62)),
+        f64::from_bits(cosine_bits ^ ((q.wrapping_add(1) & 2) << 62)),
+    )
 }
 
 /// The real cube root of an `f64` in a fixed number of steps, with no table and no call
