@@ -1,5 +1,6 @@
-//! The evidence for each family: offsets, angles, link lengths, slide directions, reach and
-//! the singular configurations, all measured on the joint lines (metres, radians).
+//! The evidence of an arm's family ([`ArmEvidence`], one variant holding each family's own
+//! type, defined in its folder), what several families share (the shoulder, the reach, the
+//! singular configurations), all measured on the joint lines (metres, radians).
 
 use std::f64::consts::{FRAC_PI_2, PI};
 
@@ -8,6 +9,12 @@ use nalgebra::{Point3, Vector3};
 use super::context::Context;
 use super::lines::closest_points;
 use crate::family::{Judged, Value};
+
+pub use crate::family::cartesian::CartesianEvidence;
+pub use crate::family::cylindrical::CylindricalEvidence;
+pub use crate::family::elbow::ElbowEvidence;
+pub use crate::family::general::GeneralEvidence;
+pub use crate::family::polar::PolarEvidence;
 
 /// Joints 1 and 2 when both turn (elbow and polar).
 #[derive(Clone, Debug, PartialEq)]
@@ -27,87 +34,6 @@ pub struct Shoulder {
     /// shoulder point perpendicular to axis 2 (joints 2 and 3 never change it). For the elbow
     /// this plane also passes through the elbow point (the shoulder point's foot on axis 3).
     pub sideways_offset: f64,
-}
-
-/// Evidence of an elbow arm (R R R, axis 2 ∥ axis 3).
-#[derive(Clone, Debug, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
-pub struct ElbowEvidence {
-    /// Joints 1 and 2.
-    pub shoulder: Shoulder,
-    /// Upper arm: the distance between axes 2 and 3, metres.
-    pub upper_arm: f64,
-    /// Forearm: the distance of the wrist center from axis 3, metres.
-    pub forearm: f64,
-    /// The model value of joint 3 (radians, `(−π, π]`) at which the arm is stretched: the
-    /// wrist center farthest from axis 2.
-    pub stretched_at: f64,
-    /// The model value of joint 3 at which the arm is folded: the wrist center nearest axis 2.
-    pub folded_at: f64,
-    /// The distance of the wrist center from axis 2, `[|upper − fore|, upper + fore]`, metres.
-    pub reach_from_axis_2: [f64; 2],
-}
-
-/// Evidence of a polar arm (R R P, slide ⟂ axis 2).
-#[derive(Clone, Debug, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
-pub struct PolarEvidence {
-    /// Joints 1 and 2.
-    pub shoulder: Shoulder,
-    /// The unit direction of the slide of joint 3, base frame at zero.
-    pub slide_direction: [f64; 3],
-    /// The angle between the slide and axis 2 (π/2 for this family).
-    pub slide_angle_to_axis_2: f64,
-    /// How close the wrist center's line of travel passes to axis 2, metres.
-    pub closest_to_axis_2: f64,
-    /// The model value of joint 3 (metres) at which it passes closest.
-    pub closest_at: f64,
-    /// The distance of the wrist center from axis 2 within the slide's limits, metres.
-    pub reach_from_axis_2: [f64; 2],
-}
-
-/// Evidence of a cylindrical arm (R P P).
-#[derive(Clone, Debug, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
-pub struct CylindricalEvidence {
-    /// The unit slide directions of joints 2 and 3, base frame at zero.
-    pub slide_directions: [[f64; 3]; 2],
-    /// The angles of the slides of joints 2 and 3 with axis 1, `[0, π/2]`.
-    pub slide_angles_to_axis_1: [f64; 2],
-    /// The angle between the two slides, `[0, π/2]`.
-    pub angle_between_slides: f64,
-    /// The distance of the wrist center from axis 1 at zero, metres.
-    pub distance_from_axis_1: f64,
-}
-
-/// Evidence of a cartesian arm (P P P).
-#[derive(Clone, Debug, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
-pub struct CartesianEvidence {
-    /// The unit slide directions of joints 1, 2, 3, base frame.
-    pub slide_directions: [[f64; 3]; 3],
-    /// The angles between slides 1–2, 1–3 and 2–3, `[0, π/2]`.
-    pub angles: [f64; 3],
-    /// The angle by which slide 3 leaves the plane of slides 1 and 2.
-    pub slide_3_out_of_plane: f64,
-    /// The smallest singular value of the matrix of slide directions (1 for orthogonal slides).
-    pub independence: f64,
-}
-
-/// Evidence of a general arm (R R R with axes of no named family).
-#[derive(Clone, Debug, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize))]
-pub struct GeneralEvidence {
-    /// The length of the common normal of axes 1 and 2 (`a`), metres.
-    pub common_normal_1_2: f64,
-    /// The angle between the lines of axes 1 and 2 (`α`), `[0, π/2]`.
-    pub angle_1_2: f64,
-    /// The length of the common normal of axes 2 and 3, metres.
-    pub common_normal_2_3: f64,
-    /// The angle between the lines of axes 2 and 3, `(0, π/2]`.
-    pub angle_2_3: f64,
-    /// The distance of the wrist center from axis 3, metres.
-    pub wrist_center_from_axis_3: f64,
 }
 
 /// The family's own evidence.

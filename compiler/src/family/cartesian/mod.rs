@@ -17,7 +17,19 @@ use crate::classify::{decoupled, ArmEvidence, Geometry};
 use crate::model::Model;
 use crate::plan::Plan;
 
-pub use crate::classify::evidence::CartesianEvidence;
+/// Evidence of a cartesian arm (P P P).
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct CartesianEvidence {
+    /// The unit slide directions of joints 1, 2, 3, base frame.
+    pub slide_directions: [[f64; 3]; 3],
+    /// The angles between slides 1–2, 1–3 and 2–3, `[0, π/2]`.
+    pub angles: [f64; 3],
+    /// The angle by which slide 3 leaves the plane of slides 1 and 2.
+    pub slide_3_out_of_plane: f64,
+    /// The smallest singular value of the matrix of slide directions (1 for orthogonal slides).
+    pub independence: f64,
+}
 
 /// The cartesian family.
 pub struct Cartesian;

@@ -18,7 +18,19 @@ use crate::classify::{Reach, ReachOrigin, Singularity};
 use crate::model::Model;
 use crate::plan::Plan;
 
-pub use crate::classify::evidence::CylindricalEvidence;
+/// Evidence of a cylindrical arm (R P P).
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct CylindricalEvidence {
+    /// The unit slide directions of joints 2 and 3, base frame at zero.
+    pub slide_directions: [[f64; 3]; 2],
+    /// The angles of the slides of joints 2 and 3 with axis 1, `[0, π/2]`.
+    pub slide_angles_to_axis_1: [f64; 2],
+    /// The angle between the two slides, `[0, π/2]`.
+    pub angle_between_slides: f64,
+    /// The distance of the wrist center from axis 1 at zero, metres.
+    pub distance_from_axis_1: f64,
+}
 
 /// The cylindrical family.
 pub struct Cylindrical;

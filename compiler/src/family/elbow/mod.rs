@@ -22,7 +22,24 @@ use crate::classify::{decoupled, ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::Plan;
 
-pub use crate::classify::evidence::ElbowEvidence;
+/// Evidence of an elbow arm (R R R, axis 2 ∥ axis 3).
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct ElbowEvidence {
+    /// Joints 1 and 2.
+    pub shoulder: crate::classify::evidence::Shoulder,
+    /// Upper arm: the distance between axes 2 and 3, metres.
+    pub upper_arm: f64,
+    /// Forearm: the distance of the wrist center from axis 3, metres.
+    pub forearm: f64,
+    /// The model value of joint 3 (radians, `(−π, π]`) at which the arm is stretched: the
+    /// wrist center farthest from axis 2.
+    pub stretched_at: f64,
+    /// The model value of joint 3 at which the arm is folded: the wrist center nearest axis 2.
+    pub folded_at: f64,
+    /// The distance of the wrist center from axis 2, `[|upper − fore|, upper + fore]`, metres.
+    pub reach_from_axis_2: [f64; 2],
+}
 
 /// The elbow family.
 pub struct Elbow;

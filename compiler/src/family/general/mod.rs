@@ -14,11 +14,27 @@ use nalgebra::Point3;
 use super::data::{Judged, Part, Value, VerifyHints};
 use super::{Family, FamilyModule, Recognition};
 use crate::classify::context::Context;
-use crate::classify::evidence::{GeneralEvidence, Measured};
+use crate::classify::evidence::Measured;
 use crate::classify::reject::{Reason, Rejection};
 use crate::classify::{decoupled, ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::Plan;
+
+/// Evidence of a general arm (R R R with axes of no named family).
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct GeneralEvidence {
+    /// The length of the common normal of axes 1 and 2 (`a`), metres.
+    pub common_normal_1_2: f64,
+    /// The angle between the lines of axes 1 and 2 (`α`), `[0, π/2]`.
+    pub angle_1_2: f64,
+    /// The length of the common normal of axes 2 and 3, metres.
+    pub common_normal_2_3: f64,
+    /// The angle between the lines of axes 2 and 3, `(0, π/2]`.
+    pub angle_2_3: f64,
+    /// The distance of the wrist center from axis 3, metres.
+    pub wrist_center_from_axis_3: f64,
+}
 
 /// The general family.
 pub struct General;

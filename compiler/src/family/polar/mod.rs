@@ -21,7 +21,23 @@ use crate::classify::{decoupled, ArmEvidence, Geometry};
 use crate::model::Model;
 use crate::plan::Plan;
 
-pub use crate::classify::evidence::PolarEvidence;
+/// Evidence of a polar arm (R R P, slide ⟂ axis 2).
+#[derive(Clone, Debug, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize))]
+pub struct PolarEvidence {
+    /// Joints 1 and 2.
+    pub shoulder: crate::classify::evidence::Shoulder,
+    /// The unit direction of the slide of joint 3, base frame at zero.
+    pub slide_direction: [f64; 3],
+    /// The angle between the slide and axis 2 (π/2 for this family).
+    pub slide_angle_to_axis_2: f64,
+    /// How close the wrist center's line of travel passes to axis 2, metres.
+    pub closest_to_axis_2: f64,
+    /// The model value of joint 3 (metres) at which it passes closest.
+    pub closest_at: f64,
+    /// The distance of the wrist center from axis 2 within the slide's limits, metres.
+    pub reach_from_axis_2: [f64; 2],
+}
 
 /// The polar family.
 pub struct Polar;
