@@ -11,9 +11,10 @@ use std::process::Command;
 use armforge_compiler::classify::Family;
 use armforge_compiler::plan::build_plan;
 use armforge_compiler::plan::vec3::num;
+use armforge_compiler::plan::Arm;
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{joint_motion, Pose};
-use armforge_workbench::review::{review_sheet, Facts};
+use armforge_workbench::review::review_sheet;
 
 fn sheet(path: &str, text: &str) -> String {
     let (model, geometry) = classified(path, text);
@@ -95,11 +96,11 @@ fn bench_elbow_numbers_match_hand_worked_values() {
 
 /// Joints 1–3 (model values) from the sheet's equations with the sheet's constants, for a
 /// wrist-center target `ct`, every branch.
-fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64; 3]> {
+fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64; 3]> {
     let mut out = Vec::new();
     match family {
         Family::Elbow | Family::Polar => {
-            let k = f.joint_one();
+            let k = armforge_compiler::family::elbow::plan::constants(arm);
             let u = num::sub(&ct, &k.p1);
             let a = num::dot(&k.alpha, &u);
             let b = num::dot(&k.beta, &u);
@@ -110,11 +111,11 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
                 let c1 = (a * e - sigma * b * kk) / r2;
                 let s1 = (b * e + sigma * a * kk) / r2;
                 let t1 = s1.atan2(c1);
-                let w = num::add(&num::rotate(&k.h1, -t1, &u), &num::sub(&k.p1, &k.p2));
+                let w = num::add(&num::rotate(&k.h1, -t1, &u), &k.p1_minus_p2);
                 let d2 = num::dot(&w, &w) - num::dot(&k.h2, &w).powi(2);
                 if family == Family::Elbow {
-                    let el = f.elbow();
-                    let (l, v) = (num::norm(&el.l), num::norm(&el.v));
+                    let el = armforge_compiler::family::elbow::plan::constants(arm).two_link;
+                    let (l, v) = el.lengths();
                     let cpsi = ((d2 - l * l - v * v) / (2.0 * l * v)).clamp(-1.0, 1.0);
                     for bend in [1.0, -1.0] {
                         let psi = bend * (1.0 - cpsi * cpsi).sqrt().atan2(cpsi);
@@ -123,14 +124,14 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
                             &el.l,
                             &num::add(
                                 &num::scale(&el.v, phi.cos()),
-                                &num::scale(&el.hv, phi.sin()),
+                                &num::scale(&num::cross(&el.h, &el.v), phi.sin()),
                             ),
                         );
                         let t2 = num::dot(&k.h2, &num::cross(&x, &w)).atan2(num::dot(&x, &w));
                         out.push([t1, t2, el.sense * phi]);
                     }
                 } else {
-                    let p = f.polar();
+                    let p = armforge_compiler::family::polar::plan::constants(arm);
                     let pp = num::dot(&p.p, &p.p);
                     for sign in [1.0, -1.0] {
                         let s = -p.m + sign * (d2 - (pp - p.m * p.m)).max(0.0).sqrt();
@@ -142,8 +143,8 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
             }
         }
         Family::Cylindrical => {
-            let k = f.cylindrical();
-            let (h1, p1) = (f.h(1), f.p(1));
+            let k = armforge_compiler::family::cylindrical::plan::constants(arm);
+            let (h1, p1) = (k.h1, k.p1);
             let y = num::sub(&ct, &p1);
             let z = num::dot(&h1, &y);
             let radial = num::sub(&y, &num::scale(&h1, z));
@@ -158,14 +159,14 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
                 let x = num::add(&w, &num::scale(&k.d, s));
                 let t1 = num::dot(&h1, &num::cross(&x, &radial)).atan2(num::dot(&x, &radial));
                 let mut q = [t1, 0.0, 0.0];
-                q[k.pivot - 1] = sk;
-                q[k.other - 1] = s;
+                q[k.pivot] = sk;
+                q[k.other] = s;
                 out.push(q);
             }
         }
         Family::General => {
             use armforge_compiler::family::general::plan::Layout;
-            let k = armforge_compiler::family::general::plan::constants(&f.arm);
+            let k = armforge_compiler::family::general::plan::constants(arm);
             if k.layout != Layout::Skew {
                 return general_quadratic_solutions(&k, ct);
             }
@@ -226,8 +227,8 @@ fn sheet_position_solutions(family: Family, f: &Facts, ct: [f64; 3]) -> Vec<[f64
             }
         }
         Family::Cartesian => {
-            let inv = f.cartesian_inverse();
-            let shift = num::sub(&ct, &f.c());
+            let inv = armforge_compiler::family::cartesian::plan::slides_inverse(arm);
+            let shift = num::sub(&ct, &arm.wrist_center);
             out.push([
                 num::dot(&inv[0], &shift),
                 num::dot(&inv[1], &shift),
@@ -305,9 +306,9 @@ fn general_quadratic_solutions(
 
 /// Joints 4–6 (model values) from the sheet's wrist equations, both signs, for the rotation
 /// left to the wrist `r456 = (R1 R2 R3)ᵀ rot(G)`.
-fn sheet_wrist_solutions(f: &Facts, r456: &[[f64; 3]; 3]) -> Vec<[f64; 3]> {
-    let (h4, h5, h6) = (f.h(4), f.h(5), f.h(6));
-    let x6 = num::any_perpendicular(&h6);
+fn sheet_wrist_solutions(arm: &Arm, r456: &[[f64; 3]; 3]) -> Vec<[f64; 3]> {
+    let w = armforge_compiler::plan::wrist::WristAxes::of(arm);
+    let (h4, h5, h6, x6) = (w.h4, w.h5, w.h6, w.x6);
     let wrist = Pose {
         rotation: *r456,
         translation: [0.0; 3],
@@ -360,12 +361,12 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
         let (model, geometry) = classified(&path, &text);
         let solver = Solver::new(&model, &geometry);
         let plan = solver.plan();
-        if plan.arm.family.module().steps(plan).is_some() {
-            // A family that gives its steps as data (its numbers are the plan's constants
-            // themselves); these equations are the four decoupled families' pages.
+        if matches!(plan.arm.family, Family::ThreeParallel | Family::BaseWrist) {
+            // These equations are the pages of the families with a spherical wrist at joints
+            // 4–6 (the other two families' steps use the same constants as their plans).
             continue;
         }
-        let facts = Facts::new(&plan.arm);
+        let arm = &plan.arm;
         let joints = plan.arm.joints;
         for step in 0..20 {
             // Configurations spread over the limits (midpoints shifted by a fixed pattern).
@@ -387,7 +388,7 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
                 .compose(&pose)
                 .compose(&m.inverse())
                 .transform_point(&plan.arm.wrist_center);
-            let from_sheet = sheet_position_solutions(plan.arm.family, &facts, ct);
+            let from_sheet = sheet_position_solutions(plan.arm.family, arm, ct);
             for s in &solutions {
                 let theta: Vec<f64> = (0..3).map(|i| joints[i].model_value(s.joints[i])).collect();
                 let found = from_sheet.iter().any(|t| {
@@ -421,7 +422,7 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
                 let rot_g = mul(&transpose_mul(&b.rotation, &pose.rotation), &m_t);
                 let r456 = transpose_mul(&r123, &rot_g);
                 let wrist: Vec<f64> = (3..6).map(|i| joints[i].model_value(s.joints[i])).collect();
-                let from_sheet = sheet_wrist_solutions(&facts, &r456);
+                let from_sheet = sheet_wrist_solutions(arm, &r456);
                 assert!(
                     from_sheet
                         .iter()

@@ -47,6 +47,10 @@ pub enum Part {
     Text(String),
     /// A value.
     Value(Value),
+    /// An area (a squared length), square metres.
+    Area(f64),
+    /// A rotation matrix, its rows.
+    Rows([[f64; 3]; 3]),
 }
 
 impl Part {
@@ -65,6 +69,14 @@ impl Part {
     /// A plain number.
     pub fn number(x: f64) -> Part {
         Part::Value(Value::Number(x))
+    }
+    /// A unit direction.
+    pub fn direction(v: [f64; 3]) -> Part {
+        Part::Value(Value::Direction(v))
+    }
+    /// A point, metres.
+    pub fn point(v: [f64; 3]) -> Part {
+        Part::Value(Value::Point(v))
     }
 }
 
@@ -139,13 +151,26 @@ pub struct Step {
     pub text: String,
     /// The equations in symbols.
     pub equations: Vec<String>,
-    /// This arm's numbers, one line each.
+    /// What follows the equations, before this arm's numbers (Markdown; empty for nothing).
+    pub after: String,
+    /// This arm's numbers, one line each (none: the step has no numbers of its own).
     pub numbers: Vec<Vec<Part>>,
 }
+
+/// The inputs and symbols of §4 for a family with no particular ones (followed by the
+/// length unit).
+pub const INPUTS: &str = "Inputs: the target pose `T` (world frame) and two reference angles \
+    (the current values of the joints `solve_near` holds where they are free, zero otherwise). \
+    Symbols: `h_i` axis of joint i, `p_i` its point nearest the base origin, `θ_i` its model \
+    value (§1), `E_i(θ)` the motion of joint i, `R_i` its rotation, `x⊥h` the part of `x` \
+    perpendicular to `h`.";
 
 /// A family's §3 (method, one bullet each) and §4 (the steps).
 #[derive(Clone, Debug, PartialEq)]
 pub struct Steps {
+    /// §4's opening paragraph: the inputs and the symbols (Markdown, [`INPUTS`] unless the
+    /// family has more).
+    pub inputs: String,
     /// The method's bullets (Markdown).
     pub method: Vec<String>,
     /// The steps, in order.

@@ -20,6 +20,7 @@ pub mod base_wrist;
 pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
+pub mod decoupled_steps;
 pub mod elbow;
 pub mod general;
 pub mod polar;
@@ -170,10 +171,23 @@ pub trait FamilyModule: Sync {
     }
     /// What the solve needs, as measured on the plan's arm: one line of parts each.
     fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>>;
-    /// The review sheet's method and steps with this arm's numbers, for a family that gives
-    /// them as data (`None`: the sheet's own pages for the four decoupled families).
-    fn steps(&self, _plan: &Plan) -> Option<Steps> {
+    /// The review sheet's method (§3) and steps (§4) with this arm's numbers, read from the
+    /// constants the family's plan is built from.
+    fn steps(&self, plan: &Plan) -> Steps;
+    /// The review sheet's §7 lines particular to the family (where its solutions merge, what
+    /// bounds the placed point), measured on the plan's arm: one line of parts each.
+    fn reach_lines(&self, _plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        Vec::new()
+    }
+    /// The review sheet's §6 equation of one of the family's own singular configurations (in
+    /// the plan's terms, with what the solver does there); `None` for the shared ones.
+    fn singular_equation(&self, _plan: &Plan, _singularity: &Singularity) -> Option<Vec<Part>> {
         None
+    }
+    /// The quantity that vanishes when the placed point is on axis 1 (joint 1 free), in the
+    /// symbols of the family's §4.
+    fn on_axis_1_quantity(&self) -> &'static str {
+        "`r² = a² + b² = 0`"
     }
     /// Where `verify` places samples and how it judges them, for the arm's joints (SI).
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints;

@@ -74,5 +74,7 @@ pub fn part(p: &Part, s: &Show) -> String {
             Value::Point(x) => s.point(&x),
             Value::Number(x) => s.num(x),
         },
+        Part::Area(x) => s.area(*x),
+        Part::Rows(m) => s.rows(m),
     }
 }

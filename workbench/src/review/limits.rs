@@ -3,81 +3,25 @@
 
 use std::fmt::Write as _;
 
-use super::facts::Facts;
 use super::show::{self, Show};
 use crate::report::{Outcome, Report};
 use crate::verify::Thresholds;
-use armforge_compiler::classify::{ArmEvidence, Geometry};
-use armforge_compiler::plan::vec3::num;
+use armforge_compiler::classify::Geometry;
 use armforge_compiler::plan::wrist::ALIGNED_SINE;
 use armforge_compiler::plan::Plan;
 
-/// Writes §7.
-pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, facts: &Facts, s: &Show) {
+/// Writes §7: the reach `inspect` reports, then the family's own lines
+/// ([`armforge_compiler::family::FamilyModule::reach_lines`]).
+pub fn reach(out: &mut String, report: &Report, geometry: &Geometry, plan: &Plan, s: &Show) {
     let _ = writeln!(out, "## 7. Reach\n");
     if let Outcome::Solvable(solvable) = &report.outcome {
-        match &solvable.reach {
-            Some(item) => {
-                let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
-            }
-            None if solvable.pattern == "P P P" => {
-                let _ = writeln!(
-                    out,
-                    "- the wrist center moves in the box the three slides span (their limits in §1)"
-                );
-            }
-            None => {}
+        if let Some(item) = &solvable.reach {
+            let _ = writeln!(out, "- {}: {}", item.label, show::minus(&item.shown));
         }
     }
-    match &geometry.arm {
-        ArmEvidence::Elbow(e) => {
-            let _ = writeln!(
-                out,
-                "- distance `d` of the wrist center from axis 2: {} (folded, `||L| − |V||`) to \
-                 {} (stretched, `|L| + |V|`); beyond them no elbow solution (`cos ψ` outside \
-                 [−1, 1])",
-                s.len(e.reach_from_axis_2[0]),
-                s.len(e.reach_from_axis_2[1])
-            );
-        }
-        ArmEvidence::Polar(p) => {
-            let _ = writeln!(
-                out,
-                "- distance `d` of the wrist center from axis 2 within the slide's limits: {} to \
-                 {}; nearest approach of its line of travel {} (the slide's roots merge)",
-                s.len(p.reach_from_axis_2[0]),
-                s.len(p.reach_from_axis_2[1]),
-                s.len(p.closest_to_axis_2)
-            );
-        }
-        ArmEvidence::Cylindrical(_) => {
-            let k = facts.cylindrical();
-            let _ = writeln!(
-                out,
-                "- the slide's two roots merge where `ρ² = |W⊥D|²` (`|D|²` = {}); nearer axis 1 \
-                 than `|W⊥D|` the target is out of reach",
-                s.num(num::dot(&k.d, &k.d))
-            );
-        }
-        ArmEvidence::Cartesian(_) => {}
-        ArmEvidence::General(_) => {
-            let _ = writeln!(
-                out,
-                "- the reach of a general arm has no simple closed form: where two roots of the \
-                 quartic merge, two solutions meet (the position Jacobian is singular there)"
-            );
-        }
-        _ => {}
-    }
-    if let ArmEvidence::Elbow(e) = &geometry.arm {
-        if !e.shoulder.axes_1_2_meet {
-            let _ = writeln!(
-                out,
-                "- shoulder offset {}: the back posture (reaching over axis 1) may reach less \
-                 far than the front one",
-                s.len(e.shoulder.offset)
-            );
-        }
+    for line in geometry.family.module().reach_lines(plan, geometry) {
+        let text: String = line.iter().map(|p| super::family::part(p, s)).collect();
+        let _ = writeln!(out, "- {text}");
     }
     let _ = writeln!(
         out,

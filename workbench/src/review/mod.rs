@@ -13,7 +13,6 @@
 
 pub mod arm;
 pub mod branches;
-pub mod facts;
 pub mod family;
 pub mod limits;
 pub mod listing;
@@ -24,7 +23,6 @@ pub mod steps;
 
 use std::fmt::Write as _;
 
-pub use facts::Facts;
 use show::Show;
 
 use crate::report::{self, Outcome};
@@ -40,20 +38,19 @@ pub const SAFETY: &str = "**Safety.** A generated solver is not a safety functio
 /// The review sheet of a classified arm and its plan, as Markdown.
 pub fn review_sheet(model: &Model, geometry: &Geometry, plan: &Plan) -> String {
     let s = Show { units: model.units };
-    let facts = Facts::new(&plan.arm);
     let report = report::build(model, &geometry.tolerances, &Ok(geometry.clone()));
     let mut out = String::new();
     header(&mut out, model);
     arm::write(&mut out, model, &s);
     family::write(&mut out, &report, geometry, plan, &s);
-    steps::write(&mut out, plan, &facts, &s);
+    steps::write(&mut out, plan, &s);
     branches::write(&mut out, plan, &s);
     let texts = match &report.outcome {
         Outcome::Solvable(solvable) => solvable.singularities.clone(),
         Outcome::Rejected(_) => Vec::new(),
     };
-    singular::write(&mut out, model, geometry, plan, &texts, &facts, &s);
-    limits::reach(&mut out, &report, geometry, &facts, &s);
+    singular::write(&mut out, geometry, plan, &texts, &s);
+    limits::reach(&mut out, &report, geometry, plan, &s);
     limits::tolerances(&mut out, &report, plan, &s);
     listing::write(&mut out, plan, &s);
     out

@@ -3,24 +3,14 @@
 
 use std::fmt::Write as _;
 
-use super::facts::Facts;
 use super::show::{self, Show};
 use armforge_compiler::classify::{Geometry, Singularity};
-use armforge_compiler::model::Model;
-use armforge_compiler::plan::vec3::num;
-use armforge_compiler::plan::wrist::ALIGNED_SINE;
+use armforge_compiler::family::decoupled_steps::aligned_at;
+use armforge_compiler::plan::wrist::{WristAxes, ALIGNED_SINE};
 use armforge_compiler::plan::Plan;
 
 /// Writes §6.
-pub fn write(
-    out: &mut String,
-    model: &Model,
-    geometry: &Geometry,
-    plan: &Plan,
-    texts: &[String],
-    facts: &Facts,
-    s: &Show,
-) {
+pub fn write(out: &mut String, geometry: &Geometry, plan: &Plan, texts: &[String], s: &Show) {
     let _ = writeln!(out, "## 6. Singular configurations\n");
     let _ = writeln!(
         out,
@@ -29,12 +19,18 @@ pub fn write(
     );
     for (sing, text) in geometry.singularities.iter().zip(texts) {
         let _ = writeln!(out, "- **{}**", show::minus(text));
-        let _ = writeln!(out, "  - {}", equation(model, sing, plan, facts, s));
+        let _ = writeln!(out, "  - {}", equation(geometry, sing, plan, s));
     }
     let _ = writeln!(out);
 }
 
-fn equation(model: &Model, sing: &Singularity, plan: &Plan, f: &Facts, s: &Show) -> String {
+/// The equation of a singular configuration: the family's own words for its own, else the
+/// shared ones.
+fn equation(geometry: &Geometry, sing: &Singularity, plan: &Plan, s: &Show) -> String {
+    let module = geometry.family.module();
+    if let Some(parts) = module.singular_equation(plan, sing) {
+        return parts.iter().map(|p| super::family::part(p, s)).collect();
+    }
     let length_tol = s.small_len(plan.settings.length_tolerance);
     match sing {
         Singularity::WristAligned { .. } => format!(
@@ -42,7 +38,7 @@ fn equation(model: &Model, sing: &Singularity, plan: &Plan, f: &Facts, s: &Show)
              h6·h4)` = {} (model value). Only `θ4 ± θ6` is fixed there: when `|z⊥h4|` < \
              {ALIGNED_SINE:e} the solver keeps joint 4 at the reference (plus a half turn for \
              the second representative) and solves joint 6.",
-            s.angle(f.aligned_at())
+            s.angle(aligned_at(&WristAxes::of(&plan.arm)))
         ),
         Singularity::WristNeverAligned => {
             "the twists of the wrist differ, so `z` never lines up with `h4`: no wrist \
@@ -50,12 +46,7 @@ fn equation(model: &Model, sing: &Singularity, plan: &Plan, f: &Facts, s: &Show)
                 .into()
         }
         Singularity::WristCenterOnAxis1 { reachable } => {
-            let family = f.arm.family;
-            let quantity = if matches!(family, armforge_compiler::classify::Family::Cylindrical) {
-                "`ρ² = 0`"
-            } else {
-                "`r² = a² + b² = 0`"
-            };
+            let quantity = module.on_axis_1_quantity();
             let reach = match reachable {
                 Some(false) => " The slides' limits keep the wrist center from getting there.",
                 _ => "",
@@ -81,44 +72,11 @@ fn equation(model: &Model, sing: &Singularity, plan: &Plan, f: &Facts, s: &Show)
              not perpendicular); around it `k² = r² − e² = 0` on a cone about axis 1.",
             free_point.map_or_else(|| "a point".to_string(), |p| s.point(&p))
         ),
-        Singularity::Stretched { joint_3_at } => {
-            let k = f.elbow();
-            let (l, v) = (num::norm(&k.l), num::norm(&k.v));
-            format!(
-                "`cos ψ = 1`: `d = |L| + |V|` = {} from axis 2, `θ3 = s3 φ0` = {} (model \
-                 value; joint value {}); the elbow's two roots merge.",
-                s.len(l + v),
-                s.angle(*joint_3_at),
-                joint(model, 2, *joint_3_at, s)
-            )
-        }
-        Singularity::Folded { joint_3_at } => {
-            let k = f.elbow();
-            let (l, v) = (num::norm(&k.l), num::norm(&k.v));
-            format!(
-                "`cos ψ = −1`: `d = ||L| − |V||` = {} from axis 2, `θ3` = {} (model value; \
-                 joint value {}); the elbow's two roots merge.",
-                s.len((l - v).abs()),
-                s.angle(*joint_3_at),
-                joint(model, 2, *joint_3_at, s)
-            )
-        }
         Singularity::Described { equation, .. } => equation.clone(),
-        Singularity::SlideClosestToAxis2 { joint_3_at } => {
-            let k = f.polar();
-            let nearest = (num::dot(&k.p, &k.p) - k.m * k.m).max(0.0).sqrt();
-            format!(
-                "`d² = |P|² − m²` (`d` = {}): the slide's two roots merge at `s = −m` = {}.",
-                s.len(nearest),
-                s.len(*joint_3_at)
-            )
+        Singularity::Stretched { .. }
+        | Singularity::Folded { .. }
+        | Singularity::SlideClosestToAxis2 { .. } => {
+            "where the family's equations of §4 lose a joint (its reach boundaries, §7).".into()
         }
-    }
-}
-
-fn joint(model: &Model, index: usize, model_value: f64, s: &Show) -> String {
-    match model.joints.get(index) {
-        Some(j) => s.joint_value(&j.joint, j.joint.joint_value(model_value)),
-        None => s.num(model_value),
     }
 }

@@ -333,8 +333,8 @@ impl FamilyModule for BaseWrist {
         ["joints 6–4", "joints 1–3"]
     }
 
-    fn steps(&self, plan: &Plan) -> Option<Steps> {
-        Some(steps::steps(plan))
+    fn steps(&self, plan: &Plan) -> Steps {
+        steps::steps(plan)
     }
 
     fn decoupling(&self) -> &'static str {

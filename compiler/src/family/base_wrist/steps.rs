@@ -46,6 +46,7 @@ pub fn steps(plan: &Plan) -> Steps {
                 "G = B⁻¹ T M⁻¹,   G⁻¹ = E6(−θ6) E5(−θ5) E4(−θ4) E3(−θ3) E2(−θ2) E1(−θ1)".into(),
                 "b_t = G⁻¹ b   (the mirrored arm's wrist-center target)".into(),
             ],
+            after: String::new(),
             numbers: vec![vec![t("b = "), Part::Value(Value::Point(b))]],
         },
         Step {
@@ -54,6 +55,7 @@ pub fn steps(plan: &Plan) -> Steps {
                    joints 1–3 place `b` at `b_t` by the equations of their family."
                 .into(),
             equations: vec!["E'_i(θ) = E_{7−i}(−θ),   i = 1, 2, 3".into()],
+            after: String::new(),
             numbers: vec![axis(5), axis(4), axis(3)],
         },
         Step {
@@ -65,8 +67,13 @@ pub fn steps(plan: &Plan) -> Steps {
                 "R'456 = (R'1 R'2 R'3)ᵀ rot(G⁻¹)".into(),
                 "θ3, θ2: subproblem 2;  θ1: subproblem 1".into(),
             ],
+            after: String::new(),
             numbers: vec![axis(2), axis(1), axis(0)],
         },
     ];
-    Steps { method, steps }
+    Steps {
+        inputs: crate::family::data::INPUTS.to_string(),
+        method,
+        steps,
+    }
 }

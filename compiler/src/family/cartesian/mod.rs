@@ -2,6 +2,7 @@
 //! evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::{Matrix3, Point3};
@@ -186,6 +187,16 @@ impl FamilyModule for Cartesian {
             Part::number(det),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
+    }
+
+    fn reach_lines(&self, _plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        vec![vec![Part::text(
+            "the wrist center moves in the box the three slides span (their limits in §1)",
+        )]]
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

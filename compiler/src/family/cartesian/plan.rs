@@ -16,7 +16,7 @@ pub fn rules(_arm: &Arm) -> (ShoulderRule, ElbowRule) {
 }
 
 /// `U⁻¹` by Cramer's rule (rows: `(u2 × u3, u3 × u1, u1 × u2) / det`).
-fn inverse(u: [[f64; 3]; 3]) -> [[f64; 3]; 3] {
+pub fn inverse(u: [[f64; 3]; 3]) -> [[f64; 3]; 3] {
     let [u1, u2, u3] = u;
     let det = num::dot(&u1, &num::cross(&u2, &u3));
     let det = if det.abs() > 1e-300 { det } else { 1.0 };
@@ -27,9 +27,14 @@ fn inverse(u: [[f64; 3]; 3]) -> [[f64; 3]; 3] {
     ]
 }
 
+/// `U⁻¹` of the arm's three slides, as the plan holds it.
+pub fn slides_inverse(arm: &Arm) -> [[f64; 3]; 3] {
+    inverse([arm.axis(0), arm.axis(1), arm.axis(2)])
+}
+
 /// Builds joints 1–3 of a cartesian arm (one branch).
 pub fn solve(g: &mut Graph, arm: &Arm, _t: &crate::plan::Target, ct: V3) -> Vec<ArmSolution> {
-    let inv = inverse([arm.axis(0), arm.axis(1), arm.axis(2)]);
+    let inv = slides_inverse(arm);
     let delta = vec3::add_const(g, ct, num::scale(&arm.wrist_center, -1.0));
     let delta = vec3::name(
         g,

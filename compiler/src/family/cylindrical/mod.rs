@@ -2,6 +2,7 @@
 //! spherical wrist. Recognition and evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::Point3;
@@ -168,6 +169,23 @@ impl FamilyModule for Cylindrical {
             Part::angle(decoupled::line_angle(arm, 1, 3)),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
+    }
+
+    fn reach_lines(&self, plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        let d = plan::constants(&plan.arm).d;
+        vec![vec![
+            Part::text("the slide's two roots merge where `ρ² = |W⊥D|²` (`|D|²` = "),
+            Part::number(crate::plan::vec3::num::dot(&d, &d)),
+            Part::text("); nearer axis 1 than `|W⊥D|` the target is out of reach"),
+        ]]
+    }
+
+    fn on_axis_1_quantity(&self) -> &'static str {
+        "`ρ² = 0`"
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

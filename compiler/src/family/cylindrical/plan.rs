@@ -17,26 +17,33 @@ use crate::plan::vec3::{self, num, V3};
 use crate::plan::{ArmSolution, Target, Turn};
 use crate::units::tidy;
 
-struct Constants {
-    h1: [f64; 3],
-    p1: [f64; 3],
-    /// Index (1 or 2) of the eliminated slide, and of the solved one.
-    pivot: usize,
-    other: usize,
+/// The constants of a cylindrical arm.
+#[derive(Clone, Copy, Debug)]
+pub struct Constants {
+    /// Axis 1.
+    pub h1: [f64; 3],
+    /// The point of axis 1.
+    pub p1: [f64; 3],
+    /// Index (0-based: 1 or 2) of the eliminated slide `k`.
+    pub pivot: usize,
+    /// Index (0-based: 1 or 2) of the solved slide `j`.
+    pub other: usize,
     /// `h1 · (c − p1)`.
-    height: f64,
-    /// `h1 · u_k`, `h1 · u_j`.
-    along_k: f64,
-    along_j: f64,
+    pub height: f64,
+    /// `h1 · u_k`.
+    pub along_k: f64,
+    /// `h1 · u_j`.
+    pub along_j: f64,
     /// Radial part at zero target height: `(c − p1)⊥ − height / along_k · u_k⊥`.
-    a0: [f64; 3],
+    pub a0: [f64; 3],
     /// Radial change per unit of target height: `u_k⊥ / along_k`.
-    a1: [f64; 3],
+    pub a1: [f64; 3],
     /// Radial change per unit of the solved slide.
-    d: [f64; 3],
+    pub d: [f64; 3],
 }
 
-fn constants(arm: &Arm) -> Constants {
+/// The constants the plan of a cylindrical arm is built from.
+pub fn constants(arm: &Arm) -> Constants {
     let h1 = arm.axis(0);
     let p1 = arm.point(0);
     let (u2, u3) = (arm.axis(1), arm.axis(2));

@@ -2,6 +2,7 @@
 //! Recognition and evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use std::f64::consts::PI;
 
@@ -171,6 +172,63 @@ impl FamilyModule for Elbow {
             Part::text(" from axis 3"),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
+    }
+
+    fn reach_lines(&self, _plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>> {
+        let ArmEvidence::Elbow(e) = &geometry.arm else {
+            return Vec::new();
+        };
+        let mut lines = vec![vec![
+            Part::text("distance `d` of the wrist center from axis 2: "),
+            Part::length(e.reach_from_axis_2[0]),
+            Part::text(" (folded, `||L| − |V||`) to "),
+            Part::length(e.reach_from_axis_2[1]),
+            Part::text(
+                " (stretched, `|L| + |V|`); beyond them no elbow solution (`cos ψ` outside \
+                 [−1, 1])",
+            ),
+        ]];
+        if !e.shoulder.axes_1_2_meet {
+            lines.push(vec![
+                Part::text("shoulder offset "),
+                Part::length(e.shoulder.offset),
+                Part::text(
+                    ": the back posture (reaching over axis 1) may reach less far than the \
+                     front one",
+                ),
+            ]);
+        }
+        lines
+    }
+
+    fn singular_equation(&self, plan: &Plan, singularity: &Singularity) -> Option<Vec<Part>> {
+        let (upper, fore) = plan::constants(&plan.arm).two_link.lengths();
+        let joint_3 = |at: f64| Part::angle(plan.arm.joints[2].joint_value(at));
+        match *singularity {
+            Singularity::Stretched { joint_3_at } => Some(vec![
+                Part::text("`cos ψ = 1`: `d = |L| + |V|` = "),
+                Part::length(upper + fore),
+                Part::text(" from axis 2, `θ3 = s3 φ0` = "),
+                Part::angle(joint_3_at),
+                Part::text(" (model value; joint value "),
+                joint_3(joint_3_at),
+                Part::text("); the elbow's two roots merge."),
+            ]),
+            Singularity::Folded { joint_3_at } => Some(vec![
+                Part::text("`cos ψ = −1`: `d = ||L| − |V||` = "),
+                Part::length((upper - fore).abs()),
+                Part::text(" from axis 2, `θ3` = "),
+                Part::angle(joint_3_at),
+                Part::text(" (model value; joint value "),
+                joint_3(joint_3_at),
+                Part::text("); the elbow's two roots merge."),
+            ]),
+            _ => None,
+        }
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

@@ -21,26 +21,32 @@ use crate::plan::{sign, ArmSolution, Target, Turn};
 use crate::units::tidy;
 use armforge_runtime::internal::{ElbowRule, ShoulderRule};
 
-/// The constants of the elbow family.
-struct Constants {
-    h1: [f64; 3],
-    p1: [f64; 3],
-    h2: [f64; 3],
+/// The constants of the elbow family (joint 1 is shared with the polar family).
+#[derive(Clone, Copy, Debug)]
+pub struct Constants {
+    /// Axis 1.
+    pub h1: [f64; 3],
+    /// The point of axis 1.
+    pub p1: [f64; 3],
+    /// Axis 2.
+    pub h2: [f64; 3],
     /// `h2 − (h1·h2) h1`.
-    alpha: [f64; 3],
+    pub alpha: [f64; 3],
     /// `h1 × h2`.
-    beta: [f64; 3],
+    pub beta: [f64; 3],
     /// `h1 · h2`.
-    cos12: f64,
+    pub cos12: f64,
     /// `h2 · (c − p2) − h2 · (p1 − p2)`.
-    e0: f64,
-    p1_minus_p2: [f64; 3],
+    pub e0: f64,
+    /// `p1 − p2`.
+    pub p1_minus_p2: [f64; 3],
     /// Joints 2 and 3 placing the wrist center: the upper arm `L` from axis 2 to axis 3 and
     /// the forearm `V` from axis 3 to the wrist center, both ⟂ h2.
-    two_link: TwoLink,
+    pub two_link: TwoLink,
 }
 
-fn constants(arm: &Arm) -> Constants {
+/// The constants the plan of an elbow arm is built from.
+pub fn constants(arm: &Arm) -> Constants {
     let c = arm.wrist_center;
     let (h1, p1) = (arm.axis(0), arm.point(0));
     let (h2, p2) = (arm.axis(1), arm.point(1));

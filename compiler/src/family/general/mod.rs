@@ -6,6 +6,7 @@
 
 pub mod axes_1_2;
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::Point3;
@@ -180,6 +181,17 @@ impl FamilyModule for General {
             )),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
+    }
+
+    fn reach_lines(&self, _plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
+        vec![vec![Part::text(
+            "the reach of a general arm has no simple closed form: where two roots of the \
+             quartic merge, two solutions meet (the position Jacobian is singular there)",
+        )]]
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

@@ -2,6 +2,7 @@
 //! Recognition and evidence here, the plan in [`plan`].
 
 pub mod plan;
+pub mod steps;
 
 use armforge_runtime::Joint;
 use nalgebra::Point3;
@@ -144,6 +145,42 @@ impl FamilyModule for Polar {
             Part::angle(decoupled::line_angle(arm, 2, 3)),
         ]);
         lines
+    }
+
+    fn steps(&self, plan: &Plan) -> crate::family::Steps {
+        steps::steps(plan)
+    }
+
+    fn reach_lines(&self, _plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>> {
+        let ArmEvidence::Polar(p) = &geometry.arm else {
+            return Vec::new();
+        };
+        vec![vec![
+            Part::text("distance `d` of the wrist center from axis 2 within the slide's limits: "),
+            Part::length(p.reach_from_axis_2[0]),
+            Part::text(" to "),
+            Part::length(p.reach_from_axis_2[1]),
+            Part::text("; nearest approach of its line of travel "),
+            Part::length(p.closest_to_axis_2),
+            Part::text(" (the slide's roots merge)"),
+        ]]
+    }
+
+    fn singular_equation(&self, plan: &Plan, singularity: &Singularity) -> Option<Vec<Part>> {
+        let Singularity::SlideClosestToAxis2 { joint_3_at } = *singularity else {
+            return None;
+        };
+        let k = plan::constants(&plan.arm);
+        let nearest = (crate::plan::vec3::num::dot(&k.p, &k.p) - k.m * k.m)
+            .max(0.0)
+            .sqrt();
+        Some(vec![
+            Part::text("`d² = |P|² − m²` (`d` = "),
+            Part::length(nearest),
+            Part::text("): the slide's two roots merge at `s = −m` = "),
+            Part::length(joint_3_at),
+            Part::text("."),
+        ])
     }
 
     fn verify_hints(&self, joints: &[Joint], geometry: &Geometry) -> VerifyHints {

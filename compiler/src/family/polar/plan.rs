@@ -19,17 +19,23 @@ use crate::plan::vec3::{self, num, V3};
 use crate::plan::{ArmSolution, Target, Turn};
 use crate::units::tidy;
 
-struct Constants {
-    h1: [f64; 3],
-    h2: [f64; 3],
-    u3: [f64; 3],
+/// The constants of joints 2 and 3 of a polar arm (joint 1 is the elbow family's).
+#[derive(Clone, Copy, Debug)]
+pub struct Constants {
+    /// Axis 1.
+    pub h1: [f64; 3],
+    /// Axis 2.
+    pub h2: [f64; 3],
+    /// The slide's direction ⟂ h2, unit.
+    pub u3: [f64; 3],
     /// `(c − p2)⊥h2`.
-    p: [f64; 3],
+    pub p: [f64; 3],
     /// `P · u3`.
-    m: f64,
+    pub m: f64,
 }
 
-fn constants(arm: &Arm) -> Constants {
+/// The constants the plan of a polar arm is built from.
+pub fn constants(arm: &Arm) -> Constants {
     let h2 = arm.axis(1);
     let u3 = num::unit(&num::perpendicular(&arm.axis(2), &h2));
     let p = num::perpendicular(&num::sub(&arm.wrist_center, &arm.point(1)), &h2);

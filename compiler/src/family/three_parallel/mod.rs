@@ -487,8 +487,8 @@ impl FamilyModule for ThreeParallel {
         ]
     }
 
-    fn steps(&self, plan: &Plan) -> Option<Steps> {
-        Some(steps::steps(plan))
+    fn steps(&self, plan: &Plan) -> Steps {
+        steps::steps(plan)
     }
 
     fn verify_hints(&self, _joints: &[Joint], geometry: &Geometry) -> VerifyHints {

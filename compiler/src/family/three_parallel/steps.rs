@@ -55,6 +55,7 @@ pub fn steps(plan: &Plan) -> Steps {
                    zero; `G q` is where the target puts it."
                 .into(),
             equations: vec!["G = B⁻¹ T M⁻¹,   q_t = G q".into()],
+            after: String::new(),
             numbers: vec![
                 vec![t("q = "), point(k.meeting)],
                 vec![t("h = "), dir(k.h), t(" (axes 2–4)")],
@@ -74,6 +75,7 @@ pub fn steps(plan: &Plan) -> Steps {
                  k = √(r² − e²),  σ = ±1"
                     .into(),
             ],
+            after: String::new(),
             numbers: vec![
                 vec![t("h1 = "), dir(h1), t(",  p1 = "), point(p1)],
                 vec![
@@ -94,6 +96,7 @@ pub fn steps(plan: &Plan) -> Steps {
                 "a5 = (h6 − (h5·h6) h5) · h,  b5 = (h5 × h6) · h".into(),
                 "θ6: turn w⊥ onto (R5ᵀ h)⊥ about h6 (subproblem 1)".into(),
             ],
+            after: String::new(),
             numbers: vec![
                 vec![t("h5 = "), dir(h5), t(",  h6 = "), dir(h6)],
                 vec![
@@ -118,6 +121,7 @@ pub fn steps(plan: &Plan) -> Steps {
                 "d² = |L|² + |V|² + 2 |L| |V| cos ψ,   φ3 = φ0 ± ψ,   θ3 = s3 φ3".into(),
                 "θ4 = s4 (Φ − θ2 − φ3)".into(),
             ],
+            after: String::new(),
             numbers: vec![
                 vec![t("x = "), dir(k.across), t(",  o4 = "), point(k.on_axis_4)],
                 vec![
@@ -138,5 +142,9 @@ pub fn steps(plan: &Plan) -> Steps {
             ],
         },
     ];
-    Steps { method, steps }
+    Steps {
+        inputs: crate::family::data::INPUTS.to_string(),
+        method,
+        steps,
+    }
 }
