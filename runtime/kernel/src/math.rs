@@ -120,11 +120,12 @@ macro_rules! scalar {
             fn cbrt(self) -> Self {
                 cube_root(self as f64) as $t
             }
-            // `atan2` and `sin_cos` are the `libm` crate's with and without `std`: the solver
-            // gives the same bits on a host and on a `no_std` target (tests on the host
-            // stand for the firmware), and they take fewer instructions than the platform's
-            // (measured with callgrind against glibc on x86-64: `atan2` 117 against 157,
-            // `atan2f` 104 against 146, `sincos` and `sqrt` together 109 against 139).
+            // `atan2` (the `libm` crate's) and `sin_cos` (`sin_cos_f64` for `f64`, the `libm`
+            // crate's for `f32`) are the same with and without `std`: the solver gives the
+            // same bits on a host and on a `no_std` target (tests on the host stand for the
+            // firmware), and they take fewer instructions than the platform's (measured with
+            // callgrind against glibc on x86-64: `atan2` 117 against 157, `atan2f` 104
+            // against 146, `sincos` and `sqrt` together 109 against 139).
             #[inline(always)]
             fn atan2(self, x: Self) -> Self {
                 libm::$atan2(self, x)
