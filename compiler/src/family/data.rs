@@ -165,6 +165,21 @@ pub const INPUTS: &str = "Inputs: the target pose `T` (world frame) and two refe
     value (§1), `E_i(θ)` the motion of joint i, `R_i` its rotation, `x⊥h` the part of `x` \
     perpendicular to `h`.";
 
+/// Words in a line of numbers (short for [`Part::text`]).
+pub(crate) fn t(s: &str) -> Part {
+    Part::text(s)
+}
+
+/// The line `h{joint} = …,  p{joint} = …` of one joint's axis and point.
+pub(crate) fn axis_line(joint: usize, h: [f64; 3], p: [f64; 3]) -> Vec<Part> {
+    vec![
+        t(&format!("h{joint} = ")),
+        Part::direction(h),
+        t(&format!(",  p{joint} = ")),
+        Part::point(p),
+    ]
+}
+
 /// A family's §3 (method, one bullet each) and §4 (the steps).
 #[derive(Clone, Debug, PartialEq)]
 pub struct Steps {

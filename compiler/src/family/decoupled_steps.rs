@@ -4,7 +4,7 @@
 //! [`crate::plan::wrist::WristAxes`]). A family adds its method bullet and its steps for
 //! joints 1–3 ([`decoupled`]).
 
-use crate::family::data::{Part, Step, Steps};
+use crate::family::data::{t, Part, Step, Steps};
 use crate::plan::vec3::num;
 use crate::plan::wrist::WristAxes;
 use crate::plan::Plan;
@@ -16,11 +16,6 @@ pub const INPUTS: &str = "Inputs: the target pose `T` (rotation `R_T`, translati
     point nearest the base origin, `θ_i` its model value (§1), `c` the wrist center at zero, \
     `E_i(θ)` the motion of joint i, `R_i` its rotation, `x⊥h` the part of `x` perpendicular to \
     `h`.";
-
-/// Words.
-pub(crate) fn t(s: &str) -> Part {
-    Part::text(s)
-}
 
 /// The review pages of a decoupled arm: `method` says how joints 1–3 are solved (one bullet),
 /// `position` are their steps, between the wrist-center target and the wrist.

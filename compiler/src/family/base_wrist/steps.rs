@@ -1,13 +1,8 @@
 //! The review sheet's method and steps of an arm with its wrist at the base, with the plan's
 //! constants.
 
-use crate::family::data::{Part, Step, Steps};
-use crate::family::Value;
+use crate::family::data::{t, Part, Step, Steps};
 use crate::plan::Plan;
-
-fn t(s: &str) -> Part {
-    Part::text(s)
-}
 
 /// The method and the steps, as [`super::plan::build`] builds them.
 pub fn steps(plan: &Plan) -> Steps {
@@ -31,9 +26,9 @@ pub fn steps(plan: &Plan) -> Steps {
     let axis = |i: usize| {
         vec![
             t(&format!("joint {}: h = ", i + 1)),
-            Part::Value(Value::Direction(arm.axis(i))),
+            Part::direction(arm.axis(i)),
             t(",  p = "),
-            Part::Value(Value::Point(arm.point(i))),
+            Part::point(arm.point(i)),
         ]
     };
     let steps = vec![
@@ -47,7 +42,7 @@ pub fn steps(plan: &Plan) -> Steps {
                 "b_t = G⁻¹ b   (the mirrored arm's wrist-center target)".into(),
             ],
             after: String::new(),
-            numbers: vec![vec![t("b = "), Part::Value(Value::Point(b))]],
+            numbers: vec![vec![t("b = "), Part::point(b)]],
         },
         Step {
             title: "Joints 6, 5, 4 (the mirrored arm's joints 1–3)".into(),

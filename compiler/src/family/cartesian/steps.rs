@@ -1,8 +1,9 @@
 //! The review sheet's method and steps of a cartesian arm, with the inverse its plan holds
 //! ([`super::plan::slides_inverse`]).
 
+use crate::family::data::t;
 use crate::family::data::{Part, Step, Steps};
-use crate::family::decoupled_steps::{decoupled, t};
+use crate::family::decoupled_steps::decoupled;
 use crate::plan::Plan;
 
 /// §3's bullet on joints 1–3.

@@ -2,8 +2,9 @@
 //! built from ([`super::plan::constants`]).
 
 use super::plan::{constants, Constants};
+use crate::family::data::{axis_line, t};
 use crate::family::data::{Part, Step, Steps};
-use crate::family::decoupled_steps::{decoupled, t};
+use crate::family::decoupled_steps::decoupled;
 use crate::plan::vec3::num;
 use crate::plan::Plan;
 
@@ -43,12 +44,7 @@ fn slides(k: &Constants) -> Step {
         ],
         after: String::new(),
         numbers: vec![
-            vec![
-                t("h1 = "),
-                Part::direction(k.h1),
-                t(",  p1 = "),
-                Part::point(k.p1),
-            ],
+            axis_line(1, k.h1, k.p1),
             vec![
                 t(&format!("k = slide {p}, j = slide {j};  h1·u_k = ")),
                 Part::number(k.along_k),

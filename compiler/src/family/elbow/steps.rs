@@ -2,8 +2,9 @@
 //! from ([`super::plan::constants`]). Joint 1 ([`joint_one`]) is shared with the polar family.
 
 use super::plan::{constants, Constants};
+use crate::family::data::{axis_line, t};
 use crate::family::data::{Part, Step, Steps};
-use crate::family::decoupled_steps::{decoupled, t};
+use crate::family::decoupled_steps::decoupled;
 use crate::plan::vec3::num;
 use crate::plan::Plan;
 
@@ -48,18 +49,8 @@ pub(crate) fn joint_one(k: &Constants) -> Step {
                 the arm cannot enter); joint 1 free when `r² = 0` (§6)."
             .into(),
         numbers: vec![
-            vec![
-                t("h1 = "),
-                Part::direction(k.h1),
-                t(",  p1 = "),
-                Part::point(k.p1),
-            ],
-            vec![
-                t("h2 = "),
-                Part::direction(k.h2),
-                t(",  p2 = "),
-                Part::point(p2),
-            ],
+            axis_line(1, k.h1, k.p1),
+            axis_line(2, k.h2, p2),
             vec![t("a  = "), Part::direction(k.alpha), t(" · u")],
             vec![t("b  = "), Part::direction(k.beta), t(" · u")],
             vec![

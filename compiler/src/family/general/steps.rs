@@ -3,8 +3,9 @@
 //! are parallel ([`Layout`]).
 
 use super::plan::{constants, Constants, Layout};
+use crate::family::data::t;
 use crate::family::data::{Part, Step, Steps};
-use crate::family::decoupled_steps::{decoupled, t};
+use crate::family::decoupled_steps::decoupled;
 use crate::plan::vec3::num;
 use crate::plan::Plan;
 

@@ -2,8 +2,9 @@
 //! from ([`super::plan::constants`]; joint 1 is the elbow family's).
 
 use super::plan::{constants, Constants};
+use crate::family::data::t;
 use crate::family::data::{Part, Step, Steps};
-use crate::family::decoupled_steps::{decoupled, t};
+use crate::family::decoupled_steps::decoupled;
 use crate::family::elbow;
 use crate::plan::vec3::num;
 use crate::plan::Plan;

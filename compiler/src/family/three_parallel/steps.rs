@@ -2,21 +2,9 @@
 //! ([`Layout`]).
 
 use super::plan::Layout;
-use crate::family::data::{Part, Step, Steps};
+use crate::family::data::{axis_line, t, Part, Step, Steps};
 use crate::plan::vec3::num;
 use crate::plan::Plan;
-
-fn dir(v: [f64; 3]) -> Part {
-    Part::Value(crate::family::Value::Direction(v))
-}
-
-fn point(v: [f64; 3]) -> Part {
-    Part::Value(crate::family::Value::Point(v))
-}
-
-fn t(s: &str) -> Part {
-    Part::text(s)
-}
 
 /// The method and the steps, as the plan builds them.
 pub fn steps(plan: &Plan) -> Steps {
@@ -57,8 +45,8 @@ pub fn steps(plan: &Plan) -> Steps {
             equations: vec!["G = B⁻¹ T M⁻¹,   q_t = G q".into()],
             after: String::new(),
             numbers: vec![
-                vec![t("q = "), point(k.meeting)],
-                vec![t("h = "), dir(k.h), t(" (axes 2–4)")],
+                vec![t("q = "), Part::point(k.meeting)],
+                vec![t("h = "), Part::direction(k.h), t(" (axes 2–4)")],
             ],
         },
         Step {
@@ -77,7 +65,7 @@ pub fn steps(plan: &Plan) -> Steps {
             ],
             after: String::new(),
             numbers: vec![
-                vec![t("h1 = "), dir(h1), t(",  p1 = "), point(p1)],
+                axis_line(1, h1, p1),
                 vec![
                     t("h · (q − p1) = "),
                     Part::length(num::dot(&k.h, &num::sub(&k.meeting, &p1))),
@@ -98,7 +86,12 @@ pub fn steps(plan: &Plan) -> Steps {
             ],
             after: String::new(),
             numbers: vec![
-                vec![t("h5 = "), dir(h5), t(",  h6 = "), dir(h6)],
+                vec![
+                    t("h5 = "),
+                    Part::direction(h5),
+                    t(",  h6 = "),
+                    Part::direction(h6),
+                ],
                 vec![
                     t("a5 = "),
                     Part::number(a5),
@@ -123,7 +116,12 @@ pub fn steps(plan: &Plan) -> Steps {
             ],
             after: String::new(),
             numbers: vec![
-                vec![t("x = "), dir(k.across), t(",  o4 = "), point(k.on_axis_4)],
+                vec![
+                    t("x = "),
+                    Part::direction(k.across),
+                    t(",  o4 = "),
+                    Part::point(k.on_axis_4),
+                ],
                 vec![
                     t("|L| = "),
                     Part::length(upper),
