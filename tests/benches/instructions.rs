@@ -89,8 +89,7 @@ fn measure(calls: usize, mut f: impl FnMut(usize)) {
 }
 
 /// `CALLS` hand-written all-solution solves with the math library `M`.
-fn hand_all<M: Math>(out: &mut [[f64; JOINTS]; 8]) -> usize {
-    let samples = reference::samples();
+fn hand_all<M: Math>(samples: &[Sample], out: &mut [[f64; JOINTS]; 8]) -> usize {
     measure(CALLS, |i| {
         black_box(hand::solve_all::<M>(&samples[i % samples.len()].pose, out));
     });
@@ -98,8 +97,7 @@ fn hand_all<M: Math>(out: &mut [[f64; JOINTS]; 8]) -> usize {
 }
 
 /// `CALLS` hand-written one-branch solves (each sample's own branch) with `M`.
-fn hand_one<M: Math>(branches: &[(bool, f64, f64)]) -> usize {
-    let samples = reference::samples();
+fn hand_one<M: Math>(samples: &[Sample], branches: &[(bool, f64, f64)]) -> usize {
     measure(CALLS, |i| {
         let (back, e, w) = branches[i % samples.len()];
         black_box(hand::solve_one::<M>(
@@ -113,8 +111,7 @@ fn hand_one<M: Math>(branches: &[(bool, f64, f64)]) -> usize {
 }
 
 /// `CALLS` hand-written DH forwards with `M`.
-fn hand_forward<M: Math>() -> usize {
-    let samples = reference::samples();
+fn hand_forward<M: Math>(samples: &[Sample]) -> usize {
     measure(CALLS, |i| {
         black_box(hand::forward::<M>(&samples[i % samples.len()].joints));
     });
@@ -167,12 +164,12 @@ fn run(name: &str) -> Option<usize> {
             });
             CALLS
         }
-        Some("hand/solve_all") => hand_all::<Platform>(&mut out),
-        Some("hand/solve_one") => hand_one::<Platform>(&hand_branches),
-        Some("hand/forward") => hand_forward::<Platform>(),
-        Some("hand-libm/solve_all") => hand_all::<LibmCrate>(&mut out),
-        Some("hand-libm/solve_one") => hand_one::<LibmCrate>(&hand_branches),
-        Some("hand-libm/forward") => hand_forward::<LibmCrate>(),
+        Some("hand/solve_all") => hand_all::<Platform>(&samples, &mut out),
+        Some("hand/solve_one") => hand_one::<Platform>(&samples, &hand_branches),
+        Some("hand/forward") => hand_forward::<Platform>(&samples),
+        Some("hand-libm/solve_all") => hand_all::<LibmCrate>(&samples, &mut out),
+        Some("hand-libm/solve_one") => hand_one::<LibmCrate>(&samples, &hand_branches),
+        Some("hand-libm/forward") => hand_forward::<LibmCrate>(&samples),
         Some("numeric/dls_nearby") => {
             measure(NUMERIC_CALLS, |i| {
                 let seed = reference::nearby_seed(&s(i).joints);

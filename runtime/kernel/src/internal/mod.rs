@@ -25,7 +25,7 @@ pub use labels::*;
 
 use core::f64::consts::PI;
 
-use crate::math::{abs, cross, dot, rotation_tolerance, round, sin_cos, Scalar};
+use crate::math::{abs, cross, dot, rotation_tolerance, round, round_small, sin_cos, Scalar};
 use crate::model::Joint;
 use crate::pose::Pose;
 use crate::solution::{Branch, PoseProblem, Unreachable, JOINTS};
@@ -161,15 +161,12 @@ pub(crate) fn inv_tau<S: Scalar>() -> S {
     S::of(1.0 / core::f64::consts::TAU)
 }
 
-/// `x` rounded to a whole number, branch-free: adding and subtracting `1.5 / ε` (`1.5 · 2^52`
-/// for `f64`, `1.5 · 2^23` for `f32`) rounds a value of magnitude below `0.5 / ε` to the
-/// nearest whole number (ties to even) with two additions, no call and no branch; larger
-/// values fall back to `round`.
+/// `x` rounded to a whole number: [`round_small`] for a value of magnitude below `0.5 / ε`
+/// (a predictable branch), `round` for larger ones.
 #[inline(always)]
 pub(crate) fn round_fast<S: Scalar>(x: S) -> S {
-    let rounder = S::of(1.5) / S::EPSILON;
     if abs(x) < S::of(0.5) / S::EPSILON {
-        (x + rounder) - rounder
+        round_small(x)
     } else {
         round(x)
     }
