@@ -55,6 +55,8 @@ pub enum ArmEvidence {
     ThreeParallel(crate::family::three_parallel::ThreeParallelEvidence),
     /// Axes 1–3 meet: the wrist at the base.
     BaseWrist(crate::family::base_wrist::BaseWristEvidence),
+    /// Axes 2–4 meet: a wrist in the middle.
+    MidWrist(crate::family::mid_wrist::MidWristEvidence),
 }
 
 /// What a reach is measured from.

@@ -23,6 +23,7 @@ pub mod data;
 pub mod decoupled_steps;
 pub mod elbow;
 pub mod general;
+pub mod mid_wrist;
 pub mod polar;
 pub mod three_parallel;
 
@@ -55,6 +56,8 @@ pub enum Family {
     /// Axes 1–3 meet (a wrist at the base), joints 6, 5, 4 read from the tool of a family
     /// above.
     BaseWrist,
+    /// Six revolute joints, axes 2–4 meeting in a point (a wrist in the middle).
+    MidWrist,
 }
 
 impl Family {
@@ -93,6 +96,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &general::GENERAL,
     &three_parallel::THREE_PARALLEL,
     &base_wrist::BASE_WRIST,
+    &mid_wrist::MID_WRIST,
 ];
 
 /// What a family found on an arm it recognises.

@@ -234,6 +234,9 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     if family == Family::BaseWrist {
         return sample_base_wrist(seed, options);
     }
+    if family == Family::MidWrist {
+        return sample_mid_wrist(seed, options);
+    }
     if family == Family::ThreeParallel {
         // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
         // seeds: every angle.
@@ -340,7 +343,9 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
-        Family::ThreeParallel | Family::BaseWrist => unreachable!("built above"),
+        Family::ThreeParallel | Family::BaseWrist | Family::MidWrist => {
+            unreachable!("built above")
+        }
         Family::Cartesian => {
             let u1 = rng.direction();
             let u2 = rng.direction_away_from(&u1, 0.8);
@@ -592,6 +597,73 @@ fn sample_base_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
     let geometry = match classify(&model, &Tolerances::default()) {
         Ok(g) if g.family == Family::BaseWrist => g,
         other => panic!("sample wrist-at-base arm {seed}: classified as {other:?}"),
+    };
+    (model, geometry)
+}
+
+/// A random arm with a wrist in the middle: axes 2, 3, 4 meet at a random point `b` at right
+/// angles (a wrist that reaches every orientation), axis 1 and axis 5 pass 0.2–0.6 m from
+/// `b`, and axes 5 and 6 are, by `seed`, apart at a random angle, meeting, or parallel.
+fn sample_mid_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
+    let mut rng = SampleRng::new(seed.wrapping_mul(7937).wrapping_add(91));
+    let range = options.revolute_range;
+    let b = rng.point(0.5);
+    let h2 = rng.direction();
+    let h3 = rng.perpendicular(&h2);
+    let h4 = rng.perpendicular(&h3);
+    let on_axis =
+        |rng: &mut SampleRng, h: &[f64; 3]| num::add(&b, &num::scale(h, rng.range(-0.2, 0.2)));
+    let off = |rng: &mut SampleRng, h: &[f64; 3]| {
+        let away = num::scale(&rng.perpendicular(h), rng.range(0.2, 0.6));
+        num::add(&num::add(&b, &away), &num::scale(h, rng.range(-0.2, 0.2)))
+    };
+    let h1 = rng.direction();
+    let p1 = off(&mut rng, &h1);
+    let h5 = rng.direction();
+    let p5 = off(&mut rng, &h5);
+    let (h6, p6) = match seed % 3 {
+        0 => (
+            rng.direction_away_from(&h5, 0.85),
+            num::add(&p5, &rng.point(0.3)),
+        ),
+        1 => (
+            rng.direction_away_from(&h5, 0.85),
+            num::add(&p5, &num::scale(&h5, rng.range(-0.2, 0.2))),
+        ),
+        _ => {
+            let apart = num::scale(&rng.perpendicular(&h5), rng.range(0.1, 0.4));
+            (num::scale(&h5, rng.sign()), num::add(&p5, &apart))
+        }
+    };
+    let mut joints = [
+        revolute(h1, p1, range),
+        revolute(h2, on_axis(&mut rng, &h2), range),
+        revolute(h3, on_axis(&mut rng, &h3), range),
+        revolute(h4, on_axis(&mut rng, &h4), range),
+        revolute(h5, p5, range),
+        revolute(h6, p6, range),
+    ];
+    if options.random_zero {
+        for j in joints.iter_mut() {
+            j.direction = rng.sign();
+            j.offset = rng.range(-1.0, 1.0);
+        }
+    }
+    let tool = Pose {
+        rotation: rng.rotation(),
+        translation: num::add(&p6, &num::scale(&rng.direction(), rng.range(0.0, 0.2))),
+    };
+    let base = rng.pose(1.0);
+    let model = named_model(
+        format!("sample_mid_wrist_{seed}"),
+        &joints,
+        tool,
+        base,
+        format!("<sample mid-wrist {seed}>"),
+    );
+    let geometry = match classify(&model, &Tolerances::default()) {
+        Ok(g) if g.family == Family::MidWrist => g,
+        other => panic!("sample mid-wrist arm {seed}: classified as {other:?}"),
     };
     (model, geometry)
 }

@@ -730,165 +730,165 @@ fn candidates(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -896,40 +896,40 @@ fn candidates(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -938,218 +938,218 @@ fn candidates(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -1160,8 +1160,8 @@ fn candidates(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -1190,8 +1190,8 @@ fn candidates(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -1199,25 +1199,25 @@ fn candidates(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -1294,7 +1294,7 @@ fn candidates(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -1312,8 +1312,8 @@ fn candidates(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -1328,7 +1328,7 @@ fn candidates(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -1379,8 +1379,8 @@ fn candidates(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -1388,12 +1388,12 @@ fn candidates(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -1483,7 +1483,7 @@ fn candidates(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -1501,8 +1501,8 @@ fn candidates(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -1517,7 +1517,7 @@ fn candidates(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -1568,8 +1568,8 @@ fn candidates(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -1577,12 +1577,12 @@ fn candidates(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -1672,7 +1672,7 @@ fn candidates(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -1690,8 +1690,8 @@ fn candidates(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -1706,7 +1706,7 @@ fn candidates(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -1757,8 +1757,8 @@ fn candidates(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -1766,12 +1766,12 @@ fn candidates(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -4207,165 +4207,165 @@ fn branch_1(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -4373,40 +4373,40 @@ fn branch_1(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -4415,218 +4415,218 @@ fn branch_1(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -4637,8 +4637,8 @@ fn branch_1(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -4667,8 +4667,8 @@ fn branch_1(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -4676,25 +4676,25 @@ fn branch_1(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -4771,7 +4771,7 @@ fn branch_1(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -4789,8 +4789,8 @@ fn branch_1(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -4805,7 +4805,7 @@ fn branch_1(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -4856,8 +4856,8 @@ fn branch_1(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -4865,12 +4865,12 @@ fn branch_1(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -4960,7 +4960,7 @@ fn branch_1(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -4978,8 +4978,8 @@ fn branch_1(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -4994,7 +4994,7 @@ fn branch_1(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -5045,8 +5045,8 @@ fn branch_1(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -5054,12 +5054,12 @@ fn branch_1(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -5149,7 +5149,7 @@ fn branch_1(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -5167,8 +5167,8 @@ fn branch_1(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -5183,7 +5183,7 @@ fn branch_1(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -5234,8 +5234,8 @@ fn branch_1(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -5243,12 +5243,12 @@ fn branch_1(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -6080,165 +6080,165 @@ fn branch_2(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -6246,40 +6246,40 @@ fn branch_2(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -6288,218 +6288,218 @@ fn branch_2(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -6510,8 +6510,8 @@ fn branch_2(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -6540,8 +6540,8 @@ fn branch_2(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -6549,25 +6549,25 @@ fn branch_2(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -6644,7 +6644,7 @@ fn branch_2(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -6662,8 +6662,8 @@ fn branch_2(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -6678,7 +6678,7 @@ fn branch_2(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -6729,8 +6729,8 @@ fn branch_2(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -6738,12 +6738,12 @@ fn branch_2(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -6833,7 +6833,7 @@ fn branch_2(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -6851,8 +6851,8 @@ fn branch_2(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -6867,7 +6867,7 @@ fn branch_2(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -6918,8 +6918,8 @@ fn branch_2(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -6927,12 +6927,12 @@ fn branch_2(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -7022,7 +7022,7 @@ fn branch_2(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -7040,8 +7040,8 @@ fn branch_2(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -7056,7 +7056,7 @@ fn branch_2(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -7107,8 +7107,8 @@ fn branch_2(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -7116,12 +7116,12 @@ fn branch_2(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -7953,165 +7953,165 @@ fn branch_3(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -8119,40 +8119,40 @@ fn branch_3(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -8161,218 +8161,218 @@ fn branch_3(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -8383,8 +8383,8 @@ fn branch_3(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -8413,8 +8413,8 @@ fn branch_3(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -8422,25 +8422,25 @@ fn branch_3(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -8517,7 +8517,7 @@ fn branch_3(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -8535,8 +8535,8 @@ fn branch_3(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -8551,7 +8551,7 @@ fn branch_3(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -8602,8 +8602,8 @@ fn branch_3(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -8611,12 +8611,12 @@ fn branch_3(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -8706,7 +8706,7 @@ fn branch_3(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -8724,8 +8724,8 @@ fn branch_3(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -8740,7 +8740,7 @@ fn branch_3(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -8791,8 +8791,8 @@ fn branch_3(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -8800,12 +8800,12 @@ fn branch_3(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -8895,7 +8895,7 @@ fn branch_3(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -8913,8 +8913,8 @@ fn branch_3(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -8929,7 +8929,7 @@ fn branch_3(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -8980,8 +8980,8 @@ fn branch_3(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -8989,12 +8989,12 @@ fn branch_3(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -9862,165 +9862,165 @@ fn branch_4(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -10028,40 +10028,40 @@ fn branch_4(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -10070,218 +10070,218 @@ fn branch_4(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -10292,8 +10292,8 @@ fn branch_4(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -10322,8 +10322,8 @@ fn branch_4(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -10331,25 +10331,25 @@ fn branch_4(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -10426,7 +10426,7 @@ fn branch_4(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -10444,8 +10444,8 @@ fn branch_4(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -10460,7 +10460,7 @@ fn branch_4(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -10511,8 +10511,8 @@ fn branch_4(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -10520,12 +10520,12 @@ fn branch_4(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -10615,7 +10615,7 @@ fn branch_4(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -10633,8 +10633,8 @@ fn branch_4(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -10649,7 +10649,7 @@ fn branch_4(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -10700,8 +10700,8 @@ fn branch_4(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -10709,12 +10709,12 @@ fn branch_4(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -10804,7 +10804,7 @@ fn branch_4(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -10822,8 +10822,8 @@ fn branch_4(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -10838,7 +10838,7 @@ fn branch_4(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -10889,8 +10889,8 @@ fn branch_4(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -10898,12 +10898,12 @@ fn branch_4(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -11771,165 +11771,165 @@ fn branch_5(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -11937,40 +11937,40 @@ fn branch_5(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -11979,218 +11979,218 @@ fn branch_5(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -12201,8 +12201,8 @@ fn branch_5(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -12231,8 +12231,8 @@ fn branch_5(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -12240,25 +12240,25 @@ fn branch_5(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -12335,7 +12335,7 @@ fn branch_5(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -12353,8 +12353,8 @@ fn branch_5(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -12369,7 +12369,7 @@ fn branch_5(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -12420,8 +12420,8 @@ fn branch_5(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -12429,12 +12429,12 @@ fn branch_5(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -12524,7 +12524,7 @@ fn branch_5(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -12542,8 +12542,8 @@ fn branch_5(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -12558,7 +12558,7 @@ fn branch_5(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -12609,8 +12609,8 @@ fn branch_5(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -12618,12 +12618,12 @@ fn branch_5(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -12713,7 +12713,7 @@ fn branch_5(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -12731,8 +12731,8 @@ fn branch_5(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -12747,7 +12747,7 @@ fn branch_5(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -12798,8 +12798,8 @@ fn branch_5(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -12807,12 +12807,12 @@ fn branch_5(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -13716,165 +13716,165 @@ fn branch_6(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -13882,40 +13882,40 @@ fn branch_6(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -13924,218 +13924,218 @@ fn branch_6(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -14146,8 +14146,8 @@ fn branch_6(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -14176,8 +14176,8 @@ fn branch_6(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -14185,25 +14185,25 @@ fn branch_6(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -14280,7 +14280,7 @@ fn branch_6(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -14298,8 +14298,8 @@ fn branch_6(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -14314,7 +14314,7 @@ fn branch_6(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -14365,8 +14365,8 @@ fn branch_6(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -14374,12 +14374,12 @@ fn branch_6(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -14469,7 +14469,7 @@ fn branch_6(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -14487,8 +14487,8 @@ fn branch_6(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -14503,7 +14503,7 @@ fn branch_6(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -14554,8 +14554,8 @@ fn branch_6(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -14563,12 +14563,12 @@ fn branch_6(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -14658,7 +14658,7 @@ fn branch_6(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -14676,8 +14676,8 @@ fn branch_6(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -14692,7 +14692,7 @@ fn branch_6(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -14743,8 +14743,8 @@ fn branch_6(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -14752,12 +14752,12 @@ fn branch_6(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -15661,165 +15661,165 @@ fn branch_7(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -15827,40 +15827,40 @@ fn branch_7(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -15869,218 +15869,218 @@ fn branch_7(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -16091,8 +16091,8 @@ fn branch_7(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -16121,8 +16121,8 @@ fn branch_7(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -16130,25 +16130,25 @@ fn branch_7(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -16225,7 +16225,7 @@ fn branch_7(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -16243,8 +16243,8 @@ fn branch_7(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -16259,7 +16259,7 @@ fn branch_7(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -16310,8 +16310,8 @@ fn branch_7(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -16319,12 +16319,12 @@ fn branch_7(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -16414,7 +16414,7 @@ fn branch_7(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -16432,8 +16432,8 @@ fn branch_7(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -16448,7 +16448,7 @@ fn branch_7(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -16499,8 +16499,8 @@ fn branch_7(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -16508,12 +16508,12 @@ fn branch_7(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -16603,7 +16603,7 @@ fn branch_7(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -16621,8 +16621,8 @@ fn branch_7(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -16637,7 +16637,7 @@ fn branch_7(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -16688,8 +16688,8 @@ fn branch_7(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -16697,12 +16697,12 @@ fn branch_7(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };
@@ -17642,165 +17642,165 @@ fn branch_8(
     let u_z = wc_z + 0.12757328945988594;
     // ρ = |u|²
     let rho = u_z * u_z + (u_x * u_x + u_y * u_y);
-    let t85 = 0.03083382907820819 * u_z
+    let t90 = 0.03083382907820819 * u_z
         + (0.9624466120930804 * u_x + 0.2697142818890529 * u_y);
-    let t90 = rho - 0.8363667035237546;
+    let t100 = rho - 0.8363667035237546;
     // X = (ρ − a² − |r|²)/(2a): constant part, a = 0.379502 m
-    let x0 = 1.3175158295349942 * t90;
-    let t94 = t85 + 0.15376425309624955;
-    let t96 = 1.1097409136152632 * t94;
+    let x0 = 1.3175158295349942 * t100;
+    let t104 = t90 + 0.15376425309624955;
+    let t106 = 1.1097409136152632 * t104;
     // F(θ3) = X² + Y² + Z² − |r|²: k0
-    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t96 * t96 + 0.003217936408003374)
+    let j3_k0 = x0 * x0 + 0.25112638725018865 + (t106 * t106 + 0.003217936408003374)
         + 0.1396628563044275 - 0.6923448734983095;
-    let t123 = 0.046627510931445 * t94 - 1.5597481631780652 * t90 + 0.0309670559670122;
+    let t131 = 0.046627510931445 * t104 - 1.5597481631780652 * t100 + 0.0309670559670122;
     // F(θ3) = X² + Y² + Z² − |r|²: k1 (cos θ3)
-    let j3_k1 = t123 - 0.449275569679463;
+    let j3_k1 = t131 - 0.449275569679463;
     // F(θ3) = X² + Y² + Z² − |r|²: k2 (sin θ3)
-    let j3_k2 = 0.1718418622142307 * t94 - 1.0268999394810525 * t90 + 0.11412654157086846
-        - 0.29579201707416003;
-    let t136 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
-    let t138 = 0.5 * j3_k1;
-    let t139 = j3_k0 + t138;
-    let t141 = 0.8660254037844386 * j3_k2;
-    let t149 = ::armforge_runtime::math::abs(
-        t139 + t141 - 0.04224139225832772 + 0.20726799721873174,
+    let j3_k2 = 0.1718418622142307 * t104 - 1.0268999394810525 * t100
+        + 0.11412654157086846 - 0.29579201707416003;
+    let t142 = ::armforge_runtime::math::abs(j3_k0 + j3_k1 + 0.08448278451665545);
+    let t144 = 0.5 * j3_k1;
+    let t145 = j3_k0 + t144;
+    let t147 = 0.8660254037844386 * j3_k2;
+    let t155 = ::armforge_runtime::math::abs(
+        t145 + t147 - 0.04224139225832772 + 0.20726799721873174,
     );
-    let t152 = t149 - t136;
-    let t153 = t149.max(t136);
-    let t158 = j3_k0 - t138;
-    let t164 = ::armforge_runtime::math::abs(
-        t158 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
+    let t158 = t155 - t142;
+    let t159 = t155.max(t142);
+    let t164 = j3_k0 - t144;
+    let t170 = ::armforge_runtime::math::abs(
+        t164 + 0.8660254037844387 * j3_k2 - 0.04224139225832772 - 0.20726799721873165,
     );
-    let t166 = t164 - t153;
-    let t167 = t164.max(t153);
-    let t175 = ::armforge_runtime::math::abs(
-        j3_k0 + (0.449275569679463 - t123) + 0.08448278451665545,
+    let t172 = t170 - t159;
+    let t173 = t170.max(t159);
+    let t181 = ::armforge_runtime::math::abs(
+        j3_k0 + (0.449275569679463 - t131) + 0.08448278451665545,
     );
-    let t176 = t175 - t167;
-    let t177 = t175.max(t167);
-    let t188 = ::armforge_runtime::math::abs(
-        t158 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
+    let t182 = t181 - t173;
+    let t183 = t181.max(t173);
+    let t194 = ::armforge_runtime::math::abs(
+        t164 - 0.8660254037844384 * j3_k2 - 0.04224139225832772 + 0.20726799721873185,
     );
-    let t191 = t188 - t177;
-    let t202 = ::armforge_runtime::math::abs(
-        t139 - t141 - 0.04224139225832772 - 0.20726799721873174,
-    ) - t188.max(t177);
+    let t197 = t194 - t183;
+    let t208 = ::armforge_runtime::math::abs(
+        t145 - t147 - 0.04224139225832772 - 0.20726799721873174,
+    ) - t194.max(t183);
     // cos γ: the rotation with the largest |F(γ + π)|
-    let j3_cos_g = if t202 >= 0.0 {
+    let j3_cos_g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { 0.5 } else { if t152 >= 0.0 { -0.5 } else { -1.0 } }
+                if t172 >= 0.0 { 0.5 } else { if t158 >= 0.0 { -0.5 } else { -1.0 } }
             }
         }
     };
     // sin γ
-    let j3_sin_g = if t202 >= 0.0 {
+    let j3_sin_g = if t208 >= 0.0 {
         0.8660254037844385
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844385
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844387
                 } else {
-                    if t152 >= 0.0 { -0.8660254037844385 } else { 0.0 }
+                    if t158 >= 0.0 { -0.8660254037844385 } else { 0.0 }
                 }
             }
         }
     };
     // cos 2γ
-    let j3_cos_2g = if t202 >= 0.0 {
+    let j3_cos_2g = if t208 >= 0.0 {
         -0.5
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             -0.5
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 1.0
             } else {
-                if t166 >= 0.0 { -0.5 } else { if t152 >= 0.0 { -0.5 } else { 1.0 } }
+                if t172 >= 0.0 { -0.5 } else { if t158 >= 0.0 { -0.5 } else { 1.0 } }
             }
         }
     };
     // sin 2γ
-    let j3_sin_2g = if t202 >= 0.0 {
+    let j3_sin_2g = if t208 >= 0.0 {
         -0.8660254037844388
     } else {
-        if t191 >= 0.0 {
+        if t197 >= 0.0 {
             0.8660254037844389
         } else {
-            if t176 >= 0.0 {
+            if t182 >= 0.0 {
                 0.0
             } else {
-                if t166 >= 0.0 {
+                if t172 >= 0.0 {
                     -0.8660254037844385
                 } else {
-                    if t152 >= 0.0 { 0.8660254037844388 } else { 0.0 }
+                    if t158 >= 0.0 { 0.8660254037844388 } else { 0.0 }
                 }
             }
         }
     };
-    let t209 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
-    let t215 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
-    let t219 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
-    let t221 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
+    let t215 = j3_k1 * j3_cos_g + j3_k2 * j3_sin_g;
+    let t221 = 0.08448278451665545 * j3_cos_2g + 0.23933246797725874 * j3_sin_2g;
+    let t225 = 2.0 * (j3_k2 * j3_cos_g - j3_k1 * j3_sin_g);
+    let t227 = 4.0 * (0.23933246797725874 * j3_cos_2g - 0.08448278451665545 * j3_sin_2g);
     // t⁴: k0 − k1′ + k3′ = F(γ + π)
-    let j3_a4 = t215 + (j3_k0 - t209);
+    let j3_a4 = t221 + (j3_k0 - t215);
     // t³: 2k2′ − 4k4′
-    let j3_a3 = t219 - t221;
+    let j3_a3 = t225 - t227;
     // t²: 2k0 − 6k3′
-    let j3_a2 = 2.0 * j3_k0 - 6.0 * t215;
+    let j3_a2 = 2.0 * j3_k0 - 6.0 * t221;
     // t¹: 2k2′ + 4k4′
-    let j3_a1 = t219 + t221;
+    let j3_a1 = t225 + t227;
     // t⁰: k0 + k1′ + k3′ = F(γ)
-    let j3_a0 = t215 + (j3_k0 + t209);
-    let t237 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
-    let t238 = j3_a3 * t237;
-    let t239 = j3_a2 * t237;
-    let t240 = j3_a1 * t237;
-    let t242 = t238 * t238;
+    let j3_a0 = t221 + (j3_k0 + t215);
+    let t243 = 1.0 / (if j3_a4 >= 0.0 { j3_a4.max(1e-300) } else { j3_a4.min(-1e-300) });
+    let t244 = j3_a3 * t243;
+    let t245 = j3_a2 * t243;
+    let t246 = j3_a1 * t243;
+    let t248 = t244 * t244;
     // p = C − 3B²/8 (depressed quartic)
-    let j3_p = t239 - 0.375 * t242;
+    let j3_p = t245 - 0.375 * t248;
     // q = D − BC/2 + B³/8
-    let j3_q = 0.125 * (t238 * t242) + (t240 - 0.5 * (t238 * t239));
+    let j3_q = 0.125 * (t244 * t248) + (t246 - 0.5 * (t244 * t245));
     // r = E − BD/4 + B²C/16 − 3B⁴/256
-    let j3_r = 0.0625 * (t239 * t242) + (j3_a0 * t237 - 0.25 * (t238 * t240))
-        - 0.01171875 * (t242 * t242);
-    let t265 = j3_p * j3_p;
-    let t266 = j3_q * j3_q;
-    let t267 = 4.0 * j3_r;
-    let t268 = t265 - t267;
-    let t271 = t267 + 0.3333333333333333 * t265;
+    let j3_r = 0.0625 * (t245 * t248) + (j3_a0 * t243 - 0.25 * (t244 * t246))
+        - 0.01171875 * (t248 * t248);
+    let t271 = j3_p * j3_p;
+    let t272 = j3_q * j3_q;
+    let t273 = 4.0 * j3_r;
+    let t274 = t271 - t273;
+    let t277 = t273 + 0.3333333333333333 * t271;
     // P = −p²/3 − 4r
-    let j3_cubic_p = -t271;
+    let j3_cubic_p = -t277;
     // Q = −2p³/27 + 8pr/3 − q²
     let j3_cubic_q = 2.6666666666666665 * (j3_p * j3_r)
-        - 0.07407407407407407 * (j3_p * t265) - t266;
-    let t281 = 0.5 * j3_cubic_q;
-    let t282 = t281 * t281;
-    let t283 = 0.3333333333333333 * t271;
-    let t285 = t283 * (t283 * t283);
+        - 0.07407407407407407 * (j3_p * t271) - t272;
+    let t287 = 0.5 * j3_cubic_q;
+    let t288 = t287 * t287;
+    let t289 = 0.3333333333333333 * t277;
+    let t291 = t289 * (t289 * t289);
     // Δ = Q²/4 + P³/27
-    let j3_cubic_disc = t282 - t285;
-    let t288 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
+    let j3_cubic_disc = t288 - t291;
+    let t294 = ::armforge_runtime::math::sqrt(j3_cubic_disc.max(0.0));
     // A = ∛(−Q/2 − sign(Q) √Δ)
     let j3_cardano = ::armforge_runtime::math::cbrt(
-        -(t281 + (if j3_cubic_q >= 0.0 { t288 } else { -t288 })),
+        -(t287 + (if j3_cubic_q >= 0.0 { t294 } else { -t294 })),
     );
-    let t295 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
-    let t317 = ((if j3_cubic_disc >= 0.0 {
+    let t301 = ::armforge_runtime::math::abs(j3_cardano) - 1e-300;
+    let t323 = ((if j3_cubic_disc >= 0.0 {
         j3_cardano
-            - (if t295 >= 0.0 {
-                j3_cubic_p / (3.0 * (if t295 >= 0.0 { j3_cardano } else { 1.0 }))
+            - (if t301 >= 0.0 {
+                j3_cubic_p / (3.0 * (if t301 >= 0.0 { j3_cardano } else { 1.0 }))
             } else {
                 0.0
             })
@@ -17808,40 +17808,40 @@ fn branch_8(
         ::armforge_runtime::math::cos(
             0.3333333333333333
                 * ::armforge_runtime::math::atan2(
-                    ::armforge_runtime::math::sqrt((t285 - t282).max(0.0)),
-                    -t281,
+                    ::armforge_runtime::math::sqrt((t291 - t288).max(0.0)),
+                    -t287,
                 ),
-        ) * (2.0 * ::armforge_runtime::math::sqrt(t283.max(0.0)))
+        ) * (2.0 * ::armforge_runtime::math::sqrt(t289.max(0.0)))
     }) - 0.6666666666666666 * j3_p)
         .max(0.0);
-    let t318 = 2.0 * j3_p;
-    let t319 = t317 + t318;
-    let t322 = t268 + t317 * t319;
-    let t324 = t322 + t317 * (t317 + t319);
-    let t326 = t317 * t322 - t266;
-    let t332 = (t317
-        - t326 / (if t324 >= 0.0 { t324.max(1e-300) } else { t324.min(-1e-300) }))
+    let t324 = 2.0 * j3_p;
+    let t325 = t323 + t324;
+    let t328 = t274 + t323 * t325;
+    let t330 = t328 + t323 * (t323 + t325);
+    let t332 = t323 * t328 - t272;
+    let t338 = (t323
+        - t332 / (if t330 >= 0.0 { t330.max(1e-300) } else { t330.min(-1e-300) }))
         .max(0.0);
     // U = α²: the largest root of U³ + 2p U² + (p² − 4r) U − q² = 0
-    let j3_resolvent = if ::armforge_runtime::math::abs(t326)
-        - ::armforge_runtime::math::abs(t332 * (t268 + t332 * (t318 + t332)) - t266)
+    let j3_resolvent = if ::armforge_runtime::math::abs(t332)
+        - ::armforge_runtime::math::abs(t338 * (t274 + t338 * (t324 + t338)) - t272)
         >= 0.0
     {
-        t332
+        t338
     } else {
-        t317
+        t323
     };
     // α = √U
     let j3_alpha = ::armforge_runtime::math::sqrt(j3_resolvent);
-    let t343 = j3_p + j3_resolvent;
-    let t345 = t343 * t343 - t267;
-    let t347 = ::armforge_runtime::math::sqrt(t345.max(0.0));
+    let t349 = j3_p + j3_resolvent;
+    let t351 = t349 * t349 - t273;
+    let t353 = ::armforge_runtime::math::sqrt(t351.max(0.0));
     // γ − β = q/α, or sign(q) √((p + U)² − 4r) when α is small
     let j3_gap = if j3_resolvent
         * (j3_resolvent
             + (::armforge_runtime::math::abs(j3_p)
                 + ::armforge_runtime::math::sqrt(::armforge_runtime::math::abs(j3_r))))
-        - ::armforge_runtime::math::abs(t345) >= 0.0
+        - ::armforge_runtime::math::abs(t351) >= 0.0
     {
         j3_q
             / (if j3_alpha >= 0.0 {
@@ -17850,218 +17850,218 @@ fn branch_8(
                 j3_alpha.min(-1e-300)
             })
     } else {
-        if j3_q >= 0.0 { t347 } else { -t347 }
+        if j3_q >= 0.0 { t353 } else { -t353 }
     };
-    let t365 = 0.25 * t238;
+    let t371 = 0.25 * t244;
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root1 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 - j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 - j3_gap)).max(0.0),
     );
-    let t372 = 0.5 * (j3_root1 - j3_alpha) - t365;
-    let t373 = j3_a4 * t372;
-    let t374 = j3_a3 + t373;
-    let t377 = j3_a2 + t372 * t374;
-    let t381 = j3_a1 + t372 * t377;
-    let t383 = t381 + t372 * (t377 + t372 * (t373 + t374));
-    let t385 = j3_a0 + t372 * t381;
-    let t390 = t372
-        - t385 / (if t383 >= 0.0 { t383.max(1e-300) } else { t383.min(-1e-300) });
-    let t398 = j3_a0 + t390 * (j3_a1 + t390 * (j3_a2 + t390 * (j3_a3 + j3_a4 * t390)));
-    let t401 = ::armforge_runtime::math::abs(t385) - ::armforge_runtime::math::abs(t398);
-    let t402 = if t401 >= 0.0 { t390 } else { t372 };
-    let t403 = if t401 >= 0.0 { t398 } else { t385 };
-    let t404 = j3_a4 * t402;
-    let t405 = j3_a3 + t404;
-    let t408 = j3_a2 + t402 * t405;
-    let t414 = j3_a1 + t402 * t408 + t402 * (t408 + t402 * (t404 + t405));
-    let t419 = t402
-        - t403 / (if t414 >= 0.0 { t414.max(1e-300) } else { t414.min(-1e-300) });
+    let t378 = 0.5 * (j3_root1 - j3_alpha) - t371;
+    let t379 = j3_a4 * t378;
+    let t380 = j3_a3 + t379;
+    let t383 = j3_a2 + t378 * t380;
+    let t387 = j3_a1 + t378 * t383;
+    let t389 = t387 + t378 * (t383 + t378 * (t379 + t380));
+    let t391 = j3_a0 + t378 * t387;
+    let t396 = t378
+        - t391 / (if t389 >= 0.0 { t389.max(1e-300) } else { t389.min(-1e-300) });
+    let t404 = j3_a0 + t396 * (j3_a1 + t396 * (j3_a2 + t396 * (j3_a3 + j3_a4 * t396)));
+    let t407 = ::armforge_runtime::math::abs(t391) - ::armforge_runtime::math::abs(t404);
+    let t408 = if t407 >= 0.0 { t396 } else { t378 };
+    let t409 = if t407 >= 0.0 { t404 } else { t391 };
+    let t410 = j3_a4 * t408;
+    let t411 = j3_a3 + t410;
+    let t414 = j3_a2 + t408 * t411;
+    let t420 = j3_a1 + t408 * t414 + t408 * (t414 + t408 * (t410 + t411));
+    let t425 = t408
+        - t409 / (if t420 >= 0.0 { t420.max(1e-300) } else { t420.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t1 = if ::armforge_runtime::math::abs(t403)
+    let j3_t1 = if ::armforge_runtime::math::abs(t409)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t419 * (j3_a1 + t419 * (j3_a2 + t419 * (j3_a3 + j3_a4 * t419))),
+            j3_a0 + t425 * (j3_a1 + t425 * (j3_a2 + t425 * (j3_a3 + j3_a4 * t425))),
         ) >= 0.0
     {
-        t419
+        t425
     } else {
-        t402
+        t408
     };
-    let t434 = t365 + 0.5 * (j3_alpha + j3_root1);
-    let t436 = j3_a4 * t434;
-    let t437 = j3_a3 - t436;
-    let t440 = j3_a2 - t434 * t437;
-    let t444 = j3_a1 - t434 * t440;
-    let t446 = t444 - t434 * (t440 - t434 * (t437 - t436));
-    let t448 = j3_a0 - t434 * t444;
-    let t453 = t434
-        + t448 / (if t446 >= 0.0 { t446.max(1e-300) } else { t446.min(-1e-300) });
-    let t462 = j3_a0 - t453 * (j3_a1 - t453 * (j3_a2 - t453 * (j3_a3 - j3_a4 * t453)));
-    let t465 = ::armforge_runtime::math::abs(t448) - ::armforge_runtime::math::abs(t462);
-    let t466 = if t465 >= 0.0 { -t453 } else { -t434 };
-    let t467 = if t465 >= 0.0 { t462 } else { t448 };
-    let t468 = j3_a4 * t466;
-    let t469 = j3_a3 + t468;
-    let t472 = j3_a2 + t466 * t469;
-    let t478 = j3_a1 + t466 * t472 + t466 * (t472 + t466 * (t468 + t469));
-    let t483 = t466
-        - t467 / (if t478 >= 0.0 { t478.max(1e-300) } else { t478.min(-1e-300) });
+    let t440 = t371 + 0.5 * (j3_alpha + j3_root1);
+    let t442 = j3_a4 * t440;
+    let t443 = j3_a3 - t442;
+    let t446 = j3_a2 - t440 * t443;
+    let t450 = j3_a1 - t440 * t446;
+    let t452 = t450 - t440 * (t446 - t440 * (t443 - t442));
+    let t454 = j3_a0 - t440 * t450;
+    let t459 = t440
+        + t454 / (if t452 >= 0.0 { t452.max(1e-300) } else { t452.min(-1e-300) });
+    let t468 = j3_a0 - t459 * (j3_a1 - t459 * (j3_a2 - t459 * (j3_a3 - j3_a4 * t459)));
+    let t471 = ::armforge_runtime::math::abs(t454) - ::armforge_runtime::math::abs(t468);
+    let t472 = if t471 >= 0.0 { -t459 } else { -t440 };
+    let t473 = if t471 >= 0.0 { t468 } else { t454 };
+    let t474 = j3_a4 * t472;
+    let t475 = j3_a3 + t474;
+    let t478 = j3_a2 + t472 * t475;
+    let t484 = j3_a1 + t472 * t478 + t472 * (t478 + t472 * (t474 + t475));
+    let t489 = t472
+        - t473 / (if t484 >= 0.0 { t484.max(1e-300) } else { t484.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t2 = if ::armforge_runtime::math::abs(t467)
+    let j3_t2 = if ::armforge_runtime::math::abs(t473)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t483 * (j3_a1 + t483 * (j3_a2 + t483 * (j3_a3 + j3_a4 * t483))),
+            j3_a0 + t489 * (j3_a1 + t489 * (j3_a2 + t489 * (j3_a3 + j3_a4 * t489))),
         ) >= 0.0
     {
-        t483
+        t489
     } else {
-        t466
+        t472
     };
     // √max(α² − 4β, 0) resp. √max(α² − 4γ, 0): a quadratic factor's roots
     let j3_root2 = ::armforge_runtime::math::sqrt(
-        (j3_resolvent - 2.0 * (t343 + j3_gap)).max(0.0),
+        (j3_resolvent - 2.0 * (t349 + j3_gap)).max(0.0),
     );
-    let t502 = 0.5 * (j3_alpha + j3_root2) - t365;
-    let t503 = j3_a4 * t502;
-    let t504 = j3_a3 + t503;
-    let t507 = j3_a2 + t502 * t504;
-    let t511 = j3_a1 + t502 * t507;
-    let t513 = t511 + t502 * (t507 + t502 * (t503 + t504));
-    let t515 = j3_a0 + t502 * t511;
-    let t520 = t502
-        - t515 / (if t513 >= 0.0 { t513.max(1e-300) } else { t513.min(-1e-300) });
-    let t528 = j3_a0 + t520 * (j3_a1 + t520 * (j3_a2 + t520 * (j3_a3 + j3_a4 * t520)));
-    let t531 = ::armforge_runtime::math::abs(t515) - ::armforge_runtime::math::abs(t528);
-    let t532 = if t531 >= 0.0 { t520 } else { t502 };
-    let t533 = if t531 >= 0.0 { t528 } else { t515 };
-    let t534 = j3_a4 * t532;
-    let t535 = j3_a3 + t534;
-    let t538 = j3_a2 + t532 * t535;
-    let t544 = j3_a1 + t532 * t538 + t532 * (t538 + t532 * (t534 + t535));
-    let t549 = t532
-        - t533 / (if t544 >= 0.0 { t544.max(1e-300) } else { t544.min(-1e-300) });
+    let t508 = 0.5 * (j3_alpha + j3_root2) - t371;
+    let t509 = j3_a4 * t508;
+    let t510 = j3_a3 + t509;
+    let t513 = j3_a2 + t508 * t510;
+    let t517 = j3_a1 + t508 * t513;
+    let t519 = t517 + t508 * (t513 + t508 * (t509 + t510));
+    let t521 = j3_a0 + t508 * t517;
+    let t526 = t508
+        - t521 / (if t519 >= 0.0 { t519.max(1e-300) } else { t519.min(-1e-300) });
+    let t534 = j3_a0 + t526 * (j3_a1 + t526 * (j3_a2 + t526 * (j3_a3 + j3_a4 * t526)));
+    let t537 = ::armforge_runtime::math::abs(t521) - ::armforge_runtime::math::abs(t534);
+    let t538 = if t537 >= 0.0 { t526 } else { t508 };
+    let t539 = if t537 >= 0.0 { t534 } else { t521 };
+    let t540 = j3_a4 * t538;
+    let t541 = j3_a3 + t540;
+    let t544 = j3_a2 + t538 * t541;
+    let t550 = j3_a1 + t538 * t544 + t538 * (t544 + t538 * (t540 + t541));
+    let t555 = t538
+        - t539 / (if t550 >= 0.0 { t550.max(1e-300) } else { t550.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t3 = if ::armforge_runtime::math::abs(t533)
+    let j3_t3 = if ::armforge_runtime::math::abs(t539)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t549 * (j3_a1 + t549 * (j3_a2 + t549 * (j3_a3 + j3_a4 * t549))),
+            j3_a0 + t555 * (j3_a1 + t555 * (j3_a2 + t555 * (j3_a3 + j3_a4 * t555))),
         ) >= 0.0
     {
-        t549
+        t555
     } else {
-        t532
+        t538
     };
-    let t564 = 0.5 * (j3_alpha - j3_root2) - t365;
-    let t565 = j3_a4 * t564;
-    let t566 = j3_a3 + t565;
-    let t569 = j3_a2 + t564 * t566;
-    let t573 = j3_a1 + t564 * t569;
-    let t575 = t573 + t564 * (t569 + t564 * (t565 + t566));
-    let t577 = j3_a0 + t564 * t573;
-    let t582 = t564
-        - t577 / (if t575 >= 0.0 { t575.max(1e-300) } else { t575.min(-1e-300) });
-    let t590 = j3_a0 + t582 * (j3_a1 + t582 * (j3_a2 + t582 * (j3_a3 + j3_a4 * t582)));
-    let t593 = ::armforge_runtime::math::abs(t577) - ::armforge_runtime::math::abs(t590);
-    let t594 = if t593 >= 0.0 { t582 } else { t564 };
-    let t595 = if t593 >= 0.0 { t590 } else { t577 };
-    let t596 = j3_a4 * t594;
-    let t597 = j3_a3 + t596;
-    let t600 = j3_a2 + t594 * t597;
-    let t606 = j3_a1 + t594 * t600 + t594 * (t600 + t594 * (t596 + t597));
-    let t611 = t594
-        - t595 / (if t606 >= 0.0 { t606.max(1e-300) } else { t606.min(-1e-300) });
+    let t570 = 0.5 * (j3_alpha - j3_root2) - t371;
+    let t571 = j3_a4 * t570;
+    let t572 = j3_a3 + t571;
+    let t575 = j3_a2 + t570 * t572;
+    let t579 = j3_a1 + t570 * t575;
+    let t581 = t579 + t570 * (t575 + t570 * (t571 + t572));
+    let t583 = j3_a0 + t570 * t579;
+    let t588 = t570
+        - t583 / (if t581 >= 0.0 { t581.max(1e-300) } else { t581.min(-1e-300) });
+    let t596 = j3_a0 + t588 * (j3_a1 + t588 * (j3_a2 + t588 * (j3_a3 + j3_a4 * t588)));
+    let t599 = ::armforge_runtime::math::abs(t583) - ::armforge_runtime::math::abs(t596);
+    let t600 = if t599 >= 0.0 { t588 } else { t570 };
+    let t601 = if t599 >= 0.0 { t596 } else { t583 };
+    let t602 = j3_a4 * t600;
+    let t603 = j3_a3 + t602;
+    let t606 = j3_a2 + t600 * t603;
+    let t612 = j3_a1 + t600 * t606 + t600 * (t606 + t600 * (t602 + t603));
+    let t617 = t600
+        - t601 / (if t612 >= 0.0 { t612.max(1e-300) } else { t612.min(-1e-300) });
     // root t = y − B/4 after two guarded Newton steps on the quartic
-    let j3_t4 = if ::armforge_runtime::math::abs(t595)
+    let j3_t4 = if ::armforge_runtime::math::abs(t601)
         - ::armforge_runtime::math::abs(
-            j3_a0 + t611 * (j3_a1 + t611 * (j3_a2 + t611 * (j3_a3 + j3_a4 * t611))),
+            j3_a0 + t617 * (j3_a1 + t617 * (j3_a2 + t617 * (j3_a3 + j3_a4 * t617))),
         ) >= 0.0
     {
-        t611
+        t617
     } else {
-        t594
+        t600
     };
-    let t624 = j3_t1 * j3_t1;
-    let t626 = 1.0 / (t624 + 1.0);
-    let t628 = t626 * (1.0 - t624);
-    let t630 = t626 * (2.0 * j3_t1);
+    let t630 = j3_t1 * j3_t1;
+    let t632 = 1.0 / (t630 + 1.0);
+    let t634 = t632 * (1.0 - t630);
+    let t636 = t632 * (2.0 * j3_t1);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos1 = j3_cos_g * t628 - j3_sin_g * t630;
+    let j3_cos1 = j3_cos_g * t634 - j3_sin_g * t636;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin1 = j3_cos_g * t630 + j3_sin_g * t628;
-    let t637 = j3_t2 * j3_t2;
-    let t639 = 1.0 / (t637 + 1.0);
-    let t641 = t639 * (1.0 - t637);
-    let t643 = t639 * (2.0 * j3_t2);
+    let j3_sin1 = j3_cos_g * t636 + j3_sin_g * t634;
+    let t643 = j3_t2 * j3_t2;
+    let t645 = 1.0 / (t643 + 1.0);
+    let t647 = t645 * (1.0 - t643);
+    let t649 = t645 * (2.0 * j3_t2);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos2 = j3_cos_g * t641 - j3_sin_g * t643;
+    let j3_cos2 = j3_cos_g * t647 - j3_sin_g * t649;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin2 = j3_cos_g * t643 + j3_sin_g * t641;
-    let t650 = j3_t3 * j3_t3;
-    let t652 = 1.0 / (t650 + 1.0);
-    let t654 = t652 * (1.0 - t650);
-    let t656 = t652 * (2.0 * j3_t3);
+    let j3_sin2 = j3_cos_g * t649 + j3_sin_g * t647;
+    let t656 = j3_t3 * j3_t3;
+    let t658 = 1.0 / (t656 + 1.0);
+    let t660 = t658 * (1.0 - t656);
+    let t662 = t658 * (2.0 * j3_t3);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos3 = j3_cos_g * t654 - j3_sin_g * t656;
+    let j3_cos3 = j3_cos_g * t660 - j3_sin_g * t662;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin3 = j3_cos_g * t656 + j3_sin_g * t654;
-    let t663 = j3_t4 * j3_t4;
-    let t665 = 1.0 / (t663 + 1.0);
-    let t667 = t665 * (1.0 - t663);
-    let t669 = t665 * (2.0 * j3_t4);
+    let j3_sin3 = j3_cos_g * t662 + j3_sin_g * t660;
+    let t669 = j3_t4 * j3_t4;
+    let t671 = 1.0 / (t669 + 1.0);
+    let t673 = t671 * (1.0 - t669);
+    let t675 = t671 * (2.0 * j3_t4);
     // cos θ = cos φ cos γ − sin φ sin γ
-    let j3_cos4 = j3_cos_g * t667 - j3_sin_g * t669;
+    let j3_cos4 = j3_cos_g * t673 - j3_sin_g * t675;
     // sin θ = sin φ cos γ + cos φ sin γ
-    let j3_sin4 = j3_cos_g * t669 + j3_sin_g * t667;
+    let j3_sin4 = j3_cos_g * t675 + j3_sin_g * t673;
     // ≥ 0 when the target is on axis 1 (|u⊥|² = ρ − ζ² below tolerance²)
-    let j1_free = 3.2e-20 - (rho - t85 * t85);
-    let t688 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
+    let j1_free = 3.2e-20 - (rho - t90 * t90);
+    let t696 = 0.3329768905118334 * j3_cos1 + 0.10742927414968167 * j3_sin1
         + 0.6557983985937074;
-    let t693 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
+    let t701 = 0.30771760026101724 * j3_sin1 - 0.13907834228567872 * j3_cos1
         + 0.06623212901996009;
-    let t699 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
-    let t703 = t96 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
-    let t706 = t688 * t699 - t693 * t703;
-    let t709 = t688 * t703 + t693 * t699;
-    let t712 = t706 * t706 + t709 * t709;
-    let t715 = 1.0 / ::armforge_runtime::math::sqrt(t712.max(1e-300));
-    let t719 = t712 - 1e-300;
-    let t720 = if t719 >= 0.0 { t706 * t715 } else { 1.0 };
-    let t721 = if t719 >= 0.0 { -(t709 * t715) } else { 0.0 };
-    let t724 = 4.0 * rho.max(1e-20);
-    let t728 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
+    let t707 = x0 - (0.5919276748760448 * j3_cos1 + 0.38971066474529115 * j3_sin1);
+    let t711 = t106 + (0.021008286871006688 * j3_cos1 + 0.07742431593984048 * j3_sin1);
+    let t714 = t696 * t707 - t701 * t711;
+    let t717 = t696 * t711 + t701 * t707;
+    let t720 = t714 * t714 + t717 * t717;
+    let t723 = 1.0 / ::armforge_runtime::math::sqrt(t720.max(1e-300));
+    let t727 = t720 - 1e-300;
+    let t728 = if t727 >= 0.0 { t714 * t723 } else { 1.0 };
+    let t729 = if t727 >= 0.0 { -(t717 * t723) } else { 0.0 };
+    let t732 = 4.0 * rho.max(1e-20);
+    let t736 = 0.04366081023357546 * j3_cos1 + 0.1609083304350262 * j3_sin1
         + 0.35463217243731227;
-    let t733 = t688 * t720 - t693 * t721 + 0.3795020817142445;
-    let t736 = t688 * t721 + t693 * t720;
-    let t758 = 0.42949337317570635 * t728
-        + (0.27113387259084254 * t733 + 0.8614069105434703 * t736);
-    let t760 = 0.9606898050660484 * t733 - 0.2145135833453935 * t736
-        - 0.17623569729903374 * t728;
-    let t761 = 0.8857067355483286 * t728
-        + (0.0596784850348138 * t733 - 0.4603933720507634 * t736);
-    let t774 = 0.36330684410113046 * j3_cos1 + 0.010769702681280715 * j3_sin1;
-    let t775 = 0.008838811535368396 * j3_cos1 - 0.34202710427059546 * j3_sin1;
+    let t741 = t696 * t728 - t701 * t729 + 0.3795020817142445;
+    let t744 = t696 * t729 + t701 * t728;
+    let t763 = 0.42949337317570635 * t736
+        + (0.27113387259084254 * t741 + 0.8614069105434703 * t744);
+    let t765 = 0.9606898050660484 * t741 - 0.2145135833453935 * t744
+        - 0.17623569729903374 * t736;
+    let t766 = 0.8857067355483286 * t736
+        + (0.0596784850348138 * t741 - 0.4603933720507634 * t744);
+    let t774 = 0.3633068441011305 * j3_cos1 + 0.010769702681280715 * j3_sin1;
+    let t775 = 0.008838811535368396 * j3_cos1 - 0.3420271042705954 * j3_sin1;
     let t776 = 0.007257664778242853 * j3_cos1 - 0.12257297706485838 * j3_sin1;
     let t781 = 0.8857067355483286 * t776
         + (0.42949337317570635 * t774 - 0.17623569729903374 * t775);
     let t782 = 0.42949337317570635 * t781;
     let t783 = 0.17623569729903374 * t781;
     let t784 = 0.8857067355483286 * t781;
-    let t806 = t720 * (t782 - t774)
-        - t721 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
-    let t807 = t720 * (t775 + t783)
-        + t721 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
+    let t806 = t728 * (t782 - t774)
+        - t729 * (0.17623569729903374 * t776 + 0.8857067355483286 * t775) - t782;
+    let t807 = t728 * (t775 + t783)
+        + t729 * (0.42949337317570635 * t776 - 0.8857067355483286 * t774) - t783;
     let t808 = t784
-        + (t720 * (t776 - t784)
-            - t721 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
-    let t814 = t761 * t761 + (t758 * t758 + t760 * t760) - rho;
-    let t820 = t85
-        + (0.9624466120930804 * t758 - 0.2697142818890529 * t760
-            - 0.03083382907820819 * t761);
-    let t826 = 0.10289586907146948 - t758;
-    let t828 = t760 - 0.3645837809042171;
-    let t830 = t761 - 0.022648109304264225;
+        + (t728 * (t776 - t784)
+            - t729 * (0.42949337317570635 * t775 + 0.17623569729903374 * t774));
+    let t814 = t766 * t766 + (t763 * t763 + t765 * t765) - rho;
+    let t820 = t90
+        + (0.9624466120930804 * t763 - 0.2697142818890529 * t765
+            - 0.03083382907820819 * t766);
+    let t826 = 0.10289586907146948 - t763;
+    let t828 = t765 - 0.3645837809042171;
+    let t830 = t766 - 0.022648109304264225;
     let t833 = 0.17623569729903374 * t830 + 0.8857067355483286 * t828;
     let t836 = 0.8857067355483286 * t826 + 0.42949337317570635 * t830;
     let t839 = 0.17623569729903374 * t826 - 0.42949337317570635 * t828;
-    let t845 = 2.0 * (t761 * t839 + (t758 * t833 + t760 * t836));
-    let t851 = 2.0 * (t761 * t808 + (t760 * t807 - t758 * t806));
+    let t845 = 2.0 * (t766 * t839 + (t763 * t833 + t765 * t836));
+    let t851 = 2.0 * (t766 * t808 + (t765 * t807 - t763 * t806));
     let t856 = 0.9624466120930804 * t833 - 0.2697142818890529 * t836
         - 0.03083382907820819 * t839;
     let t861 = 0.03083382907820819 * t808
@@ -18072,8 +18072,8 @@ fn branch_8(
     let t876 = (t814 * t856 - t820 * t845) / t868;
     let t877 = t872 * t872;
     let t879 = 1.0 - 0.5 * t877;
-    let t882 = t720 * t879 - t721 * t872;
-    let t885 = t721 * t879 + t720 * t872;
+    let t882 = t728 * t879 - t729 * t872;
+    let t885 = t729 * t879 + t728 * t872;
     let t888 = t882 * t882 + t885 * t885;
     let t891 = 1.0 / ::armforge_runtime::math::sqrt(t888.max(1e-300));
     let t894 = t888 - 1e-300;
@@ -18102,8 +18102,8 @@ fn branch_8(
         - 0.17623569729903374 * t928;
     let t951 = 0.8857067355483286 * t928
         + (0.0596784850348138 * t932 - 0.4603933720507634 * t935);
-    let t958 = 0.36330684410113046 * t915 + 0.010769702681280715 * t916;
-    let t959 = 0.008838811535368396 * t915 - 0.34202710427059546 * t916;
+    let t958 = 0.3633068441011305 * t915 + 0.010769702681280715 * t916;
+    let t959 = 0.008838811535368396 * t915 - 0.3420271042705954 * t916;
     let t960 = 0.007257664778242853 * t915 - 0.12257297706485838 * t916;
     let t965 = 0.8857067355483286 * t960
         + (0.42949337317570635 * t958 - 0.17623569729903374 * t959);
@@ -18111,25 +18111,25 @@ fn branch_8(
     let t967 = 0.17623569729903374 * t965;
     let t968 = 0.8857067355483286 * t965;
     let t998 = t951 * t951 + (t948 * t948 + t950 * t950) - rho;
-    let t1004 = t85
+    let t1004 = t90
         + (0.9624466120930804 * t948 - 0.2697142818890529 * t950
             - 0.03083382907820819 * t951);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_1 = (t814 * t814 / t724 + t820 * t820
-        - (t998 * t998 / t724 + t1004 * t1004))
+    let refine_1 = (t814 * t814 / t732 + t820 * t820
+        - (t998 * t998 / t732 + t1004 * t1004))
         .min(1e-12 - (t877 + t897));
-    let t1014 = if refine_1 >= 0.0 { t895 } else { t720 };
-    let t1015 = if refine_1 >= 0.0 { t896 } else { t721 };
+    let t1014 = if refine_1 >= 0.0 { t895 } else { t728 };
+    let t1015 = if refine_1 >= 0.0 { t896 } else { t729 };
     let t1016 = if refine_1 >= 0.0 { t915 } else { j3_cos1 };
     let t1017 = if refine_1 >= 0.0 { t916 } else { j3_sin1 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (x)
-    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t758 };
+    let w_1_x = if refine_1 >= 0.0 { -t948 } else { -t763 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (y)
-    let w_1_y = if refine_1 >= 0.0 { t950 } else { t760 };
+    let w_1_y = if refine_1 >= 0.0 { t950 } else { t765 };
     // w − f1 = (a + n·R2 r) n + (ℓ·R2 r) ℓ + Z h2: the wrist center, joint 1 undone (z)
-    let w_1_z = if refine_1 >= 0.0 { t951 } else { t761 };
+    let w_1_z = if refine_1 >= 0.0 { t951 } else { t766 };
     // ≥ 0: shoulder facing
-    let side_1 = if refine_1 >= 0.0 { t932 } else { t733 };
+    let side_1 = if refine_1 >= 0.0 { t932 } else { t741 };
     let t1022 = if refine_1 >= 0.0 {
         t895 * (t966 - t958)
             - t896 * (0.17623569729903374 * t960 + 0.8857067355483286 * t959) - t966
@@ -18206,7 +18206,7 @@ fn branch_8(
     let t1137 = 0.30771760026101724 * j3_sin2 - 0.13907834228567872 * j3_cos2
         + 0.06623212901996009;
     let t1141 = x0 - (0.5919276748760448 * j3_cos2 + 0.38971066474529115 * j3_sin2);
-    let t1145 = t96 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
+    let t1145 = t106 + (0.021008286871006688 * j3_cos2 + 0.07742431593984048 * j3_sin2);
     let t1148 = t1133 * t1141 - t1137 * t1145;
     let t1151 = t1133 * t1145 + t1137 * t1141;
     let t1154 = t1148 * t1148 + t1151 * t1151;
@@ -18224,8 +18224,8 @@ fn branch_8(
         - 0.17623569729903374 * t1167;
     let t1190 = 0.8857067355483286 * t1167
         + (0.0596784850348138 * t1171 - 0.4603933720507634 * t1174);
-    let t1197 = 0.36330684410113046 * j3_cos2 + 0.010769702681280715 * j3_sin2;
-    let t1198 = 0.008838811535368396 * j3_cos2 - 0.34202710427059546 * j3_sin2;
+    let t1197 = 0.3633068441011305 * j3_cos2 + 0.010769702681280715 * j3_sin2;
+    let t1198 = 0.008838811535368396 * j3_cos2 - 0.3420271042705954 * j3_sin2;
     let t1199 = 0.007257664778242853 * j3_cos2 - 0.12257297706485838 * j3_sin2;
     let t1204 = 0.8857067355483286 * t1199
         + (0.42949337317570635 * t1197 - 0.17623569729903374 * t1198);
@@ -18240,7 +18240,7 @@ fn branch_8(
         + (t1162 * (t1199 - t1207)
             - t1163 * (0.42949337317570635 * t1198 + 0.17623569729903374 * t1197));
     let t1237 = t1190 * t1190 + (t1187 * t1187 + t1189 * t1189) - rho;
-    let t1243 = t85
+    let t1243 = t90
         + (0.9624466120930804 * t1187 - 0.2697142818890529 * t1189
             - 0.03083382907820819 * t1190);
     let t1248 = 0.10289586907146948 - t1187;
@@ -18291,8 +18291,8 @@ fn branch_8(
         - 0.17623569729903374 * t1348;
     let t1371 = 0.8857067355483286 * t1348
         + (0.0596784850348138 * t1352 - 0.4603933720507634 * t1355);
-    let t1378 = 0.36330684410113046 * t1335 + 0.010769702681280715 * t1336;
-    let t1379 = 0.008838811535368396 * t1335 - 0.34202710427059546 * t1336;
+    let t1378 = 0.3633068441011305 * t1335 + 0.010769702681280715 * t1336;
+    let t1379 = 0.008838811535368396 * t1335 - 0.3420271042705954 * t1336;
     let t1380 = 0.007257664778242853 * t1335 - 0.12257297706485838 * t1336;
     let t1385 = 0.8857067355483286 * t1380
         + (0.42949337317570635 * t1378 - 0.17623569729903374 * t1379);
@@ -18300,12 +18300,12 @@ fn branch_8(
     let t1387 = 0.17623569729903374 * t1385;
     let t1388 = 0.8857067355483286 * t1385;
     let t1418 = t1371 * t1371 + (t1368 * t1368 + t1370 * t1370) - rho;
-    let t1424 = t85
+    let t1424 = t90
         + (0.9624466120930804 * t1368 - 0.2697142818890529 * t1370
             - 0.03083382907820819 * t1371);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_2 = (t1237 * t1237 / t724 + t1243 * t1243
-        - (t1418 * t1418 / t724 + t1424 * t1424))
+    let refine_2 = (t1237 * t1237 / t732 + t1243 * t1243
+        - (t1418 * t1418 / t732 + t1424 * t1424))
         .min(1e-12 - (t1297 + t1317));
     let t1433 = if refine_2 >= 0.0 { t1315 } else { t1162 };
     let t1434 = if refine_2 >= 0.0 { t1316 } else { t1163 };
@@ -18395,7 +18395,7 @@ fn branch_8(
     let t1555 = 0.30771760026101724 * j3_sin3 - 0.13907834228567872 * j3_cos3
         + 0.06623212901996009;
     let t1559 = x0 - (0.5919276748760448 * j3_cos3 + 0.38971066474529115 * j3_sin3);
-    let t1563 = t96 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
+    let t1563 = t106 + (0.021008286871006688 * j3_cos3 + 0.07742431593984048 * j3_sin3);
     let t1566 = t1551 * t1559 - t1555 * t1563;
     let t1569 = t1551 * t1563 + t1555 * t1559;
     let t1572 = t1566 * t1566 + t1569 * t1569;
@@ -18413,8 +18413,8 @@ fn branch_8(
         - 0.17623569729903374 * t1585;
     let t1608 = 0.8857067355483286 * t1585
         + (0.0596784850348138 * t1589 - 0.4603933720507634 * t1592);
-    let t1615 = 0.36330684410113046 * j3_cos3 + 0.010769702681280715 * j3_sin3;
-    let t1616 = 0.008838811535368396 * j3_cos3 - 0.34202710427059546 * j3_sin3;
+    let t1615 = 0.3633068441011305 * j3_cos3 + 0.010769702681280715 * j3_sin3;
+    let t1616 = 0.008838811535368396 * j3_cos3 - 0.3420271042705954 * j3_sin3;
     let t1617 = 0.007257664778242853 * j3_cos3 - 0.12257297706485838 * j3_sin3;
     let t1622 = 0.8857067355483286 * t1617
         + (0.42949337317570635 * t1615 - 0.17623569729903374 * t1616);
@@ -18429,7 +18429,7 @@ fn branch_8(
         + (t1580 * (t1617 - t1625)
             - t1581 * (0.42949337317570635 * t1616 + 0.17623569729903374 * t1615));
     let t1655 = t1608 * t1608 + (t1605 * t1605 + t1607 * t1607) - rho;
-    let t1661 = t85
+    let t1661 = t90
         + (0.9624466120930804 * t1605 - 0.2697142818890529 * t1607
             - 0.03083382907820819 * t1608);
     let t1666 = 0.10289586907146948 - t1605;
@@ -18480,8 +18480,8 @@ fn branch_8(
         - 0.17623569729903374 * t1766;
     let t1789 = 0.8857067355483286 * t1766
         + (0.0596784850348138 * t1770 - 0.4603933720507634 * t1773);
-    let t1796 = 0.36330684410113046 * t1753 + 0.010769702681280715 * t1754;
-    let t1797 = 0.008838811535368396 * t1753 - 0.34202710427059546 * t1754;
+    let t1796 = 0.3633068441011305 * t1753 + 0.010769702681280715 * t1754;
+    let t1797 = 0.008838811535368396 * t1753 - 0.3420271042705954 * t1754;
     let t1798 = 0.007257664778242853 * t1753 - 0.12257297706485838 * t1754;
     let t1803 = 0.8857067355483286 * t1798
         + (0.42949337317570635 * t1796 - 0.17623569729903374 * t1797);
@@ -18489,12 +18489,12 @@ fn branch_8(
     let t1805 = 0.17623569729903374 * t1803;
     let t1806 = 0.8857067355483286 * t1803;
     let t1836 = t1789 * t1789 + (t1786 * t1786 + t1788 * t1788) - rho;
-    let t1842 = t85
+    let t1842 = t90
         + (0.9624466120930804 * t1786 - 0.2697142818890529 * t1788
             - 0.03083382907820819 * t1789);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_3 = (t1655 * t1655 / t724 + t1661 * t1661
-        - (t1836 * t1836 / t724 + t1842 * t1842))
+    let refine_3 = (t1655 * t1655 / t732 + t1661 * t1661
+        - (t1836 * t1836 / t732 + t1842 * t1842))
         .min(1e-12 - (t1715 + t1735));
     let t1851 = if refine_3 >= 0.0 { t1733 } else { t1580 };
     let t1852 = if refine_3 >= 0.0 { t1734 } else { t1581 };
@@ -18584,7 +18584,7 @@ fn branch_8(
     let t1973 = 0.30771760026101724 * j3_sin4 - 0.13907834228567872 * j3_cos4
         + 0.06623212901996009;
     let t1977 = x0 - (0.5919276748760448 * j3_cos4 + 0.38971066474529115 * j3_sin4);
-    let t1981 = t96 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
+    let t1981 = t106 + (0.021008286871006688 * j3_cos4 + 0.07742431593984048 * j3_sin4);
     let t1984 = t1969 * t1977 - t1973 * t1981;
     let t1987 = t1969 * t1981 + t1973 * t1977;
     let t1990 = t1984 * t1984 + t1987 * t1987;
@@ -18602,8 +18602,8 @@ fn branch_8(
         - 0.17623569729903374 * t2003;
     let t2026 = 0.8857067355483286 * t2003
         + (0.0596784850348138 * t2007 - 0.4603933720507634 * t2010);
-    let t2033 = 0.36330684410113046 * j3_cos4 + 0.010769702681280715 * j3_sin4;
-    let t2034 = 0.008838811535368396 * j3_cos4 - 0.34202710427059546 * j3_sin4;
+    let t2033 = 0.3633068441011305 * j3_cos4 + 0.010769702681280715 * j3_sin4;
+    let t2034 = 0.008838811535368396 * j3_cos4 - 0.3420271042705954 * j3_sin4;
     let t2035 = 0.007257664778242853 * j3_cos4 - 0.12257297706485838 * j3_sin4;
     let t2040 = 0.8857067355483286 * t2035
         + (0.42949337317570635 * t2033 - 0.17623569729903374 * t2034);
@@ -18618,7 +18618,7 @@ fn branch_8(
         + (t1998 * (t2035 - t2043)
             - t1999 * (0.42949337317570635 * t2034 + 0.17623569729903374 * t2033));
     let t2073 = t2026 * t2026 + (t2023 * t2023 + t2025 * t2025) - rho;
-    let t2079 = t85
+    let t2079 = t90
         + (0.9624466120930804 * t2023 - 0.2697142818890529 * t2025
             - 0.03083382907820819 * t2026);
     let t2084 = 0.10289586907146948 - t2023;
@@ -18669,8 +18669,8 @@ fn branch_8(
         - 0.17623569729903374 * t2184;
     let t2207 = 0.8857067355483286 * t2184
         + (0.0596784850348138 * t2188 - 0.4603933720507634 * t2191);
-    let t2214 = 0.36330684410113046 * t2171 + 0.010769702681280715 * t2172;
-    let t2215 = 0.008838811535368396 * t2171 - 0.34202710427059546 * t2172;
+    let t2214 = 0.3633068441011305 * t2171 + 0.010769702681280715 * t2172;
+    let t2215 = 0.008838811535368396 * t2171 - 0.3420271042705954 * t2172;
     let t2216 = 0.007257664778242853 * t2171 - 0.12257297706485838 * t2172;
     let t2221 = 0.8857067355483286 * t2216
         + (0.42949337317570635 * t2214 - 0.17623569729903374 * t2215);
@@ -18678,12 +18678,12 @@ fn branch_8(
     let t2223 = 0.17623569729903374 * t2221;
     let t2224 = 0.8857067355483286 * t2221;
     let t2254 = t2207 * t2207 + (t2204 * t2204 + t2206 * t2206) - rho;
-    let t2260 = t85
+    let t2260 = t90
         + (0.9624466120930804 * t2204 - 0.2697142818890529 * t2206
             - 0.03083382907820819 * t2207);
     // ≥ 0 when the Newton step on the two equations is short and lowers the miss
-    let refine_4 = (t2073 * t2073 / t724 + t2079 * t2079
-        - (t2254 * t2254 / t724 + t2260 * t2260))
+    let refine_4 = (t2073 * t2073 / t732 + t2079 * t2079
+        - (t2254 * t2254 / t732 + t2260 * t2260))
         .min(1e-12 - (t2133 + t2153));
     let t2269 = if refine_4 >= 0.0 { t2151 } else { t1998 };
     let t2270 = if refine_4 >= 0.0 { t2152 } else { t1999 };

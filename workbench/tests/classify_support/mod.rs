@@ -276,6 +276,15 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("base_wrist.angle_1_2", e.wrist.angle_5_6);
             put("base_wrist.angle_2_3", e.wrist.angle_4_5);
         }
+        ArmEvidence::MidWrist(e) => {
+            put("mid_wrist.miss", e.wrist.miss);
+            put("mid_wrist.angle_2_3", e.wrist.angle_4_5);
+            put("mid_wrist.angle_3_4", e.wrist.angle_5_6);
+            put("center_from_axis_1", e.center_from_axis_1);
+            put("center_from_axis_5", e.center_from_axis_5);
+            put("common_normal_5_6", e.common_normal_5_6);
+            put("angle_5_6", e.angle_5_6);
+        }
     }
     for s in &g.singularities {
         match s {

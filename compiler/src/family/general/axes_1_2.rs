@@ -47,53 +47,49 @@ use crate::plan::vec3::{self, num, V3};
 use crate::plan::{unit_pair, ArmSolution, Target};
 
 use super::plan::{
-    aim, along, at, finish, on_axis_1, placed, radius_terms, route, Aim, Constants, Root,
+    aim, along, at, finish, on_axis_1, placed, radius_terms, route, Aim, Circle, Constants, Root,
 };
 
 /// The two roots of joint 3 from `k1 cos θ3 + k2 sin θ3 = e` (the classifier has made sure
 /// that `k1² + k2²` is clear of zero, so the reference is never used).
 fn joint_3_roots(
     g: &mut Graph,
-    [k1, k2]: [f64; 2],
+    [a, b]: [Id; 2],
     e: Id,
     (threshold, unit): (f64, &str),
 ) -> [(Id, Id); 2] {
-    let a = g.constant(k1);
-    let b = g.constant(k2);
     let one = g.constant(1.0);
     let zero = g.constant(0.0);
     rotate_into_plane(g, [a, b, e], (one, zero), threshold, unit, "j3").roots
 }
 
 /// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`, from `f2`.
-fn radius(g: &mut Graph, k: &Constants, (c3, s3): (Id, Id)) -> V3 {
-    let p = vec3::scale_const(g, c3, k.rc);
-    let q = vec3::scale_const(g, s3, k.rs);
+fn radius(g: &mut Graph, r: &Circle, (c3, s3): (Id, Id)) -> V3 {
+    let p = vec3::scale(g, c3, r.rc);
+    let q = vec3::scale(g, s3, r.rs);
     let s = vec3::add(g, p, q);
-    vec3::add_const(g, s, k.r0)
+    vec3::add(g, s, r.r0)
 }
 
 /// Joints 1–3 when axes 1 and 2 meet.
 pub fn solve_meeting(
     g: &mut Graph,
-    arm: &crate::plan::Arm,
-    k: &Constants,
+    (scale, k, r): (f64, &Constants, &Circle),
     t: &Target,
     ct: V3,
 ) -> Vec<ArmSolution> {
-    let tol = 1e-10 * arm.scale;
+    let tol = 1e-10 * scale;
     let target = aim(g, k, ct);
     let Aim { u, rho, zeta } = target;
-    let kk = radius_terms(k);
+    let kk = radius_terms(g, r);
     let e = {
-        let k0 = g.constant(kk[0]);
-        let e = g.sub(rho, k0);
+        let e = g.sub(rho, kk[0]);
         g.name(e, "j3_e", "ρ − K0: |r(θ3)|² = ρ keeps the distance from O")
     };
-    let roots3 = joint_3_roots(g, [kk[1], kk[2]], e, ((tol * arm.scale).powi(2), " m²"));
+    let roots3 = joint_3_roots(g, [kk[1], kk[2]], e, ((tol * scale).powi(2), " m²"));
     let on_axis = on_axis_1(g, &target, tol);
-    let z = along(g, k, k.h2);
-    let radius2 = [kk[0], kk[1], kk[2]].map(|x| g.constant(x));
+    let z = along(g, r, k.h2);
+    let radius2 = kk;
     let h12 = num::cross(&k.h1, &k.h2);
     let inv = 1.0 / (k.cos_a * k.cos_a - 1.0);
     let mut roots: Vec<Root> = Vec::new();
@@ -130,9 +126,9 @@ pub fn solve_meeting(
                 "γ = √max((|r|² − α² − β² − 2αβ cos α12) / sin² α12, 0): Paden–Kahan 2",
             )
         };
-        let r = radius(g, k, cs3);
+        let rv = radius(g, r, cs3);
         let axial = vec3::scale_const(g, zv, k.h2);
-        let r_perp = vec3::sub(g, r, axial);
+        let r_perp = vec3::sub(g, rv, axial);
         for (j, sigma) in [1.0, -1.0].into_iter().enumerate() {
             let n = 2 * i + j + 1;
             let sg = if sigma > 0.0 { gamma } else { g.neg(gamma) };
@@ -145,7 +141,7 @@ pub fn solve_meeting(
             };
             let (nc, ns) = rotate_onto(g, k.h2, r_perp, zp);
             let cs2 = unit_pair(g, nc, ns);
-            let place = placed(g, k, z, cs2, cs3);
+            let place = placed(g, (k, r), z, cs2, cs3);
             let note = "Paden–Kahan 2: θ2 turns r onto z = α h1 + β h2 ± γ (h1 × h2) about axis 2";
             roots.push(finish(
                 g,
@@ -154,31 +150,29 @@ pub fn solve_meeting(
                 (u, on_axis),
                 [cs2, cs3],
                 place,
-                (n, note, arm.scale),
+                (n, note, scale),
             ));
         }
     }
-    route(g, k, &roots, on_axis, (tol, arm.scale))
+    route(g, k, &roots, on_axis, (tol, scale))
 }
 
 /// Joints 1–3 when axes 1 and 2 are parallel.
 pub fn solve_parallel(
     g: &mut Graph,
-    arm: &crate::plan::Arm,
-    k: &Constants,
+    (scale, k, r): (f64, &Constants, &Circle),
     t: &Target,
     ct: V3,
 ) -> Vec<ArmSolution> {
-    let tol = 1e-10 * arm.scale;
+    let tol = 1e-10 * scale;
     let target = aim(g, k, ct);
     let Aim { u, rho, zeta } = target;
-    let z = along(g, k, k.h2);
-    let [z0, z1, z2] = [k.r0, k.rc, k.rs].map(|v| num::dot(&k.h2, &v));
+    let z = along(g, r, k.h2);
+    let [z0, z1, z2] = z;
     // h1 = ±h2: the height along h2 the target asks for.
     let e = {
         let s = g.constant(k.cos_a.signum());
         let height = g.mul(s, zeta);
-        let z0 = g.constant(z0);
         let e = g.sub(height, z0);
         g.name(
             e,
@@ -196,8 +190,8 @@ pub fn solve_parallel(
         g.sub(d, aa)
     };
     let inv_2a = g.constant(1.0 / (2.0 * k.a));
-    let rn = along(g, k, k.n);
-    let rl = along(g, k, k.ell);
+    let rn = along(g, r, k.n);
+    let rl = along(g, r, k.ell);
     let mut roots: Vec<Root> = Vec::new();
     for (i, &cs3) in roots3.iter().enumerate() {
         let rn = at(g, rn, cs3);
@@ -231,7 +225,7 @@ pub fn solve_parallel(
             let b = g.mul(rl, x);
             let ns = g.sub(a, b);
             let cs2 = unit_pair(g, nc, ns);
-            let place = placed(g, k, z, cs2, cs3);
+            let place = placed(g, (k, r), z, cs2, cs3);
             let note = "Paden–Kahan 1: θ2 = atan2((n·r) (±Y) − (ℓ·r) X, (n·r) X + (ℓ·r) (±Y))";
             roots.push(finish(
                 g,
@@ -240,9 +234,9 @@ pub fn solve_parallel(
                 (u, on_axis),
                 [cs2, cs3],
                 place,
-                (n, note, arm.scale),
+                (n, note, scale),
             ));
         }
     }
-    route(g, k, &roots, on_axis, (tol, arm.scale))
+    route(g, k, &roots, on_axis, (tol, scale))
 }

@@ -116,14 +116,35 @@ pub struct Constants {
     pub rc: [f64; 3],
     /// See `r0`.
     pub rs: [f64; 3],
-    /// `h3 × rc`, `h3 × rs`: `h3 × R3 (c − p3)` for the Jacobian.
-    pub jc: [f64; 3],
-    /// See `jc`.
-    pub js: [f64; 3],
     /// The shoulder side that means `Facing` (the side at zero).
     pub facing: f64,
     /// The Jacobian sign that means `Up` (the sign at zero).
     pub up: f64,
+}
+
+/// The circle joint 3 moves the placed point on, seen from `f2`:
+/// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`, with `rc ⟂ rs` and `|rc| = |rs|`, so that
+/// `∂r/∂θ3 = cos θ3 rs − sin θ3 rc`. Constant for a general arm ([`Circle::fixed`]); a chain
+/// read through the target (the mid-wrist family's) moves it with the target.
+#[derive(Clone, Copy, Debug)]
+pub struct Circle {
+    /// The circle's center from `f2`.
+    pub r0: V3,
+    /// The radius at `θ3 = 0`.
+    pub rc: V3,
+    /// The radius a quarter turn on.
+    pub rs: V3,
+}
+
+impl Circle {
+    /// The circle of a general arm's joint 3: the constants' own.
+    pub fn fixed(g: &mut Graph, k: &Constants) -> Circle {
+        Circle {
+            r0: vec3::constant(g, k.r0),
+            rc: vec3::constant(g, k.rc),
+            rs: vec3::constant(g, k.rs),
+        }
+    }
 }
 
 /// The common normal of two lines `p + s h`: its feet on each line.
@@ -144,9 +165,10 @@ fn common_normal(p1: &[f64; 3], h1: &[f64; 3], p2: &[f64; 3], h2: &[f64; 3]) -> 
 /// Axes 1 and 2: their layout, the feet `f1`, `f2` of their common normal, its length `a` and
 /// direction `n` (for meeting axes `f1 = f2` is the meeting point and `n = h1 × h2 / sin α`;
 /// for parallel ones `f1` is the foot of `p2` on axis 1).
-fn axes_1_2(arm: &Arm) -> (Layout, [[f64; 3]; 2], f64, [f64; 3]) {
-    let (h1, p1) = (arm.axis(0), arm.point(0));
-    let (h2, p2) = (arm.axis(1), arm.point(1));
+fn axes_1_2(
+    [(h1, p1), (h2, p2)]: [([f64; 3], [f64; 3]); 2],
+    scale: f64,
+) -> (Layout, [[f64; 3]; 2], f64, [f64; 3]) {
     let cross = num::cross(&h1, &h2);
     let sin_a = num::norm(&cross);
     if sin_a <= PARALLEL {
@@ -157,7 +179,7 @@ fn axes_1_2(arm: &Arm) -> (Layout, [[f64; 3]; 2], f64, [f64; 3]) {
     }
     let [f1, f2] = common_normal(&p1, &h1, &p2, &h2);
     let a = num::norm(&num::sub(&f2, &f1));
-    if a <= MEET * arm.scale {
+    if a <= MEET * scale {
         let o = num::scale(&num::add(&f1, &f2), 0.5);
         return (Layout::Meet, [o, o], 0.0, num::scale(&cross, 1.0 / sin_a));
     }
@@ -172,13 +194,18 @@ fn axes_1_2(arm: &Arm) -> (Layout, [[f64; 3]; 2], f64, [f64; 3]) {
 /// The constants of `arm` (the classifier has made sure that axes 1 and 2 are not one line
 /// and that, when they meet, axis 3 misses the meeting point; `sin α` is kept above 1e-300).
 pub fn constants(arm: &Arm) -> Constants {
-    let c = arm.wrist_center;
-    let (h1, p1) = (arm.axis(0), arm.point(0));
-    let (h2, p2) = (arm.axis(1), arm.point(1));
-    let (h3, p3) = (arm.axis(2), arm.point(2));
+    let lines = [0, 1, 2].map(|i| (arm.axis(i), arm.point(i)));
+    constants_of(lines, arm.wrist_center, arm.scale)
+}
+
+/// The constants of three joint lines `(h, p)` that place the point `c` (at zero), for an arm
+/// of size `scale`: [`constants`] of a general arm, or the lines of another family's chain
+/// read in this family's terms.
+pub fn constants_of(lines: [([f64; 3], [f64; 3]); 3], c: [f64; 3], scale: f64) -> Constants {
+    let [(h1, p1), (h2, p2), (h3, p3)] = lines;
     let cos_a = num::dot(&h1, &h2);
     let sin_a = num::norm(&num::cross(&h1, &h2)).max(1e-300);
-    let (layout, [f1, f2], a, n) = axes_1_2(arm);
+    let (layout, [f1, f2], a, n) = axes_1_2([(h1, p1), (h2, p2)], scale);
     let ell = num::cross(&h2, &n);
     let side = if layout == Layout::Parallel { ell } else { n };
     let m = num::scale(&num::sub(&h1, &num::scale(&h2, cos_a)), 1.0 / sin_a);
@@ -214,8 +241,6 @@ pub fn constants(arm: &Arm) -> Constants {
         r0,
         rc,
         rs,
-        jc: num::cross(&h3, &rc),
-        js: num::cross(&h3, &rs),
         facing,
         up,
     }
@@ -234,7 +259,7 @@ pub fn rules(arm: &Arm, k: &Constants) -> (ShoulderRule, ElbowRule) {
     )
 }
 
-/// `k0 + k1 cos θ + k2 sin θ` with constant `k1`, `k2` and the graph value `k0`.
+/// `k0 + k1 cos θ + k2 sin θ` (graph values; constants for a general arm's `k1`, `k2`).
 pub(super) type Linear = [Id; 3];
 
 /// `L²` as a degree-2 trigonometric polynomial `[k0, k1, k2, k3, k4]` (coefficients of
@@ -255,12 +280,12 @@ fn squared(g: &mut Graph, [l0, l1, l2]: Linear) -> [Id; 5] {
     [k0, g.mul(two, l01), g.mul(two, l02), g.mul(half, diff), l12]
 }
 
-/// `k · (const, cos θ, sin θ)` pieces of `k · r(θ3)` for a constant direction `k`.
-pub(super) fn along(g: &mut Graph, k: &Constants, d: [f64; 3]) -> Linear {
+/// `d · (const, cos θ, sin θ)` pieces of `d · r(θ3)` for a constant direction `d`.
+pub(super) fn along(g: &mut Graph, r: &Circle, d: [f64; 3]) -> Linear {
     [
-        g.constant(num::dot(&d, &k.r0)),
-        g.constant(num::dot(&d, &k.rc)),
-        g.constant(num::dot(&d, &k.rs)),
+        vec3::dot_const(g, d, r.r0),
+        vec3::dot_const(g, d, r.rc),
+        vec3::dot_const(g, d, r.rs),
     ]
 }
 
@@ -288,10 +313,22 @@ pub(super) struct Root {
 /// Builds joints 1–3 of a general arm: four labelled slots, each holding the root of its
 /// label (a failing candidate when no root has it).
 pub fn solve(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec<ArmSolution> {
+    let r = Circle::fixed(g, k);
+    solve_on(g, (arm.scale, k, &r), t, ct)
+}
+
+/// [`solve`] for the lines of `k` with joint 3 moving the placed point on the circle `r`,
+/// for an arm of size `scale`, placing it at `ct`.
+pub fn solve_on(
+    g: &mut Graph,
+    (scale, k, r): (f64, &Constants, &Circle),
+    t: &Target,
+    ct: V3,
+) -> Vec<ArmSolution> {
     match k.layout {
-        Layout::Skew => solve_skew(g, arm, k, t, ct),
-        Layout::Meet => super::axes_1_2::solve_meeting(g, arm, k, t, ct),
-        Layout::Parallel => super::axes_1_2::solve_parallel(g, arm, k, t, ct),
+        Layout::Skew => solve_skew(g, (scale, k, r), t, ct),
+        Layout::Meet => super::axes_1_2::solve_meeting(g, (scale, k, r), t, ct),
+        Layout::Parallel => super::axes_1_2::solve_parallel(g, (scale, k, r), t, ct),
     }
 }
 
@@ -319,12 +356,13 @@ pub(super) fn aim(g: &mut Graph, k: &Constants, ct: V3) -> Aim {
 }
 
 /// `|r|² = K0 + K1 cos θ3 + K2 sin θ3` (`rc ⟂ rs`, `|rc| = |rs|`).
-pub(super) fn radius_terms(k: &Constants) -> [f64; 3] {
-    [
-        num::dot(&k.r0, &k.r0) + num::dot(&k.rc, &k.rc),
-        2.0 * num::dot(&k.r0, &k.rc),
-        2.0 * num::dot(&k.r0, &k.rs),
-    ]
+pub(super) fn radius_terms(g: &mut Graph, r: &Circle) -> Linear {
+    let two = g.constant(2.0);
+    let r00 = vec3::dot(g, r.r0, r.r0);
+    let rcc = vec3::dot(g, r.rc, r.rc);
+    let r0c = vec3::dot(g, r.r0, r.rc);
+    let r0s = vec3::dot(g, r.r0, r.rs);
+    [g.add(r00, rcc), g.mul(two, r0c), g.mul(two, r0s)]
 }
 
 /// `≥ 0` when the target is on axis 1 (joint 1 is free: the reference is used).
@@ -341,15 +379,21 @@ pub(super) fn on_axis_1(g: &mut Graph, aim: &Aim, tol: f64) -> Id {
 }
 
 /// Axes 1 and 2 apart and not parallel: the quartic in joint 3.
-fn solve_skew(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Vec<ArmSolution> {
-    let tol = 1e-10 * arm.scale;
+fn solve_skew(
+    g: &mut Graph,
+    (scale, k, r): (f64, &Constants, &Circle),
+    t: &Target,
+    ct: V3,
+) -> Vec<ArmSolution> {
+    let tol = 1e-10 * scale;
     let target = aim(g, k, ct);
     let Aim { u, rho, zeta } = target;
-    let kk = radius_terms(k);
-    let z = along(g, k, k.h2);
+    let kk = radius_terms(g, r);
+    let z = along(g, r, k.h2);
     let inv_2a = 1.0 / (2.0 * k.a);
     let x0 = {
-        let shift = g.constant(k.a * k.a + kk[0]);
+        let aa = g.constant(k.a * k.a);
+        let shift = g.add(aa, kk[0]);
         let d = g.sub(rho, shift);
         let s = g.constant(inv_2a);
         let x0 = g.mul(s, d);
@@ -362,11 +406,12 @@ fn solve_skew(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Ve
             ),
         )
     };
-    let x = [x0, g.constant(-kk[1] * inv_2a), g.constant(-kk[2] * inv_2a)];
+    let minus_inv_2a = g.constant(-inv_2a);
+    let x = [x0, g.mul(minus_inv_2a, kk[1]), g.mul(minus_inv_2a, kk[2])];
     let cot = k.cos_a / k.sin_a;
     let y0 = {
-        let zc = g.constant_value(z[0]).unwrap_or(0.0);
-        let shift = g.constant(k.cos_a * zc);
+        let cos_a = g.constant(k.cos_a);
+        let shift = g.mul(cos_a, z[0]);
         let d = g.sub(zeta, shift);
         let s = g.constant(1.0 / k.sin_a);
         let y0 = g.mul(s, d);
@@ -380,19 +425,14 @@ fn solve_skew(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Ve
             ),
         )
     };
-    let zv = [z[1], z[2]].map(|id| g.constant_value(id).unwrap_or(0.0));
-    let y = [y0, g.constant(-cot * zv[0]), g.constant(-cot * zv[1])];
+    let minus_cot = g.constant(-cot);
+    let y = [y0, g.mul(minus_cot, z[1]), g.mul(minus_cot, z[2])];
     let (fx, fy, fz) = (squared(g, x), squared(g, y), squared(g, z));
     let mut f = [0; 5];
     for i in 0..5 {
         let s = g.add(fx[i], fy[i]);
         let s = g.add(s, fz[i]);
-        f[i] = if i < 3 {
-            let r = g.constant(kk[i]);
-            g.sub(s, r)
-        } else {
-            s
-        };
+        f[i] = if i < 3 { g.sub(s, kk[i]) } else { s };
     }
     let notes = [
         "k0",
@@ -417,7 +457,7 @@ fn solve_skew(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Ve
         .map(|(i, &cs3)| {
             carry(
                 g,
-                k,
+                (k, r),
                 t,
                 (u, rho, zeta),
                 x,
@@ -425,11 +465,11 @@ fn solve_skew(g: &mut Graph, arm: &Arm, k: &Constants, t: &Target, ct: V3) -> Ve
                 z,
                 cs3,
                 on_axis,
-                (i + 1, arm.scale),
+                (i + 1, scale),
             )
         })
         .collect();
-    route(g, k, &carried, on_axis, (tol, arm.scale))
+    route(g, k, &carried, on_axis, (tol, scale))
 }
 
 /// The wrist center with joint 1 undone for joint pairs `(c2, s2)`, `(c3, s3)`:
@@ -439,19 +479,19 @@ pub(super) struct Placed {
     /// The shoulder label's side: `side · (w − f1)` (`n · (w − f1)` unless axes 1 and 2 are
     /// parallel).
     side: Id,
-    /// `∂w/∂θ3 = R2 (h3 × R3 (c − p3))`.
+    /// `∂w/∂θ3 = R2 (cos θ3 rs − sin θ3 rc)` (`= R2 (h3 × R3 (c − p3))` for a general arm).
     d3: V3,
 }
 
 pub(super) fn placed(
     g: &mut Graph,
-    k: &Constants,
+    (k, r): (&Constants, &Circle),
     z: Linear,
     (c2, s2): (Id, Id),
     (c3, s3): (Id, Id),
 ) -> Placed {
-    let rn = along(g, k, k.n);
-    let rl = along(g, k, k.ell);
+    let rn = along(g, r, k.n);
+    let rl = along(g, r, k.ell);
     let rn = at(g, rn, (c3, s3));
     let rl = at(g, rl, (c3, s3));
     let zv = at(g, z, (c3, s3));
@@ -471,9 +511,9 @@ pub(super) fn placed(
         vec3::add(g, s, wh)
     };
     let d3 = {
-        let p = vec3::scale_const(g, c3, k.jc);
-        let q = vec3::scale_const(g, s3, k.js);
-        let s = vec3::add(g, p, q);
+        let p = vec3::scale(g, c3, r.rs);
+        let q = vec3::scale(g, s3, r.rc);
+        let s = vec3::sub(g, p, q);
         vec3::rotate(g, k.h2, c2, s2, s)
     };
     let side = if k.layout == Layout::Parallel {
@@ -530,7 +570,7 @@ fn turn_by(g: &mut Graph, (c, s): (Id, Id), delta: Id) -> (Id, Id) {
 #[allow(clippy::too_many_arguments)]
 fn carry(
     g: &mut Graph,
-    k: &Constants,
+    (k, r): (&Constants, &Circle),
     t: &Target,
     (u, rho, zeta): (V3, Id, Id),
     x: Linear,
@@ -540,8 +580,8 @@ fn carry(
     on_axis: Id,
     (n, scale): (usize, f64),
 ) -> Root {
-    let rn = along(g, k, k.n);
-    let rl = along(g, k, k.ell);
+    let rn = along(g, r, k.n);
+    let rl = along(g, r, k.ell);
     let rn = at(g, rn, (c3, s3));
     let rl = at(g, rl, (c3, s3));
     let xv = at(g, x, (c3, s3));
@@ -560,7 +600,7 @@ fn carry(
         let r = g.max(rho, tol);
         g.mul(four, r)
     };
-    let before = placed(g, k, z, (c2, s2), (c3, s3));
+    let before = placed(g, (k, r), z, (c2, s2), (c3, s3));
     let (g1, g2, miss0) = misses(g, k, before.w, rho, zeta, four_rho);
     let d2 = d_theta2(g, k, before.w);
     let two = g.constant(2.0);
@@ -591,7 +631,7 @@ fn carry(
     };
     let (c2n, s2n) = turn_by(g, (c2, s2), delta2);
     let (c3n, s3n) = turn_by(g, (c3, s3), delta3);
-    let after = placed(g, k, z, (c2n, s2n), (c3n, s3n));
+    let after = placed(g, (k, r), z, (c2n, s2n), (c3n, s3n));
     let (_, _, miss1) = misses(g, k, after.w, rho, zeta, four_rho);
     let lowers = g.sub(miss0, miss1);
     // A short step only (|δ| ≤ 1e-6 rad): the step polishes a root; it must not carry the real

@@ -23,12 +23,19 @@ const JOINT_1_LINE: &str =
 /// The method and the steps, as [`super::plan`] builds them.
 pub fn steps(plan: &Plan) -> Steps {
     let k = constants(&plan.arm);
-    let [three, two_one] = match k.layout {
-        Layout::Skew => quartic(&k),
-        Layout::Meet => meeting(&k),
-        Layout::Parallel => parallel(&k),
-    };
+    let [three, two_one] = position_steps(&k);
     decoupled(plan, METHOD, vec![three, two_one, real_roots(&k)])
+}
+
+/// The two steps of the position problem for the lines of `k` (the quartic, or the
+/// quadratics when its axes 1 and 2 meet or are parallel), in the general family's symbols;
+/// the mid-wrist family shows them for its chain.
+pub(crate) fn position_steps(k: &Constants) -> [Step; 2] {
+    match k.layout {
+        Layout::Skew => quartic(k),
+        Layout::Meet => meeting(k),
+        Layout::Parallel => parallel(k),
+    }
 }
 
 /// Which roots are real, and the labels.

@@ -1,0 +1,69 @@
+//! A wrist in the middle (axes 2–4 meet): round trips on random arms whose axes 5 and 6 are
+//! apart, meeting or parallel (the three layouts of the position chain), classified and
+//! planned through the registry, and the family's rejections.
+//!
+//! Check values: Pieper (1968), three consecutive axes meeting: at most 4 placements of the
+//! meeting point, each with 2 wrist solutions, so at most 8 solutions (from memory); random
+//! poses of random arms reach 8.
+
+mod common;
+
+use common::{arms, check_round_trip};
+
+use armforge_compiler::classify::{classify, ArmEvidence, Family, Tolerances};
+use armforge_compiler::plan::build_plan;
+use armforge_compiler::plan::samples::{
+    sample_arm, sample_configuration, SampleOptions, SampleRng,
+};
+use armforge_compiler::solver::Solver;
+
+/// Poses with 8 solutions, by layout of axes 5 and 6 (apart, meeting, parallel).
+fn round_trips() -> [usize; 3] {
+    let mut full = [0; 3];
+    for seed in 0..arms() {
+        let (model, geometry) = sample_arm(Family::MidWrist, seed, &SampleOptions::default());
+        assert_eq!(geometry.solutions.total, 8, "arm {seed}");
+        let ArmEvidence::MidWrist(e) = &geometry.arm else {
+            panic!("arm {seed}: evidence {:?}", geometry.arm);
+        };
+        assert!(e.wrist.reaches_every_orientation, "arm {seed}");
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        let mut rng = SampleRng::new(4000 + seed);
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            let what = format!("mid-wrist arm {seed}");
+            if check_round_trip(&solver, &model, &q, 8, &what) == 8 {
+                full[(seed % 3) as usize] += 1;
+            }
+        }
+    }
+    full
+}
+
+#[test]
+fn random_arms_round_trip_in_every_layout() {
+    let full = round_trips();
+    eprintln!("poses with 8 solutions (apart, meeting, parallel): {full:?}");
+    // Pieper 1968: 4 placements × 2 wrist solutions are reached at generic poses.
+    assert!(full[0] > 0, "{full:?}");
+}
+
+/// Axis 5 through the meeting point of axes 2–4: joint 5 cannot move it; rejected. (Axis 1
+/// through it makes axes 1–3 meet as well: the wrist-at-base family rejects that arm.)
+#[test]
+fn axis_5_through_the_meeting_point_is_rejected() {
+    let (mut model, geometry) = sample_arm(Family::MidWrist, 4, &SampleOptions::default());
+    model.joints[4].joint.point = geometry.wrist_center;
+    let r = classify(&model, &Tolerances::default()).expect_err("rejected");
+    assert_eq!(r.reason.kind(), "mid_wrist_on_axis_5", "{r}");
+    assert!(r.message.contains("joint 5"), "{r}");
+}
+
+/// A sliding joint 6: rejected with the joint named.
+#[test]
+fn a_sliding_joint_6_is_rejected() {
+    let (mut model, _) = sample_arm(Family::MidWrist, 5, &SampleOptions::default());
+    model.joints[5].joint.kind = armforge_runtime::JointKind::Prismatic;
+    let r = classify(&model, &Tolerances::default()).expect_err("rejected");
+    assert_eq!(r.reason.kind(), "mid_wrist_slide", "{r}");
+}
