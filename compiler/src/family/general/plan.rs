@@ -120,7 +120,15 @@ pub struct Constants {
     pub facing: f64,
     /// The Jacobian sign that means `Up` (the sign at zero).
     pub up: f64,
+    /// Two roots whose joints 2 and 3 lie closer than this (sum of squared differences of
+    /// their cosines and sines) are one root found twice: a double root, or a complex pair's
+    /// real part polished onto a real root. [`COPIES`] for a general arm.
+    pub copies: f64,
 }
+
+/// A general arm's [`Constants::copies`]: about 1e-5 rad, where rounding separates the two
+/// halves of a double root (the square root of the epsilon, with room).
+pub const COPIES: f64 = 1e-10;
 
 /// The circle joint 3 moves the placed point on, seen from `f2`:
 /// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`, with `rc ⟂ rs` and `|rc| = |rs|`, so that
@@ -243,6 +251,7 @@ pub fn constants_of(lines: [([f64; 3], [f64; 3]); 3], c: [f64; 3], scale: f64) -
         rs,
         facing,
         up,
+        copies: COPIES,
     }
 }
 
@@ -546,7 +555,7 @@ fn misses(g: &mut Graph, k: &Constants, w: V3, rho: Id, zeta: Id, four_rho: Id) 
 
 /// `(c, s)` turned by the small angle `δ` (`cos δ ≈ 1 − δ²/2`, `sin δ ≈ δ`), made a unit
 /// pair again.
-fn turn_by(g: &mut Graph, (c, s): (Id, Id), delta: Id) -> (Id, Id) {
+pub(crate) fn turn_by(g: &mut Graph, (c, s): (Id, Id), delta: Id) -> (Id, Id) {
     let dd = g.mul(delta, delta);
     let half = g.constant(0.5);
     let hdd = g.mul(half, dd);
@@ -808,7 +817,7 @@ pub(super) fn route(
     // again: it fails its check.
     // In f32 the threshold grows ×2^14.5 (about 1.5e-3 rad): a squared distance of two roots
     // is no squared tolerance; ×2^29 would merge distinct roots 0.2 rad apart.
-    let near = g.exact_once(1e-10);
+    let near = g.exact_once(k.copies);
     let tol2 = g.exact(tol * tol);
     let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
     for j in 1..roots.len() {

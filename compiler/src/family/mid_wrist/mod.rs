@@ -10,11 +10,12 @@
 //! every orientation, a sliding joint 1, 5 or 6.
 
 pub mod plan;
+mod polish;
 mod steps;
 
 use armforge_runtime::Joint;
 
-use super::data::{Judged, Part, Role, Steps, Value, VerifyHints};
+use super::data::{Distance, Judged, Part, Role, SamplerBoundary, Steps, Value, VerifyHints};
 use super::{Family, FamilyModule, Found, Recognition};
 use crate::classify::context::Context;
 use crate::classify::decoupled::{gap, line_angle};
@@ -366,24 +367,42 @@ impl FamilyModule for MidWrist {
         true
     }
 
+    /// As the general family's hints for its chain (axes 5, 6 and joint 1's circle): the
+    /// meeting point's distance from axis 6 conditions joint 6 (on it, joint 6 cannot move the
+    /// point and is free); its distance from axis 5 is fixed (no hint).
     fn verify_hints(&self, _joints: &[Joint], geometry: &Geometry) -> VerifyHints {
         let aligned_at = match &geometry.arm {
             ArmEvidence::MidWrist(e) => e.wrist.aligned_at.clone(),
             _ => Vec::new(),
         };
+        let from_axis_6 = Distance {
+            point: geometry.wrist_center,
+            moved_by: vec![(4, true)],
+            axis: 5,
+        };
         VerifyHints {
             aligned_joint: 2,
             aligned_at,
-            axes: [None, None],
-            on_axis: None,
+            axes: [None, Some(from_axis_6.clone())],
+            on_axis: Some(SamplerBoundary {
+                distance: from_axis_6,
+                joint: 4,
+                at: 0.0,
+                side: 1.0,
+            }),
             boundaries: Vec::new(),
+            // The middle wrist's rotation comes after the chain, so its joints take the
+            // chain's errors too (the wrist roles include them); and where the middle wrist
+            // lines up the chain may be at a fold as well (in a right-angled arm whose axis 1
+            // is perpendicular to the plane of axes 5 and 6's motions, say), so joints 1, 5
+            // and 6 are split there too.
             roles: [
-                Role::Bend,
+                Role::BendAndSplit,
                 Role::WristSplit,
                 Role::WristMiddle,
                 Role::WristSplit,
-                Role::Bend,
-                Role::Bend,
+                Role::AxisAndSplit(0),
+                Role::AxisAndSplit(1),
             ],
         }
     }

@@ -33,7 +33,7 @@
 //! solutions each, 8 in all.
 
 use armforge_runtime::internal::BranchRule;
-use armforge_runtime::plan::CandidateLayout;
+use armforge_runtime::plan::{CandidateLayout, CheckLayout};
 use armforge_runtime::Branch;
 
 use crate::classify::Family;
@@ -43,13 +43,24 @@ use crate::plan::arm::Arm;
 use crate::plan::decouple::{self, Target};
 use crate::plan::graph::Graph;
 use crate::plan::vec3::{self, num, V3};
-use crate::plan::{pose, wrist, ArmSolution, Plan};
+use crate::plan::{pose, wrist, ArmSolution, Plan, Turn};
+
+use super::polish;
 
 /// The position chain in the general family's terms: its lines (axis 5, axis 6, axis 1) and
 /// the placed point `b`.
+///
+/// Two roots count as one only within about 1e-7 rad (the general family's 1e-5 rad would
+/// merge the two real roots of a near-double pair): joints 2–4 come after the chain here, and
+/// where the middle wrist nearly lines up, 1e-6 rad in the chain is tens of degrees in them.
+/// The polish ([`super::polish`]) brings a complex pair's real part onto its real root well
+/// within that.
 pub fn chain(arm: &Arm) -> Constants {
     let lines = [4, 5, 0].map(|i| (arm.axis(i), arm.point(i)));
-    general::constants_of(lines, arm.wrist_center, arm.scale)
+    Constants {
+        copies: 1e-14,
+        ..general::constants_of(lines, arm.wrist_center, arm.scale)
+    }
 }
 
 /// The arm with its joints 2–4 in the places of a wrist (joints 4–6), for the wrist's solve
@@ -92,6 +103,50 @@ fn circle(g: &mut Graph, arm: &Arm, k: &Constants, ginv: &pose::Motion) -> Circl
     }
 }
 
+/// The root `s` of the chain after [`polish::polish`]: its angles, turns and check, and the
+/// flag of a free joint 6.
+fn polished(
+    g: &mut Graph,
+    arm: &Arm,
+    circle: (&Circle, [f64; 3]),
+    t: &Target,
+    s: &ArmSolution,
+    n: usize,
+) -> ArmSolution {
+    let turns = [0, 1, 2].map(|i| (s.undo[i].cos, s.undo[i].sin));
+    let check = s.checks[0];
+    let p = polish::polish(g, arm, circle, t, (turns, check.have_squared), n);
+    let notes = [
+        "θ5, polished",
+        "θ6, fitted again (held at its reference when free)",
+        "θ1, polished",
+    ];
+    let names = ["q5", "q6", "q1"];
+    let angles = [0, 1, 2].map(|i| {
+        let (c, s) = p.turns[i];
+        let a = g.atan2(s, c);
+        g.name(a, &format!("{}_{n}", names[i]), notes[i])
+    });
+    let residual = g.name(
+        p.residual,
+        &format!("miss_{n}"),
+        "|E5 E6 G⁻¹ E1 b − b|² (and the routing's penalty)",
+    );
+    ArmSolution {
+        angles,
+        undo: [0, 1, 2]
+            .map(|i| Turn::about(s.undo[i].axis, p.turns[i]))
+            .to_vec(),
+        shoulder: s.shoulder,
+        elbow: s.elbow,
+        checks: vec![CheckLayout {
+            have_squared: residual,
+            ..check
+        }],
+        on_axis_1: Some(p.free6),
+    }
+}
+
 /// `R2 R3 R4 d = R1ᵀ rot(G) R6ᵀ R5ᵀ d` for a constant direction `d`.
 fn left_for_wrist(
     g: &mut Graph,
@@ -119,7 +174,12 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> (Vec<CandidateLayout>, Bra
     let ginv = motion.inverse(g);
     let r = circle(g, arm, &k, &ginv);
     let b = vec3::constant(g, arm.wrist_center);
-    let roots = general::solve_on(g, (arm.scale, &k, &r), t, b);
+    let f2 = num::add(&k.f1, &num::scale(&k.n, k.a));
+    let roots: Vec<ArmSolution> = general::solve_on(g, (arm.scale, &k, &r), t, b)
+        .iter()
+        .enumerate()
+        .map(|(i, s)| polished(g, arm, (&r, f2), t, s, i + 1))
+        .collect();
     let shifted = wrist_arm(arm);
     let axes = wrist::WristAxes::of(&shifted);
     let mut candidates = Vec::new();
@@ -154,7 +214,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> (Vec<CandidateLayout>, Bra
                 },
                 checks,
                 wrist_aligned: Some(w.aligned),
-                on_axis_1: None,
+                on_axis_1: s.on_axis_1,
             });
         }
     }
@@ -169,8 +229,8 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> (Vec<CandidateLayout>, Bra
 }
 
 /// The plan of a mid-wrist arm whose axes 2–4 meet at `b` (base frame, every joint at zero).
-/// Joint 2 is held at its reference where the middle wrist lines up; joint 1 is never free
-/// (`b` off axis 1 is a condition of the family).
+/// Joint 2 is held at its reference where the middle wrist lines up, joint 6 where `b` is on
+/// axis 6 (the free joints `[5, 1]`: the plan's reference inputs are theirs).
 pub fn build(model: &Model, b: [f64; 3]) -> Plan {
     let arm = Arm::with_center(model, Family::MidWrist, b);
     let mut g = Graph::new();
@@ -178,7 +238,7 @@ pub fn build(model: &Model, b: [f64; 3]) -> Plan {
     let (candidates, rule) = solve(&mut g, &arm, &t);
     let w = wrist::WristAxes::of(&wrist_arm(&arm));
     let twist = [num::dot(&w.h4, &w.h5), num::dot(&w.h5, &w.h6)];
-    let mut plan = crate::plan::assemble(arm, &g, &candidates, rule, twist, [0, 1]);
+    let mut plan = crate::plan::assemble(arm, &g, &candidates, rule, twist, [5, 1]);
     // Two roots of the quartic can share a geometric label: labels are read by solving.
     plan.labels_by_solving = true;
     plan
