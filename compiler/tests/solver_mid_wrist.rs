@@ -17,16 +17,20 @@ use armforge_compiler::plan::samples::{
 };
 use armforge_compiler::solver::Solver;
 
-/// Poses with 8 solutions, by layout of axes 5 and 6 (apart, meeting, parallel).
-fn round_trips() -> [usize; 3] {
+/// Poses with 8 solutions, by layout of axes 5 and 6 (apart, meeting, parallel), on random
+/// arms built with `options`.
+fn round_trips(options: SampleOptions) -> [usize; 3] {
     let mut full = [0; 3];
     for seed in 0..arms() {
-        let (model, geometry) = sample_arm(Family::MidWrist, seed, &SampleOptions::default());
+        let (model, geometry) = sample_arm(Family::MidWrist, seed, &options);
         assert_eq!(geometry.solutions.total, 8, "arm {seed}");
         let ArmEvidence::MidWrist(e) = &geometry.arm else {
             panic!("arm {seed}: evidence {:?}", geometry.arm);
         };
-        assert!(e.wrist.reaches_every_orientation, "arm {seed}");
+        assert_eq!(
+            e.wrist.reaches_every_orientation, options.orthogonal_wrist,
+            "arm {seed}"
+        );
         let solver = Solver::from_plan(build_plan(&model, &geometry));
         let mut rng = SampleRng::new(4000 + seed);
         for _ in 0..10 {
@@ -42,10 +46,18 @@ fn round_trips() -> [usize; 3] {
 
 #[test]
 fn random_arms_round_trip_in_every_layout() {
-    let full = round_trips();
-    eprintln!("poses with 8 solutions (apart, meeting, parallel): {full:?}");
+    let right_angled = SampleOptions {
+        orthogonal_wrist: true,
+        ..SampleOptions::default()
+    };
+    let full = round_trips(right_angled);
+    eprintln!(
+        "right-angled middle wrist, poses with 8 solutions (apart, meeting, parallel): {full:?}"
+    );
     // Pieper 1968: 4 placements × 2 wrist solutions are reached at generic poses.
     assert!(full[0] > 0, "{full:?}");
+    let full = round_trips(SampleOptions::default());
+    eprintln!("middle wrist at any angles, poses with 8 solutions: {full:?}");
 }
 
 /// Axis 5 through the meeting point of axes 2–4: joint 5 cannot move it; rejected. (Axis 1

@@ -95,6 +95,7 @@ emitted_arms! {
     centrifuge_loader = "../arms/centrifuge-loader-dh.toml";
     hood_corner = "../arms/hood-corner-axes.toml";
     hotel_loader = "../arms/hotel-loader-axes.toml";
+    incubator_threader = "../arms/incubator-threader-axes.toml";
     lid_lifter = "../arms/lid-lifter-axes.toml";
     rack_loader = "../arms/rack-loader-mdh.toml";
     reagent_rack_reacher = "../arms/reagent-rack-reacher-axes.toml";
@@ -111,6 +112,7 @@ emitted_arms! {
     centrifuge_loader_f32 = "../arms/centrifuge-loader-dh.toml";
     hood_corner_f32 = "../arms/hood-corner-axes.toml";
     hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
+    incubator_threader_f32 = "../arms/incubator-threader-axes.toml";
     lid_lifter_f32 = "../arms/lid-lifter-axes.toml";
     rack_loader_f32 = "../arms/rack-loader-mdh.toml";
     reagent_rack_reacher_f32 = "../arms/reagent-rack-reacher-axes.toml";

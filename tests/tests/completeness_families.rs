@@ -1,5 +1,5 @@
 //! Completeness of the families without a wrist at joints 4–6 (three-parallel, wrist at the
-//! base) on random arms, against an independent numerical method: Levenberg–Marquardt (the
+//! base, mid-wrist) on random arms, against an independent numerical method: Levenberg–Marquardt (the
 //! `levenberg-marquardt` crate, Moré's MINPACK algorithm: Moré, "The Levenberg–Marquardt
 //! algorithm: implementation and theory", 1978) minimises the pose error of the arm's forward
 //! kinematics (the product of exponentials evaluated with nalgebra's `Rotation3` and
@@ -206,6 +206,16 @@ fn wrist_at_base_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::BaseWrist);
     println!(
         "wrist at the base: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn mid_wrist_arms_miss_no_numerical_solution() {
+    // Axes 5 and 6 apart, meeting and parallel by turns (the sampler's three layouts).
+    let (found, listed) = check_family(Family::MidWrist);
+    println!(
+        "mid-wrist: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
     );
     assert!(found > 0);
 }

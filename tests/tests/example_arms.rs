@@ -97,14 +97,17 @@ fn holds_still(model: &Model, first: usize, center: &[f64; 3], path: &str) {
 #[test]
 fn every_example_arm_meets_pieper_s_criterion() {
     // Pieper 1968: a closed form when three consecutive axes meet in a point or are parallel.
-    // The example arms use three shapes: a spherical wrist (axes 4–6 meet), a wrist at the
-    // base (axes 1–3 meet), and three parallel axes 2–4 with axes 5 and 6 meeting.
+    // The example arms use four shapes: a spherical wrist (axes 4–6 meet), a wrist at the
+    // base (axes 1–3 meet), a wrist in the middle (axes 2–4 meet), and three parallel axes
+    // 2–4 with axes 5 and 6 meeting.
     for (path, model) in arms() {
         assert_eq!(model.joints.len(), 6, "{path}");
         if let Some(center) = meeting_of(&model, 3) {
             holds_still(&model, 3, &center, &path);
         } else if let Some(center) = meeting_of(&model, 0) {
             holds_still(&model, 0, &center, &path);
+        } else if let Some(center) = meeting_of(&model, 1) {
+            holds_still(&model, 1, &center, &path);
         } else if parallel_from(&model, 1) {
             // Joints 2–4 keep every point's component along their common direction.
             let h = axis(&model, 1);

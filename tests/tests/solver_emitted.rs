@@ -43,6 +43,7 @@ emitted!(
 );
 emitted!(base_wrist_elbow, "generated/base_wrist_elbow.rs");
 emitted!(base_wrist_polar, "generated/base_wrist_polar.rs");
+emitted!(mid_wrist, "generated/mid_wrist.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -142,6 +143,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(three_parallel_general), "three_parallel_general"),
         compare(api!(base_wrist_elbow), "base_wrist_elbow"),
         compare(api!(base_wrist_polar), "base_wrist_polar"),
+        compare(api!(mid_wrist), "mid_wrist"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
     assert_eq!(

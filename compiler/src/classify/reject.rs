@@ -416,8 +416,7 @@ fn describe_note(model: &Model, note: &Note) -> String {
             "the axes of joints {}, {} and {} meet in one point: Pieper's criterion holds and \
              a closed form exists (Pieper 1968): the point is fixed in link {} and in link {}, \
              so it is placed by {} from the base and by {} from the tool, a three-joint position \
-             problem like joints 1–3 of the general family; armforge builds decoupling only \
-             where the meeting axes are those of joints 1–3 or 4–6, not this arm yet",
+             problem like joints 1–3 of the general family; {}",
             first,
             first + 1,
             first + 2,
@@ -432,6 +431,12 @@ fn describe_note(model: &Model, note: &Note) -> String {
                 "joints 6 and 5"
             } else {
                 "joint 6"
+            },
+            if *first == 2 {
+                "armforge's mid-wrist family builds it when joints 1, 5 and 6 turn and the \
+                 point is off axes 1 and 5"
+            } else {
+                "armforge does not build this arm yet"
             },
         ),
         Note::PieperQuartic => "the wrist is spherical, so Pieper's criterion holds and a \

@@ -160,7 +160,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 13] {
+pub fn fixtures() -> [Fixture; 14] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -200,6 +200,7 @@ pub fn fixtures() -> [Fixture; 13] {
         fixture("three_parallel_general", Family::ThreeParallel, 19, plain),
         fixture("base_wrist_elbow", Family::BaseWrist, 20, plain),
         fixture("base_wrist_polar", Family::BaseWrist, 21, plain),
+        fixture("mid_wrist", Family::MidWrist, 24, plain),
     ]
 }
 
@@ -601,16 +602,22 @@ fn sample_base_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
     (model, geometry)
 }
 
-/// A random arm with a wrist in the middle: axes 2, 3, 4 meet at a random point `b` at right
-/// angles (a wrist that reaches every orientation), axis 1 and axis 5 pass 0.2–0.6 m from
-/// `b`, and axes 5 and 6 are, by `seed`, apart at a random angle, meeting, or parallel.
+/// A random arm with a wrist in the middle: axes 2, 3, 4 meet at a random point `b` (at right
+/// angles with `options.orthogonal_wrist`, else at random angles of at most about 58° from
+/// the right angle), axis 1 and axis 5 pass 0.2–0.6 m from `b`, and axes 5 and 6 are, by
+/// `seed`, apart at a random angle, meeting, or parallel.
 fn sample_mid_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
     let mut rng = SampleRng::new(seed.wrapping_mul(7937).wrapping_add(91));
     let range = options.revolute_range;
     let b = rng.point(0.5);
     let h2 = rng.direction();
-    let h3 = rng.perpendicular(&h2);
-    let h4 = rng.perpendicular(&h3);
+    let (h3, h4) = if options.orthogonal_wrist {
+        let h3 = rng.perpendicular(&h2);
+        (h3, rng.perpendicular(&h3))
+    } else {
+        let h3 = rng.direction_away_from(&h2, 0.85);
+        (h3, rng.direction_away_from(&h3, 0.85))
+    };
     let on_axis =
         |rng: &mut SampleRng, h: &[f64; 3]| num::add(&b, &num::scale(h, rng.range(-0.2, 0.2)));
     let off = |rng: &mut SampleRng, h: &[f64; 3]| {

@@ -60,7 +60,7 @@ use crate::units::tidy;
 /// Added to a root's residual in the slots of the labels it does not have: such a candidate
 /// always fails its check (m²). A number of the routing, not a tolerance: the same in `f32`
 /// (where a tolerance's scaling would take it past the largest `f32`).
-const MISMATCH: f64 = 1e30;
+pub(crate) const MISMATCH: f64 = 1e30;
 
 /// How axes 1 and 2 lie. The quartic needs them apart and not parallel; when they meet or
 /// are parallel, one equation in joint 3 alone is left (see [`super::axes_1_2`]).

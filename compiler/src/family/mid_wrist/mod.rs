@@ -5,9 +5,10 @@
 //! in [`plan`], the review sheet's steps in [`steps`].
 //!
 //! Covered: axes 5 and 6 at any angle and offset (apart, meeting or parallel, not one line),
-//! axis 1 anywhere that misses `b`. Rejected with the reason: `b` on axis 1 or on axis 5 (four
-//! axes through one point leave a joint that moves nothing), a middle wrist that cannot reach
-//! every orientation, a sliding joint 1, 5 or 6.
+//! axis 1 anywhere that misses `b`, a middle wrist at any angles (one whose angles differ
+//! reaches fewer orientations: its candidates say so by their check, as a wrist at joints 4–6
+//! does). Rejected with the reason: `b` on axis 1 or on axis 5 (four axes through one point
+//! leave a joint that moves nothing), a sliding joint 1, 5 or 6.
 
 pub mod plan;
 mod polish;
@@ -117,20 +118,6 @@ fn check(ctx: &Context, wrist: &WristEvidence) -> Option<Recognition> {
             6,
             "axes 5 and 6 are one line: joints 5 and 6 turn about the same line".to_string(),
             vec![("distance", Quantity::Length(ctx.gap(5, 6)))],
-        ));
-    }
-    if !wrist.reaches_every_orientation {
-        return Some(reject(
-            ctx,
-            "mid_wrist_not_every_orientation",
-            3,
-            format!(
-                "the middle wrist (axes 2, 3, 4) cannot reach every orientation: the angles \
-                 between axes 2–3 ({}) and 3–4 ({}) differ, or neither is a right angle",
-                u.show_angle(wrist.angle_4_5),
-                u.show_angle(wrist.angle_5_6)
-            ),
-            Vec::new(),
         ));
     }
     None

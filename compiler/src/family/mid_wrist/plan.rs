@@ -175,11 +175,12 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> (Vec<CandidateLayout>, Bra
     let r = circle(g, arm, &k, &ginv);
     let b = vec3::constant(g, arm.wrist_center);
     let f2 = num::add(&k.f1, &num::scale(&k.n, k.a));
-    let roots: Vec<ArmSolution> = general::solve_on(g, (arm.scale, &k, &r), t, b)
+    let mut roots: Vec<ArmSolution> = general::solve_on(g, (arm.scale, &k, &r), t, b)
         .iter()
         .enumerate()
         .map(|(i, s)| polished(g, arm, (&r, f2), t, s, i + 1))
         .collect();
+    polish::drop_copies(g, &mut roots, k.copies, 1e-10 * arm.scale);
     let shifted = wrist_arm(arm);
     let axes = wrist::WristAxes::of(&shifted);
     let mut candidates = Vec::new();

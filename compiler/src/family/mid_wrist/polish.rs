@@ -208,3 +208,31 @@ pub fn polish(
         free6,
     }
 }
+
+/// Marks the copies among polished roots: a root whose joints 5, 6 and 1 land within
+/// `copies` (sum of squared differences of cosines and sines) of an earlier real root (miss
+/// within `tol²`) is that root again, and fails its check. The polish can bring the two halves
+/// of a near-double root together after the quartic's routing told them apart.
+pub fn drop_copies(g: &mut Graph, roots: &mut [crate::plan::ArmSolution], copies: f64, tol: f64) {
+    let big = g.constant(crate::family::general::plan::MISMATCH);
+    let zero = g.constant(0.0);
+    let near = g.exact_once(copies);
+    let tol2 = g.exact(tol * tol);
+    for j in 1..roots.len() {
+        for i in 0..j {
+            let mut d = zero;
+            for (a, b) in roots[i].undo.iter().zip(&roots[j].undo) {
+                let dc = g.sub(a.cos, b.cos);
+                let ds = g.sub(a.sin, b.sin);
+                let dd = g.mul_add2(dc, dc, ds, ds);
+                d = g.add(d, dd);
+            }
+            let same = g.sub(near, d);
+            let real = g.sub(tol2, roots[i].checks[0].have_squared);
+            let copy = g.min(same, real);
+            let penalty = g.select(copy, big, zero);
+            let check = &mut roots[j].checks[0];
+            check.have_squared = g.add(check.have_squared, penalty);
+        }
+    }
+}

@@ -52,6 +52,44 @@ pub fn steps(plan: &Plan) -> Steps {
         ],
     };
     let [quartic, back] = position_steps(&k);
+    let polish = Step {
+        title: "Each root polished, joint 6 held where it is free".into(),
+        text: "Where `b` nears axis 6, joint 6 can hardly move it: the two equations above lose \
+               joint 6's column and the roots are double. One Newton step on the three \
+               position equations keeps joints 5 and 1 where it helps; joint 6 is fitted again. \
+               Roots closer than about 1e-7 rad are one root (joints 2–4 follow the chain, and \
+               near the aligned middle wrist they magnify its differences)."
+            .into(),
+        equations: vec![
+            "x = E5(θ5) E6(θ6) m(θ1),  F = x − b,  J = [h5 × (x − p5), R5 (h6 × (E6 m − p6)), \
+             R5 R6 ∂m/∂θ1]"
+                .into(),
+            "(δ5, δ6, δ1) = −J⁻¹ F;  θ5, θ1 take their steps when |δ|² ≤ 1e-12 and the miss \
+             drops"
+                .into(),
+            "θ6 = atan2(h6 · ((m − p6)⊥h6 × (E5(−θ5) b − p6)), (m − p6)⊥h6 · (E5(−θ5) b − p6))"
+                .into(),
+            "|(m − p6)⊥h6| ≤ tolerance: θ6 = its reference (joint 6 free, flagged)".into(),
+            "the check: |x − b| within the length tolerance (within 5e-9 of the arm's size when \
+             m is within 1e-6 of it from axis 6, flagged at the reach limit)"
+                .into(),
+        ],
+        after: String::new(),
+        numbers: vec![
+            vec![
+                t("axis 5: h5 = "),
+                Part::direction(arm.axis(4)),
+                t(",  p5 = "),
+                Part::point(arm.point(4)),
+            ],
+            vec![
+                t("axis 6: h6 = "),
+                Part::direction(arm.axis(5)),
+                t(",  p6 = "),
+                Part::point(arm.point(5)),
+            ],
+        ],
+    };
     let wrist = Step {
         title: "Joints 2–4: the middle wrist".into(),
         text: "What joints 1, 5 and 6 leave of the rotation is turned by the wrist of axes 2, \
@@ -79,6 +117,6 @@ pub fn steps(plan: &Plan) -> Steps {
     Steps {
         inputs: INPUTS.to_string(),
         method,
-        steps: vec![circle, quartic, back, wrist],
+        steps: vec![circle, quartic, back, polish, wrist],
     }
 }
