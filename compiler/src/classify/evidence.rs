@@ -55,6 +55,8 @@ pub enum ArmEvidence {
     ThreeParallel(crate::family::three_parallel::ThreeParallelEvidence),
     /// Axes 1–3 meet: the wrist at the base.
     BaseWrist(crate::family::base_wrist::BaseWristEvidence),
+    /// Read from the tool: the mirrored arm solves any target.
+    ToolFirst(crate::family::tool_first::ToolFirstEvidence),
 }
 
 /// What a reach is measured from.

@@ -402,7 +402,8 @@ fn describe_note(model: &Model, note: &Note) -> String {
             "the axes of joints {}, {} and {} are parallel: an arm with three consecutive \
              parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
              armforge's three-parallel family builds it for parallel axes 2, 3 and 4 with axes \
-             5 and 6 meeting",
+             5 and 6 meeting, and its tool-first family for parallel axes 3, 4 and 5 with axes \
+             1 and 2 meeting (the same shape read from the tool), six revolute joints each",
             first,
             first + 1,
             first + 2

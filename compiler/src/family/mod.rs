@@ -23,8 +23,10 @@ pub mod data;
 pub mod decoupled_steps;
 pub mod elbow;
 pub mod general;
+pub mod mirror;
 pub mod polar;
 pub mod three_parallel;
+pub mod tool_first;
 
 pub use data::{Distance, Judged, Part, Role, SamplerBoundary, Step, Steps, Value, VerifyHints};
 
@@ -59,6 +61,9 @@ pub enum Family {
     /// Axes 1–3 meet (a wrist at the base), joints 6, 5, 4 read from the tool of a family
     /// above.
     BaseWrist,
+    /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
+    /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
+    ToolFirst,
 }
 
 impl Family {
@@ -97,6 +102,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &general::GENERAL,
     &three_parallel::THREE_PARALLEL,
     &base_wrist::BASE_WRIST,
+    &tool_first::TOOL_FIRST,
 ];
 
 /// What a family found on an arm it recognises.

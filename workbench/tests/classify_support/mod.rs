@@ -276,6 +276,13 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("base_wrist.angle_1_2", e.wrist.angle_5_6);
             put("base_wrist.angle_2_3", e.wrist.angle_4_5);
         }
+        ArmEvidence::ToolFirst(e) => {
+            // The mirrored arm's numbers: it stands where the arm stands.
+            let mirrored = armforge_compiler::family::mirror::mirrored_model(model);
+            for (k, v) in invariant_numbers(&mirrored, &e.mirrored) {
+                put(&format!("mirrored.{k}"), v);
+            }
+        }
     }
     for s in &g.singularities {
         match s {
