@@ -249,8 +249,14 @@ fn exactly_aligned_wrists_are_flagged_in_single_precision() {
     for arm in EMITTED_ARMS_F32 {
         let generated = generate_module(&arm.file(), arm.path, &Tolerances::default())
             .unwrap_or_else(|e| panic!("{e}"));
-        if generated.plan.arm.family == armforge_compiler::classify::Family::BaseWrist {
-            // Its wrist is joints 1–3 (aligned by joint 2), not the joint-5 alignment below.
+        if matches!(
+            generated.plan.arm.family,
+            armforge_compiler::classify::Family::BaseWrist
+                | armforge_compiler::classify::Family::ToolFirst
+        ) {
+            // Read from the tool: the alignment is joint 2's (axes 1 and 3 of the wrist at the
+            // base; axis 1 and the parallel axes 3–5 of the tool-first arm), not the joint-5
+            // alignment below.
             continue;
         }
         let mut table = [generated.plan.arm.joints[0]; JOINTS];

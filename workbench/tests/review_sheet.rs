@@ -361,7 +361,10 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
         let (model, geometry) = classified(&path, &text);
         let solver = Solver::new(&model, &geometry);
         let plan = solver.plan();
-        if matches!(plan.arm.family, Family::ThreeParallel | Family::BaseWrist) {
+        if matches!(
+            plan.arm.family,
+            Family::ThreeParallel | Family::BaseWrist | Family::ToolFirst
+        ) {
             // These equations are the pages of the families with a spherical wrist at joints
             // 4–6 (the other two families' steps use the same constants as their plans).
             continue;

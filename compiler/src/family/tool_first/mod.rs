@@ -191,7 +191,11 @@ impl FamilyModule for ToolFirst {
                 .into_iter()
                 .map(|j| Judged {
                     key: j.key,
-                    label: format!("read from the tool: {}", renumber_text(&j.label)),
+                    label: format!(
+                        "read from the tool ({}): {}",
+                        e.mirrored_family.name(),
+                        renumber_text(&j.label)
+                    ),
                     value: j.value,
                 }),
         );
@@ -203,8 +207,9 @@ impl FamilyModule for ToolFirst {
     }
 
     fn summary(&self) -> &'static str {
-        "read from the tool: the mirrored arm (joint i is joint 7 − i) is solved whole by its \
-         own family (axes 3, 4, 5 parallel and axes 1, 2 meeting: a three-parallel mirror)"
+        "read from the tool: the mirrored arm (joint i is joint 7 − i about the reversed axis) \
+         is solved whole by its own family, named with its evidence above (axes 3, 4, 5 \
+         parallel and axes 1, 2 meeting: a three-parallel arm read from its tool)"
     }
 
     fn solution_parts(&self) -> [&'static str; 2] {
@@ -227,8 +232,9 @@ impl FamilyModule for ToolFirst {
 
     fn decoupling(&self) -> &'static str {
         "Read from the tool: the mirrored arm (joint i is joint 7 − i about the reversed axis) \
-         is an arm armforge solves whole; axes 3, 4 and 5 parallel with axes 1 and 2 meeting \
-         make it a **three-parallel** arm (mirrored decoupling, Pieper 1968)."
+         is an arm armforge solves whole, of the family the first condition below names \
+         (mirrored decoupling, Pieper 1968); axes 3, 4 and 5 parallel with axes 1 and 2 \
+         meeting make it a three-parallel arm."
     }
 
     fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>> {
