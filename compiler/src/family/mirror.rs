@@ -12,6 +12,9 @@
 // `Result<Geometry, Rejection>` (as in `classify`).
 #![allow(clippy::result_large_err)]
 
+use std::collections::HashMap;
+use std::sync::{Mutex, OnceLock};
+
 use armforge_runtime::plan::CandidateLayout;
 use armforge_runtime::{Joint, Pose};
 
@@ -192,6 +195,10 @@ pub fn renumber_text(text: &str) -> String {
             let (group, after) = number_group(rest);
             out.push_str(&group);
             rest = after;
+        } else if let Some((group, after)) = bracketed_range(rest) {
+            out.push('(');
+            out.push_str(&group);
+            rest = after;
         } else {
             let c = rest.chars().next().unwrap_or(' ');
             out.push(c);
@@ -199,6 +206,34 @@ pub fn renumber_text(text: &str) -> String {
         }
     }
     out
+}
+
+/// A `snake_case` name (a rejection's or a singular configuration's) in the arm's numbering,
+/// as [`renumber_text`] renumbers words: `axes_5_and_6_miss` → `axes_1_and_2_miss`. Names are
+/// `'static` (they are the families' own); each distinct renumbered name is made once and kept
+/// for the program's life (there are as many as the families have names).
+pub fn renumber_name(name: &'static str) -> &'static str {
+    static NAMES: OnceLock<Mutex<HashMap<&'static str, &'static str>>> = OnceLock::new();
+    let renamed = renumber_text(&name.replace('_', " ")).replace(' ', "_");
+    if renamed == name {
+        return name;
+    }
+    let names = NAMES.get_or_init(|| Mutex::new(HashMap::new()));
+    let mut names = names.lock().unwrap_or_else(|e| e.into_inner());
+    names
+        .entry(name)
+        .or_insert_with(|| Box::leak(renamed.into_boxed_str()))
+}
+
+/// A range of joints alone in brackets at the start of `s` (`(2–3)`, as in `angles 0° (2–3)
+/// and 0° (3–4)`) renumbered, and the rest of `s` from the closing bracket; `None` for
+/// anything else in brackets (a point's coordinates, say).
+fn bracketed_range(s: &str) -> Option<(String, &str)> {
+    let inner = s.strip_prefix('(')?;
+    let (group, after) = number_group(inner);
+    let consumed = &inner[..inner.len() - after.len()];
+    let range = consumed.contains('–') && !consumed.contains(',') && !consumed.contains(' ');
+    (range && after.starts_with(')')).then_some((group, after))
 }
 
 /// The joint number (1–6, one digit not followed by another digit or a decimal point) at the
@@ -248,7 +283,17 @@ fn number_group(s: &str) -> (String, &str) {
 
 #[cfg(test)]
 mod tests {
-    use super::renumber_text;
+    use super::{renumber_name, renumber_text};
+
+    #[test]
+    fn names_are_renumbered_once() {
+        assert_eq!(renumber_name("axes_5_and_6_miss"), "axes_1_and_2_miss");
+        assert_eq!(renumber_name("axis_6_parallel"), "axis_1_parallel");
+        assert_eq!(renumber_name("shoulder"), "shoulder");
+        let a = renumber_name("axis_6_parallel");
+        let b = renumber_name("axis_6_parallel");
+        assert!(std::ptr::eq(a, b), "made once");
+    }
 
     #[test]
     fn numbers_after_joint_and_axis_words_are_mirrored_and_sorted() {
@@ -265,5 +310,13 @@ mod tests {
             "axes 3, 4 and 5 parallel; joints 1 and 2; `θ5`, h6, 12 joints"
         );
         assert_eq!(renumber_text("axis 7 and joint 12"), "axis 7 and joint 12");
+        assert_eq!(
+            renumber_text("angles 0° (2–3) and 0° (3–4); (1, 2, 3) m; (2)"),
+            "angles 0° (4–5) and 0° (3–4); (1, 2, 3) m; (2)"
+        );
+        assert_eq!(
+            renumber_text("the two joint-1 solutions merge"),
+            "the two joint-6 solutions merge"
+        );
     }
 }

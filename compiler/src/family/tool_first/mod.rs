@@ -53,12 +53,13 @@ fn degenerate(ctx: &Context, family: Family, inner: Rejection) -> Recognition {
         family.name(),
         renumber_text(&inner.message)
     );
+    let name = mirror::renumber_name(inner.reason.kind());
     let measures = match inner.reason {
         Reason::Family { measures, .. } => measures,
         _ => Vec::new(),
     };
     let reason = Reason::Family {
-        name: "tool_first_mirror_degenerate",
+        name,
         message,
         measures,
     };
@@ -77,7 +78,7 @@ fn renumbered(s: &Singularity) -> Singularity {
             text,
             equation,
         } => Singularity::Described {
-            name,
+            name: mirror::renumber_name(name),
             text: renumber_text(text),
             equation: format!("{seen}: {equation}"),
         },
