@@ -85,11 +85,27 @@ fn renumbered(s: &Singularity) -> Singularity {
         other => Singularity::Described {
             name: "mirrored_arm",
             text: format!(
-                "a singular configuration of the mirrored arm, its numbering: {}",
-                renumber_text(&format!("{other:?}"))
+                "the mirrored arm's {} configuration, in its numbering (its joint i is joint \
+                 7 − i here)",
+                shared_words(other)
             ),
             equation: format!("{seen}: the solver flags it and holds the free joint there"),
         },
+    }
+}
+
+/// Words for a shared singular configuration (families offering the target step describe
+/// their own, [`Singularity::Described`]).
+fn shared_words(s: &Singularity) -> &'static str {
+    match s {
+        Singularity::WristAligned { .. } => "wrist-aligned",
+        Singularity::WristNeverAligned => "never-aligned wrist",
+        Singularity::Shoulder { .. } => "shoulder",
+        Singularity::WristCenterOnAxis1 { .. } => "placed-point-on-axis-1",
+        Singularity::Stretched { .. } => "stretched",
+        Singularity::Folded { .. } => "folded",
+        Singularity::SlideClosestToAxis2 { .. } => "slide-closest-to-axis-2",
+        Singularity::Described { .. } => "own",
     }
 }
 
