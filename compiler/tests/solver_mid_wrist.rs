@@ -79,3 +79,35 @@ fn a_sliding_joint_6_is_rejected() {
     let r = classify(&model, &Tolerances::default()).expect_err("rejected");
     assert_eq!(r.reason.kind(), "mid_wrist_slide", "{r}");
 }
+
+/// Axes 3–5 meeting: the mirror of a mid-wrist arm, read from the tool by the tool-first
+/// family through the mid-wrist family's target step. Round trips on random arms.
+#[test]
+fn arms_whose_axes_3_to_5_meet_round_trip_read_from_the_tool() {
+    let options = SampleOptions {
+        orthogonal_wrist: true,
+        ..SampleOptions::default()
+    };
+    let mut full = 0;
+    for seed in 0..arms() {
+        let (inner, _) = sample_arm(Family::MidWrist, seed, &options);
+        let mut model = armforge_compiler::family::mirror::mirrored_model(&inner);
+        let mut rng = SampleRng::new(7100 + seed);
+        model.tool = rng.pose(0.5);
+        model.base = rng.pose(1.0);
+        let geometry = classify(&model, &Tolerances::default())
+            .unwrap_or_else(|r| panic!("arm {seed}: rejected: {r}"));
+        assert_eq!(geometry.family, Family::ToolFirst, "arm {seed}");
+        assert_eq!(geometry.solutions.total, 8, "arm {seed}");
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            let what = format!("axes 3–5 meeting, arm {seed}");
+            if check_round_trip(&solver, &model, &q, 8, &what) == 8 {
+                full += 1;
+            }
+        }
+    }
+    eprintln!("axes 3–5 meeting: {full} poses with 8 solutions");
+    assert!(full > 0);
+}

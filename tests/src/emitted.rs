@@ -101,6 +101,7 @@ emitted_arms! {
     reagent_rack_reacher = "../arms/reagent-rack-reacher-axes.toml";
     shelf_reacher = "../arms/shelf-reacher-axes.toml";
     tray_gantry = "../arms/tray-gantry-axes.toml";
+    tray_tipper = "../arms/tray-tipper-axes.toml";
 }
 
 emitted_arms! {
@@ -118,6 +119,7 @@ emitted_arms! {
     reagent_rack_reacher_f32 = "../arms/reagent-rack-reacher-axes.toml";
     shelf_reacher_f32 = "../arms/shelf-reacher-axes.toml";
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
+    tray_tipper_f32 = "../arms/tray-tipper-axes.toml";
 }
 
 /// The bench arm (`arms/bench-elbow-dh.toml`) through the compiler: its plan and module, as

@@ -228,6 +228,17 @@ fn three_parallel_arms_miss_no_numerical_solution() {
 }
 
 #[test]
+fn tool_first_arms_miss_no_numerical_solution() {
+    // Axes 3–5 parallel and axes 1 and 2 meeting, solved through the mirrored three-parallel
+    // arm: every solution Levenberg–Marquardt converges to must be listed.
+    let (found, listed) = check_family(Family::ToolFirst);
+    println!(
+        "tool-first: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
 fn general_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::General);
     println!(

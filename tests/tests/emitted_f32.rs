@@ -267,8 +267,11 @@ fn exactly_aligned_wrists_are_flagged_in_single_precision() {
             .unwrap_or_else(|e| panic!("{e}"));
         // The wrist's first joint (0-based): joints 4–6, or 2–4 for a wrist in the middle.
         let w = match generated.plan.arm.family {
-            // Its wrist is joints 1–3 (aligned by joint 2): at zero the mirrored arm's.
-            armforge_compiler::classify::Family::BaseWrist => continue,
+            // Read from the tool: the alignment is joint 2's (axes 1 and 3 of the wrist at the
+            // base; axis 1 and the parallel axes 3–5 of the tool-first arm), not the joint-5
+            // alignment below.
+            armforge_compiler::classify::Family::BaseWrist
+            | armforge_compiler::classify::Family::ToolFirst => continue,
             armforge_compiler::classify::Family::MidWrist => 1,
             _ => 3,
         };

@@ -97,9 +97,9 @@ fn holds_still(model: &Model, first: usize, center: &[f64; 3], path: &str) {
 #[test]
 fn every_example_arm_meets_pieper_s_criterion() {
     // Pieper 1968: a closed form when three consecutive axes meet in a point or are parallel.
-    // The example arms use four shapes: a spherical wrist (axes 4–6 meet), a wrist at the
-    // base (axes 1–3 meet), a wrist in the middle (axes 2–4 meet), and three parallel axes
-    // 2–4 with axes 5 and 6 meeting.
+    // The example arms use five shapes: a spherical wrist (axes 4–6 meet), a wrist at the
+    // base (axes 1–3 meet), a wrist in the middle (axes 2–4 meet), three parallel axes 2–4
+    // with axes 5 and 6 meeting, and three parallel axes 3–5 with axes 1 and 2 meeting.
     for (path, model) in arms() {
         assert_eq!(model.joints.len(), 6, "{path}");
         if let Some(center) = meeting_of(&model, 3) {
@@ -121,6 +121,21 @@ fn every_example_arm_meets_pieper_s_criterion() {
             assert!(
                 distance_from_line(&model, 5, &q) < ON_LINE,
                 "{path}: axes 5, 6 meet"
+            );
+        } else if parallel_from(&model, 2) {
+            // The same shape read from the tool: joints 3–5 keep every point's component along
+            // their common direction, and axes 1 and 2 meet.
+            let h = axis(&model, 2);
+            let p = [0.3, -0.2, 0.5];
+            let mut c = p;
+            for (i, q) in (2..5).zip([0.7, -1.2, 2.9]).rev() {
+                c = joint_motion(&model.joints[i].joint, q).transform_point(&c);
+            }
+            assert!((dot(&h, &c) - dot(&h, &p)).abs() < 1e-12, "{path}");
+            let q = meeting_point(&model, 0, 1);
+            assert!(
+                distance_from_line(&model, 1, &q) < ON_LINE,
+                "{path}: axes 1, 2 meet"
             );
         } else {
             panic!("{path}: no three consecutive axes meet or are parallel");

@@ -44,6 +44,8 @@ emitted!(
 emitted!(base_wrist_elbow, "generated/base_wrist_elbow.rs");
 emitted!(base_wrist_polar, "generated/base_wrist_polar.rs");
 emitted!(mid_wrist, "generated/mid_wrist.rs");
+emitted!(tool_first_layout, "generated/tool_first_layout.rs");
+emitted!(tool_first_general, "generated/tool_first_general.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -144,6 +146,8 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(base_wrist_elbow), "base_wrist_elbow"),
         compare(api!(base_wrist_polar), "base_wrist_polar"),
         compare(api!(mid_wrist), "mid_wrist"),
+        compare(api!(tool_first_layout), "tool_first_layout"),
+        compare(api!(tool_first_general), "tool_first_general"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
     assert_eq!(

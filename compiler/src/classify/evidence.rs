@@ -57,6 +57,8 @@ pub enum ArmEvidence {
     BaseWrist(crate::family::base_wrist::BaseWristEvidence),
     /// Axes 2–4 meet: a wrist in the middle.
     MidWrist(crate::family::mid_wrist::MidWristEvidence),
+    /// Read from the tool: the mirrored arm solves any target.
+    ToolFirst(crate::family::tool_first::ToolFirstEvidence),
 }
 
 /// What a reach is measured from.

@@ -402,7 +402,8 @@ fn describe_note(model: &Model, note: &Note) -> String {
             "the axes of joints {}, {} and {} are parallel: an arm with three consecutive \
              parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
              armforge's three-parallel family builds it for parallel axes 2, 3 and 4 with axes \
-             5 and 6 meeting",
+             5 and 6 meeting, and its tool-first family for parallel axes 3, 4 and 5 with axes \
+             1 and 2 meeting (the same shape read from the tool), six revolute joints each",
             first,
             first + 1,
             first + 2
@@ -436,7 +437,8 @@ fn describe_note(model: &Model, note: &Note) -> String {
                 "armforge's mid-wrist family builds it when joints 1, 5 and 6 turn and the \
                  point is off axes 1 and 5"
             } else {
-                "armforge does not build this arm yet"
+                "armforge's tool-first family builds it, reading the arm from its tool as a \
+                 mid-wrist arm, when joints 1, 2 and 6 turn and the point is off axes 6 and 2"
             },
         ),
         Note::PieperQuartic => "the wrist is spherical, so Pieper's criterion holds and a \

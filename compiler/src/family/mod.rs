@@ -24,17 +24,23 @@ pub mod decoupled_steps;
 pub mod elbow;
 pub mod general;
 pub mod mid_wrist;
+pub mod mirror;
 pub mod polar;
 pub mod three_parallel;
+pub mod tool_first;
 
 pub use data::{Distance, Judged, Part, Role, SamplerBoundary, Step, Steps, Value, VerifyHints};
 
+use armforge_runtime::internal::BranchRule;
+use armforge_runtime::plan::CandidateLayout;
 use armforge_runtime::Joint;
 
 use crate::classify::context::Context;
 use crate::classify::{ArmEvidence, Geometry, Reach, Rejection, Singularity, WristEvidence};
 use crate::model::Model;
-use crate::plan::Plan;
+use crate::plan::arm::Arm;
+use crate::plan::graph::Graph;
+use crate::plan::{Plan, Target};
 
 /// The family of an arm: the shape armforge solves it by. The names are armforge's own.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
@@ -58,6 +64,9 @@ pub enum Family {
     BaseWrist,
     /// Six revolute joints, axes 2–4 meeting in a point (a wrist in the middle).
     MidWrist,
+    /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
+    /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
+    ToolFirst,
 }
 
 impl Family {
@@ -97,6 +106,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &three_parallel::THREE_PARALLEL,
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
+    &tool_first::TOOL_FIRST,
 ];
 
 /// What a family found on an arm it recognises.
@@ -130,6 +140,32 @@ pub enum Recognition {
     /// takes precedence over every `NotMine` reason.
     Degenerate(Rejection),
 }
+
+/// What a family's [`TargetStep`] built on a graph: everything [`crate::plan::assemble`] needs
+/// besides the graph.
+#[derive(Clone, Debug)]
+pub struct TargetSolution {
+    /// The planner's arm the candidates were solved on (its numbering, its placed point).
+    pub arm: Arm,
+    /// One candidate per branch, model values in the arm's joint order.
+    pub candidates: Vec<CandidateLayout>,
+    /// The label rule `branch_of` applies to the arm's joint values.
+    pub rule: BranchRule,
+    /// The twist cosines of the orientation step (`Settings::wrist_twist_cosines`).
+    pub twist: [f64; 2],
+    /// The joints (0-based) held at the reference inputs when free ([`Plan::free_joints`]).
+    pub free: [usize; 2],
+}
+
+/// The whole solve of a family, for any target: given the model, its classification by the
+/// family and a [`Target`] declared on the graph (the plan's inputs, or an expression of them,
+/// such as the inverse pose a mirrored arm is solved for), it adds the family's steps to the
+/// graph and returns the candidates with their label rule. The reference inputs of the target
+/// are the values of [`TargetSolution::free`]. A family whose arm is not decoupled at a
+/// spherical wrist offers it ([`FamilyModule::target_step`]), so that other families can solve
+/// the arm seen from its tool by it (the mirrored arm: joint `i` is joint `7 − i` about the
+/// reversed axis).
+pub type TargetStep = fn(&mut Graph, &Model, &Geometry, &Target) -> TargetSolution;
 
 /// One geometry family: everything armforge knows about one shape of arm.
 pub trait FamilyModule: Sync {
@@ -204,6 +240,12 @@ pub trait FamilyModule: Sync {
     /// The position step of a family whose joints 1–3 place a spherical wrist's center (the
     /// wrist-at-base family reuses it on the mirrored arm); `None` for the others.
     fn position_step(&self) -> Option<crate::plan::PositionStep> {
+        None
+    }
+    /// The whole solve for an arbitrary target, of a family that is not decoupled at a
+    /// spherical wrist (the mirrored families reuse it on the arm seen from its tool); `None`
+    /// for the others.
+    fn target_step(&self) -> Option<TargetStep> {
         None
     }
 }

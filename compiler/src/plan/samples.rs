@@ -160,7 +160,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 14] {
+pub fn fixtures() -> [Fixture; 16] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -201,6 +201,8 @@ pub fn fixtures() -> [Fixture; 14] {
         fixture("base_wrist_elbow", Family::BaseWrist, 20, plain),
         fixture("base_wrist_polar", Family::BaseWrist, 21, plain),
         fixture("mid_wrist", Family::MidWrist, 24, plain),
+        fixture("tool_first_layout", Family::ToolFirst, 24, plain),
+        fixture("tool_first_general", Family::ToolFirst, 25, plain),
     ]
 }
 
@@ -237,6 +239,9 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     }
     if family == Family::MidWrist {
         return sample_mid_wrist(seed, options);
+    }
+    if family == Family::ToolFirst {
+        return sample_tool_first(seed, options);
     }
     if family == Family::ThreeParallel {
         // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
@@ -344,7 +349,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
-        Family::ThreeParallel | Family::BaseWrist | Family::MidWrist => {
+        Family::ThreeParallel | Family::BaseWrist | Family::MidWrist | Family::ToolFirst => {
             unreachable!("built above")
         }
         Family::Cartesian => {
@@ -671,6 +676,25 @@ fn sample_mid_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
     let geometry = match classify(&model, &Tolerances::default()) {
         Ok(g) if g.family == Family::MidWrist => g,
         other => panic!("sample mid-wrist arm {seed}: classified as {other:?}"),
+    };
+    (model, geometry)
+}
+
+/// A random tool-first arm: the mirror of a random three-parallel arm (even seeds: the layout,
+/// axes 1 and 5 ⟂ the parallel axes and axis 6 ⟂ axis 5; odd seeds: every angle), so its axes
+/// 3–5 are parallel and axes 1 and 2 meet, with a random base and tool.
+fn sample_tool_first(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
+    let inner = sample_three_parallel(seed, options, seed % 2 == 0);
+    let mut model = crate::family::mirror::mirrored_model(&inner);
+    let mut rng = SampleRng::new(seed.wrapping_mul(7937).wrapping_add(101));
+    model.tool = rng.pose(0.5);
+    model.base = rng.pose(1.0);
+    let mut model = with_joint_names(model, ["j1", "j2", "j3", "j4", "j5", "j6"]);
+    model.name = format!("sample_tool_first_{seed}");
+    model.source_path = format!("<sample tool-first {seed}>");
+    let geometry = match classify(&model, &Tolerances::default()) {
+        Ok(g) if g.family == Family::ToolFirst => g,
+        other => panic!("sample tool-first arm {seed}: classified as {other:?}"),
     };
     (model, geometry)
 }

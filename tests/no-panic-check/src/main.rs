@@ -127,6 +127,8 @@ checked_arm!(
     incubator_f32 = "../../arms/incubator-threader-axes.toml",
     f32
 );
+checked_arm!(tipper_f64 = "../../arms/tray-tipper-axes.toml", f64);
+checked_arm!(tipper_f32 = "../../arms/tray-tipper-axes.toml", f32);
 
 /// One checked arm: its name, `run` and `sizes`.
 type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
@@ -136,7 +138,7 @@ type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
 /// footprint README reports: bytes of a solution set and of one solution.
 fn main() {
     let q = [0.1, -0.4, 0.7, 0.2, 0.5, -0.3];
-    let arms: [Checked; 22] = [
+    let arms: [Checked; 24] = [
         ("bench f64", bench_f64::run, bench_f64::sizes),
         ("bench f32", bench_f32::run, bench_f32::sizes),
         ("ceiling f64", ceiling_f64::run, ceiling_f64::sizes),
@@ -159,6 +161,8 @@ fn main() {
         ("reagent f32", reagent_f32::run, reagent_f32::sizes),
         ("incubator f64", incubator_f64::run, incubator_f64::sizes),
         ("incubator f32", incubator_f32::run, incubator_f32::sizes),
+        ("tipper f64", tipper_f64::run, tipper_f64::sizes),
+        ("tipper f32", tipper_f32::run, tipper_f32::sizes),
     ];
     let counts: Vec<usize> = arms.iter().map(|(_, run, _)| run(q)).collect();
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");

@@ -285,6 +285,13 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("common_normal_5_6", e.common_normal_5_6);
             put("angle_5_6", e.angle_5_6);
         }
+        ArmEvidence::ToolFirst(e) => {
+            // The mirrored arm's numbers: it stands where the arm stands.
+            let mirrored = armforge_compiler::family::mirror::mirrored_model(model);
+            for (k, v) in invariant_numbers(&mirrored, &e.mirrored) {
+                put(&format!("mirrored.{k}"), v);
+            }
+        }
     }
     for s in &g.singularities {
         match s {

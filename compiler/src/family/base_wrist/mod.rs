@@ -9,8 +9,9 @@ mod steps;
 
 use armforge_runtime::{Joint, JointKind};
 
-use super::data::{Distance, Judged, Part, SamplerBoundary, Steps, Value, VerifyHints};
-use super::{Family, FamilyModule, Found, Recognition, REGISTRY};
+use super::data::{Judged, Part, Steps, Value, VerifyHints};
+use super::mirror;
+use super::{Family, FamilyModule, Found, Recognition};
 use crate::classify::context::Context;
 use crate::classify::decoupled::line_angle;
 use crate::classify::reject::{Reason, Rejection};
@@ -37,29 +38,10 @@ pub struct BaseWristEvidence {
     pub mirrored: Box<Geometry>,
 }
 
-/// The arm seen from its tool ([`plan::mirrored_model`]) classified by the families with a
-/// spherical wrist at joints 4–6 only (so the mirror of a mirror is never tried).
+/// The arm seen from its tool classified by the families with a spherical wrist at joints 4–6
+/// only (so the mirror of a mirror is never tried).
 fn classify_mirrored(ctx: &Context) -> Result<Geometry, Option<Rejection>> {
-    let mirrored = plan::mirrored_model(ctx.model);
-    let mctx = Context::new(&mirrored, &ctx.tolerances).map_err(Some)?;
-    let mut degenerate = None;
-    let mut first = None;
-    for module in REGISTRY.iter().filter(|m| m.position_step().is_some()) {
-        match module.recognise(&mctx) {
-            Recognition::Mine(found) => {
-                return Ok(crate::classify::geometry_of(&mctx, module.family(), found))
-            }
-            Recognition::Degenerate(r) => {
-                degenerate.get_or_insert(r);
-            }
-            Recognition::NotMine(r) => {
-                if first.is_none() {
-                    first = r;
-                }
-            }
-        }
-    }
-    Err(degenerate.or(first))
+    mirror::classify_mirrored(ctx, |m| m.position_step().is_some()).map_err(|m| m.reason())
 }
 
 /// Why the hand (joints 6, 5, 4 read from the tool) is no family armforge solves, in the
@@ -171,32 +153,6 @@ fn renumbered(model: &Model, s: &Singularity) -> Singularity {
         name,
         text,
         equation,
-    }
-}
-
-/// The mirrored arm's `verify` hints in the arm's numbering (0-based joint `i` is the arm's
-/// `5 − i`, its motion undone).
-fn renumber_hints(h: VerifyHints) -> VerifyHints {
-    let distance = |d: Distance| Distance {
-        point: d.point,
-        moved_by: d.moved_by.iter().map(|&(j, undo)| (5 - j, !undo)).collect(),
-        axis: 5 - d.axis,
-    };
-    let boundary = |b: SamplerBoundary| SamplerBoundary {
-        distance: distance(b.distance),
-        joint: 5 - b.joint,
-        at: b.at,
-        side: b.side,
-    };
-    let mut roles = h.roles;
-    roles.reverse();
-    VerifyHints {
-        aligned_joint: 5 - h.aligned_joint,
-        aligned_at: h.aligned_at,
-        axes: h.axes.map(|d| d.map(distance)),
-        on_axis: h.on_axis.map(boundary),
-        boundaries: h.boundaries.into_iter().map(boundary).collect(),
-        roles,
     }
 }
 
@@ -372,15 +328,8 @@ impl FamilyModule for BaseWrist {
         let ArmEvidence::BaseWrist(e) = &geometry.arm else {
             return crate::classify::decoupled::verify_hints(joints, geometry);
         };
-        let mirrored: Vec<Joint> = joints
-            .iter()
-            .rev()
-            .map(|j| Joint {
-                axis: [-j.axis[0], -j.axis[1], -j.axis[2]],
-                ..*j
-            })
-            .collect();
+        let mirrored = mirror::mirrored_joints(joints);
         let inner = e.hand.module().verify_hints(&mirrored, &e.mirrored);
-        renumber_hints(inner)
+        mirror::renumber_hints(inner)
     }
 }

@@ -229,7 +229,11 @@ impl FamilyModule for MidWrist {
     }
 
     fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
-        plan::build(model, geometry.wrist_center)
+        plan::build(model, geometry)
+    }
+
+    fn target_step(&self) -> Option<super::TargetStep> {
+        Some(plan::target_step)
     }
 
     fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged> {

@@ -36,8 +36,9 @@ use armforge_runtime::internal::BranchRule;
 use armforge_runtime::plan::{CandidateLayout, CheckLayout};
 use armforge_runtime::Branch;
 
-use crate::classify::Family;
+use crate::classify::Geometry;
 use crate::family::general::plan::{self as general, Circle, Constants};
+use crate::family::TargetSolution;
 use crate::model::Model;
 use crate::plan::arm::Arm;
 use crate::plan::decouple::{self, Target};
@@ -229,18 +230,35 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> (Vec<CandidateLayout>, Bra
     (candidates, rule)
 }
 
-/// The plan of a mid-wrist arm whose axes 2–4 meet at `b` (base frame, every joint at zero).
-/// Joint 2 is held at its reference where the middle wrist lines up, joint 6 where `b` is on
-/// axis 6 (the free joints `[5, 1]`: the plan's reference inputs are theirs).
-pub fn build(model: &Model, b: [f64; 3]) -> Plan {
-    let arm = Arm::with_center(model, Family::MidWrist, b);
+/// The solve of a mid-wrist arm for the target `t` (the family's
+/// [`crate::family::TargetStep`], which the tool-first family reuses for arms whose axes 3–5
+/// meet). Joint 2 is held at its reference where the middle wrist lines up, joint 6 where `b`
+/// is on axis 6 (the free joints `[5, 1]`: the target's reference inputs are theirs).
+pub fn target_step(
+    g: &mut Graph,
+    model: &Model,
+    geometry: &Geometry,
+    t: &Target,
+) -> TargetSolution {
+    let arm = Arm::with_center(model, geometry.family, geometry.wrist_center);
+    let (candidates, rule) = solve(g, &arm, t);
+    let w = wrist::WristAxes::of(&wrist_arm(&arm));
+    TargetSolution {
+        arm,
+        candidates,
+        rule,
+        twist: [num::dot(&w.h4, &w.h5), num::dot(&w.h5, &w.h6)],
+        free: [5, 1],
+    }
+}
+
+/// The plan of a mid-wrist arm. Two roots of the quartic can share a geometric label: labels
+/// are read by solving.
+pub fn build(model: &Model, geometry: &Geometry) -> Plan {
     let mut g = Graph::new();
     let t = decouple::target(&mut g);
-    let (candidates, rule) = solve(&mut g, &arm, &t);
-    let w = wrist::WristAxes::of(&wrist_arm(&arm));
-    let twist = [num::dot(&w.h4, &w.h5), num::dot(&w.h5, &w.h6)];
-    let mut plan = crate::plan::assemble(arm, &g, &candidates, rule, twist, [5, 1]);
-    // Two roots of the quartic can share a geometric label: labels are read by solving.
+    let s = target_step(&mut g, model, geometry, &t);
+    let mut plan = crate::plan::assemble(s.arm, &g, &s.candidates, s.rule, s.twist, s.free);
     plan.labels_by_solving = true;
     plan
 }

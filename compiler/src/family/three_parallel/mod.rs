@@ -362,8 +362,12 @@ impl FamilyModule for ThreeParallel {
         Recognition::Mine(measure(ctx))
     }
 
-    fn build_plan(&self, model: &Model, _geometry: &Geometry) -> Plan {
-        plan::build(model, Family::ThreeParallel)
+    fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
+        plan::build(model, geometry)
+    }
+
+    fn target_step(&self) -> Option<super::TargetStep> {
+        Some(plan::target_step)
     }
 
     fn evidence(&self, arm: &ArmEvidence) -> Vec<Judged> {

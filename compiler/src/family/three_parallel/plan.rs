@@ -22,8 +22,9 @@ use armforge_runtime::internal::{BranchRule, CheckKind, ElbowRule, WristRule};
 use armforge_runtime::plan::{CandidateLayout, CheckLayout};
 use armforge_runtime::{Branch, Elbow, Shoulder, Wrist};
 
-use crate::classify::Family;
+use crate::classify::Geometry;
 use crate::family::elbow::plan as elbow;
+use crate::family::TargetSolution;
 use crate::model::Model;
 use crate::plan::arm::Arm;
 use crate::plan::decouple::{self, Target};
@@ -461,15 +462,33 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     out
 }
 
-/// The plan of a three-parallel arm.
-pub fn build(model: &Model, family: Family) -> Plan {
-    let probe = Arm::with_center(model, family, [0.0; 3]);
+/// The solve of a three-parallel arm for the target `t` (the family's
+/// [`crate::family::TargetStep`]); joints 1 and 6 are held at the reference when free.
+pub fn target_step(
+    g: &mut Graph,
+    model: &Model,
+    geometry: &Geometry,
+    t: &Target,
+) -> TargetSolution {
+    let probe = Arm::with_center(model, geometry.family, [0.0; 3]);
     let k = Layout::of(&probe);
-    let arm = Arm::with_center(model, family, k.meeting);
-    let mut g = Graph::new();
-    let t = decouple::target(&mut g);
-    let candidates = solve(&mut g, &arm, &t);
+    let arm = Arm::with_center(model, geometry.family, k.meeting);
+    let candidates = solve(g, &arm, t);
     let rule = rules(&arm);
     let twist = k.twist_cosines(&arm);
-    crate::plan::assemble(arm, &g, &candidates, rule, twist, [0, 5])
+    TargetSolution {
+        arm,
+        candidates,
+        rule,
+        twist,
+        free: [0, 5],
+    }
+}
+
+/// The plan of a three-parallel arm.
+pub fn build(model: &Model, geometry: &Geometry) -> Plan {
+    let mut g = Graph::new();
+    let t = decouple::target(&mut g);
+    let s = target_step(&mut g, model, geometry, &t);
+    crate::plan::assemble(s.arm, &g, &s.candidates, s.rule, s.twist, s.free)
 }
