@@ -60,7 +60,13 @@ fn joint_3_roots(
 ) -> [(Id, Id); 2] {
     let one = g.constant(1.0);
     let zero = g.constant(0.0);
-    rotate_into_plane(g, [a, b, e], (one, zero), threshold, unit, "j3").roots
+    // Beyond reach (`e² > a² + b²`) the pair is `(a, b) e / r²`, longer than 1: made a unit
+    // pair, so that the point stays on joint 3's circle and the candidate's residual says how
+    // far the target is (off the circle, the rest of the chain could place it exactly, and a
+    // θ3 that does not reach would pass its check).
+    rotate_into_plane(g, [a, b, e], (one, zero), threshold, unit, "j3")
+        .roots
+        .map(|(c, s)| unit_pair(g, c, s))
 }
 
 /// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`, from `f2`.
