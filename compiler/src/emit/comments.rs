@@ -9,6 +9,7 @@ use armforge_runtime::JointKind;
 
 use crate::model::Model;
 use crate::plan::render::counted;
+use crate::plan::vec3::num;
 use crate::plan::Plan;
 
 /// Text from a file made safe for a `//` comment: one line, every non-printing character
@@ -39,9 +40,14 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
         "// Units: SI throughout (metres, radians), whatever units the description uses."
     );
     h.push_str(&joints_as_written(model));
+    let wrist = if has_spherical_wrist(plan) {
+        " with a spherical wrist"
+    } else {
+        ""
+    };
     let _ = writeln!(
         h,
-        "// Family: {} with a spherical wrist; {} branches, at most one solution each.",
+        "// Family: {}{wrist}; {} branches, at most one solution each.",
         plan.arm.family.name(),
         plan.capacity
     );
@@ -82,6 +88,20 @@ pub fn header(model: &Model, plan: &Plan, source_path: &str) -> String {
 /// The joints in `JOINT_TABLE`'s order with their limits and zero offsets as the description
 /// wrote them (its units), so a reviewer can check the SI table against the file:
 /// `//   1 waist: revolute, limits -170° to 170°`.
+/// Whether the point the plan places lies on three consecutive revolute axes, 4–6 or 1–3 (to
+/// 1e-6 of the arm's size, the classifier's distance tolerance): a spherical wrist, at the end
+/// or at the base. The three-parallel and tool-first arms place a point on two axes only.
+fn has_spherical_wrist(plan: &Plan) -> bool {
+    let arm = &plan.arm;
+    let c = arm.wrist_center;
+    let through = |i: usize| {
+        let j = &arm.joints[i];
+        let d = num::sub(&c, &j.point);
+        j.kind == JointKind::Revolute && num::norm(&num::cross(&j.axis, &d)) <= 1e-6 * arm.scale
+    };
+    (3..6).all(through) || (0..3).all(through)
+}
+
 fn joints_as_written(model: &Model) -> String {
     let mut text = format!(
         "// Joints as the description wrote them ({}, {}); JOINT_TABLE holds the same in SI:\n",

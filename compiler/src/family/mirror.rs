@@ -208,13 +208,15 @@ pub fn renumber_text(text: &str) -> String {
     out
 }
 
-/// A `snake_case` name (a rejection's or a singular configuration's) in the arm's numbering,
-/// as [`renumber_text`] renumbers words: `axes_5_and_6_miss` → `axes_1_and_2_miss`. Names are
-/// `'static` (they are the families' own); each distinct renumbered name is made once and kept
-/// for the program's life (there are as many as the families have names).
+/// A `snake_case` key or name (an evidence item's, a rejection's, a singular configuration's)
+/// in the arm's numbering: every token that is one joint number 1–6 becomes `7 − n`, and the
+/// numbers of one group (tokens joined directly or by `and`) are put in ascending order again:
+/// `axes_5_and_6_miss` → `axes_1_and_2_miss`, `angle_1_2` → `angle_5_6`. Keys and names are
+/// `'static` (they are the families' own); each distinct renumbered one is made once and kept
+/// for the program's life (there are as many as the families have keys and names).
 pub fn renumber_name(name: &'static str) -> &'static str {
     static NAMES: OnceLock<Mutex<HashMap<&'static str, &'static str>>> = OnceLock::new();
-    let renamed = renumber_text(&name.replace('_', " ")).replace(' ', "_");
+    let renamed = renumber_tokens(name);
     if renamed == name {
         return name;
     }
@@ -223,6 +225,47 @@ pub fn renumber_name(name: &'static str) -> &'static str {
     names
         .entry(name)
         .or_insert_with(|| Box::leak(renamed.into_boxed_str()))
+}
+
+/// [`renumber_name`] without the keeping.
+fn renumber_tokens(name: &str) -> String {
+    let mut tokens: Vec<String> = name.split('_').map(str::to_string).collect();
+    let number = |t: &str| {
+        (t.len() == 1)
+            .then(|| t.parse::<u32>().ok())
+            .flatten()
+            .filter(|n| (1..=6).contains(n))
+    };
+    let mut i = 0;
+    while i < tokens.len() {
+        if number(&tokens[i]).is_none() {
+            i += 1;
+            continue;
+        }
+        // One group: numbers, joined directly or by `and`.
+        let mut slots = vec![i];
+        let mut j = i + 1;
+        while j < tokens.len() {
+            if number(&tokens[j]).is_some() {
+                slots.push(j);
+                j += 1;
+            } else if tokens[j] == "and" && tokens.get(j + 1).is_some_and(|t| number(t).is_some()) {
+                j += 1;
+            } else {
+                break;
+            }
+        }
+        let mut mapped: Vec<u32> = slots
+            .iter()
+            .filter_map(|&k| number(&tokens[k]).map(|n| 7 - n))
+            .collect();
+        mapped.sort_unstable();
+        for (&k, n) in slots.iter().zip(mapped) {
+            tokens[k] = n.to_string();
+        }
+        i = j;
+    }
+    tokens.join("_")
 }
 
 /// A range of joints alone in brackets at the start of `s` (`(2–3)`, as in `angles 0° (2–3)
@@ -290,6 +333,9 @@ mod tests {
         assert_eq!(renumber_name("axes_5_and_6_miss"), "axes_1_and_2_miss");
         assert_eq!(renumber_name("axis_6_parallel"), "axis_1_parallel");
         assert_eq!(renumber_name("shoulder"), "shoulder");
+        assert_eq!(renumber_name("angle_1_2"), "angle_5_6");
+        assert_eq!(renumber_name("angle_5_to_parallel"), "angle_2_to_parallel");
+        assert_eq!(renumber_name("four_parallel_axes"), "four_parallel_axes");
         let a = renumber_name("axis_6_parallel");
         let b = renumber_name("axis_6_parallel");
         assert!(std::ptr::eq(a, b), "made once");

@@ -9,7 +9,7 @@
 //   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.03609274868047141 rad
 //   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = joint value + 0.14260657005204558 rad
 //   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.9809550817872665 rad
-// Family: three-parallel with a spherical wrist; 8 branches, at most one solution each.
+// Family: three-parallel; 8 branches, at most one solution each.
 // Cost of one solve: 11 sqrt, 26 atan2, 9 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 4 sqrt, 6 atan2, 4 divisions (that branch alone).
 //

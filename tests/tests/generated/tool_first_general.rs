@@ -9,7 +9,7 @@
 //   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.8754416073129181 rad
 //   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.24419803068514812 rad
 //   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.9037786927954456 rad
-// Family: tool-first with a spherical wrist; 8 branches, at most one solution each.
+// Family: tool-first; 8 branches, at most one solution each.
 // Cost of one solve: 11 sqrt, 26 atan2, 5 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 4 sqrt, 6 atan2, 2 divisions (that branch alone).
 //

@@ -207,7 +207,7 @@ impl FamilyModule for ToolFirst {
                 .evidence(&e.mirrored.arm)
                 .into_iter()
                 .map(|j| Judged {
-                    key: j.key,
+                    key: mirror::renumber_name(j.key),
                     label: format!(
                         "read from the tool ({}): {}",
                         e.mirrored_family.name(),
