@@ -9,7 +9,7 @@
 //   4 j4: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.5363192452786976 rad
 //   5 j5: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value + 0.2182222208337543 rad
 //   6 j6: revolute, limits -3.141592653589793 rad to 3.141592653589793 rad, model value = -joint value - 0.4120376640323722 rad
-// Family: mid-wrist with a spherical wrist; 8 branches, at most one solution each.
+// Family: mid-wrist; 8 branches, at most one solution each.
 // Cost of one solve: 60 sqrt, 41 atan2, 1 cbrt, 1 cos, 88 divisions, no loops, no heap.
 // Cost of one solve_branch: at most 50 sqrt, 11 atan2, 1 cbrt, 1 cos, 81 divisions (that branch alone).
 //
