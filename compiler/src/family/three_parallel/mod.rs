@@ -6,8 +6,10 @@
 //!
 //! Covered: the layout with axis 1 and axis 5 each ⟂ the parallel axes and axis 6 ⟂ axis 5,
 //! and every other angle of axes 1, 5 and 6 to the parallel axes, with any offsets, as long as
-//! axes 5 and 6 meet. Not covered: axes 5 and 6 passing apart, and three parallel axes at
-//! joints 1–3, 3–5 or 4–6 (rejected, saying so).
+//! axes 5 and 6 meet. Not covered here: axes 5 and 6 passing apart, and three parallel axes at
+//! joints 1–3 or 4–6 (rejected, saying so). Axes 3–5 parallel with axes 1 and 2 meeting are
+//! this family's arms read from the tool: the tool-first family solves them through
+//! [`plan::target_step`].
 
 pub mod plan;
 mod steps;

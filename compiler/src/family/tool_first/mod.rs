@@ -3,7 +3,8 @@
 //! family that solves any target ([`super::FamilyModule::target_step`]); that family's plan
 //! for the target `G⁻¹` solves the arm (mirrored decoupling, Pieper 1968, read from the tool
 //! end). Today: arms whose axes 3, 4 and 5 are parallel and axes 1 and 2 meet (the mirror is a
-//! three-parallel arm); any family that offers the step later is picked up the same way.
+//! three-parallel arm), and arms whose axes 3, 4 and 5 meet (the mirror is a mid-wrist arm);
+//! any family that offers the step later is picked up the same way.
 //!
 //! Recognition, evidence, the review's conditions and `verify` hints here (the mirrored
 //! family's, renumbered into the arm's numbering); the plan in [`plan`].
@@ -226,7 +227,8 @@ impl FamilyModule for ToolFirst {
     fn summary(&self) -> &'static str {
         "read from the tool: the mirrored arm (joint i is joint 7 − i about the reversed axis) \
          is solved whole by its own family, named with its evidence above (axes 3, 4, 5 \
-         parallel and axes 1, 2 meeting: a three-parallel arm read from its tool)"
+         parallel and axes 1, 2 meeting: a three-parallel arm read from its tool; axes 3, 4, 5 \
+         meeting: a mid-wrist arm read from its tool)"
     }
 
     fn solution_parts(&self) -> [&'static str; 2] {
@@ -242,7 +244,8 @@ impl FamilyModule for ToolFirst {
             "the labels read on the mirrored arm (its joint i is joint 7 − i here, about the \
              reversed axis, with the same value) by its family's rule: for a three-parallel \
              mirror, the meeting point q' of axes 1 and 2 moved by its joints 2–4 (joints 5, 4, \
-             3 here), its axes written h' and numbered as its own",
+             3 here); for a mid-wrist mirror, read by solving; its axes written h' and \
+             numbered as its own",
             "h'5 × h'2",
         ]
     }
@@ -251,7 +254,7 @@ impl FamilyModule for ToolFirst {
         "Read from the tool: the mirrored arm (joint i is joint 7 − i about the reversed axis) \
          is an arm armforge solves whole, of the family the first condition below names \
          (mirrored decoupling, Pieper 1968); axes 3, 4 and 5 parallel with axes 1 and 2 \
-         meeting make it a three-parallel arm."
+         meeting make it a three-parallel arm, axes 3, 4 and 5 meeting a mid-wrist arm."
     }
 
     fn conditions(&self, plan: &Plan, geometry: &Geometry) -> Vec<Vec<Part>> {
