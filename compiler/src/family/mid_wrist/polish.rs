@@ -1,4 +1,4 @@
-//! One Newton step on the mid-wrist's three position equations, and joint 6 held where it is
+//! Two Newton steps on the mid-wrist's three position equations, and joint 6 held where it is
 //! free.
 //!
 //! The general family's quartic polishes each root on the two equations joint 5 (its joint 1)

@@ -55,8 +55,9 @@ pub fn steps(plan: &Plan) -> Steps {
     let polish = Step {
         title: "Each root polished, joint 6 held where it is free".into(),
         text: "Where `b` nears axis 6, joint 6 can hardly move it: the two equations above lose \
-               joint 6's column and the roots are double. One Newton step on the three \
-               position equations keeps joints 5 and 1 where it helps; joint 6 is fitted again. \
+               joint 6's column and the roots are double. Two Newton steps on the three \
+               position equations move joints 5 and 1 where they help; joint 6 is fitted \
+               again after each. \
                Roots closer than about 1e-7 rad are one root (joints 2–4 follow the chain, and \
                near the aligned middle wrist they magnify its differences)."
             .into(),
