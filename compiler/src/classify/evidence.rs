@@ -4,6 +4,7 @@
 
 use std::f64::consts::{FRAC_PI_2, PI};
 
+use armforge_runtime::JointKind;
 use nalgebra::{Point3, Vector3};
 
 use super::context::Context;
@@ -142,6 +143,22 @@ pub enum Singularity {
 /// The coordinates of `v`.
 pub fn arr(v: &Vector3<f64>) -> [f64; 3] {
     [v.x, v.y, v.z]
+}
+
+/// Model values `values` of joint `joint` (1-based) as the description writes that joint's
+/// values (revolute ones wrapped into `(−π, π]`), joined by "and": for the texts of singular
+/// configurations.
+pub fn show_joint_values(model: &crate::model::Model, joint: usize, values: &[f64]) -> String {
+    let u = &model.units;
+    let j = &model.joints[joint - 1].joint;
+    values
+        .iter()
+        .map(|&m| match j.kind {
+            JointKind::Revolute => u.show_angle(wrap(j.joint_value(m))),
+            JointKind::Prismatic => u.show_length(j.joint_value(m)),
+        })
+        .collect::<Vec<_>>()
+        .join(" and ")
 }
 
 /// `angle` wrapped into `(−π, π]`.

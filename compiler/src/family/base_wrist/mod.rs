@@ -7,7 +7,7 @@
 pub mod plan;
 mod steps;
 
-use armforge_runtime::{Joint, JointKind};
+use armforge_runtime::Joint;
 
 use super::data::{Judged, Part, Steps, Value, VerifyHints};
 use super::mirror;
@@ -68,17 +68,7 @@ fn hand_unsolved(ctx: &Context, inner: Option<Rejection>) -> Recognition {
 fn renumbered(model: &Model, s: &Singularity) -> Singularity {
     let u = &model.units;
     let at = |joint: usize, values: &[f64]| {
-        let j = &model.joints[joint - 1].joint;
-        values
-            .iter()
-            .map(|&m| match j.kind {
-                JointKind::Revolute => {
-                    u.show_angle(crate::classify::evidence::wrap(j.joint_value(m)))
-                }
-                JointKind::Prismatic => u.show_length(j.joint_value(m)),
-            })
-            .collect::<Vec<_>>()
-            .join(" and ")
+        crate::classify::evidence::show_joint_values(model, joint, values)
     };
     let (name, text) = match s {
         Singularity::WristAligned { joint_5_at } => (

@@ -60,7 +60,7 @@ use crate::units::tidy;
 /// Added to a root's residual in the slots of the labels it does not have: such a candidate
 /// always fails its check (m²). A number of the routing, not a tolerance: the same in `f32`
 /// (where a tolerance's scaling would take it past the largest `f32`).
-pub(crate) const MISMATCH: f64 = 1e30;
+const MISMATCH: f64 = 1e30;
 
 /// How axes 1 and 2 lie. The quartic needs them apart and not parallel; when they meet or
 /// are parallel, one equation in joint 3 alone is left (see [`super::axes_1_2`]).
@@ -789,6 +789,31 @@ fn smallest(g: &mut Graph, bundles: &[Bundle], ranks: &[Id], checks: &[Id]) -> (
     (best, check)
 }
 
+/// [`MISMATCH`] when the turns `later` lie within `near` (sum of squared differences of
+/// cosines and sines) of the turns of an `earlier` root that is real (its residual within
+/// `tol2`): the later root is that root found again. Zero otherwise.
+pub(crate) fn copy_penalty(
+    g: &mut Graph,
+    (earlier, residual): (&[(Id, Id)], Id),
+    later: &[(Id, Id)],
+    (near, tol2): (Id, Id),
+) -> Id {
+    let zero = g.constant(0.0);
+    let mut d = zero;
+    for (a, b) in earlier.iter().zip(later) {
+        let dc = g.sub(a.0, b.0);
+        let ds = g.sub(a.1, b.1);
+        let dd = g.mul_add2(dc, dc, ds, ds);
+        d = g.add(d, dd);
+    }
+    let same = g.sub(near, d);
+    // Only a real earlier root makes this one a copy.
+    let real = g.sub(tol2, residual);
+    let same = g.min(same, real);
+    let big = g.constant(MISMATCH);
+    g.select(same, big, zero)
+}
+
 /// Routes each root to the slot of its label: slot `(shoulder, elbow)` takes, among the
 /// roots with that label, a real one (residual within `tol`) before a complex one, and among
 /// those the one farthest from the shoulder plane, ties broken by `θ3` (a rank that rounding
@@ -822,19 +847,8 @@ pub(super) fn route(
     let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
     for j in 1..roots.len() {
         for i in 0..j {
-            let mut d = zero;
-            for joint in 1..3 {
-                let (a, b) = (roots[i].turns[joint], roots[j].turns[joint]);
-                let dc = g.sub(a.0, b.0);
-                let ds = g.sub(a.1, b.1);
-                let dd = g.mul_add2(dc, dc, ds, ds);
-                d = g.add(d, dd);
-            }
-            let same = g.sub(near, d);
-            // Only a real earlier root makes this one a copy.
-            let real = g.sub(tol2, roots[i].residual);
-            let same = g.min(same, real);
-            let penalty = g.select(same, big, zero);
+            let earlier = (&roots[i].turns[1..3], roots[i].residual);
+            let penalty = copy_penalty(g, earlier, &roots[j].turns[1..3], (near, tol2));
             residuals[j] = g.add(residuals[j], penalty);
         }
     }

@@ -123,19 +123,6 @@ fn check(ctx: &Context, wrist: &WristEvidence) -> Option<Recognition> {
     None
 }
 
-/// Joint 3's values (the arm's units) at which axes 2 and 4 line up.
-fn aligned_text(model: &Model, at: &[f64]) -> String {
-    let j = &model.joints[2].joint;
-    at.iter()
-        .map(|&m| {
-            model
-                .units
-                .show_angle(crate::classify::evidence::wrap(j.joint_value(m)))
-        })
-        .collect::<Vec<_>>()
-        .join(" and ")
-}
-
 /// The family's singular configurations: the middle wrist lined up, and the position chain's
 /// merging roots.
 fn singularities(model: &Model, wrist: &WristEvidence) -> Vec<Singularity> {
@@ -153,7 +140,7 @@ fn singularities(model: &Model, wrist: &WristEvidence) -> Vec<Singularity> {
             text: format!(
                 "middle wrist aligned: axes 2 and 4 in one line, joints 2 and 4 turn together, \
                  at joint 3 = {}",
-                aligned_text(model, &wrist.aligned_at)
+                crate::classify::evidence::show_joint_values(model, 3, &wrist.aligned_at)
             ),
             equation: "|h2 × R3 h4| = 0 (below 1e-10): joint 2 is held at its reference \
                        (`solve_near`: its current value), joint 4 takes the rest; the \

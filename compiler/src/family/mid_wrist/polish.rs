@@ -23,7 +23,7 @@
 //! the joints); there the check accepts a miss up to 5e-9 of the arm's size (measured: up to
 //! 6e-10 on the incubator-threader example), and the candidate is flagged at the reach limit.
 
-use crate::family::general::plan::{turn_by, Circle};
+use crate::family::general::plan::{copy_penalty, turn_by, Circle};
 use crate::plan::graph::{Graph, Id};
 use crate::plan::pose;
 use crate::plan::quartic::away_from_zero;
@@ -232,23 +232,14 @@ pub fn polish(
 /// within `tol²`) is that root again, and fails its check. The polish can bring the two halves
 /// of a near-double root together after the quartic's routing told them apart.
 pub fn drop_copies(g: &mut Graph, roots: &mut [crate::plan::ArmSolution], copies: f64, tol: f64) {
-    let big = g.constant(crate::family::general::plan::MISMATCH);
-    let zero = g.constant(0.0);
     let near = g.exact_once(copies);
     let tol2 = g.exact(tol * tol);
     for j in 1..roots.len() {
+        let later: Vec<(Id, Id)> = roots[j].undo.iter().map(|t| (t.cos, t.sin)).collect();
         for i in 0..j {
-            let mut d = zero;
-            for (a, b) in roots[i].undo.iter().zip(&roots[j].undo) {
-                let dc = g.sub(a.cos, b.cos);
-                let ds = g.sub(a.sin, b.sin);
-                let dd = g.mul_add2(dc, dc, ds, ds);
-                d = g.add(d, dd);
-            }
-            let same = g.sub(near, d);
-            let real = g.sub(tol2, roots[i].checks[0].have_squared);
-            let copy = g.min(same, real);
-            let penalty = g.select(copy, big, zero);
+            let earlier: Vec<(Id, Id)> = roots[i].undo.iter().map(|t| (t.cos, t.sin)).collect();
+            let residual = roots[i].checks[0].have_squared;
+            let penalty = copy_penalty(g, (&earlier, residual), &later, (near, tol2));
             let check = &mut roots[j].checks[0];
             check.have_squared = g.add(check.have_squared, penalty);
         }

@@ -23,7 +23,7 @@ use super::data::{Distance, Judged, Part, Role, SamplerBoundary, Steps, Value, V
 use super::{Family, FamilyModule, Found, Recognition};
 use crate::classify::context::Context;
 use crate::classify::decoupled::{gap, line_angle};
-use crate::classify::evidence::{arr, shoulder, wrap, Shoulder};
+use crate::classify::evidence::{arr, shoulder, show_joint_values, wrap, Shoulder};
 use crate::classify::lines::signed_angle_about;
 use crate::classify::reject::{Quantity, Reason};
 use crate::classify::{ArmEvidence, Geometry, Reach, ReachOrigin, Singularity};
@@ -212,14 +212,7 @@ fn measure(ctx: &Context) -> Found {
     let rho = [(upper_arm - forearm).abs(), upper_arm + forearm];
     let aligned = aligned_at(ctx, &h);
     let u = &ctx.model.units;
-    let joint_angles = |n: usize, values: &[f64]| {
-        let j = &ctx.model.joints[n - 1].joint;
-        values
-            .iter()
-            .map(|&m| u.show_angle(wrap(j.joint_value(m))))
-            .collect::<Vec<_>>()
-            .join(" and ")
-    };
+    let joint_angles = |n: usize, values: &[f64]| show_joint_values(ctx.model, n, values);
     let h1 = ctx.line(1).direction.into_inner();
     let p1 = ctx.line(1).point;
     let e = h.dot(&(qp - p1));
