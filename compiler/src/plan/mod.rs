@@ -13,9 +13,11 @@ pub mod arm;
 pub mod decouple;
 pub mod graph;
 pub mod planar;
+pub mod plane_line;
 pub mod pose;
 pub mod quartic;
 pub mod render;
+pub mod route;
 pub mod samples;
 pub mod subproblems;
 pub mod vec3;
@@ -374,6 +376,23 @@ pub(crate) fn unit_pair(g: &mut Graph, c: Id, s: Id) -> (Id, Id) {
     let some = g.sub(r2, tiny);
     let zero = g.constant(0.0);
     (g.select(some, unit_c, one), g.select(some, unit_s, zero))
+}
+
+/// `(c, s)` turned by the small angle `δ` (`cos δ ≈ 1 − δ²/2`, `sin δ ≈ δ`), made a unit
+/// pair again.
+pub(crate) fn turn_by(g: &mut Graph, (c, s): (Id, Id), delta: Id) -> (Id, Id) {
+    let dd = g.mul(delta, delta);
+    let half = g.constant(0.5);
+    let hdd = g.mul(half, dd);
+    let one = g.constant(1.0);
+    let cd = g.sub(one, hdd);
+    let nc = {
+        let x = g.mul(c, cd);
+        let y = g.mul(s, delta);
+        g.sub(x, y)
+    };
+    let ns = g.mul_add2(s, cd, c, delta);
+    unit_pair(g, nc, ns)
 }
 
 /// The plan from a family's candidates: compacts the graph, sets the tolerances, the capacity

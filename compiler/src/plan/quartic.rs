@@ -463,3 +463,55 @@ fn trig_value(g: &mut Graph, k: &[Id; 5], theta: f64) -> Id {
 
 #[cfg(test)]
 mod tests;
+
+/// `k0 + k1 cos θ + k2 sin θ` (graph values; constants fold where the data allow).
+pub type Linear = [Id; 3];
+
+/// `l0 + l1 c + l2 s` at the turn `(c, s)`.
+pub fn at(g: &mut Graph, [l0, l1, l2]: Linear, (c, s): (Id, Id)) -> Id {
+    let x = g.mul(l1, c);
+    let y = g.mul(l2, s);
+    let xy = g.add(x, y);
+    g.add(l0, xy)
+}
+
+/// `L²` as a degree-2 trigonometric polynomial `[k0, k1, k2, k3, k4]` (coefficients of
+/// `1, cos θ, sin θ, cos 2θ, sin 2θ`): `cos²θ = (1 + cos 2θ)/2`, `sin²θ = (1 − cos 2θ)/2`,
+/// `2 sin θ cos θ = sin 2θ`.
+pub fn squared(g: &mut Graph, [l0, l1, l2]: Linear) -> [Id; 5] {
+    let half = g.constant(0.5);
+    let two = g.constant(2.0);
+    let l00 = g.mul(l0, l0);
+    let l11 = g.mul(l1, l1);
+    let l22 = g.mul(l2, l2);
+    let sum = g.add(l11, l22);
+    let diff = g.sub(l11, l22);
+    let k0 = g.mul(half, sum);
+    let k0 = g.add(l00, k0);
+    let l01 = g.mul(l0, l1);
+    let l02 = g.mul(l0, l2);
+    let l12 = g.mul(l1, l2);
+    [k0, g.mul(two, l01), g.mul(two, l02), g.mul(half, diff), l12]
+}
+
+/// `L M` as a degree-2 trigonometric polynomial (see [`squared`]).
+pub fn product(g: &mut Graph, [l0, l1, l2]: Linear, [m0, m1, m2]: Linear) -> [Id; 5] {
+    let half = g.constant(0.5);
+    let cc = g.mul(l1, m1);
+    let ss = g.mul(l2, m2);
+    let sum = g.add(cc, ss);
+    let diff = g.sub(cc, ss);
+    let k0 = {
+        let z = g.mul(l0, m0);
+        let h = g.mul(half, sum);
+        g.add(z, h)
+    };
+    let k1 = g.mul_add2(l0, m1, l1, m0);
+    let k2 = g.mul_add2(l0, m2, l2, m0);
+    let k3 = g.mul(half, diff);
+    let k4 = {
+        let cs = g.mul_add2(l1, m2, l2, m1);
+        g.mul(half, cs)
+    };
+    [k0, k1, k2, k3, k4]
+}

@@ -47,8 +47,9 @@ use crate::plan::vec3::{self, num, V3};
 use crate::plan::{unit_pair, ArmSolution, Target};
 
 use super::plan::{
-    aim, along, at, finish, on_axis_1, placed, radius_terms, route, Aim, Circle, Constants, Root,
+    aim, along, finish, on_axis_1, placed, radius_terms, route, Aim, Circle, Constants, Root,
 };
+use crate::plan::quartic::at;
 
 /// The two roots of joint 3 from `k1 cos θ3 + k2 sin θ3 = e` (the classifier has made sure
 /// that `k1² + k2²` is clear of zero, so the reference is never used).

@@ -51,16 +51,12 @@ use armforge_runtime::{Elbow, Shoulder};
 
 use crate::plan::arm::Arm;
 use crate::plan::graph::{Graph, Id};
-use crate::plan::quartic::{away_from_zero, trig_roots};
+use crate::plan::quartic::{at, away_from_zero, squared, trig_roots, Linear};
+use crate::plan::route::{self, copy_penalty};
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::vec3::{self, num, V3};
-use crate::plan::{sign, unit_pair, ArmSolution, Target, Turn};
+use crate::plan::{sign, turn_by, unit_pair, ArmSolution, Target, Turn};
 use crate::units::tidy;
-
-/// Added to a root's residual in the slots of the labels it does not have: such a candidate
-/// always fails its check (m²). A number of the routing, not a tolerance: the same in `f32`
-/// (where a tolerance's scaling would take it past the largest `f32`).
-const MISMATCH: f64 = 1e30;
 
 /// How axes 1 and 2 lie. The quartic needs them apart and not parallel; when they meet or
 /// are parallel, one equation in joint 3 alone is left (see [`super::axes_1_2`]).
@@ -268,27 +264,6 @@ pub fn rules(arm: &Arm, k: &Constants) -> (ShoulderRule, ElbowRule) {
     )
 }
 
-/// `k0 + k1 cos θ + k2 sin θ` (graph values; constants for a general arm's `k1`, `k2`).
-pub(super) type Linear = [Id; 3];
-
-/// `L²` as a degree-2 trigonometric polynomial `[k0, k1, k2, k3, k4]` (coefficients of
-/// `1, cos θ, sin θ, cos 2θ, sin 2θ`).
-fn squared(g: &mut Graph, [l0, l1, l2]: Linear) -> [Id; 5] {
-    let half = g.constant(0.5);
-    let two = g.constant(2.0);
-    let l00 = g.mul(l0, l0);
-    let l11 = g.mul(l1, l1);
-    let l22 = g.mul(l2, l2);
-    let sum = g.add(l11, l22);
-    let diff = g.sub(l11, l22);
-    let k0 = g.mul(half, sum);
-    let k0 = g.add(l00, k0);
-    let l01 = g.mul(l0, l1);
-    let l02 = g.mul(l0, l2);
-    let l12 = g.mul(l1, l2);
-    [k0, g.mul(two, l01), g.mul(two, l02), g.mul(half, diff), l12]
-}
-
 /// `d · (const, cos θ, sin θ)` pieces of `d · r(θ3)` for a constant direction `d`.
 pub(super) fn along(g: &mut Graph, r: &Circle, d: [f64; 3]) -> Linear {
     [
@@ -296,14 +271,6 @@ pub(super) fn along(g: &mut Graph, r: &Circle, d: [f64; 3]) -> Linear {
         vec3::dot_const(g, d, r.rc),
         vec3::dot_const(g, d, r.rs),
     ]
-}
-
-/// `l0 + l1 c + l2 s`.
-pub(super) fn at(g: &mut Graph, [l0, l1, l2]: Linear, (c, s): (Id, Id)) -> Id {
-    let x = g.mul(l1, c);
-    let y = g.mul(l2, s);
-    let xy = g.add(x, y);
-    g.add(l0, xy)
 }
 
 /// One root carried through joints 2 and 1, before routing to a labelled slot.
@@ -553,23 +520,6 @@ fn misses(g: &mut Graph, k: &Constants, w: V3, rho: Id, zeta: Id, four_rho: Id) 
     (g1, g2, g.add(a, g22))
 }
 
-/// `(c, s)` turned by the small angle `δ` (`cos δ ≈ 1 − δ²/2`, `sin δ ≈ δ`), made a unit
-/// pair again.
-pub(crate) fn turn_by(g: &mut Graph, (c, s): (Id, Id), delta: Id) -> (Id, Id) {
-    let dd = g.mul(delta, delta);
-    let half = g.constant(0.5);
-    let hdd = g.mul(half, dd);
-    let one = g.constant(1.0);
-    let cd = g.sub(one, hdd);
-    let nc = {
-        let x = g.mul(c, cd);
-        let y = g.mul(s, delta);
-        g.sub(x, y)
-    };
-    let ns = g.mul_add2(s, cd, c, delta);
-    unit_pair(g, nc, ns)
-}
-
 /// Joints 2 and 1 for one root of joint 3, its residual and its labels.
 ///
 /// After the quartic, one guarded Newton step on the two equations joint 1 leaves
@@ -747,80 +697,12 @@ pub(super) fn finish(
     }
 }
 
-/// The values of one root that a slot carries.
-#[derive(Clone, Copy)]
-struct Bundle {
-    angles: [Id; 3],
-    turns: [(Id, Id); 3],
-    residual: Id,
-    merge: Id,
-    /// Indicators (1 or 0) of which root this is.
-    which: [Id; 4],
-}
-
-impl Bundle {
-    fn pick(g: &mut Graph, c: Id, a: &Bundle, b: &Bundle) -> Bundle {
-        let mut out = *b;
-        for j in 0..3 {
-            out.angles[j] = g.select(c, a.angles[j], b.angles[j]);
-            out.turns[j].0 = g.select(c, a.turns[j].0, b.turns[j].0);
-            out.turns[j].1 = g.select(c, a.turns[j].1, b.turns[j].1);
-        }
-        out.residual = g.select(c, a.residual, b.residual);
-        out.merge = g.select(c, a.merge, b.merge);
-        for i in 0..4 {
-            out.which[i] = g.select(c, a.which[i], b.which[i]);
-        }
-        out
-    }
-}
-
-/// The bundle with the smallest rank, and its check value (`checks[i]` for bundle `i`).
-fn smallest(g: &mut Graph, bundles: &[Bundle], ranks: &[Id], checks: &[Id]) -> (Bundle, Id) {
-    let mut best = bundles[0];
-    let mut rank = ranks[0];
-    let mut check = checks[0];
-    for ((b, &r), &c) in bundles.iter().zip(ranks).zip(checks).skip(1) {
-        let lower = g.sub(rank, r);
-        best = Bundle::pick(g, lower, b, &best);
-        rank = g.select(lower, r, rank);
-        check = g.select(lower, c, check);
-    }
-    (best, check)
-}
-
-/// [`MISMATCH`] when the turns `later` lie within `near` (sum of squared differences of
-/// cosines and sines) of the turns of an `earlier` root that is real (its residual within
-/// `tol2`): the later root is that root found again. Zero otherwise.
-pub(crate) fn copy_penalty(
-    g: &mut Graph,
-    (earlier, residual): (&[(Id, Id)], Id),
-    later: &[(Id, Id)],
-    (near, tol2): (Id, Id),
-) -> Id {
-    let zero = g.constant(0.0);
-    let mut d = zero;
-    for (a, b) in earlier.iter().zip(later) {
-        let dc = g.sub(a.0, b.0);
-        let ds = g.sub(a.1, b.1);
-        let dd = g.mul_add2(dc, dc, ds, ds);
-        d = g.add(d, dd);
-    }
-    let same = g.sub(near, d);
-    // Only a real earlier root makes this one a copy.
-    let real = g.sub(tol2, residual);
-    let same = g.min(same, real);
-    let big = g.constant(MISMATCH);
-    g.select(same, big, zero)
-}
-
-/// Routes each root to the slot of its label: slot `(shoulder, elbow)` takes, among the
-/// roots with that label, a real one (residual within `tol`) before a complex one, and among
-/// those the one farthest from the shoulder plane, ties broken by `θ3` (a rank that rounding
-/// cannot swap, so that solving again at the same pose routes alike). A slot that no root belongs to then takes
-/// the best root no slot took (two real roots with one label: the second would otherwise be
-/// lost; it keeps its joint values under this slot's label), else fails its check
-/// ([`MISMATCH`] added to its residual).
+/// Routes each root to the slot of its label ([`crate::plan::route`]): slot
+/// `(shoulder, elbow)` takes, among the roots with that label, a real one before a complex
+/// one, and among those the one farthest from the shoulder plane, ties broken by `θ3`. A root
+/// that lands on an earlier real one (joints 2 and 3 within about 1e-5 rad: a double root, or
+/// a complex pair's real part polished onto a real root) is that root again: it fails its
+/// check.
 pub(super) fn route(
     g: &mut Graph,
     k: &Constants,
@@ -828,164 +710,74 @@ pub(super) fn route(
     on_axis: Id,
     (tol, scale): (f64, f64),
 ) -> Vec<ArmSolution> {
-    let big = g.constant(MISMATCH);
-    let zero = g.constant(0.0);
-    let one = g.constant(1.0);
-    let slots = [
-        (Shoulder::Facing, Elbow::Up),
-        (Shoulder::Facing, Elbow::Down),
-        (Shoulder::Across, Elbow::Up),
-        (Shoulder::Across, Elbow::Down),
-    ];
-    // A root that lands on an earlier real one (joints 2 and 3 within about 1e-5 rad: a
-    // double root, or a complex pair's real part polished onto a real root) is that root
-    // again: it fails its check.
     // In f32 the threshold grows ×2^14.5 (about 1.5e-3 rad): a squared distance of two roots
     // is no squared tolerance; ×2^29 would merge distinct roots 0.2 rad apart.
     let near = g.exact_once(k.copies);
     let tol2 = g.exact(tol * tol);
-    let mut residuals: Vec<Id> = roots.iter().map(|r| r.residual).collect();
-    for j in 1..roots.len() {
-        for i in 0..j {
-            let earlier = (&roots[i].turns[1..3], roots[i].residual);
-            let penalty = copy_penalty(g, earlier, &roots[j].turns[1..3], (near, tol2));
-            residuals[j] = g.add(residuals[j], penalty);
-        }
-    }
-    let bundles: Vec<Bundle> = roots
-        .iter()
-        .zip(&residuals)
-        .enumerate()
-        .map(|(i, (r, &residual))| Bundle {
-            angles: r.angles,
-            turns: r.turns,
-            residual,
-            merge: r.merge,
-            which: [0, 1, 2, 3].map(|j| if j == i { one } else { zero }),
-        })
-        .collect();
-    // Rank: unreal roots last, then nearest the shoulder plane last.
-    let unreal = g.constant(MISMATCH * 1e-10);
-    let floor = g.exact(tol * tol);
     let tie_weight = g.constant(1e-6 * scale);
-    let base_rank: Vec<Id> = roots
-        .iter()
-        .zip(&residuals)
-        .map(|(r, &residual)| {
-            let over = g.sub(residual, floor);
-            let u = g.select(over, unreal, zero);
-            let side = g.abs(r.facing);
-            // θ3 breaks ties (symmetric arms put two roots equally far from the plane).
-            let tie = g.mul(tie_weight, r.angles[2]);
-            let u = g.add(u, tie);
-            g.sub(u, side)
-        })
-        .collect();
-    // Pass 1: each slot's own roots.
-    let mut first = Vec::new();
-    for &(shoulder, elbow) in &slots {
-        let penalties: Vec<Id> = roots
-            .iter()
-            .map(|r| {
-                let side = if shoulder == Shoulder::Facing {
-                    r.facing
-                } else {
-                    g.neg(r.facing)
-                };
-                let aspect = if elbow == Elbow::Up {
-                    r.up
-                } else {
-                    g.neg(r.up)
-                };
-                let p1 = g.select(side, zero, big);
-                let p2 = g.select(aspect, zero, big);
-                g.add(p1, p2)
-            })
-            .collect();
-        let ranks: Vec<Id> = penalties
-            .iter()
-            .zip(&base_rank)
-            .map(|(&p, &r)| g.add(p, r))
-            .collect();
-        let checks: Vec<Id> = penalties
-            .iter()
-            .zip(&residuals)
-            .map(|(&p, &r)| g.add(r, p))
-            .collect();
-        first.push(smallest(g, &bundles, &ranks, &checks));
-    }
-    // Which roots pass 1 placed (a slot "has" its root when its score is below MISMATCH).
-    let half_big = g.constant(MISMATCH / 2.0);
-    let mut taken = [zero; 4];
-    let mut has = Vec::new();
-    for (b, score) in &first {
-        let h = g.sub(half_big, *score);
-        for (slot, &which) in taken.iter_mut().zip(&b.which) {
-            let t = g.select(h, which, zero);
-            *slot = g.add(*slot, t);
+    let mut routed: Vec<route::Root> = Vec::with_capacity(roots.len());
+    for (j, r) in roots.iter().enumerate() {
+        let mut residual = r.residual;
+        for earlier in &roots[..j] {
+            let before = (&earlier.turns[1..3], earlier.residual);
+            let penalty = copy_penalty(g, before, &r.turns[1..3], (near, tol2));
+            residual = g.add(residual, penalty);
         }
-        has.push(h);
-    }
-    // Pass 2: an empty slot takes the best root not yet taken.
-    let mut out = Vec::new();
-    for (s, &(shoulder, elbow)) in slots.iter().enumerate() {
-        let tag = format!(
-            "{}{}",
-            if shoulder == Shoulder::Facing {
-                "f"
-            } else {
-                "a"
-            },
-            if elbow == Elbow::Up { "u" } else { "d" }
-        );
-        let penalties: Vec<Id> = taken.iter().map(|&t| g.mul(big, t)).collect();
-        let ranks: Vec<Id> = penalties
-            .iter()
-            .zip(&base_rank)
-            .map(|(&p, &r)| g.add(p, r))
-            .collect();
-        let checks: Vec<Id> = penalties
-            .iter()
-            .zip(&bundles)
-            .map(|(&p, b)| g.add(b.residual, p))
-            .collect();
-        let (spare, spare_score) = smallest(g, &bundles, &ranks, &checks);
-        let (own, own_score) = first[s];
-        let bundle = Bundle::pick(g, has[s], &own, &spare);
-        let score = g.select(has[s], own_score, spare_score);
-        // The spare root is taken now (only when this slot used it).
-        let empty = g.neg(has[s]);
-        for (slot, &which) in taken.iter_mut().zip(&spare.which) {
-            let t = g.select(empty, which, zero);
-            *slot = g.add(*slot, t);
-        }
-        let score = g.name(
-            score,
-            &format!("miss_{tag}"),
-            "the residual of this label's root (or of a spare root, when none has the label)",
-        );
-        let mut angles = bundle.angles;
-        for (j, a) in angles.iter_mut().enumerate() {
-            *a = g.name(*a, &format!("q{}_{tag}", j + 1), "this label's root");
-        }
-        out.push(ArmSolution {
-            angles,
-            undo: vec![
-                Turn::about(k.h1, bundle.turns[0]),
-                Turn::about(k.h2, bundle.turns[1]),
-                Turn::about(k.h3, bundle.turns[2]),
-            ],
-            shoulder,
-            elbow,
-            checks: vec![CheckLayout {
-                kind: CheckKind::Residual,
-                have_squared: score,
-                limit: bundle.merge,
-            }],
-            on_axis_1: Some(on_axis),
+        // Nearest the shoulder plane last; θ3 breaks ties (symmetric arms put two roots
+        // equally far from the plane).
+        let side = g.abs(r.facing);
+        let tie = g.mul(tie_weight, r.angles[2]);
+        let rank = g.sub(tie, side);
+        let mut values = r.angles.to_vec();
+        values.extend(r.turns.iter().flat_map(|&(c, s)| [c, s]));
+        values.push(r.merge);
+        routed.push(route::Root {
+            values,
+            residual,
+            labels: [r.facing, r.up],
+            rank,
         });
     }
-    out
+    route::route(g, &routed, tol)
+        .into_iter()
+        .map(|slot| {
+            let [facing, up] = slot.labels;
+            let tag = format!(
+                "{}{}",
+                if facing { "f" } else { "a" },
+                if up { "u" } else { "d" }
+            );
+            let score = g.name(
+                slot.score,
+                &format!("miss_{tag}"),
+                "the residual of this label's root (or of a spare root, when none has the label)",
+            );
+            let v = &slot.values;
+            let angles =
+                [0, 1, 2].map(|j| g.name(v[j], &format!("q{}_{tag}", j + 1), "this label's root"));
+            let turn = |j: usize| (v[3 + 2 * j], v[4 + 2 * j]);
+            ArmSolution {
+                angles,
+                undo: vec![
+                    Turn::about(k.h1, turn(0)),
+                    Turn::about(k.h2, turn(1)),
+                    Turn::about(k.h3, turn(2)),
+                ],
+                shoulder: if facing {
+                    Shoulder::Facing
+                } else {
+                    Shoulder::Across
+                },
+                elbow: if up { Elbow::Up } else { Elbow::Down },
+                checks: vec![CheckLayout {
+                    kind: CheckKind::Residual,
+                    have_squared: score,
+                    limit: v[9],
+                }],
+                on_axis_1: Some(on_axis),
+            }
+        })
+        .collect()
 }
 
 #[cfg(test)]

@@ -23,11 +23,13 @@
 //! the joints); there the check accepts a miss up to 5e-9 of the arm's size (measured: up to
 //! 6e-10 on the incubator-threader example), and the candidate is flagged at the reach limit.
 
-use crate::family::general::plan::{copy_penalty, turn_by, Circle};
+use crate::family::general::plan::Circle;
 use crate::plan::graph::{Graph, Id};
 use crate::plan::pose;
 use crate::plan::quartic::away_from_zero;
+use crate::plan::route::copy_penalty;
 use crate::plan::subproblems::rotate_onto;
+use crate::plan::turn_by;
 use crate::plan::vec3::{self, num, V3};
 use crate::plan::{unit_pair, Arm, Target};
 
