@@ -316,15 +316,7 @@ fn hand(
 /// The candidates of a three-parallel arm (every branch), from the target `t`.
 pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     let k = Layout::of(arm);
-    let rule = rules(arm);
-    let up = match rule.elbow {
-        ElbowRule::Bend { up, .. } => up,
-        _ => 1.0,
-    };
-    let tol = 1e-10 * arm.scale;
-    let (h1, p1) = (arm.axis(0), arm.point(0));
-    let (h5, p5) = (arm.axis(4), arm.point(4));
-    let (h6, p6) = (arm.axis(5), arm.point(5));
+    let h1 = arm.axis(0);
     let motion = pose::joint_motions(g, arm, t);
     let motion: Motion = pose::name(g, motion, "g", "G = B⁻¹ T M⁻¹ = E1 ⋯ E6");
     let target_q = {
@@ -346,11 +338,6 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     let mut out = Vec::new();
     for (i1, sigma1) in ["a", "b"].into_iter().enumerate() {
         let (c1, s1) = one.roots[i1];
-        let side = if one.shoulders[i1] == Shoulder::Across {
-            -1.0
-        } else {
-            1.0
-        };
         let r1h = {
             let hk = vec3::constant(g, k.h);
             vec3::rotate(g, h1, c1, s1, hk)
@@ -368,96 +355,143 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
                 "{sigma1}{}",
                 if hd.wrist == Wrist::Leading { "a" } else { "b" }
             );
-            let [(c5, s5), (c6, s6)] = hd.turns;
-            // Φ: R(h, Φ) x = R1ᵀ R R6ᵀ R5ᵀ x.
-            let y = {
-                let x = vec3::constant(g, k.across);
-                let a = vec3::rotate_back(g, h5, c5, s5, x);
-                let b = vec3::rotate_back(g, h6, c6, s6, a);
-                let c = motion.rotate(g, b);
-                vec3::rotate_back(g, h1, c1, s1, c)
+            let outer = Outer {
+                angles: [one.angles[i1], hd.angles[0], hd.angles[1]],
+                turns: [(c1, s1), hd.turns[0], hd.turns[1]],
+                shoulder: one.shoulders[i1],
+                wrist: hd.wrist,
+                checks: [Some(one.check), wrist_check],
+                wrist_aligned: Some(aligned),
+                on_axis_1: Some(one.singular),
             };
-            let cos_sum = vec3::dot_const(g, k.across, y);
-            let xk = vec3::constant(g, k.across);
-            let xy = vec3::cross(g, xk, y);
-            let sin_sum = vec3::dot_const(g, k.h, xy);
-            let sum = g.atan2(sin_sum, cos_sum);
-            let sum = g.name(
-                sum,
-                &format!("phi234_{tag}"),
-                "Φ = θ2 + θ3 + θ4 (about h) = atan2(h · (x × R1ᵀ R R6ᵀ R5ᵀ x), x · R1ᵀ R R6ᵀ R5ᵀ x)",
-            );
-            // The point on axis 4, where joints 2 and 3 must put it.
-            let placed = {
-                let a = pose::undo_revolute_const(g, h5, p5, (c5, s5), k.on_axis_4);
-                let b = pose::undo_revolute(g, h6, p6, (c6, s6), a);
-                let c = motion.apply(g, b);
-                let d = pose::undo_revolute(g, h1, p1, (c1, s1), c);
-                vec3::add_const(g, d, num::scale(&arm.point(1), -1.0))
-            };
-            let placed = vec3::name(
-                g,
-                placed,
-                &format!("w4_{tag}"),
-                "E1(−θ1) G E6(−θ6) E5(−θ5) o4 − p2: where joints 2 and 3 must put axis 4",
-            );
-            let d2 = planar::distance_squared(g, k.h, placed);
-            let d2 = g.name(
-                d2,
-                &format!("d2_{tag}"),
-                "d² = |(w4 − p2)⊥h|²: squared distance of axis 4 from axis 2",
-            );
-            let two = planar::solve(g, &k.two_link, placed, d2, tol, &tag);
-            for bend in &two.bends {
-                let btag = format!("{tag}{}", if bend.bend > 0.0 { "a" } else { "b" });
-                // θ4 = s4 (Φ − θ2 − φ3), φ3 = s3 θ3.
-                let phi3 = if k.two_link.sense > 0.0 {
-                    bend.second
-                } else {
-                    g.neg(bend.second)
-                };
-                let rest = g.sub(sum, bend.first);
-                let rest = g.sub(rest, phi3);
-                let theta4 = if k.sense4 > 0.0 { rest } else { g.neg(rest) };
-                let theta4 = g.name(
-                    theta4,
-                    &format!("q4_{btag}"),
-                    format!("θ4 = {} (Φ − θ2 − φ3)", k.sense4),
-                );
-                let mut checks = [None; 4];
-                let list = [
-                    Some(one.check),
-                    wrist_check,
-                    Some(two.checks[0]),
-                    Some(two.checks[1]),
-                ];
-                for (slot, c) in checks.iter_mut().zip(list.into_iter().flatten()) {
-                    *slot = Some(c);
-                }
-                out.push(CandidateLayout {
-                    model_values: [
-                        one.angles[i1],
-                        bend.first,
-                        bend.second,
-                        theta4,
-                        hd.angles[0],
-                        hd.angles[1],
-                    ],
-                    branch: Branch {
-                        shoulder: one.shoulders[i1],
-                        elbow: if bend.bend * side == up {
-                            Elbow::Up
-                        } else {
-                            Elbow::Down
-                        },
-                        wrist: hd.wrist,
-                    },
-                    checks,
-                    wrist_aligned: Some(aligned),
-                    on_axis_1: Some(one.singular),
-                });
-            }
+            out.extend(joints_2_to_4(g, arm, (&k, &motion), &outer, &tag));
         }
+    }
+    out
+}
+
+/// Joints 1, 5 and 6 of one candidate, found before joints 2–4.
+pub(crate) struct Outer {
+    /// Model values of joints 1, 5, 6.
+    pub angles: [Id; 3],
+    /// cos, sin of joints 1, 5, 6.
+    pub turns: [(Id, Id); 3],
+    /// The shoulder label of joint 1's root.
+    pub shoulder: Shoulder,
+    /// The wrist label of joint 5's root.
+    pub wrist: Wrist,
+    /// The checks of joints 1, 5 and 6 (up to two).
+    pub checks: [Option<CheckLayout>; 2],
+    /// `≥ 0` where axis 6 lines up with the parallel axes.
+    pub wrist_aligned: Option<Id>,
+    /// `≥ 0` where joint 1 is free.
+    pub on_axis_1: Option<Id>,
+}
+
+/// Joints 2–4 for joints 1, 5 and 6: the sum `Φ = θ2 + θ3 + θ4` from the orientation,
+/// `R(h, Φ) x = R1ᵀ R R6ᵀ R5ᵀ x`, joints 2 and 3 placing the point `o4` of axis 4 at
+/// `E1(−θ1) G E6(−θ6) E5(−θ5) o4` (law of cosines, 0–2 roots), joint 4 the rest of `Φ`: one
+/// candidate per bend.
+pub(crate) fn joints_2_to_4(
+    g: &mut Graph,
+    arm: &Arm,
+    (k, motion): (&Layout, &Motion),
+    outer: &Outer,
+    tag: &str,
+) -> Vec<CandidateLayout> {
+    let up = match rules(arm).elbow {
+        ElbowRule::Bend { up, .. } => up,
+        _ => 1.0,
+    };
+    let side = if outer.shoulder == Shoulder::Across {
+        -1.0
+    } else {
+        1.0
+    };
+    let tol = 1e-10 * arm.scale;
+    let (h1, p1) = (arm.axis(0), arm.point(0));
+    let (h5, p5) = (arm.axis(4), arm.point(4));
+    let (h6, p6) = (arm.axis(5), arm.point(5));
+    let [(c1, s1), (c5, s5), (c6, s6)] = outer.turns;
+    let y = {
+        let x = vec3::constant(g, k.across);
+        let a = vec3::rotate_back(g, h5, c5, s5, x);
+        let b = vec3::rotate_back(g, h6, c6, s6, a);
+        let c = motion.rotate(g, b);
+        vec3::rotate_back(g, h1, c1, s1, c)
+    };
+    let cos_sum = vec3::dot_const(g, k.across, y);
+    let xk = vec3::constant(g, k.across);
+    let xy = vec3::cross(g, xk, y);
+    let sin_sum = vec3::dot_const(g, k.h, xy);
+    let sum = g.atan2(sin_sum, cos_sum);
+    let sum = g.name(
+        sum,
+        &format!("phi234_{tag}"),
+        "Φ = θ2 + θ3 + θ4 (about h) = atan2(h · (x × R1ᵀ R R6ᵀ R5ᵀ x), x · R1ᵀ R R6ᵀ R5ᵀ x)",
+    );
+    // The point on axis 4, where joints 2 and 3 must put it.
+    let placed = {
+        let a = pose::undo_revolute_const(g, h5, p5, (c5, s5), k.on_axis_4);
+        let b = pose::undo_revolute(g, h6, p6, (c6, s6), a);
+        let c = motion.apply(g, b);
+        let d = pose::undo_revolute(g, h1, p1, (c1, s1), c);
+        vec3::add_const(g, d, num::scale(&arm.point(1), -1.0))
+    };
+    let placed = vec3::name(
+        g,
+        placed,
+        &format!("w4_{tag}"),
+        "E1(−θ1) G E6(−θ6) E5(−θ5) o4 − p2: where joints 2 and 3 must put axis 4",
+    );
+    let d2 = planar::distance_squared(g, k.h, placed);
+    let d2 = g.name(
+        d2,
+        &format!("d2_{tag}"),
+        "d² = |(w4 − p2)⊥h|²: squared distance of axis 4 from axis 2",
+    );
+    let two = planar::solve(g, &k.two_link, placed, d2, tol, tag);
+    let mut out = Vec::with_capacity(2);
+    for bend in &two.bends {
+        let btag = format!("{tag}{}", if bend.bend > 0.0 { "a" } else { "b" });
+        // θ4 = s4 (Φ − θ2 − φ3), φ3 = s3 θ3.
+        let phi3 = if k.two_link.sense > 0.0 {
+            bend.second
+        } else {
+            g.neg(bend.second)
+        };
+        let rest = g.sub(sum, bend.first);
+        let rest = g.sub(rest, phi3);
+        let theta4 = if k.sense4 > 0.0 { rest } else { g.neg(rest) };
+        let theta4 = g.name(
+            theta4,
+            &format!("q4_{btag}"),
+            format!("θ4 = {} (Φ − θ2 − φ3)", k.sense4),
+        );
+        let mut checks = [None; 4];
+        let list = outer
+            .checks
+            .into_iter()
+            .chain([Some(two.checks[0]), Some(two.checks[1])]);
+        for (slot, c) in checks.iter_mut().zip(list.flatten()) {
+            *slot = Some(c);
+        }
+        let [theta1, theta5, theta6] = outer.angles;
+        out.push(CandidateLayout {
+            model_values: [theta1, bend.first, bend.second, theta4, theta5, theta6],
+            branch: Branch {
+                shoulder: outer.shoulder,
+                elbow: if bend.bend * side == up {
+                    Elbow::Up
+                } else {
+                    Elbow::Down
+                },
+                wrist: outer.wrist,
+            },
+            checks,
+            wrist_aligned: outer.wrist_aligned,
+            on_axis_1: outer.on_axis_1,
+        });
     }
     out
 }
