@@ -58,6 +58,8 @@ pub enum ArmEvidence {
     BaseWrist(crate::family::base_wrist::BaseWristEvidence),
     /// Axes 2–4 meet: a wrist in the middle.
     MidWrist(crate::family::mid_wrist::MidWristEvidence),
+    /// Axes 1–3 parallel.
+    BaseParallel(crate::family::base_parallel::BaseParallelEvidence),
     /// Read from the tool: the mirrored arm solves any target.
     ToolFirst(crate::family::tool_first::ToolFirstEvidence),
 }

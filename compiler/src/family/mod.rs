@@ -16,6 +16,7 @@
 // `Result<Geometry, Rejection>` (as in `classify`).
 #![allow(clippy::result_large_err)]
 
+pub mod base_parallel;
 pub mod base_wrist;
 pub mod cartesian;
 pub mod cylindrical;
@@ -64,6 +65,8 @@ pub enum Family {
     BaseWrist,
     /// Six revolute joints, axes 2–4 meeting in a point (a wrist in the middle).
     MidWrist,
+    /// Six revolute joints, axes 1–3 parallel (joints 4–6 by the plane–line quartic).
+    BaseParallel,
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
@@ -106,6 +109,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &three_parallel::THREE_PARALLEL,
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
+    &base_parallel::BASE_PARALLEL,
     &tool_first::TOOL_FIRST,
 ];
 

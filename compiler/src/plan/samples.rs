@@ -349,7 +349,11 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
-        Family::ThreeParallel | Family::BaseWrist | Family::MidWrist | Family::ToolFirst => {
+        Family::ThreeParallel
+        | Family::BaseWrist
+        | Family::MidWrist
+        | Family::BaseParallel
+        | Family::ToolFirst => {
             unreachable!("built above")
         }
         Family::Cartesian => {
