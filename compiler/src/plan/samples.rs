@@ -243,13 +243,18 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     if family == Family::ToolFirst {
         return sample_tool_first(seed, options);
     }
-    if family == Family::ThreeParallel {
+    if family == Family::ThreeParallel || family == Family::OffsetHand {
         // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
         // seeds: every angle.
-        let model = sample_three_parallel(seed, options, seed % 2 == 0);
+        let layout = seed % 2 == 0;
+        let model = if family == Family::OffsetHand {
+            sample_offset_hand(seed, options, layout)
+        } else {
+            sample_three_parallel(seed, options, layout)
+        };
         let geometry = match classify(&model, &Tolerances::default()) {
             Ok(g) if g.family == family => g,
-            other => panic!("sample three-parallel arm {seed}: classified as {other:?}"),
+            other => panic!("sample {family:?} arm {seed}: classified as {other:?}"),
         };
         return (model, geometry);
     }
@@ -349,7 +354,11 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
-        Family::ThreeParallel | Family::BaseWrist | Family::MidWrist | Family::ToolFirst => {
+        Family::ThreeParallel
+        | Family::OffsetHand
+        | Family::BaseWrist
+        | Family::MidWrist
+        | Family::ToolFirst => {
             unreachable!("built above")
         }
         Family::Cartesian => {
@@ -518,6 +527,18 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
 /// and 5 are perpendicular to the parallel axes and axis 6 perpendicular to axis 5; otherwise
 /// their angles are random. Not classified: the model only.
 pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -> Model {
+    parallel_model(seed, options, layout, false)
+}
+
+/// A random arm with axes 2, 3, 4 parallel and axes 5 and 6 passing 0.05–0.25 m apart (the
+/// offset-hand family's): [`sample_three_parallel`] with joint 6's axis moved off joint 5's,
+/// and, when `seed % 3 == 2`, made parallel to it. Not classified: the model only.
+pub fn sample_offset_hand(seed: u64, options: &SampleOptions, layout: bool) -> Model {
+    parallel_model(seed, options, layout, true)
+}
+
+/// [`sample_three_parallel`], or with `offset` [`sample_offset_hand`].
+fn parallel_model(seed: u64, options: &SampleOptions, layout: bool, offset: bool) -> Model {
     let mut rng = SampleRng::new(seed.wrapping_mul(7927).wrapping_add(11));
     let range = options.revolute_range;
     let h = rng.direction();
@@ -568,17 +589,36 @@ pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -
             j.offset = rng.range(-1.0, 1.0);
         }
     }
+    if offset {
+        if seed % 3 == 2 {
+            joints[5].axis = num::scale(&h5, rng.sign());
+        }
+        let h6 = joints[5].axis;
+        let across = num::cross(&h5, &h6);
+        let normal = if num::norm(&across) > 0.1 {
+            num::unit(&across)
+        } else {
+            rng.perpendicular(&h5)
+        };
+        let shift = num::scale(&normal, rng.range(0.05, 0.25) * rng.sign());
+        joints[5].point = num::add(&joints[5].point, &shift);
+    }
     let tool = Pose {
         rotation: rng.rotation(),
         translation: num::add(&q, &num::scale(&rng.direction(), rng.range(0.0, 0.2))),
     };
     let base = rng.pose(1.0);
+    let kind = if offset {
+        "offset_hand"
+    } else {
+        "three_parallel"
+    };
     named_model(
-        format!("sample_three_parallel_{seed}"),
+        format!("sample_{kind}_{seed}"),
         &joints,
         tool,
         base,
-        format!("<sample three-parallel {seed}>"),
+        format!("<sample {} {seed}>", kind.replace('_', "-")),
     )
 }
 
