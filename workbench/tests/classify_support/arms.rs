@@ -118,6 +118,7 @@ pub fn solvable() -> Vec<(&'static str, Model)> {
             cartesian_arm([[1.0, 0.0, 0.0], [1.0, 1.0, 0.0], [0.0, 1.0, 1.0]]),
         ),
         ("three-parallel", three_parallel()),
+        ("offset hand", three_parallel_skew()),
     ]
 }
 
