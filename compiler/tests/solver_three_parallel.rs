@@ -74,19 +74,29 @@ fn degenerate_variants_are_rejected_with_their_reason() {
     // Axis 3 on axis 2: two joints about one line.
     let kind = rejected_kind(|m| m.joints[2].joint.point = m.joints[1].joint.point);
     assert_eq!(kind, "parallel_axes_coincide");
-    // Axis 6 moved off axis 5 (along their common normal): not covered.
+    // Axis 6 on axis 5's line: two joints about one line.
     let kind = rejected_kind(|m| {
-        let h5 = m.joints[4].joint.axis;
-        let h6 = m.joints[5].joint.axis;
-        let n = [
-            h5[1] * h6[2] - h5[2] * h6[1],
-            h5[2] * h6[0] - h5[0] * h6[2],
-            h5[0] * h6[1] - h5[1] * h6[0],
-        ];
-        let p = &mut m.joints[5].joint.point;
-        for i in 0..3 {
-            p[i] += 0.05 * n[i];
-        }
+        m.joints[5].joint.axis = m.joints[4].joint.axis;
+        m.joints[5].joint.point = m.joints[4].joint.point;
     });
-    assert_eq!(kind, "axes_5_and_6_miss");
+    assert_eq!(kind, "axes_5_and_6_one_line");
+}
+
+/// Axis 6 moved off axis 5 (along their common normal): the offset-hand family's arm.
+#[test]
+fn axes_5_and_6_apart_are_the_offset_hand_familys() {
+    let mut model = sample_three_parallel(3, &SampleOptions::default(), true);
+    let h5 = model.joints[4].joint.axis;
+    let h6 = model.joints[5].joint.axis;
+    let n = [
+        h5[1] * h6[2] - h5[2] * h6[1],
+        h5[2] * h6[0] - h5[0] * h6[2],
+        h5[0] * h6[1] - h5[1] * h6[0],
+    ];
+    let p = &mut model.joints[5].joint.point;
+    for i in 0..3 {
+        p[i] += 0.05 * n[i];
+    }
+    let g = classify(&model, &Tolerances::default()).unwrap_or_else(|r| panic!("{r}"));
+    assert_eq!(g.family, Family::OffsetHand);
 }

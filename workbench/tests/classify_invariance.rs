@@ -80,10 +80,6 @@ fn rejections_do_not_move_either() {
     let mut rng = rng(0x5eed_0003);
     let rejected = [
         ("offset wrist", arms::offset_wrist(0.02)),
-        (
-            "three parallel, axes 5 and 6 apart",
-            arms::three_parallel_skew(),
-        ),
         ("degenerate wrist", arms::degenerate_wrist()),
         ("slide first", arms::slide_first()),
         ("general 6R", arms::general_six_revolute()),

@@ -4,7 +4,9 @@
 
 mod classify_support;
 
-use armforge_compiler::classify::{classify, Family, Note, Reason, Rejection, Tolerances};
+use armforge_compiler::classify::{
+    classify, ArmEvidence, Family, Note, Reason, Rejection, Tolerances,
+};
 use armforge_compiler::model::Model;
 use armforge_compiler::units::{AngleUnit, LengthUnit, Units};
 use classify_support::arms;
@@ -52,13 +54,21 @@ fn offset_wrist_names_the_pair_and_the_gap_in_file_units() {
 }
 
 #[test]
-fn three_parallel_axes_with_axes_5_and_6_apart_say_so() {
-    let e = reject(&in_mm_deg(arms::three_parallel_skew()));
-    assert_eq!(e.reason.kind(), "axes_5_and_6_miss", "{e}");
-    assert_eq!(e.joint, Some(6));
+fn three_parallel_axes_with_axes_5_and_6_apart_make_an_offset_hand_arm() {
+    // Pieper's criterion (Pieper 1968) covers three consecutive parallel axes whatever the
+    // hand: axes 5 and 6 passing apart are the offset-hand family's.
+    let g = classify(
+        &in_mm_deg(arms::three_parallel_skew()),
+        &Tolerances::default(),
+    )
+    .unwrap_or_else(|e| panic!("rejected: {e}"));
+    assert_eq!(g.family, Family::OffsetHand);
+    let ArmEvidence::OffsetHand(e) = &g.arm else {
+        panic!("{:?}", g.arm);
+    };
     // The gap: axis 6 moved 50 mm along x, across axis 5 (vertical) and itself (along y).
-    assert!(e.to_string().contains("pass 50 mm apart"), "{e}");
-    assert!(e.to_string().contains("Pieper's criterion"), "{e}");
+    assert!((e.gap_5_6 - 0.05).abs() < 1e-12, "{}", e.gap_5_6);
+    assert_eq!(g.solutions.total, 8);
 }
 
 #[test]

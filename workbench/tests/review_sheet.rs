@@ -363,7 +363,11 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
         let plan = solver.plan();
         if matches!(
             plan.arm.family,
-            Family::ThreeParallel | Family::BaseWrist | Family::MidWrist | Family::ToolFirst
+            Family::ThreeParallel
+                | Family::OffsetHand
+                | Family::BaseWrist
+                | Family::MidWrist
+                | Family::ToolFirst
         ) {
             // These equations are the pages of the families with a spherical wrist at joints
             // 4–6 (the other families' steps use the same constants as their plans).

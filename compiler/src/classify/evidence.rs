@@ -54,6 +54,8 @@ pub enum ArmEvidence {
     General(GeneralEvidence),
     /// Three parallel axes 2–4, axes 5 and 6 meeting.
     ThreeParallel(crate::family::three_parallel::ThreeParallelEvidence),
+    /// Three parallel axes 2–4, axes 5 and 6 passing apart.
+    OffsetHand(crate::family::offset_hand::OffsetHandEvidence),
     /// Axes 1–3 meet: the wrist at the base.
     BaseWrist(crate::family::base_wrist::BaseWristEvidence),
     /// Axes 2–4 meet: a wrist in the middle.

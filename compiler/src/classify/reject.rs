@@ -401,9 +401,9 @@ fn describe_note(model: &Model, note: &Note) -> String {
         Note::ThreeParallelAxes { first } => format!(
             "the axes of joints {}, {} and {} are parallel: an arm with three consecutive \
              parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
-             armforge's three-parallel family builds it for parallel axes 2, 3 and 4 with axes \
-             5 and 6 meeting, and its tool-first family for parallel axes 3, 4 and 5 with axes \
-             1 and 2 meeting (the same shape read from the tool), six revolute joints each",
+             armforge's three-parallel and offset-hand families build it for parallel axes 2, \
+             3 and 4 (axes 5 and 6 meeting or apart), and its tool-first family for parallel \
+             axes 3, 4 and 5 (the same shapes read from the tool), six revolute joints each",
             first,
             first + 1,
             first + 2

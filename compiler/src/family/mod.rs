@@ -26,6 +26,7 @@ pub mod elbow;
 pub mod general;
 pub mod mid_wrist;
 pub mod mirror;
+pub mod offset_hand;
 pub mod polar;
 pub mod three_parallel;
 pub mod tool_first;
@@ -60,6 +61,8 @@ pub enum Family {
     General,
     /// Six revolute joints, axes 2–4 parallel, axes 5 and 6 meeting.
     ThreeParallel,
+    /// Six revolute joints, axes 2–4 parallel, axes 5 and 6 passing apart (an offset hand).
+    OffsetHand,
     /// Axes 1–3 meet (a wrist at the base), joints 6, 5, 4 read from the tool of a family
     /// above.
     BaseWrist,
@@ -107,6 +110,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &cartesian::CARTESIAN,
     &general::GENERAL,
     &three_parallel::THREE_PARALLEL,
+    &offset_hand::OFFSET_HAND,
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,

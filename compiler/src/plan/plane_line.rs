@@ -93,6 +93,9 @@ pub struct Root {
     /// `det² / scale` of the two equations' Jacobian in `(ψL, ψP)` (metres): small where two
     /// roots merge (a reach boundary or a singular configuration).
     pub merge: Id,
+    /// The Jacobian's determinant itself: its sign tells roots apart (it changes only where
+    /// two roots merge), a label a controller can hold.
+    pub aspect: Id,
 }
 
 /// The constant and turning parts of `m(ψP) = RP n = m0 + cos ψP mc + sin ψP ms`.
@@ -226,12 +229,194 @@ pub fn solve(g: &mut Graph, k: &PlaneLine, aim: &Aim, tag: &str) -> [Root; 4] {
         )
     });
     let roots = trig_roots(g, f, tag);
+    let form = Form {
+        p,
+        q,
+        mu,
+        weights: [bb, aa, ab],
+        ww: g.mul(w, w),
+    };
+    let mut chosen: Vec<(Id, Id)> = Vec::with_capacity(4);
     let mut out = Vec::with_capacity(4);
     for (i, &turn) in roots.roots.iter().enumerate() {
         let name = format!("{tag}_{}", i + 1);
+        // Two steps: Ferrari's estimate of a near-double root can be 1e-7 rad off, where
+        // the model's cubic remainder still hides a pair 1e-10 rad apart.
+        let turn = form.refine(g, (k, &m), turn, &chosen);
+        let turn = form.refine(g, (k, &m), turn, &[]);
+        chosen.push(turn);
         out.push(carry(g, k, aim, (&line, &m), (p, q), turn, &name));
     }
     [out[0], out[1], out[2], out[3]]
+}
+
+/// `F(ψP)` written as the plan evaluates it near a root: the quadratic form in `P`, `Q` and
+/// `|hL × m|²` from the vector `m` itself. Expanded into the coefficients of cos, sin,
+/// cos 2ψP, sin 2ψP, `F` loses the digits of a near-double root (two solutions merging where
+/// axis `hL` lines up with the plane's normal); evaluated this way it keeps them.
+struct Form {
+    p: Linear,
+    q: Linear,
+    mu: Linear,
+    /// `|b⊥|²`, `|a⊥|²`, `a⊥ · b⊥`.
+    weights: [Id; 3],
+    /// `w²`.
+    ww: Id,
+}
+
+/// The value and first two derivatives of a [`Linear`] at a turn.
+fn with_derivatives(g: &mut Graph, [l0, l1, l2]: Linear, turn: (Id, Id)) -> [Id; 3] {
+    let value = at(g, [l0, l1, l2], turn);
+    let zero = g.constant(0.0);
+    let n1 = g.neg(l1);
+    let n2 = g.neg(l2);
+    let first = at(g, [zero, l2, n1], turn);
+    let second = at(g, [zero, n1, n2], turn);
+    [value, first, second]
+}
+
+impl Form {
+    /// `F`, `F′`, `F″` at the turn `(c, s)`.
+    fn derivatives(
+        &self,
+        g: &mut Graph,
+        (k, m): (&PlaneLine, &TurningNormal),
+        turn: (Id, Id),
+    ) -> [Id; 3] {
+        let [p0, p1, p2] = with_derivatives(g, self.p, turn);
+        let [q0, q1, q2] = with_derivatives(g, self.q, turn);
+        let [u0, u1, u2] = with_derivatives(g, self.mu, turn);
+        let [wb, wa, wx] = self.weights;
+        let two = g.constant(2.0);
+        // Qform = wb P² + wa Q² − 2 wx P Q and its derivatives.
+        let value = {
+            let pp = g.mul(p0, p0);
+            let qq = g.mul(q0, q0);
+            let pq = g.mul(p0, q0);
+            let a = g.mul(wb, pp);
+            let b = g.mul(wa, qq);
+            let c = g.mul(wx, pq);
+            let c = g.mul(two, c);
+            let ab = g.add(a, b);
+            g.sub(ab, c)
+        };
+        let first = {
+            let a = g.mul(p0, p1);
+            let a = g.mul(wb, a);
+            let b = g.mul(q0, q1);
+            let b = g.mul(wa, b);
+            let c = g.mul_add2(p1, q0, p0, q1);
+            let c = g.mul(wx, c);
+            let ab = g.add(a, b);
+            let d = g.sub(ab, c);
+            g.mul(two, d)
+        };
+        let second = {
+            let a = g.mul_add2(p1, p1, p0, p2);
+            let a = g.mul(wb, a);
+            let b = g.mul_add2(q1, q1, q0, q2);
+            let b = g.mul(wa, b);
+            let pq = g.mul(p1, q1);
+            let c = g.mul_add2(p2, q0, p0, q2);
+            let c = g.add(c, pq);
+            let c = g.add(c, pq);
+            let c = g.mul(wx, c);
+            let ab = g.add(a, b);
+            let d = g.sub(ab, c);
+            g.mul(two, d)
+        };
+        // w² |hL × m|², with |hL × m|² from the vector (exact near the alignment) and its
+        // derivatives from μ = hL · m: (1 − μ²)′ = −2 μ μ′, (1 − μ²)″ = −2 (μ′² + μ μ″).
+        let perp = {
+            let mv = m.at(g, turn);
+            let h = vec3::constant(g, k.line_joint.0);
+            let x = vec3::cross(g, h, mv);
+            vec3::dot(g, x, x)
+        };
+        let perp1 = {
+            let x = g.mul(u0, u1);
+            let minus_two = g.constant(-2.0);
+            g.mul(minus_two, x)
+        };
+        let perp2 = {
+            let x = g.mul_add2(u1, u1, u0, u2);
+            let minus_two = g.constant(-2.0);
+            g.mul(minus_two, x)
+        };
+        let [f0, f1, f2] = [(value, perp), (first, perp1), (second, perp2)].map(|(a, b)| {
+            let wb = g.mul(self.ww, b);
+            g.sub(a, wb)
+        });
+        [f0, f1, f2]
+    }
+
+    /// A step on the local quadratic model `F + F′ d + F″ d²/2 = 0` (both of its roots at
+    /// once: the step that keeps a near-double pair apart). The root nearer the turn is
+    /// taken, unless an earlier root (`chosen`) already took it (the pair's first member):
+    /// then the other (the first step only: a second step polishes the root it is at). Steps longer than 1e-4 rad are refused (a simple root is already
+    /// within that; the model is for the last digits).
+    fn refine(
+        &self,
+        g: &mut Graph,
+        km: (&PlaneLine, &TurningNormal),
+        turn: (Id, Id),
+        chosen: &[(Id, Id)],
+    ) -> (Id, Id) {
+        let [f0, f1, f2] = self.derivatives(g, km, turn);
+        let half = g.constant(0.5);
+        let a = g.mul(half, f2);
+        let disc = {
+            let x = g.mul(f1, f1);
+            let y = g.mul(f0, a);
+            let four = g.constant(4.0);
+            let y = g.mul(four, y);
+            let d = g.sub(x, y);
+            let zero = g.constant(0.0);
+            let d = g.max(d, zero);
+            g.sqrt(d)
+        };
+        // q = −(F′ + sign(F′) √disc)/2; roots q/a and F/q (the small one).
+        let signed = {
+            let minus = g.neg(disc);
+            g.select(f1, disc, minus)
+        };
+        let qv = {
+            let x = g.add(f1, signed);
+            let minus_half = g.constant(-0.5);
+            g.mul(minus_half, x)
+        };
+        let qv = away_from_zero(g, qv);
+        let a_safe = away_from_zero(g, a);
+        let near = g.div(f0, qv);
+        let far = g.div(qv, a_safe);
+        let limit = g.exact(1e-8);
+        let short = |g: &mut Graph, d: Id| {
+            let dd = g.mul(d, d);
+            g.sub(limit, dd)
+        };
+        let near_ok = short(g, near);
+        let far_ok = short(g, far);
+        let zero = g.constant(0.0);
+        let near = g.select(near_ok, near, zero);
+        let far = g.select(far_ok, far, near);
+        let first = turn_by(g, turn, near);
+        let second = turn_by(g, turn, far);
+        // Taken already: within 1e-10 rad of an earlier root (the same root of the same model;
+        // the two members of a near-double pair lie farther apart than that once refined).
+        let mut taken = g.constant(-1.0);
+        for &(c, s) in chosen {
+            let dc = g.sub(c, first.0);
+            let ds = g.sub(s, first.1);
+            let d = g.mul_add2(dc, dc, ds, ds);
+            let close = g.exact_once(1e-20);
+            let same = g.sub(close, d);
+            taken = g.max(taken, same);
+        }
+        (
+            g.select(taken, second.0, first.0),
+            g.select(taken, second.1, first.1),
+        )
+    }
 }
 
 /// The line's turn for one root of the plane's, then one guarded Newton step on both
@@ -327,6 +512,7 @@ fn carry(
         normal,
         residual,
         merge,
+        aspect: before.det,
     }
 }
 

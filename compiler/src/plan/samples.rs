@@ -243,13 +243,26 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     if family == Family::ToolFirst {
         return sample_tool_first(seed, options);
     }
-    if family == Family::ThreeParallel {
-        // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
-        // seeds: every angle.
-        let model = sample_three_parallel(seed, options, seed % 2 == 0);
+    if family == Family::BaseParallel {
+        let model = sample_base_parallel(seed, options);
         let geometry = match classify(&model, &Tolerances::default()) {
             Ok(g) if g.family == family => g,
-            other => panic!("sample three-parallel arm {seed}: classified as {other:?}"),
+            other => panic!("sample base-parallel arm {seed}: classified as {other:?}"),
+        };
+        return (model, geometry);
+    }
+    if family == Family::ThreeParallel || family == Family::OffsetHand {
+        // Even seeds: the layout (axes 1 and 5 ⟂ the parallel axes, axis 6 ⟂ axis 5); odd
+        // seeds: every angle.
+        let layout = seed % 2 == 0;
+        let model = if family == Family::OffsetHand {
+            sample_offset_hand(seed, options, layout)
+        } else {
+            sample_three_parallel(seed, options, layout)
+        };
+        let geometry = match classify(&model, &Tolerances::default()) {
+            Ok(g) if g.family == family => g,
+            other => panic!("sample {family:?} arm {seed}: classified as {other:?}"),
         };
         return (model, geometry);
     }
@@ -350,6 +363,7 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
             )
         }
         Family::ThreeParallel
+        | Family::OffsetHand
         | Family::BaseWrist
         | Family::MidWrist
         | Family::BaseParallel
@@ -522,6 +536,18 @@ pub fn upright_elbow_arm(shoulder: f64, lateral: f64) -> (Model, Geometry) {
 /// and 5 are perpendicular to the parallel axes and axis 6 perpendicular to axis 5; otherwise
 /// their angles are random. Not classified: the model only.
 pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -> Model {
+    parallel_model(seed, options, layout, false)
+}
+
+/// A random arm with axes 2, 3, 4 parallel and axes 5 and 6 passing 0.05–0.25 m apart (the
+/// offset-hand family's): [`sample_three_parallel`] with joint 6's axis moved off joint 5's,
+/// and, when `seed % 3 == 2`, made parallel to it. Not classified: the model only.
+pub fn sample_offset_hand(seed: u64, options: &SampleOptions, layout: bool) -> Model {
+    parallel_model(seed, options, layout, true)
+}
+
+/// [`sample_three_parallel`], or with `offset` [`sample_offset_hand`].
+fn parallel_model(seed: u64, options: &SampleOptions, layout: bool, offset: bool) -> Model {
     let mut rng = SampleRng::new(seed.wrapping_mul(7927).wrapping_add(11));
     let range = options.revolute_range;
     let h = rng.direction();
@@ -572,17 +598,36 @@ pub fn sample_three_parallel(seed: u64, options: &SampleOptions, layout: bool) -
             j.offset = rng.range(-1.0, 1.0);
         }
     }
+    if offset {
+        if seed % 3 == 2 {
+            joints[5].axis = num::scale(&h5, rng.sign());
+        }
+        let h6 = joints[5].axis;
+        let across = num::cross(&h5, &h6);
+        let normal = if num::norm(&across) > 0.1 {
+            num::unit(&across)
+        } else {
+            rng.perpendicular(&h5)
+        };
+        let shift = num::scale(&normal, rng.range(0.05, 0.25) * rng.sign());
+        joints[5].point = num::add(&joints[5].point, &shift);
+    }
     let tool = Pose {
         rotation: rng.rotation(),
         translation: num::add(&q, &num::scale(&rng.direction(), rng.range(0.0, 0.2))),
     };
     let base = rng.pose(1.0);
+    let kind = if offset {
+        "offset_hand"
+    } else {
+        "three_parallel"
+    };
     named_model(
-        format!("sample_three_parallel_{seed}"),
+        format!("sample_{kind}_{seed}"),
         &joints,
         tool,
         base,
-        format!("<sample three-parallel {seed}>"),
+        format!("<sample {} {seed}>", kind.replace('_', "-")),
     )
 }
 
@@ -682,6 +727,78 @@ fn sample_mid_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
         other => panic!("sample mid-wrist arm {seed}: classified as {other:?}"),
     };
     (model, geometry)
+}
+
+/// A random arm whose axes 1, 2 and 3 are parallel: links of 0.2–0.6 m between them, axis 4
+/// at least about 32° from them, axes 4 and 5 0.05–0.3 m apart at a random angle, and axes 5
+/// and 6, by `seed`, apart at a random angle, meeting, or parallel.
+pub fn sample_base_parallel(seed: u64, options: &SampleOptions) -> Model {
+    let mut rng = SampleRng::new(seed.wrapping_mul(7951).wrapping_add(113));
+    let range = options.revolute_range;
+    let h = rng.direction();
+    let p1 = rng.point(0.2);
+    let link = |rng: &mut SampleRng, from: &[f64; 3]| {
+        let across = num::scale(&rng.perpendicular(&h), rng.range(0.2, 0.6));
+        num::add(&num::add(from, &across), &num::scale(&h, rng.range(-0.2, 0.2)))
+    };
+    let p2 = link(&mut rng, &p1);
+    let p3 = link(&mut rng, &p2);
+    let h2 = num::scale(&h, rng.sign());
+    let h3 = num::scale(&h, rng.sign());
+    let h4 = rng.direction_away_from(&h, 0.85);
+    let p4 = num::add(&p3, &rng.point(0.3));
+    let h5 = rng.direction_away_from(&h4, 0.85);
+    let p5 = {
+        let normal = num::unit(&num::cross(&h4, &h5));
+        let apart = num::scale(&normal, rng.range(0.05, 0.3) * rng.sign());
+        num::add(
+            &num::add(&p4, &apart),
+            &num::add(
+                &num::scale(&h4, rng.range(-0.2, 0.2)),
+                &num::scale(&h5, rng.range(-0.2, 0.2)),
+            ),
+        )
+    };
+    let (h6, p6) = match seed % 3 {
+        0 => (
+            rng.direction_away_from(&h5, 0.85),
+            num::add(&p5, &rng.point(0.3)),
+        ),
+        1 => (
+            rng.direction_away_from(&h5, 0.85),
+            num::add(&p5, &num::scale(&h5, rng.range(-0.2, 0.2))),
+        ),
+        _ => {
+            let apart = num::scale(&rng.perpendicular(&h5), rng.range(0.1, 0.4));
+            (num::scale(&h5, rng.sign()), num::add(&p5, &apart))
+        }
+    };
+    let mut joints = [
+        revolute(h, p1, range),
+        revolute(h2, p2, range),
+        revolute(h3, p3, range),
+        revolute(h4, p4, range),
+        revolute(h5, p5, range),
+        revolute(h6, p6, range),
+    ];
+    if options.random_zero {
+        for j in joints.iter_mut() {
+            j.direction = rng.sign();
+            j.offset = rng.range(-1.0, 1.0);
+        }
+    }
+    let tool = Pose {
+        rotation: rng.rotation(),
+        translation: num::add(&p6, &num::scale(&rng.direction(), rng.range(0.0, 0.2))),
+    };
+    let base = rng.pose(1.0);
+    named_model(
+        format!("sample_base_parallel_{seed}"),
+        &joints,
+        tool,
+        base,
+        format!("<sample base-parallel {seed}>"),
+    )
 }
 
 /// A random tool-first arm: the mirror of a random three-parallel arm (even seeds: the layout,

@@ -118,6 +118,7 @@ pub fn solvable() -> Vec<(&'static str, Model)> {
             cartesian_arm([[1.0, 0.0, 0.0], [1.0, 1.0, 0.0], [0.0, 1.0, 1.0]]),
         ),
         ("three-parallel", three_parallel()),
+        ("offset hand", three_parallel_skew()),
     ]
 }
 
@@ -158,8 +159,8 @@ pub fn three_parallel() -> Model {
     )
 }
 
-/// [`three_parallel`] with axis 6 moved 0.05 m along x, off axis 5: axes 5 and 6 pass apart,
-/// which the three-parallel family does not cover.
+/// [`three_parallel`] with axis 6 moved 0.05 m along x, off axis 5: axes 5 and 6 pass apart
+/// (the offset-hand family's).
 pub fn three_parallel_skew() -> Model {
     let mut m = three_parallel();
     m.joints[5].joint.point = [0.8, 0.2, 0.05];

@@ -276,6 +276,14 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("base_wrist.angle_1_2", e.wrist.angle_5_6);
             put("base_wrist.angle_2_3", e.wrist.angle_4_5);
         }
+        ArmEvidence::OffsetHand(e) => {
+            put("angle_1_2", e.angle_1_to_parallel);
+            put("upper_arm", e.upper_arm);
+            put("forearm", e.forearm);
+            put("angle_5", e.angle_5_to_parallel);
+            put("angle_5_6", e.angle_5_6);
+            put("gap_5_6", e.gap_5_6);
+        }
         ArmEvidence::MidWrist(e) => {
             put("mid_wrist.miss", e.wrist.miss);
             put("mid_wrist.angle_2_3", e.wrist.angle_4_5);

@@ -74,6 +74,10 @@ pub struct Layout {
     pub plane_line: PlaneLine,
     /// `h4 × h5`: the normal of the plane of axes 4 and 5 at zero (the wrist label's side).
     pub side_normal: [f64; 3],
+    /// A unit direction ⟂ `h5` fixed in link 5: axis 6's part ⟂ `h5`, or, for axes 5 and 6
+    /// parallel, the direction from axis 5 to axis 6. Turned by joint 5, its side of the plane
+    /// of axes 4 and 5 is the wrist label.
+    pub side_direction: [f64; 3],
 }
 
 impl Layout {
@@ -95,7 +99,19 @@ impl Layout {
                 scale: arm.scale,
             },
             side_normal: num::cross(&arm.axis(3), &arm.axis(4)),
+            side_direction: side_direction(arm),
         }
+    }
+}
+
+/// [`Layout::side_direction`].
+fn side_direction(arm: &Arm) -> [f64; 3] {
+    let h5 = arm.axis(4);
+    let along_6 = num::perpendicular(&arm.axis(5), &h5);
+    if num::norm(&along_6) > 1e-6 {
+        num::unit(&along_6)
+    } else {
+        num::unit(&num::perpendicular(&num::sub(&arm.point(5), &arm.point(4)), &h5))
     }
 }
 
@@ -110,7 +126,7 @@ struct Hand {
 
 /// The four roots of joints 5 and 6, routed to their labelled slots.
 fn hands(g: &mut Graph, arm: &Arm, k: &Layout, motion: &Motion) -> Vec<Hand> {
-    let (h4, h5, h6) = (arm.axis(3), arm.axis(4), arm.axis(5));
+    let (h4, h5) = (arm.axis(3), arm.axis(4));
     let ginv = motion.inverse(g);
     let hk = vec3::constant(g, k.h);
     let normal = motion.rotate_back(g, hk);
@@ -144,14 +160,14 @@ fn hands(g: &mut Graph, arm: &Arm, k: &Layout, motion: &Motion) -> Vec<Hand> {
         }
         earlier.push((turns, r.residual));
         let side = {
-            let h6k = vec3::constant(g, h6);
-            let turned = vec3::rotate(g, h5, turn5.0, turn5.1, h6k);
+            let d = vec3::constant(g, k.side_direction);
+            let turned = vec3::rotate(g, h5, turn5.0, turn5.1, d);
             vec3::dot_const(g, k.side_normal, turned)
         };
-        let rank = {
-            let a = g.abs(r.aspect);
-            g.neg(a)
-        };
+        // Among roots with both labels alike, the smaller sin θ6 first: two distinct roots
+        // differ in it by more than rounding (|det| would not: a near-double pair has two
+        // small determinants of nearly one size).
+        let rank = r.plane_turn.1;
         routed.push(route::Root {
             values: vec![turn5.0, turn5.1, r.plane_turn.0, r.plane_turn.1, r.merge],
             residual,
@@ -362,7 +378,7 @@ pub fn rule(arm: &Arm) -> BranchRule {
         wrist: WristRule {
             normal: k.side_normal,
             axis5: arm.axis(4),
-            axis6: arm.axis(5),
+            axis6: k.side_direction,
         },
         mirrored: false,
     }

@@ -6,10 +6,10 @@
 //!
 //! Covered: the layout with axis 1 and axis 5 each ⟂ the parallel axes and axis 6 ⟂ axis 5,
 //! and every other angle of axes 1, 5 and 6 to the parallel axes, with any offsets, as long as
-//! axes 5 and 6 meet. Not covered here: axes 5 and 6 passing apart, and three parallel axes at
-//! joints 1–3 or 4–6 (rejected, saying so). Axes 3–5 parallel with axes 1 and 2 meeting are
-//! this family's arms read from the tool: the tool-first family solves them through
-//! [`plan::target_step`].
+//! axes 5 and 6 meet. Axes 5 and 6 passing apart are the offset-hand family's
+//! ([`super::offset_hand`], which shares this family's checks, planar chain and labels). Axes
+//! 3–5 parallel with axes 1 and 2 meeting are this family's arms read from the tool: the
+//! tool-first family solves them through [`plan::target_step`].
 
 pub mod plan;
 mod steps;
@@ -86,9 +86,9 @@ fn reject(
     Recognition::Degenerate(ctx.reject(reason, joint, Vec::new()))
 }
 
-/// The three-parallel conditions, in the order they are checked; the first that fails is
-/// the reason.
-fn check(ctx: &Context) -> Option<Recognition> {
+/// The conditions every arm with axes 2–4 parallel must meet (this family's and the
+/// offset-hand family's), in the order they are checked; the first that fails is the reason.
+pub(crate) fn degenerate(ctx: &Context) -> Option<Recognition> {
     let u = &ctx.model.units;
     let label = |n: usize| ctx.model.joint_label(n - 1);
     for n in [1, 5] {
@@ -131,38 +131,37 @@ fn check(ctx: &Context) -> Option<Recognition> {
             ));
         }
     }
+    None
+}
+
+/// True when axes 5 and 6 pass apart (the offset-hand family's arms, not this family's).
+pub(crate) fn axes_5_6_apart(ctx: &Context) -> bool {
+    ctx.gap(5, 6) > ctx.tol.distance
+}
+
+/// The three-parallel conditions beyond [`degenerate`] for meeting axes 5 and 6.
+fn check(ctx: &Context) -> Option<Recognition> {
+    if let Some(rejected) = degenerate(ctx) {
+        return Some(rejected);
+    }
     if ctx.parallel(5, 6) {
+        let u = &ctx.model.units;
+        let label = |n: usize| ctx.model.joint_label(n - 1);
         let angle = ctx.angle(5, 6);
         return Some(reject(
             ctx,
-            "axes_5_and_6_parallel",
+            "axes_5_and_6_one_line",
             6,
             format!(
-                "axes 2–4 are parallel, but the axes of {} and {} are parallel too (angle {}); \
-                 armforge's three-parallel family needs axes 5 and 6 to meet in a point",
+                "axes 2–4 are parallel, and the axes of {} and {} are one line (angle {}, {} \
+                 apart): two joints turning about one line add one motion, not two, so the arm \
+                 lacks one degree of freedom everywhere (a degenerate arm)",
                 label(5),
                 label(6),
-                u.show_angle(angle)
+                u.show_angle(angle),
+                u.show_length(ctx.gap(5, 6))
             ),
             vec![("angle", Quantity::Angle(angle))],
-        ));
-    }
-    let gap = ctx.gap(5, 6);
-    if gap > ctx.tol.distance {
-        return Some(reject(
-            ctx,
-            "axes_5_and_6_miss",
-            6,
-            format!(
-                "axes 2–4 are parallel, but the axes of {} and {} pass {} apart; armforge's \
-                 three-parallel family needs them to meet in a point (the point then moves \
-                 with joints 1–4 only); Pieper's criterion still gives a closed form for this \
-                 placement, which armforge does not build",
-                label(5),
-                label(6),
-                u.show_length(gap)
-            ),
-            vec![("gap", Quantity::Length(gap))],
         ));
     }
     None
@@ -173,7 +172,7 @@ fn point(p: &Point3<f64>) -> [f64; 3] {
 }
 
 /// Joint-5 model values at which axis 6 is parallel to `h` (either sense).
-fn aligned_at(ctx: &Context, h: &Vector3<f64>) -> Vec<f64> {
+pub(crate) fn aligned_at(ctx: &Context, h: &Vector3<f64>) -> Vec<f64> {
     let h5 = ctx.line(5).direction;
     let h6 = ctx.line(6).direction.into_inner();
     let mut at: Vec<f64> = [*h, -h]
@@ -188,6 +187,79 @@ fn aligned_at(ctx: &Context, h: &Vector3<f64>) -> Vec<f64> {
     at
 }
 
+/// The planar chain of joints 2–4 at zero: its two lengths, the point of axis 4 the two-link
+/// step places, where it is stretched, and how far from axis 2 axis 4 can be.
+#[derive(Clone, Copy)]
+pub(crate) struct Chain {
+    /// The distance between axes 2 and 3.
+    pub upper_arm: f64,
+    /// The distance between axes 3 and 4.
+    pub forearm: f64,
+    /// The point of axis 4 in the plane ⟂ `h` through axis 3's foot.
+    pub on_4: Point3<f64>,
+    /// The model value of joint 3 at which axis 4 is farthest from axis 2.
+    pub stretched_at: f64,
+    /// `[|upper − fore|, upper + fore]`.
+    pub rho: [f64; 2],
+}
+
+/// The planar chain of an arm whose axes 2–4 are parallel.
+pub(crate) fn chain(ctx: &Context) -> Chain {
+    let upper_arm = ctx.gap(2, 3);
+    let forearm = ctx.gap(3, 4);
+    let axis3 = ctx.line(3);
+    let on_4 = ctx.line(4).project(&axis3.point);
+    let on_3 = axis3.project(&on_4);
+    let upper = on_3 - ctx.line(2).project(&on_3);
+    let fore = on_4 - on_3;
+    let stretched_at =
+        signed_angle_about(&axis3.direction, &fore, &upper, ctx.tol.distance).unwrap_or(0.0);
+    Chain {
+        upper_arm,
+        forearm,
+        on_4,
+        stretched_at,
+        rho: [(upper_arm - forearm).abs(), upper_arm + forearm],
+    }
+}
+
+/// The planar chain stretched and folded: where its two elbow solutions merge.
+pub(crate) fn bend_singularities(ctx: &Context, c: &Chain) -> Vec<Singularity> {
+    let u = &ctx.model.units;
+    let joint_angles = |n: usize, values: &[f64]| show_joint_values(ctx.model, n, values);
+    let mut out = Vec::new();
+    for (kind, at, words) in [
+        (
+            "stretched",
+            c.stretched_at,
+            "stretched (axis 4 farthest from axis 2)",
+        ),
+        (
+            "folded",
+            wrap(c.stretched_at + PI),
+            "folded (axis 4 nearest axis 2)",
+        ),
+    ] {
+        out.push(Singularity::Described {
+            name: kind,
+            text: format!(
+                "arm {words} at joint 3 = {}: the two elbow solutions merge",
+                joint_angles(3, &[at])
+            ),
+            equation: format!(
+                "`cos ψ = {}` in the law of cosines of joints 2–3: `d = {}` from axis 2.",
+                if kind == "stretched" { "1" } else { "−1" },
+                u.show_length(if kind == "stretched" {
+                    c.upper_arm + c.forearm
+                } else {
+                    (c.upper_arm - c.forearm).abs()
+                })
+            ),
+        });
+    }
+    out
+}
+
 fn measure(ctx: &Context) -> Found {
     let h = ctx.line(2).direction.into_inner();
     let q = meeting_point(
@@ -198,18 +270,14 @@ fn measure(ctx: &Context) -> Found {
     );
     let qp = Point3::from(q);
     let s = shoulder(ctx, &qp);
-    let upper_arm = ctx.gap(2, 3);
-    let forearm = ctx.gap(3, 4);
-    // The point of axis 4 in the plane ⟂ h through axis 3's foot, and the angle of joint 3 at
-    // which it is farthest from axis 2.
-    let axis3 = ctx.line(3);
-    let on_4 = ctx.line(4).project(&axis3.point);
-    let on_3 = axis3.project(&on_4);
-    let upper = on_3 - ctx.line(2).project(&on_3);
-    let fore = on_4 - on_3;
-    let stretched_at =
-        signed_angle_about(&axis3.direction, &fore, &upper, ctx.tol.distance).unwrap_or(0.0);
-    let rho = [(upper_arm - forearm).abs(), upper_arm + forearm];
+    let planar = chain(ctx);
+    let Chain {
+        upper_arm,
+        forearm,
+        on_4,
+        stretched_at,
+        rho,
+    } = planar;
     let aligned = aligned_at(ctx, &h);
     let u = &ctx.model.units;
     let joint_angles = |n: usize, values: &[f64]| show_joint_values(ctx.model, n, values);
@@ -269,35 +337,7 @@ fn measure(ctx: &Context) -> Found {
                    joint 1 at the reference)."
             .into(),
     });
-    for (kind, at, words) in [
-        (
-            "stretched",
-            stretched_at,
-            "stretched (axis 4 farthest from axis 2)",
-        ),
-        (
-            "folded",
-            wrap(stretched_at + PI),
-            "folded (axis 4 nearest axis 2)",
-        ),
-    ] {
-        singularities.push(Singularity::Described {
-            name: kind,
-            text: format!(
-                "arm {words} at joint 3 = {}: the two elbow solutions merge",
-                joint_angles(3, &[at])
-            ),
-            equation: format!(
-                "`cos ψ = {}` in the law of cosines of joints 2–3: `d = {}` from axis 2.",
-                if kind == "stretched" { "1" } else { "−1" },
-                u.show_length(if kind == "stretched" {
-                    upper_arm + forearm
-                } else {
-                    (upper_arm - forearm).abs()
-                })
-            ),
-        });
-    }
+    singularities.extend(bend_singularities(ctx, &planar));
     let reach = Reach {
         from: ReachOrigin::ShoulderPoint,
         min: rho[0].hypot(s.sideways_offset),
@@ -349,6 +389,9 @@ impl FamilyModule for ThreeParallel {
     fn recognise(&self, ctx: &Context) -> Recognition {
         let all_turn = (1..=6).all(|n| ctx.kind(n) == JointKind::Revolute);
         if !all_turn || !ctx.three_parallel(2) {
+            return Recognition::NotMine(None);
+        }
+        if axes_5_6_apart(ctx) && degenerate(ctx).is_none() {
             return Recognition::NotMine(None);
         }
         if let Some(rejected) = check(ctx) {

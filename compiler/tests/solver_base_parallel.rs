@@ -1,0 +1,181 @@
+//! Axes 1, 2 and 3 parallel (the base-parallel family): round trips on random arms whose axes
+//! 5 and 6 are apart, meeting or parallel, classified and planned through the registry; the
+//! mirror (axes 4–6 parallel) read from the tool; and the family's rejections.
+//!
+//! Check values: Pieper (1968), three consecutive parallel axes: a closed form with at most
+//! 8 solutions (from memory); here 4 roots of the plane–line quartic × 2 bends of joints 1–2.
+
+mod common;
+
+use common::{arms, check_round_trip};
+
+use armforge_compiler::classify::context::Context;
+use armforge_compiler::classify::{classify, Family, Tolerances};
+use armforge_compiler::family::base_parallel::BASE_PARALLEL;
+use armforge_compiler::family::{FamilyModule, Recognition};
+use armforge_compiler::model::Model;
+use armforge_compiler::plan::build_plan;
+use armforge_compiler::plan::samples::{
+    sample_arm, sample_base_parallel, sample_configuration, SampleOptions, SampleRng,
+};
+use armforge_compiler::solver::Solver;
+
+/// Poses with 8 solutions, by layout of axes 5 and 6 (apart, meeting, parallel), and the
+/// largest count seen.
+fn round_trips(options: SampleOptions) -> ([usize; 3], usize) {
+    let mut full = [0; 3];
+    let mut most = 0;
+    for seed in 0..arms() {
+        let (model, geometry) = sample_arm(Family::BaseParallel, seed, &options);
+        assert_eq!(geometry.solutions.total, 8, "arm {seed}");
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        let mut rng = SampleRng::new(5000 + seed);
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            let what = format!("base-parallel arm {seed}");
+            let n = check_round_trip(&solver, &model, &q, 8, &what);
+            most = most.max(n);
+            if n == 8 {
+                full[(seed % 3) as usize] += 1;
+            }
+        }
+    }
+    (full, most)
+}
+
+#[test]
+fn random_arms_round_trip_in_every_layout() {
+    let (full, most) = round_trips(SampleOptions::default());
+    eprintln!(
+        "base-parallel: poses with 8 solutions (axes 5–6 apart, meeting, parallel): {full:?} of \
+         {} each at most; largest count {most}",
+        arms().div_ceil(3) * 10
+    );
+    // Pieper 1968 (from memory): up to 8 solutions, reached at generic poses.
+    assert_eq!(most, 8, "{full:?}");
+    let random_zero = SampleOptions {
+        random_zero: true,
+        ..SampleOptions::default()
+    };
+    let (full, _) = round_trips(random_zero);
+    eprintln!("base-parallel, random zero offsets and senses: {full:?}");
+}
+
+/// Axes 4–6 parallel: the mirror of a base-parallel arm, read from the tool by the tool-first
+/// family through the base-parallel family's target step. Round trips on random arms.
+#[test]
+fn arms_whose_axes_4_to_6_are_parallel_round_trip_read_from_the_tool() {
+    let mut full = 0;
+    for seed in 0..arms() {
+        let inner = sample_base_parallel(seed, &SampleOptions::default());
+        let mut model = armforge_compiler::family::mirror::mirrored_model(&inner);
+        let mut rng = SampleRng::new(7300 + seed);
+        model.tool = rng.pose(0.5);
+        model.base = rng.pose(1.0);
+        let geometry = classify(&model, &Tolerances::default())
+            .unwrap_or_else(|r| panic!("arm {seed}: rejected: {r}"));
+        assert_eq!(geometry.family, Family::ToolFirst, "arm {seed}");
+        assert_eq!(geometry.solutions.total, 8, "arm {seed}");
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            let what = format!("axes 4–6 parallel, arm {seed}");
+            if check_round_trip(&solver, &model, &q, 8, &what) == 8 {
+                full += 1;
+            }
+        }
+    }
+    eprintln!("axes 4–6 parallel: {full} poses with 8 solutions");
+    assert!(full > 0);
+}
+
+/// A base-parallel sample arm to break.
+fn arm(seed: u64) -> Model {
+    sample_base_parallel(seed, &SampleOptions::default())
+}
+
+/// The rejection of `model`: its kind and message.
+fn rejected(model: &Model) -> (String, String) {
+    let r = classify(model, &Tolerances::default()).expect_err("rejected");
+    (r.reason.kind().to_string(), r.to_string())
+}
+
+/// Axis 4 parallel to axes 1–3: four parallel axes, one joint redundant.
+#[test]
+fn four_parallel_axes_are_rejected() {
+    let mut model = arm(0);
+    model.joints[3].joint.axis = model.joints[0].joint.axis;
+    let (kind, message) = rejected(&model);
+    assert_eq!(kind, "four_parallel_axes", "{message}");
+    assert!(message.contains("1–4"), "{message}");
+}
+
+/// Axes 1 and 2 on one line.
+#[test]
+fn parallel_axes_on_one_line_are_rejected() {
+    let mut model = arm(1);
+    model.joints[1].joint.point = model.joints[0].joint.point;
+    model.joints[1].joint.axis = model.joints[0].joint.axis;
+    let (kind, message) = rejected(&model);
+    assert_eq!(kind, "parallel_axes_coincide", "{message}");
+}
+
+/// Axes 4, 5 and 6 through one point: the wrist center keeps its height along the parallel
+/// axes. The classifier gives the elbow family's reason (it sees a spherical wrist whose
+/// joints 1–3 cannot place the center in space); the base-parallel family's own says why.
+#[test]
+fn a_spherical_wrist_behind_parallel_axes_is_rejected() {
+    let mut model = arm(2);
+    let c = model.joints[3].joint.point;
+    model.joints[4].joint.point = c;
+    model.joints[5].joint.point = c;
+    model.joints[5].joint.axis = [0.6, 0.0, 0.8];
+    let (kind, message) = rejected(&model);
+    assert_eq!(kind, "axes_1_and_2_parallel", "{message}");
+    assert!(message.contains("wrist center in space"), "{message}");
+    let ctx = Context::new(&model, &Tolerances::default()).expect("six joints");
+    let Recognition::Degenerate(r) = BASE_PARALLEL.recognise(&ctx) else {
+        panic!("not degenerate");
+    };
+    assert_eq!(r.reason.kind(), "spherical_wrist_behind_parallel_axes", "{r}");
+    assert!(r.message.contains("height"), "{r}");
+}
+
+/// Axes 4 and 5 meeting (axis 6 apart): every root of the quartic is double; not built.
+#[test]
+fn axes_4_and_5_meeting_are_rejected() {
+    let mut model = arm(0);
+    model.joints[4].joint.point = model.joints[3].joint.point;
+    let (kind, message) = rejected(&model);
+    assert_eq!(kind, "axes_4_and_5_in_one_plane", "{message}");
+    assert!(message.contains("meet"), "{message}");
+}
+
+/// Axes 4, 5 and 6 parallel too: the tool turns about two directions only.
+#[test]
+fn axes_4_to_6_parallel_too_are_rejected() {
+    let mut model = arm(3);
+    let h4 = model.joints[3].joint.axis;
+    let p4 = model.joints[3].joint.point;
+    for (j, d) in [(4, 0.2), (5, 0.4)] {
+        model.joints[j].joint.axis = h4;
+        let across = armforge_compiler::plan::vec3::num::any_perpendicular(&h4);
+        model.joints[j].joint.point = [
+            p4[0] + d * across[0],
+            p4[1] + d * across[1],
+            p4[2] + d * across[2],
+        ];
+    }
+    let (kind, message) = rejected(&model);
+    assert_eq!(kind, "parallel_axes_1_3_and_4_6", "{message}");
+}
+
+/// Axes 5 and 6 on one line.
+#[test]
+fn axes_5_and_6_on_one_line_are_rejected() {
+    let mut model = arm(0);
+    model.joints[5].joint.axis = model.joints[4].joint.axis;
+    model.joints[5].joint.point = model.joints[4].joint.point;
+    let (kind, message) = rejected(&model);
+    assert_eq!(kind, "axes_5_6_one_line", "{message}");
+}

@@ -1,0 +1,88 @@
+//! Three consecutive parallel axes with axes 5 and 6 passing apart (the offset-hand family):
+//! round trips on random arms classified and planned through the registry, the same arms read
+//! from the tool (axes 3–5 parallel, axes 1 and 2 apart: the tool-first family), and the
+//! classification of the neighbours.
+//!
+//! Check values: Pieper (1968), three consecutive parallel axes: a quartic, so at most 4
+//! placements of joints 1, 5 and 6, each with 2 bends of the planar chain: at most 8
+//! solutions, reached at generic poses (from memory).
+
+mod common;
+
+use common::{arms, check_round_trip};
+
+use armforge_compiler::classify::{classify, Family, Tolerances};
+use armforge_compiler::plan::build_plan;
+use armforge_compiler::plan::samples::{
+    sample_configuration, sample_offset_hand, SampleOptions, SampleRng,
+};
+use armforge_compiler::solver::Solver;
+
+/// Poses with 8 solutions by kind of hand (axes 5 and 6 at an angle, parallel), over random
+/// arms of one placement; and the poses tried.
+fn round_trip(layout: bool) -> ([usize; 2], usize) {
+    let mut eight = [0; 2];
+    let mut poses = 0;
+    for seed in 0..arms() {
+        let model = sample_offset_hand(seed, &SampleOptions::default(), layout);
+        let geometry = classify(&model, &Tolerances::default())
+            .unwrap_or_else(|r| panic!("arm {seed}: rejected: {r}"));
+        assert_eq!(geometry.family, Family::OffsetHand, "arm {seed}");
+        assert_eq!(geometry.solutions.total, 8);
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        let mut rng = SampleRng::new(6100 + seed);
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            poses += 1;
+            let what = format!("offset-hand arm {seed}");
+            if check_round_trip(&solver, &model, &q, 8, &what) == 8 {
+                eight[usize::from(seed % 3 == 2)] += 1;
+            }
+        }
+    }
+    (eight, poses)
+}
+
+#[test]
+fn layout_arms_round_trip() {
+    let (eight, poses) = round_trip(true);
+    eprintln!(
+        "offset hand, layout: {eight:?} of {poses} poses with 8 solutions (angled, parallel)"
+    );
+    assert!(eight[0] > 0, "{eight:?}");
+}
+
+#[test]
+fn general_angle_arms_round_trip() {
+    let (eight, poses) = round_trip(false);
+    eprintln!("offset hand, any angles: {eight:?} of {poses} poses with 8 solutions");
+    assert!(eight[0] > 0, "{eight:?}");
+}
+
+/// Axes 3–5 parallel with axes 1 and 2 apart: the mirror of an offset-hand arm, read from the
+/// tool by the tool-first family through the offset-hand family's target step.
+#[test]
+fn mirrored_arms_round_trip_read_from_the_tool() {
+    let mut full = 0;
+    for seed in 0..arms() {
+        let inner = sample_offset_hand(seed, &SampleOptions::default(), seed % 2 == 0);
+        let mut model = armforge_compiler::family::mirror::mirrored_model(&inner);
+        let mut rng = SampleRng::new(7300 + seed);
+        model.tool = rng.pose(0.5);
+        model.base = rng.pose(1.0);
+        let geometry = classify(&model, &Tolerances::default())
+            .unwrap_or_else(|r| panic!("arm {seed}: rejected: {r}"));
+        assert_eq!(geometry.family, Family::ToolFirst, "arm {seed}");
+        assert_eq!(geometry.solutions.total, 8, "arm {seed}");
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        for _ in 0..10 {
+            let q = sample_configuration(&model, &mut rng);
+            let what = format!("axes 3–5 parallel, arm {seed}");
+            if check_round_trip(&solver, &model, &q, 8, &what) == 8 {
+                full += 1;
+            }
+        }
+    }
+    eprintln!("axes 3–5 parallel, axes 1–2 apart: {full} poses with 8 solutions");
+    assert!(full > 0);
+}
