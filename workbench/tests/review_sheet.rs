@@ -367,6 +367,7 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
                 | Family::OffsetHand
                 | Family::BaseWrist
                 | Family::MidWrist
+                | Family::BaseParallel
                 | Family::ToolFirst
         ) {
             // These equations are the pages of the families with a spherical wrist at joints

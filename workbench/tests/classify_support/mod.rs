@@ -284,6 +284,16 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("angle_5_6", e.angle_5_6);
             put("gap_5_6", e.gap_5_6);
         }
+        ArmEvidence::BaseParallel(e) => {
+            put("link_1_2", e.link_1_2);
+            put("link_2_3", e.link_2_3);
+            put("angle_4", e.angle_4_to_parallel);
+            put("angle_4_5", e.angle_4_5);
+            put("gap_4_5", e.gap_4_5);
+            put("angle_5_6", e.angle_5_6);
+            put("gap_5_6", e.gap_5_6);
+            put("stretched", joint_value(model, 1, e.stretched_at));
+        }
         ArmEvidence::MidWrist(e) => {
             put("mid_wrist.miss", e.wrist.miss);
             put("mid_wrist.angle_2_3", e.wrist.angle_4_5);

@@ -66,6 +66,8 @@ pub struct BaseParallelEvidence {
     pub angle_5_6: f64,
     /// The length of the common normal of axes 5 and 6.
     pub gap_5_6: f64,
+    /// Model values of joint 4 (radians) at which axis 5 is parallel to axes 1–3.
+    pub aligned_at: Vec<f64>,
 }
 
 /// A rejection with the family's own words.
@@ -203,11 +205,46 @@ fn check_last_axes(ctx: &Context) -> Option<Recognition> {
     None
 }
 
+/// Joint-4 model values at which axis 5 is parallel to `h` (either sense).
+fn aligned_at(ctx: &Context, h: &nalgebra::Vector3<f64>) -> Vec<f64> {
+    let h4 = ctx.line(4).direction;
+    let h5 = ctx.line(5).direction.into_inner();
+    let mut at: Vec<f64> = [*h, -h]
+        .iter()
+        .filter_map(|target| {
+            let off = (h4.dot(&h5) - h4.dot(target)).abs();
+            (off <= ctx.tol.angle)
+                .then(|| signed_angle_about(&h4, &h5, target, ctx.tol.angle.sin()))?
+        })
+        .collect();
+    at.sort_by(f64::total_cmp);
+    at
+}
+
 /// The family's singular configurations: joints 1–2 stretched or folded, and two roots of
 /// the plane–line step merging.
 fn singularities(model: &Model, e: &BaseParallelEvidence) -> Vec<Singularity> {
     let u = &model.units;
-    let mut out = Vec::new();
+    let mut out = vec![if e.aligned_at.is_empty() {
+        Singularity::Described {
+            name: "axis_5_never_parallel",
+            text: "axis 5 never parallel to axes 1–3 (the angles of axes 4–5 and 4–1 differ)"
+                .into(),
+            equation: "`h · R4 h5` never reaches ±1.".into(),
+        }
+    } else {
+        Singularity::Described {
+            name: "axis_5_parallel",
+            text: format!(
+                "axis 5 parallel to axes 1–3 at joint 4 = {}: joints 1, 2, 3 and 5 turn about \
+                 parallel axes, so the arm loses a degree of freedom there",
+                show_joint_values(model, 4, &e.aligned_at)
+            ),
+            equation: "`|h × R4 h5| = 0`: two roots of the plane–line quartic merge there; the \
+                       candidates are flagged at the reach limit"
+                .into(),
+        }
+    }];
     for (kind, at, words, reach) in [
         (
             "stretched",
@@ -277,6 +314,7 @@ fn measure(ctx: &Context) -> Found {
         gap_4_5: ctx.gap(4, 5),
         angle_5_6: ctx.angle(5, 6),
         gap_5_6: ctx.gap(5, 6),
+        aligned_at: aligned_at(ctx, &h),
     };
     Found {
         center: evidence.axis_3_point,
@@ -465,24 +503,27 @@ impl FamilyModule for BaseParallel {
             axis: 0,
         };
         let mut hints = VerifyHints {
-            aligned_joint: 4,
+            aligned_joint: 3,
             aligned_at: Vec::new(),
             axes: [None, None],
             on_axis: None,
             boundaries: Vec::new(),
+            // Where axis 5 lines up with axes 1–3, joint 5 joins the planar chain of joints
+            // 1–3: they share what the chain alone cannot fix.
             roles: [
-                Role::Axis(0),
+                Role::AxisAndSplit(0),
+                Role::BendAndSplit,
+                Role::AxisAndSplit(0),
                 Role::Bend,
-                Role::Axis(0),
-                Role::Bend,
-                Role::Bend,
-                Role::Bend,
+                Role::WristSplit,
+                Role::WristSplit,
             ],
         };
         let ArmEvidence::BaseParallel(e) = &geometry.arm else {
             return hints;
         };
         hints.axes[0] = Some(from_axis_1(e));
+        hints.aligned_at = e.aligned_at.clone();
         for (at, side) in [(e.reach_from_axis_1[1], -1.0), (e.reach_from_axis_1[0], 1.0)] {
             hints.boundaries.push(SamplerBoundary {
                 distance: from_axis_1(e),
