@@ -93,6 +93,7 @@ emitted_arms! {
     bench_elbow = "../arms/bench-elbow-dh.toml";
     ceiling_transfer = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader = "../arms/centrifuge-loader-dh.toml";
+    drawer_puller = "../arms/drawer-puller-axes.toml";
     hood_corner = "../arms/hood-corner-axes.toml";
     hotel_loader = "../arms/hotel-loader-axes.toml";
     incubator_threader = "../arms/incubator-threader-axes.toml";
@@ -111,6 +112,7 @@ emitted_arms! {
     bench_elbow_f32 = "../arms/bench-elbow-dh.toml";
     ceiling_transfer_f32 = "../arms/ceiling-transfer-axes.toml";
     centrifuge_loader_f32 = "../arms/centrifuge-loader-dh.toml";
+    drawer_puller_f32 = "../arms/drawer-puller-axes.toml";
     hood_corner_f32 = "../arms/hood-corner-axes.toml";
     hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
     incubator_threader_f32 = "../arms/incubator-threader-axes.toml";

@@ -1,5 +1,5 @@
 //! Completeness of the families without a wrist at joints 4–6 (three-parallel, wrist at the
-//! base, mid-wrist) on random arms, against an independent numerical method: Levenberg–Marquardt (the
+//! base, mid-wrist, base-parallel) on random arms, against an independent numerical method: Levenberg–Marquardt (the
 //! `levenberg-marquardt` crate, Moré's MINPACK algorithm: Moré, "The Levenberg–Marquardt
 //! algorithm: implementation and theory", 1978) minimises the pose error of the arm's forward
 //! kinematics (the product of exponentials evaluated with nalgebra's `Rotation3` and
@@ -12,10 +12,10 @@
 
 use std::f64::consts::TAU;
 
-use armforge_compiler::classify::Family;
+use armforge_compiler::classify::{classify, Family, Geometry, Tolerances};
 use armforge_compiler::model::Model;
 use armforge_compiler::plan::samples::{
-    sample_arm, sample_configuration, SampleOptions, SampleRng,
+    sample_arm, sample_base_parallel, sample_configuration, SampleOptions, SampleRng,
 };
 use armforge_compiler::solver::Solver;
 use armforge_runtime::{Pose, JOINTS};
@@ -143,9 +143,14 @@ fn check_arms(family: Family, options: SampleOptions) -> (usize, usize) {
         revolute_range: TAU,
         ..options
     };
+    check_models(family, |seed| sample_arm(family, seed, &options))
+}
+
+/// [`check_family`] for the arms `arm(seed)` (named `family` in messages).
+fn check_models(family: Family, arm: impl Fn(u64) -> (Model, Geometry)) -> (usize, usize) {
     let (mut found_total, mut listed_total) = (0, 0);
     for seed in 0..sample_count(200) as u64 {
-        let (model, geometry) = sample_arm(family, seed, &options);
+        let (model, geometry) = arm(seed);
         let solver = Solver::new(&model, &geometry);
         let size = solver.plan().arm.scale;
         let mut rng = SampleRng::new(seed * 13 + 1);
@@ -224,6 +229,41 @@ fn mid_wrist_arms_miss_no_numerical_solution() {
 fn three_parallel_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::ThreeParallel);
     println!("three-parallel: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}");
+    assert!(found > 0);
+}
+
+#[test]
+fn base_parallel_arms_miss_no_numerical_solution() {
+    // Axes 1–3 parallel; axes 5 and 6 apart, meeting and parallel by turns.
+    let (found, listed) = check_family(Family::BaseParallel);
+    println!(
+        "base-parallel: Levenberg–Marquardt found {found} distinct solutions, armforge lists \
+         {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn arms_with_axes_4_to_6_parallel_miss_no_numerical_solution() {
+    // The mirror of a base-parallel arm, solved by the tool-first family through the
+    // base-parallel family's target step.
+    let options = SampleOptions {
+        revolute_range: TAU,
+        ..SampleOptions::default()
+    };
+    let (found, listed) = check_models(Family::ToolFirst, |seed| {
+        let inner = sample_base_parallel(seed, &options);
+        let mut model = armforge_compiler::family::mirror::mirrored_model(&inner);
+        let mut rng = SampleRng::new(7300 + seed);
+        model.tool = rng.pose(0.5);
+        model.base = rng.pose(1.0);
+        let geometry = classify(&model, &Tolerances::default()).expect("tool-first");
+        (model, geometry)
+    });
+    println!(
+        "axes 4–6 parallel: Levenberg–Marquardt found {found} distinct solutions, armforge lists \
+         {listed}"
+    );
     assert!(found > 0);
 }
 

@@ -272,6 +272,8 @@ fn exactly_aligned_wrists_are_flagged_in_single_precision() {
             // alignment below.
             armforge_compiler::classify::Family::BaseWrist
             | armforge_compiler::classify::Family::ToolFirst => continue,
+            // No wrist: joints 4–6 are the plane–line step's (no aligned flag).
+            armforge_compiler::classify::Family::BaseParallel => continue,
             armforge_compiler::classify::Family::MidWrist => 1,
             _ => 3,
         };

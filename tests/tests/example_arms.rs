@@ -97,9 +97,10 @@ fn holds_still(model: &Model, first: usize, center: &[f64; 3], path: &str) {
 #[test]
 fn every_example_arm_meets_pieper_s_criterion() {
     // Pieper 1968: a closed form when three consecutive axes meet in a point or are parallel.
-    // The example arms use five shapes: a spherical wrist (axes 4–6 meet), a wrist at the
+    // The example arms use six shapes: a spherical wrist (axes 4–6 meet), a wrist at the
     // base (axes 1–3 meet), a wrist in the middle (axes 2–4 meet), three parallel axes 2–4
-    // with axes 5 and 6 meeting, and three parallel axes 3–5 with axes 1 and 2 meeting.
+    // with axes 5 and 6 meeting, three parallel axes 3–5 with axes 1 and 2 meeting, and three
+    // parallel axes 1–3 with axes 4 and 5 apart.
     for (path, model) in arms() {
         assert_eq!(model.joints.len(), 6, "{path}");
         if let Some(center) = meeting_of(&model, 3) {
@@ -136,6 +137,21 @@ fn every_example_arm_meets_pieper_s_criterion() {
             assert!(
                 distance_from_line(&model, 1, &q) < ON_LINE,
                 "{path}: axes 1, 2 meet"
+            );
+        } else if parallel_from(&model, 0) {
+            // Three parallel axes at the base: joints 1–3 keep every point's component along
+            // their common direction; axes 4 and 5 neither meet nor are parallel.
+            let h = axis(&model, 0);
+            let p = [0.3, -0.2, 0.5];
+            let mut c = p;
+            for (i, q) in (0..3).zip([0.7, -1.2, 2.9]).rev() {
+                c = joint_motion(&model.joints[i].joint, q).transform_point(&c);
+            }
+            assert!((dot(&h, &c) - dot(&h, &p)).abs() < 1e-12, "{path}");
+            let q = meeting_point(&model, 3, 4);
+            assert!(
+                distance_from_line(&model, 4, &q) > ON_LINE,
+                "{path}: axes 4, 5 apart"
             );
         } else {
             panic!("{path}: no three consecutive axes meet or are parallel");

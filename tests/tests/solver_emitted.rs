@@ -46,6 +46,7 @@ emitted!(base_wrist_polar, "generated/base_wrist_polar.rs");
 emitted!(mid_wrist, "generated/mid_wrist.rs");
 emitted!(tool_first_layout, "generated/tool_first_layout.rs");
 emitted!(tool_first_general, "generated/tool_first_general.rs");
+emitted!(base_parallel, "generated/base_parallel.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
 use armforge_compiler::solver::Solver;
@@ -148,6 +149,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(mid_wrist), "mid_wrist"),
         compare(api!(tool_first_layout), "tool_first_layout"),
         compare(api!(tool_first_general), "tool_first_general"),
+        compare(api!(base_parallel), "base_parallel"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();
     assert_eq!(

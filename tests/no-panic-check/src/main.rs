@@ -129,6 +129,8 @@ checked_arm!(
 );
 checked_arm!(tipper_f64 = "../../arms/tray-tipper-axes.toml", f64);
 checked_arm!(tipper_f32 = "../../arms/tray-tipper-axes.toml", f32);
+checked_arm!(drawer_f64 = "../../arms/drawer-puller-axes.toml", f64);
+checked_arm!(drawer_f32 = "../../arms/drawer-puller-axes.toml", f32);
 
 /// One checked arm: its name, `run` and `sizes`.
 type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
