@@ -98,6 +98,7 @@ emitted_arms! {
     hotel_loader = "../arms/hotel-loader-axes.toml";
     incubator_threader = "../arms/incubator-threader-axes.toml";
     lid_lifter = "../arms/lid-lifter-axes.toml";
+    plate_turner = "../arms/plate-turner-axes.toml";
     rack_loader = "../arms/rack-loader-mdh.toml";
     reagent_rack_reacher = "../arms/reagent-rack-reacher-axes.toml";
     shelf_reacher = "../arms/shelf-reacher-axes.toml";
@@ -117,6 +118,7 @@ emitted_arms! {
     hotel_loader_f32 = "../arms/hotel-loader-axes.toml";
     incubator_threader_f32 = "../arms/incubator-threader-axes.toml";
     lid_lifter_f32 = "../arms/lid-lifter-axes.toml";
+    plate_turner_f32 = "../arms/plate-turner-axes.toml";
     rack_loader_f32 = "../arms/rack-loader-mdh.toml";
     reagent_rack_reacher_f32 = "../arms/reagent-rack-reacher-axes.toml";
     shelf_reacher_f32 = "../arms/shelf-reacher-axes.toml";

@@ -268,6 +268,17 @@ fn arms_with_axes_4_to_6_parallel_miss_no_numerical_solution() {
 }
 
 #[test]
+fn offset_hand_arms_miss_no_numerical_solution() {
+    // Axes 2–4 parallel, axes 5 and 6 apart (parallel on every third arm): the plane–line
+    // quartic must list every solution Levenberg–Marquardt converges to.
+    let (found, listed) = check_family(Family::OffsetHand);
+    println!(
+        "offset hand: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
 fn tool_first_arms_miss_no_numerical_solution() {
     // Axes 3–5 parallel and axes 1 and 2 meeting, solved through the mirrored three-parallel
     // arm: every solution Levenberg–Marquardt converges to must be listed.

@@ -41,6 +41,7 @@ emitted!(
     three_parallel_general,
     "generated/three_parallel_general.rs"
 );
+emitted!(offset_hand, "generated/offset_hand.rs");
 emitted!(base_wrist_elbow, "generated/base_wrist_elbow.rs");
 emitted!(base_wrist_polar, "generated/base_wrist_polar.rs");
 emitted!(mid_wrist, "generated/mid_wrist.rs");
@@ -144,6 +145,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(general_parallel), "general_parallel"),
         compare(api!(three_parallel_layout), "three_parallel_layout"),
         compare(api!(three_parallel_general), "three_parallel_general"),
+        compare(api!(offset_hand), "offset_hand"),
         compare(api!(base_wrist_elbow), "base_wrist_elbow"),
         compare(api!(base_wrist_polar), "base_wrist_polar"),
         compare(api!(mid_wrist), "mid_wrist"),

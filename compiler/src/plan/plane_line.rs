@@ -410,7 +410,7 @@ impl Form {
             let d = g.mul_add2(dc, dc, ds, ds);
             let close = g.exact_once(1e-20);
             let same = g.sub(close, d);
-            taken = g.max(taken, same);
+            taken = g.max(same, taken);
         }
         (
             g.select(taken, second.0, first.0),

@@ -160,7 +160,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 17] {
+pub fn fixtures() -> [Fixture; 18] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -198,6 +198,7 @@ pub fn fixtures() -> [Fixture; 17] {
         fixture("general_parallel", Family::General, 23, parallel),
         fixture("three_parallel_layout", Family::ThreeParallel, 18, plain),
         fixture("three_parallel_general", Family::ThreeParallel, 19, plain),
+        fixture("offset_hand", Family::OffsetHand, 26, plain),
         fixture("base_wrist_elbow", Family::BaseWrist, 20, plain),
         fixture("base_wrist_polar", Family::BaseWrist, 21, plain),
         fixture("mid_wrist", Family::MidWrist, 24, plain),
