@@ -4,6 +4,7 @@
 use std::fmt::Write as _;
 
 use armforge_runtime::internal::{ElbowRule, ShoulderRule};
+use armforge_runtime::{Branch, Elbow, Shoulder};
 
 use super::show::Show;
 use armforge_compiler::plan::render::reference;
@@ -56,6 +57,9 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
                 s.point(&point)
             );
         }
+        ShoulderRule::Only if solved(plan, |b| b.shoulder != Shoulder::Only) => {
+            let _ = writeln!(out, "| shoulder | facing / across | {BY_SOLVING} | — |");
+        }
         ShoulderRule::Only => {
             let _ = writeln!(out, "| shoulder | only | no choice (cartesian arm) | — |");
         }
@@ -97,6 +101,9 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
                 sign_word(up)
             );
         }
+        ElbowRule::Only if solved(plan, |b| b.elbow != Elbow::Only) => {
+            let _ = writeln!(out, "| elbow | up / down | {BY_SOLVING} | — |");
+        }
         ElbowRule::Only => {
             let _ = writeln!(
                 out,
@@ -117,6 +124,15 @@ pub fn write(out: &mut String, plan: &Plan, s: &Show) {
         s.dir(&w.axis6)
     );
     candidates(out, plan);
+}
+
+/// The words for a label that only solving reads (no rule of joint values alone gives it).
+const BY_SOLVING: &str = "read by solving: the label of the solution at `forward(q)` nearest \
+                          the configuration (the family's own reading, above)";
+
+/// True when the plan's labels are read by solving and some candidate carries a label `has`.
+fn solved(plan: &Plan, has: impl Fn(&Branch) -> bool) -> bool {
+    plan.labels_by_solving && plan.candidates.iter().any(|c| has(&c.branch))
 }
 
 fn family(plan: &Plan) -> &'static str {
