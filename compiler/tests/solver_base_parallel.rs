@@ -137,7 +137,11 @@ fn a_spherical_wrist_behind_parallel_axes_is_rejected() {
     let Recognition::Degenerate(r) = BASE_PARALLEL.recognise(&ctx) else {
         panic!("not degenerate");
     };
-    assert_eq!(r.reason.kind(), "spherical_wrist_behind_parallel_axes", "{r}");
+    assert_eq!(
+        r.reason.kind(),
+        "spherical_wrist_behind_parallel_axes",
+        "{r}"
+    );
     assert!(r.message.contains("height"), "{r}");
 }
 

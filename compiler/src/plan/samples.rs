@@ -741,7 +741,10 @@ pub fn sample_base_parallel(seed: u64, options: &SampleOptions) -> Model {
     let p1 = rng.point(0.2);
     let link = |rng: &mut SampleRng, from: &[f64; 3]| {
         let across = num::scale(&rng.perpendicular(&h), rng.range(0.2, 0.6));
-        num::add(&num::add(from, &across), &num::scale(&h, rng.range(-0.2, 0.2)))
+        num::add(
+            &num::add(from, &across),
+            &num::scale(&h, rng.range(-0.2, 0.2)),
+        )
     };
     let p2 = link(&mut rng, &p1);
     let p3 = link(&mut rng, &p2);

@@ -524,7 +524,10 @@ impl FamilyModule for BaseParallel {
         };
         hints.axes[0] = Some(from_axis_1(e));
         hints.aligned_at = e.aligned_at.clone();
-        for (at, side) in [(e.reach_from_axis_1[1], -1.0), (e.reach_from_axis_1[0], 1.0)] {
+        for (at, side) in [
+            (e.reach_from_axis_1[1], -1.0),
+            (e.reach_from_axis_1[0], 1.0),
+        ] {
             hints.boundaries.push(SamplerBoundary {
                 distance: from_axis_1(e),
                 joint: 1,

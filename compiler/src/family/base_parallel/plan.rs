@@ -41,8 +41,8 @@ use crate::model::Model;
 use crate::plan::arm::Arm;
 use crate::plan::decouple::{self, Target};
 use crate::plan::graph::{Graph, Id};
-use crate::plan::plane_line::{self, Aim, PlaneLine};
 use crate::plan::planar::{self, TwoLink};
+use crate::plan::plane_line::{self, Aim, PlaneLine};
 use crate::plan::pose::{self, Motion};
 use crate::plan::route::{self, copy_penalty};
 use crate::plan::subproblems::rotate_onto;
@@ -111,7 +111,10 @@ fn side_direction(arm: &Arm) -> [f64; 3] {
     if num::norm(&along_6) > 1e-6 {
         num::unit(&along_6)
     } else {
-        num::unit(&num::perpendicular(&num::sub(&arm.point(5), &arm.point(4)), &h5))
+        num::unit(&num::perpendicular(
+            &num::sub(&arm.point(5), &arm.point(4)),
+            &h5,
+        ))
     }
 }
 
@@ -238,15 +241,15 @@ fn joint_4(g: &mut Graph, arm: &Arm, k: &Layout, n: V3, hand: &Hand, tag: &str) 
     (theta4, turn)
 }
 
-/// Joints 1–3 for joints 4–6 (turns `[4, 5, 6]`): `Φ` from the orientation, joints 1 and 2
-/// placing `p3` at `A p3` (law of cosines), joint 3 the rest of `Φ`; one candidate per bend.
+/// Joints 1–3 for joints 4–6 (turns `[4, 5, 6]`): `Φ` from the orientation, the two-link step
+/// placing `p3` at `A p3` (law of cosines), and `≥ 0` where axis 3 is on axis 1.
 fn joints_1_to_3(
     g: &mut Graph,
     arm: &Arm,
     (k, motion): (&Layout, &Motion),
     turns: [(Id, Id); 3],
     tag: &str,
-) -> (Id, planar::TwoLinkRoots) {
+) -> (Id, planar::TwoLinkRoots, Id) {
     let (h4, p4) = (arm.axis(3), arm.point(3));
     let (h5, p5) = (arm.axis(4), arm.point(4));
     let (h6, p6) = (arm.axis(5), arm.point(5));
@@ -288,7 +291,18 @@ fn joints_1_to_3(
         "d² = |(w3 − p1)⊥h|²: squared distance of axis 3 from axis 1",
     );
     let tol = 1e-10 * arm.scale;
-    (sum, planar::solve(g, &k.two_link, placed, d2, tol, tag))
+    let floor = g.exact(tol * tol);
+    let on_axis = g.sub(floor, d2);
+    let on_axis = g.name(
+        on_axis,
+        &format!("on_axis_1_{tag}"),
+        "≥ 0 when axis 3 is on axis 1 (joint 1 free: held at its reference)",
+    );
+    (
+        sum,
+        planar::solve(g, &k.two_link, placed, d2, tol, tag),
+        on_axis,
+    )
 }
 
 /// The candidates of a base-parallel arm for the target `t`: four roots of the plane–line
@@ -297,6 +311,8 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     let k = Layout::of(arm);
     let motion = pose::joint_motions(g, arm, t);
     let motion: Motion = pose::name(g, motion, "g", "G = B⁻¹ T M⁻¹ = E1 ⋯ E6");
+    let held = g.atan2(t.reference1.1, t.reference1.0);
+    let held = g.name(held, "q1_ref", "joint 1's reference (held where it is free)");
     let mut out = Vec::with_capacity(8);
     for hand in hands(g, arm, &k, &motion) {
         let tag = format!(
@@ -318,16 +334,23 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
         };
         let (theta4, turn4) = joint_4(g, arm, &k, n, &hand, &tag);
         let turns = [turn4, hand.turns[0], hand.turns[1]];
-        let (sum, two) = joints_1_to_3(g, arm, (&k, &motion), turns, &tag);
+        let (sum, two, on_axis) = joints_1_to_3(g, arm, (&k, &motion), turns, &tag);
         for bend in &two.bends {
             let btag = format!("{tag}{}", if bend.bend > 0.0 { "a" } else { "b" });
+            // Axis 3 on axis 1: joint 1 is free, held at its reference; joint 3 takes the rest.
+            let theta1 = g.select(on_axis, held, bend.first);
+            let theta1 = g.name(
+                theta1,
+                &format!("q1_{btag}"),
+                "θ1 (the reference where axis 3 is on axis 1)",
+            );
             // θ3 = s3 (Φ − θ1 − φ2), φ2 = s2 θ2.
             let phi2 = if k.two_link.sense > 0.0 {
                 bend.second
             } else {
                 g.neg(bend.second)
             };
-            let rest = g.sub(sum, bend.first);
+            let rest = g.sub(sum, theta1);
             let rest = g.sub(rest, phi2);
             let theta3 = if k.sense3 > 0.0 { rest } else { g.neg(rest) };
             let theta3 = g.name(
@@ -337,7 +360,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
             );
             out.push(CandidateLayout {
                 model_values: [
-                    bend.first,
+                    theta1,
                     bend.second,
                     theta3,
                     theta4,
@@ -360,7 +383,7 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
                     None,
                 ],
                 wrist_aligned: None,
-                on_axis_1: None,
+                on_axis_1: Some(on_axis),
             });
         }
     }
@@ -386,8 +409,9 @@ pub fn rule(arm: &Arm) -> BranchRule {
 
 /// The solve of a base-parallel arm for the target `t` (the family's
 /// [`crate::family::TargetStep`], which the tool-first family reuses for arms whose axes 4–6
-/// are parallel). No joint is held at a reference: joint 4 is never free, and where two roots
-/// merge the solver flags the candidates at the reach limit.
+/// are parallel). Joint 1 is held at its reference where axis 3 is on axis 1 (the free joints
+/// `[0, 3]`: joint 4 is never free); where two roots merge the solver flags the candidates at
+/// the reach limit.
 pub fn target_step(
     g: &mut Graph,
     model: &Model,
