@@ -183,3 +183,38 @@ fn axes_5_and_6_on_one_line_are_rejected() {
     let (kind, message) = rejected(&model);
     assert_eq!(kind, "axes_5_6_one_line", "{message}");
 }
+
+/// Axis 3 on axis 1 (equal links, folded): joint 1 is free. Every solution there is flagged,
+/// and `solve_near` holds joint 1 at its current value, joint 3 taking the rest of the sum
+/// `Φ` (the pose is reproduced).
+#[test]
+fn joint_1_is_held_where_axis_3_is_on_axis_1() {
+    let mut model = arm(0);
+    // Axis 3 through axis 1's point at zero: with joint 2 at zero, axis 3 lies on axis 1.
+    let h = model.joints[0].joint.axis;
+    let p1 = model.joints[0].joint.point;
+    model.joints[2].joint.point = [p1[0] + 0.1 * h[0], p1[1] + 0.1 * h[1], p1[2] + 0.1 * h[2]];
+    let geometry = classify(&model, &Tolerances::default()).expect("base-parallel");
+    assert_eq!(geometry.family, Family::BaseParallel);
+    let solver = Solver::from_plan(build_plan(&model, &geometry));
+    let mut q = [0.3, 0.0, -0.5, 0.4, 0.2, 0.1];
+    // Model values to joint values (the sample's zero offsets and senses).
+    for (i, x) in q.iter_mut().enumerate() {
+        *x = model.joints[i].joint.joint_value(*x);
+    }
+    let target = model.forward(&q);
+    let solutions = solver.solve(&target).expect("solved");
+    assert!(
+        solutions
+            .iter()
+            .any(|s| s.flags.contains(armforge_runtime::Flags::ON_AXIS_1)),
+        "{solutions:#?}"
+    );
+    let near = solver.solve_near(&target, &q).expect("solved near");
+    let reach = solver.plan().arm.scale;
+    assert!(common::pose_error(&solver.forward(&near.joints), &target, reach) < 1e-9);
+    assert!(
+        common::joint_gap(&model, &near.joints, &q) < 1e-6,
+        "{near:?}"
+    );
+}

@@ -312,7 +312,11 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     let motion = pose::joint_motions(g, arm, t);
     let motion: Motion = pose::name(g, motion, "g", "G = B⁻¹ T M⁻¹ = E1 ⋯ E6");
     let held = g.atan2(t.reference1.1, t.reference1.0);
-    let held = g.name(held, "q1_ref", "joint 1's reference (held where it is free)");
+    let held = g.name(
+        held,
+        "q1_ref",
+        "joint 1's reference (held where it is free)",
+    );
     let mut out = Vec::with_capacity(8);
     for hand in hands(g, arm, &k, &motion) {
         let tag = format!(
