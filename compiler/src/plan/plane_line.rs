@@ -389,7 +389,9 @@ impl Form {
         let a_safe = away_from_zero(g, a);
         let near = g.div(f0, qv);
         let far = g.div(qv, a_safe);
-        let limit = g.exact(1e-8);
+        // A bound on a squared step: 1e-4 rad, 1.5e-2 rad in `f32` (where Ferrari's roots carry
+        // the square root of a larger epsilon).
+        let limit = g.exact_once(1e-8);
         let short = |g: &mut Graph, d: Id| {
             let dd = g.mul(d, d);
             g.sub(limit, dd)
@@ -408,7 +410,7 @@ impl Form {
             let dc = g.sub(c, first.0);
             let ds = g.sub(s, first.1);
             let d = g.mul_add2(dc, dc, ds, ds);
-            let close = g.exact_once(1e-20);
+            let close = g.exact(1e-20);
             let same = g.sub(close, d);
             taken = g.max(same, taken);
         }

@@ -283,8 +283,10 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
             "the residual of this label's root (or of a spare root, when none has the label)",
         );
         let v = &slot.values;
+        let angles = [(0, 1), (1, 5), (2, 6)]
+            .map(|(i, joint)| g.name(v[i], &format!("q{joint}_{tag}"), "this label's root"));
         let outer = Outer {
-            angles: [v[0], v[1], v[2]],
+            angles,
             turns: [(v[3], v[4]), (v[5], v[6]), (v[7], v[8])],
             shoulder: if facing {
                 Shoulder::Facing
