@@ -65,7 +65,7 @@ fn near_singular(
     table: &[armforge_runtime::Joint; JOINTS],
     q: &[f64],
     size: f64,
-    middle_wrist: Option<[f64; 3]>,
+    (middle_wrist, parallel_base): (Option<[f64; 3]>, bool),
 ) -> bool {
     let mut frames = [Pose::IDENTITY; JOINTS];
     let mut m = Pose::IDENTITY;
@@ -79,8 +79,13 @@ fn near_singular(
         let d = armforge_runtime::math::sub(&p, &point(i));
         sine(&axis(i), &d) * armforge_runtime::math::norm(&d)
     };
+    let axes_1_3 = if parallel_base {
+        off_line(point(2), 0) < NEAR_SINGULAR * size
+    } else {
+        sine(&axis(0), &axis(2)) < NEAR_SINGULAR
+    };
     sine(&axis(3), &axis(5)) < NEAR_SINGULAR
-        || sine(&axis(0), &axis(2)) < NEAR_SINGULAR
+        || axes_1_3
         // A wrist in the middle (axes 2–4 meet at `b`) lines up when axes 2 and 4 do; `b`
         // on axis 6 leaves joint 6 free, and in single precision the chain that places `b`
         // may lose the root nearest there within ten times this band (measured on the
@@ -151,7 +156,16 @@ fn round_trip(arm: &EmittedArm<f32>, count: usize, seed: u64) -> Errors {
     let size = generated.plan.arm.scale;
     let middle_wrist = (generated.plan.arm.family == armforge_compiler::classify::Family::MidWrist)
         .then_some(generated.plan.arm.wrist_center);
-    let offset_hand = generated.plan.arm.family == armforge_compiler::classify::Family::OffsetHand;
+    // The families solved through the plane–line quartic (offset hand, base-parallel).
+    let offset_hand = matches!(
+        generated.plan.arm.family,
+        armforge_compiler::classify::Family::OffsetHand
+            | armforge_compiler::classify::Family::BaseParallel
+    );
+    // Axes 1–3 parallel: axes 1 and 3 are always parallel, joint 1 is free only where axis 3
+    // lies on axis 1.
+    let parallel_base =
+        generated.plan.arm.family == armforge_compiler::classify::Family::BaseParallel;
     let reference = ReferenceArm::load(&arm.file());
     let mut rng = StdRng::seed_from_u64(seed);
     let mut errors = Errors::default();
@@ -214,7 +228,7 @@ fn round_trip(arm: &EmittedArm<f32>, count: usize, seed: u64) -> Errors {
         let at_boundary = solutions
             .iter()
             .any(|s| s.flags.contains(armforge_runtime::Flags::AT_REACH_LIMIT));
-        if near_singular(&table, &q, size, middle_wrist) || at_boundary {
+        if near_singular(&table, &q, size, (middle_wrist, parallel_base)) || at_boundary {
             errors.near_singular += 1;
             errors.near_singular_joint = errors.near_singular_joint.max(nearest);
             continue;
