@@ -402,8 +402,10 @@ fn describe_note(model: &Model, note: &Note) -> String {
             "the axes of joints {}, {} and {} are parallel: an arm with three consecutive \
              parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
              armforge's three-parallel and offset-hand families build it for parallel axes 2, \
-             3 and 4 (axes 5 and 6 meeting or apart), and its tool-first family for parallel \
-             axes 3, 4 and 5 (the same shapes read from the tool), six revolute joints each",
+             3 and 4 (axes 5 and 6 meeting or apart), its base-parallel family for parallel \
+             axes 1, 2 and 3 (axes 4 and 5 apart), and its tool-first family for parallel axes \
+             3, 4 and 5 or 4, 5 and 6 (the same shapes read from the tool), six revolute joints \
+             each",
             first,
             first + 1,
             first + 2
