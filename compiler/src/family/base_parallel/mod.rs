@@ -86,6 +86,23 @@ fn reject(
     Recognition::Degenerate(ctx.reject(reason, joint, Vec::new()))
 }
 
+/// A rejection of an arm that is not degenerate but of a placement the family does not
+/// build: reported only when no family recognises the arm and none finds it degenerate.
+fn not_built(
+    ctx: &Context,
+    name: &'static str,
+    joint: usize,
+    message: String,
+    measures: Vec<(&'static str, Quantity)>,
+) -> Recognition {
+    let reason = Reason::Family {
+        name,
+        message,
+        measures,
+    };
+    Recognition::NotMine(Some(ctx.reject(reason, joint, Vec::new())))
+}
+
 /// Axis 4 parallel to axes 1–3, or two of the parallel axes one line.
 fn check_parallel_axes(ctx: &Context) -> Option<Recognition> {
     let u = &ctx.model.units;
@@ -172,7 +189,9 @@ fn check_last_axes(ctx: &Context) -> Option<Recognition> {
         } else {
             format!("meet ({} apart)", u.show_length(gap_4_5))
         };
-        return Some(reject(
+        // Not a degenerate arm: a placement this family does not build, so the reason of a
+        // family that nearly has the arm's shape (a spherical wrist's, say) goes first.
+        return Some(not_built(
             ctx,
             "axes_4_and_5_in_one_plane",
             5,
