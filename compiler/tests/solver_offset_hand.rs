@@ -11,7 +11,7 @@ mod common;
 
 use common::{arms, check_round_trip};
 
-use armforge_compiler::classify::{classify, Family, Tolerances};
+use armforge_compiler::classify::{classify, ArmEvidence, Family, Tolerances};
 use armforge_compiler::plan::build_plan;
 use armforge_compiler::plan::samples::{
     sample_configuration, sample_offset_hand, SampleOptions, SampleRng,
@@ -85,4 +85,51 @@ fn mirrored_arms_round_trip_read_from_the_tool() {
     }
     eprintln!("axes 3–5 parallel, axes 1–2 apart: {full} poses with 8 solutions");
     assert!(full > 0);
+}
+
+/// Near-singular bands: joint 5 approaching a value at which axis 6 lines up with the parallel
+/// axes (joint 6 and the planar chain then share one rotation, and two roots of the quartic
+/// merge), at distances 1e-2 … 1e-8 rad. Every solution reproduces the pose, and `solve_near`
+/// from the configuration comes back to it, to within `1e-11 / δ` (joints 2–4 and 6 share one
+/// sum at the alignment, so their values are conditioned by the distance).
+#[test]
+fn near_singular_bands_keep_the_pose() {
+    let mut checked = 0;
+    let mut worst: f64 = 0.0;
+    for seed in 0..arms() / 4 {
+        let model = sample_offset_hand(seed, &SampleOptions::default(), seed % 2 == 0);
+        let geometry = classify(&model, &Tolerances::default()).unwrap_or_else(|r| panic!("{r}"));
+        let ArmEvidence::OffsetHand(e) = &geometry.arm else {
+            panic!("arm {seed}: evidence {:?}", geometry.arm);
+        };
+        let solver = Solver::from_plan(build_plan(&model, &geometry));
+        let reach = solver.plan().arm.scale;
+        let mut rng = SampleRng::new(7500 + seed);
+        for &at in &e.aligned_at {
+            for delta in [1e-2, 1e-4, 1e-6, 1e-8] {
+                let mut q = sample_configuration(&model, &mut rng);
+                q[4] = model.joints[4].joint.joint_value(at + delta);
+                let target = model.forward(&q);
+                let what = format!("arm {seed}, joint 5 at {delta:e} from {at}");
+                let solutions = solver
+                    .solve(&target)
+                    .unwrap_or_else(|r| panic!("{what}: unsolved: {r}"));
+                for s in &solutions {
+                    let err = common::pose_error(&solver.forward(&s.joints), &target, reach);
+                    assert!(err < 1e-9, "{what}: {s:?} misses by {err:e}");
+                }
+                let near = solver
+                    .solve_near(&target, &q)
+                    .unwrap_or_else(|r| panic!("{what}: solve_near: {r}"));
+                let err = common::pose_error(&solver.forward(&near.joints), &target, reach);
+                assert!(err < 1e-9, "{what}: solve_near misses by {err:e}");
+                let gap = common::joint_gap(&model, &near.joints, &q);
+                assert!(gap < 1e-11 / delta, "{what}: {gap:e} from {q:?}");
+                worst = worst.max(gap * delta);
+                checked += 1;
+            }
+        }
+    }
+    eprintln!("offset-hand near-singular bands: {checked} poses, joints within {worst:.1e} / δ");
+    assert!(checked > 0);
 }

@@ -120,6 +120,16 @@ fn wrap(e: (TokenStream, Prec), at_least: Prec) -> TokenStream {
     }
 }
 
+/// `(x, y)`, or `(y, x)` when `x` would be written as a bare literal and `y` would not.
+fn receiver_first(g: &Graph, b: &Bindings, x: Id, y: Id) -> (Id, Id) {
+    let literal = |id: Id| b.name(id).is_none() && g.constant_value(id).is_some();
+    if literal(x) && !literal(y) {
+        (y, x)
+    } else {
+        (x, y)
+    }
+}
+
 /// `min(max(x, lo), hi)` with constant bounds and an inlined `max`: `(x, lo)`.
 fn clamp_parts(g: &Graph, b: &Bindings, m: Id, hi: Id) -> Option<(Id, Id)> {
     if b.name(m).is_some() || g.constant_value(hi).is_none() {
@@ -187,11 +197,15 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
             let (x, lo) = clamp_parts(g, b, m, hi).unwrap_or((m, hi));
             (math_call("clamp", &[r(x).0, r(lo).0, r(hi).0]), Prec::Atom)
         }
+        // A literal receiver would be an ambiguous float (`(-1.0).max(x)` does not compile):
+        // the variable goes first (both are symmetric).
         Op::Min(x, y) => {
+            let (x, y) = receiver_first(g, b, x, y);
             let (x, y) = (wrap(r(x), Prec::Atom), r(y).0);
             (quote!(#x.min(#y)), Prec::Atom)
         }
         Op::Max(x, y) => {
+            let (x, y) = receiver_first(g, b, x, y);
             let (x, y) = (wrap(r(x), Prec::Atom), r(y).0);
             (quote!(#x.max(#y)), Prec::Atom)
         }
@@ -199,6 +213,28 @@ pub fn definition(g: &Graph, b: &Bindings, id: Id) -> (TokenStream, Prec) {
             let c = wrap(r(c), Prec::Sum);
             let (x, y) = (r(x).0, r(y).0);
             (quote!(if #c >= 0.0 { #x } else { #y }), Prec::Block)
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// `(-1.0).max(x)` does not compile (an ambiguous float literal; The Rust Reference,
+    /// "Literal expressions": an unsuffixed float literal's type is inferred): the variable is
+    /// the receiver.
+    #[test]
+    fn a_literal_is_never_the_receiver_of_min_or_max() {
+        let mut g = Graph::new();
+        let x = g.input(0);
+        let c = g.constant(-1.0);
+        for op in [Graph::max, Graph::min] {
+            let m = op(&mut g, c, x);
+            let b = Bindings::new(&g, &[], ScalarType::F64);
+            let text = definition(&g, &b, m).0.to_string();
+            assert!(!text.starts_with('(') && !text.starts_with('-'), "{text}");
+            assert!(text.contains("- 1.0"), "{text}");
         }
     }
 }

@@ -264,33 +264,15 @@ impl FamilyModule for OffsetHand {
 
     fn conditions(&self, plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
         let arm = &plan.arm;
-        let k = three_parallel::plan::Layout::of(arm);
-        let (upper, fore) = k.two_link.lengths();
-        let a = |i: usize, j: usize| Part::angle(line_angle(arm, i, j));
-        vec![
-            vec![
-                Part::text("axes 2, 3, 4 parallel: angles "),
-                a(2, 3),
-                Part::text(" (2–3) and "),
-                a(3, 4),
-                Part::text(" (3–4)"),
-            ],
-            vec![Part::text("axis 1 ∦ axes 2–4: angle "), a(1, 2)],
-            vec![Part::text("axis 5 ∦ axes 2–4: angle "), a(2, 5)],
+        three_parallel::parallel_conditions(
+            plan,
             vec![
                 Part::text("axes 5 and 6 pass apart: "),
                 Part::length(gap(arm, 5, 6)),
                 Part::text(", at angle "),
-                a(5, 6),
+                Part::angle(line_angle(arm, 5, 6)),
             ],
-            vec![
-                Part::text("an upper arm and a forearm: "),
-                Part::length(upper),
-                Part::text(" from axis 2 to axis 3, "),
-                Part::length(fore),
-                Part::text(" from axis 3 to axis 4"),
-            ],
-        ]
+        )
     }
 
     fn steps(&self, plan: &Plan) -> Steps {

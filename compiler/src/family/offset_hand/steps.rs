@@ -3,6 +3,7 @@
 
 use crate::family::data::{axis_line, t, Part, Step, Steps};
 use crate::family::three_parallel::plan::Layout;
+use crate::family::three_parallel::steps::planar_chain_step;
 use crate::plan::vec3::num;
 use crate::plan::Plan;
 
@@ -13,7 +14,6 @@ pub fn steps(plan: &Plan) -> Steps {
     let (h1, p1) = (arm.axis(0), arm.point(0));
     let (h5, p5) = (arm.axis(4), arm.point(4));
     let (h6, p6) = (arm.axis(5), arm.point(5));
-    let (upper, fore) = k.two_link.lengths();
     let method = vec![
         "**Three parallel axes** (Pieper 1968: parallel axes meet at infinity): joints 2–4 \
          turn about lines parallel to `h = h2`, so they keep every plane ⟂ `h` a plane ⟂ `h` \
@@ -89,44 +89,7 @@ pub fn steps(plan: &Plan) -> Steps {
             after: String::new(),
             numbers: vec![vec![t("h1 · h = "), Part::number(num::dot(&h1, &k.h))]],
         },
-        Step {
-            title: "Joints 2, 3, 4: the planar chain".into(),
-            text: "As in the three-parallel family: the sum `Φ` is read on a direction \
-                   `x ⟂ h`; the point `o4` of axis 4 must reach \
-                   `w4 = E1(−θ1) G E6(−θ6) E5(−θ5) o4`, whose distance `d` from axis 2 sets \
-                   joint 3 by the law of cosines; joint 2 turns the chain onto `w4` and joint 4 \
-                   takes the rest of `Φ`."
-                .into(),
-            equations: vec![
-                "Φ = atan2(h · (x × y), x · y),   y = R1ᵀ R R6ᵀ R5ᵀ x".into(),
-                "d² = |L|² + |V|² + 2 |L| |V| cos ψ,   φ3 = φ0 ± ψ,   θ3 = s3 φ3".into(),
-                "θ4 = s4 (Φ − θ2 − φ3)".into(),
-            ],
-            after: String::new(),
-            numbers: vec![
-                vec![
-                    t("x = "),
-                    Part::direction(k.across),
-                    t(",  o4 = "),
-                    Part::point(k.on_axis_4),
-                ],
-                vec![
-                    t("|L| = "),
-                    Part::length(upper),
-                    t(" (axis 2 to axis 3),  |V| = "),
-                    Part::length(fore),
-                    t(" (axis 3 to axis 4)"),
-                ],
-                vec![
-                    t("φ0 = "),
-                    Part::angle(k.two_link.stretched),
-                    t(",  s3 = "),
-                    Part::number(k.two_link.sense),
-                    t(",  s4 = "),
-                    Part::number(k.sense4),
-                ],
-            ],
-        },
+        planar_chain_step(&k, "As in the three-parallel family. "),
     ];
     Steps {
         inputs: crate::family::data::INPUTS.to_string(),

@@ -12,7 +12,7 @@
 //! tool-first family solves them through [`plan::target_step`].
 
 pub mod plan;
-mod steps;
+pub(crate) mod steps;
 
 use std::f64::consts::PI;
 
@@ -500,33 +500,15 @@ impl FamilyModule for ThreeParallel {
 
     fn conditions(&self, plan: &Plan, _geometry: &Geometry) -> Vec<Vec<Part>> {
         let arm = &plan.arm;
-        let k = Layout::of(arm);
-        let (upper, fore) = k.two_link.lengths();
-        let a = |i: usize, j: usize| Part::angle(line_angle(arm, i, j));
-        vec![
-            vec![
-                Part::text("axes 2, 3, 4 parallel: angles "),
-                a(2, 3),
-                Part::text(" (2–3) and "),
-                a(3, 4),
-                Part::text(" (3–4)"),
-            ],
-            vec![Part::text("axis 1 ∦ axes 2–4: angle "), a(1, 2)],
-            vec![Part::text("axis 5 ∦ axes 2–4: angle "), a(2, 5)],
+        parallel_conditions(
+            plan,
             vec![
                 Part::text("axes 5 and 6 meet: "),
                 Part::length(gap(arm, 5, 6)),
                 Part::text(" apart, at angle "),
-                a(5, 6),
+                Part::angle(line_angle(arm, 5, 6)),
             ],
-            vec![
-                Part::text("an upper arm and a forearm: "),
-                Part::length(upper),
-                Part::text(" from axis 2 to axis 3, "),
-                Part::length(fore),
-                Part::text(" from axis 3 to axis 4"),
-            ],
-        ]
+        )
     }
 
     fn steps(&self, plan: &Plan) -> Steps {
@@ -609,4 +591,32 @@ impl FamilyModule for ThreeParallel {
             ],
         }
     }
+}
+
+/// The review's conditions of an arm whose axes 2–4 are parallel (this family's and the
+/// offset-hand family's), with the line on axes 5 and 6 (`hand`) in its place.
+pub(crate) fn parallel_conditions(plan: &Plan, hand: Vec<Part>) -> Vec<Vec<Part>> {
+    let arm = &plan.arm;
+    let k = Layout::of(arm);
+    let (upper, fore) = k.two_link.lengths();
+    let a = |i: usize, j: usize| Part::angle(line_angle(arm, i, j));
+    vec![
+        vec![
+            Part::text("axes 2, 3, 4 parallel: angles "),
+            a(2, 3),
+            Part::text(" (2–3) and "),
+            a(3, 4),
+            Part::text(" (3–4)"),
+        ],
+        vec![Part::text("axis 1 ∦ axes 2–4: angle "), a(1, 2)],
+        vec![Part::text("axis 5 ∦ axes 2–4: angle "), a(2, 5)],
+        hand,
+        vec![
+            Part::text("an upper arm and a forearm: "),
+            Part::length(upper),
+            Part::text(" from axis 2 to axis 3, "),
+            Part::length(fore),
+            Part::text(" from axis 3 to axis 4"),
+        ],
+    ]
 }

@@ -17,7 +17,6 @@ pub fn steps(plan: &Plan) -> Steps {
     let a5 = num::dot(&h6_perp, &k.h);
     let b5 = num::dot(&num::cross(&h5, &h6), &k.h);
     let shift = c56 * num::dot(&h5, &k.h);
-    let (upper, fore) = k.two_link.lengths();
     let method = vec![
         "**Three parallel axes** (Pieper 1968: parallel axes meet at infinity): joints 2–4 \
          turn about lines parallel to `h = h2`, so they keep every point's component along `h` \
@@ -102,47 +101,55 @@ pub fn steps(plan: &Plan) -> Steps {
                 ],
             ],
         },
-        Step {
-            title: "Joints 2, 3, 4: the planar chain".into(),
-            text: "The sum `Φ` is read on a direction `x ⟂ h`; the point `o4` of axis 4 must \
-                   reach `w4 = E1(−θ1) G E6(−θ6) E5(−θ5) o4`, whose distance `d` from axis 2 \
-                   sets joint 3 by the law of cosines; joint 2 turns the chain onto `w4` \
-                   (subproblem 1) and joint 4 takes the rest of `Φ`."
-                .into(),
-            equations: vec![
-                "Φ = atan2(h · (x × y), x · y),   y = R1ᵀ R R6ᵀ R5ᵀ x".into(),
-                "d² = |L|² + |V|² + 2 |L| |V| cos ψ,   φ3 = φ0 ± ψ,   θ3 = s3 φ3".into(),
-                "θ4 = s4 (Φ − θ2 − φ3)".into(),
-            ],
-            after: String::new(),
-            numbers: vec![
-                vec![
-                    t("x = "),
-                    Part::direction(k.across),
-                    t(",  o4 = "),
-                    Part::point(k.on_axis_4),
-                ],
-                vec![
-                    t("|L| = "),
-                    Part::length(upper),
-                    t(" (axis 2 to axis 3),  |V| = "),
-                    Part::length(fore),
-                    t(" (axis 3 to axis 4)"),
-                ],
-                vec![
-                    t("φ0 = "),
-                    Part::angle(k.two_link.stretched),
-                    t(",  s3 = "),
-                    Part::number(k.two_link.sense),
-                    t(",  s4 = "),
-                    Part::number(k.sense4),
-                ],
-            ],
-        },
+        planar_chain_step(&k, ""),
     ];
     Steps {
         inputs: crate::family::data::INPUTS.to_string(),
         method,
         steps,
+    }
+}
+
+/// The review step of joints 2–4 (this family's and the offset-hand family's), with the plan's
+/// constants; `lead` opens its text.
+pub(crate) fn planar_chain_step(k: &Layout, lead: &str) -> Step {
+    let (upper, fore) = k.two_link.lengths();
+    Step {
+        title: "Joints 2, 3, 4: the planar chain".into(),
+        text: format!(
+            "{lead}The sum `Φ` is read on a direction `x ⟂ h`; the point `o4` of axis 4 \
+             must reach `w4 = E1(−θ1) G E6(−θ6) E5(−θ5) o4`, whose distance `d` from axis \
+             2 sets joint 3 by the law of cosines; joint 2 turns the chain onto `w4` \
+             (subproblem 1) and joint 4 takes the rest of `Φ`."
+        ),
+        equations: vec![
+            "Φ = atan2(h · (x × y), x · y),   y = R1ᵀ R R6ᵀ R5ᵀ x".into(),
+            "d² = |L|² + |V|² + 2 |L| |V| cos ψ,   φ3 = φ0 ± ψ,   θ3 = s3 φ3".into(),
+            "θ4 = s4 (Φ − θ2 − φ3)".into(),
+        ],
+        after: String::new(),
+        numbers: vec![
+            vec![
+                t("x = "),
+                Part::direction(k.across),
+                t(",  o4 = "),
+                Part::point(k.on_axis_4),
+            ],
+            vec![
+                t("|L| = "),
+                Part::length(upper),
+                t(" (axis 2 to axis 3),  |V| = "),
+                Part::length(fore),
+                t(" (axis 3 to axis 4)"),
+            ],
+            vec![
+                t("φ0 = "),
+                Part::angle(k.two_link.stretched),
+                t(",  s3 = "),
+                Part::number(k.two_link.sense),
+                t(",  s4 = "),
+                Part::number(k.sense4),
+            ],
+        ],
     }
 }
