@@ -259,8 +259,9 @@ fn singularities(model: &Model, e: &BaseParallelEvidence) -> Vec<Singularity> {
                  parallel axes, so the arm loses a degree of freedom there",
                 show_joint_values(model, 4, &e.aligned_at)
             ),
-            equation: "`|h × R4 h5| = 0`: two roots of the plane–line quartic merge there; the \
-                       candidates are flagged at the reach limit"
+            equation: "`|h × R4 h5| = 0`: the plane–line step has no isolated roots there and \
+                       the solver holds no joint at its reference, so a pose at the alignment \
+                       may be answered with no solution (keep joint 4 away from these values)"
                 .into(),
         }
     }];
