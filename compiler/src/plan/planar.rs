@@ -257,3 +257,14 @@ pub fn distance_squared(g: &mut Graph, h: [f64; 3], w: V3) -> Id {
     let w_perp = vec3::sub(g, w, along);
     vec3::dot(g, w_perp, w_perp)
 }
+
+/// The angle about `h` that turns the direction `x` (⟂ `h`) onto the direction `y`:
+/// `atan2(h · (x × y), x · y)`. A planar chain's sum of joint angles is read this way from the
+/// orientation it must produce (`y` is `x` carried by that orientation).
+pub fn angle_about(g: &mut Graph, h: [f64; 3], x: [f64; 3], y: V3) -> Id {
+    let cos = vec3::dot_const(g, x, y);
+    let xk = vec3::constant(g, x);
+    let xy = vec3::cross(g, xk, y);
+    let sin = vec3::dot_const(g, h, xy);
+    g.atan2(sin, cos)
+}

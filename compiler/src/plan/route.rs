@@ -105,6 +105,21 @@ pub fn copy_penalty(
     g.select(same, big, zero)
 }
 
+/// `residual` plus [`copy_penalty`] for each `earlier` root (its turns and its residual) that
+/// the turns `later` repeat: the residual a root is routed with after the roots before it.
+pub fn penalised<'a>(
+    g: &mut Graph,
+    residual: Id,
+    earlier: impl IntoIterator<Item = (&'a [(Id, Id)], Id)>,
+    later: &[(Id, Id)],
+    thresholds: (Id, Id),
+) -> Id {
+    earlier.into_iter().fold(residual, |sum, before| {
+        let penalty = copy_penalty(g, before, later, thresholds);
+        g.add(sum, penalty)
+    })
+}
+
 /// Routes `roots` (at most four) to the four [`SLOTS`]; `tol` is the length tolerance a real
 /// root's residual is within.
 pub fn route(g: &mut Graph, roots: &[Root], tol: f64) -> Vec<Slot> {

@@ -44,7 +44,7 @@ use crate::plan::graph::{Graph, Id};
 use crate::plan::planar::{self, TwoLink};
 use crate::plan::plane_line::{self, Aim, PlaneLine};
 use crate::plan::pose::{self, Motion};
-use crate::plan::route::{self, copy_penalty};
+use crate::plan::route;
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::vec3::{self, num, V3};
 use crate::plan::{unit_pair, Plan};
@@ -156,11 +156,8 @@ fn hands(g: &mut Graph, arm: &Arm, k: &Layout, motion: &Motion) -> Vec<Hand> {
         let (cl, sl) = r.line_turn;
         let turn5 = (cl, g.neg(sl));
         let turns = [turn5, r.plane_turn];
-        let mut residual = r.residual;
-        for (before, res) in &earlier {
-            let penalty = copy_penalty(g, (before, *res), &turns, (near, tol2));
-            residual = g.add(residual, penalty);
-        }
+        let before = earlier.iter().map(|(t, res)| (&t[..], *res));
+        let residual = route::penalised(g, r.residual, before, &turns, (near, tol2));
         earlier.push((turns, r.residual));
         let side = {
             let d = vec3::constant(g, k.side_direction);
@@ -261,11 +258,7 @@ fn joints_1_to_3(
         let c = vec3::rotate_back(g, h6, c6, s6, b);
         motion.rotate(g, c)
     };
-    let cos_sum = vec3::dot_const(g, k.across, y);
-    let xk = vec3::constant(g, k.across);
-    let xy = vec3::cross(g, xk, y);
-    let sin_sum = vec3::dot_const(g, k.h, xy);
-    let sum = g.atan2(sin_sum, cos_sum);
+    let sum = planar::angle_about(g, k.h, k.across, y);
     let sum = g.name(
         sum,
         &format!("phi123_{tag}"),

@@ -52,7 +52,7 @@ use armforge_runtime::{Elbow, Shoulder};
 use crate::plan::arm::Arm;
 use crate::plan::graph::{Graph, Id};
 use crate::plan::quartic::{at, away_from_zero, squared, trig_roots, Linear};
-use crate::plan::route::{self, copy_penalty};
+use crate::plan::route;
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::vec3::{self, num, V3};
 use crate::plan::{sign, turn_by, unit_pair, ArmSolution, Target, Turn};
@@ -717,12 +717,8 @@ pub(super) fn route(
     let tie_weight = g.constant(1e-6 * scale);
     let mut routed: Vec<route::Root> = Vec::with_capacity(roots.len());
     for (j, r) in roots.iter().enumerate() {
-        let mut residual = r.residual;
-        for earlier in &roots[..j] {
-            let before = (&earlier.turns[1..3], earlier.residual);
-            let penalty = copy_penalty(g, before, &r.turns[1..3], (near, tol2));
-            residual = g.add(residual, penalty);
-        }
+        let before = roots[..j].iter().map(|e| (&e.turns[1..3], e.residual));
+        let residual = route::penalised(g, r.residual, before, &r.turns[1..3], (near, tol2));
         // Nearest the shoulder plane last; θ3 breaks ties (symmetric arms put two roots
         // equally far from the plane).
         let side = g.abs(r.facing);

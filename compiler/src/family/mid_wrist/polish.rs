@@ -27,11 +27,11 @@ use crate::family::general::plan::Circle;
 use crate::plan::graph::{Graph, Id};
 use crate::plan::pose;
 use crate::plan::quartic::away_from_zero;
-use crate::plan::route::copy_penalty;
+use crate::plan::route;
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::turn_by;
 use crate::plan::vec3::{self, num, V3};
-use crate::plan::{unit_pair, Arm, Target};
+use crate::plan::{unit_pair, Arm, ArmSolution, Target};
 
 /// One position root of the chain, polished: the turns of joints 5, 6, 1, its miss
 /// `|x − b|²`, and `≥ 0` when joint 6 is free.
@@ -233,17 +233,19 @@ pub fn polish(
 /// `copies` (sum of squared differences of cosines and sines) of an earlier real root (miss
 /// within `tol²`) is that root again, and fails its check. The polish can bring the two halves
 /// of a near-double root together after the quartic's routing told them apart.
-pub fn drop_copies(g: &mut Graph, roots: &mut [crate::plan::ArmSolution], copies: f64, tol: f64) {
+pub fn drop_copies(g: &mut Graph, roots: &mut [ArmSolution], copies: f64, tol: f64) {
     let near = g.exact_once(copies);
     let tol2 = g.exact(tol * tol);
+    let turns =
+        |r: &ArmSolution| -> Vec<(Id, Id)> { r.undo.iter().map(|t| (t.cos, t.sin)).collect() };
     for j in 1..roots.len() {
-        let later: Vec<(Id, Id)> = roots[j].undo.iter().map(|t| (t.cos, t.sin)).collect();
-        for i in 0..j {
-            let earlier: Vec<(Id, Id)> = roots[i].undo.iter().map(|t| (t.cos, t.sin)).collect();
-            let residual = roots[i].checks[0].have_squared;
-            let penalty = copy_penalty(g, (&earlier, residual), &later, (near, tol2));
-            let check = &mut roots[j].checks[0];
-            check.have_squared = g.add(check.have_squared, penalty);
-        }
+        let later = turns(&roots[j]);
+        let earlier: Vec<(Vec<(Id, Id)>, Id)> = roots[..j]
+            .iter()
+            .map(|r| (turns(r), r.checks[0].have_squared))
+            .collect();
+        let before = earlier.iter().map(|(t, res)| (&t[..], *res));
+        let check = &mut roots[j].checks[0];
+        check.have_squared = route::penalised(g, check.have_squared, before, &later, (near, tol2));
     }
 }

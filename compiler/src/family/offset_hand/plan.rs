@@ -41,7 +41,7 @@ use crate::plan::decouple::{self, Target};
 use crate::plan::graph::{Graph, Id};
 use crate::plan::plane_line::{self, Aim, PlaneLine};
 use crate::plan::pose::{self, Motion};
-use crate::plan::route::{self, copy_penalty};
+use crate::plan::route;
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::vec3::{self, num, V3};
 use crate::plan::wrist::ALIGNED_SINE;
@@ -242,12 +242,11 @@ fn slots(
     let tie_weight = g.constant(1e-6 * arm.scale);
     let mut routed = Vec::with_capacity(4);
     for (j, (r, h)) in roots.iter().zip(&hands).enumerate() {
-        let mut residual = r.residual;
-        for (earlier, e) in roots[..j].iter().zip(&hands) {
-            let before = (&e.turns[1..3], earlier.residual);
-            let penalty = copy_penalty(g, before, &h.turns[1..3], (near, tol2));
-            residual = g.add(residual, penalty);
-        }
+        let before = roots[..j]
+            .iter()
+            .zip(&hands)
+            .map(|(earlier, e)| (&e.turns[1..3], earlier.residual));
+        let residual = route::penalised(g, r.residual, before, &h.turns[1..3], (near, tol2));
         let side = g.abs(h.shoulder);
         let tie = g.mul(tie_weight, h.angles[1]);
         let rank = g.sub(tie, side);

@@ -420,11 +420,7 @@ pub(crate) fn joints_2_to_4(
         let c = motion.rotate(g, b);
         vec3::rotate_back(g, h1, c1, s1, c)
     };
-    let cos_sum = vec3::dot_const(g, k.across, y);
-    let xk = vec3::constant(g, k.across);
-    let xy = vec3::cross(g, xk, y);
-    let sin_sum = vec3::dot_const(g, k.h, xy);
-    let sum = g.atan2(sin_sum, cos_sum);
+    let sum = planar::angle_about(g, k.h, k.across, y);
     let sum = g.name(
         sum,
         &format!("phi234_{tag}"),
