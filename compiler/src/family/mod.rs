@@ -25,6 +25,7 @@ pub mod decoupled_steps;
 pub mod elbow;
 pub mod general;
 pub mod mid_wrist;
+pub mod middle_slide;
 pub mod mirror;
 pub mod offset_hand;
 pub mod polar;
@@ -70,6 +71,9 @@ pub enum Family {
     MidWrist,
     /// Six revolute joints, axes 1–3 parallel (joints 4–6 by the plane–line quartic).
     BaseParallel,
+    /// R P R (joint 2 a slide), spherical wrist: a quartic in joint 3, or a quadratic in the
+    /// slide when it is ⟂ axis 1.
+    MiddleSlide,
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
@@ -114,6 +118,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,
+    &middle_slide::MIDDLE_SLIDE,
     &tool_first::TOOL_FIRST,
 ];
 

@@ -160,7 +160,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 18] {
+pub fn fixtures() -> [Fixture; 20] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -205,6 +205,8 @@ pub fn fixtures() -> [Fixture; 18] {
         fixture("tool_first_layout", Family::ToolFirst, 24, plain),
         fixture("tool_first_general", Family::ToolFirst, 25, plain),
         fixture("base_parallel", Family::BaseParallel, 26, plain),
+        fixture("middle_slide_level", Family::MiddleSlide, 28, plain),
+        fixture("middle_slide_tilted", Family::MiddleSlide, 29, plain),
     ]
 }
 
@@ -360,6 +362,39 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
             (
                 revolute(h1, p1, range),
                 revolute(h2, p2, range),
+                revolute(h3, p3, range),
+                c,
+            )
+        }
+        Family::MiddleSlide => {
+            // Even seeds: the slide ⟂ axis 1 (level), axis 3 not ∥ axis 1; odd seeds: the
+            // slide at least 11.5° off ⟂ axis 1 (tilted), axis 3 anywhere. The wrist center
+            // off axis 3.
+            let level = seed % 2 == 0;
+            let e2 = if level {
+                rng.perpendicular(&h1)
+            } else {
+                let e = rng.direction_away_from(&h1, 0.95);
+                if num::dot(&e, &h1).abs() < 0.2 {
+                    num::unit(&num::add(&e, &num::scale(&h1, 0.4)))
+                } else {
+                    e
+                }
+            };
+            let h3 = if level {
+                rng.direction_away_from(&h1, 0.9)
+            } else {
+                rng.direction()
+            };
+            let p3 = num::add(&p1, &rng.point(0.5));
+            let fore = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));
+            let c = num::add(
+                &num::add(&p3, &fore),
+                &num::scale(&h3, rng.range(-0.2, 0.2)),
+            );
+            (
+                revolute(h1, p1, range),
+                prismatic(e2, [-2.0, 2.0]),
                 revolute(h3, p3, range),
                 c,
             )

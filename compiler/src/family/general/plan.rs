@@ -265,7 +265,7 @@ pub fn rules(arm: &Arm, k: &Constants) -> (ShoulderRule, ElbowRule) {
 }
 
 /// `d · (const, cos θ, sin θ)` pieces of `d · r(θ3)` for a constant direction `d`.
-pub(super) fn along(g: &mut Graph, r: &Circle, d: [f64; 3]) -> Linear {
+pub fn along(g: &mut Graph, r: &Circle, d: [f64; 3]) -> Linear {
     [
         vec3::dot_const(g, d, r.r0),
         vec3::dot_const(g, d, r.rc),
@@ -310,9 +310,12 @@ pub fn solve_on(
 
 /// The wrist-center target seen from `f1`: `u = c_t − f1`, `ρ = |u|²`, `ζ = h1 · u`.
 #[derive(Clone, Copy)]
-pub(super) struct Aim {
+pub struct Aim {
+    /// The target from the chosen point of axis 1.
     pub u: V3,
+    /// `ρ = |u|²`.
     pub rho: Id,
+    /// `ζ = h1 · u`.
     pub zeta: Id,
 }
 
@@ -332,7 +335,7 @@ pub(super) fn aim(g: &mut Graph, k: &Constants, ct: V3) -> Aim {
 }
 
 /// `|r|² = K0 + K1 cos θ3 + K2 sin θ3` (`rc ⟂ rs`, `|rc| = |rs|`).
-pub(super) fn radius_terms(g: &mut Graph, r: &Circle) -> Linear {
+pub fn radius_terms(g: &mut Graph, r: &Circle) -> Linear {
     let two = g.constant(2.0);
     let r00 = vec3::dot(g, r.r0, r.r0);
     let rcc = vec3::dot(g, r.rc, r.rc);
@@ -342,7 +345,7 @@ pub(super) fn radius_terms(g: &mut Graph, r: &Circle) -> Linear {
 }
 
 /// `≥ 0` when the target is on axis 1 (joint 1 is free: the reference is used).
-pub(super) fn on_axis_1(g: &mut Graph, aim: &Aim, tol: f64) -> Id {
+pub fn on_axis_1(g: &mut Graph, aim: &Aim, tol: f64) -> Id {
     let zz = g.mul(aim.zeta, aim.zeta);
     let radial2 = g.sub(aim.rho, zz);
     let floor = g.exact(tol * tol);

@@ -4,7 +4,7 @@
 
 use crate::fk::joint_motion;
 use crate::math::{cross, dot, sin_cos, sub, tolerance, Growth, Scalar};
-use crate::model::Joint;
+use crate::model::{Joint, JointKind};
 use crate::solution::{Branch, Elbow, Shoulder, Wrist, JOINTS};
 
 /// How the shoulder label is read from joint values.
@@ -56,7 +56,8 @@ pub enum ElbowRule<S: Scalar = f64> {
     },
     /// General arms (joints 1–3 of no named family): the sign of the position Jacobian's
     /// determinant `det[h1 × (w − p1), h2 × (w − p2), h3 × (w − p3)]` with the axes and the
-    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone);
+    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone; a
+    /// slide's column is its direction, as for the middle-slide family's joint 2);
     /// `Up` when it equals `up` (zero counts as positive).
     Aspect {
         /// The sign that means `Up`.
@@ -255,9 +256,14 @@ fn branch_read_forward<S: Scalar>(
             let e2 = joint_motion(&joints[1], q[1]);
             let h3 = e2.rotate(&joints[2].axis);
             let p3 = e2.transform_point(&joints[2].point);
-            let d1 = cross(&joints[0].axis, &sub(&w, &joints[0].point));
-            let d2 = cross(&joints[1].axis, &sub(&w, &joints[1].point));
-            let d3 = cross(&h3, &sub(&w, &p3));
+            // A slide's column is its direction (the middle-slide family's joint 2).
+            let column = |kind: JointKind, h: &[S; 3], p: &[S; 3]| match kind {
+                JointKind::Prismatic => *h,
+                JointKind::Revolute => cross(h, &sub(&w, p)),
+            };
+            let d1 = column(joints[0].kind, &joints[0].axis, &joints[0].point);
+            let d2 = column(joints[1].kind, &joints[1].axis, &joints[1].point);
+            let d3 = column(joints[2].kind, &h3, &p3);
             if sign(dot(&d1, &cross(&d2, &d3))) == up {
                 Elbow::Up
             } else {
