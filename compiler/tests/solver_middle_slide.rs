@@ -149,3 +149,25 @@ fn degenerate_arms_are_rejected_with_their_reason() {
     });
     assert!(one_line.contains("turn about one line"), "{one_line}");
 }
+
+#[test]
+fn the_boom_swiveller_reaches_four_positions() {
+    // The invented example arm of our lab: a level telescoping boom through a turning column.
+    let path =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../arms/boom-swiveller-axes.toml");
+    let model = armforge_compiler::pipeline::load_model(&path, "boom-swiveller")
+        .unwrap_or_else(|e| panic!("{e}"));
+    let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));
+    assert_eq!(solver.plan().arm.family, Family::MiddleSlide);
+    let mut rng = SampleRng::new(31);
+    let (mut eight, poses) = (0, sample_count(300));
+    for _ in 0..poses {
+        let q = sample_configuration(&model, &mut rng);
+        if check_round_trip(&solver, &model, &q, 8, "boom-swiveller") == 8 {
+            eight += 1;
+        }
+    }
+    eprintln!("boom-swiveller: {eight} of {poses} poses with 8 solutions");
+    // Two swivel angles × two boom lengths (within the stroke) on some poses.
+    assert!(eight > 0);
+}

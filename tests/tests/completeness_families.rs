@@ -325,3 +325,38 @@ fn general_arms_with_parallel_shoulder_axes_miss_no_numerical_solution() {
     );
     assert!(found > 0);
 }
+
+/// The middle-slide arms of one layout (even sampler seeds: the slide ⟂ axis 1; odd: tilted),
+/// a full turn each way on every revolute joint.
+fn check_middle_slide(level: bool) -> (usize, usize) {
+    let options = SampleOptions {
+        revolute_range: TAU,
+        ..SampleOptions::default()
+    };
+    check_models(Family::MiddleSlide, |seed| {
+        sample_arm(Family::MiddleSlide, 2 * seed + u64::from(!level), &options)
+    })
+}
+
+#[test]
+fn middle_slide_arms_with_a_tilted_slide_miss_no_numerical_solution() {
+    // R P R, the slide not ⟂ axis 1: the quartic in joint 3 must list every solution
+    // Levenberg–Marquardt converges to (within the slide's stroke).
+    let (found, listed) = check_middle_slide(false);
+    println!(
+        "middle slide, tilted: Levenberg–Marquardt found {found} distinct solutions, armforge \
+         lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn middle_slide_arms_with_a_level_slide_miss_no_numerical_solution() {
+    // R P R, the slide ⟂ axis 1: joint 3 from the height, the slide from a quadratic.
+    let (found, listed) = check_middle_slide(true);
+    println!(
+        "middle slide, level: Levenberg–Marquardt found {found} distinct solutions, armforge \
+         lists {listed}"
+    );
+    assert!(found > 0);
+}

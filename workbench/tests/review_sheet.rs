@@ -94,6 +94,77 @@ fn bench_elbow_numbers_match_hand_worked_values() {
     assert!((expected + 78.83512).abs() < 1e-5);
 }
 
+/// The roots of `f` on `[−π, π]` by sign changes on a fine grid and bisection (independent of
+/// the plan's closed forms).
+fn grid_roots(f: impl Fn(f64) -> f64) -> Vec<f64> {
+    let n = 20000;
+    let pi = std::f64::consts::PI;
+    let mut out = Vec::new();
+    for i in 0..n {
+        let (mut lo, mut hi) = (
+            -pi + 2.0 * pi * i as f64 / n as f64,
+            -pi + 2.0 * pi * (i + 1) as f64 / n as f64,
+        );
+        if f(lo).signum() == f(hi).signum() {
+            continue;
+        }
+        for _ in 0..80 {
+            let mid = 0.5 * (lo + hi);
+            if f(mid).signum() == f(lo).signum() {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        out.push(0.5 * (lo + hi));
+    }
+    out
+}
+
+/// A middle-slide arm's joints 1–3 from the sheet's equations: (1) and (2) of §4 with its
+/// constants `p0, pc, ps, e2, k`; roots of joint 3 by [`grid_roots`].
+fn middle_slide_solutions(arm: &Arm, ct: [f64; 3]) -> Vec<[f64; 3]> {
+    use armforge_compiler::family::middle_slide::plan::{constants, Layout};
+    let k = constants(arm);
+    let u = num::sub(&ct, &k.p1);
+    let (rho, zeta) = (num::dot(&u, &u), num::dot(&k.h1, &u));
+    let p = |t: f64| {
+        num::add(
+            &k.p0,
+            &num::add(&num::scale(&k.pc, t.cos()), &num::scale(&k.ps, t.sin())),
+        )
+    };
+    let mut joints_2_3 = Vec::new();
+    match k.layout {
+        Layout::Tilted => {
+            let d2 = |t: f64| (zeta - num::dot(&k.h1, &p(t))) / k.k;
+            let f = |t: f64| {
+                let x = num::add(&p(t), &num::scale(&k.e2, d2(t)));
+                num::dot(&x, &x) - rho
+            };
+            joints_2_3.extend(grid_roots(f).into_iter().map(|t| (d2(t), t)));
+        }
+        Layout::Level => {
+            for t in grid_roots(|t| num::dot(&k.h1, &p(t)) - zeta) {
+                let beta = num::dot(&k.e2, &p(t));
+                let gamma = num::dot(&p(t), &p(t)) - rho;
+                let root = (beta * beta - gamma).max(0.0).sqrt();
+                joints_2_3.push((-beta + root, t));
+                joints_2_3.push((-beta - root, t));
+            }
+        }
+    }
+    joints_2_3
+        .into_iter()
+        .map(|(d2, t3)| {
+            let x = num::add(&p(t3), &num::scale(&k.e2, d2));
+            let xp = num::sub(&x, &num::scale(&k.h1, num::dot(&k.h1, &x)));
+            let t1 = num::dot(&k.h1, &num::cross(&xp, &u)).atan2(num::dot(&xp, &u));
+            [t1, d2, t3]
+        })
+        .collect()
+}
+
 /// Joints 1–3 (model values) from the sheet's equations with the sheet's constants, for a
 /// wrist-center target `ct`, every branch.
 fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64; 3]> {
@@ -225,6 +296,9 @@ fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64
                 let t1 = num::dot(&k.h1, &num::cross(&wp, &u)).atan2(num::dot(&wp, &u));
                 out.push([t1, t2, t3]);
             }
+        }
+        Family::MiddleSlide => {
+            return middle_slide_solutions(arm, ct);
         }
         Family::Cartesian => {
             let inv = armforge_compiler::family::cartesian::plan::slides_inverse(arm);

@@ -516,8 +516,8 @@ fn carry(
 
 /// Routes each root to the slot of its label ([`crate::plan::route`]): among roots with one
 /// label a real one first, and among those the one farthest from the plane ⟂ `e2`, ties
-/// broken by `θ3`. A root that repeats an earlier real one (joint 3 and the slide within
-/// about 1e-5) fails its check.
+/// broken by `θ3`. On a tilted slide, a root that repeats an earlier real one (joint 3 and the
+/// slide within about 1e-5) fails its check.
 fn route_roots(
     g: &mut Graph,
     k: &Constants,
@@ -530,8 +530,17 @@ fn route_roots(
     let tie_weight = g.constant(1e-6 * scale);
     let mut routed: Vec<route::Root> = Vec::with_capacity(roots.len());
     for (j, r) in roots.iter().enumerate() {
-        let before = roots[..j].iter().map(|e| (&e.apart[..], e.residual));
-        let residual = route::penalised(g, r.residual, before, &r.apart, (near, tol2));
+        // A level slide's roots come from a plane equation and a quadratic in closed form:
+        // two of them are never one root found twice, however near (a double root is the
+        // same values, which the finishing merges). A tilted slide's quartic gives a complex
+        // pair's real part, which the Newton step can bring next to a real root.
+        let residual = match k.layout {
+            Layout::Tilted => {
+                let before = roots[..j].iter().map(|e| (&e.apart[..], e.residual));
+                route::penalised(g, r.residual, before, &r.apart, (near, tol2))
+            }
+            Layout::Level => r.residual,
+        };
         let side = g.abs(r.side);
         let tie = g.mul(tie_weight, r.values[2]);
         let rank = g.sub(tie, side);
@@ -558,13 +567,8 @@ fn route_roots(
             );
             let v = &slot.values;
             let names = ["q1", "d2", "q3"];
-            let angles = [0, 1, 2].map(|j| {
-                g.name(
-                    v[j],
-                    &format!("{}_{tag}", names[j]),
-                    "this label's root",
-                )
-            });
+            let angles = [0, 1, 2]
+                .map(|j| g.name(v[j], &format!("{}_{tag}", names[j]), "this label's root"));
             ArmSolution {
                 angles,
                 undo: vec![
