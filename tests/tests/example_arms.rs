@@ -158,10 +158,10 @@ fn every_example_arm_meets_pieper_s_criterion() {
 fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
     let mut families = BTreeSet::new();
     for (path, model) in arms() {
-        if meeting_of(&model, 3).is_none() {
+        let Some(center) = meeting_of(&model, 3) else {
             // Not a spherical wrist at joints 4–6 (checked above).
             continue;
-        }
+        };
         let kinds: Vec<JointKind> = (0..3).map(|i| model.joints[i].joint.kind).collect();
         let (h1, h2, h3) = (axis(&model, 0), axis(&model, 1), axis(&model, 2));
         use JointKind::{Prismatic as P, Revolute as R};
@@ -200,6 +200,22 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
                     "{path}: independent slides"
                 );
                 "cartesian"
+            }
+            [R, P, R] => {
+                // Pieper's criterion: the wrist's axes meet. Joint 3 must move the wrist
+                // center and, with the slide ⟂ axis 1, change its height along axis 1.
+                let from_3 = cross(&h3, &sub(&center, &model.joints[2].joint.point));
+                assert!(
+                    norm(&from_3) > NOT_PARALLEL,
+                    "{path}: wrist center off axis 3"
+                );
+                if dot(&h1, &h2).abs() < ON_LINE {
+                    assert!(
+                        norm(&cross(&h1, &h3)) > NOT_PARALLEL,
+                        "{path}: level slide, axis 3 ∦ axis 1"
+                    );
+                }
+                "middle-slide"
             }
             other => panic!("{path}: first three joints {other:?} are no solvable family"),
         };
