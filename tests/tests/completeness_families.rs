@@ -326,6 +326,12 @@ fn general_arms_with_parallel_shoulder_axes_miss_no_numerical_solution() {
     assert!(found > 0);
 }
 
+#[test]
+fn carriage_arms_miss_no_numerical_solution() {
+    // P P R: two slides and a turn (slides of ±3 m, well beyond the sampled poses' need).
+    let (found, listed) = check_family(Family::Carriage);
+    println!(
+        "carriage: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
 /// The middle-slide arms of one layout (even sampler seeds: the slide ⟂ axis 1; odd: tilted),
 /// a full turn each way on every revolute joint.
 fn check_middle_slide(level: bool) -> (usize, usize) {

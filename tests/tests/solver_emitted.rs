@@ -48,6 +48,7 @@ emitted!(mid_wrist, "generated/mid_wrist.rs");
 emitted!(tool_first_layout, "generated/tool_first_layout.rs");
 emitted!(tool_first_general, "generated/tool_first_general.rs");
 emitted!(base_parallel, "generated/base_parallel.rs");
+emitted!(carriage, "generated/carriage.rs");
 emitted!(middle_slide_level, "generated/middle_slide_level.rs");
 emitted!(middle_slide_tilted, "generated/middle_slide_tilted.rs");
 
@@ -154,6 +155,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(tool_first_layout), "tool_first_layout"),
         compare(api!(tool_first_general), "tool_first_general"),
         compare(api!(base_parallel), "base_parallel"),
+        compare(api!(carriage), "carriage"),
         compare(api!(middle_slide_level), "middle_slide_level"),
         compare(api!(middle_slide_tilted), "middle_slide_tilted"),
     ];
