@@ -14,6 +14,7 @@
 //! family's arms read from the tool: the tool-first family solves them through
 //! [`plan::target_step`].
 
+pub mod axes_4_5;
 pub mod plan;
 mod steps;
 
@@ -84,23 +85,6 @@ fn reject(
         measures,
     };
     Recognition::Degenerate(ctx.reject(reason, joint, Vec::new()))
-}
-
-/// A rejection of an arm that is not degenerate but of a placement the family does not
-/// build: reported only when no family recognises the arm and none finds it degenerate.
-fn not_built(
-    ctx: &Context,
-    name: &'static str,
-    joint: usize,
-    message: String,
-    measures: Vec<(&'static str, Quantity)>,
-) -> Recognition {
-    let reason = Reason::Family {
-        name,
-        message,
-        measures,
-    };
-    Recognition::NotMine(Some(ctx.reject(reason, joint, Vec::new())))
 }
 
 /// Axis 4 parallel to axes 1–3, or two of the parallel axes one line.
@@ -183,28 +167,17 @@ fn check_last_axes(ctx: &Context) -> Option<Recognition> {
         ));
     }
     let (gap_4_5, parallel_4_5) = (ctx.gap(4, 5), ctx.parallel(4, 5));
-    if gap_4_5 <= tol || parallel_4_5 {
-        let how = if parallel_4_5 {
-            format!("are parallel (angle {})", u.show_angle(ctx.angle(4, 5)))
-        } else {
-            format!("meet ({} apart)", u.show_length(gap_4_5))
-        };
-        // Not a degenerate arm: a placement this family does not build, so the reason of a
-        // family that nearly has the arm's shape (a spherical wrist's, say) goes first.
-        return Some(not_built(
+    if parallel_4_5 && gap_4_5 <= tol {
+        return Some(reject(
             ctx,
-            "axes_4_and_5_in_one_plane",
+            "axes_4_5_one_line",
             5,
             format!(
-                "axes 1–3 are parallel, but the axes of joints 4 and 5 {how}: every root of the \
-                 plane–line quartic of joints 5 and 6 is then double and joint 5 cannot be \
-                 told from it; Pieper's criterion still gives a closed form for this placement, \
-                 which armforge's base-parallel family does not build"
+                "axes 4 and 5 are one line ({} apart): joints 4 and 5 turn about the same \
+                 line, so the arm lacks one degree of freedom everywhere (a degenerate arm)",
+                u.show_length(gap_4_5)
             ),
-            vec![
-                ("gap", Quantity::Length(gap_4_5)),
-                ("angle", Quantity::Angle(ctx.angle(4, 5))),
-            ],
+            vec![("distance", Quantity::Length(gap_4_5))],
         ));
     }
     let gap_5_6 = ctx.gap(5, 6);
