@@ -276,3 +276,111 @@ fn joint_1_is_held_where_axis_3_is_on_axis_1() {
         "{near:?}"
     );
 }
+
+/// Axes 4–6 parallel with axes 2 and 3 meeting or parallel: the mirror of a base-parallel arm
+/// whose axes 4 and 5 meet or are parallel, read from the tool by the tool-first family
+/// through the base-parallel family's target step. Round trips on random arms.
+#[test]
+fn mirrored_placements_round_trip_read_from_the_tool() {
+    for placement in [Placement::Meeting, Placement::Parallel] {
+        let (mut full, mut poses) = (0, 0);
+        for seed in 0..arms() {
+            let inner = sample_base_parallel_placed(seed, &SampleOptions::default(), placement);
+            let mut model = armforge_compiler::family::mirror::mirrored_model(&inner);
+            let mut rng = SampleRng::new(7700 + seed);
+            model.tool = rng.pose(0.5);
+            model.base = rng.pose(1.0);
+            let geometry = classify(&model, &Tolerances::default())
+                .unwrap_or_else(|r| panic!("arm {seed}: rejected: {r}"));
+            assert_eq!(geometry.family, Family::ToolFirst, "arm {seed}");
+            assert_eq!(geometry.solutions.total, 8, "arm {seed}");
+            let solver = Solver::from_plan(build_plan(&model, &geometry));
+            for _ in 0..5 {
+                let q = sample_configuration(&model, &mut rng);
+                let what = format!("axes 4–6 parallel, axes 2–3 {placement:?}, arm {seed}");
+                poses += 1;
+                if check_round_trip(&solver, &model, &q, 8, &what) == 8 {
+                    full += 1;
+                }
+            }
+        }
+        eprintln!("axes 4–6 parallel, axes 2 and 3 {placement:?}: {full} of {poses} with 8");
+        assert!(full > 0, "{placement:?}");
+    }
+}
+
+/// The model values θ about unit `axis` at which `x · R(axis, θ) c = 0` (none when the
+/// equation `A cos θ + B sin θ + C = 0` has no root).
+fn zero_turns(axis: [f64; 3], x: [f64; 3], c: [f64; 3]) -> Vec<f64> {
+    use armforge_compiler::plan::vec3::num;
+    let along = num::dot(&axis, &c);
+    let c_perp = num::sub(&c, &num::scale(&axis, along));
+    let (a, b) = (num::dot(&x, &c_perp), num::dot(&x, &num::cross(&axis, &c)));
+    let k = num::dot(&x, &axis) * along;
+    let r = a.hypot(b);
+    if r < 1e-6 || k.abs() >= r {
+        return Vec::new();
+    }
+    let (phi, d) = (b.atan2(a), (-k / r).acos());
+    vec![phi + d, phi - d]
+}
+
+/// Near-singular bands: joint 4 approaching a value at which two solutions of joints 4 and 5
+/// merge (axes 4 and 5 meeting: `γ = 0` in Paden–Kahan subproblem 2, where `h · R4 (h4 × h5)
+/// = 0`; parallel: the two roots of joint 5's equation, where `h · R4 (d × h5) = 0`), at
+/// distances 1e-2 … 1e-8 rad. Every solution reproduces the pose to 1e-9 and `solve_near`
+/// from the configuration comes back to it within `1e-9 + 1e-10 / δ` rad (two roots `δ`
+/// apart: rounding moves them by about its size over `δ`).
+#[test]
+fn near_singular_bands_of_joints_4_and_5_keep_the_pose() {
+    use armforge_compiler::plan::vec3::num;
+    for placement in [Placement::Meeting, Placement::Parallel] {
+        let (mut checked, mut worst, mut worst_pose) = (0, 0.0f64, 0.0f64);
+        for seed in 0..arms() / 4 {
+            let (model, geometry) = placed_arm(seed, placement);
+            let solver = Solver::from_plan(build_plan(&model, &geometry));
+            let reach = solver.plan().arm.scale;
+            let joint = |i: usize| &model.joints[i].joint;
+            let (h, h4, h5) = (
+                num::unit(&joint(0).axis),
+                num::unit(&joint(3).axis),
+                num::unit(&joint(4).axis),
+            );
+            let c = match placement {
+                Placement::Meeting => num::cross(&h4, &h5),
+                _ => num::cross(&num::sub(&joint(3).point, &joint(4).point), &h5),
+            };
+            let mut rng = SampleRng::new(7900 + seed);
+            for at in zero_turns(h4, h, c) {
+                for delta in [1e-2, 1e-4, 1e-6, 1e-8] {
+                    let mut q = sample_configuration(&model, &mut rng);
+                    q[3] = joint(3).joint_value(at + delta);
+                    let target = model.forward(&q);
+                    let what = format!("{placement:?} arm {seed}, joint 4 at {delta:e} from {at}");
+                    let solutions = solver
+                        .solve(&target)
+                        .unwrap_or_else(|r| panic!("{what}: unsolved: {r}"));
+                    for s in &solutions {
+                        let err = common::pose_error(&solver.forward(&s.joints), &target, reach);
+                        assert!(err < 1e-9, "{what}: {s:?} misses by {err:e}");
+                    }
+                    let near = solver
+                        .solve_near(&target, &q)
+                        .unwrap_or_else(|r| panic!("{what}: solve_near: {r}"));
+                    let err = common::pose_error(&solver.forward(&near.joints), &target, reach);
+                    assert!(err < 1e-9, "{what}: solve_near misses by {err:e}");
+                    let gap = common::joint_gap(&model, &near.joints, &q);
+                    assert!(gap < 1e-9 + 1e-10 / delta, "{what}: {gap:e} from {q:?}");
+                    worst = worst.max(gap * delta);
+                    worst_pose = worst_pose.max(err);
+                    checked += 1;
+                }
+            }
+        }
+        eprintln!(
+            "{placement:?} near-singular bands: {checked} poses, joints within {worst:.1e} / δ, \
+             pose within {worst_pose:.1e}"
+        );
+        assert!(checked > 0, "{placement:?}");
+    }
+}

@@ -100,7 +100,7 @@ fn every_example_arm_meets_pieper_s_criterion() {
     // The example arms use six shapes: a spherical wrist (axes 4–6 meet), a wrist at the
     // base (axes 1–3 meet), a wrist in the middle (axes 2–4 meet), three parallel axes 2–4
     // (axes 5 and 6 meeting or apart), three parallel axes 3–5, and three parallel axes 1–3
-    // with axes 4 and 5 apart.
+    // with axes 4 and 5 apart (meeting or parallel are solved too).
     for (path, model) in arms() {
         assert_eq!(model.joints.len(), 6, "{path}");
         if let Some(center) = meeting_of(&model, 3) {

@@ -1,5 +1,6 @@
 //! The base-parallel plan: axes 1, 2 and 3 parallel (Pieper 1968: parallel axes meet at
-//! infinity), axes 4, 5 and 6 any revolute axes with axes 4 and 5 apart and not parallel.
+//! infinity), axes 4, 5 and 6 any revolute axes with axes 4 and 5 apart and not parallel
+//! (meeting or parallel axes 4 and 5: [`super::axes_4_5`], chosen in [`target_step`]).
 //!
 //! # Joints 5 and 6: a plane and a line
 //!
