@@ -364,3 +364,13 @@ fn base_parallel_arms_with_parallel_axes_4_and_5_miss_no_numerical_solution() {
     );
     assert!(found > 0);
 }
+
+#[test]
+fn carriage_arms_miss_no_numerical_solution() {
+    // P P R: two slides and a turn (slides of ±3 m, well beyond the sampled poses' need).
+    let (found, listed) = check_family(Family::Carriage);
+    println!(
+        "carriage: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}

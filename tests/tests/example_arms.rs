@@ -201,6 +201,15 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
                 );
                 "cartesian"
             }
+            [P, P, R] => {
+                // Joint 3 alone moves the wrist center across the slides: its axis is not
+                // along their normal (common practice for a carriage carrying a hinge).
+                let normal = cross(&h1, &h2);
+                assert!(norm(&normal) > NOT_PARALLEL, "{path}: slides not parallel");
+                let along = dot(&h3, &normal).abs() / norm(&normal);
+                assert!(along < 1.0 - ON_LINE, "{path}: axis 3 not ⟂ both slides");
+                "carriage"
+            }
             other => panic!("{path}: first three joints {other:?} are no solvable family"),
         };
         families.insert(family);

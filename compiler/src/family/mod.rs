@@ -18,6 +18,7 @@
 
 pub mod base_parallel;
 pub mod base_wrist;
+pub mod carriage;
 pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
@@ -73,6 +74,8 @@ pub enum Family {
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
+    /// P P R (two slides, then a turn whose axis is not ⟂ both), spherical wrist.
+    Carriage,
 }
 
 impl Family {
@@ -115,6 +118,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,
     &tool_first::TOOL_FIRST,
+    &carriage::CARRIAGE,
 ];
 
 /// What a family found on an arm it recognises.

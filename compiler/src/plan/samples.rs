@@ -161,7 +161,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 18] {
+pub fn fixtures() -> [Fixture; 19] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -206,6 +206,7 @@ pub fn fixtures() -> [Fixture; 18] {
         fixture("tool_first_layout", Family::ToolFirst, 24, plain),
         fixture("tool_first_general", Family::ToolFirst, 25, plain),
         fixture("base_parallel", Family::BaseParallel, 26, plain),
+        fixture("carriage", Family::Carriage, 27, plain),
     ]
 }
 
@@ -387,6 +388,22 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 prismatic(u1, [-3.0, 3.0]),
                 prismatic(u2, [-3.0, 3.0]),
                 prismatic(u3, [-3.0, 3.0]),
+                c,
+            )
+        }
+        Family::Carriage => {
+            // Two slides apart, axis 3 not ⟂ both (away from their normal), the wrist center
+            // off axis 3.
+            let u2 = rng.direction_away_from(&h1, 0.9);
+            let normal = num::unit(&num::cross(&h1, &u2));
+            let h3 = rng.direction_away_from(&normal, 0.9);
+            let p3 = rng.point(0.3);
+            let arm = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));
+            let c = num::add(&num::add(&p3, &arm), &num::scale(&h3, rng.range(-0.2, 0.2)));
+            (
+                prismatic(h1, [-3.0, 3.0]),
+                prismatic(u2, [-3.0, 3.0]),
+                revolute(h3, p3, range),
                 c,
             )
         }
