@@ -371,6 +371,10 @@ fn carriage_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::Carriage);
     println!(
         "carriage: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
 /// The middle-slide arms of one layout (even sampler seeds: the slide ⟂ axis 1; odd: tilted),
 /// a full turn each way on every revolute joint.
 fn check_middle_slide(level: bool) -> (usize, usize) {

@@ -317,6 +317,7 @@ fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64
                     s3.atan2(c3),
                 ]);
             }
+        }
         Family::MiddleSlide => {
             return middle_slide_solutions(arm, ct);
         }
