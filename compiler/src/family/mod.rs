@@ -73,6 +73,9 @@ pub enum Family {
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
+    /// R R P of no named family (the slide not ⟂ axis 2), spherical wrist: the general
+    /// family's reduction with joint 3 a slide, a quartic in the slide's value.
+    GeneralSlide,
 }
 
 impl Family {
@@ -114,6 +117,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,
+    &general::slide::GENERAL_SLIDE,
     &tool_first::TOOL_FIRST,
 ];
 

@@ -303,6 +303,12 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("common_normal_5_6", e.common_normal_5_6);
             put("angle_5_6", e.angle_5_6);
         }
+        ArmEvidence::GeneralSlide(e) => {
+            put("common_normal_1_2", e.common_normal_1_2);
+            put("angle_1_2", e.angle_1_2);
+            put("slide_angle", e.slide_angle_to_axis_2);
+            put("wrist_center_from_axis_2", e.wrist_center_from_axis_2);
+        }
         ArmEvidence::ToolFirst(e) => {
             // The mirrored arm's numbers: it stands where the arm stands.
             let mirrored = armforge_compiler::family::mirror::mirrored_model(model);

@@ -4,7 +4,7 @@
 
 use crate::fk::joint_motion;
 use crate::math::{cross, dot, sin_cos, sub, tolerance, Growth, Scalar};
-use crate::model::Joint;
+use crate::model::{Joint, JointKind};
 use crate::solution::{Branch, Elbow, Shoulder, Wrist, JOINTS};
 
 /// How the shoulder label is read from joint values.
@@ -56,8 +56,9 @@ pub enum ElbowRule<S: Scalar = f64> {
     },
     /// General arms (joints 1–3 of no named family): the sign of the position Jacobian's
     /// determinant `det[h1 × (w − p1), h2 × (w − p2), h3 × (w − p3)]` with the axes and the
-    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone);
-    /// `Up` when it equals `up` (zero counts as positive).
+    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone;
+    /// when joint 3 slides, its column is the slide's direction `h3`); `Up` when it equals
+    /// `up` (zero counts as positive).
     Aspect {
         /// The sign that means `Up`.
         up: S,
@@ -257,7 +258,11 @@ fn branch_read_forward<S: Scalar>(
             let p3 = e2.transform_point(&joints[2].point);
             let d1 = cross(&joints[0].axis, &sub(&w, &joints[0].point));
             let d2 = cross(&joints[1].axis, &sub(&w, &joints[1].point));
-            let d3 = cross(&h3, &sub(&w, &p3));
+            // A slide's column is its direction.
+            let d3 = match joints[2].kind {
+                JointKind::Prismatic => h3,
+                JointKind::Revolute => cross(&h3, &sub(&w, &p3)),
+            };
             if sign(dot(&d1, &cross(&d2, &d3))) == up {
                 Elbow::Up
             } else {
