@@ -280,8 +280,8 @@ fn degenerate_arms_are_rejected_with_the_reason() {
 #[test]
 fn the_tray_telescope_reaches_four_positions() {
     // An invented example arm of our lab: the telescope makes about 61° with the hinge axis.
-    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("../arms/tray-telescope-axes.toml");
+    let path =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../arms/tray-telescope-axes.toml");
     let model = armforge_compiler::pipeline::load_model(&path, "tray-telescope")
         .unwrap_or_else(|e| panic!("{e}"));
     let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));

@@ -48,6 +48,7 @@ emitted!(mid_wrist, "generated/mid_wrist.rs");
 emitted!(tool_first_layout, "generated/tool_first_layout.rs");
 emitted!(tool_first_general, "generated/tool_first_general.rs");
 emitted!(base_parallel, "generated/base_parallel.rs");
+emitted!(carriage, "generated/carriage.rs");
 emitted!(general_slide, "generated/general_slide.rs");
 emitted!(general_slide_meeting, "generated/general_slide_meeting.rs");
 emitted!(
@@ -158,6 +159,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(tool_first_layout), "tool_first_layout"),
         compare(api!(tool_first_general), "tool_first_general"),
         compare(api!(base_parallel), "base_parallel"),
+        compare(api!(carriage), "carriage"),
         compare(api!(general_slide), "general_slide"),
         compare(api!(general_slide_meeting), "general_slide_meeting"),
         compare(api!(general_slide_parallel), "general_slide_parallel"),

@@ -64,6 +64,8 @@ pub enum ArmEvidence {
     BaseParallel(crate::family::base_parallel::BaseParallelEvidence),
     /// Read from the tool: the mirrored arm solves any target.
     ToolFirst(crate::family::tool_first::ToolFirstEvidence),
+    /// P P R: two slides, then a turn.
+    Carriage(crate::family::carriage::CarriageEvidence),
     /// R R P of no named family (the slide not ⟂ axis 2).
     GeneralSlide(crate::family::general::slide::GeneralSlideEvidence),
 }

@@ -388,8 +388,9 @@ fn describe(model: &Model, reason: &Reason) -> String {
             ),
         },
         Reason::UnsupportedPattern { pattern } => format!(
-            "joints 1–3 are {pattern}; armforge's families of joints 1–3 are elbow (R R R), \
-             polar (R R P), cylindrical (R P P) and cartesian (P P P)"
+            "joints 1–3 are {pattern}; armforge's families of joints 1–3 with a spherical wrist \
+             are {}",
+            super::family::decoupled_families()
         ),
         Reason::Family { message, .. } => message.clone(),
     }
@@ -403,7 +404,7 @@ fn describe_note(model: &Model, note: &Note) -> String {
              parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
              armforge's three-parallel and offset-hand families build it for parallel axes 2, \
              3 and 4 (axes 5 and 6 meeting or apart), its base-parallel family for parallel \
-             axes 1, 2 and 3 (axes 4 and 5 apart), and its tool-first family for parallel axes \
+             axes 1, 2 and 3 (axes 4 and 5 apart, meeting or parallel), and its tool-first family for parallel axes \
              3, 4 and 5 or 4, 5 and 6 (the same shapes read from the tool), six revolute joints \
              each",
             first,

@@ -18,6 +18,7 @@
 
 pub mod base_parallel;
 pub mod base_wrist;
+pub mod carriage;
 pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
@@ -73,6 +74,8 @@ pub enum Family {
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
+    /// P P R (two slides, then a turn whose axis is not ⟂ both), spherical wrist.
+    Carriage,
     /// R R P of no named family (the slide not ⟂ axis 2), spherical wrist: the general
     /// family's reduction with joint 3 a slide, a quartic in the slide's value.
     GeneralSlide,
@@ -119,6 +122,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &base_parallel::BASE_PARALLEL,
     &general::slide::GENERAL_SLIDE,
     &tool_first::TOOL_FIRST,
+    &carriage::CARRIAGE,
 ];
 
 /// What a family found on an arm it recognises.
