@@ -373,6 +373,8 @@ fn carriage_arms_miss_no_numerical_solution() {
         "carriage: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
     );
     assert!(found > 0);
+}
+
 #[test]
 fn general_slide_arms_miss_no_numerical_solution() {
     // R R P with the slide not ⟂ axis 2: axes 1 and 2 apart (the quartic in the slide),

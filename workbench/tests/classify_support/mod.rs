@@ -310,6 +310,7 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("swing", e.swing);
             put("highest", joint_value(model, 2, e.extremes[0]));
             put("lowest", joint_value(model, 2, e.extremes[1]));
+        }
         ArmEvidence::GeneralSlide(e) => {
             put("common_normal_1_2", e.common_normal_1_2);
             put("angle_1_2", e.angle_1_2);
