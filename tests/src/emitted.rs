@@ -107,7 +107,6 @@ emitted_arms! {
     // arms before it keep their samples.
     drawer_puller = "../arms/drawer-puller-axes.toml";
     bath_dipper = "../arms/bath-dipper-axes.toml";
-    tray_telescope = "../arms/tray-telescope-axes.toml";
 }
 
 emitted_arms! {
@@ -129,7 +128,6 @@ emitted_arms! {
     tray_tipper_f32 = "../arms/tray-tipper-axes.toml";
     drawer_puller_f32 = "../arms/drawer-puller-axes.toml";
     bath_dipper_f32 = "../arms/bath-dipper-axes.toml";
-    tray_telescope_f32 = "../arms/tray-telescope-axes.toml";
 }
 
 /// The bench arm (`arms/bench-elbow-dh.toml`) through the compiler: its plan and module, as

@@ -135,8 +135,6 @@ checked_arm!(drawer_f64 = "../../arms/drawer-puller-axes.toml", f64);
 checked_arm!(drawer_f32 = "../../arms/drawer-puller-axes.toml", f32);
 checked_arm!(dipper_f64 = "../../arms/bath-dipper-axes.toml", f64);
 checked_arm!(dipper_f32 = "../../arms/bath-dipper-axes.toml", f32);
-checked_arm!(telescope_f64 = "../../arms/tray-telescope-axes.toml", f64);
-checked_arm!(telescope_f32 = "../../arms/tray-telescope-axes.toml", f32);
 
 /// One checked arm: its name, `run` and `sizes`.
 type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
@@ -177,8 +175,6 @@ fn main() {
         ("drawer f32", drawer_f32::run, drawer_f32::sizes),
         ("dipper f64", dipper_f64::run, dipper_f64::sizes),
         ("dipper f32", dipper_f32::run, dipper_f32::sizes),
-        ("telescope f64", telescope_f64::run, telescope_f64::sizes),
-        ("telescope f32", telescope_f32::run, telescope_f32::sizes),
     ];
     let counts: Vec<usize> = arms.iter().map(|(_, run, _)| run(q)).collect();
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");
