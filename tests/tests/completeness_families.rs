@@ -375,6 +375,36 @@ fn carriage_arms_miss_no_numerical_solution() {
     assert!(found > 0);
 }
 
+#[test]
+fn general_slide_arms_miss_no_numerical_solution() {
+    // R R P with the slide not ⟂ axis 2: axes 1 and 2 apart (the quartic in the slide),
+    // meeting and parallel.
+    for (options, what) in [
+        (SampleOptions::default(), "apart"),
+        (
+            SampleOptions {
+                shoulder_axes_meet: true,
+                ..SampleOptions::default()
+            },
+            "meeting",
+        ),
+        (
+            SampleOptions {
+                shoulder_axes_parallel: true,
+                ..SampleOptions::default()
+            },
+            "parallel",
+        ),
+    ] {
+        let (found, listed) = check_arms(Family::GeneralSlide, options);
+        println!(
+            "general-slide, axes 1 and 2 {what}: Levenberg–Marquardt found {found} distinct \
+             solutions, armforge lists {listed}"
+        );
+        assert!(found > 0);
+    }
+}
+
 /// The middle-slide arms of one layout (even sampler seeds: the slide ⟂ axis 1; odd: tilted),
 /// a full turn each way on every revolute joint.
 fn check_middle_slide(level: bool) -> (usize, usize) {
