@@ -62,6 +62,8 @@ pub enum ArmEvidence {
     MidWrist(crate::family::mid_wrist::MidWristEvidence),
     /// Axes 1–3 parallel.
     BaseParallel(crate::family::base_parallel::BaseParallelEvidence),
+    /// P R R with axes 2 and 3 skew.
+    BaseSlide(crate::family::base_slide::BaseSlideEvidence),
     /// Read from the tool: the mirrored arm solves any target.
     ToolFirst(crate::family::tool_first::ToolFirstEvidence),
 }

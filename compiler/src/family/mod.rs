@@ -17,6 +17,7 @@
 #![allow(clippy::result_large_err)]
 
 pub mod base_parallel;
+pub mod base_slide;
 pub mod base_wrist;
 pub mod cartesian;
 pub mod cylindrical;
@@ -73,6 +74,8 @@ pub enum Family {
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
+    /// P R R with axes 2 and 3 skew, spherical wrist: a quartic in the slide.
+    BaseSlide,
 }
 
 impl Family {
@@ -114,6 +117,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,
+    &base_slide::BASE_SLIDE,
     &tool_first::TOOL_FIRST,
 ];
 

@@ -364,6 +364,33 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 c,
             )
         }
+        Family::BaseSlide => {
+            // A slide, then axes 2 and 3 apart along their common normal and not parallel,
+            // the wrist center off axis 3.
+            let e1 = h1;
+            let h2 = rng.direction();
+            let p2 = num::add(&p1, &rng.point(0.3));
+            let h3 = rng.direction_away_from(&h2, 0.9);
+            let normal = num::unit(&num::cross(&h2, &h3));
+            let p3 = num::add(
+                &num::add(&p2, &num::scale(&normal, rng.range(0.05, 0.4) * rng.sign())),
+                &num::add(
+                    &num::scale(&h2, rng.range(-0.3, 0.3)),
+                    &num::scale(&h3, rng.range(-0.3, 0.3)),
+                ),
+            );
+            let fore = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));
+            let c = num::add(
+                &num::add(&p3, &fore),
+                &num::scale(&h3, rng.range(-0.2, 0.2)),
+            );
+            (
+                prismatic(e1, [-3.0, 3.0]),
+                revolute(h2, p2, range),
+                revolute(h3, p3, range),
+                c,
+            )
+        }
         Family::ThreeParallel
         | Family::OffsetHand
         | Family::BaseWrist

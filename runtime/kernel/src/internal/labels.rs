@@ -56,7 +56,8 @@ pub enum ElbowRule<S: Scalar = f64> {
     },
     /// General arms (joints 1–3 of no named family): the sign of the position Jacobian's
     /// determinant `det[h1 × (w − p1), h2 × (w − p2), h3 × (w − p3)]` with the axes and the
-    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone);
+    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone;
+    /// when joint 1 is a slide, as on a base-slide arm, its column is its direction `e1`);
     /// `Up` when it equals `up` (zero counts as positive).
     Aspect {
         /// The sign that means `Up`.
@@ -255,7 +256,12 @@ fn branch_read_forward<S: Scalar>(
             let e2 = joint_motion(&joints[1], q[1]);
             let h3 = e2.rotate(&joints[2].axis);
             let p3 = e2.transform_point(&joints[2].point);
-            let d1 = cross(&joints[0].axis, &sub(&w, &joints[0].point));
+            // A slide's column is its direction (a base-slide arm's joint 1).
+            let d1 = if joints[0].kind == crate::model::JointKind::Prismatic {
+                joints[0].axis
+            } else {
+                cross(&joints[0].axis, &sub(&w, &joints[0].point))
+            };
             let d2 = cross(&joints[1].axis, &sub(&w, &joints[1].point));
             let d3 = cross(&h3, &sub(&w, &p3));
             if sign(dot(&d1, &cross(&d2, &d3))) == up {
