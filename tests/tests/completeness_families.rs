@@ -325,3 +325,14 @@ fn general_arms_with_parallel_shoulder_axes_miss_no_numerical_solution() {
     );
     assert!(found > 0);
 }
+
+#[test]
+fn base_slide_arms_miss_no_numerical_solution() {
+    // P R R with axes 2 and 3 skew: the slide's quartic must list every solution
+    // Levenberg–Marquardt converges to within the slide's stroke.
+    let (found, listed) = check_family(Family::BaseSlide);
+    println!(
+        "base-slide: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
