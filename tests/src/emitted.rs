@@ -106,6 +106,7 @@ emitted_arms! {
     // Out of file-name order: the round-trip tests seed each arm by its place here, and the
     // arms before it keep their samples.
     drawer_puller = "../arms/drawer-puller-axes.toml";
+    bench_rail_picker = "../arms/bench-rail-picker-axes.toml";
 }
 
 emitted_arms! {
@@ -126,6 +127,7 @@ emitted_arms! {
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
     tray_tipper_f32 = "../arms/tray-tipper-axes.toml";
     drawer_puller_f32 = "../arms/drawer-puller-axes.toml";
+    bench_rail_picker_f32 = "../arms/bench-rail-picker-axes.toml";
 }
 
 /// The bench arm (`arms/bench-elbow-dh.toml`) through the compiler: its plan and module, as

@@ -160,7 +160,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 18] {
+pub fn fixtures() -> [Fixture; 19] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -205,6 +205,7 @@ pub fn fixtures() -> [Fixture; 18] {
         fixture("tool_first_layout", Family::ToolFirst, 24, plain),
         fixture("tool_first_general", Family::ToolFirst, 25, plain),
         fixture("base_parallel", Family::BaseParallel, 26, plain),
+        fixture("base_slide", Family::BaseSlide, 27, plain),
     ]
 }
 

@@ -133,6 +133,8 @@ checked_arm!(turner_f32 = "../../arms/plate-turner-axes.toml", f32);
 checked_arm!(tipper_f32 = "../../arms/tray-tipper-axes.toml", f32);
 checked_arm!(drawer_f64 = "../../arms/drawer-puller-axes.toml", f64);
 checked_arm!(drawer_f32 = "../../arms/drawer-puller-axes.toml", f32);
+checked_arm!(rail_f64 = "../../arms/bench-rail-picker-axes.toml", f64);
+checked_arm!(rail_f32 = "../../arms/bench-rail-picker-axes.toml", f32);
 
 /// One checked arm: its name, `run` and `sizes`.
 type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
@@ -142,7 +144,7 @@ type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
 /// footprint README reports: bytes of a solution set and of one solution.
 fn main() {
     let q = [0.1, -0.4, 0.7, 0.2, 0.5, -0.3];
-    let arms: [Checked; 28] = [
+    let arms: [Checked; 30] = [
         ("bench f64", bench_f64::run, bench_f64::sizes),
         ("bench f32", bench_f32::run, bench_f32::sizes),
         ("ceiling f64", ceiling_f64::run, ceiling_f64::sizes),
@@ -171,6 +173,8 @@ fn main() {
         ("turner f32", turner_f32::run, turner_f32::sizes),
         ("drawer f64", drawer_f64::run, drawer_f64::sizes),
         ("drawer f32", drawer_f32::run, drawer_f32::sizes),
+        ("rail f64", rail_f64::run, rail_f64::sizes),
+        ("rail f32", rail_f32::run, rail_f32::sizes),
     ];
     let counts: Vec<usize> = arms.iter().map(|(_, run, _)| run(q)).collect();
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");

@@ -83,9 +83,8 @@ fn slide(k: &Constants) -> Step {
                 Part::Area(qc),
                 t(",  qs = "),
                 Part::Area(qs),
-                t(",  Δ = "),
-                Part::number(k.delta),
-                t(" m³"),
+                t(",  Δ/ℓ³ = "),
+                Part::number(k.delta / k.ell.powi(3)),
             ],
         ],
     }
