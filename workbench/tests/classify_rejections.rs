@@ -234,6 +234,10 @@ fn unsupported_pattern() {
     );
     // P R R: joint 2 is where it leaves the only pattern starting with P (P P P).
     assert_eq!(e.joint, Some(2));
+    // The message lists the registry's families of joints 1–3, each with its pattern.
+    for family in ["elbow (R R R)", "cylindrical (R P P)", "cartesian (P P P)"] {
+        assert!(e.to_string().contains(family), "{family}: {e}");
+    }
     // R P R: joint 3 is where it leaves the cylindrical pattern (R P P).
     let mut m = arms::plain_elbow();
     m.joints[1].joint.kind = armforge_runtime::JointKind::Prismatic;

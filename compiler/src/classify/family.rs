@@ -35,6 +35,21 @@ pub fn unrecognised(ctx: &Context) -> Rejection {
     )
 }
 
+/// The families that solve joints 1–3 behind a spherical wrist, as "name (pattern)" in the
+/// registry's order: "elbow (R R R), polar (R R P), … and general (R R R)".
+pub fn decoupled_families() -> String {
+    let named: Vec<String> = REGISTRY
+        .iter()
+        .filter(|m| m.position_step().is_some())
+        .map(|m| format!("{} ({})", m.name(), m.pattern()))
+        .collect();
+    match named.split_last() {
+        Some((last, [])) => last.clone(),
+        Some((last, rest)) => format!("{} and {last}", rest.join(", ")),
+        None => String::new(),
+    }
+}
+
 /// Joint 1 must be able to turn the wrist center into the plane joints 2–3 keep it in.
 pub fn check_axis_1_not_parallel_to_2(ctx: &Context) -> Result<(), Rejection> {
     if ctx.parallel(1, 2) {

@@ -388,8 +388,9 @@ fn describe(model: &Model, reason: &Reason) -> String {
             ),
         },
         Reason::UnsupportedPattern { pattern } => format!(
-            "joints 1–3 are {pattern}; armforge's families of joints 1–3 are elbow (R R R), \
-             polar (R R P), cylindrical (R P P) and cartesian (P P P)"
+            "joints 1–3 are {pattern}; armforge's families of joints 1–3 with a spherical wrist \
+             are {}",
+            super::family::decoupled_families()
         ),
         Reason::Family { message, .. } => message.clone(),
     }

@@ -56,9 +56,9 @@ pub enum ElbowRule<S: Scalar = f64> {
     },
     /// General arms (joints 1–3 of no named family): the sign of the position Jacobian's
     /// determinant `det[h1 × (w − p1), h2 × (w − p2), h3 × (w − p3)]` with the axes and the
-    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone;
-    /// when joint 1 is a slide, as on a base-slide arm, its column is its direction `e1`);
-    /// `Up` when it equals `up` (zero counts as positive).
+    /// wrist center `w` at the configuration (joint 1 undone, which leaves the sign alone; a
+    /// slide's column is its direction `hi`); `Up` when it equals `up` (zero counts as
+    /// positive).
     Aspect {
         /// The sign that means `Up`.
         up: S,
@@ -132,6 +132,17 @@ fn passes_through<S: Scalar>(joint: &Joint<S>, c: &[S; 3]) -> bool {
     let off = cross(&joint.axis, &d);
     let scale = dot(&d, &d).max(S::ONE);
     dot(&off, &off) <= tolerance::<S>(1e-24, Growth::Linear) * scale
+}
+
+/// The velocity of the point `w` per unit of `joint`'s value, with the joint's axis `h`
+/// through `p` where the configuration has carried it: `h × (w − p)` for a turn, `h` itself
+/// for a slide (a column of the position Jacobian).
+fn velocity_column<S: Scalar>(joint: &Joint<S>, h: &[S; 3], p: &[S; 3], w: &[S; 3]) -> [S; 3] {
+    if joint.kind == crate::model::JointKind::Revolute {
+        cross(h, &sub(w, p))
+    } else {
+        *h
+    }
 }
 
 /// Rodrigues' rotation of `v` about unit `h` by `angle`.
@@ -256,14 +267,9 @@ fn branch_read_forward<S: Scalar>(
             let e2 = joint_motion(&joints[1], q[1]);
             let h3 = e2.rotate(&joints[2].axis);
             let p3 = e2.transform_point(&joints[2].point);
-            // A slide's column is its direction (a base-slide arm's joint 1).
-            let d1 = if joints[0].kind == crate::model::JointKind::Prismatic {
-                joints[0].axis
-            } else {
-                cross(&joints[0].axis, &sub(&w, &joints[0].point))
-            };
-            let d2 = cross(&joints[1].axis, &sub(&w, &joints[1].point));
-            let d3 = cross(&h3, &sub(&w, &p3));
+            let d1 = velocity_column(&joints[0], &joints[0].axis, &joints[0].point, &w);
+            let d2 = velocity_column(&joints[1], &joints[1].axis, &joints[1].point, &w);
+            let d3 = velocity_column(&joints[2], &h3, &p3, &w);
             if sign(dot(&d1, &cross(&d2, &d3))) == up {
                 Elbow::Up
             } else {
