@@ -44,7 +44,10 @@ fn base_slide_arms_round_trip_with_at_most_eight_solutions() {
 /// four places on some poses (4 positions × 2 wrists).
 #[test]
 fn the_bench_rail_picker_reaches_four_positions() {
-    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../arms/bench-rail-picker-axes.toml");
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../arms/bench-rail-picker-axes.toml"
+    );
     let model = armforge_compiler::pipeline::load_model(std::path::Path::new(path), "arm")
         .unwrap_or_else(|d| panic!("{d}"));
     let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));
@@ -94,7 +97,9 @@ fn the_side_and_the_aspect_separate_most_roots() {
             }
         }
     }
-    eprintln!("base-slide: the geometric labels separate the 4 roots on {separated} of {four} poses");
+    eprintln!(
+        "base-slide: the geometric labels separate the 4 roots on {separated} of {four} poses"
+    );
     assert!(four > 0);
     assert!(separated * 10 >= four * 8, "{separated} of {four}");
 }
@@ -134,7 +139,10 @@ fn parallel_axes_2_and_3_are_not_built_or_degenerate() {
     model.joints[2].joint.axis = model.joints[1].joint.axis;
     let (kind, message, degenerate) = family_verdict(&model);
     assert_eq!(kind, "base_slide_parallel_hinges", "{message}");
-    assert!(!degenerate && message.contains("law of cosines"), "{message}");
+    assert!(
+        !degenerate && message.contains("law of cosines"),
+        "{message}"
+    );
     assert!(classify(&model, &Tolerances::default()).is_err());
     let h = model.joints[1].joint.axis;
     let e1 = armforge_compiler::plan::vec3::num::any_perpendicular(&h);
@@ -205,7 +213,10 @@ fn poses_near_merging_roots_round_trip() {
                     .iter()
                     .map(|s| common::joint_gap(&model, &s.joints, &q))
                     .fold(f64::INFINITY, f64::min);
-                assert!(near < 1e-4, "arm {seed}, ε {eps}: nearest solution {near:e} away");
+                assert!(
+                    near < 1e-4,
+                    "arm {seed}, ε {eps}: nearest solution {near:e} away"
+                );
                 checked += 1;
             }
         }

@@ -225,17 +225,29 @@ fn rrr_with_axes_1_and_2_on_one_line_is_degenerate() {
 
 #[test]
 fn unsupported_pattern() {
+    // P R R with axes 2 and 3 parallel (a lift then two parallel hinges): the base-slide
+    // family's layout it does not build, in its own words.
     let e = reject(&arms::slide_first());
+    assert!(e.to_string().contains("parallel hinges"), "{e}");
+    // P P R: joint 3 is where it leaves the patterns starting with P P (P P P).
+    let mut m = arms::slide_first();
+    m.joints[1].joint.kind = armforge_runtime::JointKind::Prismatic;
+    m.joints[1].joint.limits = [0.0, 0.5];
+    let e = reject(&m);
     assert_eq!(
         e.reason,
         Reason::UnsupportedPattern {
-            pattern: "P R R".into()
+            pattern: "P P R".into()
         }
     );
-    // P R R: joint 2 is where it leaves the only pattern starting with P (P P P).
-    assert_eq!(e.joint, Some(2));
+    assert_eq!(e.joint, Some(3));
     // The message lists the registry's families of joints 1–3, each with its pattern.
-    for family in ["elbow (R R R)", "cylindrical (R P P)", "cartesian (P P P)"] {
+    for family in [
+        "elbow (R R R)",
+        "cylindrical (R P P)",
+        "cartesian (P P P)",
+        "base-slide (P R R)",
+    ] {
         assert!(e.to_string().contains(family), "{family}: {e}");
     }
     // R P R: joint 3 is where it leaves the cylindrical pattern (R P P).

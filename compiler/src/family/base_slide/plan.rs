@@ -182,7 +182,11 @@ struct Aim {
 fn aim(g: &mut Graph, k: &Constants, ct: V3) -> Aim {
     let u = vec3::add_const(g, ct, num::scale(&k.f2, -1.0));
     let d0 = vec3::dot_const(g, k.e1, u);
-    let d0 = g.name(d0, "d0", "d0 = e1 · (c_t − f2): the slide at the nearest approach");
+    let d0 = g.name(
+        d0,
+        "d0",
+        "d0 = e1 · (c_t − f2): the slide at the nearest approach",
+    );
     let y_perp = {
         let along = vec3::scale_const(g, d0, k.e1);
         vec3::sub(g, u, along)
@@ -193,13 +197,21 @@ fn aim(g: &mut Graph, k: &Constants, ct: V3) -> Aim {
         let z0 = g.constant(k.z[0]);
         g.sub(h, z0)
     };
-    let l1 = g.name(l1, "l1", format!("L1 at s = 0: h2 · y⊥ − z0, z0 = {} m", tidy(k.z[0])));
+    let l1 = g.name(
+        l1,
+        "l1",
+        format!("L1 at s = 0: h2 · y⊥ − z0, z0 = {} m", tidy(k.z[0])),
+    );
     let l2 = {
         let yy = vec3::dot(g, y_perp, y_perp);
         let q0 = g.constant(k.q[0]);
         g.sub(yy, q0)
     };
-    let l2 = g.name(l2, "l2", format!("L2 at s = 0: |y⊥|² − q0, q0 = {} m²", tidy(k.q[0])));
+    let l2 = g.name(
+        l2,
+        "l2",
+        format!("L2 at s = 0: |y⊥|² − q0, q0 = {} m²", tidy(k.q[0])),
+    );
     let [_, zc, zs] = k.z;
     let [_, qc, qs] = k.q;
     let (d, l) = (k.delta, k.ell);

@@ -17,7 +17,11 @@ const METHOD: &str = "**Joints 1–3 (base-slide family)**: joint 2 keeps the wr
 /// The method and the steps, as [`super::plan`] builds them.
 pub fn steps(plan: &Plan) -> Steps {
     let k = constants(&plan.arm);
-    decoupled(plan, METHOD, vec![slide(&k), joints_3_and_2(), real_roots()])
+    decoupled(
+        plan,
+        METHOD,
+        vec![slide(&k), joints_3_and_2(), real_roots()],
+    )
 }
 
 /// The slide from the quartic.
