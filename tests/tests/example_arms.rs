@@ -201,6 +201,14 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
                 );
                 "cartesian"
             }
+            [P, R, R] => {
+                // Axes 2 and 3 skew: neither parallel nor meeting (a quartic in the slide).
+                assert!(
+                    norm(&cross(&h2, &h3)) > NOT_PARALLEL,
+                    "{path}: axes 2 and 3 not parallel"
+                );
+                "base-slide"
+            }
             other => panic!("{path}: first three joints {other:?} are no solvable family"),
         };
         families.insert(family);

@@ -154,9 +154,11 @@ fn degenerate_wrist() {
 
 #[test]
 fn first_three_meet_with_a_hand_of_no_family() {
-    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P R R: no family of joints 1–3.
+    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P P R: no family of joints 1–3
+    // (P R R is the base-slide family's).
     let mut m = arms::first_three_meet();
     m.joints[5].joint.kind = armforge_runtime::JointKind::Prismatic;
+    m.joints[4].joint.kind = armforge_runtime::JointKind::Prismatic;
     let e = reject(&m);
     assert_eq!(e.reason.kind(), "base_wrist_hand_unsolved", "{e}");
     assert!(
@@ -225,10 +227,13 @@ fn rrr_with_axes_1_and_2_on_one_line_is_degenerate() {
 
 #[test]
 fn unsupported_pattern() {
-    // P R R with axes 2 and 3 parallel (a lift then two parallel hinges): the base-slide
-    // family's layout it does not build, in its own words.
+    // P R R with axes 2 and 3 parallel and ⟂ the slide: the base-slide family's degenerate
+    // layout, in its own words.
     let e = reject(&arms::slide_first());
-    assert!(e.to_string().contains("parallel hinges"), "{e}");
+    assert!(
+        e.to_string().contains("height along the parallel axes"),
+        "{e}"
+    );
     // P P R: joint 3 is where it leaves the patterns starting with P P (P P P).
     let mut m = arms::slide_first();
     m.joints[1].joint.kind = armforge_runtime::JointKind::Prismatic;
