@@ -196,6 +196,20 @@ fn cartesian_arms_round_trip() {
 }
 
 #[test]
+fn carriage_arms_round_trip() {
+    // P P R: two roots of joint 3 × 2 wrist solutions. A pose from a configuration is within
+    // reach for both roots; the other root's slides may leave their strokes.
+    let t = round_trip(Family::Carriage, &SampleOptions::default(), Some(4));
+    assert_eq!(t.most, 4);
+    assert!(
+        t.eight * 2 > t.poses,
+        "{} of {} poses with 4",
+        t.eight,
+        t.poses
+    );
+}
+
+#[test]
 fn two_turn_limits_give_one_solution_per_branch_and_list_the_other_turns() {
     let options = SampleOptions {
         revolute_range: TAU,

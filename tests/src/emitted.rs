@@ -106,6 +106,7 @@ emitted_arms! {
     // Out of file-name order: the round-trip tests seed each arm by its place here, and the
     // arms before it keep their samples.
     drawer_puller = "../arms/drawer-puller-axes.toml";
+    bath_dipper = "../arms/bath-dipper-axes.toml";
     bench_rail_picker = "../arms/bench-rail-picker-axes.toml";
 }
 
@@ -127,6 +128,7 @@ emitted_arms! {
     tray_gantry_f32 = "../arms/tray-gantry-axes.toml";
     tray_tipper_f32 = "../arms/tray-tipper-axes.toml";
     drawer_puller_f32 = "../arms/drawer-puller-axes.toml";
+    bath_dipper_f32 = "../arms/bath-dipper-axes.toml";
     bench_rail_picker_f32 = "../arms/bench-rail-picker-axes.toml";
 }
 

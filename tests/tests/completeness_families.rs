@@ -326,6 +326,51 @@ fn general_arms_with_parallel_shoulder_axes_miss_no_numerical_solution() {
     assert!(found > 0);
 }
 
+/// Base-parallel arms with axes 4 and 5 placed as `placement` says: (found, listed).
+fn base_parallel_placed(
+    placement: armforge_compiler::family::base_parallel::axes_4_5::Placement,
+) -> (usize, usize) {
+    let options = SampleOptions {
+        revolute_range: TAU,
+        ..SampleOptions::default()
+    };
+    check_models(Family::BaseParallel, |seed| {
+        let model = armforge_compiler::plan::samples::sample_base_parallel_placed(
+            seed, &options, placement,
+        );
+        let geometry = classify(&model, &Tolerances::default()).expect("base-parallel");
+        (model, geometry)
+    })
+}
+
+#[test]
+fn base_parallel_arms_with_meeting_axes_4_and_5_miss_no_numerical_solution() {
+    use armforge_compiler::family::base_parallel::axes_4_5::Placement;
+    let (found, listed) = base_parallel_placed(Placement::Meeting);
+    println!(
+        "base-parallel, axes 4 and 5 meeting: Levenberg–Marquardt found {found} distinct \
+         solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn base_parallel_arms_with_parallel_axes_4_and_5_miss_no_numerical_solution() {
+    use armforge_compiler::family::base_parallel::axes_4_5::Placement;
+    let (found, listed) = base_parallel_placed(Placement::Parallel);
+    println!(
+        "base-parallel, axes 4 and 5 parallel: Levenberg–Marquardt found {found} distinct \
+         solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
+#[test]
+fn carriage_arms_miss_no_numerical_solution() {
+    // P P R: two slides and a turn (slides of ±3 m, well beyond the sampled poses' need).
+    let (found, listed) = check_family(Family::Carriage);
+    println!(
+        "carriage: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
 #[test]
 fn base_slide_arms_miss_no_numerical_solution() {
     // P R R with axes 2 and 3 skew: the slide's quartic must list every solution

@@ -100,7 +100,7 @@ fn every_example_arm_meets_pieper_s_criterion() {
     // The example arms use six shapes: a spherical wrist (axes 4–6 meet), a wrist at the
     // base (axes 1–3 meet), a wrist in the middle (axes 2–4 meet), three parallel axes 2–4
     // (axes 5 and 6 meeting or apart), three parallel axes 3–5, and three parallel axes 1–3
-    // with axes 4 and 5 apart.
+    // with axes 4 and 5 apart (meeting or parallel are solved too).
     for (path, model) in arms() {
         assert_eq!(model.joints.len(), 6, "{path}");
         if let Some(center) = meeting_of(&model, 3) {
@@ -201,6 +201,14 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
                 );
                 "cartesian"
             }
+            [P, P, R] => {
+                // Joint 3 alone moves the wrist center across the slides: its axis is not
+                // along their normal (common practice for a carriage carrying a hinge).
+                let normal = cross(&h1, &h2);
+                assert!(norm(&normal) > NOT_PARALLEL, "{path}: slides not parallel");
+                let along = dot(&h3, &normal).abs() / norm(&normal);
+                assert!(along < 1.0 - ON_LINE, "{path}: axis 3 not ⟂ both slides");
+                "carriage"
             [P, R, R] => {
                 // Axes 2 and 3 skew: neither parallel nor meeting (a quartic in the slide).
                 assert!(

@@ -48,6 +48,7 @@ emitted!(mid_wrist, "generated/mid_wrist.rs");
 emitted!(tool_first_layout, "generated/tool_first_layout.rs");
 emitted!(tool_first_general, "generated/tool_first_general.rs");
 emitted!(base_parallel, "generated/base_parallel.rs");
+emitted!(carriage, "generated/carriage.rs");
 emitted!(base_slide, "generated/base_slide.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
@@ -153,6 +154,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(tool_first_layout), "tool_first_layout"),
         compare(api!(tool_first_general), "tool_first_general"),
         compare(api!(base_parallel), "base_parallel"),
+        compare(api!(carriage), "carriage"),
         compare(api!(base_slide), "base_slide"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();

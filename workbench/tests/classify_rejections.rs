@@ -103,26 +103,29 @@ fn jacobian(model: &Model, q: &[f64; 6]) -> nalgebra::Matrix6<f64> {
 }
 
 #[test]
-fn three_parallel_last_axes_leave_the_arm_full_rank_but_undecoupled() {
+fn three_parallel_last_axes_leave_the_arm_full_rank_and_are_solved_from_the_tool() {
     // Three parallel axes 4–6 cannot orient the tool by themselves, but the arm is not
     // degenerate: at generic joint values its geometric Jacobian (Murray, Li & Sastry 1994,
     // §3.4; the smallest singular value from nalgebra's SVD) has full rank 6, since joints 1–3
-    // turn the tool too. The rejection says why decoupling fails without calling the arm
-    // degenerate, and that a closed form exists (Pieper 1968).
+    // turn the tool too. Read from the tool it is a base-parallel arm whose axes 4 and 5 (here
+    // 3 and 2) are parallel, which has a closed form (Pieper 1968): the tool-first family
+    // solves it, and the pose of `q` comes back with `q` among its solutions.
     let model = arms::last_three_parallel();
     let q = [0.3, -0.5, 0.9, 0.4, -0.7, 1.1];
     let sv = jacobian(&model, &q).svd(false, false).singular_values;
     assert!(sv.min() > 1e-3 * sv.max(), "singular values {sv}");
-    let e = reject(&in_mm_deg(model));
-    let text = e.to_string();
-    assert!(!text.contains("degenerate"), "{text}");
+    let model = in_mm_deg(model);
+    let geometry = classify(&model, &Tolerances::default()).expect("solved from the tool");
+    assert_eq!(geometry.family, Family::ToolFirst);
+    let solver = armforge_compiler::solver::Solver::new(&model, &geometry);
+    let solutions = solver.solve(&model.forward(&q)).expect("solved");
+    let turns = std::f64::consts::TAU;
+    let same = |a: f64, b: f64| ((a - b) - turns * ((a - b) / turns).round()).abs() < 1e-6;
     assert!(
-        text.contains("cannot orient the tool by themselves"),
-        "{text}"
-    );
-    assert!(
-        e.notes.contains(&Note::ThreeParallelAxes { first: 4 }),
-        "{e}"
+        solutions
+            .iter()
+            .any(|s| s.joints.iter().zip(&q).all(|(&a, &b)| same(a, b))),
+        "{q:?} not among {solutions:?}"
     );
 }
 
@@ -154,11 +157,11 @@ fn degenerate_wrist() {
 
 #[test]
 fn first_three_meet_with_a_hand_of_no_family() {
-    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P P R: no family of joints 1–3
-    // (P R R is the base-slide family's).
+    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P R P: no family of joints 1–3
+    // (P R R is the base-slide family's, P P R the carriage family's).
     let mut m = arms::first_three_meet();
     m.joints[5].joint.kind = armforge_runtime::JointKind::Prismatic;
-    m.joints[4].joint.kind = armforge_runtime::JointKind::Prismatic;
+    m.joints[3].joint.kind = armforge_runtime::JointKind::Prismatic;
     let e = reject(&m);
     assert_eq!(e.reason.kind(), "base_wrist_hand_unsolved", "{e}");
     assert!(
@@ -234,15 +237,15 @@ fn unsupported_pattern() {
         e.to_string().contains("height along the parallel axes"),
         "{e}"
     );
-    // P P R: joint 3 is where it leaves the patterns starting with P P (P P P).
+    // P R P: joint 3 is where it leaves the patterns starting with P R (P R R).
     let mut m = arms::slide_first();
-    m.joints[1].joint.kind = armforge_runtime::JointKind::Prismatic;
-    m.joints[1].joint.limits = [0.0, 0.5];
+    m.joints[2].joint.kind = armforge_runtime::JointKind::Prismatic;
+    m.joints[2].joint.limits = [0.0, 0.5];
     let e = reject(&m);
     assert_eq!(
         e.reason,
         Reason::UnsupportedPattern {
-            pattern: "P P R".into()
+            pattern: "P R P".into()
         }
     );
     assert_eq!(e.joint, Some(3));

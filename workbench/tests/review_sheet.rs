@@ -226,6 +226,27 @@ fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64
                 out.push([t1, t2, t3]);
             }
         }
+        Family::Carriage => {
+            // §4.2: a cos θ3 + b sin θ3 = e, then the slides by their dual directions.
+            let k = armforge_compiler::family::carriage::plan::constants(arm);
+            let e = num::dot(&k.n, &ct) - k.k0;
+            let r2 = k.a * k.a + k.b * k.b;
+            let root = (r2 - e * e).max(0.0).sqrt();
+            for sigma in [1.0, -1.0] {
+                let c3 = (k.a * e - sigma * k.b * root) / r2;
+                let s3 = (k.b * e + sigma * k.a * root) / r2;
+                let placed = num::add(
+                    &k.hub,
+                    &num::add(&num::scale(&k.spoke, c3), &num::scale(&k.spoke_turned, s3)),
+                );
+                let delta = num::sub(&ct, &placed);
+                out.push([
+                    num::dot(&k.f1, &delta),
+                    num::dot(&k.f2, &delta),
+                    s3.atan2(c3),
+                ]);
+            }
+        }
         Family::Cartesian => {
             let inv = armforge_compiler::family::cartesian::plan::slides_inverse(arm);
             let shift = num::sub(&ct, &arm.wrist_center);

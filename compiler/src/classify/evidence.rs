@@ -66,6 +66,8 @@ pub enum ArmEvidence {
     BaseSlide(crate::family::base_slide::BaseSlideEvidence),
     /// Read from the tool: the mirrored arm solves any target.
     ToolFirst(crate::family::tool_first::ToolFirstEvidence),
+    /// P P R: two slides, then a turn.
+    Carriage(crate::family::carriage::CarriageEvidence),
 }
 
 /// What a reach is measured from.

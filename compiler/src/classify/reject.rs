@@ -404,7 +404,7 @@ fn describe_note(model: &Model, note: &Note) -> String {
              parallel axes has a closed form (Pieper 1968), but not by decoupling at the wrist; \
              armforge's three-parallel and offset-hand families build it for parallel axes 2, \
              3 and 4 (axes 5 and 6 meeting or apart), its base-parallel family for parallel \
-             axes 1, 2 and 3 (axes 4 and 5 apart), and its tool-first family for parallel axes \
+             axes 1, 2 and 3 (axes 4 and 5 apart, meeting or parallel), and its tool-first family for parallel axes \
              3, 4 and 5 or 4, 5 and 6 (the same shapes read from the tool), six revolute joints \
              each",
             first,

@@ -19,6 +19,7 @@
 pub mod base_parallel;
 pub mod base_slide;
 pub mod base_wrist;
+pub mod carriage;
 pub mod cartesian;
 pub mod cylindrical;
 pub mod data;
@@ -74,6 +75,8 @@ pub enum Family {
     /// Read from the tool: the mirrored arm is of a family that solves any target (axes 3–5
     /// parallel and axes 1 and 2 meeting: a three-parallel mirror).
     ToolFirst,
+    /// P P R (two slides, then a turn whose axis is not ⟂ both), spherical wrist.
+    Carriage,
     /// P R R with axes 2 and 3 skew, spherical wrist: a quartic in the slide.
     BaseSlide,
 }
@@ -119,6 +122,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &base_parallel::BASE_PARALLEL,
     &base_slide::BASE_SLIDE,
     &tool_first::TOOL_FIRST,
+    &carriage::CARRIAGE,
 ];
 
 /// What a family found on an arm it recognises.

@@ -11,6 +11,7 @@ use armforge_runtime::{Joint, JointKind, Pose};
 use super::vec3::num;
 use crate::classify::{classify, Family, Geometry, Tolerances};
 use crate::diagnostics::Location;
+use crate::family::base_parallel::axes_4_5::Placement;
 use crate::model::{Model, ModelJoint};
 use crate::units::Units;
 
@@ -160,7 +161,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 19] {
+pub fn fixtures() -> [Fixture; 20] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -205,6 +206,7 @@ pub fn fixtures() -> [Fixture; 19] {
         fixture("tool_first_layout", Family::ToolFirst, 24, plain),
         fixture("tool_first_general", Family::ToolFirst, 25, plain),
         fixture("base_parallel", Family::BaseParallel, 26, plain),
+        fixture("carriage", Family::Carriage, 27, plain),
         fixture("base_slide", Family::BaseSlide, 27, plain),
     ]
 }
@@ -414,6 +416,22 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 prismatic(u1, [-3.0, 3.0]),
                 prismatic(u2, [-3.0, 3.0]),
                 prismatic(u3, [-3.0, 3.0]),
+                c,
+            )
+        }
+        Family::Carriage => {
+            // Two slides apart, axis 3 not ⟂ both (away from their normal), the wrist center
+            // off axis 3.
+            let u2 = rng.direction_away_from(&h1, 0.9);
+            let normal = num::unit(&num::cross(&h1, &u2));
+            let h3 = rng.direction_away_from(&normal, 0.9);
+            let p3 = rng.point(0.3);
+            let arm = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));
+            let c = num::add(&num::add(&p3, &arm), &num::scale(&h3, rng.range(-0.2, 0.2)));
+            (
+                prismatic(h1, [-3.0, 3.0]),
+                prismatic(u2, [-3.0, 3.0]),
+                revolute(h3, p3, range),
                 c,
             )
         }
@@ -763,6 +781,19 @@ fn sample_mid_wrist(seed: u64, options: &SampleOptions) -> (Model, Geometry) {
 /// at least about 32° from them, axes 4 and 5 0.05–0.3 m apart at a random angle, and axes 5
 /// and 6, by `seed`, apart at a random angle, meeting, or parallel.
 pub fn sample_base_parallel(seed: u64, options: &SampleOptions) -> Model {
+    sample_base_parallel_placed(seed, options, Placement::Apart)
+}
+
+/// A random base-parallel arm whose axes 4 and 5 are placed as `placement` says (apart: the
+/// arms of [`sample_base_parallel`]; meeting; parallel). Axes 5 and 6 are apart, meeting or
+/// parallel by `seed % 3` as there (for parallel axes 4 and 5, never parallel axes 5 and 6:
+/// axes 4–6 parallel are degenerate; for meeting axes 4 and 5, axis 6 keeps at least 0.05 m
+/// from their meeting point, which on it would make a spherical wrist).
+pub fn sample_base_parallel_placed(
+    seed: u64,
+    options: &SampleOptions,
+    placement: Placement,
+) -> Model {
     let mut rng = SampleRng::new(seed.wrapping_mul(7951).wrapping_add(113));
     let range = options.revolute_range;
     let h = rng.direction();
@@ -780,23 +811,39 @@ pub fn sample_base_parallel(seed: u64, options: &SampleOptions) -> Model {
     let h3 = num::scale(&h, rng.sign());
     let h4 = rng.direction_away_from(&h, 0.85);
     let p4 = num::add(&p3, &rng.point(0.3));
-    let h5 = rng.direction_away_from(&h4, 0.85);
-    let p5 = {
-        let normal = num::unit(&num::cross(&h4, &h5));
-        let apart = num::scale(&normal, rng.range(0.05, 0.3) * rng.sign());
-        num::add(
+    let mut h5 = rng.direction_away_from(&h4, 0.85);
+    let normal = num::unit(&num::cross(&h4, &h5));
+    let apart = num::scale(&normal, rng.range(0.05, 0.3) * rng.sign());
+    let (along_4, along_5) = (rng.range(-0.2, 0.2), rng.range(-0.2, 0.2));
+    let meet = num::add(&p4, &num::scale(&h4, along_4));
+    let p5 = match placement {
+        Placement::Apart => num::add(
             &num::add(&p4, &apart),
-            &num::add(
-                &num::scale(&h4, rng.range(-0.2, 0.2)),
-                &num::scale(&h5, rng.range(-0.2, 0.2)),
-            ),
-        )
+            &num::add(&num::scale(&h4, along_4), &num::scale(&h5, along_5)),
+        ),
+        Placement::Meeting => num::add(&meet, &num::scale(&h5, along_5)),
+        Placement::Parallel => {
+            h5 = num::scale(&h4, rng.sign());
+            num::add(&meet, &apart)
+        }
     };
-    let (h6, p6) = match seed % 3 {
+    let layout_6 = match (placement, seed % 3) {
+        (Placement::Parallel, 2) => 0,
+        (_, layout) => layout,
+    };
+    let (h6, p6) = match layout_6 {
         0 => (
             rng.direction_away_from(&h5, 0.85),
             num::add(&p5, &rng.point(0.3)),
         ),
+        1 if placement == Placement::Meeting => {
+            // On axis 5, at least 0.05 m from the meeting point.
+            let off = rng.range(0.05, 0.3) * rng.sign();
+            (
+                rng.direction_away_from(&h5, 0.85),
+                num::add(&meet, &num::scale(&h5, off)),
+            )
+        }
         1 => (
             rng.direction_away_from(&h5, 0.85),
             num::add(&p5, &num::scale(&h5, rng.range(-0.2, 0.2))),

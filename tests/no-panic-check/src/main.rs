@@ -133,6 +133,8 @@ checked_arm!(turner_f32 = "../../arms/plate-turner-axes.toml", f32);
 checked_arm!(tipper_f32 = "../../arms/tray-tipper-axes.toml", f32);
 checked_arm!(drawer_f64 = "../../arms/drawer-puller-axes.toml", f64);
 checked_arm!(drawer_f32 = "../../arms/drawer-puller-axes.toml", f32);
+checked_arm!(dipper_f64 = "../../arms/bath-dipper-axes.toml", f64);
+checked_arm!(dipper_f32 = "../../arms/bath-dipper-axes.toml", f32);
 checked_arm!(rail_f64 = "../../arms/bench-rail-picker-axes.toml", f64);
 checked_arm!(rail_f32 = "../../arms/bench-rail-picker-axes.toml", f32);
 
@@ -144,7 +146,8 @@ type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
 /// footprint README reports: bytes of a solution set and of one solution.
 fn main() {
     let q = [0.1, -0.4, 0.7, 0.2, 0.5, -0.3];
-    let arms: [Checked; 30] = [
+    let arms: &[Checked] = &[
+    let arms: [Checked; 32] = [
         ("bench f64", bench_f64::run, bench_f64::sizes),
         ("bench f32", bench_f32::run, bench_f32::sizes),
         ("ceiling f64", ceiling_f64::run, ceiling_f64::sizes),
@@ -173,6 +176,8 @@ fn main() {
         ("turner f32", turner_f32::run, turner_f32::sizes),
         ("drawer f64", drawer_f64::run, drawer_f64::sizes),
         ("drawer f32", drawer_f32::run, drawer_f32::sizes),
+        ("dipper f64", dipper_f64::run, dipper_f64::sizes),
+        ("dipper f32", dipper_f32::run, dipper_f32::sizes),
         ("rail f64", rail_f64::run, rail_f64::sizes),
         ("rail f32", rail_f32::run, rail_f32::sizes),
     ];

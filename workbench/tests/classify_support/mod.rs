@@ -309,6 +309,14 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("common_normal_5_6", e.common_normal_5_6);
             put("angle_5_6", e.angle_5_6);
         }
+        ArmEvidence::Carriage(e) => {
+            put("between", e.angle_between_slides);
+            put("axis_3_to_normal", e.axis_3_to_normal);
+            put("wrist_center_from_axis_3", e.wrist_center_from_axis_3);
+            put("swing", e.swing);
+            put("highest", joint_value(model, 2, e.extremes[0]));
+            put("lowest", joint_value(model, 2, e.extremes[1]));
+        }
         ArmEvidence::ToolFirst(e) => {
             // The mirrored arm's numbers: it stands where the arm stands.
             let mirrored = armforge_compiler::family::mirror::mirrored_model(model);

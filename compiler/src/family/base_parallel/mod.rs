@@ -2,18 +2,21 @@
 //! 1968: parallel axes meet at infinity). Joints 1–3 keep every point's height along the
 //! parallel axes, so joints 4–6 must turn the plane of axis 4's point at that height back onto
 //! itself: joints 5 and 6 by the shared plane–line quartic, joint 4 by Paden–Kahan subproblem
-//! 1, then joints 1–3 as a planar chain. Recognition and evidence here; the plan in [`plan`],
-//! the review sheet's steps in [`steps`].
+//! 1, then joints 1–3 as a planar chain. Where axes 4 and 5 meet or are parallel every root of
+//! that quartic is double; those placements have their own closed forms ([`axes_4_5`]: joint
+//! 6 from one trigonometric equation, then joints 4 and 5 by Paden–Kahan subproblem 2 or by a
+//! sum and a second equation). Recognition and evidence here; the plan in [`plan`], the review
+//! sheet's steps in [`steps`].
 //!
 //! Covered: axes 4, 5 and 6 at any angles and offsets as long as axis 4 is not parallel to
-//! axes 1–3, axes 4 and 5 neither meet nor are parallel, and axes 5 and 6 are not one line.
-//! Rejected with the reason: four parallel axes (1–4), two of the parallel axes one line, a
-//! spherical wrist behind the parallel axes (it cannot change its height along them), axes
-//! 4–6 parallel too, axes 4 and 5 meeting or parallel otherwise (every root of the quartic is
-//! then double: not built), axes 5 and 6 one line. Arms whose axes 4–6 are parallel are this
-//! family's arms read from the tool: the tool-first family solves them through
-//! [`plan::target_step`].
+//! axes 1–3, axes 4 and 5 are not one line and axes 5 and 6 are not one line; axes 4 and 5
+//! apart, meeting or parallel. Rejected with the reason: four parallel axes (1–4), two of the
+//! parallel axes one line, a spherical wrist behind the parallel axes (it cannot change its
+//! height along them), axes 4–6 parallel too, axes 4 and 5 one line, axes 5 and 6 one line.
+//! Arms whose axes 4–6 are parallel are this family's arms read from the tool: the tool-first
+//! family solves them through [`plan::target_step`].
 
+pub mod axes_4_5;
 pub mod plan;
 mod steps;
 
@@ -31,6 +34,7 @@ use crate::classify::reject::{Quantity, Reason};
 use crate::classify::{ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::Plan;
+use axes_4_5::Placement;
 
 /// The base-parallel family.
 pub struct BaseParallel;
@@ -84,23 +88,6 @@ fn reject(
         measures,
     };
     Recognition::Degenerate(ctx.reject(reason, joint, Vec::new()))
-}
-
-/// A rejection of an arm that is not degenerate but of a placement the family does not
-/// build: reported only when no family recognises the arm and none finds it degenerate.
-fn not_built(
-    ctx: &Context,
-    name: &'static str,
-    joint: usize,
-    message: String,
-    measures: Vec<(&'static str, Quantity)>,
-) -> Recognition {
-    let reason = Reason::Family {
-        name,
-        message,
-        measures,
-    };
-    Recognition::NotMine(Some(ctx.reject(reason, joint, Vec::new())))
 }
 
 /// Axis 4 parallel to axes 1–3, or two of the parallel axes one line.
@@ -183,28 +170,17 @@ fn check_last_axes(ctx: &Context) -> Option<Recognition> {
         ));
     }
     let (gap_4_5, parallel_4_5) = (ctx.gap(4, 5), ctx.parallel(4, 5));
-    if gap_4_5 <= tol || parallel_4_5 {
-        let how = if parallel_4_5 {
-            format!("are parallel (angle {})", u.show_angle(ctx.angle(4, 5)))
-        } else {
-            format!("meet ({} apart)", u.show_length(gap_4_5))
-        };
-        // Not a degenerate arm: a placement this family does not build, so the reason of a
-        // family that nearly has the arm's shape (a spherical wrist's, say) goes first.
-        return Some(not_built(
+    if parallel_4_5 && gap_4_5 <= tol {
+        return Some(reject(
             ctx,
-            "axes_4_and_5_in_one_plane",
+            "axes_4_5_one_line",
             5,
             format!(
-                "axes 1–3 are parallel, but the axes of joints 4 and 5 {how}: every root of the \
-                 plane–line quartic of joints 5 and 6 is then double and joint 5 cannot be \
-                 told from it; Pieper's criterion still gives a closed form for this placement, \
-                 which armforge's base-parallel family does not build"
+                "axes 4 and 5 are one line ({} apart): joints 4 and 5 turn about the same \
+                 line, so the arm lacks one degree of freedom everywhere (a degenerate arm)",
+                u.show_length(gap_4_5)
             ),
-            vec![
-                ("gap", Quantity::Length(gap_4_5)),
-                ("angle", Quantity::Angle(ctx.angle(4, 5))),
-            ],
+            vec![("distance", Quantity::Length(gap_4_5))],
         ));
     }
     let gap_5_6 = ctx.gap(5, 6);
@@ -240,9 +216,13 @@ fn aligned_at(ctx: &Context, h: &nalgebra::Vector3<f64>) -> Vec<f64> {
     at
 }
 
-/// The family's singular configurations: joints 1–2 stretched or folded, and two roots of
-/// the plane–line step merging.
-fn singularities(model: &Model, e: &BaseParallelEvidence) -> Vec<Singularity> {
+/// The family's singular configurations: axis 5 along axes 1–3, joints 1–2 stretched or
+/// folded, and those of joints 4–6 for the placement of axes 4 and 5.
+fn singularities(
+    model: &Model,
+    e: &BaseParallelEvidence,
+    placement: Placement,
+) -> Vec<Singularity> {
     let u = &model.units;
     let mut out = vec![if e.aligned_at.is_empty() {
         Singularity::Described {
@@ -297,17 +277,80 @@ fn singularities(model: &Model, e: &BaseParallelEvidence) -> Vec<Singularity> {
             ),
         });
     }
-    out.push(Singularity::Described {
-        name: "plane_line_merge",
-        text: "two roots of joints 5 and 6 merge (a double root of the plane–line quartic): the \
-               plane of axis 4's point at its height, seen from the tool, is at a reach \
-               boundary of joints 4–6"
-            .to_string(),
-        equation: "det[∂(e1, e2)/∂(ψL, ψP)] = 0 for the plane–line equations e1 = n′ · a′ − h · \
-                   h4, e2 = n′ · (o′ − q′): the candidates are flagged at the reach limit"
-            .to_string(),
-    });
+    out.extend(joints_4_to_6_singularities(placement));
     out
+}
+
+/// The singular configurations of joints 4–6 for each placement of axes 4 and 5.
+fn joints_4_to_6_singularities(placement: Placement) -> Vec<Singularity> {
+    let described = |name: &'static str, text: &str, equation: &str| Singularity::Described {
+        name,
+        text: text.to_string(),
+        equation: equation.to_string(),
+    };
+    let axis_6 = described(
+        "axis_6_parallel",
+        "axis 6 parallel to axes 1–3: joint 6 then changes no height along them, so it is not \
+         fixed by the height equation (joints 6 and 1–3 share what the equation cannot tell)",
+        "`a = b = 0` in `a cos θ6 + b sin θ6 = e` (`|n × h6| = 0`): joint 6 is held at its \
+         reference (the second root a half turn from it) and the candidates are flagged",
+    );
+    match placement {
+        Placement::Apart => vec![described(
+            "plane_line_merge",
+            "two roots of joints 5 and 6 merge (a double root of the plane–line quartic): the \
+             plane of axis 4's point at its height, seen from the tool, is at a reach boundary \
+             of joints 4–6",
+            "det[∂(e1, e2)/∂(ψL, ψP)] = 0 for the plane–line equations e1 = n′ · a′ − h · h4, \
+             e2 = n′ · (o′ − q′): the candidates are flagged at the reach limit",
+        )],
+        Placement::Meeting => vec![
+            described(
+                "joint_6_roots_merge",
+                "the two roots of joint 6 merge: the meeting point of axes 4 and 5 is at the \
+                 highest or lowest height joint 6 can give it",
+                "`a² + b² = e²` in `a cos θ6 + b sin θ6 = e` (its derivative `−a sin θ6 + b cos \
+                 θ6` vanishes): the candidates are flagged at the reach limit",
+            ),
+            axis_6,
+            described(
+                "joints_4_5_roots_merge",
+                "the two solutions of joints 4 and 5 merge: `R5 w` lies in the plane of axes 4 \
+                 and 5 (Paden–Kahan subproblem 2 with one solution)",
+                "`γ = 0` in `z = α h4 + β h5 ± γ (h4 × h5)`: the candidates are flagged at the \
+                 reach limit",
+            ),
+        ],
+        Placement::Parallel => vec![
+            described(
+                "joint_6_roots_merge",
+                "the two roots of joint 6 merge: axis 6 turned by joint 6 brings `R6 n` to the \
+                 cone around axes 4–5 only tangentially",
+                "`a² + b² = e²` in `a cos θ6 + b sin θ6 = e` (`g · R6 n = g · h`; its derivative \
+                 vanishes): the candidates are flagged at the reach limit",
+            ),
+            axis_6,
+            described(
+                "joint_5_roots_merge",
+                "the two roots of joint 5 merge: axis 4's point is at the highest or lowest \
+                 height joint 5 can give it",
+                "`a5² + b5² = e5²` in `a5 cos θ5 + b5 sin θ5 = e5`: the candidates are flagged \
+                 at the reach limit",
+            ),
+        ],
+    }
+}
+
+/// Where axes 4 and 5 lie, with the classifier's tolerances (the plan decides alike from the
+/// arm's constants: [`axes_4_5::Placement::of`]).
+fn placement(ctx: &Context) -> Placement {
+    if ctx.parallel(4, 5) {
+        Placement::Parallel
+    } else if ctx.gap(4, 5) <= ctx.tol.distance {
+        Placement::Meeting
+    } else {
+        Placement::Apart
+    }
 }
 
 fn measure(ctx: &Context) -> Found {
@@ -340,7 +383,7 @@ fn measure(ctx: &Context) -> Found {
         center: evidence.axis_3_point,
         wrist: None,
         reach: None,
-        singularities: singularities(ctx.model, &evidence),
+        singularities: singularities(ctx.model, &evidence, placement(ctx)),
         solutions: [4, 2],
         arm: ArmEvidence::BaseParallel(evidence),
     }
@@ -484,7 +527,11 @@ impl FamilyModule for BaseParallel {
             ],
             vec![Part::text("axis 4 ∦ axes 1–3: angle "), a(1, 4)],
             vec![
-                Part::text("axes 4 and 5 neither meet nor are parallel: "),
+                Part::text(match Placement::of_plan(plan) {
+                    Placement::Apart => "axes 4 and 5 neither meet nor are parallel: ",
+                    Placement::Meeting => "axes 4 and 5 meet (axis 6 not through their point): ",
+                    Placement::Parallel => "axes 4 and 5 parallel, not one line: ",
+                }),
                 Part::length(gap(arm, 4, 5)),
                 Part::text(" apart, at angle "),
                 a(4, 5),

@@ -1,5 +1,6 @@
 //! The base-parallel plan: axes 1, 2 and 3 parallel (Pieper 1968: parallel axes meet at
-//! infinity), axes 4, 5 and 6 any revolute axes with axes 4 and 5 apart and not parallel.
+//! infinity), axes 4, 5 and 6 any revolute axes with axes 4 and 5 apart and not parallel
+//! (meeting or parallel axes 4 and 5: [`super::axes_4_5`], chosen in [`target_step`]).
 //!
 //! # Joints 5 and 6: a plane and a line
 //!
@@ -35,6 +36,7 @@ use armforge_runtime::internal::{BranchRule, CheckKind, ElbowRule, ShoulderRule,
 use armforge_runtime::plan::{CandidateLayout, CheckLayout};
 use armforge_runtime::{Branch, Elbow, Shoulder, Wrist};
 
+use super::axes_4_5::Placement;
 use crate::classify::Geometry;
 use crate::family::TargetSolution;
 use crate::model::Model;
@@ -298,9 +300,8 @@ fn joints_1_to_3(
     )
 }
 
-/// The candidates of a base-parallel arm for the target `t`: four roots of the plane–line
-/// step, two bends of joints 1–2 each.
-pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
+/// The layout, the motion `G` and joint 1's reference angle: what every placement starts from.
+pub(super) fn start(g: &mut Graph, arm: &Arm, t: &Target) -> (Layout, Motion, Id) {
     let k = Layout::of(arm);
     let motion = pose::joint_motions(g, arm, t);
     let motion: Motion = pose::name(g, motion, "g", "G = B⁻¹ T M⁻¹ = E1 ⋯ E6");
@@ -310,6 +311,13 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
         "q1_ref",
         "joint 1's reference (held where it is free)",
     );
+    (k, motion, held)
+}
+
+/// The candidates of a base-parallel arm for the target `t`: four roots of the plane–line
+/// step, two bends of joints 1–2 each.
+pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
+    let (k, motion, held) = start(g, arm, t);
     let mut out = Vec::with_capacity(8);
     for hand in hands(g, arm, &k, &motion) {
         let tag = format!(
@@ -330,61 +338,90 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
             motion.rotate_back(g, hk)
         };
         let (theta4, turn4) = joint_4(g, arm, &k, n, &hand, &tag);
-        let turns = [turn4, hand.turns[0], hand.turns[1]];
-        let (sum, two, on_axis) = joints_1_to_3(g, arm, (&k, &motion), turns, &tag);
-        for bend in &two.bends {
-            let btag = format!("{tag}{}", if bend.bend > 0.0 { "a" } else { "b" });
-            // Axis 3 on axis 1: joint 1 is free, held at its reference; joint 3 takes the rest.
-            let theta1 = g.select(on_axis, held, bend.first);
-            let theta1 = g.name(
-                theta1,
-                &format!("q1_{btag}"),
-                "θ1 (the reference where axis 3 is on axis 1)",
-            );
-            // θ3 = s3 (Φ − θ1 − φ2), φ2 = s2 θ2.
-            let phi2 = if k.two_link.sense > 0.0 {
-                bend.second
-            } else {
-                g.neg(bend.second)
-            };
-            let rest = g.sub(sum, theta1);
-            let rest = g.sub(rest, phi2);
-            let theta3 = if k.sense3 > 0.0 { rest } else { g.neg(rest) };
-            let theta3 = g.name(
-                theta3,
-                &format!("q3_{btag}"),
-                format!("θ3 = {} (Φ − θ1 − φ2)", k.sense3),
-            );
-            out.push(CandidateLayout {
-                model_values: [
-                    theta1,
-                    bend.second,
-                    theta3,
-                    theta4,
-                    hand.angles[0],
-                    hand.angles[1],
-                ],
-                branch: Branch {
-                    shoulder: hand.aspect,
-                    elbow: if bend.bend > 0.0 {
-                        Elbow::Up
-                    } else {
-                        Elbow::Down
-                    },
-                    wrist: hand.side,
-                },
-                checks: [
-                    Some(hand.check),
-                    Some(two.checks[0]),
-                    Some(two.checks[1]),
-                    None,
-                ],
-                wrist_aligned: None,
-                on_axis_1: Some(on_axis),
-            });
-        }
+        let hand = Joints4To6 {
+            angles: [theta4, hand.angles[0], hand.angles[1]],
+            turns: [turn4, hand.turns[0], hand.turns[1]],
+            shoulder: hand.aspect,
+            wrist: hand.side,
+            checks: [Some(hand.check), None],
+            free: None,
+        };
+        finish_hand(g, arm, (&k, &motion, held), &hand, &tag, &mut out);
     }
     out
+}
+
+/// One solution of joints 4–6, ready for joints 1–3.
+pub(super) struct Joints4To6 {
+    /// θ4, θ5, θ6 (model values).
+    pub angles: [Id; 3],
+    /// Their (cos, sin) pairs.
+    pub turns: [(Id, Id); 3],
+    /// The shoulder label.
+    pub shoulder: Shoulder,
+    /// The wrist label.
+    pub wrist: Wrist,
+    /// The checks of joints 4–6: the first before the two-link step's, the second after.
+    pub checks: [Option<CheckLayout>; 2],
+    /// `≥ 0` where a joint of 4–6 is free (held at its reference).
+    pub free: Option<Id>,
+}
+
+/// Joints 1–3 for one solution of joints 4–6 (two bends of joints 1–2), appended to `out`.
+pub(super) fn finish_hand(
+    g: &mut Graph,
+    arm: &Arm,
+    (k, motion, held): (&Layout, &Motion, Id),
+    hand: &Joints4To6,
+    tag: &str,
+    out: &mut Vec<CandidateLayout>,
+) {
+    let (sum, two, on_axis) = joints_1_to_3(g, arm, (k, motion), hand.turns, tag);
+    for bend in &two.bends {
+        let btag = format!("{tag}{}", if bend.bend > 0.0 { "a" } else { "b" });
+        // Axis 3 on axis 1: joint 1 is free, held at its reference; joint 3 takes the rest.
+        let theta1 = g.select(on_axis, held, bend.first);
+        let theta1 = g.name(
+            theta1,
+            &format!("q1_{btag}"),
+            "θ1 (the reference where axis 3 is on axis 1)",
+        );
+        // θ3 = s3 (Φ − θ1 − φ2), φ2 = s2 θ2.
+        let phi2 = if k.two_link.sense > 0.0 {
+            bend.second
+        } else {
+            g.neg(bend.second)
+        };
+        let rest = g.sub(sum, theta1);
+        let rest = g.sub(rest, phi2);
+        let theta3 = if k.sense3 > 0.0 { rest } else { g.neg(rest) };
+        let theta3 = g.name(
+            theta3,
+            &format!("q3_{btag}"),
+            format!("θ3 = {} (Φ − θ1 − φ2)", k.sense3),
+        );
+        let [theta4, theta5, theta6] = hand.angles;
+        out.push(CandidateLayout {
+            model_values: [theta1, bend.second, theta3, theta4, theta5, theta6],
+            branch: Branch {
+                shoulder: hand.shoulder,
+                elbow: if bend.bend > 0.0 {
+                    Elbow::Up
+                } else {
+                    Elbow::Down
+                },
+                wrist: hand.wrist,
+            },
+            checks: [
+                hand.checks[0],
+                Some(two.checks[0]),
+                Some(two.checks[1]),
+                hand.checks[1],
+            ],
+            wrist_aligned: hand.free,
+            on_axis_1: Some(on_axis),
+        });
+    }
 }
 
 /// The fallback label rule (labels are read by solving; this rule is used only where no
@@ -416,6 +453,24 @@ pub fn target_step(
     t: &Target,
 ) -> TargetSolution {
     let arm = Arm::with_center(model, geometry.family, geometry.wrist_center);
+    let tol = &geometry.resolved;
+    let placement = Placement::of(&arm, tol.distance, tol.angle);
+    if placement != Placement::Apart {
+        // Joint 6 is held at its reference where it is free (axis 6 along axes 1–3); the
+        // wrist check compares the cone of `z` around `h4` (cosine `h4 · h`) with axis 5.
+        let candidates = super::axes_4_5::solve(g, &arm, t, placement);
+        let twist = [
+            num::dot(&arm.axis(3), &arm.axis(0)),
+            num::dot(&arm.axis(3), &arm.axis(4)),
+        ];
+        return TargetSolution {
+            rule: rule(&arm),
+            arm,
+            candidates,
+            twist,
+            free: [0, 5],
+        };
+    }
     let candidates = solve(g, &arm, t);
     let rule = rule(&arm);
     let twist = [
