@@ -371,6 +371,10 @@ fn carriage_arms_miss_no_numerical_solution() {
     let (found, listed) = check_family(Family::Carriage);
     println!(
         "carriage: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
 #[test]
 fn base_slide_arms_miss_no_numerical_solution() {
     // P R R with axes 2 and 3 skew: the slide's quartic must list every solution

@@ -209,6 +209,7 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
                 let along = dot(&h3, &normal).abs() / norm(&normal);
                 assert!(along < 1.0 - ON_LINE, "{path}: axis 3 not ⟂ both slides");
                 "carriage"
+            }
             [P, R, R] => {
                 // Axes 2 and 3 skew: neither parallel nor meeting (a quartic in the slide).
                 assert!(

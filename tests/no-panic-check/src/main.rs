@@ -147,7 +147,6 @@ type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
 fn main() {
     let q = [0.1, -0.4, 0.7, 0.2, 0.5, -0.3];
     let arms: &[Checked] = &[
-    let arms: [Checked; 32] = [
         ("bench f64", bench_f64::run, bench_f64::sizes),
         ("bench f32", bench_f32::run, bench_f32::sizes),
         ("ceiling f64", ceiling_f64::run, ceiling_f64::sizes),
