@@ -376,6 +376,36 @@ fn carriage_arms_miss_no_numerical_solution() {
 }
 
 #[test]
+fn general_slide_arms_miss_no_numerical_solution() {
+    // R R P with the slide not ⟂ axis 2: axes 1 and 2 apart (the quartic in the slide),
+    // meeting and parallel.
+    for (options, what) in [
+        (SampleOptions::default(), "apart"),
+        (
+            SampleOptions {
+                shoulder_axes_meet: true,
+                ..SampleOptions::default()
+            },
+            "meeting",
+        ),
+        (
+            SampleOptions {
+                shoulder_axes_parallel: true,
+                ..SampleOptions::default()
+            },
+            "parallel",
+        ),
+    ] {
+        let (found, listed) = check_arms(Family::GeneralSlide, options);
+        println!(
+            "general-slide, axes 1 and 2 {what}: Levenberg–Marquardt found {found} distinct \
+             solutions, armforge lists {listed}"
+        );
+        assert!(found > 0);
+    }
+}
+
+#[test]
 fn base_slide_arms_miss_no_numerical_solution() {
     // P R R with axes 2 and 3 skew: the slide's quartic must list every solution
     // Levenberg–Marquardt converges to within the slide's stroke.

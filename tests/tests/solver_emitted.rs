@@ -49,6 +49,12 @@ emitted!(tool_first_layout, "generated/tool_first_layout.rs");
 emitted!(tool_first_general, "generated/tool_first_general.rs");
 emitted!(base_parallel, "generated/base_parallel.rs");
 emitted!(carriage, "generated/carriage.rs");
+emitted!(general_slide, "generated/general_slide.rs");
+emitted!(general_slide_meeting, "generated/general_slide_meeting.rs");
+emitted!(
+    general_slide_parallel,
+    "generated/general_slide_parallel.rs"
+);
 emitted!(base_slide, "generated/base_slide.rs");
 
 use armforge_compiler::plan::samples::{fixtures, sample_configuration, SampleRng};
@@ -155,6 +161,9 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(tool_first_general), "tool_first_general"),
         compare(api!(base_parallel), "base_parallel"),
         compare(api!(carriage), "carriage"),
+        compare(api!(general_slide), "general_slide"),
+        compare(api!(general_slide_meeting), "general_slide_meeting"),
+        compare(api!(general_slide_parallel), "general_slide_parallel"),
         compare(api!(base_slide), "base_slide"),
     ];
     let table: Vec<&str> = fixtures().iter().map(|f| f.name).collect();

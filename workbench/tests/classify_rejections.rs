@@ -274,16 +274,29 @@ fn general_six_revolute_mentions_sixteen_solutions() {
 }
 
 #[test]
-fn polar_slide_must_be_perpendicular_to_axis_2() {
-    let e = reject(&in_mm_deg(arms::polar_arm(
-        [0.0, 1.0, 0.0],
-        [1.0, 0.3, 0.0],
-    )));
-    let Reason::PolarSlideNotPerpendicular { angle } = e.reason else {
-        panic!("{e}")
+fn a_slide_not_perpendicular_to_axis_2_is_the_general_slide_family() {
+    // The polar family needs the slide ⟂ axis 2; the general-slide family takes the rest.
+    let g = classify(
+        &in_mm_deg(arms::polar_arm([0.0, 1.0, 0.0], [1.0, 0.3, 0.0])),
+        &Tolerances::default(),
+    )
+    .expect("recognised");
+    assert_eq!(g.family, Family::GeneralSlide);
+    let ArmEvidence::GeneralSlide(e) = g.arm else {
+        panic!("{:?}", g.arm)
     };
     // The slide (1, 0.3, 0) makes atan(1/0.3) with y.
-    assert!((angle - (1.0f64 / 0.3).atan()).abs() < 1e-12);
+    assert!((e.slide_angle_to_axis_2 - (1.0f64 / 0.3).atan()).abs() < 1e-12);
+}
+
+#[test]
+fn a_slide_across_parallel_axes_1_and_2_cannot_change_the_height() {
+    // Axes 1 and 2 vertical and the slide level: every joint keeps the wrist center's height.
+    let mut m = arms::polar_arm([0.0, 0.0, 1.0], [1.0, 0.3, 0.0]);
+    m.joints[1].joint.point = [0.2, 0.0, 0.3];
+    let e = reject(&in_mm_deg(m));
+    assert_eq!(e.reason.kind(), "general_slide_no_height", "{e}");
+    assert!(e.to_string().contains("makes 90° with them"), "{e}");
 }
 
 #[test]

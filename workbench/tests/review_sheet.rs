@@ -164,17 +164,23 @@ fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64
                 out.push(q);
             }
         }
-        Family::General => {
+        Family::General | Family::GeneralSlide => {
             use armforge_compiler::family::general::plan::Layout;
             let k = armforge_compiler::family::general::plan::constants(arm);
-            if k.layout != Layout::Skew {
+            if k.layout != Layout::Skew && !k.slide {
                 return general_quadratic_solutions(&k, ct);
             }
+            // A slide: r(d3) = r0 + d3 e3 (e3 = rs), d3 over the slide's stroke.
+            let [lo3, hi3] = arm.joints[2].limits.map(|v| arm.joints[2].model_value(v));
+            let (lo3, hi3) = (lo3.min(hi3) - 1e-3, lo3.max(hi3) + 1e-3);
             // §4.2–4.3: F(θ3) = X² + Y² + Z² − |r|² with the sheet's constants; its roots by
             // sign changes on a fine grid and bisection (independent of Ferrari's method).
             let u = num::sub(&ct, &k.f1);
             let (rho, zeta) = (num::dot(&u, &u), num::dot(&k.h1, &u));
             let r = |t: f64| {
+                if k.slide {
+                    return num::add(&k.r0, &num::scale(&k.rs, t));
+                }
                 num::add(
                     &k.r0,
                     &num::add(&num::scale(&k.rc, t.cos()), &num::scale(&k.rs, t.sin())),
@@ -194,10 +200,15 @@ fn sheet_position_solutions(family: Family, arm: &Arm, ct: [f64; 3]) -> Vec<[f64
             };
             let n = 20000;
             let pi = std::f64::consts::PI;
+            let (start, span) = if k.slide {
+                (lo3, hi3 - lo3)
+            } else {
+                (-pi, 2.0 * pi)
+            };
             for i in 0..n {
                 let (mut lo, mut hi) = (
-                    -pi + 2.0 * pi * i as f64 / n as f64,
-                    -pi + 2.0 * pi * (i + 1) as f64 / n as f64,
+                    start + span * i as f64 / n as f64,
+                    start + span * (i + 1) as f64 / n as f64,
                 );
                 if big_f(lo).signum() == big_f(hi).signum() {
                     continue;

@@ -68,6 +68,8 @@ pub enum ArmEvidence {
     ToolFirst(crate::family::tool_first::ToolFirstEvidence),
     /// P P R: two slides, then a turn.
     Carriage(crate::family::carriage::CarriageEvidence),
+    /// R R P of no named family (the slide not ⟂ axis 2).
+    GeneralSlide(crate::family::general::slide::GeneralSlideEvidence),
 }
 
 /// What a reach is measured from.

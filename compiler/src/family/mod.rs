@@ -77,6 +77,9 @@ pub enum Family {
     ToolFirst,
     /// P P R (two slides, then a turn whose axis is not ⟂ both), spherical wrist.
     Carriage,
+    /// R R P of no named family (the slide not ⟂ axis 2), spherical wrist: the general
+    /// family's reduction with joint 3 a slide, a quartic in the slide's value.
+    GeneralSlide,
     /// P R R with axes 2 and 3 skew, spherical wrist: a quartic in the slide.
     BaseSlide,
 }
@@ -120,6 +123,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &base_wrist::BASE_WRIST,
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,
+    &general::slide::GENERAL_SLIDE,
     &base_slide::BASE_SLIDE,
     &tool_first::TOOL_FIRST,
     &carriage::CARRIAGE,

@@ -161,7 +161,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 20] {
+pub fn fixtures() -> [Fixture; 23] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -207,6 +207,9 @@ pub fn fixtures() -> [Fixture; 20] {
         fixture("tool_first_general", Family::ToolFirst, 25, plain),
         fixture("base_parallel", Family::BaseParallel, 26, plain),
         fixture("carriage", Family::Carriage, 27, plain),
+        fixture("general_slide", Family::GeneralSlide, 27, plain),
+        fixture("general_slide_meeting", Family::GeneralSlide, 28, meeting),
+        fixture("general_slide_parallel", Family::GeneralSlide, 29, parallel),
         fixture("base_slide", Family::BaseSlide, 27, plain),
     ]
 }
@@ -271,7 +274,16 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         };
         return (model, geometry);
     }
-    let mut rng = SampleRng::new(seed.wrapping_mul(7919).wrapping_add(family as u64));
+    // The general-slide family's arms keep the seeds they were built (and their fixtures
+    // emitted) with when it was the 12th variant of `Family`.
+    let tag = match family {
+        Family::GeneralSlide => 11,
+        // The base-slide sample arms keep the seed they had (and their fixture was emitted
+        // with) as the 13th variant.
+        Family::BaseSlide => 12,
+        _ => family as u64,
+    };
+    let mut rng = SampleRng::new(seed.wrapping_mul(7919).wrapping_add(tag));
     let range = options.revolute_range;
     let h1 = rng.direction();
     let p1 = rng.point(0.2);
@@ -364,6 +376,48 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 revolute(h1, p1, range),
                 revolute(h2, p2, range),
                 revolute(h3, p3, range),
+                c,
+            )
+        }
+        Family::GeneralSlide => {
+            // Axes 1 and 2 as the general family's (apart, meeting or parallel with the
+            // options), the slide at least 15° from ⟂ axis 2 (not the polar family), the wrist
+            // center off axis 2.
+            let (h2, p2) = if options.shoulder_axes_parallel {
+                let h2 = num::scale(&h1, rng.sign());
+                let across = num::scale(&rng.perpendicular(&h1), rng.range(0.1, 0.5));
+                let p2 = num::add(
+                    &num::add(&p1, &across),
+                    &num::scale(&h1, rng.range(-0.3, 0.3)),
+                );
+                (h2, p2)
+            } else if options.shoulder_axes_meet {
+                let h2 = rng.direction_away_from(&h1, 0.9);
+                (h2, num::add(&p1, &num::scale(&h1, rng.range(-0.3, 0.3))))
+            } else {
+                let h2 = rng.direction_away_from(&h1, 0.9);
+                let normal = num::unit(&num::cross(&h1, &h2));
+                let p2 = num::add(
+                    &num::add(&p1, &num::scale(&normal, rng.range(0.05, 0.4) * rng.sign())),
+                    &num::add(
+                        &num::scale(&h1, rng.range(-0.3, 0.3)),
+                        &num::scale(&h2, rng.range(-0.3, 0.3)),
+                    ),
+                );
+                (h2, p2)
+            };
+            let e3 = loop {
+                let e = rng.direction();
+                if num::dot(&e, &h2).abs() > 0.26 {
+                    break e;
+                }
+            };
+            let off = num::scale(&rng.perpendicular(&h2), rng.range(0.15, 0.6));
+            let c = num::add(&num::add(&p2, &off), &rng.point(0.3));
+            (
+                revolute(h1, p1, range),
+                revolute(h2, p2, range),
+                prismatic(e3, [-1.2, 1.2]),
                 c,
             )
         }

@@ -317,6 +317,12 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("highest", joint_value(model, 2, e.extremes[0]));
             put("lowest", joint_value(model, 2, e.extremes[1]));
         }
+        ArmEvidence::GeneralSlide(e) => {
+            put("common_normal_1_2", e.common_normal_1_2);
+            put("angle_1_2", e.angle_1_2);
+            put("slide_angle", e.slide_angle_to_axis_2);
+            put("wrist_center_from_axis_2", e.wrist_center_from_axis_2);
+        }
         ArmEvidence::ToolFirst(e) => {
             // The mirrored arm's numbers: it stands where the arm stands.
             let mirrored = armforge_compiler::family::mirror::mirrored_model(model);

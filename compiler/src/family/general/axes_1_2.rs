@@ -47,7 +47,7 @@ use crate::plan::vec3::{self, num, V3};
 use crate::plan::{unit_pair, ArmSolution, Target};
 
 use super::plan::{
-    aim, along, finish, on_axis_1, placed, radius_terms, route, Aim, Circle, Constants, Root,
+    aim, along, finish, on_axis_1, placed, radius_terms, route, Aim, Circle, Constants, Curve, Root,
 };
 use crate::plan::quartic::at;
 
@@ -70,6 +70,32 @@ fn joint_3_roots(
         .map(|(c, s)| unit_pair(g, c, s))
 }
 
+/// Joint 3 slides, axes 1 and 2 meet: `|r(d3)|² = d3² + 2 (r0 · e3) d3 + |r0|² = ρ`, so
+/// `d3 = −r0 · e3 ± √max((r0 · e3)² − |r0|² + ρ, 0)` (beyond reach, inside the sphere the
+/// slide's line misses, the nearest value, which its residual rejects). Returns the pairs
+/// `(1, d3)` and `|r|²` as a polynomial in `d3`.
+fn slide_distance_roots(g: &mut Graph, r: &Circle, rho: Id) -> ([(Id, Id); 2], Curve) {
+    let one = g.constant(1.0);
+    let two = g.constant(2.0);
+    let r00 = vec3::dot(g, r.r0, r.r0);
+    let r0e = vec3::dot(g, r.r0, r.rs);
+    let disc = {
+        let bb = g.mul(r0e, r0e);
+        let d = g.sub(bb, r00);
+        let d = g.add(d, rho);
+        let root = g.sqrt0(d);
+        g.name(
+            root,
+            "j3_root",
+            "√max((r0·e3)² − |r0|² + ρ, 0): |r(d3)|² = ρ keeps the distance from O",
+        )
+    };
+    let centre = g.neg(r0e);
+    let roots = [g.add(centre, disc), g.sub(centre, disc)].map(|d| (one, d));
+    let r1 = g.mul(two, r0e);
+    (roots, Curve::Poly([r00, r1, one]))
+}
+
 /// `r(θ3) = r0 + cos θ3 rc + sin θ3 rs`, from `f2`.
 fn radius(g: &mut Graph, r: &Circle, (c3, s3): (Id, Id)) -> V3 {
     let p = vec3::scale(g, c3, r.rc);
@@ -88,21 +114,25 @@ pub fn solve_meeting(
     let tol = 1e-10 * scale;
     let target = aim(g, k, ct);
     let Aim { u, rho, zeta } = target;
-    let kk = radius_terms(g, r);
-    let e = {
-        let e = g.sub(rho, kk[0]);
-        g.name(e, "j3_e", "ρ − K0: |r(θ3)|² = ρ keeps the distance from O")
+    let (roots3, radius2) = if k.slide {
+        slide_distance_roots(g, r, rho)
+    } else {
+        let kk = radius_terms(g, r);
+        let e = {
+            let e = g.sub(rho, kk[0]);
+            g.name(e, "j3_e", "ρ − K0: |r(θ3)|² = ρ keeps the distance from O")
+        };
+        let roots = joint_3_roots(g, [kk[1], kk[2]], e, ((tol * scale).powi(2), " m²"));
+        (roots, Curve::Trig(kk))
     };
-    let roots3 = joint_3_roots(g, [kk[1], kk[2]], e, ((tol * scale).powi(2), " m²"));
     let on_axis = on_axis_1(g, &target, tol);
     let z = along(g, r, k.h2);
-    let radius2 = kk;
     let h12 = num::cross(&k.h1, &k.h2);
     let inv = 1.0 / (k.cos_a * k.cos_a - 1.0);
     let mut roots: Vec<Root> = Vec::new();
     for (i, &cs3) in roots3.iter().enumerate() {
         let zv = at(g, z, cs3);
-        let rr = at(g, radius2, cs3);
+        let rr = radius2.at(g, cs3);
         let inv = g.constant(inv);
         let cos_a = g.constant(k.cos_a);
         let alpha = {
@@ -187,7 +217,15 @@ pub fn solve_parallel(
             "±ζ − h2 · r0: joints 1 and 2 keep the height along the axes",
         )
     };
-    let roots3 = joint_3_roots(g, [z1, z2], e, (tol * tol, " m"));
+    let roots3 = if k.slide {
+        // Z(d3) = z0 + (h2 · e3) d3: one root (the classifier has made sure that the slide is
+        // not ⟂ the axes).
+        let one = g.constant(1.0);
+        let d = g.div(e, z2);
+        vec![(one, d)]
+    } else {
+        joint_3_roots(g, [z1, z2], e, (tol * tol, " m")).to_vec()
+    };
     let on_axis = on_axis_1(g, &target, tol);
     // |u⊥|² − a², the planar distance from axis 1 the two planar links must span.
     let planar = {

@@ -3,9 +3,16 @@
 //! when axes 1 and 2 meet or are parallel, through quadratics, see [`axes_1_2`].
 //! It comes last in the registry: a named family's plan has simpler equations and better
 //! numbers, so an arm that one of them recognises never reaches this one.
+//!
+//! The general-slide family ([`slide`]: R R P whose slide is not ⟂ axis 2) is this family with
+//! joint 3 a slide: [`plan::Constants::slide`] switches the equations in joint 3 from
+//! trigonometric polynomials in `θ3` to polynomials in the slide's value; everything else (the
+//! back substitution, labels, routing and checks) is shared.
 
 pub mod axes_1_2;
 pub mod plan;
+pub mod slide;
+mod slide_steps;
 pub mod steps;
 
 use armforge_runtime::Joint;

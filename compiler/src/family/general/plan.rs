@@ -29,6 +29,16 @@
 //! `k0 + k1 cos θ3 + k2 sin θ3`), i.e. a quartic in a half-angle tangent:
 //! [`crate::plan::quartic::trig_roots`] solves it by Ferrari's method (at most 4 roots: Pieper 1968).
 //!
+//! # Joint 3 a slide (the general-slide family, [`super::slide`])
+//!
+//! With `e3` the slide's direction, `r(d3) = r0 + d3 e3` (`rc = 0`, `rs = e3`, the pair of
+//! joint 3 read as `(1, d3)`, so `∂r/∂d3 = e3` is the circle's `cos θ3 rs − sin θ3 rc`): `Z`
+//! and `Y` are linear in `d3`, `|r|²` and `X` quadratic, and `4a² F(d3) = (2aX)² + 4a² (Y² + Z²
+//! − |r|²)` is a monic quartic, solved by [`crate::plan::quartic::quartic_roots`] (Ferrari's
+//! method and two guarded Newton steps per root). The back substitution, the Newton step on
+//! the two equations (in `(θ2, d3)`), the labels and the routing are the same; a root's
+//! pair for telling copies apart is `(1, d3 / scale)`.
+//!
 //! # Back substitution
 //!
 //! * Joint 2, Paden–Kahan subproblem 1 in the plane ⟂ `h2`: turn `r⊥ = (n·r, ℓ·r)` onto
@@ -47,11 +57,11 @@
 
 use armforge_runtime::internal::{CheckKind, ElbowRule, ShoulderRule};
 use armforge_runtime::plan::CheckLayout;
-use armforge_runtime::{Elbow, Shoulder};
+use armforge_runtime::{Elbow, JointKind, Shoulder};
 
 use crate::plan::arm::Arm;
 use crate::plan::graph::{Graph, Id};
-use crate::plan::quartic::{at, away_from_zero, squared, trig_roots, Linear};
+use crate::plan::quartic::{at, away_from_zero, quartic_roots, squared, trig_roots, Linear};
 use crate::plan::route;
 use crate::plan::subproblems::rotate_onto;
 use crate::plan::vec3::{self, num, V3};
@@ -87,8 +97,11 @@ pub struct Constants {
     pub h1: [f64; 3],
     /// Axis 2.
     pub h2: [f64; 3],
-    /// Axis 3.
+    /// Axis 3 (the slide's direction when joint 3 slides).
     pub h3: [f64; 3],
+    /// Joint 3 slides (the general-slide family, [`super::slide`]): `r(d3) = r0 + d3 rs` with
+    /// `rc = 0` and `rs` the slide's direction, and the equations in `d3` are polynomials.
+    pub slide: bool,
     /// Foot of the common normal on axis 1.
     pub f1: [f64; 3],
     /// Length of the common normal of axes 1 and 2.
@@ -202,15 +215,27 @@ fn axes_1_2(
 
 /// The constants of `arm` (the classifier has made sure that axes 1 and 2 are not one line
 /// and that, when they meet, axis 3 misses the meeting point; `sin α` is kept above 1e-300).
+/// When joint 3 slides, the slide's constants ([`Constants::slide`]).
 pub fn constants(arm: &Arm) -> Constants {
     let lines = [0, 1, 2].map(|i| (arm.axis(i), arm.point(i)));
-    constants_of(lines, arm.wrist_center, arm.scale)
+    let slide = arm.joints[2].kind == JointKind::Prismatic;
+    constants_with(lines, arm.wrist_center, arm.scale, slide)
 }
 
 /// The constants of three joint lines `(h, p)` that place the point `c` (at zero), for an arm
 /// of size `scale`: [`constants`] of a general arm, or the lines of another family's chain
 /// read in this family's terms.
 pub fn constants_of(lines: [([f64; 3], [f64; 3]); 3], c: [f64; 3], scale: f64) -> Constants {
+    constants_with(lines, c, scale, false)
+}
+
+/// [`constants_of`] with joint 3 turning about, or sliding along (`slide`), its line.
+fn constants_with(
+    lines: [([f64; 3], [f64; 3]); 3],
+    c: [f64; 3],
+    scale: f64,
+    slide: bool,
+) -> Constants {
     let [(h1, p1), (h2, p2), (h3, p3)] = lines;
     let cos_a = num::dot(&h1, &h2);
     let sin_a = num::norm(&num::cross(&h1, &h2)).max(1e-300);
@@ -225,20 +250,29 @@ pub fn constants_of(lines: [([f64; 3], [f64; 3]); 3], c: [f64; 3], scale: f64) -
     };
     let v = num::sub(&c, &p3);
     let along = num::dot(&h3, &v);
-    let r0 = num::add(&num::sub(&p3, &f2), &num::scale(&h3, along));
-    let rc = num::sub(&v, &num::scale(&h3, along));
-    let rs = num::cross(&h3, &v);
+    // A slide: r(d3) = (c − f2) + d3 h3, the circle's `cos θ3 rc + sin θ3 rs` read at
+    // `(1, d3)` with `rc = 0`, `rs = h3`.
+    let (r0, rc, rs) = if slide {
+        (num::sub(&c, &f2), [0.0; 3], h3)
+    } else {
+        (
+            num::add(&num::sub(&p3, &f2), &num::scale(&h3, along)),
+            num::sub(&v, &num::scale(&h3, along)),
+            num::cross(&h3, &v),
+        )
+    };
     // The labels at zero: the wrist center's side of the plane, the Jacobian's sign.
     let facing = sign(num::dot(&side, &num::sub(&c, &f1)));
     let d1 = num::cross(&h1, &num::sub(&c, &p1));
     let d2 = num::cross(&h2, &num::sub(&c, &p2));
-    let d3 = num::cross(&h3, &v);
+    let d3 = if slide { h3 } else { num::cross(&h3, &v) };
     let up = sign(num::dot(&d1, &num::cross(&d2, &d3)));
     Constants {
         layout,
         h1,
         h2,
         h3,
+        slide,
         f1,
         a,
         n,
@@ -369,6 +403,64 @@ fn solve_skew(
     let tol = 1e-10 * scale;
     let target = aim(g, k, ct);
     let Aim { u, rho, zeta } = target;
+    let (x, y, z, roots) = if k.slide {
+        slide_quartic(g, k, r, &target)
+    } else {
+        turn_quartic(g, k, r, &target)
+    };
+    let on_axis = on_axis_1(g, &target, tol);
+    let carried: Vec<Root> = roots
+        .iter()
+        .enumerate()
+        .map(|(i, &cs3)| {
+            carry(
+                g,
+                (k, r),
+                t,
+                (u, rho, zeta),
+                x,
+                y,
+                z,
+                cs3,
+                on_axis,
+                (i + 1, scale),
+            )
+        })
+        .collect();
+    route(g, k, &carried, on_axis, (tol, scale))
+}
+
+/// `X` (`n · R2 r`) as a function of joint 3: a trigonometric polynomial of degree 1 in `θ3`
+/// (a turn), or a polynomial of degree 2 in `d3` (a slide, read at `(1, d3)`).
+#[derive(Clone, Copy)]
+pub(super) enum Curve {
+    /// `k0 + k1 cos θ3 + k2 sin θ3`.
+    Trig(Linear),
+    /// `k0 + k1 d3 + k2 d3²`.
+    Poly([Id; 3]),
+}
+
+impl Curve {
+    /// The value at joint 3's pair: `(cos θ3, sin θ3)`, or `(1, d3)` for a slide.
+    pub(super) fn at(self, g: &mut Graph, (c3, s3): (Id, Id)) -> Id {
+        match self {
+            Curve::Trig(l) => at(g, l, (c3, s3)),
+            Curve::Poly([k0, k1, k2]) => {
+                let q = g.mul(k2, s3);
+                let q = g.add(q, k1);
+                let q = g.mul(q, s3);
+                g.add(q, k0)
+            }
+        }
+    }
+}
+
+/// The equations of the quartic: `X`, `Y`, `Z` and the candidates of joint 3.
+type Quartic = (Curve, Linear, Linear, Vec<(Id, Id)>);
+
+/// Joint 3 turns: `F(θ3) = X² + Y² + Z² − |r|²`, a trigonometric polynomial of degree 2.
+fn turn_quartic(g: &mut Graph, k: &Constants, r: &Circle, target: &Aim) -> Quartic {
+    let Aim { rho, zeta, .. } = *target;
     let kk = radius_terms(g, r);
     let z = along(g, r, k.h2);
     let inv_2a = 1.0 / (2.0 * k.a);
@@ -430,27 +522,102 @@ fn solve_skew(
         );
     }
     let roots = trig_roots(g, f, "j3");
-    let on_axis = on_axis_1(g, &target, tol);
-    let carried: Vec<Root> = roots
-        .roots
-        .iter()
-        .enumerate()
-        .map(|(i, &cs3)| {
-            carry(
-                g,
-                (k, r),
-                t,
-                (u, rho, zeta),
-                x,
-                y,
-                z,
-                cs3,
-                on_axis,
-                (i + 1, scale),
-            )
-        })
-        .collect();
-    route(g, k, &carried, on_axis, (tol, scale))
+    (Curve::Trig(x), y, z, roots.roots.to_vec())
+}
+
+/// `(Σ pᵢ dⁱ)²`, coefficients lowest power first (`p` of degree 2: a degree-4 result).
+fn poly_square(g: &mut Graph, p: [Id; 3]) -> [Id; 5] {
+    let two = g.constant(2.0);
+    let sq = |g: &mut Graph, a: Id| g.mul(a, a);
+    let twice = |g: &mut Graph, a: Id, b: Id| {
+        let ab = g.mul(a, b);
+        g.mul(two, ab)
+    };
+    let c0 = sq(g, p[0]);
+    let c1 = twice(g, p[0], p[1]);
+    let c2 = {
+        let a = sq(g, p[1]);
+        let b = twice(g, p[0], p[2]);
+        g.add(a, b)
+    };
+    let c3 = twice(g, p[1], p[2]);
+    let c4 = sq(g, p[2]);
+    [c0, c1, c2, c3, c4]
+}
+
+/// Joint 3 slides: `r(d3) = r0 + d3 e3` (`e3 = rs`, `rc = 0`), so `Z` and `Y` are linear in
+/// `d3`, `|r|² = |r0|² + 2 (r0 · e3) d3 + d3²` and `X` quadratic, and
+/// `4a² F(d3) = W² + 4a² (Y² + Z² − |r|²)`, `W = 2aX = ρ − a² − |r|²`, is a monic quartic in
+/// `d3`, solved by Ferrari's method ([`quartic_roots`], two guarded Newton steps per root).
+fn slide_quartic(g: &mut Graph, k: &Constants, r: &Circle, target: &Aim) -> Quartic {
+    let Aim { rho, zeta, .. } = *target;
+    let z = along(g, r, k.h2);
+    let two = g.constant(2.0);
+    let r00 = vec3::dot(g, r.r0, r.r0);
+    let r0e = vec3::dot(g, r.r0, r.rs);
+    let r1 = g.mul(two, r0e);
+    let one = g.constant(1.0);
+    // W = ρ − a² − |r|² = w0 + w1 d3 − d3².
+    let w0 = {
+        let aa = g.constant(k.a * k.a);
+        let shift = g.add(aa, r00);
+        let w0 = g.sub(rho, shift);
+        g.name(
+            w0,
+            "w0",
+            format!(
+                "W = 2aX = ρ − a² − |r|²: constant part, a = {} m",
+                tidy(k.a)
+            ),
+        )
+    };
+    let w = [w0, g.neg(r1), g.neg(one)];
+    let inv_2a = g.constant(1.0 / (2.0 * k.a));
+    let x = w.map(|wi| g.mul(inv_2a, wi));
+    let cot = k.cos_a / k.sin_a;
+    let y0 = {
+        let cos_a = g.constant(k.cos_a);
+        let shift = g.mul(cos_a, z[0]);
+        let d = g.sub(zeta, shift);
+        let s = g.constant(1.0 / k.sin_a);
+        let y0 = g.mul(s, d);
+        g.name(
+            y0,
+            "y0",
+            format!(
+                "Y = (ζ − cos α Z)/sin α: constant part, cos α = {}, sin α = {}",
+                tidy(k.cos_a),
+                tidy(k.sin_a)
+            ),
+        )
+    };
+    let minus_cot = g.constant(-cot);
+    let y = [y0, g.mul(minus_cot, z[1]), g.mul(minus_cot, z[2])];
+    let zero = g.constant(0.0);
+    let ww = poly_square(g, w);
+    let yy = poly_square(g, [y[0], y[2], zero]);
+    let zz = poly_square(g, [z[0], z[2], zero]);
+    let radius2 = [r00, r1, one];
+    let four_aa = g.constant(4.0 * k.a * k.a);
+    let mut c = [0; 5];
+    for i in 0..5 {
+        c[i] = if i < 3 {
+            let s = g.add(yy[i], zz[i]);
+            let s = g.sub(s, radius2[i]);
+            let s = g.mul(four_aa, s);
+            g.add(ww[i], s)
+        } else {
+            ww[i]
+        };
+        c[i] = g.name(
+            c[i],
+            &format!("j3_c{i}"),
+            format!("4a² F(d3) = W² + 4a² (Y² + Z² − |r|²): coefficient of d3^{i}"),
+        );
+    }
+    let roots = quartic_roots(g, &[c[4], c[3], c[2], c[1], c[0]], "j3");
+    let pairs = roots.iter().map(|&d| (one, d)).collect();
+    (Curve::Poly(x), y, z, pairs)
 }
 
 /// The wrist center with joint 1 undone for joint pairs `(c2, s2)`, `(c3, s3)`:
@@ -537,7 +704,7 @@ fn carry(
     (k, r): (&Constants, &Circle),
     t: &Target,
     (u, rho, zeta): (V3, Id, Id),
-    x: Linear,
+    x: Curve,
     y: Linear,
     z: Linear,
     (c3, s3): (Id, Id),
@@ -548,7 +715,7 @@ fn carry(
     let rl = along(g, r, k.ell);
     let rn = at(g, rn, (c3, s3));
     let rl = at(g, rl, (c3, s3));
-    let xv = at(g, x, (c3, s3));
+    let xv = x.at(g, (c3, s3));
     let yv = at(g, y, (c3, s3));
     let my = if k.mu > 0.0 { yv } else { g.neg(yv) };
     // Paden–Kahan 1 in the plane ⟂ h2: (n·r, ℓ·r) onto (X, μY).
@@ -594,14 +761,25 @@ fn carry(
         g.div(d, det)
     };
     let (c2n, s2n) = turn_by(g, (c2, s2), delta2);
-    let (c3n, s3n) = turn_by(g, (c3, s3), delta3);
+    let (c3n, s3n) = if k.slide {
+        (c3, g.add(s3, delta3))
+    } else {
+        turn_by(g, (c3, s3), delta3)
+    };
     let after = placed(g, (k, r), z, (c2n, s2n), (c3n, s3n));
     let (_, _, miss1) = misses(g, k, after.w, rho, zeta, four_rho);
     let lowers = g.sub(miss0, miss1);
     // A short step only (|δ| ≤ 1e-6 rad): the step polishes a root; it must not carry the real
     // part of a complex pair onto a neighbouring real root (a duplicate with another label).
     let d22 = g.mul(delta2, delta2);
-    let d33 = g.mul(delta3, delta3);
+    let d33 = if k.slide {
+        // A slide's step in metres, measured against the arm's size.
+        let per = g.constant(1.0 / scale);
+        let relative = g.mul(per, delta3);
+        g.mul(relative, relative)
+    } else {
+        g.mul(delta3, delta3)
+    };
     let step2 = g.add(d22, d33);
     let bound = g.exact(1e-12);
     let short = g.sub(bound, step2);
@@ -643,8 +821,17 @@ pub(super) fn finish(
     Placed { w, side, d3 }: Placed,
     (n, note2, scale): (usize, &str, f64),
 ) -> Root {
-    let theta3 = g.atan2(s3, c3);
-    let theta3 = g.name(theta3, &format!("q3_{n}"), "θ3 = atan2(sin θ3, cos θ3)");
+    let (theta3, turn3) = if k.slide {
+        // The slide's value is the root itself; its pair for telling roots apart is
+        // `(1, d3 / scale)`, a length measured against the arm's size.
+        let d3 = g.name(s3, &format!("q3_{n}"), "d3: the slide's root");
+        let per = g.constant(1.0 / scale);
+        (d3, (c3, g.mul(per, s3)))
+    } else {
+        let theta3 = g.atan2(s3, c3);
+        let theta3 = g.name(theta3, &format!("q3_{n}"), "θ3 = atan2(sin θ3, cos θ3)");
+        (theta3, (c3, s3))
+    };
     let theta2 = g.atan2(s2, c2);
     let theta2 = g.name(theta2, &format!("q2_{n}"), note2);
     let w = vec3::name(
@@ -694,7 +881,7 @@ pub(super) fn finish(
     );
     Root {
         angles: [theta1, theta2, theta3],
-        turns: [(c1, s1), (c2, s2), (c3, s3)],
+        turns: [(c1, s1), (c2, s2), turn3],
         residual,
         merge,
         facing: g.name(side, &format!("side_{n}"), "≥ 0: shoulder facing"),
@@ -757,13 +944,13 @@ pub(super) fn route(
             let angles =
                 [0, 1, 2].map(|j| g.name(v[j], &format!("q{}_{tag}", j + 1), "this label's root"));
             let turn = |j: usize| (v[3 + 2 * j], v[4 + 2 * j]);
+            let mut undo = vec![Turn::about(k.h1, turn(0)), Turn::about(k.h2, turn(1))];
+            if !k.slide {
+                undo.push(Turn::about(k.h3, turn(2)));
+            }
             ArmSolution {
                 angles,
-                undo: vec![
-                    Turn::about(k.h1, turn(0)),
-                    Turn::about(k.h2, turn(1)),
-                    Turn::about(k.h3, turn(2)),
-                ],
+                undo,
                 shoulder: if facing {
                     Shoulder::Facing
                 } else {

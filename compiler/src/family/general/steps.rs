@@ -16,6 +16,15 @@ const METHOD: &str = "**Joints 1–3 (general family)**: joint 1 keeps the wrist
     solved by **Ferrari's method** with two Newton steps per root (0–4 roots); joints 2 and 1 \
     by **Paden–Kahan subproblem 1** (Paden 1986; Murray, Li & Sastry 1994, §3.3).";
 
+/// §3's bullet on joints 1–3 when joint 3 slides (the general-slide family).
+const METHOD_SLIDE: &str = "**Joints 1–3 (general-slide family)**: joint 1 keeps the wrist \
+    center's distance from a point of axis 1 and its height along axis 1; the slide moves the \
+    wrist center along a line, so eliminating joint 2 leaves a **quartic** in the slide's value \
+    `d3` (Pieper 1968), solved by **Ferrari's method** with two Newton steps per root (0–4 \
+    roots), or a quadratic (axes 1 and 2 meeting) or a linear equation (axes 1 and 2 \
+    parallel); joints 2 and 1 by **Paden–Kahan subproblems 1 and 2** (Paden 1986; Murray, Li & \
+    Sastry 1994, §3.3).";
+
 /// Joint 1 by subproblem 1, the same line for every general page.
 const JOINT_1_LINE: &str =
     "θ1 = atan2(h1 · ((w − f1)⊥h1 × u), (w − f1)⊥h1 · u)     (the reference on axis 1)";
@@ -24,17 +33,19 @@ const JOINT_1_LINE: &str =
 pub fn steps(plan: &Plan) -> Steps {
     let k = constants(&plan.arm);
     let [three, two_one] = position_steps(&k);
-    decoupled(plan, METHOD, vec![three, two_one, real_roots(&k)])
+    let method = if k.slide { METHOD_SLIDE } else { METHOD };
+    decoupled(plan, method, vec![three, two_one, real_roots(&k)])
 }
 
 /// The two steps of the position problem for the lines of `k` (the quartic, or the
 /// quadratics when its axes 1 and 2 meet or are parallel), in the general family's symbols;
 /// the mid-wrist family shows them for its chain.
 pub(crate) fn position_steps(k: &Constants) -> [Step; 2] {
-    match k.layout {
-        Layout::Skew => quartic(k),
-        Layout::Meet => meeting(k),
-        Layout::Parallel => parallel(k),
+    match (k.layout, k.slide) {
+        (Layout::Skew, false) => quartic(k),
+        (Layout::Meet, false) => meeting(k),
+        (Layout::Parallel, false) => parallel(k),
+        (layout, true) => super::slide_steps::steps(k, layout, JOINT_1_LINE),
     }
 }
 

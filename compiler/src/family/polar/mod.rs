@@ -119,7 +119,12 @@ impl FamilyModule for Polar {
     }
 
     fn recognise(&self, ctx: &Context) -> Recognition {
-        decoupled::recognise(ctx, self, check, measure)
+        // An R R P arm that fails the polar conditions is not degenerate: the general-slide
+        // family (`family::general::slide`) solves it or says precisely why not.
+        match decoupled::recognise(ctx, self, check, measure) {
+            Recognition::Degenerate(r) => Recognition::NotMine(Some(r)),
+            other => other,
+        }
     }
 
     fn build_plan(&self, model: &Model, geometry: &Geometry) -> Plan {
