@@ -252,7 +252,13 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
         return sample_tool_first(seed, options);
     }
     if family == Family::BaseParallel {
-        let model = sample_base_parallel(seed, options);
+        // Axes 4 and 5 apart, meeting (seeds 3 modulo 5) or parallel (4 modulo 5).
+        let placement = match seed % 5 {
+            3 => Placement::Meeting,
+            4 => Placement::Parallel,
+            _ => Placement::Apart,
+        };
+        let model = sample_base_parallel_placed(seed, options, placement);
         let geometry = match classify(&model, &Tolerances::default()) {
             Ok(g) if g.family == family => g,
             other => panic!("sample base-parallel arm {seed}: classified as {other:?}"),
