@@ -107,6 +107,7 @@ emitted_arms! {
     // arms before it keep their samples.
     drawer_puller = "../arms/drawer-puller-axes.toml";
     bath_dipper = "../arms/bath-dipper-axes.toml";
+    bench_rail_picker = "../arms/bench-rail-picker-axes.toml";
     boom_swiveller = "../arms/boom-swiveller-axes.toml";
 }
 
@@ -129,6 +130,7 @@ emitted_arms! {
     tray_tipper_f32 = "../arms/tray-tipper-axes.toml";
     drawer_puller_f32 = "../arms/drawer-puller-axes.toml";
     bath_dipper_f32 = "../arms/bath-dipper-axes.toml";
+    bench_rail_picker_f32 = "../arms/bench-rail-picker-axes.toml";
     boom_swiveller_f32 = "../arms/boom-swiveller-axes.toml";
 }
 

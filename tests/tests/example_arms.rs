@@ -210,6 +210,14 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
                 assert!(along < 1.0 - ON_LINE, "{path}: axis 3 not ⟂ both slides");
                 "carriage"
             }
+            [P, R, R] => {
+                // Axes 2 and 3 skew: neither parallel nor meeting (a quartic in the slide).
+                assert!(
+                    norm(&cross(&h2, &h3)) > NOT_PARALLEL,
+                    "{path}: axes 2 and 3 not parallel"
+                );
+                "base-slide"
+            }
             [R, P, R] => {
                 // Pieper's criterion: the wrist's axes meet. Joint 3 must move the wrist
                 // center and, with the slide ⟂ axis 1, change its height along axis 1.

@@ -55,6 +55,7 @@ emitted!(
     general_slide_parallel,
     "generated/general_slide_parallel.rs"
 );
+emitted!(base_slide, "generated/base_slide.rs");
 emitted!(middle_slide_level, "generated/middle_slide_level.rs");
 emitted!(middle_slide_tilted, "generated/middle_slide_tilted.rs");
 
@@ -165,6 +166,7 @@ fn emitted_modules_agree_with_the_interpreter_bit_for_bit() {
         compare(api!(general_slide), "general_slide"),
         compare(api!(general_slide_meeting), "general_slide_meeting"),
         compare(api!(general_slide_parallel), "general_slide_parallel"),
+        compare(api!(base_slide), "base_slide"),
         compare(api!(middle_slide_level), "middle_slide_level"),
         compare(api!(middle_slide_tilted), "middle_slide_tilted"),
     ];

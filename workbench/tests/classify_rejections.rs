@@ -157,9 +157,11 @@ fn degenerate_wrist() {
 
 #[test]
 fn first_three_meet_with_a_hand_of_no_family() {
-    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P R R: no family of joints 1–3.
+    // Axes 1–3 meet; read from the tool, joints 6, 5, 4 are P R P: no family of joints 1–3
+    // (P R R is the base-slide family's, P P R the carriage family's).
     let mut m = arms::first_three_meet();
     m.joints[5].joint.kind = armforge_runtime::JointKind::Prismatic;
+    m.joints[3].joint.kind = armforge_runtime::JointKind::Prismatic;
     let e = reject(&m);
     assert_eq!(e.reason.kind(), "base_wrist_hand_unsolved", "{e}");
     assert!(
@@ -228,17 +230,32 @@ fn rrr_with_axes_1_and_2_on_one_line_is_degenerate() {
 
 #[test]
 fn unsupported_pattern() {
+    // P R R with axes 2 and 3 parallel and ⟂ the slide: the base-slide family's degenerate
+    // layout, in its own words.
     let e = reject(&arms::slide_first());
+    assert!(
+        e.to_string().contains("height along the parallel axes"),
+        "{e}"
+    );
+    // P R P: joint 3 is where it leaves the patterns starting with P R (P R R).
+    let mut m = arms::slide_first();
+    m.joints[2].joint.kind = armforge_runtime::JointKind::Prismatic;
+    m.joints[2].joint.limits = [0.0, 0.5];
+    let e = reject(&m);
     assert_eq!(
         e.reason,
         Reason::UnsupportedPattern {
-            pattern: "P R R".into()
+            pattern: "P R P".into()
         }
     );
-    // P R R: joint 2 is where it leaves the only pattern starting with P (P P P).
-    assert_eq!(e.joint, Some(2));
+    assert_eq!(e.joint, Some(3));
     // The message lists the registry's families of joints 1–3, each with its pattern.
-    for family in ["elbow (R R R)", "cylindrical (R P P)", "cartesian (P P P)"] {
+    for family in [
+        "elbow (R R R)",
+        "cylindrical (R P P)",
+        "cartesian (P P P)",
+        "base-slide (P R R)",
+    ] {
         assert!(e.to_string().contains(family), "{family}: {e}");
     }
     // Every pattern starting with R, and P P R, now has a family (R P R the middle-slide

@@ -475,6 +475,7 @@ fn the_sheets_equations_with_its_numbers_give_the_solvers_joints() {
                 | Family::MidWrist
                 | Family::BaseParallel
                 | Family::ToolFirst
+                | Family::BaseSlide
         ) {
             // These equations are the pages of the families with a spherical wrist at joints
             // 4–6 (the other families' steps use the same constants as their plans).

@@ -62,6 +62,8 @@ pub enum ArmEvidence {
     MidWrist(crate::family::mid_wrist::MidWristEvidence),
     /// Axes 1–3 parallel.
     BaseParallel(crate::family::base_parallel::BaseParallelEvidence),
+    /// P R R with axes 2 and 3 skew.
+    BaseSlide(crate::family::base_slide::BaseSlideEvidence),
     /// R P R (joint 2 a slide).
     MiddleSlide(crate::family::middle_slide::MiddleSlideEvidence),
     /// Read from the tool: the mirrored arm solves any target.

@@ -17,6 +17,7 @@
 #![allow(clippy::result_large_err)]
 
 pub mod base_parallel;
+pub mod base_slide;
 pub mod base_wrist;
 pub mod carriage;
 pub mod cartesian;
@@ -83,6 +84,8 @@ pub enum Family {
     /// R R P of no named family (the slide not ⟂ axis 2), spherical wrist: the general
     /// family's reduction with joint 3 a slide, a quartic in the slide's value.
     GeneralSlide,
+    /// P R R with axes 2 and 3 skew, spherical wrist: a quartic in the slide.
+    BaseSlide,
 }
 
 impl Family {
@@ -125,6 +128,7 @@ pub static REGISTRY: &[&dyn FamilyModule] = &[
     &mid_wrist::MID_WRIST,
     &base_parallel::BASE_PARALLEL,
     &general::slide::GENERAL_SLIDE,
+    &base_slide::BASE_SLIDE,
     &middle_slide::MIDDLE_SLIDE,
     &tool_first::TOOL_FIRST,
     &carriage::CARRIAGE,

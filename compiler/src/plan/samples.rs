@@ -161,7 +161,7 @@ impl Fixture {
 
 /// The sample arms with checked-in emitted modules: the one table that the emitter's tests,
 /// the fixture refresh and the tests that compile the fixtures all read.
-pub fn fixtures() -> [Fixture; 24] {
+pub fn fixtures() -> [Fixture; 25] {
     let plain = SampleOptions::default();
     let dextrous = SampleOptions {
         orthogonal_wrist: true,
@@ -210,6 +210,7 @@ pub fn fixtures() -> [Fixture; 24] {
         fixture("general_slide", Family::GeneralSlide, 27, plain),
         fixture("general_slide_meeting", Family::GeneralSlide, 28, meeting),
         fixture("general_slide_parallel", Family::GeneralSlide, 29, parallel),
+        fixture("base_slide", Family::BaseSlide, 27, plain),
         fixture("middle_slide_level", Family::MiddleSlide, 28, plain),
         fixture("middle_slide_tilted", Family::MiddleSlide, 29, plain),
     ]
@@ -283,10 +284,12 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
     }
     // The general-slide family's arms keep the seeds they were built (and their fixtures
     // emitted) with when it was the 12th variant of `Family`.
-    let tag = if family == Family::GeneralSlide {
-        11
-    } else {
-        family as u64
+    let tag = match family {
+        Family::GeneralSlide => 11,
+        // The base-slide sample arms keep the seed they had (and their fixture was emitted
+        // with) as the 13th variant.
+        Family::BaseSlide => 12,
+        _ => family as u64,
     };
     let mut rng = SampleRng::new(seed.wrapping_mul(7919).wrapping_add(tag));
     let range = options.revolute_range;
@@ -423,6 +426,33 @@ pub fn sample_arm(family: Family, seed: u64, options: &SampleOptions) -> (Model,
                 revolute(h1, p1, range),
                 revolute(h2, p2, range),
                 prismatic(e3, [-1.2, 1.2]),
+                c,
+            )
+        }
+        Family::BaseSlide => {
+            // A slide, then axes 2 and 3 apart along their common normal and not parallel,
+            // the wrist center off axis 3.
+            let e1 = h1;
+            let h2 = rng.direction();
+            let p2 = num::add(&p1, &rng.point(0.3));
+            let h3 = rng.direction_away_from(&h2, 0.9);
+            let normal = num::unit(&num::cross(&h2, &h3));
+            let p3 = num::add(
+                &num::add(&p2, &num::scale(&normal, rng.range(0.05, 0.4) * rng.sign())),
+                &num::add(
+                    &num::scale(&h2, rng.range(-0.3, 0.3)),
+                    &num::scale(&h3, rng.range(-0.3, 0.3)),
+                ),
+            );
+            let fore = num::scale(&rng.perpendicular(&h3), rng.range(0.2, 0.7));
+            let c = num::add(
+                &num::add(&p3, &fore),
+                &num::scale(&h3, rng.range(-0.2, 0.2)),
+            );
+            (
+                prismatic(e1, [-3.0, 3.0]),
+                revolute(h2, p2, range),
+                revolute(h3, p3, range),
                 c,
             )
         }

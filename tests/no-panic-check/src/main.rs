@@ -135,6 +135,8 @@ checked_arm!(drawer_f64 = "../../arms/drawer-puller-axes.toml", f64);
 checked_arm!(drawer_f32 = "../../arms/drawer-puller-axes.toml", f32);
 checked_arm!(dipper_f64 = "../../arms/bath-dipper-axes.toml", f64);
 checked_arm!(dipper_f32 = "../../arms/bath-dipper-axes.toml", f32);
+checked_arm!(rail_f64 = "../../arms/bench-rail-picker-axes.toml", f64);
+checked_arm!(rail_f32 = "../../arms/bench-rail-picker-axes.toml", f32);
 checked_arm!(boom_f64 = "../../arms/boom-swiveller-axes.toml", f64);
 checked_arm!(boom_f32 = "../../arms/boom-swiveller-axes.toml", f32);
 
@@ -177,6 +179,8 @@ fn main() {
         ("drawer f32", drawer_f32::run, drawer_f32::sizes),
         ("dipper f64", dipper_f64::run, dipper_f64::sizes),
         ("dipper f32", dipper_f32::run, dipper_f32::sizes),
+        ("rail f64", rail_f64::run, rail_f64::sizes),
+        ("rail f32", rail_f32::run, rail_f32::sizes),
         ("boom f64", boom_f64::run, boom_f64::sizes),
         ("boom f32", boom_f32::run, boom_f32::sizes),
     ];

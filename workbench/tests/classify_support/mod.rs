@@ -294,6 +294,12 @@ pub fn invariant_numbers(model: &Model, g: &Geometry) -> Vec<(String, f64)> {
             put("gap_5_6", e.gap_5_6);
             put("stretched", joint_value(model, 1, e.stretched_at));
         }
+        ArmEvidence::BaseSlide(e) => {
+            put("slide_angle_to_axis_2", e.slide_angle_to_axis_2);
+            put("common_normal_2_3", e.common_normal_2_3);
+            put("angle_2_3", e.angle_2_3);
+            put("wrist_center_from_axis_3", e.wrist_center_from_axis_3);
+        }
         ArmEvidence::MidWrist(e) => {
             put("mid_wrist.miss", e.wrist.miss);
             put("mid_wrist.angle_2_3", e.wrist.angle_4_5);

@@ -165,7 +165,12 @@ impl Circle {
 }
 
 /// The common normal of two lines `p + s h`: its feet on each line.
-fn common_normal(p1: &[f64; 3], h1: &[f64; 3], p2: &[f64; 3], h2: &[f64; 3]) -> [[f64; 3]; 2] {
+pub(crate) fn common_normal(
+    p1: &[f64; 3],
+    h1: &[f64; 3],
+    p2: &[f64; 3],
+    h2: &[f64; 3],
+) -> [[f64; 3]; 2] {
     let w0 = num::sub(p1, p2);
     let b = num::dot(h1, h2);
     let d = num::dot(h1, &w0);
