@@ -276,3 +276,25 @@ fn degenerate_arms_are_rejected_with_the_reason() {
     let g = classify(&off, &Tolerances::default()).expect("recognised");
     assert_eq!(g.family, Family::GeneralSlide);
 }
+
+#[test]
+fn the_tray_telescope_reaches_four_positions() {
+    // An invented example arm of our lab: the telescope makes about 61° with the hinge axis.
+    let path =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../arms/tray-telescope-axes.toml");
+    let model = armforge_compiler::pipeline::load_model(&path, "tray-telescope")
+        .unwrap_or_else(|e| panic!("{e}"));
+    let solver = Solver::for_model(&model).unwrap_or_else(|r| panic!("{r}"));
+    assert_eq!(solver.plan().arm.family, Family::GeneralSlide);
+    let mut rng = SampleRng::new(27);
+    let (mut eight, poses) = (0, sample_count(300));
+    for _ in 0..poses {
+        let q = sample_configuration(&model, &mut rng);
+        if check_round_trip(&solver, &model, &q, 8, "tray-telescope") == 8 {
+            eight += 1;
+        }
+    }
+    eprintln!("tray-telescope: {eight} of {poses} poses with 8 solutions");
+    // Pieper 1968 (from memory): up to 4 positions; this arm reaches them.
+    assert!(eight > 0);
+}

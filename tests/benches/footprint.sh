@@ -19,7 +19,7 @@ size() { echo "$syms" | awk -v n="armforge_no_panic_check::$1" '$2 == n { printf
 echo
 echo "| arm, scalar | solve | candidates | solve_near | solve_branch | branch_k | forward |"
 echo "|---|---:|---:|---:|---:|---:|---:|"
-for arm in bench ceiling centrifuge hotel rack gantry lid shelf hood reagent incubator tipper turner drawer dipper rail boom; do
+for arm in bench ceiling centrifuge hotel rack gantry lid shelf hood reagent incubator tipper turner drawer dipper rail boom telescope; do
     for s in f64 f32; do
         m="${arm}_$s"
         branches=$(echo "$syms" | awk -v p="armforge_no_panic_check::$m::arm::branch_" \

@@ -109,6 +109,7 @@ emitted_arms! {
     bath_dipper = "../arms/bath-dipper-axes.toml";
     bench_rail_picker = "../arms/bench-rail-picker-axes.toml";
     boom_swiveller = "../arms/boom-swiveller-axes.toml";
+    tray_telescope = "../arms/tray-telescope-axes.toml";
 }
 
 emitted_arms! {
@@ -132,6 +133,7 @@ emitted_arms! {
     bath_dipper_f32 = "../arms/bath-dipper-axes.toml";
     bench_rail_picker_f32 = "../arms/bench-rail-picker-axes.toml";
     boom_swiveller_f32 = "../arms/boom-swiveller-axes.toml";
+    tray_telescope_f32 = "../arms/tray-telescope-axes.toml";
 }
 
 /// The bench arm (`arms/bench-elbow-dh.toml`) through the compiler: its plan and module, as

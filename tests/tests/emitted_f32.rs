@@ -297,6 +297,19 @@ fn aligned_model_value(table: &[armforge_runtime::Joint; JOINTS], w: usize) -> f
     dot(h5, &cross(h6, h4)).atan2(dot(h6, h4))
 }
 
+/// Whether joint `w + 1` can line axis `w + 2` up with axis `w` (Rodrigues' rotation of the
+/// third axis about the middle one by [`aligned_model_value`]).
+fn wrist_can_align(table: &[armforge_runtime::Joint; JOINTS], w: usize) -> bool {
+    use armforge_runtime::math::{cross, dot};
+    let (h4, h5, h6) = (&table[w].axis, &table[w + 1].axis, &table[w + 2].axis);
+    let m = aligned_model_value(table, w);
+    let along = dot(h5, h6);
+    let turned: [f64; 3] = std::array::from_fn(|i| {
+        h5[i] * along + (h6[i] - h5[i] * along) * m.cos() + cross(h5, h6)[i] * m.sin()
+    });
+    dot(&turned, h4).abs() > 1.0 - 1e-9
+}
+
 /// Tolerances follow the scalar's epsilon: a wrist exactly at either aligned position, posed
 /// in `f64` and rounded to `f32`, is flagged aligned by the `f32` solver. With the `f64`
 /// thresholds (sine 1e-10, below `f32`'s rounding of about 1e-7) it never was.
@@ -319,6 +332,11 @@ fn exactly_aligned_wrists_are_flagged_in_single_precision() {
         };
         let mut table = [generated.plan.arm.joints[0]; JOINTS];
         table.copy_from_slice(&generated.plan.arm.joints);
+        if !wrist_can_align(&table, w) {
+            // Axes 4 and 6 never line up (the wrist's twists differ, as on the tray
+            // telescope): no pose is aligned.
+            continue;
+        }
         let reference = ReferenceArm::load(&arm.file());
         let mut rng = StdRng::seed_from_u64(0xa1);
         let (mut tried, mut flagged) = (0, 0);

@@ -176,13 +176,21 @@ fn every_example_arm_has_a_solvable_family_for_its_first_three_joints() {
             // Any other R R R before a spherical wrist: Pieper's criterion (Pieper 1968) gives
             // a closed form, a quartic in general.
             [R, R, R] => "general",
-            [R, R, P] => {
-                assert!(dot(&h2, &h3).abs() < ON_LINE, "{path}: slide ⟂ axis 2");
+            [R, R, P] if dot(&h2, &h3).abs() < ON_LINE => {
                 assert!(
                     norm(&cross(&h1, &h2)) > NOT_PARALLEL,
                     "{path}: axis 1 ∦ axis 2"
                 );
                 "polar"
+            }
+            // A slide not ⟂ axis 2: the general family's quartic in the slide (Pieper's
+            // criterion, Pieper 1968). Something must change the height along axis 1.
+            [R, R, P] => {
+                assert!(
+                    norm(&cross(&h1, &h2)) > NOT_PARALLEL || dot(&h1, &h3).abs() > NOT_PARALLEL,
+                    "{path}: the height along axis 1 changes"
+                );
+                "general-slide"
             }
             [R, P, P] => {
                 assert!(

@@ -139,6 +139,8 @@ checked_arm!(rail_f64 = "../../arms/bench-rail-picker-axes.toml", f64);
 checked_arm!(rail_f32 = "../../arms/bench-rail-picker-axes.toml", f32);
 checked_arm!(boom_f64 = "../../arms/boom-swiveller-axes.toml", f64);
 checked_arm!(boom_f32 = "../../arms/boom-swiveller-axes.toml", f32);
+checked_arm!(telescope_f64 = "../../arms/tray-telescope-axes.toml", f64);
+checked_arm!(telescope_f32 = "../../arms/tray-telescope-axes.toml", f32);
 
 /// One checked arm: its name, `run` and `sizes`.
 type Checked = (&'static str, fn([f64; 6]) -> usize, fn() -> (usize, usize));
@@ -183,6 +185,8 @@ fn main() {
         ("rail f32", rail_f32::run, rail_f32::sizes),
         ("boom f64", boom_f64::run, boom_f64::sizes),
         ("boom f32", boom_f32::run, boom_f32::sizes),
+        ("telescope f64", telescope_f64::run, telescope_f64::sizes),
+        ("telescope f32", telescope_f32::run, telescope_f32::sizes),
     ];
     let counts: Vec<usize> = arms.iter().map(|(_, run, _)| run(q)).collect();
     println!("no panic path in any wrapped call; solutions + branch + near per solver: {counts:?}");
