@@ -37,6 +37,25 @@ pub struct Slot {
     pub labels: [bool; 2],
 }
 
+/// The note of a slot's score when it is a plain residual (or a spare root's).
+pub const SPARE_NOTE: &str =
+    "the residual of this label's root (or of a spare root, when none has the label)";
+
+impl Slot {
+    /// The slot's tag for the names of its values: one letter per label, the first of each
+    /// pair in `letters` when the label is `true` (`[["f", "a"], ["u", "d"]]` gives `fu`, `fd`,
+    /// `au`, `ad`).
+    pub fn tag(&self, letters: [[&str; 2]; 2]) -> String {
+        let pick = |i: usize| letters[i][usize::from(!self.labels[i])];
+        format!("{}{}", pick(0), pick(1))
+    }
+
+    /// The slot's score, named `miss_{tag}` with `note` (what it is the residual of).
+    pub fn named_score(&self, g: &mut Graph, tag: &str, note: &str) -> Id {
+        g.name(self.score, &format!("miss_{tag}"), note)
+    }
+}
+
 /// The four slots' labels, in order.
 pub const SLOTS: [[bool; 2]; 4] = [[true, true], [true, false], [false, true], [false, false]];
 

@@ -181,14 +181,10 @@ fn hands(g: &mut Graph, arm: &Arm, k: &Layout, motion: &Motion) -> Vec<Hand> {
         .into_iter()
         .map(|slot| {
             let [facing, leading] = slot.labels;
-            let tag = format!(
-                "{}{}",
-                if facing { "f" } else { "a" },
-                if leading { "l" } else { "t" }
-            );
-            let score = g.name(
-                slot.score,
-                &format!("miss_{tag}"),
+            let tag = slot.tag([["f", "a"], ["l", "t"]]);
+            let score = slot.named_score(
+                g,
+                &tag,
                 "the residual of this label's root of the plane–line step (or of a spare root)",
             );
             let v = &slot.values;

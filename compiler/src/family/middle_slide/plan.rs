@@ -555,16 +555,8 @@ fn route_roots(
         .into_iter()
         .map(|slot| {
             let [facing, up] = slot.labels;
-            let tag = format!(
-                "{}{}",
-                if facing { "f" } else { "a" },
-                if up { "u" } else { "d" }
-            );
-            let score = g.name(
-                slot.score,
-                &format!("miss_{tag}"),
-                "the residual of this label's root (or of a spare root, when none has the label)",
-            );
+            let tag = slot.tag([["f", "a"], ["u", "d"]]);
+            let score = slot.named_score(g, &tag, route::SPARE_NOTE);
             let v = &slot.values;
             let names = ["q1", "d2", "q3"];
             let angles = [0, 1, 2]

@@ -271,16 +271,8 @@ pub fn solve(g: &mut Graph, arm: &Arm, t: &Target) -> Vec<CandidateLayout> {
     let mut out = Vec::with_capacity(8);
     for slot in slots(g, (arm, &k, &motion), t.reference4) {
         let [facing, leading] = slot.labels;
-        let tag = format!(
-            "{}{}",
-            if facing { "f" } else { "a" },
-            if leading { "l" } else { "t" }
-        );
-        let score = g.name(
-            slot.score,
-            &format!("miss_{tag}"),
-            "the residual of this label's root (or of a spare root, when none has the label)",
-        );
+        let tag = slot.tag([["f", "a"], ["l", "t"]]);
+        let score = slot.named_score(g, &tag, route::SPARE_NOTE);
         let v = &slot.values;
         let angles = [(0, 1), (1, 5), (2, 6)]
             .map(|(i, joint)| g.name(v[i], &format!("q{joint}_{tag}"), "this label's root"));
