@@ -155,4 +155,21 @@ impl<'a> Context<'a> {
     pub fn reject(&self, reason: Reason, joint: usize, notes: Vec<Note>) -> Rejection {
         Rejection::new(self.model, reason, Some(joint), notes)
     }
+
+    /// A rejection in a family's own words (`Reason::Family`: a short name, the message with
+    /// numbers in the file's units, the measured quantities), pointing at joint `joint`.
+    pub fn reject_family(
+        &self,
+        name: &'static str,
+        joint: usize,
+        message: String,
+        measures: Vec<(&'static str, super::reject::Quantity)>,
+    ) -> Rejection {
+        let reason = Reason::Family {
+            name,
+            message,
+            measures,
+        };
+        self.reject(reason, joint, Vec::new())
+    }
 }

@@ -20,7 +20,7 @@ use super::data::{Judged, Part, Value, VerifyHints};
 use super::{Family, FamilyModule, Recognition};
 use crate::classify::context::Context;
 use crate::classify::evidence::{arr, Measured};
-use crate::classify::reject::{Quantity, Reason, Rejection};
+use crate::classify::reject::{Quantity, Rejection};
 use crate::classify::{decoupled, ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::Plan;
@@ -47,22 +47,6 @@ pub struct BaseSlide;
 /// The registry's entry.
 pub static BASE_SLIDE: BaseSlide = BaseSlide;
 
-/// A rejection in the family's own words.
-fn rejection(
-    ctx: &Context,
-    name: &'static str,
-    joint: usize,
-    message: String,
-    measures: Vec<(&'static str, Quantity)>,
-) -> Rejection {
-    let reason = Reason::Family {
-        name,
-        message,
-        measures,
-    };
-    ctx.reject(reason, joint, Vec::new())
-}
-
 /// Degenerate base-slide arms: the wrist center on axis 3, or axes 2 and 3 parallel and ⟂
 /// the slide.
 fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
@@ -70,8 +54,7 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     let label = |n: usize| ctx.model.joint_label(n - 1);
     let distance = ctx.line(3).distance_to(center);
     if distance <= ctx.tol.distance {
-        return Err(rejection(
-            ctx,
+        return Err(ctx.reject_family(
             "base_slide_wrist_center_on_axis_3",
             3,
             format!(
@@ -86,8 +69,7 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     }
     let slide_angle = ctx.angle(1, 2);
     if ctx.parallel(2, 3) && slide_angle >= std::f64::consts::FRAC_PI_2 - ctx.tol.angle {
-        return Err(rejection(
-            ctx,
+        return Err(ctx.reject_family(
             "base_slide_no_height",
             1,
             format!(
@@ -115,8 +97,7 @@ fn not_built(ctx: &Context) -> Option<Rejection> {
     let label = |n: usize| ctx.model.joint_label(n - 1);
     if ctx.parallel(2, 3) {
         let angle = ctx.angle(2, 3);
-        return Some(rejection(
-            ctx,
+        return Some(ctx.reject_family(
             "base_slide_parallel_hinges",
             3,
             format!(
@@ -133,8 +114,7 @@ fn not_built(ctx: &Context) -> Option<Rejection> {
     }
     let gap = ctx.gap(2, 3);
     if gap <= ctx.tol.distance {
-        return Some(rejection(
-            ctx,
+        return Some(ctx.reject_family(
             "base_slide_axes_2_3_meet",
             3,
             format!(

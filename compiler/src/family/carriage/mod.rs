@@ -13,7 +13,7 @@ use super::data::{Judged, Part, Value, VerifyHints};
 use super::{Family, FamilyModule, Recognition};
 use crate::classify::context::Context;
 use crate::classify::evidence::{show_joint_values, wrap, Measured};
-use crate::classify::reject::{Quantity, Reason, Rejection};
+use crate::classify::reject::{Quantity, Rejection};
 use crate::classify::{decoupled, ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::{Arm, Plan};
@@ -42,22 +42,6 @@ pub struct Carriage;
 /// The registry's entry.
 pub static CARRIAGE: Carriage = Carriage;
 
-/// A degenerate carriage arm, in the family's own words.
-fn degenerate(
-    ctx: &Context,
-    name: &'static str,
-    joint: usize,
-    message: String,
-    measures: Vec<(&'static str, Quantity)>,
-) -> Rejection {
-    let reason = Reason::Family {
-        name,
-        message,
-        measures,
-    };
-    ctx.reject(reason, joint, Vec::new())
-}
-
 /// Carriage: the slides not parallel (they must span a plane), the wrist center off axis 3
 /// and axis 3 not ⟂ both slides (joint 3 must move the wrist center across them).
 fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
@@ -65,8 +49,7 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     let label = |n: usize| ctx.model.joint_label(n - 1);
     if ctx.parallel(1, 2) {
         let angle = ctx.angle(1, 2);
-        return Err(degenerate(
-            ctx,
+        return Err(ctx.reject_family(
             "carriage_slides_parallel",
             2,
             format!(
@@ -81,8 +64,7 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     }
     let distance = ctx.line(3).distance_to(center);
     if distance <= ctx.tol.distance {
-        return Err(degenerate(
-            ctx,
+        return Err(ctx.reject_family(
             "carriage_wrist_center_on_axis_3",
             3,
             format!(
@@ -102,8 +84,7 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     let sine = ctx.line(3).direction.cross(&normal).norm();
     if sine <= ctx.tol.angle {
         let angle = sine.min(1.0).asin();
-        return Err(degenerate(
-            ctx,
+        return Err(ctx.reject_family(
             "carriage_axis_3_across_slides",
             3,
             format!(

@@ -69,21 +69,6 @@ pub struct GeneralSlide;
 /// The registry's entry.
 pub static GENERAL_SLIDE: GeneralSlide = GeneralSlide;
 
-/// A degenerate arm of the family's shape.
-fn degenerate(
-    ctx: &Context,
-    (name, joint): (&'static str, usize),
-    message: String,
-    measures: Vec<(&'static str, Quantity)>,
-) -> Rejection {
-    let reason = Reason::Family {
-        name,
-        message,
-        measures,
-    };
-    ctx.reject(reason, joint, Vec::new())
-}
-
 /// The polar family's shape: axis 1 ∦ axis 2 and the slide ⟂ axis 2 (that family solves it).
 fn polar_shape(ctx: &Context) -> bool {
     !ctx.parallel(1, 2) && ctx.angle(2, 3) >= std::f64::consts::FRAC_PI_2 - ctx.tol.angle
@@ -100,9 +85,9 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
         }
         let angle = ctx.angle(2, 3);
         if angle >= std::f64::consts::FRAC_PI_2 - ctx.tol.angle {
-            return Err(degenerate(
-                ctx,
-                ("general_slide_no_height", 3),
+            return Err(ctx.reject_family(
+                "general_slide_no_height",
+                3,
                 format!(
                     "the axes of {} and {} are parallel and the slide of {} makes {} with them: \
                      no joint changes the wrist center's height along axis 1, so joints 1–3 \
@@ -119,9 +104,9 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     if ctx.parallel(2, 3) {
         let distance = ctx.line(2).distance_to(center);
         if distance <= ctx.tol.distance {
-            return Err(degenerate(
-                ctx,
-                ("general_slide_along_axis_2", 3),
+            return Err(ctx.reject_family(
+                "general_slide_along_axis_2",
+                3,
                 format!(
                     "the slide of {} runs along the axis of {} (angle {}) and the wrist center \
                      is on that axis ({} away): joint 2 cannot move the wrist center, so \

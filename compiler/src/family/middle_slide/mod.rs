@@ -19,7 +19,7 @@ use super::data::{Judged, Part, Value, VerifyHints};
 use super::{Family, FamilyModule, Recognition};
 use crate::classify::context::Context;
 use crate::classify::evidence::{arr, Measured};
-use crate::classify::reject::{Quantity, Reason, Rejection};
+use crate::classify::reject::{Quantity, Rejection};
 use crate::classify::{decoupled, ArmEvidence, Geometry, Singularity};
 use crate::model::Model;
 use crate::plan::Plan;
@@ -54,21 +54,6 @@ fn level(ctx: &Context) -> bool {
     ctx.angle(1, 2) >= FRAC_PI_2 - ctx.tol.angle
 }
 
-/// A rejection in the family's words.
-fn reject(
-    ctx: &Context,
-    (name, joint): (&'static str, usize),
-    message: String,
-    measures: Vec<(&'static str, Quantity)>,
-) -> Rejection {
-    let reason = Reason::Family {
-        name,
-        message,
-        measures,
-    };
-    ctx.reject(reason, joint, Vec::new())
-}
-
 /// Middle slide: the wrist center off axis 3 (joint 3 moves it); a level slide with axis 3
 /// not ∥ axis 1 (something changes the height along axis 1); a slide along axis 1 with axis 3
 /// not on axis 1 (joints 1 and 3 not about one line).
@@ -77,9 +62,9 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     let label = |n: usize| ctx.model.joint_label(n - 1);
     let distance = ctx.line(3).distance_to(center);
     if distance <= ctx.tol.distance {
-        return Err(reject(
-            ctx,
-            ("middle_slide_wrist_center_on_axis_3", 3),
+        return Err(ctx.reject_family(
+            "middle_slide_wrist_center_on_axis_3",
+            3,
             format!(
                 "joints 1–3 are R P R and the wrist center lies on the axis of {} ({} from \
                  it): joint 3 cannot move the wrist center, so joints 1 and 2 alone must place \
@@ -93,9 +78,9 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     }
     if level(ctx) && ctx.parallel(1, 3) {
         let angles = [ctx.angle(1, 2), ctx.angle(1, 3)];
-        return Err(reject(
-            ctx,
-            ("middle_slide_height_fixed", 3),
+        return Err(ctx.reject_family(
+            "middle_slide_height_fixed",
+            3,
             format!(
                 "joints 1–3 are R P R, the slide of {} is ⟂ axis 1 ({} to it) and the axis of \
                  {} is ∥ axis 1 ({} to it): no joint changes the wrist center's height along \
@@ -114,9 +99,9 @@ fn check(ctx: &Context, center: &Point3<f64>) -> Result<(), Rejection> {
     if ctx.parallel(1, 2) && ctx.parallel(1, 3) {
         let distance = ctx.gap(1, 3);
         if distance <= ctx.tol.distance {
-            return Err(reject(
-                ctx,
-                ("middle_slide_axes_1_and_3_one_line", 3),
+            return Err(ctx.reject_family(
+                "middle_slide_axes_1_and_3_one_line",
+                3,
                 format!(
                     "joints 1–3 are R P R, the slide of {} runs along axis 1 and the axis of {} \
                      is axis 1 ({} apart): joints 1 and 3 turn about one line, so the arm lacks \
